@@ -1,0 +1,27 @@
+// Package planar is sitecover's geometry kernel: it maps WGS84 longitude and
+// latitude to an accurate local plane in metres, decides orientation and
+// in-circle questions exactly, builds the Delaunay triangulation of the
+// device sites, clips each site's Voronoi cell to the site area, and measures
+// the exact area of a polygon intersected with a disk.
+//
+// Methods followed:
+//   - Projection: ellipsoidal transverse Mercator by the Krüger series to
+//     sixth order in the third flattening n (Karney, "Transverse Mercator
+//     with an accuracy of a few nanometers", J. Geodesy 85, 2011).
+//   - Predicates: orient2d and incircle with a floating-point filter and an
+//     exact expansion-arithmetic fallback (Shewchuk, "Adaptive precision
+//     floating-point arithmetic and fast robust geometric predicates",
+//     Discrete & Computational Geometry 18, 1997). Signs are exact for all
+//     finite float64 inputs.
+//   - Triangulation: incremental sweep-hull construction with Lawson edge
+//     flips, decided by the exact predicates; ties among cocircular points
+//     are broken the same way on every run.
+//   - Cells: the Voronoi cell of a site is the convex polygon whose vertices
+//     are the circumcentres of its Delaunay triangles; it is intersected
+//     with the site area (a polygon set with holes) edge by edge.
+//   - Areas: polygon ∩ disk by the closed form summed over polygon edges
+//     (each edge contributes a triangle part and a circular-sector part).
+//
+// Data lives in flat slices: float64 coordinates interleaved as x0, y0, x1,
+// y1, ... and int32 indices. There is no pointer per triangle or per cell.
+package planar
