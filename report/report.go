@@ -1,0 +1,241 @@
+// Package report turns a coverage analysis into the files a design review
+// reads: a fixed-width text report, a machine-readable summary.json, GIS
+// layers in GeoJSON (RFC 7946), PNG maps and PNG charts.
+//
+// Nothing here computes coverage: every figure comes from package coverage
+// (exact to floating-point rounding unless coverage states a tolerance, and
+// the report repeats that tolerance beside the figure). This package only
+// converts units and coordinates, rounds for display, and draws.
+//
+// Coordinates: the analysis works in a local plane in metres. For
+// geographic input Meta.ToLonLat maps plane points back to WGS84 longitude
+// and latitude; points in summary.json and the GeoJSON layers are then
+// [lon, lat] rounded to 7 decimals (about 1 cm). With Meta.Planar the
+// points stay [x, y] metres rounded to 3 decimals (1 mm), and the GeoJSON
+// layers are written under names ending in "-xy.geojson" because RFC 7946
+// requires WGS84 and a reader must not mistake them for it.
+//
+// Files are written atomically: each one goes to a temporary file in the
+// output folder and is renamed into place only when complete, so a reader
+// never sees a half-written file. A path that is one of the input files is
+// never written.
+package report
+
+import (
+	"fmt"
+	"strings"
+
+	"github.com/sitecover/sitecover/coverage"
+)
+
+// Meta describes the inputs of a run: what the analysis cannot know about
+// itself. The CLI fills it in.
+type Meta struct {
+	// Title heads the report and the maps (e.g. the site's name).
+	Title string
+	// Command is the CLI command that produced the run: "analyze",
+	// "cells", "gaps" or "demo".
+	Command string
+	// SitesFile, AreaFile and ExcludeFile are the input paths ("" when
+	// not given). Outputs never overwrite them.
+	SitesFile, AreaFile, ExcludeFile string
+	// SiteNames holds a name per input site index ("" for none). It may be
+	// shorter than the site list.
+	SiteNames []string
+	// Planar is true when the input coordinates were already local metres.
+	Planar bool
+	// Projection is a one-line description of the local plane (e.g.
+	// "transverse Mercator, WGS84, central meridian 8.54°E").
+	Projection string
+	// MaxScaleError is the largest |k − 1| of the projection over the
+	// extent of the inputs (0 with Planar).
+	MaxScaleError float64
+	// ToLonLat maps a local-plane point to WGS84 longitude and latitude in
+	// degrees; nil when Planar.
+	ToLonLat func(x, y float64) (lon, lat float64)
+	// AreaFromHull is true when no area was given and the sites' convex
+	// hull was used instead.
+	AreaFromHull bool
+	// LifeSafety is true when the devices were declared life-safety
+	// equipment (sirens, alarm call points, defibrillators): the report
+	// then puts the cautions first.
+	LifeSafety bool
+	// Warnings are the input warnings to repeat (sites outside the area,
+	// duplicates dropped, ...), one line each.
+	Warnings []string
+	// Timings are phases timed outside the analysis (e.g. "load inputs");
+	// summary.json lists them before the analysis phases.
+	Timings []coverage.Timing
+	// Version is the program version printed in the report.
+	Version string
+}
+
+// Options selects the optional outputs. The zero value writes the text
+// report, summary.json and the GeoJSON layers only.
+type Options struct {
+	// Maps enables the PNG maps.
+	Maps bool
+	// Charts enables the PNG charts (WriteAnalysis only).
+	Charts bool
+	// MapWidth is the width of the maps and charts in pixels; 0 means
+	// DefaultMapWidth. Values below MinMapWidth are raised to it.
+	MapWidth int
+	// Progress, when not nil, is called with each file name before the
+	// file is produced (for a progress line on a terminal).
+	Progress func(file string)
+}
+
+// DefaultMapWidth is the map width used when Options.MapWidth is 0.
+const DefaultMapWidth = 1600
+
+// MinMapWidth is the smallest map width drawn.
+const MinMapWidth = 400
+
+// Output file names. With Meta.Planar the GeoJSON names end in
+// "-xy.geojson" instead (see LayerFile).
+const (
+	FileReport          = "report.txt"
+	FileSummary         = "summary.json"
+	FileServiceAreas    = "service-areas.geojson"
+	FileGaps            = "gaps.geojson"
+	FileHoleClosings    = "hole-closings.geojson"
+	FileSites           = "sites.geojson"
+	FileMapServiceAreas = "map-service-areas.png"
+	FileMapCoverage     = "map-coverage.png"
+	FileChartCurve      = "chart-coverage-curve.png"
+	FileChartHoles      = "chart-hole-lifetimes.png"
+)
+
+// LayerFile returns the file name of a GeoJSON layer: name itself for
+// geographic input, or name with ".geojson" replaced by "-xy.geojson" for
+// planar input (local x/y metres, not RFC 7946 WGS84).
+func LayerFile(name string, planar bool) string {
+	if !planar {
+		return name
+	}
+	return strings.TrimSuffix(name, ".geojson") + "-xy.geojson"
+}
+
+// Files returns the names of the files WriteAnalysis (cells false) or
+// WriteCells (cells true) writes with the given Meta and Options, in the
+// order they are written.
+func Files(cells bool, m Meta, opt Options) []string {
+	var f []string
+	f = append(f, FileReport, FileSummary)
+	f = append(f, LayerFile(FileSites, m.Planar), LayerFile(FileServiceAreas, m.Planar))
+	if !cells {
+		f = append(f, LayerFile(FileGaps, m.Planar), LayerFile(FileHoleClosings, m.Planar))
+	}
+	if opt.Maps {
+		f = append(f, FileMapServiceAreas)
+		if !cells {
+			f = append(f, FileMapCoverage)
+		}
+	}
+	if opt.Charts && !cells {
+		f = append(f, FileChartCurve, FileChartHoles)
+	}
+	return f
+}
+
+// WriteAnalysis writes the full report of a (the files listed by
+// Files(false, m, opt)) into dir, creating dir if needed. It returns the
+// paths written. It refuses, before writing anything, when dir cannot be
+// created or written, or when an output path is one of the input files.
+func WriteAnalysis(dir string, a *coverage.Analysis, m Meta, opt Options) (written []string, err error) {
+	if a == nil || a.Layout == nil {
+		return nil, fmt.Errorf("report: no analysis to write")
+	}
+	w, err := newWriter(dir, Files(false, m, opt), m, opt.Progress)
+	if err != nil {
+		return nil, err
+	}
+	s := newScene(a.Layout, a, m)
+	steps := []step{
+		{FileReport, func() ([]byte, error) { return s.text(), nil }},
+		{FileSummary, func() ([]byte, error) { return Summary(a, m).MarshalIndent() }},
+		{LayerFile(FileSites, m.Planar), s.sitesLayer},
+		{LayerFile(FileServiceAreas, m.Planar), s.serviceAreasLayer},
+		{LayerFile(FileGaps, m.Planar), s.gapsLayer},
+		{LayerFile(FileHoleClosings, m.Planar), s.holesLayer},
+	}
+	width := mapWidth(opt)
+	if opt.Maps {
+		steps = append(steps,
+			step{FileMapServiceAreas, func() ([]byte, error) { return s.serviceAreaMap(width) }},
+			step{FileMapCoverage, func() ([]byte, error) { return s.coverageMap(width) }})
+	}
+	if opt.Charts {
+		steps = append(steps,
+			step{FileChartCurve, func() ([]byte, error) { return s.curveChart(width) }},
+			step{FileChartHoles, func() ([]byte, error) { return s.holeChart(width) }})
+	}
+	for _, st := range steps {
+		if err := w.write(st.name, st.make); err != nil {
+			return w.done, err
+		}
+	}
+	return w.done, nil
+}
+
+// WriteCells writes the service-area report of l (the files listed by
+// Files(true, m, opt)): a text report and summary.json without coverage
+// figures, the sites and service-area layers and, with opt.Maps, the
+// service-area map. Errors as for WriteAnalysis.
+func WriteCells(dir string, l *coverage.Layout, m Meta, opt Options) ([]string, error) {
+	if l == nil {
+		return nil, fmt.Errorf("report: no layout to write")
+	}
+	w, err := newWriter(dir, Files(true, m, opt), m, opt.Progress)
+	if err != nil {
+		return nil, err
+	}
+	s := newScene(l, nil, m)
+	steps := []step{
+		{FileReport, func() ([]byte, error) { return s.text(), nil }},
+		{FileSummary, func() ([]byte, error) { return CellsSummary(l, m).MarshalIndent() }},
+		{LayerFile(FileSites, m.Planar), s.sitesLayer},
+		{LayerFile(FileServiceAreas, m.Planar), s.serviceAreasLayer},
+	}
+	if opt.Maps {
+		width := mapWidth(opt)
+		steps = append(steps, step{FileMapServiceAreas, func() ([]byte, error) { return s.serviceAreaMap(width) }})
+	}
+	for _, st := range steps {
+		if err := w.write(st.name, st.make); err != nil {
+			return w.done, err
+		}
+	}
+	return w.done, nil
+}
+
+// step is one output file and the function producing its bytes.
+type step struct {
+	name string
+	make func() ([]byte, error)
+}
+
+func mapWidth(opt Options) int {
+	w := opt.MapWidth
+	if w == 0 {
+		w = DefaultMapWidth
+	}
+	return max(w, MinMapWidth)
+}
+
+// Cautions returns the cautions printed at the end of every report (and
+// by the CLI's --help), as plain text lines without trailing newline.
+func Cautions() string {
+	return strings.Join(cautionLines, "\n")
+}
+
+var cautionLines = []string{
+	"- Coverage is modelled as straight-line disks of one common range. Walls,",
+	"  floors, terrain, foliage, vehicles, weather and radio interference are",
+	"  ignored; real ranges are shorter and uneven. Survey before committing.",
+	"- For life-safety devices (sirens, alarm call points, defibrillator",
+	"  cabinets) follow the local codes and licensed practice of the fire,",
+	"  medical and electrical authorities, and verify every position on site.",
+	"- The figures are planning aids for a design review, not a certificate of",
+	"  compliance or of service.",
+}
