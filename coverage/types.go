@@ -101,4 +101,7 @@ type Persistence struct {
 	// LinkRange is the longest edge of the Euclidean minimum spanning tree:
 	// the link distance a mesh of the devices needs to be connected.
 	LinkRange float64
+	// Vertices is the number of distinct sites (exact duplicates count
+	// once): the number of pieces at range 0.
+	Vertices int
 }
