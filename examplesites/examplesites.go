@@ -1,0 +1,85 @@
+// Package examplesites embeds an invented demo campus for sitecover: the
+// Quillmere Science Park, with forty environmental sensors to be served by
+// one common radio range.
+//
+// All of it is invented: the park, its outline, buildings, pond, quarry and
+// sensor names describe no real place or installation. The campus was laid
+// out in local metres and placed at an arbitrary point in open country
+// (44.3771° N, 99.8623° W) by the inverse of a transverse Mercator projection
+// (PROJ, WGS84), so that it exercises the geographic input path. The files
+// are made by gen_campus.py in this folder, which also writes
+// campus-reference.json: figures computed with GEOS (shapely), GUDHI and
+// GeographicLib for the command's tests.
+//
+// The layout is meant to give a design review something to find: at the
+// planned range of 120 m about 97% of the park is covered and ten gaps
+// remain (one enclosed by coverage, the rest against the boundary or the
+// pond and quarry); every point is covered from about 166 m.
+//
+// Coordinates follow RFC 7946: [longitude, latitude] in WGS84 degrees, 7
+// decimals, counter-clockwise exterior rings.
+package examplesites
+
+import (
+	_ "embed"
+)
+
+// Title is the demo campus's display name.
+const Title = "Quillmere Science Park (invented demo campus)"
+
+// PlannedRange is the planned device range of the demo, in metres.
+const PlannedRange = 120.0
+
+// File names of the embedded data, as they appear in messages and reports.
+const (
+	AreaFile      = "campus-area.geojson"
+	SitesFile     = "campus-sensors.geojson"
+	SitesCSVFile  = "campus-sensors.csv"
+	BuildingsFile = "campus-buildings.geojson"
+	ReferenceFile = "campus-reference.json"
+)
+
+//go:embed campus-area.geojson
+var area []byte
+
+//go:embed campus-sensors.geojson
+var sites []byte
+
+//go:embed campus-sensors.csv
+var sitesCSV []byte
+
+//go:embed campus-buildings.geojson
+var buildings []byte
+
+//go:embed campus-reference.json
+var reference []byte
+
+// Campus returns the demo campus: the sensor sites (GeoJSON FeatureCollection
+// of Points with "id" and "name" properties), the area (GeoJSON
+// FeatureCollection: the park's Polygon boundary, then the pond and the
+// quarry as Polygons with "exclude": true), the planned range in metres and
+// the title. The byte slices are fresh copies the caller may modify.
+func Campus() (sites, area []byte, rangeM float64, title string) {
+	return SitesGeoJSON(), AreaGeoJSON(), PlannedRange, Title
+}
+
+// AreaGeoJSON returns a copy of campus-area.geojson.
+func AreaGeoJSON() []byte { return clone(area) }
+
+// SitesGeoJSON returns a copy of campus-sensors.geojson: 40 Point features.
+func SitesGeoJSON() []byte { return clone(sites) }
+
+// SitesCSV returns a copy of campus-sensors.csv: the same 40 sites as
+// SitesGeoJSON, in the same order, with columns id, name, lat, lon.
+func SitesCSV() []byte { return clone(sitesCSV) }
+
+// BuildingsGeoJSON returns a copy of campus-buildings.geojson: named Point
+// features for the park's buildings (not used by the coverage analysis).
+func BuildingsGeoJSON() []byte { return clone(buildings) }
+
+// ReferenceJSON returns a copy of campus-reference.json: the campus's
+// figures at the planned range computed outside sitecover (see
+// gen_campus.py for the tools and tolerances).
+func ReferenceJSON() []byte { return clone(reference) }
+
+func clone(b []byte) []byte { return append([]byte(nil), b...) }
