@@ -17,27 +17,22 @@ Besides the data files, the script writes campus-reference.json with figures
 computed OUTSIDE sitecover, for the command's tests:
   - area_m2_geodesic: the geodesic area of the campus less pond and quarry,
     by GeographicLib `Planimeter` on the written lon/lat vertices;
-  - area_m2_plane, covered fraction, uncovered area and gaps at the planned
-    range: GEOS (shapely) in the local plane, disks as 1024-gons clipped to
-    each site's Voronoi cell (relative area error about 1e-5);
-  - full_cover_range_m: the largest distance from a vertex of (Voronoi cell
-    of site i, GEOS voronoi_diagram) intersected with the area to site i;
-    the maximum of the nearest-site distance over a cell is attained at such
-    a vertex, so this is exact up to rounding;
-  - range percentiles: bisection on the GEOS uncovered area;
-  - holes: H1 persistence of the GUDHI alpha complex (square roots of its
-    squared-radius filtration values).
+  - everything else (area in the plane, full-cover range, uncovered area,
+    gaps, percentiles, holes) by cmd/sitecover/testdata/ref_scene.py with
+    GEOS (shapely) and GUDHI; its header states the methods and tolerances.
 """
 
 import json
 import math
 import os
 import subprocess
+import sys
 
-from shapely.geometry import MultiPoint, Point, Polygon
-from shapely.ops import unary_union, voronoi_diagram
+from shapely.geometry import Polygon
 
 HERE = os.path.dirname(os.path.abspath(__file__))
+sys.path.insert(0, os.path.join(HERE, "..", "cmd", "sitecover", "testdata"))
+from ref_scene import reference  # noqa: E402  (GEOS/GUDHI reference figures)
 LAT0, LON0 = 44.3771, -99.8623
 TMERC = ["+proj=tmerc", "+lat_0=%r" % LAT0, "+lon_0=%r" % LON0, "+ellps=WGS84", "+k_0=1"]
 PLANNED_RANGE = 120.0
@@ -196,95 +191,15 @@ def main():
     assert area.is_valid
     sites = forward(sensors_ll)
     ref = reference(area, sites, PLANNED_RANGE)
+    ref["area_m2_plane"] = ref.pop("area_m2")
     ref["area_m2_geodesic"] = (planimeter(boundary_ll) - planimeter(pond_ll)
                                - planimeter(quarry_ll))
     ref["sites"] = len(sites)
     ref["planned_range_m"] = PLANNED_RANGE
-    ref["source"] = ("examplesites/gen_campus.py: GEOS (shapely %s), GUDHI, GeographicLib "
-                     "Planimeter, PROJ" % __import__("shapely").__version__)
+    ref["source"] = ("examplesites/gen_campus.py with " + ref["source"] +
+                     ", GeographicLib Planimeter, PROJ invproj/proj")
     write_json("campus-reference.json", ref)
     print(json.dumps({k: v for k, v in ref.items() if k != "gaps"}, indent=1))
-
-
-def reference(area, sites, r, quad=256):
-    """Coverage figures for sites (local metres) in a shapely area."""
-    mp = MultiPoint([Point(p) for p in sites])
-    env = area.envelope.buffer(10 * max(area.bounds[2] - area.bounds[0],
-                                        area.bounds[3] - area.bounds[1]))
-    vd = voronoi_diagram(mp, envelope=env)
-    cells = []
-    for cell in vd.geoms:
-        owner = min(range(len(sites)), key=lambda i: cell.distance(Point(sites[i])))
-        cells.append((owner, cell.intersection(area)))
-    full, worst = 0.0, None
-
-    def verts(g):
-        polys = getattr(g, "geoms", [g])
-        for p in polys:
-            if p.is_empty or p.geom_type != "Polygon":
-                continue
-            yield from p.exterior.coords
-            for h in p.interiors:
-                yield from h.coords
-    for i, c in cells:
-        for v in verts(c):
-            d = math.dist(v, sites[i])
-            if d > full:
-                full, worst = d, v
-
-    def uncovered(rr):
-        total = 0.0
-        for i, c in cells:
-            if not c.is_empty:
-                total += c.difference(Point(sites[i]).buffer(rr, quad)).area
-        return total
-
-    total = area.area
-    pct = {}
-    for q in (50, 90, 95, 99):
-        lo, hi = 0.0, full
-        for _ in range(40):
-            mid = (lo + hi) / 2
-            if 1 - uncovered(mid) / total >= q / 100:
-                hi = mid
-            else:
-                lo = mid
-        pct["p%d" % q] = hi
-    # Components from the difference with the union of all disks (cell
-    # pieces would not merge reliably along shared cell edges).
-    u = area.difference(unary_union([Point(p).buffer(r, quad) for p in sites]))
-    comps = [g for g in getattr(u, "geoms", [u]) if not g.is_empty and g.area > 1e-6]
-    gaps = []
-    for g in comps:
-        closing = 0.0
-        for i, c in cells:
-            inter = c.intersection(g)
-            for v in verts(inter):
-                closing = max(closing, math.dist(v, sites[i]))
-        touches = g.buffer(1e-3).intersects(area.boundary)
-        gaps.append({"area_m2": g.area, "closing_range_m": closing,
-                     "touches_boundary": bool(touches)})
-    gaps.sort(key=lambda g: -g["closing_range_m"])
-    holes = []
-    try:
-        import gudhi
-        st = gudhi.AlphaComplex(points=[list(p) for p in sites]).create_simplex_tree()
-        for dim, (b, d) in st.persistence():
-            if dim == 1 and d != float("inf") and d > b:
-                holes.append({"birth_m": math.sqrt(b), "death_m": math.sqrt(d)})
-        holes.sort(key=lambda h: -(h["death_m"] - h["birth_m"]))
-    except ImportError:
-        pass
-    return {
-        "area_m2_plane": total,
-        "full_cover_range_m": full,
-        "full_cover_worst_xy": list(worst),
-        "uncovered_area_m2": uncovered(r),
-        "covered_fraction": 1 - uncovered(r) / total,
-        "range_percentiles": pct,
-        "gaps": gaps,
-        "holes": holes,
-    }
 
 
 if __name__ == "__main__":

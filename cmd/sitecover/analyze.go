@@ -1,0 +1,229 @@
+// The analyze command, and the run shared by analyze, gaps and demo:
+// load and project the inputs, run coverage.Analyze at the planned range,
+// write the report folder, and print a short summary (or summary.json with
+// --json) on stdout. Every figure printed is copied from summary.json's
+// document (report.Summary), so stdout and the files agree.
+
+package main
+
+import (
+	"fmt"
+	"io"
+	"os"
+	"path/filepath"
+	"strings"
+
+	"github.com/sitecover/sitecover/coverage"
+	"github.com/sitecover/sitecover/report"
+	"github.com/spf13/cobra"
+)
+
+func newAnalyzeCmd(e *env) *cobra.Command {
+	f := &runFlags{}
+	cmd := &cobra.Command{
+		Use:   "analyze --sites FILE [--area FILE] --range LENGTH [flags]",
+		Short: "Full report: coverage, gaps, full-cover range, service areas, holes, maps",
+		Long: `analyze writes the full report of a layout at the planned range into the
+output folder: report.txt, summary.json, GeoJSON layers (sites, service areas,
+gaps, hole closing points), PNG maps (service areas; coverage with gaps) and
+PNG charts (covered share against range; hole lifetimes).
+
+The range takes a unit: m, km, ft (0.3048 m) or mi (1609.344 m); a plain
+number is metres.`,
+		Example: `  sitecover analyze --sites sensors.geojson --area campus.geojson --range 120m
+  sitecover analyze --sites sensors.csv --area campus.geojson --exclude ponds.geojson --range 400ft
+  sitecover analyze --sites gateways.csv --range 2km --out gw-report --json > summary.json
+  sitecover analyze --planar --sites plan-xy.csv --area plan-xy.geojson --range 25`,
+		Args: noArgs,
+		RunE: func(cmd *cobra.Command, args []string) error {
+			if err := requireFlags(cmd, "sites", "range"); err != nil {
+				return err
+			}
+			r, err := parseRange(f.rangeText)
+			if err != nil {
+				return inputErrorf("%v", err)
+			}
+			in, err := f.inputs()
+			if err != nil {
+				return err
+			}
+			return asInput(runAnalysis(e, "analyze", f, in, r, true))
+		},
+	}
+	f.addInputFlags(cmd.Flags())
+	f.addRangeFlag(cmd.Flags(), "", "planned range of every device, e.g. 150m, 0.2km, 500ft, 0.1mi (required)")
+	f.addOutputFlags(cmd.Flags(), true)
+	return cmd
+}
+
+// runAnalysis is the analyze/gaps/demo pipeline. With charts false the
+// PNG charts are skipped and the gap table is printed (the gaps command).
+func runAnalysis(e *env, command string, f *runFlags, in sceneInputs, r float64, charts bool) error {
+	pr := startProgress(e.stderr, e.terminal)
+	defer pr.end()
+	pr.set("reading inputs")
+	sc, err := loadScene(in)
+	if err != nil {
+		return err
+	}
+	if err := checkOutDir(f.out); err != nil {
+		return err
+	}
+	sc.setMeta(command, f)
+	pr.set(fmt.Sprintf("analysing %d sites", len(sc.sites)))
+	a, err := coverage.Analyze(sc.sites, sc.region, r, coverage.Options{})
+	if err != nil {
+		return inputErrorf("%s: %v", inputNames(in), err)
+	}
+	opt := report.Options{
+		Maps:     !f.noMaps,
+		Charts:   !f.noMaps && charts,
+		MapWidth: f.mapWidth,
+		Progress: func(file string) { pr.set("writing " + file) },
+	}
+	written, err := report.WriteAnalysis(f.out, a, sc.meta, opt)
+	pr.end()
+	if err != nil {
+		return inputErrorf("%v", err)
+	}
+	doc := report.Summary(a, sc.meta)
+	printWarnings(e.stderr, doc.Warnings)
+	if f.json {
+		return printSummaryFile(e.stdout, f.out)
+	}
+	printAnalysis(e.stdout, doc, sc.meta)
+	if !charts {
+		printGapTable(e.stdout, doc, sc.meta)
+	}
+	printWritten(e.stdout, f.out, written)
+	return nil
+}
+
+// setMeta fills the report metadata from the flags.
+func (sc *scene) setMeta(command string, f *runFlags) {
+	sc.meta.Command = command
+	sc.meta.Version = strings.TrimPrefix(versionString(), "sitecover ")
+	sc.meta.LifeSafety = f.lifeSafety
+	if f.title != "" {
+		sc.meta.Title = f.title
+	}
+}
+
+// inputNames lists the input names for messages about the whole scene.
+func inputNames(in sceneInputs) string {
+	s := in.sites.name
+	if in.area != nil {
+		s += ", " + in.area.name
+	}
+	if in.exclude != nil {
+		s += ", " + in.exclude.name
+	}
+	return s
+}
+
+// printWarnings repeats the report's warnings on stderr.
+func printWarnings(w io.Writer, warnings []string) {
+	for _, s := range warnings {
+		fmt.Fprintf(w, "sitecover: warning: %s\n", s)
+	}
+}
+
+// printSummaryFile copies the written summary.json to w, byte for byte.
+func printSummaryFile(w io.Writer, dir string) error {
+	b, err := os.ReadFile(filepath.Join(dir, report.FileSummary))
+	if err != nil {
+		return inputErrorf("reading back %s: %v", report.FileSummary, unwrapPathErr(err))
+	}
+	_, err = w.Write(b)
+	return err
+}
+
+// printAnalysis prints the headline figures of an analysis.
+func printAnalysis(w io.Writer, d *report.SummaryDoc, m report.Meta) {
+	if m.Title != "" {
+		fmt.Fprintln(w, m.Title)
+	}
+	enclosed := 0
+	for _, g := range d.Gaps {
+		if !g.TouchesBoundary {
+			enclosed++
+		}
+	}
+	area := "site area"
+	if d.AreaFromHull {
+		area = "site area (convex hull of the sites)"
+	}
+	fmt.Fprintf(w, "  %-24s %d\n", "sites", d.Sites)
+	fmt.Fprintf(w, "  %-24s %s m²\n", area, fmtNum(d.AreaM2, 1))
+	fmt.Fprintf(w, "  %-24s %s m\n", "planned range", fmtNum(d.RangeM, 2))
+	fmt.Fprintf(w, "  %-24s %s %% (%s m² uncovered in %d gaps, %d enclosed)\n", "covered at planned range",
+		fmtNum(100*d.CoveredFraction, 2), fmtNum(d.UncoveredAreaM2, 1), len(d.Gaps), enclosed)
+	where := ""
+	if len(d.FullCoverWorstPoints) > 0 {
+		where = " at " + fmtPoint(d.FullCoverWorstPoint, d.Coordinates)
+		if n := len(d.FullCoverWorstPoints); n > 1 {
+			where += fmt.Sprintf(" and %d more", n-1)
+		}
+	}
+	fmt.Fprintf(w, "  %-24s %s m, needed%s\n", "full-cover range", fmtNum(d.FullCoverRangeM, 2), where)
+	p := d.RangePercentiles
+	fmt.Fprintf(w, "  %-24s 50%%: %s m  90%%: %s m  95%%: %s m  99%%: %s m\n", "range covering",
+		fmtNum(p.P50, 1), fmtNum(p.P90, 1), fmtNum(p.P95, 1), fmtNum(p.P99, 1))
+	fmt.Fprintf(w, "  %-24s %s m\n", "link range (mesh)", fmtNum(d.LinkRangeM, 2))
+}
+
+// printGapTable prints the gaps at the planned range, by closing range.
+func printGapTable(w io.Writer, d *report.SummaryDoc, m report.Meta) {
+	if len(d.Gaps) == 0 {
+		fmt.Fprintf(w, "No gaps at %s m.\n", fmtNum(d.RangeM, 2))
+		return
+	}
+	fmt.Fprintf(w, "\nGaps at %s m, by closing range:\n", fmtNum(d.RangeM, 2))
+	fmt.Fprintf(w, "  %4s  %12s  %11s  %-26s  %-8s  %s\n", "gap", "area m²", "closing m", "deepest point", "where", "nearby sites")
+	for _, g := range d.Gaps {
+		kind := "edge"
+		if !g.TouchesBoundary {
+			kind = "enclosed"
+		}
+		var sites []string
+		for k, s := range g.Sites {
+			if k == 6 {
+				sites = append(sites, fmt.Sprintf("+%d", len(g.Sites)-k))
+				break
+			}
+			sites = append(sites, siteLabel(m, s))
+		}
+		fmt.Fprintf(w, "  %4d  %12s  %11s  %-26s  %-8s  %s\n", g.ID, fmtNum(g.AreaM2, 1), fmtNum(g.ClosingRangeM, 2),
+			fmtPoint(g.DeepestPoint, d.Coordinates), kind, strings.Join(sites, ", "))
+	}
+}
+
+// siteLabel is "#i name" or "#i" for input site i.
+func siteLabel(m report.Meta, i int) string {
+	if i >= 0 && i < len(m.SiteNames) && m.SiteNames[i] != "" {
+		return fmt.Sprintf("#%d %s", i, m.SiteNames[i])
+	}
+	return fmt.Sprintf("#%d", i)
+}
+
+// printWritten lists the files written.
+func printWritten(w io.Writer, dir string, written []string) {
+	names := make([]string, len(written))
+	for i, p := range written {
+		names[i] = filepath.Base(p)
+	}
+	fmt.Fprintf(w, "Wrote %d files to %s: %s\n", len(written), dir, strings.Join(names, ", "))
+}
+
+// fmtNum formats v with d decimals.
+func fmtNum(v float64, d int) string { return fmt.Sprintf("%.*f", d, v) }
+
+// fmtPoint formats an output point for reading: geographic points with
+// hemisphere letters (so the order cannot be misread; 1e-6° is at most
+// 11 cm), local points as x and y metres.
+func fmtPoint(p report.Point, kind string) string {
+	if kind == "lon_lat" {
+		return degrees(p[1], "N", "S", 6) + " " + degrees(p[0], "E", "W", 6)
+	}
+	return fmt.Sprintf("x %.2f y %.2f", p[0], p[1])
+}

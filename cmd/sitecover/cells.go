@@ -1,0 +1,107 @@
+// The cells command: service areas only. Each site's service area is its
+// Voronoi cell clipped to the site area: the part of the site closer to it
+// than to any other site (exact polygons, see package planar). No range is
+// needed.
+
+package main
+
+import (
+	"fmt"
+	"io"
+
+	"github.com/sitecover/sitecover/coverage"
+	"github.com/sitecover/sitecover/report"
+	"github.com/spf13/cobra"
+)
+
+func newCellsCmd(e *env) *cobra.Command {
+	f := &runFlags{}
+	cmd := &cobra.Command{
+		Use:   "cells --sites FILE [--area FILE] [flags]",
+		Short: "Service areas: which device serves which part of the site",
+		Long: `cells writes the service area of every site - the part of the site area
+closer to it than to any other site (its Voronoi cell clipped to the area) -
+with its size, share and farthest point: report.txt, summary.json, the sites
+and service-area GeoJSON layers and the service-area map.`,
+		Example: `  sitecover cells --sites sirens.csv --area town.geojson
+  sitecover cells --sites call-points.geojson --area building.geojson --out cells --no-maps
+  sitecover cells --planar --sites plan-xy.csv --area plan-xy.geojson --json`,
+		Args: noArgs,
+		RunE: func(cmd *cobra.Command, args []string) error {
+			if err := requireFlags(cmd, "sites"); err != nil {
+				return err
+			}
+			in, err := f.inputs()
+			if err != nil {
+				return err
+			}
+			return asInput(runCells(e, f, in))
+		},
+	}
+	f.addInputFlags(cmd.Flags())
+	f.addOutputFlags(cmd.Flags(), true)
+	return cmd
+}
+
+func runCells(e *env, f *runFlags, in sceneInputs) error {
+	pr := startProgress(e.stderr, e.terminal)
+	defer pr.end()
+	pr.set("reading inputs")
+	sc, err := loadScene(in)
+	if err != nil {
+		return err
+	}
+	if err := checkOutDir(f.out); err != nil {
+		return err
+	}
+	sc.setMeta("cells", f)
+	pr.set(fmt.Sprintf("service areas of %d sites", len(sc.sites)))
+	l, err := coverage.NewLayout(sc.sites, sc.region)
+	if err != nil {
+		return inputErrorf("%s: %v", inputNames(in), err)
+	}
+	opt := report.Options{
+		Maps:     !f.noMaps,
+		MapWidth: f.mapWidth,
+		Progress: func(file string) { pr.set("writing " + file) },
+	}
+	written, err := report.WriteCells(f.out, l, sc.meta, opt)
+	pr.end()
+	if err != nil {
+		return inputErrorf("%v", err)
+	}
+	doc := report.CellsSummary(l, sc.meta)
+	printWarnings(e.stderr, doc.Warnings)
+	if f.json {
+		return printSummaryFile(e.stdout, f.out)
+	}
+	printCells(e.stdout, doc, sc.meta)
+	printWritten(e.stdout, f.out, written)
+	return nil
+}
+
+// printCells prints the headline figures of the service areas.
+func printCells(w io.Writer, d *report.CellsDoc, m report.Meta) {
+	if m.Title != "" {
+		fmt.Fprintln(w, m.Title)
+	}
+	fmt.Fprintf(w, "  %-24s %d (%d service areas)\n", "sites", d.Sites, len(d.Cells))
+	fmt.Fprintf(w, "  %-24s %s m²\n", "site area", fmtNum(d.AreaM2, 1))
+	big, far := -1, -1
+	for i, c := range d.Cells {
+		if big < 0 || c.AreaM2 > d.Cells[big].AreaM2 {
+			big = i
+		}
+		if far < 0 || c.FarthestM > d.Cells[far].FarthestM {
+			far = i
+		}
+	}
+	if big >= 0 {
+		c := d.Cells[big]
+		fmt.Fprintf(w, "  %-24s %s: %s m² (%s %% of the area)\n", "largest service area", siteLabel(m, c.Site),
+			fmtNum(c.AreaM2, 1), fmtNum(100*c.Share, 2))
+		c = d.Cells[far]
+		fmt.Fprintf(w, "  %-24s %s: %s m to %s\n", "farthest served point", siteLabel(m, c.Site),
+			fmtNum(c.FarthestM, 2), fmtPoint(c.FarthestPoint, d.Coordinates))
+	}
+}

@@ -1,0 +1,171 @@
+// Loading the site area and the zones that need no coverage.
+//
+// The area is GeoJSON: Polygon and MultiPolygon features (also inside a
+// GeometryCollection). The holes of a polygon are zones that need no
+// coverage, and so is every polygon of a feature whose "exclude" property
+// is true, and every polygon of the --exclude file. Rings may be given
+// closed (RFC 7946) or open, in either orientation (planar.NewRegion drops
+// the closing repeat and repeated consecutive vertices, and orients the
+// rings). Every vertex is checked (see coordProblem), naming the feature,
+// polygon, ring and vertex (all 0-based, as in the file).
+//
+// Assembling the polygons into one region happens after projection (see
+// scene.go), where the exclusion zones become holes of the polygon that
+// contains them.
+
+package main
+
+import (
+	"encoding/json"
+	"fmt"
+	"strings"
+
+	"github.com/paulmach/orb"
+)
+
+// areaPoly is one input polygon.
+type areaPoly struct {
+	// Rings are the exterior ring then the holes, as given (closed or
+	// open), in input coordinates.
+	Rings []orb.Ring
+	// Where names it in messages, e.g. "area.geojson feature 2 polygon 1".
+	Where string
+	// Exclude is true for a zone that needs no coverage.
+	Exclude bool
+	// Name is the feature's "name" property ("" for none).
+	Name string
+}
+
+// loadArea reads the polygons of src. With excludeAll every polygon is an
+// exclusion zone (the --exclude file).
+func loadArea(src source, planarInput, excludeAll bool) ([]areaPoly, error) {
+	f, err := detectFormat(src)
+	if err != nil {
+		return nil, err
+	}
+	if f != formatGeoJSON {
+		return nil, inputErrorf("%s: an area must be GeoJSON with Polygon or MultiPolygon features (CSV holds points only)", src.name)
+	}
+	feats, err := decodeGeoJSON(src)
+	if err != nil {
+		return nil, err
+	}
+	var out []areaPoly
+	for i := range feats {
+		ft := &feats[i]
+		where := fmt.Sprintf("%s feature %d", src.name, i)
+		if ft.Geometry == nil {
+			return nil, inputErrorf("%s: no geometry (null), expected Polygon or MultiPolygon", where)
+		}
+		props, err := featureProps(src, i, ft)
+		if err != nil {
+			return nil, err
+		}
+		exclude := excludeAll
+		if raw, ok := props["exclude"]; ok {
+			var b *bool
+			if json.Unmarshal(raw, &b) != nil {
+				return nil, inputErrorf("%s: property \"exclude\" must be true or false, got %s", where, strings.TrimSpace(string(raw)))
+			}
+			if b != nil && *b {
+				exclude = true
+			}
+		}
+		name := jsonText(props["name"])
+		polys, err := polygonsOf(where, ft.Geometry, planarInput)
+		if err != nil {
+			return nil, err
+		}
+		for k := range polys {
+			polys[k].Exclude = exclude
+			polys[k].Name = name
+		}
+		out = append(out, polys...)
+	}
+	if len(out) == 0 {
+		return nil, inputErrorf("%s: no Polygon or MultiPolygon features", src.name)
+	}
+	return out, nil
+}
+
+// polygonsOf decodes the polygons of one geometry.
+func polygonsOf(where string, g *gjGeometry, planarInput bool) ([]areaPoly, error) {
+	switch g.Type {
+	case "Polygon":
+		var rings [][][]float64
+		if err := decodeCoords(g.Coordinates, &rings); err != nil {
+			return nil, inputErrorf("%s: Polygon coordinates: %v", where, err)
+		}
+		p, err := polygonRings(where, rings, planarInput)
+		if err != nil {
+			return nil, err
+		}
+		return []areaPoly{{Rings: p, Where: where}}, nil
+	case "MultiPolygon":
+		var polys [][][][]float64
+		if err := decodeCoords(g.Coordinates, &polys); err != nil {
+			return nil, inputErrorf("%s: MultiPolygon coordinates: %v", where, err)
+		}
+		out := make([]areaPoly, 0, len(polys))
+		for k, rings := range polys {
+			w := fmt.Sprintf("%s polygon %d", where, k)
+			p, err := polygonRings(w, rings, planarInput)
+			if err != nil {
+				return nil, err
+			}
+			out = append(out, areaPoly{Rings: p, Where: w})
+		}
+		return out, nil
+	case "GeometryCollection":
+		var out []areaPoly
+		for k := range g.Geometries {
+			p, err := polygonsOf(fmt.Sprintf("%s geometry %d", where, k), &g.Geometries[k], planarInput)
+			if err != nil {
+				return nil, err
+			}
+			out = append(out, p...)
+		}
+		return out, nil
+	case "":
+		return nil, inputErrorf("%s: geometry has no \"type\"", where)
+	default:
+		return nil, inputErrorf("%s: geometry type %s, expected Polygon or MultiPolygon (an area is polygons)", where, g.Type)
+	}
+}
+
+// polygonRings checks the rings of one polygon. Rings are kept exactly as
+// given (so vertex indices in later messages match the file); only their
+// coordinates and their number of distinct vertices are checked here.
+func polygonRings(where string, rings [][][]float64, planarInput bool) ([]orb.Ring, error) {
+	if len(rings) == 0 {
+		return nil, inputErrorf("%s: polygon has no rings", where)
+	}
+	out := make([]orb.Ring, 0, len(rings))
+	for k, r := range rings {
+		ring := make(orb.Ring, 0, len(r))
+		for v, pos := range r {
+			x, y, problem := position(pos)
+			if problem == "" {
+				problem = coordProblem(planarInput, x, y)
+			}
+			if problem != "" {
+				return nil, inputErrorf("%s ring %d vertex %d: %s", where, k, v, problem)
+			}
+			ring = append(ring, orb.Point{x, y})
+		}
+		distinct := 0
+		for v := range ring {
+			if v == 0 || ring[v] != ring[v-1] {
+				distinct++
+			}
+		}
+		if n := len(ring); distinct > 1 && ring[n-1] == ring[0] {
+			distinct-- // the closing repeat
+		}
+		if distinct < 3 {
+			return nil, inputErrorf("%s ring %d: %d distinct vertices, a ring needs at least 3", where, k, distinct)
+		}
+		out = append(out, ring)
+	}
+	return out, nil
+}

@@ -1,0 +1,298 @@
+// Reading input files and decoding GeoJSON (RFC 7946).
+//
+// A GeoJSON input may be a FeatureCollection, a single Feature or a bare
+// geometry; GeometryCollections are walked member by member. Positions are
+// [x, y] or [x, y, z] arrays of JSON numbers (z is ignored): with
+// geographic input x is the longitude and y the latitude in WGS84 degrees
+// (RFC 7946 §3.1.1), with --planar they are local metres. Every error names
+// the file and, where it applies, the feature index (0-based, the order in
+// the file), the ring and vertex, or the JSON line.
+//
+// JSON has no NaN or infinity literal, so a non-finite coordinate in a
+// GeoJSON file is a JSON syntax error, reported with its line.
+
+package main
+
+import (
+	"bytes"
+	"encoding/json"
+	"errors"
+	"fmt"
+	"io/fs"
+	"math"
+	"os"
+	"path/filepath"
+	"strconv"
+	"strings"
+)
+
+// source is the bytes of one input with the name used in messages.
+type source struct {
+	// name is the path as given (or a label for embedded data).
+	name string
+	// path is the file path for overwrite protection ("" when embedded).
+	path string
+	data []byte
+}
+
+// readSource reads the file given to flag (e.g. "--sites").
+func readSource(path, flag string) (source, error) {
+	fi, err := os.Stat(path)
+	switch {
+	case errors.Is(err, fs.ErrNotExist):
+		return source{}, inputErrorf("%s: no such file (given to %s)", path, flag)
+	case err != nil:
+		return source{}, inputErrorf("%s: cannot read: %v", path, unwrapPathErr(err))
+	case fi.IsDir():
+		return source{}, inputErrorf("%s: is a folder, not a file (given to %s)", path, flag)
+	}
+	b, err := os.ReadFile(path)
+	if err != nil {
+		return source{}, inputErrorf("%s: cannot read: %v", path, unwrapPathErr(err))
+	}
+	b = bytes.TrimPrefix(b, []byte("\xef\xbb\xbf")) // UTF-8 byte order mark
+	if len(bytes.TrimSpace(b)) == 0 {
+		return source{}, inputErrorf("%s: file is empty", path)
+	}
+	return source{name: path, path: path, data: b}, nil
+}
+
+func unwrapPathErr(err error) error {
+	var pe *fs.PathError
+	if errors.As(err, &pe) {
+		return pe.Err
+	}
+	return err
+}
+
+// inputFormat is how a file is to be read.
+type inputFormat int
+
+const (
+	formatGeoJSON inputFormat = iota
+	formatCSV
+)
+
+// detectFormat decides GeoJSON or CSV from the extension, or else from the
+// content (JSON starts with '{').
+func detectFormat(src source) (inputFormat, error) {
+	switch strings.ToLower(filepath.Ext(src.name)) {
+	case ".geojson", ".json":
+		return formatGeoJSON, nil
+	case ".csv", ".tsv":
+		return formatCSV, nil
+	}
+	if bytes.IndexByte(src.data[:min(len(src.data), 4096)], 0) >= 0 {
+		return 0, inputErrorf("%s: not GeoJSON or CSV (binary data)", src.name)
+	}
+	if t := bytes.TrimSpace(src.data); t[0] == '{' || t[0] == '[' {
+		return formatGeoJSON, nil
+	}
+	return formatCSV, nil
+}
+
+// gjGeometry is a GeoJSON geometry object with its coordinates undecoded.
+type gjGeometry struct {
+	Type        string          `json:"type"`
+	Coordinates json.RawMessage `json:"coordinates"`
+	Geometries  []gjGeometry    `json:"geometries"`
+}
+
+// gjFeature is a GeoJSON Feature with its properties undecoded.
+type gjFeature struct {
+	Type       string          `json:"type"`
+	ID         json.RawMessage `json:"id"`
+	Properties json.RawMessage `json:"properties"`
+	Geometry   *gjGeometry     `json:"geometry"`
+}
+
+// gjDoc is any GeoJSON object: a FeatureCollection, a Feature or a
+// geometry.
+type gjDoc struct {
+	Type        string          `json:"type"`
+	Features    []gjFeature     `json:"features"`
+	ID          json.RawMessage `json:"id"`
+	Properties  json.RawMessage `json:"properties"`
+	Geometry    *gjGeometry     `json:"geometry"`
+	Coordinates json.RawMessage `json:"coordinates"`
+	Geometries  []gjGeometry    `json:"geometries"`
+}
+
+// decodeGeoJSON parses src and returns its features in file order.
+func decodeGeoJSON(src source) ([]gjFeature, error) {
+	var d gjDoc
+	if err := json.Unmarshal(src.data, &d); err != nil {
+		return nil, jsonError(src, err)
+	}
+	switch d.Type {
+	case "FeatureCollection":
+		for i, f := range d.Features {
+			if f.Type != "Feature" {
+				return nil, inputErrorf("%s feature %d: type %q, expected \"Feature\"", src.name, i, f.Type)
+			}
+		}
+		return d.Features, nil
+	case "Feature":
+		return []gjFeature{{Type: d.Type, ID: d.ID, Properties: d.Properties, Geometry: d.Geometry}}, nil
+	case "Point", "MultiPoint", "LineString", "MultiLineString", "Polygon", "MultiPolygon", "GeometryCollection":
+		g := &gjGeometry{Type: d.Type, Coordinates: d.Coordinates, Geometries: d.Geometries}
+		return []gjFeature{{Type: "Feature", Geometry: g}}, nil
+	case "":
+		return nil, inputErrorf("%s: not GeoJSON (the top-level object has no \"type\")", src.name)
+	default:
+		return nil, inputErrorf("%s: not GeoJSON (unknown type %q)", src.name, d.Type)
+	}
+}
+
+// jsonError turns an encoding/json error into a message with a line.
+func jsonError(src source, err error) error {
+	var se *json.SyntaxError
+	var te *json.UnmarshalTypeError
+	switch {
+	case errors.As(err, &se):
+		return inputErrorf("%s line %d: not valid JSON: %v", src.name, lineAt(src.data, se.Offset), se)
+	case errors.As(err, &te):
+		what := te.Field
+		if what == "" {
+			what = "the top-level value"
+		} else {
+			what = "member \"" + what + "\""
+		}
+		if te.Value == "number" || strings.HasPrefix(te.Value, "number ") {
+			if te.Type.Kind().String() == "float64" {
+				return inputErrorf("%s line %d: %s is not a finite float64 number", src.name, lineAt(src.data, te.Offset), te.Value)
+			}
+		}
+		return inputErrorf("%s line %d: not GeoJSON: %s is a JSON %s, expected %s", src.name,
+			lineAt(src.data, te.Offset), what, te.Value, jsonKind(te.Type.Kind().String()))
+	default:
+		return inputErrorf("%s: not valid JSON: %v", src.name, err)
+	}
+}
+
+func jsonKind(goKind string) string {
+	switch goKind {
+	case "slice", "array":
+		return "an array"
+	case "struct", "map", "ptr":
+		return "an object"
+	case "string":
+		return "a string"
+	case "float64":
+		return "a number"
+	}
+	return goKind
+}
+
+// lineAt returns the 1-based line of byte offset off.
+func lineAt(b []byte, off int64) int {
+	if off > int64(len(b)) {
+		off = int64(len(b))
+	}
+	if off < 0 {
+		off = 0
+	}
+	return 1 + bytes.Count(b[:off], []byte{'\n'})
+}
+
+// featureProps decodes the properties of f (null or absent gives nil).
+func featureProps(src source, i int, f *gjFeature) (map[string]json.RawMessage, error) {
+	if len(f.Properties) == 0 || string(f.Properties) == "null" {
+		return nil, nil
+	}
+	var m map[string]json.RawMessage
+	if err := json.Unmarshal(f.Properties, &m); err != nil {
+		return nil, inputErrorf("%s feature %d: \"properties\" must be an object or null", src.name, i)
+	}
+	return m, nil
+}
+
+// featureName returns the "name" property, else the "id" property, else
+// the Feature's "id" member, as text ("" when none).
+func featureName(props map[string]json.RawMessage, id json.RawMessage) string {
+	for _, raw := range []json.RawMessage{props["name"], props["id"], id} {
+		if s := jsonText(raw); s != "" {
+			return s
+		}
+	}
+	return ""
+}
+
+// jsonText renders a JSON string or number as text; other values give "".
+func jsonText(raw json.RawMessage) string {
+	raw = bytes.TrimSpace(raw)
+	if len(raw) == 0 {
+		return ""
+	}
+	if raw[0] == '"' {
+		var s string
+		if json.Unmarshal(raw, &s) == nil {
+			return strings.TrimSpace(s)
+		}
+		return ""
+	}
+	if _, err := strconv.ParseFloat(string(raw), 64); err == nil {
+		return string(raw)
+	}
+	return ""
+}
+
+// position decodes one GeoJSON position.
+func position(p []float64) (x, y float64, problem string) {
+	if len(p) < 2 {
+		return 0, 0, fmt.Sprintf("a position needs 2 numbers, got %d", len(p))
+	}
+	return p[0], p[1], ""
+}
+
+// coordProblem checks one coordinate pair: with geographic input a WGS84
+// longitude and latitude, with planar input finite local metres. It
+// returns "" when the pair is usable, else the problem.
+func coordProblem(planarInput bool, x, y float64) string {
+	if planarInput {
+		for _, v := range [...]struct {
+			name string
+			v    float64
+		}{{"x", x}, {"y", y}} {
+			switch {
+			case math.IsNaN(v.v):
+				return v.name + " is NaN"
+			case math.IsInf(v.v, 0):
+				return v.name + " is infinite"
+			case math.Abs(v.v) > maxPlanarCoord:
+				return fmt.Sprintf("%s %g m is beyond ±%g m: not local metres", v.name, v.v, maxPlanarCoord)
+			}
+		}
+		return ""
+	}
+	switch {
+	case math.IsNaN(x):
+		return "longitude is NaN"
+	case math.IsInf(x, 0):
+		return "longitude is infinite"
+	case math.IsNaN(y):
+		return "latitude is NaN"
+	case math.IsInf(y, 0):
+		return "latitude is infinite"
+	}
+	hint := ""
+	if math.Abs(x) > 1000 || math.Abs(y) > 1000 {
+		hint = " (local metres? add --planar)"
+	}
+	if x < -180 || x > 180 {
+		return fmt.Sprintf("longitude %s is outside -180..180%s", fmtCoord(x), hint)
+	}
+	if y < -90 || y > 90 {
+		return fmt.Sprintf("latitude %s is outside -90..90%s", fmtCoord(y), hint)
+	}
+	if err := validLonLat(x, y); err != nil {
+		return err.Error()
+	}
+	return ""
+}
+
+// maxPlanarCoord bounds local-plane coordinates: 20 000 km, half the
+// Earth's circumference; anything larger is not a site plan in metres.
+const maxPlanarCoord = 2e7
+
+func fmtCoord(v float64) string { return strconv.FormatFloat(v, 'g', -1, 64) }

@@ -1,0 +1,179 @@
+// Unit tests of the input readers: CSV header variants and delimiters,
+// GeoJSON object forms and names, area rings and exclusion flags.
+
+package main
+
+import (
+	"strings"
+	"testing"
+
+	"github.com/paulmach/orb"
+)
+
+func src(name, data string) source { return source{name: name, data: []byte(data)} }
+
+func TestCSVHeaderVariants(t *testing.T) {
+	// Column names are matched case-insensitively (issue 4 lists lat,
+	// latitude, lon, lng, longitude, x, y, name, id).
+	cases := []struct {
+		name, data string
+		planar     bool
+		want       []orb.Point
+		names      []string
+	}{
+		{"lat,lon", "lat,lon\n51.5,-0.12\n51.6,-0.13\n", false, []orb.Point{{-0.12, 51.5}, {-0.13, 51.6}}, []string{"", ""}},
+		{"Latitude,Longitude", "Latitude,Longitude,name\n10,20,a\n", false, []orb.Point{{20, 10}}, []string{"a"}},
+		{"LON first, LNG", "name,LNG,LAT\nb,20,10\n", false, []orb.Point{{20, 10}}, []string{"b"}},
+		{"spaces in header", " id , lat , longitude \nS1, 10 , 20\n", false, []orb.Point{{20, 10}}, []string{"S1"}},
+		{"id used when no name", "ID,Lon,Lat\n7,1,2\n", false, []orb.Point{{1, 2}}, []string{"7"}},
+		{"name preferred over id", "id,name,lat,lon\n7,gate,2,1\n", false, []orb.Point{{1, 2}}, []string{"gate"}},
+		{"semicolon, decimal comma", "lat;lon;name\n51,5;-0,12;a\n", false, []orb.Point{{-0.12, 51.5}}, []string{"a"}},
+		{"tab", "x\ty\n1.5\t2.5\n", true, []orb.Point{{1.5, 2.5}}, []string{""}},
+		{"X,Y planar", "Name,X,Y\nA,100,200\nB,-5,0\n", true, []orb.Point{{100, 200}, {-5, 0}}, []string{"A", "B"}},
+		{"quoted fields, blank lines", "\"lat\",\"lon\"\n\n\"1\",\"2\"\n\n", false, []orb.Point{{2, 1}}, []string{""}},
+		{"extra columns ignored", "elev,lat,colour,lon\n5,1,red,2\n", false, []orb.Point{{2, 1}}, []string{""}},
+		{"CRLF", "lat,lon\r\n1,2\r\n3,4\r\n", false, []orb.Point{{2, 1}, {4, 3}}, []string{"", ""}},
+		{"lat/lon and x/y: geographic uses lat/lon", "lat,lon,x,y\n1,2,300,400\n", false, []orb.Point{{2, 1}}, []string{""}},
+		{"lat/lon and x/y: planar uses x/y", "lat,lon,x,y\n1,2,300,400\n", true, []orb.Point{{300, 400}}, []string{""}},
+	}
+	for _, c := range cases {
+		s, err := loadSites(src("s.csv", c.data), c.planar)
+		if err != nil {
+			t.Errorf("%s: %v", c.name, err)
+			continue
+		}
+		if len(s.Pts) != len(c.want) {
+			t.Errorf("%s: %d sites, want %d", c.name, len(s.Pts), len(c.want))
+			continue
+		}
+		for i := range c.want {
+			if s.Pts[i] != c.want[i] || s.Names[i] != c.names[i] {
+				t.Errorf("%s: site %d = %v %q, want %v %q", c.name, i, s.Pts[i], s.Names[i], c.want[i], c.names[i])
+			}
+		}
+	}
+}
+
+func TestGeoJSONSiteForms(t *testing.T) {
+	cases := []struct {
+		name, data string
+		want       []orb.Point
+		names      []string
+	}{
+		{"collection", `{"type":"FeatureCollection","features":[
+			{"type":"Feature","properties":{"name":"a"},"geometry":{"type":"Point","coordinates":[1,2]}},
+			{"type":"Feature","properties":{"id":17},"geometry":{"type":"Point","coordinates":[3,4,99]}},
+			{"type":"Feature","id":"f3","properties":null,"geometry":{"type":"Point","coordinates":[5,6]}}]}`,
+			[]orb.Point{{1, 2}, {3, 4}, {5, 6}}, []string{"a", "17", "f3"}},
+		{"multipoint", `{"type":"Feature","properties":{"name":"row"},"geometry":{"type":"MultiPoint","coordinates":[[1,2],[3,4]]}}`,
+			[]orb.Point{{1, 2}, {3, 4}}, []string{"row#1", "row#2"}},
+		{"bare geometry", `{"type":"Point","coordinates":[7,8]}`, []orb.Point{{7, 8}}, []string{""}},
+		{"geometry collection", `{"type":"Feature","properties":{},"geometry":{"type":"GeometryCollection","geometries":[
+			{"type":"Point","coordinates":[1,1]},{"type":"MultiPoint","coordinates":[[2,2]]}]}}`,
+			[]orb.Point{{1, 1}, {2, 2}}, []string{"", ""}},
+	}
+	for _, c := range cases {
+		s, err := loadSites(src("s.geojson", c.data), false)
+		if err != nil {
+			t.Errorf("%s: %v", c.name, err)
+			continue
+		}
+		if len(s.Pts) != len(c.want) {
+			t.Errorf("%s: %d sites, want %d", c.name, len(s.Pts), len(c.want))
+			continue
+		}
+		for i := range c.want {
+			if s.Pts[i] != c.want[i] || s.Names[i] != c.names[i] {
+				t.Errorf("%s: site %d = %v %q, want %v %q", c.name, i, s.Pts[i], s.Names[i], c.want[i], c.names[i])
+			}
+		}
+	}
+}
+
+func TestFormatSniffing(t *testing.T) {
+	// No telling extension: JSON starts with '{', anything else is CSV.
+	if s, err := loadSites(src("sites.txt", "lat,lon\n1,2\n"), false); err != nil || len(s.Pts) != 1 {
+		t.Errorf("CSV without .csv: %v", err)
+	}
+	if s, err := loadSites(src("sites", `{"type":"Point","coordinates":[1,2]}`), false); err != nil || len(s.Pts) != 1 {
+		t.Errorf("GeoJSON without extension: %v", err)
+	}
+	if _, err := loadSites(src("sites.dat", "\x89PNG\r\n\x1a\n\x00\x00"), false); err == nil || !strings.Contains(err.Error(), "not GeoJSON or CSV") {
+		t.Errorf("binary: %v", err)
+	}
+}
+
+func TestAreaExcludeAndRings(t *testing.T) {
+	area := `{"type":"FeatureCollection","features":[
+	 {"type":"Feature","properties":{"name":"Park"},"geometry":{"type":"Polygon","coordinates":[
+	   [[0,0],[100,0],[100,100],[0,100],[0,0]],
+	   [[10,10],[20,10],[20,20],[10,10]]]}},
+	 {"type":"Feature","properties":{"exclude":true,"name":"Pond"},"geometry":{"type":"Polygon","coordinates":[[[50,50],[60,50],[60,60],[50,50]]]}},
+	 {"type":"Feature","properties":{"exclude":false},"geometry":{"type":"MultiPolygon","coordinates":[[[[200,0],[300,0],[300,100]]]]}}]}`
+	polys, err := loadArea(src("a.geojson", area), true, false)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(polys) != 3 || polys[0].Exclude || !polys[1].Exclude || polys[2].Exclude {
+		t.Fatalf("polygons %+v", polys)
+	}
+	if polys[0].Name != "Park" || len(polys[0].Rings) != 2 || polys[2].Where != "a.geojson feature 2 polygon 0" {
+		t.Errorf("names/rings: %q %d %q", polys[0].Name, len(polys[0].Rings), polys[2].Where)
+	}
+	mp, names, warn, err := buildArea(polys)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(mp) != 2 || len(mp[0]) != 3 || len(warn) != 0 {
+		t.Errorf("assembled %d polygons, first has %d rings, warnings %v", len(mp), len(mp[0]), warn)
+	}
+	if names[0][2] != "a.geojson feature 1" {
+		t.Errorf("hole name %q", names[0][2])
+	}
+	// The whole file as exclusions (the --exclude file).
+	ex, err := loadArea(src("x.geojson", area), true, true)
+	if err != nil || !ex[0].Exclude || !ex[2].Exclude {
+		t.Errorf("excludeAll: %v", err)
+	}
+}
+
+func TestRelate(t *testing.T) {
+	sq := func(x0, y0, s float64) orb.Ring {
+		return orb.Ring{{x0, y0}, {x0 + s, y0}, {x0 + s, y0 + s}, {x0, y0 + s}, {x0, y0}}
+	}
+	cases := []struct {
+		name string
+		a, b orb.Ring
+		want ringRelation
+	}{
+		{"inside", sq(1, 1, 2), sq(0, 0, 10), relAInB},
+		{"contains", sq(0, 0, 10), sq(1, 1, 2), relBInA},
+		{"disjoint", sq(0, 0, 1), sq(5, 5, 1), relDisjoint},
+		{"crossing", sq(0, 0, 2), sq(1, 1, 2), relCross},
+		{"inside touching an edge", sq(0, 2, 2), sq(0, 0, 10), relAInB},
+		{"through a vertex", orb.Ring{{-1, 5}, {5, 5}, {5, 10}, {-1, 10}}, sq(0, 0, 10), relCross},
+		{"same ring", sq(0, 0, 3), sq(0, 0, 3), relCross},
+	}
+	for _, c := range cases {
+		if got := relate(c.a, c.b); got != c.want {
+			t.Errorf("%s: relate = %d, want %d", c.name, got, c.want)
+		}
+	}
+}
+
+func TestConvexHull(t *testing.T) {
+	pts := []orb.Point{{0, 0}, {2, 0}, {1, 1}, {2, 2}, {0, 2}, {1, 0}, {0, 0}, {1, 2}}
+	h := convexHull(pts)
+	want := orb.Ring{{0, 0}, {2, 0}, {2, 2}, {0, 2}}
+	if len(h) != len(want) {
+		t.Fatalf("hull %v", h)
+	}
+	for i := range want {
+		if h[i] != want[i] {
+			t.Fatalf("hull %v, want %v", h, want)
+		}
+	}
+	if h := convexHull([]orb.Point{{0, 0}, {1, 1}, {2, 2}}); h != nil {
+		t.Errorf("collinear hull %v", h)
+	}
+}

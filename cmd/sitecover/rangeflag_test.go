@@ -1,0 +1,70 @@
+// Tests of --range parsing against the exact unit definitions.
+
+package main
+
+import (
+	"strings"
+	"testing"
+)
+
+func TestParseRange(t *testing.T) {
+	// Reference: the international yard and pound (1959 agreement; NIST
+	// Handbook 44 Appendix C): 1 ft = 0.3048 m and 1 mi = 5280 ft =
+	// 1609.344 m exactly.
+	ok := []struct {
+		in   string
+		want float64
+	}{
+		{"150m", 150},
+		{"0.15km", 150},
+		{"500ft", 152.4},
+		{"0.1mi", 160.9344},
+		{"150", 150},
+		{"150 m", 150},
+		{" 150M ", 150},
+		{"2KM", 2000},
+		{"1e2m", 100},
+		{"1e2", 100},
+		{"1mi", 1609.344},
+		{"1ft", 0.3048},
+		{"5280ft", 1609.344},
+		{".5km", 500},
+	}
+	for _, c := range ok {
+		got, err := parseRange(c.in)
+		if err != nil {
+			t.Errorf("parseRange(%q): %v", c.in, err)
+			continue
+		}
+		if d := got - c.want; d > 1e-12*c.want || d < -1e-12*c.want {
+			t.Errorf("parseRange(%q) = %.15g, want %.15g", c.in, got, c.want)
+		}
+	}
+	bad := []struct{ in, msg string }{
+		{"", "empty"},
+		{"   ", "empty"},
+		{"0", "greater than 0"},
+		{"0m", "greater than 0"},
+		{"-5m", "greater than 0"},
+		{"-0.1mi", "greater than 0"},
+		{"abc", "not a number"},
+		{"NaN", "not a number"},
+		{"Inf", "not a number"},
+		{"infm", "not a number"},
+		{"0x10", "not a number"},
+		{"1,5km", "not a number"},
+		{"5yd", `unknown unit "yd"`},
+		{"150mm", `unknown unit "mm"`},
+		{"1e999", "finite"},
+	}
+	for _, c := range bad {
+		_, err := parseRange(c.in)
+		if err == nil {
+			t.Errorf("parseRange(%q): no error", c.in)
+			continue
+		}
+		if !strings.Contains(err.Error(), c.msg) || !strings.Contains(err.Error(), "--range") {
+			t.Errorf("parseRange(%q) error %q, want it to mention --range and %q", c.in, err, c.msg)
+		}
+	}
+}

@@ -1,0 +1,246 @@
+// The command tree and the shared run harness.
+//
+// run builds a fresh cobra tree for each call, so tests can run the command
+// in-process with their own arguments and output buffers. Cobra's own error
+// and usage printing is silenced: every failure becomes one line on stderr
+// and an exit code (see errors.go). A panic anywhere in the command's
+// goroutine is recovered into an "internal error" line and exit code 3.
+
+package main
+
+import (
+	"fmt"
+	"io"
+	"os"
+	"runtime"
+	"runtime/debug"
+	"strings"
+
+	"github.com/sitecover/sitecover/report"
+	"github.com/spf13/cobra"
+	"github.com/spf13/pflag"
+)
+
+// version is the program version, set at build time with
+//
+//	go build -ldflags "-X main.version=1.2.3" ./cmd/sitecover
+var version = "dev"
+
+// versionString is the text printed by --version.
+func versionString() string {
+	v := version
+	var extra []string
+	if bi, ok := debug.ReadBuildInfo(); ok {
+		if mv := bi.Main.Version; mv != "" && mv != "(devel)" && v == "dev" {
+			v = mv
+		}
+		for _, s := range bi.Settings {
+			switch s.Key {
+			case "vcs.revision":
+				r := s.Value
+				if len(r) > 12 {
+					r = r[:12]
+				}
+				extra = append(extra, "commit "+r)
+			case "vcs.modified":
+				if s.Value == "true" {
+					extra = append(extra, "modified")
+				}
+			}
+		}
+	}
+	extra = append(extra, runtime.Version(), runtime.GOOS+"/"+runtime.GOARCH)
+	return fmt.Sprintf("sitecover %s (%s)", v, strings.Join(extra, ", "))
+}
+
+// env is what a run writes to.
+type env struct {
+	stdout, stderr io.Writer
+	// terminal is true when stderr is a terminal (progress lines allowed).
+	terminal bool
+}
+
+// run executes the command line args and returns the exit code.
+func run(args []string, stdout, stderr io.Writer) (code int) {
+	e := &env{stdout: stdout, stderr: stderr, terminal: isTerminal(stderr)}
+	defer func() {
+		if p := recover(); p != nil {
+			fmt.Fprintf(stderr, "sitecover: internal error: %v (this is a bug; please report it with the command line)\n", p)
+			if os.Getenv("SITECOVER_DEBUG") != "" {
+				fmt.Fprintf(stderr, "%s", debug.Stack())
+			}
+			code = exitInternal
+		}
+	}()
+	root := newRootCmd(e)
+	root.SetArgs(args)
+	root.SetOut(stdout)
+	root.SetErr(stderr)
+	err := root.Execute()
+	if err != nil {
+		fmt.Fprintln(stderr, errorLine(err))
+	}
+	return exitCode(err)
+}
+
+// isTerminal reports whether w is a character device (a terminal).
+func isTerminal(w io.Writer) bool {
+	f, ok := w.(*os.File)
+	if !ok {
+		return false
+	}
+	fi, err := f.Stat()
+	return err == nil && fi.Mode()&os.ModeCharDevice != 0
+}
+
+const rootLong = `sitecover answers the planner's questions about devices that each serve a
+radius - wireless gateways, sensors, sirens, alarm call points, defibrillator
+cabinets - across a site: is every point of the site area within range of a
+device, where are the gaps and how large are they, which range closes each
+gap and all of them, and which device serves which part of the site.
+
+The answers are exact geometry (Voronoi cells clipped to the area, exact
+polygon-disk areas, the alpha filtration of the disks), not a raster.
+
+Inputs: sites as GeoJSON points or CSV (lat/lon, or x/y with --planar), the
+site area as GeoJSON polygons; zones that need no coverage are polygon holes,
+features with "exclude": true, or a separate --exclude file.
+
+Cautions:
+`
+
+func newRootCmd(e *env) *cobra.Command {
+	root := &cobra.Command{
+		Use:   "sitecover",
+		Short: "Coverage and service areas of fixed devices that serve a radius",
+		Long:  rootLong + report.Cautions(),
+		Example: `  sitecover demo --out campus-report
+  sitecover analyze --sites sensors.csv --area site.geojson --range 150m
+  sitecover gaps --sites gateways.geojson --area site.geojson --range 0.2km
+  sitecover cells --sites sirens.csv --area town.geojson
+  sitecover analyze --planar --sites plan-xy.csv --area plan.geojson --range 30m`,
+		Version:       versionString(),
+		SilenceErrors: true,
+		SilenceUsage:  true,
+	}
+	root.SetVersionTemplate("{{.Version}}\n")
+	root.SetFlagErrorFunc(flagError)
+	root.CompletionOptions.HiddenDefaultCmd = false
+	root.AddCommand(newAnalyzeCmd(e), newCellsCmd(e), newGapsCmd(e), newDemoCmd(e))
+	for _, c := range root.Commands() {
+		c.SilenceErrors, c.SilenceUsage = true, true
+		c.SetFlagErrorFunc(flagError)
+	}
+	return root
+}
+
+// flagError marks flag parsing errors as bad usage with a pointer to help.
+func flagError(cmd *cobra.Command, err error) error {
+	return usageErrorf("%v (see '%s --help')", err, cmd.CommandPath())
+}
+
+// noArgs refuses positional arguments as bad usage.
+func noArgs(cmd *cobra.Command, args []string) error {
+	if len(args) > 0 {
+		return usageErrorf("unexpected argument %q: inputs are given with flags such as --sites FILE (see '%s --help')", args[0], cmd.CommandPath())
+	}
+	return nil
+}
+
+// runFlags are the flags shared by the commands.
+type runFlags struct {
+	sites, area, exclude string
+	planar               bool
+	rangeText            string
+	out                  string
+	json                 bool
+	noMaps               bool
+	title                string
+	lifeSafety           bool
+	mapWidth             int
+}
+
+// addInputFlags registers the input flags.
+func (f *runFlags) addInputFlags(fs *pflag.FlagSet) {
+	fs.StringVar(&f.sites, "sites", "", "device sites: GeoJSON Point/MultiPoint features, or CSV with lat/lon (x/y with --planar) columns (required)")
+	fs.StringVar(&f.area, "area", "", "site area: GeoJSON Polygon/MultiPolygon features; holes and features with \"exclude\": true need no coverage (default: the sites' convex hull)")
+	fs.StringVar(&f.exclude, "exclude", "", "extra zones that need no coverage: GeoJSON polygons cut out of --area")
+	fs.BoolVar(&f.planar, "planar", false, "coordinates are already local metres (x east, y north), e.g. a site plan or CAD export")
+}
+
+// addOutputFlags registers the output flags.
+func (f *runFlags) addOutputFlags(fs *pflag.FlagSet, maps bool) {
+	fs.StringVar(&f.out, "out", "sitecover-report", "output folder (created if needed; input files are never overwritten)")
+	fs.BoolVar(&f.json, "json", false, "also print summary.json to stdout (instead of the short text summary)")
+	if maps {
+		fs.BoolVar(&f.noMaps, "no-maps", false, "skip the PNG maps and charts (faster on very large inputs)")
+		fs.IntVar(&f.mapWidth, "map-width", report.DefaultMapWidth, "width of the PNG maps and charts in pixels")
+	}
+	fs.StringVar(&f.title, "title", "", "title of the report and maps (default: the area's name, else the sites file name)")
+	fs.BoolVar(&f.lifeSafety, "life-safety", false, "the devices are life-safety equipment (sirens, call points, defibrillators): put the cautions first")
+}
+
+// addRangeFlag registers --range.
+func (f *runFlags) addRangeFlag(fs *pflag.FlagSet, def, usage string) {
+	fs.StringVar(&f.rangeText, "range", def, usage)
+}
+
+// requireFlags returns a usage error naming the first missing flag.
+func requireFlags(cmd *cobra.Command, names ...string) error {
+	for _, n := range names {
+		fl := cmd.Flags().Lookup(n)
+		if fl == nil || !fl.Changed || strings.TrimSpace(fl.Value.String()) == "" {
+			return usageErrorf("required flag --%s is missing (see '%s --help')", n, cmd.CommandPath())
+		}
+	}
+	return nil
+}
+
+// inputs opens the input files named by the flags.
+func (f *runFlags) inputs() (sceneInputs, error) {
+	if f.exclude != "" && f.area == "" {
+		return sceneInputs{}, usageErrorf("--exclude needs --area: exclusion zones are cut out of a given area")
+	}
+	var in sceneInputs
+	var err error
+	in.planar = f.planar
+	if in.sites, err = readSource(f.sites, "--sites"); err != nil {
+		return in, err
+	}
+	if f.area != "" {
+		s, err := readSource(f.area, "--area")
+		if err != nil {
+			return in, err
+		}
+		in.area = &s
+	}
+	if f.exclude != "" {
+		s, err := readSource(f.exclude, "--exclude")
+		if err != nil {
+			return in, err
+		}
+		in.exclude = &s
+	}
+	return in, nil
+}
+
+// checkOutDir fails fast, before a long analysis, when the output folder
+// cannot be created or written. (report checks again when it writes.)
+func checkOutDir(dir string) error {
+	if dir == "" {
+		return usageErrorf("--out needs a folder name")
+	}
+	if fi, err := os.Stat(dir); err == nil && !fi.IsDir() {
+		return inputErrorf("output folder %s: exists and is not a folder (given to --out)", dir)
+	}
+	if err := os.MkdirAll(dir, 0o755); err != nil {
+		return inputErrorf("output folder %s: cannot create it: %v", dir, unwrapPathErr(err))
+	}
+	f, err := os.CreateTemp(dir, ".sitecover-probe-*")
+	if err != nil {
+		return inputErrorf("output folder %s: not writable: %v", dir, unwrapPathErr(err))
+	}
+	f.Close()
+	os.Remove(f.Name())
+	return nil
+}
