@@ -82,7 +82,9 @@ func TestBadInput(t *testing.T) {
 		code int
 		want []string // substrings of the one stderr line
 	}
-	an := func(extra ...string) []string { return append([]string{"analyze", "--range", "100m", "--out", filepath.Join(dir, "out")}, extra...) }
+	an := func(extra ...string) []string {
+		return append([]string{"analyze", "--range", "100m", "--out", filepath.Join(dir, "out")}, extra...)
+	}
 	cases := []tc{
 		{"missing sites file", an("--sites", filepath.Join(dir, "nope.csv")), 1, []string{"nope.csv: no such file", "--sites"}},
 		{"missing area file", an("--sites", goodCSV, "--area", filepath.Join(dir, "nope.geojson")), 1, []string{"nope.geojson: no such file", "--area"}},
