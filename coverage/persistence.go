@@ -1,0 +1,475 @@
+// Persistent homology (H0 and H1) of the alpha filtration, by union-find.
+//
+// In the plane no matrix reduction is needed (Edelsbrunner & Harer,
+// Computational Topology, AMS 2010, sections VII.1 and VII.2; Edelsbrunner,
+// "The union of balls and its dual shape", 1995):
+//
+//   - Order. Simplices are totally ordered by filtration value; at equal
+//     value by dimension (vertices, then edges, then triangles, so every
+//     simplex follows its faces); equal-valued edges by length, then by
+//     half-edge index; equal-valued triangles by index. Any such refinement
+//     is a valid filtration and gives the same diagram off the diagonal;
+//     ordering equal-valued edges by length makes every negative edge
+//     Gabriel, so the merge edges reported are edges of a Euclidean
+//     minimum spanning tree.
+//   - H0. Union-find over the vertices, edges in increasing order
+//     (Kruskal): an edge joining two components is negative and kills one
+//     of them (birth 0, death = its value = half its length); these edges
+//     form a Euclidean minimum spanning tree.
+//   - H1 by Alexander duality. Every other edge is positive: it closes a
+//     loop. Dually, with the triangles and one extra node for the outside
+//     as the vertices of the dual graph, process the edges in decreasing
+//     order and join the two sides of each edge (its two triangles, or its
+//     triangle and the outside for a hull edge). A dual component is
+//     represented by its oldest member in decreasing order: its triangle
+//     latest in the filtration, the outside being older than every
+//     triangle. When a positive edge joins two dual components the younger
+//     of the two representatives (earlier in the filtration) dies: the
+//     pair is (edge value, triangle value) = (Birth, Death) of a hole of the
+//     union of disks, filled at the circumcentre of that triangle. The
+//     negative edges are exactly those whose two sides are already joined
+//     (tree–cotree duality of planar graphs), so each edge is used by
+//     exactly one of the two passes.
+//
+// Holes are listed by decreasing persistence, ties by increasing filtration
+// position of the birth edge; merges by increasing Death (filtration order).
+//
+// Values are those of NewFiltration (relative error below 1e-14); the
+// pairing itself is exact for those values. H1 pairs shorter than
+// HoleResolution relative are dropped as zero-length (rounding of
+// cocircular sites makes them).
+//
+// Cost: radix sorts (11-bit digits) of the edges and of the triangles on
+// the bits of their values, then the two union-find passes side by side:
+// Kruskal over int32 site indices (path halving, union by rank) and the
+// dual pass over triangles numbered by filtration rank (path halving,
+// linking the younger root below the older, so the root is the
+// representative). Memory is flat int32/uint64/float64 arrays, about 150
+// bytes per site at the peak besides the result.
+
+package coverage
+
+import (
+	"cmp"
+	"math"
+	"slices"
+	"sort"
+
+	"github.com/paulmach/orb"
+	"github.com/sitecover/sitecover/planar"
+)
+
+// HoleResolution is the relative persistence below which an H1 pair is
+// treated as zero-length and left out of Persistence.Holes: a pair is kept
+// when Death − Birth > HoleResolution·Death. Filtration values carry a
+// relative error below 1e-14, so a shorter pair cannot be told from the
+// zero-length pairs of exactly cocircular sites (a hexagon ring whose
+// coordinates were rounded to float64 yields such pairs).
+const HoleResolution = 1e-12
+
+// ComputePersistence returns the H0 and H1 persistence pairs of the alpha
+// filtration f of triangulation t (see the file comment for the method).
+// When f is nil, or does not match t, it is computed with NewFiltration. A
+// nil t gives an empty result.
+func ComputePersistence(t *planar.Triangulation, f *Filtration) *Persistence {
+	p := &Persistence{}
+	if t == nil {
+		return p
+	}
+	p.Vertices = t.NumVertices()
+	nt := t.NumTriangles()
+	if f == nil || len(f.Triangle) != nt || len(f.Edge) != len(t.Triangles) ||
+		(nt == 0 && len(t.Hull) >= 2 && len(f.Line) != len(t.Hull)-1) {
+		f = NewFiltration(t)
+	}
+	if nt == 0 {
+		persistLine(t, f, p)
+		return p
+	}
+
+	// Canonical half-edge of each edge: the hull half-edge or the larger
+	// of the two halves (Halfedges[e] < e).
+	he := t.Halfedges
+	ne := 0
+	for e, o := range he {
+		if o < int32(e) {
+			ne++
+		}
+	}
+	ids := make([]int32, 0, ne)
+	keys := make([]uint64, 0, ne)
+	for e, o := range he {
+		if o < int32(e) {
+			ids = append(ids, int32(e))
+			keys = append(keys, math.Float64bits(f.Edge[e]))
+		}
+	}
+	// Sort the edges, and concurrently the triangles by (value, index): a
+	// triangle's rank in that order is its position in the filtration.
+	tv := f.Triangle
+	tkeys := make([]uint64, nt)
+	tids := make([]int32, nt)
+	rank := make([]int32, nt)
+	sorted := make(chan struct{})
+	go func() {
+		for i, v := range tv {
+			tkeys[i] = math.Float64bits(v)
+			tids[i] = int32(i)
+		}
+		persistRadixSort(tkeys, tids)
+		for r, i := range tids {
+			rank[i] = int32(r)
+		}
+		close(sorted)
+	}()
+	persistRadixSort(keys, ids)
+	persistTieByLength(t, keys, ids)
+	<-sorted
+
+	// Gather, in filtration order, each edge's endpoints (as input indices,
+	// Source) and its two sides (triangle ranks; nt stands for the
+	// outside), so that both passes below read memory sequentially.
+	tr, src := t.Triangles, t.Source
+	outside := int32(nt)
+	ends := make([]uint64, ne)  // site a | site b << 32, a < b
+	sides := make([]uint64, ne) // rank a | rank b << 32
+	alphaParallel(ne, func(lo, hi int) {
+		for i := lo; i < hi; i++ {
+			e := ids[i]
+			a, b := src[tr[e]], src[tr[planar.NextHalfedge(e)]]
+			ends[i] = uint64(uint32(min(a, b))) | uint64(uint32(max(a, b)))<<32
+			sb := outside
+			if o := he[e]; o >= 0 {
+				sb = rank[o/3]
+			}
+			sides[i] = uint64(uint32(rank[e/3])) | uint64(uint32(sb))<<32
+		}
+	})
+	ids, rank = nil, nil
+
+	// The two passes are independent; run them side by side. Kruskal's
+	// union-find runs over input indices (each vertex is its Source).
+	var mpos []int32 // H0: positions of the negative edges
+	done := make(chan struct{})
+	go func() {
+		n := int32(0)
+		for _, s := range src {
+			n = max(n, s+1)
+		}
+		mpos = persistKruskal(int(n), ends)
+		close(done)
+	}()
+	recs := persistDual(nt, tkeys, keys, ends, sides)
+	sides = nil
+
+	// Holes by decreasing persistence, then increasing filtration position
+	// of the birth edge: a stable radix sort on the complemented bits
+	// (descending order), starting from increasing birth position.
+	nh := len(recs)
+	slices.Reverse(recs)
+	hk := make([]uint64, nh)
+	order := make([]int32, nh)
+	for k, r := range recs {
+		order[k] = int32(k)
+		hk[k] = ^math.Float64bits(r.death - r.birth)
+	}
+	persistRadixSort(hk, order)
+	hk = nil
+	xy := t.Coords
+	p.Holes = make([]Hole, nh)
+	<-done
+	alphaParallel(nh, func(lo, hi int) {
+		for j := lo; j < hi; j++ {
+			r := &recs[order[j]]
+			y := tids[r.rank]
+			cx, cy := alphaCircumcentre(xy, tr[3*y], tr[3*y+1], tr[3*y+2])
+			p.Holes[j] = Hole{
+				Birth:      r.birth,
+				Death:      r.death,
+				DeathPoint: orb.Point{cx, cy},
+				BirthSites: [2]int{int(uint32(r.sites)), int(r.sites >> 32)},
+			}
+		}
+	})
+
+	p.Merges = make([]Merge, len(mpos))
+	alphaParallel(len(mpos), func(lo, hi int) {
+		for k := lo; k < hi; k++ {
+			i := mpos[k]
+			p.Merges[k] = Merge{
+				Death: math.Float64frombits(keys[i]),
+				Sites: [2]int{int(uint32(ends[i])), int(ends[i] >> 32)},
+			}
+		}
+	})
+	persistRanges(p)
+	return p
+}
+
+// persistKruskal runs union-find over n nodes along the edges in
+// filtration order (ends packs the two node indices of each edge) and
+// returns the positions of the edges that join two components.
+func persistKruskal(n int, ends []uint64) []int32 {
+	uf := newPersistUF(n)
+	out := make([]int32, 0, max(n-1, 0))
+	for i, ab := range ends {
+		if uf.union(int32(uint32(ab)), int32(ab>>32)) {
+			out = append(out, int32(i))
+		}
+	}
+	return out
+}
+
+// persistHoleRec is an H1 pair found by persistDual: the values, the birth
+// edge's sites (packed as in ends) and the rank of the killing triangle.
+type persistHoleRec struct {
+	birth, death float64
+	sites        uint64
+	rank         int32
+}
+
+// persistDual runs union-find over the nt triangles, numbered by their
+// rank in the filtration, plus the outside (node nt, older than every
+// triangle), along the edges in decreasing filtration order. sides packs
+// the two nodes each edge separates and ends its two sites; keys and tkeys
+// hold the bits of the edge and triangle values in filtration order. The
+// root of each dual component is its oldest node, its largest number,
+// because the root with the smaller number is always linked below the
+// other (linking by index, with path halving). When an edge joins two
+// components, the younger root dies; the pair is returned when its
+// persistence exceeds HoleResolution relative.
+func persistDual(nt int, tkeys, keys, ends, sides []uint64) []persistHoleRec {
+	par := make([]int32, nt+1)
+	for i := range par {
+		par[i] = int32(i)
+	}
+	out := make([]persistHoleRec, 0, nt/2+16)
+	for i := len(sides) - 1; i >= 0; i-- {
+		s := sides[i]
+		ra, rb := int32(uint32(s)), int32(s>>32)
+		for par[ra] != ra { // find with path halving
+			g := par[par[ra]]
+			par[ra] = g
+			ra = g
+		}
+		for par[rb] != rb {
+			g := par[par[rb]]
+			par[rb] = g
+			rb = g
+		}
+		if ra == rb {
+			continue // negative edge: a merge, found by Kruskal
+		}
+		young, old := min(ra, rb), max(ra, rb)
+		par[young] = old
+		birth, death := math.Float64frombits(keys[i]), math.Float64frombits(tkeys[young])
+		if death-birth > HoleResolution*death {
+			out = append(out, persistHoleRec{birth, death, ends[i], young})
+		}
+	}
+	return out
+}
+
+// persistLine fills p for collinear input: the complex is a path, every
+// edge is a merge.
+func persistLine(t *planar.Triangulation, f *Filtration, p *Persistence) {
+	n := len(f.Line)
+	if n == 0 {
+		return
+	}
+	order := make([]int32, n)
+	for i := range order {
+		order[i] = int32(i)
+	}
+	slices.SortFunc(order, func(a, b int32) int {
+		if c := cmp.Compare(f.Line[a], f.Line[b]); c != 0 {
+			return c
+		}
+		return cmp.Compare(a, b)
+	})
+	p.Merges = make([]Merge, n)
+	for k, i := range order {
+		a, b := t.Hull[i], t.Hull[i+1]
+		p.Merges[k] = Merge{Death: f.Line[i], Sites: persistSitePair(t.Source[a], t.Source[b])}
+	}
+	persistRanges(p)
+}
+
+// persistRanges sets ConnectRange and LinkRange from the merges.
+func persistRanges(p *Persistence) {
+	if n := len(p.Merges); n > 0 {
+		p.ConnectRange = p.Merges[n-1].Death
+		p.LinkRange = 2 * p.ConnectRange
+	}
+}
+
+// persistSitePair returns the two input indices in increasing order.
+func persistSitePair(a, b int32) [2]int {
+	if a > b {
+		a, b = b, a
+	}
+	return [2]int{int(a), int(b)}
+}
+
+// Betti returns the Betti numbers of the union of the closed disks of
+// radius r around the sites: the number of connected pieces and the number
+// of enclosed holes. Disks are closed, so two sites 2r apart touch at r
+// (a merge with Death == r counts as merged) and a hole with Death == r is
+// already filled (holes counted satisfy Birth <= r < Death). For r < 0 or
+// NaN the union is empty and both numbers are 0.
+func (p *Persistence) Betti(r float64) (pieces, holes int) {
+	if p == nil || !(r >= 0) {
+		return 0, 0
+	}
+	merged := sort.Search(len(p.Merges), func(i int) bool { return p.Merges[i].Death > r })
+	pieces = p.Vertices - merged
+	for _, h := range p.Holes {
+		if h.Birth <= r && r < h.Death {
+			holes++
+		}
+	}
+	return pieces, holes
+}
+
+// persistUF is a union-find (disjoint-set forest) over int32 nodes with
+// path halving and union by rank.
+type persistUF struct {
+	parent []int32
+	rank   []uint8
+}
+
+func newPersistUF(n int) *persistUF {
+	u := &persistUF{parent: make([]int32, n), rank: make([]uint8, n)}
+	for i := range u.parent {
+		u.parent[i] = int32(i)
+	}
+	return u
+}
+
+// find returns the root of x, halving the path on the way.
+func (u *persistUF) find(x int32) int32 {
+	par := u.parent
+	for par[x] != x {
+		g := par[par[x]]
+		par[x] = g
+		x = g
+	}
+	return x
+}
+
+// link joins the trees of two distinct roots and returns the new root.
+func (u *persistUF) link(a, b int32) int32 {
+	switch ra, rb := u.rank[a], u.rank[b]; {
+	case ra < rb:
+		u.parent[a] = b
+		return b
+	case ra > rb:
+		u.parent[b] = a
+	default:
+		u.parent[b] = a
+		u.rank[a]++
+	}
+	return a
+}
+
+// union joins the sets of a and b and reports whether they were distinct.
+func (u *persistUF) union(a, b int32) bool {
+	ra, rb := u.find(a), u.find(b)
+	if ra == rb {
+		return false
+	}
+	u.link(ra, rb)
+	return true
+}
+
+// persistRadixSort sorts keys ascending, carrying ids along, by a stable
+// least-significant-digit radix sort with 11-bit digits; digits that are
+// equal across all keys are skipped. Non-negative float64 bit patterns
+// sort like the values.
+func persistRadixSort(keys []uint64, ids []int32) {
+	const bits = 11
+	const nb = 1 << bits
+	const passes = (64 + bits - 1) / bits
+	n := len(keys)
+	if n < 2 {
+		return
+	}
+	var hist [passes][nb]int32
+	for _, k := range keys {
+		for d := 0; d < passes; d++ {
+			hist[d][(k>>(d*bits))&(nb-1)]++
+		}
+	}
+	k2 := make([]uint64, n)
+	i2 := make([]int32, n)
+	src, dst := keys, k2
+	isrc, idst := ids, i2
+	for d := 0; d < passes; d++ {
+		h := &hist[d]
+		if h[(keys[0]>>(d*bits))&(nb-1)] == int32(n) {
+			continue // all keys share this digit
+		}
+		var sum int32
+		for b := range h {
+			c := h[b]
+			h[b] = sum
+			sum += c
+		}
+		shift := uint(d * bits)
+		for i, k := range src {
+			b := (k >> shift) & (nb - 1)
+			j := h[b]
+			h[b] = j + 1
+			dst[j] = k
+			idst[j] = isrc[i]
+		}
+		src, dst = dst, src
+		isrc, idst = idst, isrc
+	}
+	if &src[0] != &keys[0] {
+		copy(keys, src)
+		copy(ids, isrc)
+	}
+}
+
+// persistTieByLength reorders each run of equal keys by increasing squared
+// edge length (then half-edge index) when the run is not already in that
+// order.
+func persistTieByLength(t *planar.Triangulation, keys []uint64, ids []int32) {
+	tr, xy := t.Triangles, t.Coords
+	len2 := func(e int32) float64 {
+		a, b := tr[e], tr[planar.NextHalfedge(e)]
+		dx := xy[2*a] - xy[2*b]
+		dy := xy[2*a+1] - xy[2*b+1]
+		return float64(dx*dx) + float64(dy*dy)
+	}
+	n := len(keys)
+	for i := 0; i < n; {
+		j := i + 1
+		for j < n && keys[j] == keys[i] {
+			j++
+		}
+		if j-i > 1 {
+			run := ids[i:j]
+			sorted := true
+			prev := len2(run[0])
+			for _, e := range run[1:] {
+				l := len2(e)
+				if l < prev {
+					sorted = false
+					break
+				}
+				prev = l
+			}
+			if !sorted {
+				slices.SortFunc(run, func(a, b int32) int {
+					if c := cmp.Compare(len2(a), len2(b)); c != 0 {
+						return c
+					}
+					return cmp.Compare(a, b)
+				})
+			}
+		}
+		i = j
+	}
+}
