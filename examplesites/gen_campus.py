@@ -192,6 +192,9 @@ def main():
     sites = forward(sensors_ll)
     ref = reference(area, sites, PLANNED_RANGE)
     ref["area_m2_plane"] = ref.pop("area_m2")
+    ref["full_cover_worst_lonlat"] = list(inverse([tuple(ref["full_cover_worst_xy"])])[0])
+    for g in ref["gaps"]:
+        g["deepest_lonlat"] = list(inverse([tuple(g["deepest_xy"])])[0])
     ref["area_m2_geodesic"] = (planimeter(boundary_ll) - planimeter(pond_ll)
                                - planimeter(quarry_ll))
     ref["sites"] = len(sites)

@@ -54,22 +54,15 @@ type point [2]float64
 
 // summaryJSON mirrors the summary.json fields of issue 4.
 type summaryJSON struct {
-	Sites               int     `json:"sites"`
-	AreaM2              float64 `json:"area_m2"`
-	RangeM              float64 `json:"range_m"`
-	FullCoverRangeM     float64 `json:"full_cover_range_m"`
-	FullCoverWorstPoint point   `json:"full_cover_worst_point"`
-	CoveredFraction     float64 `json:"covered_fraction"`
-	UncoveredAreaM2     float64 `json:"uncovered_area_m2"`
-	Gaps                []struct {
-		ID              int     `json:"id"`
-		AreaM2          float64 `json:"area_m2"`
-		ClosingRangeM   float64 `json:"closing_range_m"`
-		DeepestPoint    point   `json:"deepest_point"`
-		TouchesBoundary bool    `json:"touches_boundary"`
-		Sites           []int   `json:"sites"`
-	} `json:"gaps"`
-	Holes []struct {
+	Sites               int          `json:"sites"`
+	AreaM2              float64      `json:"area_m2"`
+	RangeM              float64      `json:"range_m"`
+	FullCoverRangeM     float64      `json:"full_cover_range_m"`
+	FullCoverWorstPoint point        `json:"full_cover_worst_point"`
+	CoveredFraction     float64      `json:"covered_fraction"`
+	UncoveredAreaM2     float64      `json:"uncovered_area_m2"`
+	Gaps                []summaryGap `json:"gaps"`
+	Holes               []struct {
 		BirthM     float64 `json:"birth_m"`
 		DeathM     float64 `json:"death_m"`
 		DeathPoint point   `json:"death_point"`
@@ -91,6 +84,16 @@ type summaryJSON struct {
 	Projection string             `json:"projection"`
 	Warnings   []string           `json:"warnings"`
 	Timings    map[string]float64 `json:"timings"`
+}
+
+// summaryGap is one entry of summary.json's gaps.
+type summaryGap struct {
+	ID              int     `json:"id"`
+	AreaM2          float64 `json:"area_m2"`
+	ClosingRangeM   float64 `json:"closing_range_m"`
+	DeepestPoint    point   `json:"deepest_point"`
+	TouchesBoundary bool    `json:"touches_boundary"`
+	Sites           []int   `json:"sites"`
 }
 
 // issueFields are the summary.json keys issue 4 requires.

@@ -28,6 +28,8 @@ with rings as [[x, y], ...] in local metres. The output holds:
                       the sites whose cells the gap meets with positive area.
   range_percentiles   smallest range covering 50/90/95/99 % (bisection on the
                       extrapolated uncovered area, to 1e-9 m).
+  link_range_m        longest edge of the Euclidean minimum spanning tree of
+                      the distinct sites (scipy.sparse.csgraph on all pairs).
   holes               finite H1 pairs with death > birth of the GUDHI alpha
                       complex (sqrt of its squared-radius filtration values).
 """
@@ -137,6 +139,7 @@ def reference(area, sites, r):
         holes.sort(key=lambda h: (-(h["death_m"] - h["birth_m"]), h["birth_m"]))
     u = uncovered(cells, sites, r)
     return {
+        "link_range_m": link_range(sites),
         "area_m2": total,
         "range_m": r,
         "full_cover_range_m": full,
@@ -149,6 +152,15 @@ def reference(area, sites, r):
         "source": "cmd/sitecover/testdata/ref_scene.py: GEOS via shapely %s, GUDHI %s" % (
             __import__("shapely").__version__, gudhi.__version__ if gudhi else "absent"),
     }
+
+
+def link_range(sites):
+    from scipy.sparse.csgraph import minimum_spanning_tree
+    from scipy.spatial.distance import pdist, squareform
+    pts = sorted(set(sites))
+    if len(pts) < 2:
+        return 0.0
+    return float(minimum_spanning_tree(squareform(pdist(pts))).toarray().max())
 
 
 def area_of(polys):
