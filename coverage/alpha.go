@@ -62,6 +62,11 @@ type Filtration struct {
 	// triangles): Line[i] is the value of the edge from Hull[i] to
 	// Hull[i+1], half its length. Nil otherwise.
 	Line []float64
+
+	// centre holds the circumcentre of each triangle interleaved (x, y),
+	// computed alongside the radius; ComputePersistence recomputes the
+	// ones it needs when it is absent.
+	centre []float64
 }
 
 // NewFiltration computes the alpha filtration of the Delaunay triangulation
@@ -85,29 +90,53 @@ func NewFiltration(t *planar.Triangulation) *Filtration {
 	}
 	f.Triangle = make([]float64, nt)
 	f.Edge = make([]float64, len(t.Triangles))
+	f.centre = make([]float64, 2*nt)
+	// Pass 1, per triangle (its three vertices loaded once): circumradius
+	// and circumcentre, and for each half-edge its half-length, negated
+	// when the opposite vertex of this triangle does not see the edge at
+	// an acute angle.
 	alphaParallel(nt, func(lo, hi int) {
 		xy, tr := t.Coords, t.Triangles
 		for i := lo; i < hi; i++ {
-			f.Triangle[i] = alphaCircumradius(xy, tr[3*i], tr[3*i+1], tr[3*i+2])
+			a, b, c := tr[3*i], tr[3*i+1], tr[3*i+2]
+			ax, ay := xy[2*a], xy[2*a+1]
+			bx, by := xy[2*b], xy[2*b+1]
+			cx, cy := xy[2*c], xy[2*c+1]
+			r, ox, oy, hab, hbc, hca := alphaTriangle(ax, ay, bx, by, cx, cy)
+			f.Triangle[i] = r
+			f.centre[2*i], f.centre[2*i+1] = ox, oy
+			if alphaDotSign(ax, ay, bx, by, cx, cy) <= 0 {
+				hab = -hab
+			}
+			if alphaDotSign(bx, by, cx, cy, ax, ay) <= 0 {
+				hbc = -hbc
+			}
+			if alphaDotSign(cx, cy, ax, ay, bx, by) <= 0 {
+				hca = -hca
+			}
+			f.Edge[3*i], f.Edge[3*i+1], f.Edge[3*i+2] = hab, hbc, hca
 		}
 	})
+	// Pass 2, per edge (by the half-edge that owns it): Gabriel when both
+	// sides see it at an acute angle; value the half-length, clamped to the
+	// adjacent circumradii, or the smaller circumradius.
 	alphaParallel(len(t.Triangles), func(lo, hi int) {
-		xy, tr, he := t.Coords, t.Triangles, t.Halfedges
+		he := t.Halfedges
 		for i := lo; i < hi; i++ {
 			e := int32(i)
 			opp := he[e]
 			if opp >= 0 && opp < e {
 				continue // the partner half-edge fills both
 			}
-			p, q := tr[e], tr[planar.NextHalfedge(e)]
+			h := f.Edge[e]
+			gabriel := h > 0
 			v := f.Triangle[e/3]
-			gabriel := alphaDotSign(xy, p, q, tr[planar.PrevHalfedge(e)]) > 0
 			if opp >= 0 {
+				gabriel = gabriel && f.Edge[opp] > 0
 				v = math.Min(v, f.Triangle[opp/3])
-				gabriel = gabriel && alphaDotSign(xy, p, q, tr[planar.PrevHalfedge(opp)]) > 0
 			}
 			if gabriel {
-				v = math.Min(v, alphaDist(xy, p, q)/2)
+				v = math.Min(v, h)
 			}
 			f.Edge[e] = v
 			if opp >= 0 {
@@ -152,43 +181,44 @@ func alphaDist(xy []float64, a, b int32) float64 {
 // alphaCircumradius returns the circumradius of the triangle with vertices
 // a, b, c, +Inf when they are exactly collinear.
 func alphaCircumradius(xy []float64, a, b, c int32) float64 {
-	ab := alphaDist(xy, a, b)
-	bc := alphaDist(xy, b, c)
-	ca := alphaDist(xy, c, a)
-	// Take the cross product at the vertex opposite the longest edge (the
-	// largest angle): its two arms are the shortest, which keeps the
-	// floating-point error bound smallest relative to the result.
-	o, u, w := a, b, c
-	if ab >= bc && ab >= ca {
-		o, u, w = c, a, b
-	} else if ca >= ab && ca >= bc {
-		o, u, w = b, c, a
-	}
-	d := math.Abs(alphaCross(xy, o, u, w))
-	if d == 0 {
-		return math.Inf(1)
-	}
-	return ab * bc * ca / (2 * d)
+	r, _, _, _, _, _ := alphaTriangle(xy[2*a], xy[2*a+1], xy[2*b], xy[2*b+1], xy[2*c], xy[2*c+1])
+	return r
 }
 
 // alphaCircumcentre returns the circumcentre of the triangle a, b, c.
 func alphaCircumcentre(xy []float64, a, b, c int32) (x, y float64) {
-	ab := alphaDist(xy, a, b)
-	bc := alphaDist(xy, b, c)
-	ca := alphaDist(xy, c, a)
-	o, u, w := a, b, c
+	_, x, y, _, _, _ = alphaTriangle(xy[2*a], xy[2*a+1], xy[2*b], xy[2*b+1], xy[2*c], xy[2*c+1])
+	return x, y
+}
+
+// alphaTriangle returns the circumradius r = |ab|·|bc|·|ca| / (2·|cross|)
+// and circumcentre (x, y) of triangle a, b, c, and its half edge lengths
+// |ab|/2, |bc|/2, |ca|/2. The cross product is taken at the vertex opposite
+// the longest edge (the largest angle), whose two arms are the shortest,
+// which keeps its floating-point error bound smallest relative to the
+// result. r is +Inf when the points are exactly collinear.
+func alphaTriangle(ax, ay, bx, by, cx, cy float64) (r, x, y, hab, hbc, hca float64) {
+	ab := math.Sqrt(float64((ax-bx)*(ax-bx)) + float64((ay-by)*(ay-by)))
+	bc := math.Sqrt(float64((bx-cx)*(bx-cx)) + float64((by-cy)*(by-cy)))
+	ca := math.Sqrt(float64((cx-ax)*(cx-ax)) + float64((cy-ay)*(cy-ay)))
+	ox, oy, ux, uy, wx, wy := ax, ay, bx, by, cx, cy
 	if ab >= bc && ab >= ca {
-		o, u, w = c, a, b
+		ox, oy, ux, uy, wx, wy = cx, cy, ax, ay, bx, by
 	} else if ca >= ab && ca >= bc {
-		o, u, w = b, c, a
+		ox, oy, ux, uy, wx, wy = bx, by, cx, cy, ax, ay
 	}
-	d := 2 * alphaCross(xy, o, u, w)
-	ox, oy := xy[2*o], xy[2*o+1]
-	bx, by := xy[2*u]-ox, xy[2*u+1]-oy
-	cx, cy := xy[2*w]-ox, xy[2*w+1]-oy
-	b2 := bx*bx + by*by
-	c2 := cx*cx + cy*cy
-	return ox + (cy*b2-by*c2)/d, oy + (bx*c2-cx*b2)/d
+	d := alphaCross(ox, oy, ux, uy, wx, wy)
+	if d == 0 {
+		return math.Inf(1), math.NaN(), math.NaN(), ab / 2, bc / 2, ca / 2
+	}
+	r = ab * bc * ca / (2 * math.Abs(d))
+	px, py := ux-ox, uy-oy
+	qx, qy := wx-ox, wy-oy
+	p2 := px*px + py*py
+	q2 := qx*qx + qy*qy
+	x = ox + (qy*p2-py*q2)/(2*d)
+	y = oy + (px*q2-qx*p2)/(2*d)
+	return r, x, y, ab / 2, bc / 2, ca / 2
 }
 
 // alphaEps is the unit roundoff of float64, 2^-53.
@@ -197,12 +227,9 @@ const alphaEps = 1.0 / (1 << 53)
 // alphaCross returns cross(u−o, w−o), the doubled signed area of triangle
 // o, u, w, with relative error below 2^-40: the floating-point value when
 // its error bound allows, else the exact value rounded.
-func alphaCross(xy []float64, o, u, w int32) float64 {
-	ox, oy := xy[2*o], xy[2*o+1]
-	ux, uy := xy[2*u]-ox, xy[2*u+1]-oy
-	wx, wy := xy[2*w]-ox, xy[2*w+1]-oy
-	t1 := float64(ux * wy)
-	t2 := float64(uy * wx)
+func alphaCross(ox, oy, ux, uy, wx, wy float64) float64 {
+	t1 := float64((ux - ox) * (wy - oy))
+	t2 := float64((uy - oy) * (wx - ox))
 	det := t1 - t2
 	// Error bound of the three-rounding evaluation (differences, products,
 	// difference): |det − exact| <= 4u·(|t1| + |t2|) to first order.
@@ -211,7 +238,7 @@ func alphaCross(xy []float64, o, u, w int32) float64 {
 		return det
 	}
 	var buf [32]float64
-	n := alphaExactProductDiff(buf[:], xy[2*u], ox, xy[2*w+1], oy, xy[2*u+1], oy, xy[2*w], ox)
+	n := alphaExactProductDiff(buf[:], ux, ox, wy, oy, uy, oy, wx, ox)
 	var s float64
 	for _, c := range buf[:n] {
 		s += c
@@ -222,10 +249,9 @@ func alphaCross(xy []float64, o, u, w int32) float64 {
 // alphaDotSign returns the exact sign of (p−r)·(q−r): positive when r sees
 // the segment pq at an acute angle (r outside the closed diametral disk of
 // pq), zero on the diametral circle, negative inside.
-func alphaDotSign(xy []float64, p, q, r int32) int {
-	rx, ry := xy[2*r], xy[2*r+1]
-	ax, ay := xy[2*p]-rx, xy[2*p+1]-ry
-	bx, by := xy[2*q]-rx, xy[2*q+1]-ry
+func alphaDotSign(px, py, qx, qy, rx, ry float64) int {
+	ax, ay := px-rx, py-ry
+	bx, by := qx-rx, qy-ry
 	t1 := float64(ax * bx)
 	t2 := float64(ay * by)
 	dot := t1 + t2
@@ -239,8 +265,8 @@ func alphaDotSign(xy []float64, p, q, r int32) int {
 	// Fast exact case: exact differences and exact products (integer-like
 	// grid coordinates); then t1 + t2 has the sign of t1 − (−t2), which a
 	// floating-point comparison decides exactly.
-	if alphaDiffExact(xy[2*p], rx, ax) && alphaDiffExact(xy[2*p+1], ry, ay) &&
-		alphaDiffExact(xy[2*q], rx, bx) && alphaDiffExact(xy[2*q+1], ry, by) &&
+	if alphaDiffExact(px, rx, ax) && alphaDiffExact(py, ry, ay) &&
+		alphaDiffExact(qx, rx, bx) && alphaDiffExact(qy, ry, by) &&
 		math.FMA(ax, bx, -t1) == 0 && math.FMA(ay, by, -t2) == 0 {
 		switch {
 		case t1 > -t2:
@@ -250,9 +276,9 @@ func alphaDotSign(xy []float64, p, q, r int32) int {
 		}
 		return 0
 	}
-	// General exact case: (p−r)·(q−r) = (px−rx)(qx−rx) − (py−ry)(−(qy−ry)).
+	// General exact case: (p−r)·(q−r) = (px−rx)(qx−rx) − (py−ry)(ry−qy).
 	var buf [32]float64
-	n := alphaExactProductDiff(buf[:], xy[2*p], rx, xy[2*q], rx, xy[2*p+1], ry, ry, xy[2*q+1])
+	n := alphaExactProductDiff(buf[:], px, rx, qx, rx, py, ry, ry, qy)
 	top := buf[n-1]
 	switch {
 	case top > 0:

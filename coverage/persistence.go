@@ -178,11 +178,20 @@ func ComputePersistence(t *planar.Triangulation, f *Filtration) *Persistence {
 	xy := t.Coords
 	p.Holes = make([]Hole, nh)
 	<-done
+	centre := f.centre
+	if len(centre) != 2*nt {
+		centre = nil
+	}
 	alphaParallel(nh, func(lo, hi int) {
 		for j := lo; j < hi; j++ {
 			r := &recs[order[j]]
 			y := tids[r.rank]
-			cx, cy := alphaCircumcentre(xy, tr[3*y], tr[3*y+1], tr[3*y+2])
+			var cx, cy float64
+			if centre != nil {
+				cx, cy = centre[2*y], centre[2*y+1]
+			} else {
+				cx, cy = alphaCircumcentre(xy, tr[3*y], tr[3*y+1], tr[3*y+2])
+			}
 			p.Holes[j] = Hole{
 				Birth:      r.birth,
 				Death:      r.death,

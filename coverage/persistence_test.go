@@ -756,6 +756,12 @@ func TestPersistenceNilAndMismatch(t *testing.T) {
 	if q := ComputePersistence(tri, nil); !reflect.DeepEqual(p, q) {
 		t.Error("nil filtration changed the result")
 	}
+	// A filtration built by hand (no cached circumcentres) gives the same
+	// result: the centres are recomputed by the same formula.
+	g := NewFiltration(tri)
+	if q := ComputePersistence(tri, &Filtration{Edge: g.Edge, Triangle: g.Triangle}); !reflect.DeepEqual(p, q) {
+		t.Error("filtration without circumcentres changed the result")
+	}
 }
 
 // persistRat returns the exact value of x as a big.Rat.
@@ -784,7 +790,7 @@ func TestAlphaDotSignExact(t *testing.T) {
 			rx, ry = qx, float64(rng.IntN(1000))
 		}
 		xy := []float64{px, py, qx, qy, rx, ry}
-		got := alphaDotSign(xy, 0, 1, 2)
+		got := alphaDotSign(px, py, qx, qy, rx, ry)
 		ax := new(big.Rat).Sub(persistRat(px), persistRat(rx))
 		ay := new(big.Rat).Sub(persistRat(py), persistRat(ry))
 		bx := new(big.Rat).Sub(persistRat(qx), persistRat(rx))
@@ -810,7 +816,7 @@ func TestAlphaCrossAccuracy(t *testing.T) {
 		cx := ax + u*(bx-ax) + (rng.Float64()-0.5)*scale*math.Pow(10, -float64(rng.IntN(14)))
 		cy := ay + u*(by-ay)
 		xy := []float64{ax, ay, bx, by, cx, cy}
-		got := alphaCross(xy, 0, 1, 2)
+		got := alphaCross(ax, ay, bx, by, cx, cy)
 		ux := new(big.Rat).Sub(persistRat(bx), persistRat(ax))
 		uy := new(big.Rat).Sub(persistRat(by), persistRat(ay))
 		wx := new(big.Rat).Sub(persistRat(cx), persistRat(ax))
