@@ -1,0 +1,523 @@
+// Tests of ClipCells against GEOS (shapely), against the partition identity
+// (Voronoi cells tile the plane, so clipped areas sum to the area), and for
+// internal consistency of the EdgeSource labels.
+
+package planar
+
+import (
+	"encoding/json"
+	"fmt"
+	"math"
+	"os"
+	"os/exec"
+	"path/filepath"
+	"strconv"
+	"testing"
+	"time"
+
+	"github.com/paulmach/orb"
+)
+
+// clipRef is the JSON written by testdata/ref_cells.py.
+type clipRef struct {
+	Seed  int64 `json:"seed"`
+	NPoly int   `json:"n_poly"`
+	Cells []struct {
+		Name       string           `json:"name"`
+		Region     [][][][2]float64 `json:"region"`
+		Sites      [][2]float64     `json:"sites"`
+		Areas      []*float64       `json:"areas"`
+		RegionArea float64          `json:"region_area"`
+	} `json:"cells"`
+	Disk []struct {
+		Name string    `json:"name"`
+		Ring []float64 `json:"ring"`
+		Cx   float64   `json:"cx"`
+		Cy   float64   `json:"cy"`
+		R    float64   `json:"r"`
+		Lo   float64   `json:"lo"`
+		Hi   float64   `json:"hi"`
+	} `json:"disk"`
+}
+
+func loadClipRef(t *testing.T, path string) *clipRef {
+	t.Helper()
+	b, err := os.ReadFile(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	var ref clipRef
+	if err := json.Unmarshal(b, &ref); err != nil {
+		t.Fatal(err)
+	}
+	if len(ref.Cells) == 0 || len(ref.Disk) == 0 {
+		t.Fatalf("%s: no cases", path)
+	}
+	return &ref
+}
+
+// runRefScript runs ref_cells.py with a fresh seed (SITECOVER_LIVE only).
+func runRefScript(t *testing.T) *clipRef {
+	t.Helper()
+	if os.Getenv("SITECOVER_LIVE") != "1" {
+		t.Skip("set SITECOVER_LIVE=1 to re-run testdata/ref_cells.py (GEOS via Debian python3-shapely) on a fresh seed")
+	}
+	seed := time.Now().UnixNano() % 1000000007
+	out := filepath.Join(t.TempDir(), "cells.json")
+	cmd := exec.Command("/usr/bin/python3", "testdata/ref_cells.py", "--seed", strconv.FormatInt(seed, 10), "--out", out)
+	if msg, err := cmd.CombinedOutput(); err != nil {
+		t.Fatalf("ref_cells.py --seed %d: %v\n%s", seed, err, msg)
+	}
+	t.Logf("live reference seed %d", seed)
+	return loadClipRef(t, out)
+}
+
+func refMultiPolygon(rg [][][][2]float64) orb.MultiPolygon {
+	mp := make(orb.MultiPolygon, len(rg))
+	for p, poly := range rg {
+		for _, ring := range poly {
+			r := make(orb.Ring, len(ring))
+			for i, pt := range ring {
+				r[i] = orb.Point{pt[0], pt[1]}
+			}
+			mp[p] = append(mp[p], r)
+		}
+	}
+	return mp
+}
+
+func TestClipCellsGEOS(t *testing.T) {
+	checkClipRef(t, loadClipRef(t, "testdata/cells_ref.json"))
+}
+
+func TestClipCellsGEOSLive(t *testing.T) {
+	checkClipRef(t, runRefScript(t))
+}
+
+func checkClipRef(t *testing.T, ref *clipRef) {
+	for _, cs := range ref.Cells {
+		t.Run(cs.Name, func(t *testing.T) {
+			reg, err := NewRegion(refMultiPolygon(cs.Region))
+			if err != nil {
+				t.Fatal(err)
+			}
+			// Reference: GEOS area of the site area (shapely MultiPolygon.area).
+			if d := math.Abs(reg.Area() - cs.RegionArea); d > 1e-12*cs.RegionArea {
+				t.Errorf("Region.Area %.15g, GEOS %.15g", reg.Area(), cs.RegionArea)
+			}
+			pts := make([]orb.Point, len(cs.Sites))
+			for i, s := range cs.Sites {
+				pts[i] = orb.Point{s[0], s[1]}
+			}
+			tri, err := Triangulate(pts)
+			if err != nil {
+				t.Fatal(err)
+			}
+			cells, st, err := clipCells(tri, reg, 2)
+			if err != nil {
+				t.Fatal(err)
+			}
+			if st.anomalies != 0 {
+				t.Errorf("%d inconsistent boundary orders", st.anomalies)
+			}
+			// Reference: GEOS Voronoi diagram ∩ site area, per site
+			// (GEOSVoronoiDiagram, GEOSIntersection, GEOSArea via shapely).
+			// Tolerance 1e-9 relative to the cell area, or to the mean
+			// cell area for tiny slivers.
+			mean := cs.RegionArea / float64(len(cs.Sites))
+			for v := 0; v < tri.NumVertices(); v++ {
+				want := cs.Areas[tri.Source[v]]
+				if want == nil {
+					t.Fatalf("site %d has no reference area", tri.Source[v])
+				}
+				got := cells.Area[v]
+				if d := math.Abs(got - *want); d > 1e-9*math.Max(*want, mean) {
+					t.Errorf("site %d (%g, %g): area %.12g, GEOS %.12g (diff %.3g)", tri.Source[v],
+						pts[tri.Source[v]][0], pts[tri.Source[v]][1], got, *want, got-*want)
+				}
+			}
+			checkCells(t, tri, reg, cells)
+		})
+	}
+}
+
+// checkCells checks the structure of a Cells value: ring orientation and
+// size, areas equal to the rings' shoelace sums and summing to the area of
+// the region (Voronoi cells partition the plane), labels valid and
+// consistent between neighbours, and every point close to its own site no
+// farther than to the labelled neighbour.
+func checkCells(t *testing.T, tri *Triangulation, reg *Region, c *Cells) {
+	t.Helper()
+	nv := tri.NumVertices()
+	if c.NumSites() != nv || len(c.Area) != nv {
+		t.Fatalf("cells for %d sites, want %d", c.NumSites(), nv)
+	}
+	b := reg.Bound()
+	scale := math.Max(b.Max[0]-b.Min[0], b.Max[1]-b.Min[1])
+	mag := math.Max(math.Max(math.Abs(b.Min[0]), math.Abs(b.Max[0])), math.Max(math.Abs(b.Min[1]), math.Abs(b.Max[1])))
+	tol := 1e-9*scale + 1e-12*mag
+	sum := 0.0
+	type key struct{ x0, y0, x1, y1 float64 }
+	bis := map[[2]int32][]key{}
+	for v := 0; v < nv; v++ {
+		px, py := tri.Coords[2*v], tri.Coords[2*v+1]
+		area := 0.0
+		for p := c.SiteStart[v]; p < c.SiteStart[v+1]; p++ {
+			for k := c.PolyStart[p]; k < c.PolyStart[p+1]; k++ {
+				xy, src := c.Ring(int(k))
+				n := len(xy) / 2
+				if n < 3 {
+					t.Fatalf("site %d: ring with %d points", v, n)
+				}
+				a := clipShoelace(xy, px, py)
+				if k == c.PolyStart[p] && !(a > 0) {
+					t.Errorf("site %d: exterior ring area %g not positive", v, a)
+				}
+				if k > c.PolyStart[p] && !(a < 0) {
+					t.Errorf("site %d: hole ring area %g not negative", v, a)
+				}
+				area += a
+				for i := 0; i < n; i++ {
+					j := (i + 1) % n
+					x0, y0, x1, y1 := xy[2*i], xy[2*i+1], xy[2*j], xy[2*j+1]
+					if x0 == x1 && y0 == y1 {
+						t.Errorf("site %d: zero-length edge at (%g, %g)", v, x0, y0)
+					}
+					lab := src[i]
+					if ring, ok := BoundaryRing(lab); ok {
+						if ring >= reg.NumRings() {
+							t.Fatalf("site %d: label %d names ring %d of %d", v, lab, ring, reg.NumRings())
+						}
+						continue
+					}
+					if lab < 0 || int(lab) >= nv || int(lab) == v {
+						t.Fatalf("site %d: bad label %d", v, lab)
+					}
+					// Both ends equidistant from v and lab.
+					qx, qy := tri.Coords[2*lab], tri.Coords[2*lab+1]
+					for _, e := range [][2]float64{{x0, y0}, {x1, y1}} {
+						dv := math.Hypot(e[0]-px, e[1]-py)
+						dq := math.Hypot(e[0]-qx, e[1]-qy)
+						if math.Abs(dv-dq) > tol {
+							t.Errorf("site %d: edge labelled %d has end (%g, %g) at distances %g and %g", v, lab, e[0], e[1], dv, dq)
+						}
+					}
+					bis[[2]int32{int32(v), lab}] = append(bis[[2]int32{int32(v), lab}], key{x0, y0, x1, y1})
+				}
+			}
+		}
+		if d := math.Abs(area - c.Area[v]); d > 1e-12*math.Max(1, math.Abs(area)) {
+			t.Errorf("site %d: Area %g, rings sum to %g", v, c.Area[v], area)
+		}
+		sum += c.Area[v]
+	}
+	// Reference: the Voronoi cells partition the plane, so their parts in
+	// the region add up to the region's area (textbook identity).
+	if d := math.Abs(sum - reg.Area()); d > 1e-9*reg.Area() {
+		t.Errorf("cell areas sum to %.15g, region area %.15g (rel %.3g)", sum, reg.Area(), d/reg.Area())
+	}
+	// A bisector edge of v labelled j runs reversed in j's cell, labelled v.
+	// Each (v, j) edge set must be covered by the reversed (j, v) set.
+	for kv, edges := range bis {
+		back := bis[[2]int32{kv[1], kv[0]}]
+		for _, e := range edges {
+			found := false
+			for _, f := range back {
+				if math.Abs(e.x0-f.x1) <= tol && math.Abs(e.y0-f.y1) <= tol && math.Abs(e.x1-f.x0) <= tol && math.Abs(e.y1-f.y0) <= tol {
+					found = true
+					break
+				}
+			}
+			if !found {
+				t.Errorf("edge (%g, %g)-(%g, %g) of site %d labelled %d has no reversed twin in site %d's cell", e.x0, e.y0, e.x1, e.y1, kv[0], kv[1], kv[1])
+			}
+		}
+	}
+}
+
+// clipTestRegion is a non-convex polygon with a hole plus a second part,
+// scaled to [0, side]² (the U shape of ref_cells.py).
+func clipTestRegion(t testing.TB, side float64) *Region {
+	s := side / 150
+	ring := func(pts ...[2]float64) orb.Ring {
+		r := make(orb.Ring, len(pts))
+		for i, p := range pts {
+			r[i] = orb.Point{p[0] * s, p[1] * s}
+		}
+		return r
+	}
+	mp := orb.MultiPolygon{
+		{
+			ring([2]float64{0, 0}, [2]float64{100, 0}, [2]float64{100, 150}, [2]float64{60, 150}, [2]float64{60, 40}, [2]float64{40, 40}, [2]float64{40, 150}, [2]float64{0, 150}),
+			ring([2]float64{10, 10}, [2]float64{10, 30}, [2]float64{30, 30}, [2]float64{30, 10}),
+		},
+		{
+			ring([2]float64{115, 0}, [2]float64{150, 0}, [2]float64{150, 90}, [2]float64{115, 90}),
+			ring([2]float64{125, 20}, [2]float64{140, 20}, [2]float64{140, 70}, [2]float64{125, 70}),
+		},
+	}
+	r, err := NewRegion(mp)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return r
+}
+
+func TestClipCellsPartition(t *testing.T) {
+	line := func(n int, x0, y0, dx, dy float64) []orb.Point {
+		p := make([]orb.Point, n)
+		for i := range p {
+			p[i] = orb.Point{x0 + float64(i)*dx, y0 + float64(i)*dy}
+		}
+		return p
+	}
+	cases := []struct {
+		name string
+		pts  []orb.Point
+	}{
+		{"uniform-1000", uniformPoints(1000, 11)},
+		{"uniform-50", uniformPoints(50, 12)},
+		{"grid-900", gridPoints(900)},
+		{"grid-400", gridPoints(400)},
+		{"clustered-1500", clusteredPoints(1500, 13)},
+		{"one", []orb.Point{{37, 41}}},
+		{"one-outside", []orb.Point{{-1000, 5}}},
+		{"two", []orb.Point{{37, 41}, {201, 12}}},
+		{"collinear", line(12, -20, 5, 31, 27)},
+		{"collinear-horizontal", line(8, -10, 150, 45, 0)},
+		{"outside", []orb.Point{{-50, -50}, {-60, 600}, {900, 900}, {1000, -20}}},
+		{"ring-of-sites", func() []orb.Point {
+			var p []orb.Point
+			for k := 0; k < 64; k++ {
+				a := 2 * math.Pi * float64(k) / 64
+				p = append(p, orb.Point{150 + 100*math.Cos(a), 150 + 100*math.Sin(a)})
+			}
+			return p
+		}()},
+	}
+	for _, cs := range cases {
+		t.Run(cs.name, func(t *testing.T) {
+			// Region covering most of the points' extent.
+			b := orb.MultiPoint(cs.pts).Bound()
+			side := math.Max(300, math.Max(b.Max[0]-b.Min[0], b.Max[1]-b.Min[1]))
+			reg := clipTestRegion(t, side)
+			tri, err := Triangulate(cs.pts)
+			if err != nil {
+				t.Fatal(err)
+			}
+			for _, workers := range []int{1, 2} {
+				cells, st, err := clipCells(tri, reg, workers)
+				if err != nil {
+					t.Fatal(err)
+				}
+				if st.anomalies != 0 {
+					t.Errorf("workers %d: %d inconsistent boundary orders", workers, st.anomalies)
+				}
+				checkCells(t, tri, reg, cells)
+			}
+		})
+	}
+}
+
+// TestClipCellsDeterministic checks that the output does not depend on the
+// number of goroutines.
+func TestClipCellsDeterministic(t *testing.T) {
+	pts := uniformPoints(30000, 5)
+	tri, err := Triangulate(pts)
+	if err != nil {
+		t.Fatal(err)
+	}
+	reg := clipTestRegion(t, math.Sqrt(30000)*10)
+	a, _, err := clipCells(tri, reg, 1)
+	if err != nil {
+		t.Fatal(err)
+	}
+	b, _, err := clipCells(tri, reg, 3)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if fmt.Sprint(a.SiteStart, a.PolyStart, a.RingStart) != fmt.Sprint(b.SiteStart, b.PolyStart, b.RingStart) {
+		t.Fatal("index arrays differ between 1 and 3 goroutines")
+	}
+	for i := range a.XY {
+		if a.XY[i] != b.XY[i] {
+			t.Fatalf("XY[%d] differs: %v vs %v", i, a.XY[i], b.XY[i])
+		}
+	}
+	for i := range a.EdgeSource {
+		if a.EdgeSource[i] != b.EdgeSource[i] {
+			t.Fatalf("EdgeSource[%d] differs", i)
+		}
+	}
+}
+
+// TestClipCellsGridExact checks a square grid whose bisectors carry the
+// region boundary: every cell inside is the whole grid square. Reference:
+// the Voronoi cell of a point of a square lattice of spacing s is the
+// square of side s centred on it (textbook geometry; Okabe et al. 2000).
+func TestClipCellsGridExact(t *testing.T) {
+	var pts []orb.Point
+	for j := -2; j < 12; j++ {
+		for i := -2; i < 12; i++ {
+			pts = append(pts, orb.Point{10*float64(i) + 5, 10*float64(j) + 5})
+		}
+	}
+	// L-shaped area with a square hole, all on grid lines.
+	reg, err := NewRegion(orb.MultiPolygon{{
+		{{0, 0}, {100, 0}, {100, 40}, {50, 40}, {50, 100}, {0, 100}, {0, 0}},
+		{{10, 10}, {30, 10}, {30, 30}, {10, 30}, {10, 10}},
+	}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	tri, err := Triangulate(pts)
+	if err != nil {
+		t.Fatal(err)
+	}
+	cells, st, err := clipCells(tri, reg, 2)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if st.anomalies != 0 {
+		t.Errorf("%d anomalies", st.anomalies)
+	}
+	for v := 0; v < tri.NumVertices(); v++ {
+		x, y := tri.Coords[2*v], tri.Coords[2*v+1]
+		want := 0.0
+		if reg.Contains(x, y) {
+			want = 100
+		}
+		if cells.Area[v] != want {
+			t.Errorf("site (%g, %g): area %g, want %g", x, y, cells.Area[v], want)
+		}
+		if want > 0 {
+			mp := cells.Polygons(int32(v))
+			if len(mp) != 1 || len(mp[0]) != 1 || len(mp[0][0]) != 5 {
+				t.Errorf("site (%g, %g): cell %v, want one square", x, y, mp)
+			}
+		}
+	}
+	checkCells(t, tri, reg, cells)
+}
+
+// TestClipCellsSingleSite checks that one site's cell is the whole area,
+// ring for ring, with every edge labelled by its ring.
+func TestClipCellsSingleSite(t *testing.T) {
+	reg := clipTestRegion(t, 300)
+	tri, err := Triangulate([]orb.Point{{-40, 77}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	cells, err := ClipCells(tri, reg)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if cells.NumPolygons() != reg.NumPolygons() || cells.NumRings() != reg.NumRings() {
+		t.Fatalf("%d polygons %d rings, want %d and %d", cells.NumPolygons(), cells.NumRings(), reg.NumPolygons(), reg.NumRings())
+	}
+	for k := 0; k < cells.NumRings(); k++ {
+		xy, src := cells.Ring(k)
+		found := false
+		for q := 0; q < reg.NumRings(); q++ {
+			if fmt.Sprint(xy) == fmt.Sprint(reg.Ring(q)) {
+				found = true
+				for _, l := range src {
+					if l != BoundaryEdge(q) {
+						t.Errorf("ring %d: label %d, want %d", k, l, BoundaryEdge(q))
+					}
+				}
+			}
+		}
+		if !found {
+			t.Errorf("ring %d is not a ring of the region", k)
+		}
+	}
+	if cells.Area[0] != reg.Area() {
+		t.Errorf("area %g, want %g", cells.Area[0], reg.Area())
+	}
+}
+
+// TestClipCellsDegenerate covers layouts where region vertices fall
+// exactly on bisectors and Voronoi vertices, and region edges run along
+// bisectors, with the partition identity and GEOS-free exact values.
+func TestClipCellsDegenerate(t *testing.T) {
+	// Four sites around the origin: the Voronoi vertex is (0, 0) and the
+	// bisectors are the axes. The region is a diamond with its vertices on
+	// the axes, and a square with a corner at the Voronoi vertex.
+	sites := []orb.Point{{1, 1}, {-1, 1}, {-1, -1}, {1, -1}}
+	tri, err := Triangulate(sites)
+	if err != nil {
+		t.Fatal(err)
+	}
+	cases := []struct {
+		name string
+		mp   orb.MultiPolygon
+		want []float64 // per input site
+	}{
+		// Reference for all: elementary areas of the quadrants of the shape.
+		{"diamond", orb.MultiPolygon{{{{3, 0}, {0, 3}, {-3, 0}, {0, -3}}}}, []float64{4.5, 4.5, 4.5, 4.5}},
+		{"square-at-vertex", orb.MultiPolygon{{{{0, 0}, {2, 0}, {2, 2}, {0, 2}}}}, []float64{4, 0, 0, 0}},
+		{"square-centred", orb.MultiPolygon{{{{-2, -2}, {2, -2}, {2, 2}, {-2, 2}}}}, []float64{4, 4, 4, 4}},
+		{"strip-on-axis", orb.MultiPolygon{{{{-2, 0}, {2, 0}, {2, 1}, {-2, 1}}}}, []float64{2, 2, 0, 0}},
+		// Apex on the bisector x = 0, base below the bisector y = 0: the
+		// part above y = 0 is a triangle of base 2 and height 1.
+		{"triangle-vertex-on-axis", orb.MultiPolygon{{{{0, 1}, {-2, -1}, {2, -1}}}}, []float64{0.5, 0.5, 1.5, 1.5}},
+		{"hole-at-vertex", orb.MultiPolygon{{{{-3, -3}, {3, -3}, {3, 3}, {-3, 3}}, {{0, 0}, {0, 1}, {1, 1}, {1, 0}}}}, []float64{8, 9, 9, 9}},
+		{"two-parts-touching-axes", orb.MultiPolygon{{{{0, 0}, {1, 0}, {1, 1}, {0, 1}}}, {{{-1, -1}, {0, -1}, {0, 0}, {-1, 0}}}}, nil},
+	}
+	for _, cs := range cases {
+		t.Run(cs.name, func(t *testing.T) {
+			reg, err := NewRegion(cs.mp)
+			if err != nil {
+				if cs.want == nil {
+					return // touching parts are rejected by NewRegion
+				}
+				t.Fatal(err)
+			}
+			cells, st, err := clipCells(tri, reg, 1)
+			if err != nil {
+				t.Fatal(err)
+			}
+			if st.anomalies != 0 {
+				t.Errorf("%d anomalies", st.anomalies)
+			}
+			for i, w := range cs.want {
+				v := tri.Vertex[i]
+				if math.Abs(cells.Area[v]-w) > 1e-14 {
+					t.Errorf("site %v: area %.17g, want %g", sites[i], cells.Area[v], w)
+				}
+			}
+			checkCells(t, tri, reg, cells)
+		})
+	}
+}
+
+func TestClipCellsErrors(t *testing.T) {
+	reg := clipTestRegion(t, 100)
+	tri, err := Triangulate([]orb.Point{{1, 2}, {3, 4}, {5, 1}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if _, err := ClipCells(nil, reg); err == nil {
+		t.Error("nil triangulation accepted")
+	}
+	if _, err := ClipCells(tri, nil); err == nil {
+		t.Error("nil region accepted")
+	}
+	if _, err := ClipCells(tri, &Region{}); err == nil {
+		t.Error("empty region accepted")
+	}
+	bad := *tri
+	bad.Inedge = bad.Inedge[:1]
+	if _, err := ClipCells(&bad, reg); err == nil {
+		t.Error("inconsistent triangulation accepted")
+	}
+	empty, err := Triangulate(nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	c, err := ClipCells(empty, reg)
+	if err != nil || c.NumSites() != 0 {
+		t.Errorf("no sites: %v, %v", c, err)
+	}
+}
