@@ -36,7 +36,7 @@
 //
 // Values are those of NewFiltration (relative error below 1e-14); the
 // pairing itself is exact for those values. H1 pairs shorter than
-// HoleResolution relative are dropped as zero-length (rounding of
+// HoleResolution relative are dropped as zero-length (rounding of nearly
 // cocircular sites makes them).
 //
 // Cost: radix sorts (11-bit digits) of the edges and of the triangles on
@@ -62,9 +62,11 @@ import (
 // HoleResolution is the relative persistence below which an H1 pair is
 // treated as zero-length and left out of Persistence.Holes: a pair is kept
 // when Death − Birth > HoleResolution·Death. Filtration values carry a
-// relative error below 1e-14, so a shorter pair cannot be told from the
-// zero-length pairs of exactly cocircular sites (a hexagon ring whose
-// coordinates were rounded to float64 yields such pairs).
+// relative error below 1e-14, so when four or more sites are nearly
+// cocircular (a ring of sites placed with cos and sin, a rotated grid),
+// values that tie in exact arithmetic can come out in either order and
+// create pairs about 1e-16 long that exact arithmetic does not have; a pair
+// this short cannot be told from those.
 const HoleResolution = 1e-12
 
 // ComputePersistence returns the H0 and H1 persistence pairs of the alpha

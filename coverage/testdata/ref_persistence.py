@@ -21,7 +21,9 @@ MST edge lengths are written as lengths (metres).
 
 Layouts: random uniform in a square of side sqrt(n)*10 m, gaussian clusters,
 a square grid of spacing 10 m (cocircular quadruples everywhere), a square
-grid jittered by 1e-6 m, and a triangular lattice of spacing 10 m. Points
+grid jittered by 1e-6 m, a square grid rotated by 30 degrees (nearly
+cocircular after rounding), rings of sites on regular polygons (nearly
+cocircular too), and a triangular lattice of spacing 10 m. Points
 are written out with full precision (repr of float64 round-trips exactly).
 
 Usage: ref_persistence.py [--seed S] [--out FILE] [--small]
@@ -74,6 +76,29 @@ def tri_lattice(rows, cols, s=10.0):
     return np.array(pts, dtype=float)
 
 
+def rotated(pts, degrees):
+    # Rotation about the origin; the rounded coordinates leave each unit
+    # square only nearly cocircular.
+    a = math.radians(degrees)
+    c, s = math.cos(a), math.sin(a)
+    return np.array([[c * x - s * y, s * x + c * y] for x, y in pts], dtype=float)
+
+
+def rings(k):
+    # k regular polygons of 5 to 24 sites placed with cos/sin (nearly
+    # cocircular after rounding), centres 100 m apart, radii 10 to 33.5 m.
+    pts = []
+    sizes = [5, 6, 8, 12, 24, 7]
+    for i in range(k):
+        n = sizes[i % len(sizes)]
+        cx, cy = (i % 8) * 100.0 + 0.25 * i, (i // 8) * 100.0 - 0.5 * i
+        r = 10 + 0.5 * i
+        for j in range(n):
+            a = j * 2 * math.pi / n
+            pts.append([cx + r * math.cos(a), cy + r * math.sin(a)])
+    return np.array(pts, dtype=float)
+
+
 def case(name, pts, simplices=False, mst=True):
     pts = np.asarray(pts, dtype=float)
     ac = gudhi.AlphaComplex(points=pts, precision='exact')
@@ -120,6 +145,8 @@ def main():
         case("clustered-800", clustered(rng, 800)),
         case("grid-20x20", grid(20)),
         case("trilattice-25x30", tri_lattice(25, 30)),
+        case("rotated-grid-20x20", rotated(grid(20), 30.0)),
+        case("rings-48", rings(48)),
     ]
     if not a.small:
         jit = grid(30) + rng.uniform(-1e-6, 1e-6, size=(900, 2))
