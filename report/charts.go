@@ -1,0 +1,236 @@
+// The two PNG charts, drawn with gonum.org/v1/plot.
+//
+// Coverage curve: the covered share of the area against the common range,
+// from the analysis's exact curve (sampled, then joined by straight
+// segments; the samples are exact values, the segments between them an
+// interpolation), with vertical markers at the planned range, the 95 %
+// range and the full-cover range.
+//
+// Hole lifetimes: each hole of the union of disks as a point (range at
+// which it appears, range at which it closes) above the diagonal; the
+// farther from the diagonal, the longer the hole lives (persistence
+// diagram; Edelsbrunner & Harer, Computational Topology, AMS 2010, §VII).
+
+package report
+
+import (
+	"bytes"
+	"fmt"
+	"image/color"
+	"image/png"
+	"math"
+
+	"gonum.org/v1/plot"
+	"gonum.org/v1/plot/font"
+	"gonum.org/v1/plot/plotter"
+	"gonum.org/v1/plot/vg"
+	"gonum.org/v1/plot/vg/draw"
+	"gonum.org/v1/plot/vg/vgimg"
+)
+
+// curveSamples is the number of exact samples of the coverage curve.
+const curveSamples = 400
+
+// chartSize returns the pixel size and DPI of a chart of width w: fonts
+// scale with the width (12 pt text is 32 px at 1600 px).
+func chartSize(w int) (int, int, int) {
+	dpi := max(48, int(math.Round(96*float64(w)/800)))
+	return w, int(math.Round(0.62 * float64(w))), dpi
+}
+
+func renderPlot(p *plot.Plot, w int) ([]byte, error) {
+	pw, ph, dpi := chartSize(w)
+	inch := func(px int) vg.Length { return vg.Length(float64(px)/float64(dpi)) * vg.Inch }
+	c := vgimg.NewWith(vgimg.UseWH(inch(pw), inch(ph)), vgimg.UseDPI(dpi))
+	p.Draw(draw.New(c))
+	var b bytes.Buffer
+	if err := (&png.Encoder{CompressionLevel: png.BestSpeed}).Encode(&b, c.Image()); err != nil {
+		return nil, err
+	}
+	return b.Bytes(), nil
+}
+
+func styleAxes(p *plot.Plot) {
+	sans := func(f *font.Font) { f.Typeface, f.Variant = "Liberation", "Sans" }
+	sans(&p.Title.TextStyle.Font)
+	sans(&p.X.Label.TextStyle.Font)
+	sans(&p.Y.Label.TextStyle.Font)
+	sans(&p.X.Tick.Label.Font)
+	sans(&p.Y.Tick.Label.Font)
+	sans(&p.Legend.TextStyle.Font)
+	p.Title.TextStyle.Font.Size = vg.Points(15)
+	p.Title.Padding = vg.Points(8)
+	for _, ax := range []*plot.Axis{&p.X, &p.Y} {
+		ax.Label.TextStyle.Font.Size = vg.Points(12)
+		ax.Tick.Label.Font.Size = vg.Points(10.5)
+	}
+	p.Legend.TextStyle.Font.Size = vg.Points(10.5)
+	p.Add(plotter.NewGrid())
+}
+
+func vline(x, y0, y1 float64, col color.Color, dashes []vg.Length, width float64) (*plotter.Line, error) {
+	l, err := plotter.NewLine(plotter.XYs{{X: x, Y: y0}, {X: x, Y: y1}})
+	if err != nil {
+		return nil, err
+	}
+	l.Color = col
+	l.Width = vg.Points(width)
+	l.Dashes = dashes
+	return l, nil
+}
+
+func (s *scene) curveChart(width int) ([]byte, error) {
+	a := s.a
+	full := a.FullCover.Range
+	p95 := s.rangeAt(0.95)
+	xmax := 1.08 * math.Max(math.Max(full, a.Range), 1e-9)
+
+	xy := s.curvePoints(xmax)
+	p := plot.New()
+	title := "Covered share of the site area against range"
+	if s.m.Title != "" {
+		title += " (" + s.m.Title + ")"
+	}
+	p.Title.Text = title
+	p.X.Label.Text = "Range (m)"
+	p.Y.Label.Text = "Area covered (%)"
+	p.X.Min, p.X.Max = 0, xmax
+	// headroom above 100 % holds the legend clear of the curve and markers
+	p.Y.Min, p.Y.Max = 0, 128
+	p.Y.Tick.Marker = percentTicks{}
+	styleAxes(p)
+
+	line, err := plotter.NewLine(xy)
+	if err != nil {
+		return nil, err
+	}
+	line.Color = colInk
+	line.Width = vg.Points(1.8)
+	p.Add(line)
+	p.Legend.Add("covered share", line)
+
+	marks := []struct {
+		x      float64
+		label  string
+		col    color.Color
+		dashes []vg.Length
+	}{
+		{a.Range, fmt.Sprintf("planned range %s: %.2f %%", metresShort(a.Range), 100*a.CoveredFraction), oiBlue, []vg.Length{vg.Points(6), vg.Points(3)}},
+		{p95, fmt.Sprintf("95 %% covered at %s", metresShort(p95)), oiOrange, []vg.Length{vg.Points(2), vg.Points(2)}},
+		{full, fmt.Sprintf("full cover at %s", metresShort(full)), oiVermilion, nil},
+	}
+	for _, m := range marks {
+		l, err := vline(m.x, 0, 100, m.col, m.dashes, 1.6)
+		if err != nil {
+			return nil, err
+		}
+		p.Add(l)
+		p.Legend.Add(m.label, l)
+	}
+	p.Legend.Left = true
+	p.Legend.Top = true
+	p.Legend.XOffs = vg.Points(8)
+	p.Legend.YOffs = vg.Points(-4)
+	return renderPlot(p, width)
+}
+
+// percentTicks marks 0..100 % only (the axis runs higher to make room
+// for the legend).
+type percentTicks struct{}
+
+// Ticks returns major ticks every 20 % and minor ticks every 10 %.
+func (percentTicks) Ticks(min, max float64) []plot.Tick {
+	var t []plot.Tick
+	for v := 0; v <= 100; v += 10 {
+		tk := plot.Tick{Value: float64(v)}
+		if v%20 == 0 {
+			tk.Label = fmt.Sprint(v)
+		}
+		t = append(t, tk)
+	}
+	return t
+}
+
+// curvePoints samples the coverage curve in percent: exact samples from 0
+// to the full-cover range (Curve.Samples, which includes the curve's
+// breakpoints), then the flat 100 % up to xmax.
+func (s *scene) curvePoints(xmax float64) plotter.XYs {
+	smp := s.l.Curve().Samples(curveSamples)
+	xy := make(plotter.XYs, 0, len(smp)+1)
+	for _, p := range smp {
+		xy = append(xy, plotter.XY{X: p.Range, Y: 100 * p.Fraction})
+	}
+	if n := len(xy); n > 0 && xy[n-1].X < xmax {
+		xy = append(xy, plotter.XY{X: xmax, Y: xy[n-1].Y})
+	}
+	return xy
+}
+
+func (s *scene) holeChart(width int) ([]byte, error) {
+	a := s.a
+	p := plot.New()
+	var holes []struct{ b, d float64 }
+	if a.Persistence != nil {
+		for _, h := range a.Persistence.Holes {
+			holes = append(holes, struct{ b, d float64 }{h.Birth, h.Death})
+		}
+	}
+	title := fmt.Sprintf("Holes of the union of disks: %d", len(holes))
+	if s.m.Title != "" {
+		title += " (" + s.m.Title + ")"
+	}
+	p.Title.Text = title
+	p.X.Label.Text = "Range at which the hole appears (m)"
+	p.Y.Label.Text = "Range at which it closes (m)"
+	styleAxes(p)
+	top := math.Max(a.Range, 1e-9)
+	for _, h := range holes {
+		top = math.Max(top, h.d)
+	}
+	top *= 1.08
+	p.X.Min, p.X.Max = 0, top
+	p.Y.Min, p.Y.Max = 0, top
+
+	diag, err := plotter.NewLine(plotter.XYs{{X: 0, Y: 0}, {X: top, Y: top}})
+	if err != nil {
+		return nil, err
+	}
+	diag.Color = colFrame
+	diag.Width = vg.Points(1.2)
+	p.Add(diag)
+	p.Legend.Add("appears = closes", diag)
+
+	// holes open at the planned range lie left of x = r and above y = r
+	hr, err := plotter.NewLine(plotter.XYs{{X: 0, Y: a.Range}, {X: a.Range, Y: a.Range}, {X: a.Range, Y: top}})
+	if err != nil {
+		return nil, err
+	}
+	hr.Color = oiBlue
+	hr.Width = vg.Points(1.4)
+	hr.Dashes = []vg.Length{vg.Points(6), vg.Points(3)}
+	p.Add(hr)
+	p.Legend.Add(fmt.Sprintf("planned range %s (holes open there: upper left)", metresShort(a.Range)), hr)
+
+	if len(holes) > 0 {
+		pts := make(plotter.XYs, len(holes))
+		for i, h := range holes {
+			pts[i] = plotter.XY{X: h.b, Y: h.d}
+		}
+		sc, err := plotter.NewScatter(pts)
+		if err != nil {
+			return nil, err
+		}
+		sc.GlyphStyle.Color = oiVermilion
+		sc.GlyphStyle.Radius = vg.Points(3)
+		sc.GlyphStyle.Shape = draw.CircleGlyph{}
+		p.Add(sc)
+		p.Legend.Add("hole", sc)
+	} else {
+		p.Legend.Add("no holes at any range")
+	}
+	p.Legend.Left = false
+	p.Legend.Top = false
+	p.Legend.XOffs = vg.Points(-6)
+	p.Legend.YOffs = vg.Points(6)
+	return renderPlot(p, width)
+}

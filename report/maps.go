@@ -1,0 +1,560 @@
+// The two PNG maps: service areas and coverage at the planned range.
+//
+// Service areas are coloured so that cells sharing an edge differ: the
+// adjacency of the clipped cells is a subgraph of the Delaunay
+// triangulation, hence planar and 5-degenerate, and greedy colouring in
+// smallest-last order (Matula & Beck, "Smallest-last ordering and
+// clustering and graph coloring algorithms", J. ACM 30, 1983) uses at most
+// six colours; the palette has seven.
+//
+// Speed: every layer is one path filled or stroked once (all disks in one
+// path, all cells of one colour in one path), so a map costs a handful of
+// rasterizer passes whatever the number of sites. Per-site labels, disk
+// outlines and cell edges are dropped when sites are too dense to show
+// them (mean spacing below a few pixels).
+
+package report
+
+import (
+	"fmt"
+	"image"
+	"image/color"
+	"math"
+	"slices"
+
+	"github.com/paulmach/orb"
+)
+
+// maxNumbered is how many gaps get a number and a deepest-point mark.
+const maxNumbered = 40
+
+// maxLabelledSites is the largest site count labelled by name on a map.
+const maxLabelledSites = 60
+
+// density describes how crowded the sites are on the page.
+type density struct {
+	spacing float64 // mean site spacing in px
+}
+
+func (s *scene) density(c *canvas) density {
+	n := 1
+	if s.l.Tri != nil {
+		n = max(s.l.Tri.NumVertices(), 1)
+	} else if len(s.l.Sites) > 0 {
+		n = len(s.l.Sites)
+	}
+	// spacing over the area actually drawn, not the frame
+	a := s.l.AreaM2 * c.k * c.k
+	if !(a > 0) {
+		a = c.fw * c.fh
+	}
+	return density{spacing: math.Sqrt(a / float64(n))}
+}
+
+func (d density) siteRadius(u float64) float64 {
+	switch {
+	case d.spacing >= 30*u:
+		return 4.5 * u
+	case d.spacing >= 10*u:
+		return 2.5 * u
+	default:
+		return math.Max(0.8, math.Min(1.5*u, d.spacing/5))
+	}
+}
+
+// areaFill adds every ring of the site area to f.
+func (s *scene) areaFill(f *fastFill) {
+	ar := s.l.Area
+	if ar == nil {
+		return
+	}
+	for p := range ar.NumPolygons() {
+		for k := int(ar.PolyStart[p]); k < int(ar.PolyStart[p+1]); k++ {
+			f.ringXY(ar.Ring(k), k == int(ar.PolyStart[p]))
+		}
+	}
+}
+
+// drawArea paints the page outside the area grey and the area white, and
+// returns the area's mask.
+func (s *scene) drawArea(c *canvas) *image.Alpha {
+	c.dc.SetColor(colOutside)
+	c.dc.DrawRectangle(c.fx, c.fy, c.fw, c.fh)
+	c.dc.Fill()
+	f := c.newFill()
+	s.areaFill(f)
+	m := f.mask()
+	c.paint(m, color.NRGBA(colArea), nil)
+	return m
+}
+
+// drawSites draws the site marks, and labels when there are few.
+func (s *scene) drawSites(c *canvas, d density) {
+	rho := d.siteRadius(c.u)
+	halo := 0.0
+	if rho > 2 {
+		halo = 1.2 * c.u
+	}
+	if halo > 0 {
+		f := c.newFill()
+		unit := unitCircle(circleSides(rho + halo))
+		s.forSites(func(x, y float64) { f.circle(c.ox+x*c.k, c.oy-y*c.k, rho+halo, unit) })
+		c.paint(f.mask(), color.NRGBA{0xFF, 0xFF, 0xFF, 0xFF}, nil)
+	}
+	f := c.newFill()
+	unit := unitCircle(circleSides(rho))
+	s.forSites(func(x, y float64) { f.circle(c.ox+x*c.k, c.oy-y*c.k, rho, unit) })
+	c.paint(f.mask(), color.NRGBA(colInk), nil)
+	if len(s.l.Sites) <= maxLabelledSites && d.spacing >= 40*c.u {
+		seen := map[orb.Point]bool{}
+		for i, p := range s.l.Sites {
+			if seen[p] {
+				continue
+			}
+			seen[p] = true
+			x, y := c.px(p)
+			c.haloText(s.shortLabel(i), x+rho+3*c.u, y-rho-2*c.u, 0, 0, 14, false, colInk)
+		}
+	}
+}
+
+// shortLabel is a site's map label: its name, or #i.
+func (s *scene) shortLabel(i int) string {
+	if n := s.name(i); n != "" {
+		return n
+	}
+	return fmt.Sprintf("#%d", i)
+}
+
+// cellColours colours the clipped cells so that neighbours differ, by
+// greedy colouring in smallest-last order. It returns a palette index per
+// triangulation vertex.
+func (s *scene) cellColours() []int8 {
+	cl := s.l.Cells
+	n := len(cl.SiteStart) - 1
+	if n <= 0 {
+		return nil
+	}
+	// neighbour pairs from the cell edges lying on bisectors
+	var keys []uint64
+	for v := range n {
+		for p := cl.SiteStart[v]; p < cl.SiteStart[v+1]; p++ {
+			for k := cl.PolyStart[p]; k < cl.PolyStart[p+1]; k++ {
+				for i := cl.RingStart[k]; i < cl.RingStart[k+1]; i++ {
+					j := cl.EdgeSource[i]
+					if j < 0 || int(j) == v || int(j) >= n {
+						continue
+					}
+					a, b := uint64(v), uint64(j)
+					if a > b {
+						a, b = b, a
+					}
+					keys = append(keys, a<<32|b)
+				}
+			}
+		}
+	}
+	slices.Sort(keys)
+	keys = slices.Compact(keys)
+	deg := make([]int32, n+1)
+	for _, key := range keys {
+		deg[key>>32]++
+		deg[key&0xffffffff]++
+	}
+	start := make([]int32, n+1)
+	for v := range n {
+		start[v+1] = start[v] + deg[v]
+	}
+	adj := make([]int32, start[n])
+	fill := slices.Clone(start[:n])
+	for _, key := range keys {
+		a, b := int32(key>>32), int32(key&0xffffffff)
+		adj[fill[a]] = b
+		fill[a]++
+		adj[fill[b]] = a
+		fill[b]++
+	}
+	// smallest-last order with degree buckets
+	d := make([]int32, n)
+	maxDeg := int32(0)
+	for v := range n {
+		d[v] = start[v+1] - start[v]
+		maxDeg = max(maxDeg, d[v])
+	}
+	buckets := make([][]int32, maxDeg+1)
+	for v := range n {
+		buckets[d[v]] = append(buckets[d[v]], int32(v))
+	}
+	removed := make([]bool, n)
+	order := make([]int32, 0, n)
+	low := int32(0)
+	for len(order) < n {
+		for low > 0 && len(buckets[low-1]) > 0 {
+			low--
+		}
+		for len(buckets[low]) == 0 {
+			low++
+		}
+		b := buckets[low]
+		v := b[len(b)-1]
+		buckets[low] = b[:len(b)-1]
+		if removed[v] || d[v] != low {
+			continue // stale entry
+		}
+		removed[v] = true
+		order = append(order, v)
+		for _, w := range adj[start[v]:start[v+1]] {
+			if !removed[w] {
+				d[w]--
+				buckets[d[w]] = append(buckets[d[w]], w)
+			}
+		}
+	}
+	col := make([]int8, n)
+	for i := range col {
+		col[i] = -1
+	}
+	var used [64]bool
+	for i := n - 1; i >= 0; i-- {
+		v := order[i]
+		for k := range used {
+			used[k] = false
+		}
+		for _, w := range adj[start[v]:start[v+1]] {
+			if c := col[w]; c >= 0 && int(c) < len(used) {
+				used[c] = true
+			}
+		}
+		c := 0
+		for c < len(used)-1 && used[c] {
+			c++
+		}
+		col[v] = int8(c)
+	}
+	return col
+}
+
+// cellFill adds the rings of vertex v's clipped cell to f.
+func (s *scene) cellFill(f *fastFill, v int) {
+	cl := s.l.Cells
+	for p := cl.SiteStart[v]; p < cl.SiteStart[v+1]; p++ {
+		for k := cl.PolyStart[p]; k < cl.PolyStart[p+1]; k++ {
+			f.ringXY(cl.XY[2*cl.RingStart[k]:2*cl.RingStart[k+1]], k == cl.PolyStart[p])
+		}
+	}
+}
+
+// cellEdges adds every cell edge once (bisector edges from the lower
+// vertex, boundary edges always) as strokes of width w px.
+func (s *scene) cellEdges(f *fastFill, w float64) {
+	cl := s.l.Cells
+	c := f.c
+	for v := range len(cl.SiteStart) - 1 {
+		for p := cl.SiteStart[v]; p < cl.SiteStart[v+1]; p++ {
+			for k := cl.PolyStart[p]; k < cl.PolyStart[p+1]; k++ {
+				lo, hi := cl.RingStart[k], cl.RingStart[k+1]
+				for i := lo; i < hi; i++ {
+					if j := cl.EdgeSource[i]; j >= 0 && int(j) < v {
+						continue // drawn from the other side
+					}
+					n := i + 1
+					if n == hi {
+						n = lo
+					}
+					f.segment(c.ox+cl.XY[2*i]*c.k, c.oy-cl.XY[2*i+1]*c.k, c.ox+cl.XY[2*n]*c.k, c.oy-cl.XY[2*n+1]*c.k, w)
+				}
+			}
+		}
+	}
+}
+
+// drawZones fills and hatches the exclusion zones (holes of the area).
+func (s *scene) drawZones(c *canvas) {
+	ar := s.l.Area
+	if ar == nil || ar.NumRings() == ar.NumPolygons() {
+		return
+	}
+	f := c.newFill()
+	for p := range ar.NumPolygons() {
+		for k := int(ar.PolyStart[p]) + 1; k < int(ar.PolyStart[p+1]); k++ {
+			f.ringXY(ar.Ring(k), true)
+		}
+	}
+	c.paintHatch(f.mask())
+}
+
+// strokeArea draws the outline of the site area and its zones.
+func (s *scene) strokeArea(c *canvas) {
+	ar := s.l.Area
+	if ar == nil {
+		return
+	}
+	f := c.newFill()
+	for k := range ar.NumRings() {
+		f.polylineXY(ar.Ring(k), 2.2*c.u)
+	}
+	c.paint(f.mask(), color.NRGBA(colInk), nil)
+}
+
+// drawServiceAreaMap draws the service-area map.
+func (s *scene) drawServiceAreaMap(width int) (*canvas, error) {
+	items := []legendItem{
+		{"Service area: the part of the site nearest to one device (colours only tell neighbours apart)", swatchFill(cellPalette[0], colCellEdge)},
+		{"Device site", swatchDot},
+		{"Site area outline", swatchLine(colInk, 2.2)},
+		{"Exclusion zone (no coverage needed)", swatchHatch},
+	}
+	notes := []string{
+		"North up: the y axis of the local plane (grid north). " + s.planeNote(),
+	}
+	c, err := layoutCanvas(s.extent(), width, items, len(notes))
+	if err != nil {
+		return nil, err
+	}
+	d := s.density(c)
+	n := len(s.l.Sites)
+	title := "Service areas"
+	if s.m.Title != "" {
+		title += ": " + s.m.Title
+	}
+	sub := fmt.Sprintf("%d sites, site area %s; each device serves the part of the site nearest to it", n, haText(s.l.AreaM2))
+	c.title(title, sub)
+
+	s.drawArea(c)
+	if cl := s.l.Cells; cl != nil {
+		cols := s.cellColours()
+		nv := len(cl.SiteStart) - 1
+		for k := range cellPalette {
+			f := c.newFill()
+			drawn := false
+			for v := range nv {
+				if int(cols[v])%len(cellPalette) == k {
+					s.cellFill(f, v)
+					drawn = true
+				}
+			}
+			if drawn {
+				c.paint(f.mask(), color.NRGBA(cellPalette[k]), nil)
+			}
+		}
+		if d.spacing >= 4*c.u {
+			w, alpha := 1.0*c.u, uint8(0xB0)
+			if d.spacing < 12*c.u {
+				w, alpha = 0.6, 0x80
+			}
+			f := c.newFill()
+			s.cellEdges(f, w)
+			c.paint(f.mask(), color.NRGBA{0x44, 0x44, 0x44, alpha}, nil)
+		}
+	}
+	s.drawZones(c)
+	s.strokeArea(c)
+	s.drawSites(c, d)
+	c.frame()
+	c.scaleBar()
+	c.northArrow()
+	c.legend(items, notes)
+	return c, nil
+}
+
+func (s *scene) serviceAreaMap(width int) ([]byte, error) {
+	c, err := s.drawServiceAreaMap(width)
+	if err != nil {
+		return nil, err
+	}
+	return c.encode()
+}
+
+func (s *scene) planeNote() string {
+	if s.geographic() {
+		p := s.projection()
+		if p == "" {
+			return "Drawn in the local plane."
+		}
+		return "Local plane: " + p + "."
+	}
+	return "Coordinates: local plane x/y in metres, as given."
+}
+
+func haText(m2 float64) string {
+	if m2 >= 1e6 {
+		return fmt.Sprintf("%.3f km2 (%.1f ha)", m2/1e6, m2/1e4)
+	}
+	return fmt.Sprintf("%.0f m2 (%.2f ha)", m2, m2/1e4)
+}
+
+// drawCoverageMap draws the coverage map at the planned range.
+func (s *scene) drawCoverageMap(width int) (*canvas, error) {
+	a := s.a
+	numbered := min(len(a.Gaps), maxNumbered)
+	gapLabel := "Gap: not covered at the planned range, numbered by closing range (1 closes last)"
+	if numbered < len(a.Gaps) {
+		gapLabel = fmt.Sprintf("Gap: not covered at the planned range (the %d with the largest closing range are numbered)", numbered)
+	}
+	items := []legendItem{
+		{fmt.Sprintf("Covered: within %s of a device", metresShort(a.Range)), swatchFill(colCovered, colDiskEdge)},
+		{gapLabel, swatchFill(colGap, nil)},
+		{"Deepest point of a gap (where it closes last)", swatchDeepest},
+		{"Device site", swatchDot},
+		{"Site area outline", swatchLine(colInk, 2.2)},
+		{"Exclusion zone (no coverage needed)", swatchHatch},
+	}
+	if len(a.Gaps) == 0 && len(a.FullCover.Worst) > 0 {
+		items[2] = legendItem{"Point farthest from every device (full-cover range needed there)", swatchWorst}
+	}
+	notes := []string{
+		"North up: the y axis of the local plane (grid north). " + s.planeNote(),
+		"Disks drawn within 0.2 px of true circles; gap outlines as computed by the analysis (arcs as short chords).",
+	}
+	c, err := layoutCanvas(s.extent(), width, items, len(notes))
+	if err != nil {
+		return nil, err
+	}
+	d := s.density(c)
+	title := "Coverage at " + metresShort(a.Range)
+	if s.m.Title != "" {
+		title += ": " + s.m.Title
+	}
+	sub := fmt.Sprintf("%.2f %% of %s covered, %d gap(s), %.0f m2 uncovered; full cover needs %s",
+		100*a.CoveredFraction, haText(s.l.AreaM2), len(a.Gaps), a.UncoveredArea, metresShort(a.FullCover.Range))
+	c.title(title, sub)
+
+	areaMask := s.drawArea(c)
+	rho := a.Range * c.k
+	unit := unitCircle(circleSides(rho))
+	f := c.newFill()
+	s.forSites(func(x, y float64) { f.circle(c.ox+x*c.k, c.oy-y*c.k, rho, unit) })
+	c.paint(f.mask(), color.NRGBA(colCovered), areaMask) // disks only inside the area
+	if d.spacing >= 8*c.u && rho >= 3 {
+		f := c.newFill()
+		w := 1.0 * c.u
+		s.forSites(func(x, y float64) {
+			px, py := c.ox+x*c.k, c.oy-y*c.k
+			n := len(unit) / 2
+			for i := range n {
+				j := (i + 1) % n
+				f.segment(px+rho*unit[2*i], py+rho*unit[2*i+1], px+rho*unit[2*j], py+rho*unit[2*j+1], w)
+			}
+		})
+		c.paint(f.mask(), color.NRGBA{colDiskEdge.R, colDiskEdge.G, colDiskEdge.B, 0x90}, areaMask)
+	}
+	s.drawZones(c)
+
+	f = c.newFill()
+	var tmp []float64
+	for _, g := range a.Gaps {
+		for _, poly := range g.Outline {
+			for k, ring := range poly {
+				tmp = ringXY(ring, tmp[:0])
+				f.ringXY(tmp, k == 0)
+			}
+		}
+	}
+	c.paint(f.mask(), color.NRGBA(colGap), nil)
+
+	s.strokeArea(c)
+	s.drawSites(c, d)
+	for i := 0; i < numbered; i++ {
+		x, y := c.px(a.Gaps[i].Deepest)
+		c.deepestMark(x, y)
+	}
+	for i := 0; i < numbered; i++ {
+		g := a.Gaps[i]
+		x, y := c.px(g.Deepest)
+		c.haloText(fmt.Sprint(g.ID), x+9*c.u, y-8*c.u, 0, 0, 17, true, colInk)
+	}
+	if len(a.Gaps) == 0 {
+		for _, p := range a.FullCover.Worst[:min(len(a.FullCover.Worst), maxNumbered)] {
+			x, y := c.px(p)
+			c.worstMark(x, y)
+		}
+	}
+	c.frame()
+	c.scaleBar()
+	c.northArrow()
+	c.legend(items, notes)
+	return c, nil
+}
+
+func (s *scene) coverageMap(width int) ([]byte, error) {
+	c, err := s.drawCoverageMap(width)
+	if err != nil {
+		return nil, err
+	}
+	return c.encode()
+}
+
+// ringXY flattens an orb ring into dst as x, y pairs without the closing
+// repeat.
+func ringXY(r orb.Ring, dst []float64) []float64 {
+	n := len(r)
+	if n > 1 && r[0] == r[n-1] {
+		n--
+	}
+	for _, p := range r[:n] {
+		dst = append(dst, p[0], p[1])
+	}
+	return dst
+}
+
+// forSites calls f with every distinct site position.
+func (s *scene) forSites(f func(x, y float64)) {
+	if tri := s.l.Tri; tri != nil {
+		for v := range tri.NumVertices() {
+			f(tri.Coords[2*v], tri.Coords[2*v+1])
+		}
+		return
+	}
+	for _, p := range s.l.Sites {
+		f(p[0], p[1])
+	}
+}
+
+// deepestMarkRadius is the radius of the deepest-point ring in layout
+// units; its centre is left open so the gap colour shows through.
+const deepestMarkRadius = 7
+
+// deepestMark draws an open ring with a white halo at (x, y).
+func (c *canvas) deepestMark(x, y float64) {
+	r := deepestMarkRadius * c.u
+	c.dc.SetColor(color.White)
+	c.dc.SetLineWidth(4.5 * c.u)
+	c.dc.DrawCircle(x, y, r)
+	c.dc.Stroke()
+	c.dc.SetColor(colInk)
+	c.dc.SetLineWidth(2.2 * c.u)
+	c.dc.DrawCircle(x, y, r)
+	c.dc.Stroke()
+}
+
+// worstMark draws a diamond at the full-cover worst point.
+func (c *canvas) worstMark(x, y float64) {
+	r := 9 * c.u
+	c.dc.MoveTo(x, y-r)
+	c.dc.LineTo(x+r, y)
+	c.dc.LineTo(x, y+r)
+	c.dc.LineTo(x-r, y)
+	c.dc.ClosePath()
+	c.dc.SetColor(color.White)
+	c.dc.SetLineWidth(4.5 * c.u)
+	c.dc.StrokePreserve()
+	c.dc.SetColor(colWorstMark)
+	c.dc.SetLineWidth(2.2 * c.u)
+	c.dc.Stroke()
+}
+
+func swatchDeepest(c *canvas, x, y, w, h float64) {
+	c.dc.SetColor(colGap)
+	c.dc.DrawRectangle(x, y, w, h)
+	c.dc.Fill()
+	c.deepestMark(x+w/2, y+h/2)
+}
+
+func swatchWorst(c *canvas, x, y, w, h float64) { c.worstMark(x+w/2, y+h/2) }
+
+func metresShort(v float64) string {
+	if v >= 10000 {
+		return trimFloat(math.Round(v/10)/100) + " km"
+	}
+	return trimFloat(math.Round(v*100)/100) + " m"
+}

@@ -1,0 +1,164 @@
+// The scene: one analysis (or layout) with its metadata, and the small
+// conversions every output shares — site labels, output coordinates and
+// range percentiles.
+//
+// Output coordinates are rounded once, here: WGS84 degrees to 7 decimals
+// (1e-7° of latitude is 1.1 cm, of longitude at most that), local metres
+// to 3 decimals (1 mm). A percentile absent from Analysis.Percentiles is
+// found by bisection on the coverage curve, which is monotone in the
+// range, to 1e-9 relative.
+
+package report
+
+import (
+	"fmt"
+	"math"
+
+	"github.com/paulmach/orb"
+	"github.com/sitecover/sitecover/coverage"
+)
+
+// scene bundles what every output needs.
+type scene struct {
+	l     *coverage.Layout
+	a     *coverage.Analysis // nil for the cells command
+	m     Meta
+	cells []coverage.ServiceArea
+}
+
+func newScene(l *coverage.Layout, a *coverage.Analysis, m Meta) *scene {
+	s := &scene{l: l, a: a, m: m}
+	if l != nil {
+		s.cells = l.ServiceAreas()
+	}
+	return s
+}
+
+// geographic reports whether points are written as WGS84 lon/lat.
+func (s *scene) geographic() bool { return !s.m.Planar && s.m.ToLonLat != nil }
+
+// point converts a local-plane point to an output point, rounded.
+func (s *scene) point(p orb.Point) Point {
+	if s.geographic() {
+		lon, lat := s.m.ToLonLat(p[0], p[1])
+		return Point{round(lon, 7), round(lat, 7)}
+	}
+	return Point{round(p[0], 3), round(p[1], 3)}
+}
+
+// round rounds v to d decimals (half away from zero). Values too large to
+// scale are returned unchanged.
+func round(v float64, d int) float64 {
+	p := math.Pow10(d)
+	if math.Abs(v) > 1e300/p {
+		return v
+	}
+	r := math.Round(v*p) / p
+	if r == 0 {
+		return 0 // no negative zero in the outputs
+	}
+	return r
+}
+
+// name returns the name of input site i, or "".
+func (s *scene) name(i int) string {
+	if i >= 0 && i < len(s.m.SiteNames) {
+		return s.m.SiteNames[i]
+	}
+	return ""
+}
+
+// label returns "#i name" or "#i" for input site i (0-based).
+func (s *scene) label(i int) string {
+	if n := s.name(i); n != "" {
+		return fmt.Sprintf("#%d %s", i, n)
+	}
+	return fmt.Sprintf("#%d", i)
+}
+
+// duplicates counts input sites merged into an earlier identical one.
+func (s *scene) duplicates() int {
+	if s.l == nil || s.l.Tri == nil {
+		return 0
+	}
+	return len(s.l.Sites) - s.l.Tri.NumVertices()
+}
+
+// warnings returns Meta.Warnings plus the report's own, never nil.
+func (s *scene) warnings() []string {
+	w := append([]string{}, s.m.Warnings...)
+	if s.m.AreaFromHull {
+		w = append(w, "no site area given: the convex hull of the sites was used")
+	}
+	return w
+}
+
+// percentileFractions are the covered shares reported as range percentiles.
+var percentileFractions = [4]float64{0.50, 0.90, 0.95, 0.99}
+
+// percentiles returns the ranges covering 50/90/95/99 % of the area.
+func (s *scene) percentiles() Percentiles {
+	var v [4]float64
+	for k, f := range percentileFractions {
+		v[k] = s.rangeAt(f)
+	}
+	return Percentiles{P50: v[0], P90: v[1], P95: v[2], P99: v[3]}
+}
+
+// rangeAt returns the smallest range covering fraction f of the area.
+func (s *scene) rangeAt(f float64) float64 {
+	if s.a == nil {
+		return 0
+	}
+	for _, p := range s.a.Percentiles {
+		if math.Abs(p.Fraction-f) < 1e-9 {
+			return p.Range
+		}
+	}
+	hi := s.a.FullCover.Range
+	if hi <= 0 || s.l.AreaM2 <= 0 {
+		return 0
+	}
+	c := s.l.Curve()
+	lo := 0.0
+	for i := 0; i < 200 && hi-lo > 1e-9*hi; i++ {
+		mid := (lo + hi) / 2
+		if c.CoveredFraction(mid) >= f {
+			hi = mid
+		} else {
+			lo = mid
+		}
+	}
+	return hi
+}
+
+// siteBound returns the bounding box of the sites.
+func (s *scene) siteBound() orb.Bound {
+	if len(s.l.Sites) == 0 {
+		return orb.Bound{}
+	}
+	b := orb.Bound{Min: s.l.Sites[0], Max: s.l.Sites[0]}
+	for _, p := range s.l.Sites {
+		b = b.Extend(p)
+	}
+	return b
+}
+
+// extent returns the box the maps show: the area, or the sites when the
+// area is empty.
+func (s *scene) extent() orb.Bound {
+	var b orb.Bound
+	ok := false
+	if s.l.Area != nil && len(s.l.Area.XY) >= 2 {
+		xy := s.l.Area.XY
+		b = orb.Bound{Min: orb.Point{xy[0], xy[1]}, Max: orb.Point{xy[0], xy[1]}}
+		for i := 0; i+1 < len(xy); i += 2 {
+			b = b.Extend(orb.Point{xy[i], xy[i+1]})
+		}
+		ok = true
+	}
+	if !ok {
+		b = s.siteBound()
+	}
+	return b
+}

@@ -1,0 +1,409 @@
+// report.txt: the human-readable record of a run, plain fixed-width text.
+//
+// Every number carries its unit. Figures are printed as computed by
+// package coverage, rounded for display only: lengths to 0.01 m, areas to
+// 0.1 m², shares to 0.001 %, degrees to 7 decimals (about 1 cm). Tables
+// show every row; free-text columns (names, site lists) come last so the
+// numeric columns stay aligned whatever the names are.
+
+package report
+
+import (
+	"bytes"
+	"fmt"
+	"math"
+	"strings"
+	"unicode/utf8"
+
+	"github.com/paulmach/orb"
+)
+
+// maxListed caps lists inside one table cell or line (worst points, nearby
+// sites); the full lists are in summary.json.
+const maxListed = 6
+
+func (s *scene) text() []byte {
+	var b bytes.Buffer
+	s.textHeader(&b)
+	if s.m.LifeSafety {
+		section(&b, "CAUTIONS (LIFE-SAFETY DEVICES)")
+		b.WriteString(Cautions() + "\n")
+	}
+	s.textInputs(&b)
+	if s.a != nil {
+		s.textSummary(&b)
+		s.textGaps(&b)
+	} else {
+		s.textLayoutSummary(&b)
+	}
+	s.textCells(&b)
+	if s.a != nil {
+		s.textHoles(&b)
+	}
+	s.textAccuracy(&b)
+	section(&b, "WARNINGS")
+	if w := s.warnings(); len(w) == 0 {
+		b.WriteString("  none\n")
+	} else {
+		for _, line := range w {
+			b.WriteString("  - " + line + "\n")
+		}
+	}
+	if !s.m.LifeSafety {
+		section(&b, "CAUTIONS")
+		b.WriteString(Cautions() + "\n")
+	}
+	return b.Bytes()
+}
+
+func section(b *bytes.Buffer, title string) {
+	b.WriteString("\n" + title + "\n" + strings.Repeat("-", utf8.RuneCountInString(title)) + "\n")
+}
+
+func (s *scene) textHeader(b *bytes.Buffer) {
+	title := "Site coverage report"
+	if s.a == nil {
+		title = "Service-area report"
+	}
+	if s.m.Title != "" {
+		title += ": " + s.m.Title
+	}
+	b.WriteString(title + "\n" + strings.Repeat("=", utf8.RuneCountInString(title)) + "\n")
+	v := s.m.Version
+	if v == "" {
+		v = "(version not set)"
+	}
+	cmd := s.m.Command
+	if cmd == "" {
+		cmd = "-"
+	}
+	fmt.Fprintf(b, "Written by sitecover %s, command %q.\n", v, cmd)
+	b.WriteString("Sites are numbered #0, #1, ... in input order (as in summary.json).\n")
+}
+
+func orDash(v string) string {
+	if v == "" {
+		return "-"
+	}
+	return v
+}
+
+func (s *scene) textInputs(b *bytes.Buffer) {
+	section(b, "INPUTS")
+	kv := &kvList{}
+	kv.add("Sites file", orDash(s.m.SitesFile))
+	if s.m.AreaFromHull {
+		kv.add("Area file", "none: the convex hull of the sites is the area")
+	} else {
+		kv.add("Area file", orDash(s.m.AreaFile))
+	}
+	kv.add("Exclusion file", orDash(s.m.ExcludeFile))
+	if s.geographic() {
+		kv.add("Coordinates", "WGS84 longitude/latitude, analysed in a local plane (metres)")
+	} else {
+		kv.add("Coordinates", "local plane x/y in metres, as given (--planar)")
+	}
+	kv.add("Local plane", orDash(s.projection()))
+	if s.geographic() {
+		kv.add("Largest scale error", fmt.Sprintf("%.2g (|k-1| over the extent: plane distances within %.4f %% of the ground, areas within %.4f %%)",
+			s.m.MaxScaleError, 100*s.m.MaxScaleError, 100*(2*s.m.MaxScaleError+s.m.MaxScaleError*s.m.MaxScaleError)))
+	} else {
+		kv.add("Largest scale error", "none (no projection)")
+	}
+	n := len(s.l.Sites)
+	d := s.duplicates()
+	sites := fmt.Sprintf("%d", n)
+	if d > 0 {
+		sites += fmt.Sprintf(" (%d at the same position as an earlier site, merged: %d distinct positions)", d, n-d)
+	}
+	kv.add("Sites", sites)
+	kv.add("Site area", fmt.Sprintf("%s (%s), exclusion zones removed", m2(s.l.AreaM2), ha(s.l.AreaM2)))
+	if s.l.Area != nil {
+		holes := s.l.Area.NumRings() - s.l.Area.NumPolygons()
+		kv.add("Area outline", fmt.Sprintf("%d polygon(s), %d exclusion zone(s)", s.l.Area.NumPolygons(), holes))
+	}
+	kv.write(b)
+}
+
+func (s *scene) textLayoutSummary(b *bytes.Buffer) {
+	section(b, "SERVICE AREAS IN BRIEF")
+	kv := &kvList{}
+	var largest float64
+	largestSite := -1
+	for _, c := range s.cells {
+		if c.Farthest > largest || largestSite < 0 {
+			largest, largestSite = c.Farthest, c.Site
+		}
+	}
+	if largestSite >= 0 {
+		kv.add("Farthest point from its site", fmt.Sprintf("%s, in the service area of %s: the range that covers the whole area",
+			metres(largest), s.label(largestSite)))
+	}
+	kv.write(b)
+}
+
+func (s *scene) textSummary(b *bytes.Buffer) {
+	a := s.a
+	section(b, "COVERAGE AT THE PLANNED RANGE")
+	kv := &kvList{}
+	kv.add("Planned range", metres(a.Range))
+	kv.add("Covered", fmt.Sprintf("%.3f %% of the area", 100*a.CoveredFraction))
+	kv.add("Uncovered", fmt.Sprintf("%s (%s)", m2(a.UncoveredArea), ha(a.UncoveredArea)))
+	kv.add("Gaps", fmt.Sprintf("%d (uncovered pieces of the area, listed below)", len(a.Gaps)))
+	kv.add("Pieces of coverage", fmt.Sprintf("%d (separate groups of overlapping disks)", a.Pieces))
+	kv.add("Enclosed holes", fmt.Sprintf("%d (holes ringed by coverage)", a.EnclosedHoles))
+	kv.write(b)
+
+	section(b, "RANGES")
+	kv = &kvList{}
+	fc := a.FullCover
+	kv.add("Full-cover range", metres(fc.Range)+": the smallest common range that leaves no gap")
+	for i, p := range fc.Worst {
+		if i == maxListed {
+			kv.add("", fmt.Sprintf("... and %d more points at the same distance (all in summary.json)", len(fc.Worst)-maxListed))
+			break
+		}
+		where := s.pointText(p)
+		if i < len(fc.WorstSites) {
+			where += ", nearest site " + s.label(fc.WorstSites[i])
+		}
+		key := ""
+		if i == 0 {
+			key = "  needed at"
+		}
+		kv.add(key, where)
+	}
+	pc := s.percentiles()
+	kv.add("Range covering 50 %", metres(pc.P50))
+	kv.add("Range covering 90 %", metres(pc.P90))
+	kv.add("Range covering 95 %", metres(pc.P95))
+	kv.add("Range covering 99 %", metres(pc.P99))
+	if p := a.Persistence; p != nil {
+		kv.add("Link range", metres(p.LinkRange)+": longest edge of the minimum spanning tree; devices linking this far form one mesh")
+		kv.add("Connect range", metres(p.ConnectRange)+": at this range all disks form one piece (half the link range)")
+	}
+	kv.write(b)
+}
+
+func (s *scene) textGaps(b *bytes.Buffer) {
+	a := s.a
+	section(b, fmt.Sprintf("GAPS AT %s, BY CLOSING RANGE", metres(a.Range)))
+	if len(a.Gaps) == 0 {
+		b.WriteString("  none: the whole area is covered at the planned range\n")
+		return
+	}
+	b.WriteString("  Closing range: the range at which the gap vanishes (distance from its deepest\n")
+	b.WriteString("  point to the nearest site). Edge: the gap reaches the area's outline or an\n")
+	b.WriteString("  exclusion zone; enclosed: coverage surrounds it.\n\n")
+	t := &table{}
+	hx, hy := s.pointHeads()
+	t.head("ID", "Area m2", "Closing m", hx, hy, "Kind", "Nearby sites")
+	t.left(5, 6)
+	for _, g := range a.Gaps {
+		kind := "enclosed"
+		if g.TouchesBoundary {
+			kind = "edge"
+		}
+		px, py := s.pointCols(g.Deepest)
+		names := make([]string, 0, len(g.Sites))
+		for i, site := range g.Sites {
+			if i == maxListed {
+				names = append(names, fmt.Sprintf("+%d more", len(g.Sites)-maxListed))
+				break
+			}
+			names = append(names, s.label(site))
+		}
+		t.row(fmt.Sprint(g.ID), fmt.Sprintf("%.1f", g.Area), fmt.Sprintf("%.2f", g.ClosingRange), px, py, kind, strings.Join(names, ", "))
+	}
+	t.write(b)
+}
+
+func (s *scene) textCells(b *bytes.Buffer) {
+	section(b, "SERVICE AREAS (each site's Voronoi cell within the area)")
+	if len(s.cells) == 0 {
+		b.WriteString("  none\n")
+		return
+	}
+	b.WriteString("  Share: of the whole area. Farthest: the point of the service area farthest\n")
+	b.WriteString("  from its site; the site's disk covers its service area at that range.\n\n")
+	t := &table{}
+	hx, hy := s.pointHeads()
+	t.head("Site", "Area m2", "Share %", "Farthest m", hx, hy, "Name", "Merged duplicates")
+	t.left(6, 7)
+	for _, c := range s.cells {
+		px, py := s.pointCols(c.FarthestPoint)
+		var merged []string
+		for _, i := range c.Merged {
+			merged = append(merged, fmt.Sprintf("#%d", i))
+		}
+		t.row(fmt.Sprintf("#%d", c.Site), fmt.Sprintf("%.1f", c.Area), fmt.Sprintf("%.3f", 100*c.Share),
+			fmt.Sprintf("%.2f", c.Farthest), px, py, orDash(s.name(c.Site)), strings.Join(merged, " "))
+	}
+	t.write(b)
+}
+
+func (s *scene) textHoles(b *bytes.Buffer) {
+	section(b, "HOLES OF THE UNION OF DISKS (persistence of the alpha filtration)")
+	p := s.a.Persistence
+	if p == nil || len(p.Holes) == 0 {
+		b.WriteString("  none: at no range do the disks ring an uncovered hole\n")
+		return
+	}
+	b.WriteString("  A hole appears when a ring of disks closes around an uncovered spot and\n")
+	b.WriteString("  closes when the disks fill it; the closing point is where it fills last.\n")
+	b.WriteString("  Listed by lifetime (closing minus appearance range), longest first.\n\n")
+	t := &table{}
+	hx, hy := s.pointHeads()
+	t.head("No", "Appears m", "Closes m", "Lifetime m", hx, hy, "Ringed at appearance by")
+	t.left(6)
+	for i, h := range p.Holes {
+		px, py := s.pointCols(h.DeathPoint)
+		t.row(fmt.Sprint(i+1), fmt.Sprintf("%.2f", h.Birth), fmt.Sprintf("%.2f", h.Death), fmt.Sprintf("%.2f", h.Death-h.Birth),
+			px, py, s.label(h.BirthSites[0])+", "+s.label(h.BirthSites[1]))
+	}
+	t.write(b)
+}
+
+func (s *scene) textAccuracy(b *bytes.Buffer) {
+	section(b, "ACCURACY AND NOTES")
+	lines := []string{
+		"Areas, covered share, uncovered area, gap areas, service areas and the",
+		"full-cover range are closed-form results (polygon-disk intersections,",
+		"Voronoi vertices), exact up to floating-point rounding; they are printed",
+		"rounded to 0.1 m2, 0.001 % and 0.01 m.",
+		"The 50/90/95/99 % ranges are inverted from the exact coverage curve to",
+		"1e-9 relative.",
+		"Gap outlines (maps, " + LayerFile(FileGaps, s.m.Planar) + ") replace circular arcs by chords;",
+		"the chord tolerance is set by the analysis. Gap areas use the exact arcs.",
+	}
+	if s.geographic() {
+		lines = append(lines,
+			"Points are WGS84 latitude/longitude in degrees, rounded to 7 decimals",
+			"(about 1 cm). GeoJSON layers are RFC 7946: longitude first, exterior",
+			"rings counter-clockwise, holes clockwise.")
+	} else {
+		lines = append(lines,
+			"Points are local plane x/y in metres, rounded to 1 mm. The GeoJSON layers",
+			"(*-xy.geojson) hold the same x/y metres, not WGS84 longitude/latitude,",
+			"so they do not follow RFC 7946; load them in a local CRS.")
+	}
+	lines = append(lines,
+		"Maps are drawn in the local plane with north up: the plane's y axis is",
+		"grid north (for geographic input it differs from true north by the",
+		"meridian convergence, a fraction of a degree over a site).")
+	for _, l := range lines {
+		b.WriteString("  " + l + "\n")
+	}
+}
+
+// pointHeads returns the column heads of a point.
+func (s *scene) pointHeads() (string, string) {
+	if s.geographic() {
+		return "Lat deg", "Lon deg"
+	}
+	return "x m", "y m"
+}
+
+// pointCols returns a point as two table cells (lat, lon or x, y).
+func (s *scene) pointCols(p orb.Point) (string, string) {
+	q := s.point(p)
+	if s.geographic() {
+		return fmt.Sprintf("%.7f", q[1]), fmt.Sprintf("%.7f", q[0])
+	}
+	return fmt.Sprintf("%.3f", q[0]), fmt.Sprintf("%.3f", q[1])
+}
+
+// pointText returns a point as text.
+func (s *scene) pointText(p orb.Point) string {
+	q := s.point(p)
+	if s.geographic() {
+		return fmt.Sprintf("lat %.7f, lon %.7f", q[1], q[0])
+	}
+	return fmt.Sprintf("x %.3f m, y %.3f m", q[0], q[1])
+}
+
+func metres(v float64) string {
+	if math.IsNaN(v) || math.IsInf(v, 0) {
+		return fmt.Sprint(v)
+	}
+	return fmt.Sprintf("%.2f m", v)
+}
+
+func m2(v float64) string { return fmt.Sprintf("%.1f m2", v) }
+
+func ha(v float64) string { return fmt.Sprintf("%.4f ha", v/1e4) }
+
+// kvList is an aligned list of "key   value" lines.
+type kvList struct{ k, v []string }
+
+func (l *kvList) add(k, v string) { l.k = append(l.k, k); l.v = append(l.v, v) }
+
+func (l *kvList) write(b *bytes.Buffer) {
+	w := 0
+	for _, k := range l.k {
+		w = max(w, utf8.RuneCountInString(k))
+	}
+	for i, k := range l.k {
+		b.WriteString("  " + k + strings.Repeat(" ", w-utf8.RuneCountInString(k)) + "  " + l.v[i] + "\n")
+	}
+}
+
+// table is a fixed-width table: numeric columns right-aligned, the
+// columns named by left() left-aligned. The last column is not padded.
+type table struct {
+	heads  []string
+	rows   [][]string
+	isLeft map[int]bool
+}
+
+func (t *table) head(h ...string) { t.heads = h }
+
+func (t *table) left(cols ...int) {
+	t.isLeft = map[int]bool{}
+	for _, c := range cols {
+		t.isLeft[c] = true
+	}
+}
+
+func (t *table) row(c ...string) { t.rows = append(t.rows, c) }
+
+func (t *table) write(b *bytes.Buffer) {
+	w := make([]int, len(t.heads))
+	for i, h := range t.heads {
+		w[i] = utf8.RuneCountInString(h)
+	}
+	for _, r := range t.rows {
+		for i, c := range r {
+			w[i] = max(w[i], utf8.RuneCountInString(c))
+		}
+	}
+	line := func(cells []string) {
+		var sb strings.Builder
+		sb.WriteString("  ")
+		for i, c := range cells {
+			pad := strings.Repeat(" ", w[i]-utf8.RuneCountInString(c))
+			last := i == len(cells)-1
+			switch {
+			case t.isLeft[i] && last:
+				sb.WriteString(c)
+			case t.isLeft[i]:
+				sb.WriteString(c + pad)
+			default:
+				sb.WriteString(pad + c)
+			}
+			if !last {
+				sb.WriteString("  ")
+			}
+		}
+		b.WriteString(strings.TrimRight(sb.String(), " ") + "\n")
+	}
+	line(t.heads)
+	rule := make([]string, len(t.heads))
+	for i := range rule {
+		rule[i] = strings.Repeat("-", w[i])
+	}
+	line(rule)
+	for _, r := range t.rows {
+		line(r)
+	}
+}

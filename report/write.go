@@ -1,0 +1,129 @@
+// Atomic output: each file is written to a temporary file in the output
+// folder, synced, closed and renamed over its final name. rename(2) within
+// one directory is atomic on POSIX file systems, so a reader sees either
+// the previous file or the complete new one, never a part. Temporary files
+// are removed on every error path.
+//
+// Before anything is written the writer checks that the folder can be
+// created and written, and that no output path names an input file (by
+// cleaned absolute path, and by device/inode when both exist, which also
+// catches hard links and symbolic links).
+
+package report
+
+import (
+	"fmt"
+	"os"
+	"path/filepath"
+)
+
+// writer writes the files of one report into dir.
+type writer struct {
+	dir      string
+	progress func(string)
+	done     []string
+}
+
+// newWriter prepares dir for the given file names: it creates dir, checks
+// it is writable, and refuses names that are input files.
+func newWriter(dir string, names []string, m Meta, progress func(string)) (*writer, error) {
+	if dir == "" {
+		dir = "."
+	}
+	if fi, err := os.Stat(dir); err == nil && !fi.IsDir() {
+		return nil, fmt.Errorf("output folder %s: exists and is not a folder", dir)
+	}
+	if err := os.MkdirAll(dir, 0o755); err != nil {
+		return nil, fmt.Errorf("output folder %s: cannot create it: %v", dir, unwrapPath(err))
+	}
+	probe, err := os.CreateTemp(dir, ".sitecover-probe-*")
+	if err != nil {
+		return nil, fmt.Errorf("output folder %s: not writable: %v", dir, unwrapPath(err))
+	}
+	probe.Close()
+	os.Remove(probe.Name())
+
+	inputs := []string{m.SitesFile, m.AreaFile, m.ExcludeFile}
+	for _, name := range names {
+		out := filepath.Join(dir, name)
+		for _, in := range inputs {
+			if in != "" && samePath(in, out) {
+				return nil, fmt.Errorf("output %s is the input file %s: refusing to overwrite it (choose another --out folder)", out, in)
+			}
+		}
+	}
+	return &writer{dir: dir, progress: progress}, nil
+}
+
+// samePath reports whether a and b name the same file.
+func samePath(a, b string) bool {
+	aa, err1 := filepath.Abs(a)
+	bb, err2 := filepath.Abs(b)
+	if err1 == nil && err2 == nil && aa == bb {
+		return true
+	}
+	fa, err1 := os.Stat(a)
+	fb, err2 := os.Stat(b)
+	return err1 == nil && err2 == nil && os.SameFile(fa, fb)
+}
+
+// unwrapPath drops the path from a *PathError (the caller names it).
+func unwrapPath(err error) error {
+	if pe, ok := err.(*os.PathError); ok {
+		return pe.Err
+	}
+	return err
+}
+
+// write produces the bytes of name and stores them atomically.
+func (w *writer) write(name string, produce func() ([]byte, error)) error {
+	if w.progress != nil {
+		w.progress(name)
+	}
+	b, err := produce()
+	if err != nil {
+		return fmt.Errorf("%s: %v", filepath.Join(w.dir, name), err)
+	}
+	path := filepath.Join(w.dir, name)
+	if err := writeAtomic(path, b); err != nil {
+		return err
+	}
+	w.done = append(w.done, path)
+	return nil
+}
+
+// writeAtomic writes b to path through a temporary file in the same
+// folder.
+func writeAtomic(path string, b []byte) (err error) {
+	dir, base := filepath.Split(path)
+	if dir == "" {
+		dir = "."
+	}
+	f, err := os.CreateTemp(dir, "."+base+".tmp-*")
+	if err != nil {
+		return fmt.Errorf("%s: cannot write: %v", path, unwrapPath(err))
+	}
+	tmp := f.Name()
+	defer func() {
+		if err != nil {
+			f.Close()
+			os.Remove(tmp)
+		}
+	}()
+	if _, err = f.Write(b); err != nil {
+		return fmt.Errorf("%s: cannot write: %v", path, unwrapPath(err))
+	}
+	if err = f.Chmod(0o644); err != nil {
+		return fmt.Errorf("%s: cannot write: %v", path, unwrapPath(err))
+	}
+	if err = f.Sync(); err != nil {
+		return fmt.Errorf("%s: cannot write: %v", path, unwrapPath(err))
+	}
+	if err = f.Close(); err != nil {
+		return fmt.Errorf("%s: cannot write: %v", path, unwrapPath(err))
+	}
+	if err = os.Rename(tmp, path); err != nil {
+		return fmt.Errorf("%s: cannot write: %v", path, unwrapPath(err))
+	}
+	return nil
+}
