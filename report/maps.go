@@ -23,6 +23,7 @@ import (
 	"slices"
 
 	"github.com/paulmach/orb"
+	"golang.org/x/image/font"
 )
 
 // maxNumbered is how many gaps get a number and a deepest-point mark.
@@ -106,15 +107,66 @@ func (s *scene) drawSites(c *canvas, d density) {
 	s.forSites(func(x, y float64) { f.circle(c.ox+x*c.k, c.oy-y*c.k, rho, unit) })
 	c.paint(f.mask(), color.NRGBA(colInk), nil)
 	if len(s.l.Sites) <= maxLabelledSites && d.spacing >= 40*c.u {
-		seen := map[orb.Point]bool{}
-		for i, p := range s.l.Sites {
-			if seen[p] {
-				continue
-			}
-			seen[p] = true
-			x, y := c.px(p)
-			c.haloText(s.shortLabel(i), x+rho+3*c.u, y-rho-2*c.u, 0, 0, 14, false, colInk)
+		s.labelSites(c, rho)
+	}
+}
+
+// labelSites writes each distinct site's label beside its mark, trying
+// four positions (upper right, lower right, upper left, lower left) and
+// taking the first that overlaps no earlier label, no site mark and stays
+// in the frame; failing that, the one with the least overlap.
+func (s *scene) labelSites(c *canvas, rho float64) {
+	type box struct{ x0, y0, x1, y1 float64 }
+	overlap := func(a, b box) float64 {
+		w := math.Min(a.x1, b.x1) - math.Max(a.x0, b.x0)
+		h := math.Min(a.y1, b.y1) - math.Max(a.y0, b.y0)
+		if w <= 0 || h <= 0 {
+			return 0
 		}
+		return w * h
+	}
+	var taken []box
+	s.forSites(func(x, y float64) {
+		px, py := c.ox+x*c.k, c.oy-y*c.k
+		taken = append(taken, box{px - rho - 1, py - rho - 1, px + rho + 1, py + rho + 1})
+	})
+	frame := box{c.fx + 2, c.fy + 2, c.fx + c.fw - 2, c.fy + c.fh - 2}
+	face := c.face(14, false)
+	seen := map[orb.Point]bool{}
+	gap := 3 * c.u
+	for i, p := range s.l.Sites {
+		if seen[p] {
+			continue
+		}
+		seen[p] = true
+		text := s.shortLabel(i)
+		w := float64(font.MeasureString(face, text)) / 64
+		h := 14 * c.u * 0.78 // cap height and a little
+		x, y := c.px(p)
+		cands := []box{
+			{x + rho + gap, y - rho - h, x + rho + gap + w, y - rho},
+			{x + rho + gap, y + rho, x + rho + gap + w, y + rho + h},
+			{x - rho - gap - w, y - rho - h, x - rho - gap, y - rho},
+			{x - rho - gap - w, y + rho, x - rho - gap, y + rho + h},
+		}
+		best, bestCost := 0, math.Inf(1)
+		for k, b := range cands {
+			cost := 0.0
+			for _, t := range taken {
+				cost += overlap(b, t)
+			}
+			inside := overlap(b, frame)
+			cost += 4 * (w*h - inside)
+			if cost < bestCost-1e-9 {
+				best, bestCost = k, cost
+			}
+			if cost == 0 {
+				break
+			}
+		}
+		b := cands[best]
+		taken = append(taken, b)
+		c.haloText(text, b.x0, b.y1, 0, 0, 14, false, colInk)
 	}
 }
 
@@ -404,7 +456,7 @@ func (s *scene) drawCoverageMap(width int) (*canvas, error) {
 	}
 	notes := []string{
 		"North up: the y axis of the local plane (grid north). " + s.planeNote(),
-		"Disks drawn within 0.2 px of true circles; gap outlines as computed by the analysis (arcs as short chords).",
+		"Disks drawn within 0.2 px of true circles, over the gaps, so gap edges along disks are true arcs too.",
 	}
 	c, err := layoutCanvas(s.extent(), width, items, len(notes))
 	if err != nil {
@@ -420,9 +472,24 @@ func (s *scene) drawCoverageMap(width int) (*canvas, error) {
 	c.title(title, sub)
 
 	areaMask := s.drawArea(c)
+	// Gaps first, disks over them: the gap outlines replace arcs by chords
+	// lying inside the disks, so the disks drawn on top restore the true
+	// circular edge (within 0.2 px).
+	f := c.newFill()
+	var tmp []float64
+	for _, g := range a.Gaps {
+		for _, poly := range g.Outline {
+			for k, ring := range poly {
+				tmp = ringXY(ring, tmp[:0])
+				f.ringXY(tmp, k == 0)
+			}
+		}
+	}
+	c.paint(f.mask(), color.NRGBA(colGap), nil)
+
 	rho := a.Range * c.k
 	unit := unitCircle(circleSides(rho))
-	f := c.newFill()
+	f = c.newFill()
 	s.forSites(func(x, y float64) { f.circle(c.ox+x*c.k, c.oy-y*c.k, rho, unit) })
 	c.paint(f.mask(), color.NRGBA(colCovered), areaMask) // disks only inside the area
 	if d.spacing >= 8*c.u && rho >= 3 {
@@ -439,18 +506,6 @@ func (s *scene) drawCoverageMap(width int) (*canvas, error) {
 		c.paint(f.mask(), color.NRGBA{colDiskEdge.R, colDiskEdge.G, colDiskEdge.B, 0x90}, areaMask)
 	}
 	s.drawZones(c)
-
-	f = c.newFill()
-	var tmp []float64
-	for _, g := range a.Gaps {
-		for _, poly := range g.Outline {
-			for k, ring := range poly {
-				tmp = ringXY(ring, tmp[:0])
-				f.ringXY(tmp, k == 0)
-			}
-		}
-	}
-	c.paint(f.mask(), color.NRGBA(colGap), nil)
 
 	s.strokeArea(c)
 	s.drawSites(c, d)

@@ -63,6 +63,9 @@ type Meta struct {
 	// Warnings are the input warnings to repeat (sites outside the area,
 	// duplicates dropped, ...), one line each.
 	Warnings []string
+	// ChordTolerance is the coverage.Options.ChordTolerance the analysis
+	// ran with (0: coverage.DefaultChordTolerance); the report states it.
+	ChordTolerance float64
 	// Timings are phases timed outside the analysis (e.g. "load inputs");
 	// summary.json lists them before the analysis phases.
 	Timings []coverage.Timing
@@ -151,6 +154,7 @@ func WriteAnalysis(dir string, a *coverage.Analysis, m Meta, opt Options) (writt
 		return nil, err
 	}
 	s := newScene(a.Layout, a, m)
+	s.files = Files(false, m, opt)
 	steps := []step{
 		{FileReport, func() ([]byte, error) { return s.text(), nil }},
 		{FileSummary, func() ([]byte, error) { return Summary(a, m).MarshalIndent() }},
@@ -191,6 +195,7 @@ func WriteCells(dir string, l *coverage.Layout, m Meta, opt Options) ([]string, 
 		return nil, err
 	}
 	s := newScene(l, nil, m)
+	s.files = Files(true, m, opt)
 	steps := []step{
 		{FileReport, func() ([]byte, error) { return s.text(), nil }},
 		{FileSummary, func() ([]byte, error) { return CellsSummary(l, m).MarshalIndent() }},

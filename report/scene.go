@@ -24,6 +24,7 @@ type scene struct {
 	a     *coverage.Analysis // nil for the cells command
 	m     Meta
 	cells []coverage.ServiceArea
+	files []string // output files, for the FILES section of report.txt
 }
 
 func newScene(l *coverage.Layout, a *coverage.Analysis, m Meta) *scene {

@@ -16,6 +16,7 @@ import (
 	"unicode/utf8"
 
 	"github.com/paulmach/orb"
+	"github.com/sitecover/sitecover/coverage"
 )
 
 // maxListed caps lists inside one table cell or line (worst points, nearby
@@ -48,6 +49,10 @@ func (s *scene) text() []byte {
 		for _, line := range w {
 			b.WriteString("  - " + line + "\n")
 		}
+	}
+	section(&b, "FILES IN THIS FOLDER")
+	for _, f := range s.files {
+		b.WriteString("  " + f + strings.Repeat(" ", max(1, 28-len(f))) + fileNote[strings.Replace(f, "-xy.geojson", ".geojson", 1)] + "\n")
 	}
 	if !s.m.LifeSafety {
 		section(&b, "CAUTIONS")
@@ -105,8 +110,9 @@ func (s *scene) textInputs(b *bytes.Buffer) {
 	}
 	kv.add("Local plane", orDash(s.projection()))
 	if s.geographic() {
-		kv.add("Largest scale error", fmt.Sprintf("%.2g (|k-1| over the extent: plane distances within %.4f %% of the ground, areas within %.4f %%)",
-			s.m.MaxScaleError, 100*s.m.MaxScaleError, 100*(2*s.m.MaxScaleError+s.m.MaxScaleError*s.m.MaxScaleError)))
+		e := s.m.MaxScaleError
+		kv.add("Largest scale error", fmt.Sprintf("|k-1| = %.2g over the extent: plane distances within %.2g %% of the ground, areas within %.2g %%",
+			e, 100*e, 100*(2*e+e*e)))
 	} else {
 		kv.add("Largest scale error", "none (no projection)")
 	}
@@ -251,15 +257,30 @@ func (s *scene) textHoles(b *bytes.Buffer) {
 	}
 	b.WriteString("  A hole appears when a ring of disks closes around an uncovered spot and\n")
 	b.WriteString("  closes when the disks fill it; the closing point is where it fills last.\n")
-	b.WriteString("  Listed by lifetime (closing minus appearance range), longest first.\n\n")
+	b.WriteString("  Listed by lifetime (closing minus appearance range), longest first.\n")
+	r := s.a.Range
+	open := 0
+	for _, h := range p.Holes {
+		if h.Birth <= r && r < h.Death {
+			open++
+		}
+	}
+	fmt.Fprintf(b, "  At the planned range %s, %d of these %d holes are open.\n\n", metres(r), open, len(p.Holes))
 	t := &table{}
 	hx, hy := s.pointHeads()
-	t.head("No", "Appears m", "Closes m", "Lifetime m", hx, hy, "Ringed at appearance by")
-	t.left(6)
+	t.head("No", "Appears m", "Closes m", "Lifetime m", hx, hy, "At "+metresShort(r), "Ringed at appearance by")
+	t.left(6, 7)
 	for i, h := range p.Holes {
 		px, py := s.pointCols(h.DeathPoint)
+		state := "open"
+		switch {
+		case r < h.Birth:
+			state = "not yet"
+		case r >= h.Death:
+			state = "closed"
+		}
 		t.row(fmt.Sprint(i+1), fmt.Sprintf("%.2f", h.Birth), fmt.Sprintf("%.2f", h.Death), fmt.Sprintf("%.2f", h.Death-h.Birth),
-			px, py, s.label(h.BirthSites[0])+", "+s.label(h.BirthSites[1]))
+			px, py, state, s.label(h.BirthSites[0])+", "+s.label(h.BirthSites[1]))
 	}
 	t.write(b)
 }
@@ -272,9 +293,11 @@ func (s *scene) textAccuracy(b *bytes.Buffer) {
 		"Voronoi vertices), exact up to floating-point rounding; they are printed",
 		"rounded to 0.1 m2, 0.001 % and 0.01 m.",
 		"The 50/90/95/99 % ranges are inverted from the exact coverage curve to",
-		"1e-9 relative.",
-		"Gap outlines (maps, " + LayerFile(FileGaps, s.m.Planar) + ") replace circular arcs by chords;",
-		"the chord tolerance is set by the analysis. Gap areas use the exact arcs.",
+		"within 1e-9 of the full-cover range.",
+		fmt.Sprintf("Gap outlines (%s and the coverage map) replace circular arcs by", LayerFile(FileGaps, s.m.Planar)),
+		fmt.Sprintf("chords lying inside the disks, sagitta at most %s of the range (%s at", trimFloat(100*s.chordTol())+" %", metresShort(s.chordTol()*s.rangeOrZero())),
+		"the planned range): each outline contains its true gap. Gap areas are exact.",
+		"Service-area outlines are exact (straight Voronoi edges).",
 	}
 	if s.geographic() {
 		lines = append(lines,
@@ -294,6 +317,35 @@ func (s *scene) textAccuracy(b *bytes.Buffer) {
 	for _, l := range lines {
 		b.WriteString("  " + l + "\n")
 	}
+}
+
+// fileNote describes each output file in the FILES section.
+var fileNote = map[string]string{
+	FileReport:          "this report",
+	FileSummary:         "all figures, machine-readable",
+	FileSites:           "device sites (points)",
+	FileServiceAreas:    "service areas (polygons) with area, share, farthest point",
+	FileGaps:            "gaps at the planned range (polygons) with their figures",
+	FileHoleClosings:    "where each hole of the union of disks closes (points)",
+	FileMapServiceAreas: "map of the service areas",
+	FileMapCoverage:     "map of coverage and gaps at the planned range",
+	FileChartCurve:      "chart: covered share against range",
+	FileChartHoles:      "chart: hole appearance against closing range",
+}
+
+// chordTol is the relative chord tolerance of the gap outlines.
+func (s *scene) chordTol() float64 {
+	if s.m.ChordTolerance > 0 {
+		return s.m.ChordTolerance
+	}
+	return coverage.DefaultChordTolerance
+}
+
+func (s *scene) rangeOrZero() float64 {
+	if s.a == nil {
+		return 0
+	}
+	return s.a.Range
 }
 
 // pointHeads returns the column heads of a point.
@@ -401,6 +453,9 @@ func (t *table) write(b *bytes.Buffer) {
 	rule := make([]string, len(t.heads))
 	for i := range rule {
 		rule[i] = strings.Repeat("-", w[i])
+	}
+	if n := len(rule) - 1; n >= 0 && t.isLeft[n] {
+		rule[n] = strings.Repeat("-", utf8.RuneCountInString(t.heads[n]))
 	}
 	line(rule)
 	for _, r := range t.rows {
