@@ -25,15 +25,23 @@
 // the closed disks of radius r, and the inclusions commute, so persistence of
 // this filtration is persistence of the growing disks.
 //
-// Error bounds: edge half-lengths and circumradii are computed from coordinate
-// differences with a correctly rounded square root and a cross product that
-// is evaluated exactly (then rounded) whenever the floating-point value
-// could be off by more than 2^-40 relative, so every value is within about
-// 16 units in the last place of the exact value (relative error below 1e-14).
-// Edge values are then clamped to be no larger than the values of their
-// triangles, so rounding can never put a triangle before one of its edges.
-// Expansion arithmetic is exact unless an intermediate product underflows,
-// which needs coordinates that differ by less than about 1e-150 m.
+// Computation: one pass over the triangles loads each triangle's three
+// vertices once and yields its circumradius, circumcentre, three half edge
+// lengths and three acute-angle tests; a second pass over the edges combines
+// the two sides of each edge. Both passes run in parallel chunks.
+//
+// Error bounds: half-lengths come from coordinate differences and a
+// correctly rounded square root (about 3 units of roundoff u = 2^-53); the
+// circumradius R = |ab|·|bc|·|ca| / (2·|cross|) uses a cross product that is
+// evaluated exactly and then rounded whenever the floating-point value could
+// be off by more than 2^-48 relative, so R is within about 45u (relative
+// error below 1e-14) of the exact circumradius of the input coordinates,
+// and so is every edge value. Edge values are then clamped to be no larger
+// than the values of their triangles, so rounding can never put a triangle
+// before one of its edges. The circumcentre is accurate to a few u times
+// (R + the coordinates' magnitude). Expansion arithmetic is exact unless an
+// intermediate product underflows, which needs coordinates that differ by
+// less than about 1e-150 m.
 //
 // Collinear input (no triangles): the complex is the path through the
 // vertices in line order (Triangulation.Hull), each edge entering at half
@@ -225,8 +233,8 @@ func alphaTriangle(ax, ay, bx, by, cx, cy float64) (r, x, y, hab, hbc, hca float
 const alphaEps = 1.0 / (1 << 53)
 
 // alphaCross returns cross(u−o, w−o), the doubled signed area of triangle
-// o, u, w, with relative error below 2^-40: the floating-point value when
-// its error bound allows, else the exact value rounded.
+// o, u, w, with relative error below 2^-48: the floating-point value when
+// its error bound allows, else the exact value rounded (to within a few u).
 func alphaCross(ox, oy, ux, uy, wx, wy float64) float64 {
 	t1 := float64((ux - ox) * (wy - oy))
 	t2 := float64((uy - oy) * (wx - ox))
@@ -234,7 +242,7 @@ func alphaCross(ox, oy, ux, uy, wx, wy float64) float64 {
 	// Error bound of the three-rounding evaluation (differences, products,
 	// difference): |det − exact| <= 4u·(|t1| + |t2|) to first order.
 	bound := 4.01 * alphaEps * (math.Abs(t1) + math.Abs(t2))
-	if math.Abs(det)*0x1p-40 >= bound {
+	if math.Abs(det)*0x1p-48 >= bound {
 		return det
 	}
 	var buf [32]float64
