@@ -179,7 +179,8 @@ func TestNoOverwriteOfInputs(t *testing.T) {
 	dir := t.TempDir()
 	sitesJSON := `{"type":"FeatureCollection","features":[` +
 		`{"type":"Feature","properties":{},"geometry":{"type":"Point","coordinates":[10,10]}},` +
-		`{"type":"Feature","properties":{},"geometry":{"type":"Point","coordinates":[30,30]}}]}`
+		`{"type":"Feature","properties":{},"geometry":{"type":"Point","coordinates":[30,30]}},` +
+		`{"type":"Feature","properties":{},"geometry":{"type":"Point","coordinates":[10,30]}}]}`
 	sites := writeFile(t, dir, "summary.json", sitesJSON)
 	for _, args := range [][]string{
 		{"analyze", "--planar", "--sites", sites, "--range", "10", "--out", dir},
