@@ -1,0 +1,289 @@
+// Gaps: the connected components of the uncovered part of the site area.
+//
+// Math. Inside the Voronoi cell of site i, U(r) ∩ V_i = D(p_i, r) ∩ V_i, so
+// A \ U(r) is the union over clipped cell pieces P of P \ D(p_i, r). Each
+// piece's components are traced exactly (gaps_trace.go). Components of
+// neighbouring cells i, j join exactly where they share a portion of the
+// bisector edge of positive length: a point x of the bisector has
+// |x − p_i| = |x − p_j|, so a portion outside D(p_i, r) is also outside
+// D(p_j, r) and is traced, reversed, in j's piece too. Portions are compared
+// by the canonical coordinate along the bisector of the pair (the same
+// formula from both sides); two portions of the pair overlapping by more
+// than half the shorter one are the same portion (different portions of one
+// bisector, separated by the boundary of the area, overlap at most at a
+// point). Union-find over the piece components then gives the gaps.
+//
+// Per gap: the area and first moments are sums of the exact per-piece
+// values; the deepest point is the farthest ring vertex from its own site
+// over the gap's pieces (the distance to the nearest site is convex on each
+// cell, so on a piece component its maximum is at a vertex of the traced
+// boundary; arc points are at distance r and every component of positive
+// area has a ring vertex outside the disk), which is the range that closes
+// the gap; the bounding box includes the extreme points of the arcs; the
+// sites are those whose cells the gap meets.
+
+package coverage
+
+import (
+	"math"
+	"sort"
+	"sync"
+
+	"github.com/paulmach/orb"
+)
+
+// DefaultChordTolerance is the default sagitta of outline chords, relative
+// to the range.
+const DefaultChordTolerance = 0.002
+
+// Gaps returns the connected components of the part of the site area
+// farther than r from every site, ordered by decreasing closing range, then
+// decreasing area; IDs number them from 1. Outlines replace arcs by chords
+// whose sagitta is at most chordTol·r (0 or NaN: DefaultChordTolerance;
+// negative: no outlines). r <= 0 gives the whole area (one gap per
+// connected part); NaN gives nil.
+func (l *Layout) Gaps(r, chordTol float64) []Gap {
+	gs, _ := l.gaps(r, chordTol, false)
+	return gs
+}
+
+// gapMerged holds the traced components of all cells, with global indices.
+type gapMerged struct {
+	nodes    []gapNode
+	loopElem []int32 // len = loops + 1
+	elems    []gapElem
+	portions []gapPortion
+	matched  []bool // per element: a bisector portion shared with another cell
+}
+
+var gapTracerPool = sync.Pool{New: func() any { return new(gapTracer) }}
+
+// gaps is Gaps with an optional per-piece self-check of the traced areas
+// against the closed form; it also returns the number of pieces that
+// needed the fallback or failed the check.
+func (l *Layout) gaps(r, chordTol float64, selfCheck bool) ([]Gap, int) {
+	if math.IsNaN(r) {
+		return nil, 0
+	}
+	if r < 0 {
+		r = 0
+	}
+	if chordTol == 0 || math.IsNaN(chordTol) {
+		chordTol = DefaultChordTolerance
+	}
+	c := l.Cells
+	nv := l.numVertices()
+	const chunk = 1024
+	nc := (nv + chunk - 1) / chunk
+	chunks := make([]gapChunk, nc)
+	cvParallel(nv, chunk, func(ci, lo, hi int) {
+		t := gapTracerPool.Get().(*gapTracer)
+		t.l, t.r, t.r2, t.selfCheck = l, r, r*r, selfCheck
+		ch := &chunks[ci]
+		for v := int32(lo); v < int32(hi); v++ {
+			if c.SiteStart[v] == c.SiteStart[v+1] {
+				continue
+			}
+			if d, _, _ := l.vertexFarthest(v); r >= d {
+				continue
+			}
+			for p := c.SiteStart[v]; p < c.SiteStart[v+1]; p++ {
+				t.piece(p, v, ch)
+			}
+		}
+		t.l = nil
+		gapTracerPool.Put(t)
+	})
+	m, anomalies := gapMerge(chunks)
+	chunks = nil
+	gapUnion := m.union()
+	return l.gapAssemble(m, gapUnion, r, chordTol), anomalies
+}
+
+// gapMerge concatenates the chunks, converting to global indices.
+func gapMerge(chunks []gapChunk) (*gapMerged, int) {
+	var nn, nl, ne, np, an int
+	for i := range chunks {
+		ch := &chunks[i]
+		nn += len(ch.nodes)
+		nl += len(ch.loopElem)
+		ne += len(ch.elems)
+		np += len(ch.portions)
+		an += ch.anomalies
+	}
+	m := &gapMerged{
+		nodes:    make([]gapNode, 0, nn),
+		loopElem: make([]int32, 0, nl+1),
+		elems:    make([]gapElem, 0, ne),
+		portions: make([]gapPortion, 0, np),
+	}
+	for i := range chunks {
+		ch := &chunks[i]
+		n0, l0, e0 := int32(len(m.nodes)), int32(len(m.loopElem)), int32(len(m.elems))
+		for _, nd := range ch.nodes {
+			nd.loop0 += l0
+			nd.loop1 += l0
+			m.nodes = append(m.nodes, nd)
+		}
+		for _, le := range ch.loopElem {
+			m.loopElem = append(m.loopElem, le+e0)
+		}
+		m.elems = append(m.elems, ch.elems...)
+		for _, p := range ch.portions {
+			p.elem += e0
+			p.node += n0
+			m.portions = append(m.portions, p)
+		}
+		*ch = gapChunk{}
+	}
+	m.loopElem = append(m.loopElem, int32(len(m.elems)))
+	m.matched = make([]bool, len(m.elems))
+	return m, an
+}
+
+// union joins the components sharing bisector portions and returns the
+// union-find parent array (roots are their own parents, fully compressed).
+func (m *gapMerged) union() []int32 {
+	par := make([]int32, len(m.nodes))
+	for i := range par {
+		par[i] = int32(i)
+	}
+	find := func(x int32) int32 {
+		for par[x] != x {
+			par[x] = par[par[x]]
+			x = par[x]
+		}
+		return x
+	}
+	ps := m.portions
+	sort.Slice(ps, func(i, j int) bool {
+		if ps[i].key != ps[j].key {
+			return ps[i].key < ps[j].key
+		}
+		if ps[i].lo != ps[j].lo {
+			return ps[i].lo < ps[j].lo
+		}
+		return ps[i].elem < ps[j].elem
+	})
+	for g0 := 0; g0 < len(ps); {
+		g1 := g0 + 1
+		for g1 < len(ps) && ps[g1].key == ps[g0].key {
+			g1++
+		}
+		for i := g0; i < g1; i++ {
+			a := &ps[i]
+			for k := i + 1; k < g1; k++ {
+				b := &ps[k]
+				if b.lo >= a.hi {
+					break // sorted by lo: no later portion overlaps a
+				}
+				if m.nodes[a.node].v == m.nodes[b.node].v {
+					continue
+				}
+				ov := math.Min(a.hi, b.hi) - b.lo
+				if !(ov > 0) || ov <= 0.5*math.Min(a.hi-a.lo, b.hi-b.lo) {
+					continue
+				}
+				ra, rb := find(a.node), find(b.node)
+				if ra != rb {
+					if ra < rb {
+						par[rb] = ra
+					} else {
+						par[ra] = rb
+					}
+				}
+				m.matched[a.elem] = true
+				m.matched[b.elem] = true
+			}
+		}
+		g0 = g1
+	}
+	for i := range par {
+		par[i] = find(int32(i))
+	}
+	return par
+}
+
+// gapAssemble builds the Gap values from the components and their roots.
+func (l *Layout) gapAssemble(m *gapMerged, root []int32, r, chordTol float64) []Gap {
+	gapOf := make([]int32, len(m.nodes))
+	index := make(map[int32]int32)
+	var gs []Gap
+	type acc struct{ mx, my float64 }
+	var accs []acc
+	for i := range m.nodes {
+		rt := root[i]
+		g, ok := index[rt]
+		if !ok {
+			g = int32(len(gs))
+			index[rt] = g
+			gs = append(gs, Gap{
+				Bound:        orb.Bound{Min: orb.Point{math.Inf(1), math.Inf(1)}, Max: orb.Point{math.Inf(-1), math.Inf(-1)}},
+				ClosingRange: -1,
+			})
+			accs = append(accs, acc{})
+		}
+		gapOf[i] = g
+		nd := &m.nodes[i]
+		G := &gs[g]
+		cx, cy := l.site(nd.v)
+		G.Area += nd.area
+		accs[g].mx += nd.mx + cx*nd.area
+		accs[g].my += nd.my + cy*nd.area
+		G.Bound.Min[0] = math.Min(G.Bound.Min[0], nd.minX)
+		G.Bound.Min[1] = math.Min(G.Bound.Min[1], nd.minY)
+		G.Bound.Max[0] = math.Max(G.Bound.Max[0], nd.maxX)
+		G.Bound.Max[1] = math.Max(G.Bound.Max[1], nd.maxY)
+		G.TouchesBoundary = G.TouchesBoundary || nd.touches
+		if nd.deepD > G.ClosingRange {
+			G.ClosingRange = nd.deepD
+			G.Deepest = orb.Point{nd.deepX, nd.deepY}
+		}
+	}
+	// Sites per gap, ascending and unique.
+	type gs2 struct{ g, s int32 }
+	pairs := make([]gs2, len(m.nodes))
+	for i := range m.nodes {
+		pairs[i] = gs2{gapOf[i], l.Tri.Source[m.nodes[i].v]}
+	}
+	sort.Slice(pairs, func(i, j int) bool {
+		if pairs[i].g != pairs[j].g {
+			return pairs[i].g < pairs[j].g
+		}
+		return pairs[i].s < pairs[j].s
+	})
+	for i, p := range pairs {
+		if i > 0 && pairs[i-1] == p {
+			continue
+		}
+		gs[p.g].Sites = append(gs[p.g].Sites, int(p.s))
+	}
+	for g := range gs {
+		if gs[g].Area > 0 {
+			gs[g].Centroid = orb.Point{accs[g].mx / gs[g].Area, accs[g].my / gs[g].Area}
+		}
+	}
+	if chordTol > 0 {
+		outl := m.outlines(l, gapOf, len(gs), r, chordTol)
+		for g := range gs {
+			gs[g].Outline = outl[g]
+		}
+	}
+	sort.SliceStable(gs, func(i, j int) bool {
+		a, b := &gs[i], &gs[j]
+		if a.ClosingRange != b.ClosingRange {
+			return a.ClosingRange > b.ClosingRange
+		}
+		if a.Area != b.Area {
+			return a.Area > b.Area
+		}
+		if a.Centroid[0] != b.Centroid[0] {
+			return a.Centroid[0] < b.Centroid[0]
+		}
+		return a.Centroid[1] < b.Centroid[1]
+	})
+	for i := range gs {
+		gs[i].ID = i + 1
+	}
+	return gs
+}

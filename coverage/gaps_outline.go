@@ -1,0 +1,327 @@
+// Gap outlines: the boundary of each gap merged across cells.
+//
+// Math. Each piece component's loops keep the uncovered side on the left.
+// Inside a gap, the bisector portions shared by two of its components are
+// interior and are removed; the remaining elements (boundary portions,
+// arcs, and any bisector portion without a partner) form chains whose ends
+// lie on bisectors. A chain that stops where a removed block of portions on
+// the bisector of the pair (i, j) begins continues in the neighbouring cell
+// with the chain that starts where that cell's removed block ends: the same
+// point of the same bisector, found by the canonical bisector coordinate.
+// Arcs are replaced by chords of equal angular step with sagitta at most
+// tol·r, i.e. step angle at most 2·acos(1 − tol); the chords lie inside the
+// disk, so the outline contains the true gap and exceeds its area by less
+// than the circular segments cut off (about (2/3)·tol·r·arc length).
+// Rings are closed (first point repeated), outer rings counter-clockwise
+// and holes clockwise, as RFC 7946 asks.
+
+package coverage
+
+import (
+	"math"
+	"sort"
+
+	"github.com/paulmach/orb"
+)
+
+// gapChain is a maximal run of kept elements of one loop.
+type gapChain struct {
+	gap        int32
+	loop       int32
+	first, n   int32 // first element (global) and element count (wrapping within the loop)
+	closed     bool  // the whole loop, nothing removed
+	sKey, eKey uint64
+	sTau, eTau float64
+	next       int32
+	seen       bool
+}
+
+// gapBisector returns the canonical key of the pair (v, j) and the
+// canonical bisector coordinate function's parameters.
+func gapBisector(l *Layout, v, j int32) (key uint64, mx, my, ux, uy float64) {
+	a, b := v, j
+	if a > b {
+		a, b = b, a
+	}
+	ax, ay := l.site(a)
+	bx, by := l.site(b)
+	dx, dy := bx-ax, by-ay
+	d := math.Hypot(dx, dy)
+	if d > 0 {
+		dx, dy = dx/d, dy/d
+	}
+	return uint64(a)<<32 | uint64(uint32(b)), (ax + bx) / 2, (ay + by) / 2, dx, dy
+}
+
+func gapTau(l *Layout, v, j int32, x, y float64) (uint64, float64) {
+	key, mx, my, ux, uy := gapBisector(l, v, j)
+	return key, ux*(y-my) - uy*(x-mx)
+}
+
+// outlines returns the outline of each of the ng gaps.
+func (m *gapMerged) outlines(l *Layout, gapOf []int32, ng int, r, tol float64) []orb.MultiPolygon {
+	nLoops := len(m.loopElem) - 1
+	loopNode := make([]int32, nLoops)
+	for i := range m.nodes {
+		for lp := m.nodes[i].loop0; lp < m.nodes[i].loop1; lp++ {
+			loopNode[lp] = int32(i)
+		}
+	}
+	var chains []gapChain
+	for lp := 0; lp < nLoops; lp++ {
+		e0, e1 := m.loopElem[lp], m.loopElem[lp+1]
+		n := e1 - e0
+		if n == 0 {
+			continue
+		}
+		nd := &m.nodes[loopNode[lp]]
+		g := gapOf[loopNode[lp]]
+		removed := func(k int32) bool { return m.matched[e0+((k%n)+n)%n] }
+		nRem := int32(0)
+		for k := int32(0); k < n; k++ {
+			if removed(k) {
+				nRem++
+			}
+		}
+		if nRem == n {
+			continue
+		}
+		if nRem == 0 {
+			chains = append(chains, gapChain{gap: g, loop: int32(lp), first: e0, n: n, closed: true, next: -1})
+			continue
+		}
+		// Start at the first kept element following a removed one.
+		f := int32(0)
+		for !(removed(f-1) && !removed(f)) {
+			f++
+		}
+		for k := f; k < f+n; {
+			if removed(k) {
+				k++
+				continue
+			}
+			s := k
+			for k < f+n && !removed(k) {
+				k++
+			}
+			// Elements s..k-1 are kept; s-1 and k are removed.
+			pe := &m.elems[e0+((s-1)%n+n)%n]
+			fe := &m.elems[e0+s%n]
+			ge := &m.elems[e0+k%n]
+			ch := gapChain{gap: g, loop: int32(lp), first: e0 + s%n, n: k - s, next: -1}
+			ch.sKey, ch.sTau = gapTau(l, nd.v, pe.kind, fe.x, fe.y)
+			ch.eKey, ch.eTau = gapTau(l, nd.v, ge.kind, ge.x, ge.y)
+			chains = append(chains, ch)
+		}
+	}
+	// Link each chain end to the nearest unused chain start on the same
+	// bisector of the same gap.
+	starts := make([]int32, 0, len(chains))
+	for i := range chains {
+		if !chains[i].closed {
+			starts = append(starts, int32(i))
+		}
+	}
+	less := func(ga int32, ka uint64, ta float64, gb int32, kb uint64, tb float64) bool {
+		if ga != gb {
+			return ga < gb
+		}
+		if ka != kb {
+			return ka < kb
+		}
+		return ta < tb
+	}
+	sort.Slice(starts, func(i, j int) bool {
+		a, b := &chains[starts[i]], &chains[starts[j]]
+		return less(a.gap, a.sKey, a.sTau, b.gap, b.sKey, b.sTau)
+	})
+	used := make([]bool, len(starts))
+	for i := range chains {
+		c := &chains[i]
+		if c.closed {
+			continue
+		}
+		pos := sort.Search(len(starts), func(q int) bool {
+			s := &chains[starts[q]]
+			return !less(s.gap, s.sKey, s.sTau, c.gap, c.eKey, c.eTau)
+		})
+		best, bestD := -1, math.Inf(1)
+		for q := pos; q < len(starts); q++ {
+			s := &chains[starts[q]]
+			if s.gap != c.gap || s.sKey != c.eKey {
+				break
+			}
+			if !used[q] {
+				if d := math.Abs(s.sTau - c.eTau); d < bestD {
+					best, bestD = q, d
+				}
+				break
+			}
+		}
+		for q := pos - 1; q >= 0; q-- {
+			s := &chains[starts[q]]
+			if s.gap != c.gap || s.sKey != c.eKey {
+				break
+			}
+			if !used[q] {
+				if d := math.Abs(s.sTau - c.eTau); d < bestD {
+					best, bestD = q, d
+				}
+				break
+			}
+		}
+		if best >= 0 {
+			used[best] = true
+			c.next = starts[best]
+		}
+	}
+	// Follow the links into rings.
+	alpha := 2 * math.Acos(1-math.Min(tol, 1))
+	rings := make([][]orb.Ring, ng)
+	var buf []orb.Point
+	for i := range chains {
+		if chains[i].seen {
+			continue
+		}
+		buf = buf[:0]
+		cur := int32(i)
+		for cur >= 0 && !chains[cur].seen {
+			c := &chains[cur]
+			c.seen = true
+			buf = m.chainPoints(l, c, loopNode, r, alpha, buf)
+			if c.closed {
+				break
+			}
+			cur = c.next
+		}
+		ring := gapCloseRing(buf)
+		if ring != nil {
+			g := chains[i].gap
+			rings[g] = append(rings[g], ring)
+		}
+	}
+	out := make([]orb.MultiPolygon, ng)
+	for g := range rings {
+		out[g] = gapPolygons(rings[g])
+	}
+	return out
+}
+
+// chainPoints appends the points of chain c: each element's start, and the
+// chord points inside each arc.
+func (m *gapMerged) chainPoints(l *Layout, c *gapChain, loopNode []int32, r, alpha float64, buf []orb.Point) []orb.Point {
+	e0, e1 := m.loopElem[c.loop], m.loopElem[c.loop+1]
+	n := e1 - e0
+	off := c.first - e0
+	cx, cy := l.site(m.nodes[loopNode[c.loop]].v)
+	for k := int32(0); k < c.n; k++ {
+		el := &m.elems[e0+(off+k)%n]
+		buf = append(buf, orb.Point{el.x, el.y})
+		if el.kind != gapArc || el.phi <= 0 {
+			continue
+		}
+		steps := int(math.Ceil(el.phi / alpha))
+		if steps > 1 {
+			th := math.Atan2(el.y-cy, el.x-cx)
+			for s := 1; s < steps; s++ {
+				a := th - el.phi*float64(s)/float64(steps)
+				buf = append(buf, orb.Point{cx + r*math.Cos(a), cy + r*math.Sin(a)})
+			}
+		}
+	}
+	return buf
+}
+
+// gapCloseRing copies pts into a closed ring without repeated points; nil
+// when fewer than three distinct points remain.
+func gapCloseRing(pts []orb.Point) orb.Ring {
+	ring := make(orb.Ring, 0, len(pts)+1)
+	for _, p := range pts {
+		if len(ring) > 0 && ring[len(ring)-1] == p {
+			continue
+		}
+		ring = append(ring, p)
+	}
+	for len(ring) > 1 && ring[len(ring)-1] == ring[0] {
+		ring = ring[:len(ring)-1]
+	}
+	if len(ring) < 3 {
+		return nil
+	}
+	return append(ring, ring[0])
+}
+
+// gapRingArea returns the signed area of a closed ring.
+func gapRingArea(r orb.Ring) float64 {
+	if len(r) < 4 {
+		return 0
+	}
+	x0, y0 := r[0][0], r[0][1]
+	s := 0.0
+	for i := 1; i+1 < len(r); i++ {
+		s += (r[i][0]-x0)*(r[i+1][1]-y0) - (r[i+1][0]-x0)*(r[i][1]-y0)
+	}
+	return s / 2
+}
+
+// gapRingContains reports whether p lies inside the closed ring.
+func gapRingContains(r orb.Ring, p orb.Point) bool {
+	in := false
+	for i := 0; i+1 < len(r); i++ {
+		a, b := r[i], r[i+1]
+		if (a[1] > p[1]) != (b[1] > p[1]) {
+			x := a[0] + (p[1]-a[1])*(b[0]-a[0])/(b[1]-a[1])
+			if x > p[0] {
+				in = !in
+			}
+		}
+	}
+	return in
+}
+
+// gapPolygons groups rings into polygons: counter-clockwise rings are
+// exteriors, clockwise rings holes of the smallest exterior containing them.
+func gapPolygons(rings []orb.Ring) orb.MultiPolygon {
+	var ext, holes []orb.Ring
+	var extA []float64
+	for _, r := range rings {
+		a := gapRingArea(r)
+		switch {
+		case a > 0:
+			ext = append(ext, r)
+			extA = append(extA, a)
+		case a < 0:
+			holes = append(holes, r)
+		}
+	}
+	if len(ext) == 0 {
+		// Only clockwise rings (degenerate input): report them as exteriors.
+		for _, h := range holes {
+			h.Reverse()
+			ext = append(ext, h)
+			extA = append(extA, gapRingArea(h))
+		}
+		holes = nil
+	}
+	mp := make(orb.MultiPolygon, len(ext))
+	for i, e := range ext {
+		mp[i] = orb.Polygon{e}
+	}
+	for _, h := range holes {
+		best := 0
+		if len(ext) > 1 {
+			best = -1
+			bestA := math.Inf(1)
+			for i, e := range ext {
+				if extA[i] < bestA && gapRingContains(e, h[0]) {
+					best, bestA = i, extA[i]
+				}
+			}
+			if best < 0 {
+				best = 0
+			}
+		}
+		mp[best] = append(mp[best], h)
+	}
+	return mp
+}
