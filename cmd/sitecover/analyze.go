@@ -149,12 +149,12 @@ func printAnalysis(w io.Writer, d *report.SummaryDoc, m report.Meta) {
 			enclosed++
 		}
 	}
-	area := "site area"
+	hull := ""
 	if d.AreaFromHull {
-		area = "site area (convex hull of the sites)"
+		hull = " (convex hull of the sites)"
 	}
 	fmt.Fprintf(w, "  %-24s %d\n", "sites", d.Sites)
-	fmt.Fprintf(w, "  %-24s %s m²\n", area, fmtNum(d.AreaM2, 1))
+	fmt.Fprintf(w, "  %-24s %s m²%s\n", "site area", fmtNum(d.AreaM2, 1), hull)
 	fmt.Fprintf(w, "  %-24s %s m\n", "planned range", fmtNum(d.RangeM, 2))
 	fmt.Fprintf(w, "  %-24s %s %% (%s m² uncovered in %d gaps, %d enclosed)\n", "covered at planned range",
 		fmtNum(100*d.CoveredFraction, 2), fmtNum(d.UncoveredAreaM2, 1), len(d.Gaps), enclosed)
@@ -172,6 +172,9 @@ func printAnalysis(w io.Writer, d *report.SummaryDoc, m report.Meta) {
 	fmt.Fprintf(w, "  %-24s %s m\n", "link range (mesh)", fmtNum(d.LinkRangeM, 2))
 }
 
+// maxGapRows is the number of gaps printed on stdout.
+const maxGapRows = 40
+
 // printGapTable prints the gaps at the planned range, by closing range.
 func printGapTable(w io.Writer, d *report.SummaryDoc, m report.Meta) {
 	if len(d.Gaps) == 0 {
@@ -180,7 +183,11 @@ func printGapTable(w io.Writer, d *report.SummaryDoc, m report.Meta) {
 	}
 	fmt.Fprintf(w, "\nGaps at %s m, by closing range:\n", fmtNum(d.RangeM, 2))
 	fmt.Fprintf(w, "  %4s  %12s  %11s  %-26s  %-8s  %s\n", "gap", "area m²", "closing m", "deepest point", "where", "nearby sites")
-	for _, g := range d.Gaps {
+	for i, g := range d.Gaps {
+		if i == maxGapRows {
+			fmt.Fprintf(w, "  ... and %d more gaps (all in report.txt, summary.json and gaps.geojson)\n", len(d.Gaps)-i)
+			break
+		}
 		kind := "edge"
 		if !g.TouchesBoundary {
 			kind = "enclosed"

@@ -143,6 +143,7 @@ func TestBadInput(t *testing.T) {
 		{"extra argument", []string{"analyze", "--sites", goodCSV, "--range", "1m", "extra.csv"}, 2, []string{`unexpected argument "extra.csv"`}},
 		{"demo extra argument", []string{"demo", "now"}, 2, []string{`unexpected argument "now"`}},
 		{"unknown command", []string{"analyse-everything"}, 2, []string{`unknown command "analyse-everything"`}},
+		{"misspelt command", []string{"analyse", "--sites", goodCSV}, 2, []string{`unknown command "analyse"`, "did you mean analyze?"}},
 		{"flag without value", []string{"analyze", "--sites"}, 2, []string{"flag needs an argument: --sites"}},
 		{"bad int flag", []string{"analyze", "--sites", goodCSV, "--range", "1m", "--map-width", "wide"}, 2, []string{"--map-width"}},
 		{"exclude without area", an("--sites", goodCSV, "--exclude", goodArea), 2, []string{"--exclude needs --area"}},

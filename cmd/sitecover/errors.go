@@ -80,6 +80,11 @@ func exitCode(err error) int {
 func errorLine(err error) string {
 	msg := strings.TrimSpace(err.Error())
 	msg = strings.TrimPrefix(msg, "sitecover: ")
+	// cobra's suggestion block: "\n\nDid you mean this?\n\tanalyze\n".
+	if i := strings.Index(msg, "\n\nDid you mean this?"); i >= 0 {
+		alts := strings.Fields(msg[i+len("\n\nDid you mean this?"):])
+		msg = msg[:i] + "; did you mean " + strings.Join(alts, " or ") + "?"
+	}
 	msg = strings.Join(strings.Fields(strings.ReplaceAll(msg, "\n", " ")), " ")
 	if exitCode(err) == exitUsage && !strings.Contains(msg, "--help") {
 		msg += " (see 'sitecover --help')"
