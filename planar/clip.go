@@ -266,14 +266,22 @@ func (c *clipper) parallel(n, chunk int, f func(lo, hi int)) {
 // circumcentres computes the circumcentre of every triangle. Triangles that
 // share a circumcircle (adjacent across an edge whose four points are
 // exactly cocircular, by InCircle) share one representative and one
-// computed centre, so zero-length Voronoi edges are exactly zero.
+// computed centre, so zero-length Voronoi edges are exactly zero. InCircle
+// is only evaluated where the two computed centres agree within their
+// rounding-error bounds; elsewhere the circles certainly differ.
 func (c *clipper) circumcentres() {
 	t := c.t
 	nt := len(t.Triangles) / 3
 	c.class = make([]int32, nt)
-	for i := range c.class {
-		c.class[i] = int32(i)
-	}
+	c.cc = make([]float64, 2*nt)
+	errb := make([]float64, nt)
+	c.parallel(nt, 1<<15, func(lo, hi int) {
+		for i := lo; i < hi; i++ {
+			c.class[i] = int32(i)
+			a, b, d := t.Triangles[3*i], t.Triangles[3*i+1], t.Triangles[3*i+2]
+			c.cc[2*i], c.cc[2*i+1], errb[i] = clipCircumcentre(c.xy[2*a], c.xy[2*a+1], c.xy[2*b], c.xy[2*b+1], c.xy[2*d], c.xy[2*d+1])
+		}
+	})
 	// Cocircular interior edges, found in parallel, merged in order.
 	var mu sync.Mutex
 	var pairs [][2]int32
@@ -284,11 +292,15 @@ func (c *clipper) circumcentres() {
 			if o < int32(e) {
 				continue
 			}
-			tr := e / 3
+			tr, to := e/3, o/3
+			tol := errb[tr] + errb[to]
+			if math.Abs(c.cc[2*tr]-c.cc[2*to]) > tol || math.Abs(c.cc[2*tr+1]-c.cc[2*to+1]) > tol {
+				continue
+			}
 			a, b, cc := t.Triangles[3*tr], t.Triangles[3*tr+1], t.Triangles[3*tr+2]
 			d := t.Triangles[PrevHalfedge(o)]
 			if InCircle(c.xy[2*a], c.xy[2*a+1], c.xy[2*b], c.xy[2*b+1], c.xy[2*cc], c.xy[2*cc+1], c.xy[2*d], c.xy[2*d+1]) == 0 {
-				local = append(local, [2]int32{int32(tr), o / 3})
+				local = append(local, [2]int32{int32(tr), to})
 			}
 		}
 		if len(local) > 0 {
@@ -297,49 +309,37 @@ func (c *clipper) circumcentres() {
 			mu.Unlock()
 		}
 	})
-	if len(pairs) > 0 {
-		var find func(x int32) int32
-		find = func(x int32) int32 {
-			for c.class[x] != x {
-				c.class[x] = c.class[c.class[x]]
-				x = c.class[x]
-			}
-			return x
+	if len(pairs) == 0 {
+		return
+	}
+	find := func(x int32) int32 {
+		for c.class[x] != x {
+			c.class[x] = c.class[c.class[x]]
+			x = c.class[x]
 		}
-		for _, p := range pairs {
-			a, b := find(p[0]), find(p[1])
-			if a < b {
-				c.class[b] = a
-			} else if b < a {
-				c.class[a] = b
-			}
-		}
-		for i := range c.class {
-			c.class[i] = find(int32(i))
+		return x
+	}
+	for _, p := range pairs {
+		a, b := find(p[0]), find(p[1])
+		if a < b {
+			c.class[b] = a
+		} else if b < a {
+			c.class[a] = b
 		}
 	}
-	c.cc = make([]float64, 2*nt)
-	c.parallel(nt, 1<<15, func(lo, hi int) {
-		for i := lo; i < hi; i++ {
-			if c.class[i] != int32(i) {
-				continue
-			}
-			a, b, d := t.Triangles[3*i], t.Triangles[3*i+1], t.Triangles[3*i+2]
-			c.cc[2*i], c.cc[2*i+1] = clipCircumcentre(c.xy[2*a], c.xy[2*a+1], c.xy[2*b], c.xy[2*b+1], c.xy[2*d], c.xy[2*d+1])
-		}
-	})
-	c.parallel(nt, 1<<15, func(lo, hi int) {
-		for i := lo; i < hi; i++ {
-			if k := c.class[i]; k != int32(i) {
-				c.cc[2*i], c.cc[2*i+1] = c.cc[2*k], c.cc[2*k+1]
-			}
-		}
-	})
+	for i := range c.class {
+		k := find(int32(i))
+		c.class[i] = k
+		c.cc[2*i], c.cc[2*i+1] = c.cc[2*k], c.cc[2*k+1]
+	}
 }
 
 // clipCircumcentre returns the circumcentre of triangle abc, computed
-// relative to a (the usual determinant formula, Shewchuk's form).
-func clipCircumcentre(ax, ay, bx, by, cx, cy float64) (float64, float64) {
+// relative to a (the usual determinant formula), and a bound on the
+// rounding error of each coordinate (a standard forward error analysis of
+// the formula with unit roundoff u = 2⁻⁵³, doubled for safety).
+func clipCircumcentre(ax, ay, bx, by, cx, cy float64) (x, y, err float64) {
+	const u = 0x1p-53
 	bdx, bdy := bx-ax, by-ay
 	cdx, cdy := cx-ax, cy-ay
 	b2 := bdx*bdx + bdy*bdy
@@ -347,10 +347,18 @@ func clipCircumcentre(ax, ay, bx, by, cx, cy float64) (float64, float64) {
 	d := 2 * (bdx*cdy - bdy*cdx)
 	if d == 0 {
 		// Cannot happen for a triangle of a valid triangulation; keep the
-		// output finite.
-		return ax, ay
+		// output finite and never merge it with a neighbour.
+		return ax, ay, -1
 	}
-	return ax + (cdy*b2-bdy*c2)/d, ay + (bdx*c2-cdx*b2)/d
+	qx, qy := (cdy*b2-bdy*c2)/d, (bdx*c2-cdx*b2)/d
+	dabs := 2 * (math.Abs(bdx*cdy) + math.Abs(bdy*cdx))
+	mx := math.Abs(cdy*b2) + math.Abs(bdy*c2)
+	my := math.Abs(bdx*c2) + math.Abs(cdx*b2)
+	x, y = ax+qx, ay+qy
+	ad := math.Abs(d)
+	ex := (8*u*mx+4*u*math.Abs(qx)*dabs)/ad + u*math.Abs(qx) + u*math.Abs(x)
+	ey := (8*u*my+4*u*math.Abs(qy)*dabs)/ad + u*math.Abs(qy) + u*math.Abs(y)
+	return x, y, 2 * math.Max(ex, ey)
 }
 
 // around lists the Delaunay neighbours of v counter-clockwise in nb and, in
@@ -527,79 +535,90 @@ func (c *clipper) walkBoundary() {
 // classify decides every uncrossed cell: uncrossed cells joined by a
 // Voronoi edge of positive length lie on the same side of the area's
 // boundary, so one point-in-area test (at a site, which lies strictly
-// inside its own cell) decides a whole group.
+// inside its own cell) decides a whole group. Groups are found by
+// union-find over the Delaunay edges in one linear pass.
 func (c *clipper) classify() {
-	var nb, tri []int32
-	var queue []int32
-	for v0 := int32(0); int(v0) < c.nv; v0++ {
-		if c.state[v0] != clipUnknown {
+	parent := make([]int32, c.nv)
+	for i := range parent {
+		parent[i] = int32(i)
+	}
+	find := func(x int32) int32 {
+		for parent[x] != x {
+			parent[x] = parent[parent[x]]
+			x = parent[x]
+		}
+		return x
+	}
+	union := func(a, b int32) {
+		if c.state[a] != clipUnknown || c.state[b] != clipUnknown {
+			return
+		}
+		ra, rb := find(a), find(b)
+		if ra < rb {
+			parent[rb] = ra
+		} else if rb < ra {
+			parent[ra] = rb
+		}
+	}
+	t := c.t
+	if c.collinear {
+		for i := 1; i < len(t.Hull); i++ {
+			union(t.Hull[i-1], t.Hull[i])
+		}
+	} else {
+		for e := range t.Halfedges {
+			o := t.Halfedges[e]
+			if o >= 0 && o < int32(e) {
+				continue
+			}
+			if o >= 0 && c.class[e/3] == c.class[o/3] {
+				continue // zero-length Voronoi edge: the cells only touch
+			}
+			union(t.Triangles[e], t.Triangles[NextHalfedge(int32(e))])
+		}
+	}
+	// Verdict per group: 0 undecided, 1 inside, 2 outside, 3 only sites on
+	// the boundary seen so far.
+	verdict := make([]uint8, c.nv)
+	for v := int32(0); int(v) < c.nv; v++ {
+		if c.state[v] != clipUnknown {
 			continue
 		}
-		queue = append(queue[:0], v0)
-		c.state[v0] = clipCrossed // provisional mark: "in the queue"
-		for qi := 0; qi < len(queue); qi++ {
-			v := queue[qi]
-			nb, tri, _ = c.around(v, nb, tri)
-			for k, j := range nb {
-				if c.state[j] != clipUnknown || c.zeroEdge(v, k, nb, tri) {
-					continue
-				}
-				c.state[j] = clipCrossed
-				queue = append(queue, j)
-			}
+		r := find(v)
+		if verdict[r] == 1 || verdict[r] == 2 {
+			continue
 		}
-		// Decide by the first member whose site is not on the boundary.
-		verdict := clipCrossed
-		for _, v := range queue {
-			in, on := c.grid.locate(c.xy[2*v], c.xy[2*v+1], nil, nil)
-			if !on {
-				verdict = clipOutside
-				if in {
-					verdict = clipInside
-				}
-				break
-			}
-		}
-		for _, v := range queue {
-			c.state[v] = verdict
+		in, on := c.grid.locate(c.xy[2*v], c.xy[2*v+1], nil, nil)
+		switch {
+		case on:
+			verdict[r] = 3
+		case in:
+			verdict[r] = 1
+		default:
+			verdict[r] = 2
 		}
 	}
-	if c.collinear {
-		// Every cell is unbounded; none can be whole-inside a bounded area.
-		for v := range c.state {
-			if c.state[v] == clipInside {
-				c.state[v] = clipCrossed
-			}
+	for v := int32(0); int(v) < c.nv; v++ {
+		if c.state[v] != clipUnknown {
+			continue
 		}
-		return
+		switch verdict[find(v)] {
+		case 1:
+			c.state[v] = clipInside
+		case 2:
+			c.state[v] = clipOutside
+		default:
+			c.state[v] = clipCrossed
+		}
 	}
-	// Unbounded (hull) cells cannot be whole-inside either; if a group
-	// said so, clip them in full (this only happens on inconsistency).
-	for _, v := range c.t.Hull {
+	// Unbounded cells (hull sites; every site when collinear) cannot lie
+	// whole inside a bounded area; if a group said so (only on
+	// inconsistency), clip them in full.
+	for _, v := range t.Hull {
 		if c.state[v] == clipInside {
 			c.state[v] = clipCrossed
 		}
 	}
-}
-
-// zeroEdge reports whether the Voronoi edge between v and nb[k] has zero
-// length (the two triangles beside the Delaunay edge share a circle).
-func (c *clipper) zeroEdge(v int32, k int, nb, tri []int32) bool {
-	if c.collinear || len(tri) == 0 {
-		return false
-	}
-	m := len(nb)
-	bounded := len(tri) == m
-	var t0, t1 int32
-	if bounded {
-		t0, t1 = tri[(k+m-1)%m], tri[k]
-	} else {
-		if k == 0 || k == m-1 {
-			return false
-		}
-		t0, t1 = tri[k-1], tri[k]
-	}
-	return c.class[t0] == c.class[t1]
 }
 
 // clipOut accumulates the output of a chunk of sites.
@@ -626,6 +645,13 @@ func (c *clipper) assemble(st *clipStats) *Cells {
 		w := <-works
 		defer func() { works <- w }()
 		out := &outs[lo/chunk]
+		n := hi - lo
+		out.sitePolys = make([]int32, 0, n)
+		out.area = make([]float64, 0, n)
+		out.polyRings = make([]int32, 0, n+16)
+		out.ringPts = make([]int32, 0, n+16)
+		out.xy = make([]float64, 0, 14*n)
+		out.src = make([]int32, 0, 7*n)
 		// Pairs for this chunk.
 		pi := sortSearchInt32(c.pairSite, int32(lo))
 		for v := int32(lo); v < int32(hi); v++ {

@@ -29,6 +29,12 @@ type clipRef struct {
 		Areas      []*float64       `json:"areas"`
 		RegionArea float64          `json:"region_area"`
 	} `json:"cells"`
+	Contains []struct {
+		Name   string           `json:"name"`
+		Region [][][][2]float64 `json:"region"`
+		Points [][2]float64     `json:"points"`
+		Covers []bool           `json:"covers"`
+	} `json:"contains"`
 	Disk []struct {
 		Name string    `json:"name"`
 		Ring []float64 `json:"ring"`

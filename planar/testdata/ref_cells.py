@@ -14,6 +14,9 @@ Everything computed here comes from GEOS through shapely, not from sitecover:
   matched to its site by containment (a site lies strictly inside its own
   Voronoi cell). Exact duplicate sites share one cell; the area goes to the
   first input index and later duplicates get null.
+* contains: whether the site area covers each query point (GEOS covers,
+  which counts boundary points as covered), for random points, every ring
+  vertex and every edge midpoint.
 * disk: the polygon intersected with a 4096-gon inscribed in the circle
   (Point.buffer with 1024 segments per quarter, whose vertices lie on the
   circle) and with the same 4096-gon scaled by 1/cos(pi/4096) about the
@@ -90,6 +93,19 @@ def cells_case(name, region, sites):
         "areas": areas,
         "region_area": shape.area,
     }
+
+
+def contains_case(name, region, rnd, n):
+    shape = shape_of(region)
+    minx, miny, maxx, maxy = shape.bounds
+    pts = [[minx - 5 + rnd.random() * (maxx - minx + 10), miny - 5 + rnd.random() * (maxy - miny + 10)] for _ in range(n)]
+    for poly in region:
+        for ring in poly:
+            for i, p in enumerate(ring):
+                q = ring[(i + 1) % len(ring)]
+                pts.append(list(p))
+                pts.append([(p[0] + q[0]) / 2, (p[1] + q[1]) / 2])
+    return {"name": name, "region": region, "points": pts, "covers": [shape.covers(Point(p)) for p in pts]}
 
 
 def disk_case(name, ring, cx, cy, r):
@@ -187,7 +203,9 @@ def main():
         cx, cy, r = rnd.uniform(-5, 35), rnd.uniform(-5, 20), rnd.uniform(0.5, 15)
         disks.append(disk_case("comb-random-%d" % k, comb, cx, cy, r))
 
-    out = {"seed": args.seed, "n_poly": N_POLY, "cells": cases, "disk": disks}
+    contains = [contains_case("u", region_u, rnd, 300), contains_case("irregular", region_irr, rnd, 300)]
+
+    out = {"seed": args.seed, "n_poly": N_POLY, "cells": cases, "disk": disks, "contains": contains}
     with open(args.out, "w") as f:
         json.dump(out, f, indent=None, separators=(",", ":"))
         f.write("\n")
