@@ -113,24 +113,10 @@ func layoutCanvas(b orb.Bound, w int, items []legendItem, noteLines int) (*canva
 	}
 	u := float64(w) / 1600
 	c := &canvas{w: w, u: u, faces: map[[2]float64]font.Face{}}
-	margin := 28 * u
-	titleH := 96 * u
+	margin, titleH := 28*u, 96*u
 	c.fx, c.fy = margin, titleH
 	c.fw = float64(w) - 2*margin
-	dx, dy := b.Max[0]-b.Min[0], b.Max[1]-b.Min[1]
-	if !(dx > 0) && !(dy > 0) {
-		dx, dy = 1, 1
-	}
-	if !(dx > 0) {
-		dx = dy
-	}
-	if !(dy > 0) {
-		dy = dx
-	}
-	pad := 0.03
-	dx, dy = dx*(1+2*pad), dy*(1+2*pad)
-	c.fh = math.Min(math.Max(c.fw*dy/dx, 0.5*c.fw), 1.1*c.fw)
-	c.k = math.Min(c.fw/dx, c.fh/dy)
+	c.k, c.fh = frameScale(b, c.fw)
 	cx, cy := (b.Min[0]+b.Max[0])/2, (b.Min[1]+b.Max[1])/2
 	c.ox = c.fx + c.fw/2 - cx*c.k
 	c.oy = c.fy + c.fh/2 + cy*c.k
@@ -141,6 +127,26 @@ func layoutCanvas(b orb.Bound, w int, items []legendItem, noteLines int) (*canva
 	c.dc.SetColor(color.White)
 	c.dc.Clear()
 	return c, nil
+}
+
+// frameScale returns the plane-to-pixel scale and the frame height for
+// the extent b in a frame of width fw px: the extent is padded by 3 % each
+// side and the frame's height kept between 0.5 and 1.1 times its width.
+func frameScale(b orb.Bound, fw float64) (k, fh float64) {
+	dx, dy := b.Max[0]-b.Min[0], b.Max[1]-b.Min[1]
+	if !(dx > 0) && !(dy > 0) {
+		dx, dy = 1, 1
+	}
+	if !(dx > 0) {
+		dx = dy
+	}
+	if !(dy > 0) {
+		dy = dx
+	}
+	const pad = 0.03
+	dx, dy = dx*(1+2*pad), dy*(1+2*pad)
+	fh = math.Min(math.Max(fw*dy/dx, 0.5*fw), 1.1*fw)
+	return math.Min(fw/dx, fh/dy), fh
 }
 
 // px maps a plane point to pixels.

@@ -37,17 +37,20 @@ type density struct {
 	spacing float64 // mean site spacing in px
 }
 
-func (s *scene) density(c *canvas) density {
+func (s *scene) density(c *canvas) density { return s.densityAt(c.k) }
+
+// densityAt returns the site density at scale k px/m.
+func (s *scene) densityAt(k float64) density {
 	n := 1
 	if s.l.Tri != nil {
 		n = max(s.l.Tri.NumVertices(), 1)
 	} else if len(s.l.Sites) > 0 {
 		n = len(s.l.Sites)
 	}
-	// spacing over the area actually drawn, not the frame
-	a := s.l.AreaM2 * c.k * c.k
+	// spacing over the area actually drawn
+	a := s.l.AreaM2 * k * k
 	if !(a > 0) {
-		a = c.fw * c.fh
+		return density{spacing: math.Inf(1)}
 	}
 	return density{spacing: math.Sqrt(a / float64(n))}
 }
@@ -89,9 +92,25 @@ func (s *scene) drawArea(c *canvas) *image.Alpha {
 	return m
 }
 
+// denseNote returns a map note when the sites are too dense to show one
+// by one at this width, or "".
+func (s *scene) denseNote(width int, what string) string {
+	u := float64(width) / 1600
+	k, _ := frameScale(s.extent(), float64(width)-56*u)
+	d := s.densityAt(k)
+	if d.spacing >= 8*u {
+		return ""
+	}
+	return fmt.Sprintf("Sites are %.1f px apart on average at this width: %s cannot be told apart here; use %s in a GIS.", d.spacing, what, "the GeoJSON layers")
+}
+
 // drawSites draws the site marks, and labels when there are few.
 func (s *scene) drawSites(c *canvas, d density) {
 	rho := d.siteRadius(c.u)
+	ink := color.NRGBA(colInk)
+	if d.spacing < 10*c.u {
+		ink.A = 0x90 // dense: lighter marks keep the layer beneath visible
+	}
 	halo := 0.0
 	if rho > 2 {
 		halo = 1.2 * c.u
@@ -105,7 +124,7 @@ func (s *scene) drawSites(c *canvas, d density) {
 	f := c.newFill()
 	unit := unitCircle(circleSides(rho))
 	s.forSites(func(x, y float64) { f.circle(c.ox+x*c.k, c.oy-y*c.k, rho, unit) })
-	c.paint(f.mask(), color.NRGBA(colInk), nil)
+	c.paint(f.mask(), ink, nil)
 	if len(s.l.Sites) <= maxLabelledSites && d.spacing >= 40*c.u {
 		s.labelSites(c, rho)
 	}
@@ -359,6 +378,9 @@ func (s *scene) drawServiceAreaMap(width int) (*canvas, error) {
 	notes := []string{
 		"North up: the y axis of the local plane (grid north). " + s.planeNote(),
 	}
+	if n := s.denseNote(width, "single service areas"); n != "" {
+		notes = append(notes, n)
+	}
 	c, err := layoutCanvas(s.extent(), width, items, len(notes))
 	if err != nil {
 		return nil, err
@@ -457,6 +479,9 @@ func (s *scene) drawCoverageMap(width int) (*canvas, error) {
 	notes := []string{
 		"North up: the y axis of the local plane (grid north). " + s.planeNote(),
 		"Disks drawn within 0.2 px of true circles, over the gaps, so gap edges along disks are true arcs too.",
+	}
+	if n := s.denseNote(width, "single disks and small gaps"); n != "" {
+		notes = append(notes, n)
 	}
 	c, err := layoutCanvas(s.extent(), width, items, len(notes))
 	if err != nil {

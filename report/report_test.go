@@ -13,14 +13,18 @@ import (
 	"image"
 	"image/png"
 	"math"
+	"math/rand/v2"
 	"os"
+	"os/exec"
 	"path/filepath"
 	"slices"
 	"strconv"
 	"strings"
 	"testing"
+	"time"
 
 	"github.com/paulmach/orb"
+	"github.com/paulmach/orb/geojson"
 	"github.com/sitecover/sitecover/coverage"
 	"github.com/sitecover/sitecover/planar"
 )
@@ -230,48 +234,90 @@ func TestSummaryJSONFieldNames(t *testing.T) {
 	}
 }
 
-// geoScene is a small campus given in WGS84: four sites, an area with an
-// exclusion zone, projected to a local plane with planar.NewLocalPlane.
+// geoScene is a small campus given in WGS84, analysed in a local plane.
 type geoScene struct {
 	lonlat []orb.Point
 	an     *coverage.Analysis
 	meta   Meta
+	tm     *planar.TransverseMercator
 }
 
+// refLayers is testdata/ref_layers.json, written by ref_layers.py.
+type refLayers struct {
+	Scene     refScene `json:"scene"`
+	Reference refFigs  `json:"reference"`
+}
+
+type refScene struct {
+	Sites  [][2]float64   `json:"sites"`
+	Area   [][][2]float64 `json:"area"`
+	RangeM float64        `json:"range_m"`
+}
+
+type refFigs struct {
+	Lon0, Lat0  float64
+	AreaM2      float64   `json:"area_m2"`
+	UncoveredM2 float64   `json:"uncovered_m2"`
+	GapAreasM2  []float64 `json:"gap_areas_m2"`
+	Problems    []string  `json:"problems"`
+	MaxDecimals int       `json:"max_decimals"`
+}
+
+func loadRefLayers(t testing.TB) refLayers {
+	t.Helper()
+	b, err := os.ReadFile(filepath.Join("testdata", "ref_layers.json"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	var r refLayers
+	if err := json.Unmarshal(b, &r); err != nil {
+		t.Fatal(err)
+	}
+	return r
+}
+
+// newGeoScene is the campus of testdata/ref_layers.json (four sites, an
+// area with an exclusion zone, given in WGS84), projected to a local
+// plane with planar.NewLocalPlane and analysed.
 func newGeoScene(t testing.TB) *geoScene {
 	t.Helper()
-	// invented coordinates around 8.54° E, 47.37° N
-	lon0, lat0 := 8.54, 47.37
-	dlon, dlat := 0.004, 0.003
-	sites := []orb.Point{
-		{lon0 + 0.2*dlon, lat0 + 0.3*dlat}, {lon0 + 0.75*dlon, lat0 + 0.2*dlat},
-		{lon0 + 0.5*dlon, lat0 + 0.8*dlat}, {lon0 + 0.1*dlon, lat0 + 0.9*dlat},
+	return geoSceneFrom(t, loadRefLayers(t).Scene, []string{"North gate", "Lab", "", "Depot"})
+}
+
+func geoSceneFrom(t testing.TB, sc refScene, names []string) *geoScene {
+	t.Helper()
+	var sites []orb.Point
+	for _, p := range sc.Sites {
+		sites = append(sites, orb.Point(p))
 	}
-	outer := []orb.Point{{lon0, lat0}, {lon0 + dlon, lat0}, {lon0 + dlon, lat0 + dlat}, {lon0, lat0 + dlat}}
-	zone := []orb.Point{{lon0 + 0.4*dlon, lat0 + 0.4*dlat}, {lon0 + 0.4*dlon, lat0 + 0.6*dlat}, {lon0 + 0.6*dlon, lat0 + 0.6*dlat}, {lon0 + 0.6*dlon, lat0 + 0.4*dlat}}
-	all := append(append(append([]orb.Point{}, sites...), outer...), zone...)
+	all := append([]orb.Point{}, sites...)
+	for _, r := range sc.Area {
+		for _, p := range r {
+			all = append(all, orb.Point(p))
+		}
+	}
 	tm, err := planar.NewLocalPlane(all)
 	if err != nil {
 		t.Fatal(err)
 	}
-	proj := func(ps []orb.Point) []float64 {
+	var local []orb.Point
+	for _, p := range sites {
+		x, y := tm.Forward(p[0], p[1])
+		local = append(local, orb.Point{x, y})
+	}
+	var rings [][]float64
+	for _, r := range sc.Area {
 		var xy []float64
-		for _, p := range ps {
+		for _, p := range r {
 			x, y := tm.Forward(p[0], p[1])
 			xy = append(xy, x, y)
 		}
-		return xy
+		rings = append(rings, xy)
 	}
-	var local []orb.Point
-	xy := proj(sites)
-	for i := 0; i < len(xy); i += 2 {
-		local = append(local, orb.Point{xy[i], xy[i+1]})
-	}
-	area := region(t, proj(outer), proj(zone))
-	an := analyze(t, local, area, 70)
+	an := analyze(t, local, region(t, rings...), sc.RangeM)
 	b, _ := planar.LonLatBound(all)
-	return &geoScene{lonlat: sites, an: an, meta: Meta{
-		Title: "Test campus", Command: "analyze", SiteNames: []string{"North gate", "Lab", "", "Depot"},
+	return &geoScene{lonlat: sites, an: an, tm: tm, meta: Meta{
+		Title: "Test campus", Command: "analyze", SiteNames: names,
 		Projection: "transverse Mercator on WGS84, centred on the data", MaxScaleError: tm.MaxScaleError(b),
 		ToLonLat: tm.Inverse, Version: "test",
 	}}
@@ -867,4 +913,178 @@ func TestDrawingHelpers(t *testing.T) {
 			t.Errorf("radius %v px: %d sides deviate %v px", rho, n, dev)
 		}
 	}
+}
+
+// layerGapAreas reads gaps.geojson with orb/geojson and returns each gap's
+// area and perimeter in the local plane (vertices projected with tm),
+// largest first.
+func layerGapAreas(t *testing.T, path string, tm *planar.TransverseMercator) (areas, perims []float64) {
+	t.Helper()
+	b, err := os.ReadFile(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	// Reference: the orb/geojson decoder (github.com/paulmach/orb).
+	fc, err := geojson.UnmarshalFeatureCollection(b)
+	if err != nil {
+		t.Fatalf("%s: orb/geojson cannot read it: %v", path, err)
+	}
+	type ap struct{ a, p float64 }
+	var out []ap
+	for _, f := range fc.Features {
+		mp, ok := f.Geometry.(orb.MultiPolygon)
+		if !ok {
+			t.Fatalf("gap geometry %T", f.Geometry)
+		}
+		var a, per float64
+		for _, poly := range mp {
+			for k, ring := range poly {
+				var r [][2]float64
+				for _, q := range ring {
+					x, y := tm.Forward(q[0], q[1])
+					r = append(r, [2]float64{x, y})
+				}
+				for i := 0; i+1 < len(r); i++ {
+					per += math.Hypot(r[i+1][0]-r[i][0], r[i+1][1]-r[i][1])
+				}
+				if k == 0 {
+					a += shoelace(r)
+				} else {
+					a += shoelace(r) // holes are clockwise: negative
+				}
+			}
+		}
+		out = append(out, ap{a, per})
+	}
+	slices.SortFunc(out, func(x, y ap) int { return -cmpFloat(x.a, y.a) })
+	for _, v := range out {
+		areas = append(areas, v.a)
+		perims = append(perims, v.p)
+	}
+	return areas, perims
+}
+
+func cmpFloat(a, b float64) int {
+	switch {
+	case a < b:
+		return -1
+	case a > b:
+		return 1
+	}
+	return 0
+}
+
+// checkAgainstGEOS compares the summary and the gaps layer of g with the
+// PROJ + GEOS reference figures.
+func checkAgainstGEOS(t *testing.T, g *geoScene, dir string, ref refFigs) {
+	t.Helper()
+	doc := Summary(g.an, g.meta)
+	areas, perims := layerGapAreas(t, filepath.Join(dir, LayerFile(FileGaps, false)), g.tm)
+	// GEOS buffers are inscribed 4096-gons (1024 segments a quarter):
+	// along an arc each chord cuts off a segment, so GEOS gaps are larger
+	// by at most (2/3)·sagitta per metre of arc, sagitta = r(1 − cos(π/4096));
+	// the gap perimeter bounds the arc length.
+	sag := g.an.Range * (1 - math.Cos(math.Pi/4096))
+	var totalPerim float64
+	for _, p := range perims {
+		totalPerim += p
+	}
+	if math.Abs(doc.AreaM2-ref.AreaM2) > 1e-9*ref.AreaM2 {
+		t.Errorf("area_m2 %v, GEOS %v", doc.AreaM2, ref.AreaM2)
+	}
+	if d := ref.UncoveredM2 - doc.UncoveredAreaM2; d < -1e-3 || d > sag*totalPerim+1e-3 {
+		t.Errorf("uncovered_area_m2 %v, GEOS %v (GEOS may exceed by up to %v)", doc.UncoveredAreaM2, ref.UncoveredM2, sag*totalPerim)
+	}
+	var sumAreas []float64
+	for _, gp := range doc.Gaps {
+		sumAreas = append(sumAreas, gp.AreaM2)
+	}
+	slices.SortFunc(sumAreas, func(x, y float64) int { return -cmpFloat(x, y) })
+	// GEOS may keep slivers the analysis drops (or the reverse) far below
+	// a square metre; compare the gaps above 0.01 m².
+	big := func(v []float64) []float64 {
+		var o []float64
+		for _, x := range v {
+			if x > 0.01 {
+				o = append(o, x)
+			}
+		}
+		return o
+	}
+	want := big(ref.GapAreasM2)
+	got := big(sumAreas)
+	if len(got) != len(want) || len(areas) < len(want) {
+		t.Fatalf("%d gaps in summary.json, %d in the layer, GEOS finds %d: %v vs %v", len(got), len(areas), len(want), got, want)
+	}
+	for i := range want {
+		if d := want[i] - got[i]; d < -1e-3 || d > sag*perims[i]+1e-3 {
+			t.Errorf("gap %d area %v m², GEOS %v m² (GEOS may exceed by up to %v)", i, got[i], want[i], sag*perims[i])
+		}
+	}
+	// The outlines in gaps.geojson (lon/lat, 7 decimals) projected back:
+	// they contain the true gap (chords inside the disks), exceed it by
+	// less than the circular segments (sagitta 0.2 % of r along at most the
+	// perimeter), and rounding to 1e-7° moves each vertex by at most 1 cm.
+	for i := range want {
+		excess := coverage.DefaultChordTolerance * g.an.Range * perims[i]
+		round := 0.01 * perims[i]
+		if areas[i] < want[i]-round-1e-3 || areas[i] > want[i]+excess+round {
+			t.Errorf("gaps.geojson gap %d: %v m² in the plane, GEOS %v m² (allowed -%v/+%v)", i, areas[i], want[i], round, excess+round)
+		}
+	}
+}
+
+func TestGapsAgainstGEOS(t *testing.T) {
+	ref := loadRefLayers(t)
+	g := newGeoScene(t)
+	dir := t.TempDir()
+	if _, err := WriteAnalysis(dir, g.an, g.meta, Options{}); err != nil {
+		t.Fatal(err)
+	}
+	// Reference: PROJ (cs2cs) and GEOS (shapely), testdata/ref_layers.py.
+	checkAgainstGEOS(t, g, dir, ref.Reference)
+}
+
+// TestLiveLayersAgainstGEOS re-runs ref_layers.py on a fresh random scene
+// and has GEOS validate the written layers (SITECOVER_LIVE=1).
+func TestLiveLayersAgainstGEOS(t *testing.T) {
+	if os.Getenv("SITECOVER_LIVE") != "1" {
+		t.Skip("set SITECOVER_LIVE=1 to check fresh scenes against PROJ and GEOS (needs /usr/bin/python3 with shapely, and cs2cs)")
+	}
+	base := loadRefLayers(t).Scene
+	seed := uint64(time.Now().UnixNano())
+	rng := rand.New(rand.NewPCG(seed, 11))
+	sc := refScene{Area: base.Area, RangeM: 30 + 60*rng.Float64()}
+	lo, hi := base.Area[0][0], base.Area[0][2]
+	for range 5 + rng.IntN(20) {
+		sc.Sites = append(sc.Sites, [2]float64{lo[0] + (hi[0]-lo[0])*rng.Float64(), lo[1] + (hi[1]-lo[1])*rng.Float64()})
+	}
+	t.Logf("seed %d: %d sites, range %.2f m", seed, len(sc.Sites), sc.RangeM)
+	g := geoSceneFrom(t, sc, nil)
+	dir := t.TempDir()
+	if _, err := WriteAnalysis(dir, g.an, g.meta, Options{}); err != nil {
+		t.Fatal(err)
+	}
+	scenePath := filepath.Join(t.TempDir(), "scene.json")
+	b, _ := json.Marshal(sc)
+	os.WriteFile(scenePath, b, 0o644)
+	out, err := exec.Command("/usr/bin/python3", filepath.Join("testdata", "ref_layers.py"), "live", scenePath, dir).Output()
+	if err != nil {
+		if ee, ok := err.(*exec.ExitError); ok {
+			t.Fatalf("ref_layers.py: %v\n%s", err, ee.Stderr)
+		}
+		t.Fatalf("ref_layers.py: %v", err)
+	}
+	var ref refFigs
+	if err := json.Unmarshal(out, &ref); err != nil {
+		t.Fatalf("ref_layers.py output: %v\n%s", err, out)
+	}
+	// Reference: GEOS validity and ring orientation of the written layers.
+	for _, p := range ref.Problems {
+		t.Error(p)
+	}
+	if ref.MaxDecimals > 7 {
+		t.Errorf("layers have %d decimals", ref.MaxDecimals)
+	}
+	checkAgainstGEOS(t, g, dir, ref)
 }
