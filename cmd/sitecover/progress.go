@@ -32,25 +32,31 @@ type progress struct {
 // startProgress starts a progress line on w when enabled (a terminal).
 // The returned value is never nil; its methods do nothing when disabled.
 func startProgress(w io.Writer, enabled bool) *progress {
+	return startProgressAfter(w, enabled, progressDelay, 250*time.Millisecond)
+}
+
+// startProgressAfter is startProgress with the delay and redraw period
+// given (for tests).
+func startProgressAfter(w io.Writer, enabled bool, delay, period time.Duration) *progress {
 	p := &progress{w: w, start: time.Now()}
 	if !enabled {
 		return p
 	}
 	p.stop, p.done = make(chan struct{}), make(chan struct{})
-	go p.loop()
+	go p.loop(delay, period)
 	return p
 }
 
-func (p *progress) loop() {
+func (p *progress) loop(delay, period time.Duration) {
 	defer close(p.done)
-	timer := time.NewTimer(progressDelay)
+	timer := time.NewTimer(delay)
 	defer timer.Stop()
 	select {
 	case <-p.stop:
 		return
 	case <-timer.C:
 	}
-	tick := time.NewTicker(250 * time.Millisecond)
+	tick := time.NewTicker(period)
 	defer tick.Stop()
 	for {
 		p.draw()
