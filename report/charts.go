@@ -90,12 +90,13 @@ func (s *scene) curveChart(width int) ([]byte, error) {
 	p := plot.New()
 	title := "Covered share of the site area against range"
 	if s.m.Title != "" {
-		title += " (" + s.m.Title + ")"
+		title = s.m.Title + "\n" + title
 	}
 	p.Title.Text = title
 	p.X.Label.Text = "Range (m)"
 	p.Y.Label.Text = "Area covered (%)"
 	p.X.Min, p.X.Max = 0, xmax
+	p.X.Tick.Marker = niceTicks{}
 	// headroom above 100 % holds the legend clear of the curve and markers
 	p.Y.Min, p.Y.Max = 0, 128
 	p.Y.Tick.Marker = percentTicks{}
@@ -152,6 +153,27 @@ func (percentTicks) Ticks(min, max float64) []plot.Tick {
 	return t
 }
 
+// niceTicks labels an axis every 1, 2 or 5 × 10^k units, 5 to 10 labels.
+type niceTicks struct{}
+
+// Ticks returns labelled major ticks and unlabelled minor ticks halfway.
+func (niceTicks) Ticks(min, max float64) []plot.Tick {
+	if !(max > min) {
+		return nil
+	}
+	step := niceLength((max - min) / 5)
+	var t []plot.Tick
+	for k := math.Ceil(min/step*2) / 2; k*step <= max+1e-9*step; k += 0.5 {
+		v := k * step
+		tk := plot.Tick{Value: v}
+		if math.Abs(k-math.Round(k)) < 1e-9 {
+			tk.Label = trimFloat(v)
+		}
+		t = append(t, tk)
+	}
+	return t
+}
+
 // curvePoints samples the coverage curve in percent: exact samples from 0
 // to the full-cover range (Curve.Samples, which includes the curve's
 // breakpoints), then the flat 100 % up to xmax.
@@ -176,9 +198,9 @@ func (s *scene) holeChart(width int) ([]byte, error) {
 			holes = append(holes, struct{ b, d float64 }{h.Birth, h.Death})
 		}
 	}
-	title := fmt.Sprintf("Holes of the union of disks: %d", len(holes))
+	title := fmt.Sprintf("Holes of the union of disks: %d (appearance and closing range)", len(holes))
 	if s.m.Title != "" {
-		title += " (" + s.m.Title + ")"
+		title = s.m.Title + "\n" + title
 	}
 	p.Title.Text = title
 	p.X.Label.Text = "Range at which the hole appears (m)"
@@ -191,6 +213,8 @@ func (s *scene) holeChart(width int) ([]byte, error) {
 	top *= 1.08
 	p.X.Min, p.X.Max = 0, top
 	p.Y.Min, p.Y.Max = 0, top
+	p.X.Tick.Marker = niceTicks{}
+	p.Y.Tick.Marker = niceTicks{}
 
 	diag, err := plotter.NewLine(plotter.XYs{{X: 0, Y: 0}, {X: top, Y: top}})
 	if err != nil {
