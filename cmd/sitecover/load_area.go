@@ -57,12 +57,9 @@ func loadArea(src source, planarInput, excludeAll bool) ([]areaPoly, error) {
 		if ft.Geometry == nil {
 			return nil, inputErrorf("%s: no geometry (null), expected Polygon or MultiPolygon", where)
 		}
-		props, err := featureProps(src, i, ft)
-		if err != nil {
-			return nil, err
-		}
+		props := featureProps(ft)
 		exclude := excludeAll
-		if raw, ok := props["exclude"]; ok {
+		if raw := props.Exclude; raw != nil {
 			var b *bool
 			if json.Unmarshal(raw, &b) != nil {
 				return nil, inputErrorf("%s: property \"exclude\" must be true or false, got %s", where, strings.TrimSpace(string(raw)))
@@ -71,7 +68,7 @@ func loadArea(src source, planarInput, excludeAll bool) ([]areaPoly, error) {
 				exclude = true
 			}
 		}
-		name := jsonText(props["name"])
+		name := jsonText(props.Name)
 		polys, err := polygonsOf(where, ft.Geometry, planarInput)
 		if err != nil {
 			return nil, err

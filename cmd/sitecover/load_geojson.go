@@ -98,11 +98,19 @@ type gjGeometry struct {
 	Geometries  []gjGeometry    `json:"geometries"`
 }
 
-// gjFeature is a GeoJSON Feature with its properties undecoded.
+// gjProps are the Feature properties sitecover reads; others are skipped
+// by the decoder without being stored.
+type gjProps struct {
+	Name    json.RawMessage `json:"name"`
+	ID      json.RawMessage `json:"id"`
+	Exclude json.RawMessage `json:"exclude"`
+}
+
+// gjFeature is a GeoJSON Feature.
 type gjFeature struct {
 	Type       string          `json:"type"`
 	ID         json.RawMessage `json:"id"`
-	Properties json.RawMessage `json:"properties"`
+	Properties *gjProps        `json:"properties"`
 	Geometry   *gjGeometry     `json:"geometry"`
 }
 
@@ -112,7 +120,7 @@ type gjDoc struct {
 	Type        string          `json:"type"`
 	Features    []gjFeature     `json:"features"`
 	ID          json.RawMessage `json:"id"`
-	Properties  json.RawMessage `json:"properties"`
+	Properties  *gjProps        `json:"properties"`
 	Geometry    *gjGeometry     `json:"geometry"`
 	Coordinates json.RawMessage `json:"coordinates"`
 	Geometries  []gjGeometry    `json:"geometries"`
@@ -195,22 +203,18 @@ func lineAt(b []byte, off int64) int {
 	return 1 + bytes.Count(b[:off], []byte{'\n'})
 }
 
-// featureProps decodes the properties of f (null or absent gives nil).
-func featureProps(src source, i int, f *gjFeature) (map[string]json.RawMessage, error) {
-	if len(f.Properties) == 0 || string(f.Properties) == "null" {
-		return nil, nil
+// featureProps returns the properties of f (empty when null or absent).
+func featureProps(f *gjFeature) gjProps {
+	if f.Properties == nil {
+		return gjProps{}
 	}
-	var m map[string]json.RawMessage
-	if err := json.Unmarshal(f.Properties, &m); err != nil {
-		return nil, inputErrorf("%s feature %d: \"properties\" must be an object or null", src.name, i)
-	}
-	return m, nil
+	return *f.Properties
 }
 
 // featureName returns the "name" property, else the "id" property, else
 // the Feature's "id" member, as text ("" when none).
-func featureName(props map[string]json.RawMessage, id json.RawMessage) string {
-	for _, raw := range []json.RawMessage{props["name"], props["id"], id} {
+func featureName(props gjProps, id json.RawMessage) string {
+	for _, raw := range []json.RawMessage{props.Name, props.ID, id} {
 		if s := jsonText(raw); s != "" {
 			return s
 		}

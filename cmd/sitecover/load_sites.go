@@ -73,11 +73,16 @@ func sitesFromGeoJSON(src source, planarInput bool) (*siteSet, error) {
 		if f.Geometry == nil {
 			return nil, inputErrorf("%s feature %d: no geometry (null), expected Point or MultiPoint", src.name, i)
 		}
-		props, err := featureProps(src, i, f)
-		if err != nil {
-			return nil, err
+		name := featureName(featureProps(f), f.ID)
+		if f.Geometry.Type == "Point" {
+			// Fast path for the common case; anything unusual falls
+			// through to the general decoder and its messages.
+			if x, y, ok := fastPosition(f.Geometry.Coordinates); ok && coordProblem(planarInput, x, y) == "" {
+				s.Pts = append(s.Pts, orb.Point{x, y})
+				s.Names = append(s.Names, name)
+				continue
+			}
 		}
-		name := featureName(props, f.ID)
 		if err := s.addGeometry(src, fmt.Sprintf("feature %d", i), f.Geometry, name, planarInput); err != nil {
 			return nil, err
 		}
@@ -132,6 +137,35 @@ func (s *siteSet) addGeometry(src source, where string, g *gjGeometry, name stri
 	default:
 		return inputErrorf("%s %s: geometry type %s, expected Point or MultiPoint (sites are points)", src.name, where, g.Type)
 	}
+}
+
+// fastPosition parses a plain position "[x, y]" or "[x, y, z]" of JSON
+// numbers without reflection. ok is false for anything else.
+func fastPosition(raw []byte) (x, y float64, ok bool) {
+	t := bytes.TrimSpace(raw)
+	if len(t) < 5 || t[0] != '[' || t[len(t)-1] != ']' {
+		return 0, 0, false
+	}
+	parts := bytes.Split(t[1:len(t)-1], []byte{','})
+	if len(parts) < 2 || len(parts) > 3 {
+		return 0, 0, false
+	}
+	var v [3]float64
+	for i, p := range parts {
+		p = bytes.TrimSpace(p)
+		// JSON numbers only: ParseFloat also takes "Inf", "0x1p3", "_".
+		for _, c := range p {
+			if !(c >= '0' && c <= '9' || c == '-' || c == '+' || c == '.' || c == 'e' || c == 'E') {
+				return 0, 0, false
+			}
+		}
+		f, err := strconv.ParseFloat(string(p), 64)
+		if err != nil {
+			return 0, 0, false
+		}
+		v[i] = f
+	}
+	return v[0], v[1], true
 }
 
 // decodeCoords decodes a "coordinates" member into v with a short error.

@@ -1,0 +1,85 @@
+// Benchmarks of whole command runs (input parsing, projection, analysis
+// and the report files) on 100 000 random sites:
+//
+//	go test -run XXX -bench . -benchtime 3x ./cmd/sitecover
+
+package main
+
+import (
+	"fmt"
+	"io"
+	"math/rand/v2"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+)
+
+// benchInputs writes n random sites over about 10 km × 10 km as a
+// geographic GeoJSON file and a planar CSV file.
+func benchInputs(b *testing.B, n int) (geo, xy string) {
+	b.Helper()
+	rng := rand.New(rand.NewPCG(1, 2))
+	var g, c strings.Builder
+	g.WriteString(`{"type":"FeatureCollection","features":[`)
+	c.WriteString("name,x,y\n")
+	for i := 0; i < n; i++ {
+		if i > 0 {
+			g.WriteByte(',')
+		}
+		fmt.Fprintf(&g, `{"type":"Feature","properties":{"name":"s%d"},"geometry":{"type":"Point","coordinates":[%.7f,%.7f]}}`,
+			i, -99.0+0.126*rng.Float64(), 44.0+0.09*rng.Float64())
+		fmt.Fprintf(&c, "s%d,%.3f,%.3f\n", i, 1e4*rng.Float64(), 1e4*rng.Float64())
+	}
+	g.WriteString("]}")
+	dir := b.TempDir()
+	geo = filepath.Join(dir, "sites.geojson")
+	xy = filepath.Join(dir, "sites.csv")
+	writeBench(b, geo, g.String())
+	writeBench(b, xy, c.String())
+	return geo, xy
+}
+
+func writeBench(b *testing.B, path, s string) {
+	b.Helper()
+	if err := os.WriteFile(path, []byte(s), 0o644); err != nil {
+		b.Fatal(err)
+	}
+}
+
+func benchRun(b *testing.B, args ...string) {
+	b.Helper()
+	for i := 0; i < b.N; i++ {
+		if code := run(args, io.Discard, io.Discard); code != 0 {
+			b.Fatalf("exit %d", code)
+		}
+	}
+}
+
+func BenchmarkAnalyze100kGeoJSONNoMaps(b *testing.B) {
+	geo, _ := benchInputs(b, 100000)
+	out := filepath.Join(b.TempDir(), "out")
+	b.ResetTimer()
+	benchRun(b, "analyze", "--sites", geo, "--range", "30m", "--out", out, "--no-maps")
+}
+
+func BenchmarkAnalyze100kCSVPlanarNoMaps(b *testing.B) {
+	_, xy := benchInputs(b, 100000)
+	out := filepath.Join(b.TempDir(), "out")
+	b.ResetTimer()
+	benchRun(b, "analyze", "--planar", "--sites", xy, "--range", "30", "--out", out, "--no-maps")
+}
+
+func BenchmarkLoadSites100kGeoJSON(b *testing.B) {
+	geo, _ := benchInputs(b, 100000)
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		src, err := readSource(geo, "--sites")
+		if err != nil {
+			b.Fatal(err)
+		}
+		if _, err := loadSites(src, false); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
