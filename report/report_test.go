@@ -488,13 +488,7 @@ func TestGeoJSONLayers(t *testing.T) {
 	if len(cells) != len(g.lonlat) {
 		t.Errorf("%d service areas, want %d", len(cells), len(g.lonlat))
 	}
-	holes := 0
 	for _, f := range cells {
-		var polys [][][][2]float64
-		json.Unmarshal(f.Geometry.Coordinates, &polys)
-		for _, p := range polys {
-			holes += len(p) - 1
-		}
 		for _, k := range []string{"site", "name", "area_m2", "share", "farthest_m"} {
 			if _, ok := f.Properties[k]; !ok {
 				t.Errorf("service area lacks property %q", k)
@@ -513,7 +507,6 @@ func TestGeoJSONLayers(t *testing.T) {
 		}
 	}
 	checkLayer(t, filepath.Join(dir, FileHoleClosings), lonR, latR)
-	_ = holes
 }
 
 func TestGeoJSONRingRepair(t *testing.T) {
