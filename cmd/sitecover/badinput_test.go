@@ -70,6 +70,9 @@ func TestBadInput(t *testing.T) {
 	overlapping := w("overlap.geojson", `{"type":"FeatureCollection","features":[
 		{"type":"Feature","properties":{},"geometry":{"type":"Polygon","coordinates":[[[0,0],[40,0],[40,40],[0,40],[0,0]]]}},
 		{"type":"Feature","properties":{},"geometry":{"type":"Polygon","coordinates":[[[20,20],[60,20],[60,60],[20,60],[20,20]]]}}]}`)
+	adjacent := w("adjacent.geojson", `{"type":"FeatureCollection","features":[
+		{"type":"Feature","properties":{},"geometry":{"type":"Polygon","coordinates":[[[0,0],[40,0],[40,40],[0,40],[0,0]]]}},
+		{"type":"Feature","properties":{},"geometry":{"type":"Polygon","coordinates":[[[40,0],[80,0],[80,40],[40,40],[40,0]]]}}]}`)
 	selfCross := w("bowtie.geojson", `{"type":"Polygon","coordinates":[[[0,0],[40,40],[40,0],[0,40],[0,0]]]}`)
 	// 10° × 10° of the Earth: far beyond a 0.1 % scale error.
 	wide := w("wide.csv", "lat,lon\n40,-105\n50,-95\n45,-100\n")
@@ -124,6 +127,7 @@ func TestBadInput(t *testing.T) {
 		{"everything excluded", an("--planar", "--sites", planarSites, "--area", allExcluded), 1, []string{"allexcl.geojson feature 0: every polygon is an exclusion zone"}},
 		{"exclusion crossing the boundary", an("--planar", "--sites", planarSites, "--area", crossing), 1, []string{"crossing.geojson feature 1: exclusion zone crosses the boundary of feature 0"}},
 		{"overlapping area polygons", an("--planar", "--sites", planarSites, "--area", overlapping), 1, []string{"overlap.geojson feature 1 overlaps feature 0: merge them"}},
+		{"polygons sharing an edge", an("--planar", "--sites", planarSites, "--area", adjacent), 1, []string{"adjacent.geojson feature 0: edge at vertex 0 touches feature 1, edge at vertex 0", "merge polygons that share an edge"}},
 		{"self-crossing ring", an("--planar", "--sites", planarSites, "--area", selfCross), 1, []string{"bowtie.geojson feature 0", "cross"}},
 		{"area too large for one plane", an("--sites", wide), 1, []string{"wide.csv: area too large for one local plane: scale error", "km ×", "split the site"}},
 		{"collinear sites, no area", an("--planar", "--sites", collinear), 1, []string{"fence.csv: the sites are all on one line", "--area"}},

@@ -180,15 +180,23 @@ var regionRef = regexp.MustCompile(`polygon (\d+), ring (\d+)`)
 // package prefix is dropped.
 func regionError(err error, names [][]string) error {
 	msg := strings.TrimPrefix(err.Error(), "planar: NewRegion: ")
+	first := ""
 	msg = regionRef.ReplaceAllStringFunc(msg, func(m string) string {
 		sub := regionRef.FindStringSubmatch(m)
 		p, _ := strconv.Atoi(sub[1])
 		k, _ := strconv.Atoi(sub[2])
-		if p < len(names) && k < len(names[p]) {
-			return names[p][k]
+		if p >= len(names) || k >= len(names[p]) {
+			return m
 		}
-		return m
+		if first == "" {
+			first = names[p][k]
+			return first
+		}
+		return shortWhere(names[p][k], first)
 	})
+	if strings.Contains(msg, "touch") {
+		msg += "; merge polygons that share an edge, and keep exclusion zones off the boundary"
+	}
 	return inputErrorf("%s", msg)
 }
 
