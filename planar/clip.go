@@ -1291,23 +1291,125 @@ func (w *clipWork) traceRings(v int32, bounded bool) {
 // when degenerate.
 func (w *clipWork) finishRing(p0 int32, px, py float64) {
 	n := int32(len(w.ox))
-	// Drop point i when it equals point i+1 (cyclically): the edge from i
-	// to i+1 has zero length, and the label of i+1 carries on. Points are
-	// moved down in place; index p0 keeps the coordinates of the original
-	// first point (it is either kept or replaced by an equal one).
+	ox, oy, ol := w.ox, w.oy, w.ol
+	// Compact in place, dropping zero-length edges (a point equal to the
+	// previous kept one replaces it: its label carries on) and points
+	// between two edges on the same bisector (a chain that only touched
+	// the cell boundary there; also removes zero-width spikes along it).
 	k := p0
 	for i := p0; i < n; i++ {
-		j := i + 1
-		if j == n {
-			j = p0
+		x, y, l := ox[i], oy[i], ol[i]
+		for k > p0 && ox[k-1] == x && oy[k-1] == y {
+			k--
 		}
-		if i != j && w.ox[i] == w.ox[j] && w.oy[i] == w.oy[j] {
+		if k > p0 && l >= 0 && ol[k-1] == l {
 			continue
 		}
-		w.ox[k], w.oy[k], w.ol[k] = w.ox[i], w.oy[i], w.ol[i]
+		ox[k], oy[k], ol[k] = x, y, l
 		k++
 	}
+	// The same across the wrap from the last point to the first.
+	for changed := true; changed && k-p0 >= 2; {
+		changed = false
+		if ox[k-1] == ox[p0] && oy[k-1] == oy[p0] {
+			k--
+			changed = true
+		} else if l := ol[p0]; l >= 0 && ol[k-1] == l {
+			copy(ox[p0:k-1], ox[p0+1:k])
+			copy(oy[p0:k-1], oy[p0+1:k])
+			copy(ol[p0:k-1], ol[p0+1:k])
+			k--
+			changed = true
+		}
+	}
 	w.ox, w.oy, w.ol = w.ox[:k], w.oy[:k], w.ol[:k]
+	if k-p0 < 3 {
+		w.ox, w.oy, w.ol = w.ox[:p0], w.oy[:p0], w.ol[:p0]
+		return
+	}
+	if !w.splitPinched(p0, px, py) {
+		w.addRing(p0, px, py)
+	}
+}
+
+// splitPinched splits the ring at p0 (the last ring in ox/oy/ol) where it
+// passes twice through the same point — where the area's boundary touches
+// a cell edge at a vertex, the traced ring is pinched there — into simple
+// loops, each recorded as its own ring: counter-clockwise loops become
+// exteriors and clockwise ones holes touching them at that point, the
+// representation the OGC simple-features rules allow. It reports false,
+// leaving the ring alone, when no point repeats.
+func (w *clipWork) splitPinched(p0 int32, px, py float64) bool {
+	k := int32(len(w.ox))
+	n := k - p0
+	dup := false
+	if n <= 64 {
+		for i := p0; i < k && !dup; i++ {
+			for j := i + 1; j < k; j++ {
+				if w.ox[i] == w.ox[j] && w.oy[i] == w.oy[j] {
+					dup = true
+					break
+				}
+			}
+		}
+	} else {
+		seen := make(map[[2]float64]struct{}, n)
+		for i := p0; i < k; i++ {
+			key := [2]float64{w.ox[i], w.oy[i]}
+			if _, ok := seen[key]; ok {
+				dup = true
+				break
+			}
+			seen[key] = struct{}{}
+		}
+	}
+	if !dup {
+		return false
+	}
+	xs := slices.Clone(w.ox[p0:k])
+	ys := slices.Clone(w.oy[p0:k])
+	ls := slices.Clone(w.ol[p0:k])
+	w.ox, w.oy, w.ol = w.ox[:p0], w.oy[:p0], w.ol[:p0]
+	// Stack of point indices; pos maps a point to its stack position.
+	var stack []int32
+	pos := make(map[[2]float64]int, n)
+	lab := slices.Clone(ls) // labels as they evolve on the stack
+	for i := int32(0); i < n; i++ {
+		key := [2]float64{xs[i], ys[i]}
+		if s, ok := pos[key]; ok {
+			// Loop stack[s..]: closes back at point stack[s].
+			q0 := int32(len(w.ox))
+			for _, j := range stack[s:] {
+				w.ox = append(w.ox, xs[j])
+				w.oy = append(w.oy, ys[j])
+				w.ol = append(w.ol, lab[j])
+				delete(pos, [2]float64{xs[j], ys[j]})
+			}
+			w.addRing(q0, px, py)
+			stack = stack[:s+1]
+			pos[key] = s
+			lab[stack[s]] = ls[i] // continues along point i's edge
+			continue
+		}
+		pos[key] = len(stack)
+		stack = append(stack, i)
+	}
+	q0 := int32(len(w.ox))
+	for _, j := range stack {
+		w.ox = append(w.ox, xs[j])
+		w.oy = append(w.oy, ys[j])
+		w.ol = append(w.ol, lab[j])
+	}
+	w.addRing(q0, px, py)
+	return true
+}
+
+// addRing records the ring of points [p0, len) with its area, or discards
+// it when it has fewer than 3 points or an area within rounding of zero (a
+// degenerate there-and-back path, such as a region edge along a cell edge
+// seen from the side it does not bound).
+func (w *clipWork) addRing(p0 int32, px, py float64) {
+	k := int32(len(w.ox))
 	if k-p0 < 3 {
 		w.ox, w.oy, w.ol = w.ox[:p0], w.oy[:p0], w.ol[:p0]
 		return
@@ -1322,9 +1424,6 @@ func (w *clipWork) finishRing(p0 int32, px, py float64) {
 		ax, ay = bx, by
 	}
 	a *= 0.5
-	// A ring whose area is within rounding of zero is a degenerate
-	// there-and-back path (a region edge along a cell edge seen from the
-	// side it does not bound): drop it.
 	if math.Abs(a) <= 0x1p-46*abs {
 		w.ox, w.oy, w.ol = w.ox[:p0], w.oy[:p0], w.ol[:p0]
 		return
@@ -1347,13 +1446,12 @@ func (w *clipWork) emit(out *clipOut, px, py float64) {
 			continue
 		}
 		best, ba := int32(-1), 0.0
-		x, y := w.ox[h.p0], w.oy[h.p0]
 		for _, e := range ext {
 			er := &w.rings[e]
 			if best >= 0 && er.area >= ba {
 				continue
 			}
-			if w.ringContains(er, x, y) {
+			if w.ringHolds(er, h) {
 				best, ba = e, er.area
 			}
 		}
@@ -1388,21 +1486,30 @@ func (w *clipWork) copyRing(r *clipRing, out *clipOut) {
 	out.ringPts = append(out.ringPts, r.p1-r.p0)
 }
 
-// ringContains reports whether (x, y) lies inside traced ring r (crossing
-// rule, exact orientation; boundary points count as inside).
-func (w *clipWork) ringContains(r *clipRing, x, y float64) bool {
-	in := false
-	ax, ay := w.ox[r.p1-1], w.oy[r.p1-1]
-	for i := r.p0; i < r.p1; i++ {
-		bx, by := w.ox[i], w.oy[i]
-		on, cr := regionEdgeRay(ax, ay, bx, by, x, y)
-		if on {
-			return true
+// ringHolds reports whether ring h lies inside ring r, judged at the first
+// vertex of h that is not on r (h may touch r at isolated points). Exact
+// orientation tests (crossing rule).
+func (w *clipWork) ringHolds(r, h *clipRing) bool {
+	for i := h.p0; i < h.p1; i++ {
+		x, y := w.ox[i], w.oy[i]
+		in := false
+		on := false
+		ax, ay := w.ox[r.p1-1], w.oy[r.p1-1]
+		for j := r.p0; j < r.p1; j++ {
+			bx, by := w.ox[j], w.oy[j]
+			o, cr := regionEdgeRay(ax, ay, bx, by, x, y)
+			if o {
+				on = true
+				break
+			}
+			if cr {
+				in = !in
+			}
+			ax, ay = bx, by
 		}
-		if cr {
-			in = !in
+		if !on {
+			return in
 		}
-		ax, ay = bx, by
 	}
-	return in
+	return false
 }

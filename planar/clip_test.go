@@ -222,23 +222,48 @@ func checkCells(t *testing.T, tri *Triangulation, reg *Region, c *Cells) {
 	if d := math.Abs(sum - reg.Area()); d > 1e-9*reg.Area() {
 		t.Errorf("cell areas sum to %.15g, region area %.15g (rel %.3g)", sum, reg.Area(), d/reg.Area())
 	}
-	// A bisector edge of v labelled j runs reversed in j's cell, labelled v.
-	// Each (v, j) edge set must be covered by the reversed (j, v) set.
+	// A bisector edge of v labelled j runs reversed in j's cell, labelled v:
+	// the two edge sets cover the same segments (one side may subdivide
+	// an edge where the area's boundary touches the bisector at a point).
 	for kv, edges := range bis {
 		back := bis[[2]int32{kv[1], kv[0]}]
+		la, lb := 0.0, 0.0
 		for _, e := range edges {
-			found := false
-			for _, f := range back {
-				if math.Abs(e.x0-f.x1) <= tol && math.Abs(e.y0-f.y1) <= tol && math.Abs(e.x1-f.x0) <= tol && math.Abs(e.y1-f.y0) <= tol {
-					found = true
-					break
+			la += math.Hypot(e.x1-e.x0, e.y1-e.y0)
+		}
+		for _, f := range back {
+			lb += math.Hypot(f.x1-f.x0, f.y1-f.y0)
+		}
+		if math.Abs(la-lb) > tol*float64(len(edges)+len(back)) {
+			t.Errorf("sites %d and %d: bisector edges of total length %g and %g", kv[0], kv[1], la, lb)
+			continue
+		}
+		for _, e := range edges {
+			for _, p := range [][2]float64{{e.x0, e.y0}, {e.x1, e.y1}, {(e.x0 + e.x1) / 2, (e.y0 + e.y1) / 2}} {
+				near := false
+				for _, f := range back {
+					if segDist(p[0], p[1], f.x0, f.y0, f.x1, f.y1) <= tol {
+						near = true
+						break
+					}
 				}
-			}
-			if !found {
-				t.Errorf("edge (%g, %g)-(%g, %g) of site %d labelled %d has no reversed twin in site %d's cell", e.x0, e.y0, e.x1, e.y1, kv[0], kv[1], kv[1])
+				if !near {
+					t.Errorf("edge (%g, %g)-(%g, %g) of site %d labelled %d: point (%g, %g) is on no edge of site %d labelled %d",
+						e.x0, e.y0, e.x1, e.y1, kv[0], kv[1], p[0], p[1], kv[1], kv[0])
+				}
 			}
 		}
 	}
+}
+
+// segDist is the distance from p to the segment ab.
+func segDist(px, py, ax, ay, bx, by float64) float64 {
+	dx, dy := bx-ax, by-ay
+	t := 0.0
+	if l := dx*dx + dy*dy; l > 0 {
+		t = math.Max(0, math.Min(1, ((px-ax)*dx+(py-ay)*dy)/l))
+	}
+	return math.Hypot(px-ax-t*dx, py-ay-t*dy)
 }
 
 // clipTestRegion is a non-convex polygon with a hole plus a second part,
