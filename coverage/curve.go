@@ -319,6 +319,9 @@ func (cv *Curve) eval(rs []float64, stride int) crvEval {
 		if ev.u[k] < 0 {
 			ev.u[k] = 0
 		}
+		if r <= cv.contact && stride == 1 {
+			ev.u[k] = cv.area // no disk reaches the interior of any piece
+		}
 	}
 	return ev
 }
@@ -359,6 +362,7 @@ func (c *Curve) RangesFor(fractions []float64) []float64 {
 		i         int
 		target    float64 // uncovered area to reach
 		lo, hi, x float64
+		prev      float64 // length of the previous Newton step (NaN: none)
 		done      bool
 	}
 	var st []*state
@@ -371,7 +375,7 @@ func (c *Curve) RangesFor(fractions []float64) []float64 {
 		case f >= 1 || c.full == 0:
 			out[i] = c.full
 		default:
-			st = append(st, &state{i: i, target: (1 - f) * c.area, lo: c.contact, hi: c.full})
+			st = append(st, &state{i: i, target: (1 - f) * c.area, lo: c.contact, hi: c.full, prev: math.NaN()})
 		}
 	}
 	if len(st) == 0 {
@@ -417,18 +421,35 @@ func (c *Curve) RangesFor(fractions []float64) []float64 {
 				s.done = true
 				continue
 			}
-			nx := math.NaN()
-			if ev.du[k] < 0 {
-				nx = s.x - g/ev.du[k]
-				// A step below the tolerance is lengthened to it, so that
-				// the next evaluation brackets the root from the other side
-				// (Newton alone may creep towards a root of zero slope).
-				if d := nx - s.x; math.Abs(d) < tol/2 {
-					nx = s.x + math.Copysign(tol/2, d)
+			if ev.du[k] >= 0 || math.IsNaN(ev.du[k]) {
+				s.x, s.prev = (s.lo+s.hi)/2, math.NaN()
+				continue
+			}
+			d := -g / ev.du[k]
+			nx := s.x + d
+			if !(nx > s.lo && nx < s.hi) {
+				s.x, s.prev = (s.lo+s.hi)/2, math.NaN()
+				continue
+			}
+			// Converging quadratically (each step much shorter than the
+			// last): stop when the step, or the error it predicts for the
+			// next point (C·d² with C = |d|/prev²), is below the tolerance.
+			if q := math.Abs(d); !math.IsNaN(s.prev) && q <= 0.5*s.prev {
+				if q <= tol/4 || q*q*q/(s.prev*s.prev) <= tol/8 {
+					out[s.i] = nx
+					s.done = true
+					continue
 				}
 			}
-			if !(nx > s.lo && nx < s.hi) {
-				nx = (s.lo + s.hi) / 2
+			s.prev = math.Abs(d)
+			// A step below the tolerance is lengthened to it, so that the
+			// next evaluation brackets the root from the other side (Newton
+			// alone may creep towards a root of zero slope).
+			if math.Abs(d) < tol/2 {
+				nx = s.x + math.Copysign(tol/2, d)
+				if !(nx > s.lo && nx < s.hi) {
+					nx = (s.lo + s.hi) / 2
+				}
 			}
 			s.x = nx
 		}

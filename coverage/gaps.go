@@ -25,8 +25,9 @@
 package coverage
 
 import (
+	"cmp"
 	"math"
-	"sort"
+	"slices"
 	"sync"
 
 	"github.com/paulmach/orb"
@@ -156,14 +157,14 @@ func (m *gapMerged) union() []int32 {
 		return x
 	}
 	ps := m.portions
-	sort.Slice(ps, func(i, j int) bool {
-		if ps[i].key != ps[j].key {
-			return ps[i].key < ps[j].key
+	slices.SortFunc(ps, func(a, b gapPortion) int {
+		switch {
+		case a.key != b.key:
+			return cmp.Compare(a.key, b.key)
+		case a.lo != b.lo:
+			return cmp.Compare(a.lo, b.lo)
 		}
-		if ps[i].lo != ps[j].lo {
-			return ps[i].lo < ps[j].lo
-		}
-		return ps[i].elem < ps[j].elem
+		return cmp.Compare(a.elem, b.elem)
 	})
 	for g0 := 0; g0 < len(ps); {
 		g1 := g0 + 1
@@ -246,11 +247,11 @@ func (l *Layout) gapAssemble(m *gapMerged, root []int32, r, chordTol float64) []
 	for i := range m.nodes {
 		pairs[i] = gs2{gapOf[i], l.Tri.Source[m.nodes[i].v]}
 	}
-	sort.Slice(pairs, func(i, j int) bool {
-		if pairs[i].g != pairs[j].g {
-			return pairs[i].g < pairs[j].g
+	slices.SortFunc(pairs, func(a, b gs2) int {
+		if a.g != b.g {
+			return cmp.Compare(a.g, b.g)
 		}
-		return pairs[i].s < pairs[j].s
+		return cmp.Compare(a.s, b.s)
 	})
 	for i, p := range pairs {
 		if i > 0 && pairs[i-1] == p {
@@ -269,21 +270,26 @@ func (l *Layout) gapAssemble(m *gapMerged, root []int32, r, chordTol float64) []
 			gs[g].Outline = outl[g]
 		}
 	}
-	sort.SliceStable(gs, func(i, j int) bool {
-		a, b := &gs[i], &gs[j]
-		if a.ClosingRange != b.ClosingRange {
-			return a.ClosingRange > b.ClosingRange
-		}
-		if a.Area != b.Area {
-			return a.Area > b.Area
-		}
-		if a.Centroid[0] != b.Centroid[0] {
-			return a.Centroid[0] < b.Centroid[0]
-		}
-		return a.Centroid[1] < b.Centroid[1]
-	})
-	for i := range gs {
-		gs[i].ID = i + 1
+	order := make([]int32, len(gs))
+	for i := range order {
+		order[i] = int32(i)
 	}
-	return gs
+	slices.SortStableFunc(order, func(i, j int32) int {
+		a, b := &gs[i], &gs[j]
+		switch {
+		case a.ClosingRange != b.ClosingRange:
+			return -cmp.Compare(a.ClosingRange, b.ClosingRange)
+		case a.Area != b.Area:
+			return -cmp.Compare(a.Area, b.Area)
+		case a.Centroid[0] != b.Centroid[0]:
+			return cmp.Compare(a.Centroid[0], b.Centroid[0])
+		}
+		return cmp.Compare(a.Centroid[1], b.Centroid[1])
+	})
+	out := make([]Gap, len(gs))
+	for i, g := range order {
+		out[i] = gs[g]
+		out[i].ID = i + 1
+	}
+	return out
 }

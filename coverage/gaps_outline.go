@@ -18,8 +18,9 @@
 package coverage
 
 import (
+	"cmp"
 	"math"
-	"sort"
+	"slices"
 
 	"github.com/paulmach/orb"
 )
@@ -46,7 +47,7 @@ func gapBisector(l *Layout, v, j int32) (key uint64, mx, my, ux, uy float64) {
 	ax, ay := l.site(a)
 	bx, by := l.site(b)
 	dx, dy := bx-ax, by-ay
-	d := math.Hypot(dx, dy)
+	d := math.Sqrt(dx*dx + dy*dy)
 	if d > 0 {
 		dx, dy = dx/d, dy/d
 	}
@@ -116,63 +117,54 @@ func (m *gapMerged) outlines(l *Layout, gapOf []int32, ng int, r, tol float64) [
 	}
 	// Link each chain end to the nearest unused chain start on the same
 	// bisector of the same gap.
-	starts := make([]int32, 0, len(chains))
+	type startRec struct {
+		gap   int32
+		chain int32
+		key   uint64
+		tau   float64
+	}
+	cmpRec := func(a, b startRec) int {
+		switch {
+		case a.gap != b.gap:
+			return cmp.Compare(a.gap, b.gap)
+		case a.key != b.key:
+			return cmp.Compare(a.key, b.key)
+		}
+		return cmp.Compare(a.tau, b.tau)
+	}
+	starts := make([]startRec, 0, len(chains))
 	for i := range chains {
-		if !chains[i].closed {
-			starts = append(starts, int32(i))
+		if c := &chains[i]; !c.closed {
+			starts = append(starts, startRec{c.gap, int32(i), c.sKey, c.sTau})
 		}
 	}
-	less := func(ga int32, ka uint64, ta float64, gb int32, kb uint64, tb float64) bool {
-		if ga != gb {
-			return ga < gb
-		}
-		if ka != kb {
-			return ka < kb
-		}
-		return ta < tb
-	}
-	sort.Slice(starts, func(i, j int) bool {
-		a, b := &chains[starts[i]], &chains[starts[j]]
-		return less(a.gap, a.sKey, a.sTau, b.gap, b.sKey, b.sTau)
-	})
+	slices.SortFunc(starts, cmpRec)
 	used := make([]bool, len(starts))
 	for i := range chains {
 		c := &chains[i]
 		if c.closed {
 			continue
 		}
-		pos := sort.Search(len(starts), func(q int) bool {
-			s := &chains[starts[q]]
-			return !less(s.gap, s.sKey, s.sTau, c.gap, c.eKey, c.eTau)
-		})
+		want := startRec{gap: c.gap, key: c.eKey, tau: c.eTau}
+		pos, _ := slices.BinarySearchFunc(starts, want, cmpRec)
 		best, bestD := -1, math.Inf(1)
-		for q := pos; q < len(starts); q++ {
-			s := &chains[starts[q]]
-			if s.gap != c.gap || s.sKey != c.eKey {
-				break
-			}
+		for q := pos; q < len(starts) && starts[q].gap == c.gap && starts[q].key == c.eKey; q++ {
 			if !used[q] {
-				if d := math.Abs(s.sTau - c.eTau); d < bestD {
-					best, bestD = q, d
-				}
+				best, bestD = q, math.Abs(starts[q].tau-c.eTau)
 				break
 			}
 		}
-		for q := pos - 1; q >= 0; q-- {
-			s := &chains[starts[q]]
-			if s.gap != c.gap || s.sKey != c.eKey {
-				break
-			}
+		for q := pos - 1; q >= 0 && starts[q].gap == c.gap && starts[q].key == c.eKey; q-- {
 			if !used[q] {
-				if d := math.Abs(s.sTau - c.eTau); d < bestD {
-					best, bestD = q, d
+				if d := math.Abs(starts[q].tau - c.eTau); d < bestD {
+					best = q
 				}
 				break
 			}
 		}
 		if best >= 0 {
 			used[best] = true
-			c.next = starts[best]
+			c.next = starts[best].chain
 		}
 	}
 	// Follow the links into rings.

@@ -333,10 +333,10 @@ func (lp *gapLoop) extend(x, y float64) {
 }
 
 // segment adds the sub-segment [s0, s1] of the edge starting at local point
-// e to loop lp and returns its subtended angle.
-func (t *gapTracer) segment(lp *gapLoop, e int32, s0, s1 float64) float64 {
+// e to loop lp.
+func (t *gapTracer) segment(lp *gapLoop, e int32, s0, s1 float64) {
 	if !(s1 > s0) {
-		return 0
+		return
 	}
 	x0, y0 := t.pt(e, s0)
 	x1, y1 := t.pt(e, s1)
@@ -351,7 +351,6 @@ func (t *gapTracer) segment(lp *gapLoop, e int32, s0, s1 float64) float64 {
 	if lab <= -2 {
 		lp.touches = true
 	}
-	return math.Atan2(w, x0*x1+y0*y1)
 }
 
 // vertex records local point i (outside the disk) as a deepest candidate.
@@ -362,18 +361,17 @@ func (t *gapTracer) vertex(lp *gapLoop, i int32) {
 }
 
 // run adds the ring portion from crossing a forward to crossing b (the next
-// crossing along the ring) and returns the angle it subtends at the site.
-func (t *gapTracer) run(lp *gapLoop, a, b int32) float64 {
+// crossing along the ring).
+func (t *gapTracer) run(lp *gapLoop, a, b int32) {
 	A, B := &t.xs[a], &t.xs[b]
 	e, s := A.edge, A.t
 	around := A.edge == B.edge && (b <= a || B.t < A.t)
-	ang := 0.0
 	for {
 		if e == B.edge && !around {
-			ang += t.segment(lp, e, s, B.t)
-			return ang
+			t.segment(lp, e, s, B.t)
+			return
 		}
-		ang += t.segment(lp, e, s, 1)
+		t.segment(lp, e, s, 1)
 		e = t.nextPt[e]
 		t.vertex(lp, e)
 		s = 0
@@ -390,15 +388,20 @@ func (t *gapTracer) arc(lp *gapLoop, ex, ey, phi, xx, xy float64) {
 	lp.my += t.r2 / 3 * (ex - xx)
 	lp.extend(ex, ey)
 	lp.extend(xx, xy)
+	if phi >= 2*math.Pi {
+		lp.extend(-r, -r)
+		lp.extend(r, r)
+		return
+	}
+	// Cardinal points swept: the clockwise angle from E to direction q·π/2.
 	th := math.Atan2(ey, ex)
-	for q := 0; q < 4; q++ {
-		al := float64(q) * math.Pi / 2
-		d := math.Mod(th-al, 2*math.Pi)
-		if d < 0 {
+	for q, c := range [4][2]float64{{r, 0}, {0, r}, {-r, 0}, {0, -r}} {
+		d := th - float64(q)*math.Pi/2
+		for d < 0 {
 			d += 2 * math.Pi
 		}
 		if d <= phi {
-			lp.extend(r*math.Cos(al), r*math.Sin(al))
+			lp.extend(c[0], c[1])
 		}
 	}
 }
@@ -441,8 +444,20 @@ func (t *gapTracer) traceStar() {
 			continue
 		}
 		lp := t.newLoop()
-		phi := t.run(lp, int32(k), X.next)
+		t.run(lp, int32(k), X.next)
 		E := &t.xs[X.next]
+		// The run subtends the angle from X counter-clockwise to E, in
+		// (0, 2π); atan2 decides it except near 0 and 2π, where the exact
+		// sum over the run's sub-segments does.
+		phi := math.Atan2(X.x*E.y-X.y*E.x, X.x*E.x+X.y*E.y)
+		switch {
+		case phi > 0.5:
+		case phi < -0.5:
+			phi += 2 * math.Pi
+		default:
+			d := t.delta(int32(k), X.next)
+			phi = d.hi + d.lo
+		}
 		if phi < 0 {
 			phi = 0
 		}

@@ -110,6 +110,9 @@ func (l *Layout) UncoveredArea(r float64) float64 {
 	if math.IsNaN(r) {
 		return math.NaN()
 	}
+	if r <= 0 {
+		return l.AreaM2
+	}
 	c := l.Cells
 	nv := l.numVertices()
 	const chunk = 2048
@@ -120,10 +123,6 @@ func (l *Layout) UncoveredArea(r float64) float64 {
 		for v := int32(lo); v < int32(hi); v++ {
 			a := c.Area[v]
 			if a == 0 {
-				continue
-			}
-			if r <= 0 {
-				s += a
 				continue
 			}
 			d, _, _ := l.vertexFarthest(v)
