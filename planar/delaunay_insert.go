@@ -41,6 +41,7 @@ import (
 	"math/bits"
 	"runtime"
 	"sync"
+	"unsafe"
 
 	"github.com/paulmach/orb"
 )
@@ -48,14 +49,14 @@ import (
 // builder is the working state of one construction. Vertex numbers inside
 // it are internal ids: positions in the insertion order.
 type builder struct {
-	xy    []float64 // internal coordinates, interleaved
-	tri   []int32   // three internal ids per triangle
-	half  []int32   // opposite half-edge or -1
-	nt    int32     // half-edges in use
-	prev  []int32   // hull links; for a duplicate, the vertex it equals
-	next  []int32   // hull links; dupMark for a duplicate
-	hedge []int32   // hull half-edge starting at each hull vertex
-	start int32     // some vertex on the hull
+	ps    []xyPt  // internal coordinates
+	tri   []int32 // three internal ids per triangle
+	half  []int32 // opposite half-edge or -1
+	nt    int32   // half-edges in use
+	prev  []int32 // hull links; for a duplicate, the vertex it equals
+	next  []int32 // hull links; dupMark for a duplicate
+	hedge []int32 // hull half-edge starting at each hull vertex
+	start int32   // some vertex on the hull
 	stack []int32
 	err   error
 }
@@ -99,31 +100,49 @@ func parallel(n, grain int, f func(lo, hi int)) {
 	wg.Wait()
 }
 
+// parallelMin is the number of points from which the construction splits
+// its last rounds between two workers (see delaunay_parallel.go). The
+// result does not depend on the number of CPUs: below this size the
+// construction is sequential everywhere, above it the split is made and
+// the workers run one after the other when only one CPU is available.
+const parallelMin = 1 << 15
+
 // triangulateIncremental builds the triangulation of pts (finite, with the
 // counter-clockwise seed triangle i0, i1, i2 of distinct, non-collinear
 // points).
 func triangulateIncremental(pts []orb.Point, box bbox, i0, i1, i2 int32) (*Triangulation, error) {
 	n := len(pts)
+	split := n >= parallelMin
+	x0 := 0.0
+	if split {
+		x0 = medianX(pts, box)
+	}
 	work := make([]uint64, 2*n)
 	keys, buf := work[:n:n], work[n:]
-	brioKeys(pts, box, keys)
+	brioKeys(pts, box, keys, split, x0)
 	sorted := radixSortHigh(keys, buf) // in buf
 
 	// Internal ids in insertion order; the sort buffers are reused for the
 	// order and the hull links.
 	w32 := asInt32(work)
 	order := w32[0:n:n]
-	xy := make([]float64, 2*n)
+	ps := make([]xyPt, n)
 	parallel(n, 1<<15, func(lo, hi int) {
 		for k := lo; k < hi; k++ {
 			i := uint32(sorted[k])
 			order[k] = int32(i)
 			p := pts[i]
-			xy[2*k], xy[2*k+1] = p[0], p[1]
+			ps[k] = xyPt{p[0], p[1]}
 		}
 	})
+	// Phase boundaries: sequential rounds, then each side's last rounds.
+	n1, nl := n, 0
+	if split {
+		n1 = sortIndex(sorted, 1<<63)
+		nl = sortIndex(sorted, 1<<63|1<<62) - n1
+	}
 	b := &builder{
-		xy:    xy,
+		ps:    ps,
 		prev:  w32[n : 2*n : 2*n],
 		next:  w32[2*n : 3*n : 3*n],
 		hedge: w32[3*n : 4*n : 4*n],
@@ -147,9 +166,10 @@ func triangulateIncremental(pts []orb.Point, box bbox, i0, i1, i2 int32) (*Trian
 			s2 = int32(k)
 		}
 	}
+	isSeed := func(k int32) bool { return k == s0 || k == s1 || k == s2 }
 	b.seed(s0, s1, s2)
-	for k := int32(0); k < int32(n); k++ {
-		if k == s0 || k == s1 || k == s2 {
+	for k := int32(0); k < int32(n1); k++ {
+		if isSeed(k) {
 			continue
 		}
 		b.add(k)
@@ -157,15 +177,81 @@ func triangulateIncremental(pts []orb.Point, box bbox, i0, i1, i2 int32) (*Trian
 			return nil, b.err
 		}
 	}
+	if split {
+		deferred := b.insertSplit(int32(n1), int32(n1+nl), int32(n), x0, isSeed)
+		for _, k := range deferred {
+			b.add(k)
+			if b.err != nil {
+				return nil, b.err
+			}
+		}
+	}
 	return b.finish(pts, order), nil
 }
 
-// brioKeys writes round<<58 | hilbert<<32 | index for every point. The
+// sortIndex returns the number of words in sorted (increasing) below key.
+func sortIndex(sorted []uint64, key uint64) int {
+	lo, hi := 0, len(sorted)
+	for lo < hi {
+		mid := int(uint(lo+hi) >> 1)
+		if sorted[mid] < key {
+			lo = mid + 1
+		} else {
+			hi = mid
+		}
+	}
+	return lo
+}
+
+// medianX returns an abscissa splitting the points about evenly, from a
+// histogram of 4096 bins over the bounding box.
+func medianX(pts []orb.Point, box bbox) float64 {
+	const bins = 4096
+	w := box.maxX - box.minX
+	if !(w > 0) || w > math.MaxFloat64 {
+		return box.minX
+	}
+	scale := bins / w
+	var hist [bins]int32
+	var mu sync.Mutex
+	parallel(len(pts), 1<<16, func(lo, hi int) {
+		var h [bins]int32
+		for _, p := range pts[lo:hi] {
+			k := int((p[0] - box.minX) * scale)
+			h[max(0, min(bins-1, k))]++
+		}
+		mu.Lock()
+		for k, c := range h {
+			hist[k] += c
+		}
+		mu.Unlock()
+	})
+	half := int32(len(pts) / 2)
+	sum := int32(0)
+	for k := 0; k < bins; k++ {
+		c := hist[k]
+		if sum+c > half {
+			// Split at the bin edge nearer the median.
+			if half-sum > sum+c-half && k+1 < bins {
+				k++
+			}
+			return box.minX + float64(k)/scale
+		}
+		sum += c
+	}
+	return box.minX + w/2
+}
+
+// brioKeys writes the insertion-order key of every point into the upper
+// 32 bits of keys[i] and i into the lower ones. Key bits, from the top:
+// phase (1 bit), side (1), round (5), unused (1), Hilbert index (24). The
 // round of point i is drawn from a fixed hash of i: the last round holds
 // about half the points, each earlier one half as many as the next, the
-// first about 32 to 64. hilbert is the position of the point's cell on a
-// 2¹³ × 2¹³ Hilbert curve over the bounding box.
-func brioKeys(pts []orb.Point, box bbox, keys []uint64) {
+// first about 32 to 64. The Hilbert index is the position of the point's
+// cell on a 2¹² × 2¹² Hilbert curve over the bounding box. When split is
+// set, points of the last four rounds form phase 1 and are grouped by side
+// (x < x0 or not).
+func brioKeys(pts []orb.Point, box bbox, keys []uint64, split bool, x0 float64) {
 	n := len(pts)
 	last := 0
 	for n>>last > 64 {
@@ -174,29 +260,35 @@ func brioKeys(pts []orb.Point, box bbox, keys []uint64) {
 	side := math.Max(box.maxX-box.minX, box.maxY-box.minY)
 	scale := 0.0
 	if side > 0 && side <= math.MaxFloat64 {
-		scale = 8192 / side
+		scale = 4096 / side
 	}
 	parallel(n, 1<<15, func(lo, hi int) {
 		for i := lo; i < hi; i++ {
 			p := pts[i]
-			qx := cell13((p[0] - box.minX) * scale)
-			qy := cell13((p[1] - box.minY) * scale)
+			qx := cell12((p[0] - box.minX) * scale)
+			qy := cell12((p[1] - box.minY) * scale)
 			round := last - bits.LeadingZeros64(mix64(uint64(i)))
 			if round < 0 {
 				round = 0
 			}
-			h := hilbert16(qx<<3, qy<<3) >> 6
-			keys[i] = uint64(round)<<58 | uint64(h)<<32 | uint64(i)
+			key := uint64(round)<<57 | uint64(hilbert16(qx<<4, qy<<4)>>8)<<32 | uint64(i)
+			if split && round > last-4 {
+				key |= 1 << 63
+				if !(p[0] < x0) {
+					key |= 1 << 62
+				}
+			}
+			keys[i] = key
 		}
 	})
 }
 
-func cell13(v float64) uint32 {
+func cell12(v float64) uint32 {
 	if !(v > 0) {
 		return 0
 	}
-	if v >= 8191 {
-		return 8191
+	if v >= 4095 {
+		return 4095
 	}
 	return uint32(v)
 }
@@ -297,45 +389,28 @@ func (b *builder) addTriangle(i0, i1, i2, a, c1, c2 int32) int32 {
 
 // orient is Orient2D(a, b, p) for internal ids a, b.
 func (b *builder) orient(a, c int32, x, y float64) float64 {
-	xy := b.xy
-	return Orient2D(xy[2*a], xy[2*a+1], xy[2*c], xy[2*c+1], x, y)
+	pa, pc := b.ps[a], b.ps[c]
+	return Orient2D(pa.x, pa.y, pc.x, pc.y, x, y)
 }
 
 // add inserts internal vertex i.
 func (b *builder) add(i int32) {
-	x, y := b.xy[2*i], b.xy[2*i+1]
-	e, inside := walk(b.tri[:b.nt], b.half, b.xy, b.nt-3, x, y)
+	p := b.ps[i]
+	t, inside, zero := walk(b.tri[:b.nt], b.half, b.ps, b.nt-3, p.x, p.y)
 	if !inside {
-		b.addOutside(i, b.tri[e])
+		b.addOutside(i, b.tri[t])
 		return
 	}
-	t := e - e%3
-	tri := b.tri[t : t+3 : t+3]
-	var zero [3]bool
-	nz := 0
-	for k := 0; k < 3; k++ {
-		if b.orient(tri[k], tri[(k+1)%3], x, y) == 0 {
-			zero[k] = true
-			nz++
-		}
-	}
-	switch nz {
+	switch zero {
 	case 0:
 		b.splitTriangle(i, t)
-	case 1:
-		for k := int32(0); k < 3; k++ {
-			if zero[k] {
-				b.splitEdge(i, t+k)
-			}
-		}
-	case 2:
+	case 1, 2, 4:
+		b.splitEdge(i, t+int32(bits.TrailingZeros8(zero)))
+	case 3, 5, 6:
 		// p equals the vertex shared by the two edges it lies on.
-		for k := 0; k < 3; k++ {
-			if zero[k] && zero[(k+1)%3] {
-				b.next[i] = dupMark
-				b.prev[i] = tri[(k+1)%3]
-			}
-		}
+		k := int32(bits.TrailingZeros8(^zero & 7)) // the other edge
+		b.next[i] = dupMark
+		b.prev[i] = b.tri[t+(k+2)%3]
 	default:
 		b.err = errInternal
 	}
@@ -344,7 +419,7 @@ func (b *builder) add(i int32) {
 // addOutside inserts internal vertex i, strictly outside the hull, where
 // the hull edge from vertex e is visible from it.
 func (b *builder) addOutside(i, e int32) {
-	x, y := b.xy[2*i], b.xy[2*i+1]
+	x, y := b.ps[i].x, b.ps[i].y
 	next, prev, hedge := b.next, b.prev, b.hedge
 
 	// Triangle on the visible edge e→q: [i, q, e].
@@ -399,13 +474,12 @@ func (b *builder) addOutside(i, e int32) {
 //	     \||/                  \  /
 //	      pr                    pr
 func (b *builder) legalize(a int32) int32 {
-	tri, half, xy := b.tri, b.half, b.xy
+	tri, half, ps := b.tri, b.half, b.ps
 	stack := b.stack[:0]
 	var ar int32
 	for {
 		bb := half[a]
-		a0 := a - a%3
-		ar = a0 + (a+2)%3
+		ar = prevHE(a)
 		if bb < 0 {
 			if len(stack) == 0 {
 				break
@@ -414,11 +488,10 @@ func (b *builder) legalize(a int32) int32 {
 			stack = stack[:len(stack)-1]
 			continue
 		}
-		b0 := bb - bb%3
-		al := a0 + (a+1)%3
-		bl := b0 + (bb+2)%3
+		al := nextHE(a)
+		bl := prevHE(bb)
 		p0, pr, pl, p1 := tri[ar], tri[a], tri[al], tri[bl]
-		if inCircleFiltered(xy[2*p0], xy[2*p0+1], xy[2*pr], xy[2*pr+1], xy[2*pl], xy[2*pl+1], xy[2*p1], xy[2*p1+1]) {
+		if inCircleFiltered(ps[p0], ps[pr], ps[pl], ps[p1].x, ps[p1].y) {
 			tri[a] = p1
 			tri[bb] = p0
 			hbl := half[bl]
@@ -439,7 +512,7 @@ func (b *builder) legalize(a int32) int32 {
 			}
 			half[ar] = bl
 			half[bl] = ar
-			stack = append(stack, b0+(bb+1)%3)
+			stack = append(stack, nextHE(bb))
 		} else {
 			if len(stack) == 0 {
 				break
@@ -450,6 +523,35 @@ func (b *builder) legalize(a int32) int32 {
 	}
 	b.stack = stack
 	return ar
+}
+
+// xyPt is a point of the internal coordinate array (passed in registers).
+type xyPt struct{ x, y float64 }
+
+// asPts views interleaved coordinates as points.
+func asPts(xy []float64) []xyPt {
+	if len(xy) < 2 {
+		return nil
+	}
+	return unsafe.Slice((*xyPt)(unsafe.Pointer(&xy[0])), len(xy)/2)
+}
+
+// triStart returns the first half-edge of e's triangle; nextHE and prevHE
+// are NextHalfedge and PrevHalfedge in unsigned arithmetic (e >= 0).
+func triStart(e int32) int32 { return e - int32(uint32(e)%3) }
+
+func nextHE(e int32) int32 {
+	if uint32(e)%3 == 2 {
+		return e - 2
+	}
+	return e + 1
+}
+
+func prevHE(e int32) int32 {
+	if uint32(e)%3 == 0 {
+		return e + 2
+	}
+	return e - 1
 }
 
 // Stage-A constants of predicates.go (Shewchuk's bounds plus 16ε² of
@@ -467,10 +569,10 @@ const (
 // inCircleFiltered reports InCircle(a, b, c, d) > 0. It evaluates
 // Shewchuk's stage-A filter in line (the same expression and bound as
 // InCircle) and calls InCircle only when the filter cannot decide.
-func inCircleFiltered(ax, ay, bx, by, cx, cy, dx, dy float64) bool {
-	adx, ady := ax-dx, ay-dy
-	bdx, bdy := bx-dx, by-dy
-	cdx, cdy := cx-dx, cy-dy
+func inCircleFiltered(a, b, c xyPt, dx, dy float64) bool {
+	adx, ady := a.x-dx, a.y-dy
+	bdx, bdy := b.x-dx, b.y-dy
+	cdx, cdy := c.x-dx, c.y-dy
 	bdxcdy, cdxbdy := float64(bdx*cdy), float64(cdx*bdy)
 	cdxady, adxcdy := float64(cdx*ady), float64(adx*cdy)
 	adxbdy, bdxady := float64(adx*bdy), float64(bdx*ady)
@@ -490,26 +592,35 @@ func inCircleFiltered(ax, ay, bx, by, cx, cy, dx, dy float64) bool {
 			return false
 		}
 	}
-	return InCircle(ax, ay, bx, by, cx, cy, dx, dy) > 0
+	return InCircle(a.x, a.y, b.x, b.y, c.x, c.y, dx, dy) > 0
 }
 
-// orientNegative reports Orient2D(a, b, c) < 0 with the stage-A filter of
-// Orient2D in line.
-func orientNegative(ax, ay, bx, by, cx, cy float64) bool {
-	detleft := float64((ax - cx) * (by - cy))
-	detright := float64((ay - cy) * (bx - cx))
+// orientSign returns the sign of Orient2D(a, c, (x, y)) with the stage-A
+// filter of Orient2D in line.
+func orientSign(a, c xyPt, x, y float64) int {
+	detleft := float64((a.x - x) * (c.y - y))
+	detright := float64((a.y - y) * (c.x - x))
 	det := detleft - detright
 	detsum := math.Abs(detleft) + math.Abs(detright)
 	if bound := filterOrientBound * detsum; detsum >= filterOrientFloor {
 		if det > bound {
-			return false
+			return 1
 		}
 		if -det > bound {
-			return true
+			return -1
 		}
 	}
-	return Orient2D(ax, ay, bx, by, cx, cy) < 0
+	switch o := Orient2D(a.x, a.y, c.x, c.y, x, y); {
+	case o > 0:
+		return 1
+	case o < 0:
+		return -1
+	}
+	return 0
 }
+
+// orientNegative reports Orient2D(a, c, (x, y)) < 0.
+func orientNegative(a, c xyPt, x, y float64) bool { return orientSign(a, c, x, y) < 0 }
 
 // splitTriangle inserts i strictly inside triangle t (its first half-edge).
 func (b *builder) splitTriangle(i, t int32) {

@@ -35,59 +35,69 @@ import (
 )
 
 // walk locates (x, y) starting in the triangle of half-edge e0. It returns
-// a half-edge of the closed triangle holding the point and true, or a hull
-// half-edge with the point strictly on its outer side and false.
-func walk(tri, half []int32, xy []float64, e0 int32, x, y float64) (int32, bool) {
+// the first half-edge of the closed triangle holding the point, true, and
+// a mask with bit k set when the point lies on the line of half-edge
+// (first+k); or a hull half-edge with the point strictly on its outer side
+// and false.
+func walk(tri, half []int32, ps []xyPt, e0 int32, x, y float64) (int32, bool, uint8) {
 	nt := int32(len(tri) / 3)
-	t := e0 / 3
+	b := triStart(e0)
 	came := int32(-1)
 	for steps := int32(0); steps <= nt+2; steps++ {
-		b := 3 * t
 		e := b
 		if came >= 0 {
-			e = NextHalfedge(came)
+			e = nextHE(came)
 		}
 		moved := false
+		var zero uint8
 		for k := 0; k < 3; k++ {
 			if e != came {
-				a, c := tri[e], tri[NextHalfedge(e)]
-				if orientNegative(xy[2*a], xy[2*a+1], xy[2*c], xy[2*c+1], x, y) {
+				a, c := ps[tri[e]], ps[tri[nextHE(e)]]
+				s := orientSign(a, c, x, y)
+				if s < 0 {
 					h := half[e]
 					if h < 0 {
-						return e, false
+						return e, false, 0
 					}
-					came, t, moved = h, h/3, true
+					came, b, moved = h, triStart(h), true
 					break
 				}
+				if s == 0 {
+					zero |= 1 << (e - b)
+				}
 			}
-			e = NextHalfedge(e)
+			e = nextHE(e)
 		}
 		if !moved {
-			return b, true
+			return b, true, zero
 		}
 	}
-	return walkScan(tri, half, xy, x, y)
+	return walkScan(tri, half, ps, x, y)
 }
 
 // walkScan is the exhaustive fallback of walk.
-func walkScan(tri, half []int32, xy []float64, x, y float64) (int32, bool) {
+func walkScan(tri, half []int32, ps []xyPt, x, y float64) (int32, bool, uint8) {
 	out := int32(-1)
 	for b := int32(0); b < int32(len(tri)); b += 3 {
 		inside := true
+		var zero uint8
 		for e := b; e < b+3; e++ {
-			a, c := tri[e], tri[NextHalfedge(e)]
-			if Orient2D(xy[2*a], xy[2*a+1], xy[2*c], xy[2*c+1], x, y) < 0 {
+			s := orientSign(ps[tri[e]], ps[tri[nextHE(e)]], x, y)
+			if s < 0 {
 				inside = false
 				if half[e] < 0 && out < 0 {
 					out = e
 				}
 			}
+			if s == 0 {
+				zero |= 1 << (e - b)
+			}
 		}
 		if inside {
-			return b, true
+			return b, true, zero
 		}
 	}
-	return out, false
+	return out, false, 0
 }
 
 func finite(x, y float64) bool {
@@ -107,7 +117,7 @@ func (t *Triangulation) Locate(x, y float64, hint int32) int32 {
 	if hint < 0 || hint >= nt {
 		hint = t.sampleTriangle(x, y)
 	}
-	e, inside := walk(t.Triangles, t.Halfedges, t.Coords, 3*hint, x, y)
+	e, inside, _ := walk(t.Triangles, t.Halfedges, asPts(t.Coords), 3*hint, x, y)
 	if !inside {
 		return -1
 	}

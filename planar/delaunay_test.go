@@ -23,6 +23,7 @@ import (
 	"os/exec"
 	"path/filepath"
 	"reflect"
+	"runtime"
 	"slices"
 	"strings"
 	"testing"
@@ -773,5 +774,34 @@ func TestCmpDistExact(t *testing.T) {
 	}
 	if got := cmpDist(0, 0, 3, 4, 5, 0); got != 0 {
 		t.Errorf("cmpDist equal distances = %d", got)
+	}
+}
+
+func TestTriangulateLargeSplit(t *testing.T) {
+	// From parallelMin points on, the last rounds are inserted by two
+	// workers; the result must not depend on how many CPUs run them.
+	dup := uniformPoints(parallelMin, 51)
+	dup = append(dup, dup[:parallelMin/3]...)
+	dup = shuffled(dup, 52)
+	cases := []struct {
+		name string
+		pts  []orb.Point
+	}{
+		{"uniform", uniformPoints(parallelMin+1000, 53)},
+		{"grid", gridPoints(2 * parallelMin)},
+		{"clustered", clusteredPoints(parallelMin+5000, 54)},
+		{"duplicates", dup},
+		{"lattice-offset", offset(triangularLattice(200, 200, 10), 5e6, 5e6)},
+	}
+	for _, c := range cases {
+		tr := mustTriangulate(t, c.pts)
+		// Reference: exact empty-circle property and Euler's formula.
+		checkTriangulation(t, c.name, tr)
+		prev := runtime.GOMAXPROCS(1)
+		one := mustTriangulate(t, c.pts)
+		runtime.GOMAXPROCS(prev)
+		if !reflect.DeepEqual(tr, one) {
+			t.Errorf("%s: result differs between 1 and %d CPUs", c.name, prev)
+		}
 	}
 }
