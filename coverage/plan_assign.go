@@ -1,0 +1,277 @@
+// Assignment of demand points (buildings, assets) to their serving device.
+//
+// Each demand point is served by its nearest device (the device whose
+// Voronoi cell holds it), found by planar's exact nearest-vertex search
+// (greedy descent over Delaunay neighbours with exact distance comparisons,
+// run in parallel over the queries); equally near devices resolve to the
+// smallest vertex, reported as its smallest input index, so exact duplicate
+// devices take their load on the first of them. A point is within range
+// when its distance to that device is at most the planned range r. The
+// distance is the correctly rounded Euclidean distance (math.Hypot) of the
+// coordinate differences.
+//
+// Polygons (buildings) are assigned by a representative point: the area
+// centroid when the polygon holds it, otherwise the midpoint of the
+// longest interior run of the horizontal line through the centroid (a
+// point-on-surface construction in the manner of GEOS's InteriorPoint,
+// common practice in GIS), so that the point always lies on the polygon.
+// The centroid is the shoelace-weighted mean of the triangle centroids,
+// taken relative to the first vertex (relative error of order n·u of the
+// polygon's extent).
+
+package coverage
+
+import (
+	"fmt"
+	"math"
+	"slices"
+
+	"github.com/paulmach/orb"
+)
+
+// DeviceLoad is the demand assigned to one device.
+type DeviceLoad struct {
+	// Count is the number of demand points the device serves.
+	Count int
+	// Weight is the summed weight of those points.
+	Weight float64
+	// InRange is the number of them within the planned range.
+	InRange int
+	// InRangeWeight is the summed weight of those within range.
+	InRangeWeight float64
+}
+
+// Assignment maps every demand point to its serving device.
+type Assignment struct {
+	// Range is the planned range (metres).
+	Range float64
+	// Device holds, per demand point, the input index of its serving
+	// (nearest) device.
+	Device []int
+	// Distance holds, per demand point, the distance to that device (m).
+	Distance []float64
+	// Within holds, per demand point, whether Distance ≤ Range.
+	Within []bool
+	// Weight holds, per demand point, its weight (1 when none was given).
+	Weight []float64
+	// Load holds, per device input index, the demand it serves. Devices
+	// at exactly the same spot as an earlier one serve nothing.
+	Load []DeviceLoad
+	// Served and Unserved count the demand points within and beyond range;
+	// ServedWeight and UnservedWeight sum their weights.
+	Served, Unserved             int
+	ServedWeight, UnservedWeight float64
+}
+
+// Assign assigns each demand point to its nearest device at the planned
+// range r. weights may be nil (every point weighs 1) or hold one finite,
+// non-negative weight per point. A million points take well under a
+// second (the nearest-device search runs on every core).
+//
+// Assignments are planning aids: they follow the disk model, not measured
+// signal strength.
+func Assign(l *Layout, points []orb.Point, weights []float64, r float64) (*Assignment, error) {
+	const where = "coverage: Assign"
+	if err := planCheckLayout(l); err != nil {
+		return nil, fmt.Errorf("%s: %w", where, err)
+	}
+	if l.Tri.NumVertices() == 0 {
+		return nil, fmt.Errorf("%s: the layout has no device to assign to", where)
+	}
+	if math.IsNaN(r) || math.IsInf(r, 0) || r < 0 {
+		return nil, fmt.Errorf("%s: range %v must be a finite number ≥ 0", where, r)
+	}
+	if weights != nil && len(weights) != len(points) {
+		return nil, fmt.Errorf("%s: %d weights for %d points", where, len(weights), len(points))
+	}
+	xy := make([]float64, 2*len(points))
+	for i, p := range points {
+		if err := planCheckPoint(p); err != nil {
+			return nil, fmt.Errorf("%s: point %d: %w", where, i, err)
+		}
+		xy[2*i], xy[2*i+1] = p[0], p[1]
+	}
+	w := make([]float64, len(points))
+	for i := range w {
+		w[i] = 1
+		if weights != nil {
+			if x := weights[i]; math.IsNaN(x) || math.IsInf(x, 0) || x < 0 {
+				return nil, fmt.Errorf("%s: point %d: weight %v must be a finite number ≥ 0", where, i, x)
+			}
+			w[i] = weights[i]
+		}
+	}
+	t := l.Tri
+	near := make([]int32, len(points))
+	t.NearestMany(xy, near)
+	a := &Assignment{
+		Range:    r,
+		Device:   make([]int, len(points)),
+		Distance: make([]float64, len(points)),
+		Within:   make([]bool, len(points)),
+		Weight:   w,
+		Load:     make([]DeviceLoad, len(l.Sites)),
+	}
+	planParallel(len(points), func(lo, hi int) {
+		for i := lo; i < hi; i++ {
+			v := near[i]
+			a.Device[i] = int(t.Source[v])
+			d := math.Hypot(xy[2*i]-t.Coords[2*v], xy[2*i+1]-t.Coords[2*v+1])
+			a.Distance[i] = d
+			a.Within[i] = d <= r
+		}
+	})
+	for i := range points {
+		ld := &a.Load[a.Device[i]]
+		ld.Count++
+		ld.Weight += w[i]
+		if a.Within[i] {
+			ld.InRange++
+			ld.InRangeWeight += w[i]
+			a.Served++
+			a.ServedWeight += w[i]
+		} else {
+			a.Unserved++
+			a.UnservedWeight += w[i]
+		}
+	}
+	return a, nil
+}
+
+// AssignPolygons assigns each polygon (a building, a yard) by its
+// representative point (see RepresentativePoint), and returns those points
+// alongside. weights are as for Assign.
+func AssignPolygons(l *Layout, polys []orb.Polygon, weights []float64, r float64) (*Assignment, []orb.Point, error) {
+	pts := make([]orb.Point, len(polys))
+	for i, p := range polys {
+		q, err := RepresentativePoint(p)
+		if err != nil {
+			return nil, nil, fmt.Errorf("coverage: AssignPolygons: polygon %d: %w", i, err)
+		}
+		pts[i] = q
+	}
+	a, err := Assign(l, pts, weights, r)
+	if err != nil {
+		return nil, nil, err
+	}
+	return a, pts, nil
+}
+
+// RepresentativePoint returns a point that lies on the polygon: its area
+// centroid when the polygon (exterior minus holes) holds it, otherwise the
+// midpoint of the longest run of the horizontal line through the centroid
+// inside the polygon. The polygon needs an exterior ring of at least three
+// distinct points and non-zero area; coordinates must be finite.
+func RepresentativePoint(p orb.Polygon) (orb.Point, error) {
+	if len(p) == 0 {
+		return orb.Point{}, fmt.Errorf("no ring")
+	}
+	for k, ring := range p {
+		for i, q := range ring {
+			if err := planCheckPoint(q); err != nil {
+				return orb.Point{}, fmt.Errorf("ring %d, vertex %d: %w", k, i, err)
+			}
+		}
+	}
+	ext := p[0]
+	if len(ext) < 3 {
+		return orb.Point{}, fmt.Errorf("ring 0: %d points, need at least 3", len(ext))
+	}
+	ox, oy := ext[0][0], ext[0][1]
+	var a, cx, cy float64
+	for k, ring := range p {
+		ra, rx, ry := planRingMoments(ring, ox, oy)
+		// Holes count negative whatever their orientation.
+		if (k == 0) != (ra >= 0) {
+			ra, rx, ry = -ra, -rx, -ry
+		}
+		a += ra
+		cx += rx
+		cy += ry
+	}
+	if !(a != 0) {
+		return orb.Point{}, fmt.Errorf("zero area")
+	}
+	c := orb.Point{ox + cx/(3*a), oy + cy/(3*a)}
+	if planPolyContains(p, c[0], c[1]) {
+		return c, nil
+	}
+	// Longest interior run of the line y = c.y (Sutherland-free even-odd
+	// crossings); fall back to the bounding-box middle line.
+	for _, y := range []float64{c[1], (ext.Bound().Min[1] + ext.Bound().Max[1]) / 2} {
+		var xs []float64
+		for _, ring := range p {
+			n := len(ring)
+			for i := 0; i < n; i++ {
+				a, b := ring[i], ring[(i+1)%n]
+				if (a[1] > y) != (b[1] > y) {
+					xs = append(xs, a[0]+(y-a[1])*(b[0]-a[0])/(b[1]-a[1]))
+				}
+			}
+		}
+		slices.Sort(xs)
+		best, bx := -1.0, 0.0
+		for i := 0; i+1 < len(xs); i += 2 {
+			if w := xs[i+1] - xs[i]; w > best {
+				best, bx = w, (xs[i]+xs[i+1])/2
+			}
+		}
+		if best >= 0 {
+			return orb.Point{bx, y}, nil
+		}
+	}
+	return orb.Point{ext[0][0], ext[0][1]}, nil
+}
+
+// planRingMoments returns the signed area of ring and the first moments
+// (times 3) relative to (ox, oy).
+func planRingMoments(ring orb.Ring, ox, oy float64) (a, mx, my float64) {
+	n := len(ring)
+	if n > 1 && ring[0] == ring[n-1] {
+		n--
+	}
+	for i := 0; i < n; i++ {
+		ax, ay := ring[i][0]-ox, ring[i][1]-oy
+		bx, by := ring[(i+1)%n][0]-ox, ring[(i+1)%n][1]-oy
+		cr := ax*by - ay*bx
+		a += cr
+		mx += (ax + bx) * cr
+		my += (ay + by) * cr
+	}
+	return a / 2, mx / 2, my / 2
+}
+
+// planPolyContains is the even-odd point-in-polygon test over all rings
+// (Shimrat, CACM 5, 1962).
+func planPolyContains(p orb.Polygon, x, y float64) bool {
+	in := false
+	for _, ring := range p {
+		n := len(ring)
+		for i := 0; i < n; i++ {
+			a, b := ring[i], ring[(i+1)%n]
+			if (a[1] > y) != (b[1] > y) {
+				if x < a[0]+(y-a[1])*(b[0]-a[0])/(b[1]-a[1]) {
+					in = !in
+				}
+			}
+		}
+	}
+	return in
+}
+
+// planCheckPoint reports a coordinate that is not finite.
+func planCheckPoint(p orb.Point) error {
+	for k, c := range p {
+		axis := "x"
+		if k == 1 {
+			axis = "y"
+		}
+		if math.IsNaN(c) {
+			return fmt.Errorf("%s coordinate is NaN", axis)
+		}
+		if math.IsInf(c, 0) {
+			return fmt.Errorf("%s coordinate is infinite", axis)
+		}
+	}
+	return nil
+}

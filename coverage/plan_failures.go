@@ -1,0 +1,350 @@
+// Single-device failures: what each device's outage uncovers, and the range
+// at which the plan survives any one failure.
+//
+// Locality. When device v is out of service, only the points of its
+// clipped cell V_v ∩ A change their nearest device; every other point keeps
+// its nearest device and its coverage. A point q of V_v is then served by
+// its second-nearest device w, and w is a Delaunay neighbour of v: the disk
+// centred at q through w holds v and no other site inside; shrinking it
+// about w (centre moving from q towards w) until v reaches its boundary
+// gives a disk with exactly v and w on its boundary and no site inside, so
+// vw is an edge of every Delaunay triangulation of the sites. (This holds
+// for every q not equidistant from two sites other than v, a set of zero
+// area; the distance to the nearest remaining site is continuous, so the
+// statement extends to all of V_v. It also holds with ties among
+// cocircular sites, and for collinear sites, whose neighbours are the
+// adjacent sites along the line.) Hence the new cells inside V_v are the
+// Voronoi cells of v's neighbours N(v) restricted to V_v ∩ A: for w ∈ N(v),
+//
+//	P_w = V_v ∩ A ∩ ⋂_{u ∈ N(v), u ≠ w} H(w, u),
+//
+// H(w, u) the half-plane nearer w than u — the classic deletion result that
+// only the star of v is retriangulated (Devillers, "On deletion in Delaunay
+// triangulations", IJCGA 12, 2002). Per device the work is O(deg(v)²)
+// half-plane clips of its cell, O(n) in all (the mean degree is below 6).
+//
+// Per device v, at the planned range r (GUIDE.md: inside a cell only its
+// own site's disk matters):
+//
+//	uncovered in V_v before = area(V_v ∩ A) − area(V_v ∩ A ∩ D(v, r))
+//	uncovered in V_v after  = area(V_v ∩ A) − Σ_w area(P_w ∩ D(w, r))
+//	added uncovered         = area(V_v∩A∩D(v,r)) − Σ_w area(P_w ∩ D(w,r))
+//
+// and the closing range — the range the remaining devices need to cover
+// what v served, the depth of the deepest new gap — is the largest distance
+// from a point of V_v ∩ A to its nearest remaining device, the maximum over
+// w of the farthest vertex of P_w from w (a convex function's maximum over
+// a polygon is at a vertex). The range at which the plan survives any
+// single failure is the largest distance from a point of A to its
+// second-nearest device, the maximum of the closing ranges. A device that
+// shares its spot with another (exact duplicates) changes nothing when it
+// fails; its closing range is then its own cell's radius (the twin is the
+// second-nearest device).
+//
+// Error bounds: areas as planar.RingDiskArea and the clipping of
+// plan_clip.go (relative error of order 1e-14 of the cell areas; an added
+// uncovered area computed slightly below zero by rounding is reported as
+// zero); distances are exact up to the rounding of the clipped vertices
+// (about 1e-15 relative of the coordinates).
+
+package coverage
+
+import (
+	"cmp"
+	"fmt"
+	"math"
+	"slices"
+
+	"github.com/paulmach/orb"
+)
+
+// DeviceFailure is what one device's outage does to the plan.
+type DeviceFailure struct {
+	// Site is the device's input index.
+	Site int
+	// Shared is true when another device stands at exactly the same spot,
+	// so that this one's failure changes nothing.
+	Shared bool
+	// ServiceArea is the area of the device's clipped cell (m²): the part
+	// of the site area it serves.
+	ServiceArea float64
+	// Uncovered is the uncovered area of the whole site area at the
+	// planned range with this device out of service (m²).
+	Uncovered float64
+	// AddedUncovered is how much larger Uncovered is than with every
+	// device working (m²).
+	AddedUncovered float64
+	// Deepest is the point of the device's service area farthest from
+	// every remaining device: the deepest point of the new gap.
+	Deepest orb.Point
+	// ClosingRange is the distance from Deepest to the nearest remaining
+	// device: the range at which the remaining devices cover everything
+	// this device served. +Inf when no device remains.
+	ClosingRange float64
+	// Backup is the input index of the remaining device nearest Deepest,
+	// the one that takes over the deepest point; -1 when none remains.
+	Backup int
+	// FullCover is the full-cover range of the layout without this device.
+	FullCover float64
+}
+
+// FailureReport ranks the devices by the coverage lost when each is out of
+// service, one at a time.
+type FailureReport struct {
+	// Range is the planned range the areas refer to (metres).
+	Range float64
+	// Uncovered is the uncovered area with every device working (m²).
+	Uncovered float64
+	// FullCover is the full-cover range with every device working.
+	FullCover float64
+	// Devices lists every device, worst failure first: by decreasing
+	// AddedUncovered, then decreasing ClosingRange, then input index.
+	Devices []DeviceFailure
+	// SurviveRange is the range at which the area stays fully covered
+	// whichever single device fails: the largest distance from a point of
+	// the area to its second-nearest device. +Inf with a single device.
+	SurviveRange float64
+	// SurvivePoint is where SurviveRange is attained.
+	SurvivePoint orb.Point
+	// SurviveSite is the input index of the device whose failure needs
+	// SurviveRange (-1 when the layout has no device).
+	SurviveSite int
+}
+
+// planFailVertex holds per-vertex failure results.
+type planFailVertex struct {
+	baseUnc, added float64
+	rho            float64 // own cell radius
+	fx, fy         float64 // own farthest vertex
+	closing        float64
+	dx, dy         float64 // deepest point after removal
+	backup         int32   // vertex nearest the deepest point
+}
+
+// Failures computes, for every device, the effect of its failure at the
+// planned range r (see the file comment for the method), the ranking and
+// the survive range. Only each device's cell and its Delaunay neighbours
+// are visited: O(n) for n devices.
+//
+// Suggestions and rankings are planning aids: they are exact for the disk
+// model, not a guarantee that a real device reaches its range.
+func Failures(l *Layout, r float64) (*FailureReport, error) {
+	if err := planCheckLayout(l); err != nil {
+		return nil, fmt.Errorf("coverage: Failures: %w", err)
+	}
+	if math.IsNaN(r) || math.IsInf(r, 0) || r < 0 {
+		return nil, fmt.Errorf("coverage: Failures: range %v must be a finite number ≥ 0", r)
+	}
+	t := l.Tri
+	nv := t.NumVertices()
+	rep := &FailureReport{Range: r, SurviveSite: -1, SurvivePoint: orb.Point{math.NaN(), math.NaN()}}
+	if nv == 0 {
+		rep.Uncovered = l.AreaM2
+		rep.FullCover = math.Inf(1)
+		rep.SurviveRange = math.Inf(1)
+		return rep, nil
+	}
+	mult := make([]int32, nv)
+	for _, v := range t.Vertex {
+		mult[v]++
+	}
+	res := make([]planFailVertex, nv)
+	planParallel(nv, func(lo, hi int) {
+		var sc planFailScratch
+		for v := lo; v < hi; v++ {
+			planFailOne(l, int32(v), r, mult[v] > 1, &sc, &res[v])
+		}
+	})
+	// Intact totals; top two cell radii for the full cover without v.
+	unc := 0.0
+	top1, top2 := int32(-1), int32(-1)
+	for v := range res {
+		unc += res[v].baseUnc
+		if top1 < 0 || res[v].rho > res[top1].rho {
+			top1, top2 = int32(v), top1
+		} else if top2 < 0 || res[v].rho > res[top2].rho {
+			top2 = int32(v)
+		}
+	}
+	unc = math.Max(0, unc)
+	rep.Uncovered = unc
+	rep.FullCover = res[top1].rho
+	// Smallest other input index at each shared vertex.
+	twin := make(map[int32][2]int)
+	for i, v := range t.Vertex {
+		if mult[v] > 1 {
+			p, ok := twin[v]
+			if !ok {
+				p = [2]int{-1, -1}
+			}
+			if p[0] < 0 {
+				p[0] = i
+			} else if p[1] < 0 {
+				p[1] = i
+			}
+			twin[v] = p
+		}
+	}
+	devs := make([]DeviceFailure, len(l.Sites))
+	for i := range devs {
+		v := t.Vertex[i]
+		f := &res[v]
+		d := DeviceFailure{Site: i, ServiceArea: l.Cells.Area[v]}
+		if mult[v] > 1 {
+			p := twin[v]
+			other := p[0]
+			if other == i {
+				other = p[1]
+			}
+			d.Shared = true
+			d.Uncovered = unc
+			d.Deepest = orb.Point{f.fx, f.fy}
+			d.ClosingRange = f.rho
+			d.Backup = other
+			d.FullCover = rep.FullCover
+		} else {
+			d.AddedUncovered = f.added
+			d.Uncovered = unc + f.added
+			d.Deepest = orb.Point{f.dx, f.dy}
+			d.ClosingRange = f.closing
+			d.Backup = -1
+			if f.backup >= 0 {
+				d.Backup = int(t.Source[f.backup])
+			}
+			others := 0.0
+			if top1 != v {
+				others = res[top1].rho
+			} else if top2 >= 0 {
+				others = res[top2].rho
+			}
+			d.FullCover = math.Max(f.closing, others)
+		}
+		if rep.SurviveSite < 0 || d.ClosingRange > rep.SurviveRange {
+			rep.SurviveRange, rep.SurvivePoint, rep.SurviveSite = d.ClosingRange, d.Deepest, i
+		}
+		devs[i] = d
+	}
+	slices.SortFunc(devs, func(a, b DeviceFailure) int {
+		if c := cmp.Compare(b.AddedUncovered, a.AddedUncovered); c != 0 {
+			return c
+		}
+		if c := cmp.Compare(b.ClosingRange, a.ClosingRange); c != 0 {
+			return c
+		}
+		return cmp.Compare(a.Site, b.Site)
+	})
+	rep.Devices = devs
+	return rep, nil
+}
+
+// planFailScratch is per-goroutine scratch space of Failures.
+type planFailScratch struct {
+	nbrs      []int32
+	rings     [][]float64
+	cell      planRings
+	cur, next planRings
+}
+
+// planFailOne computes the failure of vertex v.
+func planFailOne(l *Layout, v int32, r float64, shared bool, sc *planFailScratch, out *planFailVertex) {
+	t, c := l.Tri, l.Cells
+	vx, vy := t.Coords[2*v], t.Coords[2*v+1]
+	sc.cell.reset()
+	k0, k1 := c.PolyStart[c.SiteStart[v]], c.PolyStart[c.SiteStart[v+1]]
+	for k := k0; k < k1; k++ {
+		sc.cell.appendRing(c.XY[2*c.RingStart[k]:2*c.RingStart[k+1]], v)
+	}
+	area, disk, far, fx, fy := planMeasures(&sc.cell, vx, vy, r, nil)
+	if far < 0 {
+		far, fx, fy = 0, vx, vy
+	}
+	out.baseUnc = area - disk
+	if r <= 0 {
+		out.baseUnc = area
+	}
+	out.rho, out.fx, out.fy = far, fx, fy
+	out.backup = -1
+	sc.nbrs = t.Neighbors(v, sc.nbrs[:0])
+	nbrs := sc.nbrs
+	if shared {
+		return
+	}
+	if len(nbrs) == 0 {
+		// The only device: nothing remains.
+		out.added = area - out.baseUnc
+		out.closing = math.Inf(1)
+		out.dx, out.dy = vx, vy
+		return
+	}
+	if len(sc.cell.xy) == 0 {
+		// Serves no part of the area.
+		best := math.Inf(1)
+		for _, w := range nbrs {
+			if d := math.Hypot(t.Coords[2*w]-vx, t.Coords[2*w+1]-vy); d < best {
+				best, out.backup = d, w
+			}
+		}
+		out.closing, out.dx, out.dy = 0, vx, vy
+		return
+	}
+	// Candidate vertices of the pieces need a point-in-cell test unless the
+	// cell is one convex ring (plan_clip.go).
+	sc.rings = sc.rings[:0]
+	for k := 0; k < sc.cell.numRings(); k++ {
+		sc.rings = append(sc.rings, sc.cell.ring(k))
+	}
+	var valid func(int32, float64, float64) bool
+	if !planRingsConvex(sc.rings) {
+		valid = func(_ int32, x, y float64) bool { return planInRings(sc.rings, x, y) }
+	}
+	sumDisk := 0.0
+	out.closing = -1
+	for _, w := range nbrs {
+		wx, wy := t.Coords[2*w], t.Coords[2*w+1]
+		cur := &sc.cell
+		for _, u := range nbrs {
+			if u == w {
+				continue
+			}
+			nx, ny, h := planBisector(wx, wy, t.Coords[2*u], t.Coords[2*u+1])
+			if !planSetOutside(cur, wx, wy, nx, ny, h) {
+				continue
+			}
+			planClipSet(cur, wx, wy, nx, ny, h, &sc.next)
+			sc.cur, sc.next = sc.next, sc.cur
+			cur = &sc.cur
+			if len(cur.xy) == 0 {
+				break
+			}
+		}
+		if len(cur.xy) == 0 {
+			continue
+		}
+		_, d, far, fx, fy := planMeasures(cur, wx, wy, r, valid)
+		sumDisk += d
+		if far > out.closing {
+			out.closing, out.dx, out.dy, out.backup = far, fx, fy, w
+		}
+	}
+	if r > 0 {
+		out.added = math.Max(0, disk-sumDisk)
+	}
+	if out.closing < 0 {
+		out.closing, out.dx, out.dy = 0, vx, vy
+	}
+}
+
+// planCheckLayout reports a Layout the planners cannot use.
+func planCheckLayout(l *Layout) error {
+	switch {
+	case l == nil:
+		return fmt.Errorf("no layout")
+	case l.Tri == nil || l.Cells == nil || l.Area == nil:
+		return fmt.Errorf("layout is not built (use NewLayout)")
+	case len(l.Tri.Vertex) != len(l.Sites):
+		return fmt.Errorf("layout has %d sites but its triangulation maps %d", len(l.Sites), len(l.Tri.Vertex))
+	case len(l.Cells.SiteStart) != l.Tri.NumVertices()+1:
+		return fmt.Errorf("layout cells do not match its triangulation")
+	}
+	return nil
+}

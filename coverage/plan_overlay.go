@@ -1,0 +1,894 @@
+// Incremental Voronoi cells of a layout plus planned devices, by clipping.
+//
+// The planners (SuggestAdditions, FewestAdditions, ChooseCandidates) add
+// and move a few devices P on top of a fixed layout S whose cells C_u
+// (u ∈ S, clipped to the area A) are known. The Voronoi diagram of S ∪ P
+// restricted to A is obtained from the C_u without triangulating again:
+//
+//	cell of u ∈ S:  C_u ∩ ⋂_{p∈P} H(u, p)
+//	cell of p ∈ P:  ⋃_{u∈S} C_u ∩ H(p, u) ∩ ⋂_{p'∈P, p'≠p} H(p, p')
+//
+// where H(a, b) is the closed half-plane of points at least as close to a
+// as to b. The C_u partition A, so the pieces of p's cell are disjoint and
+// its measures are sums over pieces. Each cell is recomputed from scratch
+// from the positions alone whenever it may have changed, so the geometry
+// never depends on the order of edits. Locality bounds (all from the
+// triangle inequality, every cell lying within its radius ρ, the largest
+// distance from its site to its points):
+//
+//   - p takes something from the current cell X of site x only if some
+//     vertex of X is strictly closer to p than to x (a linear inequality
+//     is violated on a polygon at a vertex); this needs |p − x| < 2ρ_x;
+//   - when p leaves, a device p' can only gain from a piece of p's cell in
+//     C_u if some vertex of the piece is at least as close to p' as to u
+//     (p' must beat u, which stays), and only if |p' − p| ≤ 2ρ_p + d, d the
+//     distance from p to its nearest other site s (|q − p'| ≤ |q − s| ≤
+//     ρ_p + d for q in p's cell);
+//   - when computing p's cell, another device p' matters only if
+//     |p' − p| ≤ 2ρ, ρ the radius of the part clipped so far.
+//
+// Base sites are found through a uniform bucket grid holding every base
+// site except the 256 with the largest cells, which are always examined.
+//
+// Measures per cell: area (shoelace), the area within the planned range r
+// (planar.RingDiskArea), the uncovered area (their difference), and the
+// farthest vertex, whose distance is the cell's radius; the full-cover range
+// is the largest radius (GUIDE.md: the nearest-site distance is convex on a
+// cell, so its maximum is at a vertex). The covered-area gain of a
+// hypothetical device c is exact by the same partition:
+//
+//	gain(c) = Σ_X [ area(X ∩ H(c,x) ∩ D(c,r)) − area(X ∩ H(c,x) ∩ D(x,r)) ]
+//
+// over the current cells X (site x): inside X only x's disk covers
+// (GUIDE.md), and after adding c the part of X nearer to c is covered by
+// D(c, r) alone. Error bounds are those of plan_clip.go: every measure is
+// exact up to rounding of order 1e-14 relative per piece; sums over cells
+// accumulate rounding of order 1e-14 of the area.
+
+package coverage
+
+import (
+	"cmp"
+	"math"
+	"runtime"
+	"slices"
+	"sync"
+
+	"github.com/paulmach/orb"
+	"github.com/sitecover/sitecover/planar"
+)
+
+// planCell is the current cell of a base site whose cell planned devices have
+// cut, or of a planned device.
+type planCell struct {
+	x, y   float64   // site
+	base   int32     // base vertex overridden, or -1 for a planned device
+	geo    planRings // current geometry; rings tagged by the base cell they lie in
+	rho    float64   // radius: largest distance from the site to the cell
+	fx, fy float64   // vertex at distance rho
+	area   float64   // area of the cell
+	unc    float64   // uncovered area at the planned range
+	live   bool
+}
+
+// planOverlay holds a layout's cells plus planned devices.
+type planOverlay struct {
+	l  *Layout
+	r  float64
+	nb int // base cells (triangulation vertices)
+
+	baseRho, baseFx, baseFy, baseUnc []float64
+	baseConvex                       []bool // cell is one convex ring
+	baseUncTotal                     float64
+	order                            []int32 // base cells by decreasing radius
+	cur                              []int32 // base cell -> overriding planCell, or -1
+
+	cells []planCell
+	free  []int32
+	dev   []int32 // planned device id -> planCell, -1 when removed
+
+	grid  planGrid
+	big   []int32 // base cells examined on every query
+	reach float64 // twice the largest radius of a gridded base cell
+
+	ix *planar.RegionIndex
+	sc planScratch
+}
+
+// planScratch is per-goroutine scratch space.
+type planScratch struct {
+	a, b, c planRings
+	near    []planNear
+	pts     []float64
+	ids     []int32
+	perm    []int32
+}
+
+type planNear struct {
+	id int32
+	d  float64
+}
+
+// planGrid is a uniform bucket grid of base sites (CSR layout).
+type planGrid struct {
+	x0, y0, inv float64
+	nx, ny      int
+	start       []int32
+	items       []int32
+}
+
+// newPlanOverlay prepares the base cells of l with measures at range r.
+func newPlanOverlay(l *Layout, r float64) *planOverlay {
+	o := &planOverlay{l: l, r: r, ix: l.Area.Index()}
+	nv := l.Tri.NumVertices()
+	o.nb = nv
+	o.baseRho = make([]float64, nv)
+	o.baseFx = make([]float64, nv)
+	o.baseFy = make([]float64, nv)
+	o.baseUnc = make([]float64, nv)
+	o.cur = make([]int32, nv)
+	o.baseConvex = make([]bool, nv)
+	planParallel(nv, func(lo, hi int) {
+		var rings [][]float64
+		for u := lo; u < hi; u++ {
+			o.cur[u] = -1
+			rings = rings[:0]
+			o.eachBaseRing(int32(u), func(ring []float64) { rings = append(rings, ring) })
+			o.baseConvex[u] = planRingsConvex(rings)
+			ux, uy := o.site(int32(u))
+			far, fx, fy, disk := -1.0, ux, uy, 0.0
+			o.eachBaseRing(int32(u), func(ring []float64) {
+				if r > 0 {
+					disk += planar.RingDiskArea(ring, ux, uy, r)
+				}
+				for i := 0; i+1 < len(ring); i += 2 {
+					if d := math.Hypot(ring[i]-ux, ring[i+1]-uy); d > far {
+						far, fx, fy = d, ring[i], ring[i+1]
+					}
+				}
+			})
+			if far < 0 {
+				far = 0
+			}
+			o.baseRho[u], o.baseFx[u], o.baseFy[u] = far, fx, fy
+			o.baseUnc[u] = l.Cells.Area[u] - disk
+		}
+	})
+	for _, v := range o.baseUnc {
+		o.baseUncTotal += v
+	}
+	o.order = make([]int32, nv)
+	for i := range o.order {
+		o.order[i] = int32(i)
+	}
+	slices.SortFunc(o.order, func(a, b int32) int {
+		if c := cmp.Compare(o.baseRho[b], o.baseRho[a]); c != 0 {
+			return c
+		}
+		return cmp.Compare(a, b)
+	})
+	const nBig = 256
+	rhoCap := 0.0
+	if nv > nBig {
+		rhoCap = o.baseRho[o.order[nBig]]
+	}
+	var rest []int32
+	for _, u := range o.order {
+		if nv <= nBig || o.baseRho[u] > rhoCap {
+			o.big = append(o.big, u)
+		} else {
+			rest = append(rest, u)
+		}
+	}
+	o.reach = 2 * rhoCap
+	o.grid.build(l.Tri.Coords, rest, o.reach)
+	return o
+}
+
+// planParallel runs fn over [0, n) split across the available cores.
+func planParallel(n int, fn func(lo, hi int)) {
+	w := runtime.GOMAXPROCS(0)
+	if n < 4096 || w < 2 {
+		fn(0, n)
+		return
+	}
+	var wg sync.WaitGroup
+	for k := 0; k < w; k++ {
+		lo, hi := n*k/w, n*(k+1)/w
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			fn(lo, hi)
+		}()
+	}
+	wg.Wait()
+}
+
+// build fills the grid with the listed sites; queries will mostly use
+// radius reach.
+func (g *planGrid) build(xy []float64, ids []int32, reach float64) {
+	g.items = nil
+	if len(ids) == 0 {
+		g.nx, g.ny = 0, 0
+		return
+	}
+	minX, minY := math.Inf(1), math.Inf(1)
+	maxX, maxY := math.Inf(-1), math.Inf(-1)
+	for _, v := range ids {
+		x, y := xy[2*v], xy[2*v+1]
+		minX, maxX = math.Min(minX, x), math.Max(maxX, x)
+		minY, maxY = math.Min(minY, y), math.Max(maxY, y)
+	}
+	w, h := maxX-minX, maxY-minY
+	side := math.Max(w, h)
+	// About two sites per bucket, and buckets no smaller than a quarter of
+	// the usual query reach.
+	cell := math.Sqrt(w * h / (float64(len(ids)) / 2))
+	if !(cell > 0) || math.IsInf(cell, 0) {
+		cell = side / math.Sqrt(float64(len(ids)))
+	}
+	if reach > 0 {
+		cell = math.Max(cell, reach/4)
+	}
+	if !(cell > 0) || math.IsInf(cell, 0) {
+		cell = 1
+	}
+	g.x0, g.y0, g.inv = minX, minY, 1/cell
+	g.nx = max(1, min(1<<15, int(w*g.inv)+1))
+	g.ny = max(1, min(1<<15, int(h*g.inv)+1))
+	g.start = make([]int32, g.nx*g.ny+1)
+	for _, v := range ids {
+		g.start[g.index(xy[2*v], xy[2*v+1])+1]++
+	}
+	for i := 1; i < len(g.start); i++ {
+		g.start[i] += g.start[i-1]
+	}
+	g.items = make([]int32, len(ids))
+	fill := slices.Clone(g.start[:len(g.start)-1])
+	for _, v := range ids {
+		c := g.index(xy[2*v], xy[2*v+1])
+		g.items[fill[c]] = v
+		fill[c]++
+	}
+}
+
+func (g *planGrid) col(x float64) int { return max(0, min(g.nx-1, int((x-g.x0)*g.inv))) }
+func (g *planGrid) row(y float64) int { return max(0, min(g.ny-1, int((y-g.y0)*g.inv))) }
+func (g *planGrid) index(x, y float64) int {
+	return g.row(y)*g.nx + g.col(x)
+}
+
+// query calls fn for every site in the buckets meeting the square of
+// half-side reach around (x, y).
+func (g *planGrid) query(x, y, reach float64, fn func(v int32)) {
+	if len(g.items) == 0 {
+		return
+	}
+	c0, c1 := g.col(x-reach), g.col(x+reach)
+	r0, r1 := g.row(y-reach), g.row(y+reach)
+	for j := r0; j <= r1; j++ {
+		for i := c0; i <= c1; i++ {
+			c := j*g.nx + i
+			for _, v := range g.items[g.start[c]:g.start[c+1]] {
+				fn(v)
+			}
+		}
+	}
+}
+
+// site returns the position of base cell u.
+func (o *planOverlay) site(u int32) (float64, float64) {
+	return o.l.Tri.Coords[2*u], o.l.Tri.Coords[2*u+1]
+}
+
+// eachBaseRing calls fn with every ring of base cell u.
+func (o *planOverlay) eachBaseRing(u int32, fn func(ring []float64)) {
+	c := o.l.Cells
+	k0, k1 := c.PolyStart[c.SiteStart[u]], c.PolyStart[c.SiteStart[u+1]]
+	for k := k0; k < k1; k++ {
+		fn(c.XY[2*c.RingStart[k] : 2*c.RingStart[k+1]])
+	}
+}
+
+// baseSet copies the base rings of u into s (tagged u).
+func (o *planOverlay) baseSet(u int32, s *planRings) {
+	s.reset()
+	o.eachBaseRing(u, func(ring []float64) { s.appendRing(ring, u) })
+}
+
+// baseNear calls fn for every base cell u that a device at (x, y) could
+// take something from (|p − u| ≤ 2ρ_u).
+func (o *planOverlay) baseNear(x, y float64, fn func(u int32)) {
+	test := func(u int32) {
+		ux, uy := o.site(u)
+		if math.Hypot(x-ux, y-uy) <= 2*o.baseRho[u] {
+			fn(u)
+		}
+	}
+	for _, u := range o.big {
+		test(u)
+	}
+	o.grid.query(x, y, o.reach, test)
+}
+
+// coincidesBase reports whether (x, y) is exactly a base site.
+func (o *planOverlay) coincidesBase(x, y float64) bool {
+	v := o.l.Tri.Nearest(x, y, -1)
+	return v >= 0 && o.l.Tri.Coords[2*v] == x && o.l.Tri.Coords[2*v+1] == y
+}
+
+// curGeo returns the current geometry of base cell u into s when it is not
+// overridden (copying the base rings), or the overriding cell's geometry.
+func (o *planOverlay) curBase(u int32, s *planRings) *planRings {
+	if c := o.cur[u]; c >= 0 {
+		return &o.cells[c].geo
+	}
+	o.baseSet(u, s)
+	return s
+}
+
+// baseTaken reports whether a device at (px, py) takes something from the
+// geometry g of base cell u.
+func (o *planOverlay) baseTaken(u int32, g *planRings, px, py float64) bool {
+	if len(g.xy) == 0 {
+		return false
+	}
+	ux, uy := o.site(u)
+	if ux == px && uy == py {
+		return false
+	}
+	return planCloserTo(g.xy, px, py, ux, uy)
+}
+
+// numDevices returns the number of planned device ids issued.
+func (o *planOverlay) numDevices() int { return len(o.dev) }
+
+// pos returns the position of planned device id.
+func (o *planOverlay) pos(id int32) (float64, float64) {
+	c := &o.cells[o.dev[id]]
+	return c.x, c.y
+}
+
+// newCell returns a free planCell index.
+func (o *planOverlay) newCell() int32 {
+	if n := len(o.free); n > 0 {
+		c := o.free[n-1]
+		o.free = o.free[:n-1]
+		o.cells[c].live = true
+		return c
+	}
+	o.cells = append(o.cells, planCell{live: true})
+	return int32(len(o.cells) - 1)
+}
+
+func (o *planOverlay) freeCell(c int32) {
+	o.cells[c].live = false
+	o.cells[c].geo.reset()
+	o.free = append(o.free, c)
+}
+
+// measure fills the measures of cell c from its geometry.
+func (o *planOverlay) measure(c *planCell) {
+	area, disk, far, fx, fy := planMeasures(&c.geo, c.x, c.y, o.r, o.valid)
+	if far < 0 {
+		far, fx, fy = 0, c.x, c.y
+	}
+	c.area, c.unc, c.rho, c.fx, c.fy = area, area-disk, far, fx, fy
+	if o.r <= 0 {
+		c.unc = area
+	}
+}
+
+// recomputeBase recomputes the current cell of base cell u from the
+// planned devices.
+func (o *planOverlay) recomputeBase(u int32) {
+	sc := &o.sc
+	ux, uy := o.site(u)
+	o.baseSet(u, &sc.a)
+	cut := false
+	lim := 2 * o.baseRho[u]
+	for id := range o.dev {
+		if o.dev[id] < 0 {
+			continue
+		}
+		px, py := o.pos(int32(id))
+		if (px == ux && py == uy) || math.Hypot(px-ux, py-uy) > lim {
+			continue
+		}
+		nx, ny, h := planBisector(ux, uy, px, py)
+		if !planSetOutside(&sc.a, ux, uy, nx, ny, h) {
+			continue
+		}
+		planClipSet(&sc.a, ux, uy, nx, ny, h, &sc.b)
+		sc.a, sc.b = sc.b, sc.a
+		cut = true
+	}
+	c := o.cur[u]
+	if !cut {
+		if c >= 0 {
+			o.freeCell(c)
+			o.cur[u] = -1
+		}
+		return
+	}
+	if c < 0 {
+		c = o.newCell()
+		o.cur[u] = c
+	}
+	cell := &o.cells[c]
+	cell.x, cell.y, cell.base = ux, uy, u
+	cell.geo.copyFrom(&sc.a)
+	o.measure(cell)
+}
+
+// recomputeDev recomputes the cell of planned device id.
+func (o *planOverlay) recomputeDev(id int32) {
+	sc := &o.sc
+	cell := &o.cells[o.dev[id]]
+	px, py := cell.x, cell.y
+	g := &sc.a
+	g.reset()
+	if !o.coincidesBase(px, py) {
+		o.baseNear(px, py, func(u int32) {
+			ux, uy := o.site(u)
+			nx, ny, h := planBisector(px, py, ux, uy)
+			o.eachBaseRing(u, func(ring []float64) {
+				if !planRingOutside(ring, ux, uy, -nx, -ny, h) {
+					// Nothing of this ring is closer to p than to u.
+					return
+				}
+				planClipHalf(ring, nil, u, px, py, nx, ny, h, g)
+			})
+		})
+	}
+	// Other planned devices, nearest first, with early exit.
+	rho := planRadius(g, px, py)
+	near := sc.near[:0]
+	empty := len(g.xy) == 0
+	for j := range o.dev {
+		if empty || int32(j) == id || o.dev[j] < 0 {
+			continue
+		}
+		qx, qy := o.pos(int32(j))
+		d := math.Hypot(qx-px, qy-py)
+		if d == 0 && qx == px && qy == py {
+			if int32(j) < id {
+				empty = true // the lower id keeps a shared spot
+			}
+			continue
+		}
+		if d <= 2*rho {
+			near = append(near, planNear{int32(j), d})
+		}
+	}
+	if empty {
+		g.reset()
+	} else {
+		slices.SortFunc(near, func(a, b planNear) int {
+			if c := cmp.Compare(a.d, b.d); c != 0 {
+				return c
+			}
+			return cmp.Compare(a.id, b.id)
+		})
+		for _, nb := range near {
+			if nb.d > 2*rho || len(g.xy) == 0 {
+				break
+			}
+			qx, qy := o.pos(nb.id)
+			nx, ny, h := planBisector(px, py, qx, qy)
+			if !planSetOutside(g, px, py, nx, ny, h) {
+				continue
+			}
+			planClipSet(g, px, py, nx, ny, h, &sc.b)
+			sc.a, sc.b = sc.b, sc.a
+			g = &sc.a
+			rho = planRadius(g, px, py)
+		}
+	}
+	sc.near = near[:0]
+	cell = &o.cells[o.dev[id]]
+	cell.geo.copyFrom(g)
+	o.measure(cell)
+}
+
+// planRadius returns the largest distance from (x, y) to a vertex of s, 0
+// when s is empty.
+func planRadius(s *planRings, x, y float64) float64 {
+	r := 0.0
+	for i := 0; i+1 < len(s.xy); i += 2 {
+		r = math.Max(r, math.Hypot(s.xy[i]-x, s.xy[i+1]-y))
+	}
+	return r
+}
+
+// cellRho returns the current radius of base cell u.
+func (o *planOverlay) baseCurRho(u int32) float64 {
+	if c := o.cur[u]; c >= 0 {
+		return o.cells[c].rho
+	}
+	return o.baseRho[u]
+}
+
+// planDirty is a set of cells to recompute.
+type planDirty struct {
+	base []int32
+	devs []int32
+}
+
+func (d *planDirty) addBase(u int32) {
+	if !slices.Contains(d.base, u) {
+		d.base = append(d.base, u)
+	}
+}
+
+func (d *planDirty) addDev(id int32) {
+	if !slices.Contains(d.devs, id) {
+		d.devs = append(d.devs, id)
+	}
+}
+
+// dirtyAdd collects the cells a device appearing at (x, y) may cut
+// (skipping device skip).
+func (o *planOverlay) dirtyAdd(x, y float64, skip int32, d *planDirty) {
+	o.baseNear(x, y, func(u int32) {
+		g := o.curBase(u, &o.sc.c)
+		if o.baseTaken(u, g, x, y) {
+			d.addBase(u)
+		}
+	})
+	for j := range o.dev {
+		if int32(j) == skip || o.dev[j] < 0 {
+			continue
+		}
+		c := &o.cells[o.dev[j]]
+		if len(c.geo.xy) == 0 {
+			continue
+		}
+		if c.x == x && c.y == y {
+			d.addDev(int32(j)) // tie rule by id may hand the spot over
+			continue
+		}
+		if math.Hypot(c.x-x, c.y-y) <= 2*c.rho && planCloserTo(c.geo.xy, x, y, c.x, c.y) {
+			d.addDev(int32(j))
+		}
+	}
+}
+
+// dirtyRemove collects the cells that may gain when device id leaves its
+// current position.
+func (o *planOverlay) dirtyRemove(id int32, d *planDirty) {
+	c := &o.cells[o.dev[id]]
+	ax, ay := c.x, c.y
+	g := &c.geo
+	for _, u := range g.tag {
+		d.addBase(u)
+	}
+	// A device sharing the spot takes over.
+	for j := range o.dev {
+		if int32(j) != id && o.dev[j] >= 0 {
+			if qx, qy := o.pos(int32(j)); qx == ax && qy == ay {
+				d.addDev(int32(j))
+			}
+		}
+	}
+	if len(g.xy) == 0 {
+		return
+	}
+	// Distance from the device to its nearest other site.
+	v := o.l.Tri.Nearest(ax, ay, -1)
+	dmin := math.Hypot(o.l.Tri.Coords[2*v]-ax, o.l.Tri.Coords[2*v+1]-ay)
+	for j := range o.dev {
+		if int32(j) != id && o.dev[j] >= 0 {
+			qx, qy := o.pos(int32(j))
+			dmin = math.Min(dmin, math.Hypot(qx-ax, qy-ay))
+		}
+	}
+	lim := 2*c.rho + dmin
+	for j := range o.dev {
+		if int32(j) == id || o.dev[j] < 0 {
+			continue
+		}
+		qx, qy := o.pos(int32(j))
+		if math.Hypot(qx-ax, qy-ay) > lim {
+			continue
+		}
+		for k := 0; k < g.numRings(); k++ {
+			u := g.tag[k]
+			ring := g.ring(k)
+			ux, uy := o.site(u)
+			if math.Hypot(qx-ux, qy-uy) > 2*o.baseRho[u] {
+				continue
+			}
+			// Some vertex at least as close to q as to u.
+			nx, ny, h := planBisector(qx, qy, ux, uy)
+			if !planRingAllOutside(ring, qx, qy, nx, ny, h) {
+				d.addDev(int32(j))
+				break
+			}
+		}
+	}
+}
+
+// planRingAllOutside reports whether every vertex of ring is strictly outside
+// the half-plane (q − w)·n ≤ h.
+func planRingAllOutside(ring []float64, wx, wy, nx, ny, h float64) bool {
+	for i := 0; i+1 < len(ring); i += 2 {
+		if (ring[i]-wx)*nx+(ring[i+1]-wy)*ny <= h {
+			return false
+		}
+	}
+	return true
+}
+
+// rhoOf returns the current radius of a dirty-set member.
+func (o *planOverlay) rhoOfDirty(d *planDirty) float64 {
+	m := 0.0
+	for _, u := range d.base {
+		m = math.Max(m, o.baseCurRho(u))
+	}
+	for _, id := range d.devs {
+		if o.dev[id] >= 0 {
+			m = math.Max(m, o.cells[o.dev[id]].rho)
+		}
+	}
+	return m
+}
+
+// apply recomputes the dirty cells.
+func (o *planOverlay) apply(d *planDirty) {
+	for _, id := range d.devs {
+		if o.dev[id] >= 0 {
+			o.recomputeDev(id)
+		}
+	}
+	for _, u := range d.base {
+		o.recomputeBase(u)
+	}
+}
+
+// add places a planned device at (x, y) and returns its id and the other
+// planned devices whose cells it may have cut.
+func (o *planOverlay) add(x, y float64) (id int32, near []int32) {
+	id = int32(len(o.dev))
+	o.dev = append(o.dev, -1)
+	return id, o.place(id, x, y)
+}
+
+// place puts planned device id, currently out of the plan, at (x, y); it
+// returns the other planned devices whose cells it may have cut.
+func (o *planOverlay) place(id int32, x, y float64) []int32 {
+	var d planDirty
+	o.dirtyAdd(x, y, id, &d)
+	c := o.newCell()
+	o.cells[c] = planCell{x: x, y: y, base: -1, live: true, geo: o.cells[c].geo}
+	o.dev[id] = c
+	near := slices.Clone(d.devs)
+	d.addDev(id)
+	o.apply(&d)
+	return near
+}
+
+// move moves planned device id to (x, y) and returns the largest radius
+// among the changed cells before and after.
+func (o *planOverlay) move(id int32, x, y float64) (before, after float64) {
+	var d planDirty
+	o.dirtyRemove(id, &d)
+	o.dirtyAdd(x, y, id, &d)
+	d.addDev(id)
+	before = o.rhoOfDirty(&d)
+	c := &o.cells[o.dev[id]]
+	c.x, c.y = x, y
+	o.apply(&d)
+	after = o.rhoOfDirty(&d)
+	return before, after
+}
+
+// remove takes planned device id out of the plan.
+func (o *planOverlay) remove(id int32) {
+	var d planDirty
+	o.dirtyRemove(id, &d)
+	o.freeCell(o.dev[id])
+	o.dev[id] = -1
+	o.apply(&d)
+}
+
+// fullCover returns the full-cover range of the current plan.
+func (o *planOverlay) fullCover() float64 {
+	m := 0.0
+	for _, u := range o.order {
+		if o.cur[u] < 0 {
+			m = o.baseRho[u]
+			break
+		}
+	}
+	for i := range o.cells {
+		if c := &o.cells[i]; c.live && c.rho > m {
+			m = c.rho
+		}
+	}
+	return m
+}
+
+// worst returns the full-cover range and a point attaining it: among the
+// cells' farthest vertices within 1e-9 relative of the range, the
+// lexicographically smallest.
+func (o *planOverlay) worst() (rng float64, p orb.Point) {
+	rng = o.fullCover()
+	thr := rng * (1 - 1e-9)
+	p = orb.Point{math.NaN(), math.NaN()}
+	take := func(x, y float64) {
+		if math.IsNaN(p[0]) || x < p[0] || (x == p[0] && y < p[1]) {
+			p = orb.Point{x, y}
+		}
+	}
+	for _, u := range o.order {
+		if o.baseRho[u] < thr {
+			break
+		}
+		if o.cur[u] < 0 {
+			take(o.baseFx[u], o.baseFy[u])
+		}
+	}
+	for i := range o.cells {
+		if c := &o.cells[i]; c.live && c.rho >= thr && len(c.geo.xy) > 0 {
+			take(c.fx, c.fy)
+		}
+	}
+	return rng, p
+}
+
+// uncovered returns the uncovered area of the plan at the range r.
+func (o *planOverlay) uncovered() float64 {
+	s := o.baseUncTotal
+	for i := range o.cells {
+		c := &o.cells[i]
+		if !c.live {
+			continue
+		}
+		if c.base >= 0 {
+			s -= o.baseUnc[c.base]
+		}
+		s += c.unc
+	}
+	return math.Max(0, s)
+}
+
+// positions returns the live planned devices in id order.
+func (o *planOverlay) positions() []orb.Point {
+	var out []orb.Point
+	for id := range o.dev {
+		if o.dev[id] >= 0 {
+			x, y := o.pos(int32(id))
+			out = append(out, orb.Point{x, y})
+		}
+	}
+	return out
+}
+
+// gain returns the covered area a device at (x, y) would add to the plan at
+// range r (see the file comment). It does not change the overlay and is
+// safe to call from several goroutines with distinct scratch.
+func (o *planOverlay) gain(x, y float64, sc *planScratch) float64 {
+	if !(o.r > 0) || o.coincidesBase(x, y) {
+		return 0
+	}
+	for id := range o.dev {
+		if o.dev[id] >= 0 {
+			if qx, qy := o.pos(int32(id)); qx == x && qy == y {
+				return 0
+			}
+		}
+	}
+	r := o.r
+	g := 0.0
+	piece := func(src *planRings, sx, sy float64) {
+		nx, ny, h := planBisector(x, y, sx, sy)
+		if !planRingOutside(src.xy, sx, sy, -nx, -ny, h) {
+			return
+		}
+		planClipSet(src, x, y, nx, ny, h, &sc.b)
+		for k := 0; k < sc.b.numRings(); k++ {
+			ring := sc.b.ring(k)
+			g += planar.RingDiskArea(ring, x, y, r) - planar.RingDiskArea(ring, sx, sy, r)
+		}
+	}
+	o.baseNear(x, y, func(u int32) {
+		var src *planRings
+		if c := o.cur[u]; c >= 0 {
+			src = &o.cells[c].geo
+		} else {
+			sc.a.reset()
+			o.eachBaseRing(u, func(ring []float64) { sc.a.appendRing(ring, u) })
+			src = &sc.a
+		}
+		if len(src.xy) == 0 {
+			return
+		}
+		ux, uy := o.site(u)
+		piece(src, ux, uy)
+	})
+	for id := range o.dev {
+		if o.dev[id] < 0 {
+			continue
+		}
+		c := &o.cells[o.dev[id]]
+		if len(c.geo.xy) == 0 || math.Hypot(c.x-x, c.y-y) > 2*c.rho {
+			continue
+		}
+		piece(&c.geo, c.x, c.y)
+	}
+	return math.Max(0, g)
+}
+
+// devVertices returns the points of planned device id's cell that are
+// vertices of it (into scratch owned by the overlay).
+func (o *planOverlay) devVertices(id int32) []float64 {
+	o.sc.pts = planPieceVertices(&o.cells[o.dev[id]].geo, o.valid, o.sc.pts[:0])
+	return o.sc.pts
+}
+
+// valid reports whether a candidate vertex (x, y) of a piece of base cell
+// u lies in that cell (plan_clip.go); convex cells need no test.
+func (o *planOverlay) valid(u int32, x, y float64) bool {
+	if o.baseConvex[u] {
+		return true
+	}
+	var rings [][]float64
+	o.eachBaseRing(u, func(ring []float64) { rings = append(rings, ring) })
+	return planInRings(rings, x, y)
+}
+
+// devRho returns the radius of planned device id's cell.
+func (o *planOverlay) devRho(id int32) float64 { return o.cells[o.dev[id]].rho }
+
+// inside returns a point of the area at or next to (x, y): the point itself
+// when the area holds it, otherwise the nearest point of the area's
+// boundary, nudged inward until the exact point-in-area test accepts it.
+// ok is false when no such point is found.
+func (o *planOverlay) inside(x, y float64) (px, py float64, ok bool) {
+	if o.ix.Contains(x, y) {
+		return x, y, true
+	}
+	a := o.l.Area
+	best := math.Inf(1)
+	var bx, by, ex, ey float64
+	for k := 0; k < a.NumRings(); k++ {
+		ring := a.Ring(k)
+		n := len(ring) / 2
+		for i := 0; i < n; i++ {
+			j := (i + 1) % n
+			ax, ay := ring[2*i], ring[2*i+1]
+			dx, dy := ring[2*j]-ax, ring[2*j+1]-ay
+			l2 := dx*dx + dy*dy
+			t := 0.0
+			if l2 > 0 {
+				t = math.Max(0, math.Min(1, ((x-ax)*dx+(y-ay)*dy)/l2))
+			}
+			qx, qy := ax+t*dx, ay+t*dy
+			if d := math.Hypot(x-qx, y-qy); d < best {
+				best, bx, by, ex, ey = d, qx, qy, dx, dy
+			}
+		}
+	}
+	if math.IsInf(best, 1) {
+		return x, y, false
+	}
+	// The area lies to the left of every ring edge.
+	ln := math.Hypot(ex, ey)
+	if ln == 0 {
+		return x, y, false
+	}
+	nx, ny := -ey/ln, ex/ln
+	step := 1e-12 * math.Max(1, math.Max(math.Abs(bx), math.Abs(by)))
+	for k := 0; k < 80; k++ {
+		qx, qy := bx, by
+		if k > 0 {
+			qx, qy = bx+step*nx, by+step*ny
+			step *= 2
+		}
+		if o.ix.Contains(qx, qy) {
+			return qx, qy, true
+		}
+	}
+	return x, y, false
+}
