@@ -227,10 +227,10 @@ func (t *Triangulation) descend(x, y float64, v int32) int32 {
 		e := e0
 		for {
 			consider(tri[e])
-			o := NextHalfedge(e)
+			o := nextHE(e)
 			h := half[o]
 			if h < 0 {
-				consider(tri[NextHalfedge(o)])
+				consider(tri[nextHE(o)])
 				break
 			}
 			e = h
@@ -427,7 +427,38 @@ func (t *Triangulation) newHintGrid(nq int) *hintGrid {
 			g.cell[c] = v
 		}
 	}
+	g.fill()
 	return g
+}
+
+// fill gives every empty cell the vertex of a non-empty cell in its row
+// (the nearest one to the left, else to the right), and cells of empty
+// rows that of a row above or below.
+func (g *hintGrid) fill() {
+	line := func(n int, at func(k int) *int32) {
+		last := int32(-1)
+		for k := 0; k < n; k++ {
+			if c := at(k); *c >= 0 {
+				last = *c
+			} else {
+				*c = last
+			}
+		}
+		last = -1
+		for k := n - 1; k >= 0; k-- {
+			if c := at(k); *c >= 0 {
+				last = *c
+			} else {
+				*c = last
+			}
+		}
+	}
+	for j := 0; j < g.ny; j++ {
+		line(g.nx, func(i int) *int32 { return &g.cell[j*g.nx+i] })
+	}
+	for i := 0; i < g.nx; i++ {
+		line(g.ny, func(j int) *int32 { return &g.cell[j*g.nx+i] })
+	}
 }
 
 func (g *hintGrid) index(x, y float64) int {
