@@ -88,42 +88,51 @@ func Triangulate(pts []orb.Point) (*Triangulation, error) {
 // points). The returned triangle is counter-clockwise.
 func seedTriangle(pts []orb.Point, box bbox) (i0, i1, i2 int32) {
 	cx, cy := box.minX/2+box.maxX/2, box.minY/2+box.maxY/2
-	best := math.Inf(1)
-	i0 = 0
-	for i, p := range pts {
-		if d := dist2(p[0], p[1], cx, cy); d < best {
-			best, i0 = d, int32(i)
+	i0 = argmin(len(pts), func(lo, hi int) (float64, int32) {
+		best, bi := math.Inf(1), int32(-1)
+		for i := lo; i < hi; i++ {
+			p := pts[i]
+			if d := dist2(p[0], p[1], cx, cy); d < best || bi < 0 {
+				best, bi = d, int32(i)
+			}
 		}
-	}
+		return best, bi
+	})
 	p0 := pts[i0]
-	best = math.Inf(1)
-	i1 = -1
-	for i, p := range pts {
-		if p == p0 {
-			continue
+	i1 = argmin(len(pts), func(lo, hi int) (float64, int32) {
+		best, bi := math.Inf(1), int32(-1)
+		for i := lo; i < hi; i++ {
+			p := pts[i]
+			if p == p0 {
+				continue
+			}
+			if d := dist2(p[0], p[1], p0[0], p0[1]); d < best || bi < 0 {
+				best, bi = d, int32(i)
+			}
 		}
-		if d := dist2(p[0], p[1], p0[0], p0[1]); d < best || i1 < 0 {
-			best, i1 = d, int32(i)
-		}
-	}
+		return best, bi
+	})
 	if i1 < 0 {
 		return i0, -1, -1
 	}
 	p1 := pts[i1]
-	best = math.Inf(1)
-	i2 = -1
-	for i, p := range pts {
-		r := circumradius2(p0[0], p0[1], p1[0], p1[1], p[0], p[1])
-		if i2 >= 0 && !(r < best) {
-			continue
+	i2 = argmin(len(pts), func(lo, hi int) (float64, int32) {
+		best, bi := math.Inf(1), int32(-1)
+		for i := lo; i < hi; i++ {
+			p := pts[i]
+			r := circumradius2(p0[0], p0[1], p1[0], p1[1], p[0], p[1])
+			if bi >= 0 && !(r < best) {
+				continue
+			}
+			// The float radius only ranks candidates; collinearity is
+			// decided exactly.
+			if Orient2D(p0[0], p0[1], p1[0], p1[1], p[0], p[1]) == 0 {
+				continue
+			}
+			best, bi = r, int32(i)
 		}
-		// The float radius only ranks candidates; collinearity is decided
-		// exactly.
-		if Orient2D(p0[0], p0[1], p1[0], p1[1], p[0], p[1]) == 0 {
-			continue
-		}
-		best, i2 = r, int32(i)
-	}
+		return best, bi
+	})
 	if i2 < 0 {
 		return i0, i1, -1
 	}
@@ -131,6 +140,32 @@ func seedTriangle(pts []orb.Point, box bbox) (i0, i1, i2 int32) {
 		i1, i2 = i2, i1
 	}
 	return i0, i1, i2
+}
+
+// argmin runs chunk over [0, n) split into contiguous ranges (in parallel
+// for large n); each returns its smallest value and the first index
+// reaching it (-1 for none). The result is the first index of the overall
+// minimum, the same as one sequential pass.
+func argmin(n int, chunk func(lo, hi int) (float64, int32)) int32 {
+	if n < 1<<16 {
+		_, i := chunk(0, n)
+		return i
+	}
+	const parts = 8
+	var vals [parts]float64
+	var idx [parts]int32
+	parallel(parts, 1, func(lo, hi int) {
+		for k := lo; k < hi; k++ {
+			vals[k], idx[k] = chunk(n*k/parts, n*(k+1)/parts)
+		}
+	})
+	best, bi := math.Inf(1), int32(-1)
+	for k := 0; k < parts; k++ {
+		if idx[k] >= 0 && (bi < 0 || vals[k] < best) {
+			best, bi = vals[k], idx[k]
+		}
+	}
+	return bi
 }
 
 func dist2(ax, ay, bx, by float64) float64 {

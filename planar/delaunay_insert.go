@@ -69,10 +69,31 @@ var errInternal = errors.New("planar: Triangulate: internal error: point locatio
 type bbox struct{ minX, minY, maxX, maxY float64 }
 
 func boundingBox(pts []orb.Point) bbox {
-	b := bbox{math.Inf(1), math.Inf(1), math.Inf(-1), math.Inf(-1)}
-	for _, p := range pts {
-		b.minX, b.maxX = math.Min(b.minX, p[0]), math.Max(b.maxX, p[0])
-		b.minY, b.maxY = math.Min(b.minY, p[1]), math.Max(b.maxY, p[1])
+	const parts = 8
+	var boxes [parts]bbox
+	scan := func(k int) {
+		b := bbox{math.Inf(1), math.Inf(1), math.Inf(-1), math.Inf(-1)}
+		for _, p := range pts[len(pts)*k/parts : len(pts)*(k+1)/parts] {
+			b.minX, b.maxX = math.Min(b.minX, p[0]), math.Max(b.maxX, p[0])
+			b.minY, b.maxY = math.Min(b.minY, p[1]), math.Max(b.maxY, p[1])
+		}
+		boxes[k] = b
+	}
+	if len(pts) < 1<<16 {
+		for k := 0; k < parts; k++ {
+			scan(k)
+		}
+	} else {
+		parallel(parts, 1, func(lo, hi int) {
+			for k := lo; k < hi; k++ {
+				scan(k)
+			}
+		})
+	}
+	b := boxes[0]
+	for _, c := range boxes[1:] {
+		b.minX, b.maxX = math.Min(b.minX, c.minX), math.Max(b.maxX, c.maxX)
+		b.minY, b.maxY = math.Min(b.minY, c.minY), math.Max(b.maxY, c.maxY)
 	}
 	return b
 }
@@ -592,7 +613,24 @@ func inCircleFiltered(a, b, c xyPt, dx, dy float64) bool {
 			return false
 		}
 	}
+	if smallIntegers(a, b, c, dx, dy) {
+		// Integer coordinates with differences of at most 2¹² (grids):
+		// every product and sum above is an integer below 2⁵³, so det is
+		// exact.
+		return det > 0
+	}
 	return InCircle(a.x, a.y, b.x, b.y, c.x, c.y, dx, dy) > 0
+}
+
+// smallIntegers reports whether all coordinates are integers of magnitude
+// below 2⁵² and a, b, c each differ from (dx, dy) by at most 2¹² per
+// coordinate, so that the differences are exact.
+func smallIntegers(a, b, c xyPt, dx, dy float64) bool {
+	const lim, big = 0x1p12, 0x1p52
+	isInt := func(v float64) bool { return v == math.Trunc(v) && math.Abs(v) < big }
+	near := func(p xyPt) bool { return math.Abs(p.x-dx) <= lim && math.Abs(p.y-dy) <= lim }
+	return isInt(dx) && isInt(dy) && isInt(a.x) && isInt(a.y) && isInt(b.x) && isInt(b.y) &&
+		isInt(c.x) && isInt(c.y) && near(a) && near(b) && near(c)
 }
 
 // orientSign returns the sign of Orient2D(a, c, (x, y)) with the stage-A
@@ -609,6 +647,16 @@ func orientSign(a, c xyPt, x, y float64) int {
 		if -det > bound {
 			return -1
 		}
+	}
+	if smallIntegers(a, c, c, x, y) {
+		// Exact: integer products below 2²⁵.
+		switch {
+		case det > 0:
+			return 1
+		case det < 0:
+			return -1
+		}
+		return 0
 	}
 	switch o := Orient2D(a.x, a.y, c.x, c.y, x, y); {
 	case o > 0:
@@ -706,39 +754,59 @@ func (b *builder) finish(pts []orb.Point, order []int32) *Triangulation {
 		}
 	}
 
-	// Smallest input index of each group (in hedge, now free), then the
-	// input → representative map.
-	minIn := hedge
-	for k := 0; k < n; k++ {
-		if next[k] != dupMark {
-			minIn[k] = order[k]
-		}
-	}
+	dups := false
 	for k := 0; k < n; k++ {
 		if next[k] == dupMark {
-			if r := prev[k]; order[k] < minIn[r] {
-				minIn[r] = order[k]
+			dups = true
+			break
+		}
+	}
+	var vertex, source, perm []int32
+	if !dups {
+		// Vertex i is input i; internal id k is vertex order[k].
+		vertex = make([]int32, n)
+		source = make([]int32, n)
+		parallel(n, 1<<16, func(lo, hi int) {
+			for i := lo; i < hi; i++ {
+				vertex[i], source[i] = int32(i), int32(i)
+			}
+		})
+		perm = order
+	} else {
+		// Smallest input index of each group (in hedge, now free), then
+		// the input → representative map.
+		minIn := hedge
+		for k := 0; k < n; k++ {
+			if next[k] != dupMark {
+				minIn[k] = order[k]
+			}
+		}
+		for k := 0; k < n; k++ {
+			if next[k] == dupMark {
+				if r := prev[k]; order[k] < minIn[r] {
+					minIn[r] = order[k]
+				}
+			}
+		}
+		vertex = make([]int32, n)
+		for k := 0; k < n; k++ {
+			r := int32(k)
+			if next[k] == dupMark {
+				r = prev[k]
+			}
+			vertex[order[k]] = minIn[r]
+		}
+		source = numberVertices(vertex, vertex)
+		// perm: internal id → vertex number (in prev, now free).
+		perm = prev
+		for k := 0; k < n; k++ {
+			if next[k] != dupMark {
+				perm[k] = vertex[order[k]]
 			}
 		}
 	}
-	vertex := make([]int32, n)
-	for k := 0; k < n; k++ {
-		r := int32(k)
-		if next[k] == dupMark {
-			r = prev[k]
-		}
-		vertex[order[k]] = minIn[r]
-	}
-	source := numberVertices(vertex, vertex)
 	m := len(source)
 
-	// perm: internal id → vertex number (in prev, now free).
-	perm := prev
-	for k := 0; k < n; k++ {
-		if next[k] != dupMark {
-			perm[k] = vertex[order[k]]
-		}
-	}
 	tri := b.tri[:b.nt:b.nt]
 	half := b.half[:b.nt:b.nt]
 	coords := make([]float64, 2*m)
@@ -747,6 +815,10 @@ func (b *builder) finish(pts []orb.Point, order []int32) *Triangulation {
 	wg.Add(1)
 	go func() {
 		defer wg.Done()
+		if !dups {
+			copy(asPts(coords), unsafe.Slice((*xyPt)(unsafe.Pointer(&pts[0])), len(pts)))
+			return
+		}
 		for v, i := range source {
 			coords[2*v], coords[2*v+1] = pts[i][0], pts[i][1]
 		}
@@ -756,8 +828,12 @@ func (b *builder) finish(pts []orb.Point, order []int32) *Triangulation {
 			tri[e] = perm[tri[e]]
 		}
 	})
-	for e := int32(0); e < b.nt; e++ {
-		inedge[tri[NextHalfedge(e)]] = e
+	// The last half-edge ending at each vertex, in increasing order.
+	for t := int32(0); t < b.nt; t += 3 {
+		tr := tri[t : t+3 : t+3]
+		inedge[tr[1]] = t
+		inedge[tr[2]] = t + 1
+		inedge[tr[0]] = t + 2
 	}
 	hull := make([]int32, len(hullInt))
 	for k, v := range hullInt {
