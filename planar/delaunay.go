@@ -12,7 +12,11 @@
 // Rote 2003), with point location by a visibility walk, Lawson flips for
 // points inside the current hull and the sweep-hull step of Sinclair (2010)
 // for points outside it, all in the flat half-edge layout popularised by
-// Agafonkin's Delaunator (see delaunay_insert.go). Every geometric decision
+// Agafonkin's Delaunator (see delaunay_insert.go). Large inputs use both
+// CPUs: the last rounds are inserted by two workers on the two sides of a
+// vertical line, each by Bowyer–Watson cavity retriangulation (Bowyer 1981;
+// Watson 1981) in triangles it owns (delaunay_parallel.go), with the same
+// result for any number of CPUs. Every geometric decision
 // is an exact predicate (Orient2D, InCircle), so the output is a true
 // Delaunay triangulation for every finite input, with no tolerance.
 //

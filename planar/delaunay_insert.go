@@ -32,6 +32,17 @@
 // Consecutive points of a round are close along the curve, so the walk is
 // short and memory access local; earlier rounds give a coarse, well-shaped
 // mesh that keeps flips few (about three per point on uniform input).
+//
+// From parallelMin points on, the last four rounds (about 15/16 of the
+// points) are inserted by two workers, one per side of a vertical line
+// through the median abscissa (delaunay_parallel.go); the few points they
+// leave are then inserted as above. The result does not depend on the
+// number of CPUs.
+//
+// Predicates: the stage-A filters of Orient2D and InCircle (Shewchuk 1997)
+// are repeated in line here; undecided cases go to the exact predicates,
+// except integer coordinates with differences of at most 2¹², for which the
+// float evaluation is itself exact. Coordinates are never translated.
 
 package planar
 

@@ -163,8 +163,10 @@ func (w *worker) locate(x, y float64) int32 {
 		for k := 0; k < 3; k++ {
 			if e != came {
 				if orientNegative(ps[tri[e]], ps[tri[nextHE(e)]], x, y) {
+					// The neighbour shares e's endpoints (owned): it is
+					// owned when its third vertex is.
 					h := half[e]
-					if h >= 0 && w.owned(triStart(h)) {
+					if h >= 0 && w.own(tri[prevHE(h)]) {
 						next = h
 						break
 					}
@@ -274,7 +276,7 @@ func (w *worker) edge(e, u, v int32, p xyPt) bool {
 		}
 		a1, a2 := tri[nb+1], tri[nb+2]
 		if inCircleFiltered(ps[a0], ps[a1], ps[a2], p.x, p.y) {
-			if !(w.own(a0) && w.own(a1) && w.own(a2)) || w.nc == maxCavity {
+			if !w.own(tri[prevHE(h)]) || w.nc == maxCavity { // the apex (u, v are owned)
 				return false
 			}
 			tri[nb] = ^a0
