@@ -569,8 +569,12 @@ type regionGrid struct {
 	padX, padY float64 // rounding margin in cell units
 }
 
-// build registers every ring edge of (xy, ringStart) in the grid.
-func (g *regionGrid) build(xy []float64, ringStart []int32) {
+// build registers every ring edge of (xy, ringStart) in a grid of about
+// one cell per vertex.
+func (g *regionGrid) build(xy []float64, ringStart []int32) { g.buildDensity(xy, ringStart, 1) }
+
+// buildDensity is build with about density cells per vertex.
+func (g *regionGrid) buildDensity(xy []float64, ringStart []int32, density float64) {
 	g.xy = xy
 	nv := len(xy) / 2
 	g.next = make([]int32, nv)
@@ -598,10 +602,10 @@ func (g *regionGrid) build(xy []float64, ringStart []int32) {
 	if !(h > 0) {
 		h = math.Max(1, w)
 	}
-	cells := math.Max(1, float64(nv))
+	cells := math.Max(1, density*float64(nv))
 	side := math.Sqrt(w * h / cells)
-	g.nx = int(math.Min(4096, math.Max(1, math.Ceil(w/side))))
-	g.ny = int(math.Min(4096, math.Max(1, math.Ceil(h/side))))
+	g.nx = int(math.Min(8192, math.Max(1, math.Ceil(w/side))))
+	g.ny = int(math.Min(8192, math.Max(1, math.Ceil(h/side))))
 	g.x0, g.y0 = minx, miny
 	g.cw, g.ch = w/float64(g.nx), h/float64(g.ny)
 	// Rounding margin: errors in computed coordinates are far below
@@ -721,6 +725,120 @@ func (g *regionGrid) locate(px, py float64, skip func(e int32) bool, hit func(e 
 		}
 	}
 	return inside, false
+}
+
+// segmentHits reports whether the segment pq meets (crosses or touches)
+// any ring edge, exactly. Only edges registered in the grid cells that the
+// segment's part inside the grid passes through are tested.
+func (g *regionGrid) segmentHits(px, py, qx, qy float64) bool {
+	if len(g.next) == 0 {
+		return false
+	}
+	gx1, gy1 := g.x0+float64(g.nx)*g.cw, g.y0+float64(g.ny)*g.ch
+	// Fast path: both ends in one grid cell (a cell is convex, so the
+	// segment lies in it) that no edge passes through.
+	if px >= g.x0 && px < gx1 && qx >= g.x0 && qx < gx1 && py >= g.y0 && py < gy1 && qy >= g.y0 && qy < gy1 {
+		c0, c1 := int((px-g.x0)/g.cw), int((qx-g.x0)/g.cw)
+		r0, r1 := int((py-g.y0)/g.ch), int((qy-g.y0)/g.ch)
+		if c0 == c1 && r0 == r1 && c0 < g.nx && r0 < g.ny {
+			cell := r0*g.nx + c0
+			if g.cellStart[cell] == g.cellStart[cell+1] {
+				return false
+			}
+		}
+	}
+	// Clip pq to the grid box (Liang–Barsky), slightly enlarged.
+	mx, my := g.padX*g.cw, g.padY*g.ch
+	t0, t1 := 0.0, 1.0
+	dx, dy := qx-px, qy-py
+	for _, c := range [4][2]float64{{-dx, px - (g.x0 - mx)}, {dx, gx1 + mx - px}, {-dy, py - (g.y0 - my)}, {dy, gy1 + my - py}} {
+		p, q := c[0], c[1]
+		if p == 0 {
+			if q < 0 {
+				return false
+			}
+			continue
+		}
+		r := q / p
+		if p < 0 {
+			t0 = math.Max(t0, r)
+		} else {
+			t1 = math.Min(t1, r)
+		}
+	}
+	if t0 > t1 {
+		return false
+	}
+	ax, ay, bx, by := px+t0*dx, py+t0*dy, px+t1*dx, py+t1*dy
+	ylo, yhi := math.Min(ay, by), math.Max(ay, by)
+	r0 := g.clampRow(math.Floor((ylo-g.y0)/g.ch - g.padY))
+	r1 := g.clampRow(math.Floor((yhi-g.y0)/g.ch + g.padY))
+	for r := r0; r <= r1; r++ {
+		sy0 := math.Max(ylo, math.Min(yhi, g.y0+float64(r)*g.ch))
+		sy1 := math.Max(ylo, math.Min(yhi, g.y0+float64(r+1)*g.ch))
+		var xa, xb float64
+		if ay == by {
+			xa, xb = ax, bx
+		} else {
+			xa = ax + (sy0-ay)*(bx-ax)/(by-ay)
+			xb = ax + (sy1-ay)*(bx-ax)/(by-ay)
+		}
+		xlo := math.Max(math.Min(xa, xb), math.Min(ax, bx))
+		xhi := math.Min(math.Max(xa, xb), math.Max(ax, bx))
+		c0 := g.clampCol(math.Floor((xlo-g.x0)/g.cw - g.padX))
+		c1 := g.clampCol(math.Floor((xhi-g.x0)/g.cw + g.padX))
+		for cc := c0; cc <= c1; cc++ {
+			cell := r*g.nx + cc
+			for _, ent := range g.entries[g.cellStart[cell]:g.cellStart[cell+1]] {
+				e := ent >> 1
+				n := g.next[e]
+				if regionSegmentsMeet(px, py, qx, qy, g.xy[2*e], g.xy[2*e+1], g.xy[2*n], g.xy[2*n+1]) {
+					return true
+				}
+			}
+		}
+	}
+	return false
+}
+
+// cellEdges calls f for every ring edge registered in a grid cell that
+// overlaps the box [x0, x1] × [y0, y1] (possibly more than once).
+func (g *regionGrid) cellEdges(x0, y0, x1, y1 float64, f func(e int32)) {
+	if len(g.next) == 0 {
+		return
+	}
+	c0 := g.clampCol(math.Floor((x0-g.x0)/g.cw - g.padX))
+	c1 := g.clampCol(math.Floor((x1-g.x0)/g.cw + g.padX))
+	r0 := g.clampRow(math.Floor((y0-g.y0)/g.ch - g.padY))
+	r1 := g.clampRow(math.Floor((y1-g.y0)/g.ch + g.padY))
+	for r := r0; r <= r1; r++ {
+		for cc := c0; cc <= c1; cc++ {
+			cell := r*g.nx + cc
+			for _, ent := range g.entries[g.cellStart[cell]:g.cellStart[cell+1]] {
+				f(ent >> 1)
+			}
+		}
+	}
+}
+
+// regionSegmentsMeet reports whether segments ab and cd share a point,
+// exactly (Orient2D).
+func regionSegmentsMeet(ax, ay, bx, by, cx, cy, dx, dy float64) bool {
+	if math.Max(ax, bx) < math.Min(cx, dx) || math.Max(cx, dx) < math.Min(ax, bx) ||
+		math.Max(ay, by) < math.Min(cy, dy) || math.Max(cy, dy) < math.Min(ay, by) {
+		return false
+	}
+	o1 := Orient2D(ax, ay, bx, by, cx, cy)
+	o2 := Orient2D(ax, ay, bx, by, dx, dy)
+	o3 := Orient2D(cx, cy, dx, dy, ax, ay)
+	o4 := Orient2D(cx, cy, dx, dy, bx, by)
+	if (o1 > 0 && o2 < 0 || o1 < 0 && o2 > 0) && (o3 > 0 && o4 < 0 || o3 < 0 && o4 > 0) {
+		return true
+	}
+	return o1 == 0 && regionOnSegment(ax, ay, bx, by, cx, cy) ||
+		o2 == 0 && regionOnSegment(ax, ay, bx, by, dx, dy) ||
+		o3 == 0 && regionOnSegment(cx, cy, dx, dy, ax, ay) ||
+		o4 == 0 && regionOnSegment(cx, cy, dx, dy, bx, by)
 }
 
 // edgePair tests edges a < b for contact: 0 none, 1 proper crossing, 2
