@@ -3,8 +3,8 @@
 // BenchmarkAnalyze runs Analyze (no rendering) on uniform, clustered and
 // grid layouts inside a non-convex boundary polygon with an exclusion hole,
 // at a range leaving some gaps (the range covering 99.9% of the area; for
-// the grid, whose interior is covered exactly at s/√2, 1.02·s/√2, leaving
-// gaps only in the boundary margin). It reports allocated bytes per site
+// the grid of spacing 10 m, whose interior is covered exactly from s/√2,
+// 7.5 m with an 8 m boundary margin, leaving gaps only along the boundary). It reports allocated bytes per site
 // (total over the run) and the peak heap growth per site, sampled every
 // millisecond. BenchmarkGaps times Layout.Gaps alone on 10 000 uniform
 // sites (target: at most 23 ms, 100 times faster than GEOS's 2.3–3.9 s for
@@ -27,12 +27,12 @@ import (
 )
 
 // benchArea returns a non-convex boundary polygon (a notch from the top)
-// with a square exclusion hole, around the sites' bounding box with a 5 m
-// margin.
-func benchArea(tb testing.TB, sites []orb.Point) *planar.Region {
+// with a square exclusion hole, around the sites' bounding box with margin
+// m (metres).
+func benchArea(tb testing.TB, sites []orb.Point, m float64) *planar.Region {
 	b := orb.MultiPoint(sites).Bound()
 	s := math.Max(b.Max[0]-b.Min[0], b.Max[1]-b.Min[1])
-	x0, y0, m := b.Min[0], b.Min[1], 5.0
+	x0, y0 := b.Min[0], b.Min[1]
 	ext := []orb.Point{{x0 - m, y0 - m}, {x0 + s + m, y0 - m}, {x0 + s + m, y0 + s + m}, {x0 + 0.6*s, y0 + s + m},
 		{x0 + 0.5*s, y0 + 0.7*s}, {x0 + 0.4*s, y0 + s + m}, {x0 - m, y0 + s + m}}
 	hole := []orb.Point{{x0 + 0.25*s, y0 + 0.25*s}, {x0 + 0.25*s, y0 + 0.35*s}, {x0 + 0.35*s, y0 + 0.35*s}, {x0 + 0.35*s, y0 + 0.25*s}}
@@ -73,11 +73,12 @@ func BenchmarkAnalyze(b *testing.B) {
 		for _, n := range []int{10_000, 100_000, 1_000_000} {
 			b.Run(fmt.Sprintf("%s-%d", g.name, n), func(b *testing.B) {
 				sites := g.make(n)
-				area := benchArea(b, sites)
+				var area *planar.Region
 				var r float64
 				if g.grid {
-					r = 1.02 * 10 / math.Sqrt2
+					area, r = benchArea(b, sites, 8), 7.5
 				} else {
+					area = benchArea(b, sites, 5)
 					l, err := NewLayout(sites, area)
 					if err != nil {
 						b.Fatal(err)
@@ -120,7 +121,7 @@ func BenchmarkAnalyze(b *testing.B) {
 
 func BenchmarkGaps(b *testing.B) {
 	sites := uniformSites(10_000, 3)
-	area := benchArea(b, sites)
+	area := benchArea(b, sites, 5)
 	l, err := NewLayout(sites, area)
 	if err != nil {
 		b.Fatal(err)

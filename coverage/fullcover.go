@@ -15,8 +15,9 @@
 package coverage
 
 import (
+	"cmp"
 	"math"
-	"sort"
+	"slices"
 
 	"github.com/paulmach/orb"
 )
@@ -54,8 +55,10 @@ func (l *Layout) FullCover() FullCover {
 	thr := R * (1 - fcTieRel)
 	type cand struct {
 		x, y, d float64
-		src     int
+		src     int32
+		qx      int64
 	}
+	tol := fcTieRel * R
 	parts := make([][]cand, nc)
 	c := l.Cells
 	cvParallel(nv, chunk, func(ci, lo, hi int) {
@@ -66,12 +69,26 @@ func (l *Layout) FullCover() FullCover {
 				continue
 			}
 			cx, cy := l.site(v)
-			i0, i1 := c.RingStart[c.PolyStart[p0]], c.RingStart[c.PolyStart[p1]]
-			for i := i0; i < i1; i++ {
-				px, py := c.XY[2*i], c.XY[2*i+1]
-				dx, dy := px-cx, py-cy
-				if d := math.Sqrt(dx*dx + dy*dy); d >= thr {
-					out = append(out, cand{px, py, d, int(l.Tri.Source[v])})
+			for k := c.PolyStart[p0]; k < c.PolyStart[p1]; k++ {
+				i0, i1 := c.RingStart[k], c.RingStart[k+1]
+				for i := i0; i < i1; i++ {
+					px, py := c.XY[2*i], c.XY[2*i+1]
+					dx, dy := px-cx, py-cy
+					d := math.Sqrt(dx*dx + dy*dy)
+					if d < thr {
+						continue
+					}
+					// A vertex between two bisector edges is shared with
+					// those neighbours: emit it from the smallest vertex
+					// index only (copies that slip through are merged below).
+					prev := i - 1
+					if i == i0 {
+						prev = i1 - 1
+					}
+					if a, b := c.EdgeSource[prev], c.EdgeSource[i]; (a >= 0 && a < v) || (b >= 0 && b < v) {
+						continue
+					}
+					out = append(out, cand{px, py, d, l.Tri.Source[v], int64(math.Floor(px / tol))})
 				}
 			}
 		}
@@ -81,63 +98,71 @@ func (l *Layout) FullCover() FullCover {
 	for _, p := range parts {
 		all = append(all, p...)
 	}
-	sort.Slice(all, func(i, j int) bool {
-		if all[i].x != all[j].x {
-			return all[i].x < all[j].x
+	parts = nil
+	// Merge copies closer than tol: sorted by (x cell, y), a copy of a point
+	// is in its own x cell within tol in y, or in the previous x cell.
+	slices.SortFunc(all, func(a, b cand) int {
+		switch {
+		case a.qx != b.qx:
+			return cmp.Compare(a.qx, b.qx)
+		case a.y != b.y:
+			return cmp.Compare(a.y, b.y)
+		case a.x != b.x:
+			return cmp.Compare(a.x, b.x)
 		}
-		if all[i].y != all[j].y {
-			return all[i].y < all[j].y
-		}
-		return all[i].src < all[j].src
+		return cmp.Compare(a.src, b.src)
 	})
-	// Merge copies closer than tol, found through a hash of the points
-	// quantized to cells of side tol (a copy lies in one of the 3×3 cells
-	// around the point).
-	tol := fcTieRel * R
-	type qkey struct{ x, y int64 }
-	grid := make(map[qkey]int32, len(all))
-	var kept []cand
-	for _, p := range all {
-		qx, qy := int64(math.Floor(p.x/tol)), int64(math.Floor(p.y/tol))
-		dup := false
-		for ix := qx - 1; ix <= qx+1 && !dup; ix++ {
-			for iy := qy - 1; iy <= qy+1; iy++ {
-				k, ok := grid[qkey{ix, iy}]
-				if !ok {
-					continue
-				}
-				q := &kept[k]
-				if math.Abs(q.y-p.y) <= tol && math.Abs(q.x-p.x) <= tol {
-					if p.d > q.d {
-						q.d = p.d
-					}
-					if p.src < q.src {
-						q.src = p.src
-					}
-					dup = true
+	dup := make([]bool, len(all))
+	prevStart, curStart := 0, 0 // first index of the previous and current x cells
+	for i := range all {
+		p := &all[i]
+		if i > 0 && p.qx != all[i-1].qx {
+			if all[i-1].qx == p.qx-1 {
+				prevStart = curStart
+			} else {
+				prevStart = i
+			}
+			curStart = i
+		}
+		// Earlier points within tol: in this x cell (just before in y
+		// order) and in the previous x cell (found by binary search on y).
+		for j := i - 1; j >= curStart && p.y-all[j].y <= tol; j-- {
+			if !dup[j] && math.Abs(all[j].x-p.x) <= tol {
+				dup[i] = true
+				break
+			}
+		}
+		if !dup[i] && prevStart < curStart {
+			seg := all[prevStart:curStart]
+			j, _ := slices.BinarySearchFunc(seg, p.y-tol, func(a cand, y float64) int { return cmp.Compare(a.y, y) })
+			for ; j < len(seg) && seg[j].y <= p.y+tol; j++ {
+				if !dup[prevStart+j] && math.Abs(seg[j].x-p.x) <= tol {
+					dup[i] = true
 					break
 				}
 			}
 		}
-		if !dup {
-			grid[qkey{qx, qy}] = int32(len(kept))
-			kept = append(kept, p)
+	}
+	kept := all[:0]
+	for i := range all {
+		if !dup[i] {
+			kept = append(kept, all[i])
 		}
 	}
-	sort.SliceStable(kept, func(i, j int) bool {
-		if kept[i].d != kept[j].d {
-			return kept[i].d > kept[j].d
+	slices.SortStableFunc(kept, func(a, b cand) int {
+		switch {
+		case a.d != b.d:
+			return -cmp.Compare(a.d, b.d)
+		case a.x != b.x:
+			return cmp.Compare(a.x, b.x)
 		}
-		if kept[i].x != kept[j].x {
-			return kept[i].x < kept[j].x
-		}
-		return kept[i].y < kept[j].y
+		return cmp.Compare(a.y, b.y)
 	})
 	fc.Worst = make([]orb.Point, len(kept))
 	fc.WorstSites = make([]int, len(kept))
 	for i, p := range kept {
 		fc.Worst[i] = orb.Point{p.x, p.y}
-		fc.WorstSites[i] = p.src
+		fc.WorstSites[i] = int(p.src)
 	}
 	return fc
 }

@@ -9,8 +9,9 @@
 // D(p_j, r) and is traced, reversed, in j's piece too. Portions are compared
 // by the canonical coordinate along the bisector of the pair (the same
 // formula from both sides); two portions of the pair overlapping by more
-// than half the shorter one are the same portion (different portions of one
-// bisector, separated by the boundary of the area, overlap at most at a
+// than the rounding of that coordinate share a piece of the bisector
+// (different portions of one bisector, separated by the boundary of the
+// area or by a point where the circles touch it, overlap at most at a
 // point). Union-find over the piece components then gives the gaps.
 //
 // Per gap: the area and first moments are sums of the exact per-piece
@@ -54,7 +55,8 @@ type gapMerged struct {
 	loopElem []int32 // len = loops + 1
 	elems    []gapElem
 	portions []gapPortion
-	matched  []bool // per element: a bisector portion shared with another cell
+	matched  []bool  // per element: a bisector portion shared with another cell
+	loopNode []int32 // per loop: its node (filled by outlines)
 }
 
 var gapTracerPool = sync.Pool{New: func() any { return new(gapTracer) }}
@@ -97,7 +99,11 @@ func (l *Layout) gaps(r, chordTol float64, selfCheck bool) ([]Gap, int) {
 	})
 	m, anomalies := gapMerge(chunks)
 	chunks = nil
-	gapUnion := m.union()
+	// Portions overlapping by more than the rounding of the canonical
+	// coordinate (64 ulps of the coordinates) are the same piece of bisector.
+	b := l.Area.Bound()
+	ext := math.Max(math.Max(math.Abs(b.Min[0]), math.Abs(b.Max[0])), math.Max(math.Abs(b.Min[1]), math.Abs(b.Max[1])))
+	gapUnion := m.union(64 * 0x1p-52 * (ext + r))
 	return l.gapAssemble(m, gapUnion, r, chordTol), anomalies
 }
 
@@ -144,7 +150,7 @@ func gapMerge(chunks []gapChunk) (*gapMerged, int) {
 
 // union joins the components sharing bisector portions and returns the
 // union-find parent array (roots are their own parents, fully compressed).
-func (m *gapMerged) union() []int32 {
+func (m *gapMerged) union(tolLen float64) []int32 {
 	par := make([]int32, len(m.nodes))
 	for i := range par {
 		par[i] = int32(i)
@@ -158,13 +164,13 @@ func (m *gapMerged) union() []int32 {
 	}
 	ps := m.portions
 	slices.SortFunc(ps, func(a, b gapPortion) int {
-		switch {
-		case a.key != b.key:
-			return cmp.Compare(a.key, b.key)
-		case a.lo != b.lo:
-			return cmp.Compare(a.lo, b.lo)
+		if a.key != b.key {
+			if a.key < b.key {
+				return -1
+			}
+			return 1
 		}
-		return cmp.Compare(a.elem, b.elem)
+		return cmp.Compare(a.lo, b.lo)
 	})
 	for g0 := 0; g0 < len(ps); {
 		g1 := g0 + 1
@@ -181,8 +187,7 @@ func (m *gapMerged) union() []int32 {
 				if m.nodes[a.node].v == m.nodes[b.node].v {
 					continue
 				}
-				ov := math.Min(a.hi, b.hi) - b.lo
-				if !(ov > 0) || ov <= 0.5*math.Min(a.hi-a.lo, b.hi-b.lo) {
+				if ov := math.Min(a.hi, b.hi) - b.lo; !(ov > tolLen) {
 					continue
 				}
 				ra, rb := find(a.node), find(b.node)

@@ -33,6 +33,8 @@ type gapChain struct {
 	closed     bool  // the whole loop, nothing removed
 	sKey, eKey uint64
 	sTau, eTau float64
+	sx, sy     float64 // start point (first element's start)
+	ex, ey     float64 // end point (start of the removed element after it)
 	next       int32
 	seen       bool
 }
@@ -63,6 +65,7 @@ func gapTau(l *Layout, v, j int32, x, y float64) (uint64, float64) {
 func (m *gapMerged) outlines(l *Layout, gapOf []int32, ng int, r, tol float64) []orb.MultiPolygon {
 	nLoops := len(m.loopElem) - 1
 	loopNode := make([]int32, nLoops)
+	m.loopNode = loopNode
 	for i := range m.nodes {
 		for lp := m.nodes[i].loop0; lp < m.nodes[i].loop1; lp++ {
 			loopNode[lp] = int32(i)
@@ -109,64 +112,14 @@ func (m *gapMerged) outlines(l *Layout, gapOf []int32, ng int, r, tol float64) [
 			pe := &m.elems[e0+((s-1)%n+n)%n]
 			fe := &m.elems[e0+s%n]
 			ge := &m.elems[e0+k%n]
-			ch := gapChain{gap: g, loop: int32(lp), first: e0 + s%n, n: k - s, next: -1}
+			ch := gapChain{gap: g, loop: int32(lp), first: e0 + s%n, n: k - s, next: -1,
+				sx: fe.x, sy: fe.y, ex: ge.x, ey: ge.y}
 			ch.sKey, ch.sTau = gapTau(l, nd.v, pe.kind, fe.x, fe.y)
 			ch.eKey, ch.eTau = gapTau(l, nd.v, ge.kind, ge.x, ge.y)
 			chains = append(chains, ch)
 		}
 	}
-	// Link each chain end to the nearest unused chain start on the same
-	// bisector of the same gap.
-	type startRec struct {
-		gap   int32
-		chain int32
-		key   uint64
-		tau   float64
-	}
-	cmpRec := func(a, b startRec) int {
-		switch {
-		case a.gap != b.gap:
-			return cmp.Compare(a.gap, b.gap)
-		case a.key != b.key:
-			return cmp.Compare(a.key, b.key)
-		}
-		return cmp.Compare(a.tau, b.tau)
-	}
-	starts := make([]startRec, 0, len(chains))
-	for i := range chains {
-		if c := &chains[i]; !c.closed {
-			starts = append(starts, startRec{c.gap, int32(i), c.sKey, c.sTau})
-		}
-	}
-	slices.SortFunc(starts, cmpRec)
-	used := make([]bool, len(starts))
-	for i := range chains {
-		c := &chains[i]
-		if c.closed {
-			continue
-		}
-		want := startRec{gap: c.gap, key: c.eKey, tau: c.eTau}
-		pos, _ := slices.BinarySearchFunc(starts, want, cmpRec)
-		best, bestD := -1, math.Inf(1)
-		for q := pos; q < len(starts) && starts[q].gap == c.gap && starts[q].key == c.eKey; q++ {
-			if !used[q] {
-				best, bestD = q, math.Abs(starts[q].tau-c.eTau)
-				break
-			}
-		}
-		for q := pos - 1; q >= 0 && starts[q].gap == c.gap && starts[q].key == c.eKey; q-- {
-			if !used[q] {
-				if d := math.Abs(starts[q].tau - c.eTau); d < bestD {
-					best = q
-				}
-				break
-			}
-		}
-		if best >= 0 {
-			used[best] = true
-			c.next = starts[best].chain
-		}
-	}
+	m.linkChains(l, chains, r)
 	// Follow the links into rings.
 	alpha := 2 * math.Acos(1-math.Min(tol, 1))
 	rings := make([][]orb.Ring, ng)
@@ -197,6 +150,162 @@ func (m *gapMerged) outlines(l *Layout, gapOf []int32, ng int, r, tol float64) [
 		out[g] = gapPolygons(rings[g])
 	}
 	return out
+}
+
+// linkChains links each chain end to the chain start at the same point of
+// the same gap: among the unused starts within tol (1e-7 r plus 1e-12 of
+// the coordinates, far above the rounding of points computed in two cells)
+// the one on the same bisector first, then the nearest. Where none is that
+// close (a crossing of a circle with a nearly tangent bisector is computed
+// less precisely), the nearest start along the same bisector is taken.
+func (m *gapMerged) linkChains(l *Layout, chains []gapChain, r float64) {
+	b := l.Area.Bound()
+	ext := math.Max(math.Max(math.Abs(b.Min[0]), math.Abs(b.Max[0])), math.Max(math.Abs(b.Min[1]), math.Abs(b.Max[1])))
+	tol := 1e-7*r + 1e-12*ext
+	if !(tol > 0) {
+		tol = math.SmallestNonzeroFloat64
+	}
+	// Starts sorted by (gap, x cell of side tol, y): the starts within tol of
+	// a point are in three x cells, each searched by y.
+	type startPos struct {
+		gap   int32
+		chain int32
+		qx    int64
+		y     float64
+	}
+	cmpPos := func(a, b startPos) int {
+		switch {
+		case a.gap != b.gap:
+			return cmp.Compare(a.gap, b.gap)
+		case a.qx != b.qx:
+			return cmp.Compare(a.qx, b.qx)
+		}
+		return cmp.Compare(a.y, b.y)
+	}
+	var pos []startPos
+	for i := range chains {
+		if c := &chains[i]; !c.closed {
+			pos = append(pos, startPos{c.gap, int32(i), int64(math.Floor(c.sx / tol)), c.sy})
+		}
+	}
+	slices.SortFunc(pos, cmpPos)
+	type startRec struct {
+		gap   int32
+		chain int32
+		key   uint64
+		tau   float64
+	}
+	cmpRec := func(a, b startRec) int {
+		switch {
+		case a.gap != b.gap:
+			return cmp.Compare(a.gap, b.gap)
+		case a.key != b.key:
+			return cmp.Compare(a.key, b.key)
+		}
+		return cmp.Compare(a.tau, b.tau)
+	}
+	var starts []startRec // by bisector, built when first needed
+	used := make([]bool, len(chains))
+	var cand []int32
+	for i := range chains {
+		c := &chains[i]
+		if c.closed {
+			continue
+		}
+		best, bestD := int32(-1), math.Inf(1)
+		cand = cand[:0]
+		qx := int64(math.Floor(c.ex / tol))
+		for ix := qx - 1; ix <= qx+1; ix++ {
+			// First start not before (gap, ix, ey − tol).
+			k, hi := 0, len(pos)
+			for k < hi {
+				h := int(uint(k+hi) >> 1)
+				p := &pos[h]
+				if p.gap < c.gap || p.gap == c.gap && (p.qx < ix || p.qx == ix && p.y < c.ey-tol) {
+					k = h + 1
+				} else {
+					hi = h
+				}
+			}
+			for ; k < len(pos) && pos[k].gap == c.gap && pos[k].qx == ix && pos[k].y <= c.ey+tol; k++ {
+				j := pos[k].chain
+				if !used[j] && math.Abs(chains[j].sx-c.ex) <= tol {
+					cand = append(cand, j)
+				}
+			}
+		}
+		switch len(cand) {
+		case 0:
+		case 1:
+			best = cand[0]
+		default:
+			// Several boundary strands meet at this point (the gap touches
+			// itself there): turn most to the left, hugging the gap, so
+			// that the rings do not cross.
+			ix, iy := m.chainDir(l, c, false)
+			bestA := math.Inf(-1)
+			for _, j := range cand {
+				ox, oy := m.chainDir(l, &chains[j], true)
+				if a := math.Atan2(ix*oy-iy*ox, ix*ox+iy*oy); a > bestA {
+					best, bestA = j, a
+				}
+			}
+		}
+		if best < 0 {
+			if starts == nil {
+				starts = make([]startRec, 0, len(chains))
+				for q := range chains {
+					if s := &chains[q]; !s.closed {
+						starts = append(starts, startRec{s.gap, int32(q), s.sKey, s.sTau})
+					}
+				}
+				slices.SortFunc(starts, cmpRec)
+			}
+			want := startRec{gap: c.gap, key: c.eKey, tau: c.eTau}
+			at, _ := slices.BinarySearchFunc(starts, want, cmpRec)
+			for q := at; q < len(starts) && starts[q].gap == c.gap && starts[q].key == c.eKey; q++ {
+				if !used[starts[q].chain] {
+					best, bestD = starts[q].chain, math.Abs(starts[q].tau-c.eTau)
+					break
+				}
+			}
+			for q := at - 1; q >= 0 && starts[q].gap == c.gap && starts[q].key == c.eKey; q-- {
+				if !used[starts[q].chain] {
+					if d := math.Abs(starts[q].tau - c.eTau); d < bestD {
+						best = starts[q].chain
+					}
+					break
+				}
+			}
+		}
+		if best >= 0 {
+			used[best] = true
+			c.next = best
+		}
+	}
+}
+
+// chainDir returns the direction in which chain c leaves its start point
+// (start true) or arrives at its end point: along a segment, or along the
+// clockwise tangent of an arc.
+func (m *gapMerged) chainDir(l *Layout, c *gapChain, start bool) (float64, float64) {
+	e0, e1 := m.loopElem[c.loop], m.loopElem[c.loop+1]
+	n := e1 - e0
+	k := c.first - e0
+	if !start {
+		k = (k + c.n - 1) % n
+	}
+	el := &m.elems[e0+k]
+	nx := &m.elems[e0+(k+1)%n]
+	if el.kind != gapArc {
+		return nx.x - el.x, nx.y - el.y
+	}
+	cx, cy := l.site(m.nodes[m.loopNode[c.loop]].v)
+	px, py := el.x, el.y
+	if !start {
+		px, py = nx.x, nx.y
+	}
+	return py - cy, -(px - cx)
 }
 
 // chainPoints appends the points of chain c: each element's start, and the

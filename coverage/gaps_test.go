@@ -509,3 +509,68 @@ func TestGapsNaN(t *testing.T) {
 	}
 	_ = planar.BoundaryEdge
 }
+
+// Degenerate layouts in bulk: sites on ring vertices and edges, on a coarse
+// grid, duplicated, outside the area and inside holes; areas whose corners
+// lie on grid points; ranges equal to vertex distances and to grid
+// distances (tangent and cocircular configurations). Every piece must pass
+// the exact self-check and every gap the invariants of gapsCheck.
+func TestGapsDegenerateLayouts(t *testing.T) {
+	lshape := []orb.Point{{0, 0}, {400, 0}, {400, 250}, {250, 250}, {250, 400}, {0, 400}}
+	hole := []orb.Point{{80, 80}, {80, 160}, {160, 160}, {160, 80}}
+	hole2 := []orb.Point{{300, 50}, {290, 120}, {350, 140}, {370, 60}}
+	reg := cvRegion(t, [][]orb.Point{lshape, hole, hole2})
+	verts := append(append(append([]orb.Point{}, lshape...), hole...), hole2...)
+	rng := rand.New(rand.NewPCG(109, 1))
+	for trial := 0; trial < 60; trial++ {
+		var sites []orb.Point
+		n := 5 + rng.IntN(60)
+		for i := 0; i < n; i++ {
+			switch rng.IntN(4) {
+			case 0:
+				sites = append(sites, verts[rng.IntN(len(verts))])
+			case 1:
+				k := rng.IntN(len(lshape))
+				a, b := lshape[k], lshape[(k+1)%len(lshape)]
+				u := float64(rng.IntN(8)) / 8
+				sites = append(sites, orb.Point{a[0] + u*(b[0]-a[0]), a[1] + u*(b[1]-a[1])})
+			case 2:
+				sites = append(sites, orb.Point{float64(rng.IntN(9)) * 50, float64(rng.IntN(9)) * 50})
+			default:
+				sites = append(sites, orb.Point{rng.Float64()*440 - 20, rng.Float64()*440 - 20})
+			}
+		}
+		l := cvLayout(t, sites, reg)
+		full := l.FullCover().Range
+		rs := []float64{full * 0.1, full * 0.5, full * 0.9, 10, 25, 50, 25 * math.Sqrt2, 50 * math.Sqrt2}
+		for _, sa := range l.ServiceAreas() {
+			if sa.Farthest > 0 {
+				rs = append(rs, sa.Farthest)
+			}
+		}
+		for _, r := range rs {
+			gapsCheck(t, fmt.Sprint("degenerate ", trial), l, r)
+		}
+	}
+	// Grids with random holes in the site set, over areas with corners on
+	// grid and half-grid points and a triangular exclusion zone.
+	for trial := 0; trial < 40; trial++ {
+		var sites []orb.Point
+		for i := 0; i < 12; i++ {
+			for j := 0; j < 12; j++ {
+				if rng.IntN(3) > 0 {
+					sites = append(sites, orb.Point{float64(i) * 10, float64(j) * 10})
+				}
+			}
+		}
+		q := func() float64 { return float64(rng.IntN(23)) * 5 }
+		x0, y0 := q()/2, q()/2
+		x1, y1 := x0+30+q(), y0+30+q()
+		ext := []orb.Point{{x0, y0}, {x1, y0}, {x1, y1}, {(x0 + x1) / 2, (y0 + y1) / 2}, {x0, y1}}
+		tri := []orb.Point{{x0 + 5, y0 + 5}, {x0 + 5, y0 + 15}, {x0 + 15, y0 + 10}}
+		l := cvLayout(t, sites, cvRegion(t, [][]orb.Point{ext, tri}))
+		for _, r := range []float64{2.5, 5, 5 * math.Sqrt2, 7, 10, 5 * math.Sqrt(5), 15} {
+			gapsCheck(t, fmt.Sprint("grid ", trial), l, r)
+		}
+	}
+}

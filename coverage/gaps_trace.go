@@ -20,18 +20,24 @@
 // counter-clockwise about c) ring order is angular order, and each run from
 // an exit to the next entry closes with the arc from that entry back to its
 // exit: one component per run, no sorting. Otherwise crossings are sorted by
-// angle; the angles are accumulated along each ring from sub-segment angles
-// atan2((t_q − t_p)(a × b), p · q), whose signs are exact functions of the
-// edge's turning sense, in double-double arithmetic, starting after the
-// largest angular gap, so crossings adjacent along a ring keep their exact
-// relative order. Exact ties (a ring vertex on the circle, an edge tangent
-// to it) are broken by the symbolic perturbation that grows the disk: at a
-// vertex b the crossing on the edge (b, e) follows the one on (a, b) by
-// (η/r)(K_be − K_ab), K = (b × d)/(b · d) for edge direction d, η = +1 for
-// b on or inside the circle and −1 outside; on a tangent edge the exit
-// follows the entry in the edge's turning sense. Vertices within 1e-12
-// relative of the circle are snapped onto it, and their crossing parameters
-// are the exact roots t = 0 (or 1) and t = −2 (a·d)/(d·d).
+// angle: atan2 of each crossing point, except along chains of crossings that
+// follow each other closely on a ring (total angle variation of the ring
+// portion between them below 1e-3), where each angle is the previous one
+// plus the portion's angle, summed in double-double arithmetic from
+// sub-segment angles atan2((t_q − t_p)(a × b), p · q), whose signs are exact
+// functions of the edge's turning sense; so crossings close along a ring
+// keep their exact relative order. Exact ties (a ring vertex on the circle,
+// an edge tangent to it) are broken by the symbolic perturbation that grows
+// the disk: at a vertex b the crossing on the edge (b, e) follows the one on
+// (a, b) by (η/r)(K_be − K_ab), K = (b × d)/(b · d) for edge direction d
+// (±∞ on an edge tangent at b, where the crossing moves by the square root
+// of the perturbation), η = +1 for b on or inside the circle and −1
+// outside; on an edge tangent at an interior point the exit follows the
+// entry in the edge's turning sense. Vertices within 1e-12 relative of the
+// circle are snapped onto it, and their crossing parameters are the exact
+// roots t = 0 (or 1) and t = −2 (a·d)/(d·d). A portion through the site
+// itself (a site on its piece's boundary) has no defined angle and never
+// links crossings.
 //
 // Areas and first moments come from the fan about c: a segment p→q adds
 // ½ p×q and (p+q)(p×q)/6, an arc from E clockwise through φ to X adds
@@ -95,7 +101,7 @@ type gapCross struct {
 	x, y   float64 // position relative to the site
 	exit   bool
 	hi, lo float64 // angle, double-double
-	tie    int32   // symbolic tie rank at equal angles
+	key2   float64 // symbolic perturbation offset, ordering equal angles
 	pos    int32   // position in angular order
 	next   int32   // next crossing along the ring
 	pred   int32   // entries: the exit where the arc from this entry ends
@@ -315,7 +321,45 @@ func clamp01(s float64) float64 {
 
 func (t *gapTracer) addCross(ring, edge int32, s float64, exit bool) {
 	x, y := t.pt(edge, s)
-	t.xs = append(t.xs, gapCross{ring: ring, edge: edge, t: s, x: x, y: y, exit: exit, pred: -1})
+	t.xs = append(t.xs, gapCross{ring: ring, edge: edge, t: s, x: x, y: y, exit: exit, pred: -1, key2: t.perturbation(edge, s, exit)})
+}
+
+// perturbation returns the first-order angular motion of a crossing when
+// the disk grows (times r), the tie-break between crossings at the same
+// point: K = (b × d)/(b · d) for a crossing at a snapped vertex b on an edge
+// of direction d (the incoming edge's crossing moves back along it, the
+// outgoing edge's forward); ∓∞·sign(b × d) on an edge tangent at b, where
+// the motion is of the order of the square root of the perturbation; and
+// ∓huge·sign(a × b) for the entry and exit of an edge tangent at an interior
+// point (the exit follows the entry in the edge's turning sense). Other
+// crossings are not at a shared point: 0.
+func (t *gapTracer) perturbation(edge int32, s float64, exit bool) float64 {
+	n := t.nextPt[edge]
+	var b int32
+	switch {
+	case s == 1 && t.snap[n]:
+		b = n
+	case s == 0 && t.snap[edge]:
+		b = edge
+	default:
+		// A tangent dip has its entry and exit at the same parameter.
+		if k := len(t.xs); exit && k > 0 && t.xs[k-1].edge == edge && t.xs[k-1].t == s && !t.xs[k-1].exit {
+			t.xs[k-1].key2 = -sgn(t.cr[edge]) * 1e300
+			return sgn(t.cr[edge]) * 1e300
+		}
+		return 0
+	}
+	bx, by := t.px[b], t.py[b]
+	dx, dy := t.px[n]-t.px[edge], t.py[n]-t.py[edge]
+	cr, dot := bx*dy-by*dx, bx*dx+by*dy
+	incoming := b == n
+	if dot == 0 {
+		if incoming {
+			return -sgn(cr) * math.Inf(1)
+		}
+		return sgn(cr) * math.Inf(1)
+	}
+	return cr / dot
 }
 
 // newLoop starts a loop.
@@ -506,12 +550,11 @@ func ddReduce(hi, lo float64) (float64, float64) {
 }
 
 // gapDelta is the angle subtended by the ring portion between consecutive
-// crossings, and its symbolic sign when it is exactly zero.
+// crossings.
 type gapDelta struct {
 	hi, lo  float64
-	zero    bool
-	sigma   int32
-	through bool // the portion passes through the site: no defined angle
+	tv      float64 // total variation: sum of the absolute sub-segment angles
+	through bool    // the portion passes through the site: no defined angle
 }
 
 // delta measures the ring portion from crossing a to crossing b = next(a).
@@ -519,7 +562,7 @@ func (t *gapTracer) delta(a, b int32) gapDelta {
 	A, B := &t.xs[a], &t.xs[b]
 	e, s := A.edge, A.t
 	around := A.edge == B.edge && (b <= a || B.t < A.t)
-	var hi, lo float64
+	var hi, lo, tv float64
 	through := false
 	for {
 		s1 := 1.0
@@ -534,7 +577,9 @@ func (t *gapTracer) delta(a, b int32) gapDelta {
 			if w == 0 && dot <= 0 {
 				through = true
 			}
-			hi, lo = ddAdd(hi, lo, math.Atan2(w, dot))
+			a := math.Atan2(w, dot)
+			hi, lo = ddAdd(hi, lo, a)
+			tv += math.Abs(a)
 		}
 		if last {
 			break
@@ -543,39 +588,16 @@ func (t *gapTracer) delta(a, b int32) gapDelta {
 		s = 0
 		around = false
 	}
-	d := gapDelta{hi: hi, lo: lo, through: through}
-	if hi != 0 || lo != 0 || through {
-		return d
-	}
-	d.zero = true
-	switch {
-	case A.edge == B.edge && A.t == B.t:
-		// Tangent edge: the later crossing follows in the edge's turning sense.
-		d.sigma = int32(sgn(t.cr[A.edge]))
-	case A.t == 1 && B.t == 0 && t.nextPt[A.edge] == B.edge:
-		b := B.edge
-		bx, by := t.px[b], t.py[b]
-		k := func(e int32) float64 {
-			n := t.nextPt[e]
-			dx, dy := t.px[n]-t.px[e], t.py[n]-t.py[e]
-			return (bx*dy - by*dx) / (bx*dx + by*dy)
-		}
-		eta := 1.0
-		if t.out[b] {
-			eta = -1
-		}
-		d.sigma = int32(sgn(eta * (k(B.edge) - k(A.edge))))
-	}
-	return d
+	return gapDelta{hi: hi, lo: lo, tv: tv, through: through}
 }
 
-// gapChainAngle is the largest portion angle (radians) across which the
-// angle of a crossing is carried from the previous one.
+// gapChainAngle is the largest portion angle (radians, total variation)
+// across which the angle of a crossing is carried from the previous one.
 const gapChainAngle = 1e-3
 
 // linked reports whether the next crossing's angle is carried from this
 // one's.
-func (d gapDelta) linked() bool { return !d.through && math.Abs(d.hi) < gapChainAngle }
+func (d gapDelta) linked() bool { return !d.through && d.tv < gapChainAngle }
 
 func sgn(x float64) float64 {
 	switch {
@@ -608,11 +630,11 @@ func (t *gapTracer) traceGeneral() bool {
 			d := t.delta(int32(k0+j), t.xs[k0+j].next)
 			deltas = append(deltas, d)
 			X := &t.xs[k0+j]
-			X.hi, X.lo, X.tie = math.Atan2(X.y, X.x), 0, 0
+			X.hi, X.lo = math.Atan2(X.y, X.x), 0
 			if d.linked() {
 				nLinks++
-				if a := math.Abs(d.hi); a > bestAbs {
-					best, bestAbs = j, a
+				if d.tv > bestAbs {
+					best, bestAbs = j, d.tv
 				}
 			}
 		}
@@ -627,9 +649,6 @@ func (t *gapTracer) traceGeneral() bool {
 				nx := (cur + 1) % m
 				P, C, d := &t.xs[k0+cur], &t.xs[k0+nx], deltas[cur]
 				C.hi, C.lo = ddAddDD(P.hi, P.lo, d.hi, d.lo)
-				if d.zero {
-					C.tie = P.tie + d.sigma
-				}
 			}
 		}
 		for j := k0; j < k1; j++ {
@@ -652,8 +671,8 @@ func (t *gapTracer) traceGeneral() bool {
 		if a.lo != b.lo {
 			return a.lo < b.lo
 		}
-		if a.tie != b.tie {
-			return a.tie < b.tie
+		if a.key2 != b.key2 {
+			return a.key2 < b.key2
 		}
 		return t.sorted[i] < t.sorted[j]
 	})
