@@ -1013,7 +1013,7 @@ func (w *clipWork) wholeCell(v int32, out *clipOut) {
 }
 
 // interleave writes x and y interleaved into *buf and returns it.
-func interleave(x, y []float64, buf *[]float64) []float64 {
+func clipInterleave(x, y []float64, buf *[]float64) []float64 {
 	b := (*buf)[:0]
 	for i := range x {
 		b = append(b, x[i], y[i])
@@ -1496,7 +1496,7 @@ func (w *clipWork) traceRings(v int32, bounded bool) {
 			xy := c.r.XY
 			o = Orient2D(xy[2*a], xy[2*a+1], xy[2*vtx], xy[2*vtx+1], xy[2*b], xy[2*b+1])
 		} else {
-			o = clipShoelace(interleave(w.cx[ch.p0:ch.p1], w.cy[ch.p0:ch.p1], &w.tmp), px, py)
+			o = clipShoelace(clipInterleave(w.cx[ch.p0:ch.p1], w.cy[ch.p0:ch.p1], &w.tmp), px, py)
 		}
 		// Enforce the order (a tie in the computed positions is a
 		// rounding artefact here, not a shared point to perturb).

@@ -3,7 +3,7 @@
 // against fixed site areas whose vertices and edges lie on lattice lines,
 // hence often exactly on bisectors and Voronoi vertices. The checks are
 // the partition identity (clipped areas sum to the area), the structure
-// checks of checkCells and the absence of inconsistent boundary orders.
+// checks of clipCheckCells and the absence of inconsistent boundary orders.
 
 package planar
 
@@ -83,6 +83,6 @@ func FuzzClipCells(f *testing.F) {
 		if math.Abs(sum-reg.Area()) > 1e-9*reg.Area() {
 			t.Errorf("areas sum to %.15g, region %.15g", sum, reg.Area())
 		}
-		checkCells(t, tri, reg, cells)
+		clipCheckCells(t, tri, reg, cells)
 	})
 }

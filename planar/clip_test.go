@@ -48,7 +48,7 @@ type clipRef struct {
 	} `json:"disk"`
 }
 
-func loadClipRef(t *testing.T, path string) *clipRef {
+func clipLoadRef(t *testing.T, path string) *clipRef {
 	t.Helper()
 	b, err := os.ReadFile(path)
 	if err != nil {
@@ -65,52 +65,52 @@ func loadClipRef(t *testing.T, path string) *clipRef {
 }
 
 var (
-	liveOnce sync.Once
-	liveRef  *clipRef
-	liveErr  string
+	clipLiveOnce sync.Once
+	clipLiveRef  *clipRef
+	clipLiveErr  string
 )
 
-// runRefScript runs ref_cells.py once per test binary with a fresh seed
+// clipRunRefScript runs ref_cells.py once per test binary with a fresh seed
 // (SITECOVER_LIVE only) and shares the result between the live tests.
-func runRefScript(t *testing.T) *clipRef {
+func clipRunRefScript(t *testing.T) *clipRef {
 	t.Helper()
 	if os.Getenv("SITECOVER_LIVE") != "1" {
 		t.Skip("set SITECOVER_LIVE=1 to re-run testdata/ref_cells.py (GEOS via Debian python3-shapely) on a fresh seed")
 	}
-	liveOnce.Do(func() {
+	clipLiveOnce.Do(func() {
 		seed := time.Now().UnixNano() % 1000000007
 		dir, err := os.MkdirTemp("", "sitecover-cells")
 		if err != nil {
-			liveErr = err.Error()
+			clipLiveErr = err.Error()
 			return
 		}
 		defer os.RemoveAll(dir)
 		out := filepath.Join(dir, "cells.json")
 		cmd := exec.Command("/usr/bin/python3", "testdata/ref_cells.py", "--seed", strconv.FormatInt(seed, 10), "--out", out)
 		if msg, err := cmd.CombinedOutput(); err != nil {
-			liveErr = fmt.Sprintf("ref_cells.py --seed %d: %v\n%s", seed, err, msg)
+			clipLiveErr = fmt.Sprintf("ref_cells.py --seed %d: %v\n%s", seed, err, msg)
 			return
 		}
 		b, err := os.ReadFile(out)
 		if err != nil {
-			liveErr = err.Error()
+			clipLiveErr = err.Error()
 			return
 		}
 		var ref clipRef
 		if err := json.Unmarshal(b, &ref); err != nil {
-			liveErr = err.Error()
+			clipLiveErr = err.Error()
 			return
 		}
-		liveRef = &ref
+		clipLiveRef = &ref
 	})
-	if liveRef == nil {
-		t.Fatal(liveErr)
+	if clipLiveRef == nil {
+		t.Fatal(clipLiveErr)
 	}
-	t.Logf("live reference seed %d", liveRef.Seed)
-	return liveRef
+	t.Logf("live reference seed %d", clipLiveRef.Seed)
+	return clipLiveRef
 }
 
-func refMultiPolygon(rg [][][][2]float64) orb.MultiPolygon {
+func clipRefMultiPolygon(rg [][][][2]float64) orb.MultiPolygon {
 	mp := make(orb.MultiPolygon, len(rg))
 	for p, poly := range rg {
 		for _, ring := range poly {
@@ -125,17 +125,17 @@ func refMultiPolygon(rg [][][][2]float64) orb.MultiPolygon {
 }
 
 func TestClipCellsGEOS(t *testing.T) {
-	checkClipRef(t, loadClipRef(t, "testdata/cells_ref.json"))
+	checkClipRef(t, clipLoadRef(t, "testdata/cells_ref.json"))
 }
 
 func TestClipCellsGEOSLive(t *testing.T) {
-	checkClipRef(t, runRefScript(t))
+	checkClipRef(t, clipRunRefScript(t))
 }
 
 func checkClipRef(t *testing.T, ref *clipRef) {
 	for _, cs := range ref.Cells {
 		t.Run(cs.Name, func(t *testing.T) {
-			reg, err := NewRegion(refMultiPolygon(cs.Region))
+			reg, err := NewRegion(clipRefMultiPolygon(cs.Region))
 			if err != nil {
 				t.Fatal(err)
 			}
@@ -174,17 +174,17 @@ func checkClipRef(t *testing.T, ref *clipRef) {
 						pts[tri.Source[v]][0], pts[tri.Source[v]][1], got, *want, got-*want)
 				}
 			}
-			checkCells(t, tri, reg, cells)
+			clipCheckCells(t, tri, reg, cells)
 		})
 	}
 }
 
-// checkCells checks the structure of a Cells value: ring orientation and
+// clipCheckCells checks the structure of a Cells value: ring orientation and
 // size, areas equal to the rings' shoelace sums and summing to the area of
 // the region (Voronoi cells partition the plane), labels valid and
 // consistent between neighbours, and every point close to its own site no
 // farther than to the labelled neighbour.
-func checkCells(t *testing.T, tri *Triangulation, reg *Region, c *Cells) {
+func clipCheckCells(t *testing.T, tri *Triangulation, reg *Region, c *Cells) {
 	t.Helper()
 	nv := tri.NumVertices()
 	if c.NumSites() != nv || len(c.Area) != nv {
@@ -278,7 +278,7 @@ func checkCells(t *testing.T, tri *Triangulation, reg *Region, c *Cells) {
 			for _, p := range [][2]float64{{e.x0, e.y0}, {e.x1, e.y1}, {(e.x0 + e.x1) / 2, (e.y0 + e.y1) / 2}} {
 				near := false
 				for _, f := range back {
-					if segDist(p[0], p[1], f.x0, f.y0, f.x1, f.y1) <= tol {
+					if clipSegDist(p[0], p[1], f.x0, f.y0, f.x1, f.y1) <= tol {
 						near = true
 						break
 					}
@@ -292,8 +292,8 @@ func checkCells(t *testing.T, tri *Triangulation, reg *Region, c *Cells) {
 	}
 }
 
-// segDist is the distance from p to the segment ab.
-func segDist(px, py, ax, ay, bx, by float64) float64 {
+// clipSegDist is the distance from p to the segment ab.
+func clipSegDist(px, py, ax, ay, bx, by float64) float64 {
 	dx, dy := bx-ax, by-ay
 	t := 0.0
 	if l := dx*dx + dy*dy; l > 0 {
@@ -380,7 +380,7 @@ func TestClipCellsPartition(t *testing.T) {
 				if st.anomalies != 0 {
 					t.Errorf("workers %d: %d inconsistent boundary orders", workers, st.anomalies)
 				}
-				checkCells(t, tri, reg, cells)
+				clipCheckCells(t, tri, reg, cells)
 			}
 		})
 	}
@@ -464,7 +464,7 @@ func TestClipCellsGridExact(t *testing.T) {
 			}
 		}
 	}
-	checkCells(t, tri, reg, cells)
+	clipCheckCells(t, tri, reg, cells)
 }
 
 // TestClipCellsSingleSite checks that one site's cell is the whole area,
@@ -554,7 +554,7 @@ func TestClipCellsDegenerate(t *testing.T) {
 					t.Errorf("site %v: area %.17g, want %g", sites[i], cells.Area[v], w)
 				}
 			}
-			checkCells(t, tri, reg, cells)
+			clipCheckCells(t, tri, reg, cells)
 		})
 	}
 }

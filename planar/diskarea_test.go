@@ -21,16 +21,16 @@ func diskPolygon(cx, cy, r float64, n int, scale float64) []float64 {
 	return ring
 }
 
-func squareRing(x0, y0, x1, y1 float64) []float64 {
+func diskSquareRing(x0, y0, x1, y1 float64) []float64 {
 	return []float64{x0, y0, x1, y0, x1, y1, x0, y1}
 }
 
 func TestRingDiskAreaGEOS(t *testing.T) {
-	checkDiskRef(t, loadClipRef(t, "testdata/cells_ref.json"))
+	checkDiskRef(t, clipLoadRef(t, "testdata/cells_ref.json"))
 }
 
 func TestRingDiskAreaGEOSLive(t *testing.T) {
-	checkDiskRef(t, runRefScript(t))
+	checkDiskRef(t, clipRunRefScript(t))
 }
 
 func checkDiskRef(t *testing.T, ref *clipRef) {
@@ -54,12 +54,12 @@ func checkDiskRef(t *testing.T, ref *clipRef) {
 	}
 }
 
-// lensArea is the area of intersection of two disks of radii r1, r2 whose
+// diskLensArea is the area of intersection of two disks of radii r1, r2 whose
 // centres are d apart. Reference: the circle–circle intersection formula
 // (e.g. Weisstein, "Circle-Circle Intersection", MathWorld; any geometry
 // handbook): r1² acos((d²+r1²−r2²)/(2dr1)) + r2² acos((d²+r2²−r1²)/(2dr2))
 // − ½ √((−d+r1+r2)(d+r1−r2)(d−r1+r2)(d+r1+r2)).
-func lensArea(r1, r2, d float64) float64 {
+func diskLensArea(r1, r2, d float64) float64 {
 	if d >= r1+r2 {
 		return 0
 	}
@@ -82,7 +82,7 @@ func TestRingDiskAreaLens(t *testing.T) {
 		// Disk 2 centred at (d, 0) approximated from inside and outside.
 		in := RingDiskArea(diskPolygon(c.d, 0, c.r2, n, 1), 0, 0, c.r1)
 		out := RingDiskArea(diskPolygon(c.d, 0, c.r2, n, 1/math.Cos(math.Pi/n)), 0, 0, c.r1)
-		want := lensArea(c.r1, c.r2, c.d)
+		want := diskLensArea(c.r1, c.r2, c.d)
 		slack := 1e-13 * math.Max(1, want)
 		if !(in-slack <= want && want <= out+slack) {
 			t.Errorf("r1=%g r2=%g d=%g: lens %.15g not in [%.15g, %.15g]", c.r1, c.r2, c.d, want, in, out)
@@ -90,11 +90,11 @@ func TestRingDiskAreaLens(t *testing.T) {
 	}
 }
 
-// squareDisk is the area of the disk of radius r centred in the square of
+// diskSquareArea is the area of the disk of radius r centred in the square of
 // half-side a. Reference (textbook geometry): for a < r < a√2 each side cuts
 // off a circular segment of half-angle φ = acos(a/r), area r²(φ − sin φ cos φ),
 // and the four segments are disjoint, so the area is πr² − 4r²(φ − sin φ cos φ).
-func squareDisk(a, r float64) float64 {
+func diskSquareArea(a, r float64) float64 {
 	switch {
 	case r <= a:
 		return math.Pi * r * r
@@ -107,10 +107,10 @@ func squareDisk(a, r float64) float64 {
 
 func TestRingDiskAreaSquare(t *testing.T) {
 	a := 3.0
-	ring := squareRing(-a, -a, a, a)
+	ring := diskSquareRing(-a, -a, a, a)
 	for _, r := range []float64{0.5, 2.9, 3, 3 + 1e-9, 3.5, 4, 4.2, 3 * math.Sqrt2, 3*math.Sqrt2 + 1e-9, 5, 100} {
 		got := RingDiskArea(ring, 0, 0, r)
-		want := squareDisk(a, r)
+		want := diskSquareArea(a, r)
 		if math.Abs(got-want) > 1e-13*want {
 			t.Errorf("r=%.17g: area %.17g, closed form %.17g (rel %.3g)", r, got, want, (got-want)/want)
 		}
@@ -124,7 +124,7 @@ func TestRingDiskAreaSegment(t *testing.T) {
 	// large square.
 	r := 2.5
 	for _, h := range []float64{0, 0.5, 1.25, 2.4, 2.4999999, -0.7, -2.3, 2.5, 3} {
-		ring := squareRing(-100, h, 100, 200)
+		ring := diskSquareRing(-100, h, 100, 200)
 		got := RingDiskArea(ring, 0, 0, r)
 		want := 0.0
 		if h < r {
@@ -140,7 +140,7 @@ func TestRingDiskAreaSegment(t *testing.T) {
 }
 
 func TestRingDiskAreaSpecial(t *testing.T) {
-	sq := squareRing(0, 0, 10, 10)
+	sq := diskSquareRing(0, 0, 10, 10)
 	cw := []float64{0, 0, 0, 10, 10, 10, 10, 0}
 	tests := []struct {
 		name           string
@@ -231,7 +231,7 @@ func TestRegionDiskArea(t *testing.T) {
 		// A disk centred in the hole, radius between the hole's half-side
 		// and its half-diagonal, cut by the hole: disk minus (square ∩
 		// disk), with the square closed form of TestRingDiskAreaSquare.
-		{"straddles-hole", 5, 5, 2.5, math.Pi*6.25 - squareDisk(2, 2.5)},
+		{"straddles-hole", 5, 5, 2.5, math.Pi*6.25 - diskSquareArea(2, 2.5)},
 	}
 	for _, tc := range tests {
 		got := reg.DiskArea(tc.cx, tc.cy, tc.r)

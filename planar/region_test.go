@@ -13,7 +13,7 @@ import (
 	"github.com/paulmach/orb"
 )
 
-func ringOf(pts ...[2]float64) orb.Ring {
+func regionTestRing(pts ...[2]float64) orb.Ring {
 	r := make(orb.Ring, len(pts))
 	for i, p := range pts {
 		r[i] = orb.Point{p[0], p[1]}
@@ -25,8 +25,8 @@ func TestNewRegionNormalises(t *testing.T) {
 	// Exterior given clockwise and closed, with a repeated vertex; hole
 	// given counter-clockwise and open.
 	mp := orb.MultiPolygon{{
-		ringOf([2]float64{0, 0}, [2]float64{0, 10}, [2]float64{0, 10}, [2]float64{10, 10}, [2]float64{10, 0}, [2]float64{0, 0}),
-		ringOf([2]float64{2, 2}, [2]float64{4, 2}, [2]float64{4, 4}, [2]float64{2, 4}),
+		regionTestRing([2]float64{0, 0}, [2]float64{0, 10}, [2]float64{0, 10}, [2]float64{10, 10}, [2]float64{10, 0}, [2]float64{0, 0}),
+		regionTestRing([2]float64{2, 2}, [2]float64{4, 2}, [2]float64{4, 4}, [2]float64{2, 4}),
 	}}
 	r, err := NewRegion(mp)
 	if err != nil {
@@ -66,12 +66,12 @@ func TestNewRegionNormalises(t *testing.T) {
 
 func TestNewRegionErrors(t *testing.T) {
 	sq := func(x0, y0, x1, y1 float64) orb.Ring {
-		return ringOf([2]float64{x0, y0}, [2]float64{x1, y0}, [2]float64{x1, y1}, [2]float64{x0, y1})
+		return regionTestRing([2]float64{x0, y0}, [2]float64{x1, y0}, [2]float64{x1, y1}, [2]float64{x0, y1})
 	}
 	big := sq(0, 0, 100, 100)
 	// A 12-vertex ring whose edge at vertex 5 crosses the edge at vertex 11:
 	// a comb-like outline with one vertex pulled across.
-	twelve := ringOf(
+	twelve := regionTestRing(
 		[2]float64{0, 0}, [2]float64{10, 0}, [2]float64{20, 0}, [2]float64{30, 0}, [2]float64{30, 10}, [2]float64{30, 20},
 		[2]float64{-5, 5}, // edge 5→6 runs far left, crossing edge 11→0
 		[2]float64{20, 30}, [2]float64{10, 30}, [2]float64{0, 30}, [2]float64{0, 20}, [2]float64{0, 10},
@@ -87,15 +87,15 @@ func TestNewRegionErrors(t *testing.T) {
 	}{
 		{"empty", orb.MultiPolygon{}, "no polygon"},
 		{"no-ring", orb.MultiPolygon{{}}, "polygon 0: no ring"},
-		{"nan", orb.MultiPolygon{{ringOf([2]float64{0, 0}, [2]float64{1, 0}, [2]float64{math.NaN(), 1})}}, "polygon 0, ring 0, vertex 2: x coordinate is NaN"},
-		{"inf", orb.MultiPolygon{{ringOf([2]float64{0, 0}, [2]float64{1, math.Inf(1)}, [2]float64{0, 1})}}, "polygon 0, ring 0, vertex 1: y coordinate is infinite"},
-		{"two-points", orb.MultiPolygon{{ringOf([2]float64{0, 0}, [2]float64{1, 0}, [2]float64{1, 0}, [2]float64{0, 0})}}, "polygon 0, ring 0: fewer than 3 distinct points"},
-		{"collinear", orb.MultiPolygon{{ringOf([2]float64{0, 0}, [2]float64{1, 1}, [2]float64{3, 3})}}, "polygon 0, ring 0: zero area"},
-		{"bowtie", orb.MultiPolygon{{ringOf([2]float64{0, 0}, [2]float64{10, 10}, [2]float64{10, 0}, [2]float64{0, 10})}}, "polygon 0, ring 0: edge at vertex 0 crosses edge at vertex 2"},
+		{"nan", orb.MultiPolygon{{regionTestRing([2]float64{0, 0}, [2]float64{1, 0}, [2]float64{math.NaN(), 1})}}, "polygon 0, ring 0, vertex 2: x coordinate is NaN"},
+		{"inf", orb.MultiPolygon{{regionTestRing([2]float64{0, 0}, [2]float64{1, math.Inf(1)}, [2]float64{0, 1})}}, "polygon 0, ring 0, vertex 1: y coordinate is infinite"},
+		{"two-points", orb.MultiPolygon{{regionTestRing([2]float64{0, 0}, [2]float64{1, 0}, [2]float64{1, 0}, [2]float64{0, 0})}}, "polygon 0, ring 0: fewer than 3 distinct points"},
+		{"collinear", orb.MultiPolygon{{regionTestRing([2]float64{0, 0}, [2]float64{1, 1}, [2]float64{3, 3})}}, "polygon 0, ring 0: zero area"},
+		{"bowtie", orb.MultiPolygon{{regionTestRing([2]float64{0, 0}, [2]float64{10, 10}, [2]float64{10, 0}, [2]float64{0, 10})}}, "polygon 0, ring 0: edge at vertex 0 crosses edge at vertex 2"},
 		{"twelve", orb.MultiPolygon{{big}, {sq(200, 0, 300, 100), sq(210, 10, 220, 20), twelve}}, ""},
-		{"spike", orb.MultiPolygon{{ringOf([2]float64{0, 0}, [2]float64{10, 0}, [2]float64{10, 10}, [2]float64{10, 5})}}, "overlap (the ring doubles back"},
-		{"vertex-touch", orb.MultiPolygon{{ringOf([2]float64{0, 0}, [2]float64{10, 0}, [2]float64{5, 5}, [2]float64{10, 10}, [2]float64{0, 10}, [2]float64{5, 0})}}, "touches"},
-		{"repeated-vertex", orb.MultiPolygon{{ringOf([2]float64{0, 0}, [2]float64{4, 0}, [2]float64{2, 2}, [2]float64{4, 4}, [2]float64{0, 4}, [2]float64{2, 2})}}, "touches"},
+		{"spike", orb.MultiPolygon{{regionTestRing([2]float64{0, 0}, [2]float64{10, 0}, [2]float64{10, 10}, [2]float64{10, 5})}}, "overlap (the ring doubles back"},
+		{"vertex-touch", orb.MultiPolygon{{regionTestRing([2]float64{0, 0}, [2]float64{10, 0}, [2]float64{5, 5}, [2]float64{10, 10}, [2]float64{0, 10}, [2]float64{5, 0})}}, "touches"},
+		{"repeated-vertex", orb.MultiPolygon{{regionTestRing([2]float64{0, 0}, [2]float64{4, 0}, [2]float64{2, 2}, [2]float64{4, 4}, [2]float64{0, 4}, [2]float64{2, 2})}}, "touches"},
 		{"hole-crosses", orb.MultiPolygon{{big, sq(90, 10, 110, 20)}}, "polygon 0, ring 0: edge at vertex 1 crosses polygon 0, ring 1"},
 		{"hole-touches", orb.MultiPolygon{{big, sq(90, 10, 100, 20)}}, "touches polygon 0, ring 1"},
 		{"hole-outside", orb.MultiPolygon{{big, sq(110, 10, 120, 20)}}, "polygon 0, ring 1: hole is not inside its exterior ring"},
@@ -132,11 +132,11 @@ func TestNewRegionErrors(t *testing.T) {
 }
 
 func TestRegionContainsGEOS(t *testing.T) {
-	checkContainsRef(t, loadClipRef(t, "testdata/cells_ref.json"))
+	checkContainsRef(t, clipLoadRef(t, "testdata/cells_ref.json"))
 }
 
 func TestRegionContainsGEOSLive(t *testing.T) {
-	checkContainsRef(t, runRefScript(t))
+	checkContainsRef(t, clipRunRefScript(t))
 }
 
 func checkContainsRef(t *testing.T, ref *clipRef) {
@@ -146,7 +146,7 @@ func checkContainsRef(t *testing.T, ref *clipRef) {
 	// Reference: GEOS covers (shapely, Debian python3-shapely), which
 	// counts boundary points as covered, as Contains does.
 	for _, cs := range ref.Contains {
-		reg, err := NewRegion(refMultiPolygon(cs.Region))
+		reg, err := NewRegion(clipRefMultiPolygon(cs.Region))
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -186,7 +186,7 @@ func TestRegionIndexAgrees(t *testing.T) {
 
 func TestRegionSubtract(t *testing.T) {
 	sq := func(x0, y0, x1, y1 float64) orb.Ring {
-		return ringOf([2]float64{x0, y0}, [2]float64{x1, y0}, [2]float64{x1, y1}, [2]float64{x0, y1})
+		return regionTestRing([2]float64{x0, y0}, [2]float64{x1, y0}, [2]float64{x1, y1}, [2]float64{x0, y1})
 	}
 	reg, err := NewRegion(orb.MultiPolygon{{sq(0, 0, 100, 100), sq(10, 10, 20, 20)}, {sq(200, 0, 300, 100)}})
 	if err != nil {
@@ -218,7 +218,7 @@ func TestRegionSubtract(t *testing.T) {
 		{"around-hole", orb.MultiPolygon{{sq(5, 5, 30, 30)}}, "hole lies inside"},
 		{"overlapping", orb.MultiPolygon{{sq(50, 50, 60, 60)}, {sq(55, 55, 65, 65)}}, "exclusion 0: edge at vertex 1 crosses exclusion 1"},
 		{"with-hole", orb.MultiPolygon{{sq(50, 50, 60, 60), sq(52, 52, 54, 54)}}, "exclusion 0: has 1 holes"},
-		{"degenerate", orb.MultiPolygon{{ringOf([2]float64{50, 50}, [2]float64{60, 60})}}, "exclusion 0: fewer than 3 distinct points"},
+		{"degenerate", orb.MultiPolygon{{regionTestRing([2]float64{50, 50}, [2]float64{60, 60})}}, "exclusion 0: fewer than 3 distinct points"},
 	}
 	for _, tc := range bad {
 		_, err := reg.Subtract(tc.ex)
