@@ -51,6 +51,7 @@ import (
 	"math"
 	"math/bits"
 	"runtime"
+	"slices"
 	"sync"
 	"unsafe"
 
@@ -153,6 +154,7 @@ func triangulateIncremental(pts []orb.Point, box bbox, i0, i1, i2 int32) (*Trian
 	keys, buf := work[:n:n], work[n:]
 	brioKeys(pts, box, keys, split, x0)
 	sorted := radixSortHigh(keys, buf) // in buf
+	refineCells(pts, box, sorted)
 
 	// Internal ids in insertion order; the sort buffers are reused for the
 	// order and the hull links.
@@ -313,6 +315,66 @@ func brioKeys(pts []orb.Point, box bbox, keys []uint64, split bool, x0 float64) 
 			keys[i] = key
 		}
 	})
+}
+
+// refineCells orders the points of each crowded Hilbert cell (more than 8
+// points with the same key, as in dense clusters) along a Hilbert curve of
+// order 16 inside the cell, instead of by index, so that the walk stays
+// short there too. Ties keep the index order; the keys are unchanged.
+func refineCells(pts []orb.Point, box bbox, sorted []uint64) {
+	side := math.Max(box.maxX-box.minX, box.maxY-box.minY)
+	if !(side > 0 && side <= math.MaxFloat64) {
+		return
+	}
+	scale := 4096 / side
+	sub := func(v float64) uint32 {
+		f := (v - math.Floor(v)) * 65536
+		if !(f > 0) {
+			return 0
+		}
+		return uint32(math.Min(f, 65535))
+	}
+	refine := func(part []uint64) {
+		n := len(part)
+		for s := 0; s < n; {
+			key := part[s] >> 32
+			e := s + 1
+			for e < n && part[e]>>32 == key {
+				e++
+			}
+			if e-s > 8 {
+				run := part[s:e]
+				for k, w := range run {
+					p := pts[uint32(w)]
+					h := hilbert16(sub((p[0]-box.minX)*scale), sub((p[1]-box.minY)*scale))
+					run[k] = uint64(h)<<32 | w&0xffffffff
+				}
+				slices.Sort(run)
+				for k := range run {
+					run[k] = key<<32 | run[k]&0xffffffff
+				}
+			}
+			s = e
+		}
+	}
+	n := len(sorted)
+	if n < 1<<16 {
+		refine(sorted)
+		return
+	}
+	// Two halves split between runs.
+	m := n / 2
+	for m < n && sorted[m]>>32 == sorted[m-1]>>32 {
+		m++
+	}
+	var wg sync.WaitGroup
+	wg.Add(1)
+	go func() {
+		defer wg.Done()
+		refine(sorted[m:])
+	}()
+	refine(sorted[:m])
+	wg.Wait()
 }
 
 func cell12(v float64) uint32 {
