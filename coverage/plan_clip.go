@@ -241,25 +241,38 @@ func planRingArea(ring []float64) float64 {
 // planMeasures returns the signed area of the rings, the area within r of
 // (cx, cy) (zero when r ≤ 0), and the farthest point of the piece from
 // (cx, cy) with its distance (−1 when there is no vertex). Candidate
-// vertices count only when valid (nil: always) accepts them.
+// vertices count only when valid (nil: always) accepts them. When the
+// farthest point is within r the piece lies in the disk (it lies in the
+// convex hull of its points), so the disk area is the area itself.
 func planMeasures(s *planRings, cx, cy, r float64, valid func(tag int32, x, y float64) bool) (area, disk, far, fx, fy float64) {
-	far = -1
+	far2 := -1.0
 	for k := 0; k < s.numRings(); k++ {
 		ring := s.ring(k)
 		fl := s.ringFlags(k)
 		area += planRingArea(ring)
-		if r > 0 {
-			disk += planar.RingDiskArea(ring, cx, cy, r)
-		}
 		for i := 0; i+1 < len(ring); i += 2 {
-			d := math.Hypot(ring[i]-cx, ring[i+1]-cy)
-			if d <= far {
+			dx, dy := ring[i]-cx, ring[i+1]-cy
+			d2 := dx*dx + dy*dy
+			if d2 <= far2 {
 				continue
 			}
 			if fl[i/2]&planCandidate != 0 && valid != nil && !valid(s.tag[k], ring[i], ring[i+1]) {
 				continue
 			}
-			far, fx, fy = d, ring[i], ring[i+1]
+			far2, fx, fy = d2, ring[i], ring[i+1]
+		}
+	}
+	far = -1
+	if far2 >= 0 {
+		far = math.Sqrt(far2)
+	}
+	switch {
+	case !(r > 0):
+	case far <= r:
+		disk = area
+	default:
+		for k := 0; k < s.numRings(); k++ {
+			disk += planar.RingDiskArea(s.ring(k), cx, cy, r)
 		}
 	}
 	return area, disk, far, fx, fy

@@ -28,7 +28,12 @@
 //     |p' − p| ≤ 2ρ, ρ the radius of the part clipped so far.
 //
 // Base sites are found through a uniform bucket grid holding every base
-// site except the 256 with the largest cells, which are always examined.
+// site except the 256 with the largest cells, which are always examined;
+// planned devices through a dynamic bucket grid (plan_devgrid.go), nearest
+// bucket rings first, so that a cell is clipped only by the devices within
+// twice its radius. The full-cover range (the largest radius) and the
+// largest radius of a planned device's cell are kept in segment trees of
+// maxima, updated in O(log n) per recomputed cell.
 //
 // Measures per cell: area (shoelace), the area within the planned range r
 // (planar.RingDiskArea), the uncovered area (their difference), and the
@@ -86,6 +91,12 @@ type planOverlay struct {
 	cells []planCell
 	free  []int32
 	dev   []int32 // planned device id -> planCell, -1 when removed
+	dg    *planDevGrid
+	// all holds the current radius of every base cell not overridden
+	// (slot u) and of every live cell (slot nb + c); devs that of every
+	// planned device's cell (slot c). Their maxima are the full-cover
+	// range and the reach of a device's cell.
+	all, devs planMaxTree
 
 	grid  planGrid
 	big   []int32 // base cells examined on every query
@@ -99,8 +110,8 @@ type planOverlay struct {
 type planScratch struct {
 	a, b, c planRings
 	near    []planNear
-	pts     []float64
 	ids     []int32
+	pts     []float64
 	perm    []int32
 }
 
@@ -119,9 +130,13 @@ type planGrid struct {
 
 // newPlanOverlay prepares the base cells of l with measures at range r.
 func newPlanOverlay(l *Layout, r float64) *planOverlay {
-	o := &planOverlay{l: l, r: r, ix: l.Area.Index()}
+	o := &planOverlay{l: l, r: r, ix: l.Area.Index(), dg: newPlanDevGrid(l.AreaM2)}
 	nv := l.Tri.NumVertices()
 	o.nb = nv
+	defer func() {
+		o.all.init(nv, o.baseRho)
+		o.devs.init(0, nil)
+	}()
 	o.baseRho = make([]float64, nv)
 	o.baseFx = make([]float64, nv)
 	o.baseFy = make([]float64, nv)
@@ -142,7 +157,7 @@ func newPlanOverlay(l *Layout, r float64) *planOverlay {
 					disk += planar.RingDiskArea(ring, ux, uy, r)
 				}
 				for i := 0; i+1 < len(ring); i += 2 {
-					if d := math.Hypot(ring[i]-ux, ring[i+1]-uy); d > far {
+					if d := planDist(ring[i], ring[i+1], ux, uy); d > far {
 						far, fx, fy = d, ring[i], ring[i+1]
 					}
 				}
@@ -183,6 +198,25 @@ func newPlanOverlay(l *Layout, r float64) *planOverlay {
 	o.reach = 2 * rhoCap
 	o.grid.build(l.Tri.Coords, rest, o.reach)
 	return o
+}
+
+// fresh returns an overlay of the same layout and range without planned
+// devices, sharing the base data (no recomputation).
+func (o *planOverlay) fresh() *planOverlay {
+	f := &planOverlay{
+		l: o.l, r: o.r, nb: o.nb,
+		baseRho: o.baseRho, baseFx: o.baseFx, baseFy: o.baseFy, baseUnc: o.baseUnc,
+		baseConvex: o.baseConvex, baseUncTotal: o.baseUncTotal, order: o.order,
+		grid: o.grid, big: o.big, reach: o.reach, ix: o.ix,
+		dg: newPlanDevGrid(o.l.AreaM2),
+	}
+	f.cur = make([]int32, len(o.cur))
+	for i := range f.cur {
+		f.cur[i] = -1
+	}
+	f.all.init(o.nb, o.baseRho)
+	f.devs.init(0, nil)
+	return f
 }
 
 // planParallel runs fn over [0, n) split across the available cores.
@@ -301,7 +335,7 @@ func (o *planOverlay) baseSet(u int32, s *planRings) {
 func (o *planOverlay) baseNear(x, y float64, fn func(u int32)) {
 	test := func(u int32) {
 		ux, uy := o.site(u)
-		if math.Hypot(x-ux, y-uy) <= 2*o.baseRho[u] {
+		if planDist(x, y, ux, uy) <= 2*o.baseRho[u] {
 			fn(u)
 		}
 	}
@@ -365,10 +399,16 @@ func (o *planOverlay) freeCell(c int32) {
 	o.cells[c].live = false
 	o.cells[c].geo.reset()
 	o.free = append(o.free, c)
+	o.all.set(o.nb+int(c), -1)
+	o.devs.set(int(c), -1)
 }
 
-// measure fills the measures of cell c from its geometry.
-func (o *planOverlay) measure(c *planCell) {
+// maxDevRho returns the largest radius of a planned device's cell.
+func (o *planOverlay) maxDevRho() float64 { return math.Max(0, o.devs.max()) }
+
+// measure fills the measures of cell ci from its geometry.
+func (o *planOverlay) measure(ci int32) {
+	c := &o.cells[ci]
 	area, disk, far, fx, fy := planMeasures(&c.geo, c.x, c.y, o.r, o.valid)
 	if far < 0 {
 		far, fx, fy = 0, c.x, c.y
@@ -376,6 +416,10 @@ func (o *planOverlay) measure(c *planCell) {
 	c.area, c.unc, c.rho, c.fx, c.fy = area, area-disk, far, fx, fy
 	if o.r <= 0 {
 		c.unc = area
+	}
+	o.all.set(o.nb+int(ci), far)
+	if c.base < 0 {
+		o.devs.set(int(ci), far)
 	}
 }
 
@@ -385,40 +429,27 @@ func (o *planOverlay) recomputeBase(u int32) {
 	sc := &o.sc
 	ux, uy := o.site(u)
 	o.baseSet(u, &sc.a)
-	cut := false
-	lim := 2 * o.baseRho[u]
-	for id := range o.dev {
-		if o.dev[id] < 0 {
-			continue
-		}
-		px, py := o.pos(int32(id))
-		if (px == ux && py == uy) || math.Hypot(px-ux, py-uy) > lim {
-			continue
-		}
-		nx, ny, h := planBisector(ux, uy, px, py)
-		if !planSetOutside(&sc.a, ux, uy, nx, ny, h) {
-			continue
-		}
-		planClipSet(&sc.a, ux, uy, nx, ny, h, &sc.b)
-		sc.a, sc.b = sc.b, sc.a
-		cut = true
-	}
+	g := &sc.a
+	// A device exactly on the base site takes nothing from it.
+	_, cut := o.clipByDevices(&g, ux, uy, o.baseRho[u], func(int32) bool { return false })
 	c := o.cur[u]
 	if !cut {
 		if c >= 0 {
 			o.freeCell(c)
 			o.cur[u] = -1
+			o.all.set(int(u), o.baseRho[u])
 		}
 		return
 	}
 	if c < 0 {
 		c = o.newCell()
 		o.cur[u] = c
+		o.all.set(int(u), -1)
 	}
 	cell := &o.cells[c]
 	cell.x, cell.y, cell.base = ux, uy, u
-	cell.geo.copyFrom(&sc.a)
-	o.measure(cell)
+	cell.geo.copyFrom(g)
+	o.measure(c)
 }
 
 // recomputeDev recomputes the cell of planned device id.
@@ -441,54 +472,84 @@ func (o *planOverlay) recomputeDev(id int32) {
 			})
 		})
 	}
-	// Other planned devices, nearest first, with early exit.
-	rho := planRadius(g, px, py)
-	near := sc.near[:0]
-	empty := len(g.xy) == 0
-	for j := range o.dev {
-		if empty || int32(j) == id || o.dev[j] < 0 {
-			continue
-		}
-		qx, qy := o.pos(int32(j))
-		d := math.Hypot(qx-px, qy-py)
-		if d == 0 && qx == px && qy == py {
-			if int32(j) < id {
-				empty = true // the lower id keeps a shared spot
-			}
-			continue
-		}
-		if d <= 2*rho {
-			near = append(near, planNear{int32(j), d})
-		}
+	// Other planned devices; the lower id keeps a shared spot.
+	if len(g.xy) > 0 {
+		o.clipByDevices(&g, px, py, planRadius(g, px, py), func(j int32) bool { return j < id })
 	}
-	if empty {
-		g.reset()
-	} else {
+	cell = &o.cells[o.dev[id]]
+	cell.geo.copyFrom(g)
+	o.measure(o.dev[id])
+}
+
+// clipByDevices clips *g, the cell of a site at (px, py) of radius at
+// most rho, by its half-planes against the planned devices, nearest first
+// (bucket ring by bucket ring, sorted within a ring), stopping once a ring
+// is farther than twice the radius. A device exactly at (px, py) is
+// skipped, unless shared(id) says it takes the spot, which empties the
+// cell. It returns the radius and whether anything was cut away.
+func (o *planOverlay) clipByDevices(g **planRings, px, py, rho float64, shared func(id int32) bool) (float64, bool) {
+	sc := &o.sc
+	near := sc.near[:0]
+	lost, cut := false, false
+	for k := int64(0); len((*g).xy) > 0; k++ {
+		if k >= 2 && float64(k-1)*o.dg.h > 2*rho {
+			break
+		}
+		near = near[:0]
+		more := o.dg.ring(px, py, k, func(j int32) {
+			qx, qy := o.pos(j)
+			if qx == px && qy == py {
+				lost = lost || shared(j)
+				return
+			}
+			if d := planDist(qx, qy, px, py); d <= 2*rho {
+				near = append(near, planNear{j, d})
+			}
+		})
+		if lost {
+			(*g).reset()
+			cut = true
+			break
+		}
 		slices.SortFunc(near, func(a, b planNear) int {
 			if c := cmp.Compare(a.d, b.d); c != 0 {
 				return c
 			}
 			return cmp.Compare(a.id, b.id)
 		})
-		for _, nb := range near {
-			if nb.d > 2*rho || len(g.xy) == 0 {
-				break
-			}
-			qx, qy := o.pos(nb.id)
-			nx, ny, h := planBisector(px, py, qx, qy)
-			if !planSetOutside(g, px, py, nx, ny, h) {
-				continue
-			}
-			planClipSet(g, px, py, nx, ny, h, &sc.b)
-			sc.a, sc.b = sc.b, sc.a
-			g = &sc.a
-			rho = planRadius(g, px, py)
+		var c bool
+		rho, c = o.clipNearest(g, px, py, near, rho)
+		cut = cut || c
+		if !more {
+			break
 		}
 	}
 	sc.near = near[:0]
-	cell = &o.cells[o.dev[id]]
-	cell.geo.copyFrom(g)
-	o.measure(cell)
+	return rho, cut
+}
+
+// clipNearest clips *g, the cell of a device at (px, py), by its
+// half-planes against the listed devices (by increasing distance), stopping
+// once the next is farther than twice the radius; it returns the radius.
+func (o *planOverlay) clipNearest(g **planRings, px, py float64, near []planNear, rho float64) (float64, bool) {
+	sc := &o.sc
+	cut := false
+	for _, nb := range near {
+		if nb.d > 2*rho || len((*g).xy) == 0 {
+			break
+		}
+		qx, qy := o.pos(nb.id)
+		nx, ny, h := planBisector(px, py, qx, qy)
+		if !planSetOutside(*g, px, py, nx, ny, h) {
+			continue
+		}
+		planClipSet(*g, px, py, nx, ny, h, &sc.b)
+		sc.a, sc.b = sc.b, sc.a
+		*g = &sc.a
+		rho = planRadius(*g, px, py)
+		cut = true
+	}
+	return rho, cut
 }
 
 // planRadius returns the largest distance from (x, y) to a vertex of s, 0
@@ -496,7 +557,7 @@ func (o *planOverlay) recomputeDev(id int32) {
 func planRadius(s *planRings, x, y float64) float64 {
 	r := 0.0
 	for i := 0; i+1 < len(s.xy); i += 2 {
-		r = math.Max(r, math.Hypot(s.xy[i]-x, s.xy[i+1]-y))
+		r = math.Max(r, planDist(s.xy[i], s.xy[i+1], x, y))
 	}
 	return r
 }
@@ -536,8 +597,9 @@ func (o *planOverlay) dirtyAdd(x, y float64, skip int32, d *planDirty) {
 			d.addBase(u)
 		}
 	})
-	for j := range o.dev {
-		if int32(j) == skip || o.dev[j] < 0 {
+	o.sc.ids = o.dg.within(x, y, 2*o.maxDevRho(), o.sc.ids)
+	for _, j := range o.sc.ids {
+		if j == skip {
 			continue
 		}
 		c := &o.cells[o.dev[j]]
@@ -545,11 +607,11 @@ func (o *planOverlay) dirtyAdd(x, y float64, skip int32, d *planDirty) {
 			continue
 		}
 		if c.x == x && c.y == y {
-			d.addDev(int32(j)) // tie rule by id may hand the spot over
+			d.addDev(j) // tie rule by id may hand the spot over
 			continue
 		}
-		if math.Hypot(c.x-x, c.y-y) <= 2*c.rho && planCloserTo(c.geo.xy, x, y, c.x, c.y) {
-			d.addDev(int32(j))
+		if planDist(c.x, c.y, x, y) <= 2*c.rho && planCloserTo(c.geo.xy, x, y, c.x, c.y) {
+			d.addDev(j)
 		}
 	}
 }
@@ -564,10 +626,12 @@ func (o *planOverlay) dirtyRemove(id int32, d *planDirty) {
 		d.addBase(u)
 	}
 	// A device sharing the spot takes over.
-	for j := range o.dev {
-		if int32(j) != id && o.dev[j] >= 0 {
-			if qx, qy := o.pos(int32(j)); qx == ax && qy == ay {
-				d.addDev(int32(j))
+	sc := &o.sc
+	sc.ids = o.dg.within(ax, ay, 0, sc.ids)
+	for _, j := range sc.ids {
+		if j != id {
+			if qx, qy := o.pos(j); qx == ax && qy == ay {
+				d.addDev(j)
 			}
 		}
 	}
@@ -576,33 +640,42 @@ func (o *planOverlay) dirtyRemove(id int32, d *planDirty) {
 	}
 	// Distance from the device to its nearest other site.
 	v := o.l.Tri.Nearest(ax, ay, -1)
-	dmin := math.Hypot(o.l.Tri.Coords[2*v]-ax, o.l.Tri.Coords[2*v+1]-ay)
-	for j := range o.dev {
-		if int32(j) != id && o.dev[j] >= 0 {
-			qx, qy := o.pos(int32(j))
-			dmin = math.Min(dmin, math.Hypot(qx-ax, qy-ay))
+	dmin := planDist(o.l.Tri.Coords[2*v], o.l.Tri.Coords[2*v+1], ax, ay)
+	for k := int64(0); ; k++ {
+		if k >= 2 && float64(k-1)*o.dg.h > dmin {
+			break
+		}
+		more := o.dg.ring(ax, ay, k, func(j int32) {
+			if j != id {
+				qx, qy := o.pos(j)
+				dmin = math.Min(dmin, planDist(qx, qy, ax, ay))
+			}
+		})
+		if !more {
+			break
 		}
 	}
 	lim := 2*c.rho + dmin
-	for j := range o.dev {
-		if int32(j) == id || o.dev[j] < 0 {
+	sc.ids = o.dg.within(ax, ay, lim, sc.ids)
+	for _, j := range sc.ids {
+		if j == id {
 			continue
 		}
-		qx, qy := o.pos(int32(j))
-		if math.Hypot(qx-ax, qy-ay) > lim {
+		qx, qy := o.pos(j)
+		if planDist(qx, qy, ax, ay) > lim {
 			continue
 		}
 		for k := 0; k < g.numRings(); k++ {
 			u := g.tag[k]
 			ring := g.ring(k)
 			ux, uy := o.site(u)
-			if math.Hypot(qx-ux, qy-uy) > 2*o.baseRho[u] {
+			if planDist(qx, qy, ux, uy) > 2*o.baseRho[u] {
 				continue
 			}
 			// Some vertex at least as close to q as to u.
 			nx, ny, h := planBisector(qx, qy, ux, uy)
 			if !planRingAllOutside(ring, qx, qy, nx, ny, h) {
-				d.addDev(int32(j))
+				d.addDev(j)
 				break
 			}
 		}
@@ -634,8 +707,11 @@ func (o *planOverlay) rhoOfDirty(d *planDirty) float64 {
 	return m
 }
 
-// apply recomputes the dirty cells.
+// apply recomputes the dirty cells (in index order, so that results do
+// not depend on how they were found).
 func (o *planOverlay) apply(d *planDirty) {
+	slices.Sort(d.devs)
+	slices.Sort(d.base)
 	for _, id := range d.devs {
 		if o.dev[id] >= 0 {
 			o.recomputeDev(id)
@@ -662,6 +738,9 @@ func (o *planOverlay) place(id int32, x, y float64) []int32 {
 	c := o.newCell()
 	o.cells[c] = planCell{x: x, y: y, base: -1, live: true, geo: o.cells[c].geo}
 	o.dev[id] = c
+	o.dg.insert(id, x, y)
+	o.maybeRebuildGrid()
+	slices.Sort(d.devs)
 	near := slices.Clone(d.devs)
 	d.addDev(id)
 	o.apply(&d)
@@ -677,7 +756,9 @@ func (o *planOverlay) move(id int32, x, y float64) (before, after float64) {
 	d.addDev(id)
 	before = o.rhoOfDirty(&d)
 	c := &o.cells[o.dev[id]]
+	o.dg.remove(id, c.x, c.y)
 	c.x, c.y = x, y
+	o.dg.insert(id, x, y)
 	o.apply(&d)
 	after = o.rhoOfDirty(&d)
 	return before, after
@@ -687,26 +768,29 @@ func (o *planOverlay) move(id int32, x, y float64) (before, after float64) {
 func (o *planOverlay) remove(id int32) {
 	var d planDirty
 	o.dirtyRemove(id, &d)
+	x, y := o.pos(id)
+	o.dg.remove(id, x, y)
 	o.freeCell(o.dev[id])
 	o.dev[id] = -1
+	o.maybeRebuildGrid()
 	o.apply(&d)
 }
 
 // fullCover returns the full-cover range of the current plan.
-func (o *planOverlay) fullCover() float64 {
-	m := 0.0
-	for _, u := range o.order {
-		if o.cur[u] < 0 {
-			m = o.baseRho[u]
-			break
+func (o *planOverlay) fullCover() float64 { return math.Max(0, o.all.max()) }
+
+// maybeRebuildGrid rebuilds the device grid when the number of devices
+// has moved far from the one its bucket size was chosen for.
+func (o *planOverlay) maybeRebuildGrid() {
+	if !o.dg.needsRebuild() {
+		return
+	}
+	o.dg.reset(o.dg.live)
+	for id, c := range o.dev {
+		if c >= 0 {
+			o.dg.insert(int32(id), o.cells[c].x, o.cells[c].y)
 		}
 	}
-	for i := range o.cells {
-		if c := &o.cells[i]; c.live && c.rho > m {
-			m = c.rho
-		}
-	}
-	return m
 }
 
 // worst returns the full-cover range and a point attaining it: among the
@@ -772,11 +856,10 @@ func (o *planOverlay) gain(x, y float64, sc *planScratch) float64 {
 	if !(o.r > 0) || o.coincidesBase(x, y) {
 		return 0
 	}
-	for id := range o.dev {
-		if o.dev[id] >= 0 {
-			if qx, qy := o.pos(int32(id)); qx == x && qy == y {
-				return 0
-			}
+	sc.ids = o.dg.within(x, y, 0, sc.ids)
+	for _, id := range sc.ids {
+		if qx, qy := o.pos(id); qx == x && qy == y {
+			return 0
 		}
 	}
 	r := o.r
@@ -807,12 +890,10 @@ func (o *planOverlay) gain(x, y float64, sc *planScratch) float64 {
 		ux, uy := o.site(u)
 		piece(src, ux, uy)
 	})
-	for id := range o.dev {
-		if o.dev[id] < 0 {
-			continue
-		}
+	sc.ids = o.dg.within(x, y, 2*o.maxDevRho(), sc.ids)
+	for _, id := range sc.ids {
 		c := &o.cells[o.dev[id]]
-		if len(c.geo.xy) == 0 || math.Hypot(c.x-x, c.y-y) > 2*c.rho {
+		if len(c.geo.xy) == 0 || planDist(c.x, c.y, x, y) > 2*c.rho {
 			continue
 		}
 		piece(&c.geo, c.x, c.y)
@@ -865,7 +946,7 @@ func (o *planOverlay) inside(x, y float64) (px, py float64, ok bool) {
 				t = math.Max(0, math.Min(1, ((x-ax)*dx+(y-ay)*dy)/l2))
 			}
 			qx, qy := ax+t*dx, ay+t*dy
-			if d := math.Hypot(x-qx, y-qy); d < best {
+			if d := planDist(x, y, qx, qy); d < best {
 				best, bx, by, ex, ey = d, qx, qy, dx, dy
 			}
 		}
@@ -891,4 +972,60 @@ func (o *planOverlay) inside(x, y float64) (px, py float64, ok bool) {
 		}
 	}
 	return x, y, false
+}
+
+// planMaxTree is a segment tree of maxima over slots (−1 when empty),
+// growing on demand.
+type planMaxTree struct {
+	n int // leaves, a power of two
+	v []float64
+}
+
+// init sets up the tree with the first len(vals) slots from vals (nb of
+// them), the rest empty.
+func (t *planMaxTree) init(nb int, vals []float64) {
+	t.n = 1
+	for t.n < nb+16 {
+		t.n *= 2
+	}
+	t.v = make([]float64, 2*t.n)
+	for i := range t.v {
+		t.v[i] = -1
+	}
+	copy(t.v[t.n:], vals[:nb])
+	for i := t.n - 1; i >= 1; i-- {
+		t.v[i] = math.Max(t.v[2*i], t.v[2*i+1])
+	}
+}
+
+func (t *planMaxTree) set(i int, x float64) {
+	if i >= t.n {
+		old := t.v[t.n:]
+		n := t.n
+		for n <= i {
+			n *= 2
+		}
+		vals := make([]float64, n)
+		for k := range vals {
+			vals[k] = -1
+		}
+		copy(vals, old)
+		t.init(n, vals)
+	}
+	i += t.n
+	t.v[i] = x
+	for i > 1 {
+		i >>= 1
+		t.v[i] = math.Max(t.v[2*i], t.v[2*i+1])
+	}
+}
+
+func (t *planMaxTree) max() float64 { return t.v[1] }
+
+// planDist is the Euclidean distance from (ax, ay) to (bx, by); plain
+// square root (coordinates are far below overflow), correctly rounded
+// operations, within 2 ulps.
+func planDist(ax, ay, bx, by float64) float64 {
+	dx, dy := ax-bx, ay-by
+	return math.Sqrt(dx*dx + dy*dy)
 }

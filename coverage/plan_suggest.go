@@ -28,7 +28,7 @@
 // seeding — devices on the triangular lattice of spacing r·√3, whose disks
 // of radius r form the thinnest covering of the plane (Kershner 1939),
 // kept only where they add covered area to the existing layout, tried at
-// 9 lattice offsets (1 when the estimate exceeds 2000 devices), remaining
+// 9 lattice offsets (1 when the estimate exceeds 500 devices), remaining
 // gaps (along the boundary) closed by farthest-point insertion. Each plan
 // then drops every new device whose removal keeps the full-cover range
 // within r (latest first), so no single addition of the result is
@@ -202,7 +202,7 @@ func FewestAdditions(l *Layout, r float64, opt SuggestOptions) (*Suggestion, err
 		planPrune(best)
 		// Hexagonal seeding, at 9 lattice offsets (1 for large problems).
 		shifts := 3
-		if hex > 2000 {
+		if hex > 500 {
 			shifts = 1
 		}
 		for sx := 0; sx < shifts; sx++ {
@@ -409,10 +409,7 @@ func planRefine(o *planOverlay, ids []int32, rounds int) {
 // collects the figures.
 func planReport(o *planOverlay, r float64) *Suggestion {
 	pts := o.positions()
-	for _, id := range o.liveIDs() {
-		o.remove(id)
-	}
-	o.dev = o.dev[:0]
+	o = o.fresh()
 	area := o.l.AreaM2
 	frac := func(unc float64) float64 {
 		if !(area > 0) {
