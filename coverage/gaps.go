@@ -81,7 +81,7 @@ func (l *Layout) gaps(r, chordTol float64, selfCheck bool) ([]Gap, int) {
 	chunks := make([]gapChunk, nc)
 	cvParallel(nv, chunk, func(ci, lo, hi int) {
 		t := gapTracerPool.Get().(*gapTracer)
-		t.l, t.r, t.r2, t.selfCheck = l, r, r*r, selfCheck
+		t.l, t.r, t.r2, t.selfCheck, t.keep = l, r, r*r, selfCheck, chordTol > 0
 		ch := &chunks[ci]
 		for v := int32(lo); v < int32(hi); v++ {
 			if c.SiteStart[v] == c.SiteStart[v+1] {
@@ -137,7 +137,9 @@ func gapMerge(chunks []gapChunk) (*gapMerged, int) {
 		}
 		m.elems = append(m.elems, ch.elems...)
 		for _, p := range ch.portions {
-			p.elem += e0
+			if p.elem >= 0 {
+				p.elem += e0
+			}
 			p.node += n0
 			m.portions = append(m.portions, p)
 		}
@@ -198,8 +200,12 @@ func (m *gapMerged) union(tolLen float64) []int32 {
 						par[ra] = rb
 					}
 				}
-				m.matched[a.elem] = true
-				m.matched[b.elem] = true
+				if a.elem >= 0 {
+					m.matched[a.elem] = true
+				}
+				if b.elem >= 0 {
+					m.matched[b.elem] = true
+				}
 			}
 		}
 		g0 = g1

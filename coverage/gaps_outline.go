@@ -318,14 +318,15 @@ func (m *gapMerged) chainPoints(l *Layout, c *gapChain, loopNode []int32, r, alp
 	for k := int32(0); k < c.n; k++ {
 		el := &m.elems[e0+(off+k)%n]
 		buf = append(buf, orb.Point{el.x, el.y})
-		if el.kind != gapArc || el.phi <= 0 {
+		phi := float64(el.phi)
+		if el.kind != gapArc || phi <= 0 {
 			continue
 		}
-		steps := int(math.Ceil(el.phi / alpha))
+		steps := int(math.Ceil(phi / alpha))
 		if steps > 1 {
 			th := math.Atan2(el.y-cy, el.x-cx)
 			for s := 1; s < steps; s++ {
-				a := th - el.phi*float64(s)/float64(steps)
+				a := th - phi*float64(s)/float64(steps)
 				buf = append(buf, orb.Point{cx + r*math.Cos(a), cy + r*math.Sin(a)})
 			}
 		}

@@ -62,7 +62,7 @@ const gapSnapRel = 1e-12
 type gapElem struct {
 	x, y float64 // start point (absolute coordinates in the output)
 	kind int32   // >= 0: bisector with that vertex; <= -2: region boundary; gapArc
-	phi  float64 // arcs: clockwise angle (radians)
+	phi  float32 // arcs: clockwise angle (radians; the end is exact, being the next element's start)
 }
 
 // gapNode is one component of P \ D for one cell piece.
@@ -123,6 +123,7 @@ type gapTracer struct {
 	l         *Layout
 	r, r2     float64
 	selfCheck bool
+	keep      bool // keep the loops' elements (for outlines)
 
 	v      int32
 	cx, cy float64
@@ -426,7 +427,7 @@ func (t *gapTracer) run(lp *gapLoop, a, b int32) {
 // arc adds the arc from entry E clockwise through phi to the point (xx, xy).
 func (t *gapTracer) arc(lp *gapLoop, ex, ey, phi, xx, xy float64) {
 	r := t.r
-	t.elems = append(t.elems, gapElem{x: ex, y: ey, kind: gapArc, phi: phi})
+	t.elems = append(t.elems, gapElem{x: ex, y: ey, kind: gapArc, phi: float32(phi)})
 	lp.area -= t.r2 * phi / 2
 	lp.mx += t.r2 / 3 * (xy - ey)
 	lp.my += t.r2 / 3 * (ex - xx)
@@ -804,7 +805,7 @@ func (t *gapTracer) loopPoint(lp *gapLoop) (float64, float64) {
 		if el.kind != gapArc {
 			return (el.x + nx) / 2, (el.y + ny) / 2
 		}
-		th := math.Atan2(el.y, el.x) - el.phi/2
+		th := math.Atan2(el.y, el.x) - float64(el.phi)/2
 		return t.r * math.Cos(th), t.r * math.Sin(th)
 	}
 	return 0, 0
@@ -849,7 +850,7 @@ func (t *gapTracer) loopContains(lp *gapLoop, qx, qy float64) bool {
 			if d < 0 {
 				d += 2 * math.Pi
 			}
-			if d > 0 && d < el.phi {
+			if d > 0 && d < float64(el.phi) {
 				in = !in
 			}
 		}
@@ -903,31 +904,41 @@ func (t *gapTracer) emit(ch *gapChunk) {
 	}
 }
 
-// emitLoop copies loop lp to ch in absolute coordinates and records the
-// bisector portions of node nodeIdx.
+// emitLoop records the bisector portions of loop lp (node nodeIdx) and,
+// when outlines are wanted, copies its elements to ch in absolute
+// coordinates.
 func (t *gapTracer) emitLoop(ch *gapChunk, lp *gapLoop, nodeIdx int32) {
-	ch.loopElem = append(ch.loopElem, int32(len(ch.elems)))
-	base := int32(len(ch.elems))
-	for e := lp.e0; e < lp.e1; e++ {
-		el := t.elems[e]
-		el.x += t.cx
-		el.y += t.cy
-		ch.elems = append(ch.elems, el)
+	base := int32(-1)
+	if t.keep {
+		ch.loopElem = append(ch.loopElem, int32(len(ch.elems)))
+		base = int32(len(ch.elems))
+		for e := lp.e0; e < lp.e1; e++ {
+			el := t.elems[e]
+			el.x += t.cx
+			el.y += t.cy
+			ch.elems = append(ch.elems, el)
+		}
 	}
 	n := lp.e1 - lp.e0
 	for k := int32(0); k < n; k++ {
-		el := &ch.elems[base+k]
+		el := &t.elems[lp.e0+k]
 		if el.kind < 0 {
 			continue
 		}
-		nx := &ch.elems[base+(k+1)%n]
+		nx := &t.elems[lp.e0+(k+1)%n]
 		key, ax, ay, ux, uy := gapBisector(t.l, t.v, el.kind)
-		t0 := ux*(el.y-ay) - uy*(el.x-ax)
-		t1 := ux*(nx.y-ay) - uy*(nx.x-ax)
+		x0, y0 := el.x+t.cx, el.y+t.cy
+		x1, y1 := nx.x+t.cx, nx.y+t.cy
+		t0 := ux*(y0-ay) - uy*(x0-ax)
+		t1 := ux*(y1-ay) - uy*(x1-ax)
 		if t0 > t1 {
 			t0, t1 = t1, t0
 		}
-		ch.portions = append(ch.portions, gapPortion{key: key, lo: t0, hi: t1, elem: base + k, node: nodeIdx})
+		elem := int32(-1)
+		if t.keep {
+			elem = base + k
+		}
+		ch.portions = append(ch.portions, gapPortion{key: key, lo: t0, hi: t1, elem: elem, node: nodeIdx})
 	}
 }
 
