@@ -594,7 +594,11 @@ func (c *Curve) initialGuesses(targets []float64, set func(k int, x float64)) {
 // Samples returns the curve at n evenly spaced ranges from 0 to the
 // full-cover range, together with its breakpoints at the ends of the
 // rising part (the range at which coverage starts, when positive, and the
-// full-cover range), ascending by range. Every value is exact.
+// full-cover range), ascending by range. Every value is exact. All ranges
+// share one pass over the cells, but each cell is evaluated exactly at every
+// sample range between its nearest boundary and its farthest vertex: about
+// n/4 evaluations per cell for uniform layouts (some 100 ns each), so for a
+// million sites Samples(64) costs about 2 s of CPU time.
 func (c *Curve) Samples(n int) []RangeAt {
 	if n < 2 {
 		n = 2
