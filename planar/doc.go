@@ -13,9 +13,13 @@
 //     floating-point arithmetic and fast robust geometric predicates",
 //     Discrete & Computational Geometry 18, 1997). Signs are exact for all
 //     finite float64 inputs.
-//   - Triangulation: incremental sweep-hull construction with Lawson edge
-//     flips, decided by the exact predicates; ties among cocircular points
-//     are broken the same way on every run.
+//   - Triangulation: incremental insertion in biased randomized insertion
+//     order along a Hilbert curve (Amenta, Choi & Rote, "Incremental
+//     constructions con BRIO", SoCG 2003), with Lawson flips, a hull-edge
+//     step for points outside the hull, and Bowyer–Watson cavity
+//     retriangulation by two workers for large inputs; every decision is an
+//     exact predicate, and ties among cocircular points are broken the same
+//     way on every run.
 //   - Cells: the Voronoi cell of a site is the convex polygon whose vertices
 //     are the circumcentres of its Delaunay triangles; it is intersected
 //     with the site area (a polygon set with holes) edge by edge.
