@@ -26,18 +26,18 @@
 // plus the portion's angle, summed in double-double arithmetic from
 // sub-segment angles atan2((t_q − t_p)(a × b), p · q), whose signs are exact
 // functions of the edge's turning sense; so crossings close along a ring
-// keep their exact relative order. Exact ties (a ring vertex on the circle,
-// an edge tangent to it) are broken by the symbolic perturbation that grows
-// the disk: at a vertex b the crossing on the edge (b, e) follows the one on
-// (a, b) by (η/r)(K_be − K_ab), K = (b × d)/(b · d) for edge direction d
-// (±∞ on an edge tangent at b, where the crossing moves by the square root
-// of the perturbation), η = +1 for b on or inside the circle and −1
-// outside; on an edge tangent at an interior point the exit follows the
-// entry in the edge's turning sense. Vertices within 1e-12 relative of the
-// circle are snapped onto it, and their crossing parameters are the exact
-// roots t = 0 (or 1) and t = −2 (a·d)/(d·d). A portion through the site
-// itself (a site on its piece's boundary) has no defined angle and never
-// links crossings.
+// keep their exact relative order. Exact ties (crossings at one point: a
+// ring vertex on the circle, where two rings touch, an edge tangent to the
+// circle) are broken by the symbolic perturbation that grows the disk: a
+// crossing at a vertex b on the circle, on an edge of direction d, moves
+// in angle by K·δ/r for a growth δ, K = (b × d)/(b · d) (±∞ on an edge
+// tangent at b, where the motion is of order √δ: backwards on the incoming
+// edge, forwards on the outgoing one); on an edge tangent at an interior
+// point the exit follows the entry in the edge's turning sense. Vertices
+// within 1e-12 relative of the circle are snapped onto it, and their
+// crossing parameters are the exact roots t = 0 (or 1) and
+// t = −2 (a·d)/(d·d). A portion through the site itself (a site on its
+// piece's boundary) has no defined angle and never links crossings.
 //
 // Areas and first moments come from the fan about c: a segment p→q adds
 // ½ p×q and (p+q)(p×q)/6, an arc from E clockwise through φ to X adds
