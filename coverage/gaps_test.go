@@ -242,6 +242,9 @@ func TestGapsLive(t *testing.T) {
 		t.Skip("set SITECOVER_LIVE=1 to re-run testdata/ref_gaps.py (GEOS via Debian python3-shapely) on fresh random sites")
 	}
 	seed := time.Now().UnixNano() % 1_000_000_007
+	if s := os.Getenv("SITECOVER_SEED"); s != "" { // reproduce a failing live run
+		fmt.Sscan(s, &seed)
+	}
 	out := filepath.Join(t.TempDir(), "gaps.json")
 	cmd := exec.Command("/usr/bin/python3", filepath.Join("testdata", "ref_gaps.py"), "--seed", fmt.Sprint(seed), "--out", out)
 	if msg, err := cmd.CombinedOutput(); err != nil {
