@@ -1,5 +1,5 @@
 // GeoJSON layers (RFC 7946): sites, service areas, gaps and hole-closing
-// points.
+// points (and the planning layers of plan_layers.go).
 //
 // Geometry is mapped vertex by vertex from the local plane to WGS84 with
 // Meta.ToLonLat and rounded to 7 decimals (RFC 7946 §11.2 recommends
@@ -71,6 +71,15 @@ func appendGeometry(b []byte, g orb.Geometry) []byte {
 	case orb.Point:
 		b = append(b, `{"type":"Point","coordinates":`...)
 		b = appendPos(b, g)
+	case orb.LineString:
+		b = append(b, `{"type":"LineString","coordinates":[`...)
+		for i, q := range g {
+			if i > 0 {
+				b = append(b, ',')
+			}
+			b = appendPos(b, q)
+		}
+		b = append(b, ']')
 	case orb.MultiPolygon:
 		b = append(b, `{"type":"MultiPolygon","coordinates":[`...)
 		for i, p := range g {

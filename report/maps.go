@@ -106,6 +106,15 @@ func (s *scene) denseNote(width int, what string) string {
 
 // drawSites draws the site marks, and labels when there are few.
 func (s *scene) drawSites(c *canvas, d density) {
+	rho := s.drawSiteMarks(c, d)
+	if len(s.l.Sites) <= maxLabelledSites && d.spacing >= 40*c.u {
+		s.labelSites(c, rho)
+	}
+}
+
+// drawSiteMarks draws the site marks (with a white halo when large
+// enough) and returns their radius in px.
+func (s *scene) drawSiteMarks(c *canvas, d density) float64 {
 	rho := d.siteRadius(c.u)
 	ink := color.NRGBA(colInk)
 	if d.spacing < 10*c.u {
@@ -125,9 +134,7 @@ func (s *scene) drawSites(c *canvas, d density) {
 	unit := unitCircle(circleSides(rho))
 	s.forSites(func(x, y float64) { f.circle(c.ox+x*c.k, c.oy-y*c.k, rho, unit) })
 	c.paint(f.mask(), ink, nil)
-	if len(s.l.Sites) <= maxLabelledSites && d.spacing >= 40*c.u {
-		s.labelSites(c, rho)
-	}
+	return rho
 }
 
 // labelSites writes each distinct site's label beside its mark, trying

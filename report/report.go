@@ -34,11 +34,15 @@ type Meta struct {
 	// Title heads the report and the maps (e.g. the site's name).
 	Title string
 	// Command is the CLI command that produced the run: "analyze",
-	// "cells", "gaps" or "demo".
+	// "cells", "gaps", "demo", "suggest", "failures" or "assign".
 	Command string
 	// SitesFile, AreaFile and ExcludeFile are the input paths ("" when
 	// not given). Outputs never overwrite them.
 	SitesFile, AreaFile, ExcludeFile string
+	// CandidatesFile and PointsFile are the inputs of the planning moves
+	// (candidate spots, demand points; "" when not given). Outputs never
+	// overwrite them either.
+	CandidatesFile, PointsFile string
 	// SiteNames holds a name per input site index ("" for none). It may be
 	// shorter than the site list.
 	SiteNames []string

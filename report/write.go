@@ -43,7 +43,7 @@ func newWriter(dir string, names []string, m Meta, progress func(string)) (*writ
 	probe.Close()
 	os.Remove(probe.Name())
 
-	inputs := []string{m.SitesFile, m.AreaFile, m.ExcludeFile}
+	inputs := []string{m.SitesFile, m.AreaFile, m.ExcludeFile, m.CandidatesFile, m.PointsFile}
 	for _, name := range names {
 		out := filepath.Join(dir, name)
 		for _, in := range inputs {

@@ -1,0 +1,735 @@
+// The PNG maps of the planning moves, drawn like the analysis maps
+// (drawing.go, raster.go: north up, scale bar, legend, circles within
+// 0.2 px, colour-blind-safe colours):
+//
+//   - suggestions and candidates: the gaps of the existing layout split
+//     into the part the new devices close (yellow) and the part left
+//     (vermilion, deepest points ringed and numbered), the existing
+//     coverage (sky blue), the new devices' reach (dashed circles) and
+//     marks, and the candidate spots not picked;
+//   - failures: each service area filled by the loss its device's failure
+//     causes, in up to five classes of round width on the viridis scale
+//     (designed to be read with every common colour-vision deficiency and
+//     in grey; van der Walt & Smith, matplotlib, 2015), devices with no
+//     loss in grey, the ten worst ranked by number, and the point that
+//     fixes the range surviving any single failure;
+//   - assignment: coverage at the range, service-area edges, a line from
+//     each demand item to its serving device, and the items marked by
+//     shape and colour — squares within range, triangles beyond it — so
+//     that the distinction survives without colour.
+
+package report
+
+import (
+	"fmt"
+	"image"
+	"image/color"
+	"math"
+	"slices"
+	"strconv"
+
+	"github.com/paulmach/orb"
+	"github.com/sitecover/sitecover/coverage"
+	"golang.org/x/image/font"
+	"golang.org/x/image/vector"
+)
+
+// Planning map colours.
+var (
+	colClosed  = tint(oiYellow, 0.15)
+	colNew     = oiBlue
+	colNewDisk = color.RGBA{0x1A, 0x1A, 0x1A, 0xFF}
+	colBeyond  = oiVermilion
+	colWithin  = oiBlue
+	colNoLoss  = color.RGBA{0xD0, 0xD0, 0xD0, 0xFF}
+	colBuild   = color.RGBA{0xBF, 0xBF, 0xBF, 0xFF}
+)
+
+// viridis holds five colours of the viridis scale, low to high.
+var viridis = []color.RGBA{
+	{0xFD, 0xE7, 0x25, 0xFF}, {0x5E, 0xC9, 0x62, 0xFF}, {0x21, 0x91, 0x8C, 0xFF},
+	{0x3B, 0x52, 0x8B, 0xFF}, {0x44, 0x01, 0x54, 0xFF},
+}
+
+// maxMarked is the largest number of planning marks drawn one by one
+// with labels (new devices, picks, ranks, loaded devices).
+const maxMarked = 60
+
+// beforeAfter describes one before/after map.
+type beforeAfter struct {
+	title, sub string
+	newLabel   string
+	closed     string // legend of the closed part of the gaps
+	added      []orb.Point
+	labels     []string
+	others     []orb.Point // candidate spots not picked
+	before     []coverage.Gap
+	after      []coverage.Gap
+}
+
+func (s *planScene) suggestionMap(width int) ([]byte, error) {
+	p, sg := s.p, s.p.Suggestion
+	ba := beforeAfter{before: p.GapsBefore, after: p.GapsAfter, added: sg.Added, newLabel: "New device, numbered in placement order", closed: "Gap closed by the new devices"}
+	for j := range sg.Added {
+		ba.labels = append(ba.labels, fmt.Sprintf("+%d", j+1))
+	}
+	if p.Move == MoveAdd {
+		ba.title = fmt.Sprintf("%d suggested devices at %s", len(sg.Added), metresShort(p.Range))
+	} else {
+		ba.title = fmt.Sprintf("Fewest additions for no gap at %s: %d", metresShort(p.Range), len(sg.Added))
+	}
+	ba.sub = fmt.Sprintf("Full cover %s -> %s; covered %.2f %% -> %.2f %%; uncovered %.0f m2 -> %.0f m2",
+		metresShort(sg.FullCoverBefore), metresShort(sg.FullCoverAfter), 100*sg.CoveredBefore, 100*sg.CoveredAfter,
+		sg.UncoveredBefore, sg.UncoveredAfter)
+	if !p.RangeGiven {
+		ba.sub += " (range: " + p.RangeNote + ")"
+	}
+	c, err := s.drawBeforeAfter(width, ba)
+	if err != nil {
+		return nil, err
+	}
+	return c.encode()
+}
+
+func (s *planScene) candidateMap(width int) ([]byte, error) {
+	p, ch := s.p, s.p.Choice
+	ba := beforeAfter{before: p.GapsBefore, after: ch.Remaining, newLabel: "Picked spot, numbered in pick order", closed: "Gap closed by the picked spots"}
+	picked := make([]bool, len(p.Candidates))
+	for j, c := range ch.Picked {
+		picked[c] = true
+		ba.added = append(ba.added, p.Candidates[c])
+		ba.labels = append(ba.labels, fmt.Sprint(j+1))
+	}
+	for i, c := range p.Candidates {
+		if !picked[i] {
+			ba.others = append(ba.others, c)
+		}
+	}
+	ba.title = fmt.Sprintf("%d of %d candidate spots picked at %s", len(ch.Picked), len(p.Candidates), metresShort(ch.Range))
+	ba.sub = fmt.Sprintf("Covered %.2f %% -> %.2f %%; uncovered %.0f m2 -> %.0f m2", 100*ch.FractionBefore, 100*ch.FractionAfter,
+		ch.UncoveredBefore, ch.UncoveredAfter)
+	switch {
+	case ch.Complete:
+		ba.sub += "; full cover reached"
+	case ch.Exhausted:
+		ba.sub += fmt.Sprintf("; full cover cannot be reached from these spots (%s left)", plural(len(ch.Remaining), "gap"))
+	}
+	c, err := s.drawBeforeAfter(width, ba)
+	if err != nil {
+		return nil, err
+	}
+	return c.encode()
+}
+
+// drawBeforeAfter draws a before/after map.
+func (s *planScene) drawBeforeAfter(width int, ba beforeAfter) (*canvas, error) {
+	r := s.p.Range
+	numbered := min(len(ba.after), maxNumbered)
+	items := []legendItem{
+		{fmt.Sprintf("Covered by the existing devices (within %s)", metresShort(r)), swatchFill(colCovered, colDiskEdge)},
+		{ba.closed, swatchFill(colClosed, nil)},
+		{"Gap left, numbered by closing range; ring: deepest point", swatchDeepestLeft},
+		{fmt.Sprintf("Reach of a new device (%s)", metresShort(r)), swatchDashed},
+		{"Existing device", swatchDot},
+		{ba.newLabel, swatchNew},
+	}
+	if len(ba.others) > 0 {
+		items = append(items, legendItem{"Candidate spot not picked", swatchSpot})
+	}
+	items = append(items,
+		legendItem{"Site area outline", swatchLine(colInk, 2.2)},
+		legendItem{"Exclusion zone (no coverage needed)", swatchHatch})
+	notes := []string{"North up: the y axis of the local plane (grid north). " + s.planeNote()}
+	if n := s.denseNote(width, "single disks and small gaps"); n != "" {
+		notes = append(notes, n)
+	}
+	c, err := layoutCanvas(s.extent(), width, items, len(notes))
+	if err != nil {
+		return nil, err
+	}
+	d := s.density(c)
+	title := ba.title
+	if s.m.Title != "" {
+		title += ": " + s.m.Title
+	}
+	c.title(title, ba.sub)
+
+	areaMask := s.drawArea(c)
+	s.fillGaps(c, ba.before, colClosed)
+	s.fillGaps(c, ba.after, colGap)
+	rho := r * c.k
+	unit := unitCircle(circleSides(rho))
+	f := c.newFill()
+	s.forSites(func(x, y float64) { f.circle(c.ox+x*c.k, c.oy-y*c.k, rho, unit) })
+	c.paint(f.mask(), color.NRGBA(colCovered), areaMask)
+	if d.spacing >= 8*c.u && rho >= 3 {
+		s.diskOutlines(c, rho, unit, areaMask)
+	}
+	s.drawZones(c)
+	s.strokeArea(c)
+	s.drawSiteMarks(c, d)
+	// New devices' reach, then the marks.
+	if len(ba.added) <= 10*maxMarked && rho >= 2 {
+		c.inFrame(func() {
+			c.dc.SetColor(colNewDisk)
+			c.dc.SetLineWidth(1.8 * c.u)
+			c.dc.SetDash(7*c.u, 5*c.u)
+			for _, q := range ba.added {
+				x, y := c.px(q)
+				c.dc.DrawCircle(x, y, rho)
+				c.dc.Stroke()
+			}
+			c.dc.SetDash()
+		})
+	}
+	for _, q := range ba.others {
+		x, y := c.px(q)
+		c.spotMark(x, y, 6*c.u)
+	}
+	for _, q := range ba.added {
+		x, y := c.px(q)
+		c.newMark(x, y, 7*c.u)
+	}
+	for i := 0; i < numbered; i++ {
+		x, y := c.px(ba.after[i].Deepest)
+		c.deepestMark(x, y)
+	}
+	for i := 0; i < numbered; i++ {
+		g := ba.after[i]
+		x, y := c.px(g.Deepest)
+		c.haloText(fmt.Sprint(g.ID), x+9*c.u, y-8*c.u, 0, 0, 17, true, colInk)
+	}
+	if len(ba.added) <= maxMarked {
+		s.placeLabels(c, ba.added, ba.labels, 9*c.u, 18, true)
+	}
+	c.frame()
+	c.scaleBar()
+	c.northArrow()
+	c.legend(items, notes)
+	return c, nil
+}
+
+// fillGaps paints the outlines of gaps in col.
+func (s *planScene) fillGaps(c *canvas, gaps []coverage.Gap, col color.RGBA) {
+	if len(gaps) == 0 {
+		return
+	}
+	f := c.newFill()
+	var tmp []float64
+	for _, g := range gaps {
+		for _, poly := range g.Outline {
+			for k, ring := range poly {
+				tmp = ringXY(ring, tmp[:0])
+				f.ringXY(tmp, k == 0)
+			}
+		}
+	}
+	c.paint(f.mask(), color.NRGBA(col), nil)
+}
+
+// diskOutlines strokes every existing device's disk of radius rho px,
+// thin and translucent, inside the area (clip).
+func (s *planScene) diskOutlines(c *canvas, rho float64, unit []float64, clip *image.Alpha) {
+	f := c.newFill()
+	w := 1.0 * c.u
+	s.forSites(func(x, y float64) {
+		px, py := c.ox+x*c.k, c.oy-y*c.k
+		n := len(unit) / 2
+		for i := range n {
+			j := (i + 1) % n
+			f.segment(px+rho*unit[2*i], py+rho*unit[2*i+1], px+rho*unit[2*j], py+rho*unit[2*j+1], w)
+		}
+	})
+	c.paint(f.mask(), color.NRGBA{colDiskEdge.R, colDiskEdge.G, colDiskEdge.B, 0x90}, clip)
+}
+
+// newFillSeparate is newFill with a rasterizer of its own, for fills
+// collected at the same time as another.
+func (c *canvas) newFillSeparate() *fastFill {
+	return &fastFill{c: c, vr: vector.NewRasterizer(c.w, c.h)}
+}
+
+// inFrame runs draw with gg's drawing clipped to the map frame.
+func (c *canvas) inFrame(draw func()) {
+	c.dc.Push()
+	c.dc.DrawRectangle(c.fx, c.fy, c.fw, c.fh)
+	c.dc.Clip()
+	draw()
+	c.dc.ResetClip()
+	c.dc.Pop()
+}
+
+// newMark draws a new device: a blue square with a white halo and a dark
+// edge.
+func (c *canvas) newMark(x, y, r float64) {
+	c.dc.DrawRectangle(x-r, y-r, 2*r, 2*r)
+	c.dc.SetColor(color.White)
+	c.dc.SetLineWidth(4.5 * c.u)
+	c.dc.StrokePreserve()
+	c.dc.SetColor(colNew)
+	c.dc.FillPreserve()
+	c.dc.SetColor(colInk)
+	c.dc.SetLineWidth(1.6 * c.u)
+	c.dc.Stroke()
+}
+
+// spotMark draws a candidate spot not picked: an open triangle.
+func (c *canvas) spotMark(x, y, r float64) {
+	c.dc.MoveTo(x, y-r)
+	c.dc.LineTo(x+r*0.87, y+r*0.5)
+	c.dc.LineTo(x-r*0.87, y+r*0.5)
+	c.dc.ClosePath()
+	c.dc.SetColor(color.White)
+	c.dc.SetLineWidth(4 * c.u)
+	c.dc.StrokePreserve()
+	c.dc.SetColor(colInk)
+	c.dc.SetLineWidth(1.8 * c.u)
+	c.dc.Stroke()
+}
+
+func swatchNew(c *canvas, x, y, w, h float64) { c.newMark(x+w/2, y+h/2, 7*c.u) }
+
+func swatchSpot(c *canvas, x, y, w, h float64) { c.spotMark(x+w/2, y+h/2+1*c.u, 7*c.u) }
+
+func swatchDeepestLeft(c *canvas, x, y, w, h float64) {
+	c.dc.SetColor(colGap)
+	c.dc.DrawRectangle(x, y, w, h)
+	c.dc.Fill()
+	c.deepestMark(x+w/2, y+h/2)
+}
+
+func swatchDashed(c *canvas, x, y, w, h float64) {
+	c.dc.SetColor(colNewDisk)
+	c.dc.SetLineWidth(1.8 * c.u)
+	c.dc.SetDash(7*c.u, 5*c.u)
+	c.dc.DrawLine(x, y+h/2, x+w, y+h/2)
+	c.dc.Stroke()
+	c.dc.SetDash()
+}
+
+// placeLabels writes texts beside the points at pixel offset gap from
+// each, trying four positions and taking the first that overlaps no
+// earlier label or mark and stays in the frame (else the least overlap).
+func (s *planScene) placeLabels(c *canvas, pts []orb.Point, texts []string, gap, pt float64, bold bool) {
+	type box struct{ x0, y0, x1, y1 float64 }
+	overlap := func(a, b box) float64 {
+		w := math.Min(a.x1, b.x1) - math.Max(a.x0, b.x0)
+		h := math.Min(a.y1, b.y1) - math.Max(a.y0, b.y0)
+		if w <= 0 || h <= 0 {
+			return 0
+		}
+		return w * h
+	}
+	var taken []box
+	for _, p := range pts {
+		x, y := c.px(p)
+		taken = append(taken, box{x - gap, y - gap, x + gap, y + gap})
+	}
+	frame := box{c.fx + 2, c.fy + 2, c.fx + c.fw - 2, c.fy + c.fh - 2}
+	face := c.face(pt, bold)
+	for i, p := range pts {
+		text := texts[i]
+		w := float64(font.MeasureString(face, text)) / 64
+		h := pt * c.u * 0.78
+		x, y := c.px(p)
+		g := gap + 2*c.u
+		cands := []box{
+			{x + g, y - g - h + 4*c.u, x + g + w, y - g + 4*c.u},
+			{x + g, y + g - 4*c.u, x + g + w, y + g + h - 4*c.u},
+			{x - g - w, y - g - h + 4*c.u, x - g, y - g + 4*c.u},
+			{x - g - w, y + g - 4*c.u, x - g, y + g + h - 4*c.u},
+		}
+		best, bestCost := 0, math.Inf(1)
+		for k, b := range cands {
+			cost := 0.0
+			for _, t := range taken {
+				cost += overlap(b, t)
+			}
+			cost += 4 * (w*h - overlap(b, frame))
+			if cost < bestCost-1e-9 {
+				best, bestCost = k, cost
+			}
+			if cost == 0 {
+				break
+			}
+		}
+		b := cands[best]
+		taken = append(taken, b)
+		c.haloText(text, b.x0, b.y1, 0, 0, pt, bold, colInk)
+	}
+}
+
+// lossClasses returns the class upper bounds of the positive losses:
+// their quintiles (the values at ranks ⌈kn/5⌉, k = 1..5), rounded up to
+// two significant digits so the legend reads plainly, repeated bounds
+// dropped. Quintile classes keep a skewed distribution (a few critical
+// devices, many redundant ones) from painting nearly every cell alike.
+func lossClasses(losses []float64) []float64 {
+	var pos []float64
+	for _, v := range losses {
+		if v > 0 && !math.IsInf(v, 0) {
+			pos = append(pos, v)
+		}
+	}
+	if len(pos) == 0 {
+		return nil
+	}
+	slices.Sort(pos)
+	var ub []float64
+	for k := 1; k <= 5; k++ {
+		i := (k*len(pos)+4)/5 - 1
+		u := roundUp2(pos[i])
+		if len(ub) == 0 || u > ub[len(ub)-1] {
+			ub = append(ub, u)
+		}
+	}
+	return ub
+}
+
+// roundUp2 rounds v > 0 up to two significant digits.
+func roundUp2(v float64) float64 {
+	e := math.Pow(10, math.Floor(math.Log10(v))-1)
+	r := math.Ceil(v/e-1e-9) * e
+	// Keep the printed value exact (e.g. 0.1 + rounding).
+	if t, err := strconv.ParseFloat(strconv.FormatFloat(r, 'g', 2, 64), 64); err == nil && t >= v {
+		return t
+	}
+	return r
+}
+
+// classColours spreads n classes over the viridis colours.
+func classColours(n int) []color.RGBA {
+	out := make([]color.RGBA, n)
+	for k := range out {
+		idx := len(viridis) - 1
+		if n > 1 {
+			idx = int(math.Round(float64(k) * float64(len(viridis)-1) / float64(n-1)))
+		}
+		out[k] = viridis[idx]
+	}
+	return out
+}
+
+// lossClass returns the class of a loss (-1: no loss).
+func lossClass(loss float64, ub []float64) int {
+	if !(loss > 0) {
+		return -1
+	}
+	for k, u := range ub {
+		if loss <= u {
+			return k
+		}
+	}
+	return len(ub) - 1
+}
+
+func (s *planScene) failureMap(width int) ([]byte, error) {
+	fr := s.p.Failures
+	maxLoss := 0.0
+	bySite := make(map[int]*coverage.DeviceFailure, len(fr.Devices))
+	rank := make(map[int]int, len(fr.Devices))
+	for k := range fr.Devices {
+		d := &fr.Devices[k]
+		bySite[d.Site] = d
+		rank[d.Site] = k + 1
+		if !math.IsInf(d.AddedUncovered, 0) {
+			maxLoss = math.Max(maxLoss, d.AddedUncovered)
+		}
+	}
+	losses := make([]float64, len(fr.Devices))
+	for k, d := range fr.Devices {
+		losses[k] = d.AddedUncovered
+	}
+	ub := lossClasses(losses)
+	cols := classColours(len(ub))
+	var items []legendItem
+	items = append(items, legendItem{"No loss (the others cover all it served)", swatchFill(colNoLoss, colCellEdge)})
+	for k := range ub {
+		lo := 0.0
+		if k > 0 {
+			lo = ub[k-1]
+		}
+		items = append(items, legendItem{fmt.Sprintf("Loss %s-%s m2", trimFloat(lo), trimFloat(ub[k])), swatchFill(cols[k], colCellEdge)})
+	}
+	items = append(items,
+		legendItem{"Device (number: rank of the ten worst failures)", swatchDot},
+		legendItem{"Point fixing the range that survives any single failure", swatchWorst},
+		legendItem{"Site area outline", swatchLine(colInk, 2.2)},
+		legendItem{"Exclusion zone (no coverage needed)", swatchHatch})
+	notes := []string{
+		fmt.Sprintf("Service areas filled by the area left uncovered at %s when their device is out of service (the others working).", metresShort(fr.Range)),
+		"North up: the y axis of the local plane (grid north). " + s.planeNote(),
+	}
+	if n := s.denseNote(width, "single service areas"); n != "" {
+		notes = append(notes, n)
+	}
+	c, err := layoutCanvas(s.extent(), width, items, len(notes))
+	if err != nil {
+		return nil, err
+	}
+	d := s.density(c)
+	title := "Device failures at " + metresShort(fr.Range)
+	if s.m.Title != "" {
+		title += ": " + s.m.Title
+	}
+	sub := "Whichever single device fails, the others cover everything from "
+	if math.IsInf(fr.SurviveRange, 0) {
+		sub = "A single device: nothing remains when it fails"
+	} else {
+		sub += metresShort(fr.SurviveRange) + fmt.Sprintf(" (diamond); worst loss %.0f m2", maxLoss)
+	}
+	c.title(title, sub)
+
+	s.drawArea(c)
+	if cl := s.l.Cells; cl != nil {
+		nv := len(cl.SiteStart) - 1
+		classOf := make([]int, nv)
+		for v := range nv {
+			classOf[v] = -1
+			if df := bySite[int(s.l.Tri.Source[v])]; df != nil {
+				classOf[v] = lossClass(df.AddedUncovered, ub)
+			}
+		}
+		for k := -1; k < len(ub); k++ {
+			f := c.newFill()
+			drawn := false
+			for v := range nv {
+				if classOf[v] == k {
+					s.cellFill(f, v)
+					drawn = true
+				}
+			}
+			if !drawn {
+				continue
+			}
+			col := colNoLoss
+			if k >= 0 {
+				col = cols[k]
+			}
+			c.paint(f.mask(), color.NRGBA(col), nil)
+		}
+		if d.spacing >= 4*c.u {
+			f := c.newFill()
+			s.cellEdges(f, 1.0*c.u)
+			c.paint(f.mask(), color.NRGBA{0x30, 0x30, 0x30, 0xC0}, nil)
+		}
+	}
+	s.drawZones(c)
+	s.strokeArea(c)
+	s.drawSiteMarks(c, d)
+	var pts []orb.Point
+	var texts []string
+	for k := 0; k < min(10, len(fr.Devices)); k++ {
+		if fr.Devices[k].Shared {
+			continue
+		}
+		pts = append(pts, s.l.Sites[fr.Devices[k].Site])
+		texts = append(texts, fmt.Sprint(k+1))
+	}
+	if fr.SurviveSite >= 0 && !math.IsInf(fr.SurviveRange, 0) {
+		x, y := c.px(fr.SurvivePoint)
+		c.worstMark(x, y)
+	}
+	if d.spacing >= 12*c.u {
+		s.placeLabels(c, pts, texts, 6*c.u, 18, true)
+	}
+	if fr.SurviveSite >= 0 && !math.IsInf(fr.SurviveRange, 0) {
+		s.placeLabels(c, []orb.Point{fr.SurvivePoint}, []string{"needs " + metresShort(fr.SurviveRange)}, 12*c.u, 17, true)
+	}
+	c.frame()
+	c.scaleBar()
+	c.northArrow()
+	c.legend(items, notes)
+	return c.encode()
+}
+
+func (s *planScene) assignmentMap(width int) ([]byte, error) {
+	p, a := s.p, s.p.Assignment
+	ranged := s.hasRange()
+	var items []legendItem
+	if ranged {
+		items = append(items, legendItem{fmt.Sprintf("Within %s of a device", metresShort(p.Range)), swatchFill(colCovered, colDiskEdge)})
+	}
+	items = append(items,
+		legendItem{"Service-area edge", swatchLine(colCellEdge, 1.2)},
+		legendItem{"Demand item within range, line to its device", swatchWithin})
+	if ranged {
+		items = append(items, legendItem{"Demand item beyond range", swatchBeyond})
+	}
+	polys := 0
+	for _, q := range p.DemandPolygons {
+		if q != nil {
+			polys++
+		}
+	}
+	if polys > 0 {
+		items = append(items, legendItem{"Building or yard outline (demand polygon)", swatchFill(colBuild, colInk)})
+	}
+	items = append(items,
+		legendItem{"Device (label: items served)", swatchDot},
+		legendItem{"Site area outline", swatchLine(colInk, 2.2)},
+		legendItem{"Exclusion zone (no coverage needed)", swatchHatch})
+	notes := []string{"North up: the y axis of the local plane (grid north). " + s.planeNote()}
+	c, err := layoutCanvas(s.demandExtent(), width, items, len(notes))
+	if err != nil {
+		return nil, err
+	}
+	d := s.density(c)
+	title := fmt.Sprintf("Demand served (%d items)", len(p.Demand))
+	if s.m.Title != "" {
+		title += ": " + s.m.Title
+	}
+	sub := "Each item is served by its nearest device"
+	if ranged {
+		sub = fmt.Sprintf("%d of %d items within %s of their nearest device; %d beyond", a.Served, len(p.Demand), metresShort(p.Range), a.Unserved)
+		if p.Weighted {
+			sub += fmt.Sprintf(" (weight %s within, %s beyond)", weightText(a.ServedWeight), weightText(a.UnservedWeight))
+		}
+	}
+	c.title(title, sub)
+
+	areaMask := s.drawArea(c)
+	if ranged {
+		rho := p.Range * c.k
+		unit := unitCircle(circleSides(rho))
+		f := c.newFill()
+		s.forSites(func(x, y float64) { f.circle(c.ox+x*c.k, c.oy-y*c.k, rho, unit) })
+		c.paint(f.mask(), color.NRGBA(colCovered), areaMask)
+	}
+	if s.l.Cells != nil && d.spacing >= 4*c.u {
+		f := c.newFill()
+		s.cellEdges(f, 1.0*c.u)
+		c.paint(f.mask(), color.NRGBA{0x44, 0x44, 0x44, 0xA0}, nil)
+	}
+	s.drawZones(c)
+	s.strokeArea(c)
+	if polys > 0 {
+		f := c.newFill()
+		edge := c.newFillSeparate()
+		var tmp []float64
+		for _, mp := range p.DemandPolygons {
+			for _, poly := range mp {
+				for k, ring := range poly {
+					tmp = ringXY(ring, tmp[:0])
+					f.ringXY(tmp, k == 0)
+					edge.polylineXY(tmp, 1.2*c.u)
+				}
+			}
+		}
+		c.paint(f.mask(), color.NRGBA(colBuild), nil)
+		c.paint(edge.mask(), color.NRGBA(colInk), nil)
+	}
+	// Lines: within range dark, beyond range vermilion and wider.
+	lw := 1.4 * c.u
+	if len(p.Demand) > 5000 {
+		lw = 0.7
+	}
+	in, out := c.newFill(), c.newFillSeparate()
+	for i, q := range p.Demand {
+		x0, y0 := c.px(q)
+		x1, y1 := c.px(s.l.Sites[a.Device[i]])
+		if !ranged || a.Within[i] {
+			in.segment(x0, y0, x1, y1, lw)
+		} else {
+			out.segment(x0, y0, x1, y1, 1.6*lw)
+		}
+	}
+	c.paint(in.mask(), color.NRGBA{0x1A, 0x1A, 0x1A, 0xB0}, nil)
+	c.paint(out.mask(), color.NRGBA(colBeyond), nil)
+	s.drawSiteMarks(c, d)
+	// Demand marks: squares within range, triangles beyond.
+	r := 5.5 * c.u
+	if len(p.Demand) > 5000 {
+		r = math.Max(1.2, 2*c.u)
+	}
+	halo, inM, outM := c.newFill(), c.newFillSeparate(), c.newFillSeparate()
+	for i, q := range p.Demand {
+		x, y := c.px(q)
+		if !ranged || a.Within[i] {
+			halo.ringPx([]float64{x - r - 1.5*c.u, y - r - 1.5*c.u, x + r + 1.5*c.u, y - r - 1.5*c.u, x + r + 1.5*c.u, y + r + 1.5*c.u, x - r - 1.5*c.u, y + r + 1.5*c.u}, 1)
+			inM.ringPx([]float64{x - r, y - r, x + r, y - r, x + r, y + r, x - r, y + r}, 1)
+		} else {
+			t := 1.3 * r
+			h := t + 2*c.u
+			halo.ringPx([]float64{x, y - h, x + h*0.87, y + h*0.5, x - h*0.87, y + h*0.5}, 1)
+			outM.ringPx([]float64{x, y - t, x + t*0.87, y + t*0.5, x - t*0.87, y + t*0.5}, 1)
+		}
+	}
+	if len(p.Demand) <= 5000 {
+		c.paint(halo.mask(), color.NRGBA{0xFF, 0xFF, 0xFF, 0xFF}, nil)
+	}
+	c.paint(inM.mask(), color.NRGBA(colWithin), nil)
+	c.paint(outM.mask(), color.NRGBA(colBeyond), nil)
+	// Label the devices that serve something, when few.
+	var pts []orb.Point
+	var texts []string
+	for i, ld := range a.Load {
+		if ld.Count == 0 {
+			continue
+		}
+		t := s.shortLabel(i) + fmt.Sprintf(": %d", ld.Count)
+		if p.Weighted {
+			t += " (w " + weightText(ld.Weight) + ")"
+		}
+		pts = append(pts, s.l.Sites[i])
+		texts = append(texts, t)
+	}
+	if len(pts) <= maxMarked && d.spacing >= 25*c.u {
+		s.placeLabels(c, pts, texts, 6*c.u, 14, false)
+	}
+	c.frame()
+	c.scaleBar()
+	c.northArrow()
+	c.legend(items, notes)
+	return c.encode()
+}
+
+// demandExtent is the map extent of the assignment map: the area and
+// every demand item.
+func (s *planScene) demandExtent() orb.Bound {
+	b := s.extent()
+	for _, q := range s.p.Demand {
+		b = b.Extend(q)
+	}
+	return b
+}
+
+func swatchWithin(c *canvas, x, y, w, h float64) {
+	c.dc.SetColor(colInk)
+	c.dc.SetLineWidth(1.4 * c.u)
+	c.dc.DrawLine(x, y+h/2, x+w, y+h/2)
+	c.dc.Stroke()
+	r := 5.5 * c.u
+	c.dc.DrawRectangle(x+w/2-r, y+h/2-r, 2*r, 2*r)
+	c.dc.SetColor(color.White)
+	c.dc.SetLineWidth(3 * c.u)
+	c.dc.StrokePreserve()
+	c.dc.SetColor(colWithin)
+	c.dc.Fill()
+}
+
+func swatchBeyond(c *canvas, x, y, w, h float64) {
+	c.dc.SetColor(colBeyond)
+	c.dc.SetLineWidth(2.2 * c.u)
+	c.dc.DrawLine(x, y+h/2, x+w, y+h/2)
+	c.dc.Stroke()
+	t := 7 * c.u
+	cx, cy := x+w/2, y+h/2+1*c.u
+	c.dc.MoveTo(cx, cy-t)
+	c.dc.LineTo(cx+t*0.87, cy+t*0.5)
+	c.dc.LineTo(cx-t*0.87, cy+t*0.5)
+	c.dc.ClosePath()
+	c.dc.SetColor(color.White)
+	c.dc.SetLineWidth(3 * c.u)
+	c.dc.StrokePreserve()
+	c.dc.SetColor(colBeyond)
+	c.dc.Fill()
+}
+
+// plural returns "1 gap", "2 gaps".
+func plural(n int, noun string) string {
+	if n == 1 {
+		return "1 " + noun
+	}
+	return fmt.Sprintf("%d %ss", n, noun)
+}

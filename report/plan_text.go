@@ -1,0 +1,483 @@
+// report.txt of the planning moves: the same plain fixed-width layout as
+// the analysis report (header, inputs, the existing layout, the move's
+// sections, accuracy notes, warnings, files, cautions), figures rounded
+// for display only — lengths to 0.01 m, areas to 0.1 m², shares to
+// 0.001 %, degrees to 7 decimals.
+
+package report
+
+import (
+	"bytes"
+	"fmt"
+	"math"
+	"strings"
+	"unicode/utf8"
+
+	"github.com/sitecover/sitecover/coverage"
+)
+
+// maxDemandRows is the largest number of demand items listed one by one
+// in report.txt; beyond it only the items out of range are listed (all
+// items are in assignment.csv and summary.json).
+const maxDemandRows = 200
+
+// moveTitle is the report title of a move.
+var moveTitle = map[Move]string{
+	MoveAdd:        "Suggested additions",
+	MoveFewest:     "Fewest additions for full cover",
+	MoveCandidates: "Choice among candidate spots",
+	MoveFailures:   "Device failures",
+	MoveAssign:     "Assignment of demand to devices",
+}
+
+func (s *planScene) planText() []byte {
+	var b bytes.Buffer
+	title := moveTitle[s.p.Move]
+	if s.m.Title != "" {
+		title += ": " + s.m.Title
+	}
+	b.WriteString(title + "\n" + strings.Repeat("=", utf8.RuneCountInString(title)) + "\n")
+	v := s.m.Version
+	if v == "" {
+		v = "(version not set)"
+	}
+	fmt.Fprintf(&b, "Written by sitecover %s, command %q.\n", v, orDash(s.m.Command))
+	b.WriteString("Sites (existing devices) are numbered #0, #1, ... in input order (as in summary.json).\n")
+	if s.m.LifeSafety {
+		section(&b, "CAUTIONS (LIFE-SAFETY DEVICES)")
+		b.WriteString(Cautions() + "\n")
+	}
+	s.textInputs(&b)
+	s.planInputs(&b)
+	s.textExisting(&b)
+	switch s.p.Move {
+	case MoveAdd, MoveFewest:
+		s.textSuggestion(&b)
+	case MoveCandidates:
+		s.textCandidates(&b)
+	case MoveFailures:
+		s.textFailures(&b)
+	case MoveAssign:
+		s.textAssignment(&b)
+	}
+	s.textPlanNotes(&b)
+	section(&b, "WARNINGS")
+	if w := s.warnings(); len(w) == 0 {
+		b.WriteString("  none\n")
+	} else {
+		for _, line := range w {
+			b.WriteString("  - " + line + "\n")
+		}
+	}
+	section(&b, "FILES IN THIS FOLDER")
+	for _, f := range s.files {
+		b.WriteString("  " + f + strings.Repeat(" ", max(1, 28-len(f))) + planFileNote(f) + "\n")
+	}
+	if !s.m.LifeSafety {
+		section(&b, "CAUTIONS")
+		b.WriteString(Cautions() + "\n")
+	}
+	return b.Bytes()
+}
+
+// planInputs adds the move's own inputs under INPUTS.
+func (s *planScene) planInputs(b *bytes.Buffer) {
+	kv := &kvList{}
+	switch s.p.Move {
+	case MoveCandidates:
+		kv.add("Candidates file", fmt.Sprintf("%s (%d candidate spots)", orDash(s.m.CandidatesFile), len(s.p.Candidates)))
+	case MoveAssign:
+		polys := 0
+		for _, p := range s.p.DemandPolygons {
+			if p != nil {
+				polys++
+			}
+		}
+		what := fmt.Sprintf("%d demand items", len(s.p.Demand))
+		if polys > 0 {
+			what += fmt.Sprintf(" (%d polygons, each placed at a point on it)", polys)
+		}
+		if s.p.Weighted {
+			what += ", weighted"
+		} else {
+			what += ", no weights (each counts 1)"
+		}
+		kv.add("Demand file", orDash(s.m.PointsFile)+": "+what)
+	}
+	if len(kv.k) > 0 {
+		kv.write(b)
+	}
+}
+
+// rangeText describes the range of the figures.
+func (s *planScene) rangeText() string {
+	if !s.hasRange() {
+		return "none given: distances only, no within-range figures"
+	}
+	t := metres(s.p.Range)
+	if !s.p.RangeGiven && s.p.RangeNote != "" {
+		t += " (no range given: " + s.p.RangeNote + ")"
+	}
+	return t
+}
+
+func (s *planScene) textExisting(b *bytes.Buffer) {
+	p := s.p
+	section(b, "THE EXISTING LAYOUT")
+	kv := &kvList{}
+	kv.add("Range of the figures", s.rangeText())
+	if s.hasRange() {
+		kv.add("Covered", fmt.Sprintf("%.3f %% of the area", 100*s.fraction(p.Uncovered)))
+		kv.add("Uncovered", fmt.Sprintf("%s (%s)", m2(p.Uncovered), ha(p.Uncovered)))
+	}
+	if p.Move == MoveAdd || p.Move == MoveFewest || p.Move == MoveCandidates {
+		kv.add("Gaps", fmt.Sprintf("%d at %s", len(p.GapsBefore), metres(p.Range)))
+	}
+	fc := metres(p.FullCover.Range) + ": the smallest common range that leaves no gap"
+	kv.add("Full-cover range", fc)
+	if len(p.FullCover.Worst) > 0 {
+		w := s.pointText(p.FullCover.Worst[0])
+		if len(p.FullCover.WorstSites) > 0 {
+			w += ", nearest site " + s.label(p.FullCover.WorstSites[0])
+		}
+		kv.add("  needed at", w)
+	}
+	kv.write(b)
+}
+
+func (s *planScene) textSuggestion(b *bytes.Buffer) {
+	p, sg := s.p, s.p.Suggestion
+	if p.Move == MoveAdd {
+		section(b, fmt.Sprintf("%d SUGGESTED DEVICES (free placement)", len(sg.Added)))
+		b.WriteString("  Each new device goes to the point farthest from every device (farthest-point\n")
+		b.WriteString("  insertion, Gonzalez 1985), then moves to the centre of the smallest circle\n")
+		b.WriteString("  enclosing its service area while the full-cover range falls. Existing devices\n")
+		b.WriteString("  stay where they are. Figures before and after each addition, in order:\n\n")
+	} else {
+		section(b, fmt.Sprintf("FEWEST ADDITIONS FOR NO GAP AT %s", metres(p.Range)))
+		kv := &kvList{}
+		switch {
+		case len(sg.Added) == 0 && sg.Reached:
+			kv.add("Additions needed", "none: no gap at this range")
+		case sg.Reached:
+			kv.add("Additions needed", fmt.Sprintf("%d (by %s), %d devices in all", len(sg.Added), sg.Method, sg.TotalDevices))
+		default:
+			kv.add("Additions", fmt.Sprintf("%d placed, and gaps remain: the search stopped at its cap (%s)", len(sg.Added), sg.Method))
+		}
+		kv.add("Hexagonal estimate", fmt.Sprintf("%.2f devices (%d): area / ((3*sqrt(3)/2) r2), the thinnest covering of", sg.HexEstimate, sg.HexDevices))
+		kv.add("", "the plane by equal disks (Kershner 1939); boundaries make real sites need more")
+		if sg.HexEstimate > 0 {
+			kv.add("Plan against estimate", fmt.Sprintf("%d devices = %.2f times the estimate (1 is the unreachable ideal)", sg.TotalDevices, sg.HexRatio))
+		}
+		kv.write(b)
+		if len(sg.Added) == 0 {
+			return
+		}
+		b.WriteString("\n  The new devices, in the order placed, with the figures before and after each:\n\n")
+	}
+	t := &table{}
+	hx, hy := s.pointHeads()
+	t.head("New", hx, hy, "Full cover m", "after m", "Covered %", "after %", "Uncovered m2", "after m2")
+	for j, st := range sg.Steps {
+		px, py := s.pointCols(st.Added)
+		t.row(fmt.Sprintf("+%d", j+1), px, py,
+			fmt.Sprintf("%.2f", st.FullCoverBefore), fmt.Sprintf("%.2f", st.FullCoverAfter),
+			fmt.Sprintf("%.3f", 100*st.CoveredBefore), fmt.Sprintf("%.3f", 100*st.CoveredAfter),
+			fmt.Sprintf("%.1f", st.UncoveredBefore), fmt.Sprintf("%.1f", st.UncoveredAfter))
+	}
+	t.write(b)
+	section(b, "BEFORE AND AFTER")
+	kv := &kvList{}
+	kv.add("Devices", fmt.Sprintf("%d existing + %d new = %d", sg.Existing, len(sg.Added), sg.Existing+len(sg.Added)))
+	kv.add("Full-cover range", fmt.Sprintf("%s -> %s", metres(sg.FullCoverBefore), metres(sg.FullCoverAfter)))
+	kv.add("Covered at "+metres(sg.Range), fmt.Sprintf("%.3f %% -> %.3f %%", 100*sg.CoveredBefore, 100*sg.CoveredAfter))
+	kv.add("Uncovered", fmt.Sprintf("%s -> %s", m2(sg.UncoveredBefore), m2(sg.UncoveredAfter)))
+	kv.add("Gaps", fmt.Sprintf("%d -> %d", len(p.GapsBefore), len(p.GapsAfter)))
+	kv.write(b)
+	s.textGapList(b, "GAPS LEFT WITH THE NEW DEVICES", p.GapsAfter, "none: the new layout leaves no gap at this range")
+}
+
+// textGapList writes a table of gaps (id, area, closing range, deepest
+// point, kind).
+func (s *planScene) textGapList(b *bytes.Buffer, title string, gaps []coverage.Gap, none string) {
+	section(b, fmt.Sprintf("%s AT %s", title, metres(s.p.Range)))
+	if len(gaps) == 0 {
+		b.WriteString("  " + none + "\n")
+		return
+	}
+	t := &table{}
+	hx, hy := s.pointHeads()
+	t.head("ID", "Area m2", "Closing m", hx, hy, "Kind")
+	t.left(5)
+	total := 0.0
+	for _, g := range gaps {
+		kind := "enclosed"
+		if g.TouchesBoundary {
+			kind = "edge"
+		}
+		px, py := s.pointCols(g.Deepest)
+		t.row(fmt.Sprint(g.ID), fmt.Sprintf("%.1f", g.Area), fmt.Sprintf("%.2f", g.ClosingRange), px, py, kind)
+		total += g.Area
+	}
+	t.write(b)
+	fmt.Fprintf(b, "  %s, %s in all.\n", plural(len(gaps), "gap"), m2(total))
+}
+
+func (s *planScene) textCandidates(b *bytes.Buffer) {
+	p, ch := s.p, s.p.Choice
+	if p.Requested > 0 {
+		section(b, fmt.Sprintf("CHOICE OF %d AMONG %d CANDIDATE SPOTS AT %s", p.Requested, len(p.Candidates), metres(ch.Range)))
+	} else {
+		section(b, fmt.Sprintf("FEWEST CANDIDATE SPOTS FOR NO GAP AT %s", metres(ch.Range)))
+	}
+	b.WriteString("  Greedy choice: each pick is the spot that adds the most covered area, exact\n")
+	b.WriteString("  marginal areas with lazy re-evaluation. For K picks the added area is at least\n")
+	b.WriteString("  (1 - 1/e) = 63.2 % of the best possible (Nemhauser, Wolsey & Fisher 1978).\n\n")
+	if len(ch.Picked) == 0 {
+		b.WriteString("  No spot picked: ")
+		if ch.UncoveredBefore == 0 {
+			b.WriteString("the existing devices leave no gap.\n")
+		} else {
+			b.WriteString("no candidate adds covered area.\n")
+		}
+	} else {
+		t := &table{}
+		hx, hy := s.pointHeads()
+		t.head("Pick", "Spot", hx, hy, "Adds m2", "Covered %", "Name")
+		t.left(6)
+		cum := cumulative(ch)
+		for j, c := range ch.Picked {
+			px, py := s.pointCols(p.Candidates[c])
+			t.row(fmt.Sprint(j+1), fmt.Sprintf("c%d", c), px, py, fmt.Sprintf("%.1f", ch.Gains[j]),
+				fmt.Sprintf("%.3f", 100*math.Max(0, math.Min(1, cum[j]/s.l.AreaM2))), orDash(p.CandidateNames[c]))
+		}
+		t.write(b)
+		b.WriteString("  Spot: c<index> is the 0-based order in the candidates file.\n")
+	}
+	section(b, "BEFORE AND AFTER")
+	kv := &kvList{}
+	kv.add("Spots picked", fmt.Sprintf("%d of %d", len(ch.Picked), len(p.Candidates)))
+	kv.add("Full-cover range", fmt.Sprintf("%s -> %s", metres(ch.FullCoverBefore), metres(ch.FullCoverAfter)))
+	kv.add("Covered at "+metres(ch.Range), fmt.Sprintf("%.3f %% -> %.3f %%", 100*ch.FractionBefore, 100*ch.FractionAfter))
+	kv.add("Uncovered", fmt.Sprintf("%s -> %s", m2(ch.UncoveredBefore), m2(ch.UncoveredAfter)))
+	kv.add("Gaps", fmt.Sprintf("%d -> %d", len(p.GapsBefore), len(ch.Remaining)))
+	switch {
+	case ch.Complete:
+		kv.add("Result", "full cover: no gap remains at this range")
+	case ch.Exhausted:
+		kv.add("Result", fmt.Sprintf("FULL COVER CANNOT BE REACHED from these candidates: no remaining spot adds covered area; %s remain uncovered in %s",
+			m2(ch.UncoveredAfter), plural(len(ch.Remaining), "gap")))
+	default:
+		kv.add("Result", fmt.Sprintf("%s leave %s uncovered in %s; more picks may close them", plural(len(ch.Picked), "pick"), m2(ch.UncoveredAfter), plural(len(ch.Remaining), "gap")))
+	}
+	kv.write(b)
+	s.textGapList(b, "GAPS LEFT WITH THE PICKS", ch.Remaining, "none: the picks leave no gap at this range")
+}
+
+func (s *planScene) textFailures(b *bytes.Buffer) {
+	fr := s.p.Failures
+	section(b, "SURVIVING ANY SINGLE FAILURE")
+	kv := &kvList{}
+	if math.IsInf(fr.SurviveRange, 0) {
+		kv.add("Range", "none: with a single device nothing remains when it fails")
+	} else {
+		kv.add("Range", metres(fr.SurviveRange)+": whichever one device fails, the others")
+		kv.add("", "still cover the whole area at this range (the largest distance")
+		kv.add("", "from a point of the area to its second-nearest device)")
+		kv.add("  needed at", fmt.Sprintf("%s, when %s fails", s.pointText(fr.SurvivePoint), s.label(fr.SurviveSite)))
+		kv.add("Against the planned range", fmt.Sprintf("%s is %.2f times %s", metres(fr.SurviveRange), fr.SurviveRange/fr.Range, metres(fr.Range)))
+	}
+	kv.write(b)
+
+	section(b, fmt.Sprintf("DEVICES RANKED BY WHAT THEIR FAILURE UNCOVERS AT %s", metres(fr.Range)))
+	b.WriteString("  Loss: uncovered area added when the device is out of service (the others\n")
+	b.WriteString("  working). Closing: the range the others need to cover what it served, the depth\n")
+	b.WriteString("  of the deepest new gap; at that point the backup device is the nearest one left.\n")
+	b.WriteString("  Ranked by loss, then closing range.\n\n")
+	t := &table{}
+	hx, hy := s.pointHeads()
+	t.head("Rank", "Site", "Loss m2", "Uncovered m2", "Closing m", hx, hy, "Full cover m", "Backup", "Name")
+	t.left(8, 9)
+	for k, d := range fr.Devices {
+		px, py := s.pointCols(d.Deepest)
+		name := orDash(s.name(d.Site))
+		if d.Shared {
+			name += " (shares its spot: its failure changes nothing)"
+		}
+		backup := "-"
+		if d.Backup >= 0 {
+			backup = fmt.Sprintf("#%d", d.Backup)
+		}
+		t.row(fmt.Sprint(k+1), fmt.Sprintf("#%d", d.Site), fmt.Sprintf("%.1f", d.AddedUncovered), fmt.Sprintf("%.1f", d.Uncovered),
+			metresCol(d.ClosingRange), px, py, metresCol(d.FullCover), backup, name)
+	}
+	t.write(b)
+}
+
+// metresCol formats a length for a table cell ("none" when infinite).
+func metresCol(v float64) string {
+	if math.IsInf(v, 0) || math.IsNaN(v) {
+		return "none"
+	}
+	return fmt.Sprintf("%.2f", v)
+}
+
+// weightText formats a weight compactly.
+func weightText(w float64) string {
+	if w == math.Trunc(w) && math.Abs(w) < 1e15 {
+		return fmt.Sprintf("%.0f", w)
+	}
+	return trimFloat(w)
+}
+
+func (s *planScene) textAssignment(b *bytes.Buffer) {
+	p, a := s.p, s.p.Assignment
+	ranged := s.hasRange()
+	section(b, "DEMAND SERVED")
+	kv := &kvList{}
+	kv.add("Demand items", fmt.Sprint(len(p.Demand)))
+	if ranged {
+		kv.add("Within range", fmt.Sprintf("%d (weight %s)", a.Served, weightText(a.ServedWeight)))
+		kv.add("Beyond range", fmt.Sprintf("%d (weight %s): nearest device farther than %s", a.Unserved, weightText(a.UnservedWeight), metres(p.Range)))
+	}
+	far, farI := -1.0, -1
+	for i, d := range a.Distance {
+		if d > far {
+			far, farI = d, i
+		}
+	}
+	if farI >= 0 {
+		kv.add("Farthest from its device", fmt.Sprintf("%s: %s from %s", s.demandLabel(farI), metres(far), s.label(a.Device[farI])))
+	}
+	kv.write(b)
+
+	section(b, "LOAD PER DEVICE")
+	b.WriteString("  Each demand item is served by its nearest device (the one whose service area\n")
+	b.WriteString("  holds it). Devices serving nothing are listed too.\n\n")
+	t := &table{}
+	if ranged {
+		t.head("Site", "Items", "Weight", "In range", "Weight in range", "Name")
+		t.left(5)
+	} else {
+		t.head("Site", "Items", "Weight", "Name")
+		t.left(3)
+	}
+	for i, ld := range a.Load {
+		if ranged {
+			t.row(fmt.Sprintf("#%d", i), fmt.Sprint(ld.Count), weightText(ld.Weight), fmt.Sprint(ld.InRange), weightText(ld.InRangeWeight), orDash(s.name(i)))
+		} else {
+			t.row(fmt.Sprintf("#%d", i), fmt.Sprint(ld.Count), weightText(ld.Weight), orDash(s.name(i)))
+		}
+	}
+	t.write(b)
+
+	all := len(p.Demand) <= maxDemandRows
+	if all {
+		section(b, "DEMAND ITEMS AND THEIR DEVICES")
+	} else {
+		section(b, "DEMAND ITEMS BEYOND RANGE (all items are in "+FileAssignmentCSV+")")
+	}
+	t = &table{}
+	hx, hy := s.pointHeads()
+	t.head("Item", hx, hy, "Device", "Distance m", "In range", "Weight", "Name", "Device name")
+	t.left(7, 8)
+	rows := 0
+	for i := range p.Demand {
+		in := "-"
+		if ranged {
+			in = "yes"
+			if !a.Within[i] {
+				in = "NO"
+			}
+		}
+		if !all && (!ranged || a.Within[i]) {
+			continue
+		}
+		px, py := s.pointCols(p.Demand[i])
+		t.row(fmt.Sprint(i), px, py, fmt.Sprintf("#%d", a.Device[i]), fmt.Sprintf("%.2f", a.Distance[i]), in,
+			weightText(a.Weight[i]), orDash(s.demandName(i)), orDash(s.name(a.Device[i])))
+		rows++
+	}
+	if rows == 0 {
+		b.WriteString("  none\n")
+		return
+	}
+	t.write(b)
+}
+
+// demandLabel is "item i name" or "item i".
+func (s *planScene) demandLabel(i int) string {
+	if n := s.demandName(i); n != "" {
+		return fmt.Sprintf("item %d %s", i, n)
+	}
+	return fmt.Sprintf("item %d", i)
+}
+
+func (s *planScene) textPlanNotes(b *bytes.Buffer) {
+	section(b, "ACCURACY AND NOTES")
+	var lines []string
+	switch s.p.Move {
+	case MoveAdd, MoveFewest, MoveCandidates:
+		lines = append(lines,
+			"Areas, covered shares and full-cover ranges are closed-form results for the",
+			"disk model (polygon-disk intersections, Voronoi vertices), exact up to",
+			"floating-point rounding; printed rounded to 0.1 m2, 0.001 % and 0.01 m.",
+			"Gap outlines in the GeoJSON layers replace arcs by chords inside the disks",
+			"(sagitta at most 0.2 % of the range); gap areas are exact.",
+			"Positions are proposals for the disk model: check on site that a device can",
+			"be mounted there and reaches its range before committing.")
+	case MoveFailures:
+		lines = append(lines,
+			"Each failure is computed locally: only the failed device's service area",
+			"changes hands, shared among its Delaunay neighbours (Devillers 2002). Areas",
+			"and ranges are closed-form results for the disk model, exact up to rounding.")
+	case MoveAssign:
+		lines = append(lines,
+			"Distances are straight lines in the local plane, exact up to rounding; a",
+			"polygon is placed at its area centroid, or at a point on it when the centroid",
+			"falls outside (point on surface). Assignment follows the disk model, not",
+			"measured signal strength.")
+	}
+	if s.geographic() {
+		lines = append(lines,
+			"Points are WGS84 latitude/longitude in degrees, rounded to 7 decimals",
+			"(about 1 cm); GeoJSON layers are RFC 7946 (longitude first, exterior rings",
+			"counter-clockwise).")
+	} else {
+		lines = append(lines,
+			"Points are local plane x/y in metres, rounded to 1 mm; the *-xy.geojson",
+			"layers hold the same x/y metres (not RFC 7946 longitude/latitude).")
+	}
+	for _, l := range lines {
+		b.WriteString("  " + l + "\n")
+	}
+}
+
+// planFileNotes describes the planning outputs in the FILES section.
+var planFileNotes = map[string]string{
+	FileProposed:      "proposed devices (points) with figures before and after each",
+	FileGapsBefore:    "gaps of the existing layout (polygons)",
+	FileGapsAfter:     "gaps left after the additions (polygons)",
+	FileCandidates:    "every candidate spot (points), picked or not, with its gain",
+	FileFailures:      "devices (points) with the effect of their failure and rank",
+	FileFailuresCSV:   "the failure ranking as a table",
+	FileAssignment:    "lines from each demand item to its serving device",
+	FileAssignmentCSV: "each demand item: device, distance, within range, weight",
+	FileDeviceLoad:    "devices (points) with the demand each serves",
+	FileDeviceLoadCSV: "demand served per device (count, weight)",
+	FileMapSuggest:    "map: proposed devices, gaps before and after",
+	FileMapCandidates: "map: candidate spots, picks, gaps before and after",
+	FileMapFailures:   "map: devices coloured by the loss their failure causes",
+	FileMapAssignment: "map: demand items and their serving devices",
+}
+
+func planFileNote(f string) string {
+	f = strings.Replace(f, "-xy.geojson", ".geojson", 1)
+	if n, ok := planFileNotes[f]; ok {
+		return n
+	}
+	if f == FileSites {
+		return "existing device sites (points)"
+	}
+	return fileNote[f]
+}
