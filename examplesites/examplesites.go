@@ -9,7 +9,8 @@
 // (PROJ, WGS84), so that it exercises the geographic input path. The files
 // are made by gen_campus.py in this folder, which also writes
 // campus-reference.json: figures computed with GEOS (shapely), GUDHI and
-// GeographicLib for the command's tests.
+// GeographicLib for the command's tests. The candidate mounting spots of
+// the planning demo are made by gen_candidates.py.
 //
 // The layout is meant to give a design review something to find: at the
 // planned range of 120 m about 97% of the park is covered and ten gaps
@@ -32,11 +33,12 @@ const PlannedRange = 120.0
 
 // File names of the embedded data, as they appear in messages and reports.
 const (
-	AreaFile      = "campus-area.geojson"
-	SitesFile     = "campus-sensors.geojson"
-	SitesCSVFile  = "campus-sensors.csv"
-	BuildingsFile = "campus-buildings.geojson"
-	ReferenceFile = "campus-reference.json"
+	AreaFile       = "campus-area.geojson"
+	SitesFile      = "campus-sensors.geojson"
+	SitesCSVFile   = "campus-sensors.csv"
+	BuildingsFile  = "campus-buildings.geojson"
+	CandidatesFile = "campus-candidates.geojson"
+	ReferenceFile  = "campus-reference.json"
 )
 
 //go:embed campus-area.geojson
@@ -50,6 +52,9 @@ var sitesCSV []byte
 
 //go:embed campus-buildings.geojson
 var buildings []byte
+
+//go:embed campus-candidates.geojson
+var candidates []byte
 
 //go:embed campus-reference.json
 var reference []byte
@@ -76,6 +81,12 @@ func SitesCSV() []byte { return clone(sitesCSV) }
 // BuildingsGeoJSON returns a copy of campus-buildings.geojson: named Point
 // features for the park's buildings (not used by the coverage analysis).
 func BuildingsGeoJSON() []byte { return clone(buildings) }
+
+// CandidatesGeoJSON returns a copy of campus-candidates.geojson: 22 named
+// Point features, invented spots where a new sensor could be mounted
+// (lamp posts, roofs, walls, fence posts; two just outside the boundary),
+// made by gen_candidates.py.
+func CandidatesGeoJSON() []byte { return clone(candidates) }
 
 // ReferenceJSON returns a copy of campus-reference.json: the campus's
 // figures at the planned range computed outside sitecover (see
