@@ -104,6 +104,8 @@ type gjProps struct {
 	Name    json.RawMessage `json:"name"`
 	ID      json.RawMessage `json:"id"`
 	Exclude json.RawMessage `json:"exclude"`
+	// Weight is read from demand points (assign --points) only.
+	Weight json.RawMessage `json:"weight"`
 }
 
 // gjFeature is a GeoJSON Feature.

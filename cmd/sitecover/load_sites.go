@@ -192,6 +192,15 @@ var csvColumns = map[string]string{
 }
 
 func sitesFromCSV(src source, planarInput bool) (*siteSet, error) {
+	s, _, err := pointsFromCSV(src, planarInput, false)
+	return s, err
+}
+
+// pointsFromCSV reads points from CSV as described in the file comment.
+// With withWeight a "weight" column is recognised too: weights then holds
+// one finite weight ≥ 0 per point (nil when the header has no weight
+// column); an empty or bad weight field is an error naming its line.
+func pointsFromCSV(src source, planarInput, withWeight bool) (s *siteSet, weights []float64, err error) {
 	data := src.data
 	firstLine := data
 	if i := bytes.IndexByte(data, '\n'); i >= 0 {
@@ -211,17 +220,20 @@ func sitesFromCSV(src source, planarInput bool) (*siteSet, error) {
 	r.ReuseRecord = true
 	header, err := r.Read()
 	if err != nil {
-		return nil, csvError(src, err)
+		return nil, nil, csvError(src, err)
 	}
 	col := map[string]int{}
 	var found []string
 	for i, h := range header {
 		key, ok := csvColumns[strings.ToLower(strings.TrimSpace(h))]
+		if !ok && withWeight && strings.EqualFold(strings.TrimSpace(h), "weight") {
+			key, ok = "weight", true
+		}
 		if !ok {
 			continue
 		}
 		if j, dup := col[key]; dup {
-			return nil, inputErrorf("%s line 1: columns %d (%q) and %d (%q) are both %s", src.name, j+1, header[j], i+1, h, key)
+			return nil, nil, inputErrorf("%s line 1: columns %d (%q) and %d (%q) are both %s", src.name, j+1, header[j], i+1, h, key)
 		}
 		col[key] = i
 		found = append(found, strings.TrimSpace(h))
@@ -231,7 +243,7 @@ func sitesFromCSV(src source, planarInput bool) (*siteSet, error) {
 	_, hasX := col["x"]
 	_, hasY := col["y"]
 	if !hasLat && !hasLon && !hasX && !hasY {
-		return nil, inputErrorf("%s: not GeoJSON or CSV: line 1 has no lat/lon or x/y column header (found %s)", src.name, quoteList(header))
+		return nil, nil, inputErrorf("%s: not GeoJSON or CSV: line 1 has no lat/lon or x/y column header (found %s)", src.name, quoteList(header))
 	}
 	xcol, ycol := "lon", "lat"
 	xname, yname := "longitude", "latitude"
@@ -242,37 +254,41 @@ func sitesFromCSV(src source, planarInput bool) (*siteSet, error) {
 			if hasLat && hasLon {
 				hint = "; the lat/lon columns are geographic: drop --planar"
 			}
-			return nil, inputErrorf("%s line 1: --planar needs x and y columns, found %s%s", src.name, quoteList(found), hint)
+			return nil, nil, inputErrorf("%s line 1: --planar needs x and y columns, found %s%s", src.name, quoteList(found), hint)
 		}
 	} else if !hasLat || !hasLon {
 		hint := ""
 		if hasX && hasY {
 			hint = "; for x/y in local metres add --planar"
 		}
-		return nil, inputErrorf("%s line 1: needs lat and lon columns, found %s%s", src.name, quoteList(found), hint)
+		return nil, nil, inputErrorf("%s line 1: needs lat and lon columns, found %s%s", src.name, quoteList(found), hint)
 	}
 	xi, yi := col[xcol], col[ycol]
 	ni, hasName := col["name"]
 	if !hasName {
 		ni, hasName = col["id"]
 	}
+	wi, hasWeight := col["weight"]
 	decimalComma := comma != ','
-	s := &siteSet{}
+	s = &siteSet{}
 	for {
 		rec, err := r.Read()
 		if err == io.EOF {
 			break
 		}
 		if err != nil {
-			return nil, csvError(src, err)
+			return nil, nil, csvError(src, err)
 		}
 		line, _ := r.FieldPos(0)
 		if len(rec) == 1 && strings.TrimSpace(rec[0]) == "" {
 			continue
 		}
 		need := max(xi, yi) + 1
+		if hasWeight {
+			need = max(need, wi+1)
+		}
 		if len(rec) < need {
-			return nil, inputErrorf("%s line %d: %d fields, the header has %d", src.name, line, len(rec), len(header))
+			return nil, nil, inputErrorf("%s line %d: %d fields, the header has %d", src.name, line, len(rec), len(header))
 		}
 		x, err := csvNumber(rec[xi], xname, decimalComma)
 		var y float64
@@ -285,7 +301,7 @@ func sitesFromCSV(src source, planarInput bool) (*siteSet, error) {
 			}
 		}
 		if err != nil {
-			return nil, inputErrorf("%s line %d: %v", src.name, line, err)
+			return nil, nil, inputErrorf("%s line %d: %v", src.name, line, err)
 		}
 		s.Pts = append(s.Pts, orb.Point{x, y})
 		name := ""
@@ -293,8 +309,30 @@ func sitesFromCSV(src source, planarInput bool) (*siteSet, error) {
 			name = strings.TrimSpace(rec[ni])
 		}
 		s.Names = append(s.Names, name)
+		if hasWeight {
+			w, err := csvWeight(rec[wi], decimalComma)
+			if err != nil {
+				return nil, nil, inputErrorf("%s line %d: %v", src.name, line, err)
+			}
+			weights = append(weights, w)
+		}
 	}
-	return s, nil
+	return s, weights, nil
+}
+
+// csvWeight parses one weight field: a finite number ≥ 0.
+func csvWeight(field string, decimalComma bool) (float64, error) {
+	if strings.TrimSpace(field) == "" {
+		return 0, errors.New("weight is empty (give a number ≥ 0 on every line, or drop the weight column)")
+	}
+	w, err := csvNumber(field, "weight", decimalComma)
+	if err != nil {
+		return 0, err
+	}
+	if p := weightProblem(w); p != "" {
+		return 0, errors.New(p)
+	}
+	return w, nil
 }
 
 // csvNumber parses one coordinate field.

@@ -97,7 +97,9 @@ const rootLong = `sitecover answers the planner's questions about devices that e
 radius - wireless gateways, sensors, sirens, alarm call points, defibrillator
 cabinets - across a site: is every point of the site area within range of a
 device, where are the gaps and how large are they, which range closes each
-gap and all of them, and which device serves which part of the site.
+gap and all of them, and which device serves which part of the site; and
+it plans: where to add devices, which devices are critical, and which
+device serves each building.
 
 The answers are exact geometry (Voronoi cells clipped to the area, exact
 polygon-disk areas, the alpha filtration of the disks), not a raster.
@@ -118,7 +120,10 @@ func newRootCmd(e *env) *cobra.Command {
   sitecover analyze --sites sensors.csv --area site.geojson --range 150m
   sitecover gaps --sites gateways.geojson --area site.geojson --range 0.2km
   sitecover cells --sites sirens.csv --area town.geojson
-  sitecover analyze --planar --sites plan-xy.csv --area plan.geojson --range 30m`,
+  sitecover analyze --planar --sites plan-xy.csv --area plan.geojson --range 30m
+  sitecover suggest --sites sensors.csv --area site.geojson --add 3 --range 150m
+  sitecover failures --sites sensors.csv --area site.geojson --range 150m
+  sitecover assign --sites sensors.csv --area site.geojson --points buildings.geojson --range 150m`,
 		Version:       versionString(),
 		SilenceErrors: true,
 		SilenceUsage:  true,
@@ -126,7 +131,8 @@ func newRootCmd(e *env) *cobra.Command {
 	root.SetVersionTemplate("{{.Version}}\n")
 	root.SetFlagErrorFunc(flagError)
 	root.CompletionOptions.HiddenDefaultCmd = false
-	root.AddCommand(newAnalyzeCmd(e), newCellsCmd(e), newGapsCmd(e), newDemoCmd(e))
+	root.AddCommand(newAnalyzeCmd(e), newCellsCmd(e), newGapsCmd(e), newDemoCmd(e),
+		newSuggestCmd(e), newFailuresCmd(e), newAssignCmd(e))
 	for _, c := range root.Commands() {
 		c.SilenceErrors, c.SilenceUsage = true, true
 		c.SetFlagErrorFunc(flagError)

@@ -36,6 +36,9 @@ type sceneInputs struct {
 	area    *source // nil: use the sites' convex hull
 	exclude *source // nil: none
 	planar  bool
+	// candidates and points are the planning inputs (suggest
+	// --candidates, assign --points); nil when not given.
+	candidates, points *source
 }
 
 // scene is a run's input in the local plane.
@@ -43,6 +46,9 @@ type scene struct {
 	sites  []orb.Point
 	region *planar.Region
 	meta   report.Meta
+	// candidates and demand are the planning inputs in the local plane
+	// (nil when not given).
+	candidates, demand *pointItems
 }
 
 // validLonLat is the geometry kernel's own coordinate check, applied after
@@ -75,6 +81,16 @@ func loadScene(in sceneInputs) (*scene, error) {
 		polys = append(polys, p...)
 	}
 	sc := &scene{}
+	if in.candidates != nil {
+		if sc.candidates, err = loadPoints(*in.candidates, in.planar, candidateKind); err != nil {
+			return nil, err
+		}
+	}
+	if in.points != nil {
+		if sc.demand, err = loadPoints(*in.points, in.planar, demandKind); err != nil {
+			return nil, err
+		}
+	}
 	m := &sc.meta
 	m.SitesFile = in.sites.name
 	if in.area != nil {
@@ -82,6 +98,12 @@ func loadScene(in sceneInputs) (*scene, error) {
 	}
 	if in.exclude != nil {
 		m.ExcludeFile = in.exclude.name
+	}
+	if in.candidates != nil {
+		m.CandidatesFile = in.candidates.name
+	}
+	if in.points != nil {
+		m.PointsFile = in.points.name
 	}
 	m.SiteNames = sites.Names
 	m.Planar = in.planar
@@ -95,6 +117,11 @@ func loadScene(in sceneInputs) (*scene, error) {
 			return nil, err
 		}
 		m.Timings = append(m.Timings, coverage.Timing{Phase: "project", Seconds: time.Since(t1).Seconds()})
+	}
+	if sc.demand != nil {
+		if err := sc.demand.finish(in.points.name); err != nil {
+			return nil, err
+		}
 	}
 
 	t2 := time.Now()
@@ -143,6 +170,15 @@ func (sc *scene) project(in sceneInputs, sites *siteSet, polys []areaPoly) error
 	if in.exclude != nil {
 		files += ", " + in.exclude.name
 	}
+	for _, extra := range []struct {
+		it  *pointItems
+		src *source
+	}{{sc.candidates, in.candidates}, {sc.demand, in.points}} {
+		if extra.it != nil {
+			all = append(all, extra.it.allVertices()...)
+			files += ", " + extra.src.name
+		}
+	}
 	b, err := planar.LonLatBound(all)
 	if err != nil {
 		return inputErrorf("%s: %v", files, err)
@@ -169,6 +205,11 @@ func (sc *scene) project(in sceneInputs, sites *siteSet, polys []areaPoly) error
 				x, y := tm.Forward(q[0], q[1])
 				r[k] = orb.Point{x, y}
 			}
+		}
+	}
+	for _, it := range []*pointItems{sc.candidates, sc.demand} {
+		if it != nil {
+			it.transform(tm.Forward)
 		}
 	}
 	return nil

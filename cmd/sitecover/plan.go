@@ -1,0 +1,547 @@
+// The planning commands: suggest (where to add devices: K placed freely,
+// the fewest for a range, or a choice among candidate spots), failures
+// (what each device's outage uncovers, and the range that survives any
+// single failure) and assign (which device serves each demand point or
+// building). Each loads the scene like analyze, builds the layout, runs
+// the move from package coverage, writes its report folder (report.txt,
+// summary.json, GeoJSON layers, CSV tables, one PNG map; see
+// report.PlanFiles) and prints the headline figures, or summary.json with
+// --json. Every figure printed is copied from the summary document, so
+// stdout and the files agree.
+
+package main
+
+import (
+	"errors"
+	"fmt"
+	"io"
+	"math"
+	"path/filepath"
+	"strings"
+	"time"
+
+	"github.com/paulmach/orb"
+	"github.com/sitecover/sitecover/coverage"
+	"github.com/sitecover/sitecover/report"
+	"github.com/spf13/cobra"
+	"github.com/spf13/pflag"
+)
+
+// planFlags are the flags of the planning commands beyond runFlags.
+type planFlags struct {
+	add        int
+	candidates string
+	points     string
+}
+
+// maxAdd bounds --add: more additions than this is a mistake, not a plan.
+const maxAdd = 1_000_000
+
+// planOutDir is the default output folder of a planning command: a
+// sub-folder of the analysis folder, so the two never mix.
+func planOutDir(name string) string { return filepath.Join("sitecover-report", name) }
+
+// setOutDefault changes the default of --out.
+func setOutDefault(fs *pflag.FlagSet, f *runFlags, dir string) {
+	f.out = dir
+	fs.Lookup("out").DefValue = dir
+}
+
+const planCaution = `
+Suggestions, rankings and assignments are planning aids for the disk model:
+confirm every position and range on site. Cautions:
+`
+
+func newSuggestCmd(e *env) *cobra.Command {
+	f := &runFlags{}
+	pf := &planFlags{}
+	cmd := &cobra.Command{
+		Use:   "suggest --sites FILE [--area FILE] (--add K [--range LENGTH] | --range LENGTH | --candidates FILE --range LENGTH [--add K]) [flags]",
+		Short: "Where to add devices: K placed freely, the fewest for a range, or the best candidate spots",
+		Long: `suggest proposes new devices, the existing ones staying where they are:
+
+  --add K                 K new devices placed freely in the area (never in an
+                          exclusion zone) to make the full-cover range small:
+                          farthest-point insertion (Gonzalez 1985), then each
+                          moves to the centre of the smallest circle enclosing
+                          its service area. Figures before and after each
+                          addition: full-cover range, and covered share and
+                          uncovered area at --range; without --range at the
+                          full-cover range the new layout needs.
+  --range R               the fewest additions that leave no gap at R, compared
+                          with the hexagonal-covering estimate
+                          area / ((3*sqrt(3)/2) R^2) (Kershner 1939).
+  --candidates FILE       choose among the spots where a device can be mounted
+                          (poles, roofs, walls; GeoJSON points or CSV like
+                          --sites): K of them (--add K) maximising the area
+                          covered at --range, or the fewest that cover
+                          everything; says when full cover cannot be reached
+                          and what stays uncovered.
+
+The report folder (default sitecover-report/suggest) gets report.txt,
+summary.json, the proposed devices or the candidate spots, the gaps before and
+after as GeoJSON, and a map.
+` + planCaution + report.Cautions(),
+		Example: `  sitecover suggest --sites sensors.geojson --area campus.geojson --add 3 --range 120m
+  sitecover suggest --sites sensors.geojson --area campus.geojson --add 2
+  sitecover suggest --sites sensors.csv --area campus.geojson --range 150m
+  sitecover suggest --sites sensors.csv --area campus.geojson --candidates poles.geojson --range 120m
+  sitecover suggest --sites sensors.csv --area campus.geojson --candidates roofs.csv --range 120m --add 4`,
+		Args: noArgs,
+		RunE: func(cmd *cobra.Command, args []string) error {
+			if err := requireFlags(cmd, "sites"); err != nil {
+				return err
+			}
+			fl := cmd.Flags()
+			ps := planSpec{}
+			hasAdd, hasRange := fl.Changed("add"), fl.Changed("range")
+			if hasAdd && (pf.add <= 0 || pf.add > maxAdd) {
+				return inputErrorf("--add %d: must be a whole number of devices from 1 to %d", pf.add, maxAdd)
+			}
+			switch {
+			case fl.Changed("candidates"):
+				if !hasRange {
+					return usageErrorf("--candidates needs --range: spots are chosen for the area they cover at a range (see '%s --help')", cmd.CommandPath())
+				}
+				ps.move, ps.k = report.MoveCandidates, pf.add
+			case hasAdd:
+				ps.move, ps.k = report.MoveAdd, pf.add
+			case hasRange:
+				ps.move = report.MoveFewest
+			default:
+				return usageErrorf("suggest needs --add K (free placement), --range LENGTH (fewest additions for that range) or --candidates FILE with --range (see '%s --help')", cmd.CommandPath())
+			}
+			if hasRange {
+				r, err := parseRange(f.rangeText)
+				if err != nil {
+					return inputErrorf("%v", err)
+				}
+				ps.r, ps.rangeGiven = r, true
+			}
+			in, err := f.inputs()
+			if err != nil {
+				return err
+			}
+			if ps.move == report.MoveCandidates {
+				s, err := readSource(pf.candidates, "--candidates")
+				if err != nil {
+					return err
+				}
+				in.candidates = &s
+			}
+			return asInput(runPlan(e, "suggest", f, in, ps, printFull))
+		},
+	}
+	f.addInputFlags(cmd.Flags())
+	cmd.Flags().IntVar(&pf.add, "add", 0, "number of new devices to place (with --candidates: number of spots to pick; default: the fewest that cover everything)")
+	cmd.Flags().StringVar(&pf.candidates, "candidates", "", "candidate mounting spots: GeoJSON Point/MultiPoint features or CSV like --sites")
+	f.addRangeFlag(cmd.Flags(), "", "planned range of every device, e.g. 150m, 0.2km, 500ft, 0.1mi")
+	f.addOutputFlags(cmd.Flags(), true)
+	setOutDefault(cmd.Flags(), f, planOutDir("suggest"))
+	return cmd
+}
+
+func newFailuresCmd(e *env) *cobra.Command {
+	f := &runFlags{}
+	cmd := &cobra.Command{
+		Use:   "failures --sites FILE [--area FILE] --range LENGTH [flags]",
+		Short: "Device failures: what each outage uncovers, and the range that survives any single failure",
+		Long: `failures takes every device out of service in turn, the others working, and
+ranks the devices by the area their failure leaves uncovered at --range, with
+the deepest new gap (the range the others need to cover what it served) and
+the device that backs it up there. It also gives the range at which the area
+stays fully covered whichever single device fails: the largest distance from
+a point of the area to its second-nearest device.
+
+Each failure is computed locally (only the failed device's service area
+changes hands, among its Delaunay neighbours), so a million devices take
+seconds. The report folder (default sitecover-report/failures) gets
+report.txt, summary.json, failures.geojson and failures.csv, and a map of the
+devices coloured by loss.
+` + planCaution + report.Cautions(),
+		Example: `  sitecover failures --sites sensors.geojson --area campus.geojson --range 120m
+  sitecover failures --sites sirens.csv --area town.geojson --range 0.5mi --json
+  sitecover failures --planar --sites aps.csv --area floor.geojson --range 15 --out ap-failures`,
+		Args: noArgs,
+		RunE: func(cmd *cobra.Command, args []string) error {
+			if err := requireFlags(cmd, "sites", "range"); err != nil {
+				return err
+			}
+			r, err := parseRange(f.rangeText)
+			if err != nil {
+				return inputErrorf("%v", err)
+			}
+			in, err := f.inputs()
+			if err != nil {
+				return err
+			}
+			return asInput(runPlan(e, "failures", f, in, planSpec{move: report.MoveFailures, r: r, rangeGiven: true}, printFull))
+		},
+	}
+	f.addInputFlags(cmd.Flags())
+	f.addRangeFlag(cmd.Flags(), "", "planned range of every device, e.g. 150m, 0.2km, 500ft, 0.1mi (required)")
+	f.addOutputFlags(cmd.Flags(), true)
+	setOutDefault(cmd.Flags(), f, planOutDir("failures"))
+	return cmd
+}
+
+func newAssignCmd(e *env) *cobra.Command {
+	f := &runFlags{}
+	pf := &planFlags{}
+	cmd := &cobra.Command{
+		Use:   "assign --sites FILE [--area FILE] --points FILE [--range LENGTH] [flags]",
+		Short: "Which device serves each demand point or building, and the load per device",
+		Long: `assign gives each demand item (buildings, assets, people) its serving device -
+the nearest one, whose service area holds it - with the distance and, with
+--range, whether it is within range; and the load of every device (items
+served and their summed weight, within range or not).
+
+--points FILE: GeoJSON Point/MultiPoint features, or Polygon/MultiPolygon
+features (buildings, yards: each placed at its centroid, or at a point on it
+when the centroid falls outside), or CSV like --sites. An optional weight
+(a "weight" property, or a weight column) gives each item its importance;
+without one it counts 1.
+
+The report folder (default sitecover-report/assign) gets report.txt,
+summary.json, assignment.csv (point, name, device, device_name, distance_m,
+within_range, weight, coordinates), device-load.csv, assignment.geojson (a
+line from each item to its device), device-load.geojson and a map.
+` + planCaution + report.Cautions(),
+		Example: `  sitecover assign --sites sensors.geojson --area campus.geojson --points buildings.geojson --range 120m
+  sitecover assign --sites gateways.csv --points meters.csv --range 2km --json
+  sitecover assign --planar --sites aps.csv --area floor.geojson --points desks.csv`,
+		Args: noArgs,
+		RunE: func(cmd *cobra.Command, args []string) error {
+			if err := requireFlags(cmd, "sites", "points"); err != nil {
+				return err
+			}
+			ps := planSpec{move: report.MoveAssign}
+			if cmd.Flags().Changed("range") {
+				r, err := parseRange(f.rangeText)
+				if err != nil {
+					return inputErrorf("%v", err)
+				}
+				ps.r, ps.rangeGiven = r, true
+			}
+			in, err := f.inputs()
+			if err != nil {
+				return err
+			}
+			s, err := readSource(pf.points, "--points")
+			if err != nil {
+				return err
+			}
+			in.points = &s
+			return asInput(runPlan(e, "assign", f, in, ps, printFull))
+		},
+	}
+	f.addInputFlags(cmd.Flags())
+	cmd.Flags().StringVar(&pf.points, "points", "", "demand points or polygons: GeoJSON (optional \"weight\" property) or CSV like --sites (optional weight column) (required)")
+	f.addRangeFlag(cmd.Flags(), "", "range of every device, e.g. 150m, 0.2km, 500ft, 0.1mi (default: distances only)")
+	f.addOutputFlags(cmd.Flags(), true)
+	setOutDefault(cmd.Flags(), f, planOutDir("assign"))
+	return cmd
+}
+
+// planSpec is one planning move to run.
+type planSpec struct {
+	move report.Move
+	// k is K for add and candidates (0: the fewest, candidates only).
+	k int
+	// r is the range (m); rangeGiven is false when none was given.
+	r          float64
+	rangeGiven bool
+}
+
+// printMode says what a planning run prints on stdout.
+type printMode int
+
+const (
+	printFull  printMode = iota // headline figures, or summary.json with --json
+	printBrief                  // a few lines of figures and the files (the demo)
+	printNone                   // nothing (the demo with --json)
+)
+
+// runPlan runs one planning move and writes its report folder.
+func runPlan(e *env, command string, f *runFlags, in sceneInputs, ps planSpec, mode printMode) error {
+	pr := startProgress(e.stderr, e.terminal)
+	defer pr.end()
+	pr.set("reading inputs")
+	sc, err := loadScene(in)
+	if err != nil {
+		return err
+	}
+	if err := checkOutDir(f.out); err != nil {
+		return err
+	}
+	sc.setMeta(command, f)
+	timed := func(phase string, t0 time.Time) {
+		sc.meta.Timings = append(sc.meta.Timings, coverage.Timing{Phase: phase, Seconds: time.Since(t0).Seconds()})
+	}
+	pr.set(fmt.Sprintf("service areas of %d sites", len(sc.sites)))
+	t0 := time.Now()
+	l, err := coverage.NewLayout(sc.sites, sc.region)
+	if err != nil {
+		return inputErrorf("%s: %v", inputNames(in), err)
+	}
+	timed("layout", t0)
+	t0 = time.Now()
+	p := &report.Plan{Move: ps.move, Layout: l, Range: ps.r, RangeGiven: ps.rangeGiven, Requested: ps.k, FullCover: l.FullCover()}
+	timed("full cover", t0)
+	fail := func(err error) error {
+		return inputErrorf("%s: %v", inputNames(in), strings.TrimPrefix(err.Error(), "coverage: "))
+	}
+	t0 = time.Now()
+	switch ps.move {
+	case report.MoveAdd:
+		pr.set(fmt.Sprintf("placing %d new devices", ps.k))
+		r := ps.r
+		if !ps.rangeGiven {
+			// The figures are given at the range the new layout needs
+			// to cover everything: a first pass finds it (placement does
+			// not depend on the range of the figures).
+			s0, err := coverage.SuggestAdditions(l, ps.k, coverage.SuggestOptions{})
+			if err != nil {
+				return fail(err)
+			}
+			r = s0.FullCoverAfter
+			p.Range, p.RangeNote = r, "the full-cover range with the new devices"
+		}
+		if p.Suggestion, err = coverage.SuggestAdditions(l, ps.k, coverage.SuggestOptions{Range: r}); err != nil {
+			return fail(err)
+		}
+		timed("suggest", t0)
+	case report.MoveFewest:
+		pr.set(fmt.Sprintf("fewest additions for %s m", fmtNum(ps.r, 2)))
+		p.Suggestion, err = coverage.FewestAdditions(l, ps.r, coverage.SuggestOptions{})
+		if errors.Is(err, coverage.ErrAdditionCap) && p.Suggestion != nil {
+			p.CapReached = true
+		} else if err != nil {
+			return fail(err)
+		}
+		timed("suggest", t0)
+	case report.MoveCandidates:
+		pr.set(fmt.Sprintf("choosing among %d candidate spots", len(sc.candidates.Pts)))
+		p.Candidates, p.CandidateNames = sc.candidates.Pts, sc.candidates.Names
+		if p.Choice, err = coverage.ChooseCandidates(l, p.Candidates, ps.r, ps.k); err != nil {
+			return fail(err)
+		}
+		timed("choose candidates", t0)
+	case report.MoveFailures:
+		pr.set(fmt.Sprintf("failures of %d devices", len(sc.sites)))
+		if p.Failures, err = coverage.Failures(l, ps.r); err != nil {
+			return fail(err)
+		}
+		timed("failures", t0)
+	case report.MoveAssign:
+		d := sc.demand
+		pr.set(fmt.Sprintf("assigning %d demand items", len(d.Pts)))
+		p.Demand, p.DemandNames, p.DemandPolygons, p.Weighted = d.Pts, d.Names, d.Polys, d.Weights != nil
+		if p.Assignment, err = coverage.Assign(l, d.Pts, d.Weights, ps.r); err != nil {
+			return fail(err)
+		}
+		timed("assign", t0)
+	}
+	t0 = time.Now()
+	if p.Range > 0 {
+		p.Uncovered = l.UncoveredArea(p.Range)
+	}
+	switch ps.move {
+	case report.MoveAdd, report.MoveFewest, report.MoveCandidates:
+		pr.set("gaps before and after")
+		p.GapsBefore = l.Gaps(p.Range, 0)
+		if p.Suggestion != nil {
+			after := append(append([]orb.Point(nil), sc.sites...), p.Suggestion.Added...)
+			l2, err := coverage.NewLayout(after, sc.region)
+			if err != nil {
+				return fail(err)
+			}
+			p.GapsAfter = l2.Gaps(p.Range, 0)
+		}
+		timed("gaps", t0)
+	}
+	opt := report.Options{
+		Maps:     !f.noMaps,
+		MapWidth: f.mapWidth,
+		Progress: func(file string) { pr.set("writing " + file) },
+	}
+	written, err := report.WritePlan(f.out, p, sc.meta, opt)
+	pr.end()
+	if err != nil {
+		return inputErrorf("%v", err)
+	}
+	doc, err := report.PlanSummary(p, sc.meta)
+	if err != nil {
+		return err
+	}
+	if mode == printFull {
+		printWarnings(e.stderr, doc.Warnings)
+		if f.json {
+			return printSummaryFile(e.stdout, f.out)
+		}
+		if sc.meta.Title != "" {
+			fmt.Fprintln(e.stdout, sc.meta.Title)
+		}
+	}
+	if mode == printNone {
+		return nil
+	}
+	printPlan(e.stdout, doc, sc.meta, mode)
+	printWritten(e.stdout, f.out, written)
+	return nil
+}
+
+// printPlan prints the headline figures of a planning move.
+func printPlan(w io.Writer, d *report.PlanDoc, m report.Meta, mode printMode) {
+	line := func(key, format string, args ...any) {
+		fmt.Fprintf(w, "  %-26s %s\n", key, fmt.Sprintf(format, args...))
+	}
+	switch d.Move {
+	case report.MoveAdd, report.MoveFewest:
+		s := d.Suggestions
+		if d.Move == report.MoveAdd {
+			line("suggested devices", "%d new + %d existing", len(s.Added), s.Existing)
+		} else {
+			switch {
+			case len(s.Added) == 0 && s.Reached:
+				line("fewest additions", "none needed: no gap at %s m", fmtNum(s.RangeM, 2))
+			case s.Reached:
+				line("fewest additions", "%d (%s) for no gap at %s m, %d devices in all", len(s.Added), s.Method, fmtNum(s.RangeM, 2), s.TotalDevices)
+			default:
+				line("additions", "%d placed, gaps remain (the search stopped at its cap)", len(s.Added))
+			}
+			line("hexagonal estimate", "%s devices (Kershner 1939): the plan uses %s times that", fmtNum(s.HexEstimate, 1), fmtNum(s.HexRatio, 2))
+		}
+		note := ""
+		if !d.RangeGiven {
+			note = " (" + d.RangeNote + ")"
+		}
+		line("range of the figures", "%s m%s", fmtNum(s.RangeM, 2), note)
+		line("full-cover range", "%s m -> %s m", fmtNum(s.FullCoverRangeBeforeM, 2), fmtNum(s.FullCoverRangeAfterM, 2))
+		line("covered", "%s %% -> %s %% (%s m² -> %s m² uncovered)", fmtNum(100*s.CoveredFractionBefore, 2), fmtNum(100*s.CoveredFractionAfter, 2),
+			fmtNum(s.UncoveredBeforeM2, 1), fmtNum(s.UncoveredAfterM2, 1))
+		if mode == printFull && len(s.Added) > 0 {
+			fmt.Fprintf(w, "\n  %4s  %-26s  %-18s  %-17s  %s\n", "new", "position", "full cover m", "covered %", "uncovered m²")
+			for i, a := range s.Added {
+				if i == maxGapRows {
+					fmt.Fprintf(w, "  ... and %d more (all in report.txt, summary.json and %s)\n", len(s.Added)-i, report.LayerFile(report.FileProposed, m.Planar))
+					break
+				}
+				fmt.Fprintf(w, "  %4s  %-26s  %-18s  %-17s  %s\n", fmt.Sprintf("+%d", a.N), fmtPoint(a.Point, d.Coordinates),
+					fmtNum(a.FullCoverBeforeM, 2)+" -> "+fmtNum(a.FullCoverAfterM, 2),
+					fmtNum(100*a.CoveredBefore, 2)+" -> "+fmtNum(100*a.CoveredAfter, 2),
+					fmtNum(a.UncoveredBeforeM2, 1)+" -> "+fmtNum(a.UncoveredAfterM2, 1))
+			}
+		}
+	case report.MoveCandidates:
+		c := d.Candidates
+		line("candidate spots picked", "%d of %d at %s m", len(c.Picked), c.Count, fmtNum(c.RangeM, 2))
+		line("covered", "%s %% -> %s %% (%s m² -> %s m² uncovered)", fmtNum(100*c.CoveredFractionBefore, 2), fmtNum(100*c.CoveredFractionAfter, 2),
+			fmtNum(c.UncoveredBeforeM2, 1), fmtNum(c.UncoveredAfterM2, 1))
+		line("full-cover range", "%s m -> %s m", fmtNum(c.FullCoverRangeBeforeM, 2), fmtNum(c.FullCoverRangeAfterM, 2))
+		switch {
+		case c.Complete:
+			line("result", "full cover: no gap remains")
+		case c.Exhausted:
+			line("result", "FULL COVER CANNOT BE REACHED from these spots: %s m² stay uncovered in %s", fmtNum(c.UncoveredAfterM2, 1), nGaps(len(c.Remaining)))
+		default:
+			line("result", "%s m² stay uncovered in %s", fmtNum(c.UncoveredAfterM2, 1), nGaps(len(c.Remaining)))
+		}
+		if mode == printFull {
+			for i, pk := range c.Picked {
+				if i == maxGapRows {
+					fmt.Fprintf(w, "  ... and %d more picks (all in report.txt and summary.json)\n", len(c.Picked)-i)
+					break
+				}
+				name := ""
+				if pk.Name != "" {
+					name = " " + pk.Name
+				}
+				fmt.Fprintf(w, "  %4d  c%d%s at %s: +%s m²\n", pk.Order, pk.Candidate, name, fmtPoint(pk.Point, d.Coordinates), fmtNum(pk.GainM2, 1))
+			}
+		}
+	case report.MoveFailures:
+		if d.SurviveAnySingleFailureM == nil {
+			line("survive any single failure", "impossible: a single device")
+		} else {
+			line("survive any single failure", "%s m, needed at %s when %s fails", fmtNum(*d.SurviveAnySingleFailureM, 2),
+				fmtPoint(d.SurvivePoint, d.Coordinates), siteLabel(m, d.SurviveSite))
+		}
+		if d.RangeM != nil {
+			line("uncovered, all working", "%s m² at %s m", fmtNum(*d.UncoveredAreaM2, 1), fmtNum(*d.RangeM, 2))
+		}
+		rows := len(d.Failures)
+		if mode == printBrief {
+			rows = min(rows, 3)
+		} else {
+			rows = min(rows, 10)
+		}
+		if rows > 0 {
+			fmt.Fprintf(w, "  worst failures (loss: area uncovered when the device is out of service):\n")
+		}
+		for _, fl := range d.Failures[:rows] {
+			closing := "none left"
+			if fl.ClosingRangeM != nil {
+				closing = fmtNum(*fl.ClosingRangeM, 2) + " m"
+			}
+			fmt.Fprintf(w, "  %4d  %-32s loss %10s m²  deepest new gap needs %s\n", fl.Rank, siteLabel(m, fl.Site), fmtNum(fl.AddedUncoveredM2, 1), closing)
+		}
+	case report.MoveAssign:
+		a := d.Assignment
+		what := fmt.Sprintf("%d", a.Points)
+		if a.Polygons > 0 {
+			what += fmt.Sprintf(" (%d polygons)", a.Polygons)
+		}
+		line("demand items", "%s", what)
+		if a.Served != nil {
+			wt := ""
+			if a.Weighted {
+				wt = fmt.Sprintf(" (weight %s of %s)", trimNum(*a.ServedWeight), trimNum(*a.ServedWeight+*a.UnservedWeight))
+			}
+			line("within range", "%d of %d at %s m%s", *a.Served, a.Points, fmtNum(*d.RangeM, 2), wt)
+		}
+		busiest, far := -1, -1
+		for i, ld := range a.Load {
+			if busiest < 0 || ld.Weight > a.Load[busiest].Weight {
+				busiest = i
+			}
+		}
+		for i, p := range a.Assignments {
+			if far < 0 || p.DistanceM > a.Assignments[far].DistanceM {
+				far = i
+			}
+		}
+		if busiest >= 0 {
+			ld := a.Load[busiest]
+			wt := ""
+			if a.Weighted {
+				wt = ", weight " + trimNum(ld.Weight)
+			}
+			line("busiest device", "%s: %d items%s", siteLabel(m, ld.Device), ld.Count, wt)
+		}
+		if far >= 0 {
+			p := a.Assignments[far]
+			name := ""
+			if p.Name != "" {
+				name = " " + p.Name
+			}
+			line("farthest item", "item %d%s: %s m from %s", p.Point, name, fmtNum(p.DistanceM, 2), siteLabel(m, p.Device))
+		}
+	}
+}
+
+// trimNum formats a weight without needless decimals.
+func trimNum(v float64) string {
+	if v == math.Trunc(v) && math.Abs(v) < 1e15 {
+		return fmt.Sprintf("%.0f", v)
+	}
+	return fmt.Sprintf("%.6g", v)
+}
+
+// nGaps is "1 gap" or "n gaps".
+func nGaps(n int) string {
+	if n == 1 {
+		return "1 gap"
+	}
+	return fmt.Sprintf("%d gaps", n)
+}
