@@ -423,7 +423,7 @@ func lossClass(loss float64, ub []float64) int {
 	return len(ub) - 1
 }
 
-func (s *planScene) failureMap(width int) ([]byte, error) {
+func (s *planScene) drawFailureMap(width int) (*canvas, error) {
 	fr := s.p.Failures
 	maxLoss := 0.0
 	bySite := make(map[int]*coverage.DeviceFailure, len(fr.Devices))
@@ -540,10 +540,18 @@ func (s *planScene) failureMap(width int) ([]byte, error) {
 	c.scaleBar()
 	c.northArrow()
 	c.legend(items, notes)
+	return c, nil
+}
+
+func (s *planScene) failureMap(width int) ([]byte, error) {
+	c, err := s.drawFailureMap(width)
+	if err != nil {
+		return nil, err
+	}
 	return c.encode()
 }
 
-func (s *planScene) assignmentMap(width int) ([]byte, error) {
+func (s *planScene) drawAssignmentMap(width int) (*canvas, error) {
 	p, a := s.p, s.p.Assignment
 	ranged := s.hasRange()
 	var items []legendItem
@@ -681,6 +689,14 @@ func (s *planScene) assignmentMap(width int) ([]byte, error) {
 	c.scaleBar()
 	c.northArrow()
 	c.legend(items, notes)
+	return c, nil
+}
+
+func (s *planScene) assignmentMap(width int) ([]byte, error) {
+	c, err := s.drawAssignmentMap(width)
+	if err != nil {
+		return nil, err
+	}
 	return c.encode()
 }
 
