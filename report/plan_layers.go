@@ -17,6 +17,7 @@ import (
 	"bytes"
 	"encoding/csv"
 	"math"
+	"slices"
 	"strconv"
 
 	"github.com/paulmach/orb"
@@ -112,6 +113,7 @@ func (s *planScene) assignmentLayer() ([]byte, error) {
 	p, a := s.p, s.p.Assignment
 	ranged := s.hasRange()
 	l := s.newLayer()
+	l.b = slices.Grow(l.b, 260*len(p.Demand)) // one feature is about 250 bytes
 	for i, q := range p.Demand {
 		dev := s.l.Sites[a.Device[i]]
 		line := orb.LineString{orb.Point(s.point(q)), orb.Point(s.point(dev))}

@@ -76,7 +76,11 @@ func (s *planScene) suggestionMap(width int) ([]byte, error) {
 	if p.Move == MoveAdd {
 		ba.title = fmt.Sprintf("%d suggested devices at %s", len(sg.Added), metresShort(p.Range))
 	} else {
-		ba.title = fmt.Sprintf("Fewest additions for no gap at %s: %d", metresShort(p.Range), len(sg.Added))
+		if sg.Reached {
+			ba.title = fmt.Sprintf("%s close every gap at %s", plural(len(sg.Added), "addition"), metresShort(p.Range))
+		} else {
+			ba.title = fmt.Sprintf("%s at %s, gaps remain", plural(len(sg.Added), "addition"), metresShort(p.Range))
+		}
 	}
 	ba.sub = fmt.Sprintf("Full cover %s -> %s; covered %.2f %% -> %.2f %%; uncovered %.0f m2 -> %.0f m2",
 		metresShort(sg.FullCoverBefore), metresShort(sg.FullCoverAfter), 100*sg.CoveredBefore, 100*sg.CoveredAfter,
@@ -578,6 +582,12 @@ func (s *planScene) drawAssignmentMap(width int) (*canvas, error) {
 		legendItem{"Site area outline", swatchLine(colInk, 2.2)},
 		legendItem{"Exclusion zone (no coverage needed)", swatchHatch})
 	notes := []string{"North up: the y axis of the local plane (grid north). " + s.planeNote()}
+	if n := s.denseNote(width, "single devices and demand items"); n != "" {
+		notes = append(notes, n)
+	} else if len(p.Demand) > 5000 {
+		notes = append(notes, fmt.Sprintf("%d demand items: single items and lines cannot be told apart here; use %s and %s in a GIS.",
+			len(p.Demand), LayerFile(FileAssignment, s.m.Planar), FileAssignmentCSV))
+	}
 	c, err := layoutCanvas(s.demandExtent(), width, items, len(notes))
 	if err != nil {
 		return nil, err

@@ -230,8 +230,14 @@ type AssignmentDoc struct {
 	Unserved       *int     `json:"unserved"`
 	ServedWeight   *float64 `json:"served_weight"`
 	UnservedWeight *float64 `json:"unserved_weight"`
-	// Assignments holds one entry per demand item, in file order.
-	Assignments []AssignedPoint `json:"assignments"`
+	// Assignments holds one entry per demand item, in file order, when
+	// there are at most MaxListedAssignments items (AssignmentsListed);
+	// otherwise it is empty and assignment.csv holds the list.
+	AssignmentsListed bool            `json:"assignments_listed"`
+	Assignments       []AssignedPoint `json:"assignments"`
+	// Farthest is the demand item farthest from its device (null when
+	// there is none).
+	Farthest *AssignedPoint `json:"farthest"`
 	// Load holds one entry per device, in input order.
 	Load []DeviceLoadDoc `json:"load"`
 }
@@ -262,6 +268,12 @@ type DeviceLoadDoc struct {
 	InRange       *int     `json:"in_range"`
 	InRangeWeight *float64 `json:"in_range_weight"`
 }
+
+// MaxListedAssignments is the largest number of demand items listed one
+// by one in summary.json; larger assignments are listed in assignment.csv
+// and assignment.geojson only (a million items would make summary.json
+// hundreds of megabytes).
+const MaxListedAssignments = 100_000
 
 // MarshalIndent encodes the document as indented JSON ending in a newline.
 func (d *PlanDoc) MarshalIndent() ([]byte, error) { return marshalDoc(d) }
@@ -472,8 +484,12 @@ func (s *planScene) assignmentDoc() *AssignmentDoc {
 		File:        s.m.PointsFile,
 		Points:      len(p.Demand),
 		Weighted:    p.Weighted,
-		Assignments: make([]AssignedPoint, len(p.Demand)),
+		Assignments: []AssignedPoint{},
 		Load:        make([]DeviceLoadDoc, len(a.Load)),
+	}
+	d.AssignmentsListed = len(p.Demand) <= MaxListedAssignments
+	if d.AssignmentsListed {
+		d.Assignments = make([]AssignedPoint, len(p.Demand))
 	}
 	for _, poly := range p.DemandPolygons {
 		if poly != nil {
@@ -485,7 +501,7 @@ func (s *planScene) assignmentDoc() *AssignmentDoc {
 		d.Served, d.Unserved = ptr(a.Served), ptr(a.Unserved)
 		d.ServedWeight, d.UnservedWeight = ptr(a.ServedWeight), ptr(a.UnservedWeight)
 	}
-	for i := range p.Demand {
+	entry := func(i int) AssignedPoint {
 		e := AssignedPoint{
 			Point:      i,
 			Name:       s.demandName(i),
@@ -498,7 +514,19 @@ func (s *planScene) assignmentDoc() *AssignmentDoc {
 		if ranged {
 			e.WithinRange = ptr(a.Within[i])
 		}
-		d.Assignments[i] = e
+		return e
+	}
+	far := -1
+	for i, dist := range a.Distance {
+		if far < 0 || dist > a.Distance[far] {
+			far = i
+		}
+	}
+	if far >= 0 {
+		d.Farthest = ptr(entry(far))
+	}
+	for i := range d.Assignments {
+		d.Assignments[i] = entry(i)
 	}
 	for i, ld := range a.Load {
 		e := DeviceLoadDoc{Device: i, Name: s.name(i), Count: ld.Count, Weight: ld.Weight}

@@ -500,15 +500,10 @@ func printPlan(w io.Writer, d *report.PlanDoc, m report.Meta, mode printMode) {
 			}
 			line("within range", "%d of %d at %s m%s", *a.Served, a.Points, fmtNum(*d.RangeM, 2), wt)
 		}
-		busiest, far := -1, -1
+		busiest := -1
 		for i, ld := range a.Load {
 			if busiest < 0 || ld.Weight > a.Load[busiest].Weight {
 				busiest = i
-			}
-		}
-		for i, p := range a.Assignments {
-			if far < 0 || p.DistanceM > a.Assignments[far].DistanceM {
-				far = i
 			}
 		}
 		if busiest >= 0 {
@@ -519,8 +514,8 @@ func printPlan(w io.Writer, d *report.PlanDoc, m report.Meta, mode printMode) {
 			}
 			line("busiest device", "%s: %d items%s", siteLabel(m, ld.Device), ld.Count, wt)
 		}
-		if far >= 0 {
-			p := a.Assignments[far]
+		if a.Farthest != nil {
+			p := a.Farthest
 			name := ""
 			if p.Name != "" {
 				name = " " + p.Name
