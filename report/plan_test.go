@@ -413,3 +413,42 @@ func TestPlanMapPixels(t *testing.T) {
 		}
 	}
 }
+
+func TestPlanLifeSafetyAndLongAssignments(t *testing.T) {
+	// With Meta.LifeSafety the cautions open the planning report too.
+	p := latticePlan(t, MoveFailures, 10/math.Sqrt2)
+	txt := string(newPlanScene(p, Meta{Planar: true, LifeSafety: true}).planText())
+	if i, j := strings.Index(txt, Cautions()), strings.Index(txt, "INPUTS"); i < 0 || j < 0 || i > j {
+		t.Errorf("life-safety cautions not before the inputs (at %d, inputs at %d)", i, j)
+	}
+	// Beyond MaxListedAssignments items summary.json lists none one by
+	// one (assignment.csv holds them) but keeps the totals and the
+	// farthest item.
+	l := p.Layout
+	n := MaxListedAssignments + 1
+	pts := make([]orb.Point, n)
+	for i := range pts {
+		pts[i] = orb.Point{float64(i%600) / 10, float64(i/600) / 300}
+	}
+	a, err := coverage.Assign(l, pts, nil, 5)
+	if err != nil {
+		t.Fatal(err)
+	}
+	ap := &Plan{Move: MoveAssign, Layout: l, Range: 5, RangeGiven: true, Assignment: a, Demand: pts,
+		DemandNames: make([]string, n), DemandPolygons: make([]orb.MultiPolygon, n)}
+	d, err := PlanSummary(ap, Meta{Planar: true})
+	if err != nil {
+		t.Fatal(err)
+	}
+	as := d.Assignment
+	if as.AssignmentsListed || len(as.Assignments) != 0 || as.Points != n || *as.Served+*as.Unserved != n || as.Farthest == nil {
+		t.Errorf("long assignment: listed %v (%d), %d points, farthest %v", as.AssignmentsListed, len(as.Assignments), as.Points, as.Farthest)
+	}
+	far := 0.0
+	for _, v := range a.Distance {
+		far = math.Max(far, v)
+	}
+	if as.Farthest.DistanceM != far {
+		t.Errorf("farthest %v, want %v", as.Farthest.DistanceM, far)
+	}
+}
