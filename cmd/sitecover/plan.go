@@ -480,11 +480,11 @@ func printPlan(w io.Writer, d *report.PlanDoc, m report.Meta, mode printMode) {
 			fmt.Fprintf(w, "  worst failures (loss: area uncovered when the device is out of service):\n")
 		}
 		for _, fl := range d.Failures[:rows] {
-			closing := "none left"
+			closing := "deepest new gap: no device left"
 			if fl.ClosingRangeM != nil {
-				closing = fmtNum(*fl.ClosingRangeM, 2) + " m"
+				closing = "deepest new gap needs " + fmtNum(*fl.ClosingRangeM, 2) + " m"
 			}
-			fmt.Fprintf(w, "  %4d  %-32s loss %10s m²  deepest new gap needs %s\n", fl.Rank, siteLabel(m, fl.Site), fmtNum(fl.AddedUncoveredM2, 1), closing)
+			fmt.Fprintf(w, "  %4d  %-32s loss %10s m²  %s\n", fl.Rank, siteLabel(m, fl.Site), fmtNum(fl.AddedUncoveredM2, 1), closing)
 		}
 	case report.MoveAssign:
 		a := d.Assignment
