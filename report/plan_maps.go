@@ -634,7 +634,7 @@ func (s *planScene) drawAssignmentMap(width int) (*canvas, error) {
 				}
 			}
 		}
-		c.paint(f.mask(), color.NRGBA(colBuild), nil)
+		c.paint(f.mask(), color.NRGBA{colBuild.R, colBuild.G, colBuild.B, 0xC0}, nil) // coverage shows through
 		c.paint(edge.mask(), color.NRGBA(colInk), nil)
 	}
 	// Lines: within range dark, beyond range vermilion and wider.
