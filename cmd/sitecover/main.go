@@ -22,7 +22,7 @@
 //
 // Exit codes: 0 success, 1 bad input (one line on stderr naming the file,
 // the feature or CSV line, and the problem), 2 bad usage, 3 internal error.
-// See USAGE.md for the input formats and the outputs.
+// See README.md for the input formats and the outputs.
 package main
 
 import "os"

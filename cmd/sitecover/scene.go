@@ -361,8 +361,11 @@ func siteWarnings(sites []orb.Point, names []string, region *planar.Region) []st
 		first[p] = i
 	}
 	if nDup > 0 {
-		warn = append(warn, fmt.Sprintf("%d sites repeat the exact position of an earlier site and share its service area: %s",
-			nDup, list(dups, nDup)))
+		what := "sites repeat the exact position of an earlier site and share its service area"
+		if nDup == 1 {
+			what = "site repeats the exact position of an earlier site and shares its service area"
+		}
+		warn = append(warn, fmt.Sprintf("%d %s: %s", nDup, what, list(dups, nDup)))
 	}
 	return warn
 }
