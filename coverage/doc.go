@@ -45,6 +45,17 @@
 //     2010; Edelsbrunner, "The union of balls and its dual shape", 1995),
 //     giving the number of pieces of the union and of holes it encloses.
 //
+//   - Planning moves (plan_*.go), all planning aids for a design review:
+//     devices added by farthest-point insertion (Gonzalez, "Clustering to
+//     minimize the maximum intercluster distance", 1985) refined by moving
+//     each to the centre of the smallest enclosing circle of its cell's
+//     farthest points; the fewest additions for a range, compared with the
+//     hexagonal covering estimate area / ((3√3/2) r²) (Kershner 1939);
+//     candidate spots chosen greedily by exact marginal covered area with
+//     lazy re-evaluation (Nemhauser, Wolsey & Fisher 1978: within 1 − 1/e of
+//     the best choice); the loss when one device fails, recomputed inside
+//     its own cell only; and the nearest-device assignment of demand points.
+//
 // Gaps and holes are different things, and the site boundary is what makes
 // them differ. A gap is a component of A \ U(r): it is measured inside the
 // site and may run against the boundary of A (an exterior edge or an
