@@ -36,14 +36,7 @@ number is metres.`,
   sitecover analyze --planar --sites plan-xy.csv --area plan-xy.geojson --range 25`,
 		Args: noArgs,
 		RunE: func(cmd *cobra.Command, args []string) error {
-			if err := requireFlags(cmd, "sites", "range"); err != nil {
-				return err
-			}
-			r, err := parseRange(f.rangeText)
-			if err != nil {
-				return inputErrorf("%v", err)
-			}
-			in, err := f.inputs()
+			in, r, err := f.rangedInputs(cmd)
 			if err != nil {
 				return err
 			}
@@ -59,37 +52,25 @@ number is metres.`,
 // runAnalysis is the analyze/gaps/demo pipeline. With charts false the
 // PNG charts are skipped and the gap table is printed (the gaps command).
 func runAnalysis(e *env, command string, f *runFlags, in sceneInputs, r float64, charts bool) error {
-	pr := startProgress(e.stderr, e.terminal)
-	defer pr.end()
-	pr.set("reading inputs")
-	sc, err := loadScene(in)
+	sc, pr, err := startRun(e, command, f, in)
 	if err != nil {
 		return err
 	}
-	if err := checkOutDir(f.out); err != nil {
-		return err
-	}
-	sc.setMeta(command, f)
+	defer pr.end()
 	pr.set(fmt.Sprintf("analysing %d sites", len(sc.sites)))
 	a, err := coverage.Analyze(sc.sites, sc.region, r, coverage.Options{})
 	if err != nil {
 		return inputErrorf("%s: %v", inputNames(in), err)
 	}
-	opt := report.Options{
-		Maps:     !f.noMaps,
-		Charts:   !f.noMaps && charts,
-		MapWidth: f.mapWidth,
-		Progress: func(file string) { pr.set("writing " + file) },
-	}
-	written, err := report.WriteAnalysis(f.out, a, sc.meta, opt)
-	pr.end()
+	written, err := writeReport(f, pr, charts, func(opt report.Options) ([]string, error) {
+		return report.WriteAnalysis(f.out, a, sc.meta, opt)
+	})
 	if err != nil {
-		return inputErrorf("%v", err)
+		return err
 	}
 	doc := report.Summary(a, sc.meta)
-	printWarnings(e.stderr, doc.Warnings)
-	if f.json {
-		return printSummaryFile(e.stdout, f.out)
+	if done, err := printHead(e, f, doc.Warnings); done {
+		return err
 	}
 	printAnalysis(e.stdout, doc, sc.meta)
 	if !charts {

@@ -79,16 +79,10 @@ func TestBadInput(t *testing.T) {
 	collinear := w("fence.csv", "x,y\n0,0\n10,10\n20,20\n")
 	fileAsDir := w("plainfile", "x")
 
-	type tc struct {
-		name string
-		args []string
-		code int
-		want []string // substrings of the one stderr line
-	}
 	an := func(extra ...string) []string {
 		return append([]string{"analyze", "--range", "100m", "--out", filepath.Join(dir, "out")}, extra...)
 	}
-	cases := []tc{
+	cases := []failureCase{
 		{"missing sites file", an("--sites", filepath.Join(dir, "nope.csv")), 1, []string{"nope.csv: no such file", "--sites"}},
 		{"missing area file", an("--sites", goodCSV, "--area", filepath.Join(dir, "nope.geojson")), 1, []string{"nope.geojson: no such file", "--area"}},
 		{"missing exclude file", an("--sites", goodCSV, "--area", goodArea, "--exclude", filepath.Join(dir, "x.geojson")), 1, []string{"x.geojson: no such file", "--exclude"}},
@@ -155,25 +149,41 @@ func TestBadInput(t *testing.T) {
 	for _, c := range cases {
 		t.Run(c.name, func(t *testing.T) {
 			r := runCLI(t, c.args...)
-			if r.code != c.code {
-				t.Errorf("exit code %d, want %d; stderr %q", r.code, c.code, r.stderr)
-			}
-			line := strings.TrimSuffix(r.stderr, "\n")
-			if strings.Contains(line, "\n") || !strings.HasPrefix(line, "sitecover: ") {
-				t.Errorf("stderr is not one line \"sitecover: ...\": %q", r.stderr)
-			}
-			for _, want := range c.want {
-				if !strings.Contains(line, want) {
-					t.Errorf("stderr %q lacks %q", line, want)
-				}
-			}
+			checkFailure(t, r, c.code, c.want)
 			if strings.Contains(r.stderr, "goroutine") || strings.Contains(r.stderr, "panic") {
 				t.Errorf("stack trace on stderr: %q", r.stderr)
 			}
-			if r.stdout != "" {
-				t.Errorf("stdout not empty on failure: %q", r.stdout)
-			}
 		})
+	}
+}
+
+// failureCase is a run that must fail: its arguments, exit code and the
+// substrings of its one stderr line.
+type failureCase struct {
+	name string
+	args []string
+	code int
+	want []string
+}
+
+// checkFailure checks a failed run: exit code, one "sitecover: ..." line
+// on stderr holding every wanted text, nothing on stdout.
+func checkFailure(t *testing.T, r result, code int, want []string) {
+	t.Helper()
+	if r.code != code {
+		t.Errorf("exit code %d, want %d; stderr %q", r.code, code, r.stderr)
+	}
+	line := strings.TrimSuffix(r.stderr, "\n")
+	if strings.Contains(line, "\n") || !strings.HasPrefix(line, "sitecover: ") {
+		t.Errorf("stderr is not one line \"sitecover: ...\": %q", r.stderr)
+	}
+	for _, w := range want {
+		if !strings.Contains(line, w) {
+			t.Errorf("stderr %q lacks %q", line, w)
+		}
+	}
+	if r.stdout != "" {
+		t.Errorf("stdout not empty on failure: %q", r.stdout)
 	}
 }
 

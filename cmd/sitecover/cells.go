@@ -44,36 +44,25 @@ and service-area GeoJSON layers and the service-area map.`,
 }
 
 func runCells(e *env, f *runFlags, in sceneInputs) error {
-	pr := startProgress(e.stderr, e.terminal)
-	defer pr.end()
-	pr.set("reading inputs")
-	sc, err := loadScene(in)
+	sc, pr, err := startRun(e, "cells", f, in)
 	if err != nil {
 		return err
 	}
-	if err := checkOutDir(f.out); err != nil {
-		return err
-	}
-	sc.setMeta("cells", f)
+	defer pr.end()
 	pr.set(fmt.Sprintf("service areas of %d sites", len(sc.sites)))
 	l, err := coverage.NewLayout(sc.sites, sc.region)
 	if err != nil {
 		return inputErrorf("%s: %v", inputNames(in), err)
 	}
-	opt := report.Options{
-		Maps:     !f.noMaps,
-		MapWidth: f.mapWidth,
-		Progress: func(file string) { pr.set("writing " + file) },
-	}
-	written, err := report.WriteCells(f.out, l, sc.meta, opt)
-	pr.end()
+	written, err := writeReport(f, pr, false, func(opt report.Options) ([]string, error) {
+		return report.WriteCells(f.out, l, sc.meta, opt)
+	})
 	if err != nil {
-		return inputErrorf("%v", err)
+		return err
 	}
 	doc := report.CellsSummary(l, sc.meta)
-	printWarnings(e.stderr, doc.Warnings)
-	if f.json {
-		return printSummaryFile(e.stdout, f.out)
+	if done, err := printHead(e, f, doc.Warnings); done {
+		return err
 	}
 	printCells(e.stdout, doc, sc.meta)
 	printWritten(e.stdout, f.out, written)

@@ -68,12 +68,12 @@ campus buildings to their serving sensors). --no-plans skips them.`,
   sitecover demo --no-plans --no-maps`,
 		Args: noArgs,
 		RunE: func(cmd *cobra.Command, args []string) error {
-			r := examplesites.PlannedRange
-			if cmd.Flags().Changed("range") {
-				var err error
-				if r, err = parseRange(f.rangeText); err != nil {
-					return inputErrorf("%v", err)
-				}
+			r, given, err := f.optionalRange(cmd)
+			if err != nil {
+				return err
+			}
+			if !given {
+				r = examplesites.PlannedRange
 			}
 			sites, area, _, title := examplesites.Campus()
 			in := sceneInputs{

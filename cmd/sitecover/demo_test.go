@@ -8,7 +8,6 @@ package main
 import (
 	"bytes"
 	"encoding/json"
-	"image"
 	_ "image/png"
 	"os"
 	"path/filepath"
@@ -57,20 +56,7 @@ func TestDemoWritesEverything(t *testing.T) {
 	if len(names) != len(files) || dirs != len(demoPlans(examplesites.PlannedRange)) {
 		t.Errorf("out folder holds %v and %d folders, want exactly %v and the planning folders (no temporary files left)", names, dirs, files)
 	}
-	for _, name := range files {
-		if !strings.HasSuffix(name, ".png") {
-			continue
-		}
-		f, err := os.Open(filepath.Join(out, name))
-		if err != nil {
-			t.Fatal(err)
-		}
-		cfg, _, err := image.DecodeConfig(f)
-		f.Close()
-		if err != nil || cfg.Width != report.DefaultMapWidth {
-			t.Errorf("%s: %v, width %d", name, err, cfg.Width)
-		}
-	}
+	checkPNGWidths(t, out, files)
 	if !strings.Contains(r.stdout, examplesites.Title) || !strings.Contains(r.stdout, "Wrote") {
 		t.Errorf("stdout: %s", r.stdout)
 	}
@@ -127,19 +113,22 @@ func TestDemoWritesEverything(t *testing.T) {
 	checkLayer(t, filepath.Join(out, report.FileServiceAreas), 40)
 }
 
+// geoLayer is the part of a GeoJSON layer the layer checks read.
+type geoLayer struct {
+	Features []struct {
+		Geometry struct {
+			Type        string          `json:"type"`
+			Coordinates json.RawMessage `json:"coordinates"`
+		} `json:"geometry"`
+	} `json:"features"`
+}
+
 // checkLayer checks that every position of a GeoJSON layer lies on the
 // campus in [lon, lat] order and that polygon exteriors are
 // counter-clockwise; with wantFeatures >= 0 it also checks the count.
 func checkLayer(t *testing.T, path string, wantFeatures int) {
 	t.Helper()
-	var fc struct {
-		Features []struct {
-			Geometry struct {
-				Type        string          `json:"type"`
-				Coordinates json.RawMessage `json:"coordinates"`
-			} `json:"geometry"`
-		} `json:"features"`
-	}
+	var fc geoLayer
 	loadJSON(t, path, &fc)
 	if wantFeatures >= 0 && len(fc.Features) != wantFeatures {
 		t.Errorf("%s: %d features, want %d", filepath.Base(path), len(fc.Features), wantFeatures)

@@ -26,14 +26,7 @@ layers and the maps (no charts).`,
   sitecover gaps --sites aps.csv --area floor.geojson --planar --range 15 --json`,
 		Args: noArgs,
 		RunE: func(cmd *cobra.Command, args []string) error {
-			if err := requireFlags(cmd, "sites", "range"); err != nil {
-				return err
-			}
-			r, err := parseRange(f.rangeText)
-			if err != nil {
-				return inputErrorf("%v", err)
-			}
-			in, err := f.inputs()
+			in, r, err := f.rangedInputs(cmd)
 			if err != nil {
 				return err
 			}

@@ -159,43 +159,17 @@ func (it *pointItems) add(p orb.Point, name, where string, poly orb.MultiPolygon
 }
 
 func (it *pointItems) addGeometry(src source, where string, g *gjGeometry, name string, planarInput bool, kind pointKind) error {
-	point := func(p []float64, label, name string) error {
-		x, y, problem := position(p)
-		if problem == "" {
-			problem = coordProblem(planarInput, x, y)
-		}
-		if problem != "" {
-			return inputErrorf("%s %s%s: %s", src.name, where, label, problem)
-		}
-		it.add(orb.Point{x, y}, name, where+label, nil)
-		return nil
-	}
 	switch g.Type {
-	case "Point":
-		if x, y, ok := fastPosition(g.Coordinates); ok && coordProblem(planarInput, x, y) == "" {
-			it.add(orb.Point{x, y}, name, where, nil)
-			return nil
-		}
-		var p []float64
-		if err := decodeCoords(g.Coordinates, &p); err != nil {
-			return inputErrorf("%s %s: Point coordinates: %v", src.name, where, err)
-		}
-		return point(p, "", name)
-	case "MultiPoint":
-		var ps [][]float64
-		if err := decodeCoords(g.Coordinates, &ps); err != nil {
-			return inputErrorf("%s %s: MultiPoint coordinates: %v", src.name, where, err)
-		}
-		for k, p := range ps {
-			n := name
-			if n != "" && len(ps) > 1 {
-				n = fmt.Sprintf("%s#%d", name, k+1)
-			}
-			if err := point(p, fmt.Sprintf(" point %d", k), n); err != nil {
-				return err
+	case "Point", "MultiPoint":
+		if g.Type == "Point" {
+			if x, y, ok := fastPosition(g.Coordinates); ok && coordProblem(planarInput, x, y) == "" {
+				it.add(orb.Point{x, y}, name, where, nil)
+				return nil
 			}
 		}
-		return nil
+		return pointGeometry(src, where, g, name, planarInput, func(p orb.Point, label, name string) {
+			it.add(p, name, where+label, nil)
+		})
 	case "Polygon", "MultiPolygon":
 		if !kind.polygons {
 			break

@@ -91,40 +91,12 @@ func sitesFromGeoJSON(src source, planarInput bool) (*siteSet, error) {
 }
 
 func (s *siteSet) addGeometry(src source, where string, g *gjGeometry, name string, planarInput bool) error {
-	add := func(p []float64, label, name string) error {
-		x, y, problem := position(p)
-		if problem == "" {
-			problem = coordProblem(planarInput, x, y)
-		}
-		if problem != "" {
-			return inputErrorf("%s %s%s: %s", src.name, where, label, problem)
-		}
-		s.Pts = append(s.Pts, orb.Point{x, y})
-		s.Names = append(s.Names, name)
-		return nil
-	}
 	switch g.Type {
-	case "Point":
-		var p []float64
-		if err := decodeCoords(g.Coordinates, &p); err != nil {
-			return inputErrorf("%s %s: Point coordinates: %v", src.name, where, err)
-		}
-		return add(p, "", name)
-	case "MultiPoint":
-		var ps [][]float64
-		if err := decodeCoords(g.Coordinates, &ps); err != nil {
-			return inputErrorf("%s %s: MultiPoint coordinates: %v", src.name, where, err)
-		}
-		for k, p := range ps {
-			n := name
-			if n != "" && len(ps) > 1 {
-				n = fmt.Sprintf("%s#%d", name, k+1)
-			}
-			if err := add(p, fmt.Sprintf(" point %d", k), n); err != nil {
-				return err
-			}
-		}
-		return nil
+	case "Point", "MultiPoint":
+		return pointGeometry(src, where, g, name, planarInput, func(p orb.Point, _, name string) {
+			s.Pts = append(s.Pts, p)
+			s.Names = append(s.Names, name)
+		})
 	case "GeometryCollection":
 		for k := range g.Geometries {
 			if err := s.addGeometry(src, fmt.Sprintf("%s geometry %d", where, k), &g.Geometries[k], name, planarInput); err != nil {
@@ -137,6 +109,46 @@ func (s *siteSet) addGeometry(src source, where string, g *gjGeometry, name stri
 	default:
 		return inputErrorf("%s %s: geometry type %s, expected Point or MultiPoint (sites are points)", src.name, where, g.Type)
 	}
+}
+
+// pointGeometry decodes the Point or MultiPoint geometry g (of where in
+// src), checks each position with coordProblem and calls add with it, its
+// label after where (" point k" for position k of a MultiPoint) and its
+// name (the positions of a named MultiPoint of several are "name#1",
+// "name#2", ...). The first bad position stops it with an input error.
+func pointGeometry(src source, where string, g *gjGeometry, name string, planarInput bool, add func(p orb.Point, label, name string)) error {
+	point := func(p []float64, label, name string) error {
+		x, y, problem := position(p)
+		if problem == "" {
+			problem = coordProblem(planarInput, x, y)
+		}
+		if problem != "" {
+			return inputErrorf("%s %s%s: %s", src.name, where, label, problem)
+		}
+		add(orb.Point{x, y}, label, name)
+		return nil
+	}
+	if g.Type == "Point" {
+		var p []float64
+		if err := decodeCoords(g.Coordinates, &p); err != nil {
+			return inputErrorf("%s %s: Point coordinates: %v", src.name, where, err)
+		}
+		return point(p, "", name)
+	}
+	var ps [][]float64
+	if err := decodeCoords(g.Coordinates, &ps); err != nil {
+		return inputErrorf("%s %s: MultiPoint coordinates: %v", src.name, where, err)
+	}
+	for k, p := range ps {
+		n := name
+		if n != "" && len(ps) > 1 {
+			n = fmt.Sprintf("%s#%d", name, k+1)
+		}
+		if err := point(p, fmt.Sprintf(" point %d", k), n); err != nil {
+			return err
+		}
+	}
+	return nil
 }
 
 // fastPosition parses a plain position "[x, y]" or "[x, y, z]" of JSON

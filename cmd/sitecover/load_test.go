@@ -38,18 +38,25 @@ func TestCSVHeaderVariants(t *testing.T) {
 	}
 	for _, c := range cases {
 		s, err := loadSites(src("s.csv", c.data), c.planar)
-		if err != nil {
-			t.Errorf("%s: %v", c.name, err)
-			continue
-		}
-		if len(s.Pts) != len(c.want) {
-			t.Errorf("%s: %d sites, want %d", c.name, len(s.Pts), len(c.want))
-			continue
-		}
-		for i := range c.want {
-			if s.Pts[i] != c.want[i] || s.Names[i] != c.names[i] {
-				t.Errorf("%s: site %d = %v %q, want %v %q", c.name, i, s.Pts[i], s.Names[i], c.want[i], c.names[i])
-			}
+		checkSites(t, c.name, s, err, c.want, c.names)
+	}
+}
+
+// checkSites checks loaded sites (named case) against the wanted positions
+// and names, in order.
+func checkSites(t *testing.T, name string, s *siteSet, err error, want []orb.Point, names []string) {
+	t.Helper()
+	if err != nil {
+		t.Errorf("%s: %v", name, err)
+		return
+	}
+	if len(s.Pts) != len(want) {
+		t.Errorf("%s: %d sites, want %d", name, len(s.Pts), len(want))
+		return
+	}
+	for i := range want {
+		if s.Pts[i] != want[i] || s.Names[i] != names[i] {
+			t.Errorf("%s: site %d = %v %q, want %v %q", name, i, s.Pts[i], s.Names[i], want[i], names[i])
 		}
 	}
 }
@@ -74,19 +81,7 @@ func TestGeoJSONSiteForms(t *testing.T) {
 	}
 	for _, c := range cases {
 		s, err := loadSites(src("s.geojson", c.data), false)
-		if err != nil {
-			t.Errorf("%s: %v", c.name, err)
-			continue
-		}
-		if len(s.Pts) != len(c.want) {
-			t.Errorf("%s: %d sites, want %d", c.name, len(s.Pts), len(c.want))
-			continue
-		}
-		for i := range c.want {
-			if s.Pts[i] != c.want[i] || s.Names[i] != c.names[i] {
-				t.Errorf("%s: site %d = %v %q, want %v %q", c.name, i, s.Pts[i], s.Names[i], c.want[i], c.names[i])
-			}
-		}
+		checkSites(t, c.name, s, err, c.want, c.names)
 	}
 }
 

@@ -41,8 +41,11 @@ const maxAdd = 1_000_000
 // sub-folder of the analysis folder, so the two never mix.
 func planOutDir(name string) string { return filepath.Join("sitecover-report", name) }
 
-// setOutDefault changes the default of --out.
-func setOutDefault(fs *pflag.FlagSet, f *runFlags, dir string) {
+// addPlanOutputFlags registers the output flags of planning command name,
+// with --out defaulting to planOutDir(name).
+func (f *runFlags) addPlanOutputFlags(fs *pflag.FlagSet, name string) {
+	f.addOutputFlags(fs, true)
+	dir := planOutDir(name)
 	f.out = dir
 	fs.Lookup("out").DefValue = dir
 }
@@ -111,23 +114,14 @@ after as GeoJSON, and a map.
 			default:
 				return usageErrorf("suggest needs --add K (free placement), --range LENGTH (fewest additions for that range) or --candidates FILE with --range (see '%s --help')", cmd.CommandPath())
 			}
-			if hasRange {
-				r, err := parseRange(f.rangeText)
-				if err != nil {
-					return inputErrorf("%v", err)
-				}
-				ps.r, ps.rangeGiven = r, true
-			}
-			in, err := f.inputs()
+			in, err := f.planInputs(cmd, &ps)
 			if err != nil {
 				return err
 			}
 			if ps.move == report.MoveCandidates {
-				s, err := readSource(pf.candidates, "--candidates")
-				if err != nil {
+				if in.candidates, err = openSource(pf.candidates, "--candidates"); err != nil {
 					return err
 				}
-				in.candidates = &s
 			}
 			return asInput(runPlan(e, "suggest", f, in, ps, printFull))
 		},
@@ -136,8 +130,7 @@ after as GeoJSON, and a map.
 	cmd.Flags().IntVar(&pf.add, "add", 0, "number of new devices to place (with --candidates: number of spots to pick; default: the fewest that cover everything)")
 	cmd.Flags().StringVar(&pf.candidates, "candidates", "", "candidate mounting spots: GeoJSON Point/MultiPoint features or CSV like --sites")
 	f.addRangeFlag(cmd.Flags(), "", "planned range of every device, e.g. 150m, 0.2km, 500ft, 0.1mi")
-	f.addOutputFlags(cmd.Flags(), true)
-	setOutDefault(cmd.Flags(), f, planOutDir("suggest"))
+	f.addPlanOutputFlags(cmd.Flags(), "suggest")
 	return cmd
 }
 
@@ -164,14 +157,7 @@ devices coloured by loss.
   sitecover failures --planar --sites aps.csv --area floor.geojson --range 15 --out ap-failures`,
 		Args: noArgs,
 		RunE: func(cmd *cobra.Command, args []string) error {
-			if err := requireFlags(cmd, "sites", "range"); err != nil {
-				return err
-			}
-			r, err := parseRange(f.rangeText)
-			if err != nil {
-				return inputErrorf("%v", err)
-			}
-			in, err := f.inputs()
+			in, r, err := f.rangedInputs(cmd)
 			if err != nil {
 				return err
 			}
@@ -180,8 +166,7 @@ devices coloured by loss.
 	}
 	f.addInputFlags(cmd.Flags())
 	f.addRangeFlag(cmd.Flags(), "", "planned range of every device, e.g. 150m, 0.2km, 500ft, 0.1mi (required)")
-	f.addOutputFlags(cmd.Flags(), true)
-	setOutDefault(cmd.Flags(), f, planOutDir("failures"))
+	f.addPlanOutputFlags(cmd.Flags(), "failures")
 	return cmd
 }
 
@@ -216,30 +201,20 @@ line from each item to its device), device-load.geojson and a map.
 				return err
 			}
 			ps := planSpec{move: report.MoveAssign}
-			if cmd.Flags().Changed("range") {
-				r, err := parseRange(f.rangeText)
-				if err != nil {
-					return inputErrorf("%v", err)
-				}
-				ps.r, ps.rangeGiven = r, true
-			}
-			in, err := f.inputs()
+			in, err := f.planInputs(cmd, &ps)
 			if err != nil {
 				return err
 			}
-			s, err := readSource(pf.points, "--points")
-			if err != nil {
+			if in.points, err = openSource(pf.points, "--points"); err != nil {
 				return err
 			}
-			in.points = &s
 			return asInput(runPlan(e, "assign", f, in, ps, printFull))
 		},
 	}
 	f.addInputFlags(cmd.Flags())
 	cmd.Flags().StringVar(&pf.points, "points", "", "demand points or polygons: GeoJSON (optional \"weight\" property) or CSV like --sites (optional weight column) (required)")
 	f.addRangeFlag(cmd.Flags(), "", "range of every device, e.g. 150m, 0.2km, 500ft, 0.1mi (default: distances only)")
-	f.addOutputFlags(cmd.Flags(), true)
-	setOutDefault(cmd.Flags(), f, planOutDir("assign"))
+	f.addPlanOutputFlags(cmd.Flags(), "assign")
 	return cmd
 }
 
@@ -253,6 +228,16 @@ type planSpec struct {
 	rangeGiven bool
 }
 
+// planInputs parses --range into ps when it was given, then opens the
+// input files named by the flags.
+func (f *runFlags) planInputs(cmd *cobra.Command, ps *planSpec) (sceneInputs, error) {
+	var err error
+	if ps.r, ps.rangeGiven, err = f.optionalRange(cmd); err != nil {
+		return sceneInputs{}, err
+	}
+	return f.inputs()
+}
+
 // printMode says what a planning run prints on stdout.
 type printMode int
 
@@ -264,17 +249,11 @@ const (
 
 // runPlan runs one planning move and writes its report folder.
 func runPlan(e *env, command string, f *runFlags, in sceneInputs, ps planSpec, mode printMode) error {
-	pr := startProgress(e.stderr, e.terminal)
-	defer pr.end()
-	pr.set("reading inputs")
-	sc, err := loadScene(in)
+	sc, pr, err := startRun(e, command, f, in)
 	if err != nil {
 		return err
 	}
-	if err := checkOutDir(f.out); err != nil {
-		return err
-	}
-	sc.setMeta(command, f)
+	defer pr.end()
 	timed := func(phase string, t0 time.Time) {
 		sc.meta.Timings = append(sc.meta.Timings, coverage.Timing{Phase: phase, Seconds: time.Since(t0).Seconds()})
 	}
@@ -360,24 +339,19 @@ func runPlan(e *env, command string, f *runFlags, in sceneInputs, ps planSpec, m
 		}
 		timed("gaps", t0)
 	}
-	opt := report.Options{
-		Maps:     !f.noMaps,
-		MapWidth: f.mapWidth,
-		Progress: func(file string) { pr.set("writing " + file) },
-	}
-	written, err := report.WritePlan(f.out, p, sc.meta, opt)
-	pr.end()
+	written, err := writeReport(f, pr, false, func(opt report.Options) ([]string, error) {
+		return report.WritePlan(f.out, p, sc.meta, opt)
+	})
 	if err != nil {
-		return inputErrorf("%v", err)
+		return err
 	}
 	doc, err := report.PlanSummary(p, sc.meta)
 	if err != nil {
 		return err
 	}
 	if mode == printFull {
-		printWarnings(e.stderr, doc.Warnings)
-		if f.json {
-			return printSummaryFile(e.stdout, f.out)
+		if done, err := printHead(e, f, doc.Warnings); done {
+			return err
 		}
 		if sc.meta.Title != "" {
 			fmt.Fprintln(e.stdout, sc.meta.Title)

@@ -161,6 +161,26 @@ func readCSV(t *testing.T, path string) [][]string {
 	return rows
 }
 
+// checkPNGWidths checks that each PNG among names in dir decodes and has
+// the default map width.
+func checkPNGWidths(t *testing.T, dir string, names []string) {
+	t.Helper()
+	for _, name := range names {
+		if !strings.HasSuffix(name, ".png") {
+			continue
+		}
+		f, err := os.Open(filepath.Join(dir, name))
+		if err != nil {
+			t.Fatal(err)
+		}
+		cfg, _, err := image.DecodeConfig(f)
+		f.Close()
+		if err != nil || cfg.Width != report.DefaultMapWidth {
+			t.Errorf("%s: %v, width %d", name, err, cfg.Width)
+		}
+	}
+}
+
 // checkFiles checks that dir holds exactly the files of a planning move.
 func checkFiles(t *testing.T, dir string, move report.Move, planarOut, maps bool) {
 	t.Helper()
@@ -176,20 +196,7 @@ func checkFiles(t *testing.T, dir string, move report.Move, planarOut, maps bool
 	if !slices.Equal(got, w) {
 		t.Errorf("%s holds %v, want %v", dir, got, w)
 	}
-	for _, name := range want {
-		if !strings.HasSuffix(name, ".png") {
-			continue
-		}
-		f, err := os.Open(filepath.Join(dir, name))
-		if err != nil {
-			t.Fatal(err)
-		}
-		cfg, _, err := image.DecodeConfig(f)
-		f.Close()
-		if err != nil || cfg.Width != report.DefaultMapWidth {
-			t.Errorf("%s: %v, width %d", name, err, cfg.Width)
-		}
-	}
+	checkPNGWidths(t, dir, want)
 }
 
 func TestSuggestPutsMissingDeviceBack(t *testing.T) {
@@ -560,14 +567,7 @@ func TestSuggestCandidates(t *testing.T) {
 // GeoJSON layer is [lon, lat] on the demo campus, and counts features.
 func checkPointLayer(t *testing.T, path string, want int) {
 	t.Helper()
-	var fc struct {
-		Features []struct {
-			Geometry struct {
-				Type        string          `json:"type"`
-				Coordinates json.RawMessage `json:"coordinates"`
-			} `json:"geometry"`
-		} `json:"features"`
-	}
+	var fc geoLayer
 	loadJSON(t, path, &fc)
 	if len(fc.Features) != want {
 		t.Errorf("%s: %d features, want %d", filepath.Base(path), len(fc.Features), want)
@@ -702,13 +702,7 @@ func TestPlanBadInput(t *testing.T) {
 	nanCands := w("nanc.csv", "x,y\n1,NaN\n")
 	geoSites := w("geo.csv", "lat,lon\n44,-99\n44.001,-99\n44,-99.001\n")
 
-	type tc struct {
-		name string
-		args []string
-		code int
-		want []string
-	}
-	cases := []tc{
+	cases := []failureCase{
 		// assign
 		{"assign without --points", base("assign", "--range", "5"), 2, []string{"required flag --points is missing"}},
 		{"assign missing points file", base("assign", "--points", filepath.Join(dir, "nope.csv")), 1, []string{"nope.csv: no such file (given to --points)"}},
@@ -744,22 +738,7 @@ func TestPlanBadInput(t *testing.T) {
 	}
 	for _, c := range cases {
 		t.Run(c.name, func(t *testing.T) {
-			r := runCLI(t, c.args...)
-			if r.code != c.code {
-				t.Errorf("exit code %d, want %d; stderr %q", r.code, c.code, r.stderr)
-			}
-			line := strings.TrimSuffix(r.stderr, "\n")
-			if strings.Contains(line, "\n") || !strings.HasPrefix(line, "sitecover: ") {
-				t.Errorf("stderr is not one line \"sitecover: ...\": %q", r.stderr)
-			}
-			for _, want := range c.want {
-				if !strings.Contains(line, want) {
-					t.Errorf("stderr %q lacks %q", line, want)
-				}
-			}
-			if r.stdout != "" {
-				t.Errorf("stdout not empty on failure: %q", r.stdout)
-			}
+			checkFailure(t, runCLI(t, c.args...), c.code, c.want)
 		})
 	}
 

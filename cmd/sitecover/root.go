@@ -214,18 +214,14 @@ func (f *runFlags) inputs() (sceneInputs, error) {
 		return in, err
 	}
 	if f.area != "" {
-		s, err := readSource(f.area, "--area")
-		if err != nil {
+		if in.area, err = openSource(f.area, "--area"); err != nil {
 			return in, err
 		}
-		in.area = &s
 	}
 	if f.exclude != "" {
-		s, err := readSource(f.exclude, "--exclude")
-		if err != nil {
+		if in.exclude, err = openSource(f.exclude, "--exclude"); err != nil {
 			return in, err
 		}
-		in.exclude = &s
 	}
 	return in, nil
 }

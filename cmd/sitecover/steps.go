@@ -1,0 +1,99 @@
+// The steps shared by the command runs: reading --range and the input
+// flags, starting a run (progress line, scene, output folder, metadata),
+// writing the report folder with the output flags, and the first lines of
+// output (warnings on stderr, summary.json with --json). No arithmetic is
+// done here; the figures come from packages coverage and report.
+
+package main
+
+import (
+	"github.com/sitecover/sitecover/report"
+	"github.com/spf13/cobra"
+)
+
+// rangedInputs is the start of a command that needs --sites and --range:
+// it checks both are given, parses the range (m) and opens the inputs.
+func (f *runFlags) rangedInputs(cmd *cobra.Command) (sceneInputs, float64, error) {
+	if err := requireFlags(cmd, "sites", "range"); err != nil {
+		return sceneInputs{}, 0, err
+	}
+	r, err := parseRange(f.rangeText)
+	if err != nil {
+		return sceneInputs{}, 0, inputErrorf("%v", err)
+	}
+	in, err := f.inputs()
+	if err != nil {
+		return sceneInputs{}, 0, err
+	}
+	return in, r, nil
+}
+
+// optionalRange parses --range (m) when it was given; given is false when
+// it was not.
+func (f *runFlags) optionalRange(cmd *cobra.Command) (r float64, given bool, err error) {
+	if !cmd.Flags().Changed("range") {
+		return 0, false, nil
+	}
+	if r, err = parseRange(f.rangeText); err != nil {
+		return 0, false, inputErrorf("%v", err)
+	}
+	return r, true, nil
+}
+
+// openSource reads the input file given to flag, for an optional input of
+// sceneInputs.
+func openSource(path, flag string) (*source, error) {
+	s, err := readSource(path, flag)
+	if err != nil {
+		return nil, err
+	}
+	return &s, nil
+}
+
+// startRun begins a run of command: it starts the progress line, loads the
+// scene, checks the output folder and fills the report metadata. The caller
+// ends the progress line; on error startRun has ended it.
+func startRun(e *env, command string, f *runFlags, in sceneInputs) (*scene, *progress, error) {
+	pr := startProgress(e.stderr, e.terminal)
+	pr.set("reading inputs")
+	sc, err := loadScene(in)
+	if err == nil {
+		err = checkOutDir(f.out)
+	}
+	if err != nil {
+		pr.end()
+		return nil, nil, err
+	}
+	sc.setMeta(command, f)
+	return sc, pr, nil
+}
+
+// writeReport calls write with the report options of the output flags
+// (the charts only when charts is true and maps are wanted), reporting each
+// file on the progress line, then ends the line. It returns the files
+// written; a failure is an input error.
+func writeReport(f *runFlags, pr *progress, charts bool, write func(report.Options) ([]string, error)) ([]string, error) {
+	opt := report.Options{
+		Maps:     !f.noMaps,
+		Charts:   !f.noMaps && charts,
+		MapWidth: f.mapWidth,
+		Progress: func(file string) { pr.set("writing " + file) },
+	}
+	written, err := write(opt)
+	pr.end()
+	if err != nil {
+		return nil, inputErrorf("%v", err)
+	}
+	return written, nil
+}
+
+// printHead repeats the report's warnings on stderr and, with --json,
+// copies the written summary.json to stdout; done is true when that was
+// the whole of the run's output (err is then its result).
+func printHead(e *env, f *runFlags, warnings []string) (done bool, err error) {
+	printWarnings(e.stderr, warnings)
+	if f.json {
+		return true, printSummaryFile(e.stdout, f.out)
+	}
+	return false, nil
+}
