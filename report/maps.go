@@ -23,6 +23,7 @@ import (
 	"slices"
 
 	"github.com/paulmach/orb"
+	"github.com/sitecover/sitecover/coverage"
 	"golang.org/x/image/font"
 )
 
@@ -125,15 +126,10 @@ func (s *scene) drawSiteMarks(c *canvas, d density) float64 {
 		halo = 1.2 * c.u
 	}
 	if halo > 0 {
-		f := c.newFill()
-		unit := unitCircle(circleSides(rho + halo))
-		s.forSites(func(x, y float64) { f.circle(c.ox+x*c.k, c.oy-y*c.k, rho+halo, unit) })
-		c.paint(f.mask(), color.NRGBA{0xFF, 0xFF, 0xFF, 0xFF}, nil)
+		r := rho + halo
+		c.paint(s.diskMask(c, r, unitCircle(circleSides(r))), color.NRGBA{0xFF, 0xFF, 0xFF, 0xFF}, nil)
 	}
-	f := c.newFill()
-	unit := unitCircle(circleSides(rho))
-	s.forSites(func(x, y float64) { f.circle(c.ox+x*c.k, c.oy-y*c.k, rho, unit) })
-	c.paint(f.mask(), ink, nil)
+	c.paint(s.diskMask(c, rho, unitCircle(circleSides(rho))), ink, nil)
 	return rho
 }
 
@@ -142,21 +138,12 @@ func (s *scene) drawSiteMarks(c *canvas, d density) float64 {
 // taking the first that overlaps no earlier label, no site mark and stays
 // in the frame; failing that, the one with the least overlap.
 func (s *scene) labelSites(c *canvas, rho float64) {
-	type box struct{ x0, y0, x1, y1 float64 }
-	overlap := func(a, b box) float64 {
-		w := math.Min(a.x1, b.x1) - math.Max(a.x0, b.x0)
-		h := math.Min(a.y1, b.y1) - math.Max(a.y0, b.y0)
-		if w <= 0 || h <= 0 {
-			return 0
-		}
-		return w * h
-	}
-	var taken []box
+	var taken []labelBox
 	s.forSites(func(x, y float64) {
 		px, py := c.ox+x*c.k, c.oy-y*c.k
-		taken = append(taken, box{px - rho - 1, py - rho - 1, px + rho + 1, py + rho + 1})
+		taken = append(taken, labelBox{px - rho - 1, py - rho - 1, px + rho + 1, py + rho + 1})
 	})
-	frame := box{c.fx + 2, c.fy + 2, c.fx + c.fw - 2, c.fy + c.fh - 2}
+	frame := c.labelFrame()
 	face := c.face(14, false)
 	seen := map[orb.Point]bool{}
 	gap := 3 * c.u
@@ -169,31 +156,197 @@ func (s *scene) labelSites(c *canvas, rho float64) {
 		w := float64(font.MeasureString(face, text)) / 64
 		h := 14 * c.u * 0.78 // cap height and a little
 		x, y := c.px(p)
-		cands := []box{
+		cands := []labelBox{
 			{x + rho + gap, y - rho - h, x + rho + gap + w, y - rho},
 			{x + rho + gap, y + rho, x + rho + gap + w, y + rho + h},
 			{x - rho - gap - w, y - rho - h, x - rho - gap, y - rho},
 			{x - rho - gap - w, y + rho, x - rho - gap, y + rho + h},
 		}
-		best, bestCost := 0, math.Inf(1)
-		for k, b := range cands {
-			cost := 0.0
-			for _, t := range taken {
-				cost += overlap(b, t)
-			}
-			inside := overlap(b, frame)
-			cost += 4 * (w*h - inside)
-			if cost < bestCost-1e-9 {
-				best, bestCost = k, cost
-			}
-			if cost == 0 {
-				break
-			}
-		}
-		b := cands[best]
+		b := pickLabelBox(cands, taken, frame, w*h)
 		taken = append(taken, b)
 		c.haloText(text, b.x0, b.y1, 0, 0, 14, false, colInk)
 	}
+}
+
+// mapTitle returns a map title: base, then the report title if any.
+func (s *scene) mapTitle(base string) string {
+	if s.m.Title != "" {
+		return base + ": " + s.m.Title
+	}
+	return base
+}
+
+// northNote is the map note on orientation and the plane drawn in.
+func (s *scene) northNote() string {
+	return "North up: the y axis of the local plane (grid north). " + s.planeNote()
+}
+
+// areaLegend returns the legend items that close every map legend: the
+// site area outline and the exclusion zones.
+func areaLegend() []legendItem {
+	return []legendItem{
+		{"Site area outline", swatchLine(colInk, 2.2)},
+		{"Exclusion zone (no coverage needed)", swatchHatch},
+	}
+}
+
+// mapKey is what a map's legend shows: its items and its notes.
+type mapKey struct {
+	items []legendItem
+	notes []string
+}
+
+// layoutMap closes key with the area legend and, when the sites are too
+// dense to tell apart at this width, a note that dense (what cannot be
+// told apart) is best seen in a GIS; it then lays out the page over ext
+// and returns it with the site density on it.
+func (s *scene) layoutMap(ext orb.Bound, width int, key *mapKey, dense string) (*canvas, density, error) {
+	key.items = append(key.items, areaLegend()...)
+	if n := s.denseNote(width, dense); n != "" {
+		key.notes = append(key.notes, n)
+	}
+	c, err := layoutCanvas(ext, width, key.items, len(key.notes))
+	if err != nil {
+		return nil, density{}, err
+	}
+	return c, s.density(c), nil
+}
+
+// finish draws what frames every map: the frame, the scale bar, the
+// north arrow and the legend of key.
+func (c *canvas) finish(key mapKey) {
+	c.frame()
+	c.scaleBar()
+	c.northArrow()
+	c.legend(key.items, key.notes)
+}
+
+// encodeMap encodes a drawn map as PNG, or passes on the drawing error.
+func encodeMap(c *canvas, err error) ([]byte, error) {
+	if err != nil {
+		return nil, err
+	}
+	return c.encode()
+}
+
+// diskMask returns the mask of every site's disk of radius rho px,
+// drawn as the polygon unit (from unitCircle) scaled by rho.
+func (s *scene) diskMask(c *canvas, rho float64, unit []float64) *image.Alpha {
+	f := c.newFill()
+	s.forSites(func(x, y float64) { f.circle(c.ox+x*c.k, c.oy-y*c.k, rho, unit) })
+	return f.mask()
+}
+
+// fillGaps paints the outlines of gaps in col.
+func (s *scene) fillGaps(c *canvas, gaps []coverage.Gap, col color.RGBA) {
+	if len(gaps) == 0 {
+		return
+	}
+	f := c.newFill()
+	var tmp []float64
+	for _, g := range gaps {
+		for _, poly := range g.Outline {
+			for k, ring := range poly {
+				tmp = ringXY(ring, tmp[:0])
+				f.ringXY(tmp, k == 0)
+			}
+		}
+	}
+	c.paint(f.mask(), color.NRGBA(col), nil)
+}
+
+// diskOutlines strokes every existing device's disk of radius rho px,
+// thin and translucent, inside the area (clip).
+func (s *scene) diskOutlines(c *canvas, rho float64, unit []float64, clip *image.Alpha) {
+	f := c.newFill()
+	w := 1.0 * c.u
+	s.forSites(func(x, y float64) {
+		px, py := c.ox+x*c.k, c.oy-y*c.k
+		n := len(unit) / 2
+		for i := range n {
+			j := (i + 1) % n
+			f.segment(px+rho*unit[2*i], py+rho*unit[2*i+1], px+rho*unit[2*j], py+rho*unit[2*j+1], w)
+		}
+	})
+	c.paint(f.mask(), color.NRGBA{colDiskEdge.R, colDiskEdge.G, colDiskEdge.B, 0x90}, clip)
+}
+
+// gapMarks rings the deepest point of each gap and writes its number
+// beside it (all rings first, so no ring covers a number).
+func (c *canvas) gapMarks(gaps []coverage.Gap) {
+	for _, g := range gaps {
+		x, y := c.px(g.Deepest)
+		c.deepestMark(x, y)
+	}
+	for _, g := range gaps {
+		x, y := c.px(g.Deepest)
+		c.haloText(fmt.Sprint(g.ID), x+9*c.u, y-8*c.u, 0, 0, 17, true, colInk)
+	}
+}
+
+// paintCells fills the clipped cell of each vertex v in cols[class[v]],
+// one path per class, classes in palette order.
+func (s *scene) paintCells(c *canvas, class []int, cols []color.RGBA) {
+	for k := range cols {
+		f := c.newFill()
+		drawn := false
+		for v, cv := range class {
+			if cv == k {
+				s.cellFill(f, v)
+				drawn = true
+			}
+		}
+		if drawn {
+			c.paint(f.mask(), color.NRGBA(cols[k]), nil)
+		}
+	}
+}
+
+// strokeCellEdges strokes every cell edge once, w px wide, in col.
+func (s *scene) strokeCellEdges(c *canvas, w float64, col color.NRGBA) {
+	f := c.newFill()
+	s.cellEdges(f, w)
+	c.paint(f.mask(), col, nil)
+}
+
+// labelBox is the box of a label or a mark, in px.
+type labelBox struct{ x0, y0, x1, y1 float64 }
+
+// boxOverlap returns the area a and b share.
+func boxOverlap(a, b labelBox) float64 {
+	w := math.Min(a.x1, b.x1) - math.Max(a.x0, b.x0)
+	h := math.Min(a.y1, b.y1) - math.Max(a.y0, b.y0)
+	if w <= 0 || h <= 0 {
+		return 0
+	}
+	return w * h
+}
+
+// labelFrame is the box labels must stay in: the frame less 2 px.
+func (c *canvas) labelFrame() labelBox {
+	return labelBox{c.fx + 2, c.fy + 2, c.fx + c.fw - 2, c.fy + c.fh - 2}
+}
+
+// pickLabelBox returns the first candidate box of a label of the given
+// area that overlaps nothing taken and stays in frame; failing that, the
+// one of least cost, the overlap with taken boxes plus four times the
+// part outside the frame.
+func pickLabelBox(cands, taken []labelBox, frame labelBox, area float64) labelBox {
+	best, bestCost := 0, math.Inf(1)
+	for k, b := range cands {
+		cost := 0.0
+		for _, t := range taken {
+			cost += boxOverlap(b, t)
+		}
+		cost += 4 * (area - boxOverlap(b, frame))
+		if cost < bestCost-1e-9 {
+			best, bestCost = k, cost
+		}
+		if cost == 0 {
+			break
+		}
+	}
+	return cands[best]
 }
 
 // shortLabel is a site's map label: its name, or #i.
@@ -379,71 +532,42 @@ func (s *scene) drawServiceAreaMap(width int) (*canvas, error) {
 	items := []legendItem{
 		{"Service area: the part of the site nearest to one device (colours only tell neighbours apart)", swatchFill(cellPalette[0], colCellEdge)},
 		{"Device site", swatchDot},
-		{"Site area outline", swatchLine(colInk, 2.2)},
-		{"Exclusion zone (no coverage needed)", swatchHatch},
 	}
-	notes := []string{
-		"North up: the y axis of the local plane (grid north). " + s.planeNote(),
-	}
-	if n := s.denseNote(width, "single service areas"); n != "" {
-		notes = append(notes, n)
-	}
-	c, err := layoutCanvas(s.extent(), width, items, len(notes))
+	key := mapKey{items: items, notes: []string{s.northNote()}}
+	c, d, err := s.layoutMap(s.extent(), width, &key, "single service areas")
 	if err != nil {
 		return nil, err
 	}
-	d := s.density(c)
 	n := len(s.l.Sites)
-	title := "Service areas"
-	if s.m.Title != "" {
-		title += ": " + s.m.Title
-	}
+	title := s.mapTitle("Service areas")
 	sub := fmt.Sprintf("%d sites, site area %s; each device serves the part of the site nearest to it", n, haText(s.l.AreaM2))
 	c.title(title, sub)
 
 	s.drawArea(c)
 	if cl := s.l.Cells; cl != nil {
 		cols := s.cellColours()
-		nv := len(cl.SiteStart) - 1
-		for k := range cellPalette {
-			f := c.newFill()
-			drawn := false
-			for v := range nv {
-				if int(cols[v])%len(cellPalette) == k {
-					s.cellFill(f, v)
-					drawn = true
-				}
-			}
-			if drawn {
-				c.paint(f.mask(), color.NRGBA(cellPalette[k]), nil)
-			}
+		class := make([]int, len(cl.SiteStart)-1)
+		for v := range class {
+			class[v] = int(cols[v]) % len(cellPalette)
 		}
+		s.paintCells(c, class, cellPalette)
 		if d.spacing >= 4*c.u {
 			w, alpha := 1.0*c.u, uint8(0xB0)
 			if d.spacing < 12*c.u {
 				w, alpha = 0.6, 0x80
 			}
-			f := c.newFill()
-			s.cellEdges(f, w)
-			c.paint(f.mask(), color.NRGBA{0x44, 0x44, 0x44, alpha}, nil)
+			s.strokeCellEdges(c, w, color.NRGBA{0x44, 0x44, 0x44, alpha})
 		}
 	}
 	s.drawZones(c)
 	s.strokeArea(c)
 	s.drawSites(c, d)
-	c.frame()
-	c.scaleBar()
-	c.northArrow()
-	c.legend(items, notes)
+	c.finish(key)
 	return c, nil
 }
 
 func (s *scene) serviceAreaMap(width int) ([]byte, error) {
-	c, err := s.drawServiceAreaMap(width)
-	if err != nil {
-		return nil, err
-	}
-	return c.encode()
+	return encodeMap(s.drawServiceAreaMap(width))
 }
 
 func (s *scene) planeNote() string {
@@ -477,28 +601,19 @@ func (s *scene) drawCoverageMap(width int) (*canvas, error) {
 		{gapLabel, swatchFill(colGap, nil)},
 		{"Deepest point of a gap (where it closes last)", swatchDeepest},
 		{"Device site", swatchDot},
-		{"Site area outline", swatchLine(colInk, 2.2)},
-		{"Exclusion zone (no coverage needed)", swatchHatch},
 	}
 	if len(a.Gaps) == 0 && len(a.FullCover.Worst) > 0 {
 		items[2] = legendItem{"Point farthest from every device (full-cover range needed there)", swatchWorst}
 	}
-	notes := []string{
-		"North up: the y axis of the local plane (grid north). " + s.planeNote(),
+	key := mapKey{items: items, notes: []string{
+		s.northNote(),
 		"Disks drawn within 0.2 px of true circles, over the gaps, so gap edges along disks are true arcs too.",
-	}
-	if n := s.denseNote(width, "single disks and small gaps"); n != "" {
-		notes = append(notes, n)
-	}
-	c, err := layoutCanvas(s.extent(), width, items, len(notes))
+	}}
+	c, d, err := s.layoutMap(s.extent(), width, &key, "single disks and small gaps")
 	if err != nil {
 		return nil, err
 	}
-	d := s.density(c)
-	title := "Coverage at " + metresShort(a.Range)
-	if s.m.Title != "" {
-		title += ": " + s.m.Title
-	}
+	title := s.mapTitle("Coverage at " + metresShort(a.Range))
 	sub := fmt.Sprintf("%.2f %% of %s covered, %d gap(s), %.0f m2 uncovered; full cover needs %s",
 		100*a.CoveredFraction, haText(s.l.AreaM2), len(a.Gaps), a.UncoveredArea, metresShort(a.FullCover.Range))
 	c.title(title, sub)
@@ -507,68 +622,31 @@ func (s *scene) drawCoverageMap(width int) (*canvas, error) {
 	// Gaps first, disks over them: the gap outlines replace arcs by chords
 	// lying inside the disks, so the disks drawn on top restore the true
 	// circular edge (within 0.2 px).
-	f := c.newFill()
-	var tmp []float64
-	for _, g := range a.Gaps {
-		for _, poly := range g.Outline {
-			for k, ring := range poly {
-				tmp = ringXY(ring, tmp[:0])
-				f.ringXY(tmp, k == 0)
-			}
-		}
-	}
-	c.paint(f.mask(), color.NRGBA(colGap), nil)
+	s.fillGaps(c, a.Gaps, colGap)
 
 	rho := a.Range * c.k
 	unit := unitCircle(circleSides(rho))
-	f = c.newFill()
-	s.forSites(func(x, y float64) { f.circle(c.ox+x*c.k, c.oy-y*c.k, rho, unit) })
-	c.paint(f.mask(), color.NRGBA(colCovered), areaMask) // disks only inside the area
+	c.paint(s.diskMask(c, rho, unit), color.NRGBA(colCovered), areaMask) // disks only inside the area
 	if d.spacing >= 8*c.u && rho >= 3 {
-		f := c.newFill()
-		w := 1.0 * c.u
-		s.forSites(func(x, y float64) {
-			px, py := c.ox+x*c.k, c.oy-y*c.k
-			n := len(unit) / 2
-			for i := range n {
-				j := (i + 1) % n
-				f.segment(px+rho*unit[2*i], py+rho*unit[2*i+1], px+rho*unit[2*j], py+rho*unit[2*j+1], w)
-			}
-		})
-		c.paint(f.mask(), color.NRGBA{colDiskEdge.R, colDiskEdge.G, colDiskEdge.B, 0x90}, areaMask)
+		s.diskOutlines(c, rho, unit, areaMask)
 	}
 	s.drawZones(c)
 
 	s.strokeArea(c)
 	s.drawSites(c, d)
-	for i := 0; i < numbered; i++ {
-		x, y := c.px(a.Gaps[i].Deepest)
-		c.deepestMark(x, y)
-	}
-	for i := 0; i < numbered; i++ {
-		g := a.Gaps[i]
-		x, y := c.px(g.Deepest)
-		c.haloText(fmt.Sprint(g.ID), x+9*c.u, y-8*c.u, 0, 0, 17, true, colInk)
-	}
+	c.gapMarks(a.Gaps[:numbered])
 	if len(a.Gaps) == 0 {
 		for _, p := range a.FullCover.Worst[:min(len(a.FullCover.Worst), maxNumbered)] {
 			x, y := c.px(p)
 			c.worstMark(x, y)
 		}
 	}
-	c.frame()
-	c.scaleBar()
-	c.northArrow()
-	c.legend(items, notes)
+	c.finish(key)
 	return c, nil
 }
 
 func (s *scene) coverageMap(width int) ([]byte, error) {
-	c, err := s.drawCoverageMap(width)
-	if err != nil {
-		return nil, err
-	}
-	return c.encode()
+	return encodeMap(s.drawCoverageMap(width))
 }
 
 // ringXY flattens an orb ring into dst as x, y pairs without the closing

@@ -22,7 +22,6 @@ package report
 
 import (
 	"fmt"
-	"image"
 	"image/color"
 	"math"
 	"slices"
@@ -88,11 +87,7 @@ func (s *planScene) suggestionMap(width int) ([]byte, error) {
 	if !p.RangeGiven {
 		ba.sub += " (range: " + p.RangeNote + ")"
 	}
-	c, err := s.drawBeforeAfter(width, ba)
-	if err != nil {
-		return nil, err
-	}
-	return c.encode()
+	return encodeMap(s.drawBeforeAfter(width, ba))
 }
 
 func (s *planScene) candidateMap(width int) ([]byte, error) {
@@ -118,11 +113,7 @@ func (s *planScene) candidateMap(width int) ([]byte, error) {
 	case ch.Exhausted:
 		ba.sub += fmt.Sprintf("; full cover cannot be reached from these spots (%s left)", plural(len(ch.Remaining), "gap"))
 	}
-	c, err := s.drawBeforeAfter(width, ba)
-	if err != nil {
-		return nil, err
-	}
-	return c.encode()
+	return encodeMap(s.drawBeforeAfter(width, ba))
 }
 
 // drawBeforeAfter draws a before/after map.
@@ -132,7 +123,7 @@ func (s *planScene) drawBeforeAfter(width int, ba beforeAfter) (*canvas, error) 
 	items := []legendItem{
 		{fmt.Sprintf("Covered by the existing devices (within %s)", metresShort(r)), swatchFill(colCovered, colDiskEdge)},
 		{ba.closed, swatchFill(colClosed, nil)},
-		{"Gap left, numbered by closing range; ring: deepest point", swatchDeepestLeft},
+		{"Gap left, numbered by closing range; ring: deepest point", swatchDeepest},
 		{fmt.Sprintf("Reach of a new device (%s)", metresShort(r)), swatchDashed},
 		{"Existing device", swatchDot},
 		{ba.newLabel, swatchNew},
@@ -140,32 +131,19 @@ func (s *planScene) drawBeforeAfter(width int, ba beforeAfter) (*canvas, error) 
 	if len(ba.others) > 0 {
 		items = append(items, legendItem{"Candidate spot not picked", swatchSpot})
 	}
-	items = append(items,
-		legendItem{"Site area outline", swatchLine(colInk, 2.2)},
-		legendItem{"Exclusion zone (no coverage needed)", swatchHatch})
-	notes := []string{"North up: the y axis of the local plane (grid north). " + s.planeNote()}
-	if n := s.denseNote(width, "single disks and small gaps"); n != "" {
-		notes = append(notes, n)
-	}
-	c, err := layoutCanvas(s.extent(), width, items, len(notes))
+	key := mapKey{items: items, notes: []string{s.northNote()}}
+	c, d, err := s.layoutMap(s.extent(), width, &key, "single disks and small gaps")
 	if err != nil {
 		return nil, err
 	}
-	d := s.density(c)
-	title := ba.title
-	if s.m.Title != "" {
-		title += ": " + s.m.Title
-	}
-	c.title(title, ba.sub)
+	c.title(s.mapTitle(ba.title), ba.sub)
 
 	areaMask := s.drawArea(c)
 	s.fillGaps(c, ba.before, colClosed)
 	s.fillGaps(c, ba.after, colGap)
 	rho := r * c.k
 	unit := unitCircle(circleSides(rho))
-	f := c.newFill()
-	s.forSites(func(x, y float64) { f.circle(c.ox+x*c.k, c.oy-y*c.k, rho, unit) })
-	c.paint(f.mask(), color.NRGBA(colCovered), areaMask)
+	c.paint(s.diskMask(c, rho, unit), color.NRGBA(colCovered), areaMask)
 	if d.spacing >= 8*c.u && rho >= 3 {
 		s.diskOutlines(c, rho, unit, areaMask)
 	}
@@ -175,9 +153,7 @@ func (s *planScene) drawBeforeAfter(width int, ba beforeAfter) (*canvas, error) 
 	// New devices' reach, then the marks.
 	if len(ba.added) <= 10*maxMarked && rho >= 2 {
 		c.inFrame(func() {
-			c.dc.SetColor(colNewDisk)
-			c.dc.SetLineWidth(1.8 * c.u)
-			c.dc.SetDash(7*c.u, 5*c.u)
+			c.setReachDash()
 			for _, q := range ba.added {
 				x, y := c.px(q)
 				c.dc.DrawCircle(x, y, rho)
@@ -194,57 +170,29 @@ func (s *planScene) drawBeforeAfter(width int, ba beforeAfter) (*canvas, error) 
 		x, y := c.px(q)
 		c.newMark(x, y, 7*c.u)
 	}
-	for i := 0; i < numbered; i++ {
-		x, y := c.px(ba.after[i].Deepest)
-		c.deepestMark(x, y)
-	}
-	for i := 0; i < numbered; i++ {
-		g := ba.after[i]
-		x, y := c.px(g.Deepest)
-		c.haloText(fmt.Sprint(g.ID), x+9*c.u, y-8*c.u, 0, 0, 17, true, colInk)
-	}
+	c.gapMarks(ba.after[:numbered])
 	if len(ba.added) <= maxMarked {
 		s.placeLabels(c, ba.added, ba.labels, 9*c.u, 18, true)
 	}
-	c.frame()
-	c.scaleBar()
-	c.northArrow()
-	c.legend(items, notes)
+	c.finish(key)
 	return c, nil
 }
 
-// fillGaps paints the outlines of gaps in col.
-func (s *planScene) fillGaps(c *canvas, gaps []coverage.Gap, col color.RGBA) {
-	if len(gaps) == 0 {
-		return
-	}
-	f := c.newFill()
-	var tmp []float64
-	for _, g := range gaps {
-		for _, poly := range g.Outline {
-			for k, ring := range poly {
-				tmp = ringXY(ring, tmp[:0])
-				f.ringXY(tmp, k == 0)
-			}
-		}
-	}
-	c.paint(f.mask(), color.NRGBA(col), nil)
+// setReachDash sets gg's pen to the dashed line of a new device's reach;
+// the caller clears the dash.
+func (c *canvas) setReachDash() {
+	c.dc.SetColor(colNewDisk)
+	c.dc.SetLineWidth(1.8 * c.u)
+	c.dc.SetDash(7*c.u, 5*c.u)
 }
 
-// diskOutlines strokes every existing device's disk of radius rho px,
-// thin and translucent, inside the area (clip).
-func (s *planScene) diskOutlines(c *canvas, rho float64, unit []float64, clip *image.Alpha) {
-	f := c.newFill()
-	w := 1.0 * c.u
-	s.forSites(func(x, y float64) {
-		px, py := c.ox+x*c.k, c.oy-y*c.k
-		n := len(unit) / 2
-		for i := range n {
-			j := (i + 1) % n
-			f.segment(px+rho*unit[2*i], py+rho*unit[2*i+1], px+rho*unit[2*j], py+rho*unit[2*j+1], w)
-		}
-	})
-	c.paint(f.mask(), color.NRGBA{colDiskEdge.R, colDiskEdge.G, colDiskEdge.B, 0x90}, clip)
+// trianglePath adds to gg's path an upward triangle inscribed in the
+// circle of radius r about (x, y).
+func (c *canvas) trianglePath(x, y, r float64) {
+	c.dc.MoveTo(x, y-r)
+	c.dc.LineTo(x+r*0.87, y+r*0.5)
+	c.dc.LineTo(x-r*0.87, y+r*0.5)
+	c.dc.ClosePath()
 }
 
 // newFillSeparate is newFill with a rasterizer of its own, for fills
@@ -279,10 +227,7 @@ func (c *canvas) newMark(x, y, r float64) {
 
 // spotMark draws a candidate spot not picked: an open triangle.
 func (c *canvas) spotMark(x, y, r float64) {
-	c.dc.MoveTo(x, y-r)
-	c.dc.LineTo(x+r*0.87, y+r*0.5)
-	c.dc.LineTo(x-r*0.87, y+r*0.5)
-	c.dc.ClosePath()
+	c.trianglePath(x, y, r)
 	c.dc.SetColor(color.White)
 	c.dc.SetLineWidth(4 * c.u)
 	c.dc.StrokePreserve()
@@ -295,17 +240,8 @@ func swatchNew(c *canvas, x, y, w, h float64) { c.newMark(x+w/2, y+h/2, 7*c.u) }
 
 func swatchSpot(c *canvas, x, y, w, h float64) { c.spotMark(x+w/2, y+h/2+1*c.u, 7*c.u) }
 
-func swatchDeepestLeft(c *canvas, x, y, w, h float64) {
-	c.dc.SetColor(colGap)
-	c.dc.DrawRectangle(x, y, w, h)
-	c.dc.Fill()
-	c.deepestMark(x+w/2, y+h/2)
-}
-
 func swatchDashed(c *canvas, x, y, w, h float64) {
-	c.dc.SetColor(colNewDisk)
-	c.dc.SetLineWidth(1.8 * c.u)
-	c.dc.SetDash(7*c.u, 5*c.u)
+	c.setReachDash()
 	c.dc.DrawLine(x, y+h/2, x+w, y+h/2)
 	c.dc.Stroke()
 	c.dc.SetDash()
@@ -315,21 +251,12 @@ func swatchDashed(c *canvas, x, y, w, h float64) {
 // each, trying four positions and taking the first that overlaps no
 // earlier label or mark and stays in the frame (else the least overlap).
 func (s *planScene) placeLabels(c *canvas, pts []orb.Point, texts []string, gap, pt float64, bold bool) {
-	type box struct{ x0, y0, x1, y1 float64 }
-	overlap := func(a, b box) float64 {
-		w := math.Min(a.x1, b.x1) - math.Max(a.x0, b.x0)
-		h := math.Min(a.y1, b.y1) - math.Max(a.y0, b.y0)
-		if w <= 0 || h <= 0 {
-			return 0
-		}
-		return w * h
-	}
-	var taken []box
+	var taken []labelBox
 	for _, p := range pts {
 		x, y := c.px(p)
-		taken = append(taken, box{x - gap, y - gap, x + gap, y + gap})
+		taken = append(taken, labelBox{x - gap, y - gap, x + gap, y + gap})
 	}
-	frame := box{c.fx + 2, c.fy + 2, c.fx + c.fw - 2, c.fy + c.fh - 2}
+	frame := c.labelFrame()
 	face := c.face(pt, bold)
 	for i, p := range pts {
 		text := texts[i]
@@ -337,27 +264,13 @@ func (s *planScene) placeLabels(c *canvas, pts []orb.Point, texts []string, gap,
 		h := pt * c.u * 0.78
 		x, y := c.px(p)
 		g := gap + 2*c.u
-		cands := []box{
+		cands := []labelBox{
 			{x + g, y - g - h + 4*c.u, x + g + w, y - g + 4*c.u},
 			{x + g, y + g - 4*c.u, x + g + w, y + g + h - 4*c.u},
 			{x - g - w, y - g - h + 4*c.u, x - g, y - g + 4*c.u},
 			{x - g - w, y + g - 4*c.u, x - g, y + g + h - 4*c.u},
 		}
-		best, bestCost := 0, math.Inf(1)
-		for k, b := range cands {
-			cost := 0.0
-			for _, t := range taken {
-				cost += overlap(b, t)
-			}
-			cost += 4 * (w*h - overlap(b, frame))
-			if cost < bestCost-1e-9 {
-				best, bestCost = k, cost
-			}
-			if cost == 0 {
-				break
-			}
-		}
-		b := cands[best]
+		b := pickLabelBox(cands, taken, frame, w*h)
 		taken = append(taken, b)
 		c.haloText(text, b.x0, b.y1, 0, 0, pt, bold, colInk)
 	}
@@ -457,25 +370,16 @@ func (s *planScene) drawFailureMap(width int) (*canvas, error) {
 	}
 	items = append(items,
 		legendItem{"Device (number: rank of the ten worst failures)", swatchDot},
-		legendItem{"Point fixing the range that survives any single failure", swatchWorst},
-		legendItem{"Site area outline", swatchLine(colInk, 2.2)},
-		legendItem{"Exclusion zone (no coverage needed)", swatchHatch})
-	notes := []string{
+		legendItem{"Point fixing the range that survives any single failure", swatchWorst})
+	key := mapKey{items: items, notes: []string{
 		fmt.Sprintf("Service areas filled by the area left uncovered at %s when their device is out of service (the others working).", metresShort(fr.Range)),
-		"North up: the y axis of the local plane (grid north). " + s.planeNote(),
-	}
-	if n := s.denseNote(width, "single service areas"); n != "" {
-		notes = append(notes, n)
-	}
-	c, err := layoutCanvas(s.extent(), width, items, len(notes))
+		s.northNote(),
+	}}
+	c, d, err := s.layoutMap(s.extent(), width, &key, "single service areas")
 	if err != nil {
 		return nil, err
 	}
-	d := s.density(c)
-	title := "Device failures at " + metresShort(fr.Range)
-	if s.m.Title != "" {
-		title += ": " + s.m.Title
-	}
+	title := s.mapTitle("Device failures at " + metresShort(fr.Range))
 	sub := "Whichever single device fails, the others cover everything from "
 	if math.IsInf(fr.SurviveRange, 0) {
 		sub = "A single device: nothing remains when it fails"
@@ -486,36 +390,16 @@ func (s *planScene) drawFailureMap(width int) (*canvas, error) {
 
 	s.drawArea(c)
 	if cl := s.l.Cells; cl != nil {
-		nv := len(cl.SiteStart) - 1
-		classOf := make([]int, nv)
-		for v := range nv {
-			classOf[v] = -1
+		// class 0: no loss, class k+1: loss class k
+		class := make([]int, len(cl.SiteStart)-1)
+		for v := range class {
 			if df := bySite[int(s.l.Tri.Source[v])]; df != nil {
-				classOf[v] = lossClass(df.AddedUncovered, ub)
+				class[v] = lossClass(df.AddedUncovered, ub) + 1
 			}
 		}
-		for k := -1; k < len(ub); k++ {
-			f := c.newFill()
-			drawn := false
-			for v := range nv {
-				if classOf[v] == k {
-					s.cellFill(f, v)
-					drawn = true
-				}
-			}
-			if !drawn {
-				continue
-			}
-			col := colNoLoss
-			if k >= 0 {
-				col = cols[k]
-			}
-			c.paint(f.mask(), color.NRGBA(col), nil)
-		}
+		s.paintCells(c, class, append([]color.RGBA{colNoLoss}, cols...))
 		if d.spacing >= 4*c.u {
-			f := c.newFill()
-			s.cellEdges(f, 1.0*c.u)
-			c.paint(f.mask(), color.NRGBA{0x30, 0x30, 0x30, 0xC0}, nil)
+			s.strokeCellEdges(c, 1.0*c.u, color.NRGBA{0x30, 0x30, 0x30, 0xC0})
 		}
 	}
 	s.drawZones(c)
@@ -540,19 +424,12 @@ func (s *planScene) drawFailureMap(width int) (*canvas, error) {
 	if fr.SurviveSite >= 0 && !math.IsInf(fr.SurviveRange, 0) {
 		s.placeLabels(c, []orb.Point{fr.SurvivePoint}, []string{"needs " + metresShort(fr.SurviveRange)}, 12*c.u, 17, true)
 	}
-	c.frame()
-	c.scaleBar()
-	c.northArrow()
-	c.legend(items, notes)
+	c.finish(key)
 	return c, nil
 }
 
 func (s *planScene) failureMap(width int) ([]byte, error) {
-	c, err := s.drawFailureMap(width)
-	if err != nil {
-		return nil, err
-	}
-	return c.encode()
+	return encodeMap(s.drawFailureMap(width))
 }
 
 func (s *planScene) drawAssignmentMap(width int) (*canvas, error) {
@@ -577,26 +454,18 @@ func (s *planScene) drawAssignmentMap(width int) (*canvas, error) {
 	if polys > 0 {
 		items = append(items, legendItem{"Building or yard outline (demand polygon)", swatchFill(colBuild, colInk)})
 	}
-	items = append(items,
-		legendItem{"Device (label: items served)", swatchDot},
-		legendItem{"Site area outline", swatchLine(colInk, 2.2)},
-		legendItem{"Exclusion zone (no coverage needed)", swatchHatch})
-	notes := []string{"North up: the y axis of the local plane (grid north). " + s.planeNote()}
-	if n := s.denseNote(width, "single devices and demand items"); n != "" {
-		notes = append(notes, n)
-	} else if len(p.Demand) > 5000 {
-		notes = append(notes, fmt.Sprintf("%d demand items: single items and lines cannot be told apart here; use %s and %s in a GIS.",
+	items = append(items, legendItem{"Device (label: items served)", swatchDot})
+	key := mapKey{items: items, notes: []string{s.northNote()}}
+	const dense = "single devices and demand items"
+	if s.denseNote(width, dense) == "" && len(p.Demand) > 5000 {
+		key.notes = append(key.notes, fmt.Sprintf("%d demand items: single items and lines cannot be told apart here; use %s and %s in a GIS.",
 			len(p.Demand), LayerFile(FileAssignment, s.m.Planar), FileAssignmentCSV))
 	}
-	c, err := layoutCanvas(s.demandExtent(), width, items, len(notes))
+	c, d, err := s.layoutMap(s.demandExtent(), width, &key, dense)
 	if err != nil {
 		return nil, err
 	}
-	d := s.density(c)
-	title := fmt.Sprintf("Demand served (%d items)", len(p.Demand))
-	if s.m.Title != "" {
-		title += ": " + s.m.Title
-	}
+	title := s.mapTitle(fmt.Sprintf("Demand served (%d items)", len(p.Demand)))
 	sub := "Each item is served by its nearest device"
 	if ranged {
 		sub = fmt.Sprintf("%d of %d items within %s of their nearest device; %d beyond", a.Served, len(p.Demand), metresShort(p.Range), a.Unserved)
@@ -610,14 +479,10 @@ func (s *planScene) drawAssignmentMap(width int) (*canvas, error) {
 	if ranged {
 		rho := p.Range * c.k
 		unit := unitCircle(circleSides(rho))
-		f := c.newFill()
-		s.forSites(func(x, y float64) { f.circle(c.ox+x*c.k, c.oy-y*c.k, rho, unit) })
-		c.paint(f.mask(), color.NRGBA(colCovered), areaMask)
+		c.paint(s.diskMask(c, rho, unit), color.NRGBA(colCovered), areaMask)
 	}
 	if s.l.Cells != nil && d.spacing >= 4*c.u {
-		f := c.newFill()
-		s.cellEdges(f, 1.0*c.u)
-		c.paint(f.mask(), color.NRGBA{0x44, 0x44, 0x44, 0xA0}, nil)
+		s.strokeCellEdges(c, 1.0*c.u, color.NRGBA{0x44, 0x44, 0x44, 0xA0})
 	}
 	s.drawZones(c)
 	s.strokeArea(c)
@@ -695,19 +560,12 @@ func (s *planScene) drawAssignmentMap(width int) (*canvas, error) {
 	if len(pts) <= maxMarked && d.spacing >= 25*c.u {
 		s.placeLabels(c, pts, texts, 6*c.u, 14, false)
 	}
-	c.frame()
-	c.scaleBar()
-	c.northArrow()
-	c.legend(items, notes)
+	c.finish(key)
 	return c, nil
 }
 
 func (s *planScene) assignmentMap(width int) ([]byte, error) {
-	c, err := s.drawAssignmentMap(width)
-	if err != nil {
-		return nil, err
-	}
-	return c.encode()
+	return encodeMap(s.drawAssignmentMap(width))
 }
 
 // demandExtent is the map extent of the assignment map: the area and
@@ -741,10 +599,7 @@ func swatchBeyond(c *canvas, x, y, w, h float64) {
 	c.dc.Stroke()
 	t := 7 * c.u
 	cx, cy := x+w/2, y+h/2+1*c.u
-	c.dc.MoveTo(cx, cy-t)
-	c.dc.LineTo(cx+t*0.87, cy+t*0.5)
-	c.dc.LineTo(cx-t*0.87, cy+t*0.5)
-	c.dc.ClosePath()
+	c.trianglePath(cx, cy, t)
 	c.dc.SetColor(color.White)
 	c.dc.SetLineWidth(3 * c.u)
 	c.dc.StrokePreserve()
