@@ -700,11 +700,17 @@ func (c *canvas) worstMark(x, y float64) {
 	c.dc.LineTo(x, y+r)
 	c.dc.LineTo(x-r, y)
 	c.dc.ClosePath()
+	c.haloStroke(4.5*c.u, colWorstMark, 2.2*c.u)
+}
+
+// haloStroke strokes gg's current path twice: white and halo px wide,
+// then in col and w px wide over it.
+func (c *canvas) haloStroke(halo float64, col color.Color, w float64) {
 	c.dc.SetColor(color.White)
-	c.dc.SetLineWidth(4.5 * c.u)
+	c.dc.SetLineWidth(halo)
 	c.dc.StrokePreserve()
-	c.dc.SetColor(colWorstMark)
-	c.dc.SetLineWidth(2.2 * c.u)
+	c.dc.SetColor(col)
+	c.dc.SetLineWidth(w)
 	c.dc.Stroke()
 }
 

@@ -228,12 +228,7 @@ func (c *canvas) newMark(x, y, r float64) {
 // spotMark draws a candidate spot not picked: an open triangle.
 func (c *canvas) spotMark(x, y, r float64) {
 	c.trianglePath(x, y, r)
-	c.dc.SetColor(color.White)
-	c.dc.SetLineWidth(4 * c.u)
-	c.dc.StrokePreserve()
-	c.dc.SetColor(colInk)
-	c.dc.SetLineWidth(1.8 * c.u)
-	c.dc.Stroke()
+	c.haloStroke(4*c.u, colInk, 1.8*c.u)
 }
 
 func swatchNew(c *canvas, x, y, w, h float64) { c.newMark(x+w/2, y+h/2, 7*c.u) }
@@ -579,10 +574,7 @@ func (s *planScene) demandExtent() orb.Bound {
 }
 
 func swatchWithin(c *canvas, x, y, w, h float64) {
-	c.dc.SetColor(colInk)
-	c.dc.SetLineWidth(1.4 * c.u)
-	c.dc.DrawLine(x, y+h/2, x+w, y+h/2)
-	c.dc.Stroke()
+	c.swatchRule(x, y, w, h, colInk, 1.4*c.u)
 	r := 5.5 * c.u
 	c.dc.DrawRectangle(x+w/2-r, y+h/2-r, 2*r, 2*r)
 	c.dc.SetColor(color.White)
@@ -593,10 +585,7 @@ func swatchWithin(c *canvas, x, y, w, h float64) {
 }
 
 func swatchBeyond(c *canvas, x, y, w, h float64) {
-	c.dc.SetColor(colBeyond)
-	c.dc.SetLineWidth(2.2 * c.u)
-	c.dc.DrawLine(x, y+h/2, x+w, y+h/2)
-	c.dc.Stroke()
+	c.swatchRule(x, y, w, h, colBeyond, 2.2*c.u)
 	t := 7 * c.u
 	cx, cy := x+w/2, y+h/2+1*c.u
 	c.trianglePath(cx, cy, t)
@@ -605,6 +594,15 @@ func swatchBeyond(c *canvas, x, y, w, h float64) {
 	c.dc.StrokePreserve()
 	c.dc.SetColor(colBeyond)
 	c.dc.Fill()
+}
+
+// swatchRule draws a horizontal line lw px wide in col across the middle
+// of a legend swatch.
+func (c *canvas) swatchRule(x, y, w, h float64, col color.Color, lw float64) {
+	c.dc.SetColor(col)
+	c.dc.SetLineWidth(lw)
+	c.dc.DrawLine(x, y+h/2, x+w, y+h/2)
+	c.dc.Stroke()
 }
 
 // plural returns "1 gap", "2 gaps".
