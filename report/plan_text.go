@@ -61,22 +61,7 @@ func (s *planScene) planText() []byte {
 		s.textAssignment(&b)
 	}
 	s.textPlanNotes(&b)
-	section(&b, "WARNINGS")
-	if w := s.warnings(); len(w) == 0 {
-		b.WriteString("  none\n")
-	} else {
-		for _, line := range w {
-			b.WriteString("  - " + line + "\n")
-		}
-	}
-	section(&b, "FILES IN THIS FOLDER")
-	for _, f := range s.files {
-		b.WriteString("  " + f + strings.Repeat(" ", max(1, 28-len(f))) + planFileNote(f) + "\n")
-	}
-	if !s.m.LifeSafety {
-		section(&b, "CAUTIONS")
-		b.WriteString(Cautions() + "\n")
-	}
+	s.textClosing(&b, planFileNote)
 	return b.Bytes()
 }
 
@@ -448,9 +433,7 @@ func (s *planScene) textPlanNotes(b *bytes.Buffer) {
 			"Points are local plane x/y in metres, rounded to 1 mm; the *-xy.geojson",
 			"layers hold the same x/y metres (not RFC 7946 longitude/latitude).")
 	}
-	for _, l := range lines {
-		b.WriteString("  " + l + "\n")
-	}
+	noteLines(b, lines)
 }
 
 // planFileNotes describes the planning outputs in the FILES section.

@@ -42,7 +42,15 @@ func (s *scene) text() []byte {
 		s.textHoles(&b)
 	}
 	s.textAccuracy(&b)
-	section(&b, "WARNINGS")
+	s.textClosing(&b, analysisFileNote)
+	return b.Bytes()
+}
+
+// textClosing writes the sections that close every report: the warnings,
+// the output files with note(f) beside each, and the cautions (unless
+// they were put first for life-safety devices).
+func (s *scene) textClosing(b *bytes.Buffer, note func(f string) string) {
+	section(b, "WARNINGS")
 	if w := s.warnings(); len(w) == 0 {
 		b.WriteString("  none\n")
 	} else {
@@ -50,15 +58,27 @@ func (s *scene) text() []byte {
 			b.WriteString("  - " + line + "\n")
 		}
 	}
-	section(&b, "FILES IN THIS FOLDER")
+	section(b, "FILES IN THIS FOLDER")
 	for _, f := range s.files {
-		b.WriteString("  " + f + strings.Repeat(" ", max(1, 28-len(f))) + fileNote[strings.Replace(f, "-xy.geojson", ".geojson", 1)] + "\n")
+		b.WriteString("  " + f + strings.Repeat(" ", max(1, 28-len(f))) + note(f) + "\n")
 	}
 	if !s.m.LifeSafety {
-		section(&b, "CAUTIONS")
+		section(b, "CAUTIONS")
 		b.WriteString(Cautions() + "\n")
 	}
-	return b.Bytes()
+}
+
+// analysisFileNote is the FILES note of an analysis output file (the
+// *-xy.geojson layers share the note of their GeoJSON twin).
+func analysisFileNote(f string) string {
+	return fileNote[strings.Replace(f, "-xy.geojson", ".geojson", 1)]
+}
+
+// noteLines writes each line of a notes section, indented.
+func noteLines(b *bytes.Buffer, lines []string) {
+	for _, l := range lines {
+		b.WriteString("  " + l + "\n")
+	}
 }
 
 func section(b *bytes.Buffer, title string) {
@@ -314,9 +334,7 @@ func (s *scene) textAccuracy(b *bytes.Buffer) {
 		"Maps are drawn in the local plane with north up: the plane's y axis is",
 		"grid north (for geographic input it differs from true north by the",
 		"meridian convergence, a fraction of a degree over a site).")
-	for _, l := range lines {
-		b.WriteString("  " + l + "\n")
-	}
+	noteLines(b, lines)
 }
 
 // fileNote describes each output file in the FILES section.
