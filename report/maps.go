@@ -168,8 +168,9 @@ func (s *scene) labelSites(c *canvas, rho float64) {
 	}
 }
 
-// mapTitle returns a map title: base, then the report title if any.
-func (s *scene) mapTitle(base string) string {
+// titled returns a map or report title: base, then the report title if
+// any.
+func (s *scene) titled(base string) string {
 	if s.m.Title != "" {
 		return base + ": " + s.m.Title
 	}
@@ -539,7 +540,7 @@ func (s *scene) drawServiceAreaMap(width int) (*canvas, error) {
 		return nil, err
 	}
 	n := len(s.l.Sites)
-	title := s.mapTitle("Service areas")
+	title := s.titled("Service areas")
 	sub := fmt.Sprintf("%d sites, site area %s; each device serves the part of the site nearest to it", n, haText(s.l.AreaM2))
 	c.title(title, sub)
 
@@ -613,7 +614,7 @@ func (s *scene) drawCoverageMap(width int) (*canvas, error) {
 	if err != nil {
 		return nil, err
 	}
-	title := s.mapTitle("Coverage at " + metresShort(a.Range))
+	title := s.titled("Coverage at " + metresShort(a.Range))
 	sub := fmt.Sprintf("%.2f %% of %s covered, %d gap(s), %.0f m2 uncovered; full cover needs %s",
 		100*a.CoveredFraction, haText(s.l.AreaM2), len(a.Gaps), a.UncoveredArea, metresShort(a.FullCover.Range))
 	c.title(title, sub)

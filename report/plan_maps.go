@@ -136,7 +136,7 @@ func (s *planScene) drawBeforeAfter(width int, ba beforeAfter) (*canvas, error) 
 	if err != nil {
 		return nil, err
 	}
-	c.title(s.mapTitle(ba.title), ba.sub)
+	c.title(s.titled(ba.title), ba.sub)
 
 	areaMask := s.drawArea(c)
 	s.fillGaps(c, ba.before, colClosed)
@@ -374,7 +374,7 @@ func (s *planScene) drawFailureMap(width int) (*canvas, error) {
 	if err != nil {
 		return nil, err
 	}
-	title := s.mapTitle("Device failures at " + metresShort(fr.Range))
+	title := s.titled("Device failures at " + metresShort(fr.Range))
 	sub := "Whichever single device fails, the others cover everything from "
 	if math.IsInf(fr.SurviveRange, 0) {
 		sub = "A single device: nothing remains when it fails"
@@ -460,7 +460,7 @@ func (s *planScene) drawAssignmentMap(width int) (*canvas, error) {
 	if err != nil {
 		return nil, err
 	}
-	title := s.mapTitle(fmt.Sprintf("Demand served (%d items)", len(p.Demand)))
+	title := s.titled(fmt.Sprintf("Demand served (%d items)", len(p.Demand)))
 	sub := "Each item is served by its nearest device"
 	if ranged {
 		sub = fmt.Sprintf("%d of %d items within %s of their nearest device; %d beyond", a.Served, len(p.Demand), metresShort(p.Range), a.Unserved)

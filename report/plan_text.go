@@ -11,7 +11,6 @@ import (
 	"fmt"
 	"math"
 	"strings"
-	"unicode/utf8"
 
 	"github.com/sitecover/sitecover/coverage"
 )
@@ -32,16 +31,7 @@ var moveTitle = map[Move]string{
 
 func (s *planScene) planText() []byte {
 	var b bytes.Buffer
-	title := moveTitle[s.p.Move]
-	if s.m.Title != "" {
-		title += ": " + s.m.Title
-	}
-	b.WriteString(title + "\n" + strings.Repeat("=", utf8.RuneCountInString(title)) + "\n")
-	v := s.m.Version
-	if v == "" {
-		v = "(version not set)"
-	}
-	fmt.Fprintf(&b, "Written by sitecover %s, command %q.\n", v, orDash(s.m.Command))
+	s.textTitle(&b, moveTitle[s.p.Move])
 	b.WriteString("Sites (existing devices) are numbered #0, #1, ... in input order (as in summary.json).\n")
 	if s.m.LifeSafety {
 		section(&b, "CAUTIONS (LIFE-SAFETY DEVICES)")

@@ -90,20 +90,20 @@ func (s *scene) textHeader(b *bytes.Buffer) {
 	if s.a == nil {
 		title = "Service-area report"
 	}
-	if s.m.Title != "" {
-		title += ": " + s.m.Title
-	}
+	s.textTitle(b, title)
+	b.WriteString("Sites are numbered #0, #1, ... in input order (as in summary.json).\n")
+}
+
+// textTitle writes the report's title (base and the report title),
+// underlined, and the line naming the program version and command.
+func (s *scene) textTitle(b *bytes.Buffer, base string) {
+	title := s.titled(base)
 	b.WriteString(title + "\n" + strings.Repeat("=", utf8.RuneCountInString(title)) + "\n")
 	v := s.m.Version
 	if v == "" {
 		v = "(version not set)"
 	}
-	cmd := s.m.Command
-	if cmd == "" {
-		cmd = "-"
-	}
-	fmt.Fprintf(b, "Written by sitecover %s, command %q.\n", v, cmd)
-	b.WriteString("Sites are numbered #0, #1, ... in input order (as in summary.json).\n")
+	fmt.Fprintf(b, "Written by sitecover %s, command %q.\n", v, orDash(s.m.Command))
 }
 
 func orDash(v string) string {
