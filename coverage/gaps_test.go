@@ -429,6 +429,39 @@ func TestGapsTwoSitesAndFence(t *testing.T) {
 	}
 }
 
+// A disk that just touches a boundary edge at an interior point of the
+// edge separates the uncovered parts on either side: the closed disk covers
+// the touching point. Fence sites every 35 m along y = 40 in a 300 × 120 m
+// rectangle with a notch [120, 180] × [70, 120]; at r = 30 the disk of the
+// site (150, 40) touches the notch floor y = 70 at (150, 70). Found by
+// TestGapsLive (seed 609911960), where GEOS splits the gap there.
+func TestGapsTangentEdge(t *testing.T) {
+	var fence []orb.Point
+	for x := 10.0; x < 300; x += 35 {
+		fence = append(fence, orb.Point{x, 40})
+	}
+	ring := []orb.Point{{0, 0}, {300, 0}, {300, 120}, {180, 120}, {180, 70}, {120, 70}, {120, 120}, {0, 120}, {0, 0}}
+	l := cvLayout(t, fence, cvRegion(t, [][]orb.Point{ring}))
+	for _, r := range []float64{30, 30 * (1 - 1e-13), 30 * (1 + 1e-13)} {
+		gs := gapsCheck(t, "notch", l, r)
+		// The bottom strip, the upper part left of x = 150, and the part
+		// right of it (under the notch and up the right side).
+		if len(gs) != 3 {
+			t.Errorf("r=%v: %d gaps, want 3", r, len(gs))
+			continue
+		}
+		for _, g := range gs {
+			if g.Bound.Max[1] > 70 && g.Bound.Min[0] < 150 && g.Bound.Max[0] > 150 {
+				t.Errorf("r=%v: gap %d spans x = 150 above the strip: bound %v", r, g.ID, g.Bound)
+			}
+		}
+	}
+	// Just below the touching range the neck is open: 2 gaps.
+	if gs := gapsCheck(t, "notch", l, 30*(1-1e-9)); len(gs) != 2 {
+		t.Errorf("r=30(1−1e-9): %d gaps, want 2", len(gs))
+	}
+}
+
 // r = 0: each connected part of the area is one gap; r >= the full-cover
 // range: no gap.
 func TestGapsExtremeRanges(t *testing.T) {

@@ -36,7 +36,10 @@
 // point the exit follows the entry in the edge's turning sense. Vertices
 // within 1e-12 relative of the circle are snapped onto it, and their
 // crossing parameters are the exact roots t = 0 (or 1) and
-// t = −2 (a·d)/(d·d). A portion through the site itself (a site on its
+// t = −2 (a·d)/(d·d); likewise an edge whose line passes within 1e-12
+// relative of the circle touches it (a tangent dip: entry and exit at the
+// foot of the perpendicular), so a closed disk that just touches a
+// boundary edge separates the uncovered parts on either side. A portion through the site itself (a site on its
 // piece's boundary) has no defined angle and never links crossings.
 //
 // Areas and first moments come from the fan about c: a segment p→q adds
@@ -289,7 +292,10 @@ func (t *gapTracer) findCrossings() {
 				}
 				t.addCross(int32(ri), i, clamp01(s), true)
 			default: // both outside: the edge may dip into the disk
-				if dd*r2-cr*cr >= 0 && tm > 0 && tm < 1 {
+				// An edge whose line passes within gapSnapRel (relative) of
+				// the circle is tangent, like a vertex that close: disc is
+				// clamped to 0 above and the dip's entry and exit coincide.
+				if dd*r2-cr*cr >= -2*gapSnapRel*dd*r2 && tm > 0 && tm < 1 {
 					s1, s2 := clamp01(tm-h), clamp01(tm+h)
 					if s2 < s1 {
 						s1, s2 = s2, s1
