@@ -163,10 +163,17 @@ func (tm *TransverseMercator) ScaleFactor() float64 { return tm.k0 }
 // FalseOrigin returns the false easting and false northing in metres.
 func (tm *TransverseMercator) FalseOrigin() (easting, northing float64) { return tm.fe, tm.fn }
 
-// sincos2 returns sin and cos of 2ξ + 2iη.
+// sincos2 returns sin and cos of 2ξ + 2iη. sinh and cosh of 2η come from
+// one expm1: with m = e^{2η} − 1, sinh = m(m + 2)/(2(m + 1)) (no
+// cancellation for small η) and cosh = ((m + 1) + 1/(m + 1))/2.
 func sincos2(xi, eta float64) (s, c complex128) {
 	s2, c2 := math.Sincos(2 * xi)
-	sh, ch := math.Sinh(2*eta), math.Cosh(2*eta)
+	m := math.Expm1(2 * eta)
+	e := m + 1
+	sh, ch := m*(m+2)/(2*e), (e+1/e)/2
+	if math.IsInf(m, 1) { // |η| beyond any point of the plane: keep the limits
+		sh, ch = math.Sinh(2*eta), math.Cosh(2*eta)
+	}
 	return complex(s2*ch, c2*sh), complex(c2*ch, -s2*sh)
 }
 
@@ -183,11 +190,33 @@ func clenshaw(c *[krugerOrder + 1]float64, xi, eta float64) (sum, deriv complex1
 	return b1 * s, 1 + d1*co - d2
 }
 
+// clenshawSum is the sum of clenshaw alone (the inverse needs no
+// derivative).
+func clenshawSum(c *[krugerOrder + 1]float64, xi, eta float64) complex128 {
+	s, co := sincos2(xi, eta)
+	two := 2 * co
+	var b1, b2 complex128
+	for j := krugerOrder; j >= 1; j-- {
+		b1, b2 = complex(c[j], 0)+two*b1-b2, b1
+	}
+	return b1 * s
+}
+
+// hypot1 returns √(1 + x²) (math.Hypot(1, x) without its scaling: x² only
+// overflows beyond 1e154, where the result is |x| to the last bit).
+func hypot1(x float64) float64 {
+	if ax := math.Abs(x); ax < 1e150 {
+		return math.Sqrt(1 + x*x)
+	} else {
+		return ax
+	}
+}
+
 // taupf returns τ′, the tangent of the conformal latitude, for τ = tan φ.
 func taupf(tau, e float64) float64 {
-	tau1 := math.Hypot(1, tau)
+	tau1 := hypot1(tau)
 	sig := math.Sinh(e * math.Atanh(e*tau/tau1))
-	return math.Hypot(1, sig)*tau - sig*tau1
+	return hypot1(sig)*tau - sig*tau1
 }
 
 // tauf inverts taupf by Newton's method (Karney 2011, eq. 19–21).
@@ -197,7 +226,7 @@ func tauf(taup, e, e2 float64) float64 {
 	stol := 0.1 * math.Sqrt(0x1p-52) * math.Max(1, math.Abs(taup))
 	for i := 0; i < 8; i++ {
 		taupa := taupf(tau, e)
-		dtau := (taup - taupa) * (1 + e2m*tau*tau) / (e2m * math.Hypot(1, tau) * math.Hypot(1, taupa))
+		dtau := (taup - taupa) * (1 + e2m*tau*tau) / (e2m * hypot1(tau) * hypot1(taupa))
 		tau += dtau
 		if !(math.Abs(dtau) >= stol) { // converged (or NaN)
 			break
@@ -263,7 +292,7 @@ func (tm *TransverseMercator) Inverse(x, y float64) (lon, lat float64) {
 	}
 	xi := (y - tm.fn + tm.y0) / tm.ka
 	eta := (x - tm.fe) / tm.ka
-	sum, _ := clenshaw(&tm.beta, xi, eta)
+	sum := clenshawSum(&tm.beta, xi, eta)
 	xip := xi - real(sum)
 	etap := eta - imag(sum)
 	s, c := math.Sincos(xip)

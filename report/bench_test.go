@@ -12,6 +12,7 @@ import (
 
 	"github.com/paulmach/orb"
 	"github.com/sitecover/sitecover/coverage"
+	"github.com/sitecover/sitecover/planar"
 )
 
 var (
@@ -74,6 +75,42 @@ func BenchmarkCharts(b *testing.B) {
 		}
 		if _, err := s.holeChart(DefaultMapWidth); err != nil {
 			b.Fatal(err)
+		}
+	}
+}
+
+// BenchmarkFiles produces each text and GeoJSON output for 100 000 sites
+// in memory (no file system), for geographic output (lon/lat through the
+// inverse projection) and planar output.
+func BenchmarkFiles(b *testing.B) {
+	an := bigScene(b)
+	tm := planar.NewTransverseMercator(planar.WGS84, -99, 44, 1, 0, 0)
+	for _, mode := range []struct {
+		name string
+		m    Meta
+	}{
+		{"geographic", Meta{ToLonLat: tm.Inverse}},
+		{"planar", Meta{Planar: true}},
+	} {
+		s := newScene(an.Layout, an, mode.m)
+		for _, f := range []struct {
+			name string
+			make func() ([]byte, error)
+		}{
+			{"report.txt", func() ([]byte, error) { return s.text(), nil }},
+			{"summary.json", func() ([]byte, error) { return Summary(an, mode.m).MarshalIndent() }},
+			{"sites", s.sitesLayer},
+			{"service-areas", s.serviceAreasLayer},
+			{"gaps", s.gapsLayer},
+			{"hole-closings", s.holesLayer},
+		} {
+			b.Run(mode.name+"/"+f.name, func(b *testing.B) {
+				for range b.N {
+					if _, err := f.make(); err != nil {
+						b.Fatal(err)
+					}
+				}
+			})
 		}
 	}
 }

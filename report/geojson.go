@@ -40,8 +40,12 @@ type layer struct {
 	n int
 }
 
-func (s *scene) newLayer() *layer {
-	l := &layer{b: make([]byte, 0, 1<<16)}
+func (s *scene) newLayer() *layer { return s.newLayerSized(1 << 16) }
+
+// newLayerSized starts a layer with room for about size bytes (a large
+// layer built by doubling would copy itself many times over).
+func (s *scene) newLayerSized(size int) *layer {
+	l := &layer{b: make([]byte, 0, size)}
 	l.b = append(l.b, `{"type":"FeatureCollection",`...)
 	if !s.geographic() {
 		l.b = append(l.b, `"coordinates":"local plane x/y in metres (not WGS84; not RFC 7946 longitude/latitude)",`...)
@@ -118,11 +122,48 @@ func appendPos(b []byte, p orb.Point) []byte {
 // appendNum appends a finite number in its shortest round-trip form
 // without exponent; non-finite values (never produced by the analysis)
 // become null so the file stays valid JSON.
+//
+// Output coordinates are already rounded to 7 (or 3) decimals. Such a
+// value v below 1e8 in magnitude is the double nearest to n/10⁷ for the
+// integer n = round(v·10⁷), and n/10⁷ written out with trailing zeros
+// dropped is its shortest round-trip form: any other decimal that rounds
+// to v lies within half an ulp (< 10⁻⁸) of it, so on the 10⁻⁷ grid it is
+// n/10⁷ itself. Those values are written from n with integer arithmetic;
+// all others go through strconv.
 func appendNum(b []byte, v float64) []byte {
 	if math.IsNaN(v) || math.IsInf(v, 0) {
 		return append(b, "null"...)
 	}
+	if math.Abs(v) < 1e8 && v != 0 {
+		if n := math.Round(v * 1e7); n/1e7 == v {
+			return appendDecimal7(b, int64(n))
+		}
+	}
 	return strconv.AppendFloat(b, v, 'f', -1, 64)
+}
+
+// appendDecimal7 appends n/10⁷ in plain decimal without trailing zeros.
+func appendDecimal7(b []byte, n int64) []byte {
+	if n < 0 {
+		b = append(b, '-')
+		n = -n
+	}
+	b = strconv.AppendInt(b, n/1e7, 10)
+	frac := n % 1e7
+	if frac == 0 {
+		return b
+	}
+	var d [8]byte
+	d[0] = '.'
+	for i := 7; i >= 1; i-- {
+		d[i] = byte('0' + frac%10)
+		frac /= 10
+	}
+	k := 8
+	for d[k-1] == '0' {
+		k--
+	}
+	return append(b, d[:k]...)
 }
 
 // appendStr appends s as a JSON string (invalid UTF-8 replaced by U+FFFD).
@@ -185,8 +226,9 @@ func (s *scene) sitesLayer() ([]byte, error) {
 }
 
 func (s *scene) serviceAreasLayer() ([]byte, error) {
-	l := s.newLayer()
-	for _, c := range s.cells {
+	// About 26 bytes a position and 200 of properties a feature.
+	l := s.newLayerSized(13*len(s.l.Cells.XY) + 200*len(s.cells) + 1<<16)
+	for i, c := range s.cells {
 		mp := s.multiPolygon(s.l.Cells.Polygons(c.Vertex))
 		if len(mp) == 0 {
 			continue
@@ -197,7 +239,7 @@ func (s *scene) serviceAreasLayer() ([]byte, error) {
 			b = appendNum(kv(b, "area_m2", false), c.Area)
 			b = appendNum(kv(b, "share", false), c.Share)
 			b = appendNum(kv(b, "farthest_m", false), c.Farthest)
-			b = appendPos(kv(b, "farthest_point", false), orb.Point(s.point(c.FarthestPoint)))
+			b = appendPos(kv(b, "farthest_point", false), orb.Point(s.farthestOut(i)))
 			return appendInts(kv(b, "merged", false), c.Merged)
 		})
 	}
@@ -206,7 +248,7 @@ func (s *scene) serviceAreasLayer() ([]byte, error) {
 
 func (s *scene) gapsLayer() ([]byte, error) {
 	l := s.newLayer()
-	for _, g := range s.a.Gaps {
+	for gi, g := range s.a.Gaps {
 		mp := s.multiPolygon(g.Outline)
 		if len(mp) == 0 {
 			continue
@@ -215,7 +257,7 @@ func (s *scene) gapsLayer() ([]byte, error) {
 			b = strconv.AppendInt(kv(b, "id", true), int64(g.ID), 10)
 			b = appendNum(kv(b, "area_m2", false), g.Area)
 			b = appendNum(kv(b, "closing_range_m", false), g.ClosingRange)
-			b = appendPos(kv(b, "deepest_point", false), orb.Point(s.point(g.Deepest)))
+			b = appendPos(kv(b, "deepest_point", false), orb.Point(s.deepestOut(gi)))
 			b = strconv.AppendBool(kv(b, "touches_boundary", false), g.TouchesBoundary)
 			b = appendInts(kv(b, "sites", false), g.Sites)
 			return appendNum(kv(b, "range_m", false), s.a.Range)
@@ -227,8 +269,8 @@ func (s *scene) gapsLayer() ([]byte, error) {
 func (s *scene) holesLayer() ([]byte, error) {
 	l := s.newLayer()
 	if p := s.a.Persistence; p != nil {
-		for _, h := range p.Holes {
-			l.feature(orb.Point(s.point(h.DeathPoint)), func(b []byte) []byte {
+		for i, h := range p.Holes {
+			l.feature(orb.Point(s.closingOut(i)), func(b []byte) []byte {
 				b = appendNum(kv(b, "birth_m", true), h.Birth)
 				b = appendNum(kv(b, "death_m", false), h.Death)
 				b = appendNum(kv(b, "lifetime_m", false), h.Death-h.Birth)
@@ -265,8 +307,13 @@ func (s *scene) multiPolygon(in orb.MultiPolygon) orb.MultiPolygon {
 // ring converts one ring; nil when it degenerates after rounding.
 func (s *scene) ring(in orb.Ring, exterior bool) orb.Ring {
 	r := make(orb.Ring, 0, len(in)+1)
-	for _, p := range in {
-		q := orb.Point(s.point(p))
+	for i, p := range in {
+		q := orb.Point{}
+		if i > 0 && i == len(in)-1 && p == in[0] { // the closing position
+			q = r[0]
+		} else {
+			q = orb.Point(s.point(p))
+		}
 		if len(r) > 0 && r[len(r)-1] == q {
 			continue
 		}

@@ -231,12 +231,8 @@ func WritePlan(dir string, p *Plan, m Meta, opt Options) ([]string, error) {
 	if opt.Maps {
 		steps = append(steps, step{files[len(files)-1], func() ([]byte, error) { return drawMap(width) }})
 	}
-	for _, st := range steps {
-		if err := w.write(st.name, st.make); err != nil {
-			return w.done, err
-		}
-	}
-	return w.done, nil
+	err = w.writeAll(steps)
+	return w.done, err
 }
 
 // PlanSummary builds the summary.json document of a planning move.

@@ -161,7 +161,7 @@ func WriteAnalysis(dir string, a *coverage.Analysis, m Meta, opt Options) (writt
 	s.files = Files(false, m, opt)
 	steps := []step{
 		{FileReport, func() ([]byte, error) { return s.text(), nil }},
-		{FileSummary, func() ([]byte, error) { return Summary(a, m).MarshalIndent() }},
+		{FileSummary, func() ([]byte, error) { return s.summary().MarshalIndent() }},
 		{LayerFile(FileSites, m.Planar), s.sitesLayer},
 		{LayerFile(FileServiceAreas, m.Planar), s.serviceAreasLayer},
 		{LayerFile(FileGaps, m.Planar), s.gapsLayer},
@@ -178,12 +178,8 @@ func WriteAnalysis(dir string, a *coverage.Analysis, m Meta, opt Options) (writt
 			step{FileChartCurve, func() ([]byte, error) { return s.curveChart(width) }},
 			step{FileChartHoles, func() ([]byte, error) { return s.holeChart(width) }})
 	}
-	for _, st := range steps {
-		if err := w.write(st.name, st.make); err != nil {
-			return w.done, err
-		}
-	}
-	return w.done, nil
+	err = w.writeAll(steps)
+	return w.done, err
 }
 
 // WriteCells writes the service-area report of l (the files listed by
@@ -202,7 +198,7 @@ func WriteCells(dir string, l *coverage.Layout, m Meta, opt Options) ([]string, 
 	s.files = Files(true, m, opt)
 	steps := []step{
 		{FileReport, func() ([]byte, error) { return s.text(), nil }},
-		{FileSummary, func() ([]byte, error) { return CellsSummary(l, m).MarshalIndent() }},
+		{FileSummary, func() ([]byte, error) { return s.cellsSummary().MarshalIndent() }},
 		{LayerFile(FileSites, m.Planar), s.sitesLayer},
 		{LayerFile(FileServiceAreas, m.Planar), s.serviceAreasLayer},
 	}
@@ -210,12 +206,8 @@ func WriteCells(dir string, l *coverage.Layout, m Meta, opt Options) ([]string, 
 		width := mapWidth(opt)
 		steps = append(steps, step{FileMapServiceAreas, func() ([]byte, error) { return s.serviceAreaMap(width) }})
 	}
-	for _, st := range steps {
-		if err := w.write(st.name, st.make); err != nil {
-			return w.done, err
-		}
-	}
-	return w.done, nil
+	err = w.writeAll(steps)
+	return w.done, err
 }
 
 // step is one output file and the function producing its bytes.

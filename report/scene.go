@@ -13,6 +13,8 @@ package report
 import (
 	"fmt"
 	"math"
+	"runtime"
+	"sync"
 
 	"github.com/paulmach/orb"
 	"github.com/sitecover/sitecover/coverage"
@@ -25,6 +27,14 @@ type scene struct {
 	m     Meta
 	cells []coverage.ServiceArea
 	files []string // output files, for the FILES section of report.txt
+
+	// The output points that several files print (report.txt,
+	// summary.json and a GeoJSON layer each), converted once on first use:
+	// the farthest point of each service area, the deepest point of each
+	// gap and the closing point of each hole, in the orders of s.cells,
+	// s.a.Gaps and s.a.Persistence.Holes.
+	keyOnce                   sync.Once
+	farOut, deepOut, closeOut []Point
 }
 
 func newScene(l *coverage.Layout, a *coverage.Analysis, m Meta) *scene {
@@ -46,6 +56,55 @@ func (s *scene) point(p orb.Point) Point {
 	}
 	return Point{round(p[0], 3), round(p[1], 3)}
 }
+
+// convertKeyPoints fills farOut, deepOut and closeOut (in parallel: with
+// geographic output each is an inverse projection).
+func (s *scene) convertKeyPoints() {
+	s.keyOnce.Do(func() {
+		var far, deep, closing []orb.Point
+		for _, c := range s.cells {
+			far = append(far, c.FarthestPoint)
+		}
+		if s.a != nil {
+			for _, g := range s.a.Gaps {
+				deep = append(deep, g.Deepest)
+			}
+			if p := s.a.Persistence; p != nil {
+				for _, h := range p.Holes {
+					closing = append(closing, h.DeathPoint)
+				}
+			}
+		}
+		s.farOut, s.deepOut, s.closeOut = s.points(far), s.points(deep), s.points(closing)
+	})
+}
+
+// points converts many points, on up to GOMAXPROCS goroutines.
+func (s *scene) points(in []orb.Point) []Point {
+	out := make([]Point, len(in))
+	const chunk = 4096
+	var wg sync.WaitGroup
+	sem := make(chan struct{}, runtime.GOMAXPROCS(0))
+	for lo := 0; lo < len(in); lo += chunk {
+		hi := min(lo+chunk, len(in))
+		sem <- struct{}{}
+		wg.Go(func() {
+			for i := lo; i < hi; i++ {
+				out[i] = s.point(in[i])
+			}
+			<-sem
+		})
+	}
+	wg.Wait()
+	return out
+}
+
+// farthestOut, deepestOut and closingOut return the converted farthest
+// point of service area i (index into s.cells), deepest point of gap i
+// and closing point of hole i.
+func (s *scene) farthestOut(i int) Point { s.convertKeyPoints(); return s.farOut[i] }
+func (s *scene) deepestOut(i int) Point  { s.convertKeyPoints(); return s.deepOut[i] }
+func (s *scene) closingOut(i int) Point  { s.convertKeyPoints(); return s.closeOut[i] }
 
 // round rounds v to d decimals (half away from zero). Values too large to
 // scale are returned unchanged.

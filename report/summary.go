@@ -315,12 +315,12 @@ func (s *scene) summary() *SummaryDoc {
 		d.FullCoverWorstPoint = d.FullCoverWorstPoints[0]
 	}
 	d.FullCoverNearestSites = append(make([]int, 0, len(a.FullCover.WorstSites)), a.FullCover.WorstSites...)
-	for _, g := range a.Gaps {
+	for gi, g := range a.Gaps {
 		d.Gaps = append(d.Gaps, SummaryGap{
 			ID:              g.ID,
 			AreaM2:          g.Area,
 			ClosingRangeM:   g.ClosingRange,
-			DeepestPoint:    s.point(g.Deepest),
+			DeepestPoint:    s.deepestOut(gi),
 			TouchesBoundary: g.TouchesBoundary,
 			Sites:           append(make([]int, 0, len(g.Sites)), g.Sites...),
 		})
@@ -328,8 +328,8 @@ func (s *scene) summary() *SummaryDoc {
 	if p := a.Persistence; p != nil {
 		d.LinkRangeM = p.LinkRange
 		d.ConnectRangeM = p.ConnectRange
-		for _, h := range p.Holes {
-			d.Holes = append(d.Holes, SummaryHole{BirthM: h.Birth, DeathM: h.Death, DeathPoint: s.point(h.DeathPoint)})
+		for i, h := range p.Holes {
+			d.Holes = append(d.Holes, SummaryHole{BirthM: h.Birth, DeathM: h.Death, DeathPoint: s.closingOut(i)})
 		}
 	}
 	return d
@@ -354,14 +354,14 @@ func (s *scene) cellsSummary() *CellsDoc {
 
 func (s *scene) summaryCells() []SummaryCell {
 	cells := make([]SummaryCell, 0, len(s.cells))
-	for _, c := range s.cells {
+	for i, c := range s.cells {
 		cells = append(cells, SummaryCell{
 			Site:          c.Site,
 			Name:          s.name(c.Site),
 			AreaM2:        c.Area,
 			Share:         c.Share,
 			FarthestM:     c.Farthest,
-			FarthestPoint: s.point(c.FarthestPoint),
+			FarthestPoint: s.farthestOut(i),
 			Merged:        append(make([]int, 0, len(c.Merged)), c.Merged...),
 		})
 	}

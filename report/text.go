@@ -12,6 +12,7 @@ import (
 	"bytes"
 	"fmt"
 	"math"
+	"strconv"
 	"strings"
 	"unicode/utf8"
 
@@ -225,12 +226,12 @@ func (s *scene) textGaps(b *bytes.Buffer) {
 	hx, hy := s.pointHeads()
 	t.head("ID", "Area m2", "Closing m", hx, hy, "Kind", "Nearby sites")
 	t.left(5, 6)
-	for _, g := range a.Gaps {
+	for gi, g := range a.Gaps {
 		kind := "enclosed"
 		if g.TouchesBoundary {
 			kind = "edge"
 		}
-		px, py := s.pointCols(g.Deepest)
+		px, py := s.outCols(s.deepestOut(gi))
 		names := make([]string, 0, len(g.Sites))
 		for i, site := range g.Sites {
 			if i == maxListed {
@@ -256,8 +257,8 @@ func (s *scene) textCells(b *bytes.Buffer) {
 	hx, hy := s.pointHeads()
 	t.head("Site", "Area m2", "Share %", "Farthest m", hx, hy, "Name", "Merged duplicates")
 	t.left(6, 7)
-	for _, c := range s.cells {
-		px, py := s.pointCols(c.FarthestPoint)
+	for ci, c := range s.cells {
+		px, py := s.outCols(s.farthestOut(ci))
 		var merged []string
 		for _, i := range c.Merged {
 			merged = append(merged, fmt.Sprintf("#%d", i))
@@ -291,7 +292,7 @@ func (s *scene) textHoles(b *bytes.Buffer) {
 	t.head("No", "Appears m", "Closes m", "Lifetime m", hx, hy, "At "+metresShort(r), "Ringed at appearance by")
 	t.left(6, 7)
 	for i, h := range p.Holes {
-		px, py := s.pointCols(h.DeathPoint)
+		px, py := s.outCols(s.closingOut(i))
 		state := "open"
 		switch {
 		case r < h.Birth:
@@ -375,12 +376,14 @@ func (s *scene) pointHeads() (string, string) {
 }
 
 // pointCols returns a point as two table cells (lat, lon or x, y).
-func (s *scene) pointCols(p orb.Point) (string, string) {
-	q := s.point(p)
+func (s *scene) pointCols(p orb.Point) (string, string) { return s.outCols(s.point(p)) }
+
+// outCols returns an output point as two table cells (lat, lon or x, y).
+func (s *scene) outCols(q Point) (string, string) {
 	if s.geographic() {
-		return fmt.Sprintf("%.7f", q[1]), fmt.Sprintf("%.7f", q[0])
+		return strconv.FormatFloat(q[1], 'f', 7, 64), strconv.FormatFloat(q[0], 'f', 7, 64)
 	}
-	return fmt.Sprintf("%.3f", q[0]), fmt.Sprintf("%.3f", q[1])
+	return strconv.FormatFloat(q[0], 'f', 3, 64), strconv.FormatFloat(q[1], 'f', 3, 64)
 }
 
 // pointText returns a point as text.

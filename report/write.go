@@ -15,6 +15,8 @@ import (
 	"fmt"
 	"os"
 	"path/filepath"
+	"runtime"
+	"sync"
 )
 
 // writer writes the files of one report into dir.
@@ -75,21 +77,54 @@ func unwrapPath(err error) error {
 	return err
 }
 
-// write produces the bytes of name and stores them atomically.
-func (w *writer) write(name string, produce func() ([]byte, error)) error {
-	if w.progress != nil {
-		w.progress(name)
+// writeAll produces and stores the files of steps. Up to GOMAXPROCS steps
+// produce their bytes at a time (a step only reads the scene); each
+// finished file is then written and synced on its own goroutine, so the
+// disk wait overlaps the next step's work. Every file is written
+// atomically, so a failed step leaves no part of its file; the others still
+// complete. w.done lists the files written, in step order; the error is
+// that of the first failed step in step order.
+func (w *writer) writeAll(steps []step) error {
+	errs := make([]error, len(steps))
+	workers := min(runtime.GOMAXPROCS(0), len(steps))
+	var next int
+	var mu sync.Mutex // guards next and the progress callback
+	var producing, storing sync.WaitGroup
+	for range workers {
+		producing.Go(func() {
+			for {
+				mu.Lock()
+				i := next
+				next++
+				if i < len(steps) && w.progress != nil {
+					w.progress(steps[i].name)
+				}
+				mu.Unlock()
+				if i >= len(steps) {
+					return
+				}
+				path := filepath.Join(w.dir, steps[i].name)
+				b, err := steps[i].make()
+				if err != nil {
+					errs[i] = fmt.Errorf("%s: %v", path, err)
+					continue
+				}
+				storing.Go(func() { errs[i] = writeAtomic(path, b) })
+			}
+		})
 	}
-	b, err := produce()
-	if err != nil {
-		return fmt.Errorf("%s: %v", filepath.Join(w.dir, name), err)
+	producing.Wait()
+	storing.Wait()
+	var first error
+	for i, st := range steps {
+		switch {
+		case errs[i] == nil:
+			w.done = append(w.done, filepath.Join(w.dir, st.name))
+		case first == nil:
+			first = errs[i]
+		}
 	}
-	path := filepath.Join(w.dir, name)
-	if err := writeAtomic(path, b); err != nil {
-		return err
-	}
-	w.done = append(w.done, path)
-	return nil
+	return first
 }
 
 // writeAtomic writes b to path through a temporary file in the same
