@@ -205,11 +205,10 @@ func clenshawSum(c *[krugerOrder + 1]float64, xi, eta float64) complex128 {
 // hypot1 returns √(1 + x²) (math.Hypot(1, x) without its scaling: x² only
 // overflows beyond 1e154, where the result is |x| to the last bit).
 func hypot1(x float64) float64 {
-	if ax := math.Abs(x); ax < 1e150 {
-		return math.Sqrt(1 + x*x)
-	} else {
+	if ax := math.Abs(x); ax >= 1e150 {
 		return ax
 	}
+	return math.Sqrt(1 + x*x)
 }
 
 // taupf returns τ′, the tangent of the conformal latitude, for τ = tan φ.
