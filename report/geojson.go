@@ -308,9 +308,9 @@ func (s *scene) multiPolygon(in orb.MultiPolygon) orb.MultiPolygon {
 func (s *scene) ring(in orb.Ring, exterior bool) orb.Ring {
 	r := make(orb.Ring, 0, len(in)+1)
 	for i, p := range in {
-		q := orb.Point{}
-		if i > 0 && i == len(in)-1 && p == in[0] { // the closing position
-			q = r[0]
+		var q orb.Point
+		if i > 0 && i == len(in)-1 && p == in[0] {
+			q = r[0] // the closing position, already converted
 		} else {
 			q = orb.Point(s.point(p))
 		}

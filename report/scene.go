@@ -61,38 +61,28 @@ func (s *scene) point(p orb.Point) Point {
 // geographic output each is an inverse projection).
 func (s *scene) convertKeyPoints() {
 	s.keyOnce.Do(func() {
-		var far, deep, closing []orb.Point
-		for _, c := range s.cells {
-			far = append(far, c.FarthestPoint)
+		s.farOut = s.points(len(s.cells), func(i int) orb.Point { return s.cells[i].FarthestPoint })
+		if s.a == nil {
+			return
 		}
-		if s.a != nil {
-			for _, g := range s.a.Gaps {
-				deep = append(deep, g.Deepest)
-			}
-			if p := s.a.Persistence; p != nil {
-				for _, h := range p.Holes {
-					closing = append(closing, h.DeathPoint)
-				}
-			}
+		s.deepOut = s.points(len(s.a.Gaps), func(i int) orb.Point { return s.a.Gaps[i].Deepest })
+		if p := s.a.Persistence; p != nil {
+			s.closeOut = s.points(len(p.Holes), func(i int) orb.Point { return p.Holes[i].DeathPoint })
 		}
-		s.farOut, s.deepOut, s.closeOut = s.points(far), s.points(deep), s.points(closing)
 	})
 }
 
-// points converts many points, on up to GOMAXPROCS goroutines.
-func (s *scene) points(in []orb.Point) []Point {
-	out := make([]Point, len(in))
-	const chunk = 4096
+// points converts at(0), ..., at(n−1), one contiguous share per
+// GOMAXPROCS goroutine.
+func (s *scene) points(n int, at func(int) orb.Point) []Point {
+	out := make([]Point, n)
+	w := max(1, min(runtime.GOMAXPROCS(0), n/1024))
 	var wg sync.WaitGroup
-	sem := make(chan struct{}, runtime.GOMAXPROCS(0))
-	for lo := 0; lo < len(in); lo += chunk {
-		hi := min(lo+chunk, len(in))
-		sem <- struct{}{}
+	for k := range w {
 		wg.Go(func() {
-			for i := lo; i < hi; i++ {
-				out[i] = s.point(in[i])
+			for i := k * n / w; i < (k+1)*n/w; i++ {
+				out[i] = s.point(at(i))
 			}
-			<-sem
 		})
 	}
 	wg.Wait()
