@@ -14,6 +14,7 @@ import (
 	"fmt"
 	"math"
 	"runtime"
+	"strconv"
 	"sync"
 
 	"github.com/paulmach/orb"
@@ -124,6 +125,17 @@ func (s *scene) label(i int) string {
 		return fmt.Sprintf("#%d %s", i, n)
 	}
 	return fmt.Sprintf("#%d", i)
+}
+
+// appendLabel appends label(i) to b.
+func (s *scene) appendLabel(b []byte, i int) []byte {
+	b = append(b, '#')
+	b = strconv.AppendInt(b, int64(i), 10)
+	if n := s.name(i); n != "" {
+		b = append(b, ' ')
+		b = append(b, n...)
+	}
+	return b
 }
 
 // duplicates counts input sites merged into an earlier identical one.

@@ -231,16 +231,24 @@ func (s *scene) textGaps(b *bytes.Buffer) {
 		if g.TouchesBoundary {
 			kind = "edge"
 		}
-		px, py := s.outCols(s.deepestOut(gi))
-		names := make([]string, 0, len(g.Sites))
+		t.int("", g.ID)
+		t.num(g.Area, 1)
+		t.num(g.ClosingRange, 2)
+		s.pointCells(t, s.deepestOut(gi))
+		t.str(kind)
 		for i, site := range g.Sites {
+			if i > 0 {
+				t.cells = append(t.cells, ", "...)
+			}
 			if i == maxListed {
-				names = append(names, fmt.Sprintf("+%d more", len(g.Sites)-maxListed))
+				t.cells = append(t.cells, '+')
+				t.cells = strconv.AppendInt(t.cells, int64(len(g.Sites)-maxListed), 10)
+				t.cells = append(t.cells, " more"...)
 				break
 			}
-			names = append(names, s.label(site))
+			t.cells = s.appendLabel(t.cells, site)
 		}
-		t.row(fmt.Sprint(g.ID), fmt.Sprintf("%.1f", g.Area), fmt.Sprintf("%.2f", g.ClosingRange), px, py, kind, strings.Join(names, ", "))
+		t.cell()
 	}
 	t.write(b)
 }
@@ -258,13 +266,20 @@ func (s *scene) textCells(b *bytes.Buffer) {
 	t.head("Site", "Area m2", "Share %", "Farthest m", hx, hy, "Name", "Merged duplicates")
 	t.left(6, 7)
 	for ci, c := range s.cells {
-		px, py := s.outCols(s.farthestOut(ci))
-		var merged []string
-		for _, i := range c.Merged {
-			merged = append(merged, fmt.Sprintf("#%d", i))
+		t.int("#", c.Site)
+		t.num(c.Area, 1)
+		t.num(100*c.Share, 3)
+		t.num(c.Farthest, 2)
+		s.pointCells(t, s.farthestOut(ci))
+		t.str(orDash(s.name(c.Site)))
+		for k, i := range c.Merged {
+			if k > 0 {
+				t.cells = append(t.cells, ' ')
+			}
+			t.cells = append(t.cells, '#')
+			t.cells = strconv.AppendInt(t.cells, int64(i), 10)
 		}
-		t.row(fmt.Sprintf("#%d", c.Site), fmt.Sprintf("%.1f", c.Area), fmt.Sprintf("%.3f", 100*c.Share),
-			fmt.Sprintf("%.2f", c.Farthest), px, py, orDash(s.name(c.Site)), strings.Join(merged, " "))
+		t.cell()
 	}
 	t.write(b)
 }
@@ -292,7 +307,6 @@ func (s *scene) textHoles(b *bytes.Buffer) {
 	t.head("No", "Appears m", "Closes m", "Lifetime m", hx, hy, "At "+metresShort(r), "Ringed at appearance by")
 	t.left(6, 7)
 	for i, h := range p.Holes {
-		px, py := s.outCols(s.closingOut(i))
 		state := "open"
 		switch {
 		case r < h.Birth:
@@ -300,8 +314,16 @@ func (s *scene) textHoles(b *bytes.Buffer) {
 		case r >= h.Death:
 			state = "closed"
 		}
-		t.row(fmt.Sprint(i+1), fmt.Sprintf("%.2f", h.Birth), fmt.Sprintf("%.2f", h.Death), fmt.Sprintf("%.2f", h.Death-h.Birth),
-			px, py, state, s.label(h.BirthSites[0])+", "+s.label(h.BirthSites[1]))
+		t.int("", i+1)
+		t.num(h.Birth, 2)
+		t.num(h.Death, 2)
+		t.num(h.Death-h.Birth, 2)
+		s.pointCells(t, s.closingOut(i))
+		t.str(state)
+		t.cells = s.appendLabel(t.cells, h.BirthSites[0])
+		t.cells = append(t.cells, ", "...)
+		t.cells = s.appendLabel(t.cells, h.BirthSites[1])
+		t.cell()
 	}
 	t.write(b)
 }
@@ -386,6 +408,18 @@ func (s *scene) outCols(q Point) (string, string) {
 	return strconv.FormatFloat(q[0], 'f', 3, 64), strconv.FormatFloat(q[1], 'f', 3, 64)
 }
 
+// pointCells adds an output point to t as two cells (lat, lon or x, y),
+// as outCols formats it.
+func (s *scene) pointCells(t *table, q Point) {
+	if s.geographic() {
+		t.num(q[1], 7)
+		t.num(q[0], 7)
+		return
+	}
+	t.num(q[0], 3)
+	t.num(q[1], 3)
+}
+
 // pointText returns a point as text.
 func (s *scene) pointText(p orb.Point) string {
 	q := s.point(p)
@@ -418,68 +452,5 @@ func (l *kvList) write(b *bytes.Buffer) {
 	}
 	for i, k := range l.k {
 		b.WriteString("  " + k + strings.Repeat(" ", w-utf8.RuneCountInString(k)) + "  " + l.v[i] + "\n")
-	}
-}
-
-// table is a fixed-width table: numeric columns right-aligned, the
-// columns named by left() left-aligned. The last column is not padded.
-type table struct {
-	heads  []string
-	rows   [][]string
-	isLeft map[int]bool
-}
-
-func (t *table) head(h ...string) { t.heads = h }
-
-func (t *table) left(cols ...int) {
-	t.isLeft = map[int]bool{}
-	for _, c := range cols {
-		t.isLeft[c] = true
-	}
-}
-
-func (t *table) row(c ...string) { t.rows = append(t.rows, c) }
-
-func (t *table) write(b *bytes.Buffer) {
-	w := make([]int, len(t.heads))
-	for i, h := range t.heads {
-		w[i] = utf8.RuneCountInString(h)
-	}
-	for _, r := range t.rows {
-		for i, c := range r {
-			w[i] = max(w[i], utf8.RuneCountInString(c))
-		}
-	}
-	line := func(cells []string) {
-		var sb strings.Builder
-		sb.WriteString("  ")
-		for i, c := range cells {
-			pad := strings.Repeat(" ", w[i]-utf8.RuneCountInString(c))
-			last := i == len(cells)-1
-			switch {
-			case t.isLeft[i] && last:
-				sb.WriteString(c)
-			case t.isLeft[i]:
-				sb.WriteString(c + pad)
-			default:
-				sb.WriteString(pad + c)
-			}
-			if !last {
-				sb.WriteString("  ")
-			}
-		}
-		b.WriteString(strings.TrimRight(sb.String(), " ") + "\n")
-	}
-	line(t.heads)
-	rule := make([]string, len(t.heads))
-	for i := range rule {
-		rule[i] = strings.Repeat("-", w[i])
-	}
-	if n := len(rule) - 1; n >= 0 && t.isLeft[n] {
-		rule[n] = strings.Repeat("-", utf8.RuneCountInString(t.heads[n]))
-	}
-	line(rule)
-	for _, r := range t.rows {
-		line(r)
 	}
 }

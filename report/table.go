@@ -1,0 +1,163 @@
+// Fixed-width text tables for report.txt.
+//
+// A table holds its body cells as one byte slice with the end offset of
+// each cell (row-major), so a table of 10⁵ rows costs two allocations
+// that grow, not one string per cell. Column widths are counted in runes
+// (UTF-8 code points), which is the display width for the names sitecover
+// prints (Latin, Greek, Cyrillic); wide East Asian characters would need
+// two columns each and are not measured specially.
+
+package report
+
+import (
+	"bytes"
+	"strconv"
+	"unicode/utf8"
+)
+
+// table is a fixed-width table: numeric columns right-aligned, the
+// columns named by left() left-aligned. The last column is not padded and
+// trailing spaces are trimmed from every line.
+//
+// Cells are added row by row, either whole rows with row() or one cell at
+// a time with str, num, int and cell; every row has len(heads) cells
+// (missing trailing cells of a row() call are empty).
+type table struct {
+	heads  []string
+	isLeft []bool
+	// cells is the text of every body cell, concatenated in row-major
+	// order; ends[k] is the end offset of cell k in cells.
+	cells []byte
+	ends  []int
+}
+
+// head sets the column headings; it must be called before any cell.
+func (t *table) head(h ...string) {
+	t.heads = h
+	t.isLeft = make([]bool, len(h))
+}
+
+// left marks columns as left-aligned.
+func (t *table) left(cols ...int) {
+	for _, c := range cols {
+		t.isLeft[c] = true
+	}
+}
+
+// row adds a whole row.
+func (t *table) row(c ...string) {
+	for _, s := range c {
+		t.str(s)
+	}
+	for len(t.ends)%len(t.heads) != 0 {
+		t.cell()
+	}
+}
+
+// cell ends the cell whose text was appended to t.cells since the last
+// cell ended.
+func (t *table) cell() { t.ends = append(t.ends, len(t.cells)) }
+
+// str adds a text cell.
+func (t *table) str(s string) {
+	t.cells = append(t.cells, s...)
+	t.cell()
+}
+
+// num adds v with prec decimals, as fmt's %.{prec}f would print it.
+func (t *table) num(v float64, prec int) {
+	t.cells = strconv.AppendFloat(t.cells, v, 'f', prec, 64)
+	t.cell()
+}
+
+// int adds prefix followed by v in decimal ("#12", "+3", "7").
+func (t *table) int(prefix string, v int) {
+	t.cells = append(t.cells, prefix...)
+	t.cells = strconv.AppendInt(t.cells, int64(v), 10)
+	t.cell()
+}
+
+// body returns body cell k.
+func (t *table) body(k int) []byte {
+	start := 0
+	if k > 0 {
+		start = t.ends[k-1]
+	}
+	return t.cells[start:t.ends[k]]
+}
+
+// write writes the headings, a rule of dashes under them and the rows.
+func (t *table) write(b *bytes.Buffer) {
+	n := len(t.heads)
+	if n == 0 {
+		return
+	}
+	w := make([]int, n)
+	for i, h := range t.heads {
+		w[i] = utf8.RuneCountInString(h)
+	}
+	for k := range t.ends {
+		w[k%n] = max(w[k%n], utf8.RuneCount(t.body(k)))
+	}
+	lineLen := 3 // indent and newline
+	for _, wi := range w {
+		lineLen += wi + 2
+	}
+	b.Grow(lineLen * (2 + len(t.ends)/n))
+
+	row := make([][]byte, n)
+	for i, h := range t.heads {
+		row[i] = []byte(h)
+	}
+	t.line(b, w, row)
+	for i := range row {
+		k := w[i]
+		if i == n-1 && t.isLeft[i] {
+			k = utf8.RuneCountInString(t.heads[i])
+		}
+		row[i] = bytes.Repeat([]byte{'-'}, k)
+	}
+	t.line(b, w, row)
+	for k := 0; k+n <= len(t.ends); k += n {
+		for i := range row {
+			row[i] = t.body(k + i)
+		}
+		t.line(b, w, row)
+	}
+}
+
+// line writes one line of cells padded to the widths w.
+func (t *table) line(b *bytes.Buffer, w []int, cells [][]byte) {
+	start := b.Len()
+	b.WriteString("  ")
+	for i, c := range cells {
+		pad := w[i] - utf8.RuneCount(c)
+		last := i == len(cells)-1
+		switch {
+		case t.isLeft[i] && last:
+			b.Write(c)
+		case t.isLeft[i]:
+			b.Write(c)
+			spaces(b, pad)
+		default:
+			spaces(b, pad)
+			b.Write(c)
+		}
+		if !last {
+			b.WriteString("  ")
+		}
+	}
+	trimmed := bytes.TrimRight(b.Bytes()[start:], " ")
+	b.Truncate(start + len(trimmed))
+	b.WriteByte('\n')
+}
+
+// spaces writes n spaces (none when n <= 0).
+func spaces(b *bytes.Buffer, n int) {
+	const blank = "                                                                "
+	for n > 0 {
+		k := min(n, len(blank))
+		b.WriteString(blank[:k])
+		n -= k
+	}
+}
