@@ -11,7 +11,6 @@
 package report
 
 import (
-	"fmt"
 	"math"
 	"runtime"
 	"strconv"
@@ -120,14 +119,9 @@ func (s *scene) name(i int) string {
 }
 
 // label returns "#i name" or "#i" for input site i (0-based).
-func (s *scene) label(i int) string {
-	if n := s.name(i); n != "" {
-		return fmt.Sprintf("#%d %s", i, n)
-	}
-	return fmt.Sprintf("#%d", i)
-}
+func (s *scene) label(i int) string { return string(s.appendLabel(nil, i)) }
 
-// appendLabel appends label(i) to b.
+// appendLabel appends the label of input site i to b.
 func (s *scene) appendLabel(b []byte, i int) []byte {
 	b = append(b, '#')
 	b = strconv.AppendInt(b, int64(i), 10)
