@@ -13,7 +13,7 @@
 // result and error messages stay the reference. FuzzScanGeoJSON checks
 // that every accepted input decodes to the same gjDoc with encoding/json.
 //
-// The scanner makes one allocation per feature (its properties) plus the
+// The scanner allocates a feature's properties and geometry and the
 // slices of features and geometries; raw members alias the input bytes.
 
 package main
@@ -59,13 +59,13 @@ func (p *gjScan) doc(d *gjDoc) bool {
 		case "features":
 			return p.features(&d.Features)
 		case "id":
-			return p.raw((*[]byte)(&d.ID))
+			return p.raw(&d.ID)
 		case "properties":
 			return p.props(&d.Properties)
 		case "geometry":
 			return p.geometryPtr(&d.Geometry, 2)
 		case "coordinates":
-			return p.raw((*[]byte)(&d.Coordinates))
+			return p.raw(&d.Coordinates)
 		default: // "geometries"
 			return p.geometries(&d.Geometries, 2)
 		}
@@ -80,7 +80,7 @@ func (p *gjScan) features(fs *[]gjFeature) bool {
 			case "type":
 				return p.typeName(&f.Type)
 			case "id":
-				return p.raw((*[]byte)(&f.ID))
+				return p.raw(&f.ID)
 			case "properties":
 				return p.props(&f.Properties)
 			default: // "geometry"
@@ -116,41 +116,39 @@ func objectArray[T any](p *gjScan, dst *[]T, capHint int, read func(*T) bool) bo
 
 // props reads a properties object (or null).
 func (p *gjScan) props(pp **gjProps) bool {
-	if p.null() {
-		*pp = nil
-		return true
-	}
-	if !p.peek('{') {
-		return false
-	}
-	pr := new(gjProps)
-	*pp = pr
-	return p.object(propKeys, 1, func(k int) bool {
-		switch propKeys[k] {
-		case "name":
-			return p.raw((*[]byte)(&pr.Name))
-		case "id":
-			return p.raw((*[]byte)(&pr.ID))
-		case "exclude":
-			return p.raw((*[]byte)(&pr.Exclude))
-		default: // "weight"
-			return p.raw((*[]byte)(&pr.Weight))
-		}
+	return objectPtr(p, pp, func(pr *gjProps) bool {
+		return p.object(propKeys, 1, func(k int) bool {
+			switch propKeys[k] {
+			case "name":
+				return p.raw(&pr.Name)
+			case "id":
+				return p.raw(&pr.ID)
+			case "exclude":
+				return p.raw(&pr.Exclude)
+			default: // "weight"
+				return p.raw(&pr.Weight)
+			}
+		})
 	})
 }
 
 // geometryPtr reads a geometry object (or null) at nesting depth.
 func (p *gjScan) geometryPtr(gp **gjGeometry, depth int) bool {
+	return objectPtr(p, gp, func(g *gjGeometry) bool { return p.geometry(g, depth) })
+}
+
+// objectPtr reads an object (or null) into a new *T, by read, which finds
+// the '{' at p.i. A null gives a nil pointer, as with encoding/json.
+func objectPtr[T any](p *gjScan, dst **T, read func(*T) bool) bool {
 	if p.null() {
-		*gp = nil
+		*dst = nil
 		return true
 	}
 	if !p.peek('{') {
 		return false
 	}
-	g := new(gjGeometry)
-	*gp = g
-	return p.geometry(g, depth)
+	*dst = new(T)
+	return read(*dst)
 }
 
 // geometry reads the members of a geometry object into g.
@@ -163,7 +161,7 @@ func (p *gjScan) geometry(g *gjGeometry, depth int) bool {
 		case "type":
 			return p.typeName(&g.Type)
 		case "coordinates":
-			return p.raw((*[]byte)(&g.Coordinates))
+			return p.raw(&g.Coordinates)
 		default: // "geometries"
 			return p.geometries(&g.Geometries, depth+2)
 		}
@@ -191,7 +189,7 @@ func (p *gjScan) object(keys []string, depth int, member func(k int) bool) bool 
 				return false
 			}
 		} else {
-			key, ok := p.key()
+			key, ok := p.plain()
 			if !ok {
 				return false
 			}
@@ -266,18 +264,13 @@ func (p *gjScan) opened(closing byte) bool {
 	return false
 }
 
-// matchKey returns the index of key in keys, -1 for a member to skip, and
-// ok == false where encoding/json's case-insensitive matching could apply
-// (an ASCII case variant of a known name, or any non-ASCII key).
+// matchKey returns the index of the ASCII name key in keys, -1 for a
+// member to skip, and ok == false for a case variant of a known name,
+// which encoding/json's case-insensitive matching would take.
 func matchKey(key []byte, keys []string) (int, bool) {
 	for k, name := range keys {
 		if string(key) == name {
 			return k, true
-		}
-	}
-	for _, c := range key {
-		if c >= 0x80 {
-			return 0, false
 		}
 	}
 	for _, name := range keys {
@@ -307,8 +300,9 @@ func asciiEqualFold(a []byte, b string) bool {
 	return true
 }
 
-// key reads a member name without escapes.
-func (p *gjScan) key() ([]byte, bool) {
+// plain reads a string of printable ASCII without escapes, the only
+// kind whose decoded value is its bytes, for member names and "type".
+func (p *gjScan) plain() ([]byte, bool) {
 	if !p.peek('"') {
 		return nil, false
 	}
@@ -318,38 +312,26 @@ func (p *gjScan) key() ([]byte, bool) {
 		case c == '"':
 			p.i = j + 1
 			return p.b[start:j], true
-		case c == '\\' || c < 0x20:
+		case c == '\\' || c < 0x20 || c >= 0x80:
 			return nil, false
 		}
 	}
 	return nil, false
 }
 
-// typeName reads a "type" value: a plain ASCII string, or null (which
-// leaves *s unchanged, as encoding/json does).
+// typeName reads a "type" value: a plain string, or null (which leaves
+// *s unchanged, as encoding/json does).
 func (p *gjScan) typeName(s *string) bool {
 	if p.null() {
 		return true
 	}
-	if !p.peek('"') {
-		return false
-	}
-	start := p.i + 1
-	for j := start; j < len(p.b); j++ {
-		switch c := p.b[j]; {
-		case c == '"':
-			p.i = j + 1
-			*s = string(p.b[start:j])
-			return true
-		case c == '\\' || c < 0x20 || c >= 0x80:
-			return false
-		}
-	}
-	return false
+	t, ok := p.plain()
+	*s = string(t)
+	return ok
 }
 
 // raw validates the value at p.i and stores its bytes in *m.
-func (p *gjScan) raw(m *[]byte) bool {
+func (p *gjScan) raw(m *json.RawMessage) bool {
 	start := p.i
 	if !p.skip(1) {
 		return false
