@@ -1861,7 +1861,7 @@ func (w *clipWork) ringHolds(r, h *clipRing) bool {
 		ax, ay := w.ox[r.p1-1], w.oy[r.p1-1]
 		for j := r.p0; j < r.p1; j++ {
 			bx, by := w.ox[j], w.oy[j]
-			o, cr := regionEdgeRay(ax, ay, bx, by, x, y)
+			o, cr := EdgeRay(ax, ay, bx, by, x, y)
 			if o {
 				on = true
 				break

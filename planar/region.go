@@ -168,19 +168,11 @@ func (r *Region) Bound() orb.Bound {
 func (r *Region) Contains(x, y float64) bool {
 	inside := false
 	for k := 0; k < r.NumRings(); k++ {
-		ring := r.Ring(k)
-		n := len(ring) / 2
-		ax, ay := ring[2*n-2], ring[2*n-1]
-		for i := 0; i < n; i++ {
-			bx, by := ring[2*i], ring[2*i+1]
-			on, cross := regionEdgeRay(ax, ay, bx, by, x, y)
-			if on {
-				return true
-			}
-			if cross {
-				inside = !inside
-			}
-			ax, ay = bx, by
+		switch PointInRing(r.Ring(k), x, y) {
+		case 0:
+			return true
+		case 1:
+			inside = !inside
 		}
 	}
 	return inside
@@ -287,38 +279,6 @@ func regionOddRings(hits []int32) []int32 {
 		i = j
 	}
 	return odd
-}
-
-// regionEdgeRay classifies point p against edge ab for the crossing-number
-// rule with a ray from p towards +x: on reports p on the closed segment ab;
-// cross reports that the ray crosses ab under the half-open rule (the edge
-// counts when exactly one endpoint lies strictly above p). Exact.
-func regionEdgeRay(ax, ay, bx, by, px, py float64) (on, cross bool) {
-	if (ay > py) == (by > py) {
-		// Both above or both at/below: only an on-edge test is needed.
-		if ay == py || by == py {
-			if regionOnSegment(ax, ay, bx, by, px, py) {
-				return true, false
-			}
-		}
-		return false, false
-	}
-	o := Orient2D(ax, ay, bx, by, px, py)
-	if o == 0 {
-		return regionOnSegment(ax, ay, bx, by, px, py), false
-	}
-	if by > ay {
-		return false, o > 0
-	}
-	return false, o < 0
-}
-
-// regionOnSegment reports whether p lies on the closed segment ab, exactly.
-func regionOnSegment(ax, ay, bx, by, px, py float64) bool {
-	if px < math.Min(ax, bx) || px > math.Max(ax, bx) || py < math.Min(ay, by) || py > math.Max(ay, by) {
-		return false
-	}
-	return Orient2D(ax, ay, bx, by, px, py) == 0
 }
 
 // regionRingIn is a cleaned input ring awaiting assembly into a Region.
@@ -712,7 +672,7 @@ func (g *regionGrid) locate(px, py float64, skip func(e int32) bool, hit func(e 
 				continue
 			}
 			b := g.next[e]
-			o, cr := regionEdgeRay(g.xy[2*e], g.xy[2*e+1], g.xy[2*b], g.xy[2*b+1], px, py)
+			o, cr := EdgeRay(g.xy[2*e], g.xy[2*e+1], g.xy[2*b], g.xy[2*b+1], px, py)
 			if o {
 				return false, true
 			}
@@ -792,7 +752,7 @@ func (g *regionGrid) segmentHits(px, py, qx, qy float64) bool {
 			for _, ent := range g.entries[g.cellStart[cell]:g.cellStart[cell+1]] {
 				e := ent >> 1
 				n := g.next[e]
-				if regionSegmentsMeet(px, py, qx, qy, g.xy[2*e], g.xy[2*e+1], g.xy[2*n], g.xy[2*n+1]) {
+				if SegmentsMeet(px, py, qx, qy, g.xy[2*e], g.xy[2*e+1], g.xy[2*n], g.xy[2*n+1]) {
 					return true
 				}
 			}
@@ -819,26 +779,6 @@ func (g *regionGrid) cellEdges(x0, y0, x1, y1 float64, f func(e int32)) {
 			}
 		}
 	}
-}
-
-// regionSegmentsMeet reports whether segments ab and cd share a point,
-// exactly (Orient2D).
-func regionSegmentsMeet(ax, ay, bx, by, cx, cy, dx, dy float64) bool {
-	if math.Max(ax, bx) < math.Min(cx, dx) || math.Max(cx, dx) < math.Min(ax, bx) ||
-		math.Max(ay, by) < math.Min(cy, dy) || math.Max(cy, dy) < math.Min(ay, by) {
-		return false
-	}
-	o1 := Orient2D(ax, ay, bx, by, cx, cy)
-	o2 := Orient2D(ax, ay, bx, by, dx, dy)
-	o3 := Orient2D(cx, cy, dx, dy, ax, ay)
-	o4 := Orient2D(cx, cy, dx, dy, bx, by)
-	if (o1 > 0 && o2 < 0 || o1 < 0 && o2 > 0) && (o3 > 0 && o4 < 0 || o3 < 0 && o4 > 0) {
-		return true
-	}
-	return o1 == 0 && regionOnSegment(ax, ay, bx, by, cx, cy) ||
-		o2 == 0 && regionOnSegment(ax, ay, bx, by, dx, dy) ||
-		o3 == 0 && regionOnSegment(cx, cy, dx, dy, ax, ay) ||
-		o4 == 0 && regionOnSegment(cx, cy, dx, dy, bx, by)
 }
 
 // edgePair tests edges a < b for contact: 0 none, 1 proper crossing, 2
@@ -877,10 +817,10 @@ func (g *regionGrid) edgePair(a, b int32) int {
 	if (o1 > 0 && o2 < 0 || o1 < 0 && o2 > 0) && (o3 > 0 && o4 < 0 || o3 < 0 && o4 > 0) {
 		return 1
 	}
-	if o1 == 0 && regionOnSegment(ax, ay, bx, by, cx, cy) ||
-		o2 == 0 && regionOnSegment(ax, ay, bx, by, dx, dy) ||
-		o3 == 0 && regionOnSegment(cx, cy, dx, dy, ax, ay) ||
-		o4 == 0 && regionOnSegment(cx, cy, dx, dy, bx, by) {
+	if o1 == 0 && OnSegment(ax, ay, bx, by, cx, cy) ||
+		o2 == 0 && OnSegment(ax, ay, bx, by, dx, dy) ||
+		o3 == 0 && OnSegment(cx, cy, dx, dy, ax, ay) ||
+		o4 == 0 && OnSegment(cx, cy, dx, dy, bx, by) {
 		return 2
 	}
 	return 0
