@@ -68,7 +68,7 @@ func FuzzParseRange(f *testing.F) {
 	}
 	f.Fuzz(func(t *testing.T, s string) {
 		m, err := parseRange(s)
-		if err == nil && !(m > 0 && !math.IsInf(m, 0)) {
+		if err == nil && !(m >= minRangeMetres && m <= maxRangeMetres) {
 			t.Fatalf("parseRange(%q) = %g", s, m)
 		}
 	})

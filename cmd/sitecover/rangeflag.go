@@ -10,6 +10,7 @@
 package main
 
 import (
+	"errors"
 	"fmt"
 	"math"
 	"strconv"
@@ -24,48 +25,99 @@ var rangeUnits = map[string]float64{
 	"mi": 1609.344,
 }
 
+// Sane bounds for a device range, inclusive. A range below a millimetre or
+// beyond a thousand kilometres is a unit mistake, not a device: the lower
+// bound keeps every printed range (to 0.01 m) meaningful, the upper one keeps
+// disks inside one local plane (see planar.MaxLocalScaleError).
+const (
+	minRangeMetres = 1e-3
+	maxRangeMetres = 1e6
+)
+
 // parseRange parses a --range value such as "150m", "0.15 km", "500ft",
-// "0.1mi" or "150" (metres) and returns metres. The value must be a finite
-// number greater than zero.
+// "0.1mi" or "150" (metres) and returns metres. The number is plain decimal
+// (digits, an optional fraction, an optional exponent; no digit separators,
+// hex, Inf or NaN) and the result must lie in [minRangeMetres,
+// maxRangeMetres].
 func parseRange(s string) (float64, error) {
+	return parseLength(s, "--range")
+}
+
+// parseLength parses a length with an optional unit, as parseRange does;
+// what names the value in messages (a flag, or a file's line and column).
+func parseLength(s, what string) (float64, error) {
 	t := strings.TrimSpace(s)
 	if t == "" {
-		return 0, fmt.Errorf("--range is empty: give a length such as 150m, 0.2km, 500ft or 0.1mi")
+		return 0, fmt.Errorf("%s is empty: give a length such as 150m, 0.2km, 500ft or 0.1mi", what)
 	}
-	i := len(t)
-	for i > 0 {
-		c := t[i-1]
-		if (c >= 'a' && c <= 'z') || (c >= 'A' && c <= 'Z') {
-			i--
-			continue
+	n := decimalPrefix(t)
+	num, unit := t[:n], strings.TrimSpace(t[n:])
+	if num == "" || num == "+" || num == "-" {
+		if low := strings.ToLower(strings.TrimLeft(t, "+-")); strings.HasPrefix(low, "inf") || strings.HasPrefix(low, "nan") {
+			return 0, fmt.Errorf("%s %q: not a positive number (give a length such as 150m)", what, s)
 		}
-		break
-	}
-	num, unit := strings.TrimSpace(t[:i]), strings.ToLower(t[i:])
-	// "Inf", "NaN" and "1e3" end in letters too: a unit is only split off
-	// when what precedes it is a number.
-	if num == "" || strings.HasSuffix(num, "e") || strings.HasSuffix(num, "E") {
-		num, unit = t, ""
+		return 0, fmt.Errorf("%s %q: not a number with a unit (e.g. 150m, 0.2km, 500ft, 0.1mi)", what, s)
 	}
 	scale := 1.0
 	if unit != "" {
-		f, ok := rangeUnits[unit]
+		f, ok := rangeUnits[strings.ToLower(unit)]
 		if !ok {
-			return 0, fmt.Errorf("--range %q: unknown unit %q (use m, km, ft or mi)", s, t[i:])
+			if strings.IndexFunc(unit, func(r rune) bool { return !(r >= 'a' && r <= 'z' || r >= 'A' && r <= 'Z') }) >= 0 {
+				return 0, fmt.Errorf("%s %q: not a number with a unit (e.g. 150m, 0.2km, 500ft, 0.1mi)", what, s)
+			}
+			return 0, fmt.Errorf("%s %q: unknown unit %q (use m, km, ft or mi)", what, s, unit)
 		}
 		scale = f
 	}
 	v, err := strconv.ParseFloat(num, 64)
-	if ne, ok := err.(*strconv.NumError); ok && ne.Err == strconv.ErrRange {
-		return 0, fmt.Errorf("--range %q: must be greater than 0 and finite", s)
-	}
-	if err != nil || strings.ContainsAny(strings.ToLower(num), "infax") {
-		// ParseFloat also accepts "Inf", "NaN" and hex floats; none is a range.
-		return 0, fmt.Errorf("--range %q: not a number with a unit (e.g. 150m, 0.2km, 500ft, 0.1mi)", s)
+	if err != nil && !errors.Is(err, strconv.ErrRange) {
+		return 0, fmt.Errorf("%s %q: not a number with a unit (e.g. 150m, 0.2km, 500ft, 0.1mi)", what, s)
 	}
 	m := v * scale
-	if !(m > 0) || math.IsInf(m, 0) {
-		return 0, fmt.Errorf("--range %q: must be greater than 0 and finite", s)
+	if !(m > 0) {
+		return 0, fmt.Errorf("%s %q: must be greater than 0", what, s)
+	}
+	if m < minRangeMetres || m > maxRangeMetres || math.IsInf(m, 0) {
+		return 0, fmt.Errorf("%s %q: must be finite and between 1 mm and 1000 km", what, s)
 	}
 	return m, nil
+}
+
+// decimalPrefix returns the length of the longest prefix of s that is a
+// plain decimal number: an optional sign, digits with at most one '.', and
+// an optional exponent (e or E, optional sign, digits). An exponent marker
+// not followed by digits is left to the unit (so "1e" is refused there).
+func decimalPrefix(s string) int {
+	i := 0
+	if i < len(s) && (s[i] == '+' || s[i] == '-') {
+		i++
+	}
+	digits, dot := 0, false
+	for ; i < len(s); i++ {
+		c := s[i]
+		if c >= '0' && c <= '9' {
+			digits++
+		} else if c == '.' && !dot {
+			dot = true
+		} else {
+			break
+		}
+	}
+	if digits == 0 {
+		return 0
+	}
+	if i < len(s) && (s[i] == 'e' || s[i] == 'E') {
+		j := i + 1
+		if j < len(s) && (s[j] == '+' || s[j] == '-') {
+			j++
+		}
+		k := j
+		for k < len(s) && s[k] >= '0' && s[k] <= '9' {
+			k++
+		}
+		if k > j {
+			i = k
+		}
+	}
+	return i
 }
