@@ -130,8 +130,8 @@ func TestBadInput(t *testing.T) {
 		{"range unparseable", []string{"gaps", "--sites", goodCSV, "--range", "far"}, 1, []string{`--range "far": not a number`}},
 		{"range unknown unit", []string{"analyze", "--sites", goodCSV, "--range", "5yd"}, 1, []string{`unknown unit "yd"`}},
 		{"demo range invalid", []string{"demo", "--range", "-1km", "--out", filepath.Join(dir, "d")}, 1, []string{`--range "-1km": must be greater than 0`}},
-		{"out is a file", an("--planar", "--sites", planarSites, "--area", planarArea, "--out", fileAsDir), 1, []string{"plainfile", "not a folder"}},
-		{"out under a file", an("--planar", "--sites", planarSites, "--area", planarArea, "--out", filepath.Join(fileAsDir, "sub")), 1, []string{"plainfile/sub", "cannot create"}},
+		{"out is a file", []string{"analyze", "--range", "100m", "--planar", "--sites", planarSites, "--area", planarArea, "--out", fileAsDir}, 1, []string{"plainfile", "not a folder"}},
+		{"out under a file", []string{"analyze", "--range", "100m", "--planar", "--sites", planarSites, "--area", planarArea, "--out", filepath.Join(fileAsDir, "sub")}, 1, []string{"plainfile/sub", "cannot create"}},
 
 		// Bad usage: exit 2.
 		{"unknown flag", []string{"analyze", "--sites", goodCSV, "--range", "1m", "--colour"}, 2, []string{"unknown flag: --colour", "sitecover analyze --help"}},
@@ -145,6 +145,8 @@ func TestBadInput(t *testing.T) {
 		{"flag without value", []string{"analyze", "--sites"}, 2, []string{"flag needs an argument: --sites"}},
 		{"bad int flag", []string{"analyze", "--sites", goodCSV, "--range", "1m", "--map-width", "wide"}, 2, []string{"--map-width"}},
 		{"exclude without area", an("--sites", goodCSV, "--exclude", goodArea), 2, []string{"--exclude needs --area"}},
+		{"range given twice", []string{"analyze", "--sites", goodCSV, "--range", "150m", "--range", "40m"}, 2, []string{"--range", `given twice ("150m" and "40m")`}},
+		{"sites given twice", []string{"gaps", "--sites", goodCSV, "--sites", planarSites, "--range", "1m"}, 2, []string{"--sites", "given twice"}},
 	}
 	for _, c := range cases {
 		t.Run(c.name, func(t *testing.T) {

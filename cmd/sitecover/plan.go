@@ -128,7 +128,7 @@ after as GeoJSON, and a map.
 	}
 	f.addInputFlags(cmd.Flags())
 	cmd.Flags().IntVar(&pf.add, "add", 0, "number of new devices to place (with --candidates: number of spots to pick; default: the fewest that cover everything)")
-	cmd.Flags().StringVar(&pf.candidates, "candidates", "", "candidate mounting spots: GeoJSON Point/MultiPoint features or CSV like --sites")
+	cmd.Flags().Var(newOnceString(&pf.candidates, ""), "candidates", "candidate mounting spots: GeoJSON Point/MultiPoint features or CSV like --sites")
 	f.addRangeFlag(cmd.Flags(), "", "planned range of every device, e.g. 150m, 0.2km, 500ft, 0.1mi")
 	f.addPlanOutputFlags(cmd.Flags(), "suggest")
 	return cmd
@@ -212,7 +212,7 @@ line from each item to its device), device-load.geojson and a map.
 		},
 	}
 	f.addInputFlags(cmd.Flags())
-	cmd.Flags().StringVar(&pf.points, "points", "", "demand points or polygons: GeoJSON (optional \"weight\" property) or CSV like --sites (optional weight column) (required)")
+	cmd.Flags().Var(newOnceString(&pf.points, ""), "points", "demand points or polygons: GeoJSON (optional \"weight\" property) or CSV like --sites (optional weight column) (required)")
 	f.addRangeFlag(cmd.Flags(), "", "range of every device, e.g. 150m, 0.2km, 500ft, 0.1mi (default: distances only)")
 	f.addPlanOutputFlags(cmd.Flags(), "assign")
 	return cmd

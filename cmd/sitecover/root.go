@@ -168,27 +168,27 @@ type runFlags struct {
 
 // addInputFlags registers the input flags.
 func (f *runFlags) addInputFlags(fs *pflag.FlagSet) {
-	fs.StringVar(&f.sites, "sites", "", "device sites: GeoJSON Point/MultiPoint features, or CSV with lat/lon (x/y with --planar) columns (required)")
-	fs.StringVar(&f.area, "area", "", "site area: GeoJSON Polygon/MultiPolygon features; holes and features with \"exclude\": true need no coverage (default: the sites' convex hull)")
-	fs.StringVar(&f.exclude, "exclude", "", "extra zones that need no coverage: GeoJSON polygons cut out of --area")
+	fs.Var(newOnceString(&f.sites, ""), "sites", "device sites: GeoJSON Point/MultiPoint features, or CSV with lat/lon (x/y with --planar) columns (required)")
+	fs.Var(newOnceString(&f.area, ""), "area", "site area: GeoJSON Polygon/MultiPolygon features; holes and features with \"exclude\": true need no coverage (default: the sites' convex hull)")
+	fs.Var(newOnceString(&f.exclude, ""), "exclude", "extra zones that need no coverage: GeoJSON polygons cut out of --area")
 	fs.BoolVar(&f.planar, "planar", false, "coordinates are already local metres (x east, y north), e.g. a site plan or CAD export")
 }
 
 // addOutputFlags registers the output flags.
 func (f *runFlags) addOutputFlags(fs *pflag.FlagSet, maps bool) {
-	fs.StringVar(&f.out, "out", "sitecover-report", "output folder (created if needed; input files are never overwritten)")
+	fs.Var(newOnceString(&f.out, "sitecover-report"), "out", "output folder (created if needed; input files are never overwritten)")
 	fs.BoolVar(&f.json, "json", false, "also print summary.json to stdout (instead of the short text summary)")
 	if maps {
 		fs.BoolVar(&f.noMaps, "no-maps", false, "skip the PNG maps and charts (faster on very large inputs)")
 		fs.IntVar(&f.mapWidth, "map-width", report.DefaultMapWidth, "width of the PNG maps and charts in pixels")
 	}
-	fs.StringVar(&f.title, "title", "", "title of the report and maps (default: the area's name, else the sites file name)")
+	fs.Var(newOnceString(&f.title, ""), "title", "title of the report and maps (default: the area's name, else the sites file name)")
 	fs.BoolVar(&f.lifeSafety, "life-safety", false, "the devices are life-safety equipment (sirens, call points, defibrillators): put the cautions first")
 }
 
 // addRangeFlag registers --range.
 func (f *runFlags) addRangeFlag(fs *pflag.FlagSet, def, usage string) {
-	fs.StringVar(&f.rangeText, "range", def, usage)
+	fs.Var(newOnceString(&f.rangeText, def), "range", usage)
 }
 
 // requireFlags returns a usage error naming the first missing flag.
