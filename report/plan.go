@@ -142,7 +142,7 @@ func PlanFiles(move Move, m Meta, opt Options) []string {
 	if opt.Maps && png != "" {
 		f = append(f, png)
 	}
-	return f
+	return append(f, FileManifest)
 }
 
 // planScene is a scene with the plan it reports.
@@ -229,7 +229,7 @@ func WritePlan(dir string, p *Plan, m Meta, opt Options) ([]string, error) {
 		drawMap = s.assignmentMap
 	}
 	if opt.Maps {
-		steps = append(steps, step{files[len(files)-1], func() ([]byte, error) { return drawMap(width) }})
+		steps = append(steps, step{files[len(files)-2], func() ([]byte, error) { return drawMap(width) }}) // the map, before manifest.json
 	}
 	err = w.writeAll(steps)
 	return w.done, err

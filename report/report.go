@@ -33,6 +33,9 @@ import (
 type Meta struct {
 	// Title heads the report and the maps (e.g. the site's name).
 	Title string
+	// Arguments is the command line (without the program name) recorded
+	// in manifest.json.
+	Arguments []string
 	// Command is the CLI command that produced the run: "analyze",
 	// "cells", "gaps", "demo", "suggest", "failures" or "assign".
 	Command string
@@ -142,7 +145,7 @@ func Files(cells bool, m Meta, opt Options) []string {
 	if opt.Charts && !cells {
 		f = append(f, FileChartCurve, FileChartHoles)
 	}
-	return f
+	return append(f, FileManifest)
 }
 
 // WriteAnalysis writes the full report of a (the files listed by

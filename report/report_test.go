@@ -463,8 +463,8 @@ func TestGeoJSONLayers(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if len(files) != 6 {
-		t.Errorf("wrote %v, want 6 files without maps and charts", files)
+	if len(files) != 7 {
+		t.Errorf("wrote %v, want 7 files (6 and the manifest) without maps and charts", files)
 	}
 	lonR := [2]float64{8.54 - 1e-7, 8.544 + 1e-7}
 	latR := [2]float64{47.37 - 1e-7, 47.373 + 1e-7}
@@ -564,16 +564,25 @@ func TestPlanarLayers(t *testing.T) {
 
 func TestAtomicWrite(t *testing.T) {
 	an := singleSite(t, 100, 30)
-	dir := t.TempDir()
-	keep := filepath.Join(dir, "notes.txt")
+	// A folder holding a file sitecover did not write is refused before
+	// anything is written: the swap replaces a folder's entries.
+	mine := t.TempDir()
+	keep := filepath.Join(mine, "notes.txt")
 	if err := os.WriteFile(keep, []byte("mine"), 0o644); err != nil {
 		t.Fatal(err)
 	}
-	if _, err := WriteAnalysis(dir, an, Meta{Planar: true}, Options{Maps: true, Charts: true, MapWidth: 600}); err != nil {
-		t.Fatal(err)
+	if _, err := WriteAnalysis(mine, an, Meta{Planar: true}, Options{}); err == nil || !strings.Contains(err.Error(), "notes.txt") {
+		t.Fatalf("err = %v, want a refusal naming notes.txt", err)
 	}
 	if b, _ := os.ReadFile(keep); string(b) != "mine" {
 		t.Errorf("unrelated file changed to %q", b)
+	}
+	if ents, _ := os.ReadDir(mine); len(ents) != 1 {
+		t.Errorf("refused folder holds %d entries, want 1", len(ents))
+	}
+	dir := filepath.Join(t.TempDir(), "out")
+	if _, err := WriteAnalysis(dir, an, Meta{Planar: true}, Options{Maps: true, Charts: true, MapWidth: 600}); err != nil {
+		t.Fatal(err)
 	}
 	ents, _ := os.ReadDir(dir)
 	var names []string
@@ -583,7 +592,7 @@ func TestAtomicWrite(t *testing.T) {
 			t.Errorf("temporary file left: %s", e.Name())
 		}
 	}
-	want := append(Files(false, Meta{Planar: true}, Options{Maps: true, Charts: true}), "notes.txt")
+	want := Files(false, Meta{Planar: true}, Options{Maps: true, Charts: true})
 	slices.Sort(want)
 	if !slices.Equal(names, want) {
 		t.Errorf("folder holds %v, want %v", names, want)
@@ -618,27 +627,6 @@ func TestAtomicWrite(t *testing.T) {
 	}
 	if _, err := WriteAnalysis(keep, an, Meta{Planar: true}, Options{}); err == nil || !strings.Contains(err.Error(), "not a folder") {
 		t.Errorf("err = %v, want 'not a folder'", err)
-	}
-}
-
-func TestWriteFailureLeavesNothing(t *testing.T) {
-	dir := t.TempDir()
-	w := &writer{dir: dir}
-	err := w.writeAll([]step{{"half.json", func() ([]byte, error) { return nil, os.ErrInvalid }}})
-	if err == nil {
-		t.Fatal("no error")
-	}
-	// the rename fails when the target is a non-empty folder: the temp
-	// file must go
-	os.MkdirAll(filepath.Join(dir, "busy", "x"), 0o755)
-	if err := writeAtomic(filepath.Join(dir, "busy"), []byte("data")); err == nil {
-		t.Fatal("rename over a folder succeeded")
-	}
-	ents, _ := os.ReadDir(dir)
-	for _, e := range ents {
-		if e.Name() != "busy" {
-			t.Errorf("left behind: %s", e.Name())
-		}
 	}
 }
 
@@ -710,7 +698,7 @@ func TestWriteCells(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if len(files) != 5 {
+	if len(files) != 6 {
 		t.Errorf("wrote %v", files)
 	}
 	b, _ := os.ReadFile(filepath.Join(dir, FileSummary))

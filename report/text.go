@@ -372,6 +372,7 @@ var fileNote = map[string]string{
 	FileMapCoverage:     "map of coverage and gaps at the planned range",
 	FileChartCurve:      "chart: covered share against range",
 	FileChartHoles:      "chart: hole appearance against closing range",
+	FileManifest:        "which run made this folder: version, command, inputs with checksums, every file",
 }
 
 // chordTol is the relative chord tolerance of the gap outlines.

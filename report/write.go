@@ -1,13 +1,9 @@
-// Atomic output: each file is written to a temporary file in the output
-// folder, synced, closed and renamed over its final name. rename(2) within
-// one directory is atomic on POSIX file systems, so a reader sees either
-// the previous file or the complete new one, never a part. Temporary files
-// are removed on every error path.
-//
-// Before anything is written the writer checks that the folder can be
-// created and written, and that no output path names an input file (by
-// cleaned absolute path, and by device/inode when both exist, which also
-// catches hard links and symbolic links).
+// Writing one report: the files are produced in parallel, each stored
+// (written and synced) in the staging folder of the report's output set,
+// and the set is swapped into the output folder when every file is there
+// (outset.go). Before anything is produced the writer checks that no output
+// path names an input file (by cleaned absolute path, and by device/inode
+// when both exist, which also catches hard links and symbolic links).
 
 package report
 
@@ -19,42 +15,24 @@ import (
 	"sync"
 )
 
-// writer writes the files of one report into dir.
+// writer writes the files of one report into a staging folder and swaps
+// it in (see outset.go).
 type writer struct {
-	dir      string
+	set      *outputSet
+	meta     Meta
 	progress func(string)
 	done     []string
 }
 
-// newWriter prepares dir for the given file names: it creates dir, checks
-// it is writable, and refuses names that are input files.
+// newWriter prepares dir for the given file names: it checks the folder
+// (CheckOutputFolder: never an input overwritten, never a user's own
+// folder), creates and locks it, and opens the staging folder.
 func newWriter(dir string, names []string, m Meta, progress func(string)) (*writer, error) {
-	if dir == "" {
-		dir = "."
-	}
-	if fi, err := os.Stat(dir); err == nil && !fi.IsDir() {
-		return nil, fmt.Errorf("output folder %s: exists and is not a folder", dir)
-	}
-	if err := os.MkdirAll(dir, 0o755); err != nil {
-		return nil, fmt.Errorf("output folder %s: cannot create it: %v", dir, unwrapPath(err))
-	}
-	probe, err := os.CreateTemp(dir, ".sitecover-probe-*")
+	set, err := openOutputSet(dir, names, m)
 	if err != nil {
-		return nil, fmt.Errorf("output folder %s: not writable: %v", dir, unwrapPath(err))
+		return nil, err
 	}
-	probe.Close()
-	os.Remove(probe.Name())
-
-	inputs := []string{m.SitesFile, m.AreaFile, m.ExcludeFile, m.CandidatesFile, m.PointsFile}
-	for _, name := range names {
-		out := filepath.Join(dir, name)
-		for _, in := range inputs {
-			if in != "" && samePath(in, out) {
-				return nil, fmt.Errorf("output %s is the input file %s: refusing to overwrite it (choose another --out folder)", out, in)
-			}
-		}
-	}
-	return &writer{dir: dir, progress: progress}, nil
+	return &writer{set: set, meta: m, progress: progress}, nil
 }
 
 // samePath reports whether a and b name the same file.
@@ -77,15 +55,16 @@ func unwrapPath(err error) error {
 	return err
 }
 
-// writeAll produces and stores the files of steps. Up to GOMAXPROCS steps
-// produce their bytes at a time (a step only reads the scene); each
-// finished file is then written and synced on its own goroutine, so the
-// disk wait overlaps the next step's work. Every file is written
-// atomically, so a failed step leaves no part of its file; the others still
-// complete. w.done lists the files written, in step order; the error is
-// that of the first failed step in step order.
+// writeAll produces and stores the files of steps, then swaps the set in.
+// Up to GOMAXPROCS steps produce their bytes at a time (a step only reads
+// the scene); each finished file is then written and synced on its own
+// goroutine, so the disk wait overlaps the next step's work. If any step
+// fails nothing is swapped in: the output folder keeps its previous set,
+// the staging folder is removed, and the error is that of the first failed
+// step in step order. On success w.done lists the files, in step order.
 func (w *writer) writeAll(steps []step) error {
 	errs := make([]error, len(steps))
+	entries := make([]ManifestEntry, len(steps))
 	workers := min(runtime.GOMAXPROCS(0), len(steps))
 	var next int
 	var mu sync.Mutex // guards next and the progress callback
@@ -103,62 +82,39 @@ func (w *writer) writeAll(steps []step) error {
 				if i >= len(steps) {
 					return
 				}
-				path := filepath.Join(w.dir, steps[i].name)
+				final := w.set.finalPath(steps[i].name)
 				b, err := steps[i].make()
 				if err != nil {
-					errs[i] = fmt.Errorf("%s: %v", path, err)
+					errs[i] = fmt.Errorf("%s: %v", final, err)
 					continue
 				}
-				storing.Go(func() { errs[i] = writeAtomic(path, b) })
+				storing.Go(func() {
+					n, sum, err := storeFile(w.set.path(steps[i].name), b)
+					if err != nil {
+						errs[i] = fmt.Errorf("%s: cannot write: %v", final, err)
+						return
+					}
+					entries[i] = ManifestEntry{Path: steps[i].name, Bytes: n, SHA256: sum}
+				})
 			}
 		})
 	}
 	producing.Wait()
 	storing.Wait()
-	var first error
-	for i, st := range steps {
-		switch {
-		case errs[i] == nil:
-			w.done = append(w.done, filepath.Join(w.dir, st.name))
-		case first == nil:
-			first = errs[i]
+	for i := range steps {
+		if errs[i] != nil {
+			w.set.abort()
+			return errs[i]
 		}
 	}
-	return first
-}
-
-// writeAtomic writes b to path through a temporary file in the same
-// folder.
-func writeAtomic(path string, b []byte) (err error) {
-	dir, base := filepath.Split(path)
-	if dir == "" {
-		dir = "."
+	man := newManifest(w.meta)
+	man.Files = entries
+	if err := w.set.commit(man); err != nil {
+		return err
 	}
-	f, err := os.CreateTemp(dir, "."+base+".tmp-*")
-	if err != nil {
-		return fmt.Errorf("%s: cannot write: %v", path, unwrapPath(err))
+	for _, st := range steps {
+		w.done = append(w.done, w.set.finalPath(st.name))
 	}
-	tmp := f.Name()
-	defer func() {
-		if err != nil {
-			f.Close()
-			os.Remove(tmp)
-		}
-	}()
-	if _, err = f.Write(b); err != nil {
-		return fmt.Errorf("%s: cannot write: %v", path, unwrapPath(err))
-	}
-	if err = f.Chmod(0o644); err != nil {
-		return fmt.Errorf("%s: cannot write: %v", path, unwrapPath(err))
-	}
-	if err = f.Sync(); err != nil {
-		return fmt.Errorf("%s: cannot write: %v", path, unwrapPath(err))
-	}
-	if err = f.Close(); err != nil {
-		return fmt.Errorf("%s: cannot write: %v", path, unwrapPath(err))
-	}
-	if err = os.Rename(tmp, path); err != nil {
-		return fmt.Errorf("%s: cannot write: %v", path, unwrapPath(err))
-	}
+	w.done = append(w.done, w.set.finalPath(FileManifest))
 	return nil
 }

@@ -25,8 +25,32 @@
 // See README.md for the input formats and the outputs.
 package main
 
-import "os"
+import (
+	"fmt"
+	"os"
+	"os/signal"
+	"syscall"
+
+	"github.com/sitecover/sitecover/report"
+)
 
 func main() {
+	sig := make(chan os.Signal, 1)
+	signal.Notify(sig, os.Interrupt, syscall.SIGTERM)
+	go exitOnSignal(sig)
 	os.Exit(run(os.Args[1:], os.Stdout, os.Stderr))
+}
+
+// exitOnSignal waits for Ctrl-C (SIGINT) or SIGTERM, removes the staging
+// folders of report writes in progress (the output folders keep their
+// previous set, see report.AbortWrites), says so in one line and exits
+// with 130 (128 + SIGINT, the shell convention; 143 for SIGTERM).
+func exitOnSignal(sig <-chan os.Signal) {
+	s := <-sig
+	report.AbortWrites()
+	fmt.Fprintln(os.Stderr, "sitecover: interrupted: output folders left as they were (or complete, if already written)")
+	if s == syscall.SIGTERM {
+		os.Exit(143)
+	}
+	os.Exit(130)
 }

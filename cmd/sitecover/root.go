@@ -58,11 +58,12 @@ type env struct {
 	stdout, stderr io.Writer
 	// terminal is true when stderr is a terminal (progress lines allowed).
 	terminal bool
+	args     []string // the command line, for the report's manifest
 }
 
 // run executes the command line args and returns the exit code.
 func run(args []string, stdout, stderr io.Writer) (code int) {
-	e := &env{stdout: stdout, stderr: stderr, terminal: isTerminal(stderr)}
+	e := &env{stdout: stdout, stderr: stderr, terminal: isTerminal(stderr), args: args}
 	defer func() {
 		if p := recover(); p != nil {
 			fmt.Fprintf(stderr, "sitecover: internal error: %v (this is a bug; please report it with the command line)\n", p)

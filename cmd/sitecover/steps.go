@@ -65,6 +65,13 @@ func startRun(e *env, command string, f *runFlags, in sceneInputs) (*scene, *pro
 		return nil, nil, err
 	}
 	sc.setMeta(command, f)
+	sc.meta.Arguments = e.args
+	// Before any computation: an output that would overwrite an input, or a
+	// folder holding files sitecover did not write, fails now.
+	if err := report.CheckOutputFolder(f.out, nil, sc.meta); err != nil {
+		pr.end()
+		return nil, nil, inputErrorf("%v", err)
+	}
 	return sc, pr, nil
 }
 
