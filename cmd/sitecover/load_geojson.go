@@ -130,14 +130,9 @@ type gjDoc struct {
 
 // decodeGeoJSON parses src and returns its features in file order.
 func decodeGeoJSON(src source) ([]gjFeature, error) {
-	d, ok := scanGeoJSON(src.data)
-	if !ok {
-		// Anything the scanner declines, errors included, is decoded by
-		// encoding/json, whose messages name the line.
-		d = gjDoc{}
-		if err := json.Unmarshal(src.data, &d); err != nil {
-			return nil, jsonError(src, err)
-		}
+	var d gjDoc
+	if err := json.Unmarshal(src.data, &d); err != nil {
+		return nil, jsonError(src, err)
 	}
 	switch d.Type {
 	case "FeatureCollection":
