@@ -30,6 +30,7 @@ import (
 
 	"github.com/paulmach/orb"
 	"github.com/sitecover/sitecover/coverage"
+	"github.com/sitecover/sitecover/planar"
 )
 
 // pointItems are the items of a candidates or demand file, in file order.
@@ -265,7 +266,7 @@ func (it *pointItems) finish(file string) error {
 func polygonArea(p orb.Polygon) float64 {
 	a := 0.0
 	for k, r := range p {
-		ra := math.Abs(ringArea(r))
+		ra := math.Abs(planar.RingArea(planar.FlatRing(r)))
 		if k == 0 {
 			a += ra
 		} else {
@@ -273,20 +274,6 @@ func polygonArea(p orb.Polygon) float64 {
 		}
 	}
 	return a
-}
-
-// ringArea is the signed shoelace area of a ring (closed or open),
-// relative to its first vertex.
-func ringArea(r orb.Ring) float64 {
-	if len(r) < 3 {
-		return 0
-	}
-	x0, y0 := r[0][0], r[0][1]
-	a := 0.0
-	for i := 1; i+1 < len(r); i++ {
-		a += (r[i][0]-x0)*(r[i+1][1]-y0) - (r[i+1][0]-x0)*(r[i][1]-y0)
-	}
-	return a / 2
 }
 
 // jsonWeight decodes the "weight" property: absent or null gives 1 and

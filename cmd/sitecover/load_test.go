@@ -155,20 +155,3 @@ func TestRelate(t *testing.T) {
 		}
 	}
 }
-
-func TestConvexHull(t *testing.T) {
-	pts := []orb.Point{{0, 0}, {2, 0}, {1, 1}, {2, 2}, {0, 2}, {1, 0}, {0, 0}, {1, 2}}
-	h := convexHull(pts)
-	want := orb.Ring{{0, 0}, {2, 0}, {2, 2}, {0, 2}}
-	if len(h) != len(want) {
-		t.Fatalf("hull %v", h)
-	}
-	for i := range want {
-		if h[i] != want[i] {
-			t.Fatalf("hull %v, want %v", h, want)
-		}
-	}
-	if h := convexHull([]orb.Point{{0, 0}, {1, 1}, {2, 2}}); h != nil {
-		t.Errorf("collinear hull %v", h)
-	}
-}

@@ -227,15 +227,16 @@ func relate(a, b orb.Ring) ringRelation {
 }
 
 // sides reports whether a has vertices strictly inside and strictly
-// outside b.
+// outside b (planar.PointInRing; a vertex on b counts as neither).
 func sides(a, b orb.Ring) (in, out bool) {
 	bb := b.Bound()
+	bxy := planar.FlatRing(b)
 	for _, p := range a {
 		if !bb.Contains(p) {
 			out = true
 			continue
 		}
-		switch pointInRing(p, b) {
+		switch planar.PointInRing(bxy, p[0], p[1]) {
 		case 1:
 			in = true
 		case -1:
@@ -248,33 +249,8 @@ func sides(a, b orb.Ring) (in, out bool) {
 	return
 }
 
-// pointInRing returns 1 when p is inside ring r, 0 on its boundary,
-// -1 outside (winding number with exact orientation tests).
-func pointInRing(p orb.Point, r orb.Ring) int {
-	wn := 0
-	for i := range r {
-		a, b := r[i], r[(i+1)%len(r)]
-		o := planar.Orient2D(a[0], a[1], b[0], b[1], p[0], p[1])
-		if o == 0 && min(a[0], b[0]) <= p[0] && p[0] <= max(a[0], b[0]) &&
-			min(a[1], b[1]) <= p[1] && p[1] <= max(a[1], b[1]) {
-			return 0
-		}
-		if a[1] <= p[1] {
-			if b[1] > p[1] && o > 0 {
-				wn++
-			}
-		} else if b[1] <= p[1] && o < 0 {
-			wn--
-		}
-	}
-	if wn != 0 {
-		return 1
-	}
-	return -1
-}
-
 // edgesCross reports whether an edge of a crosses an edge of b properly
-// (each strictly separates the other's endpoints).
+// (planar.SegmentsCross: each strictly separates the other's endpoints).
 func edgesCross(a, b orb.Ring) bool {
 	bb := b.Bound()
 	for i := range a {
@@ -289,14 +265,7 @@ func edgesCross(a, b orb.Ring) bool {
 				max(r[1], s[1]) < eb.Min[1] || min(r[1], s[1]) > eb.Max[1] {
 				continue
 			}
-			o1 := planar.Orient2D(p[0], p[1], q[0], q[1], r[0], r[1])
-			o2 := planar.Orient2D(p[0], p[1], q[0], q[1], s[0], s[1])
-			if o1 == 0 || o2 == 0 || (o1 > 0) == (o2 > 0) {
-				continue
-			}
-			o3 := planar.Orient2D(r[0], r[1], s[0], s[1], p[0], p[1])
-			o4 := planar.Orient2D(r[0], r[1], s[0], s[1], q[0], q[1])
-			if o3 != 0 && o4 != 0 && (o3 > 0) != (o4 > 0) {
+			if planar.SegmentsCross(p[0], p[1], q[0], q[1], r[0], r[1], s[0], s[1]) {
 				return true
 			}
 		}

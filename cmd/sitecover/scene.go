@@ -10,9 +10,8 @@
 // for a site of a few km: |k − 1| ≈ x²/2R² is 1.2e-8 at 1 km from the
 // central meridian). Larger extents are refused (planar.CheckExtent).
 //
-// With no --area the site area is the convex hull of the sites (Andrew's
-// monotone chain with the exact planar.Orient2D; collinear hull vertices
-// dropped).
+// With no --area the site area is the convex hull of the sites
+// (planar.ConvexHull: exact, collinear hull vertices dropped).
 
 package main
 
@@ -20,7 +19,6 @@ import (
 	"fmt"
 	"math"
 	"path/filepath"
-	"slices"
 	"strings"
 	"time"
 
@@ -128,7 +126,7 @@ func loadScene(in sceneInputs) (*scene, error) {
 	var mp orb.MultiPolygon
 	var names [][]string
 	if len(polys) == 0 {
-		hull := convexHull(sc.sites)
+		hull := planar.ConvexHull(sc.sites)
 		if len(hull) < 3 {
 			return nil, inputErrorf("%s: the sites are all on one line (or fewer than 3 distinct), so they enclose no area: give the site area with --area", in.sites.name)
 		}
@@ -266,52 +264,6 @@ func defaultTitle(in sceneInputs, polys []areaPoly) string {
 	}
 	base := filepath.Base(in.sites.name)
 	return strings.TrimSuffix(base, filepath.Ext(base))
-}
-
-// convexHull returns the convex hull of pts counter-clockwise, open,
-// without collinear vertices (Andrew's monotone chain, exact orientation).
-func convexHull(pts []orb.Point) orb.Ring {
-	p := slices.Clone(pts)
-	slices.SortFunc(p, func(a, b orb.Point) int {
-		if a[0] != b[0] {
-			if a[0] < b[0] {
-				return -1
-			}
-			return 1
-		}
-		if a[1] < b[1] {
-			return -1
-		}
-		if a[1] > b[1] {
-			return 1
-		}
-		return 0
-	})
-	p = slices.Compact(p)
-	if len(p) < 3 {
-		return nil
-	}
-	h := make(orb.Ring, 0, 2*len(p))
-	turn := func(o, a, b orb.Point) float64 { return planar.Orient2D(o[0], o[1], a[0], a[1], b[0], b[1]) }
-	for _, q := range p {
-		for len(h) >= 2 && turn(h[len(h)-2], h[len(h)-1], q) <= 0 {
-			h = h[:len(h)-1]
-		}
-		h = append(h, q)
-	}
-	lower := len(h) + 1
-	for i := len(p) - 2; i >= 0; i-- {
-		q := p[i]
-		for len(h) >= lower && turn(h[len(h)-2], h[len(h)-1], q) <= 0 {
-			h = h[:len(h)-1]
-		}
-		h = append(h, q)
-	}
-	h = h[:len(h)-1]
-	if len(h) < 3 {
-		return nil
-	}
-	return h
 }
 
 // siteWarnings reports sites outside the area (they still serve it) and
