@@ -6,17 +6,18 @@
 // result (simple rings, nothing touching) and orients it, and its messages,
 // which name "polygon p, ring k", are translated back to the input features.
 //
-// Ring relations are decided with the exact orientation predicate
-// planar.Orient2D (Shewchuk 1997), so "crosses", "inside" and "outside" are
-// exact for the float64 coordinates given: two rings cross when two of
-// their edges cross properly or when one ring has vertices strictly on both
-// sides of the other. Touching is not crossing; whether a hole may touch
+// Ring relations are decided with planar's exact ring primitives
+// (planar.SegmentsCross, planar.PointInRing; every sign from Orient2D,
+// Shewchuk 1997), so "crosses", "inside" and "outside" are exact for the
+// float64 coordinates given: two rings cross when two of their edges cross
+// properly or when one ring has vertices strictly on both sides of the
+// other (a vertex on the other ring, PointInRing = 0, is on neither side). Touching is not crossing; whether a hole may touch
 // its exterior is left to planar.NewRegion.
 //
 // Cost: O(|a|·|b|) predicate calls per pair of rings whose bounding boxes
 // meet (edges outside the other ring's box are skipped).
 
-package main
+package siteinput
 
 import (
 	"fmt"
@@ -80,7 +81,7 @@ func buildArea(polys []areaPoly) (orb.MultiPolygon, [][]string, []string, error)
 		incs = append(incs, in)
 	}
 	if len(incs) == 0 {
-		return nil, nil, nil, inputErrorf("%s: every polygon is an exclusion zone; no area is left to cover", polys[0].Where)
+		return nil, nil, nil, errorf("%s: every polygon is an exclusion zone; no area is left to cover", polys[0].Where)
 	}
 	// Polygons to cover must not overlap, except one lying in another's hole.
 	for i := range incs {
@@ -92,7 +93,7 @@ func buildArea(polys []areaPoly) (orb.MultiPolygon, [][]string, []string, error)
 			rel := relate(a.rings[0], b.rings[0])
 			switch rel {
 			case relCross:
-				return nil, nil, nil, inputErrorf("%s overlaps %s: merge them into one polygon", b.where[0], shortWhere(a.where[0], b.where[0]))
+				return nil, nil, nil, errorf("%s overlaps %s: merge them into one polygon", b.where[0], shortWhere(a.where[0], b.where[0]))
 			case relAInB, relBInA:
 				outer, inner := b, a
 				if rel == relBInA {
@@ -106,7 +107,7 @@ func buildArea(polys []areaPoly) (orb.MultiPolygon, [][]string, []string, error)
 					}
 				}
 				if !inHole {
-					return nil, nil, nil, inputErrorf("%s lies inside %s: overlapping area polygons (to exclude it, set \"exclude\": true)", inner.where[0], shortWhere(outer.where[0], inner.where[0]))
+					return nil, nil, nil, errorf("%s lies inside %s: overlapping area polygons (to exclude it, set \"exclude\": true)", inner.where[0], shortWhere(outer.where[0], inner.where[0]))
 				}
 			}
 		}
@@ -121,7 +122,7 @@ func buildArea(polys []areaPoly) (orb.MultiPolygon, [][]string, []string, error)
 			}
 			switch relate(ring, in.rings[0]) {
 			case relCross:
-				return nil, nil, nil, inputErrorf("%s: exclusion zone crosses the boundary of %s; clip it to the area or move the boundary", e.Where, shortWhere(in.where[0], e.Where))
+				return nil, nil, nil, errorf("%s: exclusion zone crosses the boundary of %s; clip it to the area or move the boundary", e.Where, shortWhere(in.where[0], e.Where))
 			case relBInA:
 				in.drop = true
 				used = true
@@ -134,7 +135,7 @@ func buildArea(polys []areaPoly) (orb.MultiPolygon, [][]string, []string, error)
 				for k, h := range in.rings[1:] {
 					switch relate(ring, h) {
 					case relCross:
-						return nil, nil, nil, inputErrorf("%s: exclusion zone overlaps %s; merge them into one", e.Where, shortWhere(in.where[k+1], e.Where))
+						return nil, nil, nil, errorf("%s: exclusion zone overlaps %s; merge them into one", e.Where, shortWhere(in.where[k+1], e.Where))
 					case relAInB:
 						redundant = true
 					case relBInA:
@@ -167,7 +168,7 @@ func buildArea(polys []areaPoly) (orb.MultiPolygon, [][]string, []string, error)
 		names = append(names, in.where)
 	}
 	if len(mp) == 0 {
-		return nil, nil, nil, inputErrorf("%s: the exclusion zones cover the whole area; nothing is left to cover", polys[0].Where)
+		return nil, nil, nil, errorf("%s: the exclusion zones cover the whole area; nothing is left to cover", polys[0].Where)
 	}
 	return mp, names, warn, nil
 }
@@ -197,7 +198,7 @@ func regionError(err error, names [][]string) error {
 	if strings.Contains(msg, "touch") {
 		msg += "; merge polygons that share an edge, and keep exclusion zones off the boundary"
 	}
-	return inputErrorf("%s", msg)
+	return errorf("%s", msg)
 }
 
 // relate returns how ring a lies with respect to ring b (closed or open;
