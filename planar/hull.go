@@ -15,6 +15,7 @@
 package planar
 
 import (
+	"cmp"
 	"slices"
 
 	"github.com/paulmach/orb"
@@ -24,21 +25,14 @@ import (
 // repeat) running counter-clockwise from the point with the least x (least
 // y among ties), with no collinear or repeated vertices. It returns nil when
 // the points enclose no area: fewer than 3 distinct points, or all on one
-// line. pts is not modified. O(n log n).
+// line. The coordinates must be finite; pts is not modified. O(n log n).
 func ConvexHull(pts []orb.Point) orb.Ring {
 	p := slices.Clone(pts)
 	slices.SortFunc(p, func(a, b orb.Point) int {
-		switch {
-		case a[0] < b[0]:
-			return -1
-		case a[0] > b[0]:
-			return 1
-		case a[1] < b[1]:
-			return -1
-		case a[1] > b[1]:
-			return 1
+		if c := cmp.Compare(a[0], b[0]); c != 0 {
+			return c
 		}
-		return 0
+		return cmp.Compare(a[1], b[1])
 	})
 	p = slices.Compact(p)
 	if len(p) < 3 {
