@@ -15,6 +15,7 @@ import (
 
 	"github.com/sitecover/sitecover/coverage"
 	"github.com/sitecover/sitecover/report"
+	"github.com/sitecover/sitecover/report/siteinput"
 	"github.com/spf13/cobra"
 )
 
@@ -51,7 +52,7 @@ number is metres.`,
 
 // runAnalysis is the analyze/gaps/demo pipeline. With charts false the
 // PNG charts are skipped and the gap table is printed (the gaps command).
-func runAnalysis(e *env, command string, f *runFlags, in sceneInputs, r float64, charts bool) error {
+func runAnalysis(e *env, command string, f *runFlags, in siteinput.Inputs, r float64, charts bool) error {
 	sc, pr, err := startRun(e, command, f, in)
 	if err != nil {
 		return err
@@ -91,13 +92,13 @@ func (sc *scene) setMeta(command string, f *runFlags) {
 }
 
 // inputNames lists the input names for messages about the whole scene.
-func inputNames(in sceneInputs) string {
-	s := in.sites.name
-	if in.area != nil {
-		s += ", " + in.area.name
+func inputNames(in siteinput.Inputs) string {
+	s := in.Sites.Name
+	if in.Area != nil {
+		s += ", " + in.Area.Name
 	}
-	if in.exclude != nil {
-		s += ", " + in.exclude.name
+	if in.Exclude != nil {
+		s += ", " + in.Exclude.Name
 	}
 	return s
 }

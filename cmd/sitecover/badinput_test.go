@@ -199,22 +199,27 @@ func TestNoOverwriteOfInputs(t *testing.T) {
 		`{"type":"Feature","properties":{},"geometry":{"type":"Point","coordinates":[30,30]}},` +
 		`{"type":"Feature","properties":{},"geometry":{"type":"Point","coordinates":[10,30]}}]}`
 	sites := writeFile(t, dir, "summary.json", sitesJSON)
-	for _, args := range [][]string{
-		{"analyze", "--planar", "--sites", sites, "--range", "10", "--out", dir},
-		{"cells", "--planar", "--sites", sites, "--out", dir},
-		{"gaps", "--planar", "--sites", sites, "--range", "10", "--out", dir + string(os.PathSeparator) + "."},
+	for _, c := range []struct {
+		name string
+		args []string
+	}{
+		{"analyze", []string{"analyze", "--planar", "--sites", sites, "--range", "10", "--out", dir}},
+		{"cells", []string{"cells", "--planar", "--sites", sites, "--out", dir}},
+		{"gaps, out given as dir/.", []string{"gaps", "--planar", "--sites", sites, "--range", "10", "--out", dir + string(os.PathSeparator) + "."}},
 	} {
-		r := runCLI(t, args...)
-		if r.code != 1 || !strings.Contains(r.stderr, "summary.json") || !strings.Contains(r.stderr, "overwrite") {
-			t.Errorf("%v: exit %d, stderr %q", args, r.code, r.stderr)
-		}
-		b, err := os.ReadFile(sites)
-		if err != nil || string(b) != sitesJSON {
-			t.Fatalf("input overwritten: %q %v", b, err)
-		}
-		ents, _ := os.ReadDir(dir)
-		if len(ents) != 1 {
-			t.Errorf("%v: out folder holds %d entries, want only the input", args, len(ents))
-		}
+		t.Run(c.name, func(t *testing.T) {
+			r := runCLI(t, c.args...)
+			if r.code != 1 || !strings.Contains(r.stderr, "summary.json") || !strings.Contains(r.stderr, "overwrite") {
+				t.Errorf("%v: exit %d, stderr %q", c.args, r.code, r.stderr)
+			}
+			b, err := os.ReadFile(sites)
+			if err != nil || string(b) != sitesJSON {
+				t.Fatalf("input overwritten: %q %v", b, err)
+			}
+			ents, _ := os.ReadDir(dir)
+			if len(ents) != 1 {
+				t.Errorf("%v: out folder holds %d entries, want only the input", c.args, len(ents))
+			}
+		})
 	}
 }

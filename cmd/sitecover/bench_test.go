@@ -1,5 +1,6 @@
 // Benchmarks of whole command runs (input parsing, projection, analysis
-// and the report files) on 100 000 random sites:
+// and the report files) on 100 000 random sites (the reading alone is
+// BenchmarkLoadSites100kGeoJSON in report/siteinput):
 //
 //	go test -run XXX -bench . -benchtime 3x ./cmd/sitecover
 
@@ -68,18 +69,4 @@ func BenchmarkAnalyze100kCSVPlanarNoMaps(b *testing.B) {
 	out := filepath.Join(b.TempDir(), "out")
 	b.ResetTimer()
 	benchRun(b, "analyze", "--planar", "--sites", xy, "--range", "30", "--out", out, "--no-maps")
-}
-
-func BenchmarkLoadSites100kGeoJSON(b *testing.B) {
-	geo, _ := benchInputs(b, 100000)
-	b.ResetTimer()
-	for i := 0; i < b.N; i++ {
-		src, err := readSource(geo, "--sites")
-		if err != nil {
-			b.Fatal(err)
-		}
-		if _, err := loadSites(src, false); err != nil {
-			b.Fatal(err)
-		}
-	}
 }

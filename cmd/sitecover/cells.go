@@ -11,6 +11,7 @@ import (
 
 	"github.com/sitecover/sitecover/coverage"
 	"github.com/sitecover/sitecover/report"
+	"github.com/sitecover/sitecover/report/siteinput"
 	"github.com/spf13/cobra"
 )
 
@@ -43,7 +44,7 @@ and service-area GeoJSON layers and the service-area map.`,
 	return cmd
 }
 
-func runCells(e *env, f *runFlags, in sceneInputs) error {
+func runCells(e *env, f *runFlags, in siteinput.Inputs) error {
 	sc, pr, err := startRun(e, "cells", f, in)
 	if err != nil {
 		return err

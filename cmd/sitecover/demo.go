@@ -17,6 +17,7 @@ import (
 
 	"github.com/sitecover/sitecover/examplesites"
 	"github.com/sitecover/sitecover/report"
+	"github.com/sitecover/sitecover/report/siteinput"
 	"github.com/spf13/cobra"
 )
 
@@ -76,9 +77,9 @@ campus buildings to their serving sensors). --no-plans skips them.`,
 				r = examplesites.PlannedRange
 			}
 			sites, area, _, title := examplesites.Campus()
-			in := sceneInputs{
-				sites: source{name: examplesites.SitesFile + " (built in)", data: sites},
-				area:  &source{name: examplesites.AreaFile + " (built in)", data: area},
+			in := siteinput.Inputs{
+				Sites: siteinput.Source{Name: examplesites.SitesFile + " (built in)", Data: sites},
+				Area:  &siteinput.Source{Name: examplesites.AreaFile + " (built in)", Data: area},
 			}
 			if f.title == "" {
 				f.title = title
@@ -93,10 +94,10 @@ campus buildings to their serving sensors). --no-plans skips them.`,
 			for _, dp := range demoPlans(r) {
 				pin := in
 				if dp.candidates {
-					pin.candidates = &source{name: examplesites.CandidatesFile + " (built in)", data: examplesites.CandidatesGeoJSON()}
+					pin.Candidates = &siteinput.Source{Name: examplesites.CandidatesFile + " (built in)", Data: examplesites.CandidatesGeoJSON()}
 				}
 				if dp.points {
-					pin.points = &source{name: examplesites.BuildingsFile + " (built in)", data: examplesites.BuildingsGeoJSON()}
+					pin.Points = &siteinput.Source{Name: examplesites.BuildingsFile + " (built in)", Data: examplesites.BuildingsGeoJSON()}
 				}
 				pf := *f
 				pf.out = filepath.Join(f.out, dp.dir)

@@ -21,6 +21,7 @@ package main
 import (
 	"errors"
 	"fmt"
+	"io/fs"
 	"strings"
 )
 
@@ -90,4 +91,14 @@ func errorLine(err error) string {
 		msg += " (see 'sitecover --help')"
 	}
 	return "sitecover: " + msg
+}
+
+// unwrapPathErr drops the operation and path of an *fs.PathError, which
+// the messages already name.
+func unwrapPathErr(err error) error {
+	var pe *fs.PathError
+	if errors.As(err, &pe) {
+		return pe.Err
+	}
+	return err
 }

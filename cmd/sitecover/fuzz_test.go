@@ -1,66 +1,14 @@
-// Fuzz targets: the readers and the range parser return a value or an
-// error for any input, never panic, and every accepted coordinate passes
-// the coordinate check.
+// Fuzz target: the range parser returns a positive finite length or an
+// error for any input, never panics.
 //
-//	go test -run '^$' -fuzz '^FuzzLoadSites$' -fuzztime 20s ./cmd/sitecover
+//	go test -run '^$' -fuzz '^FuzzParseRange$' -fuzztime 20s ./cmd/sitecover
 
 package main
 
 import (
 	"math"
 	"testing"
-
-	"github.com/sitecover/sitecover/examplesites"
 )
-
-func FuzzLoadSites(f *testing.F) {
-	f.Add([]byte("lat,lon\n1,2\n"), false, true)
-	f.Add([]byte("x;y\n1,5;2\n"), true, true)
-	f.Add([]byte(`{"type":"Point","coordinates":[1,2]}`), false, false)
-	f.Add([]byte(`{"type":"FeatureCollection","features":[{"type":"Feature","properties":{"name":1},"geometry":{"type":"MultiPoint","coordinates":[[1,2],[3,4,5]]}}]}`), false, false)
-	f.Add(examplesites.SitesGeoJSON(), false, false)
-	f.Add(examplesites.SitesCSV(), false, true)
-	f.Fuzz(func(t *testing.T, data []byte, planarInput, csv bool) {
-		name := "s.geojson"
-		if csv {
-			name = "s.csv"
-		}
-		s, err := loadSites(source{name: name, data: data}, planarInput)
-		if err != nil {
-			return
-		}
-		if len(s.Pts) == 0 || len(s.Pts) != len(s.Names) {
-			t.Fatalf("%d sites, %d names", len(s.Pts), len(s.Names))
-		}
-		for i, p := range s.Pts {
-			if pr := coordProblem(planarInput, p[0], p[1]); pr != "" || math.IsNaN(p[0]) {
-				t.Fatalf("site %d %v accepted: %s", i, p, pr)
-			}
-		}
-	})
-}
-
-func FuzzLoadArea(f *testing.F) {
-	f.Add([]byte(`{"type":"Polygon","coordinates":[[[0,0],[1,0],[1,1],[0,0]]]}`), true)
-	f.Add(examplesites.AreaGeoJSON(), false)
-	f.Fuzz(func(t *testing.T, data []byte, planarInput bool) {
-		polys, err := loadArea(source{name: "a.geojson", data: data}, planarInput, false)
-		if err != nil {
-			return
-		}
-		for _, p := range polys {
-			for _, r := range p.Rings {
-				for _, q := range r {
-					if pr := coordProblem(planarInput, q[0], q[1]); pr != "" {
-						t.Fatalf("vertex %v accepted: %s", q, pr)
-					}
-				}
-			}
-		}
-		// Assembling must not panic either.
-		buildArea(polys)
-	})
-}
 
 func FuzzParseRange(f *testing.F) {
 	for _, s := range []string{"150m", "0.1mi", "1e3", "-1", "NaN", "5 km", "ft"} {

@@ -18,10 +18,12 @@ func TestHelp(t *testing.T) {
 		t.Errorf("root help lacks the cautions:\n%s", r.stdout)
 	}
 	for _, cmd := range []string{"analyze", "cells", "gaps", "demo"} {
-		r := mustRun(t, cmd, "--help")
-		if !strings.Contains(r.stdout, "Examples:") || !strings.Contains(r.stdout, "sitecover "+cmd+" ") {
-			t.Errorf("%s --help lacks examples:\n%s", cmd, r.stdout)
-		}
+		t.Run(cmd, func(t *testing.T) {
+			r := mustRun(t, cmd, "--help")
+			if !strings.Contains(r.stdout, "Examples:") || !strings.Contains(r.stdout, "sitecover "+cmd+" ") {
+				t.Errorf("%s --help lacks examples:\n%s", cmd, r.stdout)
+			}
+		})
 	}
 	r = mustRun(t)
 	if !strings.Contains(r.stdout, "Available Commands") {
@@ -35,10 +37,12 @@ func TestVersionAndCompletion(t *testing.T) {
 		t.Errorf("--version: %q", r.stdout)
 	}
 	for _, sh := range []string{"bash", "zsh", "fish", "powershell"} {
-		r := mustRun(t, "completion", sh)
-		if !strings.Contains(r.stdout, "sitecover") || len(r.stdout) < 200 {
-			t.Errorf("completion %s: %q", sh, r.stdout[:min(len(r.stdout), 200)])
-		}
+		t.Run("completion "+sh, func(t *testing.T) {
+			r := mustRun(t, "completion", sh)
+			if !strings.Contains(r.stdout, "sitecover") || len(r.stdout) < 200 {
+				t.Errorf("completion %s: %q", sh, r.stdout[:min(len(r.stdout), 200)])
+			}
+		})
 	}
 }
 
@@ -60,30 +64,33 @@ func TestBinary(t *testing.T) {
 	dir := t.TempDir()
 	bad := writeFile(t, dir, "bad.csv", "lat,lon\n44,-99\n95.2,-99\n")
 	for _, c := range []struct {
+		name string
 		args []string
 		code int
 		want string
 	}{
-		{[]string{"analyze", "--sites", bad, "--range", "1m", "--out", dir}, 1, "bad.csv line 3: latitude 95.2 is outside -90..90"},
-		{[]string{"analyze", "--nonsense"}, 2, "unknown flag: --nonsense"},
-		{[]string{"demo", "--out", filepath.Join(dir, "demo"), "--no-maps"}, 0, ""},
+		{"bad input", []string{"analyze", "--sites", bad, "--range", "1m", "--out", dir}, 1, "bad.csv line 3: latitude 95.2 is outside -90..90"},
+		{"bad usage", []string{"analyze", "--nonsense"}, 2, "unknown flag: --nonsense"},
+		{"demo", []string{"demo", "--out", filepath.Join(dir, "demo"), "--no-maps"}, 0, ""},
 	} {
-		cmd := exec.Command(bin, c.args...)
-		var stderr strings.Builder
-		cmd.Stderr = &stderr
-		err := cmd.Run()
-		code := 0
-		if ee, ok := err.(*exec.ExitError); ok {
-			code = ee.ExitCode()
-		} else if err != nil {
-			t.Fatal(err)
-		}
-		if code != c.code {
-			t.Errorf("%v: exit %d, want %d (%s)", c.args, code, c.code, stderr.String())
-		}
-		if c.want != "" && (!strings.Contains(stderr.String(), c.want) || strings.Count(stderr.String(), "\n") != 1) {
-			t.Errorf("%v: stderr %q", c.args, stderr.String())
-		}
+		t.Run(c.name, func(t *testing.T) {
+			cmd := exec.Command(bin, c.args...)
+			var stderr strings.Builder
+			cmd.Stderr = &stderr
+			err := cmd.Run()
+			code := 0
+			if ee, ok := err.(*exec.ExitError); ok {
+				code = ee.ExitCode()
+			} else if err != nil {
+				t.Fatal(err)
+			}
+			if code != c.code {
+				t.Errorf("%v: exit %d, want %d (%s)", c.args, code, c.code, stderr.String())
+			}
+			if c.want != "" && (!strings.Contains(stderr.String(), c.want) || strings.Count(stderr.String(), "\n") != 1) {
+				t.Errorf("%v: stderr %q", c.args, stderr.String())
+			}
+		})
 	}
 	if _, err := os.Stat(filepath.Join(dir, "demo", "summary.json")); err != nil {
 		t.Error(err)

@@ -23,6 +23,7 @@ import (
 	"github.com/paulmach/orb"
 	"github.com/sitecover/sitecover/coverage"
 	"github.com/sitecover/sitecover/report"
+	"github.com/sitecover/sitecover/report/siteinput"
 	"github.com/spf13/cobra"
 	"github.com/spf13/pflag"
 )
@@ -119,7 +120,7 @@ after as GeoJSON, and a map.
 				return err
 			}
 			if ps.move == report.MoveCandidates {
-				if in.candidates, err = openSource(pf.candidates, "--candidates"); err != nil {
+				if in.Candidates, err = openSource(pf.candidates, "--candidates"); err != nil {
 					return err
 				}
 			}
@@ -205,7 +206,7 @@ line from each item to its device), device-load.geojson and a map.
 			if err != nil {
 				return err
 			}
-			if in.points, err = openSource(pf.points, "--points"); err != nil {
+			if in.Points, err = openSource(pf.points, "--points"); err != nil {
 				return err
 			}
 			return asInput(runPlan(e, "assign", f, in, ps, printFull))
@@ -230,10 +231,10 @@ type planSpec struct {
 
 // planInputs parses --range into ps when it was given, then opens the
 // input files named by the flags.
-func (f *runFlags) planInputs(cmd *cobra.Command, ps *planSpec) (sceneInputs, error) {
+func (f *runFlags) planInputs(cmd *cobra.Command, ps *planSpec) (siteinput.Inputs, error) {
 	var err error
 	if ps.r, ps.rangeGiven, err = f.optionalRange(cmd); err != nil {
-		return sceneInputs{}, err
+		return siteinput.Inputs{}, err
 	}
 	return f.inputs()
 }
@@ -248,7 +249,7 @@ const (
 )
 
 // runPlan runs one planning move and writes its report folder.
-func runPlan(e *env, command string, f *runFlags, in sceneInputs, ps planSpec, mode printMode) error {
+func runPlan(e *env, command string, f *runFlags, in siteinput.Inputs, ps planSpec, mode printMode) error {
 	sc, pr, err := startRun(e, command, f, in)
 	if err != nil {
 		return err

@@ -3,9 +3,15 @@
 package main
 
 import (
+	"strconv"
 	"strings"
 	"testing"
 )
+
+// rangeRelTol is the relative tolerance of a parsed range: a unit factor
+// and a decimal conversion, each correctly rounded, differ from the exact
+// product by a few ulps (2⁻⁵² ≈ 2.2e-16 each), far below 1e-12.
+const rangeRelTol = 1e-12
 
 func TestParseRange(t *testing.T) {
 	// Reference: the international yard and pound (1959 agreement; NIST
@@ -31,14 +37,15 @@ func TestParseRange(t *testing.T) {
 		{".5km", 500},
 	}
 	for _, c := range ok {
-		got, err := parseRange(c.in)
-		if err != nil {
-			t.Errorf("parseRange(%q): %v", c.in, err)
-			continue
-		}
-		if d := got - c.want; d > 1e-12*c.want || d < -1e-12*c.want {
-			t.Errorf("parseRange(%q) = %.15g, want %.15g", c.in, got, c.want)
-		}
+		t.Run("ok "+strconv.Quote(c.in), func(t *testing.T) {
+			got, err := parseRange(c.in)
+			if err != nil {
+				t.Fatalf("parseRange(%q): %v", c.in, err)
+			}
+			if d := got - c.want; d > rangeRelTol*c.want || d < -rangeRelTol*c.want {
+				t.Errorf("parseRange(%q) = %.15g, want %.15g", c.in, got, c.want)
+			}
+		})
 	}
 	bad := []struct{ in, msg string }{
 		{"", "empty"},
@@ -69,13 +76,14 @@ func TestParseRange(t *testing.T) {
 		{"5 m2", "not a number"},
 	}
 	for _, c := range bad {
-		_, err := parseRange(c.in)
-		if err == nil {
-			t.Errorf("parseRange(%q): no error", c.in)
-			continue
-		}
-		if !strings.Contains(err.Error(), c.msg) || !strings.Contains(err.Error(), "--range") {
-			t.Errorf("parseRange(%q) error %q, want it to mention --range and %q", c.in, err, c.msg)
-		}
+		t.Run("bad "+strconv.Quote(c.in), func(t *testing.T) {
+			_, err := parseRange(c.in)
+			if err == nil {
+				t.Fatalf("parseRange(%q): no error", c.in)
+			}
+			if !strings.Contains(err.Error(), c.msg) || !strings.Contains(err.Error(), "--range") {
+				t.Errorf("parseRange(%q) error %q, want it to mention --range and %q", c.in, err, c.msg)
+			}
+		})
 	}
 }

@@ -17,6 +17,7 @@ import (
 	"strings"
 
 	"github.com/sitecover/sitecover/report"
+	"github.com/sitecover/sitecover/report/siteinput"
 	"github.com/spf13/cobra"
 	"github.com/spf13/pflag"
 )
@@ -204,23 +205,23 @@ func requireFlags(cmd *cobra.Command, names ...string) error {
 }
 
 // inputs opens the input files named by the flags.
-func (f *runFlags) inputs() (sceneInputs, error) {
+func (f *runFlags) inputs() (siteinput.Inputs, error) {
 	if f.exclude != "" && f.area == "" {
-		return sceneInputs{}, usageErrorf("--exclude needs --area: exclusion zones are cut out of a given area")
+		return siteinput.Inputs{}, usageErrorf("--exclude needs --area: exclusion zones are cut out of a given area")
 	}
-	var in sceneInputs
+	var in siteinput.Inputs
 	var err error
-	in.planar = f.planar
-	if in.sites, err = readSource(f.sites, "--sites"); err != nil {
+	in.Planar = f.planar
+	if in.Sites, err = readSource(f.sites, "--sites"); err != nil {
 		return in, err
 	}
 	if f.area != "" {
-		if in.area, err = openSource(f.area, "--area"); err != nil {
+		if in.Area, err = openSource(f.area, "--area"); err != nil {
 			return in, err
 		}
 	}
 	if f.exclude != "" {
-		if in.exclude, err = openSource(f.exclude, "--exclude"); err != nil {
+		if in.Exclude, err = openSource(f.exclude, "--exclude"); err != nil {
 			return in, err
 		}
 	}

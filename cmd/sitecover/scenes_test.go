@@ -69,16 +69,19 @@ func TestSingleSiteInSquare(t *testing.T) {
 		f   float64
 		got float64
 	}{{0.90, s.RangePercentiles.P90}, {0.95, s.RangePercentiles.P95}, {0.99, s.RangePercentiles.P99}} {
-		lo, hi := a/2, a/math.Sqrt2
-		for i := 0; i < 200; i++ {
-			mid := (lo + hi) / 2
-			if squareDiskArea(a/2, mid) >= c.f*a*a {
-				hi = mid
-			} else {
-				lo = mid
+		name := fmt.Sprintf("p%.0f", 100*c.f)
+		t.Run(name, func(t *testing.T) {
+			lo, hi := a/2, a/math.Sqrt2
+			for i := 0; i < 200; i++ {
+				mid := (lo + hi) / 2
+				if squareDiskArea(a/2, mid) >= c.f*a*a {
+					hi = mid
+				} else {
+					lo = mid
+				}
 			}
-		}
-		checkNear(t, fmt.Sprintf("p%.0f", 100*c.f), c.got, hi, 1e-6)
+			checkNear(t, name, c.got, hi, 1e-6)
+		})
 	}
 	checkNear(t, "cell area", s.Cells[0].AreaM2, a*a, 1e-9)
 	checkNear(t, "cell farthest", s.Cells[0].FarthestM, a/math.Sqrt2, 1e-9)

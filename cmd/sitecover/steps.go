@@ -8,22 +8,23 @@ package main
 
 import (
 	"github.com/sitecover/sitecover/report"
+	"github.com/sitecover/sitecover/report/siteinput"
 	"github.com/spf13/cobra"
 )
 
 // rangedInputs is the start of a command that needs --sites and --range:
 // it checks both are given, parses the range (m) and opens the inputs.
-func (f *runFlags) rangedInputs(cmd *cobra.Command) (sceneInputs, float64, error) {
+func (f *runFlags) rangedInputs(cmd *cobra.Command) (siteinput.Inputs, float64, error) {
 	if err := requireFlags(cmd, "sites", "range"); err != nil {
-		return sceneInputs{}, 0, err
+		return siteinput.Inputs{}, 0, err
 	}
 	r, err := parseRange(f.rangeText)
 	if err != nil {
-		return sceneInputs{}, 0, inputErrorf("%v", err)
+		return siteinput.Inputs{}, 0, inputErrorf("%v", err)
 	}
 	in, err := f.inputs()
 	if err != nil {
-		return sceneInputs{}, 0, err
+		return siteinput.Inputs{}, 0, err
 	}
 	return in, r, nil
 }
@@ -41,8 +42,8 @@ func (f *runFlags) optionalRange(cmd *cobra.Command) (r float64, given bool, err
 }
 
 // openSource reads the input file given to flag, for an optional input of
-// sceneInputs.
-func openSource(path, flag string) (*source, error) {
+// siteinput.Inputs.
+func openSource(path, flag string) (*siteinput.Source, error) {
 	s, err := readSource(path, flag)
 	if err != nil {
 		return nil, err
@@ -53,7 +54,7 @@ func openSource(path, flag string) (*source, error) {
 // startRun begins a run of command: it starts the progress line, loads the
 // scene, checks the output folder and fills the report metadata. The caller
 // ends the progress line; on error startRun has ended it.
-func startRun(e *env, command string, f *runFlags, in sceneInputs) (*scene, *progress, error) {
+func startRun(e *env, command string, f *runFlags, in siteinput.Inputs) (*scene, *progress, error) {
 	pr := startProgress(e.stderr, e.terminal)
 	pr.set("reading inputs")
 	sc, err := loadScene(in)

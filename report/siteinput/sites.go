@@ -14,7 +14,7 @@
 //
 // Coordinates are checked one by one (see coordProblem) and never altered.
 
-package main
+package siteinput
 
 import (
 	"bytes"
@@ -38,7 +38,7 @@ type siteSet struct {
 }
 
 // loadSites reads sites from src (GeoJSON or CSV).
-func loadSites(src source, planarInput bool) (*siteSet, error) {
+func loadSites(src Source, planarInput bool) (*siteSet, error) {
 	f, err := detectFormat(src)
 	if err != nil {
 		return nil, err
@@ -57,12 +57,12 @@ func loadSites(src source, planarInput bool) (*siteSet, error) {
 		if f == formatCSV {
 			what = "a header but no data lines"
 		}
-		return nil, inputErrorf("%s: no sites (%s)", src.name, what)
+		return nil, errorf("%s: no sites (%s)", src.Name, what)
 	}
 	return s, nil
 }
 
-func sitesFromGeoJSON(src source, planarInput bool) (*siteSet, error) {
+func sitesFromGeoJSON(src Source, planarInput bool) (*siteSet, error) {
 	feats, err := decodeGeoJSON(src)
 	if err != nil {
 		return nil, err
@@ -71,7 +71,7 @@ func sitesFromGeoJSON(src source, planarInput bool) (*siteSet, error) {
 	for i := range feats {
 		f := &feats[i]
 		if f.Geometry == nil {
-			return nil, inputErrorf("%s feature %d: no geometry (null), expected Point or MultiPoint", src.name, i)
+			return nil, errorf("%s feature %d: no geometry (null), expected Point or MultiPoint", src.Name, i)
 		}
 		name := featureName(featureProps(f), f.ID)
 		if f.Geometry.Type == "Point" {
@@ -90,7 +90,7 @@ func sitesFromGeoJSON(src source, planarInput bool) (*siteSet, error) {
 	return s, nil
 }
 
-func (s *siteSet) addGeometry(src source, where string, g *gjGeometry, name string, planarInput bool) error {
+func (s *siteSet) addGeometry(src Source, where string, g *gjGeometry, name string, planarInput bool) error {
 	switch g.Type {
 	case "Point", "MultiPoint":
 		return pointGeometry(src, where, g, name, planarInput, func(p orb.Point, _, name string) {
@@ -105,9 +105,9 @@ func (s *siteSet) addGeometry(src source, where string, g *gjGeometry, name stri
 		}
 		return nil
 	case "":
-		return inputErrorf("%s %s: geometry has no \"type\"", src.name, where)
+		return errorf("%s %s: geometry has no \"type\"", src.Name, where)
 	default:
-		return inputErrorf("%s %s: geometry type %s, expected Point or MultiPoint (sites are points)", src.name, where, g.Type)
+		return errorf("%s %s: geometry type %s, expected Point or MultiPoint (sites are points)", src.Name, where, g.Type)
 	}
 }
 
@@ -116,14 +116,14 @@ func (s *siteSet) addGeometry(src source, where string, g *gjGeometry, name stri
 // label after where (" point k" for position k of a MultiPoint) and its
 // name (the positions of a named MultiPoint of several are "name#1",
 // "name#2", ...). The first bad position stops it with an input error.
-func pointGeometry(src source, where string, g *gjGeometry, name string, planarInput bool, add func(p orb.Point, label, name string)) error {
+func pointGeometry(src Source, where string, g *gjGeometry, name string, planarInput bool, add func(p orb.Point, label, name string)) error {
 	point := func(p []float64, label, name string) error {
 		x, y, problem := position(p)
 		if problem == "" {
 			problem = coordProblem(planarInput, x, y)
 		}
 		if problem != "" {
-			return inputErrorf("%s %s%s: %s", src.name, where, label, problem)
+			return errorf("%s %s%s: %s", src.Name, where, label, problem)
 		}
 		add(orb.Point{x, y}, label, name)
 		return nil
@@ -131,13 +131,13 @@ func pointGeometry(src source, where string, g *gjGeometry, name string, planarI
 	if g.Type == "Point" {
 		var p []float64
 		if err := decodeCoords(g.Coordinates, &p); err != nil {
-			return inputErrorf("%s %s: Point coordinates: %v", src.name, where, err)
+			return errorf("%s %s: Point coordinates: %v", src.Name, where, err)
 		}
 		return point(p, "", name)
 	}
 	var ps [][]float64
 	if err := decodeCoords(g.Coordinates, &ps); err != nil {
-		return inputErrorf("%s %s: MultiPoint coordinates: %v", src.name, where, err)
+		return errorf("%s %s: MultiPoint coordinates: %v", src.Name, where, err)
 	}
 	for k, p := range ps {
 		n := name
@@ -203,7 +203,7 @@ var csvColumns = map[string]string{
 	"name": "name", "id": "id",
 }
 
-func sitesFromCSV(src source, planarInput bool) (*siteSet, error) {
+func sitesFromCSV(src Source, planarInput bool) (*siteSet, error) {
 	s, _, err := pointsFromCSV(src, planarInput, false)
 	return s, err
 }
@@ -212,8 +212,8 @@ func sitesFromCSV(src source, planarInput bool) (*siteSet, error) {
 // With withWeight a "weight" column is recognised too: weights then holds
 // one finite weight ≥ 0 per point (nil when the header has no weight
 // column); an empty or bad weight field is an error naming its line.
-func pointsFromCSV(src source, planarInput, withWeight bool) (s *siteSet, weights []float64, err error) {
-	data := src.data
+func pointsFromCSV(src Source, planarInput, withWeight bool) (s *siteSet, weights []float64, err error) {
+	data := src.Data
 	firstLine := data
 	if i := bytes.IndexByte(data, '\n'); i >= 0 {
 		firstLine = data[:i]
@@ -245,7 +245,7 @@ func pointsFromCSV(src source, planarInput, withWeight bool) (s *siteSet, weight
 			continue
 		}
 		if j, dup := col[key]; dup {
-			return nil, nil, inputErrorf("%s line 1: columns %d (%q) and %d (%q) are both %s", src.name, j+1, header[j], i+1, h, key)
+			return nil, nil, errorf("%s line 1: columns %d (%q) and %d (%q) are both %s", src.Name, j+1, header[j], i+1, h, key)
 		}
 		col[key] = i
 		found = append(found, strings.TrimSpace(h))
@@ -255,7 +255,7 @@ func pointsFromCSV(src source, planarInput, withWeight bool) (s *siteSet, weight
 	_, hasX := col["x"]
 	_, hasY := col["y"]
 	if !hasLat && !hasLon && !hasX && !hasY {
-		return nil, nil, inputErrorf("%s: not GeoJSON or CSV: line 1 has no lat/lon or x/y column header (found %s)", src.name, quoteList(header))
+		return nil, nil, errorf("%s: not GeoJSON or CSV: line 1 has no lat/lon or x/y column header (found %s)", src.Name, quoteList(header))
 	}
 	xcol, ycol := "lon", "lat"
 	xname, yname := "longitude", "latitude"
@@ -266,14 +266,14 @@ func pointsFromCSV(src source, planarInput, withWeight bool) (s *siteSet, weight
 			if hasLat && hasLon {
 				hint = "; the lat/lon columns are geographic: drop --planar"
 			}
-			return nil, nil, inputErrorf("%s line 1: --planar needs x and y columns, found %s%s", src.name, quoteList(found), hint)
+			return nil, nil, errorf("%s line 1: --planar needs x and y columns, found %s%s", src.Name, quoteList(found), hint)
 		}
 	} else if !hasLat || !hasLon {
 		hint := ""
 		if hasX && hasY {
 			hint = "; for x/y in local metres add --planar"
 		}
-		return nil, nil, inputErrorf("%s line 1: needs lat and lon columns, found %s%s", src.name, quoteList(found), hint)
+		return nil, nil, errorf("%s line 1: needs lat and lon columns, found %s%s", src.Name, quoteList(found), hint)
 	}
 	xi, yi := col[xcol], col[ycol]
 	ni, hasName := col["name"]
@@ -300,7 +300,7 @@ func pointsFromCSV(src source, planarInput, withWeight bool) (s *siteSet, weight
 			need = max(need, wi+1)
 		}
 		if len(rec) < need {
-			return nil, nil, inputErrorf("%s line %d: %d fields, the header has %d", src.name, line, len(rec), len(header))
+			return nil, nil, errorf("%s line %d: %d fields, the header has %d", src.Name, line, len(rec), len(header))
 		}
 		x, err := csvNumber(rec[xi], xname, decimalComma)
 		var y float64
@@ -313,7 +313,7 @@ func pointsFromCSV(src source, planarInput, withWeight bool) (s *siteSet, weight
 			}
 		}
 		if err != nil {
-			return nil, nil, inputErrorf("%s line %d: %v", src.name, line, err)
+			return nil, nil, errorf("%s line %d: %v", src.Name, line, err)
 		}
 		s.Pts = append(s.Pts, orb.Point{x, y})
 		name := ""
@@ -324,7 +324,7 @@ func pointsFromCSV(src source, planarInput, withWeight bool) (s *siteSet, weight
 		if hasWeight {
 			w, err := csvWeight(rec[wi], decimalComma)
 			if err != nil {
-				return nil, nil, inputErrorf("%s line %d: %v", src.name, line, err)
+				return nil, nil, errorf("%s line %d: %v", src.Name, line, err)
 			}
 			weights = append(weights, w)
 		}
@@ -367,12 +367,12 @@ func csvNumber(field, what string, decimalComma bool) (float64, error) {
 	return v, nil
 }
 
-func csvError(src source, err error) error {
+func csvError(src Source, err error) error {
 	var pe *csv.ParseError
 	if errors.As(err, &pe) {
-		return inputErrorf("%s line %d: not valid CSV: %v", src.name, pe.StartLine, pe.Err)
+		return errorf("%s line %d: not valid CSV: %v", src.Name, pe.StartLine, pe.Err)
 	}
-	return inputErrorf("%s: not valid CSV: %v", src.name, err)
+	return errorf("%s: not valid CSV: %v", src.Name, err)
 }
 
 func quoteList(xs []string) string {

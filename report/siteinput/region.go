@@ -6,17 +6,18 @@
 // result (simple rings, nothing touching) and orients it, and its messages,
 // which name "polygon p, ring k", are translated back to the input features.
 //
-// Ring relations are decided with the exact orientation predicate
-// planar.Orient2D (Shewchuk 1997), so "crosses", "inside" and "outside" are
-// exact for the float64 coordinates given: two rings cross when two of
-// their edges cross properly or when one ring has vertices strictly on both
-// sides of the other. Touching is not crossing; whether a hole may touch
+// Ring relations are decided with planar's exact ring primitives
+// (planar.SegmentsCross, planar.PointInRing; every sign from Orient2D,
+// Shewchuk 1997), so "crosses", "inside" and "outside" are exact for the
+// float64 coordinates given: two rings cross when two of their edges cross
+// properly or when one ring has vertices strictly on both sides of the
+// other (a vertex on the other ring, PointInRing = 0, is on neither side). Touching is not crossing; whether a hole may touch
 // its exterior is left to planar.NewRegion.
 //
 // Cost: O(|a|·|b|) predicate calls per pair of rings whose bounding boxes
 // meet (edges outside the other ring's box are skipped).
 
-package main
+package siteinput
 
 import (
 	"fmt"
@@ -80,7 +81,7 @@ func buildArea(polys []areaPoly) (orb.MultiPolygon, [][]string, []string, error)
 		incs = append(incs, in)
 	}
 	if len(incs) == 0 {
-		return nil, nil, nil, inputErrorf("%s: every polygon is an exclusion zone; no area is left to cover", polys[0].Where)
+		return nil, nil, nil, errorf("%s: every polygon is an exclusion zone; no area is left to cover", polys[0].Where)
 	}
 	// Polygons to cover must not overlap, except one lying in another's hole.
 	for i := range incs {
@@ -92,7 +93,7 @@ func buildArea(polys []areaPoly) (orb.MultiPolygon, [][]string, []string, error)
 			rel := relate(a.rings[0], b.rings[0])
 			switch rel {
 			case relCross:
-				return nil, nil, nil, inputErrorf("%s overlaps %s: merge them into one polygon", b.where[0], shortWhere(a.where[0], b.where[0]))
+				return nil, nil, nil, errorf("%s overlaps %s: merge them into one polygon", b.where[0], shortWhere(a.where[0], b.where[0]))
 			case relAInB, relBInA:
 				outer, inner := b, a
 				if rel == relBInA {
@@ -106,7 +107,7 @@ func buildArea(polys []areaPoly) (orb.MultiPolygon, [][]string, []string, error)
 					}
 				}
 				if !inHole {
-					return nil, nil, nil, inputErrorf("%s lies inside %s: overlapping area polygons (to exclude it, set \"exclude\": true)", inner.where[0], shortWhere(outer.where[0], inner.where[0]))
+					return nil, nil, nil, errorf("%s lies inside %s: overlapping area polygons (to exclude it, set \"exclude\": true)", inner.where[0], shortWhere(outer.where[0], inner.where[0]))
 				}
 			}
 		}
@@ -121,7 +122,7 @@ func buildArea(polys []areaPoly) (orb.MultiPolygon, [][]string, []string, error)
 			}
 			switch relate(ring, in.rings[0]) {
 			case relCross:
-				return nil, nil, nil, inputErrorf("%s: exclusion zone crosses the boundary of %s; clip it to the area or move the boundary", e.Where, shortWhere(in.where[0], e.Where))
+				return nil, nil, nil, errorf("%s: exclusion zone crosses the boundary of %s; clip it to the area or move the boundary", e.Where, shortWhere(in.where[0], e.Where))
 			case relBInA:
 				in.drop = true
 				used = true
@@ -134,7 +135,7 @@ func buildArea(polys []areaPoly) (orb.MultiPolygon, [][]string, []string, error)
 				for k, h := range in.rings[1:] {
 					switch relate(ring, h) {
 					case relCross:
-						return nil, nil, nil, inputErrorf("%s: exclusion zone overlaps %s; merge them into one", e.Where, shortWhere(in.where[k+1], e.Where))
+						return nil, nil, nil, errorf("%s: exclusion zone overlaps %s; merge them into one", e.Where, shortWhere(in.where[k+1], e.Where))
 					case relAInB:
 						redundant = true
 					case relBInA:
@@ -167,7 +168,7 @@ func buildArea(polys []areaPoly) (orb.MultiPolygon, [][]string, []string, error)
 		names = append(names, in.where)
 	}
 	if len(mp) == 0 {
-		return nil, nil, nil, inputErrorf("%s: the exclusion zones cover the whole area; nothing is left to cover", polys[0].Where)
+		return nil, nil, nil, errorf("%s: the exclusion zones cover the whole area; nothing is left to cover", polys[0].Where)
 	}
 	return mp, names, warn, nil
 }
@@ -197,7 +198,7 @@ func regionError(err error, names [][]string) error {
 	if strings.Contains(msg, "touch") {
 		msg += "; merge polygons that share an edge, and keep exclusion zones off the boundary"
 	}
-	return inputErrorf("%s", msg)
+	return errorf("%s", msg)
 }
 
 // relate returns how ring a lies with respect to ring b (closed or open;
@@ -227,15 +228,16 @@ func relate(a, b orb.Ring) ringRelation {
 }
 
 // sides reports whether a has vertices strictly inside and strictly
-// outside b.
+// outside b (planar.PointInRing; a vertex on b counts as neither).
 func sides(a, b orb.Ring) (in, out bool) {
 	bb := b.Bound()
+	bxy := planar.FlatRing(b)
 	for _, p := range a {
 		if !bb.Contains(p) {
 			out = true
 			continue
 		}
-		switch pointInRing(p, b) {
+		switch planar.PointInRing(bxy, p[0], p[1]) {
 		case 1:
 			in = true
 		case -1:
@@ -248,33 +250,8 @@ func sides(a, b orb.Ring) (in, out bool) {
 	return
 }
 
-// pointInRing returns 1 when p is inside ring r, 0 on its boundary,
-// -1 outside (winding number with exact orientation tests).
-func pointInRing(p orb.Point, r orb.Ring) int {
-	wn := 0
-	for i := range r {
-		a, b := r[i], r[(i+1)%len(r)]
-		o := planar.Orient2D(a[0], a[1], b[0], b[1], p[0], p[1])
-		if o == 0 && min(a[0], b[0]) <= p[0] && p[0] <= max(a[0], b[0]) &&
-			min(a[1], b[1]) <= p[1] && p[1] <= max(a[1], b[1]) {
-			return 0
-		}
-		if a[1] <= p[1] {
-			if b[1] > p[1] && o > 0 {
-				wn++
-			}
-		} else if b[1] <= p[1] && o < 0 {
-			wn--
-		}
-	}
-	if wn != 0 {
-		return 1
-	}
-	return -1
-}
-
 // edgesCross reports whether an edge of a crosses an edge of b properly
-// (each strictly separates the other's endpoints).
+// (planar.SegmentsCross: each strictly separates the other's endpoints).
 func edgesCross(a, b orb.Ring) bool {
 	bb := b.Bound()
 	for i := range a {
@@ -289,14 +266,7 @@ func edgesCross(a, b orb.Ring) bool {
 				max(r[1], s[1]) < eb.Min[1] || min(r[1], s[1]) > eb.Max[1] {
 				continue
 			}
-			o1 := planar.Orient2D(p[0], p[1], q[0], q[1], r[0], r[1])
-			o2 := planar.Orient2D(p[0], p[1], q[0], q[1], s[0], s[1])
-			if o1 == 0 || o2 == 0 || (o1 > 0) == (o2 > 0) {
-				continue
-			}
-			o3 := planar.Orient2D(r[0], r[1], s[0], s[1], p[0], p[1])
-			o4 := planar.Orient2D(r[0], r[1], s[0], s[1], q[0], q[1])
-			if o3 != 0 && o4 != 0 && (o3 > 0) != (o4 > 0) {
+			if planar.SegmentsCross(p[0], p[1], q[0], q[1], r[0], r[1], s[0], s[1]) {
 				return true
 			}
 		}

@@ -19,7 +19,7 @@
 // in the local plane (exact to rounding; the choice only matters between
 // parts of different size).
 
-package main
+package siteinput
 
 import (
 	"bytes"
@@ -30,17 +30,19 @@ import (
 
 	"github.com/paulmach/orb"
 	"github.com/sitecover/sitecover/coverage"
+	"github.com/sitecover/sitecover/planar"
 )
 
-// pointItems are the items of a candidates or demand file, in file order.
-type pointItems struct {
-	// Pts holds one position per item: [lon, lat] degrees, or [x, y]
-	// metres with --planar, then local metres after projection. For a
-	// polygon item it is its representative point, set by finish.
+// Items are the items of a candidates or demand file, in file order; in a
+// Scene every coordinate is in local metres.
+type Items struct {
+	// Pts holds one position per item. For a polygon item it is the
+	// representative point of its largest part (coverage.RepresentativePoint).
 	Pts []orb.Point
 	// Names holds a name per item ("" for none).
 	Names []string
-	// Polys holds per item its polygon parts (nil for a point item).
+	// Polys holds per item its polygon parts, rings as given (nil for a
+	// point item).
 	Polys []orb.MultiPolygon
 	// Where names each item in messages ("feature 3", "line 7").
 	Where []string
@@ -54,16 +56,14 @@ type pointItems struct {
 type pointKind struct {
 	// what is the plural noun used in messages ("candidate spots").
 	what string
-	// flag is the flag the file was given to.
-	flag string
 	// polygons allows Polygon and MultiPolygon items; weights reads the
 	// weight property or column.
 	polygons, weights bool
 }
 
 var (
-	candidateKind = pointKind{what: "candidate spots", flag: "--candidates"}
-	demandKind    = pointKind{what: "demand points", flag: "--points", polygons: true, weights: true}
+	candidateKind = pointKind{what: "candidate spots"}
+	demandKind    = pointKind{what: "demand points", polygons: true, weights: true}
 )
 
 // expected is the geometry list of the messages.
@@ -74,13 +74,13 @@ func (k pointKind) expected() string {
 	return "Point or MultiPoint (" + k.what + " are points)"
 }
 
-// loadPoints reads a candidates or demand file.
-func loadPoints(src source, planarInput bool, kind pointKind) (*pointItems, error) {
+// loadItems reads a candidates or demand file.
+func loadItems(src Source, planarInput bool, kind pointKind) (*Items, error) {
 	f, err := detectFormat(src)
 	if err != nil {
 		return nil, err
 	}
-	var it *pointItems
+	var it *Items
 	if f == formatGeoJSON {
 		it, err = pointItemsFromGeoJSON(src, planarInput, kind)
 	} else {
@@ -88,7 +88,7 @@ func loadPoints(src source, planarInput bool, kind pointKind) (*pointItems, erro
 		var w []float64
 		s, w, err = pointsFromCSV(src, planarInput, kind.weights)
 		if err == nil {
-			it = &pointItems{Pts: s.Pts, Names: s.Names, Polys: make([]orb.MultiPolygon, len(s.Pts)), Weights: w}
+			it = &Items{Pts: s.Pts, Names: s.Names, Polys: make([]orb.MultiPolygon, len(s.Pts)), Weights: w}
 			it.Where = make([]string, len(s.Pts))
 			for i := range it.Where {
 				it.Where[i] = fmt.Sprintf("item %d", i)
@@ -106,23 +106,23 @@ func loadPoints(src source, planarInput bool, kind pointKind) (*pointItems, erro
 		if f == formatCSV {
 			what = "a header but no data lines"
 		}
-		return nil, inputErrorf("%s: no %s (%s)", src.name, kind.what, what)
+		return nil, errorf("%s: no %s (%s)", src.Name, kind.what, what)
 	}
 	return it, nil
 }
 
-func pointItemsFromGeoJSON(src source, planarInput bool, kind pointKind) (*pointItems, error) {
+func pointItemsFromGeoJSON(src Source, planarInput bool, kind pointKind) (*Items, error) {
 	feats, err := decodeGeoJSON(src)
 	if err != nil {
 		return nil, err
 	}
-	it := &pointItems{}
+	it := &Items{}
 	weighted := false
 	for i := range feats {
 		f := &feats[i]
 		where := fmt.Sprintf("feature %d", i)
 		if f.Geometry == nil {
-			return nil, inputErrorf("%s %s: no geometry (null), expected %s", src.name, where, kind.expected())
+			return nil, errorf("%s %s: no geometry (null), expected %s", src.Name, where, kind.expected())
 		}
 		props := featureProps(f)
 		name := featureName(props, f.ID)
@@ -130,7 +130,7 @@ func pointItemsFromGeoJSON(src source, planarInput bool, kind pointKind) (*point
 		if kind.weights {
 			var ok bool
 			if w, ok, err = jsonWeight(props.Weight); err != nil {
-				return nil, inputErrorf("%s %s: %v", src.name, where, err)
+				return nil, errorf("%s %s: %v", src.Name, where, err)
 			}
 			weighted = weighted || ok
 		}
@@ -148,7 +148,7 @@ func pointItemsFromGeoJSON(src source, planarInput bool, kind pointKind) (*point
 	return it, nil
 }
 
-func (it *pointItems) add(p orb.Point, name, where string, poly orb.MultiPolygon) {
+func (it *Items) add(p orb.Point, name, where string, poly orb.MultiPolygon) {
 	it.Pts = append(it.Pts, p)
 	it.Names = append(it.Names, name)
 	it.Polys = append(it.Polys, poly)
@@ -158,7 +158,7 @@ func (it *pointItems) add(p orb.Point, name, where string, poly orb.MultiPolygon
 	}
 }
 
-func (it *pointItems) addGeometry(src source, where string, g *gjGeometry, name string, planarInput bool, kind pointKind) error {
+func (it *Items) addGeometry(src Source, where string, g *gjGeometry, name string, planarInput bool, kind pointKind) error {
 	switch g.Type {
 	case "Point", "MultiPoint":
 		if g.Type == "Point" {
@@ -174,7 +174,7 @@ func (it *pointItems) addGeometry(src source, where string, g *gjGeometry, name 
 		if !kind.polygons {
 			break
 		}
-		polys, err := polygonsOf(src.name+" "+where, g, planarInput)
+		polys, err := polygonsOf(src.Name+" "+where, g, planarInput)
 		if err != nil {
 			return err
 		}
@@ -193,14 +193,14 @@ func (it *pointItems) addGeometry(src source, where string, g *gjGeometry, name 
 		}
 		return nil
 	case "":
-		return inputErrorf("%s %s: geometry has no \"type\"", src.name, where)
+		return errorf("%s %s: geometry has no \"type\"", src.Name, where)
 	}
-	return inputErrorf("%s %s: geometry type %s, expected %s", src.name, where, g.Type, kind.expected())
+	return errorf("%s %s: geometry type %s, expected %s", src.Name, where, g.Type, kind.expected())
 }
 
 // allVertices returns every input position of the items (points and
 // polygon vertices), for fitting the local plane.
-func (it *pointItems) allVertices() []orb.Point {
+func (it *Items) allVertices() []orb.Point {
 	var out []orb.Point
 	for i, p := range it.Pts {
 		if it.Polys[i] == nil {
@@ -217,7 +217,7 @@ func (it *pointItems) allVertices() []orb.Point {
 }
 
 // transform maps every position and vertex in place.
-func (it *pointItems) transform(f func(x, y float64) (float64, float64)) {
+func (it *Items) transform(f func(x, y float64) (float64, float64)) {
 	for i, p := range it.Pts {
 		if it.Polys[i] == nil {
 			x, y := f(p[0], p[1])
@@ -237,7 +237,7 @@ func (it *pointItems) transform(f func(x, y float64) (float64, float64)) {
 
 // finish sets the position of every polygon item to the representative
 // point of its largest part (in the local plane).
-func (it *pointItems) finish(file string) error {
+func (it *Items) finish(file string) error {
 	for i, mp := range it.Polys {
 		if mp == nil {
 			continue
@@ -254,7 +254,7 @@ func (it *pointItems) finish(file string) error {
 			if len(mp) > 1 {
 				part = fmt.Sprintf(" polygon %d", best)
 			}
-			return inputErrorf("%s %s%s: %s: not a usable building outline", file, it.Where[i], part, strings.TrimPrefix(err.Error(), "coverage: "))
+			return errorf("%s %s%s: %s: not a usable building outline", file, it.Where[i], part, strings.TrimPrefix(err.Error(), "coverage: "))
 		}
 		it.Pts[i] = p
 	}
@@ -265,7 +265,7 @@ func (it *pointItems) finish(file string) error {
 func polygonArea(p orb.Polygon) float64 {
 	a := 0.0
 	for k, r := range p {
-		ra := math.Abs(ringArea(r))
+		ra := math.Abs(planar.RingArea(planar.FlatRing(r)))
 		if k == 0 {
 			a += ra
 		} else {
@@ -273,20 +273,6 @@ func polygonArea(p orb.Polygon) float64 {
 		}
 	}
 	return a
-}
-
-// ringArea is the signed shoelace area of a ring (closed or open),
-// relative to its first vertex.
-func ringArea(r orb.Ring) float64 {
-	if len(r) < 3 {
-		return 0
-	}
-	x0, y0 := r[0][0], r[0][1]
-	a := 0.0
-	for i := 1; i+1 < len(r); i++ {
-		a += (r[i][0]-x0)*(r[i+1][1]-y0) - (r[i+1][0]-x0)*(r[i][1]-y0)
-	}
-	return a / 2
 }
 
 // jsonWeight decodes the "weight" property: absent or null gives 1 and

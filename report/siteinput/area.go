@@ -13,7 +13,7 @@
 // scene.go), where the exclusion zones become holes of the polygon that
 // contains them.
 
-package main
+package siteinput
 
 import (
 	"encoding/json"
@@ -38,13 +38,13 @@ type areaPoly struct {
 
 // loadArea reads the polygons of src. With excludeAll every polygon is an
 // exclusion zone (the --exclude file).
-func loadArea(src source, planarInput, excludeAll bool) ([]areaPoly, error) {
+func loadArea(src Source, planarInput, excludeAll bool) ([]areaPoly, error) {
 	f, err := detectFormat(src)
 	if err != nil {
 		return nil, err
 	}
 	if f != formatGeoJSON {
-		return nil, inputErrorf("%s: an area must be GeoJSON with Polygon or MultiPolygon features (CSV holds points only)", src.name)
+		return nil, errorf("%s: an area must be GeoJSON with Polygon or MultiPolygon features (CSV holds points only)", src.Name)
 	}
 	feats, err := decodeGeoJSON(src)
 	if err != nil {
@@ -53,16 +53,16 @@ func loadArea(src source, planarInput, excludeAll bool) ([]areaPoly, error) {
 	var out []areaPoly
 	for i := range feats {
 		ft := &feats[i]
-		where := fmt.Sprintf("%s feature %d", src.name, i)
+		where := fmt.Sprintf("%s feature %d", src.Name, i)
 		if ft.Geometry == nil {
-			return nil, inputErrorf("%s: no geometry (null), expected Polygon or MultiPolygon", where)
+			return nil, errorf("%s: no geometry (null), expected Polygon or MultiPolygon", where)
 		}
 		props := featureProps(ft)
 		exclude := excludeAll
 		if raw := props.Exclude; raw != nil {
 			var b *bool
 			if json.Unmarshal(raw, &b) != nil {
-				return nil, inputErrorf("%s: property \"exclude\" must be true or false, got %s", where, strings.TrimSpace(string(raw)))
+				return nil, errorf("%s: property \"exclude\" must be true or false, got %s", where, strings.TrimSpace(string(raw)))
 			}
 			if b != nil && *b {
 				exclude = true
@@ -80,7 +80,7 @@ func loadArea(src source, planarInput, excludeAll bool) ([]areaPoly, error) {
 		out = append(out, polys...)
 	}
 	if len(out) == 0 {
-		return nil, inputErrorf("%s: no Polygon or MultiPolygon features", src.name)
+		return nil, errorf("%s: no Polygon or MultiPolygon features", src.Name)
 	}
 	return out, nil
 }
@@ -91,7 +91,7 @@ func polygonsOf(where string, g *gjGeometry, planarInput bool) ([]areaPoly, erro
 	case "Polygon":
 		var rings [][][]float64
 		if err := decodeCoords(g.Coordinates, &rings); err != nil {
-			return nil, inputErrorf("%s: Polygon coordinates: %v", where, err)
+			return nil, errorf("%s: Polygon coordinates: %v", where, err)
 		}
 		p, err := polygonRings(where, rings, planarInput)
 		if err != nil {
@@ -101,7 +101,7 @@ func polygonsOf(where string, g *gjGeometry, planarInput bool) ([]areaPoly, erro
 	case "MultiPolygon":
 		var polys [][][][]float64
 		if err := decodeCoords(g.Coordinates, &polys); err != nil {
-			return nil, inputErrorf("%s: MultiPolygon coordinates: %v", where, err)
+			return nil, errorf("%s: MultiPolygon coordinates: %v", where, err)
 		}
 		out := make([]areaPoly, 0, len(polys))
 		for k, rings := range polys {
@@ -124,9 +124,9 @@ func polygonsOf(where string, g *gjGeometry, planarInput bool) ([]areaPoly, erro
 		}
 		return out, nil
 	case "":
-		return nil, inputErrorf("%s: geometry has no \"type\"", where)
+		return nil, errorf("%s: geometry has no \"type\"", where)
 	default:
-		return nil, inputErrorf("%s: geometry type %s, expected Polygon or MultiPolygon (an area is polygons)", where, g.Type)
+		return nil, errorf("%s: geometry type %s, expected Polygon or MultiPolygon (an area is polygons)", where, g.Type)
 	}
 }
 
@@ -135,7 +135,7 @@ func polygonsOf(where string, g *gjGeometry, planarInput bool) ([]areaPoly, erro
 // coordinates and their number of distinct vertices are checked here.
 func polygonRings(where string, rings [][][]float64, planarInput bool) ([]orb.Ring, error) {
 	if len(rings) == 0 {
-		return nil, inputErrorf("%s: polygon has no rings", where)
+		return nil, errorf("%s: polygon has no rings", where)
 	}
 	out := make([]orb.Ring, 0, len(rings))
 	for k, r := range rings {
@@ -146,7 +146,7 @@ func polygonRings(where string, rings [][][]float64, planarInput bool) ([]orb.Ri
 				problem = coordProblem(planarInput, x, y)
 			}
 			if problem != "" {
-				return nil, inputErrorf("%s ring %d vertex %d: %s", where, k, v, problem)
+				return nil, errorf("%s ring %d vertex %d: %s", where, k, v, problem)
 			}
 			ring = append(ring, orb.Point{x, y})
 		}
@@ -160,7 +160,7 @@ func polygonRings(where string, rings [][][]float64, planarInput bool) ([]orb.Ri
 			distinct-- // the closing repeat
 		}
 		if distinct < 3 {
-			return nil, inputErrorf("%s ring %d: %d distinct vertices, a ring needs at least 3", where, k, distinct)
+			return nil, errorf("%s ring %d: %d distinct vertices, a ring needs at least 3", where, k, distinct)
 		}
 		out = append(out, ring)
 	}

@@ -1,95 +1,29 @@
-// Reading input files and decoding GeoJSON (RFC 7946).
+// Decoding GeoJSON (RFC 7946) and checking coordinates.
 //
 // A GeoJSON input may be a FeatureCollection, a single Feature or a bare
 // geometry; GeometryCollections are walked member by member. Positions are
 // [x, y] or [x, y, z] arrays of JSON numbers (z is ignored): with
 // geographic input x is the longitude and y the latitude in WGS84 degrees
-// (RFC 7946 §3.1.1), with --planar they are local metres. Every error names
+// (RFC 7946 §3.1.1), with planar input (--planar) they are local metres. Every error names
 // the file and, where it applies, the feature index (0-based, the order in
 // the file), the ring and vertex, or the JSON line.
 //
 // JSON has no NaN or infinity literal, so a non-finite coordinate in a
 // GeoJSON file is a JSON syntax error, reported with its line.
 
-package main
+package siteinput
 
 import (
 	"bytes"
 	"encoding/json"
 	"errors"
 	"fmt"
-	"io/fs"
 	"math"
-	"os"
-	"path/filepath"
 	"strconv"
 	"strings"
+
+	"github.com/sitecover/sitecover/planar"
 )
-
-// source is the bytes of one input with the name used in messages.
-type source struct {
-	// name is the path as given (or a label for embedded data).
-	name string
-	// path is the file path for overwrite protection ("" when embedded).
-	path string
-	data []byte
-}
-
-// readSource reads the file given to flag (e.g. "--sites").
-func readSource(path, flag string) (source, error) {
-	fi, err := os.Stat(path)
-	switch {
-	case errors.Is(err, fs.ErrNotExist):
-		return source{}, inputErrorf("%s: no such file (given to %s)", path, flag)
-	case err != nil:
-		return source{}, inputErrorf("%s: cannot read: %v", path, unwrapPathErr(err))
-	case fi.IsDir():
-		return source{}, inputErrorf("%s: is a folder, not a file (given to %s)", path, flag)
-	}
-	b, err := os.ReadFile(path)
-	if err != nil {
-		return source{}, inputErrorf("%s: cannot read: %v", path, unwrapPathErr(err))
-	}
-	b = bytes.TrimPrefix(b, []byte("\xef\xbb\xbf")) // UTF-8 byte order mark
-	if len(bytes.TrimSpace(b)) == 0 {
-		return source{}, inputErrorf("%s: file is empty", path)
-	}
-	return source{name: path, path: path, data: b}, nil
-}
-
-func unwrapPathErr(err error) error {
-	var pe *fs.PathError
-	if errors.As(err, &pe) {
-		return pe.Err
-	}
-	return err
-}
-
-// inputFormat is how a file is to be read.
-type inputFormat int
-
-const (
-	formatGeoJSON inputFormat = iota
-	formatCSV
-)
-
-// detectFormat decides GeoJSON or CSV from the extension, or else from the
-// content (JSON starts with '{').
-func detectFormat(src source) (inputFormat, error) {
-	switch strings.ToLower(filepath.Ext(src.name)) {
-	case ".geojson", ".json":
-		return formatGeoJSON, nil
-	case ".csv", ".tsv":
-		return formatCSV, nil
-	}
-	if bytes.IndexByte(src.data[:min(len(src.data), 4096)], 0) >= 0 {
-		return 0, inputErrorf("%s: not GeoJSON or CSV (binary data)", src.name)
-	}
-	if t := bytes.TrimSpace(src.data); t[0] == '{' || t[0] == '[' {
-		return formatGeoJSON, nil
-	}
-	return formatCSV, nil
-}
 
 // gjGeometry is a GeoJSON geometry object with its coordinates undecoded.
 type gjGeometry struct {
@@ -129,21 +63,16 @@ type gjDoc struct {
 }
 
 // decodeGeoJSON parses src and returns its features in file order.
-func decodeGeoJSON(src source) ([]gjFeature, error) {
-	d, ok := scanGeoJSON(src.data)
-	if !ok {
-		// Anything the scanner declines, errors included, is decoded by
-		// encoding/json, whose messages name the line.
-		d = gjDoc{}
-		if err := json.Unmarshal(src.data, &d); err != nil {
-			return nil, jsonError(src, err)
-		}
+func decodeGeoJSON(src Source) ([]gjFeature, error) {
+	var d gjDoc
+	if err := json.Unmarshal(src.Data, &d); err != nil {
+		return nil, jsonError(src, err)
 	}
 	switch d.Type {
 	case "FeatureCollection":
 		for i, f := range d.Features {
 			if f.Type != "Feature" {
-				return nil, inputErrorf("%s feature %d: type %q, expected \"Feature\"", src.name, i, f.Type)
+				return nil, errorf("%s feature %d: type %q, expected \"Feature\"", src.Name, i, f.Type)
 			}
 		}
 		return d.Features, nil
@@ -153,19 +82,19 @@ func decodeGeoJSON(src source) ([]gjFeature, error) {
 		g := &gjGeometry{Type: d.Type, Coordinates: d.Coordinates, Geometries: d.Geometries}
 		return []gjFeature{{Type: "Feature", Geometry: g}}, nil
 	case "":
-		return nil, inputErrorf("%s: not GeoJSON (the top-level object has no \"type\")", src.name)
+		return nil, errorf("%s: not GeoJSON (the top-level object has no \"type\")", src.Name)
 	default:
-		return nil, inputErrorf("%s: not GeoJSON (unknown type %q)", src.name, d.Type)
+		return nil, errorf("%s: not GeoJSON (unknown type %q)", src.Name, d.Type)
 	}
 }
 
 // jsonError turns an encoding/json error into a message with a line.
-func jsonError(src source, err error) error {
+func jsonError(src Source, err error) error {
 	var se *json.SyntaxError
 	var te *json.UnmarshalTypeError
 	switch {
 	case errors.As(err, &se):
-		return inputErrorf("%s line %d: not valid JSON: %v", src.name, lineAt(src.data, se.Offset), se)
+		return errorf("%s line %d: not valid JSON: %v", src.Name, lineAt(src.Data, se.Offset), se)
 	case errors.As(err, &te):
 		what := te.Field
 		if what == "" {
@@ -175,13 +104,13 @@ func jsonError(src source, err error) error {
 		}
 		if te.Value == "number" || strings.HasPrefix(te.Value, "number ") {
 			if te.Type.Kind().String() == "float64" {
-				return inputErrorf("%s line %d: %s is not a finite float64 number", src.name, lineAt(src.data, te.Offset), te.Value)
+				return errorf("%s line %d: %s is not a finite float64 number", src.Name, lineAt(src.Data, te.Offset), te.Value)
 			}
 		}
-		return inputErrorf("%s line %d: not GeoJSON: %s is a JSON %s, expected %s", src.name,
-			lineAt(src.data, te.Offset), what, te.Value, jsonKind(te.Type.Kind().String()))
+		return errorf("%s line %d: not GeoJSON: %s is a JSON %s, expected %s", src.Name,
+			lineAt(src.Data, te.Offset), what, te.Value, jsonKind(te.Type.Kind().String()))
 	default:
-		return inputErrorf("%s: not valid JSON: %v", src.name, err)
+		return errorf("%s: not valid JSON: %v", src.Name, err)
 	}
 }
 
@@ -296,7 +225,7 @@ func coordProblem(planarInput bool, x, y float64) string {
 	if y < -90 || y > 90 {
 		return fmt.Sprintf("latitude %s is outside -90..90%s", fmtCoord(y), hint)
 	}
-	if err := validLonLat(x, y); err != nil {
+	if err := planar.ValidLonLat(x, y); err != nil {
 		return err.Error()
 	}
 	return ""

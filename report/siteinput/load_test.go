@@ -1,7 +1,7 @@
 // Unit tests of the input readers: CSV header variants and delimiters,
 // GeoJSON object forms and names, area rings and exclusion flags.
 
-package main
+package siteinput
 
 import (
 	"strings"
@@ -10,7 +10,7 @@ import (
 	"github.com/paulmach/orb"
 )
 
-func src(name, data string) source { return source{name: name, data: []byte(data)} }
+func src(name, data string) Source { return Source{Name: name, Data: []byte(data)} }
 
 func TestCSVHeaderVariants(t *testing.T) {
 	// Column names are matched case-insensitively (issue 4 lists lat,
@@ -37,26 +37,28 @@ func TestCSVHeaderVariants(t *testing.T) {
 		{"lat/lon and x/y: planar uses x/y", "lat,lon,x,y\n1,2,300,400\n", true, []orb.Point{{300, 400}}, []string{""}},
 	}
 	for _, c := range cases {
-		s, err := loadSites(src("s.csv", c.data), c.planar)
-		checkSites(t, c.name, s, err, c.want, c.names)
+		t.Run(c.name, func(t *testing.T) {
+			s, err := loadSites(src("s.csv", c.data), c.planar)
+			checkSites(t, s, err, c.want, c.names)
+		})
 	}
 }
 
-// checkSites checks loaded sites (named case) against the wanted positions
-// and names, in order.
-func checkSites(t *testing.T, name string, s *siteSet, err error, want []orb.Point, names []string) {
+// checkSites checks loaded sites against the wanted positions and names,
+// in order.
+func checkSites(t *testing.T, s *siteSet, err error, want []orb.Point, names []string) {
 	t.Helper()
 	if err != nil {
-		t.Errorf("%s: %v", name, err)
+		t.Error(err)
 		return
 	}
 	if len(s.Pts) != len(want) {
-		t.Errorf("%s: %d sites, want %d", name, len(s.Pts), len(want))
+		t.Errorf("%d sites, want %d", len(s.Pts), len(want))
 		return
 	}
 	for i := range want {
 		if s.Pts[i] != want[i] || s.Names[i] != names[i] {
-			t.Errorf("%s: site %d = %v %q, want %v %q", name, i, s.Pts[i], s.Names[i], want[i], names[i])
+			t.Errorf("site %d = %v %q, want %v %q", i, s.Pts[i], s.Names[i], want[i], names[i])
 		}
 	}
 }
@@ -80,21 +82,33 @@ func TestGeoJSONSiteForms(t *testing.T) {
 			[]orb.Point{{1, 1}, {2, 2}}, []string{"", ""}},
 	}
 	for _, c := range cases {
-		s, err := loadSites(src("s.geojson", c.data), false)
-		checkSites(t, c.name, s, err, c.want, c.names)
+		t.Run(c.name, func(t *testing.T) {
+			s, err := loadSites(src("s.geojson", c.data), false)
+			checkSites(t, s, err, c.want, c.names)
+		})
 	}
 }
 
 func TestFormatSniffing(t *testing.T) {
 	// No telling extension: JSON starts with '{', anything else is CSV.
-	if s, err := loadSites(src("sites.txt", "lat,lon\n1,2\n"), false); err != nil || len(s.Pts) != 1 {
-		t.Errorf("CSV without .csv: %v", err)
+	cases := []struct {
+		name, file, data string
+		wantErr          string // "" for a file read as one site
+	}{
+		{"CSV without .csv", "sites.txt", "lat,lon\n1,2\n", ""},
+		{"GeoJSON without extension", "sites", `{"type":"Point","coordinates":[1,2]}`, ""},
+		{"binary", "sites.dat", "\x89PNG\r\n\x1a\n\x00\x00", "not GeoJSON or CSV"},
 	}
-	if s, err := loadSites(src("sites", `{"type":"Point","coordinates":[1,2]}`), false); err != nil || len(s.Pts) != 1 {
-		t.Errorf("GeoJSON without extension: %v", err)
-	}
-	if _, err := loadSites(src("sites.dat", "\x89PNG\r\n\x1a\n\x00\x00"), false); err == nil || !strings.Contains(err.Error(), "not GeoJSON or CSV") {
-		t.Errorf("binary: %v", err)
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			s, err := loadSites(src(c.file, c.data), false)
+			switch {
+			case c.wantErr == "" && (err != nil || len(s.Pts) != 1):
+				t.Errorf("got %v, want one site", err)
+			case c.wantErr != "" && (err == nil || !strings.Contains(err.Error(), c.wantErr)):
+				t.Errorf("error %v, want one containing %q", err, c.wantErr)
+			}
+		})
 	}
 }
 
@@ -150,25 +164,10 @@ func TestRelate(t *testing.T) {
 		{"same ring", sq(0, 0, 3), sq(0, 0, 3), relCross},
 	}
 	for _, c := range cases {
-		if got := relate(c.a, c.b); got != c.want {
-			t.Errorf("%s: relate = %d, want %d", c.name, got, c.want)
-		}
-	}
-}
-
-func TestConvexHull(t *testing.T) {
-	pts := []orb.Point{{0, 0}, {2, 0}, {1, 1}, {2, 2}, {0, 2}, {1, 0}, {0, 0}, {1, 2}}
-	h := convexHull(pts)
-	want := orb.Ring{{0, 0}, {2, 0}, {2, 2}, {0, 2}}
-	if len(h) != len(want) {
-		t.Fatalf("hull %v", h)
-	}
-	for i := range want {
-		if h[i] != want[i] {
-			t.Fatalf("hull %v, want %v", h, want)
-		}
-	}
-	if h := convexHull([]orb.Point{{0, 0}, {1, 1}, {2, 2}}); h != nil {
-		t.Errorf("collinear hull %v", h)
+		t.Run(c.name, func(t *testing.T) {
+			if got := relate(c.a, c.b); got != c.want {
+				t.Errorf("relate = %d, want %d", got, c.want)
+			}
+		})
 	}
 }

@@ -1,0 +1,326 @@
+// From input files to a scene in the local plane: sites in metres, the site
+// area as a planar.Region, the planning inputs, warnings and a title.
+//
+// Geographic input is projected with planar.NewLocalPlane, a WGS84
+// transverse Mercator (Krüger series, Karney 2011) centred on the bounding
+// box of the sites AND the area, k₀ = 1. The largest point-scale error
+// |k − 1| over that box is measured (TransverseMercator.MaxScaleError) and
+// must not exceed planar.MaxLocalScaleError = 0.1%: lengths in the plane
+// are then true to 0.1% and areas to 0.2% at worst (both are far smaller
+// for a site of a few km: |k − 1| ≈ x²/2R² is 1.2e-8 at 1 km from the
+// central meridian). Larger extents are refused (planar.CheckExtent).
+//
+// With no area the site area is the convex hull of the sites
+// (planar.ConvexHull: exact, collinear hull vertices dropped).
+
+package siteinput
+
+import (
+	"fmt"
+	"math"
+	"path/filepath"
+	"strings"
+	"time"
+
+	"github.com/paulmach/orb"
+	"github.com/sitecover/sitecover/coverage"
+	"github.com/sitecover/sitecover/planar"
+)
+
+// Inputs names the inputs of a run. Every input shares one coordinate kind:
+// WGS84 longitude/latitude degrees, or local metres when Planar is true.
+type Inputs struct {
+	// Sites holds the device sites (GeoJSON Point/MultiPoint, or CSV).
+	Sites Source
+	// Area holds the site area (GeoJSON Polygon/MultiPolygon); nil: the
+	// convex hull of the sites.
+	Area *Source
+	// Exclude holds zones that need no coverage: every polygon in it is
+	// cut out of the area, whatever its "exclude" property. It needs Area.
+	Exclude *Source
+	// Candidates holds candidate mounting spots (points); nil when none.
+	Candidates *Source
+	// Points holds demand points or polygons, optionally weighted; nil
+	// when none.
+	Points *Source
+	// Planar is true when the coordinates are local metres (x, y), not
+	// longitude/latitude.
+	Planar bool
+}
+
+// Scene is the inputs in the local plane, ready for package coverage.
+type Scene struct {
+	// Sites holds the site positions in local metres, in input order: the
+	// index of a site here is its input index (0-based order in the file;
+	// a MultiPoint gives one site per position). Exact repeats are kept.
+	Sites []orb.Point
+	// Names holds a name per site ("" for none), by input index.
+	Names []string
+	// Region is the site area with its holes (zones that need no
+	// coverage).
+	Region *planar.Region
+	// AreaFromHull is true when no area was given and Region is the convex
+	// hull of the sites.
+	AreaFromHull bool
+	// Projection maps longitude/latitude to the local plane
+	// (Projection.Forward) and back (Projection.Inverse); nil for planar
+	// input.
+	Projection *planar.TransverseMercator
+	// MaxScaleError is the largest point-scale error |k − 1| of Projection
+	// over the inputs' bounding box (0 for planar input).
+	MaxScaleError float64
+	// Candidates and Demand are the planning inputs in local metres (nil
+	// when not given).
+	Candidates, Demand *Items
+	// Title is the name of the first area polygon to cover that has one,
+	// else the sites file's base name without its extension.
+	Title string
+	// Warnings are problems that do not stop a run: sites outside the
+	// area, repeated sites, exclusion zones that were ignored or dropped.
+	Warnings []string
+	// Timings holds the wall time of reading, projecting and building the
+	// area.
+	Timings []coverage.Timing
+}
+
+// Load reads, checks and projects the inputs. Every problem with the data
+// is an *Error naming the file and the place in it.
+func Load(in Inputs) (*Scene, error) {
+	t0 := time.Now()
+	sites, err := loadSites(in.Sites, in.Planar)
+	if err != nil {
+		return nil, err
+	}
+	var polys []areaPoly
+	if in.Area != nil {
+		p, err := loadArea(*in.Area, in.Planar, false)
+		if err != nil {
+			return nil, err
+		}
+		polys = append(polys, p...)
+	}
+	if in.Exclude != nil {
+		p, err := loadArea(*in.Exclude, in.Planar, true)
+		if err != nil {
+			return nil, err
+		}
+		if in.Area == nil {
+			return nil, errorf("--exclude needs --area: exclusion zones are cut out of a given area")
+		}
+		polys = append(polys, p...)
+	}
+	sc := &Scene{Names: sites.Names}
+	if in.Candidates != nil {
+		if sc.Candidates, err = loadItems(*in.Candidates, in.Planar, candidateKind); err != nil {
+			return nil, err
+		}
+	}
+	if in.Points != nil {
+		if sc.Demand, err = loadItems(*in.Points, in.Planar, demandKind); err != nil {
+			return nil, err
+		}
+	}
+	sc.Title = defaultTitle(in, polys)
+	sc.Timings = append(sc.Timings, coverage.Timing{Phase: "read inputs", Seconds: time.Since(t0).Seconds()})
+
+	t1 := time.Now()
+	sc.Sites = sites.Pts
+	if !in.Planar {
+		if err := sc.project(in, sites, polys); err != nil {
+			return nil, err
+		}
+		sc.Timings = append(sc.Timings, coverage.Timing{Phase: "project", Seconds: time.Since(t1).Seconds()})
+	}
+	if sc.Demand != nil {
+		if err := sc.Demand.finish(in.Points.Name); err != nil {
+			return nil, err
+		}
+	}
+
+	t2 := time.Now()
+	var mp orb.MultiPolygon
+	var names [][]string
+	if len(polys) == 0 {
+		hull := planar.ConvexHull(sc.Sites)
+		if len(hull) < 3 {
+			return nil, errorf("%s: the sites are all on one line (or fewer than 3 distinct), so they enclose no area: give the site area with --area", in.Sites.Name)
+		}
+		mp = orb.MultiPolygon{{hull}}
+		names = [][]string{{in.Sites.Name + ": convex hull of the sites"}}
+		sc.AreaFromHull = true
+	} else {
+		var warn []string
+		mp, names, warn, err = buildArea(polys)
+		if err != nil {
+			return nil, err
+		}
+		sc.Warnings = append(sc.Warnings, warn...)
+	}
+	region, err := planar.NewRegion(mp)
+	if err != nil {
+		return nil, regionError(err, names)
+	}
+	sc.Region = region
+	sc.Warnings = append(sc.Warnings, siteWarnings(sc.Sites, sites.Names, region)...)
+	sc.Timings = append(sc.Timings, coverage.Timing{Phase: "build area", Seconds: time.Since(t2).Seconds()})
+	return sc, nil
+}
+
+// project fits the local plane to every input, checks its scale error and
+// replaces all coordinates by plane metres.
+func (sc *Scene) project(in Inputs, sites *siteSet, polys []areaPoly) error {
+	all := make([]orb.Point, 0, len(sites.Pts)+64)
+	all = append(all, sites.Pts...)
+	for _, p := range polys {
+		for _, r := range p.Rings {
+			all = append(all, r...)
+		}
+	}
+	files := in.Sites.Name
+	if in.Area != nil {
+		files += ", " + in.Area.Name
+	}
+	if in.Exclude != nil {
+		files += ", " + in.Exclude.Name
+	}
+	for _, extra := range []struct {
+		it  *Items
+		src *Source
+	}{{sc.Candidates, in.Candidates}, {sc.Demand, in.Points}} {
+		if extra.it != nil {
+			all = append(all, extra.it.allVertices()...)
+			files += ", " + extra.src.Name
+		}
+	}
+	b, err := planar.LonLatBound(all)
+	if err != nil {
+		return errorf("%s: %v", files, err)
+	}
+	tm, err := planar.NewLocalPlane(all)
+	if err != nil {
+		return errorf("%s: %v", files, err)
+	}
+	if err := tm.CheckExtent(b); err != nil {
+		return errorf("%s: %s", files, extentMessage(tm, b))
+	}
+	sc.MaxScaleError = tm.MaxScaleError(b)
+	sc.Projection = tm
+	pts := make([]orb.Point, len(sites.Pts))
+	for i, p := range sites.Pts {
+		x, y := tm.Forward(p[0], p[1])
+		pts[i] = orb.Point{x, y}
+	}
+	sc.Sites = pts
+	for _, p := range polys {
+		for _, r := range p.Rings {
+			for k, q := range r {
+				x, y := tm.Forward(q[0], q[1])
+				r[k] = orb.Point{x, y}
+			}
+		}
+	}
+	for _, it := range []*Items{sc.Candidates, sc.Demand} {
+		if it != nil {
+			it.transform(tm.Forward)
+		}
+	}
+	return nil
+}
+
+// meanRadiusKm is the IUGG mean Earth radius R₁ (Moritz, "Geodetic
+// Reference System 1980", Bulletin Géodésique 1980), used only to state an
+// extent in km in a message.
+const meanRadiusKm = 6371.0088
+
+// extentMessage says why an extent is refused, in the form
+// "area too large for one local plane: scale error 0.23% over 410 km ×
+// 380 km; split the site".
+func extentMessage(tm *planar.TransverseMercator, b orb.Bound) string {
+	m := tm.MaxScaleError(b)
+	w := b.Max[0] - b.Min[0]
+	if w < 0 {
+		w += 360 // across the antimeridian (planar.LonLatBound)
+	}
+	h := b.Max[1] - b.Min[1]
+	latNear := 0.0 // the parallel nearest the equator is the widest
+	if b.Min[1] > 0 {
+		latNear = b.Min[1]
+	} else if b.Max[1] < 0 {
+		latNear = b.Max[1]
+	}
+	ew := w * math.Pi / 180 * meanRadiusKm * math.Cos(latNear*math.Pi/180)
+	ns := h * math.Pi / 180 * meanRadiusKm
+	scale := "unbounded (the extent reaches 90° from the central meridian)"
+	if !math.IsInf(m, 0) {
+		scale = fmt.Sprintf("%.2g%%", 100*m)
+	}
+	return fmt.Sprintf("area too large for one local plane: scale error %s over %.0f km × %.0f km (limit %.1f%%); split the site",
+		scale, ew, ns, 100*planar.MaxLocalScaleError)
+}
+
+// defaultTitle is the area's first name, else the sites file's base name.
+func defaultTitle(in Inputs, polys []areaPoly) string {
+	for _, p := range polys {
+		if !p.Exclude && p.Name != "" {
+			return p.Name
+		}
+	}
+	base := filepath.Base(in.Sites.Name)
+	return strings.TrimSuffix(base, filepath.Ext(base))
+}
+
+// siteWarnings reports sites outside the area (they still serve it) and
+// sites at exactly the position of an earlier one (they share its service
+// area), listing up to five of each.
+func siteWarnings(sites []orb.Point, names []string, region *planar.Region) []string {
+	label := func(i int) string {
+		if i < len(names) && names[i] != "" {
+			return fmt.Sprintf("#%d %s", i, names[i])
+		}
+		return fmt.Sprintf("#%d", i)
+	}
+	list := func(idx []string, total int) string {
+		s := strings.Join(idx, ", ")
+		if total > len(idx) {
+			s += fmt.Sprintf(" and %d more", total-len(idx))
+		}
+		return s
+	}
+	var warn []string
+	ix := region.Index()
+	var outside []string
+	nOut := 0
+	for i, p := range sites {
+		if !ix.Contains(p[0], p[1]) {
+			nOut++
+			if len(outside) < 5 {
+				outside = append(outside, label(i))
+			}
+		}
+	}
+	if nOut > 0 {
+		warn = append(warn, fmt.Sprintf("%d of %d sites lie outside the area (their disks still count where they reach in): %s",
+			nOut, len(sites), list(outside, nOut)))
+	}
+	first := make(map[orb.Point]int, len(sites))
+	var dups []string
+	nDup := 0
+	for i, p := range sites {
+		if j, ok := first[p]; ok {
+			nDup++
+			if len(dups) < 5 {
+				dups = append(dups, fmt.Sprintf("%s = %s", label(i), label(j)))
+			}
+			continue
+		}
+		first[p] = i
+	}
+	if nDup > 0 {
+		what := "sites repeat the exact position of an earlier site and share its service area"
+		if nDup == 1 {
+			what = "site repeats the exact position of an earlier site and shares its service area"
+		}
+		warn = append(warn, fmt.Sprintf("%d %s: %s", nDup, what, list(dups, nDup)))
+	}
+	return warn
+}

@@ -1,0 +1,104 @@
+// Input files: reading one, telling GeoJSON from CSV, and the error type
+// every bad input is reported with.
+
+package siteinput
+
+import (
+	"bytes"
+	"errors"
+	"fmt"
+	"io/fs"
+	"os"
+	"path/filepath"
+	"strings"
+)
+
+// Source is the bytes of one input with the name its messages use.
+type Source struct {
+	// Name is the path as given, or a label for embedded data; every
+	// message about this input starts with it.
+	Name string
+	// Data is the file's content, without a UTF-8 byte order mark.
+	Data []byte
+}
+
+// Error is a problem with the input data: a file that is missing,
+// unreadable or malformed, a coordinate out of range, an area that cannot
+// be assembled or is too large for one local plane. Its message names the
+// file and, where it applies, the feature, polygon, ring and vertex
+// (0-based) or the line (1-based), and says what is wrong.
+type Error struct {
+	msg string
+}
+
+// Error returns the message.
+func (e *Error) Error() string { return e.msg }
+
+// errorf returns an *Error with the formatted message.
+func errorf(format string, args ...any) error {
+	return &Error{msg: fmt.Sprintf(format, args...)}
+}
+
+// ReadFile reads the input file at path; flag names where the path was
+// given (e.g. "--sites") in the messages about a missing file or a folder.
+// A leading UTF-8 byte order mark is dropped; an empty file is an *Error.
+func ReadFile(path, flag string) (Source, error) {
+	fi, err := os.Stat(path)
+	switch {
+	case errors.Is(err, fs.ErrNotExist):
+		return Source{}, errorf("%s: no such file (given to %s)", path, flag)
+	case err != nil:
+		return Source{}, errorf("%s: cannot read: %v", path, unwrapPathErr(err))
+	case fi.IsDir():
+		return Source{}, errorf("%s: is a folder, not a file (given to %s)", path, flag)
+	}
+	b, err := os.ReadFile(path)
+	if err != nil {
+		return Source{}, errorf("%s: cannot read: %v", path, unwrapPathErr(err))
+	}
+	b = bytes.TrimPrefix(b, []byte("\xef\xbb\xbf")) // UTF-8 byte order mark
+	if len(bytes.TrimSpace(b)) == 0 {
+		return Source{}, errorf("%s: file is empty", path)
+	}
+	return Source{Name: path, Data: b}, nil
+}
+
+// unwrapPathErr drops the operation and path of an *fs.PathError, which
+// the messages already name.
+func unwrapPathErr(err error) error {
+	var pe *fs.PathError
+	if errors.As(err, &pe) {
+		return pe.Err
+	}
+	return err
+}
+
+// inputFormat is how a file is to be read.
+type inputFormat int
+
+const (
+	formatGeoJSON inputFormat = iota
+	formatCSV
+)
+
+// sniffLen is how many leading bytes are searched for a NUL byte, the mark
+// of binary data.
+const sniffLen = 4096
+
+// detectFormat decides GeoJSON or CSV from the extension, or else from the
+// content (JSON starts with '{' or '[').
+func detectFormat(src Source) (inputFormat, error) {
+	switch strings.ToLower(filepath.Ext(src.Name)) {
+	case ".geojson", ".json":
+		return formatGeoJSON, nil
+	case ".csv", ".tsv":
+		return formatCSV, nil
+	}
+	if bytes.IndexByte(src.Data[:min(len(src.Data), sniffLen)], 0) >= 0 {
+		return 0, errorf("%s: not GeoJSON or CSV (binary data)", src.Name)
+	}
+	if t := bytes.TrimSpace(src.Data); t[0] == '{' || t[0] == '[' {
+		return formatGeoJSON, nil
+	}
+	return formatCSV, nil
+}
