@@ -35,6 +35,12 @@ import (
 )
 
 func main() {
+	if os.Getenv(supervisedEnv) == "" {
+		if code, ok := supervise(os.Args[1:]); ok {
+			os.Exit(code)
+		}
+	}
+	injectFault()
 	sig := make(chan os.Signal, 1)
 	signal.Notify(sig, os.Interrupt, syscall.SIGTERM)
 	go exitOnSignal(sig)

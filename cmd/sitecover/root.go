@@ -64,7 +64,7 @@ type env struct {
 
 // run executes the command line args and returns the exit code.
 func run(args []string, stdout, stderr io.Writer) (code int) {
-	e := &env{stdout: stdout, stderr: stderr, terminal: isTerminal(stderr), args: args}
+	e := &env{stdout: stdout, stderr: stderr, terminal: isTerminal(stderr) || os.Getenv(supervisedTerminalEnv) != "", args: args}
 	defer func() {
 		if p := recover(); p != nil {
 			fmt.Fprintf(stderr, "sitecover: internal error: %v (this is a bug; please report it with the command line)\n", p)

@@ -1,0 +1,6 @@
+//go:build !linux
+
+package main
+
+// injectFault does nothing outside Linux.
+func injectFault() {}
