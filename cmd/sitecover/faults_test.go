@@ -70,6 +70,19 @@ func checkCompleteSet(t *testing.T, dir string) {
 	}
 }
 
+// exitCodeOf returns the exit code of a finished command (-1 when a
+// signal ended it); a failure to run it at all fails the test.
+func exitCodeOf(t *testing.T, err error) int {
+	t.Helper()
+	if ee, ok := err.(*exec.ExitError); ok {
+		return ee.ExitCode()
+	}
+	if err != nil {
+		t.Fatal(err)
+	}
+	return 0
+}
+
 // staging lists staging folders beside dir.
 func staging(dir string) []string {
 	m, _ := filepath.Glob(filepath.Join(filepath.Dir(dir), ".*sitecover-staging*"))
@@ -115,11 +128,7 @@ func TestOutputFolderSurvivesKills(t *testing.T) {
 			sig = syscall.SIGINT
 		}
 		cmd.Process.Signal(sig)
-		err := cmd.Wait()
-		code := 0
-		if ee, ok := err.(*exec.ExitError); ok {
-			code = ee.ExitCode()
-		}
+		code := exitCodeOf(t, cmd.Wait())
 		checkCompleteSet(t, out)
 		if sig == syscall.SIGINT {
 			// -1: the signal came before the program installed its

@@ -77,13 +77,7 @@ func TestBinary(t *testing.T) {
 			cmd := exec.Command(bin, c.args...)
 			var stderr strings.Builder
 			cmd.Stderr = &stderr
-			err := cmd.Run()
-			code := 0
-			if ee, ok := err.(*exec.ExitError); ok {
-				code = ee.ExitCode()
-			} else if err != nil {
-				t.Fatal(err)
-			}
+			code := exitCodeOf(t, cmd.Run())
 			if code != c.code {
 				t.Errorf("%v: exit %d, want %d (%s)", c.args, code, c.code, stderr.String())
 			}

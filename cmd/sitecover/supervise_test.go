@@ -62,11 +62,7 @@ func TestCrashIsOneLine(t *testing.T) {
 			cmd.Env = append(os.Environ(), faultInjectEnv+"="+c.fault)
 			var stderr strings.Builder
 			cmd.Stderr = &stderr
-			err := cmd.Run()
-			code := 0
-			if ee, ok := err.(*exec.ExitError); ok {
-				code = ee.ExitCode()
-			}
+			code := exitCodeOf(t, cmd.Run())
 			msg := stderr.String()
 			if code != exitInternal || strings.Count(msg, "\n") != 1 || !strings.HasPrefix(msg, c.want) || strings.Contains(msg, "goroutine") {
 				t.Fatalf("exit %d, stderr %q; want exit 3 and one line starting %q", code, msg, c.want)
