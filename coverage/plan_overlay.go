@@ -68,7 +68,7 @@ import (
 type planCell struct {
 	x, y   float64   // site
 	base   int32     // base vertex overridden, or -1 for a planned device
-	geo    planRings // current geometry; rings tagged by the base cell they lie in
+	geo    planar.ClipRings // current geometry; rings labelled by the base cell they lie in
 	rho    float64   // radius: largest distance from the site to the cell
 	fx, fy float64   // vertex at distance rho
 	area   float64   // area of the cell
@@ -108,7 +108,7 @@ type planOverlay struct {
 
 // planScratch is per-goroutine scratch space.
 type planScratch struct {
-	a, b, c planRings
+	a, b, c planar.ClipRings
 	near    []planNear
 	ids     []int32
 	pts     []float64
@@ -144,15 +144,14 @@ func newPlanOverlay(l *Layout, r float64) *planOverlay {
 	o.cur = make([]int32, nv)
 	o.baseConvex = make([]bool, nv)
 	planParallel(nv, func(lo, hi int) {
-		var rings [][]float64
 		for u := lo; u < hi; u++ {
 			o.cur[u] = -1
-			rings = rings[:0]
-			o.eachBaseRing(int32(u), func(ring []float64) { rings = append(rings, ring) })
-			o.baseConvex[u] = planRingsConvex(rings)
+			rs := planCellRings(l.Cells, int32(u))
+			o.baseConvex[u] = planCellConvex(&rs)
 			ux, uy := o.site(int32(u))
 			far, fx, fy, disk := -1.0, ux, uy, 0.0
-			o.eachBaseRing(int32(u), func(ring []float64) {
+			for k := 0; k < rs.NumRings(); k++ {
+				ring := rs.Ring(k)
 				if r > 0 {
 					disk += planar.RingDiskArea(ring, ux, uy, r)
 				}
@@ -161,7 +160,7 @@ func newPlanOverlay(l *Layout, r float64) *planOverlay {
 						far, fx, fy = d, ring[i], ring[i+1]
 					}
 				}
-			})
+			}
 			if far < 0 {
 				far = 0
 			}
@@ -315,19 +314,13 @@ func (o *planOverlay) site(u int32) (float64, float64) {
 	return o.l.Tri.Coords[2*u], o.l.Tri.Coords[2*u+1]
 }
 
-// eachBaseRing calls fn with every ring of base cell u.
-func (o *planOverlay) eachBaseRing(u int32, fn func(ring []float64)) {
-	c := o.l.Cells
-	k0, k1 := c.PolyStart[c.SiteStart[u]], c.PolyStart[c.SiteStart[u+1]]
-	for k := k0; k < k1; k++ {
-		fn(c.XY[2*c.RingStart[k] : 2*c.RingStart[k+1]])
+// baseSet copies the base rings of u into s (labelled u).
+func (o *planOverlay) baseSet(u int32, s *planar.ClipRings) {
+	s.Reset()
+	rs := planCellRings(o.l.Cells, u)
+	for k := 0; k < rs.NumRings(); k++ {
+		s.AppendRing(rs.Ring(k), u)
 	}
-}
-
-// baseSet copies the base rings of u into s (tagged u).
-func (o *planOverlay) baseSet(u int32, s *planRings) {
-	s.reset()
-	o.eachBaseRing(u, func(ring []float64) { s.appendRing(ring, u) })
 }
 
 // baseNear calls fn for every base cell u that a device at (x, y) could
@@ -353,7 +346,7 @@ func (o *planOverlay) coincidesBase(x, y float64) bool {
 
 // curGeo returns the current geometry of base cell u into s when it is not
 // overridden (copying the base rings), or the overriding cell's geometry.
-func (o *planOverlay) curBase(u int32, s *planRings) *planRings {
+func (o *planOverlay) curBase(u int32, s *planar.ClipRings) *planar.ClipRings {
 	if c := o.cur[u]; c >= 0 {
 		return &o.cells[c].geo
 	}
@@ -363,15 +356,15 @@ func (o *planOverlay) curBase(u int32, s *planRings) *planRings {
 
 // baseTaken reports whether a device at (px, py) takes something from the
 // geometry g of base cell u.
-func (o *planOverlay) baseTaken(u int32, g *planRings, px, py float64) bool {
-	if len(g.xy) == 0 {
+func (o *planOverlay) baseTaken(u int32, g *planar.ClipRings, px, py float64) bool {
+	if len(g.XY) == 0 {
 		return false
 	}
 	ux, uy := o.site(u)
 	if ux == px && uy == py {
 		return false
 	}
-	return planCloserTo(g.xy, px, py, ux, uy)
+	return planar.Bisector(ux, uy, px, py).SomeOutside(g.XY)
 }
 
 // numDevices returns the number of planned device ids issued.
@@ -397,7 +390,7 @@ func (o *planOverlay) newCell() int32 {
 
 func (o *planOverlay) freeCell(c int32) {
 	o.cells[c].live = false
-	o.cells[c].geo.reset()
+	o.cells[c].geo.Reset()
 	o.free = append(o.free, c)
 	o.all.set(o.nb+int(c), -1)
 	o.devs.set(int(c), -1)
@@ -448,7 +441,7 @@ func (o *planOverlay) recomputeBase(u int32) {
 	}
 	cell := &o.cells[c]
 	cell.x, cell.y, cell.base = ux, uy, u
-	cell.geo.copyFrom(g)
+	cell.geo.CopyFrom(g)
 	o.measure(c)
 }
 
@@ -458,26 +451,26 @@ func (o *planOverlay) recomputeDev(id int32) {
 	cell := &o.cells[o.dev[id]]
 	px, py := cell.x, cell.y
 	g := &sc.a
-	g.reset()
+	g.Reset()
 	if !o.coincidesBase(px, py) {
 		o.baseNear(px, py, func(u int32) {
 			ux, uy := o.site(u)
-			nx, ny, h := planBisector(px, py, ux, uy)
-			o.eachBaseRing(u, func(ring []float64) {
-				if !planRingOutside(ring, ux, uy, -nx, -ny, h) {
-					// Nothing of this ring is closer to p than to u.
-					return
+			mine, theirs := planar.Bisector(px, py, ux, uy), planar.Bisector(ux, uy, px, py)
+			rs := planCellRings(o.l.Cells, u)
+			for k := 0; k < rs.NumRings(); k++ {
+				if ring := rs.Ring(k); theirs.SomeOutside(ring) {
+					// Some of this ring is closer to p than to u.
+					mine.ClipRing(ring, nil, u, g)
 				}
-				planClipHalf(ring, nil, u, px, py, nx, ny, h, g)
-			})
+			}
 		})
 	}
 	// Other planned devices; the lower id keeps a shared spot.
-	if len(g.xy) > 0 {
+	if len(g.XY) > 0 {
 		o.clipByDevices(&g, px, py, planRadius(g, px, py), func(j int32) bool { return j < id })
 	}
 	cell = &o.cells[o.dev[id]]
-	cell.geo.copyFrom(g)
+	cell.geo.CopyFrom(g)
 	o.measure(o.dev[id])
 }
 
@@ -487,11 +480,11 @@ func (o *planOverlay) recomputeDev(id int32) {
 // is farther than twice the radius. A device exactly at (px, py) is
 // skipped, unless shared(id) says it takes the spot, which empties the
 // cell. It returns the radius and whether anything was cut away.
-func (o *planOverlay) clipByDevices(g **planRings, px, py, rho float64, shared func(id int32) bool) (float64, bool) {
+func (o *planOverlay) clipByDevices(g **planar.ClipRings, px, py, rho float64, shared func(id int32) bool) (float64, bool) {
 	sc := &o.sc
 	near := sc.near[:0]
 	lost, cut := false, false
-	for k := int64(0); len((*g).xy) > 0; k++ {
+	for k := int64(0); len((*g).XY) > 0; k++ {
 		if k >= 2 && float64(k-1)*o.dg.h > 2*rho {
 			break
 		}
@@ -507,7 +500,7 @@ func (o *planOverlay) clipByDevices(g **planRings, px, py, rho float64, shared f
 			}
 		})
 		if lost {
-			(*g).reset()
+			(*g).Reset()
 			cut = true
 			break
 		}
@@ -531,19 +524,19 @@ func (o *planOverlay) clipByDevices(g **planRings, px, py, rho float64, shared f
 // clipNearest clips *g, the cell of a device at (px, py), by its
 // half-planes against the listed devices (by increasing distance), stopping
 // once the next is farther than twice the radius; it returns the radius.
-func (o *planOverlay) clipNearest(g **planRings, px, py float64, near []planNear, rho float64) (float64, bool) {
+func (o *planOverlay) clipNearest(g **planar.ClipRings, px, py float64, near []planNear, rho float64) (float64, bool) {
 	sc := &o.sc
 	cut := false
 	for _, nb := range near {
-		if nb.d > 2*rho || len((*g).xy) == 0 {
+		if nb.d > 2*rho || len((*g).XY) == 0 {
 			break
 		}
 		qx, qy := o.pos(nb.id)
-		nx, ny, h := planBisector(px, py, qx, qy)
-		if !planSetOutside(*g, px, py, nx, ny, h) {
+		hp := planar.Bisector(px, py, qx, qy)
+		if !hp.SomeOutside((*g).XY) {
 			continue
 		}
-		planClipSet(*g, px, py, nx, ny, h, &sc.b)
+		hp.ClipSet(*g, &sc.b)
 		sc.a, sc.b = sc.b, sc.a
 		*g = &sc.a
 		rho = planRadius(*g, px, py)
@@ -554,10 +547,10 @@ func (o *planOverlay) clipNearest(g **planRings, px, py float64, near []planNear
 
 // planRadius returns the largest distance from (x, y) to a vertex of s, 0
 // when s is empty.
-func planRadius(s *planRings, x, y float64) float64 {
+func planRadius(s *planar.ClipRings, x, y float64) float64 {
 	r := 0.0
-	for i := 0; i+1 < len(s.xy); i += 2 {
-		r = math.Max(r, planDist(s.xy[i], s.xy[i+1], x, y))
+	for i := 0; i+1 < len(s.XY); i += 2 {
+		r = math.Max(r, planDist(s.XY[i], s.XY[i+1], x, y))
 	}
 	return r
 }
@@ -603,14 +596,14 @@ func (o *planOverlay) dirtyAdd(x, y float64, skip int32, d *planDirty) {
 			continue
 		}
 		c := &o.cells[o.dev[j]]
-		if len(c.geo.xy) == 0 {
+		if len(c.geo.XY) == 0 {
 			continue
 		}
 		if c.x == x && c.y == y {
 			d.addDev(j) // tie rule by id may hand the spot over
 			continue
 		}
-		if planDist(c.x, c.y, x, y) <= 2*c.rho && planCloserTo(c.geo.xy, x, y, c.x, c.y) {
+		if planDist(c.x, c.y, x, y) <= 2*c.rho && planar.Bisector(c.x, c.y, x, y).SomeOutside(c.geo.XY) {
 			d.addDev(j)
 		}
 	}
@@ -622,7 +615,7 @@ func (o *planOverlay) dirtyRemove(id int32, d *planDirty) {
 	c := &o.cells[o.dev[id]]
 	ax, ay := c.x, c.y
 	g := &c.geo
-	for _, u := range g.tag {
+	for _, u := range g.Label {
 		d.addBase(u)
 	}
 	// A device sharing the spot takes over.
@@ -635,7 +628,7 @@ func (o *planOverlay) dirtyRemove(id int32, d *planDirty) {
 			}
 		}
 	}
-	if len(g.xy) == 0 {
+	if len(g.XY) == 0 {
 		return
 	}
 	// Distance from the device to its nearest other site.
@@ -665,32 +658,20 @@ func (o *planOverlay) dirtyRemove(id int32, d *planDirty) {
 		if planDist(qx, qy, ax, ay) > lim {
 			continue
 		}
-		for k := 0; k < g.numRings(); k++ {
-			u := g.tag[k]
-			ring := g.ring(k)
+		for k := 0; k < g.NumRings(); k++ {
+			u := g.Label[k]
+			ring := g.Ring(k)
 			ux, uy := o.site(u)
 			if planDist(qx, qy, ux, uy) > 2*o.baseRho[u] {
 				continue
 			}
 			// Some vertex at least as close to q as to u.
-			nx, ny, h := planBisector(qx, qy, ux, uy)
-			if !planRingAllOutside(ring, qx, qy, nx, ny, h) {
+			if !planar.Bisector(qx, qy, ux, uy).AllOutside(ring) {
 				d.addDev(j)
 				break
 			}
 		}
 	}
-}
-
-// planRingAllOutside reports whether every vertex of ring is strictly outside
-// the half-plane (q − w)·n ≤ h.
-func planRingAllOutside(ring []float64, wx, wy, nx, ny, h float64) bool {
-	for i := 0; i+1 < len(ring); i += 2 {
-		if (ring[i]-wx)*nx+(ring[i+1]-wy)*ny <= h {
-			return false
-		}
-	}
-	return true
 }
 
 // rhoOf returns the current radius of a dirty-set member.
@@ -814,7 +795,7 @@ func (o *planOverlay) worst() (rng float64, p orb.Point) {
 		}
 	}
 	for i := range o.cells {
-		if c := &o.cells[i]; c.live && c.rho >= thr && len(c.geo.xy) > 0 {
+		if c := &o.cells[i]; c.live && c.rho >= thr && len(c.geo.XY) > 0 {
 			take(c.fx, c.fy)
 		}
 	}
@@ -864,27 +845,24 @@ func (o *planOverlay) gain(x, y float64, sc *planScratch) float64 {
 	}
 	r := o.r
 	g := 0.0
-	piece := func(src *planRings, sx, sy float64) {
-		nx, ny, h := planBisector(x, y, sx, sy)
-		if !planRingOutside(src.xy, sx, sy, -nx, -ny, h) {
+	piece := func(src *planar.ClipRings, sx, sy float64) {
+		if !planar.Bisector(sx, sy, x, y).SomeOutside(src.XY) {
 			return
 		}
-		planClipSet(src, x, y, nx, ny, h, &sc.b)
-		for k := 0; k < sc.b.numRings(); k++ {
-			ring := sc.b.ring(k)
+		planar.Bisector(x, y, sx, sy).ClipSet(src, &sc.b)
+		for k := 0; k < sc.b.NumRings(); k++ {
+			ring := sc.b.Ring(k)
 			g += planar.RingDiskArea(ring, x, y, r) - planar.RingDiskArea(ring, sx, sy, r)
 		}
 	}
 	o.baseNear(x, y, func(u int32) {
-		var src *planRings
+		src := &sc.a
 		if c := o.cur[u]; c >= 0 {
 			src = &o.cells[c].geo
 		} else {
-			sc.a.reset()
-			o.eachBaseRing(u, func(ring []float64) { sc.a.appendRing(ring, u) })
-			src = &sc.a
+			o.baseSet(u, src)
 		}
-		if len(src.xy) == 0 {
+		if len(src.XY) == 0 {
 			return
 		}
 		ux, uy := o.site(u)
@@ -893,7 +871,7 @@ func (o *planOverlay) gain(x, y float64, sc *planScratch) float64 {
 	sc.ids = o.dg.within(x, y, 2*o.maxDevRho(), sc.ids)
 	for _, id := range sc.ids {
 		c := &o.cells[o.dev[id]]
-		if len(c.geo.xy) == 0 || planDist(c.x, c.y, x, y) > 2*c.rho {
+		if len(c.geo.XY) == 0 || planDist(c.x, c.y, x, y) > 2*c.rho {
 			continue
 		}
 		piece(&c.geo, c.x, c.y)
@@ -909,14 +887,13 @@ func (o *planOverlay) devVertices(id int32) []float64 {
 }
 
 // valid reports whether a candidate vertex (x, y) of a piece of base cell
-// u lies in that cell (plan_clip.go); convex cells need no test.
+// u lies in that closed cell (plan_clip.go); convex cells need no test.
 func (o *planOverlay) valid(u int32, x, y float64) bool {
 	if o.baseConvex[u] {
 		return true
 	}
-	var rings [][]float64
-	o.eachBaseRing(u, func(ring []float64) { rings = append(rings, ring) })
-	return planInRings(rings, x, y)
+	rs := planCellRings(o.l.Cells, u)
+	return planCellHolds(&rs, x, y)
 }
 
 // devRho returns the radius of planned device id's cell.
