@@ -66,13 +66,13 @@ import (
 // planCell is the current cell of a base site whose cell planned devices have
 // cut, or of a planned device.
 type planCell struct {
-	x, y   float64   // site
-	base   int32     // base vertex overridden, or -1 for a planned device
+	x, y   float64          // site
+	base   int32            // base vertex overridden, or -1 for a planned device
 	geo    planar.ClipRings // current geometry; rings labelled by the base cell they lie in
-	rho    float64   // radius: largest distance from the site to the cell
-	fx, fy float64   // vertex at distance rho
-	area   float64   // area of the cell
-	unc    float64   // uncovered area at the planned range
+	rho    float64          // radius: largest distance from the site to the cell
+	fx, fy float64          // vertex at distance rho
+	area   float64          // area of the cell
+	unc    float64          // uncovered area at the planned range
 	live   bool
 }
 
