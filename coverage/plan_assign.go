@@ -16,9 +16,10 @@
 // longest interior run of the horizontal line through the centroid (a
 // point-on-surface construction in the manner of GEOS's InteriorPoint,
 // common practice in GIS), so that the point always lies on the polygon.
-// The centroid is the shoelace-weighted mean of the triangle centroids,
-// taken relative to the first vertex (relative error of order n·u of the
-// polygon's extent).
+// The centroid is the shoelace-weighted mean of the triangle centroids
+// (planar.RingMoments), taken relative to the first vertex (relative error
+// of order n·u of the polygon's extent); whether the polygon holds it is
+// decided exactly, boundary included (planar.RingSet.Locate).
 
 package coverage
 
@@ -179,22 +180,27 @@ func RepresentativePoint(p orb.Polygon) (orb.Point, error) {
 		return orb.Point{}, fmt.Errorf("ring 0: %d points, need at least 3", len(ext))
 	}
 	ox, oy := ext[0][0], ext[0][1]
-	var a, cx, cy float64
+	var a, sx, sy float64
+	var rings planar.RingSet
 	for k, ring := range p {
-		ra, rx, ry := planRingMoments(ring, ox, oy)
+		xy := planar.FlatRing(ring)
+		rings.AppendRing(xy)
+		ra, rx, ry := planar.RingMoments(xy, ox, oy)
 		// Holes count negative whatever their orientation.
 		if (k == 0) != (ra >= 0) {
 			ra, rx, ry = -ra, -rx, -ry
 		}
 		a += ra
-		cx += rx
-		cy += ry
+		sx += rx
+		sy += ry
 	}
 	if !(a != 0) {
 		return orb.Point{}, fmt.Errorf("zero area")
 	}
-	c := orb.Point{ox + cx/(3*a), oy + cy/(3*a)}
-	if planPolyContains(p, c[0], c[1]) {
+	// The polygon is closed (the module's boundary convention): a centroid
+	// on its boundary is a point of it.
+	c := orb.Point{ox + sx/a, oy + sy/a}
+	if rings.Locate(c[0], c[1]) >= 0 {
 		return c, nil
 	}
 	// Longest interior run of the line y = c.y (Sutherland-free even-odd
@@ -291,42 +297,6 @@ func planNearestSorted(t *planar.Triangulation, xy []float64) []int32 {
 		out[i] = res[j]
 	}
 	return out
-}
-
-// planRingMoments returns the signed area of ring and the first moments
-// (times 3) relative to (ox, oy).
-func planRingMoments(ring orb.Ring, ox, oy float64) (a, mx, my float64) {
-	n := len(ring)
-	if n > 1 && ring[0] == ring[n-1] {
-		n--
-	}
-	for i := 0; i < n; i++ {
-		ax, ay := ring[i][0]-ox, ring[i][1]-oy
-		bx, by := ring[(i+1)%n][0]-ox, ring[(i+1)%n][1]-oy
-		cr := ax*by - ay*bx
-		a += cr
-		mx += (ax + bx) * cr
-		my += (ay + by) * cr
-	}
-	return a / 2, mx / 2, my / 2
-}
-
-// planPolyContains is the even-odd point-in-polygon test over all rings
-// (Shimrat, CACM 5, 1962).
-func planPolyContains(p orb.Polygon, x, y float64) bool {
-	in := false
-	for _, ring := range p {
-		n := len(ring)
-		for i := 0; i < n; i++ {
-			a, b := ring[i], ring[(i+1)%n]
-			if (a[1] > y) != (b[1] > y) {
-				if x < a[0]+(y-a[1])*(b[0]-a[0])/(b[1]-a[1]) {
-					in = !in
-				}
-			}
-		}
-	}
-	return in
 }
 
 // planCheckPoint reports a coordinate that is not finite.

@@ -171,3 +171,45 @@ func TestPlanRepresentativePoint(t *testing.T) {
 		t.Errorf("bad polygon: %v", err)
 	}
 }
+
+// RepresentativePoint returns the centroid whenever the polygon holds it,
+// and a polygon holds its boundary (the module's closed convention, as
+// planar.Region.Contains). The polygon is 0..6 × 0..6 with the holes
+// H1 = 3..4 × 1..5 and H2 = 1.5..2.5 × 2..4 (or the mirror image): the
+// holes' combined centroid is at x = 3 (4·3.5 + 2·2 = 6·3), so the
+// polygon's centroid is (3, 3), on H1's edge x = 3. The former half-open
+// crossing rule rejected it when the edge was H1's left edge and accepted
+// it when it was the right edge, so mirroring the polygon moved the
+// representative point from (5, 3) to the centroid; now both give the
+// centroid.
+func TestPlanRepresentativePointOnBoundary(t *testing.T) {
+	rect := func(x0, y0, x1, y1 float64) orb.Ring {
+		return orb.Ring{{x0, y0}, {x0, y1}, {x1, y1}, {x1, y0}, {x0, y0}} // clockwise
+	}
+	ext := orb.Ring{{0, 0}, {6, 0}, {6, 6}, {0, 6}, {0, 0}}
+	cases := []struct {
+		name string
+		p    orb.Polygon
+	}{
+		{"centroid on a hole's left edge", orb.Polygon{ext, rect(3, 1, 4, 5), rect(1.5, 2, 2.5, 4)}},
+		{"centroid on a hole's right edge", orb.Polygon{ext, rect(2, 1, 3, 5), rect(3.5, 2, 4.5, 4)}},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			p, err := RepresentativePoint(c.p)
+			if err != nil {
+				t.Fatal(err)
+			}
+			if p != (orb.Point{3, 3}) {
+				t.Errorf("representative point %v, want the centroid (3, 3)", p)
+			}
+			reg, err := planar.NewRegion(orb.MultiPolygon{c.p})
+			if err != nil {
+				t.Fatal(err)
+			}
+			if !reg.Contains(p[0], p[1]) {
+				t.Errorf("%v is not on the polygon by Region.Contains", p)
+			}
+		})
+	}
+}
