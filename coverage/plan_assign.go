@@ -243,55 +243,23 @@ func planNearestSorted(t *planar.Triangulation, xy []float64) []int32 {
 		t.NearestMany(xy, out)
 		return out
 	}
-	minX, minY := math.Inf(1), math.Inf(1)
-	maxX, maxY := math.Inf(-1), math.Inf(-1)
-	for i := 0; i < nq; i++ {
-		minX, maxX = math.Min(minX, xy[2*i]), math.Max(maxX, xy[2*i])
-		minY, maxY = math.Min(minY, xy[2*i+1]), math.Max(maxY, xy[2*i+1])
-	}
-	cells := max(1, min(nq, t.NumVertices()))
-	w, h := maxX-minX, maxY-minY
-	nx, ny := 1, 1
-	if w > 0 && h > 0 && !math.IsInf(w, 0) && !math.IsInf(h, 0) {
-		nx = max(1, min(cells, int(math.Sqrt(float64(cells)*w/h))))
-		ny = max(1, min(cells, cells/nx))
-	} else if w > 0 && !math.IsInf(w, 0) {
-		nx = cells
-	} else if h > 0 && !math.IsInf(h, 0) {
-		ny = cells
-	}
-	sx, sy := 0.0, 0.0
-	if nx > 1 {
-		sx = float64(nx) / w
-	}
-	if ny > 1 {
-		sy = float64(ny) / h
-	}
-	key := make([]int32, nq)
-	count := make([]int32, nx*ny+1)
-	for i := 0; i < nq; i++ {
-		cx := max(0, min(nx-1, int((xy[2*i]-minX)*sx)))
-		cy := max(0, min(ny-1, int((xy[2*i+1]-minY)*sy)))
-		if cy%2 == 1 {
-			cx = nx - 1 - cx
+	minX, minY, maxX, maxY := planar.BoundsXY(xy, nil)
+	g := planar.NewBucketGrid(planar.GridOfCells(minX, minY, maxX, maxY, min(nq, t.NumVertices())), xy, nil)
+	perm := make([]int32, 0, nq)
+	for j := 0; j < g.NY; j++ {
+		for i := 0; i < g.NX; i++ {
+			if j%2 == 1 {
+				perm = append(perm, g.Bucket(j*g.NX+g.NX-1-i)...)
+			} else {
+				perm = append(perm, g.Bucket(j*g.NX+i)...)
+			}
 		}
-		k := int32(cy*nx + cx)
-		key[i] = k
-		count[k+1]++
-	}
-	for k := 1; k < len(count); k++ {
-		count[k] += count[k-1]
-	}
-	perm := make([]int32, nq)
-	for i := 0; i < nq; i++ {
-		perm[count[key[i]]] = int32(i)
-		count[key[i]]++
 	}
 	sorted := make([]float64, 2*nq)
 	for j, i := range perm {
 		sorted[2*j], sorted[2*j+1] = xy[2*i], xy[2*i+1]
 	}
-	res := key // reuse
+	res := g.Items // reuse
 	t.NearestMany(sorted, res)
 	for j, i := range perm {
 		out[i] = res[j]

@@ -27,13 +27,13 @@
 //   - when computing p's cell, another device p' matters only if
 //     |p' − p| ≤ 2ρ, ρ the radius of the part clipped so far.
 //
-// Base sites are found through a uniform bucket grid holding every base
-// site except the 256 with the largest cells, which are always examined;
-// planned devices through a dynamic bucket grid (plan_devgrid.go), nearest
-// bucket rings first, so that a cell is clipped only by the devices within
-// twice its radius. The full-cover range (the largest radius) and the
-// largest radius of a planned device's cell are kept in segment trees of
-// maxima, updated in O(log n) per recomputed cell.
+// Base sites are found through a static bucket grid (planar.BucketGrid)
+// holding every base site except the 256 with the largest cells, which are
+// always examined; planned devices through a dynamic one (planar.HashGrid),
+// nearest bucket rings first, so that a cell is clipped only by the devices
+// within twice its radius. The full-cover range (the largest radius) and
+// the largest radius of a planned device's cell are kept in segment trees
+// of maxima (plan_segtree.go), updated in O(log n) per recomputed cell.
 //
 // Measures per cell: area (shoelace), the area within the planned range r
 // (planar.RingDiskArea), the uncovered area (their difference), and the
@@ -90,17 +90,17 @@ type planOverlay struct {
 
 	cells []planCell
 	free  []int32
-	dev   []int32 // planned device id -> planCell, -1 when removed
-	dg    *planDevGrid
+	dev   []int32          // planned device id -> planCell, -1 when removed
+	dg    *planar.HashGrid // planned devices
 	// all holds the current radius of every base cell not overridden
 	// (slot u) and of every live cell (slot nb + c); devs that of every
 	// planned device's cell (slot c). Their maxima are the full-cover
 	// range and the reach of a device's cell.
 	all, devs planMaxTree
 
-	grid  planGrid
-	big   []int32 // base cells examined on every query
-	reach float64 // twice the largest radius of a gridded base cell
+	grid  *planar.BucketGrid // base sites not in big; nil when none
+	big   []int32            // base cells examined on every query
+	reach float64            // twice the largest radius of a gridded base cell
 
 	ix *planar.RegionIndex
 	sc planScratch
@@ -120,17 +120,9 @@ type planNear struct {
 	d  float64
 }
 
-// planGrid is a uniform bucket grid of base sites (CSR layout).
-type planGrid struct {
-	x0, y0, inv float64
-	nx, ny      int
-	start       []int32
-	items       []int32
-}
-
 // newPlanOverlay prepares the base cells of l with measures at range r.
 func newPlanOverlay(l *Layout, r float64) *planOverlay {
-	o := &planOverlay{l: l, r: r, ix: l.Area.Index(), dg: newPlanDevGrid(l.AreaM2)}
+	o := &planOverlay{l: l, r: r, ix: l.Area.Index(), dg: planar.NewHashGrid(l.AreaM2)}
 	nv := l.Tri.NumVertices()
 	o.nb = nv
 	defer func() {
@@ -195,7 +187,7 @@ func newPlanOverlay(l *Layout, r float64) *planOverlay {
 		}
 	}
 	o.reach = 2 * rhoCap
-	o.grid.build(l.Tri.Coords, rest, o.reach)
+	o.grid = planBaseGrid(l.Tri.Coords, rest, o.reach)
 	return o
 }
 
@@ -207,7 +199,7 @@ func (o *planOverlay) fresh() *planOverlay {
 		baseRho: o.baseRho, baseFx: o.baseFx, baseFy: o.baseFy, baseUnc: o.baseUnc,
 		baseConvex: o.baseConvex, baseUncTotal: o.baseUncTotal, order: o.order,
 		grid: o.grid, big: o.big, reach: o.reach, ix: o.ix,
-		dg: newPlanDevGrid(o.l.AreaM2),
+		dg: planar.NewHashGrid(o.l.AreaM2),
 	}
 	f.cur = make([]int32, len(o.cur))
 	for i := range f.cur {
@@ -237,25 +229,16 @@ func planParallel(n int, fn func(lo, hi int)) {
 	wg.Wait()
 }
 
-// build fills the grid with the listed sites; queries will mostly use
-// radius reach.
-func (g *planGrid) build(xy []float64, ids []int32, reach float64) {
-	g.items = nil
+// planBaseGrid buckets the listed base sites for queries of radius about
+// reach: about two sites per bucket, and buckets no smaller than a quarter
+// of the reach (so a query scans O(1) buckets). nil when ids is empty.
+func planBaseGrid(xy []float64, ids []int32, reach float64) *planar.BucketGrid {
 	if len(ids) == 0 {
-		g.nx, g.ny = 0, 0
-		return
+		return nil
 	}
-	minX, minY := math.Inf(1), math.Inf(1)
-	maxX, maxY := math.Inf(-1), math.Inf(-1)
-	for _, v := range ids {
-		x, y := xy[2*v], xy[2*v+1]
-		minX, maxX = math.Min(minX, x), math.Max(maxX, x)
-		minY, maxY = math.Min(minY, y), math.Max(maxY, y)
-	}
+	minX, minY, maxX, maxY := planar.BoundsXY(xy, ids)
 	w, h := maxX-minX, maxY-minY
 	side := math.Max(w, h)
-	// About two sites per bucket, and buckets no smaller than a quarter of
-	// the usual query reach.
 	cell := math.Sqrt(w * h / (float64(len(ids)) / 2))
 	if !(cell > 0) || math.IsInf(cell, 0) {
 		cell = side / math.Sqrt(float64(len(ids)))
@@ -266,47 +249,7 @@ func (g *planGrid) build(xy []float64, ids []int32, reach float64) {
 	if !(cell > 0) || math.IsInf(cell, 0) {
 		cell = 1
 	}
-	g.x0, g.y0, g.inv = minX, minY, 1/cell
-	g.nx = max(1, min(1<<15, int(w*g.inv)+1))
-	g.ny = max(1, min(1<<15, int(h*g.inv)+1))
-	g.start = make([]int32, g.nx*g.ny+1)
-	for _, v := range ids {
-		g.start[g.index(xy[2*v], xy[2*v+1])+1]++
-	}
-	for i := 1; i < len(g.start); i++ {
-		g.start[i] += g.start[i-1]
-	}
-	g.items = make([]int32, len(ids))
-	fill := slices.Clone(g.start[:len(g.start)-1])
-	for _, v := range ids {
-		c := g.index(xy[2*v], xy[2*v+1])
-		g.items[fill[c]] = v
-		fill[c]++
-	}
-}
-
-func (g *planGrid) col(x float64) int { return max(0, min(g.nx-1, int((x-g.x0)*g.inv))) }
-func (g *planGrid) row(y float64) int { return max(0, min(g.ny-1, int((y-g.y0)*g.inv))) }
-func (g *planGrid) index(x, y float64) int {
-	return g.row(y)*g.nx + g.col(x)
-}
-
-// query calls fn for every site in the buckets meeting the square of
-// half-side reach around (x, y).
-func (g *planGrid) query(x, y, reach float64, fn func(v int32)) {
-	if len(g.items) == 0 {
-		return
-	}
-	c0, c1 := g.col(x-reach), g.col(x+reach)
-	r0, r1 := g.row(y-reach), g.row(y+reach)
-	for j := r0; j <= r1; j++ {
-		for i := c0; i <= c1; i++ {
-			c := j*g.nx + i
-			for _, v := range g.items[g.start[c]:g.start[c+1]] {
-				fn(v)
-			}
-		}
-	}
+	return planar.NewBucketGrid(planar.GridOfSide(minX, minY, maxX, maxY, cell), xy, ids)
 }
 
 // site returns the position of base cell u.
@@ -335,7 +278,9 @@ func (o *planOverlay) baseNear(x, y float64, fn func(u int32)) {
 	for _, u := range o.big {
 		test(u)
 	}
-	o.grid.query(x, y, o.reach, test)
+	if o.grid != nil {
+		o.grid.Near(x, y, o.reach, test)
+	}
 }
 
 // coincidesBase reports whether (x, y) is exactly a base site.
@@ -485,11 +430,11 @@ func (o *planOverlay) clipByDevices(g **planar.ClipRings, px, py, rho float64, s
 	near := sc.near[:0]
 	lost, cut := false, false
 	for k := int64(0); len((*g).XY) > 0; k++ {
-		if k >= 2 && float64(k-1)*o.dg.h > 2*rho {
+		if k >= 2 && float64(k-1)*o.dg.Side() > 2*rho {
 			break
 		}
 		near = near[:0]
-		more := o.dg.ring(px, py, k, func(j int32) {
+		more := o.dg.Ring(px, py, k, func(j int32) {
 			qx, qy := o.pos(j)
 			if qx == px && qy == py {
 				lost = lost || shared(j)
@@ -590,7 +535,7 @@ func (o *planOverlay) dirtyAdd(x, y float64, skip int32, d *planDirty) {
 			d.addBase(u)
 		}
 	})
-	o.sc.ids = o.dg.within(x, y, 2*o.maxDevRho(), o.sc.ids)
+	o.sc.ids = o.dg.Within(x, y, 2*o.maxDevRho(), o.sc.ids)
 	for _, j := range o.sc.ids {
 		if j == skip {
 			continue
@@ -620,7 +565,7 @@ func (o *planOverlay) dirtyRemove(id int32, d *planDirty) {
 	}
 	// A device sharing the spot takes over.
 	sc := &o.sc
-	sc.ids = o.dg.within(ax, ay, 0, sc.ids)
+	sc.ids = o.dg.Within(ax, ay, 0, sc.ids)
 	for _, j := range sc.ids {
 		if j != id {
 			if qx, qy := o.pos(j); qx == ax && qy == ay {
@@ -635,10 +580,10 @@ func (o *planOverlay) dirtyRemove(id int32, d *planDirty) {
 	v := o.l.Tri.Nearest(ax, ay, -1)
 	dmin := planDist(o.l.Tri.Coords[2*v], o.l.Tri.Coords[2*v+1], ax, ay)
 	for k := int64(0); ; k++ {
-		if k >= 2 && float64(k-1)*o.dg.h > dmin {
+		if k >= 2 && float64(k-1)*o.dg.Side() > dmin {
 			break
 		}
-		more := o.dg.ring(ax, ay, k, func(j int32) {
+		more := o.dg.Ring(ax, ay, k, func(j int32) {
 			if j != id {
 				qx, qy := o.pos(j)
 				dmin = math.Min(dmin, planDist(qx, qy, ax, ay))
@@ -649,7 +594,7 @@ func (o *planOverlay) dirtyRemove(id int32, d *planDirty) {
 		}
 	}
 	lim := 2*c.rho + dmin
-	sc.ids = o.dg.within(ax, ay, lim, sc.ids)
+	sc.ids = o.dg.Within(ax, ay, lim, sc.ids)
 	for _, j := range sc.ids {
 		if j == id {
 			continue
@@ -719,7 +664,7 @@ func (o *planOverlay) place(id int32, x, y float64) []int32 {
 	c := o.newCell()
 	o.cells[c] = planCell{x: x, y: y, base: -1, live: true, geo: o.cells[c].geo}
 	o.dev[id] = c
-	o.dg.insert(id, x, y)
+	o.dg.Insert(id, x, y)
 	o.maybeRebuildGrid()
 	slices.Sort(d.devs)
 	near := slices.Clone(d.devs)
@@ -737,9 +682,9 @@ func (o *planOverlay) move(id int32, x, y float64) (before, after float64) {
 	d.addDev(id)
 	before = o.rhoOfDirty(&d)
 	c := &o.cells[o.dev[id]]
-	o.dg.remove(id, c.x, c.y)
+	o.dg.Remove(id, c.x, c.y)
 	c.x, c.y = x, y
-	o.dg.insert(id, x, y)
+	o.dg.Insert(id, x, y)
 	o.apply(&d)
 	after = o.rhoOfDirty(&d)
 	return before, after
@@ -750,7 +695,7 @@ func (o *planOverlay) remove(id int32) {
 	var d planDirty
 	o.dirtyRemove(id, &d)
 	x, y := o.pos(id)
-	o.dg.remove(id, x, y)
+	o.dg.Remove(id, x, y)
 	o.freeCell(o.dev[id])
 	o.dev[id] = -1
 	o.maybeRebuildGrid()
@@ -763,13 +708,13 @@ func (o *planOverlay) fullCover() float64 { return math.Max(0, o.all.max()) }
 // maybeRebuildGrid rebuilds the device grid when the number of devices
 // has moved far from the one its bucket size was chosen for.
 func (o *planOverlay) maybeRebuildGrid() {
-	if !o.dg.needsRebuild() {
+	if !o.dg.NeedsRebuild() {
 		return
 	}
-	o.dg.reset(o.dg.live)
+	o.dg.Reset(o.dg.Len())
 	for id, c := range o.dev {
 		if c >= 0 {
-			o.dg.insert(int32(id), o.cells[c].x, o.cells[c].y)
+			o.dg.Insert(int32(id), o.cells[c].x, o.cells[c].y)
 		}
 	}
 }
@@ -837,7 +782,7 @@ func (o *planOverlay) gain(x, y float64, sc *planScratch) float64 {
 	if !(o.r > 0) || o.coincidesBase(x, y) {
 		return 0
 	}
-	sc.ids = o.dg.within(x, y, 0, sc.ids)
+	sc.ids = o.dg.Within(x, y, 0, sc.ids)
 	for _, id := range sc.ids {
 		if qx, qy := o.pos(id); qx == x && qy == y {
 			return 0
@@ -868,7 +813,7 @@ func (o *planOverlay) gain(x, y float64, sc *planScratch) float64 {
 		ux, uy := o.site(u)
 		piece(src, ux, uy)
 	})
-	sc.ids = o.dg.within(x, y, 2*o.maxDevRho(), sc.ids)
+	sc.ids = o.dg.Within(x, y, 2*o.maxDevRho(), sc.ids)
 	for _, id := range sc.ids {
 		c := &o.cells[o.dev[id]]
 		if len(c.geo.XY) == 0 || planDist(c.x, c.y, x, y) > 2*c.rho {
@@ -950,54 +895,6 @@ func (o *planOverlay) inside(x, y float64) (px, py float64, ok bool) {
 	}
 	return x, y, false
 }
-
-// planMaxTree is a segment tree of maxima over slots (−1 when empty),
-// growing on demand.
-type planMaxTree struct {
-	n int // leaves, a power of two
-	v []float64
-}
-
-// init sets up the tree with the first len(vals) slots from vals (nb of
-// them), the rest empty.
-func (t *planMaxTree) init(nb int, vals []float64) {
-	t.n = 1
-	for t.n < nb+16 {
-		t.n *= 2
-	}
-	t.v = make([]float64, 2*t.n)
-	for i := range t.v {
-		t.v[i] = -1
-	}
-	copy(t.v[t.n:], vals[:nb])
-	for i := t.n - 1; i >= 1; i-- {
-		t.v[i] = math.Max(t.v[2*i], t.v[2*i+1])
-	}
-}
-
-func (t *planMaxTree) set(i int, x float64) {
-	if i >= t.n {
-		old := t.v[t.n:]
-		n := t.n
-		for n <= i {
-			n *= 2
-		}
-		vals := make([]float64, n)
-		for k := range vals {
-			vals[k] = -1
-		}
-		copy(vals, old)
-		t.init(n, vals)
-	}
-	i += t.n
-	t.v[i] = x
-	for i > 1 {
-		i >>= 1
-		t.v[i] = math.Max(t.v[2*i], t.v[2*i+1])
-	}
-}
-
-func (t *planMaxTree) max() float64 { return t.v[1] }
 
 // planDist is the Euclidean distance from (ax, ay) to (bx, by); plain
 // square root (coordinates are far below overflow), correctly rounded
