@@ -153,16 +153,29 @@ func (m *gapMerged) outlines(l *Layout, gapOf []int32, ng int, r, tol float64) [
 	return out
 }
 
+// Link tolerance of linkChains: a chain end and the start that continues it
+// are the same point computed in two cells, so they differ by rounding.
+// A point computed from coordinates of magnitude E by a few dozen correctly
+// rounded operations is within a few hundred ulps, under 1e-13·E; a
+// crossing of a circle of radius r with a nearly tangent line is
+// ill-conditioned, its error growing like √(2ε)·r ≈ 1.5e-8·r (ε = 2⁻⁵³).
+// The tolerance gapLinkTolR·r + gapLinkTolExt·E covers both with a margin
+// of about ten, and stays far below the distance between distinct chain
+// ends of one gap.
+const (
+	gapLinkTolR   = 1e-7
+	gapLinkTolExt = 1e-12
+)
+
 // linkChains links each chain end to the chain start at the same point of
-// the same gap: among the unused starts within tol (1e-7 r plus 1e-12 of
-// the coordinates, far above the rounding of points computed in two cells)
+// the same gap: among the unused starts within the link tolerance (above)
 // the one on the same bisector first, then the nearest. Where none is that
 // close (a crossing of a circle with a nearly tangent bisector is computed
 // less precisely), the nearest start along the same bisector is taken.
 func (m *gapMerged) linkChains(l *Layout, chains []gapChain, r float64) {
 	b := l.Area.Bound()
 	ext := math.Max(math.Max(math.Abs(b.Min[0]), math.Abs(b.Max[0])), math.Max(math.Abs(b.Min[1]), math.Abs(b.Max[1])))
-	tol := 1e-7*r + 1e-12*ext
+	tol := gapLinkTolR*r + gapLinkTolExt*ext
 	if !(tol > 0) {
 		tol = math.SmallestNonzeroFloat64
 	}

@@ -102,10 +102,12 @@ func TestPlanAssignErrors(t *testing.T) {
 		{"NaN weight", pts, []float64{math.NaN(), 1}, 5, "point 0: weight NaN"},
 		{"negative range", pts, nil, -1, "range -1"},
 	} {
-		_, err := Assign(l, c.pts, c.w, c.r)
-		if err == nil || !strings.Contains(err.Error(), c.want) {
-			t.Errorf("%s: error %v, want %q", c.name, err, c.want)
-		}
+		t.Run(c.name, func(t *testing.T) {
+			_, err := Assign(l, c.pts, c.w, c.r)
+			if err == nil || !strings.Contains(err.Error(), c.want) {
+				t.Errorf("%s: error %v, want %q", c.name, err, c.want)
+			}
+		})
 	}
 	if a, err := Assign(l, nil, nil, 5); err != nil || len(a.Device) != 0 || len(a.Load) != 20 {
 		t.Errorf("no points: %v %v", a, err)
@@ -128,17 +130,19 @@ func TestPlanRepresentativePoint(t *testing.T) {
 	// Annulus: the centroid is in the hole.
 	ann := orb.Polygon{{{0, 0}, {10, 0}, {10, 10}, {0, 10}, {0, 0}}, {{2, 2}, {2, 8}, {8, 8}, {8, 2}, {2, 2}}}
 	for name, poly := range map[string]orb.Polygon{"U": u, "annulus": ann} {
-		p, err := RepresentativePoint(poly)
-		if err != nil {
-			t.Fatal(err)
-		}
-		reg, err := planar.NewRegion(orb.MultiPolygon{poly})
-		if err != nil {
-			t.Fatal(err)
-		}
-		if !reg.Contains(p[0], p[1]) {
-			t.Errorf("%s: representative point %v not on the polygon", name, p)
-		}
+		t.Run(name, func(t *testing.T) {
+			p, err := RepresentativePoint(poly)
+			if err != nil {
+				t.Fatal(err)
+			}
+			reg, err := planar.NewRegion(orb.MultiPolygon{poly})
+			if err != nil {
+				t.Fatal(err)
+			}
+			if !reg.Contains(p[0], p[1]) {
+				t.Errorf("%s: representative point %v not on the polygon", name, p)
+			}
+		})
 	}
 	for _, c := range []struct {
 		name string
@@ -150,9 +154,11 @@ func TestPlanRepresentativePoint(t *testing.T) {
 		{"flat", orb.Polygon{{{0, 0}, {1, 1}, {2, 2}, {0, 0}}}, "zero area"},
 		{"NaN", orb.Polygon{{{0, 0}, {1, math.NaN()}, {2, 0}}}, "ring 0, vertex 1: y coordinate is NaN"},
 	} {
-		if _, err := RepresentativePoint(c.p); err == nil || !strings.Contains(err.Error(), c.want) {
-			t.Errorf("%s: error %v, want %q", c.name, err, c.want)
-		}
+		t.Run(c.name, func(t *testing.T) {
+			if _, err := RepresentativePoint(c.p); err == nil || !strings.Contains(err.Error(), c.want) {
+				t.Errorf("%s: error %v, want %q", c.name, err, c.want)
+			}
+		})
 	}
 	// AssignPolygons uses those points.
 	reg := planTestRegion(t, 100)

@@ -13,9 +13,10 @@
 // the set-covering problem", Math. Oper. Res. 4, 1979).
 //
 // Exact marginal area. Inside the current Voronoi cell X of a device x only
-// x's disk covers (GUIDE.md). Adding a device c changes coverage only in
-// the part of each X nearer to c than to x, X ∩ H(c, x), which after the
-// addition is covered by D(c, r) alone; so
+// x's disk covers: x is the nearest device to every point q of X, so if any
+// disk D(s, r) holds q then |q − x| ≤ |q − s| ≤ r. Adding a device c
+// changes coverage only in the part of each X nearer to c than to x,
+// X ∩ H(c, x), which after the addition is covered by D(c, r) alone; so
 //
 //	gain(c) = Σ_X [ area(X ∩ H(c,x) ∩ D(c,r)) − area(X ∩ H(c,x) ∩ D(x,r)) ],
 //

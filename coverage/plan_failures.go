@@ -23,8 +23,9 @@
 // triangulations", IJCGA 12, 2002). Per device the work is O(deg(v)²)
 // half-plane clips of its cell, O(n) in all (the mean degree is below 6).
 //
-// Per device v, at the planned range r (GUIDE.md: inside a cell only its
-// own site's disk matters):
+// Per device v, at the planned range r (inside a cell only its own site's
+// disk matters: the site is the nearest to every point q of the cell, so
+// any disk D(s, r) holding q has |q − site| ≤ |q − s| ≤ r):
 //
 //	uncovered in V_v before = area(V_v ∩ A) − area(V_v ∩ A ∩ D(v, r))
 //	uncovered in V_v after  = area(V_v ∩ A) − Σ_w area(P_w ∩ D(w, r))

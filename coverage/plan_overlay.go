@@ -38,17 +38,19 @@
 // Measures per cell: area (shoelace), the area within the planned range r
 // (planar.RingDiskArea), the uncovered area (their difference), and the
 // farthest vertex, whose distance is the cell's radius; the full-cover range
-// is the largest radius (GUIDE.md: the nearest-site distance is convex on a
-// cell, so its maximum is at a vertex). The covered-area gain of a
-// hypothetical device c is exact by the same partition:
+// is the largest radius (on the cell of x the nearest-site distance is
+// |q − x|, a convex function, so its maximum is at a vertex). The
+// covered-area gain of a hypothetical device c is exact by the same
+// partition:
 //
 //	gain(c) = Σ_X [ area(X ∩ H(c,x) ∩ D(c,r)) − area(X ∩ H(c,x) ∩ D(x,r)) ]
 //
-// over the current cells X (site x): inside X only x's disk covers
-// (GUIDE.md), and after adding c the part of X nearer to c is covered by
-// D(c, r) alone. Error bounds are those of plan_clip.go: every measure is
-// exact up to rounding of order 1e-14 relative per piece; sums over cells
-// accumulate rounding of order 1e-14 of the area.
+// over the current cells X (site x): inside X only x's disk covers (x is
+// the nearest site to every point q of X, so any disk D(s, r) holding q
+// has |q − x| ≤ |q − s| ≤ r), and after adding c the part of X nearer to c
+// is covered by D(c, r) alone. Error bounds are those of plan_clip.go:
+// every measure is exact up to rounding of order 1e-14 relative per piece;
+// sums over cells accumulate rounding of order 1e-14 of the area.
 
 package coverage
 
@@ -719,12 +721,33 @@ func (o *planOverlay) maybeRebuildGrid() {
 	}
 }
 
+// planWorstTieTol is the relative tolerance within which a cell's farthest
+// vertex counts as attaining the full-cover range when the worst point is
+// chosen. Radii carry rounding of about 1e-15 relative (the clipped
+// vertices' rounding and one square root), so cells whose true radii tie
+// may differ by a few ulps; 1e-9 is far above that and far below any
+// distance that matters for placement (1 µm per km), so the lexicographic
+// tie-break picks the same point whatever the rounding.
+const planWorstTieTol = 1e-9
+
+// planNudgeStart is the first inward step of planOverlay.inside, relative
+// to the magnitude of the coordinates (at least 1): a nearest boundary point
+// is computed with one rounding per operation, within a few ulps (2.2e-16
+// relative each) of the boundary, and 1e-12 (some 4500 ulps) clears that.
+// Each further step doubles; planNudgeSteps of them reach 2⁷⁹·1e-12 ≈ 6e11
+// relative, beyond any site's extent, so the search ends by finding a point
+// or leaving the area.
+const (
+	planNudgeStart = 1e-12
+	planNudgeSteps = 80
+)
+
 // worst returns the full-cover range and a point attaining it: among the
-// cells' farthest vertices within 1e-9 relative of the range, the
-// lexicographically smallest.
+// cells' farthest vertices within planWorstTieTol relative of the range,
+// the lexicographically smallest.
 func (o *planOverlay) worst() (rng float64, p orb.Point) {
 	rng = o.fullCover()
-	thr := rng * (1 - 1e-9)
+	thr := rng * (1 - planWorstTieTol)
 	p = orb.Point{math.NaN(), math.NaN()}
 	take := func(x, y float64) {
 		if math.IsNaN(p[0]) || x < p[0] || (x == p[0] && y < p[1]) {
@@ -882,8 +905,8 @@ func (o *planOverlay) inside(x, y float64) (px, py float64, ok bool) {
 		return x, y, false
 	}
 	nx, ny := -ey/ln, ex/ln
-	step := 1e-12 * math.Max(1, math.Max(math.Abs(bx), math.Abs(by)))
-	for k := 0; k < 80; k++ {
+	step := planNudgeStart * math.Max(1, math.Max(math.Abs(bx), math.Abs(by)))
+	for k := 0; k < planNudgeSteps; k++ {
 		qx, qy := bx, by
 		if k > 0 {
 			qx, qy = bx+step*nx, by+step*ny

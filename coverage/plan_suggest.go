@@ -5,8 +5,10 @@
 // maximum intercluster distance", Theor. Comp. Sci. 38, 1985): each new
 // device goes to the current worst point, the point of the area farthest
 // from every device (the vertex of a clipped cell attaining the full-cover
-// range; GUIDE.md). With the existing devices fixed this is Gonzalez's
-// greedy 2-approximation of the k-centre problem over the area. Then local
+// range: on the cell of site x the distance to the nearest device is
+// |q − x|, a convex function, so its maximum over the cell is at a vertex).
+// With the existing devices fixed this is Gonzalez's greedy
+// 2-approximation of the k-centre problem over the area. Then local
 // refinement in the manner of Lloyd's iteration for the minimax objective:
 // each new device moves to the centre of the smallest circle enclosing its
 // clipped cell (Welzl 1991; the circle is fixed by the cell's farthest
