@@ -1,6 +1,13 @@
 // Half-plane clipping of ring sets, in floating point, with the provenance
 // of every output vertex.
 //
+// This is not the diagram clipper of clip.go, which builds every Voronoi
+// cell of a triangulation against the site area with exact predicates. The
+// planning moves start from those cells and cut one of them by a handful
+// of half-planes at a time (a device added, moved or failed), thousands of
+// times per run, and need to know which output vertices are points of the
+// result; that is what this file does.
+//
 // A half-plane is the closed set {q : (q − w)·n ≤ h}; Bisector(w, u) is the
 // half-plane of points at least as close to w as to u, n = u − w and
 // h = |n|²/2, so that differences are taken from w and coordinates of
