@@ -223,6 +223,16 @@ func crvPieceDisk(xy []float64, ringStart []int32, theta []float64, cx, cy, r fl
 // the disk of radius r about the origin, and the angle of the circle inside
 // the polygon.
 //
+// This is the triangle-fan sum of planar.RingDiskArea in a different
+// algorithm, kept apart on purpose: the curve evaluates the same piece at
+// many ranges, so everything that does not depend on r (crvEdge: a, d,
+// |a|², |b|², a × b, the subtended angle θ, the foot parameter) is computed
+// once, the chord parameters come from the foot of the perpendicular
+// (tm ± √(|d|²r² − (a × b)²)/|d|²) rather than the stable quadratic, the
+// sector angles are θ minus the inside angle instead of one atan2 per
+// outside piece, and the derivative in r (the inside angle) comes out of
+// the same pass. RingDiskArea remains the single-range reference.
+//
 // The inside angles φ_in of the edges crossing the circle are not taken one
 // by one: their sum is the argument of the product of the complex numbers
 // (p·q, p×q) of the inside chords, one atan2 per piece, its multiple of 2π

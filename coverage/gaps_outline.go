@@ -23,6 +23,7 @@ import (
 	"slices"
 
 	"github.com/paulmach/orb"
+	"github.com/sitecover/sitecover/planar"
 )
 
 // gapChain is a maximal run of kept elements of one loop.
@@ -152,16 +153,29 @@ func (m *gapMerged) outlines(l *Layout, gapOf []int32, ng int, r, tol float64) [
 	return out
 }
 
+// Link tolerance of linkChains: a chain end and the start that continues it
+// are the same point computed in two cells, so they differ by rounding.
+// A point computed from coordinates of magnitude E by a few dozen correctly
+// rounded operations is within a few hundred ulps, under 1e-13·E; a
+// crossing of a circle of radius r with a nearly tangent line is
+// ill-conditioned, its error growing like √(2ε)·r ≈ 1.5e-8·r (ε = 2⁻⁵³).
+// The tolerance gapLinkTolR·r + gapLinkTolExt·E covers both with a margin
+// of about ten, and stays far below the distance between distinct chain
+// ends of one gap.
+const (
+	gapLinkTolR   = 1e-7
+	gapLinkTolExt = 1e-12
+)
+
 // linkChains links each chain end to the chain start at the same point of
-// the same gap: among the unused starts within tol (1e-7 r plus 1e-12 of
-// the coordinates, far above the rounding of points computed in two cells)
+// the same gap: among the unused starts within the link tolerance (above)
 // the one on the same bisector first, then the nearest. Where none is that
 // close (a crossing of a circle with a nearly tangent bisector is computed
 // less precisely), the nearest start along the same bisector is taken.
 func (m *gapMerged) linkChains(l *Layout, chains []gapChain, r float64) {
 	b := l.Area.Bound()
 	ext := math.Max(math.Max(math.Abs(b.Min[0]), math.Abs(b.Max[0])), math.Max(math.Abs(b.Min[1]), math.Abs(b.Max[1])))
-	tol := 1e-7*r + 1e-12*ext
+	tol := gapLinkTolR*r + gapLinkTolExt*ext
 	if !(tol > 0) {
 		tol = math.SmallestNonzeroFloat64
 	}
@@ -353,32 +367,22 @@ func gapCloseRing(pts []orb.Point) orb.Ring {
 	return append(ring, ring[0])
 }
 
-// gapRingArea returns the signed area of a closed ring.
-func gapRingArea(r orb.Ring) float64 {
-	if len(r) < 4 {
-		return 0
-	}
-	x0, y0 := r[0][0], r[0][1]
-	s := 0.0
-	for i := 1; i+1 < len(r); i++ {
-		s += (r[i][0]-x0)*(r[i+1][1]-y0) - (r[i+1][0]-x0)*(r[i][1]-y0)
-	}
-	return s / 2
-}
-
-// gapRingContains reports whether p lies inside the closed ring.
-func gapRingContains(r orb.Ring, p orb.Point) bool {
-	in := false
-	for i := 0; i+1 < len(r); i++ {
-		a, b := r[i], r[i+1]
-		if (a[1] > p[1]) != (b[1] > p[1]) {
-			x := a[0] + (p[1]-a[1])*(b[0]-a[0])/(b[1]-a[1])
-			if x > p[0] {
-				in = !in
-			}
+// gapHoleInside reports whether the hole ring h lies inside the exterior
+// ring e. Outline rings do not cross but may touch (a gap touching itself),
+// so h is wholly inside or wholly outside e apart from touching points: the
+// first vertex of h strictly inside or outside e decides (planar.PointInRing,
+// exact). A vertex on e decides nothing — under the closed convention it is
+// in e whichever side h lies on, and a half-open crossing rule would call it
+// in or out by the side of e it lies on — so it is skipped. A hole with
+// every vertex on e is taken as inside (the closed convention).
+func gapHoleInside(e, h orb.Ring) bool {
+	exy := planar.FlatRing(e)
+	for _, p := range h {
+		if s := planar.PointInRing(exy, p[0], p[1]); s != 0 {
+			return s > 0
 		}
 	}
-	return in
+	return true
 }
 
 // gapPolygons groups rings into polygons: counter-clockwise rings are
@@ -387,7 +391,7 @@ func gapPolygons(rings []orb.Ring) orb.MultiPolygon {
 	var ext, holes []orb.Ring
 	var extA []float64
 	for _, r := range rings {
-		a := gapRingArea(r)
+		a := planar.RingArea(planar.FlatRing(r))
 		switch {
 		case a > 0:
 			ext = append(ext, r)
@@ -401,7 +405,7 @@ func gapPolygons(rings []orb.Ring) orb.MultiPolygon {
 		for _, h := range holes {
 			h.Reverse()
 			ext = append(ext, h)
-			extA = append(extA, gapRingArea(h))
+			extA = append(extA, planar.RingArea(planar.FlatRing(h)))
 		}
 		holes = nil
 	}
@@ -415,7 +419,7 @@ func gapPolygons(rings []orb.Ring) orb.MultiPolygon {
 			best = -1
 			bestA := math.Inf(1)
 			for i, e := range ext {
-				if extA[i] < bestA && gapRingContains(e, h[0]) {
+				if extA[i] < bestA && gapHoleInside(e, h) {
 					best, bestA = i, extA[i]
 				}
 			}

@@ -102,20 +102,15 @@ func gapsSceneLayout(t *testing.T, sc gapsRefScene) (*Layout, []orb.Point) {
 }
 
 // gapsOutlineContains reports whether p lies in the outline (inside an
-// exterior ring and outside its holes).
+// exterior ring and outside its holes; the outline polygons are closed, as
+// every ring set in the module).
 func gapsOutlineContains(mp orb.MultiPolygon, p orb.Point) bool {
 	for _, pg := range mp {
-		if len(pg) == 0 || !gapRingContains(pg[0], p) {
-			continue
+		var rs planar.RingSet
+		for _, r := range pg {
+			rs.AppendRing(planar.FlatRing(r))
 		}
-		in := true
-		for _, h := range pg[1:] {
-			if gapRingContains(h, p) {
-				in = false
-				break
-			}
-		}
-		if in {
+		if rs.Locate(p[0], p[1]) >= 0 {
 			return true
 		}
 	}
@@ -161,7 +156,7 @@ func gapsCheck(t *testing.T, name string, l *Layout, r float64) []Gap {
 					if !ring.Closed() {
 						t.Errorf("%s r=%v: gap %d outline ring not closed", name, r, g.ID)
 					}
-					oa += gapRingArea(ring)
+					oa += planar.RingArea(planar.FlatRing(ring))
 				}
 			}
 			alpha := 2 * math.Acos(1-DefaultChordTolerance)
@@ -608,5 +603,53 @@ func TestGapsDegenerateLayouts(t *testing.T) {
 		for _, r := range []float64{2.5, 5, 5 * math.Sqrt2, 7, 10, 5 * math.Sqrt(5), 15} {
 			gapsCheck(t, fmt.Sprint("grid ", trial), l, r)
 		}
+	}
+}
+
+// gapPolygons puts each hole into the smallest exterior holding it. Outline
+// rings do not cross but may touch, and a hole whose first vertex lies on
+// an exterior must still go to the exterior around it. The exteriors are
+// E1 = 0..10 × 0..10 and E2 = a 4 × 2 box touching E1's right (or left)
+// edge along 4 ≤ y ≤ 6; the hole is a triangle in E1 whose first vertex
+// touches that edge at y = 5. The right answer is E1 (the hole's other
+// vertices are strictly inside E1 and outside E2). Deciding by the first
+// vertex alone fails either way: under the closed convention it is in
+// both, and E2 is smaller; under the former half-open rule it was in E2
+// for the right edge (and in E1 for the left), so the answer depended on
+// the side.
+func TestGapPolygonsTouchingHole(t *testing.T) {
+	sq := func(x0, y0, x1, y1 float64) orb.Ring {
+		return orb.Ring{{x0, y0}, {x1, y0}, {x1, y1}, {x0, y1}, {x0, y0}}
+	}
+	cases := []struct {
+		name   string
+		e2     orb.Ring
+		hole   orb.Ring // clockwise
+		inside bool     // the hole's first vertex is on E1
+	}{
+		{"touching E1's right edge", sq(10, 4, 14, 6), orb.Ring{{10, 5}, {5, 3}, {5, 7}, {10, 5}}, true},
+		{"touching E1's left edge", sq(-4, 4, 0, 6), orb.Ring{{0, 5}, {5, 7}, {5, 3}, {0, 5}}, true},
+		{"strictly inside", sq(10, 4, 14, 6), orb.Ring{{7, 5}, {5, 3}, {5, 7}, {7, 5}}, false},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			e1 := sq(0, 0, 10, 10)
+			mp := gapPolygons([]orb.Ring{c.e2, e1, c.hole})
+			if len(mp) != 2 {
+				t.Fatalf("%d polygons, want 2", len(mp))
+			}
+			for _, pg := range mp {
+				wantHoles := 0
+				if planar.RingArea(planar.FlatRing(pg[0])) == 100 {
+					wantHoles = 1 // E1
+				}
+				if len(pg)-1 != wantHoles {
+					t.Errorf("exterior %v has %d holes, want %d", pg[0], len(pg)-1, wantHoles)
+				}
+			}
+			if got := planar.PointInRing(planar.FlatRing(e1), c.hole[0][0], c.hole[0][1]); (got == 0) != c.inside {
+				t.Errorf("first hole vertex on E1: %v, want %v", got == 0, c.inside)
+			}
+		})
 	}
 }

@@ -16,9 +16,10 @@
 // longest interior run of the horizontal line through the centroid (a
 // point-on-surface construction in the manner of GEOS's InteriorPoint,
 // common practice in GIS), so that the point always lies on the polygon.
-// The centroid is the shoelace-weighted mean of the triangle centroids,
-// taken relative to the first vertex (relative error of order n·u of the
-// polygon's extent).
+// The centroid is the shoelace-weighted mean of the triangle centroids
+// (planar.RingMoments), taken relative to the first vertex (relative error
+// of order n·u of the polygon's extent); whether the polygon holds it is
+// decided exactly, boundary included (planar.RingSet.Locate).
 
 package coverage
 
@@ -179,22 +180,27 @@ func RepresentativePoint(p orb.Polygon) (orb.Point, error) {
 		return orb.Point{}, fmt.Errorf("ring 0: %d points, need at least 3", len(ext))
 	}
 	ox, oy := ext[0][0], ext[0][1]
-	var a, cx, cy float64
+	var a, sx, sy float64
+	var rings planar.RingSet
 	for k, ring := range p {
-		ra, rx, ry := planRingMoments(ring, ox, oy)
+		xy := planar.FlatRing(ring)
+		rings.AppendRing(xy)
+		ra, rx, ry := planar.RingMoments(xy, ox, oy)
 		// Holes count negative whatever their orientation.
 		if (k == 0) != (ra >= 0) {
 			ra, rx, ry = -ra, -rx, -ry
 		}
 		a += ra
-		cx += rx
-		cy += ry
+		sx += rx
+		sy += ry
 	}
 	if !(a != 0) {
 		return orb.Point{}, fmt.Errorf("zero area")
 	}
-	c := orb.Point{ox + cx/(3*a), oy + cy/(3*a)}
-	if planPolyContains(p, c[0], c[1]) {
+	// The polygon is closed (the module's boundary convention): a centroid
+	// on its boundary is a point of it.
+	c := orb.Point{ox + sx/a, oy + sy/a}
+	if rings.Locate(c[0], c[1]) >= 0 {
 		return c, nil
 	}
 	// Longest interior run of the line y = c.y (Sutherland-free even-odd
@@ -237,96 +243,28 @@ func planNearestSorted(t *planar.Triangulation, xy []float64) []int32 {
 		t.NearestMany(xy, out)
 		return out
 	}
-	minX, minY := math.Inf(1), math.Inf(1)
-	maxX, maxY := math.Inf(-1), math.Inf(-1)
-	for i := 0; i < nq; i++ {
-		minX, maxX = math.Min(minX, xy[2*i]), math.Max(maxX, xy[2*i])
-		minY, maxY = math.Min(minY, xy[2*i+1]), math.Max(maxY, xy[2*i+1])
-	}
-	cells := max(1, min(nq, t.NumVertices()))
-	w, h := maxX-minX, maxY-minY
-	nx, ny := 1, 1
-	if w > 0 && h > 0 && !math.IsInf(w, 0) && !math.IsInf(h, 0) {
-		nx = max(1, min(cells, int(math.Sqrt(float64(cells)*w/h))))
-		ny = max(1, min(cells, cells/nx))
-	} else if w > 0 && !math.IsInf(w, 0) {
-		nx = cells
-	} else if h > 0 && !math.IsInf(h, 0) {
-		ny = cells
-	}
-	sx, sy := 0.0, 0.0
-	if nx > 1 {
-		sx = float64(nx) / w
-	}
-	if ny > 1 {
-		sy = float64(ny) / h
-	}
-	key := make([]int32, nq)
-	count := make([]int32, nx*ny+1)
-	for i := 0; i < nq; i++ {
-		cx := max(0, min(nx-1, int((xy[2*i]-minX)*sx)))
-		cy := max(0, min(ny-1, int((xy[2*i+1]-minY)*sy)))
-		if cy%2 == 1 {
-			cx = nx - 1 - cx
+	minX, minY, maxX, maxY := planar.BoundsXY(xy, nil)
+	g := planar.NewBucketGrid(planar.GridOfCells(minX, minY, maxX, maxY, min(nq, t.NumVertices())), xy, nil)
+	perm := make([]int32, 0, nq)
+	for j := 0; j < g.NY; j++ {
+		for i := 0; i < g.NX; i++ {
+			if j%2 == 1 {
+				perm = append(perm, g.Bucket(j*g.NX+g.NX-1-i)...)
+			} else {
+				perm = append(perm, g.Bucket(j*g.NX+i)...)
+			}
 		}
-		k := int32(cy*nx + cx)
-		key[i] = k
-		count[k+1]++
-	}
-	for k := 1; k < len(count); k++ {
-		count[k] += count[k-1]
-	}
-	perm := make([]int32, nq)
-	for i := 0; i < nq; i++ {
-		perm[count[key[i]]] = int32(i)
-		count[key[i]]++
 	}
 	sorted := make([]float64, 2*nq)
 	for j, i := range perm {
 		sorted[2*j], sorted[2*j+1] = xy[2*i], xy[2*i+1]
 	}
-	res := key // reuse
+	res := g.Items // reuse
 	t.NearestMany(sorted, res)
 	for j, i := range perm {
 		out[i] = res[j]
 	}
 	return out
-}
-
-// planRingMoments returns the signed area of ring and the first moments
-// (times 3) relative to (ox, oy).
-func planRingMoments(ring orb.Ring, ox, oy float64) (a, mx, my float64) {
-	n := len(ring)
-	if n > 1 && ring[0] == ring[n-1] {
-		n--
-	}
-	for i := 0; i < n; i++ {
-		ax, ay := ring[i][0]-ox, ring[i][1]-oy
-		bx, by := ring[(i+1)%n][0]-ox, ring[(i+1)%n][1]-oy
-		cr := ax*by - ay*bx
-		a += cr
-		mx += (ax + bx) * cr
-		my += (ay + by) * cr
-	}
-	return a / 2, mx / 2, my / 2
-}
-
-// planPolyContains is the even-odd point-in-polygon test over all rings
-// (Shimrat, CACM 5, 1962).
-func planPolyContains(p orb.Polygon, x, y float64) bool {
-	in := false
-	for _, ring := range p {
-		n := len(ring)
-		for i := 0; i < n; i++ {
-			a, b := ring[i], ring[(i+1)%n]
-			if (a[1] > y) != (b[1] > y) {
-				if x < a[0]+(y-a[1])*(b[0]-a[0])/(b[1]-a[1]) {
-					in = !in
-				}
-			}
-		}
-	}
-	return in
 }
 
 // planCheckPoint reports a coordinate that is not finite.

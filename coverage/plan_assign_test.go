@@ -102,10 +102,12 @@ func TestPlanAssignErrors(t *testing.T) {
 		{"NaN weight", pts, []float64{math.NaN(), 1}, 5, "point 0: weight NaN"},
 		{"negative range", pts, nil, -1, "range -1"},
 	} {
-		_, err := Assign(l, c.pts, c.w, c.r)
-		if err == nil || !strings.Contains(err.Error(), c.want) {
-			t.Errorf("%s: error %v, want %q", c.name, err, c.want)
-		}
+		t.Run(c.name, func(t *testing.T) {
+			_, err := Assign(l, c.pts, c.w, c.r)
+			if err == nil || !strings.Contains(err.Error(), c.want) {
+				t.Errorf("%s: error %v, want %q", c.name, err, c.want)
+			}
+		})
 	}
 	if a, err := Assign(l, nil, nil, 5); err != nil || len(a.Device) != 0 || len(a.Load) != 20 {
 		t.Errorf("no points: %v %v", a, err)
@@ -128,17 +130,19 @@ func TestPlanRepresentativePoint(t *testing.T) {
 	// Annulus: the centroid is in the hole.
 	ann := orb.Polygon{{{0, 0}, {10, 0}, {10, 10}, {0, 10}, {0, 0}}, {{2, 2}, {2, 8}, {8, 8}, {8, 2}, {2, 2}}}
 	for name, poly := range map[string]orb.Polygon{"U": u, "annulus": ann} {
-		p, err := RepresentativePoint(poly)
-		if err != nil {
-			t.Fatal(err)
-		}
-		reg, err := planar.NewRegion(orb.MultiPolygon{poly})
-		if err != nil {
-			t.Fatal(err)
-		}
-		if !reg.Contains(p[0], p[1]) {
-			t.Errorf("%s: representative point %v not on the polygon", name, p)
-		}
+		t.Run(name, func(t *testing.T) {
+			p, err := RepresentativePoint(poly)
+			if err != nil {
+				t.Fatal(err)
+			}
+			reg, err := planar.NewRegion(orb.MultiPolygon{poly})
+			if err != nil {
+				t.Fatal(err)
+			}
+			if !reg.Contains(p[0], p[1]) {
+				t.Errorf("%s: representative point %v not on the polygon", name, p)
+			}
+		})
 	}
 	for _, c := range []struct {
 		name string
@@ -150,9 +154,11 @@ func TestPlanRepresentativePoint(t *testing.T) {
 		{"flat", orb.Polygon{{{0, 0}, {1, 1}, {2, 2}, {0, 0}}}, "zero area"},
 		{"NaN", orb.Polygon{{{0, 0}, {1, math.NaN()}, {2, 0}}}, "ring 0, vertex 1: y coordinate is NaN"},
 	} {
-		if _, err := RepresentativePoint(c.p); err == nil || !strings.Contains(err.Error(), c.want) {
-			t.Errorf("%s: error %v, want %q", c.name, err, c.want)
-		}
+		t.Run(c.name, func(t *testing.T) {
+			if _, err := RepresentativePoint(c.p); err == nil || !strings.Contains(err.Error(), c.want) {
+				t.Errorf("%s: error %v, want %q", c.name, err, c.want)
+			}
+		})
 	}
 	// AssignPolygons uses those points.
 	reg := planTestRegion(t, 100)
@@ -169,5 +175,47 @@ func TestPlanRepresentativePoint(t *testing.T) {
 	}
 	if _, _, err := AssignPolygons(l, []orb.Polygon{rect, {}}, nil, 3); err == nil || !strings.Contains(err.Error(), "polygon 1: no ring") {
 		t.Errorf("bad polygon: %v", err)
+	}
+}
+
+// RepresentativePoint returns the centroid whenever the polygon holds it,
+// and a polygon holds its boundary (the module's closed convention, as
+// planar.Region.Contains). The polygon is 0..6 × 0..6 with the holes
+// H1 = 3..4 × 1..5 and H2 = 1.5..2.5 × 2..4 (or the mirror image): the
+// holes' combined centroid is at x = 3 (4·3.5 + 2·2 = 6·3), so the
+// polygon's centroid is (3, 3), on H1's edge x = 3. The former half-open
+// crossing rule rejected it when the edge was H1's left edge and accepted
+// it when it was the right edge, so mirroring the polygon moved the
+// representative point from (5, 3) to the centroid; now both give the
+// centroid.
+func TestPlanRepresentativePointOnBoundary(t *testing.T) {
+	rect := func(x0, y0, x1, y1 float64) orb.Ring {
+		return orb.Ring{{x0, y0}, {x0, y1}, {x1, y1}, {x1, y0}, {x0, y0}} // clockwise
+	}
+	ext := orb.Ring{{0, 0}, {6, 0}, {6, 6}, {0, 6}, {0, 0}}
+	cases := []struct {
+		name string
+		p    orb.Polygon
+	}{
+		{"centroid on a hole's left edge", orb.Polygon{ext, rect(3, 1, 4, 5), rect(1.5, 2, 2.5, 4)}},
+		{"centroid on a hole's right edge", orb.Polygon{ext, rect(2, 1, 3, 5), rect(3.5, 2, 4.5, 4)}},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			p, err := RepresentativePoint(c.p)
+			if err != nil {
+				t.Fatal(err)
+			}
+			if p != (orb.Point{3, 3}) {
+				t.Errorf("representative point %v, want the centroid (3, 3)", p)
+			}
+			reg, err := planar.NewRegion(orb.MultiPolygon{c.p})
+			if err != nil {
+				t.Fatal(err)
+			}
+			if !reg.Contains(p[0], p[1]) {
+				t.Errorf("%v is not on the polygon by Region.Contains", p)
+			}
+		})
 	}
 }

@@ -13,9 +13,10 @@
 // the set-covering problem", Math. Oper. Res. 4, 1979).
 //
 // Exact marginal area. Inside the current Voronoi cell X of a device x only
-// x's disk covers (GUIDE.md). Adding a device c changes coverage only in
-// the part of each X nearer to c than to x, X ∩ H(c, x), which after the
-// addition is covered by D(c, r) alone; so
+// x's disk covers: x is the nearest device to every point q of X, so if any
+// disk D(s, r) holds q then |q − x| ≤ |q − s| ≤ r. Adding a device c
+// changes coverage only in the part of each X nearer to c than to x,
+// X ∩ H(c, x), which after the addition is covered by D(c, r) alone; so
 //
 //	gain(c) = Σ_X [ area(X ∩ H(c,x) ∩ D(c,r)) − area(X ∩ H(c,x) ∩ D(x,r)) ],
 //
@@ -29,8 +30,8 @@
 // KDD 2007): gains only shrink as devices are added (submodularity), so a
 // gain computed earlier is an upper bound. Candidates sit in a max-heap by
 // their last computed gain; the top is re-evaluated if stale and picked
-// when its fresh gain still tops the heap. Gains below 1e-11·πr² are taken
-// as zero (rounding noise of the difference of two disk areas).
+// when its fresh gain still tops the heap. Gains below planGainNoise·πr²
+// are taken as zero (rounding noise of the difference of two disk areas).
 
 package coverage
 
@@ -171,8 +172,15 @@ func ChooseCandidates(l *Layout, candidates []orb.Point, r float64, k int) (*Cho
 	return ch, nil
 }
 
+// planGainNoise is the gain, relative to the disk area πr², below which an
+// added area is rounding noise: a gain is a difference of sums of polygon ∩
+// disk areas, each with relative error of order 1e-14 of πr²
+// (planar.RingDiskArea), over the dozen or so cells a disk meets; 1e-11
+// leaves a margin of about a hundred above that.
+const planGainNoise = 1e-11
+
 // planGainEps is the gain below which an added area is rounding noise.
-func planGainEps(r float64) float64 { return 1e-11 * math.Pi * r * r }
+func planGainEps(r float64) float64 { return planGainNoise * math.Pi * r * r }
 
 // planGains evaluates the gain of a device at each point of xy
 // (interleaved), in parallel; the overlay is only read.

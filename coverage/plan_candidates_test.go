@@ -2,8 +2,10 @@
 //
 // References: exhaustive search over all k-subsets with the covered area
 // of each evaluated from scratch (NewLayout + UncoveredArea, the closed
-// form of GUIDE.md), and the greedy guarantee covered(greedy) − covered(∅)
-// ≥ (1 − 1/e)·(covered(OPT) − covered(∅)) for monotone submodular coverage
+// form Σ_X area(X) − area(X ∩ D(x, r)) over the clipped cells), and the
+// greedy guarantee
+// covered(greedy) − covered(∅) ≥ (1 − 1/e)·(covered(OPT) − covered(∅))
+// for monotone submodular coverage
 // (Nemhauser, Wolsey & Fisher, Math. Programming 14, 1978); the gains the
 // greedy reports are the drops in uncovered area of the rebuilt layouts;
 // GEOS values are checked in plan_ref_test.go.
@@ -181,8 +183,10 @@ func TestPlanChooseDegenerate(t *testing.T) {
 		{"NaN", []orb.Point{{1, 1}, {math.NaN(), 1}}, 10, "candidate 1: x coordinate is NaN"},
 		{"zero range", cands, 0, "range 0"},
 	} {
-		if _, err := ChooseCandidates(l, c.cands, c.r, 2); err == nil || !strings.Contains(err.Error(), c.want) {
-			t.Errorf("%s: error %v, want %q", c.name, err, c.want)
-		}
+		t.Run(c.name, func(t *testing.T) {
+			if _, err := ChooseCandidates(l, c.cands, c.r, 2); err == nil || !strings.Contains(err.Error(), c.want) {
+				t.Errorf("%s: error %v, want %q", c.name, err, c.want)
+			}
+		})
 	}
 }

@@ -23,8 +23,9 @@
 // triangulations", IJCGA 12, 2002). Per device the work is O(deg(v)²)
 // half-plane clips of its cell, O(n) in all (the mean degree is below 6).
 //
-// Per device v, at the planned range r (GUIDE.md: inside a cell only its
-// own site's disk matters):
+// Per device v, at the planned range r (inside a cell only its own site's
+// disk matters: the site is the nearest to every point q of the cell, so
+// any disk D(s, r) holding q has |q − site| ≤ |q − s| ≤ r):
 //
 //	uncovered in V_v before = area(V_v ∩ A) − area(V_v ∩ A ∩ D(v, r))
 //	uncovered in V_v after  = area(V_v ∩ A) − Σ_w area(P_w ∩ D(w, r))
@@ -56,6 +57,7 @@ import (
 	"slices"
 
 	"github.com/paulmach/orb"
+	"github.com/sitecover/sitecover/planar"
 )
 
 // DeviceFailure is what one device's outage does to the plan.
@@ -240,19 +242,18 @@ func Failures(l *Layout, r float64) (*FailureReport, error) {
 // planFailScratch is per-goroutine scratch space of Failures.
 type planFailScratch struct {
 	nbrs      []int32
-	rings     [][]float64
-	cell      planRings
-	cur, next planRings
+	cell      planar.ClipRings
+	cur, next planar.ClipRings
 }
 
 // planFailOne computes the failure of vertex v.
 func planFailOne(l *Layout, v int32, r float64, shared bool, sc *planFailScratch, out *planFailVertex) {
 	t, c := l.Tri, l.Cells
 	vx, vy := t.Coords[2*v], t.Coords[2*v+1]
-	sc.cell.reset()
-	k0, k1 := c.PolyStart[c.SiteStart[v]], c.PolyStart[c.SiteStart[v+1]]
-	for k := k0; k < k1; k++ {
-		sc.cell.appendRing(c.XY[2*c.RingStart[k]:2*c.RingStart[k+1]], v)
+	sc.cell.Reset()
+	rs := planCellRings(c, v)
+	for k := 0; k < rs.NumRings(); k++ {
+		sc.cell.AppendRing(rs.Ring(k), v)
 	}
 	area, disk, far, fx, fy := planMeasures(&sc.cell, vx, vy, r, nil)
 	if far < 0 {
@@ -276,7 +277,7 @@ func planFailOne(l *Layout, v int32, r float64, shared bool, sc *planFailScratch
 		out.dx, out.dy = vx, vy
 		return
 	}
-	if len(sc.cell.xy) == 0 {
+	if len(sc.cell.XY) == 0 {
 		// Serves no part of the area.
 		best := math.Inf(1)
 		for _, w := range nbrs {
@@ -289,13 +290,9 @@ func planFailOne(l *Layout, v int32, r float64, shared bool, sc *planFailScratch
 	}
 	// Candidate vertices of the pieces need a point-in-cell test unless the
 	// cell is one convex ring (plan_clip.go).
-	sc.rings = sc.rings[:0]
-	for k := 0; k < sc.cell.numRings(); k++ {
-		sc.rings = append(sc.rings, sc.cell.ring(k))
-	}
 	var valid func(int32, float64, float64) bool
-	if !planRingsConvex(sc.rings) {
-		valid = func(_ int32, x, y float64) bool { return planInRings(sc.rings, x, y) }
+	if !planCellConvex(&sc.cell.RingSet) {
+		valid = func(_ int32, x, y float64) bool { return planCellHolds(&sc.cell.RingSet, x, y) }
 	}
 	sumDisk := 0.0
 	out.closing = -1
@@ -306,18 +303,18 @@ func planFailOne(l *Layout, v int32, r float64, shared bool, sc *planFailScratch
 			if u == w {
 				continue
 			}
-			nx, ny, h := planBisector(wx, wy, t.Coords[2*u], t.Coords[2*u+1])
-			if !planSetOutside(cur, wx, wy, nx, ny, h) {
+			hp := planar.Bisector(wx, wy, t.Coords[2*u], t.Coords[2*u+1])
+			if !hp.SomeOutside(cur.XY) {
 				continue
 			}
-			planClipSet(cur, wx, wy, nx, ny, h, &sc.next)
+			hp.ClipSet(cur, &sc.next)
 			sc.cur, sc.next = sc.next, sc.cur
 			cur = &sc.cur
-			if len(cur.xy) == 0 {
+			if len(cur.XY) == 0 {
 				break
 			}
 		}
-		if len(cur.xy) == 0 {
+		if len(cur.XY) == 0 {
 			continue
 		}
 		_, d, far, fx, fy := planMeasures(cur, wx, wy, r, valid)

@@ -3,9 +3,9 @@
 // References: closed forms for lattices with one device out of service
 // (derived below from elementary geometry), a from-scratch rebuild of the
 // layout without each device (NewLayout, FullCover, UncoveredArea: the
-// definitions of GUIDE.md evaluated by independent code), brute-force
-// second-nearest distances, and (plan_ref_test.go) GEOS and SciPy's k-d
-// tree.
+// definitions of full-cover range and uncovered area evaluated by
+// independent code), brute-force second-nearest distances, and
+// (plan_ref_test.go) GEOS and SciPy's k-d tree.
 
 package coverage
 
@@ -84,9 +84,11 @@ func TestPlanLossFormulasEndpoints(t *testing.T) {
 		{"triangular r=s", planTriangularLoss(s, s), 0},
 		{"triangular r=s/√3", planTriangularLoss(s, s/math.Sqrt(3)), math.Sqrt(3)*s*s - math.Pi*s*s/3},
 	} {
-		if math.Abs(c.got-c.want) > 1e-12*s*s {
-			t.Errorf("%s: %.15g, want %.15g", c.name, c.got, c.want)
-		}
+		t.Run(c.name, func(t *testing.T) {
+			if math.Abs(c.got-c.want) > 1e-12*s*s {
+				t.Errorf("%s: %.15g, want %.15g", c.name, c.got, c.want)
+			}
+		})
 	}
 }
 
@@ -108,52 +110,54 @@ func TestPlanFailuresLatticeClosedForm(t *testing.T) {
 			tri[4*10+4], s / math.Sqrt(3), planTriangularLoss},
 	}
 	for _, lt := range lats {
-		reg, err := planar.NewRegion(orb.MultiPolygon{{lt.area}})
-		if err != nil {
-			t.Fatal(err)
-		}
-		l, err := NewLayout(lt.sites, reg)
-		if err != nil {
-			t.Fatal(err)
-		}
-		idx := slices.Index(lt.sites, lt.failed)
-		for _, f := range []float64{0, 0.1, 0.37, 0.5, 0.81, 0.999, 1} {
-			r := lt.rmin + f*(s-lt.rmin)
-			rep, err := Failures(l, r)
+		t.Run(lt.name, func(t *testing.T) {
+			reg, err := planar.NewRegion(orb.MultiPolygon{{lt.area}})
 			if err != nil {
 				t.Fatal(err)
 			}
-			var d DeviceFailure
-			for _, x := range rep.Devices {
-				if x.Site == idx {
-					d = x
+			l, err := NewLayout(lt.sites, reg)
+			if err != nil {
+				t.Fatal(err)
+			}
+			idx := slices.Index(lt.sites, lt.failed)
+			for _, f := range []float64{0, 0.1, 0.37, 0.5, 0.81, 0.999, 1} {
+				r := lt.rmin + f*(s-lt.rmin)
+				rep, err := Failures(l, r)
+				if err != nil {
+					t.Fatal(err)
+				}
+				var d DeviceFailure
+				for _, x := range rep.Devices {
+					if x.Site == idx {
+						d = x
+					}
+				}
+				// Reference: closed forms derived above.
+				if want := lt.loss(s, r); math.Abs(d.AddedUncovered-want) > 1e-9*s*s {
+					t.Errorf("%s r=%.6g: added uncovered %.12g, closed form %.12g", lt.name, r, d.AddedUncovered, want)
+				}
+				if math.Abs(d.Uncovered-(rep.Uncovered+d.AddedUncovered)) > 1e-9*s*s {
+					t.Errorf("%s r=%.6g: uncovered %.12g ≠ intact %.12g + added %.12g", lt.name, r, d.Uncovered, rep.Uncovered, d.AddedUncovered)
+				}
+				if math.Abs(d.ClosingRange-s) > 1e-9*s || math.Hypot(d.Deepest[0]-lt.failed[0], d.Deepest[1]-lt.failed[1]) > 1e-9*s {
+					t.Errorf("%s r=%.6g: closing range %.12g at %v, want %g at %v", lt.name, r, d.ClosingRange, d.Deepest, s, lt.failed)
+				}
+				if d.Backup < 0 || math.Abs(math.Hypot(lt.sites[d.Backup][0]-lt.failed[0], lt.sites[d.Backup][1]-lt.failed[1])-s) > 1e-9 {
+					t.Errorf("%s: backup %d is not a lattice neighbour", lt.name, d.Backup)
+				}
+				// Reference: Kershner (1939) covering radii s/√2 and s/√3 of
+				// the intact lattices in the interior.
+				if math.Abs(d.ServiceArea-l.Cells.Area[l.Tri.Vertex[idx]]) > 0 {
+					t.Errorf("%s: service area %.12g", lt.name, d.ServiceArea)
 				}
 			}
-			// Reference: closed forms derived above.
-			if want := lt.loss(s, r); math.Abs(d.AddedUncovered-want) > 1e-9*s*s {
-				t.Errorf("%s r=%.6g: added uncovered %.12g, closed form %.12g", lt.name, r, d.AddedUncovered, want)
-			}
-			if math.Abs(d.Uncovered-(rep.Uncovered+d.AddedUncovered)) > 1e-9*s*s {
-				t.Errorf("%s r=%.6g: uncovered %.12g ≠ intact %.12g + added %.12g", lt.name, r, d.Uncovered, rep.Uncovered, d.AddedUncovered)
-			}
-			if math.Abs(d.ClosingRange-s) > 1e-9*s || math.Hypot(d.Deepest[0]-lt.failed[0], d.Deepest[1]-lt.failed[1]) > 1e-9*s {
-				t.Errorf("%s r=%.6g: closing range %.12g at %v, want %g at %v", lt.name, r, d.ClosingRange, d.Deepest, s, lt.failed)
-			}
-			if d.Backup < 0 || math.Abs(math.Hypot(lt.sites[d.Backup][0]-lt.failed[0], lt.sites[d.Backup][1]-lt.failed[1])-s) > 1e-9 {
-				t.Errorf("%s: backup %d is not a lattice neighbour", lt.name, d.Backup)
-			}
-			// Reference: Kershner (1939) covering radii s/√2 and s/√3 of
-			// the intact lattices in the interior.
-			if math.Abs(d.ServiceArea-l.Cells.Area[l.Tri.Vertex[idx]]) > 0 {
-				t.Errorf("%s: service area %.12g", lt.name, d.ServiceArea)
-			}
-		}
+		})
 	}
 }
 
-// planFailureScenes are layouts of the kinds GUIDE.md calls common:
-// random, clustered, grid, with duplicates, sites outside the area, a
-// fence of collinear sites, two sites.
+// planFailureScenes are layouts of the kinds met in practice: random,
+// clustered, grid, with duplicates, sites outside the area, a fence of
+// collinear sites, two sites.
 func planFailureScenes(t *testing.T) map[string]*Layout {
 	reg := planTestRegion(t, 100)
 	scenes := map[string][]orb.Point{
@@ -190,56 +194,58 @@ func planFailureScenes(t *testing.T) map[string]*Layout {
 
 func TestPlanFailuresMatchRebuild(t *testing.T) {
 	for name, l := range planFailureScenes(t) {
-		for _, r := range []float64{0, 7, 13} {
-			rep, err := Failures(l, r)
-			if err != nil {
-				t.Fatal(err)
-			}
-			if len(rep.Devices) != len(l.Sites) {
-				t.Fatalf("%s: %d failures for %d devices", name, len(rep.Devices), len(l.Sites))
-			}
-			if fc := l.FullCover().Range; math.Abs(rep.Uncovered-l.UncoveredArea(r)) > 1e-9*l.AreaM2 || math.Abs(rep.FullCover-fc) > 1e-12*fc {
-				t.Errorf("%s r=%g: intact figures %.12g %.12g vs layout %.12g %.12g", name, r,
-					rep.Uncovered, rep.FullCover, l.UncoveredArea(r), l.FullCover().Range)
-			}
-			seen := make([]bool, len(l.Sites))
-			for k, d := range rep.Devices {
-				if seen[d.Site] {
-					t.Fatalf("%s: device %d listed twice", name, d.Site)
-				}
-				seen[d.Site] = true
-				if k > 0 {
-					p := rep.Devices[k-1]
-					if p.AddedUncovered < d.AddedUncovered || p.AddedUncovered == d.AddedUncovered && p.ClosingRange < d.ClosingRange {
-						t.Fatalf("%s: ranking out of order at %d", name, k)
-					}
-				}
-				rest := slices.Delete(slices.Clone(l.Sites), d.Site, d.Site+1)
-				lw, err := NewLayout(rest, l.Area)
+		t.Run(name, func(t *testing.T) {
+			for _, r := range []float64{0, 7, 13} {
+				rep, err := Failures(l, r)
 				if err != nil {
 					t.Fatal(err)
 				}
-				if u := lw.UncoveredArea(r); math.Abs(d.Uncovered-u) > 1e-9*l.AreaM2 {
-					t.Errorf("%s r=%g device %d: uncovered %.12g, rebuilt %.12g", name, r, d.Site, d.Uncovered, u)
+				if len(rep.Devices) != len(l.Sites) {
+					t.Fatalf("%s: %d failures for %d devices", name, len(rep.Devices), len(l.Sites))
 				}
-				if fc := lw.FullCover().Range; math.Abs(d.FullCover-fc) > 1e-9*fc {
-					t.Errorf("%s r=%g device %d: full cover %.12g, rebuilt %.12g", name, r, d.Site, d.FullCover, fc)
+				if fc := l.FullCover().Range; math.Abs(rep.Uncovered-l.UncoveredArea(r)) > 1e-9*l.AreaM2 || math.Abs(rep.FullCover-fc) > 1e-12*fc {
+					t.Errorf("%s r=%g: intact figures %.12g %.12g vs layout %.12g %.12g", name, r,
+						rep.Uncovered, rep.FullCover, l.UncoveredArea(r), l.FullCover().Range)
 				}
-				// The deepest point is in the device's service area and at
-				// ClosingRange from the nearest remaining device (Backup).
-				v := lw.Tri.Nearest(d.Deepest[0], d.Deepest[1], -1)
-				dist := math.Hypot(d.Deepest[0]-lw.Tri.Coords[2*v], d.Deepest[1]-lw.Tri.Coords[2*v+1])
-				if d.ServiceArea > 0 && math.Abs(dist-d.ClosingRange) > 1e-9*math.Max(1, dist) {
-					t.Errorf("%s device %d: deepest %v at %.12g from the rest, closing %.12g", name, d.Site, d.Deepest, dist, d.ClosingRange)
-				}
-				if d.Backup >= 0 && d.ServiceArea > 0 {
-					b := l.Sites[d.Backup]
-					if bd := math.Hypot(d.Deepest[0]-b[0], d.Deepest[1]-b[1]); math.Abs(bd-dist) > 1e-9*math.Max(1, dist) {
-						t.Errorf("%s device %d: backup %d at %.12g, nearest remaining at %.12g", name, d.Site, d.Backup, bd, dist)
+				seen := make([]bool, len(l.Sites))
+				for k, d := range rep.Devices {
+					if seen[d.Site] {
+						t.Fatalf("%s: device %d listed twice", name, d.Site)
+					}
+					seen[d.Site] = true
+					if k > 0 {
+						p := rep.Devices[k-1]
+						if p.AddedUncovered < d.AddedUncovered || p.AddedUncovered == d.AddedUncovered && p.ClosingRange < d.ClosingRange {
+							t.Fatalf("%s: ranking out of order at %d", name, k)
+						}
+					}
+					rest := slices.Delete(slices.Clone(l.Sites), d.Site, d.Site+1)
+					lw, err := NewLayout(rest, l.Area)
+					if err != nil {
+						t.Fatal(err)
+					}
+					if u := lw.UncoveredArea(r); math.Abs(d.Uncovered-u) > 1e-9*l.AreaM2 {
+						t.Errorf("%s r=%g device %d: uncovered %.12g, rebuilt %.12g", name, r, d.Site, d.Uncovered, u)
+					}
+					if fc := lw.FullCover().Range; math.Abs(d.FullCover-fc) > 1e-9*fc {
+						t.Errorf("%s r=%g device %d: full cover %.12g, rebuilt %.12g", name, r, d.Site, d.FullCover, fc)
+					}
+					// The deepest point is in the device's service area and at
+					// ClosingRange from the nearest remaining device (Backup).
+					v := lw.Tri.Nearest(d.Deepest[0], d.Deepest[1], -1)
+					dist := math.Hypot(d.Deepest[0]-lw.Tri.Coords[2*v], d.Deepest[1]-lw.Tri.Coords[2*v+1])
+					if d.ServiceArea > 0 && math.Abs(dist-d.ClosingRange) > 1e-9*math.Max(1, dist) {
+						t.Errorf("%s device %d: deepest %v at %.12g from the rest, closing %.12g", name, d.Site, d.Deepest, dist, d.ClosingRange)
+					}
+					if d.Backup >= 0 && d.ServiceArea > 0 {
+						b := l.Sites[d.Backup]
+						if bd := math.Hypot(d.Deepest[0]-b[0], d.Deepest[1]-b[1]); math.Abs(bd-dist) > 1e-9*math.Max(1, dist) {
+							t.Errorf("%s device %d: backup %d at %.12g, nearest remaining at %.12g", name, d.Site, d.Backup, bd, dist)
+						}
 					}
 				}
 			}
-		}
+		})
 	}
 }
 
@@ -249,45 +255,47 @@ func TestPlanSurviveRangeBruteForce(t *testing.T) {
 	// spacing h (every point within h of a sample; the distance is
 	// 1-Lipschitz), and exactly at the reported point.
 	for name, l := range planFailureScenes(t) {
-		rep, err := Failures(l, 5)
-		if err != nil {
-			t.Fatal(err)
-		}
-		second := func(x, y float64) float64 {
-			a, b := math.Inf(1), math.Inf(1)
-			for _, s := range l.Sites {
-				d := math.Hypot(s[0]-x, s[1]-y)
-				if d < a {
-					a, b = d, a
-				} else if d < b {
-					b = d
+		t.Run(name, func(t *testing.T) {
+			rep, err := Failures(l, 5)
+			if err != nil {
+				t.Fatal(err)
+			}
+			second := func(x, y float64) float64 {
+				a, b := math.Inf(1), math.Inf(1)
+				for _, s := range l.Sites {
+					d := math.Hypot(s[0]-x, s[1]-y)
+					if d < a {
+						a, b = d, a
+					} else if d < b {
+						b = d
+					}
+				}
+				return b
+			}
+			const h = 1.0
+			ix := l.Area.Index()
+			best := 0.0
+			for x := 0.0; x <= 100; x += h / 2 {
+				for y := 0.0; y <= 100; y += h / 2 {
+					if ix.Contains(x, y) {
+						best = math.Max(best, second(x, y))
+					}
 				}
 			}
-			return b
-		}
-		const h = 1.0
-		ix := l.Area.Index()
-		best := 0.0
-		for x := 0.0; x <= 100; x += h / 2 {
-			for y := 0.0; y <= 100; y += h / 2 {
-				if ix.Contains(x, y) {
-					best = math.Max(best, second(x, y))
+			if rep.SurviveRange < best-1e-9 || rep.SurviveRange > best+h {
+				t.Errorf("%s: survive range %.9f, sampled %.9f", name, rep.SurviveRange, best)
+			}
+			if p := rep.SurvivePoint; math.Abs(second(p[0], p[1])-rep.SurviveRange) > 1e-9*rep.SurviveRange {
+				t.Errorf("%s: at the survive point %v the second-nearest distance is %.12g, not %.12g", name, p, second(p[0], p[1]), rep.SurviveRange)
+			}
+			if !ix.Contains(rep.SurvivePoint[0], rep.SurvivePoint[1]) {
+				// Cell vertices on the boundary may round a hair outside.
+				x, y := rep.SurvivePoint[0], rep.SurvivePoint[1]
+				if !ix.Contains(x+1e-9, y) && !ix.Contains(x-1e-9, y) && !ix.Contains(x, y+1e-9) && !ix.Contains(x, y-1e-9) {
+					t.Errorf("%s: survive point %v outside the area", name, rep.SurvivePoint)
 				}
 			}
-		}
-		if rep.SurviveRange < best-1e-9 || rep.SurviveRange > best+h {
-			t.Errorf("%s: survive range %.9f, sampled %.9f", name, rep.SurviveRange, best)
-		}
-		if p := rep.SurvivePoint; math.Abs(second(p[0], p[1])-rep.SurviveRange) > 1e-9*rep.SurviveRange {
-			t.Errorf("%s: at the survive point %v the second-nearest distance is %.12g, not %.12g", name, p, second(p[0], p[1]), rep.SurviveRange)
-		}
-		if !ix.Contains(rep.SurvivePoint[0], rep.SurvivePoint[1]) {
-			// Cell vertices on the boundary may round a hair outside.
-			x, y := rep.SurvivePoint[0], rep.SurvivePoint[1]
-			if !ix.Contains(x+1e-9, y) && !ix.Contains(x-1e-9, y) && !ix.Contains(x, y+1e-9) && !ix.Contains(x, y-1e-9) {
-				t.Errorf("%s: survive point %v outside the area", name, rep.SurvivePoint)
-			}
-		}
+		})
 	}
 }
 

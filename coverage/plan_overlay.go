@@ -27,28 +27,30 @@
 //   - when computing p's cell, another device p' matters only if
 //     |p' − p| ≤ 2ρ, ρ the radius of the part clipped so far.
 //
-// Base sites are found through a uniform bucket grid holding every base
-// site except the 256 with the largest cells, which are always examined;
-// planned devices through a dynamic bucket grid (plan_devgrid.go), nearest
-// bucket rings first, so that a cell is clipped only by the devices within
-// twice its radius. The full-cover range (the largest radius) and the
-// largest radius of a planned device's cell are kept in segment trees of
-// maxima, updated in O(log n) per recomputed cell.
+// Base sites are found through a static bucket grid (planar.BucketGrid)
+// holding every base site except the 256 with the largest cells, which are
+// always examined; planned devices through a dynamic one (planar.HashGrid),
+// nearest bucket rings first, so that a cell is clipped only by the devices
+// within twice its radius. The full-cover range (the largest radius) and
+// the largest radius of a planned device's cell are kept in segment trees
+// of maxima (plan_segtree.go), updated in O(log n) per recomputed cell.
 //
 // Measures per cell: area (shoelace), the area within the planned range r
 // (planar.RingDiskArea), the uncovered area (their difference), and the
 // farthest vertex, whose distance is the cell's radius; the full-cover range
-// is the largest radius (GUIDE.md: the nearest-site distance is convex on a
-// cell, so its maximum is at a vertex). The covered-area gain of a
-// hypothetical device c is exact by the same partition:
+// is the largest radius (on the cell of x the nearest-site distance is
+// |q − x|, a convex function, so its maximum is at a vertex). The
+// covered-area gain of a hypothetical device c is exact by the same
+// partition:
 //
 //	gain(c) = Σ_X [ area(X ∩ H(c,x) ∩ D(c,r)) − area(X ∩ H(c,x) ∩ D(x,r)) ]
 //
-// over the current cells X (site x): inside X only x's disk covers
-// (GUIDE.md), and after adding c the part of X nearer to c is covered by
-// D(c, r) alone. Error bounds are those of plan_clip.go: every measure is
-// exact up to rounding of order 1e-14 relative per piece; sums over cells
-// accumulate rounding of order 1e-14 of the area.
+// over the current cells X (site x): inside X only x's disk covers (x is
+// the nearest site to every point q of X, so any disk D(s, r) holding q
+// has |q − x| ≤ |q − s| ≤ r), and after adding c the part of X nearer to c
+// is covered by D(c, r) alone. Error bounds are those of plan_clip.go:
+// every measure is exact up to rounding of order 1e-14 relative per piece;
+// sums over cells accumulate rounding of order 1e-14 of the area.
 
 package coverage
 
@@ -66,13 +68,13 @@ import (
 // planCell is the current cell of a base site whose cell planned devices have
 // cut, or of a planned device.
 type planCell struct {
-	x, y   float64   // site
-	base   int32     // base vertex overridden, or -1 for a planned device
-	geo    planRings // current geometry; rings tagged by the base cell they lie in
-	rho    float64   // radius: largest distance from the site to the cell
-	fx, fy float64   // vertex at distance rho
-	area   float64   // area of the cell
-	unc    float64   // uncovered area at the planned range
+	x, y   float64          // site
+	base   int32            // base vertex overridden, or -1 for a planned device
+	geo    planar.ClipRings // current geometry; rings labelled by the base cell they lie in
+	rho    float64          // radius: largest distance from the site to the cell
+	fx, fy float64          // vertex at distance rho
+	area   float64          // area of the cell
+	unc    float64          // uncovered area at the planned range
 	live   bool
 }
 
@@ -90,17 +92,17 @@ type planOverlay struct {
 
 	cells []planCell
 	free  []int32
-	dev   []int32 // planned device id -> planCell, -1 when removed
-	dg    *planDevGrid
+	dev   []int32          // planned device id -> planCell, -1 when removed
+	dg    *planar.HashGrid // planned devices
 	// all holds the current radius of every base cell not overridden
 	// (slot u) and of every live cell (slot nb + c); devs that of every
 	// planned device's cell (slot c). Their maxima are the full-cover
 	// range and the reach of a device's cell.
 	all, devs planMaxTree
 
-	grid  planGrid
-	big   []int32 // base cells examined on every query
-	reach float64 // twice the largest radius of a gridded base cell
+	grid  *planar.BucketGrid // base sites not in big; nil when none
+	big   []int32            // base cells examined on every query
+	reach float64            // twice the largest radius of a gridded base cell
 
 	ix *planar.RegionIndex
 	sc planScratch
@@ -108,7 +110,7 @@ type planOverlay struct {
 
 // planScratch is per-goroutine scratch space.
 type planScratch struct {
-	a, b, c planRings
+	a, b, c planar.ClipRings
 	near    []planNear
 	ids     []int32
 	pts     []float64
@@ -120,17 +122,9 @@ type planNear struct {
 	d  float64
 }
 
-// planGrid is a uniform bucket grid of base sites (CSR layout).
-type planGrid struct {
-	x0, y0, inv float64
-	nx, ny      int
-	start       []int32
-	items       []int32
-}
-
 // newPlanOverlay prepares the base cells of l with measures at range r.
 func newPlanOverlay(l *Layout, r float64) *planOverlay {
-	o := &planOverlay{l: l, r: r, ix: l.Area.Index(), dg: newPlanDevGrid(l.AreaM2)}
+	o := &planOverlay{l: l, r: r, ix: l.Area.Index(), dg: planar.NewHashGrid(l.AreaM2)}
 	nv := l.Tri.NumVertices()
 	o.nb = nv
 	defer func() {
@@ -144,15 +138,14 @@ func newPlanOverlay(l *Layout, r float64) *planOverlay {
 	o.cur = make([]int32, nv)
 	o.baseConvex = make([]bool, nv)
 	planParallel(nv, func(lo, hi int) {
-		var rings [][]float64
 		for u := lo; u < hi; u++ {
 			o.cur[u] = -1
-			rings = rings[:0]
-			o.eachBaseRing(int32(u), func(ring []float64) { rings = append(rings, ring) })
-			o.baseConvex[u] = planRingsConvex(rings)
+			rs := planCellRings(l.Cells, int32(u))
+			o.baseConvex[u] = planCellConvex(&rs)
 			ux, uy := o.site(int32(u))
 			far, fx, fy, disk := -1.0, ux, uy, 0.0
-			o.eachBaseRing(int32(u), func(ring []float64) {
+			for k := 0; k < rs.NumRings(); k++ {
+				ring := rs.Ring(k)
 				if r > 0 {
 					disk += planar.RingDiskArea(ring, ux, uy, r)
 				}
@@ -161,7 +154,7 @@ func newPlanOverlay(l *Layout, r float64) *planOverlay {
 						far, fx, fy = d, ring[i], ring[i+1]
 					}
 				}
-			})
+			}
 			if far < 0 {
 				far = 0
 			}
@@ -196,7 +189,7 @@ func newPlanOverlay(l *Layout, r float64) *planOverlay {
 		}
 	}
 	o.reach = 2 * rhoCap
-	o.grid.build(l.Tri.Coords, rest, o.reach)
+	o.grid = planBaseGrid(l.Tri.Coords, rest, o.reach)
 	return o
 }
 
@@ -208,7 +201,7 @@ func (o *planOverlay) fresh() *planOverlay {
 		baseRho: o.baseRho, baseFx: o.baseFx, baseFy: o.baseFy, baseUnc: o.baseUnc,
 		baseConvex: o.baseConvex, baseUncTotal: o.baseUncTotal, order: o.order,
 		grid: o.grid, big: o.big, reach: o.reach, ix: o.ix,
-		dg: newPlanDevGrid(o.l.AreaM2),
+		dg: planar.NewHashGrid(o.l.AreaM2),
 	}
 	f.cur = make([]int32, len(o.cur))
 	for i := range f.cur {
@@ -238,25 +231,16 @@ func planParallel(n int, fn func(lo, hi int)) {
 	wg.Wait()
 }
 
-// build fills the grid with the listed sites; queries will mostly use
-// radius reach.
-func (g *planGrid) build(xy []float64, ids []int32, reach float64) {
-	g.items = nil
+// planBaseGrid buckets the listed base sites for queries of radius about
+// reach: about two sites per bucket, and buckets no smaller than a quarter
+// of the reach (so a query scans O(1) buckets). nil when ids is empty.
+func planBaseGrid(xy []float64, ids []int32, reach float64) *planar.BucketGrid {
 	if len(ids) == 0 {
-		g.nx, g.ny = 0, 0
-		return
+		return nil
 	}
-	minX, minY := math.Inf(1), math.Inf(1)
-	maxX, maxY := math.Inf(-1), math.Inf(-1)
-	for _, v := range ids {
-		x, y := xy[2*v], xy[2*v+1]
-		minX, maxX = math.Min(minX, x), math.Max(maxX, x)
-		minY, maxY = math.Min(minY, y), math.Max(maxY, y)
-	}
+	minX, minY, maxX, maxY := planar.BoundsXY(xy, ids)
 	w, h := maxX-minX, maxY-minY
 	side := math.Max(w, h)
-	// About two sites per bucket, and buckets no smaller than a quarter of
-	// the usual query reach.
 	cell := math.Sqrt(w * h / (float64(len(ids)) / 2))
 	if !(cell > 0) || math.IsInf(cell, 0) {
 		cell = side / math.Sqrt(float64(len(ids)))
@@ -267,47 +251,7 @@ func (g *planGrid) build(xy []float64, ids []int32, reach float64) {
 	if !(cell > 0) || math.IsInf(cell, 0) {
 		cell = 1
 	}
-	g.x0, g.y0, g.inv = minX, minY, 1/cell
-	g.nx = max(1, min(1<<15, int(w*g.inv)+1))
-	g.ny = max(1, min(1<<15, int(h*g.inv)+1))
-	g.start = make([]int32, g.nx*g.ny+1)
-	for _, v := range ids {
-		g.start[g.index(xy[2*v], xy[2*v+1])+1]++
-	}
-	for i := 1; i < len(g.start); i++ {
-		g.start[i] += g.start[i-1]
-	}
-	g.items = make([]int32, len(ids))
-	fill := slices.Clone(g.start[:len(g.start)-1])
-	for _, v := range ids {
-		c := g.index(xy[2*v], xy[2*v+1])
-		g.items[fill[c]] = v
-		fill[c]++
-	}
-}
-
-func (g *planGrid) col(x float64) int { return max(0, min(g.nx-1, int((x-g.x0)*g.inv))) }
-func (g *planGrid) row(y float64) int { return max(0, min(g.ny-1, int((y-g.y0)*g.inv))) }
-func (g *planGrid) index(x, y float64) int {
-	return g.row(y)*g.nx + g.col(x)
-}
-
-// query calls fn for every site in the buckets meeting the square of
-// half-side reach around (x, y).
-func (g *planGrid) query(x, y, reach float64, fn func(v int32)) {
-	if len(g.items) == 0 {
-		return
-	}
-	c0, c1 := g.col(x-reach), g.col(x+reach)
-	r0, r1 := g.row(y-reach), g.row(y+reach)
-	for j := r0; j <= r1; j++ {
-		for i := c0; i <= c1; i++ {
-			c := j*g.nx + i
-			for _, v := range g.items[g.start[c]:g.start[c+1]] {
-				fn(v)
-			}
-		}
-	}
+	return planar.NewBucketGrid(planar.GridOfSide(minX, minY, maxX, maxY, cell), xy, ids)
 }
 
 // site returns the position of base cell u.
@@ -315,19 +259,13 @@ func (o *planOverlay) site(u int32) (float64, float64) {
 	return o.l.Tri.Coords[2*u], o.l.Tri.Coords[2*u+1]
 }
 
-// eachBaseRing calls fn with every ring of base cell u.
-func (o *planOverlay) eachBaseRing(u int32, fn func(ring []float64)) {
-	c := o.l.Cells
-	k0, k1 := c.PolyStart[c.SiteStart[u]], c.PolyStart[c.SiteStart[u+1]]
-	for k := k0; k < k1; k++ {
-		fn(c.XY[2*c.RingStart[k] : 2*c.RingStart[k+1]])
+// baseSet copies the base rings of u into s (labelled u).
+func (o *planOverlay) baseSet(u int32, s *planar.ClipRings) {
+	s.Reset()
+	rs := planCellRings(o.l.Cells, u)
+	for k := 0; k < rs.NumRings(); k++ {
+		s.AppendRing(rs.Ring(k), u)
 	}
-}
-
-// baseSet copies the base rings of u into s (tagged u).
-func (o *planOverlay) baseSet(u int32, s *planRings) {
-	s.reset()
-	o.eachBaseRing(u, func(ring []float64) { s.appendRing(ring, u) })
 }
 
 // baseNear calls fn for every base cell u that a device at (x, y) could
@@ -342,7 +280,9 @@ func (o *planOverlay) baseNear(x, y float64, fn func(u int32)) {
 	for _, u := range o.big {
 		test(u)
 	}
-	o.grid.query(x, y, o.reach, test)
+	if o.grid != nil {
+		o.grid.Near(x, y, o.reach, test)
+	}
 }
 
 // coincidesBase reports whether (x, y) is exactly a base site.
@@ -353,7 +293,7 @@ func (o *planOverlay) coincidesBase(x, y float64) bool {
 
 // curGeo returns the current geometry of base cell u into s when it is not
 // overridden (copying the base rings), or the overriding cell's geometry.
-func (o *planOverlay) curBase(u int32, s *planRings) *planRings {
+func (o *planOverlay) curBase(u int32, s *planar.ClipRings) *planar.ClipRings {
 	if c := o.cur[u]; c >= 0 {
 		return &o.cells[c].geo
 	}
@@ -363,15 +303,15 @@ func (o *planOverlay) curBase(u int32, s *planRings) *planRings {
 
 // baseTaken reports whether a device at (px, py) takes something from the
 // geometry g of base cell u.
-func (o *planOverlay) baseTaken(u int32, g *planRings, px, py float64) bool {
-	if len(g.xy) == 0 {
+func (o *planOverlay) baseTaken(u int32, g *planar.ClipRings, px, py float64) bool {
+	if len(g.XY) == 0 {
 		return false
 	}
 	ux, uy := o.site(u)
 	if ux == px && uy == py {
 		return false
 	}
-	return planCloserTo(g.xy, px, py, ux, uy)
+	return planar.Bisector(ux, uy, px, py).SomeOutside(g.XY)
 }
 
 // numDevices returns the number of planned device ids issued.
@@ -397,7 +337,7 @@ func (o *planOverlay) newCell() int32 {
 
 func (o *planOverlay) freeCell(c int32) {
 	o.cells[c].live = false
-	o.cells[c].geo.reset()
+	o.cells[c].geo.Reset()
 	o.free = append(o.free, c)
 	o.all.set(o.nb+int(c), -1)
 	o.devs.set(int(c), -1)
@@ -448,7 +388,7 @@ func (o *planOverlay) recomputeBase(u int32) {
 	}
 	cell := &o.cells[c]
 	cell.x, cell.y, cell.base = ux, uy, u
-	cell.geo.copyFrom(g)
+	cell.geo.CopyFrom(g)
 	o.measure(c)
 }
 
@@ -458,26 +398,26 @@ func (o *planOverlay) recomputeDev(id int32) {
 	cell := &o.cells[o.dev[id]]
 	px, py := cell.x, cell.y
 	g := &sc.a
-	g.reset()
+	g.Reset()
 	if !o.coincidesBase(px, py) {
 		o.baseNear(px, py, func(u int32) {
 			ux, uy := o.site(u)
-			nx, ny, h := planBisector(px, py, ux, uy)
-			o.eachBaseRing(u, func(ring []float64) {
-				if !planRingOutside(ring, ux, uy, -nx, -ny, h) {
-					// Nothing of this ring is closer to p than to u.
-					return
+			mine, theirs := planar.Bisector(px, py, ux, uy), planar.Bisector(ux, uy, px, py)
+			rs := planCellRings(o.l.Cells, u)
+			for k := 0; k < rs.NumRings(); k++ {
+				if ring := rs.Ring(k); theirs.SomeOutside(ring) {
+					// Some of this ring is closer to p than to u.
+					mine.ClipRing(ring, nil, u, g)
 				}
-				planClipHalf(ring, nil, u, px, py, nx, ny, h, g)
-			})
+			}
 		})
 	}
 	// Other planned devices; the lower id keeps a shared spot.
-	if len(g.xy) > 0 {
+	if len(g.XY) > 0 {
 		o.clipByDevices(&g, px, py, planRadius(g, px, py), func(j int32) bool { return j < id })
 	}
 	cell = &o.cells[o.dev[id]]
-	cell.geo.copyFrom(g)
+	cell.geo.CopyFrom(g)
 	o.measure(o.dev[id])
 }
 
@@ -487,16 +427,16 @@ func (o *planOverlay) recomputeDev(id int32) {
 // is farther than twice the radius. A device exactly at (px, py) is
 // skipped, unless shared(id) says it takes the spot, which empties the
 // cell. It returns the radius and whether anything was cut away.
-func (o *planOverlay) clipByDevices(g **planRings, px, py, rho float64, shared func(id int32) bool) (float64, bool) {
+func (o *planOverlay) clipByDevices(g **planar.ClipRings, px, py, rho float64, shared func(id int32) bool) (float64, bool) {
 	sc := &o.sc
 	near := sc.near[:0]
 	lost, cut := false, false
-	for k := int64(0); len((*g).xy) > 0; k++ {
-		if k >= 2 && float64(k-1)*o.dg.h > 2*rho {
+	for k := int64(0); len((*g).XY) > 0; k++ {
+		if k >= 2 && float64(k-1)*o.dg.Side() > 2*rho {
 			break
 		}
 		near = near[:0]
-		more := o.dg.ring(px, py, k, func(j int32) {
+		more := o.dg.Ring(px, py, k, func(j int32) {
 			qx, qy := o.pos(j)
 			if qx == px && qy == py {
 				lost = lost || shared(j)
@@ -507,7 +447,7 @@ func (o *planOverlay) clipByDevices(g **planRings, px, py, rho float64, shared f
 			}
 		})
 		if lost {
-			(*g).reset()
+			(*g).Reset()
 			cut = true
 			break
 		}
@@ -531,19 +471,19 @@ func (o *planOverlay) clipByDevices(g **planRings, px, py, rho float64, shared f
 // clipNearest clips *g, the cell of a device at (px, py), by its
 // half-planes against the listed devices (by increasing distance), stopping
 // once the next is farther than twice the radius; it returns the radius.
-func (o *planOverlay) clipNearest(g **planRings, px, py float64, near []planNear, rho float64) (float64, bool) {
+func (o *planOverlay) clipNearest(g **planar.ClipRings, px, py float64, near []planNear, rho float64) (float64, bool) {
 	sc := &o.sc
 	cut := false
 	for _, nb := range near {
-		if nb.d > 2*rho || len((*g).xy) == 0 {
+		if nb.d > 2*rho || len((*g).XY) == 0 {
 			break
 		}
 		qx, qy := o.pos(nb.id)
-		nx, ny, h := planBisector(px, py, qx, qy)
-		if !planSetOutside(*g, px, py, nx, ny, h) {
+		hp := planar.Bisector(px, py, qx, qy)
+		if !hp.SomeOutside((*g).XY) {
 			continue
 		}
-		planClipSet(*g, px, py, nx, ny, h, &sc.b)
+		hp.ClipSet(*g, &sc.b)
 		sc.a, sc.b = sc.b, sc.a
 		*g = &sc.a
 		rho = planRadius(*g, px, py)
@@ -554,10 +494,10 @@ func (o *planOverlay) clipNearest(g **planRings, px, py float64, near []planNear
 
 // planRadius returns the largest distance from (x, y) to a vertex of s, 0
 // when s is empty.
-func planRadius(s *planRings, x, y float64) float64 {
+func planRadius(s *planar.ClipRings, x, y float64) float64 {
 	r := 0.0
-	for i := 0; i+1 < len(s.xy); i += 2 {
-		r = math.Max(r, planDist(s.xy[i], s.xy[i+1], x, y))
+	for i := 0; i+1 < len(s.XY); i += 2 {
+		r = math.Max(r, planDist(s.XY[i], s.XY[i+1], x, y))
 	}
 	return r
 }
@@ -597,20 +537,20 @@ func (o *planOverlay) dirtyAdd(x, y float64, skip int32, d *planDirty) {
 			d.addBase(u)
 		}
 	})
-	o.sc.ids = o.dg.within(x, y, 2*o.maxDevRho(), o.sc.ids)
+	o.sc.ids = o.dg.Within(x, y, 2*o.maxDevRho(), o.sc.ids)
 	for _, j := range o.sc.ids {
 		if j == skip {
 			continue
 		}
 		c := &o.cells[o.dev[j]]
-		if len(c.geo.xy) == 0 {
+		if len(c.geo.XY) == 0 {
 			continue
 		}
 		if c.x == x && c.y == y {
 			d.addDev(j) // tie rule by id may hand the spot over
 			continue
 		}
-		if planDist(c.x, c.y, x, y) <= 2*c.rho && planCloserTo(c.geo.xy, x, y, c.x, c.y) {
+		if planDist(c.x, c.y, x, y) <= 2*c.rho && planar.Bisector(c.x, c.y, x, y).SomeOutside(c.geo.XY) {
 			d.addDev(j)
 		}
 	}
@@ -622,12 +562,12 @@ func (o *planOverlay) dirtyRemove(id int32, d *planDirty) {
 	c := &o.cells[o.dev[id]]
 	ax, ay := c.x, c.y
 	g := &c.geo
-	for _, u := range g.tag {
+	for _, u := range g.Label {
 		d.addBase(u)
 	}
 	// A device sharing the spot takes over.
 	sc := &o.sc
-	sc.ids = o.dg.within(ax, ay, 0, sc.ids)
+	sc.ids = o.dg.Within(ax, ay, 0, sc.ids)
 	for _, j := range sc.ids {
 		if j != id {
 			if qx, qy := o.pos(j); qx == ax && qy == ay {
@@ -635,17 +575,17 @@ func (o *planOverlay) dirtyRemove(id int32, d *planDirty) {
 			}
 		}
 	}
-	if len(g.xy) == 0 {
+	if len(g.XY) == 0 {
 		return
 	}
 	// Distance from the device to its nearest other site.
 	v := o.l.Tri.Nearest(ax, ay, -1)
 	dmin := planDist(o.l.Tri.Coords[2*v], o.l.Tri.Coords[2*v+1], ax, ay)
 	for k := int64(0); ; k++ {
-		if k >= 2 && float64(k-1)*o.dg.h > dmin {
+		if k >= 2 && float64(k-1)*o.dg.Side() > dmin {
 			break
 		}
-		more := o.dg.ring(ax, ay, k, func(j int32) {
+		more := o.dg.Ring(ax, ay, k, func(j int32) {
 			if j != id {
 				qx, qy := o.pos(j)
 				dmin = math.Min(dmin, planDist(qx, qy, ax, ay))
@@ -656,7 +596,7 @@ func (o *planOverlay) dirtyRemove(id int32, d *planDirty) {
 		}
 	}
 	lim := 2*c.rho + dmin
-	sc.ids = o.dg.within(ax, ay, lim, sc.ids)
+	sc.ids = o.dg.Within(ax, ay, lim, sc.ids)
 	for _, j := range sc.ids {
 		if j == id {
 			continue
@@ -665,32 +605,20 @@ func (o *planOverlay) dirtyRemove(id int32, d *planDirty) {
 		if planDist(qx, qy, ax, ay) > lim {
 			continue
 		}
-		for k := 0; k < g.numRings(); k++ {
-			u := g.tag[k]
-			ring := g.ring(k)
+		for k := 0; k < g.NumRings(); k++ {
+			u := g.Label[k]
+			ring := g.Ring(k)
 			ux, uy := o.site(u)
 			if planDist(qx, qy, ux, uy) > 2*o.baseRho[u] {
 				continue
 			}
 			// Some vertex at least as close to q as to u.
-			nx, ny, h := planBisector(qx, qy, ux, uy)
-			if !planRingAllOutside(ring, qx, qy, nx, ny, h) {
+			if !planar.Bisector(qx, qy, ux, uy).AllOutside(ring) {
 				d.addDev(j)
 				break
 			}
 		}
 	}
-}
-
-// planRingAllOutside reports whether every vertex of ring is strictly outside
-// the half-plane (q − w)·n ≤ h.
-func planRingAllOutside(ring []float64, wx, wy, nx, ny, h float64) bool {
-	for i := 0; i+1 < len(ring); i += 2 {
-		if (ring[i]-wx)*nx+(ring[i+1]-wy)*ny <= h {
-			return false
-		}
-	}
-	return true
 }
 
 // rhoOf returns the current radius of a dirty-set member.
@@ -738,7 +666,7 @@ func (o *planOverlay) place(id int32, x, y float64) []int32 {
 	c := o.newCell()
 	o.cells[c] = planCell{x: x, y: y, base: -1, live: true, geo: o.cells[c].geo}
 	o.dev[id] = c
-	o.dg.insert(id, x, y)
+	o.dg.Insert(id, x, y)
 	o.maybeRebuildGrid()
 	slices.Sort(d.devs)
 	near := slices.Clone(d.devs)
@@ -756,9 +684,9 @@ func (o *planOverlay) move(id int32, x, y float64) (before, after float64) {
 	d.addDev(id)
 	before = o.rhoOfDirty(&d)
 	c := &o.cells[o.dev[id]]
-	o.dg.remove(id, c.x, c.y)
+	o.dg.Remove(id, c.x, c.y)
 	c.x, c.y = x, y
-	o.dg.insert(id, x, y)
+	o.dg.Insert(id, x, y)
 	o.apply(&d)
 	after = o.rhoOfDirty(&d)
 	return before, after
@@ -769,7 +697,7 @@ func (o *planOverlay) remove(id int32) {
 	var d planDirty
 	o.dirtyRemove(id, &d)
 	x, y := o.pos(id)
-	o.dg.remove(id, x, y)
+	o.dg.Remove(id, x, y)
 	o.freeCell(o.dev[id])
 	o.dev[id] = -1
 	o.maybeRebuildGrid()
@@ -782,23 +710,44 @@ func (o *planOverlay) fullCover() float64 { return math.Max(0, o.all.max()) }
 // maybeRebuildGrid rebuilds the device grid when the number of devices
 // has moved far from the one its bucket size was chosen for.
 func (o *planOverlay) maybeRebuildGrid() {
-	if !o.dg.needsRebuild() {
+	if !o.dg.NeedsRebuild() {
 		return
 	}
-	o.dg.reset(o.dg.live)
+	o.dg.Reset(o.dg.Len())
 	for id, c := range o.dev {
 		if c >= 0 {
-			o.dg.insert(int32(id), o.cells[c].x, o.cells[c].y)
+			o.dg.Insert(int32(id), o.cells[c].x, o.cells[c].y)
 		}
 	}
 }
 
+// planWorstTieTol is the relative tolerance within which a cell's farthest
+// vertex counts as attaining the full-cover range when the worst point is
+// chosen. Radii carry rounding of about 1e-15 relative (the clipped
+// vertices' rounding and one square root), so cells whose true radii tie
+// may differ by a few ulps; 1e-9 is far above that and far below any
+// distance that matters for placement (1 µm per km), so the lexicographic
+// tie-break picks the same point whatever the rounding.
+const planWorstTieTol = 1e-9
+
+// planNudgeStart is the first inward step of planOverlay.inside, relative
+// to the magnitude of the coordinates (at least 1): a nearest boundary point
+// is computed with one rounding per operation, within a few ulps (2.2e-16
+// relative each) of the boundary, and 1e-12 (some 4500 ulps) clears that.
+// Each further step doubles; planNudgeSteps of them reach 2⁷⁹·1e-12 ≈ 6e11
+// relative, beyond any site's extent, so the search ends by finding a point
+// or leaving the area.
+const (
+	planNudgeStart = 1e-12
+	planNudgeSteps = 80
+)
+
 // worst returns the full-cover range and a point attaining it: among the
-// cells' farthest vertices within 1e-9 relative of the range, the
-// lexicographically smallest.
+// cells' farthest vertices within planWorstTieTol relative of the range,
+// the lexicographically smallest.
 func (o *planOverlay) worst() (rng float64, p orb.Point) {
 	rng = o.fullCover()
-	thr := rng * (1 - 1e-9)
+	thr := rng * (1 - planWorstTieTol)
 	p = orb.Point{math.NaN(), math.NaN()}
 	take := func(x, y float64) {
 		if math.IsNaN(p[0]) || x < p[0] || (x == p[0] && y < p[1]) {
@@ -814,7 +763,7 @@ func (o *planOverlay) worst() (rng float64, p orb.Point) {
 		}
 	}
 	for i := range o.cells {
-		if c := &o.cells[i]; c.live && c.rho >= thr && len(c.geo.xy) > 0 {
+		if c := &o.cells[i]; c.live && c.rho >= thr && len(c.geo.XY) > 0 {
 			take(c.fx, c.fy)
 		}
 	}
@@ -856,7 +805,7 @@ func (o *planOverlay) gain(x, y float64, sc *planScratch) float64 {
 	if !(o.r > 0) || o.coincidesBase(x, y) {
 		return 0
 	}
-	sc.ids = o.dg.within(x, y, 0, sc.ids)
+	sc.ids = o.dg.Within(x, y, 0, sc.ids)
 	for _, id := range sc.ids {
 		if qx, qy := o.pos(id); qx == x && qy == y {
 			return 0
@@ -864,36 +813,33 @@ func (o *planOverlay) gain(x, y float64, sc *planScratch) float64 {
 	}
 	r := o.r
 	g := 0.0
-	piece := func(src *planRings, sx, sy float64) {
-		nx, ny, h := planBisector(x, y, sx, sy)
-		if !planRingOutside(src.xy, sx, sy, -nx, -ny, h) {
+	piece := func(src *planar.ClipRings, sx, sy float64) {
+		if !planar.Bisector(sx, sy, x, y).SomeOutside(src.XY) {
 			return
 		}
-		planClipSet(src, x, y, nx, ny, h, &sc.b)
-		for k := 0; k < sc.b.numRings(); k++ {
-			ring := sc.b.ring(k)
+		planar.Bisector(x, y, sx, sy).ClipSet(src, &sc.b)
+		for k := 0; k < sc.b.NumRings(); k++ {
+			ring := sc.b.Ring(k)
 			g += planar.RingDiskArea(ring, x, y, r) - planar.RingDiskArea(ring, sx, sy, r)
 		}
 	}
 	o.baseNear(x, y, func(u int32) {
-		var src *planRings
+		src := &sc.a
 		if c := o.cur[u]; c >= 0 {
 			src = &o.cells[c].geo
 		} else {
-			sc.a.reset()
-			o.eachBaseRing(u, func(ring []float64) { sc.a.appendRing(ring, u) })
-			src = &sc.a
+			o.baseSet(u, src)
 		}
-		if len(src.xy) == 0 {
+		if len(src.XY) == 0 {
 			return
 		}
 		ux, uy := o.site(u)
 		piece(src, ux, uy)
 	})
-	sc.ids = o.dg.within(x, y, 2*o.maxDevRho(), sc.ids)
+	sc.ids = o.dg.Within(x, y, 2*o.maxDevRho(), sc.ids)
 	for _, id := range sc.ids {
 		c := &o.cells[o.dev[id]]
-		if len(c.geo.xy) == 0 || planDist(c.x, c.y, x, y) > 2*c.rho {
+		if len(c.geo.XY) == 0 || planDist(c.x, c.y, x, y) > 2*c.rho {
 			continue
 		}
 		piece(&c.geo, c.x, c.y)
@@ -909,14 +855,13 @@ func (o *planOverlay) devVertices(id int32) []float64 {
 }
 
 // valid reports whether a candidate vertex (x, y) of a piece of base cell
-// u lies in that cell (plan_clip.go); convex cells need no test.
+// u lies in that closed cell (plan_clip.go); convex cells need no test.
 func (o *planOverlay) valid(u int32, x, y float64) bool {
 	if o.baseConvex[u] {
 		return true
 	}
-	var rings [][]float64
-	o.eachBaseRing(u, func(ring []float64) { rings = append(rings, ring) })
-	return planInRings(rings, x, y)
+	rs := planCellRings(o.l.Cells, u)
+	return planCellHolds(&rs, x, y)
 }
 
 // devRho returns the radius of planned device id's cell.
@@ -960,8 +905,8 @@ func (o *planOverlay) inside(x, y float64) (px, py float64, ok bool) {
 		return x, y, false
 	}
 	nx, ny := -ey/ln, ex/ln
-	step := 1e-12 * math.Max(1, math.Max(math.Abs(bx), math.Abs(by)))
-	for k := 0; k < 80; k++ {
+	step := planNudgeStart * math.Max(1, math.Max(math.Abs(bx), math.Abs(by)))
+	for k := 0; k < planNudgeSteps; k++ {
 		qx, qy := bx, by
 		if k > 0 {
 			qx, qy = bx+step*nx, by+step*ny
@@ -973,54 +918,6 @@ func (o *planOverlay) inside(x, y float64) (px, py float64, ok bool) {
 	}
 	return x, y, false
 }
-
-// planMaxTree is a segment tree of maxima over slots (−1 when empty),
-// growing on demand.
-type planMaxTree struct {
-	n int // leaves, a power of two
-	v []float64
-}
-
-// init sets up the tree with the first len(vals) slots from vals (nb of
-// them), the rest empty.
-func (t *planMaxTree) init(nb int, vals []float64) {
-	t.n = 1
-	for t.n < nb+16 {
-		t.n *= 2
-	}
-	t.v = make([]float64, 2*t.n)
-	for i := range t.v {
-		t.v[i] = -1
-	}
-	copy(t.v[t.n:], vals[:nb])
-	for i := t.n - 1; i >= 1; i-- {
-		t.v[i] = math.Max(t.v[2*i], t.v[2*i+1])
-	}
-}
-
-func (t *planMaxTree) set(i int, x float64) {
-	if i >= t.n {
-		old := t.v[t.n:]
-		n := t.n
-		for n <= i {
-			n *= 2
-		}
-		vals := make([]float64, n)
-		for k := range vals {
-			vals[k] = -1
-		}
-		copy(vals, old)
-		t.init(n, vals)
-	}
-	i += t.n
-	t.v[i] = x
-	for i > 1 {
-		i >>= 1
-		t.v[i] = math.Max(t.v[2*i], t.v[2*i+1])
-	}
-}
-
-func (t *planMaxTree) max() float64 { return t.v[1] }
 
 // planDist is the Euclidean distance from (ax, ay) to (bx, by); plain
 // square root (coordinates are far below overflow), correctly rounded

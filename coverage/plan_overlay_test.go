@@ -3,8 +3,10 @@
 // the plan must equal those of NewLayout on all devices (triangulation and
 // clipping from scratch, FullCover and UncoveredArea), and the gain of a
 // hypothetical device must equal the drop in uncovered area of the rebuilt
-// layouts. These are two independent computations of the definitions in
-// GUIDE.md (the rebuild shares no code with the clipping used here).
+// layouts. These are two independent computations of the same definitions
+// (full-cover range max_{q∈A} min_i |q − p_i|, uncovered area
+// area(A ∖ ∪_i D(p_i, r))); the rebuild shares no code with the clipping
+// used here.
 
 package coverage
 

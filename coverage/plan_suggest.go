@@ -5,8 +5,10 @@
 // maximum intercluster distance", Theor. Comp. Sci. 38, 1985): each new
 // device goes to the current worst point, the point of the area farthest
 // from every device (the vertex of a clipped cell attaining the full-cover
-// range; GUIDE.md). With the existing devices fixed this is Gonzalez's
-// greedy 2-approximation of the k-centre problem over the area. Then local
+// range: on the cell of site x the distance to the nearest device is
+// |q − x|, a convex function, so its maximum over the cell is at a vertex).
+// With the existing devices fixed this is Gonzalez's greedy
+// 2-approximation of the k-centre problem over the area. Then local
 // refinement in the manner of Lloyd's iteration for the minimax objective:
 // each new device moves to the centre of the smallest circle enclosing its
 // clipped cell (Welzl 1991; the circle is fixed by the cell's farthest
@@ -132,6 +134,19 @@ const (
 	planDefaultRefine = 8
 	planRangeTol      = 1e-12
 )
+
+// planHexShrink shrinks the seeding lattice's spacing below r·√3, whose
+// covering radius is exactly r: the lattice points are computed with a
+// rounding or two each (relative 1e-16 of the coordinates), which could
+// leave a deep hole a few ulps beyond r; 1e-9 is far above that and costs
+// nothing measurable in the number of seeds.
+const planHexShrink = 1e-9
+
+// planMoveFloor is the smallest cell radius used to scale the no-move test
+// of refinement: a move shorter than planSECTol·ρ is within the accuracy of
+// the enclosing circle's centre (plan_sec.go) and is not made; for a cell of
+// radius 0 only an exact coincidence is then no move.
+const planMoveFloor = 1e-300
 
 // SuggestAdditions proposes positions for k new devices inside the site
 // area (never in an exclusion zone), the existing devices staying where
@@ -293,7 +308,7 @@ func planPrune(o *planOverlay) {
 func planSeedHex(o *planOverlay, fx, fy float64, limit int) bool {
 	r := o.r
 	b := o.l.Area.Bound()
-	sp := r * math.Sqrt(3) * (1 - 1e-9)
+	sp := r * math.Sqrt(3) * (1 - planHexShrink)
 	h := sp * math.Sqrt(3) / 2
 	var pts []float64
 	for j := -1; ; j++ {
@@ -380,7 +395,7 @@ func planRefine(o *planOverlay, ids []int32, rounds int) {
 			cx, cy, _, perm = planSEC(vs, perm)
 			px, py := o.pos(id)
 			rho := o.devRho(id)
-			if math.Hypot(cx-px, cy-py) <= 1e-12*math.Max(rho, 1e-300) {
+			if math.Hypot(cx-px, cy-py) <= planSECTol*math.Max(rho, planMoveFloor) {
 				continue
 			}
 			qx, qy, ok := o.inside(cx, cy)

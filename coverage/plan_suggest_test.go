@@ -58,39 +58,41 @@ func TestPlanSuggestRestoresLattice(t *testing.T) {
 		{"triangular-2", tri, planRectRegion(t, 2.5, 0, 107.5, 10*s*math.Sqrt(3)/2), []orb.Point{tri[3*12+3], tri[7*12+8]}, s / math.Sqrt(3)},
 	}
 	for _, c := range cases {
-		l, err := NewLayout(planWithout(c.sites, c.missing...), c.reg)
-		if err != nil {
-			t.Fatal(err)
-		}
-		intact, err := NewLayout(c.sites, c.reg)
-		if err != nil {
-			t.Fatal(err)
-		}
-		for _, refine := range []int{0, -1} {
-			sg, err := SuggestAdditions(l, len(c.missing), SuggestOptions{Range: c.cover, Refine: refine})
+		t.Run(c.name, func(t *testing.T) {
+			l, err := NewLayout(planWithout(c.sites, c.missing...), c.reg)
 			if err != nil {
 				t.Fatal(err)
 			}
-			// Reference: the missing lattice points, to 1e-6 of the spacing.
-			for _, m := range c.missing {
-				ok := false
-				for _, p := range sg.Added {
-					ok = ok || math.Hypot(p[0]-m[0], p[1]-m[1]) <= 1e-6*s
+			intact, err := NewLayout(c.sites, c.reg)
+			if err != nil {
+				t.Fatal(err)
+			}
+			for _, refine := range []int{0, -1} {
+				sg, err := SuggestAdditions(l, len(c.missing), SuggestOptions{Range: c.cover, Refine: refine})
+				if err != nil {
+					t.Fatal(err)
 				}
-				if !ok {
-					t.Errorf("%s refine=%d: %v not restored; added %v", c.name, refine, m, sg.Added)
+				// Reference: the missing lattice points, to 1e-6 of the spacing.
+				for _, m := range c.missing {
+					ok := false
+					for _, p := range sg.Added {
+						ok = ok || math.Hypot(p[0]-m[0], p[1]-m[1]) <= 1e-6*s
+					}
+					if !ok {
+						t.Errorf("%s refine=%d: %v not restored; added %v", c.name, refine, m, sg.Added)
+					}
+				}
+				if want := intact.FullCover().Range; math.Abs(sg.FullCoverAfter-want) > 1e-9*s {
+					t.Errorf("%s: full cover after %.12g, intact lattice %.12g", c.name, sg.FullCoverAfter, want)
+				}
+				if c.name[:6] == "square" && math.Abs(sg.FullCoverAfter-c.cover) > 1e-9*s {
+					t.Errorf("%s: full cover after %.12g, Kershner s/√2 = %.12g", c.name, sg.FullCoverAfter, c.cover)
+				}
+				if sg.UncoveredAfter > 1e-9*l.AreaM2 || sg.CoveredAfter < 1-1e-12 {
+					t.Errorf("%s: uncovered after %.3g, covered %.15g", c.name, sg.UncoveredAfter, sg.CoveredAfter)
 				}
 			}
-			if want := intact.FullCover().Range; math.Abs(sg.FullCoverAfter-want) > 1e-9*s {
-				t.Errorf("%s: full cover after %.12g, intact lattice %.12g", c.name, sg.FullCoverAfter, want)
-			}
-			if c.name[:6] == "square" && math.Abs(sg.FullCoverAfter-c.cover) > 1e-9*s {
-				t.Errorf("%s: full cover after %.12g, Kershner s/√2 = %.12g", c.name, sg.FullCoverAfter, c.cover)
-			}
-			if sg.UncoveredAfter > 1e-9*l.AreaM2 || sg.CoveredAfter < 1-1e-12 {
-				t.Errorf("%s: uncovered after %.3g, covered %.15g", c.name, sg.UncoveredAfter, sg.CoveredAfter)
-			}
-		}
+		})
 	}
 }
 
@@ -131,48 +133,50 @@ func TestPlanSuggestStepsMatchRebuild(t *testing.T) {
 		"clustered": clusteredSites(80, 42),
 		"corner":    {{2, 2}, {5, 3}},
 	} {
-		l, err := NewLayout(sites, reg)
-		if err != nil {
-			t.Fatal(err)
-		}
-		const r = 12
-		sg, err := SuggestAdditions(l, 12, SuggestOptions{Range: r})
-		if err != nil {
-			t.Fatal(err)
-		}
-		if len(sg.Added) != 12 || len(sg.Steps) != 12 || sg.Existing != len(sites) || sg.TotalDevices != len(sites)+12 {
-			t.Fatalf("%s: %d added, %d steps", name, len(sg.Added), len(sg.Steps))
-		}
-		if math.Abs(sg.FullCoverBefore-l.FullCover().Range) > 1e-12*sg.FullCoverBefore ||
-			math.Abs(sg.UncoveredBefore-l.UncoveredArea(r)) > 1e-9*l.AreaM2 {
-			t.Errorf("%s: before figures %v %v vs layout %v %v", name, sg.FullCoverBefore, sg.UncoveredBefore, l.FullCover().Range, l.UncoveredArea(r))
-		}
-		for j, st := range sg.Steps {
-			p := st.Added
-			if !reg.Contains(p[0], p[1]) || planPolyContains(orb.Polygon{hole}, p[0], p[1]) && !reg.Contains(p[0], p[1]) {
-				t.Errorf("%s step %d: %v outside the area or in the exclusion zone", name, j, p)
+		t.Run(name, func(t *testing.T) {
+			l, err := NewLayout(sites, reg)
+			if err != nil {
+				t.Fatal(err)
 			}
-			lr := planRebuild(t, sites, sg.Added[:j+1], reg)
-			if fc := lr.FullCover().Range; math.Abs(st.FullCoverAfter-fc) > 1e-9*fc {
-				t.Errorf("%s step %d: full cover %.12g, rebuilt %.12g", name, j, st.FullCoverAfter, fc)
+			const r = 12
+			sg, err := SuggestAdditions(l, 12, SuggestOptions{Range: r})
+			if err != nil {
+				t.Fatal(err)
 			}
-			if u := lr.UncoveredArea(r); math.Abs(st.UncoveredAfter-u) > 1e-9*l.AreaM2 {
-				t.Errorf("%s step %d: uncovered %.12g, rebuilt %.12g", name, j, st.UncoveredAfter, u)
+			if len(sg.Added) != 12 || len(sg.Steps) != 12 || sg.Existing != len(sites) || sg.TotalDevices != len(sites)+12 {
+				t.Fatalf("%s: %d added, %d steps", name, len(sg.Added), len(sg.Steps))
 			}
-			if cf := lr.CoveredFraction(r); math.Abs(st.CoveredAfter-cf) > 1e-9 {
-				t.Errorf("%s step %d: covered %.12g, rebuilt %.12g", name, j, st.CoveredAfter, cf)
+			if math.Abs(sg.FullCoverBefore-l.FullCover().Range) > 1e-12*sg.FullCoverBefore ||
+				math.Abs(sg.UncoveredBefore-l.UncoveredArea(r)) > 1e-9*l.AreaM2 {
+				t.Errorf("%s: before figures %v %v vs layout %v %v", name, sg.FullCoverBefore, sg.UncoveredBefore, l.FullCover().Range, l.UncoveredArea(r))
 			}
-			if st.FullCoverAfter > st.FullCoverBefore*(1+1e-12) || st.UncoveredAfter > st.UncoveredBefore+1e-9*l.AreaM2 {
-				t.Errorf("%s step %d: figures rose: %+v", name, j, st)
+			for j, st := range sg.Steps {
+				p := st.Added
+				if !reg.Contains(p[0], p[1]) || planar.PointInRing(planar.FlatRing(hole), p[0], p[1]) > 0 && !reg.Contains(p[0], p[1]) {
+					t.Errorf("%s step %d: %v outside the area or in the exclusion zone", name, j, p)
+				}
+				lr := planRebuild(t, sites, sg.Added[:j+1], reg)
+				if fc := lr.FullCover().Range; math.Abs(st.FullCoverAfter-fc) > 1e-9*fc {
+					t.Errorf("%s step %d: full cover %.12g, rebuilt %.12g", name, j, st.FullCoverAfter, fc)
+				}
+				if u := lr.UncoveredArea(r); math.Abs(st.UncoveredAfter-u) > 1e-9*l.AreaM2 {
+					t.Errorf("%s step %d: uncovered %.12g, rebuilt %.12g", name, j, st.UncoveredAfter, u)
+				}
+				if cf := lr.CoveredFraction(r); math.Abs(st.CoveredAfter-cf) > 1e-9 {
+					t.Errorf("%s step %d: covered %.12g, rebuilt %.12g", name, j, st.CoveredAfter, cf)
+				}
+				if st.FullCoverAfter > st.FullCoverBefore*(1+1e-12) || st.UncoveredAfter > st.UncoveredBefore+1e-9*l.AreaM2 {
+					t.Errorf("%s step %d: figures rose: %+v", name, j, st)
+				}
+				if j > 0 && st.FullCoverBefore != sg.Steps[j-1].FullCoverAfter {
+					t.Errorf("%s step %d: before %v ≠ previous after %v", name, j, st.FullCoverBefore, sg.Steps[j-1].FullCoverAfter)
+				}
 			}
-			if j > 0 && st.FullCoverBefore != sg.Steps[j-1].FullCoverAfter {
-				t.Errorf("%s step %d: before %v ≠ previous after %v", name, j, st.FullCoverBefore, sg.Steps[j-1].FullCoverAfter)
+			// Twelve more devices can only help compared with the layout.
+			if sg.FullCoverAfter >= sg.FullCoverBefore {
+				t.Errorf("%s: range %v → %v", name, sg.FullCoverBefore, sg.FullCoverAfter)
 			}
-		}
-		// Twelve more devices can only help compared with the layout.
-		if sg.FullCoverAfter >= sg.FullCoverBefore {
-			t.Errorf("%s: range %v → %v", name, sg.FullCoverBefore, sg.FullCoverAfter)
-		}
+		})
 	}
 }
 
@@ -279,9 +283,11 @@ func TestPlanSuggestErrors(t *testing.T) {
 		{"nil layout", func() error { _, e := SuggestAdditions(nil, 1, SuggestOptions{}); return e }(), "no layout"},
 		{"zero range", func() error { _, e := FewestAdditions(l, 0, SuggestOptions{}); return e }(), "must be a finite number > 0"},
 	} {
-		if c.err == nil || !strings.Contains(c.err.Error(), c.want) {
-			t.Errorf("%s: error %v, want %q", c.name, c.err, c.want)
-		}
+		t.Run(c.name, func(t *testing.T) {
+			if c.err == nil || !strings.Contains(c.err.Error(), c.want) {
+				t.Errorf("%s: error %v, want %q", c.name, c.err, c.want)
+			}
+		})
 	}
 	sg, err := SuggestAdditions(l, 0, SuggestOptions{Range: 5})
 	if err != nil || len(sg.Added) != 0 || sg.FullCoverAfter != sg.FullCoverBefore {

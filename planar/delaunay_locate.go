@@ -377,52 +377,24 @@ func (t *Triangulation) NearestMany(xy []float64, out []int32) {
 	wg.Wait()
 }
 
-// hintGrid is a uniform grid over the vertices' bounding box; each cell
-// holds the smallest vertex index inside it, or -1.
+// hintGrid is a uniform grid over the vertices' bounding box (Grid,
+// bucketgrid.go); each bucket holds the smallest vertex index inside it,
+// or, when it has none, that of a non-empty bucket nearby (fill).
 type hintGrid struct {
-	x0, y0, sx, sy float64
-	nx, ny         int
-	cell           []int32
+	Grid
+	cell []int32
 }
 
 func (t *Triangulation) newHintGrid(nq int) *hintGrid {
 	m := t.NumVertices()
-	cells := m / 2
-	if nq < cells {
-		cells = nq
-	}
-	if cells < 1 {
-		cells = 1
-	}
-	minX, minY := math.Inf(1), math.Inf(1)
-	maxX, maxY := math.Inf(-1), math.Inf(-1)
-	for v := 0; v < m; v++ {
-		x, y := t.Coords[2*v], t.Coords[2*v+1]
-		minX, maxX = math.Min(minX, x), math.Max(maxX, x)
-		minY, maxY = math.Min(minY, y), math.Max(maxY, y)
-	}
-	w, h := maxX-minX, maxY-minY
-	g := &hintGrid{x0: minX, y0: minY}
-	if !(w > 0) || !(h > 0) || math.IsInf(w, 0) || math.IsInf(h, 0) {
-		g.nx, g.ny = 1, 1
-	} else {
-		g.nx = max(1, min(cells, int(math.Sqrt(float64(cells)*w/h))))
-		g.ny = max(1, min(cells, cells/g.nx))
-	}
-	g.sx = float64(g.nx) / w
-	g.sy = float64(g.ny) / h
-	if !(g.sx < math.MaxFloat64) {
-		g.sx = 0
-	}
-	if !(g.sy < math.MaxFloat64) {
-		g.sy = 0
-	}
-	g.cell = make([]int32, g.nx*g.ny)
+	minX, minY, maxX, maxY := BoundsXY(t.Coords[:2*m], nil)
+	g := &hintGrid{Grid: GridOfCells(minX, minY, maxX, maxY, min(m/2, nq))}
+	g.cell = make([]int32, g.NumCells())
 	for i := range g.cell {
 		g.cell[i] = -1
 	}
 	for v := int32(0); v < int32(m); v++ {
-		c := g.index(t.Coords[2*v], t.Coords[2*v+1])
+		c := g.Cell(t.Coords[2*v], t.Coords[2*v+1])
 		if g.cell[c] < 0 {
 			g.cell[c] = v
 		}
@@ -453,23 +425,15 @@ func (g *hintGrid) fill() {
 			}
 		}
 	}
-	for j := 0; j < g.ny; j++ {
-		line(g.nx, func(i int) *int32 { return &g.cell[j*g.nx+i] })
+	for j := 0; j < g.NY; j++ {
+		line(g.NX, func(i int) *int32 { return &g.cell[j*g.NX+i] })
 	}
-	for i := 0; i < g.nx; i++ {
-		line(g.ny, func(j int) *int32 { return &g.cell[j*g.nx+i] })
+	for i := 0; i < g.NX; i++ {
+		line(g.NY, func(j int) *int32 { return &g.cell[j*g.NX+i] })
 	}
 }
 
-func (g *hintGrid) index(x, y float64) int {
-	i := int((x - g.x0) * g.sx)
-	j := int((y - g.y0) * g.sy)
-	i = max(0, min(g.nx-1, i))
-	j = max(0, min(g.ny-1, j))
-	return j*g.nx + i
-}
-
-func (g *hintGrid) at(x, y float64) int32 { return g.cell[g.index(x, y)] }
+func (g *hintGrid) at(x, y float64) int32 { return g.cell[g.Cell(x, y)] }
 
 // Neighbors appends to buf[:0] the Delaunay neighbours of vertex v in
 // counter-clockwise order and returns it. For a hull vertex the list runs

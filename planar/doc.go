@@ -25,6 +25,16 @@
 //     with the site area (a polygon set with holes) edge by edge.
 //   - Areas: polygon ∩ disk by the closed form summed over polygon edges
 //     (each edge contributes a triangle part and a circular-sector part).
+//   - Rings (ring.go, ringset.go): shoelace area and moments, exact
+//     point-in-ring and segment tests, and RingSet, rings in the flat
+//     layout Region and Cells use. One boundary convention holds
+//     throughout: a ring, a region or a cell contains its boundary.
+//   - Half-planes (halfplane.go): Sutherland–Hodgman clipping of ring sets
+//     by a few half-planes at a time, with each output vertex's provenance
+//     (the planners' incremental cells), in floating point with a stated
+//     error bound.
+//   - Bucket grids (bucketgrid.go): the static BucketGrid and the dynamic
+//     HashGrid that list nearby points for neighbourhood queries.
 //
 // Data lives in flat slices: float64 coordinates interleaved as x0, y0, x1,
 // y1, ... and int32 indices. There is no pointer per triangle or per cell.

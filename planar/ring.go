@@ -162,3 +162,30 @@ func SegmentsMeet(ax, ay, bx, by, cx, cy, dx, dy float64) bool {
 		(o3 == 0 && OnSegment(cx, cy, dx, dy, ax, ay)) ||
 		(o4 == 0 && OnSegment(cx, cy, dx, dy, bx, by))
 }
+
+// RingMoments returns the signed area a of the ring xy (interleaved, open
+// or closed) and its first moments sx = ∫(x − ox) dA, sy = ∫(y − oy) dA,
+// by the shoelace-weighted triangle centroids:
+//
+//	a = ½ Σ c_i,  sx = ⅙ Σ (x_i + x_{i+1}) c_i,  sy = ⅙ Σ (y_i + y_{i+1}) c_i,
+//
+// coordinates relative to (ox, oy) and c_i their cross product. The
+// centroid is (ox + sx/a, oy + sy/a); sums over rings (holes counting
+// negative) give those of a polygon. Rounding as RingAreaAbout, with one
+// more product per term. O(n).
+func RingMoments(xy []float64, ox, oy float64) (a, sx, sy float64) {
+	n := len(xy) / 2
+	if n < 3 {
+		return 0, 0, 0
+	}
+	ax, ay := xy[2*n-2]-ox, xy[2*n-1]-oy
+	for i := 0; i < n; i++ {
+		bx, by := xy[2*i]-ox, xy[2*i+1]-oy
+		c := ax*by - ay*bx
+		a += c
+		sx += (ax + bx) * c
+		sy += (ay + by) * c
+		ax, ay = bx, by
+	}
+	return a / 2, sx / 6, sy / 6
+}

@@ -107,3 +107,26 @@ func TestSegments(t *testing.T) {
 		})
 	}
 }
+
+// Area and centroid by RingMoments; values are elementary geometry.
+func TestRingMoments(t *testing.T) {
+	cases := []struct {
+		name         string
+		ring         []float64
+		ox, oy       float64
+		area, cx, cy float64
+	}{
+		{"unit square", []float64{0, 0, 1, 0, 1, 1, 0, 1}, 0, 0, 1, 0.5, 0.5},
+		{"rectangle far away", []float64{1e6, 1e6, 1e6 + 4, 1e6, 1e6 + 4, 1e6 + 2, 1e6, 1e6 + 2}, 1e6, 1e6, 8, 1e6 + 2, 1e6 + 1},
+		{"clockwise triangle", []float64{0, 0, 0, 3, 3, 0}, 0, 0, -4.5, 1, 1},
+		{"closed repeat", []float64{0, 0, 2, 0, 2, 2, 0, 2, 0, 0}, 1, 1, 4, 1, 1},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			a, sx, sy := RingMoments(c.ring, c.ox, c.oy)
+			if a != c.area || c.ox+sx/a != c.cx || c.oy+sy/a != c.cy {
+				t.Errorf("area %g, centroid (%g, %g); want %g, (%g, %g)", a, c.ox+sx/a, c.oy+sy/a, c.area, c.cx, c.cy)
+			}
+		})
+	}
+}
