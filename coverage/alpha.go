@@ -51,8 +51,6 @@ package coverage
 
 import (
 	"math"
-	"runtime"
-	"sync"
 
 	"github.com/sitecover/sitecover/planar"
 )
@@ -103,7 +101,7 @@ func NewFiltration(t *planar.Triangulation) *Filtration {
 	// and circumcentre, and for each half-edge its half-length, negated
 	// when the opposite vertex of this triangle does not see the edge at
 	// an acute angle.
-	alphaParallel(nt, func(lo, hi int) {
+	planar.ParallelFor(nt, alphaGrain, func(lo, hi int) {
 		xy, tr := t.Coords, t.Triangles
 		for i := lo; i < hi; i++ {
 			a, b, c := tr[3*i], tr[3*i+1], tr[3*i+2]
@@ -128,7 +126,7 @@ func NewFiltration(t *planar.Triangulation) *Filtration {
 	// Pass 2, per edge (by the half-edge that owns it): Gabriel when both
 	// sides see it at an acute angle; value the half-length, clamped to the
 	// adjacent circumradii, or the smaller circumradius.
-	alphaParallel(len(t.Triangles), func(lo, hi int) {
+	planar.ParallelFor(len(t.Triangles), alphaGrain, func(lo, hi int) {
 		he := t.Halfedges
 		for i := lo; i < hi; i++ {
 			e := int32(i)
@@ -155,29 +153,10 @@ func NewFiltration(t *planar.Triangulation) *Filtration {
 	return f
 }
 
-// alphaParallel runs fn over [0, n) split into contiguous chunks, one per
-// available processor for large n.
-func alphaParallel(n int, fn func(lo, hi int)) {
-	w := runtime.GOMAXPROCS(0)
-	if n < 1<<15 || w < 2 {
-		fn(0, n)
-		return
-	}
-	if w > 8 {
-		w = 8
-	}
-	var wg sync.WaitGroup
-	chunk := (n + w - 1) / w
-	for lo := 0; lo < n; lo += chunk {
-		hi := min(lo+chunk, n)
-		wg.Add(1)
-		go func() {
-			defer wg.Done()
-			fn(lo, hi)
-		}()
-	}
-	wg.Wait()
-}
+// alphaGrain is the least number of simplices per goroutine in the passes
+// of NewFiltration and ComputePersistence: below 2·alphaGrain = 2¹⁵ items
+// a pass runs on the calling goroutine.
+const alphaGrain = 1 << 14
 
 // alphaDist returns the Euclidean distance between vertices a and b.
 func alphaDist(xy []float64, a, b int32) float64 {

@@ -32,6 +32,8 @@ import (
 	"sync"
 
 	"github.com/paulmach/orb"
+
+	"github.com/sitecover/sitecover/planar"
 )
 
 // DefaultChordTolerance is the default sagitta of outline chords, relative
@@ -153,17 +155,7 @@ func gapMerge(chunks []gapChunk) (*gapMerged, int) {
 // union joins the components sharing bisector portions and returns the
 // union-find parent array (roots are their own parents, fully compressed).
 func (m *gapMerged) union(tolLen float64) []int32 {
-	par := make([]int32, len(m.nodes))
-	for i := range par {
-		par[i] = int32(i)
-	}
-	find := func(x int32) int32 {
-		for par[x] != x {
-			par[x] = par[par[x]]
-			x = par[x]
-		}
-		return x
-	}
+	uf := planar.NewUnionFind(len(m.nodes))
 	ps := m.portions
 	slices.SortFunc(ps, func(a, b gapPortion) int {
 		if a.key != b.key {
@@ -192,14 +184,7 @@ func (m *gapMerged) union(tolLen float64) []int32 {
 				if ov := math.Min(a.hi, b.hi) - b.lo; !(ov > tolLen) {
 					continue
 				}
-				ra, rb := find(a.node), find(b.node)
-				if ra != rb {
-					if ra < rb {
-						par[rb] = ra
-					} else {
-						par[ra] = rb
-					}
-				}
+				uf.UnionMin(a.node, b.node)
 				if a.elem >= 0 {
 					m.matched[a.elem] = true
 				}
@@ -210,10 +195,7 @@ func (m *gapMerged) union(tolLen float64) []int32 {
 		}
 		g0 = g1
 	}
-	for i := range par {
-		par[i] = find(int32(i))
-	}
-	return par
+	return uf.Flatten()
 }
 
 // gapAssemble builds the Gap values from the components and their roots.

@@ -135,7 +135,7 @@ func ComputePersistence(t *planar.Triangulation, f *Filtration) *Persistence {
 	outside := int32(nt)
 	ends := make([]uint64, ne)  // site a | site b << 32, a < b
 	sides := make([]uint64, ne) // rank a | rank b << 32
-	alphaParallel(ne, func(lo, hi int) {
+	planar.ParallelFor(ne, alphaGrain, func(lo, hi int) {
 		for i := lo; i < hi; i++ {
 			e := ids[i]
 			a, b := src[tr[e]], src[tr[planar.NextHalfedge(e)]]
@@ -184,7 +184,7 @@ func ComputePersistence(t *planar.Triangulation, f *Filtration) *Persistence {
 	if len(centre) != 2*nt {
 		centre = nil
 	}
-	alphaParallel(nh, func(lo, hi int) {
+	planar.ParallelFor(nh, alphaGrain, func(lo, hi int) {
 		for j := lo; j < hi; j++ {
 			r := &recs[order[j]]
 			y := tids[r.rank]
@@ -204,7 +204,7 @@ func ComputePersistence(t *planar.Triangulation, f *Filtration) *Persistence {
 	})
 
 	p.Merges = make([]Merge, len(mpos))
-	alphaParallel(len(mpos), func(lo, hi int) {
+	planar.ParallelFor(len(mpos), alphaGrain, func(lo, hi int) {
 		for k := lo; k < hi; k++ {
 			i := mpos[k]
 			p.Merges[k] = Merge{
@@ -221,10 +221,10 @@ func ComputePersistence(t *planar.Triangulation, f *Filtration) *Persistence {
 // filtration order (ends packs the two node indices of each edge) and
 // returns the positions of the edges that join two components.
 func persistKruskal(n int, ends []uint64) []int32 {
-	uf := newPersistUF(n)
+	uf := planar.NewUnionFind(n)
 	out := make([]int32, 0, max(n-1, 0))
 	for i, ab := range ends {
-		if uf.union(int32(uint32(ab)), int32(ab>>32)) {
+		if uf.Union(int32(uint32(ab)), int32(ab>>32)) {
 			out = append(out, int32(i))
 		}
 	}
@@ -340,57 +340,6 @@ func (p *Persistence) Betti(r float64) (pieces, holes int) {
 		}
 	}
 	return pieces, holes
-}
-
-// persistUF is a union-find (disjoint-set forest) over int32 nodes with
-// path halving and union by rank.
-type persistUF struct {
-	parent []int32
-	rank   []uint8
-}
-
-func newPersistUF(n int) *persistUF {
-	u := &persistUF{parent: make([]int32, n), rank: make([]uint8, n)}
-	for i := range u.parent {
-		u.parent[i] = int32(i)
-	}
-	return u
-}
-
-// find returns the root of x, halving the path on the way.
-func (u *persistUF) find(x int32) int32 {
-	par := u.parent
-	for par[x] != x {
-		g := par[par[x]]
-		par[x] = g
-		x = g
-	}
-	return x
-}
-
-// link joins the trees of two distinct roots and returns the new root.
-func (u *persistUF) link(a, b int32) int32 {
-	switch ra, rb := u.rank[a], u.rank[b]; {
-	case ra < rb:
-		u.parent[a] = b
-		return b
-	case ra > rb:
-		u.parent[b] = a
-	default:
-		u.parent[b] = a
-		u.rank[a]++
-	}
-	return a
-}
-
-// union joins the sets of a and b and reports whether they were distinct.
-func (u *persistUF) union(a, b int32) bool {
-	ra, rb := u.find(a), u.find(b)
-	if ra == rb {
-		return false
-	}
-	u.link(ra, rb)
-	return true
 }
 
 // persistRadixSort sorts keys ascending, carrying ids along, by a stable

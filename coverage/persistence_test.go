@@ -39,6 +39,7 @@ import (
 	"time"
 
 	"github.com/paulmach/orb"
+
 	"github.com/sitecover/sitecover/planar"
 )
 
@@ -609,11 +610,11 @@ func persistCircumcircle(a, b, c orb.Point) (x, y, r float64, ok bool) {
 // betti returns b0 by union-find of the pairs within 2r and b1 = b0 − χ.
 func (b *persistBrute) betti(r float64) (int, int) {
 	n := len(b.pts)
-	uf := newPersistUF(n)
+	uf := planar.NewUnionFind(n)
 	b0 := n
 	for i := range n {
 		for j := i + 1; j < n; j++ {
-			if persistDist(b.pts[i], b.pts[j]) <= 2*r && uf.union(int32(i), int32(j)) {
+			if persistDist(b.pts[i], b.pts[j]) <= 2*r && uf.Union(int32(i), int32(j)) {
 				b0--
 			}
 		}

@@ -263,32 +263,6 @@ func clipCheckInput(t *Triangulation, r *Region) error {
 	return nil
 }
 
-// parallel runs f(lo, hi) over [0, n) in chunks on c.workers goroutines.
-func (c *clipper) parallel(n, chunk int, f func(lo, hi int)) {
-	if n <= chunk || c.workers <= 1 {
-		for lo := 0; lo < n; lo += chunk {
-			f(lo, min(n, lo+chunk))
-		}
-		return
-	}
-	var next atomic.Int64
-	var wg sync.WaitGroup
-	for w := 0; w < c.workers; w++ {
-		wg.Add(1)
-		go func() {
-			defer wg.Done()
-			for {
-				lo := int(next.Add(int64(chunk))) - chunk
-				if lo >= n {
-					return
-				}
-				f(lo, min(n, lo+chunk))
-			}
-		}()
-	}
-	wg.Wait()
-}
-
 // circumcentres computes the circumcentre of every triangle. Triangles that
 // share a circumcircle (adjacent across an edge whose four points are
 // exactly cocircular, by InCircle) share one representative and one
@@ -321,7 +295,7 @@ func (c *clipper) circumcentres() {
 	}
 	small := math.Min(g.cw, g.ch)
 	c.near = make([]bool, nt)
-	c.parallel(nt, 1<<15, func(lo, hi int) {
+	ParallelChunks(nt, 1<<15, c.workers, func(_, lo, hi int) {
 		for i := lo; i < hi; i++ {
 			c.class[i] = int32(i)
 			a, b, d := t.Triangles[3*i], t.Triangles[3*i+1], t.Triangles[3*i+2]
@@ -359,7 +333,7 @@ func (c *clipper) circumcentres() {
 	// Cocircular interior edges, found in parallel, merged in order.
 	var mu sync.Mutex
 	var pairs [][2]int32
-	c.parallel(len(t.Halfedges), 1<<16, func(lo, hi int) {
+	ParallelChunks(len(t.Halfedges), 1<<16, c.workers, func(_, lo, hi int) {
 		var local [][2]int32
 		for e := lo; e < hi; e++ {
 			o := t.Halfedges[e]
@@ -386,24 +360,12 @@ func (c *clipper) circumcentres() {
 	if len(pairs) == 0 {
 		return
 	}
-	find := func(x int32) int32 {
-		for c.class[x] != x {
-			c.class[x] = c.class[c.class[x]]
-			x = c.class[x]
-		}
-		return x
-	}
+	// The smallest triangle of each class is its representative.
+	uf := UnionFind{Parent: c.class}
 	for _, p := range pairs {
-		a, b := find(p[0]), find(p[1])
-		if a < b {
-			c.class[b] = a
-		} else if b < a {
-			c.class[a] = b
-		}
+		uf.UnionMin(p[0], p[1])
 	}
-	for i := range c.class {
-		k := find(int32(i))
-		c.class[i] = k
+	for i, k := range uf.Flatten() {
 		c.cc[2*i], c.cc[2*i+1] = c.cc[2*k], c.cc[2*k+1]
 	}
 }
@@ -671,7 +633,7 @@ func (c *clipper) markCrossedEdges() {
 	// tested, each once (from its smaller half-edge when both are near).
 	var mu sync.Mutex
 	var hits []int32
-	c.parallel(len(t.Triangles)/3, 1<<15, func(lo, hi int) {
+	ParallelChunks(len(t.Triangles)/3, 1<<15, c.workers, func(_, lo, hi int) {
 		var local []int32
 		for tr := lo; tr < hi; tr++ {
 			if !c.near[tr] {
@@ -720,27 +682,13 @@ func (c *clipper) markCrossedEdges() {
 // inside its own cell) decides a whole group. Groups are found by
 // union-find over the Delaunay edges in one linear pass.
 func (c *clipper) classify() {
-	parent := make([]int32, c.nv)
-	for i := range parent {
-		parent[i] = int32(i)
-	}
-	find := func(x int32) int32 {
-		for parent[x] != x {
-			parent[x] = parent[parent[x]]
-			x = parent[x]
-		}
-		return x
-	}
+	uf := NewUnionFind(c.nv)
+	find := uf.Find
 	union := func(a, b int32) {
 		if c.state[a] != clipUnknown || c.state[b] != clipUnknown {
 			return
 		}
-		ra, rb := find(a), find(b)
-		if ra < rb {
-			parent[rb] = ra
-		} else if rb < ra {
-			parent[ra] = rb
-		}
+		uf.UnionMin(a, b)
 	}
 	t := c.t
 	if c.collinear {
@@ -823,7 +771,7 @@ func (c *clipper) assemble(st *clipStats) *Cells {
 		works <- newClipWork(c)
 	}
 	var crossed, inside atomic.Int64
-	c.parallel(c.nv, chunk, func(lo, hi int) {
+	ParallelChunks(c.nv, chunk, c.workers, func(_, lo, hi int) {
 		w := <-works
 		defer func() { works <- w }()
 		out := &outs[lo/chunk]
@@ -873,7 +821,7 @@ func (c *clipper) assemble(st *clipStats) *Cells {
 		EdgeSource: make([]int32, tot.pt),
 		Area:       make([]float64, c.nv),
 	}
-	c.parallel(nchunks, 1, func(lo, hi int) {
+	ParallelChunks(nchunks, 1, c.workers, func(_, lo, hi int) {
 		for i := lo; i < hi; i++ {
 			o, s := &outs[i], starts[i]
 			v0 := i * chunk

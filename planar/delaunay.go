@@ -158,7 +158,7 @@ func argmin(n int, chunk func(lo, hi int) (float64, int32)) int32 {
 	const parts = 8
 	var vals [parts]float64
 	var idx [parts]int32
-	parallel(parts, 1, func(lo, hi int) {
+	ParallelFor(parts, 1, func(lo, hi int) {
 		for k := lo; k < hi; k++ {
 			vals[k], idx[k] = chunk(n*k/parts, n*(k+1)/parts)
 		}

@@ -30,8 +30,6 @@ package planar
 import (
 	"math"
 	"math/big"
-	"runtime"
-	"sync"
 )
 
 // walk locates (x, y) starting in the triangle of half-edge e0. It returns
@@ -335,14 +333,7 @@ func (t *Triangulation) NearestMany(xy []float64, out []int32) {
 	if len(t.Triangles) > 0 && nq >= 64 && float64(nq)*math.Sqrt(float64(t.NumVertices())) > float64(t.NumVertices()) {
 		g = t.newHintGrid(nq)
 	}
-	workers := runtime.GOMAXPROCS(0)
-	if workers > nq/2048 {
-		workers = nq / 2048
-	}
-	if workers < 1 {
-		workers = 1
-	}
-	run := func(lo, hi int) {
+	ParallelFor(nq, 2048, func(lo, hi int) {
 		prev := int32(-1)
 		for k := lo; k < hi; k++ {
 			x, y := xy[2*k], xy[2*k+1]
@@ -360,21 +351,7 @@ func (t *Triangulation) NearestMany(xy []float64, out []int32) {
 				prev = r
 			}
 		}
-	}
-	if workers == 1 {
-		run(0, nq)
-		return
-	}
-	var wg sync.WaitGroup
-	for w := 0; w < workers; w++ {
-		lo, hi := nq*w/workers, nq*(w+1)/workers
-		wg.Add(1)
-		go func() {
-			defer wg.Done()
-			run(lo, hi)
-		}()
-	}
-	wg.Wait()
+	})
 }
 
 // hintGrid is a uniform grid over the vertices' bounding box; each cell
@@ -550,24 +527,13 @@ func (t *Triangulation) linePosition(v int32) int {
 func (t *Triangulation) Circumcenters() []float64 {
 	nt := t.NumTriangles()
 	out := make([]float64, 2*nt)
-	run := func(lo, hi int) {
+	// Halves from 2¹⁶ triangles on, as before; more cores take more ranges.
+	ParallelFor(nt, 1<<15, func(lo, hi int) {
 		tri, xy := t.Triangles, t.Coords
 		for k := lo; k < hi; k++ {
 			a, b, c := tri[3*k], tri[3*k+1], tri[3*k+2]
 			out[2*k], out[2*k+1] = circumcenter(xy[2*a], xy[2*a+1], xy[2*b], xy[2*b+1], xy[2*c], xy[2*c+1])
 		}
-	}
-	if nt < 1<<16 {
-		run(0, nt)
-		return out
-	}
-	var wg sync.WaitGroup
-	wg.Add(1)
-	go func() {
-		defer wg.Done()
-		run(0, nt/2)
-	}()
-	run(nt/2, nt)
-	wg.Wait()
+	})
 	return out
 }
