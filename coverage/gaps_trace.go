@@ -51,6 +51,8 @@ package coverage
 import (
 	"math"
 	"sort"
+
+	"github.com/sitecover/sitecover/planar"
 )
 
 // gapArc is the element kind of a circle arc.
@@ -520,42 +522,6 @@ func (t *gapTracer) traceStar() {
 	}
 }
 
-// ddAdd returns (hi, lo) + b in double-double arithmetic.
-func ddAdd(hi, lo, b float64) (float64, float64) {
-	s := hi + b
-	bb := s - hi
-	e := (hi - (s - bb)) + (b - bb)
-	e += lo
-	h := s + e
-	return h, e - (h - s)
-}
-
-// ddAddDD returns (ah, al) + (bh, bl).
-func ddAddDD(ah, al, bh, bl float64) (float64, float64) {
-	h, l := ddAdd(ah, al, bh)
-	return ddAdd(h, l, bl)
-}
-
-const (
-	gapTwoPiHi = 6.283185307179586
-	gapTwoPiLo = 2.4492935982947064e-16
-)
-
-// ddReduce reduces an angle to [0, 2π).
-func ddReduce(hi, lo float64) (float64, float64) {
-	k := math.Floor(hi / gapTwoPiHi)
-	if k != 0 {
-		p := k * gapTwoPiHi
-		pe := math.FMA(k, gapTwoPiHi, -p)
-		hi, lo = ddAddDD(hi, lo, -p, -pe)
-		hi, lo = ddAdd(hi, lo, -k*gapTwoPiLo)
-	}
-	if hi < 0 {
-		hi, lo = ddAddDD(hi, lo, gapTwoPiHi, gapTwoPiLo)
-	}
-	return hi, lo
-}
-
 // gapDelta is the angle subtended by the ring portion between consecutive
 // crossings.
 type gapDelta struct {
@@ -585,7 +551,7 @@ func (t *gapTracer) delta(a, b int32) gapDelta {
 				through = true
 			}
 			a := math.Atan2(w, dot)
-			hi, lo = ddAdd(hi, lo, a)
+			hi, lo = planar.DDAdd(hi, lo, a)
 			tv += math.Abs(a)
 		}
 		if last {
@@ -655,11 +621,11 @@ func (t *gapTracer) traceGeneral() bool {
 			for cur := j; deltas[cur].linked(); cur = (cur + 1) % m {
 				nx := (cur + 1) % m
 				P, C, d := &t.xs[k0+cur], &t.xs[k0+nx], deltas[cur]
-				C.hi, C.lo = ddAddDD(P.hi, P.lo, d.hi, d.lo)
+				C.hi, C.lo = planar.DDAddDD(P.hi, P.lo, d.hi, d.lo)
 			}
 		}
 		for j := k0; j < k1; j++ {
-			t.xs[j].hi, t.xs[j].lo = ddReduce(t.xs[j].hi, t.xs[j].lo)
+			t.xs[j].hi, t.xs[j].lo = planar.DDReduceTwoPi(t.xs[j].hi, t.xs[j].lo)
 		}
 		t.deltas = deltas
 		k0 = k1
@@ -713,7 +679,7 @@ func (t *gapTracer) traceGeneral() bool {
 			t.run(&t.loops[len(t.loops)-1], cur, ei)
 			E := &t.xs[ei]
 			P := &t.xs[E.pred]
-			phiHi, phiLo := ddAddDD(E.hi, E.lo, -P.hi, -P.lo)
+			phiHi, phiLo := planar.DDAddDD(E.hi, E.lo, -P.hi, -P.lo)
 			phi := phiHi + phiLo
 			if E.pos == 0 {
 				phi += 2 * math.Pi

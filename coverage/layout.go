@@ -235,3 +235,6 @@ func (l *Layout) ServiceAreas() []ServiceArea {
 func cvParallel(n, chunk int, fn func(ci, lo, hi int)) {
 	planar.ParallelChunks(n, chunk, 0, fn)
 }
+
+// ddAdd returns the double-double (hi, lo) + b (planar.DDAdd).
+func ddAdd(hi, lo, b float64) (float64, float64) { return planar.DDAdd(hi, lo, b) }

@@ -89,7 +89,7 @@
 //
 // Error bounds. Crossing points are within a few ulps of the exact
 // intersection of the rounded bisector with the ring edge, and
-// circumcentres within the bound clipCircumcentre computes (a few ulps of
+// circumcentres within the bound CircumcentreErr computes (a few ulps of
 // the triangle's size over its largest angle's sine); areas are shoelace
 // sums relative to the site (relative error about k·u for a ring of k
 // points, u = 2⁻⁵³). Clipped areas agree with GEOS to about 1e-13
@@ -311,7 +311,7 @@ func (c *clipper) circumcentres() {
 			case lab >= lbd && lab >= lda:
 				a, b, d = d, a, b
 			}
-			x, y, eb := clipCircumcentre(c.xy[2*a], c.xy[2*a+1], c.xy[2*b], c.xy[2*b+1], c.xy[2*d], c.xy[2*d+1])
+			x, y, eb := CircumcentreErr(c.xy[2*a], c.xy[2*a+1], c.xy[2*b], c.xy[2*b+1], c.xy[2*d], c.xy[2*d+1])
 			c.cc[2*i], c.cc[2*i+1], errb[i] = x, y, eb
 			// A Voronoi edge is at most R1 + R2 long (R the circumradii):
 			// one between two small circles near no ring edge cannot
@@ -368,33 +368,6 @@ func (c *clipper) circumcentres() {
 	for i, k := range uf.Flatten() {
 		c.cc[2*i], c.cc[2*i+1] = c.cc[2*k], c.cc[2*k+1]
 	}
-}
-
-// clipCircumcentre returns the circumcentre of triangle abc, computed
-// relative to a (the usual determinant formula), and a bound on the
-// rounding error of each coordinate (a standard forward error analysis of
-// the formula with unit roundoff u = 2⁻⁵³, doubled for safety).
-func clipCircumcentre(ax, ay, bx, by, cx, cy float64) (x, y, err float64) {
-	const u = 0x1p-53
-	bdx, bdy := bx-ax, by-ay
-	cdx, cdy := cx-ax, cy-ay
-	b2 := bdx*bdx + bdy*bdy
-	c2 := cdx*cdx + cdy*cdy
-	d := 2 * (bdx*cdy - bdy*cdx)
-	if d == 0 {
-		// Cannot happen for a triangle of a valid triangulation; keep the
-		// output finite and never merge it with a neighbour.
-		return ax, ay, -1
-	}
-	qx, qy := (cdy*b2-bdy*c2)/d, (bdx*c2-cdx*b2)/d
-	dabs := 2 * (math.Abs(bdx*cdy) + math.Abs(bdy*cdx))
-	mx := math.Abs(cdy*b2) + math.Abs(bdy*c2)
-	my := math.Abs(bdx*c2) + math.Abs(cdx*b2)
-	x, y = ax+qx, ay+qy
-	ad := math.Abs(d)
-	ex := (8*u*mx+4*u*math.Abs(qx)*dabs)/ad + u*math.Abs(qx) + u*math.Abs(x)
-	ey := (8*u*my+4*u*math.Abs(qy)*dabs)/ad + u*math.Abs(qy) + u*math.Abs(y)
-	return x, y, 2 * math.Max(ex, ey)
 }
 
 // around lists the Delaunay neighbours of v counter-clockwise in nb and, in

@@ -194,16 +194,6 @@ func circumradius2(ax, ay, bx, by, cx, cy float64) float64 {
 	return r
 }
 
-// circumcenter returns the circumcentre of triangle abc in floating point.
-func circumcenter(ax, ay, bx, by, cx, cy float64) (float64, float64) {
-	dx, dy := bx-ax, by-ay
-	ex, ey := cx-ax, cy-ay
-	bl := dx*dx + dy*dy
-	cl := ex*ex + ey*ey
-	d := 0.5 / (dx*ey - dy*ex)
-	return ax + (ey*bl-dy*cl)*d, ay + (dx*cl-ex*bl)*d
-}
-
 // numberVertices fills vertex (input -> vertex) and returns source
 // (vertex -> smallest input index) given rep, where rep[i] is the smallest
 // input index with the same coordinates as input i (rep[i] <= i). vertex

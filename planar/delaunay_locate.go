@@ -532,7 +532,7 @@ func (t *Triangulation) Circumcenters() []float64 {
 		tri, xy := t.Triangles, t.Coords
 		for k := lo; k < hi; k++ {
 			a, b, c := tri[3*k], tri[3*k+1], tri[3*k+2]
-			out[2*k], out[2*k+1] = circumcenter(xy[2*a], xy[2*a+1], xy[2*b], xy[2*b+1], xy[2*c], xy[2*c+1])
+			out[2*k], out[2*k+1] = Circumcentre(xy[2*a], xy[2*a+1], xy[2*b], xy[2*b+1], xy[2*c], xy[2*c+1])
 		}
 	})
 	return out
