@@ -302,9 +302,9 @@ func (c *clipper) circumcentres() {
 			// Work from the vertex opposite the longest edge (the largest
 			// angle): its two edges meet at ≥ 60°, so their cross product
 			// has no cancellation even for a needle triangle.
-			lab := clipDist2(c.xy[2*a]-c.xy[2*b], c.xy[2*a+1]-c.xy[2*b+1])
-			lbd := clipDist2(c.xy[2*b]-c.xy[2*d], c.xy[2*b+1]-c.xy[2*d+1])
-			lda := clipDist2(c.xy[2*d]-c.xy[2*a], c.xy[2*d+1]-c.xy[2*a+1])
+			lab := dist2(c.xy[2*a], c.xy[2*a+1], c.xy[2*b], c.xy[2*b+1])
+			lbd := dist2(c.xy[2*b], c.xy[2*b+1], c.xy[2*d], c.xy[2*d+1])
+			lda := dist2(c.xy[2*d], c.xy[2*d+1], c.xy[2*a], c.xy[2*a+1])
 			switch {
 			case lda >= lab && lda >= lbd:
 				a, b, d = b, d, a
@@ -324,7 +324,7 @@ func (c *clipper) circumcentres() {
 				q, r := min(max(int(fq), 0), g.nx-1), min(max(int(fr), 0), g.ny-1)
 				near = occupied[r*g.nx+q]
 			}
-			if clipDist2(x-c.xy[2*a], y-c.xy[2*a+1]) >= 0.25*small*small*0.99 {
+			if dist2(x, y, c.xy[2*a], c.xy[2*a+1]) >= 0.25*small*small*0.99 {
 				near = true
 			}
 			c.near[i] = near
@@ -458,12 +458,12 @@ func (c *clipper) prepareRegion() {
 // neighbours from hint (which finds the nearest site on a Delaunay graph).
 func (c *clipper) nearest(x, y float64, hint int32, nb, tri []int32) int32 {
 	v := hint
-	d := clipDist2(c.xy[2*v]-x, c.xy[2*v+1]-y)
+	d := dist2(c.xy[2*v], c.xy[2*v+1], x, y)
 	for steps := 0; steps <= c.nv; steps++ {
 		nb, tri, _ = c.around(v, nb, tri)
 		best, bd := v, d
 		for _, j := range nb {
-			if dj := clipDist2(c.xy[2*j]-x, c.xy[2*j+1]-y); dj < bd {
+			if dj := dist2(c.xy[2*j], c.xy[2*j+1], x, y); dj < bd {
 				best, bd = j, dj
 			}
 		}
@@ -474,8 +474,6 @@ func (c *clipper) nearest(x, y float64, hint int32, nb, tri []int32) int32 {
 	}
 	return v
 }
-
-func clipDist2(dx, dy float64) float64 { return dx*dx + dy*dy }
 
 // walkBoundary walks every ring edge through the Voronoi diagram and
 // records each (site, edge) pair whose cell the edge passes through.
@@ -932,7 +930,7 @@ func (w *clipWork) wholeCell(v int32, out *clipOut) {
 	out.ringPts = append(out.ringPts, int32(n))
 	out.polyRings = append(out.polyRings, 1)
 	out.sitePolys = append(out.sitePolys, 1)
-	out.area = append(out.area, clipShoelace(out.xy[2*start:], px, py))
+	out.area = append(out.area, RingAreaAbout(out.xy[2*start:], px, py))
 }
 
 // interleave writes x and y interleaved into *buf and returns it.
@@ -943,23 +941,6 @@ func clipInterleave(x, y []float64, buf *[]float64) []float64 {
 	}
 	*buf = b
 	return b
-}
-
-// clipShoelace returns the signed area of an interleaved ring, computed
-// relative to (ox, oy).
-func clipShoelace(xy []float64, ox, oy float64) float64 {
-	n := len(xy) / 2
-	if n < 3 {
-		return 0
-	}
-	s := 0.0
-	ax, ay := xy[2*n-2]-ox, xy[2*n-1]-oy
-	for i := 0; i < n; i++ {
-		bx, by := xy[2*i]-ox, xy[2*i+1]-oy
-		s += ax*by - ay*bx
-		ax, ay = bx, by
-	}
-	return 0.5 * s
 }
 
 // slot returns the cache slot of region vertex i for the current cell,
@@ -1419,7 +1400,7 @@ func (w *clipWork) traceRings(v int32, bounded bool) {
 			xy := c.r.XY
 			o = Orient2D(xy[2*a], xy[2*a+1], xy[2*vtx], xy[2*vtx+1], xy[2*b], xy[2*b+1])
 		} else {
-			o = clipShoelace(clipInterleave(w.cx[ch.p0:ch.p1], w.cy[ch.p0:ch.p1], &w.tmp), px, py)
+			o = RingAreaAbout(clipInterleave(w.cx[ch.p0:ch.p1], w.cy[ch.p0:ch.p1], &w.tmp), px, py)
 		}
 		// Enforce the order (a tie in the computed positions is a
 		// rounding artefact here, not a shared point to perturb).
@@ -1772,28 +1753,13 @@ func (w *clipWork) copyRing(r *clipRing, out *clipOut) {
 }
 
 // ringHolds reports whether ring h lies inside ring r, judged at the first
-// vertex of h that is not on r (h may touch r at isolated points). Exact
-// orientation tests (crossing rule).
+// vertex of h that is not on r (h may touch r at isolated points), by the
+// exact PointInRing.
 func (w *clipWork) ringHolds(r, h *clipRing) bool {
+	rxy := clipInterleave(w.ox[r.p0:r.p1], w.oy[r.p0:r.p1], &w.tmp)
 	for i := h.p0; i < h.p1; i++ {
-		x, y := w.ox[i], w.oy[i]
-		in := false
-		on := false
-		ax, ay := w.ox[r.p1-1], w.oy[r.p1-1]
-		for j := r.p0; j < r.p1; j++ {
-			bx, by := w.ox[j], w.oy[j]
-			o, cr := EdgeRay(ax, ay, bx, by, x, y)
-			if o {
-				on = true
-				break
-			}
-			if cr {
-				in = !in
-			}
-			ax, ay = bx, by
-		}
-		if !on {
-			return in
+		if s := PointInRing(rxy, w.ox[i], w.oy[i]); s != 0 {
+			return s > 0
 		}
 	}
 	return false
