@@ -624,18 +624,6 @@ func prevHE(e int32) int32 {
 	return e - 1
 }
 
-// Stage-A constants of predicates.go (Shewchuk's bounds plus 16ε² of
-// underflow slack, and the ranges where stage A is trusted), repeated for
-// the inlined filters below.
-const (
-	filterEps          = 0x1p-53
-	filterOrientBound  = (3.0 + 32.0*filterEps) * filterEps
-	filterOrientFloor  = 0x1p-900
-	filterICCBound     = (10.0 + 112.0*filterEps) * filterEps
-	filterICCFloor     = 0x1p-500
-	filterICCLiftLimit = 0x1p400
-)
-
 // inCircleFiltered reports InCircle(a, b, c, d) > 0. It evaluates
 // Shewchuk's stage-A filter in line (the same expression and bound as
 // InCircle) and calls InCircle only when the filter cannot decide.
@@ -653,8 +641,8 @@ func inCircleFiltered(a, b, c xyPt, dx, dy float64) bool {
 	permanent := float64((math.Abs(bdxcdy)+math.Abs(cdxbdy))*alift) +
 		float64((math.Abs(cdxady)+math.Abs(adxcdy))*blift) +
 		float64((math.Abs(adxbdy)+math.Abs(bdxady))*clift)
-	bound := filterICCBound * permanent
-	if permanent >= filterICCFloor && alift+blift+clift <= filterICCLiftLimit {
+	bound := iccErrBoundA * permanent
+	if permanent >= incircleFloor && alift+blift+clift <= incircleLiftCeil {
 		if det > bound {
 			return true
 		}
@@ -689,7 +677,7 @@ func orientSign(a, c xyPt, x, y float64) int {
 	detright := float64((a.y - y) * (c.x - x))
 	det := detleft - detright
 	detsum := math.Abs(detleft) + math.Abs(detright)
-	if bound := filterOrientBound * detsum; detsum >= filterOrientFloor {
+	if bound := ccwErrBoundA * detsum; detsum >= orientFloor {
 		if det > bound {
 			return 1
 		}

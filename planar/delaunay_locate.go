@@ -153,6 +153,10 @@ func (t *Triangulation) sampleVertex(x, y float64) int32 {
 	return best
 }
 
+// cmpDistErr bounds the rounding error of |q−a|² − |q−b|² in floating point
+// relative to |q−a|² + |q−b|² (see cmpDist).
+const cmpDistErr = 6 * epsilon
+
 // cmpDist returns the sign of |q−a|² − |q−b|², exactly.
 func cmpDist(qx, qy, ax, ay, bx, by float64) int {
 	dax, day := ax-qx, ay-qy
@@ -162,8 +166,9 @@ func cmpDist(qx, qy, ax, ay, bx, by float64) int {
 	diff := da - db
 	sum := da + db
 	// da and db are each within (4ε + O(ε²)) relative of the true values;
-	// the subtraction adds ε|diff|.
-	if bound := 6 * epsilon * sum; sum >= 0x1p-900 && sum <= math.MaxFloat64 {
+	// the subtraction adds ε|diff| (cmpDistErr = 6ε covers both); below
+	// orientFloor an underflowed square could break the relative bound.
+	if bound := cmpDistErr * sum; sum >= orientFloor && sum <= math.MaxFloat64 {
 		if diff > bound {
 			return 1
 		}

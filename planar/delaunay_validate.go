@@ -28,6 +28,13 @@ import (
 	"slices"
 )
 
+// validateAreaRel is the tolerance of the area check, relative to the sum of
+// the magnitudes of the products: the sums carry a rounding error of a small
+// multiple of ε = 2⁻⁵³ per term, so 1e-9 is loose for any input size; a
+// multiple covering adds whole triangles' areas and is caught unless those
+// are below 1e-9 of the total (the empty-circle test below still applies).
+const validateAreaRel = 1e-9
+
 // Validate checks that t is a well-formed Delaunay triangulation of its
 // vertices and returns the first violation found, or nil.
 func (t *Triangulation) Validate() error {
@@ -274,7 +281,7 @@ func (t *Triangulation) validateTriangles() error {
 	}
 	// Rounding error is a small multiple of ε times the sum of the
 	// products' magnitudes; the absolute term absorbs underflow.
-	if math.Abs(area-hullArea) > 1e-9*perm+0x1p-900 {
+	if math.Abs(area-hullArea) > validateAreaRel*perm+orientFloor {
 		return fmt.Errorf("planar: Validate: triangle areas sum to %g, hull area %g (scaled)", area/2, hullArea/2)
 	}
 	// Empty circles.
