@@ -349,13 +349,32 @@ func (w *clipWork) edgeEvents(i, j int32) (kin, kout int, meets bool) {
 // the boundary walk found in it, and appends the result to out.
 func (w *clipWork) clipCell(v int32, seeds []int32, out *clipOut) {
 	c := w.c
-	var bounded bool
+	px, py, bounded := w.startCell(v)
+	w.collectChains(w.gridSeeds(seeds, px, py), px, py)
+	w.ox, w.oy, w.ol, w.rings = w.ox[:0], w.oy[:0], w.ol[:0], w.rings[:0]
+	if len(w.events) > 0 {
+		if len(w.nb) == 0 {
+			c.anomalies.Add(1)
+		} else {
+			w.traceRings(v, bounded)
+		}
+	}
+	largest := w.wholeRings(px, py)
+	if len(w.events) == 0 {
+		w.boundaryRing(largest, px, py, bounded)
+	}
+	w.emit(out, px, py)
+}
+
+// startCell loads the neighbours and half-planes of the cell of v into w
+// and clears the per-cell scratch; it returns the site and whether the
+// cell is bounded.
+func (w *clipWork) startCell(v int32) (px, py float64, bounded bool) {
+	c := w.c
 	w.nb, w.tri, bounded = c.around(v, w.nb, w.tri)
-	nb := w.nb
-	m := len(nb)
-	px, py := c.xy[2*v], c.xy[2*v+1]
+	px, py = c.xy[2*v], c.xy[2*v+1]
 	w.cnx, w.cny, w.ch = w.cnx[:0], w.cny[:0], w.ch[:0]
-	for _, j := range nb {
+	for _, j := range w.nb {
 		nx, ny := c.xy[2*j]-px, c.xy[2*j+1]-py
 		w.cnx = append(w.cnx, nx)
 		w.cny = append(w.cny, ny)
@@ -367,23 +386,33 @@ func (w *clipWork) clipCell(v int32, seeds []int32, out *clipOut) {
 	w.chains = w.chains[:0]
 	w.chainVertex = w.chainVertex[:0]
 	w.events = w.events[:0]
+	return px, py, bounded
+}
+
+// newEvent records the crossing of edge (slot i → slot j) with constraint
+// k as an entry or exit event of chain, and as a chain point.
+func (w *clipWork) newEvent(i, j int32, k int, entry bool, chain int32, px, py float64) int32 {
+	var ev clipEvent
+	w.crossing(i, j, k, px, py, &ev)
+	ev.entry, ev.chain = entry, chain
+	w.events = append(w.events, ev)
+	w.cx = append(w.cx, ev.x)
+	w.cy = append(w.cy, ev.y)
+	return int32(len(w.events) - 1)
+}
+
+// addVertex appends region vertex i as a chain point.
+func (w *clipWork) addVertex(i int32) {
+	w.cx = append(w.cx, w.c.r.XY[2*i])
+	w.cy = append(w.cy, w.c.r.XY[2*i+1])
+}
+
+// collectChains builds the chains (runs of ring points inside the cell,
+// with their entry and exit events) and whole rings from the ring edges
+// in seeds, each ring edge used once.
+func (w *clipWork) collectChains(seeds []int32, px, py float64) {
+	c := w.c
 	rnext, rprev := c.rnext, c.rprev
-
-	newEvent := func(i, j int32, k int, entry bool, chain int32) int32 {
-		var ev clipEvent
-		w.crossing(i, j, k, px, py, &ev)
-		ev.entry, ev.chain = entry, chain
-		w.events = append(w.events, ev)
-		w.cx = append(w.cx, ev.x)
-		w.cy = append(w.cy, ev.y)
-		return int32(len(w.events) - 1)
-	}
-	addVertex := func(i int32) {
-		w.cx = append(w.cx, c.r.XY[2*i])
-		w.cy = append(w.cy, c.r.XY[2*i+1])
-	}
-
-	seeds = w.gridSeeds(seeds, px, py)
 	for _, e := range seeds {
 		if w.estamp[e] == w.stamp {
 			continue
@@ -399,8 +428,8 @@ func (w *clipWork) clipCell(v int32, seeds []int32, out *clipOut) {
 				continue
 			}
 			p0 := int32(len(w.cx))
-			ein := newEvent(sa, sb, kin, true, ch)
-			eout := newEvent(sa, sb, kout, false, ch)
+			ein := w.newEvent(sa, sb, kin, true, ch, px, py)
+			eout := w.newEvent(sa, sb, kout, false, ch, px, py)
 			w.chains = append(w.chains, clipChain{p0: p0, p1: int32(len(w.cx)), label: label, entry: ein, exit: eout})
 			w.chainVertex = append(w.chainVertex, -1)
 			continue
@@ -427,7 +456,7 @@ func (w *clipWork) clipCell(v int32, seeds []int32, out *clipOut) {
 			g := e
 			for {
 				w.estamp[g] = w.stamp
-				addVertex(g)
+				w.addVertex(g)
 				g = rnext[g]
 				if g == e {
 					break
@@ -446,10 +475,10 @@ func (w *clipWork) clipCell(v int32, seeds []int32, out *clipOut) {
 			c.anomalies.Add(1)
 			kin = 0
 		}
-		ein := newEvent(sf, sg, kin, true, ch)
+		ein := w.newEvent(sf, sg, kin, true, ch, px, py)
 		g := rnext[f]
 		for {
-			addVertex(g)
+			w.addVertex(g)
 			h := rnext[g]
 			w.estamp[g] = w.stamp
 			sh := w.slot(h, px, py)
@@ -462,21 +491,17 @@ func (w *clipWork) clipCell(v int32, seeds []int32, out *clipOut) {
 				c.anomalies.Add(1)
 				kout = 0
 			}
-			eout := newEvent(w.slot(g, px, py), sh, kout, false, ch)
+			eout := w.newEvent(w.slot(g, px, py), sh, kout, false, ch, px, py)
 			w.chains = append(w.chains, clipChain{p0: p0, p1: int32(len(w.cx)), label: label, entry: ein, exit: eout})
 			w.chainVertex = append(w.chainVertex, rnext[f])
 			break
 		}
 	}
+}
 
-	w.ox, w.oy, w.ol, w.rings = w.ox[:0], w.oy[:0], w.ol[:0], w.rings[:0]
-	if len(w.events) > 0 {
-		if m == 0 {
-			c.anomalies.Add(1)
-		} else {
-			w.traceRings(v, bounded)
-		}
-	}
+// wholeRings records the rings lying wholly inside the cell and returns
+// the index of the largest in w.rings (−1 when none).
+func (w *clipWork) wholeRings(px, py float64) int {
 	// Whole rings inside the cell.
 	largest, largestArea := -1, 0.0
 	for ci := range w.chains {
@@ -497,34 +522,38 @@ func (w *clipWork) clipCell(v int32, seeds []int32, out *clipOut) {
 			}
 		}
 	}
-	// With no boundary stretch, decide whether the cell's own boundary
-	// lies in the area.
-	if len(w.events) == 0 {
-		boundaryIn := false
-		if largest >= 0 {
-			boundaryIn = w.rings[largest].hole
-		} else {
-			in, on := c.grid.locate(px, py, nil, nil)
-			boundaryIn = in && !on
-			if on {
-				c.anomalies.Add(1)
-			}
-		}
-		if boundaryIn {
-			if !bounded || len(w.tri) < 3 {
-				c.anomalies.Add(1)
-			} else {
-				p0 := int32(len(w.ox))
-				m := len(w.tri)
-				for k := 0; k < m; k++ {
-					t0 := w.tri[k]
-					w.ox = append(w.ox, c.cc[2*t0])
-					w.oy = append(w.oy, c.cc[2*t0+1])
-					w.ol = append(w.ol, nb[(k+1)%m])
-				}
-				w.finishRing(p0, px, py)
-			}
+	return largest
+}
+
+// boundaryRing handles a cell whose boundary no chain touches: the cell's
+// own boundary lies in the area exactly when the largest whole ring is a
+// hole (or, with none, when the site is in the area), and then it is an
+// exterior ring.
+func (w *clipWork) boundaryRing(largest int, px, py float64, bounded bool) {
+	c := w.c
+	boundaryIn := false
+	if largest >= 0 {
+		boundaryIn = w.rings[largest].hole
+	} else {
+		in, on := c.grid.locate(px, py, nil, nil)
+		boundaryIn = in && !on
+		if on {
+			c.anomalies.Add(1)
 		}
 	}
-	w.emit(out, px, py)
+	if boundaryIn {
+		if !bounded || len(w.tri) < 3 {
+			c.anomalies.Add(1)
+		} else {
+			p0 := int32(len(w.ox))
+			m := len(w.tri)
+			for k := 0; k < m; k++ {
+				t0 := w.tri[k]
+				w.ox = append(w.ox, c.cc[2*t0])
+				w.oy = append(w.oy, c.cc[2*t0+1])
+				w.ol = append(w.ol, w.nb[(k+1)%m])
+			}
+			w.finishRing(p0, px, py)
+		}
+	}
 }

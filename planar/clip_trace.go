@@ -50,53 +50,80 @@ const (
 // each bisector is a line of its own.
 func (w *clipWork) traceRings(v int32, bounded bool) {
 	c := w.c
-	m := len(w.nb)
-	nev := len(w.events)
-	evs := w.events
 	px, py := c.xy[2*v], c.xy[2*v+1]
 	cyclic := bounded && !c.collinear
-	ncorner := len(w.tri)
-	cornerX := func(k int) float64 { return c.cc[2*w.tri[k]] }
-	cornerY := func(k int) float64 { return c.cc[2*w.tri[k]+1] }
-	along := func(k int, x, y float64) float64 {
-		return (x-px)*(-w.cny[k]) + (y-py)*w.cnx[k]
+	if !c.collinear && len(w.tri) > 0 {
+		w.moveEventsToEdges(px, py, cyclic)
 	}
-	if !c.collinear && ncorner > 0 {
-		for i := range evs {
-			e := &evs[i]
-			k, dir := int(e.k), 0
-			for step := 0; step < m; step++ {
-				s := along(k, e.x, e.y)
-				start, end := -1, -1
-				if cyclic {
-					start, end = (k+m-1)%m, k
-				} else {
-					if k >= 1 {
-						start = k - 1
-					}
-					if k <= m-2 {
-						end = k
-					}
+	w.orderDips(px, py)
+	next := w.pairEvents(cyclic)
+	w.traceChains(next, px, py, cyclic)
+}
+
+// cornerXY returns corner k of the current cell (the circumcentre between
+// neighbours k and k+1).
+func (w *clipWork) cornerXY(k int) (x, y float64) {
+	t := w.tri[k]
+	return w.c.cc[2*t], w.c.cc[2*t+1]
+}
+
+// along returns the position of (x, y) along the bisector of constraint k
+// of the cell of the site at (px, py).
+func (w *clipWork) along(k int, x, y, px, py float64) float64 {
+	return (x-px)*(-w.cny[k]) + (y-py)*w.cnx[k]
+}
+
+// moveEventsToEdges moves each event to the cell edge whose extent, between
+// its corners measured along the bisector, holds it (see traceRings), and
+// recomputes its position on that edge.
+func (w *clipWork) moveEventsToEdges(px, py float64, cyclic bool) {
+	m := len(w.nb)
+	evs := w.events
+	for i := range evs {
+		e := &evs[i]
+		k, dir := int(e.k), 0
+		for step := 0; step < m; step++ {
+			s := w.along(k, e.x, e.y, px, py)
+			start, end := -1, -1
+			if cyclic {
+				start, end = (k+m-1)%m, k
+			} else {
+				if k >= 1 {
+					start = k - 1
 				}
-				if dir <= 0 && start >= 0 && s < along(k, cornerX(start), cornerY(start)) {
+				if k <= m-2 {
+					end = k
+				}
+			}
+			if start >= 0 && dir <= 0 {
+				if x, y := w.cornerXY(start); s < w.along(k, x, y, px, py) {
 					k, dir = (k+m-1)%m, -1
 					continue
 				}
-				if dir >= 0 && end >= 0 && s > along(k, cornerX(end), cornerY(end)) {
+			}
+			if end >= 0 && dir >= 0 {
+				if x, y := w.cornerXY(end); s > w.along(k, x, y, px, py) {
 					k, dir = (k+1)%m, 1
 					continue
 				}
-				break
 			}
-			if k != int(e.k) {
-				ux, uy := -w.cny[k], w.cnx[k]
-				e.k = int32(k)
-				e.off = e.lam * (e.dx*ux + e.dy*uy)
-				e.s = e.bx*ux + e.by*uy + e.off
-				e.kappa = e.vx*ux + e.vy*uy
-			}
+			break
+		}
+		if k != int(e.k) {
+			ux, uy := -w.cny[k], w.cnx[k]
+			e.k = int32(k)
+			e.off = e.lam * (e.dx*ux + e.dy*uy)
+			e.s = e.bx*ux + e.by*uy + e.off
+			e.kappa = e.vx*ux + e.vy*uy
 		}
 	}
+}
+
+// orderDips fixes the order of the two events of every chain that leaves
+// by the cell edge it came in by.
+func (w *clipWork) orderDips(px, py float64) {
+	c := w.c
+	evs := w.events
 	// A chain that leaves by the edge it came in by closes, with the
 	// stretch of that edge between its ends, a simple polygon: counter-
 	// clockwise exactly when the exit comes first along the edge. When
@@ -131,6 +158,15 @@ func (w *clipWork) traceRings(v int32, bounded bool) {
 			en.s, en.kappa, en.pre, ex.pre = ex.s, ex.kappa, -1, 0
 		}
 	}
+}
+
+// pairEvents sorts the events along the cell boundary into w.order and
+// returns, for each exit event, the entry event that follows it (the next
+// unused entry counter-clockwise); w.pairOf holds each event's rank.
+func (w *clipWork) pairEvents(cyclic bool) []int32 {
+	c := w.c
+	nev := len(w.events)
+	evs := w.events
 	w.order = w.order[:0]
 	for i := 0; i < nev; i++ {
 		w.order = append(w.order, int32(i))
@@ -210,6 +246,17 @@ func (w *clipWork) traceRings(v int32, bounded bool) {
 		w.used[found] = true
 		next[ei] = found
 	}
+	return next
+}
+
+// traceChains traces the rings: chain, boundary stretch with the cell's
+// corners up to the paired entry, next chain, … until the ring closes.
+func (w *clipWork) traceChains(next []int32, px, py float64, cyclic bool) {
+	c := w.c
+	m := len(w.nb)
+	evs := w.events
+	rank := w.pairOf
+	ncorner := len(w.tri)
 	// Trace.
 	done := make([]bool, len(w.chains))
 	for c0 := range w.chains {
@@ -248,8 +295,9 @@ func (w *clipWork) traceRings(v int32, bounded bool) {
 				if k >= ncorner {
 					break
 				}
-				w.ox = append(w.ox, cornerX(k))
-				w.oy = append(w.oy, cornerY(k))
+				x, y := w.cornerXY(k)
+				w.ox = append(w.ox, x)
+				w.oy = append(w.oy, y)
 				w.ol = append(w.ol, w.nb[(k+1)%m])
 			}
 			ci = e.chain
