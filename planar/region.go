@@ -380,6 +380,33 @@ func regionAssemble(polys [][]regionRingIn) (*Region, error) {
 	var g regionGrid
 	g.build(reg.XY, reg.RingStart)
 
+	if err := regionEdgeFault(&g, reg, rings, ringOf); err != nil {
+		return nil, err
+	}
+	// Orientation of each (now known simple) ring: the turn at its lowest,
+	// then leftmost, vertex, which is a convex corner.
+	ccw := make([]bool, len(rings))
+	for k := range rings {
+		ccw[k] = regionRingCCW(reg.XY[2*reg.RingStart[k] : 2*reg.RingStart[k+1]])
+	}
+
+	if err := regionCheckNesting(&g, reg, rings, ringOf); err != nil {
+		return nil, err
+	}
+
+	// Orient: exterior counter-clockwise, holes clockwise.
+	for k := range rings {
+		if ccw[k] == rings[k].hole {
+			regionReverse(reg.XY[2*reg.RingStart[k] : 2*reg.RingStart[k+1]])
+		}
+	}
+	return reg, nil
+}
+
+// regionEdgeFault tests the ring edges sharing a grid cell pairwise
+// (exactly, edgePair) and describes the first crossing, touching or
+// overlapping pair in ring order; nil when there is none.
+func regionEdgeFault(g *regionGrid, reg *Region, rings []*regionRingIn, ringOf []int32) error {
 	// Pairwise edge tests within grid cells; keep the first offending pair
 	// in ring order so that the message is deterministic.
 	type fault struct {
@@ -409,22 +436,22 @@ func regionAssemble(polys [][]regionRingIn) (*Region, error) {
 		v2 := rings[k2].orig[best.e2-reg.RingStart[k2]]
 		verb := [...]string{1: "crosses", 2: "touches", 3: "overlaps"}[best.kind]
 		if best.kind == 3 {
-			return nil, fmt.Errorf("%s: edges at vertex %d and vertex %d overlap (the ring doubles back on itself)", rings[k1].name, v1, v2)
+			return fmt.Errorf("%s: edges at vertex %d and vertex %d overlap (the ring doubles back on itself)", rings[k1].name, v1, v2)
 		}
 		if k1 == k2 {
-			return nil, fmt.Errorf("%s: edge at vertex %d %s edge at vertex %d", rings[k1].name, v1, verb, v2)
+			return fmt.Errorf("%s: edge at vertex %d %s edge at vertex %d", rings[k1].name, v1, verb, v2)
 		}
-		return nil, fmt.Errorf("%s: edge at vertex %d %s %s, edge at vertex %d (rings must not cross or touch)",
+		return fmt.Errorf("%s: edge at vertex %d %s %s, edge at vertex %d (rings must not cross or touch)",
 			rings[k1].name, v1, verb, rings[k2].name, v2)
 	}
 
-	// Orientation of each (now known simple) ring: the turn at its lowest,
-	// then leftmost, vertex, which is a convex corner.
-	ccw := make([]bool, len(rings))
-	for k := range rings {
-		ccw[k] = regionRingCCW(reg.XY[2*reg.RingStart[k] : 2*reg.RingStart[k+1]])
-	}
+	return nil
+}
 
+// regionCheckNesting checks that each hole lies directly inside its own
+// exterior and that polygon interiors do not overlap, by the rings that
+// hold each ring's first vertex (crossing-number rule along the grid).
+func regionCheckNesting(g *regionGrid, reg *Region, rings []*regionRingIn, ringOf []int32) error {
 	// Nesting: which rings hold each ring's first vertex. Rings are
 	// disjoint, so the vertex is strictly inside or outside every other
 	// ring and one point decides the whole ring.
@@ -450,7 +477,7 @@ func regionAssemble(polys [][]regionRingIn) (*Region, error) {
 		for h := ext + 1; h < reg.PolyStart[p+1]; h++ {
 			ch := containers[h]
 			if !slices.Contains(ch, ext) {
-				return nil, fmt.Errorf("%s: hole is not inside its exterior ring (%s)", rings[h].name, rings[ext].name)
+				return fmt.Errorf("%s: hole is not inside its exterior ring (%s)", rings[h].name, rings[ext].name)
 			}
 			for _, b := range ch {
 				if b != ext && !slices.Contains(containers[ext], b) {
@@ -458,7 +485,7 @@ func regionAssemble(polys [][]regionRingIn) (*Region, error) {
 					if polyOf[b] == p {
 						what = "another hole of the same polygon"
 					}
-					return nil, fmt.Errorf("%s: hole lies inside %s (%s)", rings[h].name, what, rings[b].name)
+					return fmt.Errorf("%s: hole lies inside %s (%s)", rings[h].name, what, rings[b].name)
 				}
 			}
 		}
@@ -476,19 +503,13 @@ func regionAssemble(polys [][]regionRingIn) (*Region, error) {
 				}
 			}
 			if !ok {
-				return nil, fmt.Errorf("%s: polygon %d lies inside polygon %d (%s); polygon interiors must not overlap",
+				return fmt.Errorf("%s: polygon %d lies inside polygon %d (%s); polygon interiors must not overlap",
 					rings[ext].name, p, q, rings[b].name)
 			}
 		}
 	}
 
-	// Orient: exterior counter-clockwise, holes clockwise.
-	for k := range rings {
-		if ccw[k] == rings[k].hole {
-			regionReverse(reg.XY[2*reg.RingStart[k] : 2*reg.RingStart[k+1]])
-		}
-	}
-	return reg, nil
+	return nil
 }
 
 // regionRingCCW reports whether a simple ring runs counter-clockwise, from
