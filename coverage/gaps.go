@@ -102,12 +102,21 @@ func (l *Layout) gaps(r, chordTol float64, selfCheck bool) ([]Gap, int) {
 	m, anomalies := gapMerge(chunks)
 	chunks = nil
 	// Portions overlapping by more than the rounding of the canonical
-	// coordinate (64 ulps of the coordinates) are the same piece of bisector.
+	// coordinate (gapPortionUlps of the coordinates) are the same piece of
+	// bisector.
 	b := l.Area.Bound()
 	ext := math.Max(math.Max(math.Abs(b.Min[0]), math.Abs(b.Max[0])), math.Max(math.Abs(b.Min[1]), math.Abs(b.Max[1])))
-	gapUnion := m.union(64 * 0x1p-52 * (ext + r))
+	gapUnion := m.union(gapPortionUlps * (ext + r))
 	return l.gapAssemble(m, gapUnion, r, chordTol), anomalies
 }
+
+// gapPortionUlps is the overlap, relative to the coordinates' magnitude,
+// beyond which two bisector portions are the same piece of bisector: the
+// canonical coordinate along a bisector is computed by a few operations from
+// clipped-cell vertices that themselves carry a few ulps of error, so two
+// copies of one portion agree within a few ulps; 64 ulps (64·2⁻⁵²) is far
+// above that and far below any real overlap of two different cells' pieces.
+const gapPortionUlps = 64 * 0x1p-52
 
 // gapMerge concatenates the chunks, converting to global indices.
 func gapMerge(chunks []gapChunk) (*gapMerged, int) {

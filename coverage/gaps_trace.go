@@ -59,8 +59,26 @@ import (
 const gapArc = -1
 
 // gapSnapRel is the relative distance from the circle within which a ring
-// vertex is treated as lying on it.
+// vertex is treated as lying on it: |p|² − r² is computed with an error of a
+// few u (u = 2⁻⁵³) of |p|² + r² from coordinates that are themselves a few
+// ulps off (clipped-cell vertices), so 1e-12 ≈ 10⁴u catches every vertex
+// that is on the circle up to rounding, while a snapped vertex is moved by
+// at most about 1e-12·r (a micrometre at a range of a kilometre).
 const gapSnapRel = 1e-12
+
+// gapSelfCheckRel is the tolerance of the self-check (tests only) between
+// the traced area and the exact uncovered area of a piece, relative to the
+// piece's area plus r²: both are sums of exact-formula terms with errors of
+// a few u each, so 1e-9 flags only a tracing error.
+const gapSelfCheckRel = 1e-9
+
+// gapTangentKey is the perturbation key of the entry and exit of an edge
+// tangent to the circle at an interior point: larger in magnitude than any
+// finite key K = (b × d)/(b · d) of a crossing at a vertex (a ratio of
+// products of coordinates, far below 1e300 for coordinates in metres), yet
+// finite, so it stays distinct from the ±Inf keys of an edge tangent at a
+// vertex.
+const gapTangentKey = 1e300
 
 // gapElem is one boundary element of a traced loop: a straight segment or a
 // circle arc, from (x, y) to the start of the next element of its loop.
@@ -237,7 +255,7 @@ func (t *gapTracer) piece(p int32, v int32, ch *gapChunk) {
 			got += nd.area
 		}
 		want := t.exactUncovered()
-		if math.Abs(got-want) > 1e-9*(t.pieceArea()+r2) {
+		if math.Abs(got-want) > gapSelfCheckRel*(t.pieceArea()+r2) {
 			ch.anomalies++
 		}
 	}
@@ -353,8 +371,8 @@ func (t *gapTracer) perturbation(edge int32, s float64, exit bool) float64 {
 	default:
 		// A tangent dip has its entry and exit at the same parameter.
 		if k := len(t.xs); exit && k > 0 && t.xs[k-1].edge == edge && t.xs[k-1].t == s && !t.xs[k-1].exit {
-			t.xs[k-1].key2 = -sgn(t.cr[edge]) * 1e300
-			return sgn(t.cr[edge]) * 1e300
+			t.xs[k-1].key2 = -sgn(t.cr[edge]) * gapTangentKey
+			return sgn(t.cr[edge]) * gapTangentKey
 		}
 		return 0
 	}

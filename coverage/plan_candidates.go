@@ -13,7 +13,8 @@
 // the set-covering problem", Math. Oper. Res. 4, 1979).
 //
 // Exact marginal area. Inside the current Voronoi cell X of a device x only
-// x's disk covers (GUIDE.md). Adding a device c changes coverage only in
+// x's disk covers (a point of X is at least as close to x as to any other
+// device, so when some disk of radius r holds it, x's does). Adding a device c changes coverage only in
 // the part of each X nearer to c than to x, X ∩ H(c, x), which after the
 // addition is covered by D(c, r) alone; so
 //
@@ -171,8 +172,15 @@ func ChooseCandidates(l *Layout, candidates []orb.Point, r float64, k int) (*Cho
 	return ch, nil
 }
 
+// planGainRel is the gain, relative to a disk's area πr², below which an
+// added area is rounding noise: gains are differences of exact-formula areas
+// summed over the cells a disk meets, each carrying an error of a few u
+// (u = 2⁻⁵³ ≈ 1.1e-16) of the disk's area, so 1e-11 leaves a margin of
+// about 10⁴ even over hundreds of cells.
+const planGainRel = 1e-11
+
 // planGainEps is the gain below which an added area is rounding noise.
-func planGainEps(r float64) float64 { return 1e-11 * math.Pi * r * r }
+func planGainEps(r float64) float64 { return planGainRel * math.Pi * r * r }
 
 // planGains evaluates the gain of a device at each point of xy
 // (interleaved), in parallel; the overlay is only read.
