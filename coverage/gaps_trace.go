@@ -603,6 +603,17 @@ func sgn(x float64) float64 {
 // traceGeneral sorts the crossings by angle and traces the loops; it
 // reports false when the crossings do not alternate (numerical trouble).
 func (t *gapTracer) traceGeneral() bool {
+	t.crossingAngles()
+	if !t.sortCrossings() || !t.traceLoops() {
+		return false
+	}
+	t.missedRings()
+	return true
+}
+
+// crossingAngles sets the double-double angle (hi, lo) in [0, 2π) of every
+// crossing.
+func (t *gapTracer) crossingAngles() {
 	// Angles: atan2 of each crossing, except along chains of crossings
 	// that follow each other closely on a ring (portion angle below
 	// gapChainAngle), where each angle is the previous one plus the exact
@@ -648,6 +659,12 @@ func (t *gapTracer) traceGeneral() bool {
 		t.deltas = deltas
 		k0 = k1
 	}
+}
+
+// sortCrossings sorts the crossings by angle (then by their perturbation
+// key), records each one's position and each entry's predecessor, and
+// reports false when entries and exits do not alternate.
+func (t *gapTracer) sortCrossings() bool {
 	m := len(t.xs)
 	t.sorted = t.sorted[:0]
 	for k := 0; k < m; k++ {
@@ -680,6 +697,14 @@ func (t *gapTracer) traceGeneral() bool {
 			b.pred = t.sorted[q]
 		}
 	}
+	return true
+}
+
+// traceLoops traces the loops (run along the ring from an exit to the next
+// entry, then the arc from that entry clockwise back to the exit before
+// it), reporting false on an inconsistent structure.
+func (t *gapTracer) traceLoops() bool {
+	xs, m := t.xs, len(t.xs)
 	// Trace loops.
 	for k := range xs {
 		if !xs[k].exit || xs[k].seen {
@@ -719,6 +744,12 @@ func (t *gapTracer) traceGeneral() bool {
 		}
 		t.closeLoop(&t.loops[len(t.loops)-1])
 	}
+	return true
+}
+
+// missedRings adds the rings that do not meet the circle and lie outside
+// the disk as loops of their own.
+func (t *gapTracer) missedRings() {
 	// Rings that miss the circle.
 	for ri := range t.ringLo {
 		has := false
@@ -742,7 +773,6 @@ func (t *gapTracer) traceGeneral() bool {
 		}
 		t.closeLoop(lp)
 	}
-	return true
 }
 
 // group assigns hole loops to the outer loops containing them; it reports

@@ -89,49 +89,13 @@ func ComputePersistence(t *planar.Triangulation, f *Filtration) *Persistence {
 		return p
 	}
 
-	// Canonical half-edge of each edge: the hull half-edge or the larger
-	// of the two halves (Halfedges[e] < e).
-	he := t.Halfedges
-	ne := 0
-	for e, o := range he {
-		if o < int32(e) {
-			ne++
-		}
-	}
-	ids := make([]int32, 0, ne)
-	keys := make([]uint64, 0, ne)
-	for e, o := range he {
-		if o < int32(e) {
-			ids = append(ids, int32(e))
-			keys = append(keys, math.Float64bits(f.Edge[e]))
-		}
-	}
-	// Sort the edges, and concurrently the triangles by (value, index): a
-	// triangle's rank in that order is its position in the filtration.
-	tv := f.Triangle
-	tkeys := make([]uint64, nt)
-	tids := make([]int32, nt)
-	rank := make([]int32, nt)
-	sorted := make(chan struct{})
-	go func() {
-		for i, v := range tv {
-			tkeys[i] = math.Float64bits(v)
-			tids[i] = int32(i)
-		}
-		persistRadixSort(tkeys, tids)
-		for r, i := range tids {
-			rank[i] = int32(r)
-		}
-		close(sorted)
-	}()
-	persistRadixSort(keys, ids)
-	persistTieByLength(t, keys, ids)
-	<-sorted
+	ne, ids, keys, tkeys, tids, rank := persistOrder(t, f)
 
 	// Gather, in filtration order, each edge's endpoints (as input indices,
 	// Source) and its two sides (triangle ranks; nt stands for the
 	// outside), so that both passes below read memory sequentially.
 	tr, src := t.Triangles, t.Source
+	he := t.Halfedges
 	outside := int32(nt)
 	ends := make([]uint64, ne)  // site a | site b << 32, a < b
 	sides := make([]uint64, ne) // rank a | rank b << 32
@@ -164,6 +128,75 @@ func ComputePersistence(t *planar.Triangulation, f *Filtration) *Persistence {
 	recs := persistDual(nt, tkeys, keys, ends, sides)
 	sides = nil
 
+	order := persistHoleOrder(recs)
+	<-done
+	p.Holes = persistHoleList(t, f, recs, order, tids)
+
+	p.Merges = make([]Merge, len(mpos))
+	planar.ParallelFor(len(mpos), alphaGrain, func(lo, hi int) {
+		for k := lo; k < hi; k++ {
+			i := mpos[k]
+			p.Merges[k] = Merge{
+				Death: math.Float64frombits(keys[i]),
+				Sites: [2]int{int(uint32(ends[i])), int(ends[i] >> 32)},
+			}
+		}
+	})
+	persistRanges(p)
+	return p
+}
+
+// persistOrder sorts the edges (one canonical half-edge each: the hull
+// half-edge or the larger of the two halves) by filtration value, ties by
+// length, and concurrently the triangles by (value, index); a triangle's
+// rank in that order is its position in the filtration. It returns the
+// number of edges, their half-edges and keys in order, the triangles' keys
+// and indices in order, and each triangle's rank.
+func persistOrder(t *planar.Triangulation, f *Filtration) (ne int, ids []int32, keys, tkeys []uint64, tids, rank []int32) {
+	nt := t.NumTriangles()
+	he := t.Halfedges
+	for e, o := range he {
+		if o < int32(e) {
+			ne++
+		}
+	}
+	ids = make([]int32, 0, ne)
+	keys = make([]uint64, 0, ne)
+	for e, o := range he {
+		if o < int32(e) {
+			ids = append(ids, int32(e))
+			keys = append(keys, math.Float64bits(f.Edge[e]))
+		}
+	}
+	// Sort the edges, and concurrently the triangles by (value, index): a
+	// triangle's rank in that order is its position in the filtration.
+	tv := f.Triangle
+	tkeys = make([]uint64, nt)
+	tids = make([]int32, nt)
+	rank = make([]int32, nt)
+	sorted := make(chan struct{})
+	go func() {
+		for i, v := range tv {
+			tkeys[i] = math.Float64bits(v)
+			tids[i] = int32(i)
+		}
+		persistRadixSort(tkeys, tids)
+		for r, i := range tids {
+			rank[i] = int32(r)
+		}
+		close(sorted)
+	}()
+	persistRadixSort(keys, ids)
+	persistTieByLength(t, keys, ids)
+	<-sorted
+
+	return ne, ids, keys, tkeys, tids, rank
+}
+
+// persistHoleOrder orders the holes by decreasing persistence, then
+// increasing filtration position of the birth edge (recs is reversed in
+// place to increasing birth position; the result indexes it).
+func persistHoleOrder(recs []persistHoleRec) []int32 {
 	// Holes by decreasing persistence, then increasing filtration position
 	// of the birth edge: a stable radix sort on the complemented bits
 	// (descending order), starting from increasing birth position.
@@ -176,10 +209,15 @@ func ComputePersistence(t *planar.Triangulation, f *Filtration) *Persistence {
 		hk[k] = ^math.Float64bits(r.death - r.birth)
 	}
 	persistRadixSort(hk, order)
-	hk = nil
+	return order
+}
+
+// persistHoleList writes the holes in the given order, each with its death
+// point (the circumcentre of the triangle that fills it).
+func persistHoleList(t *planar.Triangulation, f *Filtration, recs []persistHoleRec, order, tids []int32) []Hole {
+	nt, nh, tr := t.NumTriangles(), len(recs), t.Triangles
 	xy := t.Coords
-	p.Holes = make([]Hole, nh)
-	<-done
+	holes := make([]Hole, nh)
 	centre := f.centre
 	if len(centre) != 2*nt {
 		centre = nil
@@ -194,7 +232,7 @@ func ComputePersistence(t *planar.Triangulation, f *Filtration) *Persistence {
 			} else {
 				cx, cy = alphaCircumcentre(xy, tr[3*y], tr[3*y+1], tr[3*y+2])
 			}
-			p.Holes[j] = Hole{
+			holes[j] = Hole{
 				Birth:      r.birth,
 				Death:      r.death,
 				DeathPoint: orb.Point{cx, cy},
@@ -203,18 +241,7 @@ func ComputePersistence(t *planar.Triangulation, f *Filtration) *Persistence {
 		}
 	})
 
-	p.Merges = make([]Merge, len(mpos))
-	planar.ParallelFor(len(mpos), alphaGrain, func(lo, hi int) {
-		for k := lo; k < hi; k++ {
-			i := mpos[k]
-			p.Merges[k] = Merge{
-				Death: math.Float64frombits(keys[i]),
-				Sites: [2]int{int(uint32(ends[i])), int(ends[i] >> 32)},
-			}
-		}
-	})
-	persistRanges(p)
-	return p
+	return holes
 }
 
 // persistKruskal runs union-find over n nodes along the edges in
