@@ -280,10 +280,10 @@ func (c *clipper) assemble(st *clipStats) *Cells {
 		works <- newClipWork(c)
 	}
 	var crossed, inside atomic.Int64
-	ParallelChunks(c.nv, chunk, c.workers, func(_, lo, hi int) {
+	ParallelChunks(c.nv, chunk, c.workers, func(ci, lo, hi int) {
 		w := <-works
 		defer func() { works <- w }()
-		out := &outs[lo/chunk]
+		out := &outs[ci]
 		n := hi - lo
 		out.sitePolys = make([]int32, 0, n)
 		out.area = make([]float64, 0, n)

@@ -126,30 +126,40 @@ func (g *regionGrid) rasterAll(emit func(c int, e int32, first bool)) {
 		ax, ay := g.xy[2*e], g.xy[2*e+1]
 		b := g.next[e]
 		bx, by := g.xy[2*b], g.xy[2*b+1]
-		ylo, yhi := math.Min(ay, by), math.Max(ay, by)
-		r0 := g.clampRow(math.Floor((ylo-g.y0)/g.ch - g.padY))
-		r1 := g.clampRow(math.Floor((yhi-g.y0)/g.ch + g.padY))
+		r0, r1 := g.rows(ay, by)
 		for r := r0; r <= r1; r++ {
-			sy0 := math.Max(ylo, math.Min(yhi, g.y0+float64(r)*g.ch))
-			sy1 := math.Max(ylo, math.Min(yhi, g.y0+float64(r+1)*g.ch))
-			var xa, xb float64
-			if ay == by {
-				xa, xb = ax, bx
-			} else {
-				xa = ax + (sy0-ay)*(bx-ax)/(by-ay)
-				xb = ax + (sy1-ay)*(bx-ax)/(by-ay)
-			}
-			xlo, xhi := math.Min(xa, xb), math.Max(xa, xb)
-			// Never beyond the segment's own x-range.
-			xlo = math.Max(xlo, math.Min(ax, bx))
-			xhi = math.Min(xhi, math.Max(ax, bx))
-			c0 := g.clampCol(math.Floor((xlo-g.x0)/g.cw - g.padX))
-			c1 := g.clampCol(math.Floor((xhi-g.x0)/g.cw + g.padX))
+			c0, c1 := g.cols(ax, ay, bx, by, r)
 			for c := c0; c <= c1; c++ {
 				emit(r*g.nx+c, int32(e), c == c0)
 			}
 		}
 	}
+}
+
+// rows returns the first and last grid row that a segment from height ay
+// to height by may pass through, with the rounding margin.
+func (g *regionGrid) rows(ay, by float64) (r0, r1 int) {
+	ylo, yhi := math.Min(ay, by), math.Max(ay, by)
+	return g.clampRow(math.Floor((ylo-g.y0)/g.ch - g.padY)), g.clampRow(math.Floor((yhi-g.y0)/g.ch + g.padY))
+}
+
+// cols returns the first and last column of row r that the segment ab may
+// pass through: its x-range over the row's height (never beyond the
+// segment's own x-range), with the rounding margin.
+func (g *regionGrid) cols(ax, ay, bx, by float64, r int) (c0, c1 int) {
+	ylo, yhi := math.Min(ay, by), math.Max(ay, by)
+	sy0 := math.Max(ylo, math.Min(yhi, g.y0+float64(r)*g.ch))
+	sy1 := math.Max(ylo, math.Min(yhi, g.y0+float64(r+1)*g.ch))
+	var xa, xb float64
+	if ay == by {
+		xa, xb = ax, bx
+	} else {
+		xa = ax + (sy0-ay)*(bx-ax)/(by-ay)
+		xb = ax + (sy1-ay)*(bx-ax)/(by-ay)
+	}
+	xlo := math.Max(math.Min(xa, xb), math.Min(ax, bx))
+	xhi := math.Min(math.Max(xa, xb), math.Max(ax, bx))
+	return g.clampCol(math.Floor((xlo-g.x0)/g.cw - g.padX)), g.clampCol(math.Floor((xhi-g.x0)/g.cw + g.padX))
 }
 
 func (g *regionGrid) clampRow(f float64) int {
@@ -257,23 +267,9 @@ func (g *regionGrid) segmentHits(px, py, qx, qy float64) bool {
 		return false
 	}
 	ax, ay, bx, by := px+t0*dx, py+t0*dy, px+t1*dx, py+t1*dy
-	ylo, yhi := math.Min(ay, by), math.Max(ay, by)
-	r0 := g.clampRow(math.Floor((ylo-g.y0)/g.ch - g.padY))
-	r1 := g.clampRow(math.Floor((yhi-g.y0)/g.ch + g.padY))
+	r0, r1 := g.rows(ay, by)
 	for r := r0; r <= r1; r++ {
-		sy0 := math.Max(ylo, math.Min(yhi, g.y0+float64(r)*g.ch))
-		sy1 := math.Max(ylo, math.Min(yhi, g.y0+float64(r+1)*g.ch))
-		var xa, xb float64
-		if ay == by {
-			xa, xb = ax, bx
-		} else {
-			xa = ax + (sy0-ay)*(bx-ax)/(by-ay)
-			xb = ax + (sy1-ay)*(bx-ax)/(by-ay)
-		}
-		xlo := math.Max(math.Min(xa, xb), math.Min(ax, bx))
-		xhi := math.Min(math.Max(xa, xb), math.Max(ax, bx))
-		c0 := g.clampCol(math.Floor((xlo-g.x0)/g.cw - g.padX))
-		c1 := g.clampCol(math.Floor((xhi-g.x0)/g.cw + g.padX))
+		c0, c1 := g.cols(ax, ay, bx, by, r)
 		for cc := c0; cc <= c1; cc++ {
 			cell := r*g.nx + cc
 			for _, ent := range g.entries[g.cellStart[cell]:g.cellStart[cell+1]] {
