@@ -15,11 +15,11 @@
 //     triangulation only the opposite vertices of the one or two adjacent
 //     triangles can lie in the diametral disk, so the test is local: pq is
 //     Gabriel iff (p−r)·(q−r) > 0 for each opposite vertex r. The sign of
-//     that dot product is decided exactly (floating-point filter, then
-//     error-free expansion arithmetic after Shewchuk, Discrete & Computational
-//     Geometry 18, 1997). A right angle (dot product exactly 0) makes the
-//     edge's diametral circle the triangle's circumcircle, so both rules give
-//     the same value.
+//     that dot product is decided exactly by planar.DotSign (floating-point
+//     filter, then error-free expansion arithmetic after Shewchuk, Discrete &
+//     Computational Geometry 18, 1997). A right angle (dot product exactly
+//     0) makes the edge's diametral circle the triangle's circumcircle, so
+//     both rules give the same value.
 //
 // By the nerve theorem the complex at r has the homotopy type of the union of
 // the closed disks of radius r, and the inclusions commute, so persistence of
@@ -32,14 +32,16 @@
 //
 // Error bounds: half-lengths come from coordinate differences and a
 // correctly rounded square root (about 3 units of roundoff u = 2^-53); the
-// circumradius R = |ab|·|bc|·|ca| / (2·|cross|) uses a cross product that is
-// evaluated exactly and then rounded whenever the floating-point value could
-// be off by more than 2^-48 relative, so R is within about 45u (relative
-// error below 1e-14) of the exact circumradius of the input coordinates,
+// circumradius R = |ab|·|bc|·|ca| / (2·|cross|) uses a cross product
+// (planar.Cross) that is evaluated exactly and then rounded whenever the
+// floating-point value could be off by more than 2^-48 relative, so R is
+// within about 45u (relative error below 1e-14) of the exact circumradius of
+// the input coordinates,
 // and so is every edge value. Edge values are then clamped to be no larger
 // than the values of their triangles, so rounding can never put a triangle
-// before one of its edges. The circumcentre is accurate to a few u times
-// (R + the coordinates' magnitude). Expansion arithmetic is exact unless an
+// before one of its edges. The circumcentre (planar.Circumcentre, from the
+// vertex of the largest angle) is accurate to a few u times (R + the
+// coordinates' magnitude). Expansion arithmetic is exact unless an
 // intermediate product underflows, which needs coordinates that differ by
 // less than about 1e-150 m.
 //
