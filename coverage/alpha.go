@@ -40,8 +40,9 @@
 // and so is every edge value. Edge values are then clamped to be no larger
 // than the values of their triangles, so rounding can never put a triangle
 // before one of its edges. The circumcentre (planar.Circumcentre, from the
-// vertex of the largest angle) is accurate to a few u times (R + the
-// coordinates' magnitude). Expansion arithmetic is exact unless an
+// vertex of the largest angle θ) is accurate to a few u times (R/sin θ +
+// the coordinates' magnitude); sin θ ≥ √3/2 for the acute triangles that
+// fill holes. Expansion arithmetic is exact unless an
 // intermediate product underflows, which needs coordinates that differ by
 // less than about 1e-150 m.
 //
