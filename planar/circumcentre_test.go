@@ -1,3 +1,6 @@
+// Tests of Circumcentre and its error bound (circumcentre.go) against exact
+// rational arithmetic.
+
 package planar
 
 import (

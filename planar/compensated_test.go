@@ -1,3 +1,5 @@
+// Tests of the double-double helpers (compensated.go) against math/big.
+
 package planar
 
 import (

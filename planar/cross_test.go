@@ -1,3 +1,5 @@
+// Tests of Cross and DotSign (cross.go) against exact rational arithmetic.
+
 package planar
 
 import (

@@ -1,3 +1,5 @@
+// Tests of the parallel loop helpers (parallel.go): every index visited once.
+
 package planar
 
 import (

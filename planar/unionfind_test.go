@@ -1,3 +1,5 @@
+// Tests of the union-find (unionfind.go) on a small graph, both linking rules.
+
 package planar
 
 import "testing"
