@@ -96,6 +96,12 @@
 // relative near the origin (7e-10 at UTM-sized coordinates, where GEOS's
 // absolute-coordinate rounding dominates) and sum to the area of A to
 // about 1e-15 relative.
+//
+// Files: clip.go (entry point, input checks, output assembly),
+// clip_prepare.go (circumcentres, neighbour lists, miters), clip_walk.go
+// (boundary walk and cell classification), clip_cell.go (the per-cell
+// engine: classification, events, chains) and clip_trace.go (ring tracing,
+// hole ownership); the edge grid is region_grid.go.
 package planar
 
 import (

@@ -8,10 +8,10 @@
 // strict: OGC lets rings touch at isolated points; a Region does not, so
 // that every clipping step downstream sees a proper polygon set.
 //
-// Method. Every ring edge is registered in the cells of a uniform grid that
-// it passes through (about one cell per edge over the bounding box, cells
-// found conservatively with a rounding margin), and only edges sharing a
-// grid cell are tested against one another — the uniform-grid bucketing of
+// Method. Every ring edge is registered in the cells of a uniform grid
+// (region_grid.go) that it passes through (about one cell per edge over the
+// bounding box, cells found conservatively with a rounding margin), and only
+// edges sharing a grid cell are tested against one another — the uniform-grid bucketing of
 // Franklin ("Adaptive grids for geometric operations", Cartographica 21,
 // 1984; common practice in GIS overlay). Each test is decided by the exact
 // Orient2D predicate, so crossing, touching and collinear overlap are
