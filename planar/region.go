@@ -11,9 +11,9 @@
 // Method. Every ring edge is registered in the cells of a uniform grid
 // (region_grid.go) that it passes through (about one cell per edge over the
 // bounding box, cells found conservatively with a rounding margin), and only
-// edges sharing a grid cell are tested against one another — the uniform-grid bucketing of
-// Franklin ("Adaptive grids for geometric operations", Cartographica 21,
-// 1984; common practice in GIS overlay). Each test is decided by the exact
+// edges sharing a grid cell are tested against one another — the
+// uniform-grid bucketing of Franklin ("Adaptive grids for geometric
+// operations", Cartographica 21, 1984; common practice in GIS overlay). Each test is decided by the exact
 // Orient2D predicate, so crossing, touching and collinear overlap are
 // detected without tolerance. For polygon data whose edges are short
 // compared with the extent the cost is O(m) expected plus the pairs that
