@@ -13,15 +13,15 @@
 // bounding box, cells found conservatively with a rounding margin), and only
 // edges sharing a grid cell are tested against one another — the
 // uniform-grid bucketing of Franklin ("Adaptive grids for geometric
-// operations", Cartographica 21, 1984; common practice in GIS overlay). Each test is decided by the exact
-// Orient2D predicate, so crossing, touching and collinear overlap are
-// detected without tolerance. For polygon data whose edges are short
-// compared with the extent the cost is O(m) expected plus the pairs that
-// really are close; nothing is O(m²) unless many edges crowd into one cell.
-// Ring nesting is decided by the crossing-number (even–odd) rule on a
-// horizontal ray walked through the same grid (Shimrat, "Algorithm 112:
-// position of point relative to polygon", CACM 5, 1962), again with exact
-// Orient2D, so a point's side of every ring edge is exact.
+// operations", Cartographica 21, 1984; common practice in GIS overlay). Each
+// test is decided by the exact Orient2D predicate, so crossing, touching and
+// collinear overlap are detected without tolerance. For polygon data whose
+// edges are short compared with the extent the cost is O(m) expected plus
+// the pairs that really are close; nothing is O(m²) unless many edges crowd
+// into one cell. Ring nesting is decided by the crossing-number (even–odd)
+// rule on a horizontal ray walked through the same grid (Shimrat, "Algorithm
+// 112: position of point relative to polygon", CACM 5, 1962), again with
+// exact Orient2D, so a point's side of every ring edge is exact.
 //
 // Error bounds: none for the decisions (all exact). Area() is the shoelace
 // sum taken relative to each ring's first vertex: relative error about
