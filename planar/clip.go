@@ -22,8 +22,8 @@
 // clipping", Computers & Graphics 3, 1978):
 //
 //  1. Each ring vertex is classified once per cell, inside C when every
-//     g_j is negative (a zero counts by the perturbation below). A maximal run of ring edges with inside vertices is a
-//     chain; a chain starts at an entry point (where its first edge crosses
+//     g_j is negative (a zero counts by the perturbation below). A maximal
+//     run of ring edges with inside vertices is a chain; a chain starts at an entry point (where its first edge crosses
 //     into C, at the largest Cyrus–Beck parameter over the half-planes the
 //     edge enters) and ends at an exit point (smallest parameter over the
 //     half-planes it leaves). An edge with both ends outside may still cut
