@@ -21,14 +21,14 @@
 // crossings (Cyrus & Beck, "Generalized two- and three-dimensional
 // clipping", Computers & Graphics 3, 1978):
 //
-//  1. Each ring vertex is classified once per cell, inside C when every
-//     g_j is negative (a zero counts by the perturbation below). A maximal
-//     run of ring edges with inside vertices is a chain; a chain starts at an entry point (where its first edge crosses
-//     into C, at the largest Cyrus–Beck parameter over the half-planes the
-//     edge enters) and ends at an exit point (smallest parameter over the
-//     half-planes it leaves). An edge with both ends outside may still cut
-//     through C and forms a one-edge chain. A ring with every vertex inside
-//     is kept whole.
+//  1. Each ring vertex is classified once per cell, inside C when every g_j
+//     is negative (a zero counts by the perturbation below). A maximal run of
+//     ring edges with inside vertices is a chain; a chain starts at an entry
+//     point (where its first edge crosses into C, at the largest Cyrus–Beck
+//     parameter over the half-planes the edge enters) and ends at an exit
+//     point (smallest parameter over the half-planes it leaves). An edge with
+//     both ends outside may still cut through C and forms a one-edge chain. A
+//     ring with every vertex inside is kept whole.
 //  2. Entry and exit points lie on C's boundary. Sorted counter-clockwise
 //     along it (by cell edge, then by position along the bisector), each
 //     exit is followed by an entry: the area lies to the left of its rings,
