@@ -277,29 +277,16 @@ type persistHoleRec struct {
 // components, the younger root dies; the pair is returned when its
 // persistence exceeds HoleResolution relative.
 func persistDual(nt int, tkeys, keys, ends, sides []uint64) []persistHoleRec {
-	par := make([]int32, nt+1)
-	for i := range par {
-		par[i] = int32(i)
-	}
+	uf := planar.NewUnionFind(nt + 1)
 	out := make([]persistHoleRec, 0, nt/2+16)
 	for i := len(sides) - 1; i >= 0; i-- {
 		s := sides[i]
-		ra, rb := int32(uint32(s)), int32(s>>32)
-		for par[ra] != ra { // find with path halving
-			g := par[par[ra]]
-			par[ra] = g
-			ra = g
-		}
-		for par[rb] != rb {
-			g := par[par[rb]]
-			par[rb] = g
-			rb = g
-		}
+		ra, rb := uf.Find(int32(uint32(s))), uf.Find(int32(s>>32))
 		if ra == rb {
 			continue // negative edge: a merge, found by Kruskal
 		}
 		young, old := min(ra, rb), max(ra, rb)
-		par[young] = old
+		uf.Parent[young] = old // link by index: the older root survives
 		birth, death := math.Float64frombits(keys[i]), math.Float64frombits(tkeys[young])
 		if death-birth > HoleResolution*death {
 			out = append(out, persistHoleRec{birth, death, ends[i], young})

@@ -16,7 +16,9 @@
 //     by O(m·log n); on the sparse merges it is used for that is linear in
 //     practice.
 //
-// Use one rule per forest. Nothing here allocates after NewUnionFind except
+// A caller with its own rule may link one root under another by writing
+// Parent directly (the persistence pairing links the younger root under the
+// older). Use one rule per forest. Nothing here allocates after NewUnionFind except
 // the rank slice, made on the first Union.
 
 package planar
