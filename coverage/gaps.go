@@ -32,7 +32,6 @@ import (
 	"sync"
 
 	"github.com/paulmach/orb"
-
 	"github.com/sitecover/sitecover/planar"
 )
 

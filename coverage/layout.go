@@ -24,7 +24,6 @@ import (
 	"time"
 
 	"github.com/paulmach/orb"
-
 	"github.com/sitecover/sitecover/planar"
 )
 

@@ -37,7 +37,6 @@ import (
 	"time"
 
 	"github.com/paulmach/orb"
-
 	"github.com/sitecover/sitecover/planar"
 )
 

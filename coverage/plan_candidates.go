@@ -41,7 +41,6 @@ import (
 	"math"
 
 	"github.com/paulmach/orb"
-
 	"github.com/sitecover/sitecover/planar"
 )
 

@@ -58,7 +58,6 @@ import (
 	"slices"
 
 	"github.com/paulmach/orb"
-
 	"github.com/sitecover/sitecover/planar"
 )
 
