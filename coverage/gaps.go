@@ -32,6 +32,7 @@ import (
 	"sync"
 
 	"github.com/paulmach/orb"
+	"github.com/sitecover/sitecover/planar"
 )
 
 // DefaultChordTolerance is the default sagitta of outline chords, relative
@@ -100,12 +101,21 @@ func (l *Layout) gaps(r, chordTol float64, selfCheck bool) ([]Gap, int) {
 	m, anomalies := gapMerge(chunks)
 	chunks = nil
 	// Portions overlapping by more than the rounding of the canonical
-	// coordinate (64 ulps of the coordinates) are the same piece of bisector.
+	// coordinate (gapPortionUlps of the coordinates) are the same piece of
+	// bisector.
 	b := l.Area.Bound()
 	ext := math.Max(math.Max(math.Abs(b.Min[0]), math.Abs(b.Max[0])), math.Max(math.Abs(b.Min[1]), math.Abs(b.Max[1])))
-	gapUnion := m.union(64 * 0x1p-52 * (ext + r))
+	gapUnion := m.union(gapPortionUlps * (ext + r))
 	return l.gapAssemble(m, gapUnion, r, chordTol), anomalies
 }
+
+// gapPortionUlps is the overlap, relative to the coordinates' magnitude,
+// beyond which two bisector portions are the same piece of bisector: the
+// canonical coordinate along a bisector is computed by a few operations from
+// clipped-cell vertices that themselves carry a few ulps of error, so two
+// copies of one portion agree within a few ulps; 64 ulps (64·2⁻⁵²) is far
+// above that and far below any real overlap of two different cells' pieces.
+const gapPortionUlps = 64 * 0x1p-52
 
 // gapMerge concatenates the chunks, converting to global indices.
 func gapMerge(chunks []gapChunk) (*gapMerged, int) {
@@ -153,17 +163,7 @@ func gapMerge(chunks []gapChunk) (*gapMerged, int) {
 // union joins the components sharing bisector portions and returns the
 // union-find parent array (roots are their own parents, fully compressed).
 func (m *gapMerged) union(tolLen float64) []int32 {
-	par := make([]int32, len(m.nodes))
-	for i := range par {
-		par[i] = int32(i)
-	}
-	find := func(x int32) int32 {
-		for par[x] != x {
-			par[x] = par[par[x]]
-			x = par[x]
-		}
-		return x
-	}
+	uf := planar.NewUnionFind(len(m.nodes))
 	ps := m.portions
 	slices.SortFunc(ps, func(a, b gapPortion) int {
 		if a.key != b.key {
@@ -192,14 +192,7 @@ func (m *gapMerged) union(tolLen float64) []int32 {
 				if ov := math.Min(a.hi, b.hi) - b.lo; !(ov > tolLen) {
 					continue
 				}
-				ra, rb := find(a.node), find(b.node)
-				if ra != rb {
-					if ra < rb {
-						par[rb] = ra
-					} else {
-						par[ra] = rb
-					}
-				}
+				uf.UnionMin(a.node, b.node)
 				if a.elem >= 0 {
 					m.matched[a.elem] = true
 				}
@@ -210,10 +203,7 @@ func (m *gapMerged) union(tolLen float64) []int32 {
 		}
 		g0 = g1
 	}
-	for i := range par {
-		par[i] = find(int32(i))
-	}
-	return par
+	return uf.Flatten()
 }
 
 // gapAssemble builds the Gap values from the components and their roots.

@@ -51,14 +51,34 @@ package coverage
 import (
 	"math"
 	"sort"
+
+	"github.com/sitecover/sitecover/planar"
 )
 
 // gapArc is the element kind of a circle arc.
 const gapArc = -1
 
 // gapSnapRel is the relative distance from the circle within which a ring
-// vertex is treated as lying on it.
+// vertex is treated as lying on it: |p|² − r² is computed with an error of a
+// few u (u = 2⁻⁵³) of |p|² + r² from coordinates that are themselves a few
+// ulps off (clipped-cell vertices), so 1e-12 ≈ 10⁴u catches every vertex
+// that is on the circle up to rounding, while a snapped vertex is moved by
+// at most about 1e-12·r (a micrometre at a range of a kilometre).
 const gapSnapRel = 1e-12
+
+// gapSelfCheckRel is the tolerance of the self-check (tests only) between
+// the traced area and the exact uncovered area of a piece, relative to the
+// piece's area plus r²: both are sums of exact-formula terms with errors of
+// a few u each, so 1e-9 flags only a tracing error.
+const gapSelfCheckRel = 1e-9
+
+// gapTangentKey is the perturbation key of the entry and exit of an edge
+// tangent to the circle at an interior point: larger in magnitude than any
+// finite key K = (b × d)/(b · d) of a crossing at a vertex (a ratio of
+// products of coordinates, far below 1e300 for coordinates in metres), yet
+// finite, so it stays distinct from the ±Inf keys of an edge tangent at a
+// vertex.
+const gapTangentKey = 1e300
 
 // gapElem is one boundary element of a traced loop: a straight segment or a
 // circle arc, from (x, y) to the start of the next element of its loop.
@@ -235,7 +255,7 @@ func (t *gapTracer) piece(p int32, v int32, ch *gapChunk) {
 			got += nd.area
 		}
 		want := t.exactUncovered()
-		if math.Abs(got-want) > 1e-9*(t.pieceArea()+r2) {
+		if math.Abs(got-want) > gapSelfCheckRel*(t.pieceArea()+r2) {
 			ch.anomalies++
 		}
 	}
@@ -351,8 +371,8 @@ func (t *gapTracer) perturbation(edge int32, s float64, exit bool) float64 {
 	default:
 		// A tangent dip has its entry and exit at the same parameter.
 		if k := len(t.xs); exit && k > 0 && t.xs[k-1].edge == edge && t.xs[k-1].t == s && !t.xs[k-1].exit {
-			t.xs[k-1].key2 = -sgn(t.cr[edge]) * 1e300
-			return sgn(t.cr[edge]) * 1e300
+			t.xs[k-1].key2 = -sgn(t.cr[edge]) * gapTangentKey
+			return sgn(t.cr[edge]) * gapTangentKey
 		}
 		return 0
 	}
@@ -520,42 +540,6 @@ func (t *gapTracer) traceStar() {
 	}
 }
 
-// ddAdd returns (hi, lo) + b in double-double arithmetic.
-func ddAdd(hi, lo, b float64) (float64, float64) {
-	s := hi + b
-	bb := s - hi
-	e := (hi - (s - bb)) + (b - bb)
-	e += lo
-	h := s + e
-	return h, e - (h - s)
-}
-
-// ddAddDD returns (ah, al) + (bh, bl).
-func ddAddDD(ah, al, bh, bl float64) (float64, float64) {
-	h, l := ddAdd(ah, al, bh)
-	return ddAdd(h, l, bl)
-}
-
-const (
-	gapTwoPiHi = 6.283185307179586
-	gapTwoPiLo = 2.4492935982947064e-16
-)
-
-// ddReduce reduces an angle to [0, 2π).
-func ddReduce(hi, lo float64) (float64, float64) {
-	k := math.Floor(hi / gapTwoPiHi)
-	if k != 0 {
-		p := k * gapTwoPiHi
-		pe := math.FMA(k, gapTwoPiHi, -p)
-		hi, lo = ddAddDD(hi, lo, -p, -pe)
-		hi, lo = ddAdd(hi, lo, -k*gapTwoPiLo)
-	}
-	if hi < 0 {
-		hi, lo = ddAddDD(hi, lo, gapTwoPiHi, gapTwoPiLo)
-	}
-	return hi, lo
-}
-
 // gapDelta is the angle subtended by the ring portion between consecutive
 // crossings.
 type gapDelta struct {
@@ -585,7 +569,7 @@ func (t *gapTracer) delta(a, b int32) gapDelta {
 				through = true
 			}
 			a := math.Atan2(w, dot)
-			hi, lo = ddAdd(hi, lo, a)
+			hi, lo = planar.DDAdd(hi, lo, a)
 			tv += math.Abs(a)
 		}
 		if last {
@@ -619,6 +603,17 @@ func sgn(x float64) float64 {
 // traceGeneral sorts the crossings by angle and traces the loops; it
 // reports false when the crossings do not alternate (numerical trouble).
 func (t *gapTracer) traceGeneral() bool {
+	t.crossingAngles()
+	if !t.sortCrossings() || !t.traceLoops() {
+		return false
+	}
+	t.missedRings()
+	return true
+}
+
+// crossingAngles sets the double-double angle (hi, lo) in [0, 2π) of every
+// crossing.
+func (t *gapTracer) crossingAngles() {
 	// Angles: atan2 of each crossing, except along chains of crossings
 	// that follow each other closely on a ring (portion angle below
 	// gapChainAngle), where each angle is the previous one plus the exact
@@ -655,15 +650,21 @@ func (t *gapTracer) traceGeneral() bool {
 			for cur := j; deltas[cur].linked(); cur = (cur + 1) % m {
 				nx := (cur + 1) % m
 				P, C, d := &t.xs[k0+cur], &t.xs[k0+nx], deltas[cur]
-				C.hi, C.lo = ddAddDD(P.hi, P.lo, d.hi, d.lo)
+				C.hi, C.lo = planar.DDAddDD(P.hi, P.lo, d.hi, d.lo)
 			}
 		}
 		for j := k0; j < k1; j++ {
-			t.xs[j].hi, t.xs[j].lo = ddReduce(t.xs[j].hi, t.xs[j].lo)
+			t.xs[j].hi, t.xs[j].lo = planar.DDReduceTwoPi(t.xs[j].hi, t.xs[j].lo)
 		}
 		t.deltas = deltas
 		k0 = k1
 	}
+}
+
+// sortCrossings sorts the crossings by angle (then by their perturbation
+// key), records each one's position and each entry's predecessor, and
+// reports false when entries and exits do not alternate.
+func (t *gapTracer) sortCrossings() bool {
 	m := len(t.xs)
 	t.sorted = t.sorted[:0]
 	for k := 0; k < m; k++ {
@@ -696,6 +697,14 @@ func (t *gapTracer) traceGeneral() bool {
 			b.pred = t.sorted[q]
 		}
 	}
+	return true
+}
+
+// traceLoops traces the loops (run along the ring from an exit to the next
+// entry, then the arc from that entry clockwise back to the exit before
+// it), reporting false on an inconsistent structure.
+func (t *gapTracer) traceLoops() bool {
+	xs, m := t.xs, len(t.xs)
 	// Trace loops.
 	for k := range xs {
 		if !xs[k].exit || xs[k].seen {
@@ -713,7 +722,7 @@ func (t *gapTracer) traceGeneral() bool {
 			t.run(&t.loops[len(t.loops)-1], cur, ei)
 			E := &t.xs[ei]
 			P := &t.xs[E.pred]
-			phiHi, phiLo := ddAddDD(E.hi, E.lo, -P.hi, -P.lo)
+			phiHi, phiLo := planar.DDAddDD(E.hi, E.lo, -P.hi, -P.lo)
 			phi := phiHi + phiLo
 			if E.pos == 0 {
 				phi += 2 * math.Pi
@@ -735,6 +744,12 @@ func (t *gapTracer) traceGeneral() bool {
 		}
 		t.closeLoop(&t.loops[len(t.loops)-1])
 	}
+	return true
+}
+
+// missedRings adds the rings that do not meet the circle and lie outside
+// the disk as loops of their own.
+func (t *gapTracer) missedRings() {
 	// Rings that miss the circle.
 	for ri := range t.ringLo {
 		has := false
@@ -758,7 +773,6 @@ func (t *gapTracer) traceGeneral() bool {
 		}
 		t.closeLoop(lp)
 	}
-	return true
 }
 
 // group assigns hole loops to the outer loops containing them; it reports

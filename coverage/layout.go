@@ -20,10 +20,7 @@ import (
 	"errors"
 	"fmt"
 	"math"
-	"runtime"
 	"sort"
-	"sync"
-	"sync/atomic"
 	"time"
 
 	"github.com/paulmach/orb"
@@ -230,46 +227,13 @@ func (l *Layout) ServiceAreas() []ServiceArea {
 }
 
 // cvParallel calls fn(chunkIndex, lo, hi) for the consecutive ranges
-// [lo, hi) of size chunk covering [0, n), on up to GOMAXPROCS goroutines.
-// Chunk boundaries depend only on n and chunk, so results combined per chunk
-// in chunk order are the same whatever the number of threads.
+// [lo, hi) of size chunk covering [0, n), on up to GOMAXPROCS goroutines
+// (planar.ParallelChunks). Chunk boundaries depend only on n and chunk, so
+// results combined per chunk in chunk order are the same whatever the
+// number of threads.
 func cvParallel(n, chunk int, fn func(ci, lo, hi int)) {
-	if n <= 0 {
-		return
-	}
-	nc := (n + chunk - 1) / chunk
-	w := runtime.GOMAXPROCS(0)
-	if w > nc {
-		w = nc
-	}
-	run := func(ci int) {
-		lo := ci * chunk
-		hi := lo + chunk
-		if hi > n {
-			hi = n
-		}
-		fn(ci, lo, hi)
-	}
-	if w <= 1 {
-		for ci := 0; ci < nc; ci++ {
-			run(ci)
-		}
-		return
-	}
-	var next atomic.Int64
-	var wg sync.WaitGroup
-	wg.Add(w)
-	for i := 0; i < w; i++ {
-		go func() {
-			defer wg.Done()
-			for {
-				ci := int(next.Add(1) - 1)
-				if ci >= nc {
-					return
-				}
-				run(ci)
-			}
-		}()
-	}
-	wg.Wait()
+	planar.ParallelChunks(n, chunk, 0, fn)
 }
+
+// ddAdd returns the double-double (hi, lo) + b (planar.DDAdd).
+func ddAdd(hi, lo, b float64) (float64, float64) { return planar.DDAdd(hi, lo, b) }

@@ -89,53 +89,17 @@ func ComputePersistence(t *planar.Triangulation, f *Filtration) *Persistence {
 		return p
 	}
 
-	// Canonical half-edge of each edge: the hull half-edge or the larger
-	// of the two halves (Halfedges[e] < e).
-	he := t.Halfedges
-	ne := 0
-	for e, o := range he {
-		if o < int32(e) {
-			ne++
-		}
-	}
-	ids := make([]int32, 0, ne)
-	keys := make([]uint64, 0, ne)
-	for e, o := range he {
-		if o < int32(e) {
-			ids = append(ids, int32(e))
-			keys = append(keys, math.Float64bits(f.Edge[e]))
-		}
-	}
-	// Sort the edges, and concurrently the triangles by (value, index): a
-	// triangle's rank in that order is its position in the filtration.
-	tv := f.Triangle
-	tkeys := make([]uint64, nt)
-	tids := make([]int32, nt)
-	rank := make([]int32, nt)
-	sorted := make(chan struct{})
-	go func() {
-		for i, v := range tv {
-			tkeys[i] = math.Float64bits(v)
-			tids[i] = int32(i)
-		}
-		persistRadixSort(tkeys, tids)
-		for r, i := range tids {
-			rank[i] = int32(r)
-		}
-		close(sorted)
-	}()
-	persistRadixSort(keys, ids)
-	persistTieByLength(t, keys, ids)
-	<-sorted
+	ne, ids, keys, tkeys, tids, rank := persistOrder(t, f)
 
 	// Gather, in filtration order, each edge's endpoints (as input indices,
 	// Source) and its two sides (triangle ranks; nt stands for the
 	// outside), so that both passes below read memory sequentially.
 	tr, src := t.Triangles, t.Source
+	he := t.Halfedges
 	outside := int32(nt)
 	ends := make([]uint64, ne)  // site a | site b << 32, a < b
 	sides := make([]uint64, ne) // rank a | rank b << 32
-	alphaParallel(ne, func(lo, hi int) {
+	planar.ParallelFor(ne, alphaGrain, func(lo, hi int) {
 		for i := lo; i < hi; i++ {
 			e := ids[i]
 			a, b := src[tr[e]], src[tr[planar.NextHalfedge(e)]]
@@ -164,47 +128,12 @@ func ComputePersistence(t *planar.Triangulation, f *Filtration) *Persistence {
 	recs := persistDual(nt, tkeys, keys, ends, sides)
 	sides = nil
 
-	// Holes by decreasing persistence, then increasing filtration position
-	// of the birth edge: a stable radix sort on the complemented bits
-	// (descending order), starting from increasing birth position.
-	nh := len(recs)
-	slices.Reverse(recs)
-	hk := make([]uint64, nh)
-	order := make([]int32, nh)
-	for k, r := range recs {
-		order[k] = int32(k)
-		hk[k] = ^math.Float64bits(r.death - r.birth)
-	}
-	persistRadixSort(hk, order)
-	hk = nil
-	xy := t.Coords
-	p.Holes = make([]Hole, nh)
+	order := persistHoleOrder(recs)
 	<-done
-	centre := f.centre
-	if len(centre) != 2*nt {
-		centre = nil
-	}
-	alphaParallel(nh, func(lo, hi int) {
-		for j := lo; j < hi; j++ {
-			r := &recs[order[j]]
-			y := tids[r.rank]
-			var cx, cy float64
-			if centre != nil {
-				cx, cy = centre[2*y], centre[2*y+1]
-			} else {
-				cx, cy = alphaCircumcentre(xy, tr[3*y], tr[3*y+1], tr[3*y+2])
-			}
-			p.Holes[j] = Hole{
-				Birth:      r.birth,
-				Death:      r.death,
-				DeathPoint: orb.Point{cx, cy},
-				BirthSites: [2]int{int(uint32(r.sites)), int(r.sites >> 32)},
-			}
-		}
-	})
+	p.Holes = persistHoleList(t, f, recs, order, tids)
 
 	p.Merges = make([]Merge, len(mpos))
-	alphaParallel(len(mpos), func(lo, hi int) {
+	planar.ParallelFor(len(mpos), alphaGrain, func(lo, hi int) {
 		for k := lo; k < hi; k++ {
 			i := mpos[k]
 			p.Merges[k] = Merge{
@@ -217,14 +146,112 @@ func ComputePersistence(t *planar.Triangulation, f *Filtration) *Persistence {
 	return p
 }
 
+// persistOrder sorts the edges (one canonical half-edge each: the hull
+// half-edge or the larger of the two halves) by filtration value, ties by
+// length, and concurrently the triangles by (value, index); a triangle's
+// rank in that order is its position in the filtration. It returns the
+// number of edges, their half-edges and keys in order, the triangles' keys
+// and indices in order, and each triangle's rank.
+func persistOrder(t *planar.Triangulation, f *Filtration) (ne int, ids []int32, keys, tkeys []uint64, tids, rank []int32) {
+	nt := t.NumTriangles()
+	he := t.Halfedges
+	for e, o := range he {
+		if o < int32(e) {
+			ne++
+		}
+	}
+	ids = make([]int32, 0, ne)
+	keys = make([]uint64, 0, ne)
+	for e, o := range he {
+		if o < int32(e) {
+			ids = append(ids, int32(e))
+			keys = append(keys, math.Float64bits(f.Edge[e]))
+		}
+	}
+	// Sort the edges, and concurrently the triangles by (value, index): a
+	// triangle's rank in that order is its position in the filtration.
+	tv := f.Triangle
+	tkeys = make([]uint64, nt)
+	tids = make([]int32, nt)
+	rank = make([]int32, nt)
+	sorted := make(chan struct{})
+	go func() {
+		for i, v := range tv {
+			tkeys[i] = math.Float64bits(v)
+			tids[i] = int32(i)
+		}
+		persistRadixSort(tkeys, tids)
+		for r, i := range tids {
+			rank[i] = int32(r)
+		}
+		close(sorted)
+	}()
+	persistRadixSort(keys, ids)
+	persistTieByLength(t, keys, ids)
+	<-sorted
+
+	return ne, ids, keys, tkeys, tids, rank
+}
+
+// persistHoleOrder orders the holes by decreasing persistence, then
+// increasing filtration position of the birth edge (recs is reversed in
+// place to increasing birth position; the result indexes it).
+func persistHoleOrder(recs []persistHoleRec) []int32 {
+	// Holes by decreasing persistence, then increasing filtration position
+	// of the birth edge: a stable radix sort on the complemented bits
+	// (descending order), starting from increasing birth position.
+	nh := len(recs)
+	slices.Reverse(recs)
+	hk := make([]uint64, nh)
+	order := make([]int32, nh)
+	for k, r := range recs {
+		order[k] = int32(k)
+		hk[k] = ^math.Float64bits(r.death - r.birth)
+	}
+	persistRadixSort(hk, order)
+	return order
+}
+
+// persistHoleList writes the holes in the given order, each with its death
+// point (the circumcentre of the triangle that fills it).
+func persistHoleList(t *planar.Triangulation, f *Filtration, recs []persistHoleRec, order, tids []int32) []Hole {
+	nt, nh, tr := t.NumTriangles(), len(recs), t.Triangles
+	xy := t.Coords
+	holes := make([]Hole, nh)
+	centre := f.centre
+	if len(centre) != 2*nt {
+		centre = nil
+	}
+	planar.ParallelFor(nh, alphaGrain, func(lo, hi int) {
+		for j := lo; j < hi; j++ {
+			r := &recs[order[j]]
+			y := tids[r.rank]
+			var cx, cy float64
+			if centre != nil {
+				cx, cy = centre[2*y], centre[2*y+1]
+			} else {
+				cx, cy = alphaCircumcentre(xy, tr[3*y], tr[3*y+1], tr[3*y+2])
+			}
+			holes[j] = Hole{
+				Birth:      r.birth,
+				Death:      r.death,
+				DeathPoint: orb.Point{cx, cy},
+				BirthSites: [2]int{int(uint32(r.sites)), int(r.sites >> 32)},
+			}
+		}
+	})
+
+	return holes
+}
+
 // persistKruskal runs union-find over n nodes along the edges in
 // filtration order (ends packs the two node indices of each edge) and
 // returns the positions of the edges that join two components.
 func persistKruskal(n int, ends []uint64) []int32 {
-	uf := newPersistUF(n)
+	uf := planar.NewUnionFind(n)
 	out := make([]int32, 0, max(n-1, 0))
 	for i, ab := range ends {
-		if uf.union(int32(uint32(ab)), int32(ab>>32)) {
+		if uf.Union(int32(uint32(ab)), int32(ab>>32)) {
 			out = append(out, int32(i))
 		}
 	}
@@ -250,29 +277,16 @@ type persistHoleRec struct {
 // components, the younger root dies; the pair is returned when its
 // persistence exceeds HoleResolution relative.
 func persistDual(nt int, tkeys, keys, ends, sides []uint64) []persistHoleRec {
-	par := make([]int32, nt+1)
-	for i := range par {
-		par[i] = int32(i)
-	}
+	uf := planar.NewUnionFind(nt + 1)
 	out := make([]persistHoleRec, 0, nt/2+16)
 	for i := len(sides) - 1; i >= 0; i-- {
 		s := sides[i]
-		ra, rb := int32(uint32(s)), int32(s>>32)
-		for par[ra] != ra { // find with path halving
-			g := par[par[ra]]
-			par[ra] = g
-			ra = g
-		}
-		for par[rb] != rb {
-			g := par[par[rb]]
-			par[rb] = g
-			rb = g
-		}
+		ra, rb := uf.Find(int32(uint32(s))), uf.Find(int32(s>>32))
 		if ra == rb {
 			continue // negative edge: a merge, found by Kruskal
 		}
 		young, old := min(ra, rb), max(ra, rb)
-		par[young] = old
+		uf.Parent[young] = old // link by index: the older root survives
 		birth, death := math.Float64frombits(keys[i]), math.Float64frombits(tkeys[young])
 		if death-birth > HoleResolution*death {
 			out = append(out, persistHoleRec{birth, death, ends[i], young})
@@ -340,57 +354,6 @@ func (p *Persistence) Betti(r float64) (pieces, holes int) {
 		}
 	}
 	return pieces, holes
-}
-
-// persistUF is a union-find (disjoint-set forest) over int32 nodes with
-// path halving and union by rank.
-type persistUF struct {
-	parent []int32
-	rank   []uint8
-}
-
-func newPersistUF(n int) *persistUF {
-	u := &persistUF{parent: make([]int32, n), rank: make([]uint8, n)}
-	for i := range u.parent {
-		u.parent[i] = int32(i)
-	}
-	return u
-}
-
-// find returns the root of x, halving the path on the way.
-func (u *persistUF) find(x int32) int32 {
-	par := u.parent
-	for par[x] != x {
-		g := par[par[x]]
-		par[x] = g
-		x = g
-	}
-	return x
-}
-
-// link joins the trees of two distinct roots and returns the new root.
-func (u *persistUF) link(a, b int32) int32 {
-	switch ra, rb := u.rank[a], u.rank[b]; {
-	case ra < rb:
-		u.parent[a] = b
-		return b
-	case ra > rb:
-		u.parent[b] = a
-	default:
-		u.parent[b] = a
-		u.rank[a]++
-	}
-	return a
-}
-
-// union joins the sets of a and b and reports whether they were distinct.
-func (u *persistUF) union(a, b int32) bool {
-	ra, rb := u.find(a), u.find(b)
-	if ra == rb {
-		return false
-	}
-	u.link(ra, rb)
-	return true
 }
 
 // persistRadixSort sorts keys ascending, carrying ids along, by a stable

@@ -39,10 +39,9 @@ import (
 	"container/heap"
 	"fmt"
 	"math"
-	"runtime"
-	"sync"
 
 	"github.com/paulmach/orb"
+	"github.com/sitecover/sitecover/planar"
 )
 
 // Choice is a selection among candidate spots.
@@ -187,20 +186,12 @@ func planGainEps(r float64) float64 { return planGainNoise * math.Pi * r * r }
 func planGains(o *planOverlay, xy []float64) []float64 {
 	n := len(xy) / 2
 	out := make([]float64, n)
-	workers := max(1, min(runtime.GOMAXPROCS(0), n/64))
-	var wg sync.WaitGroup
-	for w := 0; w < workers; w++ {
-		lo, hi := n*w/workers, n*(w+1)/workers
-		wg.Add(1)
-		go func() {
-			defer wg.Done()
-			var sc planScratch
-			for i := lo; i < hi; i++ {
-				out[i] = o.gain(xy[2*i], xy[2*i+1], &sc)
-			}
-		}()
-	}
-	wg.Wait()
+	planar.ParallelFor(n, 64, func(lo, hi int) {
+		var sc planScratch
+		for i := lo; i < hi; i++ {
+			out[i] = o.gain(xy[2*i], xy[2*i+1], &sc)
+		}
+	})
 	return out
 }
 

@@ -57,9 +57,7 @@ package coverage
 import (
 	"cmp"
 	"math"
-	"runtime"
 	"slices"
-	"sync"
 
 	"github.com/paulmach/orb"
 	"github.com/sitecover/sitecover/planar"
@@ -212,24 +210,13 @@ func (o *planOverlay) fresh() *planOverlay {
 	return f
 }
 
-// planParallel runs fn over [0, n) split across the available cores.
-func planParallel(n int, fn func(lo, hi int)) {
-	w := runtime.GOMAXPROCS(0)
-	if n < 4096 || w < 2 {
-		fn(0, n)
-		return
-	}
-	var wg sync.WaitGroup
-	for k := 0; k < w; k++ {
-		lo, hi := n*k/w, n*(k+1)/w
-		wg.Add(1)
-		go func() {
-			defer wg.Done()
-			fn(lo, hi)
-		}()
-	}
-	wg.Wait()
-}
+// planParallel runs fn over [0, n) split across the available cores
+// (planar.ParallelFor), each range at least planGrain long: below
+// 2·planGrain = 4096 items it runs on the calling goroutine.
+func planParallel(n int, fn func(lo, hi int)) { planar.ParallelFor(n, planGrain, fn) }
+
+// planGrain is the least number of items per goroutine in planParallel.
+const planGrain = 2048
 
 // planBaseGrid buckets the listed base sites for queries of radius about
 // reach: about two sites per bucket, and buckets no smaller than a quarter

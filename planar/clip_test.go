@@ -214,7 +214,7 @@ func clipCheckCells(t *testing.T, tri *Triangulation, reg *Region, c *Cells) {
 				if n < 3 {
 					t.Fatalf("site %d: ring with %d points", v, n)
 				}
-				a := clipShoelace(xy, px, py)
+				a := RingAreaAbout(xy, px, py)
 				if k == c.PolyStart[p] && !(a > 0) {
 					t.Errorf("site %d: exterior ring area %g not positive", v, a)
 				}

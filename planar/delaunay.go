@@ -158,7 +158,7 @@ func argmin(n int, chunk func(lo, hi int) (float64, int32)) int32 {
 	const parts = 8
 	var vals [parts]float64
 	var idx [parts]int32
-	parallel(parts, 1, func(lo, hi int) {
+	ParallelFor(parts, 1, func(lo, hi int) {
 		for k := lo; k < hi; k++ {
 			vals[k], idx[k] = chunk(n*k/parts, n*(k+1)/parts)
 		}
@@ -192,16 +192,6 @@ func circumradius2(ax, ay, bx, by, cx, cy float64) float64 {
 		return math.Inf(1)
 	}
 	return r
-}
-
-// circumcenter returns the circumcentre of triangle abc in floating point.
-func circumcenter(ax, ay, bx, by, cx, cy float64) (float64, float64) {
-	dx, dy := bx-ax, by-ay
-	ex, ey := cx-ax, cy-ay
-	bl := dx*dx + dy*dy
-	cl := ex*ex + ey*ey
-	d := 0.5 / (dx*ey - dy*ex)
-	return ax + (ey*bl-dy*cl)*d, ay + (dx*cl-ex*bl)*d
 }
 
 // numberVertices fills vertex (input -> vertex) and returns source

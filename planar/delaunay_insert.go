@@ -50,7 +50,6 @@ import (
 	"errors"
 	"math"
 	"math/bits"
-	"runtime"
 	"slices"
 	"sync"
 	"unsafe"
@@ -96,7 +95,7 @@ func boundingBox(pts []orb.Point) bbox {
 			scan(k)
 		}
 	} else {
-		parallel(parts, 1, func(lo, hi int) {
+		ParallelFor(parts, 1, func(lo, hi int) {
 			for k := lo; k < hi; k++ {
 				scan(k)
 			}
@@ -108,29 +107,6 @@ func boundingBox(pts []orb.Point) bbox {
 		b.minY, b.maxY = math.Min(b.minY, c.minY), math.Max(b.maxY, c.maxY)
 	}
 	return b
-}
-
-// parallel runs f over [0, n) split into contiguous chunks, one per CPU
-// (at most), when n is large enough to be worth it.
-func parallel(n, grain int, f func(lo, hi int)) {
-	w := runtime.GOMAXPROCS(0)
-	if w > n/grain {
-		w = n / grain
-	}
-	if w <= 1 {
-		f(0, n)
-		return
-	}
-	var wg sync.WaitGroup
-	for k := 1; k < w; k++ {
-		wg.Add(1)
-		go func(lo, hi int) {
-			defer wg.Done()
-			f(lo, hi)
-		}(n*k/w, n*(k+1)/w)
-	}
-	f(0, n/w)
-	wg.Wait()
 }
 
 // parallelMin is the number of points from which the construction splits
@@ -161,7 +137,7 @@ func triangulateIncremental(pts []orb.Point, box bbox, i0, i1, i2 int32) (*Trian
 	w32 := asInt32(work)
 	order := w32[0:n:n]
 	ps := make([]xyPt, n)
-	parallel(n, 1<<15, func(lo, hi int) {
+	ParallelFor(n, 1<<15, func(lo, hi int) {
 		for k := lo; k < hi; k++ {
 			i := uint32(sorted[k])
 			order[k] = int32(i)
@@ -248,7 +224,7 @@ func medianX(pts []orb.Point, box bbox) float64 {
 	scale := bins / w
 	var hist [bins]int32
 	var mu sync.Mutex
-	parallel(len(pts), 1<<16, func(lo, hi int) {
+	ParallelFor(len(pts), 1<<16, func(lo, hi int) {
 		var h [bins]int32
 		for _, p := range pts[lo:hi] {
 			k := int((p[0] - box.minX) * scale)
@@ -296,7 +272,7 @@ func brioKeys(pts []orb.Point, box bbox, keys []uint64, split bool, x0 float64) 
 	if side > 0 && side <= math.MaxFloat64 {
 		scale = 4096 / side
 	}
-	parallel(n, 1<<15, func(lo, hi int) {
+	ParallelFor(n, 1<<15, func(lo, hi int) {
 		for i := lo; i < hi; i++ {
 			p := pts[i]
 			qx := cell12((p[0] - box.minX) * scale)
@@ -648,18 +624,6 @@ func prevHE(e int32) int32 {
 	return e - 1
 }
 
-// Stage-A constants of predicates.go (Shewchuk's bounds plus 16ε² of
-// underflow slack, and the ranges where stage A is trusted), repeated for
-// the inlined filters below.
-const (
-	filterEps          = 0x1p-53
-	filterOrientBound  = (3.0 + 32.0*filterEps) * filterEps
-	filterOrientFloor  = 0x1p-900
-	filterICCBound     = (10.0 + 112.0*filterEps) * filterEps
-	filterICCFloor     = 0x1p-500
-	filterICCLiftLimit = 0x1p400
-)
-
 // inCircleFiltered reports InCircle(a, b, c, d) > 0. It evaluates
 // Shewchuk's stage-A filter in line (the same expression and bound as
 // InCircle) and calls InCircle only when the filter cannot decide.
@@ -677,8 +641,8 @@ func inCircleFiltered(a, b, c xyPt, dx, dy float64) bool {
 	permanent := float64((math.Abs(bdxcdy)+math.Abs(cdxbdy))*alift) +
 		float64((math.Abs(cdxady)+math.Abs(adxcdy))*blift) +
 		float64((math.Abs(adxbdy)+math.Abs(bdxady))*clift)
-	bound := filterICCBound * permanent
-	if permanent >= filterICCFloor && alift+blift+clift <= filterICCLiftLimit {
+	bound := iccErrBoundA * permanent
+	if permanent >= incircleFloor && alift+blift+clift <= incircleLiftCeil {
 		if det > bound {
 			return true
 		}
@@ -713,7 +677,7 @@ func orientSign(a, c xyPt, x, y float64) int {
 	detright := float64((a.y - y) * (c.x - x))
 	det := detleft - detright
 	detsum := math.Abs(detleft) + math.Abs(detright)
-	if bound := filterOrientBound * detsum; detsum >= filterOrientFloor {
+	if bound := ccwErrBoundA * detsum; detsum >= orientFloor {
 		if det > bound {
 			return 1
 		}
@@ -839,7 +803,7 @@ func (b *builder) finish(pts []orb.Point, order []int32) *Triangulation {
 		// Vertex i is input i; internal id k is vertex order[k].
 		vertex = make([]int32, n)
 		source = make([]int32, n)
-		parallel(n, 1<<16, func(lo, hi int) {
+		ParallelFor(n, 1<<16, func(lo, hi int) {
 			for i := lo; i < hi; i++ {
 				vertex[i], source[i] = int32(i), int32(i)
 			}
@@ -896,7 +860,7 @@ func (b *builder) finish(pts []orb.Point, order []int32) *Triangulation {
 			coords[2*v], coords[2*v+1] = pts[i][0], pts[i][1]
 		}
 	}()
-	parallel(len(tri), 1<<16, func(lo, hi int) {
+	ParallelFor(len(tri), 1<<16, func(lo, hi int) {
 		for e := lo; e < hi; e++ {
 			tri[e] = perm[tri[e]]
 		}

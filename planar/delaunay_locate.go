@@ -30,8 +30,6 @@ package planar
 import (
 	"math"
 	"math/big"
-	"runtime"
-	"sync"
 )
 
 // walk locates (x, y) starting in the triangle of half-edge e0. It returns
@@ -155,6 +153,10 @@ func (t *Triangulation) sampleVertex(x, y float64) int32 {
 	return best
 }
 
+// cmpDistErr bounds the rounding error of |q−a|² − |q−b|² in floating point
+// relative to |q−a|² + |q−b|² (see cmpDist).
+const cmpDistErr = 6 * epsilon
+
 // cmpDist returns the sign of |q−a|² − |q−b|², exactly.
 func cmpDist(qx, qy, ax, ay, bx, by float64) int {
 	dax, day := ax-qx, ay-qy
@@ -164,8 +166,9 @@ func cmpDist(qx, qy, ax, ay, bx, by float64) int {
 	diff := da - db
 	sum := da + db
 	// da and db are each within (4ε + O(ε²)) relative of the true values;
-	// the subtraction adds ε|diff|.
-	if bound := 6 * epsilon * sum; sum >= 0x1p-900 && sum <= math.MaxFloat64 {
+	// the subtraction adds ε|diff| (cmpDistErr = 6ε covers both); below
+	// orientFloor an underflowed square could break the relative bound.
+	if bound := cmpDistErr * sum; sum >= orientFloor && sum <= math.MaxFloat64 {
 		if diff > bound {
 			return 1
 		}
@@ -335,14 +338,7 @@ func (t *Triangulation) NearestMany(xy []float64, out []int32) {
 	if len(t.Triangles) > 0 && nq >= 64 && float64(nq)*math.Sqrt(float64(t.NumVertices())) > float64(t.NumVertices()) {
 		g = t.newHintGrid(nq)
 	}
-	workers := runtime.GOMAXPROCS(0)
-	if workers > nq/2048 {
-		workers = nq / 2048
-	}
-	if workers < 1 {
-		workers = 1
-	}
-	run := func(lo, hi int) {
+	ParallelFor(nq, 2048, func(lo, hi int) {
 		prev := int32(-1)
 		for k := lo; k < hi; k++ {
 			x, y := xy[2*k], xy[2*k+1]
@@ -360,21 +356,7 @@ func (t *Triangulation) NearestMany(xy []float64, out []int32) {
 				prev = r
 			}
 		}
-	}
-	if workers == 1 {
-		run(0, nq)
-		return
-	}
-	var wg sync.WaitGroup
-	for w := 0; w < workers; w++ {
-		lo, hi := nq*w/workers, nq*(w+1)/workers
-		wg.Add(1)
-		go func() {
-			defer wg.Done()
-			run(lo, hi)
-		}()
-	}
-	wg.Wait()
+	})
 }
 
 // hintGrid is a uniform grid over the vertices' bounding box (Grid,
@@ -514,24 +496,13 @@ func (t *Triangulation) linePosition(v int32) int {
 func (t *Triangulation) Circumcenters() []float64 {
 	nt := t.NumTriangles()
 	out := make([]float64, 2*nt)
-	run := func(lo, hi int) {
+	// Halves from 2¹⁶ triangles on, as before; more cores take more ranges.
+	ParallelFor(nt, 1<<15, func(lo, hi int) {
 		tri, xy := t.Triangles, t.Coords
 		for k := lo; k < hi; k++ {
 			a, b, c := tri[3*k], tri[3*k+1], tri[3*k+2]
-			out[2*k], out[2*k+1] = circumcenter(xy[2*a], xy[2*a+1], xy[2*b], xy[2*b+1], xy[2*c], xy[2*c+1])
+			out[2*k], out[2*k+1] = Circumcentre(xy[2*a], xy[2*a+1], xy[2*b], xy[2*b+1], xy[2*c], xy[2*c+1])
 		}
-	}
-	if nt < 1<<16 {
-		run(0, nt)
-		return out
-	}
-	var wg sync.WaitGroup
-	wg.Add(1)
-	go func() {
-		defer wg.Done()
-		run(0, nt/2)
-	}()
-	run(nt/2, nt)
-	wg.Wait()
+	})
 	return out
 }

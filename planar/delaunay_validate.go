@@ -28,6 +28,13 @@ import (
 	"slices"
 )
 
+// validateAreaRel is the tolerance of the area check, relative to the sum of
+// the magnitudes of the products: the sums carry a rounding error of a small
+// multiple of ε = 2⁻⁵³ per term, so 1e-9 is loose for any input size; a
+// multiple covering adds whole triangles' areas and is caught unless those
+// are below 1e-9 of the total (the empty-circle test below still applies).
+const validateAreaRel = 1e-9
+
 // Validate checks that t is a well-formed Delaunay triangulation of its
 // vertices and returns the first violation found, or nil.
 func (t *Triangulation) Validate() error {
@@ -143,58 +150,100 @@ func (t *Triangulation) validateTriangles() error {
 			return fmt.Errorf("planar: Validate: triangle %d (%d, %d, %d) is not counter-clockwise", b/3, tri[b], tri[b+1], tri[b+2])
 		}
 	}
+	bnext, nb, err := t.validateTwins()
+	if err != nil {
+		return err
+	}
+	onHull, err := t.validateHull(bnext, nb)
+	if err != nil {
+		return err
+	}
+	if err := t.validateStars(onHull); err != nil {
+		return err
+	}
+	if nt, want := ne/3, 2*m-2-nb; nt != want {
+		return fmt.Errorf("planar: Validate: %d triangles, Euler's formula wants 2n-2-h = %d", nt, want)
+	}
+	if err := t.validateArea(); err != nil {
+		return err
+	}
+	return t.validateEmptyCircles()
+}
+
+// validateTwins checks that twin half-edges pair back and run reversed,
+// and returns the boundary loop: bnext[v] is the end of the boundary
+// half-edge starting at v (−1 if none), nb the number of boundary edges.
+func (t *Triangulation) validateTwins() (bnext []int32, nb int, err error) {
+	tri, half := t.Triangles, t.Halfedges
+	m, ne := len(t.Coords)/2, len(tri)
 	// Twins, and the boundary loop.
-	bnext := make([]int32, m) // end of the boundary half-edge starting at v
+	bnext = make([]int32, m) // end of the boundary half-edge starting at v
 	bedge := make([]int32, m)
 	for i := range bnext {
 		bnext[i], bedge[i] = -1, -1
 	}
-	nb := 0
 	for e := int32(0); e < int32(ne); e++ {
 		h := half[e]
 		if h < 0 {
 			if h != -1 {
-				return fmt.Errorf("planar: Validate: half-edge %d: twin %d", e, h)
+				return nil, 0, fmt.Errorf("planar: Validate: half-edge %d: twin %d", e, h)
 			}
 			s := tri[e]
 			if bnext[s] >= 0 {
-				return fmt.Errorf("planar: Validate: vertex %d starts two boundary edges", s)
+				return nil, 0, fmt.Errorf("planar: Validate: vertex %d starts two boundary edges", s)
 			}
 			bnext[s], bedge[s] = tri[NextHalfedge(e)], e
 			nb++
 			continue
 		}
 		if int(h) >= ne || h == e || half[h] != e {
-			return fmt.Errorf("planar: Validate: half-edge %d: twin %d is not paired back", e, h)
+			return nil, 0, fmt.Errorf("planar: Validate: half-edge %d: twin %d is not paired back", e, h)
 		}
 		if tri[h] != tri[NextHalfedge(e)] || tri[NextHalfedge(h)] != tri[e] {
-			return fmt.Errorf("planar: Validate: half-edges %d and %d are twins but not reversed", e, h)
+			return nil, 0, fmt.Errorf("planar: Validate: half-edges %d and %d are twins but not reversed", e, h)
 		}
 	}
+	return bnext, nb, nil
+}
+
+// validateHull checks that Hull lists the boundary loop, distinct vertices,
+// turning counter-clockwise; it returns which vertices are on the hull.
+func (t *Triangulation) validateHull(bnext []int32, nb int) ([]bool, error) {
+	xy := t.Coords
+	m := len(xy) / 2
+	pt := func(v int32) (float64, float64) { return xy[2*v], xy[2*v+1] }
 	hull := t.Hull
 	if len(hull) != nb || nb < 3 {
-		return fmt.Errorf("planar: Validate: %d boundary edges but Hull has %d vertices", nb, len(hull))
+		return nil, fmt.Errorf("planar: Validate: %d boundary edges but Hull has %d vertices", nb, len(hull))
 	}
 	onHull := make([]bool, m)
 	for k, v := range hull {
 		if v < 0 || int(v) >= m || onHull[v] {
-			return fmt.Errorf("planar: Validate: Hull[%d] = %d repeated or out of range", k, v)
+			return nil, fmt.Errorf("planar: Validate: Hull[%d] = %d repeated or out of range", k, v)
 		}
 		onHull[v] = true
 	}
 	for k, v := range hull {
 		w := hull[(k+1)%nb]
 		if bnext[v] != w {
-			return fmt.Errorf("planar: Validate: Hull %d→%d is not a boundary edge", v, w)
+			return nil, fmt.Errorf("planar: Validate: Hull %d→%d is not a boundary edge", v, w)
 		}
 		u := hull[(k+nb-1)%nb]
 		ux, uy := pt(u)
 		vx, vy := pt(v)
 		wx, wy := pt(w)
 		if Orient2D(ux, uy, vx, vy, wx, wy) < 0 {
-			return fmt.Errorf("planar: Validate: Hull turns clockwise at vertex %d", v)
+			return nil, fmt.Errorf("planar: Validate: Hull turns clockwise at vertex %d", v)
 		}
 	}
+	return onHull, nil
+}
+
+// validateStars checks that every vertex is used and that its triangles
+// form one fan reachable from Inedge, open exactly at hull vertices.
+func (t *Triangulation) validateStars(onHull []bool) error {
+	tri, half := t.Triangles, t.Halfedges
+	m, ne := len(t.Coords)/2, len(tri)
 	// Stars: every vertex used, one fan from Inedge.
 	deg := make([]int32, m)
 	for e := 0; e < ne; e++ {
@@ -228,9 +277,13 @@ func (t *Triangulation) validateTriangles() error {
 			return fmt.Errorf("planar: Validate: vertex %d: star walk meets %d of its %d triangles", v, steps, deg[v])
 		}
 	}
-	if nt, want := ne/3, 2*m-2-nb; nt != want {
-		return fmt.Errorf("planar: Validate: %d triangles, Euler's formula wants 2n-2-h = %d", nt, want)
-	}
+	return nil
+}
+
+// validateArea checks that the triangle areas sum to the hull's area.
+func (t *Triangulation) validateArea() error {
+	tri, xy, hull := t.Triangles, t.Coords, t.Hull
+	m, ne, nb := len(xy)/2, len(tri), len(hull)
 	// Area check relative to the first hull vertex, in coordinates scaled
 	// by powers of two (exact) so that neither huge nor tiny inputs
 	// overflow or underflow.
@@ -274,9 +327,17 @@ func (t *Triangulation) validateTriangles() error {
 	}
 	// Rounding error is a small multiple of ε times the sum of the
 	// products' magnitudes; the absolute term absorbs underflow.
-	if math.Abs(area-hullArea) > 1e-9*perm+0x1p-900 {
+	if math.Abs(area-hullArea) > validateAreaRel*perm+orientFloor {
 		return fmt.Errorf("planar: Validate: triangle areas sum to %g, hull area %g (scaled)", area/2, hullArea/2)
 	}
+	return nil
+}
+
+// validateEmptyCircles checks that every interior edge is locally Delaunay.
+func (t *Triangulation) validateEmptyCircles() error {
+	tri, half, xy := t.Triangles, t.Halfedges, t.Coords
+	ne := len(tri)
+	pt := func(v int32) (float64, float64) { return xy[2*v], xy[2*v+1] }
 	// Empty circles.
 	for e := int32(0); e < int32(ne); e++ {
 		h := half[e]

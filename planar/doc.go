@@ -36,6 +36,14 @@
 //   - Bucket grids (bucketgrid.go): the static BucketGrid and the dynamic
 //     HashGrid that list nearby points for neighbourhood queries.
 //
+// It also owns the small primitives the other packages share, one copy
+// each: rings (RingArea, PointInRing, EdgeRay, SegmentsCross/Meet; ring.go),
+// circumcentres with an error bound (Circumcentre, CircumcentreErr), the
+// accurate cross product and exact dot-product sign (Cross, DotSign),
+// error-free and double-double arithmetic (TwoSum, TwoProduct, DDAdd,
+// DDAddDD, DDReduceTwoPi), union-find (UnionFind) and the parallel loop
+// helpers (ParallelFor, ParallelChunks).
+//
 // Data lives in flat slices: float64 coordinates interleaved as x0, y0, x1,
 // y1, ... and int32 indices. There is no pointer per triangle or per cell.
 package planar

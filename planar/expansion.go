@@ -6,12 +6,12 @@
 // increasing magnitude and nonoverlapping, whose exact (unrounded) sum is the
 // value represented. The routines below are error-free transformations:
 //
-//   - twoSum(a, b) = (x, y) with x = fl(a+b) and a + b = x + y exactly
+//   - TwoSum(a, b) = (x, y) with x = fl(a+b) and a + b = x + y exactly
 //     (Knuth's Two-Sum, Theorem 7 of the paper).
 //   - fastTwoSum(a, b) = (x, y), the same when |a| >= |b| (Dekker,
 //     Theorem 6).
 //   - twoDiff(a, b) = (x, y) with a - b = x + y exactly.
-//   - twoProduct(a, b) = (x, y) with x = fl(a*b) and a*b = x + y exactly; y
+//   - TwoProduct(a, b) = (x, y) with x = fl(a*b) and a*b = x + y exactly; y
 //     is computed with one fused multiply-add, math.FMA(a, b, -x), which
 //     replaces Dekker's splitting (Theorem 18) with the same result.
 //   - expansionSum(e, f, h) writes the zero-eliminated sum of two
@@ -34,8 +34,9 @@ package planar
 
 import "math"
 
-// twoSum returns x = fl(a+b) and the rounding error y, so a+b = x+y exactly.
-func twoSum(a, b float64) (x, y float64) {
+// TwoSum returns x = fl(a+b) and the rounding error y, so a+b = x+y exactly
+// (Knuth's Two-Sum; six floating-point additions, no branch).
+func TwoSum(a, b float64) (x, y float64) {
 	x = a + b
 	bv := x - a
 	av := x - bv
@@ -45,7 +46,7 @@ func twoSum(a, b float64) (x, y float64) {
 	return
 }
 
-// fastTwoSum is twoSum for |a| >= |b| (or a == 0).
+// fastTwoSum is TwoSum for |a| >= |b| (or a == 0).
 func fastTwoSum(a, b float64) (x, y float64) {
 	x = a + b
 	bv := x - a
@@ -68,9 +69,9 @@ func twoDiffTail(a, b, x float64) float64 {
 	return ar + br
 }
 
-// twoProduct returns x = fl(a*b) and the rounding error y, so a*b = x+y
-// exactly (no underflow assumed).
-func twoProduct(a, b float64) (x, y float64) {
+// TwoProduct returns x = fl(a*b) and the rounding error y, so a*b = x+y
+// exactly (no underflow assumed; one fused multiply-add).
+func TwoProduct(a, b float64) (x, y float64) {
 	x = float64(a * b)
 	y = math.FMA(a, b, -x)
 	return
@@ -82,18 +83,18 @@ func twoProduct(a, b float64) (x, y float64) {
 func twoTwoDiff(a1, a0, b1, b0 float64) (x3, x2, x1, x0 float64) {
 	// Two-One-Diff(a1, a0, b0) -> (j, z, x0)
 	i, x0 := twoDiff(a0, b0)
-	j, z := twoSum(a1, i)
+	j, z := TwoSum(a1, i)
 	// Two-One-Diff(j, z, b1) -> (x3, x2, x1)
 	i, x1 = twoDiff(z, b1)
-	x3, x2 = twoSum(j, i)
+	x3, x2 = TwoSum(j, i)
 	return
 }
 
 // productDiff returns the exact four-component expansion of a*b - c*d,
 // written into h (len(h) >= 4) in increasing order of magnitude.
 func productDiff(h []float64, a, b, c, d float64) {
-	s1, s0 := twoProduct(a, b)
-	t1, t0 := twoProduct(c, d)
+	s1, s0 := TwoProduct(a, b)
+	t1, t0 := TwoProduct(c, d)
 	h[3], h[2], h[1], h[0] = twoTwoDiff(s1, s0, t1, t0)
 }
 
@@ -140,13 +141,13 @@ func expansionSum(e, f, h []float64) int {
 		}
 		for ei < elen && fi < flen {
 			if (fnow > enow) == (fnow > -enow) {
-				q, hh = twoSum(q, enow)
+				q, hh = TwoSum(q, enow)
 				ei++
 				if ei < elen {
 					enow = e[ei]
 				}
 			} else {
-				q, hh = twoSum(q, fnow)
+				q, hh = TwoSum(q, fnow)
 				fi++
 				if fi < flen {
 					fnow = f[fi]
@@ -159,7 +160,7 @@ func expansionSum(e, f, h []float64) int {
 		}
 	}
 	for ei < elen {
-		q, hh = twoSum(q, enow)
+		q, hh = TwoSum(q, enow)
 		ei++
 		if ei < elen {
 			enow = e[ei]
@@ -170,7 +171,7 @@ func expansionSum(e, f, h []float64) int {
 		}
 	}
 	for fi < flen {
-		q, hh = twoSum(q, fnow)
+		q, hh = TwoSum(q, fnow)
 		fi++
 		if fi < flen {
 			fnow = f[fi]
@@ -191,16 +192,16 @@ func expansionSum(e, f, h []float64) int {
 // into h and returns its length (>= 1). len(h) must be at least 2*len(e);
 // h must not alias e. e must be non-empty.
 func scaleExpansion(e []float64, b float64, h []float64) int {
-	q, hh := twoProduct(e[0], b)
+	q, hh := TwoProduct(e[0], b)
 	hi := 0
 	if hh != 0 {
 		h[hi] = hh
 		hi++
 	}
 	for _, enow := range e[1:] {
-		p1, p0 := twoProduct(enow, b)
+		p1, p0 := TwoProduct(enow, b)
 		var sum float64
-		sum, hh = twoSum(q, p0)
+		sum, hh = TwoSum(q, p0)
 		if hh != 0 {
 			h[hi] = hh
 			hi++
