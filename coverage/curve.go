@@ -30,6 +30,8 @@ package coverage
 import (
 	"math"
 	"sort"
+
+	"github.com/sitecover/sitecover/planar"
 )
 
 // Curve is the covered fraction of a layout as an exact function of the
@@ -84,7 +86,7 @@ func (l *Layout) Curve() *Curve {
 	nc := (np + chunk - 1) / chunk
 	fulls := make([]float64, nc)
 	contacts := make([]float64, nc)
-	cvParallel(np, chunk, func(ci, lo, hi int) {
+	planar.ParallelChunks(np, chunk, 0, func(ci, lo, hi int) {
 		full, contact := 0.0, math.Inf(1)
 		for p := lo; p < hi; p++ {
 			cv.preparePiece(p)
@@ -344,7 +346,7 @@ func (cv *Curve) eval(rs []float64, stride int) crvEval {
 	// the pieces below their nearest-boundary distance (area − [in]·πr²).
 	type part struct{ u, du, constD, cntD, inD []float64 }
 	parts := make([]part, nc)
-	cvParallel(nsel, chunk, func(ci, lo, hi int) {
+	planar.ParallelChunks(nsel, chunk, 0, func(ci, lo, hi int) {
 		pt := part{make([]float64, K), make([]float64, K), make([]float64, K+1), make([]float64, K+1), make([]float64, K+1)}
 		var edges []crvEdge
 		for s := lo; s < hi; s++ {
@@ -399,7 +401,7 @@ func (cv *Curve) eval(rs []float64, stride int) crvEval {
 	for _, pt := range parts {
 		ch, cl, cnt, n := 0.0, 0.0, 0.0, 0.0
 		for k := 0; k < K; k++ {
-			ch, cl = ddAdd(ch, cl, pt.constD[k])
+			ch, cl = planar.DDAdd(ch, cl, pt.constD[k])
 			cnt += pt.cntD[k]
 			n += pt.inD[k]
 			if cnt > 0 {

@@ -20,6 +20,7 @@ import (
 	"slices"
 
 	"github.com/paulmach/orb"
+	"github.com/sitecover/sitecover/planar"
 )
 
 // fcTieRel is the relative tolerance within which vertices tie for the
@@ -33,7 +34,7 @@ func (l *Layout) FullCover() FullCover {
 	const chunk = 4096
 	nc := (nv + chunk - 1) / chunk
 	best := make([]float64, nc)
-	cvParallel(nv, chunk, func(ci, lo, hi int) {
+	planar.ParallelChunks(nv, chunk, 0, func(ci, lo, hi int) {
 		m := 0.0
 		for v := int32(lo); v < int32(hi); v++ {
 			if d, _, _ := l.vertexFarthest(v); d > m {
@@ -61,7 +62,7 @@ func (l *Layout) FullCover() FullCover {
 	tol := fcTieRel * R
 	parts := make([][]cand, nc)
 	c := l.Cells
-	cvParallel(nv, chunk, func(ci, lo, hi int) {
+	planar.ParallelChunks(nv, chunk, 0, func(ci, lo, hi int) {
 		var out []cand
 		for v := int32(lo); v < int32(hi); v++ {
 			p0, p1 := c.SiteStart[v], c.SiteStart[v+1]

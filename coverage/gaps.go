@@ -80,7 +80,7 @@ func (l *Layout) gaps(r, chordTol float64, selfCheck bool) ([]Gap, int) {
 	const chunk = 1024
 	nc := (nv + chunk - 1) / chunk
 	chunks := make([]gapChunk, nc)
-	cvParallel(nv, chunk, func(ci, lo, hi int) {
+	planar.ParallelChunks(nv, chunk, 0, func(ci, lo, hi int) {
 		t := gapTracerPool.Get().(*gapTracer)
 		t.l, t.r, t.r2, t.selfCheck, t.keep = l, r, r*r, selfCheck, chordTol > 0
 		ch := &chunks[ci]

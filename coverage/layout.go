@@ -115,7 +115,7 @@ func (l *Layout) UncoveredArea(r float64) float64 {
 	const chunk = 2048
 	nc := (nv + chunk - 1) / chunk
 	part := make([]float64, nc)
-	cvParallel(nv, chunk, func(ci, lo, hi int) {
+	planar.ParallelChunks(nv, chunk, 0, func(ci, lo, hi int) {
 		s := 0.0
 		for v := int32(lo); v < int32(hi); v++ {
 			a := c.Area[v]
@@ -201,7 +201,7 @@ type ServiceArea struct {
 func (l *Layout) ServiceAreas() []ServiceArea {
 	nv := l.numVertices()
 	out := make([]ServiceArea, nv)
-	cvParallel(nv, 4096, func(_, lo, hi int) {
+	planar.ParallelChunks(nv, 4096, 0, func(_, lo, hi int) {
 		for v := int32(lo); v < int32(hi); v++ {
 			d, x, y := l.vertexFarthest(v)
 			if d < 0 {
@@ -225,15 +225,3 @@ func (l *Layout) ServiceAreas() []ServiceArea {
 	sort.Slice(out, func(i, j int) bool { return out[i].Site < out[j].Site })
 	return out
 }
-
-// cvParallel calls fn(chunkIndex, lo, hi) for the consecutive ranges
-// [lo, hi) of size chunk covering [0, n), on up to GOMAXPROCS goroutines
-// (planar.ParallelChunks). Chunk boundaries depend only on n and chunk, so
-// results combined per chunk in chunk order are the same whatever the
-// number of threads.
-func cvParallel(n, chunk int, fn func(ci, lo, hi int)) {
-	planar.ParallelChunks(n, chunk, 0, fn)
-}
-
-// ddAdd returns the double-double (hi, lo) + b (planar.DDAdd).
-func ddAdd(hi, lo, b float64) (float64, float64) { return planar.DDAdd(hi, lo, b) }

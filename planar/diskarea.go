@@ -90,10 +90,6 @@ func RingDiskArea(ring []float64, cx, cy, radius float64) float64 {
 	return 0.5*tri + 0.5*r2*ang
 }
 
-// diskShoelace is RingAreaAbout under its former name, left for Region.Area
-// (region.go) until that file is reworked; new code calls RingAreaAbout.
-func diskShoelace(ring []float64, cx, cy float64) float64 { return RingAreaAbout(ring, cx, cy) }
-
 // diskEdgeTerms returns, for the segment from a to b (relative to the disk
 // centre), twice the area of its pieces inside the disk (the sum of p × q)
 // and the summed signed angle of its pieces outside the disk. The signed

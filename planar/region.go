@@ -141,7 +141,7 @@ func (r *Region) Area() float64 {
 	s := 0.0
 	for k := 0; k < r.NumRings(); k++ {
 		ring := r.Ring(k)
-		s += diskShoelace(ring, ring[0], ring[1])
+		s += RingArea(ring)
 	}
 	return s
 }
@@ -166,16 +166,8 @@ func (r *Region) Bound() orb.Bound {
 // count as contained. The answer is exact (decided by Orient2D). It scans
 // every edge, O(m) per call; for many queries use Index.
 func (r *Region) Contains(x, y float64) bool {
-	inside := false
-	for k := 0; k < r.NumRings(); k++ {
-		switch PointInRing(r.Ring(k), x, y) {
-		case 0:
-			return true
-		case 1:
-			inside = !inside
-		}
-	}
-	return inside
+	rs := RingSet{XY: r.XY, RingStart: r.RingStart}
+	return rs.Locate(x, y) >= 0
 }
 
 // MultiPolygon returns the site area as an orb.MultiPolygon with closed

@@ -39,10 +39,10 @@ func TestNewRegionNormalises(t *testing.T) {
 	if r.Area() != 96 {
 		t.Errorf("area %g, want 96", r.Area())
 	}
-	if a := diskShoelace(r.Ring(0), 0, 0); a != 100 {
+	if a := RingAreaAbout(r.Ring(0), 0, 0); a != 100 {
 		t.Errorf("exterior area %g, want +100 (counter-clockwise)", a)
 	}
-	if a := diskShoelace(r.Ring(1), 0, 0); a != -4 {
+	if a := RingAreaAbout(r.Ring(1), 0, 0); a != -4 {
 		t.Errorf("hole area %g, want -4 (clockwise)", a)
 	}
 	if b := r.Bound(); b.Min != (orb.Point{0, 0}) || b.Max != (orb.Point{10, 10}) {
