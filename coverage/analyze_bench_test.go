@@ -24,6 +24,7 @@ import (
 
 	"github.com/paulmach/orb"
 	"github.com/sitecover/sitecover/planar"
+	"github.com/sitecover/sitecover/planar/sitegen"
 )
 
 // benchArea returns a non-convex boundary polygon (a notch from the top)
@@ -65,9 +66,9 @@ func BenchmarkAnalyze(b *testing.B) {
 		grid bool
 	}
 	gens := []gen{
-		{"uniform", func(n int) []orb.Point { return uniformSites(n, 1) }, false},
-		{"clustered", func(n int) []orb.Point { return clusteredSites(n, 2) }, false},
-		{"grid", gridSites, true},
+		{"uniform", func(n int) []orb.Point { return sitegen.Uniform(n, 1) }, false},
+		{"clustered", func(n int) []orb.Point { return sitegen.Clustered(n, 2) }, false},
+		{"grid", sitegen.Grid, true},
 	}
 	for _, g := range gens {
 		for _, n := range []int{10_000, 100_000, 1_000_000} {
@@ -120,7 +121,7 @@ func BenchmarkAnalyze(b *testing.B) {
 }
 
 func BenchmarkGaps(b *testing.B) {
-	sites := uniformSites(10_000, 3)
+	sites := sitegen.Uniform(10_000, 3)
 	area := benchArea(b, sites, 5)
 	l, err := NewLayout(sites, area)
 	if err != nil {

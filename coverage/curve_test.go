@@ -14,6 +14,7 @@ import (
 	"testing"
 
 	"github.com/paulmach/orb"
+	"github.com/sitecover/sitecover/planar/sitegen"
 )
 
 // cvTestScenes are layouts with holes, several parts, sites outside the
@@ -52,7 +53,7 @@ func cvTestScenes(t testing.TB) []struct {
 		s3 = append(s3, orb.Point{x, 40})
 	}
 	add("fence", s3, [][]orb.Point{{{0, 0}, {300, 0}, {300, 120}, {180, 120}, {180, 70}, {120, 70}, {120, 120}, {0, 120}}})
-	add("grid", gridSites(144), [][]orb.Point{cvRect(-3, -4, 113, 112), {{30, 30}, {30, 70}, {70, 70}, {70, 30}}})
+	add("grid", sitegen.Grid(144), [][]orb.Point{cvRect(-3, -4, 113, 112), {{30, 30}, {30, 70}, {70, 70}, {70, 30}}})
 	return out
 }
 

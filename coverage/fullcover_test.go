@@ -16,11 +16,12 @@ import (
 	"testing"
 
 	"github.com/paulmach/orb"
+	"github.com/sitecover/sitecover/planar/sitegen"
 )
 
 func TestFullCoverSquareLattice(t *testing.T) {
 	const s = 10.0
-	sites := gridSites(40 * 40) // spacing 10 m, 0..390
+	sites := sitegen.Grid(40 * 40) // spacing 10 m, 0..390
 	// A sub-rectangle well inside the lattice.
 	reg := cvRegion(t, [][]orb.Point{cvRect(103.3, 101.7, 297.1, 288.9)})
 	fc := cvLayout(t, sites, reg).FullCover()
@@ -42,7 +43,7 @@ func TestFullCoverSquareLattice(t *testing.T) {
 
 func TestFullCoverTriangularLattice(t *testing.T) {
 	const s = 10.0
-	sites := triangularLattice(50, 44, s)
+	sites := sitegen.TriangularLattice(50, 44, s)
 	reg := cvRegion(t, [][]orb.Point{cvRect(101.1, 98.2, 301.7, 303.4)})
 	l := cvLayout(t, sites, reg)
 	fc := l.FullCover()

@@ -13,6 +13,7 @@ import (
 
 	"github.com/paulmach/orb"
 	"github.com/sitecover/sitecover/planar"
+	"github.com/sitecover/sitecover/planar/sitegen"
 )
 
 func BenchmarkPersistence(b *testing.B) {
@@ -20,9 +21,9 @@ func BenchmarkPersistence(b *testing.B) {
 		name string
 		gen  func(n int) []orb.Point
 	}{
-		{"uniform", func(n int) []orb.Point { return uniformSites(n, 1) }},
-		{"clustered", func(n int) []orb.Point { return clusteredSites(n, 1) }},
-		{"grid", gridSites},
+		{"uniform", func(n int) []orb.Point { return sitegen.Uniform(n, 1) }},
+		{"clustered", func(n int) []orb.Point { return sitegen.Clustered(n, 1) }},
+		{"grid", sitegen.Grid},
 	}
 	for _, g := range gens {
 		for _, n := range []int{10_000, 100_000, 1_000_000} {

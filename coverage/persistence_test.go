@@ -38,6 +38,7 @@ import (
 
 	"github.com/paulmach/orb"
 	"github.com/sitecover/sitecover/planar"
+	"github.com/sitecover/sitecover/planar/sitegen"
 )
 
 // persistRefDoc is the layout of testdata/persistence_ref.json.
@@ -448,7 +449,7 @@ func TestPersistenceGrids(t *testing.T) {
 	const s = 10.0
 	t.Run("grid", func(t *testing.T) {
 		k := 25
-		_, _, p := persistBuild(t, gridSites(k*k))
+		_, _, p := persistBuild(t, sitegen.Grid(k*k))
 		if len(p.Merges) != k*k-1 || len(p.Holes) != (k-1)*(k-1) {
 			t.Fatalf("%d merges, %d holes; want %d, %d", len(p.Merges), len(p.Holes), k*k-1, (k-1)*(k-1))
 		}
@@ -471,7 +472,7 @@ func TestPersistenceGrids(t *testing.T) {
 	})
 	t.Run("triangular lattice", func(t *testing.T) {
 		rows, cols := 20, 24
-		_, _, p := persistBuild(t, triangularLattice(rows, cols, s))
+		_, _, p := persistBuild(t, sitegen.TriangularLattice(rows, cols, s))
 		// A rows×cols lattice with alternate rows offset has
 		// 2(cols−1)(rows−1) triangles, all equilateral.
 		wantHoles := 2 * (cols - 1) * (rows - 1)
@@ -633,10 +634,10 @@ func (b *persistBrute) betti(r float64) (int, int) {
 func TestPersistenceBettiBruteForce(t *testing.T) {
 	var layouts [][]orb.Point
 	for seed := uint64(1); seed <= 12; seed++ {
-		layouts = append(layouts, uniformSites(10+int(seed)*3, seed))
+		layouts = append(layouts, sitegen.Uniform(10+int(seed)*3, seed))
 	}
 	for seed := uint64(1); seed <= 4; seed++ {
-		layouts = append(layouts, clusteredSites(40, seed))
+		layouts = append(layouts, sitegen.Clustered(40, seed))
 	}
 	for li, pts := range layouts {
 		_, _, p := persistBuild(t, pts)
@@ -688,10 +689,10 @@ func TestPersistenceBettiBruteForce(t *testing.T) {
 // V − 1, and the run is deterministic and independent of input order.
 func TestPersistenceStructure(t *testing.T) {
 	layouts := map[string][]orb.Point{
-		"uniform":   uniformSites(5000, 7),
-		"clustered": clusteredSites(5000, 7),
-		"grid":      gridSites(4900),
-		"lattice":   triangularLattice(60, 70, 10),
+		"uniform":   sitegen.Uniform(5000, 7),
+		"clustered": sitegen.Clustered(5000, 7),
+		"grid":      sitegen.Grid(4900),
+		"lattice":   sitegen.TriangularLattice(60, 70, 10),
 	}
 	for _, name := range []string{"uniform", "clustered", "grid", "lattice"} {
 		pts := layouts[name]
@@ -747,7 +748,7 @@ func TestPersistenceStructure(t *testing.T) {
 // TestPersistenceWorkers checks that the result does not depend on the
 // number of processors (the parallel loops split work by index only).
 func TestPersistenceWorkers(t *testing.T) {
-	pts := uniformSites(40000, 9)
+	pts := sitegen.Uniform(40000, 9)
 	tri, err := planar.Triangulate(pts)
 	if err != nil {
 		t.Fatal(err)
@@ -784,10 +785,10 @@ func TestPersistenceNilAndMismatch(t *testing.T) {
 	if b0, b1 := (*Persistence)(nil).Betti(1); b0 != 0 || b1 != 0 {
 		t.Errorf("nil Betti = %d, %d", b0, b1)
 	}
-	pts := uniformSites(200, 3)
+	pts := sitegen.Uniform(200, 3)
 	tri, _, p := persistBuild(t, pts)
 	// A filtration of another triangulation is replaced, not trusted.
-	other, _ := planar.Triangulate(uniformSites(50, 4))
+	other, _ := planar.Triangulate(sitegen.Uniform(50, 4))
 	if q := ComputePersistence(tri, NewFiltration(other)); !reflect.DeepEqual(p, q) {
 		t.Error("mismatched filtration changed the result")
 	}

@@ -16,16 +16,17 @@ import (
 
 	"github.com/paulmach/orb"
 	"github.com/sitecover/sitecover/planar"
+	"github.com/sitecover/sitecover/planar/sitegen"
 )
 
 func TestPlanAssignBruteForce(t *testing.T) {
 	rng := rand.New(rand.NewPCG(21, 22))
 	reg := planTestRegion(t, 100)
 	scenes := map[string][]orb.Point{
-		"uniform": uniformSites(100, 31),
-		"grid":    gridSites(100), // many exact ties between devices
+		"uniform": sitegen.Uniform(100, 31),
+		"grid":    sitegen.Grid(100), // many exact ties between devices
 	}
-	dup := uniformSites(50, 32)
+	dup := sitegen.Uniform(50, 32)
 	scenes["duplicates"] = append(dup, dup[0], dup[9], dup[9])
 	for name, sites := range scenes {
 		l, err := NewLayout(sites, reg)
@@ -83,7 +84,7 @@ func TestPlanAssignBruteForce(t *testing.T) {
 
 func TestPlanAssignErrors(t *testing.T) {
 	reg := planTestRegion(t, 100)
-	l, err := NewLayout(uniformSites(20, 1), reg)
+	l, err := NewLayout(sitegen.Uniform(20, 1), reg)
 	if err != nil {
 		t.Fatal(err)
 	}

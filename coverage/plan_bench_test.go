@@ -17,6 +17,7 @@ import (
 
 	"github.com/paulmach/orb"
 	"github.com/sitecover/sitecover/planar"
+	"github.com/sitecover/sitecover/planar/sitegen"
 )
 
 // planBenchLayout builds a layout of pts inside the square enclosing them
@@ -43,9 +44,9 @@ func planBenchScenes(n int) []struct {
 		name string
 		gen  func() []orb.Point
 	}{
-		{fmt.Sprintf("uniform-%d", n), func() []orb.Point { return uniformSites(n, 1) }},
-		{fmt.Sprintf("clustered-%d", n), func() []orb.Point { return clusteredSites(n, 2) }},
-		{fmt.Sprintf("grid-%d", n), func() []orb.Point { return gridSites(n) }},
+		{fmt.Sprintf("uniform-%d", n), func() []orb.Point { return sitegen.Uniform(n, 1) }},
+		{fmt.Sprintf("clustered-%d", n), func() []orb.Point { return sitegen.Clustered(n, 2) }},
+		{fmt.Sprintf("grid-%d", n), func() []orb.Point { return sitegen.Grid(n) }},
 	}
 }
 
@@ -69,7 +70,7 @@ func BenchmarkAssign(b *testing.B) {
 	const np = 1000000
 	for _, n := range []int{10000, 100000} {
 		b.Run(fmt.Sprintf("uniform-%d/points-%d", n, np), func(b *testing.B) {
-			l := planBenchLayout(b, uniformSites(n, 3))
+			l := planBenchLayout(b, sitegen.Uniform(n, 3))
 			side := math.Sqrt(float64(n)) * 10
 			rng := rand.New(rand.NewPCG(5, 6))
 			pts := make([]orb.Point, np)

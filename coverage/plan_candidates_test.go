@@ -19,6 +19,7 @@ import (
 	"testing"
 
 	"github.com/paulmach/orb"
+	"github.com/sitecover/sitecover/planar/sitegen"
 )
 
 // planSubsets calls fn with every k-subset of {0..n-1}.
@@ -43,7 +44,7 @@ func TestPlanChooseVsExhaustive(t *testing.T) {
 	rng := rand.New(rand.NewPCG(51, 52))
 	worst := math.Inf(1)
 	for trial := 0; trial < 12; trial++ {
-		existing := uniformSites(3+rng.IntN(4), uint64(100+trial))
+		existing := sitegen.Uniform(3+rng.IntN(4), uint64(100+trial))
 		l, err := NewLayout(existing, reg)
 		if err != nil {
 			t.Fatal(err)

@@ -18,6 +18,7 @@ import (
 
 	"github.com/paulmach/orb"
 	"github.com/sitecover/sitecover/planar"
+	"github.com/sitecover/sitecover/planar/sitegen"
 )
 
 // planSquareLoss is the area newly uncovered at range r when one interior
@@ -102,9 +103,9 @@ func TestPlanFailuresLatticeClosedForm(t *testing.T) {
 		rmin   float64
 		loss   func(s, r float64) float64
 	}
-	tri := triangularLattice(9, 10, s)
+	tri := sitegen.TriangularLattice(9, 10, s)
 	lats := []lattice{
-		{"square", gridSites(100), orb.Ring{{-5, -5}, {95, -5}, {95, 95}, {-5, 95}, {-5, -5}},
+		{"square", sitegen.Grid(100), orb.Ring{{-5, -5}, {95, -5}, {95, 95}, {-5, 95}, {-5, -5}},
 			orb.Point{40, 50}, s / math.Sqrt2, planSquareLoss},
 		{"triangular", tri, orb.Ring{{-4, -4}, {99, -4}, {99, 73}, {-4, 73}, {-4, -4}},
 			tri[4*10+4], s / math.Sqrt(3), planTriangularLoss},
@@ -161,13 +162,13 @@ func TestPlanFailuresLatticeClosedForm(t *testing.T) {
 func planFailureScenes(t *testing.T) map[string]*Layout {
 	reg := planTestRegion(t, 100)
 	scenes := map[string][]orb.Point{
-		"uniform":   uniformSites(100, 5),
-		"clustered": clusteredSites(100, 6),
-		"grid":      gridSites(100),
+		"uniform":   sitegen.Uniform(100, 5),
+		"clustered": sitegen.Clustered(100, 6),
+		"grid":      sitegen.Grid(100),
 		"fence":     {{5, 50}, {25, 50}, {45, 50}, {65, 50}, {85, 50}},
 		"two":       {{30, 30}, {70, 80}},
 	}
-	dup := uniformSites(60, 8)
+	dup := sitegen.Uniform(60, 8)
 	dup = append(dup, dup[3], dup[17], dup[17], orb.Point{-30, 50}, orb.Point{130, 130})
 	scenes["duplicates-outside"] = dup
 	// A device in the exclusion zone [30,50]×[50,70] whose cell holds the
@@ -348,7 +349,7 @@ func TestPlanFailuresDegenerate(t *testing.T) {
 func TestPlanFailuresLargeRandom(t *testing.T) {
 	// Many devices: totals stay consistent (Σ added ≥ 0, survive ≥ full
 	// cover) and a random sample matches the rebuild.
-	pts := clusteredSites(3000, 9)
+	pts := sitegen.Clustered(3000, 9)
 	side := math.Sqrt(3000) * 10
 	reg, err := planar.NewRegion(orb.MultiPolygon{{{{0, 0}, {side, 0}, {side, side}, {0, side}, {0, 0}}}})
 	if err != nil {

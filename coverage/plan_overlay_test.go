@@ -17,6 +17,7 @@ import (
 
 	"github.com/paulmach/orb"
 	"github.com/sitecover/sitecover/planar"
+	"github.com/sitecover/sitecover/planar/sitegen"
 )
 
 // planTestRegion returns the square [0, side]² with a square exclusion zone
@@ -49,7 +50,7 @@ func TestPlanOverlayMatchesRebuild(t *testing.T) {
 	const side = 150.0
 	// Many sites (cells cut the exclusion zone), plus a few outside the
 	// area.
-	base := uniformSites(225, 3) // square of side 150
+	base := sitegen.Uniform(225, 3) // square of side 150
 	base = append(base, orb.Point{-20, 40}, orb.Point{side + 5, side + 5})
 	planOverlayScene(t, "uniform", planTestRegion(t, side), base, side, []float64{6, 11})
 	// Few sites: the exclusion zone lies inside one cell, and pieces of an

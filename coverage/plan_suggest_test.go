@@ -19,6 +19,7 @@ import (
 
 	"github.com/paulmach/orb"
 	"github.com/sitecover/sitecover/planar"
+	"github.com/sitecover/sitecover/planar/sitegen"
 )
 
 func planRectRegion(t testing.TB, x0, y0, x1, y1 float64, holes ...orb.Ring) *planar.Region {
@@ -44,7 +45,7 @@ func planWithout(pts []orb.Point, drop ...orb.Point) []orb.Point {
 
 func TestPlanSuggestRestoresLattice(t *testing.T) {
 	const s = 10.0
-	tri := triangularLattice(11, 12, s)
+	tri := sitegen.TriangularLattice(11, 12, s)
 	cases := []struct {
 		name    string
 		sites   []orb.Point
@@ -52,8 +53,8 @@ func TestPlanSuggestRestoresLattice(t *testing.T) {
 		missing []orb.Point
 		cover   float64 // covering radius of the intact lattice (Kershner 1939)
 	}{
-		{"square-1", gridSites(100), planRectRegion(t, -5, -5, 95, 95), []orb.Point{{40, 50}}, s / math.Sqrt2},
-		{"square-2", gridSites(144), planRectRegion(t, -5, -5, 115, 115), []orb.Point{{20, 30}, {80, 90}}, s / math.Sqrt2},
+		{"square-1", sitegen.Grid(100), planRectRegion(t, -5, -5, 95, 95), []orb.Point{{40, 50}}, s / math.Sqrt2},
+		{"square-2", sitegen.Grid(144), planRectRegion(t, -5, -5, 115, 115), []orb.Point{{20, 30}, {80, 90}}, s / math.Sqrt2},
 		{"triangular-1", tri, planRectRegion(t, 2.5, 0, 107.5, 10*s*math.Sqrt(3)/2), []orb.Point{tri[5*12+5]}, s / math.Sqrt(3)},
 		{"triangular-2", tri, planRectRegion(t, 2.5, 0, 107.5, 10*s*math.Sqrt(3)/2), []orb.Point{tri[3*12+3], tri[7*12+8]}, s / math.Sqrt(3)},
 	}
@@ -129,8 +130,8 @@ func TestPlanSuggestStepsMatchRebuild(t *testing.T) {
 	reg := planTestRegion(t, 100)
 	hole := orb.Ring{{30, 50}, {30, 70}, {50, 70}, {50, 50}, {30, 50}}
 	for name, sites := range map[string][]orb.Point{
-		"uniform":   uniformSites(30, 41),
-		"clustered": clusteredSites(80, 42),
+		"uniform":   sitegen.Uniform(30, 41),
+		"clustered": sitegen.Clustered(80, 42),
 		"corner":    {{2, 2}, {5, 3}},
 	} {
 		t.Run(name, func(t *testing.T) {
@@ -210,7 +211,7 @@ func TestPlanFewestLattice(t *testing.T) {
 	// the missing spot, to reach its covering radius s/√2 (Kershner 1939).
 	const s = 10.0
 	reg := planRectRegion(t, -5, -5, 95, 95)
-	l, err := NewLayout(planWithout(gridSites(100), orb.Point{40, 50}), reg)
+	l, err := NewLayout(planWithout(sitegen.Grid(100), orb.Point{40, 50}), reg)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -269,7 +270,7 @@ func TestPlanFewestFromOneDevice(t *testing.T) {
 
 func TestPlanSuggestErrors(t *testing.T) {
 	reg := planTestRegion(t, 100)
-	l, err := NewLayout(uniformSites(10, 1), reg)
+	l, err := NewLayout(sitegen.Uniform(10, 1), reg)
 	if err != nil {
 		t.Fatal(err)
 	}

@@ -12,6 +12,7 @@ import (
 	"testing"
 
 	"github.com/paulmach/orb"
+	"github.com/sitecover/sitecover/planar/sitegen"
 )
 
 var clipBenchCache sync.Map // name -> *Triangulation
@@ -64,13 +65,13 @@ func BenchmarkClipCells(b *testing.B) {
 		f    func(n int) []orb.Point
 	}
 	gens := []gen{
-		{"uniform", 10000, func(n int) []orb.Point { return uniformPoints(n, 1) }},
-		{"uniform", 100000, func(n int) []orb.Point { return uniformPoints(n, 1) }},
-		{"uniform", 1000000, func(n int) []orb.Point { return uniformPoints(n, 1) }},
-		{"grid", 100000, gridPoints},
-		{"grid", 1000000, gridPoints},
-		{"clustered", 100000, func(n int) []orb.Point { return clusteredPoints(n, 1) }},
-		{"clustered", 1000000, func(n int) []orb.Point { return clusteredPoints(n, 1) }},
+		{"uniform", 10000, func(n int) []orb.Point { return sitegen.Uniform(n, 1) }},
+		{"uniform", 100000, func(n int) []orb.Point { return sitegen.Uniform(n, 1) }},
+		{"uniform", 1000000, func(n int) []orb.Point { return sitegen.Uniform(n, 1) }},
+		{"grid", 100000, sitegen.Grid},
+		{"grid", 1000000, sitegen.Grid},
+		{"clustered", 100000, func(n int) []orb.Point { return sitegen.Clustered(n, 1) }},
+		{"clustered", 1000000, func(n int) []orb.Point { return sitegen.Clustered(n, 1) }},
 	}
 	for _, g := range gens {
 		name := fmt.Sprintf("%s-%d", g.name, g.n)

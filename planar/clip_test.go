@@ -18,6 +18,7 @@ import (
 	"time"
 
 	"github.com/paulmach/orb"
+	"github.com/sitecover/sitecover/planar/sitegen"
 )
 
 // clipRef is the JSON written by testdata/ref_cells.py.
@@ -349,11 +350,11 @@ func TestClipCellsPartition(t *testing.T) {
 		name string
 		pts  []orb.Point
 	}{
-		{"uniform-1000", uniformPoints(1000, 11)},
-		{"uniform-50", uniformPoints(50, 12)},
-		{"grid-900", gridPoints(900)},
-		{"grid-400", gridPoints(400)},
-		{"clustered-1500", clusteredPoints(1500, 13)},
+		{"uniform-1000", sitegen.Uniform(1000, 11)},
+		{"uniform-50", sitegen.Uniform(50, 12)},
+		{"grid-900", sitegen.Grid(900)},
+		{"grid-400", sitegen.Grid(400)},
+		{"clustered-1500", sitegen.Clustered(1500, 13)},
 		{"one", []orb.Point{{37, 41}}},
 		{"one-outside", []orb.Point{{-1000, 5}}},
 		{"two", []orb.Point{{37, 41}, {201, 12}}},
@@ -396,7 +397,7 @@ func TestClipCellsPartition(t *testing.T) {
 // TestClipCellsDeterministic checks that the output does not depend on the
 // number of goroutines.
 func TestClipCellsDeterministic(t *testing.T) {
-	pts := uniformPoints(30000, 5)
+	pts := sitegen.Uniform(30000, 5)
 	tri, err := Triangulate(pts)
 	if err != nil {
 		t.Fatal(err)

@@ -11,15 +11,16 @@ import (
 	"testing"
 
 	"github.com/paulmach/orb"
+	"github.com/sitecover/sitecover/planar/sitegen"
 )
 
 var benchDistributions = []struct {
 	name string
 	gen  func(n int) []orb.Point
 }{
-	{"uniform", func(n int) []orb.Point { return uniformPoints(n, 1) }},
-	{"grid", gridPoints},
-	{"clustered", func(n int) []orb.Point { return clusteredPoints(n, 1) }},
+	{"uniform", func(n int) []orb.Point { return sitegen.Uniform(n, 1) }},
+	{"grid", sitegen.Grid},
+	{"clustered", func(n int) []orb.Point { return sitegen.Clustered(n, 1) }},
 }
 
 func BenchmarkTriangulate(b *testing.B) {
@@ -50,7 +51,7 @@ func BenchmarkNearestMany(b *testing.B) {
 	for _, order := range []string{"random", "sorted"} {
 		for _, n := range []int{10000, 1000000} {
 			b.Run(fmt.Sprintf("%s-%d", order, n), func(b *testing.B) {
-				tr, err := Triangulate(uniformPoints(n, 1))
+				tr, err := Triangulate(sitegen.Uniform(n, 1))
 				if err != nil {
 					b.Fatal(err)
 				}
@@ -67,11 +68,11 @@ func BenchmarkNearestMany(b *testing.B) {
 	}
 }
 
-// benchQueries returns n query points in the square of uniformPoints(n, ·),
+// benchQueries returns n query points in the square of sitegen.Uniform(n, ·),
 // either in random order or row by row (spatially sorted).
 func benchQueries(n int, order string) []float64 {
 	r := rand.New(rand.NewPCG(7, 7))
-	pts := uniformPoints(n, 99)
+	pts := sitegen.Uniform(n, 99)
 	if order == "sorted" {
 		k := 1
 		for k*k < n {

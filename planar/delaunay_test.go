@@ -29,6 +29,7 @@ import (
 	"testing"
 
 	"github.com/paulmach/orb"
+	"github.com/sitecover/sitecover/planar/sitegen"
 )
 
 type refDelaunay struct {
@@ -146,20 +147,6 @@ func checkTriangulation(t *testing.T, name string, tr *Triangulation) {
 	}
 }
 
-func triangularLattice(rows, cols int, s float64) []orb.Point {
-	var pts []orb.Point
-	for j := 0; j < rows; j++ {
-		off := 0.0
-		if j%2 == 1 {
-			off = s / 2
-		}
-		for i := 0; i < cols; i++ {
-			pts = append(pts, orb.Point{float64(i)*s + off, float64(j) * s * math.Sqrt(3) / 2})
-		}
-	}
-	return pts
-}
-
 func ring(n int, r, cx, cy float64) []orb.Point {
 	pts := make([]orb.Point, n)
 	for i := range pts {
@@ -204,7 +191,7 @@ func degenerateCases() []struct {
 			rect = append(rect, orb.Point{float64(i) * 2.5, float64(j) * 2.5})
 		}
 	}
-	nearDup := uniformPoints(300, 5)
+	nearDup := sitegen.Uniform(300, 5)
 	for i := 0; i < 100; i++ {
 		p := nearDup[i]
 		nearDup = append(nearDup, orb.Point{p[0] + 1e-12, p[1]}, orb.Point{p[0], p[1] - 1e-12})
@@ -216,15 +203,15 @@ func degenerateCases() []struct {
 		name string
 		pts  []orb.Point
 	}{
-		{"grid-4", gridPoints(4)},
-		{"grid-9", gridPoints(9)},
-		{"grid-100", gridPoints(100)},
-		{"grid-2500", gridPoints(2500)},
-		{"grid-2500-shuffled", shuffled(gridPoints(2500), 1)},
+		{"grid-4", sitegen.Grid(4)},
+		{"grid-9", sitegen.Grid(9)},
+		{"grid-100", sitegen.Grid(100)},
+		{"grid-2500", sitegen.Grid(2500)},
+		{"grid-2500-shuffled", shuffled(sitegen.Grid(2500), 1)},
 		{"grid-rect-31x7", rect},
-		{"grid-offset-5e6", offset(gridPoints(2500), 5e6, 5e6)},
-		{"lattice-30x30", triangularLattice(30, 30, 10)},
-		{"lattice-offset", offset(triangularLattice(20, 40, 10), 5e6, -5e6)},
+		{"grid-offset-5e6", offset(sitegen.Grid(2500), 5e6, 5e6)},
+		{"lattice-30x30", sitegen.TriangularLattice(30, 30, 10)},
+		{"lattice-offset", offset(sitegen.TriangularLattice(20, 40, 10), 5e6, -5e6)},
 		{"ring-8", ring(8, 10, 0, 0)},
 		{"ring-1000", ring(1000, 500, 0, 0)},
 		{"ring-offset", ring(500, 300, 5e6, 5e6)},
@@ -232,8 +219,8 @@ func degenerateCases() []struct {
 		{"ring-exact-12", exactRing()},
 		{"ring-exact-centre", withCentre},
 		{"near-duplicates-1e-12", nearDup},
-		{"uniform-offset-5e6", offset(uniformPoints(3000, 8), 5e6, 5e6)},
-		{"clustered-2000", clusteredPoints(2000, 4)},
+		{"uniform-offset-5e6", offset(sitegen.Uniform(3000, 8), 5e6, 5e6)},
+		{"clustered-2000", sitegen.Clustered(2000, 4)},
 	}
 }
 
@@ -262,7 +249,7 @@ func TestTriangulateGridCounts(t *testing.T) {
 	// ones included) and, by Euler's formula, 2(k−1)² triangles: two per
 	// unit square (common practice).
 	for _, k := range []int{2, 3, 5, 10, 37} {
-		tr, err := Triangulate(gridPoints(k * k))
+		tr, err := Triangulate(sitegen.Grid(k * k))
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -275,15 +262,15 @@ func TestTriangulateGridCounts(t *testing.T) {
 func TestTriangulateTranslationInvariant(t *testing.T) {
 	// Offsetting a grid by 5e6 m is exact in float64, and exact predicates
 	// are translation invariant, so the triangulation must be identical.
-	a, _ := Triangulate(gridPoints(900))
-	b, _ := Triangulate(offset(gridPoints(900), 5e6, 5e6))
+	a, _ := Triangulate(sitegen.Grid(900))
+	b, _ := Triangulate(offset(sitegen.Grid(900), 5e6, 5e6))
 	if !slices.Equal(a.Triangles, b.Triangles) || !slices.Equal(a.Hull, b.Hull) {
 		t.Error("grid offset by 5e6 m triangulates differently")
 	}
 }
 
 func TestTriangulateDuplicates(t *testing.T) {
-	base := uniformPoints(500, 11)
+	base := sitegen.Uniform(500, 11)
 	pts := slices.Clone(base)
 	r := rand.New(rand.NewPCG(12, 12))
 	for k := 0; k < 300; k++ {
@@ -530,11 +517,11 @@ func TestLocateNearestBruteForce(t *testing.T) {
 		name string
 		pts  []orb.Point
 	}{
-		{"uniform-2000", uniformPoints(2000, 21)},
-		{"grid-900", gridPoints(900)},
-		{"clustered-1500", clusteredPoints(1500, 22)},
+		{"uniform-2000", sitegen.Uniform(2000, 21)},
+		{"grid-900", sitegen.Grid(900)},
+		{"clustered-1500", sitegen.Clustered(1500, 22)},
 		{"ring-exact", exactRing()},
-		{"lattice-offset", offset(triangularLattice(15, 15, 10), 5e6, 5e6)},
+		{"lattice-offset", offset(sitegen.TriangularLattice(15, 15, 10), 5e6, 5e6)},
 		{"line", []orb.Point{{0, 0}, {10, 5}, {4, 2}, {-6, -3}, {2, 1}}},
 		{"two", []orb.Point{{0, 0}, {1, 0}}},
 		{"one", []orb.Point{{3, 3}}},
@@ -597,14 +584,14 @@ func TestLocateNearestBruteForce(t *testing.T) {
 	if empty.Nearest(0, 0, -1) != -1 || empty.Locate(0, 0, -1) != -1 {
 		t.Error("empty triangulation answers a query")
 	}
-	tr := mustTriangulate(t, uniformPoints(50, 1))
+	tr := mustTriangulate(t, sitegen.Uniform(50, 1))
 	if tr.Nearest(math.NaN(), 0, -1) != -1 || tr.Locate(0, math.Inf(1), -1) != -1 {
 		t.Error("non-finite query answered")
 	}
 }
 
 func TestNeighborsBruteForce(t *testing.T) {
-	for _, pts := range [][]orb.Point{uniformPoints(700, 31), gridPoints(400), exactRing()} {
+	for _, pts := range [][]orb.Point{sitegen.Uniform(700, 31), sitegen.Grid(400), exactRing()} {
 		tr := mustTriangulate(t, pts)
 		// Reference: brute force, every pair of vertices of a triangle.
 		adj := make([]map[int32]bool, tr.NumVertices())
@@ -657,7 +644,7 @@ func TestNeighborsBruteForce(t *testing.T) {
 }
 
 func TestCircumcenters(t *testing.T) {
-	tr := mustTriangulate(t, offset(uniformPoints(1000, 41), 5e6, 5e6))
+	tr := mustTriangulate(t, offset(sitegen.Uniform(1000, 41), 5e6, 5e6))
 	cc := tr.Circumcenters()
 	if len(cc) != 2*tr.NumTriangles() {
 		t.Fatalf("%d values for %d triangles", len(cc), tr.NumTriangles())
@@ -780,18 +767,18 @@ func TestCmpDistExact(t *testing.T) {
 func TestTriangulateLargeSplit(t *testing.T) {
 	// From parallelMin points on, the last rounds are inserted by two
 	// workers; the result must not depend on how many CPUs run them.
-	dup := uniformPoints(parallelMin, 51)
+	dup := sitegen.Uniform(parallelMin, 51)
 	dup = append(dup, dup[:parallelMin/3]...)
 	dup = shuffled(dup, 52)
 	cases := []struct {
 		name string
 		pts  []orb.Point
 	}{
-		{"uniform", uniformPoints(parallelMin+1000, 53)},
-		{"grid", gridPoints(2 * parallelMin)},
-		{"clustered", clusteredPoints(parallelMin+5000, 54)},
+		{"uniform", sitegen.Uniform(parallelMin+1000, 53)},
+		{"grid", sitegen.Grid(2 * parallelMin)},
+		{"clustered", sitegen.Clustered(parallelMin+5000, 54)},
 		{"duplicates", dup},
-		{"lattice-offset", offset(triangularLattice(200, 200, 10), 5e6, 5e6)},
+		{"lattice-offset", offset(sitegen.TriangularLattice(200, 200, 10), 5e6, 5e6)},
 	}
 	for _, c := range cases {
 		tr := mustTriangulate(t, c.pts)

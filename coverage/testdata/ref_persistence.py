@@ -66,7 +66,7 @@ def grid(k, spacing=10.0):
 
 
 def tri_lattice(rows, cols, s=10.0):
-    # Same formula as triangularLattice in coverage/testpoints_test.go.
+    # Same formula as TriangularLattice in planar/sitegen/sitegen.go.
     h = s * math.sqrt(3) / 2
     pts = []
     for j in range(rows):

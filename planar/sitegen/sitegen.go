@@ -1,21 +1,22 @@
-// Shared test-site generators for the coverage package tests and benchmarks.
+// Package sitegen generates reproducible device layouts for tests and
+// benchmarks across the module.
 //
 // No geometry is computed here: the generators produce reproducible site
 // sets (math/rand/v2 PCG seeded by the caller) of known statistical shape:
-//   - uniformSites: n sites uniform in a square of side sqrt(n)*10 m, so the
+//   - Uniform: n sites uniform in a square of side sqrt(n)*10 m, so the
 //     mean spacing is about 10 m whatever n is;
-//   - gridSites: a square grid of spacing 10 m (every unit square has four
+//   - Grid: a square grid of spacing 10 m (every unit square has four
 //     cocircular corners: equal alpha values and Delaunay ties everywhere);
-//   - clusteredSites: isotropic gaussian clusters of varied size and spread,
+//   - Clustered: isotropic gaussian clusters of varied size and spread,
 //     the shape of real device layouts (dense buildings, sparse fields);
-//   - triangularLattice: rows x cols sites of a triangular (hexagonal
+//   - TriangularLattice: rows x cols sites of a triangular (hexagonal
 //     packing) lattice of spacing s, the thinnest covering of the plane by
 //     equal disks (Kershner, Amer. J. Math. 61, 1939).
+//
 // Grid coordinates are exact multiples of 10 m; the triangular lattice has
 // x exact and y = row*s*sqrt(3)/2 rounded once; the random sets are
-// arbitrary float64 values.
-
-package coverage
+// arbitrary float64 values. Each generator is O(n).
+package sitegen
 
 import (
 	"math"
@@ -24,9 +25,9 @@ import (
 	"github.com/paulmach/orb"
 )
 
-// uniformSites returns n sites uniform in the square [0, sqrt(n)*10)^2
+// Uniform returns n sites uniform in the square [0, sqrt(n)*10)^2
 // metres, reproducible from seed.
-func uniformSites(n int, seed uint64) []orb.Point {
+func Uniform(n int, seed uint64) []orb.Point {
 	r := rand.New(rand.NewPCG(seed, 0xc0fe0001))
 	side := math.Sqrt(float64(n)) * 10
 	pts := make([]orb.Point, n)
@@ -36,10 +37,10 @@ func uniformSites(n int, seed uint64) []orb.Point {
 	return pts
 }
 
-// gridSites returns a square grid of spacing 10 m with about n sites (k*k
+// Grid returns a square grid of spacing 10 m with about n sites (k*k
 // sites, k = round(sqrt(n)), at least 1 when n > 0), in row order starting
 // at the origin.
-func gridSites(n int) []orb.Point {
+func Grid(n int) []orb.Point {
 	if n <= 0 {
 		return nil
 	}
@@ -56,11 +57,11 @@ func gridSites(n int) []orb.Point {
 	return pts
 }
 
-// clusteredSites returns n sites drawn from gaussian clusters of varied size
+// Clustered returns n sites drawn from gaussian clusters of varied size
 // and spread inside a square of side sqrt(n)*10 m, reproducible from seed.
 // Cluster weights vary over two orders of magnitude and standard deviations
 // from 2 m to a tenth of the square's side.
-func clusteredSites(n int, seed uint64) []orb.Point {
+func Clustered(n int, seed uint64) []orb.Point {
 	r := rand.New(rand.NewPCG(seed, 0xc0fe0002))
 	side := math.Sqrt(float64(n)) * 10
 	nc := 1 + int(math.Sqrt(float64(n))/4)
@@ -99,11 +100,11 @@ func clusteredSites(n int, seed uint64) []orb.Point {
 	return pts
 }
 
-// triangularLattice returns rows*cols sites of a triangular lattice of
+// TriangularLattice returns rows*cols sites of a triangular lattice of
 // spacing s (metres) in row order: site (i, j) is at
 // (i*s + (j mod 2)*s/2, j*s*sqrt(3)/2). Every lattice triangle is
 // equilateral with circumradius s/sqrt(3).
-func triangularLattice(rows, cols int, s float64) []orb.Point {
+func TriangularLattice(rows, cols int, s float64) []orb.Point {
 	if rows <= 0 || cols <= 0 {
 		return nil
 	}
