@@ -241,6 +241,7 @@ type rbuilder struct {
 	nt      int32   // half-edge slots in use
 	free    []int32 // first half-edges of free slots
 	hidden  []bool  // per internal id
+	order   []int32 // input index of each internal id
 	inf     int32
 	last    int32 // a half-edge of a live finite triangle (walk start)
 	stack   []int32
@@ -263,6 +264,7 @@ func regularIncremental(pts []orb.Point, w []float64, box bbox, i0, i1, i2 int32
 		ps:     make([]wPt, n+1),
 		hidden: make([]bool, n+1),
 		inf:    int32(n),
+		order:  order,
 		stack:  make([]int32, 0, 64),
 		rng:    0x9e3779b97f4a7c15,
 	}
@@ -429,7 +431,7 @@ func (b *rbuilder) insert(i int32) {
 	case locVertex:
 		v := tri[e]
 		q := b.ps[v]
-		if p.w > q.w || (p.w == q.w && i < v) {
+		if p.w > q.w || (p.w == q.w && b.order[i] < b.order[v]) {
 			b.restart = true // never for inputs without such duplicates
 			return
 		}
