@@ -97,6 +97,15 @@ const (
 // weights it has the sign of InCircle. The sign is exact for all finite
 // inputs (see the file comment); NaN or infinite inputs give NaN.
 func PowerTest(ax, ay, aw, bx, by, bw, cx, cy, cw, dx, dy, dw float64) float64 {
+	if det, ok := powerStageA(ax, ay, aw, bx, by, bw, cx, cy, cw, dx, dy, dw); ok {
+		return det
+	}
+	return powerSlow(ax, ay, aw, bx, by, bw, cx, cy, cw, dx, dy, dw)
+}
+
+// powerStageA evaluates the translated determinant in float64 and reports
+// whether its sign is certain (stage A, bound powErrBoundA).
+func powerStageA(ax, ay, aw, bx, by, bw, cx, cy, cw, dx, dy, dw float64) (float64, bool) {
 	adx, ady := ax-dx, ay-dy
 	bdx, bdy := bx-dx, by-dy
 	cdx, cdy := cx-dx, cy-dy
@@ -114,10 +123,8 @@ func PowerTest(ax, ay, aw, bx, by, bw, cx, cy, cw, dx, dy, dw float64) float64 {
 	permanent := float64((math.Abs(bdxcdy)+math.Abs(cdxbdy))*al) +
 		float64((math.Abs(cdxady)+math.Abs(adxcdy))*bl) +
 		float64((math.Abs(adxbdy)+math.Abs(bdxady))*cl)
-	if errbound := powErrBoundA * permanent; (det > errbound || -det > errbound) && permanent >= incircleFloor && al+bl+cl <= incircleLiftCeil {
-		return det
-	}
-	return powerSlow(ax, ay, aw, bx, by, bw, cx, cy, cw, dx, dy, dw)
+	errbound := powErrBoundA * permanent
+	return det, (det > errbound || -det > errbound) && permanent >= incircleFloor && al+bl+cl <= incircleLiftCeil
 }
 
 // powerSlow decides the cases the stage-A filter left open.
@@ -139,44 +146,43 @@ func powerSlow(ax, ay, aw, bx, by, bw, cx, cy, cw, dx, dy, dw float64) float64 {
 //
 //	za·O(b,c,d) − zb·O(c,d,a) + zc·O(d,a,b) − zd·O(a,b,c),
 //
-// z = x² + y² − w, on the untranslated coordinates (inCircleExact with the
-// weight terms).
+// z = x² + y² − w, on the untranslated coordinates (Shewchuk's
+// incircleexact with the weight terms; each cofactor is expanded on its
+// own).
 func powerExact(ax, ay, aw, bx, by, bw, cx, cy, cw, dx, dy, dw float64) float64 {
-	var ab, bc, cd, da, ac, bd [4]float64
-	productDiff(ab[:], ax, by, bx, ay)
-	productDiff(bc[:], bx, cy, cx, by)
-	productDiff(cd[:], cx, dy, dx, cy)
-	productDiff(da[:], dx, ay, ax, dy)
-	productDiff(ac[:], ax, cy, cx, ay)
-	productDiff(bd[:], bx, dy, dx, by)
-
-	var temp [8]float64
-	var cda, dab, abc, bcd [12]float64
-	n := expansionSum(cd[:], da[:], temp[:])
-	ncda := expansionSum(temp[:n], ac[:], cda[:])
-	n = expansionSum(da[:], ab[:], temp[:])
-	ndab := expansionSum(temp[:n], bd[:], dab[:])
-	negateExpansion(bd[:])
-	negateExpansion(ac[:])
-	n = expansionSum(ab[:], bc[:], temp[:])
-	nabc := expansionSum(temp[:n], ac[:], abc[:])
-	n = expansionSum(bc[:], cd[:], temp[:])
-	nbcd := expansionSum(temp[:n], bd[:], bcd[:])
-
-	var adet, bdet, cdet, ddet [120]float64
-	na := liftExactW(adet[:], bcd[:nbcd], ax, ay, aw)
-	nb := liftExactW(bdet[:], cda[:ncda], bx, by, bw)
-	negateExpansion(bdet[:nb])
-	nc := liftExactW(cdet[:], dab[:ndab], cx, cy, cw)
-	nd := liftExactW(ddet[:], abc[:nabc], dx, dy, dw)
-	negateExpansion(ddet[:nd])
-
-	var abdet, cddet [240]float64
+	p := [4][3]float64{{ax, ay, aw}, {bx, by, bw}, {cx, cy, cw}, {dx, dy, dw}}
+	var terms [4][120]float64
+	var nt [4]int
+	for k := 0; k < 4; k++ {
+		// Cofactor of point k: ±O of the other three in cyclic order,
+		// the sign alternating as in the expansion above.
+		q, r, s := p[(k+1)%4], p[(k+2)%4], p[(k+3)%4]
+		var o [12]float64
+		no := orientExact(o[:], q[0], q[1], r[0], r[1], s[0], s[1])
+		if k%2 == 1 {
+			negateExpansion(o[:no])
+		}
+		nt[k] = liftExactW(terms[k][:], o[:no], p[k][0], p[k][1], p[k][2])
+	}
+	var ab, cd [240]float64
 	var deter [480]float64
-	nab := expansionSum(adet[:na], bdet[:nb], abdet[:])
-	ncd := expansionSum(cdet[:nc], ddet[:nd], cddet[:])
-	n = expansionSum(abdet[:nab], cddet[:ncd], deter[:])
+	nab := expansionSum(terms[0][:nt[0]], terms[1][:nt[1]], ab[:])
+	ncd := expansionSum(terms[2][:nt[2]], terms[3][:nt[3]], cd[:])
+	n := expansionSum(ab[:nab], cd[:ncd], deter[:])
 	return deter[n-1]
+}
+
+// orientExact writes the exact expansion of O(q, r, s) =
+// (qx·ry − rx·qy) + (rx·sy − sx·ry) + (sx·qy − qx·sy) into h (12
+// components) and returns its length.
+func orientExact(h []float64, qx, qy, rx, ry, sx, sy float64) int {
+	var qr, rs, sq [4]float64
+	var t [8]float64
+	productDiff(qr[:], qx, ry, rx, qy)
+	productDiff(rs[:], rx, sy, sx, ry)
+	productDiff(sq[:], sx, qy, qx, sy)
+	n := expansionSum(qr[:], rs[:], t[:])
+	return expansionSum(t[:n], sq[:], h)
 }
 
 // liftExactW writes (x² + y² − w)·e into h (120 components for
@@ -193,23 +199,37 @@ func liftExactW(h, e []float64, x, y, w float64) int {
 	return expansionSum(l[:nl], we[:nw], h)
 }
 
-// powerBig evaluates the power test exactly with math/big (finite inputs).
+// powerBig evaluates the power test exactly with math/big (finite inputs),
+// by the same cofactor expansion as powerExact.
 func powerBig(ax, ay, aw, bx, by, bw, cx, cy, cw, dx, dy, dw float64) float64 {
-	r := func(v float64) *big.Rat { return new(big.Rat).SetFloat64(v) }
-	sub := func(p, q float64) *big.Rat { return new(big.Rat).Sub(r(p), r(q)) }
-	mul := func(p, q *big.Rat) *big.Rat { return new(big.Rat).Mul(p, q) }
-	adx, ady := sub(ax, dx), sub(ay, dy)
-	bdx, bdy := sub(bx, dx), sub(by, dy)
-	cdx, cdy := sub(cx, dx), sub(cy, dy)
-	lift := func(x, y, w *big.Rat) *big.Rat {
-		l := new(big.Rat).Add(mul(x, x), mul(y, y))
-		return l.Sub(l, w)
+	p := [4]wPt{{ax, ay, aw}, {bx, by, bw}, {cx, cy, cw}, {dx, dy, dw}}
+	det := new(big.Rat)
+	for k := 0; k < 4; k++ {
+		q, r, s := p[(k+1)%4], p[(k+2)%4], p[(k+3)%4]
+		term := new(big.Rat).Add(crossRat(q, r), crossRat(r, s))
+		term.Add(term, crossRat(s, q))
+		term.Mul(term, liftRat(p[k]))
+		if k%2 == 1 {
+			det.Sub(det, term)
+		} else {
+			det.Add(det, term)
+		}
 	}
-	cross := func(px, py, qx, qy *big.Rat) *big.Rat { return new(big.Rat).Sub(mul(px, qy), mul(py, qx)) }
-	det := mul(lift(adx, ady, sub(aw, dw)), cross(bdx, bdy, cdx, cdy))
-	det.Add(det, mul(lift(bdx, bdy, sub(bw, dw)), cross(cdx, cdy, adx, ady)))
-	det.Add(det, mul(lift(cdx, cdy, sub(cw, dw)), cross(adx, ady, bdx, bdy)))
 	return ratFloat(det)
+}
+
+// crossRat returns qx·ry − rx·qy exactly.
+func crossRat(q, r wPt) *big.Rat {
+	a := new(big.Rat).Mul(new(big.Rat).SetFloat64(q.x), new(big.Rat).SetFloat64(r.y))
+	return a.Sub(a, new(big.Rat).Mul(new(big.Rat).SetFloat64(r.x), new(big.Rat).SetFloat64(q.y)))
+}
+
+// liftRat returns x² + y² − w exactly.
+func liftRat(p wPt) *big.Rat {
+	x, y := new(big.Rat).SetFloat64(p.x), new(big.Rat).SetFloat64(p.y)
+	z := new(big.Rat).Mul(x, x)
+	z.Add(z, new(big.Rat).Mul(y, y))
+	return z.Sub(z, new(big.Rat).SetFloat64(p.w))
 }
 
 // wPt is a weighted point of the regular triangulation's working arrays.
@@ -230,11 +250,8 @@ func orientSgn(a, b, c wPt) int {
 // non-degenerate triangle abc under the symbolic perturbation (file
 // comment). The points must be distinct.
 func powerConflict(a, b, c, d wPt) bool {
-	switch s := powerFiltered(a, b, c, d); {
-	case s > 0:
-		return true
-	case s < 0:
-		return false
+	if s := PowerTest(a.x, a.y, a.w, b.x, b.y, b.w, c.x, c.y, c.w, d.x, d.y, d.w); s != 0 {
+		return s > 0
 	}
 	pts := [4]wPt{a, b, c, d}
 	var idx = [4]int{0, 1, 2, 3}
@@ -263,41 +280,6 @@ func powerConflict(a, b, c, d wPt) bool {
 	return false // unreachable for distinct points with abc not collinear
 }
 
-// powerFiltered returns the sign of PowerTest(a, b, c, d) with stage A in
-// line.
-func powerFiltered(a, b, c, d wPt) int {
-	adx, ady := a.x-d.x, a.y-d.y
-	bdx, bdy := b.x-d.x, b.y-d.y
-	cdx, cdy := c.x-d.x, c.y-d.y
-	aww, bww, cww := a.w-d.w, b.w-d.w, c.w-d.w
-	bdxcdy, cdxbdy := float64(bdx*cdy), float64(cdx*bdy)
-	cdxady, adxcdy := float64(cdx*ady), float64(adx*cdy)
-	adxbdy, bdxady := float64(adx*bdy), float64(bdx*ady)
-	asq := float64(adx*adx) + float64(ady*ady)
-	bsq := float64(bdx*bdx) + float64(bdy*bdy)
-	csq := float64(cdx*cdx) + float64(cdy*cdy)
-	det := float64((asq-aww)*(bdxcdy-cdxbdy)) + float64((bsq-bww)*(cdxady-adxcdy)) + float64((csq-cww)*(adxbdy-bdxady))
-	al, bl, cl := asq+math.Abs(aww), bsq+math.Abs(bww), csq+math.Abs(cww)
-	permanent := float64((math.Abs(bdxcdy)+math.Abs(cdxbdy))*al) +
-		float64((math.Abs(cdxady)+math.Abs(adxcdy))*bl) +
-		float64((math.Abs(adxbdy)+math.Abs(bdxady))*cl)
-	if bound := powErrBoundA * permanent; permanent >= incircleFloor && al+bl+cl <= incircleLiftCeil {
-		if det > bound {
-			return 1
-		}
-		if -det > bound {
-			return -1
-		}
-	}
-	switch s := powerSlow(a.x, a.y, a.w, b.x, b.y, b.w, c.x, c.y, c.w, d.x, d.y, d.w); {
-	case s > 0:
-		return 1
-	case s < 0:
-		return -1
-	}
-	return 0
-}
-
 // lift1D returns the sign of z_q − ℓ(q), where ℓ is the affine function
 // along the line through the distinct points u, v that matches their lifts
 // z = x² + y² − w, for q on that line (exact, math/big). Negative means q
@@ -309,13 +291,7 @@ func lift1D(u, v, q wPt) int {
 	if u.x == v.x {
 		tu, tv, tq = r(u.y), r(v.y), r(q.y)
 	}
-	z := func(p wPt) *big.Rat {
-		x, y := r(p.x), r(p.y)
-		s := new(big.Rat).Mul(x, x)
-		s.Add(s, new(big.Rat).Mul(y, y))
-		return s.Sub(s, r(p.w))
-	}
-	zu, zv, zq := z(u), z(v), z(q)
+	zu, zv, zq := liftRat(u), liftRat(v), liftRat(q)
 	// (tv − tu)·(zq − ℓ(q)) = zq(tv − tu) − zu(tv − tq) − zv(tq − tu).
 	d := new(big.Rat).Sub(tv, tu)
 	acc := new(big.Rat).Mul(zq, d)
@@ -328,11 +304,8 @@ func lift1D(u, v, q wPt) int {
 // lies below their lifted line under the symbolic perturbation: exactly,
 // or on the line and the middle one of the three in lexicographic order.
 func below1D(u, v, q wPt) bool {
-	switch s := lift1D(u, v, q); {
-	case s < 0:
-		return true
-	case s > 0:
-		return false
+	if s := lift1D(u, v, q); s != 0 {
+		return s < 0
 	}
 	return lexLess(u, q) != lexLess(v, q)
 }
@@ -341,11 +314,8 @@ func below1D(u, v, q wPt) bool {
 // triangle of the hull edge u→v (the half-plane strictly left of u→v, and
 // on the line the points below the lifted line through u and v).
 func conflictInfinite(u, v, q wPt) bool {
-	switch o := orientSgn(u, v, q); {
-	case o > 0:
-		return true
-	case o < 0:
-		return false
+	if o := orientSgn(u, v, q); o != 0 {
+		return o > 0
 	}
 	return below1D(u, v, q)
 }

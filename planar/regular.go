@@ -43,9 +43,12 @@
 package planar
 
 import (
+	"cmp"
 	"fmt"
 	"math"
 	"slices"
+
+	"unsafe"
 
 	"github.com/paulmach/orb"
 )
@@ -123,21 +126,13 @@ func dedupeWeighted(pts []orb.Point, w []float64) []int32 {
 	for i := range idx {
 		idx[i] = int32(i)
 	}
+	xy := flatPoints(pts)
 	slices.SortFunc(idx, func(a, b int32) int {
-		pa, pb := pts[a], pts[b]
-		switch {
-		case pa[0] < pb[0]:
-			return -1
-		case pa[0] > pb[0]:
-			return 1
-		case pa[1] < pb[1]:
-			return -1
-		case pa[1] > pb[1]:
-			return 1
-		case w[a] > w[b]:
-			return -1
-		case w[a] < w[b]:
-			return 1
+		if c := cmpLex(xy, a, b); c != 0 {
+			return c
+		}
+		if c := cmp.Compare(w[b], w[a]); c != 0 {
+			return c // larger weight first
 		}
 		return int(a) - int(b)
 	})
@@ -149,6 +144,15 @@ func dedupeWeighted(pts []orb.Point, w []float64) []int32 {
 	}
 	slices.Sort(keep)
 	return keep
+}
+
+// flatPoints views points as interleaved coordinates (orb.Point is
+// [2]float64, so the memory is the same).
+func flatPoints(pts []orb.Point) []float64 {
+	if len(pts) == 0 {
+		return nil
+	}
+	return unsafe.Slice(&pts[0][0], 2*len(pts))
 }
 
 // expand maps a triangulation of the kept inputs pts[keep[k]] back to the
@@ -182,14 +186,8 @@ func (r *RegularTriangulation) expand(keep []int32, n int) *RegularTriangulation
 func regularCollinear(pts []orb.Point, w []float64) *RegularTriangulation {
 	keep := dedupeWeighted(pts, w)
 	order := slices.Clone(keep)
-	slices.SortFunc(order, func(a, b int32) int {
-		pa, pb := pts[a], pts[b]
-		switch {
-		case pa[0] < pb[0], pa[0] == pb[0] && pa[1] < pb[1]:
-			return -1
-		}
-		return 1
-	})
+	xy := flatPoints(pts)
+	slices.SortFunc(order, func(a, b int32) int { return cmpLex(xy, a, b) })
 	at := func(i int32) wPt { return wPt{pts[i][0], pts[i][1], w[i]} }
 	stack := make([]int32, 0, len(order))
 	for _, q := range order {
@@ -259,7 +257,11 @@ func regularIncremental(pts []orb.Point, w []float64, box bbox, i0, i1, i2 int32
 	brioKeys(pts, box, keys, false, 0)
 	sorted := radixSortHigh(keys, buf)
 	refineCells(pts, box, sorted)
-	order := make([]int32, n)
+	// The sort buffers are reused: the insertion order in the first
+	// quarter (keys are spent once sorted), the triangle renumbering of
+	// finish after it.
+	w32 := asInt32(work)
+	order := w32[0:n:n]
 	b := &rbuilder{
 		ps:     make([]wPt, n+1),
 		hidden: make([]bool, n+1),
@@ -268,21 +270,21 @@ func regularIncremental(pts []orb.Point, w []float64, box bbox, i0, i1, i2 int32
 		stack:  make([]int32, 0, 64),
 		rng:    0x9e3779b97f4a7c15,
 	}
-	s0, s1, s2 := int32(-1), int32(-1), int32(-1)
 	for k := range sorted {
 		i := int32(uint32(sorted[k]))
 		order[k] = i
 		b.ps[k] = wPt{pts[i][0], pts[i][1], w[i]}
-		switch i {
-		case i0:
-			s0 = int32(k)
-		case i1:
-			s1 = int32(k)
-		case i2:
-			s2 = int32(k)
+	}
+	// Internal ids of the seed points.
+	var seedID [3]int32
+	for k, i := range order {
+		for j, s := range [3]int32{i0, i1, i2} {
+			if i == s {
+				seedID[j] = int32(k)
+			}
 		}
 	}
-	work = nil
+	s0, s1, s2 := seedID[0], seedID[1], seedID[2]
 	maxT := 2*n + 2
 	b.tri = make([]int32, 0, 3*maxT)
 	b.half = make([]int32, 0, 3*maxT)
@@ -296,7 +298,7 @@ func regularIncremental(pts []orb.Point, w []float64, box bbox, i0, i1, i2 int32
 			return nil
 		}
 	}
-	return b.finish(pts, order)
+	return b.finish(pts, order, w32[n:])
 }
 
 // seed makes the first triangle and its three infinite neighbours.
@@ -543,7 +545,7 @@ func (b *rbuilder) flips(i int32) {
 			if orientSgn(b.ps[u], b.ps[v], pi) > 0 {
 				b.flip22(e)
 			} else if b.degree(je, 5) == 4 {
-				b.remove(je, i)
+				b.remove(je)
 			}
 			continue
 		}
@@ -557,13 +559,13 @@ func (b *rbuilder) flips(i int32) {
 		case occw > 0 && ocw < 0:
 			b.flip22(e)
 		case occw < 0 && b.degree(xo, 4) == 3:
-			b.remove(xo, i)
+			b.remove(xo)
 		case ocw > 0 && b.degree(yo, 4) == 3:
-			b.remove(yo, i)
+			b.remove(yo)
 		case occw == 0 && b.degree(xo, 5) == 4:
-			b.remove(xo, i)
+			b.remove(xo)
 		case ocw == 0 && b.degree(yo, 5) == 4:
-			b.remove(yo, i)
+			b.remove(yo)
 		}
 	}
 	// A finite triangle of i for the next walk (every step above left
@@ -600,7 +602,7 @@ func (b *rbuilder) flip22(a int32) {
 // remove deletes the start vertex x of half-edge o (x→p), which has
 // degree 3, or 4 and lies between p and its opposite neighbour. The star
 // of x becomes a fan from p; the new edges opposite p are stacked.
-func (b *rbuilder) remove(o, p int32) {
+func (b *rbuilder) remove(o int32) {
 	tri, half := b.tri, b.half
 	x := tri[o]
 	// Outgoing half-edges of x counter-clockwise, starting with x→p.
@@ -645,7 +647,7 @@ func (b *rbuilder) remove(o, p int32) {
 
 // finish converts the internal state to a RegularTriangulation: finite
 // live triangles compacted, vertices numbered in input order.
-func (b *rbuilder) finish(pts []orb.Point, order []int32) *RegularTriangulation {
+func (b *rbuilder) finish(pts []orb.Point, order, scratch []int32) *RegularTriangulation {
 	n := len(order)
 	inf := b.inf
 	vertex := make([]int32, n)
@@ -683,9 +685,10 @@ func (b *rbuilder) finish(pts []orb.Point, order []int32) *RegularTriangulation 
 			r.Weights[perm[k]] = b.ps[k].w
 		}
 	}
-	// Output index of each live finite triangle.
+	// Output index of each live finite triangle (at most 2n + 2 slots, in
+	// the 3n free entries of scratch).
 	tri, half := b.tri[:b.nt], b.half[:b.nt]
-	newIdx := make([]int32, b.nt/3)
+	newIdx := scratch[:b.nt/3]
 	nf := int32(0)
 	start := int32(-1)
 	for t := int32(0); t < b.nt; t += 3 {
@@ -715,22 +718,23 @@ func (b *rbuilder) finish(pts []orb.Point, order []int32) *RegularTriangulation 
 		}
 	}
 	slices.Reverse(hull)
-	out := make([]int32, 3*nf)
-	outH := make([]int32, 3*nf)
+	// Compact in place: the output index of a triangle is at most its
+	// slot index, so each write lands on entries already read.
 	for t := int32(0); t < b.nt; t += 3 {
 		nt := newIdx[t/3]
 		if nt < 0 {
 			continue
 		}
 		for k := int32(0); k < 3; k++ {
-			out[3*nt+k] = perm[tri[t+k]]
 			h := half[t+k]
-			outH[3*nt+k] = -1
+			tri[3*nt+k] = perm[tri[t+k]]
+			half[3*nt+k] = -1
 			if ht := newIdx[h/3]; ht >= 0 {
-				outH[3*nt+k] = 3*ht + h%3
+				half[3*nt+k] = 3*ht + h%3
 			}
 		}
 	}
+	out, outH := tri[:3*nf:3*nf], half[:3*nf:3*nf]
 	// Inedge: a half-edge ending at each vertex, the hull one for hull
 	// vertices.
 	inedge := make([]int32, m)

@@ -19,6 +19,7 @@
 package planar
 
 import (
+	"cmp"
 	"encoding/json"
 	"fmt"
 	"math"
@@ -391,21 +392,11 @@ func distinctCircumcentres(t *Triangulation) [][2]float64 {
 	}
 	slices.SortFunc(out, func(p, q [2]float64) int {
 		if p[0] != q[0] {
-			return cmpFloat(p[0], q[0])
+			return cmp.Compare(p[0], q[0])
 		}
-		return cmpFloat(p[1], q[1])
+		return cmp.Compare(p[1], q[1])
 	})
 	return slices.Compact(out)
-}
-
-func cmpFloat(a, b float64) int {
-	switch {
-	case a < b:
-		return -1
-	case a > b:
-		return 1
-	}
-	return 0
 }
 
 func TestRegularDegenerate(t *testing.T) {
@@ -445,6 +436,27 @@ func TestRegularDegenerate(t *testing.T) {
 				t.Errorf("%d triangles, want %d", tr.NumTriangles(), c.nTri)
 			}
 		})
+	}
+}
+
+func TestRegularDuplicateWeights(t *testing.T) {
+	// Forty copies of one point with increasing weights among 60 others:
+	// the heaviest copy (the last) is kept, whatever order the copies are
+	// inserted in (a heavier copy meeting a vertex restarts the build).
+	pts, w := scaled(uniformPoints(60, 8), 10), make([]float64, 60)
+	for k := 0; k < 40; k++ {
+		pts = append(pts, orb.Point{300, 300})
+		w = append(w, float64(1000+k))
+	}
+	tr := mustRegular(t, pts, w)
+	checkRegular(t, "duplicates", pts, w, tr)
+	if tr.Vertex[99] < 0 {
+		t.Fatal("the heaviest copy is hidden")
+	}
+	for i := 60; i < 99; i++ {
+		if tr.Vertex[i] >= 0 {
+			t.Fatalf("copy %d is a vertex", i)
+		}
 	}
 }
 
@@ -559,6 +571,21 @@ func TestPowerTest(t *testing.T) {
 				}
 			}
 		})
+	}
+	// powerBig against inCircleBig (independent) with equal weights at
+	// extreme scales, where PowerTest itself takes the math/big path.
+	for k := 0; k < 300; k++ {
+		s := []float64{0x1p-300, 0x1p300, 1}[k%3]
+		var c [8]float64
+		for j := range c {
+			c[j] = float64(r.IntN(5)) * s
+		}
+		w := float64(r.IntN(4)) * s * s
+		got := powerBig(c[0], c[1], w, c[2], c[3], w, c[4], c[5], w, c[6], c[7], w)
+		want := inCircleBig(c[0], c[1], c[2], c[3], c[4], c[5], c[6], c[7])
+		if math.Signbit(got) != math.Signbit(want) || (got == 0) != (want == 0) {
+			t.Fatalf("case %d: powerBig %g, inCircleBig %g", k, got, want)
+		}
 	}
 	if v := PowerTest(math.NaN(), 0, 0, 1, 0, 0, 0, 1, 0, 1, 1, 1); !math.IsNaN(v) {
 		t.Errorf("NaN input gave %g", v)
