@@ -33,6 +33,13 @@
 // unique regular triangulation of the perturbed weights for every finite
 // input, whatever the insertion order.
 //
+// Equal weights. The regular triangulation is then the Delaunay
+// triangulation, and TriangulateRegular returns Triangulate's (the same
+// arrays, the same choice among cocircular configurations, the same
+// speed); the construction here is used for unequal weights, and on equal
+// weights gives a Delaunay triangulation with the same Voronoi diagram
+// that may choose other triangles among cocircular points (tested).
+//
 // Degenerate input. Points at the same position: the one with the larger
 // weight is kept, on equal weights the first; the others are hidden (a
 // point equal to a vertex with a smaller weight restarts the construction
@@ -70,9 +77,11 @@ type RegularTriangulation struct {
 
 // TriangulateRegular returns the regular triangulation of pts with the
 // given weights (one per point, any finite value; the square of a range
-// for disks). With all weights equal it is the Delaunay triangulation of
-// Triangulate, up to the choice among cocircular configurations, which
-// here is fixed by a symbolic perturbation (see power_predicates.go).
+// for disks). With all weights equal it is Triangulate's result, array for
+// array (the same choice among cocircular configurations), with the
+// duplicates after the first of each position hidden. Otherwise the
+// choice among degenerate configurations is fixed by a symbolic
+// perturbation (see power_predicates.go), independent of the input order.
 func TriangulateRegular(pts []orb.Point, weights []float64) (*RegularTriangulation, error) {
 	n := len(pts)
 	if len(weights) != n {
@@ -89,6 +98,40 @@ func TriangulateRegular(pts []orb.Point, weights []float64) (*RegularTriangulati
 			return nil, fmt.Errorf("planar: TriangulateRegular: point %d: weight %g not finite", i, w)
 		}
 	}
+	equal := true
+	for _, w := range weights {
+		equal = equal && w == weights[0]
+	}
+	if equal {
+		d, err := Triangulate(pts)
+		if err != nil {
+			return nil, err
+		}
+		return fromDelaunay(d, weights), nil
+	}
+	return triangulateRegular(pts, weights)
+}
+
+// fromDelaunay wraps Triangulate's result for equal weights: each input
+// that is not the first of its position is hidden.
+func fromDelaunay(d *Triangulation, weights []float64) *RegularTriangulation {
+	r := &RegularTriangulation{Triangulation: *d, Weights: make([]float64, len(d.Source)), Hidden: []int32{}}
+	for v, i := range d.Source {
+		r.Weights[v] = weights[i]
+	}
+	for i, v := range r.Vertex {
+		if d.Source[v] != int32(i) {
+			r.Vertex[i] = -1
+			r.Hidden = append(r.Hidden, int32(i))
+		}
+	}
+	return r
+}
+
+// triangulateRegular is TriangulateRegular on validated input, always by
+// the weighted construction.
+func triangulateRegular(pts []orb.Point, weights []float64) (*RegularTriangulation, error) {
+	n := len(pts)
 	if n == 0 {
 		return &RegularTriangulation{Triangulation: Triangulation{
 			Coords: []float64{}, Vertex: []int32{}, Source: []int32{},

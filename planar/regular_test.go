@@ -119,7 +119,13 @@ func checkRegularErr(pts []orb.Point, w []float64, tr *RegularTriangulation) err
 		}
 	}
 	// Empty power circles: every triangle against every vertex, exact
-	// (unperturbed: no vertex strictly in conflict; perturbed: none at all).
+	// (unperturbed: no vertex strictly in conflict; perturbed, for the
+	// weighted construction: none at all; equal weights keep
+	// Triangulate's cocircular choices).
+	perturbed := false
+	for _, x := range tr.Weights {
+		perturbed = perturbed || x != tr.Weights[0]
+	}
 	for e := 0; e < len(tri); e += 3 {
 		a, b, c := pt(tri[e]), pt(tri[e+1]), pt(tri[e+2])
 		for v := int32(0); v < m; v++ {
@@ -130,7 +136,7 @@ func checkRegularErr(pts []orb.Point, w []float64, tr *RegularTriangulation) err
 			if PowerTest(a.x, a.y, a.w, b.x, b.y, b.w, c.x, c.y, c.w, d.x, d.y, d.w) > 0 {
 				return fmt.Errorf("vertex %d in conflict with triangle %d", v, e/3)
 			}
-			if powerConflict(a, b, c, d) {
+			if perturbed && powerConflict(a, b, c, d) {
 				return fmt.Errorf("vertex %d in perturbed conflict with triangle %d", v, e/3)
 			}
 		}
@@ -327,22 +333,43 @@ func TestRegularEqualWeightsIsDelaunay(t *testing.T) {
 	}
 	for _, c := range cases {
 		t.Run(c.name, func(t *testing.T) {
+			d, err := Triangulate(c.pts)
+			if err != nil {
+				t.Fatal(err)
+			}
 			for _, wv := range []float64{0, 2500} {
 				w := make([]float64, len(c.pts))
 				for i := range w {
 					w[i] = wv
 				}
+				// TriangulateRegular: Triangulate's arrays exactly.
 				tr := mustRegular(t, c.pts, w)
 				checkRegular(t, c.name, c.pts, w, tr)
-				d, err := Triangulate(c.pts)
+				if !reflect.DeepEqual(tr.Triangles, d.Triangles) || !reflect.DeepEqual(tr.Halfedges, d.Halfedges) ||
+					!reflect.DeepEqual(tr.Hull, d.Hull) || !reflect.DeepEqual(tr.Coords, d.Coords) || !reflect.DeepEqual(tr.Source, d.Source) {
+					t.Fatalf("weight %g: arrays differ from Triangulate's", wv)
+				}
+				// The weighted construction on the same input.
+				g, err := triangulateRegular(c.pts, w)
 				if err != nil {
 					t.Fatal(err)
 				}
-				// Same vertices: the first of each duplicate group.
-				if !reflect.DeepEqual(tr.Source, d.Source) {
+				checkRegular(t, c.name+" weighted construction", c.pts, w, g)
+				// checkRegular skips the perturbed test on equal weights:
+				// here every edge must pass it.
+				for e := int32(0); e < int32(len(g.Triangles)); e++ {
+					if h := g.Halfedges[e]; h >= 0 {
+						a, b := wAt(g, g.Triangles[e]), wAt(g, g.Triangles[NextHalfedge(e)])
+						cc, dd := wAt(g, g.Triangles[PrevHalfedge(e)]), wAt(g, g.Triangles[PrevHalfedge(h)])
+						if powerConflict(a, b, cc, dd) {
+							t.Fatalf("weight %g: edge %d fails the perturbed test", wv, e)
+						}
+					}
+				}
+				if !reflect.DeepEqual(g.Source, d.Source) {
 					t.Fatalf("weight %g: vertices differ from Triangulate's", wv)
 				}
-				got, want := regularTriangleSet(tr, nil), inputTriangles(d)
+				got, want := regularTriangleSet(g, nil), inputTriangles(d)
 				if !c.cocircular {
 					if !reflect.DeepEqual(got, want) {
 						t.Fatalf("weight %g: %d triangles, Triangulate %d, sets differ", wv, len(got), len(want))
@@ -350,15 +377,14 @@ func TestRegularEqualWeightsIsDelaunay(t *testing.T) {
 					continue
 				}
 				// Cocircular points: Triangulate keeps the first choice in
-				// insertion order, TriangulateRegular the perturbed one.
-				// Both must be Delaunay (Validate; checkRegular above) with
-				// the same Voronoi diagram: the same set of distinct
-				// circumcentres, and the same Delaunay edges whose Voronoi
-				// edge has positive length.
+				// insertion order, the weighted construction the perturbed
+				// one. Both are Delaunay (Validate; checkRegular above)
+				// with the same Voronoi diagram: the same set of distinct
+				// circumcentres.
 				if err := d.Validate(); err != nil {
 					t.Fatal(err)
 				}
-				if a, b := distinctCircumcentres(&tr.Triangulation), distinctCircumcentres(d); !reflect.DeepEqual(a, b) {
+				if a, b := distinctCircumcentres(&g.Triangulation), distinctCircumcentres(d); !reflect.DeepEqual(a, b) {
 					t.Fatalf("weight %g: %d Voronoi vertices, Triangulate's %d", wv, len(a), len(b))
 				}
 				if len(got) != len(want) {
