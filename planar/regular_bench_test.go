@@ -9,12 +9,14 @@ import (
 	"fmt"
 	"runtime"
 	"testing"
+
+	"github.com/sitecover/sitecover/planar/sitegen"
 )
 
 func BenchmarkRegularTriangulate(b *testing.B) {
 	for _, n := range []int{100000, 1000000} {
 		b.Run(fmt.Sprintf("uniform-%d", n), func(b *testing.B) {
-			pts := scaled(uniformPoints(n, 1), 10)
+			pts := scaled(sitegen.Uniform(n, 1), 10)
 			w := rangeWeights(n, 1)
 			runtime.GC()
 			var before, after runtime.MemStats

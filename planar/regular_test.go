@@ -32,6 +32,7 @@ import (
 	"testing"
 
 	"github.com/paulmach/orb"
+	"github.com/sitecover/sitecover/planar/sitegen"
 )
 
 // wAt returns vertex v of tr as a weighted point.
@@ -270,12 +271,12 @@ func TestRegularRandom(t *testing.T) {
 		name string
 		pts  []orb.Point
 	}{
-		{"uniform-300", scaled(uniformPoints(300, 1), 10)},
-		{"uniform-dense-300", uniformPoints(300, 2)},
-		{"clustered-300", scaled(clusteredPoints(300, 3), 10)},
-		{"grid-289", scaled(gridPoints(289), 10)},
-		{"grid-dense-289", gridPoints(289)},
-		{"utm-200", offset(scaled(uniformPoints(200, 4), 10), 500000, 5300000)},
+		{"uniform-300", scaled(sitegen.Uniform(300, 1), 10)},
+		{"uniform-dense-300", sitegen.Uniform(300, 2)},
+		{"clustered-300", scaled(sitegen.Clustered(300, 3), 10)},
+		{"grid-289", scaled(sitegen.Grid(289), 10)},
+		{"grid-dense-289", sitegen.Grid(289)},
+		{"utm-200", offset(scaled(sitegen.Uniform(200, 4), 10), 500000, 5300000)},
 	}
 	for k, c := range cases {
 		t.Run(c.name, func(t *testing.T) {
@@ -324,11 +325,11 @@ func TestRegularEqualWeightsIsDelaunay(t *testing.T) {
 		pts        []orb.Point
 		cocircular bool
 	}{
-		{"uniform-2000", uniformPoints(2000, 5), false},
-		{"clustered-2000", clusteredPoints(2000, 6), false},
-		{"uniform-dups-500", append(uniformPoints(400, 7), uniformPoints(100, 7)...), false},
-		{"grid-400", gridPoints(400), true},
-		{"lattice-300", triangularLattice(15, 20, 3), true},
+		{"uniform-2000", sitegen.Uniform(2000, 5), false},
+		{"clustered-2000", sitegen.Clustered(2000, 6), false},
+		{"uniform-dups-500", append(sitegen.Uniform(400, 7), sitegen.Uniform(100, 7)...), false},
+		{"grid-400", sitegen.Grid(400), true},
+		{"lattice-300", sitegen.TriangularLattice(15, 20, 3), true},
 		{"ring-64", exactRing(), true},
 	}
 	for _, c := range cases {
@@ -413,7 +414,7 @@ func distinctCircumcentres(t *Triangulation) [][2]float64 {
 	var out [][2]float64
 	for k := 0; k < len(t.Triangles); k += 3 {
 		a, b, c := t.Triangles[k], t.Triangles[k+1], t.Triangles[k+2]
-		x, y := circumcenter(t.Coords[2*a], t.Coords[2*a+1], t.Coords[2*b], t.Coords[2*b+1], t.Coords[2*c], t.Coords[2*c+1])
+		x, y := Circumcentre(t.Coords[2*a], t.Coords[2*a+1], t.Coords[2*b], t.Coords[2*b+1], t.Coords[2*c], t.Coords[2*c+1])
 		out = append(out, [2]float64{math.Round(x * 1e6), math.Round(y * 1e6)})
 	}
 	slices.SortFunc(out, func(p, q [2]float64) int {
@@ -469,7 +470,7 @@ func TestRegularDuplicateWeights(t *testing.T) {
 	// Forty copies of one point with increasing weights among 60 others:
 	// the heaviest copy (the last) is kept, whatever order the copies are
 	// inserted in (a heavier copy meeting a vertex restarts the build).
-	pts, w := scaled(uniformPoints(60, 8), 10), make([]float64, 60)
+	pts, w := scaled(sitegen.Uniform(60, 8), 10), make([]float64, 60)
 	for k := 0; k < 40; k++ {
 		pts = append(pts, orb.Point{300, 300})
 		w = append(w, float64(1000+k))
