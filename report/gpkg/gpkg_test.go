@@ -281,6 +281,29 @@ func TestSpecRequirements(t *testing.T) {
 	}
 }
 
+// TestAwkwardPath: file names with the characters SQLite URIs reserve.
+func TestAwkwardPath(t *testing.T) {
+	dir := filepath.Join(t.TempDir(), "a dir?x=1#frag%41")
+	if err := os.Mkdir(dir, 0o777); err != nil {
+		t.Fatal(err)
+	}
+	path := writeTestFile(t, dir, false)
+	if _, err := os.Stat(path); err != nil {
+		t.Fatalf("file not where asked: %v", err)
+	}
+	r, err := Open(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer r.Close()
+	if fs, err := r.Features("sites"); err != nil || len(fs) != len(testSites) {
+		t.Fatalf("read %d features, %v", len(fs), err)
+	}
+	if entries, _ := os.ReadDir(dir); len(entries) != 1 {
+		t.Errorf("folder holds %d entries, want the file alone", len(entries))
+	}
+}
+
 // TestReproducible: the same features and Options.Time give the same bytes.
 func TestReproducible(t *testing.T) {
 	a, err := os.ReadFile(writeTestFile(t, t.TempDir(), true))
@@ -479,6 +502,7 @@ func TestBlobForms(t *testing.T) {
 		{"ISO linestring ZM with xyzm envelope", "47500009 FFFFFFFF " + strings.Repeat("0000000000000000", 8) + "01 BA0B0000 01000000 000000000000F03F 0000000000000040 0000000000000840 0000000000001040", -1, orb.LineString{{1, 2}}},
 		{"empty polygon", "47500011 E6100000 01 03000000 00000000", 4326, nil},
 		{"empty point (NaN)", "47500011 E6100000 01 01000000 000000000000F87F 000000000000F87F", 4326, nil},
+		{"NaN point without the empty flag", "47500001 E6100000 01 01000000 000000000000F87F 000000000000F87F", 4326, nil},
 	}
 	for _, c := range cases {
 		t.Run(c.name, func(t *testing.T) {

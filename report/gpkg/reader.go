@@ -17,6 +17,7 @@ import (
 	"database/sql"
 	"errors"
 	"fmt"
+	"math"
 	"os"
 	"strings"
 
@@ -367,7 +368,7 @@ func (r *Reader) Features(name string) ([]Feature, error) {
 }
 
 // decode turns a geometry blob of layer l into a geometry (nil for NULL
-// or empty), checking its srs_id against the layer's.
+// or empty, flagged so or a point with NaN coordinates), checking its srs_id against the layer's.
 func (l *LayerInfo) decode(blob []byte) (orb.Geometry, error) {
 	if blob == nil {
 		return nil, nil
@@ -383,8 +384,8 @@ func (l *LayerInfo) decode(blob []byte) (orb.Geometry, error) {
 	if err != nil {
 		return nil, err
 	}
-	if h.empty {
-		return nil, nil
+	if p, ok := g.(orb.Point); h.empty || ok && math.IsNaN(p[0]) && math.IsNaN(p[1]) {
+		return nil, nil // empty; WKB writes an empty point as NaN, NaN
 	}
 	return g, nil
 }
