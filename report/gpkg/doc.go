@@ -20,9 +20,10 @@
 //     (omitted for points, whose envelope is the point itself), followed by
 //     ISO WKB, little-endian, 2-D (clause 2.1.3);
 //   - optionally the R-tree spatial index extension (gpkg_rtree_index,
-//     Annex F.3), filled while the features are written; its triggers,
-//     which call the ST_ functions a GeoPackage reader supplies, are created
-//     after the last feature so that writing needs no such functions.
+//     Annex F.3), packed by Sort-Tile-Recursive and written at Close; its
+//     triggers, which call the ST_ functions a GeoPackage reader supplies,
+//     are created after the last feature so that writing needs no such
+//     functions.
 //
 // The writer streams: each feature is one prepared INSERT inside a single
 // transaction, so memory does not grow with the number of features. The

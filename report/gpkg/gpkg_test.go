@@ -265,6 +265,7 @@ func TestSpecRequirements(t *testing.T) {
 		{"R78 R-tree extension rows", "SELECT group_concat(table_name || '.' || column_name || ' ' || extension_name || ' ' || scope, ', ') FROM gpkg_extensions", "sites.geom gpkg_rtree_index write-only, areas.geom gpkg_rtree_index write-only"},
 		{"R77 R-tree rows", "SELECT (SELECT count(*) FROM rtree_sites_geom) || ' ' || (SELECT count(*) FROM rtree_areas_geom)", "3 2"},
 		{"R77 R-tree bounds", "SELECT minx || ' ' || maxx || ' ' || miny || ' ' || maxy FROM rtree_areas_geom WHERE id = 2", "200.0 410.0 0.0 100.0"},
+		{"R77 R-tree structure (SQLite rtreecheck)", "SELECT rtreecheck('rtree_sites_geom') || ' ' || rtreecheck('rtree_areas_geom')", "ok ok"},
 	}
 	for _, c := range cases {
 		t.Run(c.name, func(t *testing.T) {

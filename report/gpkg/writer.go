@@ -1,15 +1,16 @@
 // Writing a GeoPackage: Create makes the file (never over an existing
 // one), AddLayer adds feature tables, Layer.Insert streams features into
 // them and Close completes the file (bounding boxes in gpkg_contents,
-// R-tree triggers, commit, fsync).
+// R-tree indexes packed and written with their triggers, commit, fsync).
 //
 // Everything happens in one SQLite transaction with the rollback journal
 // off and without fsync per page: the file is not meant to be read before
 // Close returns, and on any failure the writer removes it, so a half
 // written GeoPackage is never left at the path. Close syncs the finished
-// file to disk once. Each feature is one execution of a prepared INSERT
-// (plus one into the R-tree), so memory stays flat however many features
-// are written; the geometry blob is built in a buffer reused per layer.
+// file to disk once. Each feature is one execution of a prepared INSERT,
+// so memory stays flat however many features are written (the geometry
+// blob is built in a buffer reused per layer); only an indexed layer keeps
+// 24 bytes per feature for its R-tree until Close (rtree.go).
 
 package gpkg
 
@@ -124,7 +125,7 @@ type Layer struct {
 	w     *Writer
 	spec  LayerSpec
 	stmt  *sql.Stmt
-	rtree *sql.Stmt
+	index *rtreeEntries // envelopes for the R-tree, nil without one
 	args  []any
 	buf   []byte
 	n     int64 // features written = last fid
@@ -370,9 +371,7 @@ func (l *Layer) create() error {
 		return err
 	}
 	if s.SpatialIndex {
-		if l.rtree, err = w.tx.Prepare("INSERT INTO " + quoteIdent(rtreeName(s.Name)) + " VALUES (?, ?, ?, ?, ?)"); err != nil {
-			return err
-		}
+		l.index = &rtreeEntries{}
 	}
 	return nil
 }
@@ -403,7 +402,7 @@ func (l *Layer) Insert(g orb.Geometry, values ...any) error {
 }
 
 // bind fills l.args for feature fid and, when the layer is indexed,
-// inserts the feature's envelope into the R-tree.
+// keeps the feature's envelope for the R-tree.
 func (l *Layer) bind(fid int64, g orb.Geometry, values []any) error {
 	if len(values) != len(l.spec.Fields) {
 		return fmt.Errorf("%d values for %d fields", len(values), len(l.spec.Fields))
@@ -425,10 +424,8 @@ func (l *Layer) bind(fid int64, g orb.Geometry, values []any) error {
 		l.args[1] = l.buf
 		if !env.empty() {
 			l.env.extend(env)
-			if l.rtree != nil {
-				if _, err := l.rtree.Exec(fid, env.minX, env.maxX, env.minY, env.maxY); err != nil {
-					return err
-				}
+			if l.index != nil {
+				l.index.add(fid, env)
 			}
 		}
 	}
@@ -591,6 +588,10 @@ func (w *Writer) finish() error {
 			return fmt.Errorf("layer %q: %w", l.spec.Name, err)
 		}
 		if l.spec.SpatialIndex {
+			if err := writeRtree(w.tx, rtreeName(l.spec.Name), l.index); err != nil {
+				return fmt.Errorf("layer %q: R-tree: %w", l.spec.Name, err)
+			}
+			l.index = nil
 			for _, trig := range rtreeTriggers(l.spec.Name) {
 				if _, err := w.tx.Exec(trig); err != nil {
 					return fmt.Errorf("layer %q: R-tree trigger: %w", l.spec.Name, err)
@@ -617,10 +618,6 @@ func (l *Layer) closeStmts() {
 	if l.stmt != nil {
 		l.stmt.Close()
 		l.stmt = nil
-	}
-	if l.rtree != nil {
-		l.rtree.Close()
-		l.rtree = nil
 	}
 }
 
