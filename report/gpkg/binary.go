@@ -413,6 +413,20 @@ func (d *wkbDecoder) member(want uint32, depth int) (orb.Geometry, error) {
 	return g, nil
 }
 
+// members reads the n members of a multi geometry, each of base type
+// want (whose Go type is T).
+func members[T orb.Geometry](d *wkbDecoder, n int, want uint32, depth int) ([]T, error) {
+	out := make([]T, n)
+	for i := range out {
+		g, err := d.member(want, depth)
+		if err != nil {
+			return nil, err
+		}
+		out[i] = g.(T)
+	}
+	return out, nil
+}
+
 // geometry reads one geometry. A WKB point with NaN coordinates (the WKB
 // form of an empty point) is returned as a Point holding NaN.
 func (d *wkbDecoder) geometry(depth int) (orb.Geometry, error) {
@@ -438,35 +452,14 @@ func (d *wkbDecoder) geometry(depth int) (orb.Geometry, error) {
 	}
 	switch h.base {
 	case wkbMultiPoint:
-		mp := make(orb.MultiPoint, n)
-		for i := range mp {
-			g, err := d.member(wkbPoint, depth)
-			if err != nil {
-				return nil, err
-			}
-			mp[i] = g.(orb.Point)
-		}
-		return mp, nil
+		mp, err := members[orb.Point](d, n, wkbPoint, depth)
+		return orb.MultiPoint(mp), err
 	case wkbMultiLineString:
-		ml := make(orb.MultiLineString, n)
-		for i := range ml {
-			g, err := d.member(wkbLineString, depth)
-			if err != nil {
-				return nil, err
-			}
-			ml[i] = g.(orb.LineString)
-		}
-		return ml, nil
+		ml, err := members[orb.LineString](d, n, wkbLineString, depth)
+		return orb.MultiLineString(ml), err
 	case wkbMultiPolygon:
-		mp := make(orb.MultiPolygon, n)
-		for i := range mp {
-			g, err := d.member(wkbPolygon, depth)
-			if err != nil {
-				return nil, err
-			}
-			mp[i] = g.(orb.Polygon)
-		}
-		return mp, nil
+		mp, err := members[orb.Polygon](d, n, wkbPolygon, depth)
+		return orb.MultiPolygon(mp), err
 	}
 	c := make(orb.Collection, n)
 	for i := range c {

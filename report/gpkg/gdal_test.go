@@ -103,15 +103,7 @@ func sameAsGeoJSON(t *testing.T, got []Feature, fc *geojson.FeatureCollection, m
 // checkGDALSites checks the layers of a file ogr2ogr made with
 // testdata/make_gdal_gpkg.sh.
 func checkGDALSites(t *testing.T, path string) {
-	r, err := Open(path)
-	if err != nil {
-		t.Fatal(err)
-	}
-	defer r.Close()
-	layers, err := r.Layers()
-	if err != nil {
-		t.Fatal(err)
-	}
+	r, layers := openLayers(t, path)
 	if len(layers) != 3 {
 		t.Fatalf("%d layers, want 3", len(layers))
 	}

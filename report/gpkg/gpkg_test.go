@@ -119,16 +119,7 @@ func TestRoundTrip(t *testing.T) {
 			name = "with R-tree"
 		}
 		t.Run(name, func(t *testing.T) {
-			path := writeTestFile(t, t.TempDir(), index)
-			r, err := Open(path)
-			if err != nil {
-				t.Fatal(err)
-			}
-			defer r.Close()
-			layers, err := r.Layers()
-			if err != nil {
-				t.Fatal(err)
-			}
+			r, layers := openLayers(t, writeTestFile(t, t.TempDir(), index))
 			var names []string
 			for _, l := range layers {
 				names = append(names, l.Name+":"+string(l.Geometry))
@@ -157,6 +148,34 @@ func TestRoundTrip(t *testing.T) {
 	}
 }
 
+// openLayers opens path for the rest of the test and lists its layers.
+func openLayers(t *testing.T, path string) (*Reader, []LayerInfo) {
+	t.Helper()
+	r, err := Open(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	t.Cleanup(func() { r.Close() })
+	layers, err := r.Layers()
+	if err != nil {
+		t.Fatal(err)
+	}
+	return r, layers
+}
+
+// boundsAndFeatures checks the layer's bounding box and reads its features.
+func boundsAndFeatures(t *testing.T, r *Reader, l LayerInfo, want orb.Bound) []Feature {
+	t.Helper()
+	if l.Bounds == nil || *l.Bounds != want {
+		t.Errorf("bounds %v, want %v", l.Bounds, want)
+	}
+	fs, err := r.Features(l.Name)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return fs
+}
+
 func checkSites(t *testing.T, r *Reader, l LayerInfo) {
 	if !l.SRS.IsWGS84() || l.SRS != WGS84 || l.RequireWGS84() != nil {
 		t.Errorf("SRS %+v, want WGS84", l.SRS)
@@ -167,14 +186,7 @@ func checkSites(t *testing.T, r *Reader, l LayerInfo) {
 	if !reflect.DeepEqual(l.Fields, siteFields) {
 		t.Errorf("fields %v, want %v", l.Fields, siteFields)
 	}
-	wantBound := orb.Bound{Min: orb.Point{2.3522, 48.8560}, Max: orb.Point{2.3541, 48.8571}}
-	if l.Bounds == nil || *l.Bounds != wantBound {
-		t.Errorf("bounds %v, want %v", l.Bounds, wantBound)
-	}
-	fs, err := r.Features("sites")
-	if err != nil {
-		t.Fatal(err)
-	}
+	fs := boundsAndFeatures(t, r, l, orb.Bound{Min: orb.Point{2.3522, 48.8560}, Max: orb.Point{2.3541, 48.8571}})
 	if len(fs) != len(testSites) {
 		t.Fatalf("%d features, want %d", len(fs), len(testSites))
 	}
@@ -196,14 +208,7 @@ func checkAreas(t *testing.T, r *Reader, l LayerInfo) {
 	if err == nil || !strings.Contains(err.Error(), `layer "areas": coordinates in srs_id -1 (NONE:-1 "Undefined Cartesian SRS")`) {
 		t.Errorf("RequireWGS84 = %v", err)
 	}
-	wantBound := orb.Bound{Min: orb.Point{0, 0}, Max: orb.Point{410, 100}}
-	if l.Bounds == nil || *l.Bounds != wantBound {
-		t.Errorf("bounds %v, want %v", l.Bounds, wantBound)
-	}
-	fs, err := r.Features("areas")
-	if err != nil {
-		t.Fatal(err)
-	}
+	fs := boundsAndFeatures(t, r, l, orb.Bound{Min: orb.Point{0, 0}, Max: orb.Point{410, 100}})
 	want := closedAreas()
 	if len(fs) != len(want) {
 		t.Fatalf("%d features, want %d", len(fs), len(want))
@@ -320,6 +325,22 @@ func TestReproducible(t *testing.T) {
 	}
 }
 
+// pointWriter creates a file in a new folder with one layer.
+func pointWriter(t *testing.T, spec LayerSpec) (string, *Writer, *Layer) {
+	t.Helper()
+	path := filepath.Join(t.TempDir(), "x.gpkg")
+	w, err := Create(path, Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	l, err := w.AddLayer(spec)
+	if err != nil {
+		w.Abort()
+		t.Fatal(err)
+	}
+	return path, w, l
+}
+
 func TestWriterRefuses(t *testing.T) {
 	dir := t.TempDir()
 	existing := filepath.Join(dir, "existing.gpkg")
@@ -352,16 +373,9 @@ func TestWriterRefuses(t *testing.T) {
 	}
 	for _, c := range specCases {
 		t.Run(c.name, func(t *testing.T) {
-			path := filepath.Join(t.TempDir(), "x.gpkg")
-			w, err := Create(path, Options{})
-			if err != nil {
-				t.Fatal(err)
-			}
+			path, w, _ := pointWriter(t, point)
 			defer w.Abort()
-			if _, err := w.AddLayer(point); err != nil {
-				t.Fatal(err)
-			}
-			_, err = w.AddLayer(c.spec)
+			_, err := w.AddLayer(c.spec)
 			if err == nil || !strings.Contains(err.Error(), c.want) || !strings.HasPrefix(err.Error(), path+": ") {
 				t.Fatalf("AddLayer(%+v) = %v, want an error naming the file and containing %q", c.spec, err, c.want)
 			}
@@ -382,19 +396,11 @@ func TestWriterRefuses(t *testing.T) {
 	}
 	for _, c := range insertCases {
 		t.Run(c.name, func(t *testing.T) {
-			path := filepath.Join(t.TempDir(), "x.gpkg")
-			w, err := Create(path, Options{})
-			if err != nil {
-				t.Fatal(err)
-			}
-			l, err := w.AddLayer(point)
-			if err != nil {
-				t.Fatal(err)
-			}
+			path, w, l := pointWriter(t, point)
 			if err := l.Insert(orb.Point{0, 0}, 1, 2.5); err != nil {
 				t.Fatal(err)
 			}
-			err = l.Insert(c.g, c.values...)
+			err := l.Insert(c.g, c.values...)
 			if err == nil || !strings.Contains(err.Error(), c.want) || !strings.HasPrefix(err.Error(), path+`: layer "p": `) {
 				t.Fatalf("Insert = %v, want an error naming file, layer and containing %q", err, c.want)
 			}
