@@ -26,7 +26,8 @@
 //     functions.
 //
 // The writer streams: each feature is one prepared INSERT inside a single
-// transaction, so memory does not grow with the number of features. The
+// transaction, so memory does not grow with the number of features (an
+// indexed layer keeps 24 bytes a feature for its R-tree until Close). The
 // reader lists the feature layers, reports each layer's coordinate
 // reference system (so a caller can refuse what it cannot project) and
 // decodes the features into orb geometries and attribute maps; every error
