@@ -28,6 +28,7 @@ import (
 	"strings"
 
 	"github.com/paulmach/orb"
+	"github.com/sitecover/sitecover/planar"
 )
 
 // layer builds one FeatureCollection as JSON text. The encoder is written
@@ -325,7 +326,7 @@ func (s *scene) ring(in orb.Ring, exterior bool) orb.Ring {
 	if len(r) < 3 {
 		return nil
 	}
-	a := signedArea(r)
+	a := planar.RingArea(planar.FlatRing(r))
 	if a == 0 {
 		return nil
 	}
@@ -335,18 +336,4 @@ func (s *scene) ring(in orb.Ring, exterior bool) orb.Ring {
 		}
 	}
 	return append(r, r[0])
-}
-
-// signedArea is the shoelace area of a ring (positive counter-clockwise),
-// computed relative to the first vertex to limit cancellation.
-func signedArea(r orb.Ring) float64 {
-	if len(r) < 3 {
-		return 0
-	}
-	x0, y0 := r[0][0], r[0][1]
-	var a float64
-	for i := 1; i+1 < len(r); i++ {
-		a += (r[i][0]-x0)*(r[i+1][1]-y0) - (r[i+1][0]-x0)*(r[i][1]-y0)
-	}
-	return a / 2
 }
