@@ -39,6 +39,7 @@ func (s *planScene) planText() []byte {
 	}
 	s.textInputs(&b)
 	s.planInputs(&b)
+	s.textTerms(&b)
 	s.textExisting(&b)
 	switch s.p.Move {
 	case MoveAdd, MoveFewest:
@@ -186,12 +187,8 @@ func (s *planScene) textGapList(b *bytes.Buffer, title string, gaps []coverage.G
 	t.left(5)
 	total := 0.0
 	for _, g := range gaps {
-		kind := "enclosed"
-		if g.TouchesBoundary {
-			kind = "edge"
-		}
 		px, py := s.pointCols(g.Deepest)
-		t.row(fmt.Sprint(g.ID), fmt.Sprintf("%.1f", g.Area), fmt.Sprintf("%.2f", g.ClosingRange), px, py, kind)
+		t.row(fmt.Sprint(g.ID), fmt.Sprintf("%.1f", g.Area), fmt.Sprintf("%.2f", g.ClosingRange), px, py, gapKind(g))
 		total += g.Area
 	}
 	t.write(b)

@@ -742,7 +742,7 @@ func TestWriteCells(t *testing.T) {
 }
 
 // gridScene is four sites on a 100 m grid in a 200 m square at range
-// 60 m: nine gaps (four corners, four edge midpoints, the enclosed centre),
+// 60 m: nine gaps (four corners, four edge midpoints, the inner centre),
 // all closing at 50√2 m. Reference: elementary geometry.
 func gridScene(t testing.TB) *coverage.Analysis {
 	return analyze(t, []orb.Point{{50, 50}, {150, 50}, {50, 150}, {150, 150}}, region(t, square(200)), 60)
@@ -753,20 +753,20 @@ func TestGridSceneGaps(t *testing.T) {
 	if len(an.Gaps) != 9 {
 		t.Fatalf("%d gaps, want 9", len(an.Gaps))
 	}
-	enclosed := 0
+	inner := 0
 	for _, g := range an.Gaps {
 		if !near(g.ClosingRange, 50*math.Sqrt2, 1e-9) {
 			t.Errorf("gap %d closes at %v, want 50√2", g.ID, g.ClosingRange)
 		}
 		if !g.TouchesBoundary {
-			enclosed++
+			inner++
 			if math.Hypot(g.Deepest[0]-100, g.Deepest[1]-100) > 1e-9 {
-				t.Errorf("enclosed gap deepest at %v, want (100, 100)", g.Deepest)
+				t.Errorf("inner gap deepest at %v, want (100, 100)", g.Deepest)
 			}
 		}
 	}
-	if enclosed != 1 {
-		t.Errorf("%d enclosed gaps, want 1", enclosed)
+	if inner != 1 {
+		t.Errorf("%d inner gaps, want 1", inner)
 	}
 }
 

@@ -66,8 +66,9 @@ type SummaryDoc struct {
 	ConnectRangeM float64 `json:"connect_range_m"`
 	// Pieces is the number of separate pieces of coverage at RangeM.
 	Pieces int `json:"pieces"`
-	// EnclosedHoles is the number of holes of the union at RangeM.
-	EnclosedHoles int `json:"enclosed_holes"`
+	// OpenHoles is the number of holes of the union of disks open at
+	// RangeM (holes, not gaps: see report.txt TERMS).
+	OpenHoles int `json:"open_holes"`
 	// Cells are the service areas, one per distinct site position.
 	Cells []SummaryCell `json:"cells"`
 	// Projection describes the local plane.
@@ -299,7 +300,7 @@ func (s *scene) summary() *SummaryDoc {
 		Holes:            make([]SummaryHole, 0),
 		RangePercentiles: s.percentiles(),
 		Pieces:           a.Pieces,
-		EnclosedHoles:    a.EnclosedHoles,
+		OpenHoles:        a.EnclosedHoles,
 		Cells:            s.summaryCells(),
 		Projection:       s.projection(),
 		MaxScaleError:    s.m.MaxScaleError,

@@ -33,6 +33,7 @@ func (s *scene) text() []byte {
 	}
 	s.textInputs(&b)
 	if s.a != nil {
+		s.textTerms(&b)
 		s.textSummary(&b)
 		s.textGaps(&b)
 	} else {
@@ -176,9 +177,10 @@ func (s *scene) textSummary(b *bytes.Buffer) {
 	kv.add("Planned range", metres(a.Range))
 	kv.add("Covered", fmt.Sprintf("%.3f %% of the area", 100*a.CoveredFraction))
 	kv.add("Uncovered", fmt.Sprintf("%s (%s)", m2(a.UncoveredArea), ha(a.UncoveredArea)))
-	kv.add("Gaps", fmt.Sprintf("%d (uncovered pieces of the area, listed below)", len(a.Gaps)))
+	inner := innerGaps(a.Gaps)
+	kv.add("Gaps", fmt.Sprintf("%d (%d at the edge, %d inner; listed below)", len(a.Gaps), len(a.Gaps)-inner, inner))
 	kv.add("Pieces of coverage", fmt.Sprintf("%d (separate groups of overlapping disks)", a.Pieces))
-	kv.add("Enclosed holes", fmt.Sprintf("%d (holes ringed by coverage)", a.EnclosedHoles))
+	kv.add("Holes open", fmt.Sprintf("%d holes of the union of disks at this range (see HOLES)", a.EnclosedHoles))
 	kv.write(b)
 
 	section(b, "RANGES")
@@ -220,22 +222,17 @@ func (s *scene) textGaps(b *bytes.Buffer) {
 		return
 	}
 	b.WriteString("  Closing range: the range at which the gap vanishes (distance from its deepest\n")
-	b.WriteString("  point to the nearest site). Edge: the gap reaches the area's outline or an\n")
-	b.WriteString("  exclusion zone; enclosed: coverage surrounds it.\n\n")
+	b.WriteString("  point to the nearest site). Kind: edge or inner (see TERMS).\n\n")
 	t := &table{}
 	hx, hy := s.pointHeads()
 	t.head("ID", "Area m2", "Closing m", hx, hy, "Kind", "Nearby sites")
 	t.left(5, 6)
 	for gi, g := range a.Gaps {
-		kind := "enclosed"
-		if g.TouchesBoundary {
-			kind = "edge"
-		}
 		t.int("", g.ID)
 		t.num(g.Area, 1)
 		t.num(g.ClosingRange, 2)
 		s.pointCells(t, s.deepestOut(gi))
-		t.str(kind)
+		t.str(gapKind(g))
 		for i, site := range g.Sites {
 			if i > 0 {
 				t.cells = append(t.cells, ", "...)
@@ -291,21 +288,28 @@ func (s *scene) textHoles(b *bytes.Buffer) {
 		b.WriteString("  none: at no range do the disks ring an uncovered hole\n")
 		return
 	}
-	b.WriteString("  A hole appears when a ring of disks closes around an uncovered spot and\n")
-	b.WriteString("  closes when the disks fill it; the closing point is where it fills last.\n")
-	b.WriteString("  Listed by lifetime (closing minus appearance range), longest first.\n")
 	r := s.a.Range
-	open := 0
-	for _, h := range p.Holes {
+	tol := briefHoleFraction * r
+	b.WriteString("  Holes as defined in TERMS, listed by lifetime (closing minus appearance\n")
+	b.WriteString("  range), longest first; the closing point is where a hole fills last.\n")
+	fmt.Fprintf(b, "  Note \"outside site\": the closing point lies in an exclusion zone or beyond\n")
+	fmt.Fprintf(b, "  the site outline, so the part of the hole that lasts longest needs no\n")
+	fmt.Fprintf(b, "  coverage. Note \"brief\": the hole lives less than %s (%s of the\n", metresShort(tol), trimFloat(100*briefHoleFraction)+" %")
+	fmt.Fprintf(b, "  planned range), too short to matter for planning. Marked holes stay listed.\n")
+	open, marked := 0, 0
+	for i, h := range p.Holes {
 		if h.Birth <= r && r < h.Death {
 			open++
+			if s.holeNote(i, tol) != "" {
+				marked++
+			}
 		}
 	}
-	fmt.Fprintf(b, "  At the planned range %s, %d of these %d holes are open.\n\n", metres(r), open, len(p.Holes))
+	fmt.Fprintf(b, "  At the planned range %s, %d of these %d holes are open (%d of them marked).\n\n", metres(r), open, len(p.Holes), marked)
 	t := &table{}
 	hx, hy := s.pointHeads()
-	t.head("No", "Appears m", "Closes m", "Lifetime m", hx, hy, "At "+metresShort(r), "Ringed at appearance by")
-	t.left(6, 7)
+	t.head("No", "Appears m", "Closes m", "Lifetime m", hx, hy, "At "+metresShort(r), "Note", "Ringed at appearance by")
+	t.left(6, 7, 8)
 	for i, h := range p.Holes {
 		state := "open"
 		switch {
@@ -320,12 +324,70 @@ func (s *scene) textHoles(b *bytes.Buffer) {
 		t.num(h.Death-h.Birth, 2)
 		s.pointCells(t, s.closingOut(i))
 		t.str(state)
+		t.str(orDash(s.holeNote(i, tol)))
 		t.cells = s.appendLabel(t.cells, h.BirthSites[0])
 		t.cells = append(t.cells, ", "...)
 		t.cells = s.appendLabel(t.cells, h.BirthSites[1])
 		t.cell()
 	}
 	t.write(b)
+}
+
+// briefHoleFraction is the lifetime, as a fraction of the planned range,
+// below which a hole is marked "brief": at 1 % (1.2 m at 120 m) a hole
+// closes before any practical change of range or position would notice it.
+const briefHoleFraction = 0.01
+
+// textTerms defines, once, the two words the report keeps apart: gaps (of
+// the site) and holes (of the union of disks).
+func (s *scene) textTerms(b *bytes.Buffer) {
+	section(b, "TERMS")
+	noteLines(b, []string{
+		"Gap   a connected part of the site area out of reach of every device at",
+		"      the planned range; measured inside the site only. Kind \"edge\": it",
+		"      reaches the site outline or an exclusion zone; \"inner\": coverage",
+		"      surrounds it on every side.",
+		"Hole  a bounded region outside the union of the disks and surrounded by",
+		"      them (the topological view, whatever the site): it appears at the",
+		"      range where a ring of disks closes around it and closes at the range",
+		"      where the disks fill it. A hole may lie partly or wholly outside the",
+		"      site; an edge gap may be the part of a hole that the outline cuts.",
+	})
+}
+
+// innerGaps counts the gaps surrounded by coverage (not touching the
+// site outline or an exclusion zone).
+func innerGaps(gaps []coverage.Gap) int {
+	n := 0
+	for _, g := range gaps {
+		if !g.TouchesBoundary {
+			n++
+		}
+	}
+	return n
+}
+
+// gapKind is a gap's kind as the reports name it: "edge" or "inner".
+func gapKind(g coverage.Gap) string {
+	if g.TouchesBoundary {
+		return "edge"
+	}
+	return "inner"
+}
+
+// holeNote returns the mark of hole i (see textHoles for the rules):
+// "outside site" when its closing point is not in the site area, "brief"
+// when it lives less than tol, both joined, or "".
+func (s *scene) holeNote(i int, tol float64) string {
+	h := s.a.Persistence.Holes[i]
+	var notes []string
+	if ar := s.l.Area; ar != nil && !ar.Contains(h.DeathPoint[0], h.DeathPoint[1]) {
+		notes = append(notes, "outside site")
+	}
+	if h.Death-h.Birth < tol {
+		notes = append(notes, "brief")
+	}
+	return strings.Join(notes, ", ")
 }
 
 func (s *scene) textAccuracy(b *bytes.Buffer) {

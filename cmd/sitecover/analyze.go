@@ -124,10 +124,10 @@ func printAnalysis(w io.Writer, d *report.SummaryDoc, m report.Meta) {
 	if m.Title != "" {
 		fmt.Fprintln(w, m.Title)
 	}
-	enclosed := 0
+	inner := 0
 	for _, g := range d.Gaps {
 		if !g.TouchesBoundary {
-			enclosed++
+			inner++
 		}
 	}
 	hull := ""
@@ -137,8 +137,8 @@ func printAnalysis(w io.Writer, d *report.SummaryDoc, m report.Meta) {
 	fmt.Fprintf(w, "  %-24s %d\n", "sites", d.Sites)
 	fmt.Fprintf(w, "  %-24s %s m²%s\n", "site area", fmtNum(d.AreaM2, 1), hull)
 	fmt.Fprintf(w, "  %-24s %s m\n", "planned range", fmtNum(d.RangeM, 2))
-	fmt.Fprintf(w, "  %-24s %s %% (%s m² uncovered in %d gaps, %d enclosed)\n", "covered at planned range",
-		fmtNum(100*d.CoveredFraction, 2), fmtNum(d.UncoveredAreaM2, 1), len(d.Gaps), enclosed)
+	fmt.Fprintf(w, "  %-24s %s %% (%s m² uncovered in %d gaps, %d inner)\n", "covered at planned range",
+		fmtNum(100*d.CoveredFraction, 2), fmtNum(d.UncoveredAreaM2, 1), len(d.Gaps), inner)
 	where := ""
 	if len(d.FullCoverWorstPoints) > 0 {
 		where = " at " + fmtPoint(d.FullCoverWorstPoint, d.Coordinates)
@@ -171,7 +171,7 @@ func printGapTable(w io.Writer, d *report.SummaryDoc, m report.Meta) {
 		}
 		kind := "edge"
 		if !g.TouchesBoundary {
-			kind = "enclosed"
+			kind = "inner"
 		}
 		var sites []string
 		for k, s := range g.Sites {

@@ -1,0 +1,92 @@
+// The wording rules of every text output (stdout, report.txt, summary.json,
+// CSV tables), checked on the demo (exclusion zones, ten gaps) and on a
+// square with one site and no exclusion zone (one gap): gaps and holes
+// are never called "enclosed", both are defined once in report.txt.
+
+package main
+
+import (
+	"os"
+	"path/filepath"
+	"regexp"
+	"strings"
+	"testing"
+)
+
+// textOutputs returns stdout and every text file under dir (report.txt,
+// summary.json, CSV tables, recursively), keyed by path.
+func textOutputs(t *testing.T, dir, stdout string) map[string]string {
+	t.Helper()
+	texts := map[string]string{"stdout": stdout}
+	err := filepath.WalkDir(dir, func(p string, d os.DirEntry, err error) error {
+		if err != nil || d.IsDir() {
+			return err
+		}
+		switch filepath.Ext(p) {
+		case ".txt", ".json", ".csv":
+			b, err := os.ReadFile(p)
+			if err != nil {
+				return err
+			}
+			texts[p] = string(b)
+		}
+		return nil
+	})
+	if err != nil {
+		t.Fatal(err)
+	}
+	return texts
+}
+
+// wordingScenes runs the demo and the one-site square (no exclusion zone)
+// and returns their output folders with stdout.
+func wordingScenes(t *testing.T) map[string]map[string]string {
+	t.Helper()
+	dir := t.TempDir()
+	demo := filepath.Join(dir, "demo")
+	r := mustRun(t, "demo", "--out", demo)
+	scenes := map[string]map[string]string{"demo": textOutputs(t, demo, r.stdout)}
+
+	sites := writeFile(t, dir, "site.csv", "name,x,y\ncentre,50,50\n")
+	area := writeFile(t, dir, "square.geojson", squareGeoJSON(0, 0, 100))
+	sq := filepath.Join(dir, "square")
+	r = mustRun(t, "gaps", "--planar", "--sites", sites, "--area", area, "--range", "40m", "--out", sq)
+	scenes["square"] = textOutputs(t, sq, r.stdout)
+	return scenes
+}
+
+// wordingRule is a pattern no text output may contain, and why.
+type wordingRule struct {
+	name string
+	bad  *regexp.Regexp
+}
+
+var wordingRules = []wordingRule{
+	// Gaps are "edge" or "inner"; holes are "open"; "enclosed" meant both.
+	{"no-enclosed", regexp.MustCompile(`(?i)enclosed`)},
+}
+
+func TestWordingRules(t *testing.T) {
+	for scene, texts := range wordingScenes(t) {
+		t.Run(scene, func(t *testing.T) {
+			for _, rule := range wordingRules {
+				t.Run(rule.name, func(t *testing.T) {
+					for path, txt := range texts {
+						if m := rule.bad.FindString(txt); m != "" {
+							i := strings.Index(txt, m)
+							t.Errorf("%s: %q in %q", path, m, txt[max(0, i-60):min(len(txt), i+60)])
+						}
+					}
+				})
+			}
+			for path, txt := range texts {
+				if filepath.Base(path) != "report.txt" {
+					continue
+				}
+				if strings.Count(txt, "\nTERMS\n") != 1 || !strings.Contains(txt, "\n  Gap   ") || !strings.Contains(txt, "\n  Hole  ") {
+					t.Errorf("%s: gaps and holes are not defined once in a TERMS section", path)
+				}
+			}
+		})
+	}
+}
