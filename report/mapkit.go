@@ -93,9 +93,9 @@ func areaLegend() []legendItem {
 
 func haText(m2 float64) string {
 	if m2 >= 1e6 {
-		return fmt.Sprintf("%.3f km2 (%.1f ha)", m2/1e6, m2/1e4)
+		return fmt.Sprintf("%.3f km² (%.1f ha)", m2/1e6, m2/1e4)
 	}
-	return fmt.Sprintf("%.0f m2 (%.2f ha)", m2, m2/1e4)
+	return fmt.Sprintf("%.0f m² (%.2f ha)", m2, m2/1e4)
 }
 
 func metresShort(v float64) string {

@@ -28,7 +28,7 @@ func (s *scene) drawServiceAreaMap(width int) (*canvas, error) {
 	}
 	n := len(s.l.Sites)
 	title := s.titled("Service areas")
-	sub := fmt.Sprintf("%d sites, site area %s; each device serves the part of the site nearest to it", n, haText(s.l.AreaM2))
+	sub := fmt.Sprintf("%s, site area %s; each device serves the part of the site nearest to it", Plural(n, "site"), haText(s.l.AreaM2))
 	c.title(title, sub)
 
 	s.drawArea(c)
@@ -84,8 +84,8 @@ func (s *scene) drawCoverageMap(width int) (*canvas, error) {
 		return nil, err
 	}
 	title := s.titled("Coverage at " + metresShort(a.Range))
-	sub := fmt.Sprintf("%.2f %% of %s covered, %d gap(s), %.0f m2 uncovered; full cover needs %s",
-		100*a.CoveredFraction, haText(s.l.AreaM2), len(a.Gaps), a.UncoveredArea, metresShort(a.FullCover.Range))
+	sub := fmt.Sprintf("%.2f %% of %s covered, %s, %.0f m² uncovered; full cover needs %s",
+		100*a.CoveredFraction, haText(s.l.AreaM2), Plural(len(a.Gaps), "gap"), a.UncoveredArea, metresShort(a.FullCover.Range))
 	c.title(title, sub)
 
 	areaMask := s.drawArea(c)

@@ -76,12 +76,12 @@ func (s *planScene) suggestionMap(width int) ([]byte, error) {
 		ba.title = fmt.Sprintf("%d suggested devices at %s", len(sg.Added), metresShort(p.Range))
 	} else {
 		if sg.Reached {
-			ba.title = fmt.Sprintf("%s close every gap at %s", plural(len(sg.Added), "addition"), metresShort(p.Range))
+			ba.title = fmt.Sprintf("%s close every gap at %s", Plural(len(sg.Added), "addition"), metresShort(p.Range))
 		} else {
-			ba.title = fmt.Sprintf("%s at %s, gaps remain", plural(len(sg.Added), "addition"), metresShort(p.Range))
+			ba.title = fmt.Sprintf("%s at %s, gaps remain", Plural(len(sg.Added), "addition"), metresShort(p.Range))
 		}
 	}
-	ba.sub = fmt.Sprintf("Full cover %s -> %s; covered %.2f %% -> %.2f %%; uncovered %.0f m2 -> %.0f m2",
+	ba.sub = fmt.Sprintf("Full cover %s -> %s; covered %.2f %% -> %.2f %%; uncovered %.0f m² -> %.0f m²",
 		metresShort(sg.FullCoverBefore), metresShort(sg.FullCoverAfter), 100*sg.CoveredBefore, 100*sg.CoveredAfter,
 		sg.UncoveredBefore, sg.UncoveredAfter)
 	if !p.RangeGiven {
@@ -105,13 +105,13 @@ func (s *planScene) candidateMap(width int) ([]byte, error) {
 		}
 	}
 	ba.title = fmt.Sprintf("%d of %d candidate spots picked at %s", len(ch.Picked), len(p.Candidates), metresShort(ch.Range))
-	ba.sub = fmt.Sprintf("Covered %.2f %% -> %.2f %%; uncovered %.0f m2 -> %.0f m2", 100*ch.FractionBefore, 100*ch.FractionAfter,
+	ba.sub = fmt.Sprintf("Covered %.2f %% -> %.2f %%; uncovered %.0f m² -> %.0f m²", 100*ch.FractionBefore, 100*ch.FractionAfter,
 		ch.UncoveredBefore, ch.UncoveredAfter)
 	switch {
 	case ch.Complete:
 		ba.sub += "; full cover reached"
 	case ch.Exhausted:
-		ba.sub += fmt.Sprintf("; full cover cannot be reached from these spots (%s left)", plural(len(ch.Remaining), "gap"))
+		ba.sub += fmt.Sprintf("; full cover cannot be reached from these spots (%s left)", Plural(len(ch.Remaining), "gap"))
 	}
 	return encodeMap(s.drawBeforeAfter(width, ba))
 }
@@ -361,7 +361,7 @@ func (s *planScene) drawFailureMap(width int) (*canvas, error) {
 		if k > 0 {
 			lo = ub[k-1]
 		}
-		items = append(items, legendItem{fmt.Sprintf("Loss %s-%s m2", trimFloat(lo), trimFloat(ub[k])), swatchFill(cols[k], colCellEdge)})
+		items = append(items, legendItem{fmt.Sprintf("Loss %s-%s m²", trimFloat(lo), trimFloat(ub[k])), swatchFill(cols[k], colCellEdge)})
 	}
 	items = append(items,
 		legendItem{"Device (number: rank of the ten worst failures)", swatchDot},
@@ -379,7 +379,7 @@ func (s *planScene) drawFailureMap(width int) (*canvas, error) {
 	if math.IsInf(fr.SurviveRange, 0) {
 		sub = "A single device: nothing remains when it fails"
 	} else {
-		sub += metresShort(fr.SurviveRange) + fmt.Sprintf(" (diamond); worst loss %.0f m2", maxLoss)
+		sub += metresShort(fr.SurviveRange) + fmt.Sprintf(" (diamond); worst loss %.0f m²", maxLoss)
 	}
 	c.title(title, sub)
 
@@ -460,10 +460,10 @@ func (s *planScene) drawAssignmentMap(width int) (*canvas, error) {
 	if err != nil {
 		return nil, err
 	}
-	title := s.titled(fmt.Sprintf("Demand served (%d items)", len(p.Demand)))
+	title := s.titled(fmt.Sprintf("Demand served (%s)", Plural(len(p.Demand), "item")))
 	sub := "Each item is served by its nearest device"
 	if ranged {
-		sub = fmt.Sprintf("%d of %d items within %s of their nearest device; %d beyond", a.Served, len(p.Demand), metresShort(p.Range), a.Unserved)
+		sub = fmt.Sprintf("%d of %s within %s of their nearest device; %d beyond", a.Served, Plural(len(p.Demand), "item"), metresShort(p.Range), a.Unserved)
 		if p.Weighted {
 			sub += fmt.Sprintf(" (weight %s within, %s beyond)", weightText(a.ServedWeight), weightText(a.UnservedWeight))
 		}
@@ -603,12 +603,4 @@ func (c *canvas) swatchRule(x, y, w, h float64, col color.Color, lw float64) {
 	c.dc.SetLineWidth(lw)
 	c.dc.DrawLine(x, y+h/2, x+w, y+h/2)
 	c.dc.Stroke()
-}
-
-// plural returns "1 gap", "2 gaps".
-func plural(n int, noun string) string {
-	if n == 1 {
-		return "1 " + noun
-	}
-	return fmt.Sprintf("%d %ss", n, noun)
 }

@@ -69,9 +69,9 @@ func (s *planScene) planInputs(b *bytes.Buffer) {
 				polys++
 			}
 		}
-		what := fmt.Sprintf("%d demand items", len(s.p.Demand))
+		what := Plural(len(s.p.Demand), "demand item")
 		if polys > 0 {
-			what += fmt.Sprintf(" (%d polygons, each placed at a point on it)", polys)
+			what += fmt.Sprintf(" (%s, each placed at a point on it)", Plural(polys, "polygon"))
 		}
 		if s.p.Weighted {
 			what += ", weighted"
@@ -136,14 +136,14 @@ func (s *planScene) textSuggestion(b *bytes.Buffer) {
 		case len(sg.Added) == 0 && sg.Reached:
 			kv.add("Additions needed", "none: no gap at this range")
 		case sg.Reached:
-			kv.add("Additions needed", fmt.Sprintf("%d (by %s), %d devices in all", len(sg.Added), sg.Method, sg.TotalDevices))
+			kv.add("Additions needed", fmt.Sprintf("%d (by %s), %s in all", len(sg.Added), sg.Method, Plural(sg.TotalDevices, "device")))
 		default:
 			kv.add("Additions", fmt.Sprintf("%d placed, and gaps remain: the search stopped at its cap (%s)", len(sg.Added), sg.Method))
 		}
-		kv.add("Hexagonal estimate", fmt.Sprintf("%.2f devices (%d): area / ((3*sqrt(3)/2) r2), the thinnest covering of", sg.HexEstimate, sg.HexDevices))
+		kv.add("Hexagonal estimate", fmt.Sprintf("%.2f devices (%d): area / ((3*sqrt(3)/2) r²), the thinnest covering of", sg.HexEstimate, sg.HexDevices))
 		kv.add("", "the plane by equal disks (Kershner 1939); boundaries make real sites need more")
 		if sg.HexEstimate > 0 {
-			kv.add("Plan against estimate", fmt.Sprintf("%d devices = %.2f times the estimate (1 is the unreachable ideal)", sg.TotalDevices, sg.HexRatio))
+			kv.add("Plan against estimate", fmt.Sprintf("%s = %.2f times the estimate (1 is the unreachable ideal)", Plural(sg.TotalDevices, "device"), sg.HexRatio))
 		}
 		kv.write(b)
 		if len(sg.Added) == 0 {
@@ -153,7 +153,7 @@ func (s *planScene) textSuggestion(b *bytes.Buffer) {
 	}
 	t := &table{}
 	hx, hy := s.pointHeads()
-	t.head("New", hx, hy, "Full cover m", "after m", "Covered %", "after %", "Uncovered m2", "after m2")
+	t.head("New", hx, hy, "Full cover m", "after m", "Covered %", "after %", "Uncovered m²", "after m²")
 	for j, st := range sg.Steps {
 		px, py := s.pointCols(st.Added)
 		t.row(fmt.Sprintf("+%d", j+1), px, py,
@@ -183,7 +183,7 @@ func (s *planScene) textGapList(b *bytes.Buffer, title string, gaps []coverage.G
 	}
 	t := &table{}
 	hx, hy := s.pointHeads()
-	t.head("ID", "Area m2", "Closing m", hx, hy, "Kind")
+	t.head("ID", "Area m²", "Closing m", hx, hy, "Kind")
 	t.left(5)
 	total := 0.0
 	for _, g := range gaps {
@@ -192,7 +192,7 @@ func (s *planScene) textGapList(b *bytes.Buffer, title string, gaps []coverage.G
 		total += g.Area
 	}
 	t.write(b)
-	fmt.Fprintf(b, "  %s, %s in all.\n", plural(len(gaps), "gap"), m2(total))
+	fmt.Fprintf(b, "  %s, %s in all.\n", Plural(len(gaps), "gap"), m2(total))
 }
 
 func (s *planScene) textCandidates(b *bytes.Buffer) {
@@ -215,7 +215,7 @@ func (s *planScene) textCandidates(b *bytes.Buffer) {
 	} else {
 		t := &table{}
 		hx, hy := s.pointHeads()
-		t.head("Pick", "Spot", hx, hy, "Adds m2", "Covered %", "Name")
+		t.head("Pick", "Spot", hx, hy, "Adds m²", "Covered %", "Name")
 		t.left(6)
 		cum := cumulative(ch)
 		for j, c := range ch.Picked {
@@ -238,9 +238,9 @@ func (s *planScene) textCandidates(b *bytes.Buffer) {
 		kv.add("Result", "full cover: no gap remains at this range")
 	case ch.Exhausted:
 		kv.add("Result", fmt.Sprintf("FULL COVER CANNOT BE REACHED from these candidates: no remaining spot adds covered area; %s remain uncovered in %s",
-			m2(ch.UncoveredAfter), plural(len(ch.Remaining), "gap")))
+			m2(ch.UncoveredAfter), Plural(len(ch.Remaining), "gap")))
 	default:
-		kv.add("Result", fmt.Sprintf("%s leave %s uncovered in %s; more picks may close them", plural(len(ch.Picked), "pick"), m2(ch.UncoveredAfter), plural(len(ch.Remaining), "gap")))
+		kv.add("Result", fmt.Sprintf("%s leave %s uncovered in %s; more picks may close them", Plural(len(ch.Picked), "pick"), m2(ch.UncoveredAfter), Plural(len(ch.Remaining), "gap")))
 	}
 	kv.write(b)
 	s.textGapList(b, "GAPS LEFT WITH THE PICKS", ch.Remaining, "none: the picks leave no gap at this range")
@@ -268,7 +268,7 @@ func (s *planScene) textFailures(b *bytes.Buffer) {
 	b.WriteString("  Ranked by loss, then closing range.\n\n")
 	t := &table{}
 	hx, hy := s.pointHeads()
-	t.head("Rank", "Site", "Loss m2", "Uncovered m2", "Closing m", hx, hy, "Full cover m", "Backup", "Name")
+	t.head("Rank", "Site", "Loss m²", "Uncovered m²", "Closing m", hx, hy, "Full cover m", "Backup", "Name")
 	t.left(8, 9)
 	for k, d := range fr.Devices {
 		px, py := s.pointCols(d.Deepest)
@@ -393,7 +393,7 @@ func (s *planScene) textPlanNotes(b *bytes.Buffer) {
 		lines = append(lines,
 			"Areas, covered shares and full-cover ranges are closed-form results for the",
 			"disk model (polygon-disk intersections, Voronoi vertices), exact up to",
-			"floating-point rounding; printed rounded to 0.1 m2, 0.001 % and 0.01 m.",
+			"floating-point rounding; printed rounded to 0.1 m², 0.001 % and 0.01 m.",
 			"Gap outlines in the GeoJSON layers replace arcs by chords inside the disks",
 			"(sagitta at most 0.2 % of the range); gap areas are exact.",
 			"Positions are proposals for the disk model: check on site that a device can",

@@ -148,7 +148,7 @@ func (s *scene) textInputs(b *bytes.Buffer) {
 	kv.add("Site area", fmt.Sprintf("%s (%s), exclusion zones removed", m2(s.l.AreaM2), ha(s.l.AreaM2)))
 	if s.l.Area != nil {
 		holes := s.l.Area.NumRings() - s.l.Area.NumPolygons()
-		kv.add("Area outline", fmt.Sprintf("%d polygon(s), %d exclusion zone(s)", s.l.Area.NumPolygons(), holes))
+		kv.add("Area outline", Plural(s.l.Area.NumPolygons(), "polygon")+", "+Plural(holes, "exclusion zone"))
 	}
 	kv.write(b)
 }
@@ -180,7 +180,7 @@ func (s *scene) textSummary(b *bytes.Buffer) {
 	inner := innerGaps(a.Gaps)
 	kv.add("Gaps", fmt.Sprintf("%d (%d at the edge, %d inner; listed below)", len(a.Gaps), len(a.Gaps)-inner, inner))
 	kv.add("Pieces of coverage", fmt.Sprintf("%d (separate groups of overlapping disks)", a.Pieces))
-	kv.add("Holes open", fmt.Sprintf("%d holes of the union of disks at this range (see HOLES)", a.EnclosedHoles))
+	kv.add("Holes open", Plural(a.EnclosedHoles, "hole")+" of the union of disks at this range (see HOLES)")
 	kv.write(b)
 
 	section(b, "RANGES")
@@ -225,7 +225,7 @@ func (s *scene) textGaps(b *bytes.Buffer) {
 	b.WriteString("  point to the nearest site). Kind: edge or inner (see TERMS).\n\n")
 	t := &table{}
 	hx, hy := s.pointHeads()
-	t.head("ID", "Area m2", "Closing m", hx, hy, "Kind", "Nearby sites")
+	t.head("ID", "Area m²", "Closing m", hx, hy, "Kind", "Nearby sites")
 	t.left(5, 6)
 	for gi, g := range a.Gaps {
 		t.int("", g.ID)
@@ -260,7 +260,7 @@ func (s *scene) textCells(b *bytes.Buffer) {
 	b.WriteString("  from its site; the site's disk covers its service area at that range.\n\n")
 	t := &table{}
 	hx, hy := s.pointHeads()
-	t.head("Site", "Area m2", "Share %", "Farthest m", hx, hy, "Name", "Merged duplicates")
+	t.head("Site", "Area m²", "Share %", "Farthest m", hx, hy, "Name", "Merged duplicates")
 	t.left(6, 7)
 	for ci, c := range s.cells {
 		t.int("#", c.Site)
@@ -305,7 +305,7 @@ func (s *scene) textHoles(b *bytes.Buffer) {
 			}
 		}
 	}
-	fmt.Fprintf(b, "  At the planned range %s, %d of these %d holes are open (%d of them marked).\n\n", metres(r), open, len(p.Holes), marked)
+	fmt.Fprintf(b, "  At the planned range %s, %d of %s listed %s open (%d of them marked).\n\n", metres(r), open, Plural(len(p.Holes), "hole"), isAre(open), marked)
 	t := &table{}
 	hx, hy := s.pointHeads()
 	t.head("No", "Appears m", "Closes m", "Lifetime m", hx, hy, "At "+metresShort(r), "Note", "Ringed at appearance by")
@@ -355,6 +355,23 @@ func (s *scene) textTerms(b *bytes.Buffer) {
 	})
 }
 
+// Plural returns a count and its noun, the noun plural unless n is 1
+// ("1 gap", "2 gaps"). Every count written in words goes through it.
+func Plural(n int, noun string) string {
+	if n == 1 {
+		return "1 " + noun
+	}
+	return fmt.Sprintf("%d %ss", n, noun)
+}
+
+// isAre is the verb agreeing with a count n: "is" for 1, "are" otherwise.
+func isAre(n int) string {
+	if n == 1 {
+		return "is"
+	}
+	return "are"
+}
+
 // innerGaps counts the gaps surrounded by coverage (not touching the
 // site outline or an exclusion zone).
 func innerGaps(gaps []coverage.Gap) int {
@@ -396,7 +413,7 @@ func (s *scene) textAccuracy(b *bytes.Buffer) {
 		"Areas, covered share, uncovered area, gap areas, service areas and the",
 		"full-cover range are closed-form results (polygon-disk intersections,",
 		"Voronoi vertices), exact up to floating-point rounding; they are printed",
-		"rounded to 0.1 m2, 0.001 % and 0.01 m.",
+		"rounded to 0.1 m², 0.001 % and 0.01 m.",
 		"The 50/90/95/99 % ranges are inverted from the exact coverage curve to",
 		"within 1e-9 of the full-cover range.",
 		fmt.Sprintf("Gap outlines (%s and the coverage map) replace circular arcs by", LayerFile(FileGaps, s.m.Planar)),
@@ -498,7 +515,7 @@ func metres(v float64) string {
 	return fmt.Sprintf("%.2f m", v)
 }
 
-func m2(v float64) string { return fmt.Sprintf("%.1f m2", v) }
+func m2(v float64) string { return fmt.Sprintf("%.1f m²", v) }
 
 func ha(v float64) string { return fmt.Sprintf("%.4f ha", v/1e4) }
 

@@ -137,8 +137,8 @@ func printAnalysis(w io.Writer, d *report.SummaryDoc, m report.Meta) {
 	fmt.Fprintf(w, "  %-24s %d\n", "sites", d.Sites)
 	fmt.Fprintf(w, "  %-24s %s m²%s\n", "site area", fmtNum(d.AreaM2, 1), hull)
 	fmt.Fprintf(w, "  %-24s %s m\n", "planned range", fmtNum(d.RangeM, 2))
-	fmt.Fprintf(w, "  %-24s %s %% (%s m² uncovered in %d gaps, %d inner)\n", "covered at planned range",
-		fmtNum(100*d.CoveredFraction, 2), fmtNum(d.UncoveredAreaM2, 1), len(d.Gaps), inner)
+	fmt.Fprintf(w, "  %-24s %s %% (%s m² uncovered in %s, %d inner)\n", "covered at planned range",
+		fmtNum(100*d.CoveredFraction, 2), fmtNum(d.UncoveredAreaM2, 1), nGaps(len(d.Gaps)), inner)
 	where := ""
 	if len(d.FullCoverWorstPoints) > 0 {
 		where = " at " + fmtPoint(d.FullCoverWorstPoint, d.Coordinates)
@@ -200,7 +200,7 @@ func printWritten(w io.Writer, dir string, written []string) {
 	for i, p := range written {
 		names[i] = filepath.Base(p)
 	}
-	fmt.Fprintf(w, "Wrote %d files to %s: %s\n", len(written), dir, strings.Join(names, ", "))
+	fmt.Fprintf(w, "Wrote %s to %s: %s\n", report.Plural(len(written), "file"), dir, strings.Join(names, ", "))
 }
 
 // fmtNum formats v with d decimals.

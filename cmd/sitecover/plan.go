@@ -380,7 +380,7 @@ func printPlan(w io.Writer, d *report.PlanDoc, m report.Meta, mode printMode) {
 			case len(s.Added) == 0 && s.Reached:
 				line("fewest additions", "none needed: no gap at %s m", fmtNum(s.RangeM, 2))
 			case s.Reached:
-				line("fewest additions", "%d (%s) for no gap at %s m, %d devices in all", len(s.Added), s.Method, fmtNum(s.RangeM, 2), s.TotalDevices)
+				line("fewest additions", "%d (%s) for no gap at %s m, %s in all", len(s.Added), s.Method, fmtNum(s.RangeM, 2), report.Plural(s.TotalDevices, "device"))
 			default:
 				line("additions", "%d placed, gaps remain (the search stopped at its cap)", len(s.Added))
 			}
@@ -486,7 +486,7 @@ func printPlan(w io.Writer, d *report.PlanDoc, m report.Meta, mode printMode) {
 			if a.Weighted {
 				wt = ", weight " + trimNum(ld.Weight)
 			}
-			line("busiest device", "%s: %d items%s", siteLabel(m, ld.Device), ld.Count, wt)
+			line("busiest device", "%s: %s%s", siteLabel(m, ld.Device), report.Plural(ld.Count, "item"), wt)
 		}
 		if a.Farthest != nil {
 			p := a.Farthest
@@ -508,9 +508,4 @@ func trimNum(v float64) string {
 }
 
 // nGaps is "1 gap" or "n gaps".
-func nGaps(n int) string {
-	if n == 1 {
-		return "1 gap"
-	}
-	return fmt.Sprintf("%d gaps", n)
-}
+func nGaps(n int) string { return report.Plural(n, "gap") }

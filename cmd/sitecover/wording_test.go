@@ -1,7 +1,8 @@
 // The wording rules of every text output (stdout, report.txt, summary.json,
 // CSV tables), checked on the demo (exclusion zones, ten gaps) and on a
 // square with one site and no exclusion zone (one gap): gaps and holes
-// are never called "enclosed", both are defined once in report.txt.
+// are never called "enclosed", both are defined once in report.txt;
+// square metres are m²; a count of one is singular.
 
 package main
 
@@ -64,6 +65,11 @@ type wordingRule struct {
 var wordingRules = []wordingRule{
 	// Gaps are "edge" or "inner"; holes are "open"; "enclosed" meant both.
 	{"no-enclosed", regexp.MustCompile(`(?i)enclosed`)},
+	// Square metres are written m² (JSON keys such as area_m2 excepted).
+	{"no-m2", regexp.MustCompile(`(^|[^_A-Za-z0-9])k?m2\b`)},
+	// A count of one takes the singular; no "(s)" hedges.
+	{"no-1-plurals", regexp.MustCompile(`(^|[^0-9.,])1 (gaps|holes|sites|items|devices|files|polygons|exclusion zones|points|pieces|spots|candidates)\b`)},
+	{"no-(s)", regexp.MustCompile(`[a-z]\(s\)`)},
 }
 
 func TestWordingRules(t *testing.T) {
