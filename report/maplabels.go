@@ -9,7 +9,6 @@
 package report
 
 import (
-	"fmt"
 	"math"
 
 	"github.com/paulmach/orb"
@@ -38,7 +37,7 @@ func (s *scene) labelSites(c *canvas, rho float64) {
 			continue
 		}
 		seen[p] = true
-		text := s.shortLabel(i)
+		text := s.label(i)
 		w := float64(font.MeasureString(face, text)) / 64
 		h := 14 * c.u * 0.78 // cap height and a little
 		x, y := c.px(p)
@@ -52,14 +51,6 @@ func (s *scene) labelSites(c *canvas, rho float64) {
 		taken = append(taken, b)
 		c.haloText(text, b.x0, b.y1, 0, 0, 14, false, colInk)
 	}
-}
-
-// shortLabel is a site's map label: its name, or #i.
-func (s *scene) shortLabel(i int) string {
-	if n := s.name(i); n != "" {
-		return n
-	}
-	return fmt.Sprintf("#%d", i)
 }
 
 // labelBox is the box of a label or a mark, in px.

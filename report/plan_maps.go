@@ -11,7 +11,7 @@
 //     causes, in up to five classes of round width on the viridis scale
 //     (designed to be read with every common colour-vision deficiency and
 //     in grey; van der Walt & Smith, matplotlib, 2015), devices with no
-//     loss in grey, the ten worst ranked by number, and the point that
+//     loss in grey, the ten worst marked "rank 1" to "rank 10", and the point that
 //     fixes the range surviving any single failure;
 //   - assignment: coverage at the range, service-area edges, a line from
 //     each demand item to its serving device, and the items marked by
@@ -364,7 +364,7 @@ func (s *planScene) drawFailureMap(width int) (*canvas, error) {
 		items = append(items, legendItem{fmt.Sprintf("Loss %s-%s m²", trimFloat(lo), trimFloat(ub[k])), swatchFill(cols[k], colCellEdge)})
 	}
 	items = append(items,
-		legendItem{"Device (number: rank of the ten worst failures)", swatchDot},
+		legendItem{"Device; rank 1 to 10: the ten worst failures, largest loss first", swatchDot},
 		legendItem{"Point fixing the range that survives any single failure", swatchWorst})
 	key := mapKey{items: items, notes: []string{
 		fmt.Sprintf("Service areas filled by the area left uncovered at %s when their device is out of service (the others working).", metresShort(fr.Range)),
@@ -407,7 +407,7 @@ func (s *planScene) drawFailureMap(width int) (*canvas, error) {
 			continue
 		}
 		pts = append(pts, s.l.Sites[fr.Devices[k].Site])
-		texts = append(texts, fmt.Sprint(k+1))
+		texts = append(texts, "rank "+strconv.Itoa(k+1))
 	}
 	if fr.SurviveSite >= 0 && !math.IsInf(fr.SurviveRange, 0) {
 		x, y := c.px(fr.SurvivePoint)
@@ -545,7 +545,7 @@ func (s *planScene) drawAssignmentMap(width int) (*canvas, error) {
 		if ld.Count == 0 {
 			continue
 		}
-		t := s.shortLabel(i) + fmt.Sprintf(": %d", ld.Count)
+		t := s.label(i) + fmt.Sprintf(": %d", ld.Count)
 		if p.Weighted {
 			t += " (w " + weightText(ld.Weight) + ")"
 		}

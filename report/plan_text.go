@@ -32,7 +32,7 @@ var moveTitle = map[Move]string{
 func (s *planScene) planText() []byte {
 	var b bytes.Buffer
 	s.textTitle(&b, moveTitle[s.p.Move])
-	b.WriteString("Sites (existing devices) are numbered #0, #1, ... in input order (as in summary.json).\n")
+	b.WriteString(numberingNote)
 	if s.m.LifeSafety {
 		section(&b, "CAUTIONS (LIFE-SAFETY DEVICES)")
 		b.WriteString(Cautions() + "\n")
@@ -215,16 +215,16 @@ func (s *planScene) textCandidates(b *bytes.Buffer) {
 	} else {
 		t := &table{}
 		hx, hy := s.pointHeads()
-		t.head("Pick", "Spot", hx, hy, "Adds m²", "Covered %", "Name")
-		t.left(6)
+		t.head("Pick", hx, hy, "Adds m²", "Covered %", "Candidate")
+		t.left(5)
 		cum := cumulative(ch)
 		for j, c := range ch.Picked {
 			px, py := s.pointCols(p.Candidates[c])
-			t.row(fmt.Sprint(j+1), fmt.Sprintf("c%d", c), px, py, fmt.Sprintf("%.1f", ch.Gains[j]),
-				fmt.Sprintf("%.3f", 100*math.Max(0, math.Min(1, cum[j]/s.l.AreaM2))), orDash(p.CandidateNames[c]))
+			t.row(fmt.Sprint(j+1), px, py, fmt.Sprintf("%.1f", ch.Gains[j]),
+				fmt.Sprintf("%.3f", 100*math.Max(0, math.Min(1, cum[j]/s.l.AreaM2))), ItemLabel(p.CandidateNames[c], "candidate", c))
 		}
 		t.write(b)
-		b.WriteString("  Spot: c<index> is the 0-based order in the candidates file.\n")
+		b.WriteString("  Candidate: its name, or its position in the candidates file (candidate 1 first).\n")
 	}
 	section(b, "BEFORE AND AFTER")
 	kv := &kvList{}
@@ -268,20 +268,20 @@ func (s *planScene) textFailures(b *bytes.Buffer) {
 	b.WriteString("  Ranked by loss, then closing range.\n\n")
 	t := &table{}
 	hx, hy := s.pointHeads()
-	t.head("Rank", "Site", "Loss m²", "Uncovered m²", "Closing m", hx, hy, "Full cover m", "Backup", "Name")
-	t.left(8, 9)
+	t.head("Rank", "Loss m²", "Uncovered m²", "Closing m", hx, hy, "Full cover m", "Device", "Backup")
+	t.left(7, 8)
 	for k, d := range fr.Devices {
 		px, py := s.pointCols(d.Deepest)
-		name := orDash(s.name(d.Site))
+		name := s.label(d.Site)
 		if d.Shared {
 			name += " (shares its spot: its failure changes nothing)"
 		}
 		backup := "-"
 		if d.Backup >= 0 {
-			backup = fmt.Sprintf("#%d", d.Backup)
+			backup = s.label(d.Backup)
 		}
-		t.row(fmt.Sprint(k+1), fmt.Sprintf("#%d", d.Site), fmt.Sprintf("%.1f", d.AddedUncovered), fmt.Sprintf("%.1f", d.Uncovered),
-			metresCol(d.ClosingRange), px, py, metresCol(d.FullCover), backup, name)
+		t.row(fmt.Sprint(k+1), fmt.Sprintf("%.1f", d.AddedUncovered), fmt.Sprintf("%.1f", d.Uncovered),
+			metresCol(d.ClosingRange), px, py, metresCol(d.FullCover), name, backup)
 	}
 	t.write(b)
 }
@@ -328,17 +328,17 @@ func (s *planScene) textAssignment(b *bytes.Buffer) {
 	b.WriteString("  holds it). Devices serving nothing are listed too.\n\n")
 	t := &table{}
 	if ranged {
-		t.head("Site", "Items", "Weight", "In range", "Weight in range", "Name")
-		t.left(5)
+		t.head("Items", "Weight", "In range", "Weight in range", "Device")
+		t.left(4)
 	} else {
-		t.head("Site", "Items", "Weight", "Name")
-		t.left(3)
+		t.head("Items", "Weight", "Device")
+		t.left(2)
 	}
 	for i, ld := range a.Load {
 		if ranged {
-			t.row(fmt.Sprintf("#%d", i), fmt.Sprint(ld.Count), weightText(ld.Weight), fmt.Sprint(ld.InRange), weightText(ld.InRangeWeight), orDash(s.name(i)))
+			t.row(fmt.Sprint(ld.Count), weightText(ld.Weight), fmt.Sprint(ld.InRange), weightText(ld.InRangeWeight), s.label(i))
 		} else {
-			t.row(fmt.Sprintf("#%d", i), fmt.Sprint(ld.Count), weightText(ld.Weight), orDash(s.name(i)))
+			t.row(fmt.Sprint(ld.Count), weightText(ld.Weight), s.label(i))
 		}
 	}
 	t.write(b)
@@ -351,8 +351,8 @@ func (s *planScene) textAssignment(b *bytes.Buffer) {
 	}
 	t = &table{}
 	hx, hy := s.pointHeads()
-	t.head("Item", hx, hy, "Device", "Distance m", "In range", "Weight", "Name", "Device name")
-	t.left(7, 8)
+	t.head(hx, hy, "Distance m", "In range", "Weight", "Item", "Device")
+	t.left(5, 6)
 	rows := 0
 	for i := range p.Demand {
 		in := "-"
@@ -366,8 +366,8 @@ func (s *planScene) textAssignment(b *bytes.Buffer) {
 			continue
 		}
 		px, py := s.pointCols(p.Demand[i])
-		t.row(fmt.Sprint(i), px, py, fmt.Sprintf("#%d", a.Device[i]), fmt.Sprintf("%.2f", a.Distance[i]), in,
-			weightText(a.Weight[i]), orDash(s.demandName(i)), orDash(s.name(a.Device[i])))
+		t.row(px, py, fmt.Sprintf("%.2f", a.Distance[i]), in,
+			weightText(a.Weight[i]), s.demandLabel(i), s.label(a.Device[i]))
 		rows++
 	}
 	if rows == 0 {
@@ -377,13 +377,8 @@ func (s *planScene) textAssignment(b *bytes.Buffer) {
 	t.write(b)
 }
 
-// demandLabel is "item i name" or "item i".
-func (s *planScene) demandLabel(i int) string {
-	if n := s.demandName(i); n != "" {
-		return fmt.Sprintf("item %d %s", i, n)
-	}
-	return fmt.Sprintf("item %d", i)
-}
+// demandLabel names demand item i (ItemLabel: its name, or "item n").
+func (s *planScene) demandLabel(i int) string { return ItemLabel(s.demandName(i), "item", i) }
 
 func (s *planScene) textPlanNotes(b *bytes.Buffer) {
 	section(b, "ACCURACY AND NOTES")

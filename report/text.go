@@ -93,7 +93,7 @@ func (s *scene) textHeader(b *bytes.Buffer) {
 		title = "Service-area report"
 	}
 	s.textTitle(b, title)
-	b.WriteString("Sites are numbered #0, #1, ... in input order (as in summary.json).\n")
+	b.WriteString(numberingNote)
 }
 
 // textTitle writes the report's title (base and the report title),
@@ -225,7 +225,7 @@ func (s *scene) textGaps(b *bytes.Buffer) {
 	b.WriteString("  point to the nearest site). Kind: edge or inner (see TERMS).\n\n")
 	t := &table{}
 	hx, hy := s.pointHeads()
-	t.head("ID", "Area m²", "Closing m", hx, hy, "Kind", "Nearby sites")
+	t.head("Gap", "Area m²", "Closing m", hx, hy, "Kind", "Bordering devices")
 	t.left(5, 6)
 	for gi, g := range a.Gaps {
 		t.int("", g.ID)
@@ -260,21 +260,19 @@ func (s *scene) textCells(b *bytes.Buffer) {
 	b.WriteString("  from its site; the site's disk covers its service area at that range.\n\n")
 	t := &table{}
 	hx, hy := s.pointHeads()
-	t.head("Site", "Area m²", "Share %", "Farthest m", hx, hy, "Name", "Merged duplicates")
-	t.left(6, 7)
+	t.head("Area m²", "Share %", "Farthest m", hx, hy, "Device", "Merged duplicates")
+	t.left(5, 6)
 	for ci, c := range s.cells {
-		t.int("#", c.Site)
 		t.num(c.Area, 1)
 		t.num(100*c.Share, 3)
 		t.num(c.Farthest, 2)
 		s.pointCells(t, s.farthestOut(ci))
-		t.str(orDash(s.name(c.Site)))
+		t.str(s.label(c.Site))
 		for k, i := range c.Merged {
 			if k > 0 {
-				t.cells = append(t.cells, ' ')
+				t.cells = append(t.cells, ", "...)
 			}
-			t.cells = append(t.cells, '#')
-			t.cells = strconv.AppendInt(t.cells, int64(i), 10)
+			t.cells = s.appendLabel(t.cells, i)
 		}
 		t.cell()
 	}

@@ -163,7 +163,7 @@ func printGapTable(w io.Writer, d *report.SummaryDoc, m report.Meta) {
 		return
 	}
 	fmt.Fprintf(w, "\nGaps at %s m, by closing range:\n", fmtNum(d.RangeM, 2))
-	fmt.Fprintf(w, "  %4s  %12s  %11s  %-26s  %-8s  %s\n", "gap", "area m²", "closing m", "deepest point", "where", "nearby sites")
+	fmt.Fprintf(w, "  %4s  %12s  %11s  %-26s  %-8s  %s\n", "gap", "area m²", "closing m", "deepest point", "kind", "bordering devices")
 	for i, g := range d.Gaps {
 		if i == maxGapRows {
 			fmt.Fprintf(w, "  ... and %d more gaps (all in report.txt, summary.json and gaps.geojson)\n", len(d.Gaps)-i)
@@ -186,13 +186,8 @@ func printGapTable(w io.Writer, d *report.SummaryDoc, m report.Meta) {
 	}
 }
 
-// siteLabel is "#i name" or "#i" for input site i.
-func siteLabel(m report.Meta, i int) string {
-	if i >= 0 && i < len(m.SiteNames) && m.SiteNames[i] != "" {
-		return fmt.Sprintf("#%d %s", i, m.SiteNames[i])
-	}
-	return fmt.Sprintf("#%d", i)
-}
+// siteLabel names input site i as every output does (report.DeviceLabel).
+func siteLabel(m report.Meta, i int) string { return report.DeviceLabel(m.SiteNames, i) }
 
 // printWritten lists the files written.
 func printWritten(w io.Writer, dir string, written []string) {

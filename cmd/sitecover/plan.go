@@ -427,11 +427,7 @@ func printPlan(w io.Writer, d *report.PlanDoc, m report.Meta, mode printMode) {
 					fmt.Fprintf(w, "  ... and %d more picks (all in report.txt and summary.json)\n", len(c.Picked)-i)
 					break
 				}
-				name := ""
-				if pk.Name != "" {
-					name = " " + pk.Name
-				}
-				fmt.Fprintf(w, "  %4d  c%d%s at %s: +%s m²\n", pk.Order, pk.Candidate, name, fmtPoint(pk.Point, d.Coordinates), fmtNum(pk.GainM2, 1))
+				fmt.Fprintf(w, "  %4d  %s at %s: +%s m²\n", pk.Order, report.ItemLabel(pk.Name, "candidate", pk.Candidate), fmtPoint(pk.Point, d.Coordinates), fmtNum(pk.GainM2, 1))
 			}
 		}
 	case report.MoveFailures:
@@ -451,14 +447,14 @@ func printPlan(w io.Writer, d *report.PlanDoc, m report.Meta, mode printMode) {
 			rows = min(rows, 10)
 		}
 		if rows > 0 {
-			fmt.Fprintf(w, "  worst failures (loss: area uncovered when the device is out of service):\n")
+			fmt.Fprintf(w, "  worst failures by rank (loss: area uncovered when the device is out of service):\n")
 		}
 		for _, fl := range d.Failures[:rows] {
 			closing := "deepest new gap: no device left"
 			if fl.ClosingRangeM != nil {
 				closing = "deepest new gap needs " + fmtNum(*fl.ClosingRangeM, 2) + " m"
 			}
-			fmt.Fprintf(w, "  %4d  %-32s loss %10s m²  %s\n", fl.Rank, siteLabel(m, fl.Site), fmtNum(fl.AddedUncoveredM2, 1), closing)
+			fmt.Fprintf(w, "  rank %-3d %-28s loss %10s m²  %s\n", fl.Rank, siteLabel(m, fl.Site), fmtNum(fl.AddedUncoveredM2, 1), closing)
 		}
 	case report.MoveAssign:
 		a := d.Assignment
@@ -490,11 +486,7 @@ func printPlan(w io.Writer, d *report.PlanDoc, m report.Meta, mode printMode) {
 		}
 		if a.Farthest != nil {
 			p := a.Farthest
-			name := ""
-			if p.Name != "" {
-				name = " " + p.Name
-			}
-			line("farthest item", "item %d%s: %s m from %s", p.Point, name, fmtNum(p.DistanceM, 2), siteLabel(m, p.Device))
+			line("farthest item", "%s: %s m from %s", report.ItemLabel(p.Name, "item", p.Point), fmtNum(p.DistanceM, 2), siteLabel(m, p.Device))
 		}
 	}
 }
