@@ -651,7 +651,7 @@ func TestReportText(t *testing.T) {
 	for _, want := range []string{
 		"Site coverage report: Test campus", "Full-cover range", metres(g.an.FullCover.Range),
 		"Range covering 95 %", "Link range", "GAPS AT 70.00 m", "SERVICE AREAS", "North gate", "CAUTIONS",
-		"life-safety", "Lat deg", "transverse Mercator on WGS84",
+		"life-safety", "Latitude", "transverse Mercator on WGS84",
 	} {
 		if !strings.Contains(txt, want) {
 			t.Errorf("report.txt lacks %q", want)

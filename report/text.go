@@ -421,9 +421,11 @@ func (s *scene) textAccuracy(b *bytes.Buffer) {
 	}
 	if s.geographic() {
 		lines = append(lines,
-			"Points are WGS84 latitude/longitude in degrees, rounded to 7 decimals",
-			"(about 1 cm). GeoJSON layers are RFC 7946: longitude first, exterior",
-			"rings counter-clockwise, holes clockwise.")
+			"Points are WGS84 latitude and longitude in degrees with hemisphere letters,",
+			"rounded to 7 decimals (about 1 cm). summary.json and the GeoJSON layers",
+			"hold the same points as numbers in RFC 7946 order: longitude first",
+			"(negative west and south); polygon exterior rings counter-clockwise,",
+			"polygon holes clockwise.")
 	} else {
 		lines = append(lines,
 			"Points are local plane x/y in metres, rounded to 1 mm. The GeoJSON layers",
@@ -466,45 +468,87 @@ func (s *scene) rangeOrZero() float64 {
 	return s.a.Range
 }
 
+// The one coordinate format of every text output (stdout, report.txt,
+// the planning reports): latitude then longitude in degrees with
+// hemisphere letters, 7 decimals (1e-7° is at most 1.1 cm), e.g.
+// "44.3807215°N 99.8651782°W", so the order cannot be misread; local plane
+// points as "x 12.345 m, y 67.890 m" (1 mm). Tables put the same two
+// strings in two columns. summary.json and the GeoJSON layers keep
+// numbers in [lon, lat] order as RFC 7946 requires.
+const (
+	degreeDecimals = 7
+	metreDecimals  = 3
+)
+
+// FormatPoint formats an output point p of a document whose
+// "coordinates" member is kind ("lon_lat" or "x_y") in the one text form.
+func FormatPoint(p Point, kind string) string {
+	if kind == "lon_lat" {
+		b := appendDegrees(nil, p[1], "N", "S")
+		b = append(b, ' ')
+		return string(appendDegrees(b, p[0], "E", "W"))
+	}
+	return string(appendXY(nil, p))
+}
+
+// appendDegrees appends |v| with degreeDecimals decimals, "°" and the
+// hemisphere letter (pos for v ≥ 0, else neg).
+func appendDegrees(b []byte, v float64, pos, neg string) []byte {
+	h := pos
+	if v < 0 {
+		h, v = neg, -v
+	}
+	b = strconv.AppendFloat(b, v, 'f', degreeDecimals, 64)
+	b = append(b, "°"...)
+	return append(b, h...)
+}
+
+// appendXY appends a local point as "x 12.345 m, y 67.890 m".
+func appendXY(b []byte, p Point) []byte {
+	b = append(b, "x "...)
+	b = strconv.AppendFloat(b, p[0], 'f', metreDecimals, 64)
+	b = append(b, " m, y "...)
+	b = strconv.AppendFloat(b, p[1], 'f', metreDecimals, 64)
+	return append(b, " m"...)
+}
+
 // pointHeads returns the column heads of a point.
 func (s *scene) pointHeads() (string, string) {
 	if s.geographic() {
-		return "Lat deg", "Lon deg"
+		return "Latitude", "Longitude"
 	}
 	return "x m", "y m"
 }
 
-// pointCols returns a point as two table cells (lat, lon or x, y).
+// pointCols returns a point as two table cells (latitude, longitude or
+// x, y).
 func (s *scene) pointCols(p orb.Point) (string, string) { return s.outCols(s.point(p)) }
 
-// outCols returns an output point as two table cells (lat, lon or x, y).
+// outCols returns an output point as two table cells (latitude,
+// longitude or x, y), as FormatPoint writes them.
 func (s *scene) outCols(q Point) (string, string) {
 	if s.geographic() {
-		return strconv.FormatFloat(q[1], 'f', 7, 64), strconv.FormatFloat(q[0], 'f', 7, 64)
+		return string(appendDegrees(nil, q[1], "N", "S")), string(appendDegrees(nil, q[0], "E", "W"))
 	}
-	return strconv.FormatFloat(q[0], 'f', 3, 64), strconv.FormatFloat(q[1], 'f', 3, 64)
+	return strconv.FormatFloat(q[0], 'f', metreDecimals, 64), strconv.FormatFloat(q[1], 'f', metreDecimals, 64)
 }
 
-// pointCells adds an output point to t as two cells (lat, lon or x, y),
-// as outCols formats it.
+// pointCells adds an output point to t as two cells, as outCols formats
+// it.
 func (s *scene) pointCells(t *table, q Point) {
 	if s.geographic() {
-		t.num(q[1], 7)
-		t.num(q[0], 7)
+		t.cells = appendDegrees(t.cells, q[1], "N", "S")
+		t.cell()
+		t.cells = appendDegrees(t.cells, q[0], "E", "W")
+		t.cell()
 		return
 	}
-	t.num(q[0], 3)
-	t.num(q[1], 3)
+	t.num(q[0], metreDecimals)
+	t.num(q[1], metreDecimals)
 }
 
-// pointText returns a point as text.
-func (s *scene) pointText(p orb.Point) string {
-	q := s.point(p)
-	if s.geographic() {
-		return fmt.Sprintf("lat %.7f, lon %.7f", q[1], q[0])
-	}
-	return fmt.Sprintf("x %.3f m, y %.3f m", q[0], q[1])
-}
+// pointText returns a point as text (FormatPoint).
+func (s *scene) pointText(p orb.Point) string { return FormatPoint(s.point(p), s.coordKind()) }
 
 func metres(v float64) string {
 	if math.IsNaN(v) || math.IsInf(v, 0) {

@@ -201,12 +201,6 @@ func printWritten(w io.Writer, dir string, written []string) {
 // fmtNum formats v with d decimals.
 func fmtNum(v float64, d int) string { return fmt.Sprintf("%.*f", d, v) }
 
-// fmtPoint formats an output point for reading: geographic points with
-// hemisphere letters (so the order cannot be misread; 1e-6° is at most
-// 11 cm), local points as x and y metres.
-func fmtPoint(p report.Point, kind string) string {
-	if kind == "lon_lat" {
-		return degrees(p[1], "N", "S", 6) + " " + degrees(p[0], "E", "W", 6)
-	}
-	return fmt.Sprintf("x %.2f y %.2f", p[0], p[1])
-}
+// fmtPoint formats an output point in the one text form of every output
+// (report.FormatPoint).
+func fmtPoint(p report.Point, kind string) string { return report.FormatPoint(p, kind) }

@@ -58,26 +58,35 @@ func wordingScenes(t *testing.T) map[string]map[string]string {
 
 // siteWarningLine matches the input warnings about sites outside the area
 // or sharing a position.
-var siteWarningLine = regexp.MustCompile(`[^\n]*(lie outside the area|at the same position)[^\n]*`)
+var siteWarningLine = regexp.MustCompile(`[^\n]*(lie outside the area|exact position of an earlier site)[^\n]*`)
+
+// hemisphere is the one text form of a geographic point.
+var hemisphere = regexp.MustCompile(`\d+\.\d{7}°[NS] +\d+\.\d{7}°[EW]`)
 
 // wordingRule is a pattern no text output may contain, and why.
 type wordingRule struct {
 	name string
 	bad  *regexp.Regexp
+	// prose restricts the rule to stdout and report.txt (summary.json and
+	// the CSV tables hold numbers).
+	prose bool
 }
 
 var wordingRules = []wordingRule{
 	// Gaps are "edge" or "inner"; holes are "open"; "enclosed" meant both.
-	{"no-enclosed", regexp.MustCompile(`(?i)enclosed`)},
+	{"no-enclosed", regexp.MustCompile(`(?i)enclosed`), false},
 	// Square metres are written m² (JSON keys such as area_m2 excepted).
-	{"no-m2", regexp.MustCompile(`(^|[^_A-Za-z0-9])k?m2\b`)},
+	{"no-m2", regexp.MustCompile(`(^|[^_A-Za-z0-9])k?m2\b`), false},
 	// A count of one takes the singular; no "(s)" hedges.
-	{"no-1-plurals", regexp.MustCompile(`(^|[^0-9.,])1 (gaps|holes|sites|items|devices|files|polygons|exclusion zones|points|pieces|spots|candidates)\b`)},
-	{"no-(s)", regexp.MustCompile(`[a-z]\(s\)`)},
+	{"no-1-plurals", regexp.MustCompile(`(^|[^0-9.,])1 (gaps|holes|sites|items|devices|files|polygons|exclusion zones|points|pieces|spots|candidates)\b`), false},
+	{"no-(s)", regexp.MustCompile(`[a-z]\(s\)`), false},
 	// A device is named by its label alone, never an index beside it
 	// ("#10 Q11 ..."); a candidate by its name ("C01", not "c0 C01").
-	{"no-index-and-label", regexp.MustCompile(`#\d+ [A-Z]`)},
-	{"no-candidate-index", regexp.MustCompile(`\bc\d+ C\d`)},
+	{"no-index-and-label", regexp.MustCompile(`#\d+ [A-Z]`), false},
+	{"no-candidate-index", regexp.MustCompile(`\bc\d+ C\d`), false},
+	// One coordinate form in text: 44.3807215°N 99.8651782°W, never signed
+	// decimal degrees or "lat ..., lon ...".
+	{"one-coordinate-form", regexp.MustCompile(`\blat -?\d|Lat deg|-\d{1,3}\.\d{5,}`), true},
 }
 
 func TestWordingRules(t *testing.T) {
@@ -86,6 +95,9 @@ func TestWordingRules(t *testing.T) {
 			for _, rule := range wordingRules {
 				t.Run(rule.name, func(t *testing.T) {
 					for path, txt := range texts {
+						if rule.prose && path != "stdout" && filepath.Base(path) != "report.txt" {
+							continue
+						}
 						if rule.name == "no-index-and-label" {
 							// The site warnings are worded where the inputs are
 							// loaded (siteWarnings, cmd/sitecover/scene.go, moving
@@ -103,6 +115,9 @@ func TestWordingRules(t *testing.T) {
 			for path, txt := range texts {
 				if filepath.Base(path) != "report.txt" {
 					continue
+				}
+				if scene == "demo" && !hemisphere.MatchString(txt) {
+					t.Errorf("%s: no point written as 44.3807215°N 99.8651782°W", path)
 				}
 				if strings.Count(txt, "\nTERMS\n") != 1 || !strings.Contains(txt, "\n  Gap   ") || !strings.Contains(txt, "\n  Hole  ") {
 					t.Errorf("%s: gaps and holes are not defined once in a TERMS section", path)
