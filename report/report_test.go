@@ -186,8 +186,14 @@ func TestSummaryJSONFieldNames(t *testing.T) {
 			}
 		}
 	}
-	sub("gaps", "id", "area_m2", "closing_range_m", "deepest_point", "touches_boundary")
+	sub("gaps", "id", "area_m2", "closing_range_m", "deepest_point", "touches_boundary", "sites", "site_labels")
 	sub("cells", "site", "name", "area_m2", "farthest_m", "farthest_point")
+	// The run is named: its title and input files (issue 16).
+	for _, k := range []string{"title", "sites_file", "area_file", "exclude_file"} {
+		if _, ok := doc[k]; !ok {
+			t.Errorf("summary.json lacks %q", k)
+		}
+	}
 	var pc map[string]float64
 	if err := json.Unmarshal(doc["range_percentiles"], &pc); err != nil {
 		t.Fatal(err)

@@ -27,6 +27,8 @@ type SummaryDoc struct {
 	Command string `json:"command"`
 	// Version is the program version.
 	Version string `json:"version"`
+	// RunInputs names the run's title and input files.
+	RunInputs
 	// Sites is the number of input sites.
 	Sites int `json:"sites"`
 	// Duplicates is the number of input sites at exactly the position of
@@ -87,8 +89,9 @@ type SummaryDoc struct {
 // CellsDoc is the summary.json document of the cells command: the layout
 // fields of SummaryDoc without coverage figures.
 type CellsDoc struct {
-	Command       string        `json:"command"`
-	Version       string        `json:"version"`
+	Command string `json:"command"`
+	Version string `json:"version"`
+	RunInputs
 	Sites         int           `json:"sites"`
 	Duplicates    int           `json:"duplicates"`
 	AreaM2        float64       `json:"area_m2"`
@@ -99,6 +102,42 @@ type CellsDoc struct {
 	Coordinates   string        `json:"coordinates"`
 	Warnings      []string      `json:"warnings"`
 	Timings       Timings       `json:"timings"`
+}
+
+// RunInputs identifies a run in every summary.json: the title of its
+// report and maps and the input files as given ("" when not given; the
+// demo's built-in files are named with "(built in)").
+type RunInputs struct {
+	Title       string `json:"title"`
+	SitesFile   string `json:"sites_file"`
+	AreaFile    string `json:"area_file"`
+	ExcludeFile string `json:"exclude_file"`
+	// CandidatesFile and PointsFile are the planning moves' inputs.
+	CandidatesFile string `json:"candidates_file,omitempty"`
+	PointsFile     string `json:"points_file,omitempty"`
+}
+
+// runInputs returns the RunInputs of the scene's run.
+func (s *scene) runInputs() RunInputs {
+	return RunInputs{Title: s.m.Title, SitesFile: s.m.SitesFile, AreaFile: s.m.AreaFile, ExcludeFile: s.m.ExcludeFile,
+		CandidatesFile: s.m.CandidatesFile, PointsFile: s.m.PointsFile}
+}
+
+// summaryGap is gap g in summary.json, with its deepest point out.
+func (s *scene) summaryGap(g *coverage.Gap, deepest Point) SummaryGap {
+	labels := make([]string, len(g.Sites))
+	for k, i := range g.Sites {
+		labels[k] = s.label(i)
+	}
+	return SummaryGap{
+		ID:              g.ID,
+		AreaM2:          g.Area,
+		ClosingRangeM:   g.ClosingRange,
+		DeepestPoint:    deepest,
+		TouchesBoundary: g.TouchesBoundary,
+		Sites:           append(make([]int, 0, len(g.Sites)), g.Sites...),
+		SiteLabels:      labels,
+	}
 }
 
 // Point is a point of summary.json: [lon, lat] or [x, y] (see
@@ -112,9 +151,11 @@ type SummaryGap struct {
 	ClosingRangeM   float64 `json:"closing_range_m"`
 	DeepestPoint    Point   `json:"deepest_point"`
 	TouchesBoundary bool    `json:"touches_boundary"`
-	// Sites are the input indices of the sites whose service areas the
-	// gap meets.
-	Sites []int `json:"sites"`
+	// Sites are the input indices (0-based) of the devices bordering the
+	// gap: those whose service areas it meets. SiteLabels names the same
+	// devices as the text outputs do (DeviceLabel), in the same order.
+	Sites      []int    `json:"sites"`
+	SiteLabels []string `json:"site_labels"`
 }
 
 // SummaryHole is one hole of the union of disks in summary.json.
@@ -288,6 +329,7 @@ func (s *scene) summary() *SummaryDoc {
 	d := &SummaryDoc{
 		Command:          s.m.Command,
 		Version:          s.m.Version,
+		RunInputs:        s.runInputs(),
 		Sites:            len(s.l.Sites),
 		Duplicates:       s.duplicates(),
 		AreaM2:           s.l.AreaM2,
@@ -316,15 +358,8 @@ func (s *scene) summary() *SummaryDoc {
 		d.FullCoverWorstPoint = d.FullCoverWorstPoints[0]
 	}
 	d.FullCoverNearestSites = append(make([]int, 0, len(a.FullCover.WorstSites)), a.FullCover.WorstSites...)
-	for gi, g := range a.Gaps {
-		d.Gaps = append(d.Gaps, SummaryGap{
-			ID:              g.ID,
-			AreaM2:          g.Area,
-			ClosingRangeM:   g.ClosingRange,
-			DeepestPoint:    s.deepestOut(gi),
-			TouchesBoundary: g.TouchesBoundary,
-			Sites:           append(make([]int, 0, len(g.Sites)), g.Sites...),
-		})
+	for gi := range a.Gaps {
+		d.Gaps = append(d.Gaps, s.summaryGap(&a.Gaps[gi], s.deepestOut(gi)))
 	}
 	if p := a.Persistence; p != nil {
 		d.LinkRangeM = p.LinkRange
@@ -340,6 +375,7 @@ func (s *scene) cellsSummary() *CellsDoc {
 	return &CellsDoc{
 		Command:       s.m.Command,
 		Version:       s.m.Version,
+		RunInputs:     s.runInputs(),
 		Sites:         len(s.l.Sites),
 		Duplicates:    s.duplicates(),
 		AreaM2:        s.l.AreaM2,
