@@ -117,7 +117,7 @@ func (s *scene) curveChart(width int) ([]byte, error) {
 		col    color.Color
 		dashes []vg.Length
 	}{
-		{a.Range, fmt.Sprintf("planned range %s: %.2f %%", metresShort(a.Range), 100*a.CoveredFraction), oiBlue, []vg.Length{vg.Points(6), vg.Points(3)}},
+		{a.Range, fmt.Sprintf("planned range %s: %s %%", metresShort(a.Range), CoveredPercent(a.CoveredFraction, a.UncoveredArea, 2)), oiBlue, []vg.Length{vg.Points(6), vg.Points(3)}},
 		{p95, fmt.Sprintf("95 %% covered at %s", metresShort(p95)), oiOrange, []vg.Length{vg.Points(2), vg.Points(2)}},
 		{full, fmt.Sprintf("full cover at %s", metresShort(full)), oiVermilion, nil},
 	}

@@ -84,8 +84,8 @@ func (s *scene) drawCoverageMap(width int) (*canvas, error) {
 		return nil, err
 	}
 	title := s.titled("Coverage at " + metresShort(a.Range))
-	sub := fmt.Sprintf("%.2f %% of %s covered, %s, %.0f m² uncovered; full cover needs %s",
-		100*a.CoveredFraction, haText(s.l.AreaM2), Plural(len(a.Gaps), "gap"), a.UncoveredArea, metresShort(a.FullCover.Range))
+	sub := fmt.Sprintf("%s %% of %s covered, %s, %.0f m² uncovered; full cover needs %s",
+		CoveredPercent(a.CoveredFraction, a.UncoveredArea, 2), haText(s.l.AreaM2), Plural(len(a.Gaps), "gap"), a.UncoveredArea, metresShort(a.FullCover.Range))
 	c.title(title, sub)
 
 	areaMask := s.drawArea(c)

@@ -81,8 +81,9 @@ func (s *planScene) suggestionMap(width int) ([]byte, error) {
 			ba.title = fmt.Sprintf("%s at %s, gaps remain", Plural(len(sg.Added), "addition"), metresShort(p.Range))
 		}
 	}
-	ba.sub = fmt.Sprintf("Full cover %s -> %s; covered %.2f %% -> %.2f %%; uncovered %.0f m² -> %.0f m²",
-		metresShort(sg.FullCoverBefore), metresShort(sg.FullCoverAfter), 100*sg.CoveredBefore, 100*sg.CoveredAfter,
+	ba.sub = fmt.Sprintf("Full cover %s -> %s; covered %s %% -> %s %%; uncovered %.0f m² -> %.0f m²",
+		metresShort(sg.FullCoverBefore), metresShort(sg.FullCoverAfter),
+		CoveredPercent(sg.CoveredBefore, sg.UncoveredBefore, 2), CoveredPercent(sg.CoveredAfter, sg.UncoveredAfter, 2),
 		sg.UncoveredBefore, sg.UncoveredAfter)
 	if !p.RangeGiven {
 		ba.sub += " (range: " + p.RangeNote + ")"
@@ -105,7 +106,8 @@ func (s *planScene) candidateMap(width int) ([]byte, error) {
 		}
 	}
 	ba.title = fmt.Sprintf("%d of %d candidate spots picked at %s", len(ch.Picked), len(p.Candidates), metresShort(ch.Range))
-	ba.sub = fmt.Sprintf("Covered %.2f %% -> %.2f %%; uncovered %.0f m² -> %.0f m²", 100*ch.FractionBefore, 100*ch.FractionAfter,
+	ba.sub = fmt.Sprintf("Covered %s %% -> %s %%; uncovered %.0f m² -> %.0f m²",
+		CoveredPercent(ch.FractionBefore, ch.UncoveredBefore, 2), CoveredPercent(ch.FractionAfter, ch.UncoveredAfter, 2),
 		ch.UncoveredBefore, ch.UncoveredAfter)
 	switch {
 	case ch.Complete:

@@ -103,7 +103,7 @@ func (s *planScene) textExisting(b *bytes.Buffer) {
 	kv := &kvList{}
 	kv.add("Range of the figures", s.rangeText())
 	if s.hasRange() {
-		kv.add("Covered", fmt.Sprintf("%.3f %% of the area", 100*s.fraction(p.Uncovered)))
+		kv.add("Covered", CoveredPercent(s.fraction(p.Uncovered), p.Uncovered, 3)+" % of the area")
 		kv.add("Uncovered", fmt.Sprintf("%s (%s)", m2(p.Uncovered), ha(p.Uncovered)))
 	}
 	if p.Move == MoveAdd || p.Move == MoveFewest || p.Move == MoveCandidates {
@@ -158,7 +158,7 @@ func (s *planScene) textSuggestion(b *bytes.Buffer) {
 		px, py := s.pointCols(st.Added)
 		t.row(fmt.Sprintf("+%d", j+1), px, py,
 			fmt.Sprintf("%.2f", st.FullCoverBefore), fmt.Sprintf("%.2f", st.FullCoverAfter),
-			fmt.Sprintf("%.3f", 100*st.CoveredBefore), fmt.Sprintf("%.3f", 100*st.CoveredAfter),
+			CoveredPercent(st.CoveredBefore, st.UncoveredBefore, 3), CoveredPercent(st.CoveredAfter, st.UncoveredAfter, 3),
 			fmt.Sprintf("%.1f", st.UncoveredBefore), fmt.Sprintf("%.1f", st.UncoveredAfter))
 	}
 	t.write(b)
@@ -166,7 +166,7 @@ func (s *planScene) textSuggestion(b *bytes.Buffer) {
 	kv := &kvList{}
 	kv.add("Devices", fmt.Sprintf("%d existing + %d new = %d", sg.Existing, len(sg.Added), sg.Existing+len(sg.Added)))
 	kv.add("Full-cover range", fmt.Sprintf("%s -> %s", metres(sg.FullCoverBefore), metres(sg.FullCoverAfter)))
-	kv.add("Covered at "+metres(sg.Range), fmt.Sprintf("%.3f %% -> %.3f %%", 100*sg.CoveredBefore, 100*sg.CoveredAfter))
+	kv.add("Covered at "+metres(sg.Range), CoveredPercent(sg.CoveredBefore, sg.UncoveredBefore, 3)+" % -> "+CoveredPercent(sg.CoveredAfter, sg.UncoveredAfter, 3)+" %")
 	kv.add("Uncovered", fmt.Sprintf("%s -> %s", m2(sg.UncoveredBefore), m2(sg.UncoveredAfter)))
 	kv.add("Gaps", fmt.Sprintf("%d -> %d", len(p.GapsBefore), len(p.GapsAfter)))
 	kv.write(b)
@@ -221,7 +221,7 @@ func (s *planScene) textCandidates(b *bytes.Buffer) {
 		for j, c := range ch.Picked {
 			px, py := s.pointCols(p.Candidates[c])
 			t.row(fmt.Sprint(j+1), px, py, fmt.Sprintf("%.1f", ch.Gains[j]),
-				fmt.Sprintf("%.3f", 100*math.Max(0, math.Min(1, cum[j]/s.l.AreaM2))), ItemLabel(p.CandidateNames[c], "candidate", c))
+				CoveredPercent(cum[j]/s.l.AreaM2, pickUncovered(ch, j), 3), ItemLabel(p.CandidateNames[c], "candidate", c))
 		}
 		t.write(b)
 		b.WriteString("  Candidate: its name, or its position in the candidates file (candidate 1 first).\n")
@@ -230,7 +230,7 @@ func (s *planScene) textCandidates(b *bytes.Buffer) {
 	kv := &kvList{}
 	kv.add("Spots picked", fmt.Sprintf("%d of %d", len(ch.Picked), len(p.Candidates)))
 	kv.add("Full-cover range", fmt.Sprintf("%s -> %s", metres(ch.FullCoverBefore), metres(ch.FullCoverAfter)))
-	kv.add("Covered at "+metres(ch.Range), fmt.Sprintf("%.3f %% -> %.3f %%", 100*ch.FractionBefore, 100*ch.FractionAfter))
+	kv.add("Covered at "+metres(ch.Range), CoveredPercent(ch.FractionBefore, ch.UncoveredBefore, 3)+" % -> "+CoveredPercent(ch.FractionAfter, ch.UncoveredAfter, 3)+" %")
 	kv.add("Uncovered", fmt.Sprintf("%s -> %s", m2(ch.UncoveredBefore), m2(ch.UncoveredAfter)))
 	kv.add("Gaps", fmt.Sprintf("%d -> %d", len(p.GapsBefore), len(ch.Remaining)))
 	switch {
@@ -284,6 +284,15 @@ func (s *planScene) textFailures(b *bytes.Buffer) {
 			metresCol(d.ClosingRange), px, py, metresCol(d.FullCover), name, backup)
 	}
 	t.write(b)
+}
+
+// pickUncovered is the area left uncovered after pick j: positive before
+// the last pick (a later pick still adds area), UncoveredAfter after it.
+func pickUncovered(ch *coverage.Choice, j int) float64 {
+	if j < len(ch.Picked)-1 {
+		return math.Inf(1)
+	}
+	return ch.UncoveredAfter
 }
 
 // metresCol formats a length for a table cell ("none" when infinite).

@@ -175,7 +175,7 @@ func (s *scene) textSummary(b *bytes.Buffer) {
 	section(b, "COVERAGE AT THE PLANNED RANGE")
 	kv := &kvList{}
 	kv.add("Planned range", metres(a.Range))
-	kv.add("Covered", fmt.Sprintf("%.3f %% of the area", 100*a.CoveredFraction))
+	kv.add("Covered", CoveredPercent(a.CoveredFraction, a.UncoveredArea, 3)+" % of the area")
 	kv.add("Uncovered", fmt.Sprintf("%s (%s)", m2(a.UncoveredArea), ha(a.UncoveredArea)))
 	inner := innerGaps(a.Gaps)
 	kv.add("Gaps", fmt.Sprintf("%d (%d at the edge, %d inner; listed below)", len(a.Gaps), len(a.Gaps)-inner, inner))
@@ -351,6 +351,25 @@ func (s *scene) textTerms(b *bytes.Buffer) {
 		"      where the disks fill it. A hole may lie partly or wholly outside the",
 		"      site; an edge gap may be the part of a hole that the outline cuts.",
 	})
+}
+
+// CoveredPercent formats a covered share (fraction of the area, 0..1) as
+// a percentage with d decimals, never rounding to a whole when it is not:
+// when uncoveredM2 > 0 but the share would print as 100 it is written
+// "> 99.99" (d = 2), and a positive share that would print as 0 is written
+// "< 0.01". A share of exactly full or no cover prints as usual. The "%"
+// sign is left to the caller.
+func CoveredPercent(fraction, uncoveredM2 float64, d int) string {
+	v := 100 * math.Max(0, math.Min(1, fraction))
+	s := strconv.FormatFloat(v, 'f', d, 64)
+	step := math.Pow(10, -float64(d))
+	switch {
+	case uncoveredM2 > 0 && s == strconv.FormatFloat(100, 'f', d, 64):
+		return "> " + strconv.FormatFloat(100-step, 'f', d, 64)
+	case fraction > 0 && s == strconv.FormatFloat(0, 'f', d, 64):
+		return "< " + strconv.FormatFloat(step, 'f', d, 64)
+	}
+	return s
 }
 
 // Plural returns a count and its noun, the noun plural unless n is 1

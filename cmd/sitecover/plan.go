@@ -392,7 +392,8 @@ func printPlan(w io.Writer, d *report.PlanDoc, m report.Meta, mode printMode) {
 		}
 		line("range of the figures", "%s m%s", fmtNum(s.RangeM, 2), note)
 		line("full-cover range", "%s m -> %s m", fmtNum(s.FullCoverRangeBeforeM, 2), fmtNum(s.FullCoverRangeAfterM, 2))
-		line("covered", "%s %% -> %s %% (%s m² -> %s m² uncovered)", fmtNum(100*s.CoveredFractionBefore, 2), fmtNum(100*s.CoveredFractionAfter, 2),
+		line("covered", "%s %% -> %s %% (%s m² -> %s m² uncovered)",
+			report.CoveredPercent(s.CoveredFractionBefore, s.UncoveredBeforeM2, 2), report.CoveredPercent(s.CoveredFractionAfter, s.UncoveredAfterM2, 2),
 			fmtNum(s.UncoveredBeforeM2, 1), fmtNum(s.UncoveredAfterM2, 1))
 		if mode == printFull && len(s.Added) > 0 {
 			fmt.Fprintf(w, "\n  %4s  %-26s  %-18s  %-17s  %s\n", "new", "position", "full cover m", "covered %", "uncovered m²")
@@ -403,14 +404,15 @@ func printPlan(w io.Writer, d *report.PlanDoc, m report.Meta, mode printMode) {
 				}
 				fmt.Fprintf(w, "  %4s  %-26s  %-18s  %-17s  %s\n", fmt.Sprintf("+%d", a.N), fmtPoint(a.Point, d.Coordinates),
 					fmtNum(a.FullCoverBeforeM, 2)+" -> "+fmtNum(a.FullCoverAfterM, 2),
-					fmtNum(100*a.CoveredBefore, 2)+" -> "+fmtNum(100*a.CoveredAfter, 2),
+					report.CoveredPercent(a.CoveredBefore, a.UncoveredBeforeM2, 2)+" -> "+report.CoveredPercent(a.CoveredAfter, a.UncoveredAfterM2, 2),
 					fmtNum(a.UncoveredBeforeM2, 1)+" -> "+fmtNum(a.UncoveredAfterM2, 1))
 			}
 		}
 	case report.MoveCandidates:
 		c := d.Candidates
 		line("candidate spots picked", "%d of %d at %s m", len(c.Picked), c.Count, fmtNum(c.RangeM, 2))
-		line("covered", "%s %% -> %s %% (%s m² -> %s m² uncovered)", fmtNum(100*c.CoveredFractionBefore, 2), fmtNum(100*c.CoveredFractionAfter, 2),
+		line("covered", "%s %% -> %s %% (%s m² -> %s m² uncovered)",
+			report.CoveredPercent(c.CoveredFractionBefore, c.UncoveredBeforeM2, 2), report.CoveredPercent(c.CoveredFractionAfter, c.UncoveredAfterM2, 2),
 			fmtNum(c.UncoveredBeforeM2, 1), fmtNum(c.UncoveredAfterM2, 1))
 		line("full-cover range", "%s m -> %s m", fmtNum(c.FullCoverRangeBeforeM, 2), fmtNum(c.FullCoverRangeAfterM, 2))
 		switch {
