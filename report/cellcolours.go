@@ -4,7 +4,8 @@
 // triangulation, hence planar and 5-degenerate, and greedy colouring in
 // smallest-last order (Matula & Beck, "Smallest-last ordering and
 // clustering and graph coloring algorithms", J. ACM 30, 1983) uses at most
-// six colours; the palette has seven. O(n + e log e) for n cells and e
+// six colours; the palette has six (draw.go), far apart for every reader
+// (colourdiff.go). O(n + e log e) for n cells and e
 // shared edges (the edge keys are sorted once).
 
 package report

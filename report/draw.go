@@ -48,20 +48,27 @@ var (
 	colFrame     = color.RGBA{0x88, 0x88, 0x88, 0xFF}
 	colOutside   = color.RGBA{0xF2, 0xF2, 0xF2, 0xFF}
 	colArea      = color.RGBA{0xFF, 0xFF, 0xFF, 0xFF}
-	colExcluded  = color.RGBA{0xC8, 0xC8, 0xC8, 0xFF}
+	colExcluded  = color.RGBA{0xC0, 0xC0, 0xC0, 0xFF}
 	colHatch     = color.RGBA{0x70, 0x70, 0x70, 0xFF}
 	colCovered   = tint(oiSkyBlue, 0.55)
 	colDiskEdge  = oiBlue
 	colGap       = oiVermilion
 	colCellEdge  = color.RGBA{0x44, 0x44, 0x44, 0xFF}
 	colWorstMark = colInk
+	colContext   = color.RGBA{0xD8, 0xCF, 0xC4, 0xFF} // buildings and paths: a warm grey, unlike the cool exclusion grey
+	colContextEd = color.RGBA{0x8C, 0x7B, 0x6B, 0xFF}
 )
 
-// cellPalette holds the service-area fills: Okabe–Ito hues lightened so
-// that black site marks and labels stay readable on every one.
+// cellPalette holds the six service-area fills (smallest-last colouring
+// needs at most six, cellcolours.go): Okabe–Ito hues lightened to CIELAB
+// L* 62–97 so that black site marks and haloed labels stay readable. The
+// tints were chosen to maximise the smallest CIEDE2000 difference between
+// any two fills, and between any fill and the exclusion-zone grey, under
+// normal, protan and deutan vision (colourdiff.go); TestFillDifferences
+// holds it at minFillDifference or more.
 var cellPalette = []color.RGBA{
-	tint(oiSkyBlue, 0.45), tint(oiOrange, 0.45), tint(oiGreen, 0.45), tint(oiYellow, 0.35),
-	tint(oiPurple, 0.45), tint(oiBlue, 0.55), tint(oiVermilion, 0.55),
+	tint(oiSkyBlue, 0.45), tint(oiOrange, 0.40), tint(oiGreen, 0.15),
+	tint(oiYellow, 0.75), tint(oiBlue, 0.35), tint(oiVermilion, 0.20),
 }
 
 // tint mixes c with white: f = 0 gives c, f = 1 white.
@@ -99,6 +106,9 @@ type canvas struct {
 
 	faces map[[2]float64]font.Face
 	vr    *vector.Rasterizer // reused by newFill
+
+	legendLabels []string // the legend as drawn, for tests
+	notesTop     float64  // y of the first note line, set by legend
 }
 
 // legendBlock is the width (layout units) kept right of the legend for
@@ -323,7 +333,7 @@ func (c *canvas) legendRows(items []legendItem) int {
 	if len(items) == 0 {
 		return 0
 	}
-	face := c.face(17, false)
+	face := c.face(c.labelPt(17), false)
 	avail := c.fw - legendBlock*c.u
 	rows, x := 1, 0.0
 	for _, it := range items {
@@ -347,7 +357,8 @@ func (c *canvas) legend(items []legendItem, notes []string) {
 	u := c.u
 	x0 := c.fx
 	x, y := x0, c.fy+c.fh+24*u
-	face := c.face(17, false)
+	pt := c.labelPt(17)
+	face := c.face(pt, false)
 	for _, it := range items {
 		iw := legendItemWidth(face, it, u)
 		if x > x0 && x+iw > x0+c.fw-legendBlock*u {
@@ -355,12 +366,47 @@ func (c *canvas) legend(items []legendItem, notes []string) {
 			y += 34 * u
 		}
 		it.draw(c, x, y, 40*u, 22*u)
-		c.text(it.label, x+50*u, y+11*u, 0, 0.35, 17, false, colInk)
+		c.legendLabels = append(c.legendLabels, it.label)
+		c.text(it.label, x+50*u, y+11*u, 0, 0.35, pt, false, colInk)
 		x += iw
 	}
 	y = math.Max(y+34*u, c.fy+c.fh+24*u+96*u) + 8*u
+	c.notesTop = y
 	for _, n := range notes {
 		c.text(n, x0, y+12*u, 0, 0.35, 15, false, color.RGBA{0x40, 0x40, 0x40, 0xFF})
+		y += 24 * u
+	}
+}
+
+// keyTable draws table below the legend and its notesBefore note lines,
+// one row per note line: the first column left-aligned, the others
+// right-aligned, the head row bold.
+func (c *canvas) keyTable(table [][]string, notesBefore int) {
+	if len(table) == 0 {
+		return
+	}
+	u := c.u
+	y := c.notesTop + float64(notesBefore)*24*u
+	pt := c.labelPt(15)
+	face := c.face(pt, false)
+	ncol := len(table[0])
+	widths := make([]float64, ncol)
+	for _, r := range table {
+		for k, cell := range r {
+			widths[k] = math.Max(widths[k], float64(font.MeasureString(face, cell))/64*1.08)
+		}
+	}
+	for ri, r := range table {
+		x := c.fx
+		for k, cell := range r {
+			ax := 1.0
+			at := x + widths[k]
+			if k == 0 {
+				ax, at = 0, x
+			}
+			c.text(cell, at, y+12*u, ax, 0.35, pt, ri == 0, colInk)
+			x += widths[k] + 24*u
+		}
 		y += 24 * u
 	}
 }

@@ -18,10 +18,12 @@ import (
 	"github.com/paulmach/orb"
 )
 
-// mapKey is what a map's legend shows: its items and its notes.
+// mapKey is what a map's legend shows: its items, its notes and a small
+// table below them (first row the heads; numeric columns right-aligned).
 type mapKey struct {
 	items []legendItem
 	notes []string
+	table [][]string
 }
 
 // layoutMap closes key with the area legend and, when the sites are too
@@ -29,11 +31,11 @@ type mapKey struct {
 // told apart) is best seen in a GIS; it then lays out the page over ext
 // and returns it with the site density on it.
 func (s *scene) layoutMap(ext orb.Bound, width int, key *mapKey, dense string) (*canvas, density, error) {
-	key.items = append(key.items, areaLegend()...)
+	key.items = append(key.items, s.areaLegend()...)
 	if n := s.denseNote(width, dense); n != "" {
 		key.notes = append(key.notes, n)
 	}
-	c, err := layoutCanvas(ext, width, key.items, len(key.notes))
+	c, err := layoutCanvas(ext, width, key.items, len(key.notes)+len(key.table))
 	if err != nil {
 		return nil, density{}, err
 	}
@@ -47,6 +49,7 @@ func (c *canvas) finish(key mapKey) {
 	c.scaleBar()
 	c.northArrow()
 	c.legend(key.items, key.notes)
+	c.keyTable(key.table, len(key.notes))
 }
 
 // encodeMap encodes a drawn map as PNG, or passes on the drawing error.
@@ -83,12 +86,13 @@ func (s *scene) planeNote() string {
 }
 
 // areaLegend returns the legend items that close every map legend: the
-// site area outline and the exclusion zones.
-func areaLegend() []legendItem {
-	return []legendItem{
-		{"Site area outline", swatchLine(colInk, 2.2)},
-		{"Exclusion zone (no coverage needed)", swatchHatch},
+// site area outline and, when there are any, the exclusion zones.
+func (s *scene) areaLegend() []legendItem {
+	items := []legendItem{{"Site area outline", swatchLine(colInk, 2.2)}}
+	if ar := s.l.Area; ar != nil && ar.NumRings() > ar.NumPolygons() {
+		items = append(items, legendItem{"Exclusion zone (no coverage needed)", swatchHatch})
 	}
+	return items
 }
 
 func haText(m2 float64) string {

@@ -238,7 +238,7 @@ func (c *canvas) gapMarks(gaps []coverage.Gap) {
 	}
 	for _, g := range gaps {
 		x, y := c.px(g.Deepest)
-		c.haloText(fmt.Sprint(g.ID), x+9*c.u, y-8*c.u, 0, 0, 17, true, colInk)
+		c.haloText(fmt.Sprint(g.ID), x+9*c.u, y-8*c.u, 0, 0, c.labelPt(17), true, colInk)
 	}
 }
 
@@ -279,4 +279,47 @@ func (c *canvas) haloStroke(halo float64, col color.Color, w float64) {
 	c.dc.SetColor(col)
 	c.dc.SetLineWidth(w)
 	c.dc.Stroke()
+}
+
+// coverAlpha is the opacity of the covered fill: opaque, or translucent
+// over context layers so the buildings beneath stay visible.
+func (s *scene) coverAlpha() uint8 {
+	if len(s.m.Context) > 0 {
+		return 0xA8
+	}
+	return 0xFF
+}
+
+// drawContext fills and outlines the context polygons (Meta.Context)
+// inside the area's frame; it draws nothing without them.
+func (s *scene) drawContext(c *canvas) {
+	if len(s.m.Context) == 0 {
+		return
+	}
+	f := c.newFill()
+	var tmp []float64
+	for _, poly := range s.m.Context {
+		for k, ring := range poly {
+			tmp = ringXY(ring, tmp[:0])
+			f.ringXY(tmp, k == 0)
+		}
+	}
+	c.paint(f.mask(), color.NRGBA(colContext), nil)
+	f = c.newFill()
+	for _, poly := range s.m.Context {
+		for _, ring := range poly {
+			tmp = ringXY(ring, tmp[:0])
+			f.polylineXY(tmp, 1.0*c.u)
+		}
+	}
+	c.paint(f.mask(), color.NRGBA(colContextEd), nil)
+}
+
+// contextLegend is the legend item of the context layer, when there is
+// one.
+func (s *scene) contextLegend() []legendItem {
+	if len(s.m.Context) == 0 {
+		return nil
+	}
+	return []legendItem{{"Building or other context (drawn only, not analysed)", swatchFill(colContext, colContextEd)}}
 }

@@ -8,8 +8,12 @@
 package report
 
 import (
+	"cmp"
 	"fmt"
 	"image/color"
+	"slices"
+
+	"github.com/sitecover/sitecover/coverage"
 )
 
 // maxNumbered is how many gaps get a number and a deepest-point mark.
@@ -66,19 +70,20 @@ func (s *scene) drawCoverageMap(width int) (*canvas, error) {
 	if numbered < len(a.Gaps) {
 		gapLabel = fmt.Sprintf("Gap: not covered at the planned range (the %d with the largest closing range are numbered)", numbered)
 	}
-	items := []legendItem{
-		{fmt.Sprintf("Covered: within %s of a device", metresShort(a.Range)), swatchFill(colCovered, colDiskEdge)},
-		{gapLabel, swatchFill(colGap, nil)},
-		{"Deepest point of a gap (where it closes last)", swatchDeepest},
-		{"Device site", swatchDot},
+	items := []legendItem{{fmt.Sprintf("Covered: within %s of a device", metresShort(a.Range)), swatchFill(colCovered, colDiskEdge)}}
+	switch {
+	case len(a.Gaps) > 0:
+		items = append(items, legendItem{gapLabel, swatchFill(colGap, nil)},
+			legendItem{"Deepest point of a gap (where it closes last)", swatchDeepest})
+	case len(a.FullCover.Worst) > 0:
+		items = append(items, legendItem{"Point farthest from every device (full-cover range needed there)", swatchWorst})
 	}
-	if len(a.Gaps) == 0 && len(a.FullCover.Worst) > 0 {
-		items[2] = legendItem{"Point farthest from every device (full-cover range needed there)", swatchWorst}
-	}
+	items = append(items, legendItem{"Device site", swatchDot})
+	items = append(items, s.contextLegend()...)
 	key := mapKey{items: items, notes: []string{
 		s.northNote(),
 		"Disks drawn within 0.2 px of true circles, over the gaps, so gap edges along disks are true arcs too.",
-	}}
+	}, table: gapTable(a.Gaps)}
 	c, d, err := s.layoutMap(s.extent(), width, &key, "single disks and small gaps")
 	if err != nil {
 		return nil, err
@@ -89,14 +94,24 @@ func (s *scene) drawCoverageMap(width int) (*canvas, error) {
 	c.title(title, sub)
 
 	areaMask := s.drawArea(c)
+	s.drawContext(c)
 	// Gaps first, disks over them: the gap outlines replace arcs by chords
 	// lying inside the disks, so the disks drawn on top restore the true
-	// circular edge (within 0.2 px).
-	s.fillGaps(c, a.Gaps, colGap)
-
+	// circular edge (within 0.2 px). Over a context layer the disks are
+	// translucent, so the gaps go on top instead (their chords then
+	// overhang the disks by at most the sagitta, 0.2 % of the range).
+	translucent := s.coverAlpha() < 0xFF
+	if !translucent {
+		s.fillGaps(c, a.Gaps, colGap)
+	}
 	rho := a.Range * c.k
 	unit := unitCircle(circleSides(rho))
-	c.paint(s.diskMask(c, rho, unit), color.NRGBA(colCovered), areaMask) // disks only inside the area
+	cov := color.NRGBA(colCovered)
+	cov.A = s.coverAlpha()
+	c.paint(s.diskMask(c, rho, unit), cov, areaMask) // disks only inside the area
+	if translucent {
+		s.fillGaps(c, a.Gaps, colGap)
+	}
 	if d.spacing >= 8*c.u && rho >= 3 {
 		s.diskOutlines(c, rho, unit, areaMask)
 	}
@@ -127,3 +142,30 @@ func swatchDeepest(c *canvas, x, y, w, h float64) {
 }
 
 func swatchWorst(c *canvas, x, y, w, h float64) { c.worstMark(x+w/2, y+h/2) }
+
+// maxGapTableRows is how many gaps the coverage map's table lists.
+const maxGapTableRows = 5
+
+// gapTable is the coverage map's table of the largest gaps by area: the
+// gap's number on the map, its area and the range that closes it; nil
+// without gaps.
+func gapTable(gaps []coverage.Gap) [][]string {
+	if len(gaps) == 0 {
+		return nil
+	}
+	idx := make([]int, len(gaps))
+	for i := range idx {
+		idx[i] = i
+	}
+	slices.SortStableFunc(idx, func(i, j int) int { return cmp.Compare(gaps[j].Area, gaps[i].Area) })
+	head := "Largest gaps"
+	if len(gaps) <= maxGapTableRows {
+		head = "Gaps"
+	}
+	t := [][]string{{head, "Area m²", "Closes at"}}
+	for _, i := range idx[:min(len(idx), maxGapTableRows)] {
+		g := gaps[i]
+		t = append(t, []string{fmt.Sprintf("Gap %d", g.ID), fmt.Sprintf("%.0f", g.Area), metres(g.ClosingRange)})
+	}
+	return t
+}

@@ -40,7 +40,7 @@ var (
 	colNewDisk = color.RGBA{0x1A, 0x1A, 0x1A, 0xFF}
 	colBeyond  = oiVermilion
 	colWithin  = oiBlue
-	colNoLoss  = color.RGBA{0xD0, 0xD0, 0xD0, 0xFF}
+	colNoLoss  = color.RGBA{0xFF, 0xFF, 0xFF, 0xFF} // white: unlike the hatched exclusion grey
 	colBuild   = color.RGBA{0xBF, 0xBF, 0xBF, 0xFF}
 )
 
@@ -122,13 +122,19 @@ func (s *planScene) candidateMap(width int) ([]byte, error) {
 func (s *planScene) drawBeforeAfter(width int, ba beforeAfter) (*canvas, error) {
 	r := s.p.Range
 	numbered := min(len(ba.after), maxNumbered)
-	items := []legendItem{
-		{fmt.Sprintf("Covered by the existing devices (within %s)", metresShort(r)), swatchFill(colCovered, colDiskEdge)},
-		{ba.closed, swatchFill(colClosed, nil)},
-		{"Gap left, numbered by closing range; ring: deepest point", swatchDeepest},
-		{fmt.Sprintf("Reach of a new device (%s)", metresShort(r)), swatchDashed},
-		{"Existing device", swatchDot},
-		{ba.newLabel, swatchNew},
+	items := []legendItem{{fmt.Sprintf("Covered by the existing devices (within %s)", metresShort(r)), swatchFill(colCovered, colDiskEdge)}}
+	if gapArea(ba.before) > gapArea(ba.after) {
+		items = append(items, legendItem{ba.closed, swatchFill(colClosed, nil)})
+	}
+	if len(ba.after) > 0 {
+		items = append(items, legendItem{"Gap left, numbered by closing range; ring: deepest point", swatchDeepest})
+	}
+	if len(ba.added) > 0 {
+		items = append(items, legendItem{fmt.Sprintf("Reach of a new device (%s)", metresShort(r)), swatchDashed})
+	}
+	items = append(items, legendItem{"Existing device", swatchDot})
+	if len(ba.added) > 0 {
+		items = append(items, legendItem{ba.newLabel, swatchNew})
 	}
 	if len(ba.others) > 0 {
 		items = append(items, legendItem{"Candidate spot not picked", swatchSpot})
@@ -245,15 +251,14 @@ func swatchDashed(c *canvas, x, y, w, h float64) {
 }
 
 // placeLabels writes texts beside the points at pixel offset gap from
-// each, trying four positions and taking the first that overlaps no
-// earlier label or mark and stays in the frame (else the least overlap).
+// each, placed as labelSites places site labels (maplabels.go).
 func (s *planScene) placeLabels(c *canvas, pts []orb.Point, texts []string, gap, pt float64, bold bool) {
-	var taken []labelBox
+	l := s.newLabeler(c)
 	for _, p := range pts {
 		x, y := c.px(p)
-		taken = append(taken, labelBox{x - gap, y - gap, x + gap, y + gap})
+		l.taken = append(l.taken, labelBox{x - gap, y - gap, x + gap, y + gap})
 	}
-	frame := c.labelFrame()
+	pt = c.labelPt(pt)
 	face := c.face(pt, bold)
 	for i, p := range pts {
 		text := texts[i]
@@ -267,10 +272,18 @@ func (s *planScene) placeLabels(c *canvas, pts []orb.Point, texts []string, gap,
 			{x - g - w, y - g - h + 4*c.u, x - g, y - g + 4*c.u},
 			{x - g - w, y + g - 4*c.u, x - g, y + g + h - 4*c.u},
 		}
-		b := pickLabelBox(cands, taken, frame, w*h)
-		taken = append(taken, b)
+		b := l.place(cands, w*h)
 		c.haloText(text, b.x0, b.y1, 0, 0, pt, bold, colInk)
 	}
+}
+
+// gapArea is the total area of gaps.
+func gapArea(gaps []coverage.Gap) float64 {
+	t := 0.0
+	for _, g := range gaps {
+		t += g.Area
+	}
+	return t
 }
 
 // lossClasses returns the class upper bounds of the positive losses:
@@ -357,7 +370,13 @@ func (s *planScene) drawFailureMap(width int) (*canvas, error) {
 	ub := lossClasses(losses)
 	cols := classColours(len(ub))
 	var items []legendItem
-	items = append(items, legendItem{"No loss (the others cover all it served)", swatchFill(colNoLoss, colCellEdge)})
+	noLoss := false
+	for _, d := range fr.Devices {
+		noLoss = noLoss || lossClass(d.AddedUncovered, ub) < 0
+	}
+	if noLoss {
+		items = append(items, legendItem{"No loss (the others cover all it served)", swatchFill(colNoLoss, colCellEdge)})
+	}
 	for k := range ub {
 		lo := 0.0
 		if k > 0 {
@@ -365,9 +384,10 @@ func (s *planScene) drawFailureMap(width int) (*canvas, error) {
 		}
 		items = append(items, legendItem{fmt.Sprintf("Loss %s-%s m²", trimFloat(lo), trimFloat(ub[k])), swatchFill(cols[k], colCellEdge)})
 	}
-	items = append(items,
-		legendItem{"Device; rank 1 to 10: the ten worst failures, largest loss first", swatchDot},
-		legendItem{"Point fixing the range that survives any single failure", swatchWorst})
+	items = append(items, legendItem{"Device; rank 1 to 10: the ten worst failures, largest loss first", swatchDot})
+	if fr.SurviveSite >= 0 && !math.IsInf(fr.SurviveRange, 0) {
+		items = append(items, legendItem{"Point fixing the range that survives any single failure", swatchWorst})
+	}
 	key := mapKey{items: items, notes: []string{
 		fmt.Sprintf("Service areas filled by the area left uncovered at %s when their device is out of service (the others working).", metresShort(fr.Range)),
 		s.northNote(),
@@ -436,10 +456,14 @@ func (s *planScene) drawAssignmentMap(width int) (*canvas, error) {
 	if ranged {
 		items = append(items, legendItem{fmt.Sprintf("Within %s of a device", metresShort(p.Range)), swatchFill(colCovered, colDiskEdge)})
 	}
-	items = append(items,
-		legendItem{"Service-area edge", swatchLine(colCellEdge, 1.2)},
-		legendItem{"Demand item within range, line to its device", swatchWithin})
-	if ranged {
+	items = append(items, legendItem{"Service-area edge", swatchLine(colCellEdge, 1.2)})
+	switch {
+	case !ranged:
+		items = append(items, legendItem{"Demand item, line to its device", swatchWithin})
+	case a.Served > 0:
+		items = append(items, legendItem{"Demand item within range, line to its device", swatchWithin})
+	}
+	if ranged && a.Unserved > 0 {
 		items = append(items, legendItem{"Demand item beyond range", swatchBeyond})
 	}
 	polys := 0

@@ -380,6 +380,14 @@ func TestPlanMapPixels(t *testing.T) {
 		t.Fatal(err)
 	}
 	img = c.dc.Image()
+	// The legend has "No loss" exactly when some device loses nothing.
+	noLoss := false
+	for _, d := range fr.Devices {
+		noLoss = noLoss || !(d.AddedUncovered > 0)
+	}
+	if hasLegend(c.legendLabels, "No loss") != noLoss {
+		t.Errorf("failure map legend %q: no-loss entry, want %v", c.legendLabels, noLoss)
+	}
 	for _, tc := range []struct {
 		at  orb.Point
 		col color.RGBA

@@ -1,0 +1,70 @@
+// Map legends list only the classes present on the map (issue 16): no
+// exclusion zone, gap or context entry where there is none.
+
+package report
+
+import (
+	"slices"
+	"strings"
+	"testing"
+
+	"github.com/paulmach/orb"
+)
+
+// hasLegend reports whether some legend label starts with prefix.
+func hasLegend(labels []string, prefix string) bool {
+	return slices.ContainsFunc(labels, func(l string) bool { return strings.HasPrefix(l, prefix) })
+}
+
+func TestLegendsListOnlyPresentClasses(t *testing.T) {
+	sites := []orb.Point{{25, 25}, {75, 25}, {25, 75}, {75, 75}}
+	hole := []float64{45, 45, 45, 55, 55, 55, 55, 45} // an exclusion zone, clockwise
+	for _, c := range []struct {
+		name                 string
+		zones, gaps, context bool
+		r                    float64
+	}{
+		{"no-zones-no-gaps", false, false, false, 40},
+		{"no-zones-gaps", false, true, false, 30},
+		{"zones-gaps", true, true, false, 30},
+		{"zones-no-gaps-context", true, false, true, 40},
+	} {
+		t.Run(c.name, func(t *testing.T) {
+			rings := [][]float64{square(100)}
+			if c.zones {
+				rings = append(rings, hole)
+			}
+			an := analyze(t, sites, region(t, rings...), c.r)
+			if (len(an.Gaps) > 0) != c.gaps {
+				t.Fatalf("%d gaps at %v m, scene expects gaps %v", len(an.Gaps), c.r, c.gaps)
+			}
+			m := Meta{Planar: true}
+			if c.context {
+				m.Context = orb.MultiPolygon{{{{10, 10}, {20, 10}, {20, 20}, {10, 20}, {10, 10}}}}
+			}
+			s := newScene(an.Layout, an, m)
+			for _, mp := range []struct {
+				name string
+				draw func(int) (*canvas, error)
+			}{{"coverage", s.drawCoverageMap}, {"service-areas", s.drawServiceAreaMap}} {
+				cv, err := mp.draw(800)
+				if err != nil {
+					t.Fatal(err)
+				}
+				got := cv.legendLabels
+				if hasLegend(got, "Exclusion zone") != c.zones {
+					t.Errorf("%s map legend %q: exclusion entry, want %v", mp.name, got, c.zones)
+				}
+				if mp.name != "coverage" {
+					continue
+				}
+				if hasLegend(got, "Gap") != c.gaps || hasLegend(got, "Deepest point") != c.gaps {
+					t.Errorf("coverage map legend %q: gap entries, want %v", got, c.gaps)
+				}
+				if hasLegend(got, "Building or other context") != c.context {
+					t.Errorf("coverage map legend %q: context entry, want %v", got, c.context)
+				}
+			}
+		})
+	}
+}
