@@ -1,3 +1,7 @@
+// Colour differences: CIEDE2000 against Sharma et al.'s test pairs, the
+// colour-vision simulations keep greys, and the map fills that can touch
+// stay apart for normal, protan and deutan readers.
+
 package report
 
 import (

@@ -68,3 +68,26 @@ func TestLegendsListOnlyPresentClasses(t *testing.T) {
 		})
 	}
 }
+
+func TestSegmentMeetsBox(t *testing.T) {
+	b := labelBox{0, 0, 10, 5}
+	for _, c := range []struct {
+		name           string
+		x0, y0, x1, y1 float64
+		want           bool
+	}{
+		{"through", -5, 2, 15, 2, true},
+		{"inside", 2, 2, 3, 3, true},
+		{"one-end-in", 5, 2, 20, 20, true},
+		{"touches-corner", -5, -5, 0, 0, true},
+		{"outside", -5, -1, 15, -1, false},
+		{"diagonal-miss", 11, -1, 20, 4, false},
+		{"diagonal-cut", 8, -2, 12, 2, true},
+	} {
+		t.Run(c.name, func(t *testing.T) {
+			if got := segmentMeetsBox(c.x0, c.y0, c.x1, c.y1, b); got != c.want {
+				t.Errorf("segmentMeetsBox = %v, want %v", got, c.want)
+			}
+		})
+	}
+}

@@ -17,6 +17,7 @@ import (
 	"math"
 
 	"github.com/paulmach/orb"
+	"github.com/sitecover/sitecover/planar"
 	"golang.org/x/image/font"
 )
 
@@ -88,29 +89,17 @@ func (l *labeler) place(cands []labelBox, area float64) labelBox {
 }
 
 // segmentMeetsBox reports whether the segment (x0, y0)–(x1, y1) meets the
-// box b (Liang–Barsky clipping of the segment to the box).
+// box b: an endpoint lies in it, or the segment meets one of its four
+// sides (planar.SegmentsMeet, exact).
 func segmentMeetsBox(x0, y0, x1, y1 float64, b labelBox) bool {
-	t0, t1 := 0.0, 1.0
-	dx, dy := x1-x0, y1-y0
-	for _, e := range [4][2]float64{{-dx, x0 - b.x0}, {dx, b.x1 - x0}, {-dy, y0 - b.y0}, {dy, b.y1 - y0}} {
-		p, q := e[0], e[1]
-		if p == 0 {
-			if q < 0 {
-				return false
-			}
-			continue
-		}
-		r := q / p
-		if p < 0 {
-			t0 = math.Max(t0, r)
-		} else {
-			t1 = math.Min(t1, r)
-		}
-		if t0 > t1 {
-			return false
-		}
+	in := func(x, y float64) bool { return x >= b.x0 && x <= b.x1 && y >= b.y0 && y <= b.y1 }
+	if in(x0, y0) || in(x1, y1) {
+		return true
 	}
-	return true
+	return planar.SegmentsMeet(x0, y0, x1, y1, b.x0, b.y0, b.x1, b.y0) ||
+		planar.SegmentsMeet(x0, y0, x1, y1, b.x1, b.y0, b.x1, b.y1) ||
+		planar.SegmentsMeet(x0, y0, x1, y1, b.x1, b.y1, b.x0, b.y1) ||
+		planar.SegmentsMeet(x0, y0, x1, y1, b.x0, b.y1, b.x0, b.y0)
 }
 
 // labelSites writes each distinct site's label beside its mark (see the
