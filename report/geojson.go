@@ -271,10 +271,12 @@ func (s *scene) holesLayer() ([]byte, error) {
 	l := s.newLayer()
 	if p := s.a.Persistence; p != nil {
 		for i, h := range p.Holes {
+			note := s.holeNote(i)
 			l.feature(orb.Point(s.closingOut(i)), func(b []byte) []byte {
 				b = appendNum(kv(b, "birth_m", true), h.Birth)
 				b = appendNum(kv(b, "death_m", false), h.Death)
 				b = appendNum(kv(b, "lifetime_m", false), h.Death-h.Birth)
+				b = appendStr(kv(b, "note", false), note)
 				return appendInts(kv(b, "birth_sites", false), h.BirthSites[:])
 			})
 		}

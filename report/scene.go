@@ -35,6 +35,11 @@ type scene struct {
 	// s.a.Gaps and s.a.Persistence.Holes.
 	keyOnce                   sync.Once
 	farOut, deepOut, closeOut []Point
+
+	// holeNotes marks each hole of s.a.Persistence.Holes (holeNote),
+	// computed once.
+	notesOnce sync.Once
+	holeNotes []string
 }
 
 func newScene(l *coverage.Layout, a *coverage.Analysis, m Meta) *scene {

@@ -163,6 +163,10 @@ type SummaryHole struct {
 	BirthM     float64 `json:"birth_m"`
 	DeathM     float64 `json:"death_m"`
 	DeathPoint Point   `json:"death_point"`
+	// Note marks the hole as report.txt does: "outside site" (it closes
+	// outside the site area), "brief" (it lives less than 1 % of the
+	// planned range), both, or "".
+	Note string `json:"note"`
 }
 
 // Percentiles are the ranges at which the given share of the area is
@@ -365,7 +369,7 @@ func (s *scene) summary() *SummaryDoc {
 		d.LinkRangeM = p.LinkRange
 		d.ConnectRangeM = p.ConnectRange
 		for i, h := range p.Holes {
-			d.Holes = append(d.Holes, SummaryHole{BirthM: h.Birth, DeathM: h.Death, DeathPoint: s.closingOut(i)})
+			d.Holes = append(d.Holes, SummaryHole{BirthM: h.Birth, DeathM: h.Death, DeathPoint: s.closingOut(i), Note: s.holeNote(i)})
 		}
 	}
 	return d

@@ -18,6 +18,7 @@ import (
 
 	"github.com/paulmach/orb"
 	"github.com/sitecover/sitecover/coverage"
+	"github.com/sitecover/sitecover/planar"
 )
 
 // maxListed caps lists inside one table cell or line (worst points, nearby
@@ -298,7 +299,7 @@ func (s *scene) textHoles(b *bytes.Buffer) {
 	for i, h := range p.Holes {
 		if h.Birth <= r && r < h.Death {
 			open++
-			if s.holeNote(i, tol) != "" {
+			if s.holeNote(i) != "" {
 				marked++
 			}
 		}
@@ -322,7 +323,7 @@ func (s *scene) textHoles(b *bytes.Buffer) {
 		t.num(h.Death-h.Birth, 2)
 		s.pointCells(t, s.closingOut(i))
 		t.str(state)
-		t.str(orDash(s.holeNote(i, tol)))
+		t.str(orDash(s.holeNote(i)))
 		t.cells = s.appendLabel(t.cells, h.BirthSites[0])
 		t.cells = append(t.cells, ", "...)
 		t.cells = s.appendLabel(t.cells, h.BirthSites[1])
@@ -411,17 +412,32 @@ func gapKind(g coverage.Gap) string {
 
 // holeNote returns the mark of hole i (see textHoles for the rules):
 // "outside site" when its closing point is not in the site area, "brief"
-// when it lives less than tol, both joined, or "".
-func (s *scene) holeNote(i int, tol float64) string {
-	h := s.a.Persistence.Holes[i]
-	var notes []string
-	if ar := s.l.Area; ar != nil && !ar.Contains(h.DeathPoint[0], h.DeathPoint[1]) {
-		notes = append(notes, "outside site")
-	}
-	if h.Death-h.Birth < tol {
-		notes = append(notes, "brief")
-	}
-	return strings.Join(notes, ", ")
+// when it lives less than briefHoleFraction of the planned range, both
+// joined, or "". The marks are computed once for all holes, with one
+// index over the area's edges.
+func (s *scene) holeNote(i int) string {
+	s.notesOnce.Do(func() {
+		holes := s.a.Persistence.Holes
+		tol := briefHoleFraction * s.a.Range
+		var ix *planar.RegionIndex
+		if s.l.Area != nil && len(holes) > 0 {
+			ix = s.l.Area.Index()
+		}
+		s.holeNotes = make([]string, len(holes))
+		for k, h := range holes {
+			out := ix != nil && !ix.Contains(h.DeathPoint[0], h.DeathPoint[1])
+			brief := h.Death-h.Birth < tol
+			switch {
+			case out && brief:
+				s.holeNotes[k] = "outside site, brief"
+			case out:
+				s.holeNotes[k] = "outside site"
+			case brief:
+				s.holeNotes[k] = "brief"
+			}
+		}
+	})
+	return s.holeNotes[i]
 }
 
 func (s *scene) textAccuracy(b *bytes.Buffer) {
