@@ -20,6 +20,7 @@ import (
 	"image/color"
 	"image/png"
 	"math"
+	"strings"
 	"sync"
 
 	"github.com/fogleman/gg"
@@ -107,6 +108,7 @@ type canvas struct {
 	faces map[[2]float64]font.Face
 	vr    *vector.Rasterizer // reused by newFill
 
+	notes        []string // note lines, wrapped to the frame width
 	legendLabels []string // the legend as drawn, for tests
 	notesTop     float64  // y of the first note line, set by legend
 }
@@ -116,8 +118,9 @@ type canvas struct {
 const legendBlock = 360
 
 // layoutCanvas sizes a page for the extent b at width w with room below
-// the map for the legend items and noteLines lines of notes.
-func layoutCanvas(b orb.Bound, w int, items []legendItem, noteLines int) (*canvas, error) {
+// the map for the legend items, the notes (wrapped to the frame width at
+// the note size) and tableRows rows of a key table.
+func layoutCanvas(b orb.Bound, w int, items []legendItem, notes []string, tableRows int) (*canvas, error) {
 	if err := loadFonts(); err != nil {
 		return nil, fmt.Errorf("loading fonts: %v", err)
 	}
@@ -131,7 +134,8 @@ func layoutCanvas(b orb.Bound, w int, items []legendItem, noteLines int) (*canva
 	c.ox = c.fx + c.fw/2 - cx*c.k
 	c.oy = c.fy + c.fh/2 + cy*c.k
 	rows := c.legendRows(items)
-	legendH := math.Max(float64(rows)*34*u, 96*u) + float64(noteLines)*24*u + 30*u
+	c.notes = c.wrapNotes(notes)
+	legendH := math.Max(float64(rows)*34*u, 96*u) + float64(len(c.notes)+tableRows)*c.noteStep() + 30*u
 	c.h = int(math.Ceil(c.fy + c.fh + legendH + margin/2))
 	c.dc = gg.NewContext(c.w, c.h)
 	c.dc.SetColor(color.White)
@@ -202,7 +206,7 @@ func (c *canvas) haloText(s string, x, y, ax, ay, pt float64, bold bool, col col
 // title draws the page title and subtitle.
 func (c *canvas) title(title, sub string) {
 	c.text(title, c.fx, 44*c.u, 0, 0, 30, true, colInk)
-	c.text(sub, c.fx, 78*c.u, 0, 0, 18, false, colInk)
+	c.text(sub, c.fx, 78*c.u, 0, 0, c.labelPt(18), false, colInk)
 }
 
 // frame draws the map frame outline.
@@ -352,8 +356,37 @@ func legendItemWidth(face font.Face, it legendItem, u float64) float64 {
 	return 40*u + 10*u + float64(adv)/64 + 34*u
 }
 
-// legend draws the items below the frame, then the note lines.
-func (c *canvas) legend(items []legendItem, notes []string) {
+// notePt is the size of note and key-table text, layout units.
+func (c *canvas) notePt() float64 { return c.labelPt(15) }
+
+// noteStep is the line step of notes and key-table rows, px.
+func (c *canvas) noteStep() float64 { return 24 * c.u * c.notePt() / 15 }
+
+// wrapNotes breaks each note into lines no wider than the frame at the
+// note size, at spaces.
+func (c *canvas) wrapNotes(notes []string) []string {
+	face := c.face(c.notePt(), false)
+	var out []string
+	for _, n := range notes {
+		line := ""
+		for _, w := range strings.Fields(n) {
+			try := w
+			if line != "" {
+				try = line + " " + w
+			}
+			if line != "" && float64(font.MeasureString(face, try))/64 > c.fw {
+				out = append(out, line)
+				try = w
+			}
+			line = try
+		}
+		out = append(out, line)
+	}
+	return out
+}
+
+// legend draws the items below the frame, then the note lines (c.notes).
+func (c *canvas) legend(items []legendItem) {
 	u := c.u
 	x0 := c.fx
 	x, y := x0, c.fy+c.fh+24*u
@@ -372,22 +405,22 @@ func (c *canvas) legend(items []legendItem, notes []string) {
 	}
 	y = math.Max(y+34*u, c.fy+c.fh+24*u+96*u) + 8*u
 	c.notesTop = y
-	for _, n := range notes {
-		c.text(n, x0, y+12*u, 0, 0.35, 15, false, color.RGBA{0x40, 0x40, 0x40, 0xFF})
-		y += 24 * u
+	for _, n := range c.notes {
+		c.text(n, x0, y+12*u, 0, 0.35, c.notePt(), false, color.RGBA{0x40, 0x40, 0x40, 0xFF})
+		y += c.noteStep()
 	}
 }
 
-// keyTable draws table below the legend and its notesBefore note lines,
-// one row per note line: the first column left-aligned, the others
-// right-aligned, the head row bold.
-func (c *canvas) keyTable(table [][]string, notesBefore int) {
+// keyTable draws table below the legend and its note lines, one row per
+// note line: the first column left-aligned, the others right-aligned, the
+// head row bold.
+func (c *canvas) keyTable(table [][]string) {
 	if len(table) == 0 {
 		return
 	}
 	u := c.u
-	y := c.notesTop + float64(notesBefore)*24*u
-	pt := c.labelPt(15)
+	y := c.notesTop + float64(len(c.notes))*c.noteStep()
+	pt := c.notePt()
 	face := c.face(pt, false)
 	ncol := len(table[0])
 	widths := make([]float64, ncol)
@@ -407,7 +440,7 @@ func (c *canvas) keyTable(table [][]string, notesBefore int) {
 			c.text(cell, at, y+12*u, ax, 0.35, pt, ri == 0, colInk)
 			x += widths[k] + 24*u
 		}
-		y += 24 * u
+		y += c.noteStep()
 	}
 }
 

@@ -9,6 +9,7 @@ import (
 	"testing"
 
 	"github.com/paulmach/orb"
+	"golang.org/x/image/font"
 )
 
 // hasLegend reports whether some legend label starts with prefix.
@@ -89,5 +90,35 @@ func TestSegmentMeetsBox(t *testing.T) {
 				t.Errorf("segmentMeetsBox = %v, want %v", got, c.want)
 			}
 		})
+	}
+}
+
+func TestMapTextReadableAt800(t *testing.T) {
+	// At --map-width 800 labels, legend and notes are drawn at minLabelPx
+	// or more, and every note line fits the frame.
+	an := analyze(t, []orb.Point{{25, 25}, {75, 25}, {25, 75}, {75, 75}}, region(t, square(100)), 30)
+	c, err := newScene(an.Layout, an, Meta{Planar: true}).drawCoverageMap(800)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, pt := range []float64{14, 15, 17, 18} {
+		if px := c.labelPt(pt) * c.u; px < minLabelPx {
+			t.Errorf("%v-unit text drawn at %.1f px, want ≥ %v", pt, px, minLabelPx)
+		}
+	}
+	face := c.face(c.notePt(), false)
+	for _, l := range c.notes {
+		if w := float64(font.MeasureString(face, l)) / 64; w > c.fw {
+			t.Errorf("note line %.0f px wide, frame %.0f px: %q", w, c.fw, l)
+		}
+	}
+	long := c.wrapNotes([]string{strings.Repeat("a long note word ", 40)})
+	if len(long) < 2 {
+		t.Errorf("a note three frames wide was not wrapped: %q", long)
+	}
+	for _, l := range long {
+		if w := float64(font.MeasureString(face, l)) / 64; w > c.fw {
+			t.Errorf("wrapped line %.0f px wide, frame %.0f px", w, c.fw)
+		}
 	}
 }

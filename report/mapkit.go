@@ -35,7 +35,7 @@ func (s *scene) layoutMap(ext orb.Bound, width int, key *mapKey, dense string) (
 	if n := s.denseNote(width, dense); n != "" {
 		key.notes = append(key.notes, n)
 	}
-	c, err := layoutCanvas(ext, width, key.items, len(key.notes)+len(key.table))
+	c, err := layoutCanvas(ext, width, key.items, key.notes, len(key.table))
 	if err != nil {
 		return nil, density{}, err
 	}
@@ -48,8 +48,8 @@ func (c *canvas) finish(key mapKey) {
 	c.frame()
 	c.scaleBar()
 	c.northArrow()
-	c.legend(key.items, key.notes)
-	c.keyTable(key.table, len(key.notes))
+	c.legend(key.items)
+	c.keyTable(key.table)
 }
 
 // encodeMap encodes a drawn map as PNG, or passes on the drawing error.
