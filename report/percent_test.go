@@ -36,6 +36,27 @@ func TestCoveredPercent(t *testing.T) {
 	}
 }
 
+func TestAreaNumber(t *testing.T) {
+	for _, c := range []struct {
+		name string
+		v    float64
+		d    int
+		want string
+	}{
+		{"ordinary", 20828.62, 1, "20828.6"},
+		{"zero", 0, 1, "0.0"},
+		{"remnant", 0.01, 1, "< 0.1"},
+		{"remnant-0", 0.4, 0, "< 1"},
+		{"rounds-up", 0.06, 1, "0.1"},
+	} {
+		t.Run(c.name, func(t *testing.T) {
+			if got := AreaNumber(c.v, c.d); got != c.want {
+				t.Errorf("AreaNumber(%v, %d) = %q, want %q", c.v, c.d, got, c.want)
+			}
+		})
+	}
+}
+
 func TestNearlyFullCoverDoesNotPrint100(t *testing.T) {
 	// One site at the centre of a 100 m square, range 1 cm short of the
 	// corners (a/√2): four corner slivers of about 1e-4 m² stay uncovered

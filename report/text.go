@@ -592,7 +592,19 @@ func metres(v float64) string {
 	return fmt.Sprintf("%.2f m", v)
 }
 
-func m2(v float64) string { return fmt.Sprintf("%.1f m²", v) }
+func m2(v float64) string { return AreaNumber(v, 1) + " m²" }
+
+// AreaNumber formats an area in m² with d decimals, never rounding a
+// positive area to zero: an uncovered remnant of 0.01 m² reads "< 0.1"
+// (d = 1), not "0.0", in line with CoveredPercent. The unit is left to
+// the caller.
+func AreaNumber(v float64, d int) string {
+	s := strconv.FormatFloat(v, 'f', d, 64)
+	if v > 0 && s == strconv.FormatFloat(0, 'f', d, 64) {
+		return "< " + strconv.FormatFloat(math.Pow(10, -float64(d)), 'f', d, 64)
+	}
+	return s
+}
 
 func ha(v float64) string { return fmt.Sprintf("%.4f ha", v/1e4) }
 

@@ -138,7 +138,7 @@ func printAnalysis(w io.Writer, d *report.SummaryDoc, m report.Meta) {
 	fmt.Fprintf(w, "  %-24s %s m²%s\n", "site area", fmtNum(d.AreaM2, 1), hull)
 	fmt.Fprintf(w, "  %-24s %s m\n", "planned range", fmtNum(d.RangeM, 2))
 	fmt.Fprintf(w, "  %-24s %s %% (%s m² uncovered in %s, %d inner)\n", "covered at planned range",
-		report.CoveredPercent(d.CoveredFraction, d.UncoveredAreaM2, 2), fmtNum(d.UncoveredAreaM2, 1), nGaps(len(d.Gaps)), inner)
+		report.CoveredPercent(d.CoveredFraction, d.UncoveredAreaM2, 2), report.AreaNumber(d.UncoveredAreaM2, 1), nGaps(len(d.Gaps)), inner)
 	where := ""
 	if len(d.FullCoverWorstPoints) > 0 {
 		where = " at " + fmtPoint(d.FullCoverWorstPoint, d.Coordinates)

@@ -394,7 +394,7 @@ func printPlan(w io.Writer, d *report.PlanDoc, m report.Meta, mode printMode) {
 		line("full-cover range", "%s m -> %s m", fmtNum(s.FullCoverRangeBeforeM, 2), fmtNum(s.FullCoverRangeAfterM, 2))
 		line("covered", "%s %% -> %s %% (%s m² -> %s m² uncovered)",
 			report.CoveredPercent(s.CoveredFractionBefore, s.UncoveredBeforeM2, 2), report.CoveredPercent(s.CoveredFractionAfter, s.UncoveredAfterM2, 2),
-			fmtNum(s.UncoveredBeforeM2, 1), fmtNum(s.UncoveredAfterM2, 1))
+			report.AreaNumber(s.UncoveredBeforeM2, 1), report.AreaNumber(s.UncoveredAfterM2, 1))
 		if mode == printFull && len(s.Added) > 0 {
 			fmt.Fprintf(w, "\n  %4s  %-26s  %-18s  %-17s  %s\n", "new", "position", "full cover m", "covered %", "uncovered m²")
 			for i, a := range s.Added {
@@ -405,7 +405,7 @@ func printPlan(w io.Writer, d *report.PlanDoc, m report.Meta, mode printMode) {
 				fmt.Fprintf(w, "  %4s  %-26s  %-18s  %-17s  %s\n", fmt.Sprintf("+%d", a.N), fmtPoint(a.Point, d.Coordinates),
 					fmtNum(a.FullCoverBeforeM, 2)+" -> "+fmtNum(a.FullCoverAfterM, 2),
 					report.CoveredPercent(a.CoveredBefore, a.UncoveredBeforeM2, 2)+" -> "+report.CoveredPercent(a.CoveredAfter, a.UncoveredAfterM2, 2),
-					fmtNum(a.UncoveredBeforeM2, 1)+" -> "+fmtNum(a.UncoveredAfterM2, 1))
+					report.AreaNumber(a.UncoveredBeforeM2, 1)+" -> "+report.AreaNumber(a.UncoveredAfterM2, 1))
 			}
 		}
 	case report.MoveCandidates:
@@ -413,15 +413,15 @@ func printPlan(w io.Writer, d *report.PlanDoc, m report.Meta, mode printMode) {
 		line("candidate spots picked", "%d of %d at %s m", len(c.Picked), c.Count, fmtNum(c.RangeM, 2))
 		line("covered", "%s %% -> %s %% (%s m² -> %s m² uncovered)",
 			report.CoveredPercent(c.CoveredFractionBefore, c.UncoveredBeforeM2, 2), report.CoveredPercent(c.CoveredFractionAfter, c.UncoveredAfterM2, 2),
-			fmtNum(c.UncoveredBeforeM2, 1), fmtNum(c.UncoveredAfterM2, 1))
+			report.AreaNumber(c.UncoveredBeforeM2, 1), report.AreaNumber(c.UncoveredAfterM2, 1))
 		line("full-cover range", "%s m -> %s m", fmtNum(c.FullCoverRangeBeforeM, 2), fmtNum(c.FullCoverRangeAfterM, 2))
 		switch {
 		case c.Complete:
 			line("result", "full cover: no gap remains")
 		case c.Exhausted:
-			line("result", "FULL COVER CANNOT BE REACHED from these spots: %s m² stay uncovered in %s", fmtNum(c.UncoveredAfterM2, 1), nGaps(len(c.Remaining)))
+			line("result", "FULL COVER CANNOT BE REACHED from these spots: %s m² stay uncovered in %s", report.AreaNumber(c.UncoveredAfterM2, 1), nGaps(len(c.Remaining)))
 		default:
-			line("result", "%s m² stay uncovered in %s", fmtNum(c.UncoveredAfterM2, 1), nGaps(len(c.Remaining)))
+			line("result", "%s m² stay uncovered in %s", report.AreaNumber(c.UncoveredAfterM2, 1), nGaps(len(c.Remaining)))
 		}
 		if mode == printFull {
 			for i, pk := range c.Picked {
@@ -440,7 +440,7 @@ func printPlan(w io.Writer, d *report.PlanDoc, m report.Meta, mode printMode) {
 				fmtPoint(d.SurvivePoint, d.Coordinates), siteLabel(m, d.SurviveSite))
 		}
 		if d.RangeM != nil {
-			line("uncovered, all working", "%s m² at %s m", fmtNum(*d.UncoveredAreaM2, 1), fmtNum(*d.RangeM, 2))
+			line("uncovered, all working", "%s m² at %s m", report.AreaNumber(*d.UncoveredAreaM2, 1), fmtNum(*d.RangeM, 2))
 		}
 		rows := len(d.Failures)
 		if mode == printBrief {

@@ -146,5 +146,8 @@ func TestNearlyFullCoverNeverReads100(t *testing.T) {
 		if strings.Contains(txt, "100.00 %") || strings.Contains(txt, "100.000 %") || !strings.Contains(txt, "> 99.99") {
 			t.Errorf("%s rounds the covered share up to 100 %%:\n%s", path, txt[:min(len(txt), 1200)])
 		}
+		if strings.Contains(txt, " 0.0 m²") || !strings.Contains(txt, "< 0.1 m²") {
+			t.Errorf("%s rounds the uncovered area down to 0:\n%s", path, txt[:min(len(txt), 1200)])
+		}
 	}
 }
