@@ -183,7 +183,7 @@ func (s *planScene) textGapList(b *bytes.Buffer, title string, gaps []coverage.G
 	}
 	t := &table{}
 	hx, hy := s.pointHeads()
-	t.head("ID", "Area m²", "Closing m", hx, hy, "Kind")
+	t.head("Gap", "Area m²", "Closing m", hx, hy, "Kind")
 	t.left(5)
 	total := 0.0
 	for _, g := range gaps {
