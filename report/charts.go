@@ -117,7 +117,7 @@ func (s *scene) curveChart(width int) ([]byte, error) {
 		col    color.Color
 		dashes []vg.Length
 	}{
-		{a.Range, fmt.Sprintf("planned range %s: %.2f %%", metresShort(a.Range), 100*a.CoveredFraction), oiBlue, []vg.Length{vg.Points(6), vg.Points(3)}},
+		{a.Range, fmt.Sprintf("planned range %s: %s %%", metresShort(a.Range), CoveredPercent(a.CoveredFraction, a.UncoveredArea, 2)), oiBlue, []vg.Length{vg.Points(6), vg.Points(3)}},
 		{p95, fmt.Sprintf("95 %% covered at %s", metresShort(p95)), oiOrange, []vg.Length{vg.Points(2), vg.Points(2)}},
 		{full, fmt.Sprintf("full cover at %s", metresShort(full)), oiVermilion, nil},
 	}
@@ -193,12 +193,14 @@ func (s *scene) holeChart(width int) ([]byte, error) {
 	a := s.a
 	p := plot.New()
 	var holes []struct{ b, d float64 }
+	var marked []bool // holeNote marks (outside site, brief)
 	if a.Persistence != nil {
-		for _, h := range a.Persistence.Holes {
+		for i, h := range a.Persistence.Holes {
 			holes = append(holes, struct{ b, d float64 }{h.Birth, h.Death})
+			marked = append(marked, s.holeNote(i) != "")
 		}
 	}
-	title := fmt.Sprintf("Holes of the union of disks: %d (appearance and closing range)", len(holes))
+	title := Plural(len(holes), "hole") + " of the union of disks (not gaps): when each appears and closes"
 	if s.m.Title != "" {
 		title = s.m.Title + "\n" + title
 	}
@@ -236,27 +238,39 @@ func (s *scene) holeChart(width int) ([]byte, error) {
 	p.Add(hr)
 	p.Legend.Add(fmt.Sprintf("planned range %s (holes open there: upper left)", metresShort(a.Range)), hr)
 
-	if len(holes) > 0 {
-		pts := make(plotter.XYs, len(holes))
+	if len(holes) == 0 {
+		p.Legend.Add("no holes at any range")
+	}
+	for _, mk := range []bool{false, true} {
+		var pts plotter.XYs
 		for i, h := range holes {
-			pts[i] = plotter.XY{X: h.b, Y: h.d}
+			if marked[i] == mk {
+				pts = append(pts, plotter.XY{X: h.b, Y: h.d})
+			}
+		}
+		if len(pts) == 0 {
+			continue // the legend lists only what is drawn
 		}
 		sc, err := plotter.NewScatter(pts)
 		if err != nil {
 			return nil, err
 		}
-		sc.GlyphStyle.Color = oiVermilion
+		sc.GlyphStyle.Color = oiPurple
 		sc.GlyphStyle.Radius = vg.Points(3)
 		sc.GlyphStyle.Shape = draw.CircleGlyph{}
+		label := "hole"
+		if mk {
+			sc.GlyphStyle.Color = colHatch
+			sc.GlyphStyle.Shape = draw.RingGlyph{}
+			label = fmt.Sprintf("hole closing outside the site or living < %s (marked in report.txt)", metresShort(briefHoleFraction*a.Range))
+		}
 		if len(holes) > 2000 {
 			// many holes: small squares, far cheaper to draw than circles
 			sc.GlyphStyle.Radius = vg.Points(1.2)
 			sc.GlyphStyle.Shape = draw.BoxGlyph{}
 		}
 		p.Add(sc)
-		p.Legend.Add("hole", sc)
-	} else {
-		p.Legend.Add("no holes at any range")
+		p.Legend.Add(label, sc)
 	}
 	p.Legend.Left = false
 	p.Legend.Top = false

@@ -20,6 +20,7 @@ import (
 	"image/color"
 	"image/png"
 	"math"
+	"strings"
 	"sync"
 
 	"github.com/fogleman/gg"
@@ -48,20 +49,27 @@ var (
 	colFrame     = color.RGBA{0x88, 0x88, 0x88, 0xFF}
 	colOutside   = color.RGBA{0xF2, 0xF2, 0xF2, 0xFF}
 	colArea      = color.RGBA{0xFF, 0xFF, 0xFF, 0xFF}
-	colExcluded  = color.RGBA{0xC8, 0xC8, 0xC8, 0xFF}
+	colExcluded  = color.RGBA{0xC0, 0xC0, 0xC0, 0xFF}
 	colHatch     = color.RGBA{0x70, 0x70, 0x70, 0xFF}
 	colCovered   = tint(oiSkyBlue, 0.55)
 	colDiskEdge  = oiBlue
 	colGap       = oiVermilion
 	colCellEdge  = color.RGBA{0x44, 0x44, 0x44, 0xFF}
 	colWorstMark = colInk
+	colContext   = color.RGBA{0xD8, 0xCF, 0xC4, 0xFF} // buildings and paths: a warm grey, unlike the cool exclusion grey
+	colContextEd = color.RGBA{0x8C, 0x7B, 0x6B, 0xFF}
 )
 
-// cellPalette holds the service-area fills: Okabe–Ito hues lightened so
-// that black site marks and labels stay readable on every one.
+// cellPalette holds the six service-area fills (smallest-last colouring
+// needs at most six, cellcolours.go): Okabe–Ito hues lightened to CIELAB
+// L* 62–97 so that black site marks and haloed labels stay readable. The
+// tints were chosen to maximise the smallest CIEDE2000 difference between
+// any two fills, and between any fill and the exclusion-zone grey, under
+// normal, protan and deutan vision (colourdiff.go); TestFillDifferences
+// holds it at minFillDifference or more.
 var cellPalette = []color.RGBA{
-	tint(oiSkyBlue, 0.45), tint(oiOrange, 0.45), tint(oiGreen, 0.45), tint(oiYellow, 0.35),
-	tint(oiPurple, 0.45), tint(oiBlue, 0.55), tint(oiVermilion, 0.55),
+	tint(oiSkyBlue, 0.45), tint(oiOrange, 0.40), tint(oiGreen, 0.15),
+	tint(oiYellow, 0.75), tint(oiBlue, 0.35), tint(oiVermilion, 0.20),
 }
 
 // tint mixes c with white: f = 0 gives c, f = 1 white.
@@ -99,6 +107,10 @@ type canvas struct {
 
 	faces map[[2]float64]font.Face
 	vr    *vector.Rasterizer // reused by newFill
+
+	notes        []string // note lines, wrapped to the frame width
+	legendLabels []string // the legend as drawn, for tests
+	notesTop     float64  // y of the first note line, set by legend
 }
 
 // legendBlock is the width (layout units) kept right of the legend for
@@ -106,8 +118,9 @@ type canvas struct {
 const legendBlock = 360
 
 // layoutCanvas sizes a page for the extent b at width w with room below
-// the map for the legend items and noteLines lines of notes.
-func layoutCanvas(b orb.Bound, w int, items []legendItem, noteLines int) (*canvas, error) {
+// the map for the legend items, the notes (wrapped to the frame width at
+// the note size) and tableRows rows of a key table.
+func layoutCanvas(b orb.Bound, w int, items []legendItem, notes []string, tableRows int) (*canvas, error) {
 	if err := loadFonts(); err != nil {
 		return nil, fmt.Errorf("loading fonts: %v", err)
 	}
@@ -121,7 +134,8 @@ func layoutCanvas(b orb.Bound, w int, items []legendItem, noteLines int) (*canva
 	c.ox = c.fx + c.fw/2 - cx*c.k
 	c.oy = c.fy + c.fh/2 + cy*c.k
 	rows := c.legendRows(items)
-	legendH := math.Max(float64(rows)*34*u, 96*u) + float64(noteLines)*24*u + 30*u
+	c.notes = c.wrapNotes(notes)
+	legendH := math.Max(float64(rows)*34*u, 96*u) + float64(len(c.notes)+tableRows)*c.noteStep() + 30*u
 	c.h = int(math.Ceil(c.fy + c.fh + legendH + margin/2))
 	c.dc = gg.NewContext(c.w, c.h)
 	c.dc.SetColor(color.White)
@@ -192,7 +206,7 @@ func (c *canvas) haloText(s string, x, y, ax, ay, pt float64, bold bool, col col
 // title draws the page title and subtitle.
 func (c *canvas) title(title, sub string) {
 	c.text(title, c.fx, 44*c.u, 0, 0, 30, true, colInk)
-	c.text(sub, c.fx, 78*c.u, 0, 0, 18, false, colInk)
+	c.text(sub, c.fx, 78*c.u, 0, 0, c.labelPt(18), false, colInk)
 }
 
 // frame draws the map frame outline.
@@ -323,7 +337,7 @@ func (c *canvas) legendRows(items []legendItem) int {
 	if len(items) == 0 {
 		return 0
 	}
-	face := c.face(17, false)
+	face := c.face(c.labelPt(17), false)
 	avail := c.fw - legendBlock*c.u
 	rows, x := 1, 0.0
 	for _, it := range items {
@@ -342,12 +356,42 @@ func legendItemWidth(face font.Face, it legendItem, u float64) float64 {
 	return 40*u + 10*u + float64(adv)/64 + 34*u
 }
 
-// legend draws the items below the frame, then the note lines.
-func (c *canvas) legend(items []legendItem, notes []string) {
+// notePt is the size of note and key-table text, layout units.
+func (c *canvas) notePt() float64 { return c.labelPt(15) }
+
+// noteStep is the line step of notes and key-table rows, px.
+func (c *canvas) noteStep() float64 { return 24 * c.u * c.notePt() / 15 }
+
+// wrapNotes breaks each note into lines no wider than the frame at the
+// note size, at spaces.
+func (c *canvas) wrapNotes(notes []string) []string {
+	face := c.face(c.notePt(), false)
+	var out []string
+	for _, n := range notes {
+		line := ""
+		for _, w := range strings.Fields(n) {
+			try := w
+			if line != "" {
+				try = line + " " + w
+			}
+			if line != "" && float64(font.MeasureString(face, try))/64 > c.fw {
+				out = append(out, line)
+				try = w
+			}
+			line = try
+		}
+		out = append(out, line)
+	}
+	return out
+}
+
+// legend draws the items below the frame, then the note lines (c.notes).
+func (c *canvas) legend(items []legendItem) {
 	u := c.u
 	x0 := c.fx
 	x, y := x0, c.fy+c.fh+24*u
-	face := c.face(17, false)
+	pt := c.labelPt(17)
+	face := c.face(pt, false)
 	for _, it := range items {
 		iw := legendItemWidth(face, it, u)
 		if x > x0 && x+iw > x0+c.fw-legendBlock*u {
@@ -355,13 +399,48 @@ func (c *canvas) legend(items []legendItem, notes []string) {
 			y += 34 * u
 		}
 		it.draw(c, x, y, 40*u, 22*u)
-		c.text(it.label, x+50*u, y+11*u, 0, 0.35, 17, false, colInk)
+		c.legendLabels = append(c.legendLabels, it.label)
+		c.text(it.label, x+50*u, y+11*u, 0, 0.35, pt, false, colInk)
 		x += iw
 	}
 	y = math.Max(y+34*u, c.fy+c.fh+24*u+96*u) + 8*u
-	for _, n := range notes {
-		c.text(n, x0, y+12*u, 0, 0.35, 15, false, color.RGBA{0x40, 0x40, 0x40, 0xFF})
-		y += 24 * u
+	c.notesTop = y
+	for _, n := range c.notes {
+		c.text(n, x0, y+12*u, 0, 0.35, c.notePt(), false, color.RGBA{0x40, 0x40, 0x40, 0xFF})
+		y += c.noteStep()
+	}
+}
+
+// keyTable draws table below the legend and its note lines, one row per
+// note line: the first column left-aligned, the others right-aligned, the
+// head row bold.
+func (c *canvas) keyTable(table [][]string) {
+	if len(table) == 0 {
+		return
+	}
+	u := c.u
+	y := c.notesTop + float64(len(c.notes))*c.noteStep()
+	pt := c.notePt()
+	face := c.face(pt, false)
+	ncol := len(table[0])
+	widths := make([]float64, ncol)
+	for _, r := range table {
+		for k, cell := range r {
+			widths[k] = math.Max(widths[k], float64(font.MeasureString(face, cell))/64*1.08)
+		}
+	}
+	for ri, r := range table {
+		x := c.fx
+		for k, cell := range r {
+			ax := 1.0
+			at := x + widths[k]
+			if k == 0 {
+				ax, at = 0, x
+			}
+			c.text(cell, at, y+12*u, ax, 0.35, pt, ri == 0, colInk)
+			x += widths[k] + 24*u
+		}
+		y += c.noteStep()
 	}
 }
 

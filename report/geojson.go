@@ -28,6 +28,7 @@ import (
 	"strings"
 
 	"github.com/paulmach/orb"
+	"github.com/sitecover/sitecover/planar"
 )
 
 // layer builds one FeatureCollection as JSON text. The encoder is written
@@ -270,10 +271,12 @@ func (s *scene) holesLayer() ([]byte, error) {
 	l := s.newLayer()
 	if p := s.a.Persistence; p != nil {
 		for i, h := range p.Holes {
+			note := s.holeNote(i)
 			l.feature(orb.Point(s.closingOut(i)), func(b []byte) []byte {
 				b = appendNum(kv(b, "birth_m", true), h.Birth)
 				b = appendNum(kv(b, "death_m", false), h.Death)
 				b = appendNum(kv(b, "lifetime_m", false), h.Death-h.Birth)
+				b = appendStr(kv(b, "note", false), note)
 				return appendInts(kv(b, "birth_sites", false), h.BirthSites[:])
 			})
 		}
@@ -325,7 +328,7 @@ func (s *scene) ring(in orb.Ring, exterior bool) orb.Ring {
 	if len(r) < 3 {
 		return nil
 	}
-	a := signedArea(r)
+	a := planar.RingArea(planar.FlatRing(r))
 	if a == 0 {
 		return nil
 	}
@@ -335,18 +338,4 @@ func (s *scene) ring(in orb.Ring, exterior bool) orb.Ring {
 		}
 	}
 	return append(r, r[0])
-}
-
-// signedArea is the shoelace area of a ring (positive counter-clockwise),
-// computed relative to the first vertex to limit cancellation.
-func signedArea(r orb.Ring) float64 {
-	if len(r) < 3 {
-		return 0
-	}
-	x0, y0 := r[0][0], r[0][1]
-	var a float64
-	for i := 1; i+1 < len(r); i++ {
-		a += (r[i][0]-x0)*(r[i+1][1]-y0) - (r[i+1][0]-x0)*(r[i][1]-y0)
-	}
-	return a / 2
 }

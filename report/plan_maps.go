@@ -11,7 +11,7 @@
 //     causes, in up to five classes of round width on the viridis scale
 //     (designed to be read with every common colour-vision deficiency and
 //     in grey; van der Walt & Smith, matplotlib, 2015), devices with no
-//     loss in grey, the ten worst ranked by number, and the point that
+//     loss in grey, the ten worst marked "rank 1" to "rank 10", and the point that
 //     fixes the range surviving any single failure;
 //   - assignment: coverage at the range, service-area edges, a line from
 //     each demand item to its serving device, and the items marked by
@@ -40,7 +40,7 @@ var (
 	colNewDisk = color.RGBA{0x1A, 0x1A, 0x1A, 0xFF}
 	colBeyond  = oiVermilion
 	colWithin  = oiBlue
-	colNoLoss  = color.RGBA{0xD0, 0xD0, 0xD0, 0xFF}
+	colNoLoss  = color.RGBA{0xFF, 0xFF, 0xFF, 0xFF} // white: unlike the hatched exclusion grey
 	colBuild   = color.RGBA{0xBF, 0xBF, 0xBF, 0xFF}
 )
 
@@ -76,13 +76,14 @@ func (s *planScene) suggestionMap(width int) ([]byte, error) {
 		ba.title = fmt.Sprintf("%d suggested devices at %s", len(sg.Added), metresShort(p.Range))
 	} else {
 		if sg.Reached {
-			ba.title = fmt.Sprintf("%s close every gap at %s", plural(len(sg.Added), "addition"), metresShort(p.Range))
+			ba.title = fmt.Sprintf("%s close every gap at %s", Plural(len(sg.Added), "addition"), metresShort(p.Range))
 		} else {
-			ba.title = fmt.Sprintf("%s at %s, gaps remain", plural(len(sg.Added), "addition"), metresShort(p.Range))
+			ba.title = fmt.Sprintf("%s at %s, gaps remain", Plural(len(sg.Added), "addition"), metresShort(p.Range))
 		}
 	}
-	ba.sub = fmt.Sprintf("Full cover %s -> %s; covered %.2f %% -> %.2f %%; uncovered %.0f m2 -> %.0f m2",
-		metresShort(sg.FullCoverBefore), metresShort(sg.FullCoverAfter), 100*sg.CoveredBefore, 100*sg.CoveredAfter,
+	ba.sub = fmt.Sprintf("Full cover %s -> %s; covered %s %% -> %s %%; uncovered %.0f m² -> %.0f m²",
+		metresShort(sg.FullCoverBefore), metresShort(sg.FullCoverAfter),
+		CoveredPercent(sg.CoveredBefore, sg.UncoveredBefore, 2), CoveredPercent(sg.CoveredAfter, sg.UncoveredAfter, 2),
 		sg.UncoveredBefore, sg.UncoveredAfter)
 	if !p.RangeGiven {
 		ba.sub += " (range: " + p.RangeNote + ")"
@@ -105,13 +106,14 @@ func (s *planScene) candidateMap(width int) ([]byte, error) {
 		}
 	}
 	ba.title = fmt.Sprintf("%d of %d candidate spots picked at %s", len(ch.Picked), len(p.Candidates), metresShort(ch.Range))
-	ba.sub = fmt.Sprintf("Covered %.2f %% -> %.2f %%; uncovered %.0f m2 -> %.0f m2", 100*ch.FractionBefore, 100*ch.FractionAfter,
+	ba.sub = fmt.Sprintf("Covered %s %% -> %s %%; uncovered %.0f m² -> %.0f m²",
+		CoveredPercent(ch.FractionBefore, ch.UncoveredBefore, 2), CoveredPercent(ch.FractionAfter, ch.UncoveredAfter, 2),
 		ch.UncoveredBefore, ch.UncoveredAfter)
 	switch {
 	case ch.Complete:
 		ba.sub += "; full cover reached"
 	case ch.Exhausted:
-		ba.sub += fmt.Sprintf("; full cover cannot be reached from these spots (%s left)", plural(len(ch.Remaining), "gap"))
+		ba.sub += fmt.Sprintf("; full cover cannot be reached from these spots (%s left)", Plural(len(ch.Remaining), "gap"))
 	}
 	return encodeMap(s.drawBeforeAfter(width, ba))
 }
@@ -120,13 +122,19 @@ func (s *planScene) candidateMap(width int) ([]byte, error) {
 func (s *planScene) drawBeforeAfter(width int, ba beforeAfter) (*canvas, error) {
 	r := s.p.Range
 	numbered := min(len(ba.after), maxNumbered)
-	items := []legendItem{
-		{fmt.Sprintf("Covered by the existing devices (within %s)", metresShort(r)), swatchFill(colCovered, colDiskEdge)},
-		{ba.closed, swatchFill(colClosed, nil)},
-		{"Gap left, numbered by closing range; ring: deepest point", swatchDeepest},
-		{fmt.Sprintf("Reach of a new device (%s)", metresShort(r)), swatchDashed},
-		{"Existing device", swatchDot},
-		{ba.newLabel, swatchNew},
+	items := []legendItem{{fmt.Sprintf("Covered by the existing devices (within %s)", metresShort(r)), swatchFill(colCovered, colDiskEdge)}}
+	if gapArea(ba.before) > gapArea(ba.after) {
+		items = append(items, legendItem{ba.closed, swatchFill(colClosed, nil)})
+	}
+	if len(ba.after) > 0 {
+		items = append(items, legendItem{"Gap left, numbered by closing range; ring: deepest point", swatchDeepest})
+	}
+	if len(ba.added) > 0 {
+		items = append(items, legendItem{fmt.Sprintf("Reach of a new device (%s)", metresShort(r)), swatchDashed})
+	}
+	items = append(items, legendItem{"Existing device", swatchDot})
+	if len(ba.added) > 0 {
+		items = append(items, legendItem{ba.newLabel, swatchNew})
 	}
 	if len(ba.others) > 0 {
 		items = append(items, legendItem{"Candidate spot not picked", swatchSpot})
@@ -243,15 +251,14 @@ func swatchDashed(c *canvas, x, y, w, h float64) {
 }
 
 // placeLabels writes texts beside the points at pixel offset gap from
-// each, trying four positions and taking the first that overlaps no
-// earlier label or mark and stays in the frame (else the least overlap).
+// each, placed as labelSites places site labels (maplabels.go).
 func (s *planScene) placeLabels(c *canvas, pts []orb.Point, texts []string, gap, pt float64, bold bool) {
-	var taken []labelBox
+	l := s.newLabeler(c)
 	for _, p := range pts {
 		x, y := c.px(p)
-		taken = append(taken, labelBox{x - gap, y - gap, x + gap, y + gap})
+		l.taken = append(l.taken, labelBox{x - gap, y - gap, x + gap, y + gap})
 	}
-	frame := c.labelFrame()
+	pt = c.labelPt(pt)
 	face := c.face(pt, bold)
 	for i, p := range pts {
 		text := texts[i]
@@ -265,10 +272,18 @@ func (s *planScene) placeLabels(c *canvas, pts []orb.Point, texts []string, gap,
 			{x - g - w, y - g - h + 4*c.u, x - g, y - g + 4*c.u},
 			{x - g - w, y + g - 4*c.u, x - g, y + g + h - 4*c.u},
 		}
-		b := pickLabelBox(cands, taken, frame, w*h)
-		taken = append(taken, b)
+		b := l.place(cands, w*h)
 		c.haloText(text, b.x0, b.y1, 0, 0, pt, bold, colInk)
 	}
+}
+
+// gapArea is the total area of gaps.
+func gapArea(gaps []coverage.Gap) float64 {
+	t := 0.0
+	for _, g := range gaps {
+		t += g.Area
+	}
+	return t
 }
 
 // lossClasses returns the class upper bounds of the positive losses:
@@ -355,17 +370,24 @@ func (s *planScene) drawFailureMap(width int) (*canvas, error) {
 	ub := lossClasses(losses)
 	cols := classColours(len(ub))
 	var items []legendItem
-	items = append(items, legendItem{"No loss (the others cover all it served)", swatchFill(colNoLoss, colCellEdge)})
+	noLoss := false
+	for _, d := range fr.Devices {
+		noLoss = noLoss || lossClass(d.AddedUncovered, ub) < 0
+	}
+	if noLoss {
+		items = append(items, legendItem{"No loss (the others cover all it served)", swatchFill(colNoLoss, colCellEdge)})
+	}
 	for k := range ub {
 		lo := 0.0
 		if k > 0 {
 			lo = ub[k-1]
 		}
-		items = append(items, legendItem{fmt.Sprintf("Loss %s-%s m2", trimFloat(lo), trimFloat(ub[k])), swatchFill(cols[k], colCellEdge)})
+		items = append(items, legendItem{fmt.Sprintf("Loss %s-%s m²", trimFloat(lo), trimFloat(ub[k])), swatchFill(cols[k], colCellEdge)})
 	}
-	items = append(items,
-		legendItem{"Device (number: rank of the ten worst failures)", swatchDot},
-		legendItem{"Point fixing the range that survives any single failure", swatchWorst})
+	items = append(items, legendItem{"Device; rank 1 to 10: the ten worst failures, largest loss first", swatchDot})
+	if fr.SurviveSite >= 0 && !math.IsInf(fr.SurviveRange, 0) {
+		items = append(items, legendItem{"Point fixing the range that survives any single failure", swatchWorst})
+	}
 	key := mapKey{items: items, notes: []string{
 		fmt.Sprintf("Service areas filled by the area left uncovered at %s when their device is out of service (the others working).", metresShort(fr.Range)),
 		s.northNote(),
@@ -379,7 +401,7 @@ func (s *planScene) drawFailureMap(width int) (*canvas, error) {
 	if math.IsInf(fr.SurviveRange, 0) {
 		sub = "A single device: nothing remains when it fails"
 	} else {
-		sub += metresShort(fr.SurviveRange) + fmt.Sprintf(" (diamond); worst loss %.0f m2", maxLoss)
+		sub += metresShort(fr.SurviveRange) + fmt.Sprintf(" (diamond); worst loss %.0f m²", maxLoss)
 	}
 	c.title(title, sub)
 
@@ -407,7 +429,7 @@ func (s *planScene) drawFailureMap(width int) (*canvas, error) {
 			continue
 		}
 		pts = append(pts, s.l.Sites[fr.Devices[k].Site])
-		texts = append(texts, fmt.Sprint(k+1))
+		texts = append(texts, "rank "+strconv.Itoa(k+1))
 	}
 	if fr.SurviveSite >= 0 && !math.IsInf(fr.SurviveRange, 0) {
 		x, y := c.px(fr.SurvivePoint)
@@ -434,10 +456,14 @@ func (s *planScene) drawAssignmentMap(width int) (*canvas, error) {
 	if ranged {
 		items = append(items, legendItem{fmt.Sprintf("Within %s of a device", metresShort(p.Range)), swatchFill(colCovered, colDiskEdge)})
 	}
-	items = append(items,
-		legendItem{"Service-area edge", swatchLine(colCellEdge, 1.2)},
-		legendItem{"Demand item within range, line to its device", swatchWithin})
-	if ranged {
+	items = append(items, legendItem{"Service-area edge", swatchLine(colCellEdge, 1.2)})
+	switch {
+	case !ranged:
+		items = append(items, legendItem{"Demand item, line to its device", swatchWithin})
+	case a.Served > 0:
+		items = append(items, legendItem{"Demand item within range, line to its device", swatchWithin})
+	}
+	if ranged && a.Unserved > 0 {
 		items = append(items, legendItem{"Demand item beyond range", swatchBeyond})
 	}
 	polys := 0
@@ -460,10 +486,10 @@ func (s *planScene) drawAssignmentMap(width int) (*canvas, error) {
 	if err != nil {
 		return nil, err
 	}
-	title := s.titled(fmt.Sprintf("Demand served (%d items)", len(p.Demand)))
+	title := s.titled(fmt.Sprintf("Demand served (%s)", Plural(len(p.Demand), "item")))
 	sub := "Each item is served by its nearest device"
 	if ranged {
-		sub = fmt.Sprintf("%d of %d items within %s of their nearest device; %d beyond", a.Served, len(p.Demand), metresShort(p.Range), a.Unserved)
+		sub = fmt.Sprintf("%d of %s within %s of their nearest device; %d beyond", a.Served, Plural(len(p.Demand), "item"), metresShort(p.Range), a.Unserved)
 		if p.Weighted {
 			sub += fmt.Sprintf(" (weight %s within, %s beyond)", weightText(a.ServedWeight), weightText(a.UnservedWeight))
 		}
@@ -545,7 +571,7 @@ func (s *planScene) drawAssignmentMap(width int) (*canvas, error) {
 		if ld.Count == 0 {
 			continue
 		}
-		t := s.shortLabel(i) + fmt.Sprintf(": %d", ld.Count)
+		t := s.label(i) + fmt.Sprintf(": %d", ld.Count)
 		if p.Weighted {
 			t += " (w " + weightText(ld.Weight) + ")"
 		}
@@ -603,12 +629,4 @@ func (c *canvas) swatchRule(x, y, w, h float64, col color.Color, lw float64) {
 	c.dc.SetLineWidth(lw)
 	c.dc.DrawLine(x, y+h/2, x+w, y+h/2)
 	c.dc.Stroke()
-}
-
-// plural returns "1 gap", "2 gaps".
-func plural(n int, noun string) string {
-	if n == 1 {
-		return "1 " + noun
-	}
-	return fmt.Sprintf("%d %ss", n, noun)
 }

@@ -26,6 +26,8 @@ type PlanDoc struct {
 	Command string `json:"command"`
 	Move    Move   `json:"move"`
 	Version string `json:"version"`
+	// RunInputs names the run's title and input files.
+	RunInputs
 	// Sites is the number of existing devices (input sites).
 	Sites int `json:"sites"`
 	// Duplicates counts input sites at exactly the position of an earlier
@@ -290,15 +292,8 @@ func ptr[T any](v T) *T { return &v }
 
 func (s *planScene) summaryGaps(gaps []coverage.Gap) []SummaryGap {
 	out := make([]SummaryGap, 0, len(gaps))
-	for _, g := range gaps {
-		out = append(out, SummaryGap{
-			ID:              g.ID,
-			AreaM2:          g.Area,
-			ClosingRangeM:   g.ClosingRange,
-			DeepestPoint:    s.point(g.Deepest),
-			TouchesBoundary: g.TouchesBoundary,
-			Sites:           append(make([]int, 0, len(g.Sites)), g.Sites...),
-		})
+	for i := range gaps {
+		out = append(out, s.summaryGap(&gaps[i], s.point(gaps[i].Deepest)))
 	}
 	return out
 }
@@ -312,6 +307,7 @@ func (s *planScene) planSummary() *PlanDoc {
 		Command:         s.m.Command,
 		Move:            p.Move,
 		Version:         s.m.Version,
+		RunInputs:       s.runInputs(),
 		Sites:           len(s.l.Sites),
 		Duplicates:      s.duplicates(),
 		AreaM2:          s.l.AreaM2,

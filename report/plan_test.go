@@ -9,6 +9,7 @@ import (
 	"bytes"
 	"encoding/csv"
 	"encoding/json"
+	"fmt"
 	"image/color"
 	"math"
 	"os"
@@ -379,14 +380,24 @@ func TestPlanMapPixels(t *testing.T) {
 		t.Fatal(err)
 	}
 	img = c.dc.Image()
+	// The legend has "No loss" exactly when some device loses nothing.
+	noLoss := false
+	for _, d := range fr.Devices {
+		noLoss = noLoss || !(d.AddedUncovered > 0)
+	}
+	if hasLegend(c.legendLabels, "No loss") != noLoss {
+		t.Errorf("failure map legend %q: no-loss entry, want %v", c.legendLabels, noLoss)
+	}
 	for _, tc := range []struct {
 		at  orb.Point
 		col color.RGBA
 	}{{orb.Point{2, 2}, viridis[4]}, {orb.Point{22, 2}, viridis[2]}, {orb.Point{22, 22}, viridis[0]}} {
-		x, y := c.px(tc.at)
-		if !isColour(img, int(x), int(y), rgb(tc.col)) {
-			t.Errorf("failure map at %v: %v, want %v", tc.at, img.At(int(x), int(y)), tc.col)
-		}
+		t.Run(fmt.Sprintf("failure-map-at-%v,%v", tc.at[0], tc.at[1]), func(t *testing.T) {
+			x, y := c.px(tc.at)
+			if !isColour(img, int(x), int(y), rgb(tc.col)) {
+				t.Errorf("failure map at %v: %v, want %v", tc.at, img.At(int(x), int(y)), tc.col)
+			}
+		})
 	}
 
 	// Assignment: squares within range, triangles beyond, in their colours.

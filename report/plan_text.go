@@ -32,13 +32,14 @@ var moveTitle = map[Move]string{
 func (s *planScene) planText() []byte {
 	var b bytes.Buffer
 	s.textTitle(&b, moveTitle[s.p.Move])
-	b.WriteString("Sites (existing devices) are numbered #0, #1, ... in input order (as in summary.json).\n")
+	b.WriteString(numberingNote)
 	if s.m.LifeSafety {
 		section(&b, "CAUTIONS (LIFE-SAFETY DEVICES)")
 		b.WriteString(Cautions() + "\n")
 	}
 	s.textInputs(&b)
 	s.planInputs(&b)
+	s.textTerms(&b)
 	s.textExisting(&b)
 	switch s.p.Move {
 	case MoveAdd, MoveFewest:
@@ -68,9 +69,9 @@ func (s *planScene) planInputs(b *bytes.Buffer) {
 				polys++
 			}
 		}
-		what := fmt.Sprintf("%d demand items", len(s.p.Demand))
+		what := Plural(len(s.p.Demand), "demand item")
 		if polys > 0 {
-			what += fmt.Sprintf(" (%d polygons, each placed at a point on it)", polys)
+			what += fmt.Sprintf(" (%s, each placed at a point on it)", Plural(polys, "polygon"))
 		}
 		if s.p.Weighted {
 			what += ", weighted"
@@ -102,7 +103,7 @@ func (s *planScene) textExisting(b *bytes.Buffer) {
 	kv := &kvList{}
 	kv.add("Range of the figures", s.rangeText())
 	if s.hasRange() {
-		kv.add("Covered", fmt.Sprintf("%.3f %% of the area", 100*s.fraction(p.Uncovered)))
+		kv.add("Covered", CoveredPercent(s.fraction(p.Uncovered), p.Uncovered, 3)+" % of the area")
 		kv.add("Uncovered", fmt.Sprintf("%s (%s)", m2(p.Uncovered), ha(p.Uncovered)))
 	}
 	if p.Move == MoveAdd || p.Move == MoveFewest || p.Move == MoveCandidates {
@@ -135,14 +136,14 @@ func (s *planScene) textSuggestion(b *bytes.Buffer) {
 		case len(sg.Added) == 0 && sg.Reached:
 			kv.add("Additions needed", "none: no gap at this range")
 		case sg.Reached:
-			kv.add("Additions needed", fmt.Sprintf("%d (by %s), %d devices in all", len(sg.Added), sg.Method, sg.TotalDevices))
+			kv.add("Additions needed", fmt.Sprintf("%d (by %s), %s in all", len(sg.Added), sg.Method, Plural(sg.TotalDevices, "device")))
 		default:
 			kv.add("Additions", fmt.Sprintf("%d placed, and gaps remain: the search stopped at its cap (%s)", len(sg.Added), sg.Method))
 		}
-		kv.add("Hexagonal estimate", fmt.Sprintf("%.2f devices (%d): area / ((3*sqrt(3)/2) r2), the thinnest covering of", sg.HexEstimate, sg.HexDevices))
+		kv.add("Hexagonal estimate", fmt.Sprintf("%.2f devices (%d): area / ((3*sqrt(3)/2) r²), the thinnest covering of", sg.HexEstimate, sg.HexDevices))
 		kv.add("", "the plane by equal disks (Kershner 1939); boundaries make real sites need more")
 		if sg.HexEstimate > 0 {
-			kv.add("Plan against estimate", fmt.Sprintf("%d devices = %.2f times the estimate (1 is the unreachable ideal)", sg.TotalDevices, sg.HexRatio))
+			kv.add("Plan against estimate", fmt.Sprintf("%s = %.2f times the estimate (1 is the unreachable ideal)", Plural(sg.TotalDevices, "device"), sg.HexRatio))
 		}
 		kv.write(b)
 		if len(sg.Added) == 0 {
@@ -152,12 +153,12 @@ func (s *planScene) textSuggestion(b *bytes.Buffer) {
 	}
 	t := &table{}
 	hx, hy := s.pointHeads()
-	t.head("New", hx, hy, "Full cover m", "after m", "Covered %", "after %", "Uncovered m2", "after m2")
+	t.head("New", hx, hy, "Full cover m", "after m", "Covered %", "after %", "Uncovered m²", "after m²")
 	for j, st := range sg.Steps {
 		px, py := s.pointCols(st.Added)
 		t.row(fmt.Sprintf("+%d", j+1), px, py,
 			fmt.Sprintf("%.2f", st.FullCoverBefore), fmt.Sprintf("%.2f", st.FullCoverAfter),
-			fmt.Sprintf("%.3f", 100*st.CoveredBefore), fmt.Sprintf("%.3f", 100*st.CoveredAfter),
+			CoveredPercent(st.CoveredBefore, st.UncoveredBefore, 3), CoveredPercent(st.CoveredAfter, st.UncoveredAfter, 3),
 			fmt.Sprintf("%.1f", st.UncoveredBefore), fmt.Sprintf("%.1f", st.UncoveredAfter))
 	}
 	t.write(b)
@@ -165,7 +166,7 @@ func (s *planScene) textSuggestion(b *bytes.Buffer) {
 	kv := &kvList{}
 	kv.add("Devices", fmt.Sprintf("%d existing + %d new = %d", sg.Existing, len(sg.Added), sg.Existing+len(sg.Added)))
 	kv.add("Full-cover range", fmt.Sprintf("%s -> %s", metres(sg.FullCoverBefore), metres(sg.FullCoverAfter)))
-	kv.add("Covered at "+metres(sg.Range), fmt.Sprintf("%.3f %% -> %.3f %%", 100*sg.CoveredBefore, 100*sg.CoveredAfter))
+	kv.add("Covered at "+metres(sg.Range), CoveredPercent(sg.CoveredBefore, sg.UncoveredBefore, 3)+" % -> "+CoveredPercent(sg.CoveredAfter, sg.UncoveredAfter, 3)+" %")
 	kv.add("Uncovered", fmt.Sprintf("%s -> %s", m2(sg.UncoveredBefore), m2(sg.UncoveredAfter)))
 	kv.add("Gaps", fmt.Sprintf("%d -> %d", len(p.GapsBefore), len(p.GapsAfter)))
 	kv.write(b)
@@ -182,20 +183,16 @@ func (s *planScene) textGapList(b *bytes.Buffer, title string, gaps []coverage.G
 	}
 	t := &table{}
 	hx, hy := s.pointHeads()
-	t.head("ID", "Area m2", "Closing m", hx, hy, "Kind")
+	t.head("Gap", "Area m²", "Closing m", hx, hy, "Kind")
 	t.left(5)
 	total := 0.0
 	for _, g := range gaps {
-		kind := "enclosed"
-		if g.TouchesBoundary {
-			kind = "edge"
-		}
 		px, py := s.pointCols(g.Deepest)
-		t.row(fmt.Sprint(g.ID), fmt.Sprintf("%.1f", g.Area), fmt.Sprintf("%.2f", g.ClosingRange), px, py, kind)
+		t.row(fmt.Sprint(g.ID), fmt.Sprintf("%.1f", g.Area), fmt.Sprintf("%.2f", g.ClosingRange), px, py, gapKind(g))
 		total += g.Area
 	}
 	t.write(b)
-	fmt.Fprintf(b, "  %s, %s in all.\n", plural(len(gaps), "gap"), m2(total))
+	fmt.Fprintf(b, "  %s, %s in all.\n", Plural(len(gaps), "gap"), m2(total))
 }
 
 func (s *planScene) textCandidates(b *bytes.Buffer) {
@@ -218,22 +215,22 @@ func (s *planScene) textCandidates(b *bytes.Buffer) {
 	} else {
 		t := &table{}
 		hx, hy := s.pointHeads()
-		t.head("Pick", "Spot", hx, hy, "Adds m2", "Covered %", "Name")
-		t.left(6)
+		t.head("Pick", hx, hy, "Adds m²", "Covered %", "Candidate")
+		t.left(5)
 		cum := cumulative(ch)
 		for j, c := range ch.Picked {
 			px, py := s.pointCols(p.Candidates[c])
-			t.row(fmt.Sprint(j+1), fmt.Sprintf("c%d", c), px, py, fmt.Sprintf("%.1f", ch.Gains[j]),
-				fmt.Sprintf("%.3f", 100*math.Max(0, math.Min(1, cum[j]/s.l.AreaM2))), orDash(p.CandidateNames[c]))
+			t.row(fmt.Sprint(j+1), px, py, fmt.Sprintf("%.1f", ch.Gains[j]),
+				CoveredPercent(cum[j]/s.l.AreaM2, pickUncovered(ch, j), 3), ItemLabel(p.CandidateNames[c], "candidate", c))
 		}
 		t.write(b)
-		b.WriteString("  Spot: c<index> is the 0-based order in the candidates file.\n")
+		b.WriteString("  Candidate: its name, or its position in the candidates file (candidate 1 first).\n")
 	}
 	section(b, "BEFORE AND AFTER")
 	kv := &kvList{}
 	kv.add("Spots picked", fmt.Sprintf("%d of %d", len(ch.Picked), len(p.Candidates)))
 	kv.add("Full-cover range", fmt.Sprintf("%s -> %s", metres(ch.FullCoverBefore), metres(ch.FullCoverAfter)))
-	kv.add("Covered at "+metres(ch.Range), fmt.Sprintf("%.3f %% -> %.3f %%", 100*ch.FractionBefore, 100*ch.FractionAfter))
+	kv.add("Covered at "+metres(ch.Range), CoveredPercent(ch.FractionBefore, ch.UncoveredBefore, 3)+" % -> "+CoveredPercent(ch.FractionAfter, ch.UncoveredAfter, 3)+" %")
 	kv.add("Uncovered", fmt.Sprintf("%s -> %s", m2(ch.UncoveredBefore), m2(ch.UncoveredAfter)))
 	kv.add("Gaps", fmt.Sprintf("%d -> %d", len(p.GapsBefore), len(ch.Remaining)))
 	switch {
@@ -241,9 +238,9 @@ func (s *planScene) textCandidates(b *bytes.Buffer) {
 		kv.add("Result", "full cover: no gap remains at this range")
 	case ch.Exhausted:
 		kv.add("Result", fmt.Sprintf("FULL COVER CANNOT BE REACHED from these candidates: no remaining spot adds covered area; %s remain uncovered in %s",
-			m2(ch.UncoveredAfter), plural(len(ch.Remaining), "gap")))
+			m2(ch.UncoveredAfter), Plural(len(ch.Remaining), "gap")))
 	default:
-		kv.add("Result", fmt.Sprintf("%s leave %s uncovered in %s; more picks may close them", plural(len(ch.Picked), "pick"), m2(ch.UncoveredAfter), plural(len(ch.Remaining), "gap")))
+		kv.add("Result", fmt.Sprintf("%s leave %s uncovered in %s; more picks may close them", Plural(len(ch.Picked), "pick"), m2(ch.UncoveredAfter), Plural(len(ch.Remaining), "gap")))
 	}
 	kv.write(b)
 	s.textGapList(b, "GAPS LEFT WITH THE PICKS", ch.Remaining, "none: the picks leave no gap at this range")
@@ -271,22 +268,31 @@ func (s *planScene) textFailures(b *bytes.Buffer) {
 	b.WriteString("  Ranked by loss, then closing range.\n\n")
 	t := &table{}
 	hx, hy := s.pointHeads()
-	t.head("Rank", "Site", "Loss m2", "Uncovered m2", "Closing m", hx, hy, "Full cover m", "Backup", "Name")
-	t.left(8, 9)
+	t.head("Rank", "Loss m²", "Uncovered m²", "Closing m", hx, hy, "Full cover m", "Device", "Backup")
+	t.left(7, 8)
 	for k, d := range fr.Devices {
 		px, py := s.pointCols(d.Deepest)
-		name := orDash(s.name(d.Site))
+		name := s.label(d.Site)
 		if d.Shared {
 			name += " (shares its spot: its failure changes nothing)"
 		}
 		backup := "-"
 		if d.Backup >= 0 {
-			backup = fmt.Sprintf("#%d", d.Backup)
+			backup = s.label(d.Backup)
 		}
-		t.row(fmt.Sprint(k+1), fmt.Sprintf("#%d", d.Site), fmt.Sprintf("%.1f", d.AddedUncovered), fmt.Sprintf("%.1f", d.Uncovered),
-			metresCol(d.ClosingRange), px, py, metresCol(d.FullCover), backup, name)
+		t.row(fmt.Sprint(k+1), fmt.Sprintf("%.1f", d.AddedUncovered), fmt.Sprintf("%.1f", d.Uncovered),
+			metresCol(d.ClosingRange), px, py, metresCol(d.FullCover), name, backup)
 	}
 	t.write(b)
+}
+
+// pickUncovered is the area left uncovered after pick j: positive before
+// the last pick (a later pick still adds area), UncoveredAfter after it.
+func pickUncovered(ch *coverage.Choice, j int) float64 {
+	if j < len(ch.Picked)-1 {
+		return math.Inf(1)
+	}
+	return ch.UncoveredAfter
 }
 
 // metresCol formats a length for a table cell ("none" when infinite).
@@ -331,17 +337,17 @@ func (s *planScene) textAssignment(b *bytes.Buffer) {
 	b.WriteString("  holds it). Devices serving nothing are listed too.\n\n")
 	t := &table{}
 	if ranged {
-		t.head("Site", "Items", "Weight", "In range", "Weight in range", "Name")
-		t.left(5)
+		t.head("Items", "Weight", "In range", "Weight in range", "Device")
+		t.left(4)
 	} else {
-		t.head("Site", "Items", "Weight", "Name")
-		t.left(3)
+		t.head("Items", "Weight", "Device")
+		t.left(2)
 	}
 	for i, ld := range a.Load {
 		if ranged {
-			t.row(fmt.Sprintf("#%d", i), fmt.Sprint(ld.Count), weightText(ld.Weight), fmt.Sprint(ld.InRange), weightText(ld.InRangeWeight), orDash(s.name(i)))
+			t.row(fmt.Sprint(ld.Count), weightText(ld.Weight), fmt.Sprint(ld.InRange), weightText(ld.InRangeWeight), s.label(i))
 		} else {
-			t.row(fmt.Sprintf("#%d", i), fmt.Sprint(ld.Count), weightText(ld.Weight), orDash(s.name(i)))
+			t.row(fmt.Sprint(ld.Count), weightText(ld.Weight), s.label(i))
 		}
 	}
 	t.write(b)
@@ -354,8 +360,8 @@ func (s *planScene) textAssignment(b *bytes.Buffer) {
 	}
 	t = &table{}
 	hx, hy := s.pointHeads()
-	t.head("Item", hx, hy, "Device", "Distance m", "In range", "Weight", "Name", "Device name")
-	t.left(7, 8)
+	t.head(hx, hy, "Distance m", "In range", "Weight", "Item", "Device")
+	t.left(5, 6)
 	rows := 0
 	for i := range p.Demand {
 		in := "-"
@@ -369,8 +375,8 @@ func (s *planScene) textAssignment(b *bytes.Buffer) {
 			continue
 		}
 		px, py := s.pointCols(p.Demand[i])
-		t.row(fmt.Sprint(i), px, py, fmt.Sprintf("#%d", a.Device[i]), fmt.Sprintf("%.2f", a.Distance[i]), in,
-			weightText(a.Weight[i]), orDash(s.demandName(i)), orDash(s.name(a.Device[i])))
+		t.row(px, py, fmt.Sprintf("%.2f", a.Distance[i]), in,
+			weightText(a.Weight[i]), s.demandLabel(i), s.label(a.Device[i]))
 		rows++
 	}
 	if rows == 0 {
@@ -380,13 +386,8 @@ func (s *planScene) textAssignment(b *bytes.Buffer) {
 	t.write(b)
 }
 
-// demandLabel is "item i name" or "item i".
-func (s *planScene) demandLabel(i int) string {
-	if n := s.demandName(i); n != "" {
-		return fmt.Sprintf("item %d %s", i, n)
-	}
-	return fmt.Sprintf("item %d", i)
-}
+// demandLabel names demand item i (ItemLabel: its name, or "item n").
+func (s *planScene) demandLabel(i int) string { return ItemLabel(s.demandName(i), "item", i) }
 
 func (s *planScene) textPlanNotes(b *bytes.Buffer) {
 	section(b, "ACCURACY AND NOTES")
@@ -396,7 +397,7 @@ func (s *planScene) textPlanNotes(b *bytes.Buffer) {
 		lines = append(lines,
 			"Areas, covered shares and full-cover ranges are closed-form results for the",
 			"disk model (polygon-disk intersections, Voronoi vertices), exact up to",
-			"floating-point rounding; printed rounded to 0.1 m2, 0.001 % and 0.01 m.",
+			"floating-point rounding; printed rounded to 0.1 m², 0.001 % and 0.01 m.",
 			"Gap outlines in the GeoJSON layers replace arcs by chords inside the disks",
 			"(sagitta at most 0.2 % of the range); gap areas are exact.",
 			"Positions are proposals for the disk model: check on site that a device can",

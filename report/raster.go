@@ -29,6 +29,7 @@ import (
 	"image/draw"
 	"math"
 
+	"github.com/sitecover/sitecover/planar"
 	"golang.org/x/image/vector"
 )
 
@@ -57,7 +58,7 @@ func (f *fastFill) ringPx(px []float64, sign int) {
 		return
 	}
 	if sign != 0 {
-		if a := areaPx(px); (a > 0) != (sign > 0) {
+		if a := planar.RingArea(px); (a > 0) != (sign > 0) { // > 0: clockwise on screen (y down)
 			reverseXY(px)
 		}
 	}
@@ -212,18 +213,6 @@ func (c *canvas) paintHatch(mask *image.Alpha) {
 			p[3] = uint8(a + uint32(p[3])*(255-a)/255)
 		}
 	}
-}
-
-// areaPx is the shoelace area of a pixel ring (positive clockwise on
-// screen, where y points down).
-func areaPx(px []float64) float64 {
-	n := len(px) / 2
-	var a float64
-	x0, y0 := px[0], px[1]
-	for i := 1; i+1 < n; i++ {
-		a += (px[2*i]-x0)*(px[2*i+3]-y0) - (px[2*i+2]-x0)*(px[2*i+1]-y0)
-	}
-	return a / 2
 }
 
 func reverseXY(px []float64) {

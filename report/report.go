@@ -25,6 +25,7 @@ import (
 	"fmt"
 	"strings"
 
+	"github.com/paulmach/orb"
 	"github.com/sitecover/sitecover/coverage"
 )
 
@@ -78,6 +79,9 @@ type Meta struct {
 	Timings []coverage.Timing
 	// Version is the program version printed in the report.
 	Version string
+	// Context holds context polygons in the local plane (buildings,
+	// paths, ...): drawn on the maps under the coverage, never analysed.
+	Context orb.MultiPolygon
 }
 
 // Options selects the optional outputs. The zero value writes the text

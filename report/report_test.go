@@ -10,6 +10,7 @@ package report
 import (
 	"bytes"
 	"encoding/json"
+	"fmt"
 	"image"
 	"image/png"
 	"math"
@@ -132,18 +133,20 @@ func TestSummarySingleSiteClosedForm(t *testing.T) {
 		f    float64
 		got  float64
 	}{{"p50", 0.50, doc.RangePercentiles.P50}, {"p90", 0.90, doc.RangePercentiles.P90}, {"p95", 0.95, doc.RangePercentiles.P95}, {"p99", 0.99, doc.RangePercentiles.P99}} {
-		lo, hi := 0.0, a
-		for range 200 {
-			mid := (lo + hi) / 2
-			if coveredInSquare(a, mid) >= k.f*a*a {
-				hi = mid
-			} else {
-				lo = mid
+		t.Run(k.name, func(t *testing.T) {
+			lo, hi := 0.0, a
+			for range 200 {
+				mid := (lo + hi) / 2
+				if coveredInSquare(a, mid) >= k.f*a*a {
+					hi = mid
+				} else {
+					lo = mid
+				}
 			}
-		}
-		if !near(k.got, hi, 1e-6) {
-			t.Errorf("%s = %v, want %v", k.name, k.got, hi)
-		}
+			if !near(k.got, hi, 1e-6) {
+				t.Errorf("%s = %v, want %v", k.name, k.got, hi)
+			}
+		})
 	}
 	if len(doc.Holes) != 0 || doc.LinkRangeM != 0 || doc.ConnectRangeM != 0 {
 		t.Errorf("holes %v, link %v, connect %v: want none, 0, 0 for one site", doc.Holes, doc.LinkRangeM, doc.ConnectRangeM)
@@ -183,8 +186,14 @@ func TestSummaryJSONFieldNames(t *testing.T) {
 			}
 		}
 	}
-	sub("gaps", "id", "area_m2", "closing_range_m", "deepest_point", "touches_boundary")
+	sub("gaps", "id", "area_m2", "closing_range_m", "deepest_point", "touches_boundary", "sites", "site_labels")
 	sub("cells", "site", "name", "area_m2", "farthest_m", "farthest_point")
+	// The run is named: its title and input files (issue 16).
+	for _, k := range []string{"title", "sites_file", "area_file", "exclude_file"} {
+		if _, ok := doc[k]; !ok {
+			t.Errorf("summary.json lacks %q", k)
+		}
+	}
 	var pc map[string]float64
 	if err := json.Unmarshal(doc["range_percentiles"], &pc); err != nil {
 		t.Fatal(err)
@@ -516,7 +525,7 @@ func TestGeoJSONRingRepair(t *testing.T) {
 	s := &scene{m: Meta{ToLonLat: func(x, y float64) (float64, float64) { return x, y }}}
 	in := orb.Ring{{0, 0}, {0, 1}, {1, 1}, {1, 1 + 1e-9}, {1, 0}, {0, 0}}
 	r := s.ring(in, true)
-	if len(r) != 5 || r[0] != r[len(r)-1] || signedArea(r) <= 0 {
+	if len(r) != 5 || r[0] != r[len(r)-1] || planar.RingArea(planar.FlatRing(r)) <= 0 {
 		t.Fatalf("repaired ring %v: want 4 distinct positions, closed, counter-clockwise", r)
 	}
 	for i := 1; i < len(r); i++ {
@@ -524,7 +533,7 @@ func TestGeoJSONRingRepair(t *testing.T) {
 			t.Errorf("repeated position %v", r[i])
 		}
 	}
-	if h := s.ring(in, false); signedArea(h) >= 0 {
+	if h := s.ring(in, false); planar.RingArea(planar.FlatRing(h)) >= 0 {
 		t.Errorf("hole ring %v not clockwise", h)
 	}
 	// a sliver thinner than the rounding vanishes
@@ -636,7 +645,7 @@ func TestReportText(t *testing.T) {
 	for _, want := range []string{
 		"Site coverage report: Test campus", "Full-cover range", metres(g.an.FullCover.Range),
 		"Range covering 95 %", "Link range", "GAPS AT 70.00 m", "SERVICE AREAS", "North gate", "CAUTIONS",
-		"life-safety", "Lat deg", "transverse Mercator on WGS84",
+		"life-safety", "Latitude", "transverse Mercator on WGS84",
 	} {
 		if !strings.Contains(txt, want) {
 			t.Errorf("report.txt lacks %q", want)
@@ -727,7 +736,7 @@ func TestWriteCells(t *testing.T) {
 }
 
 // gridScene is four sites on a 100 m grid in a 200 m square at range
-// 60 m: nine gaps (four corners, four edge midpoints, the enclosed centre),
+// 60 m: nine gaps (four corners, four edge midpoints, the inner centre),
 // all closing at 50√2 m. Reference: elementary geometry.
 func gridScene(t testing.TB) *coverage.Analysis {
 	return analyze(t, []orb.Point{{50, 50}, {150, 50}, {50, 150}, {150, 150}}, region(t, square(200)), 60)
@@ -738,20 +747,20 @@ func TestGridSceneGaps(t *testing.T) {
 	if len(an.Gaps) != 9 {
 		t.Fatalf("%d gaps, want 9", len(an.Gaps))
 	}
-	enclosed := 0
+	inner := 0
 	for _, g := range an.Gaps {
 		if !near(g.ClosingRange, 50*math.Sqrt2, 1e-9) {
 			t.Errorf("gap %d closes at %v, want 50√2", g.ID, g.ClosingRange)
 		}
 		if !g.TouchesBoundary {
-			enclosed++
+			inner++
 			if math.Hypot(g.Deepest[0]-100, g.Deepest[1]-100) > 1e-9 {
-				t.Errorf("enclosed gap deepest at %v, want (100, 100)", g.Deepest)
+				t.Errorf("inner gap deepest at %v, want (100, 100)", g.Deepest)
 			}
 		}
 	}
-	if enclosed != 1 {
-		t.Errorf("%d enclosed gaps, want 1", enclosed)
+	if inner != 1 {
+		t.Errorf("%d inner gaps, want 1", inner)
 	}
 }
 
@@ -875,24 +884,30 @@ func TestCellColours(t *testing.T) {
 func TestDrawingHelpers(t *testing.T) {
 	// Reference: common practice — scale bars show 1, 2 or 5 × 10^k.
 	for _, c := range []struct{ in, want float64 }{{0.7, 0.5}, {1, 1}, {3.9, 2}, {7, 5}, {180, 100}, {260, 200}, {999, 500}, {4200, 2000}} {
-		if got := niceLength(c.in); got != c.want {
-			t.Errorf("niceLength(%v) = %v, want %v", c.in, got, c.want)
-		}
+		t.Run(fmt.Sprintf("niceLength/%v", c.in), func(t *testing.T) {
+			if got := niceLength(c.in); got != c.want {
+				t.Errorf("niceLength(%v) = %v, want %v", c.in, got, c.want)
+			}
+		})
 	}
 	for _, c := range []struct {
 		m    float64
 		want string
 	}{{500, "500 m"}, {2000, "2 km"}, {2500, "2.5 km"}, {0.5, "50 cm"}} {
-		if got := lengthLabel(c.m); got != c.want {
-			t.Errorf("lengthLabel(%v) = %q, want %q", c.m, got, c.want)
-		}
+		t.Run(fmt.Sprintf("lengthLabel/%v", c.m), func(t *testing.T) {
+			if got := lengthLabel(c.m); got != c.want {
+				t.Errorf("lengthLabel(%v) = %q, want %q", c.m, got, c.want)
+			}
+		})
 	}
 	// chord deviation r(1 − cos(π/n)) stays within 0.2 px
 	for _, rho := range []float64{0.1, 1, 3, 10, 100, 1000, 5000} {
-		n := circleSides(rho)
-		if dev := rho * (1 - math.Cos(math.Pi/float64(n))); dev > 0.2+1e-12 && n < 720 {
-			t.Errorf("radius %v px: %d sides deviate %v px", rho, n, dev)
-		}
+		t.Run(fmt.Sprintf("circleSides/%vpx", rho), func(t *testing.T) {
+			n := circleSides(rho)
+			if dev := rho * (1 - math.Cos(math.Pi/float64(n))); dev > 0.2+1e-12 && n < 720 {
+				t.Errorf("radius %v px: %d sides deviate %v px", rho, n, dev)
+			}
+		})
 	}
 }
 

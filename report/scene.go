@@ -35,6 +35,11 @@ type scene struct {
 	// s.a.Gaps and s.a.Persistence.Holes.
 	keyOnce                   sync.Once
 	farOut, deepOut, closeOut []Point
+
+	// holeNotes marks each hole of s.a.Persistence.Holes (holeNote),
+	// computed once.
+	notesOnce sync.Once
+	holeNotes []string
 }
 
 func newScene(l *coverage.Layout, a *coverage.Analysis, m Meta) *scene {
@@ -118,19 +123,45 @@ func (s *scene) name(i int) string {
 	return ""
 }
 
-// label returns "#i name" or "#i" for input site i (0-based).
-func (s *scene) label(i int) string { return string(s.appendLabel(nil, i)) }
+// DeviceLabel returns how every text output and map names input site i
+// (0-based): its own label names[i] or, when it has none, "#n" with n =
+// i+1, its position in the input (the first site is #1). The 0-based
+// index itself appears only in summary.json and the GeoJSON layers
+// ("site"), next to the label.
+func DeviceLabel(names []string, i int) string {
+	if i >= 0 && i < len(names) && names[i] != "" {
+		return names[i]
+	}
+	return "#" + strconv.Itoa(i+1)
+}
+
+// ItemLabel names an input item of another kind (a candidate spot, a
+// demand item) as DeviceLabel names a device: its own name or, when it has
+// none, the noun and its 1-based position in its file ("candidate 3").
+func ItemLabel(name, noun string, i int) string {
+	if name != "" {
+		return name
+	}
+	return noun + " " + strconv.Itoa(i+1)
+}
+
+// label returns the label of input site i (DeviceLabel).
+func (s *scene) label(i int) string { return DeviceLabel(s.m.SiteNames, i) }
 
 // appendLabel appends the label of input site i to b.
 func (s *scene) appendLabel(b []byte, i int) []byte {
-	b = append(b, '#')
-	b = strconv.AppendInt(b, int64(i), 10)
 	if n := s.name(i); n != "" {
-		b = append(b, ' ')
-		b = append(b, n...)
+		return append(b, n...)
 	}
-	return b
+	b = append(b, '#')
+	return strconv.AppendInt(b, int64(i+1), 10)
 }
+
+// numberingNote is the line that opens every report.txt on how devices
+// are named.
+const numberingNote = "Devices are named by their own label; one without a label by its position in\n" +
+	"the input (#1 is the first). summary.json and the GeoJSON layers add the\n" +
+	"0-based input index (\"site\").\n"
 
 // duplicates counts input sites merged into an earlier identical one.
 func (s *scene) duplicates() int {

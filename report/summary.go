@@ -27,6 +27,8 @@ type SummaryDoc struct {
 	Command string `json:"command"`
 	// Version is the program version.
 	Version string `json:"version"`
+	// RunInputs names the run's title and input files.
+	RunInputs
 	// Sites is the number of input sites.
 	Sites int `json:"sites"`
 	// Duplicates is the number of input sites at exactly the position of
@@ -66,8 +68,9 @@ type SummaryDoc struct {
 	ConnectRangeM float64 `json:"connect_range_m"`
 	// Pieces is the number of separate pieces of coverage at RangeM.
 	Pieces int `json:"pieces"`
-	// EnclosedHoles is the number of holes of the union at RangeM.
-	EnclosedHoles int `json:"enclosed_holes"`
+	// OpenHoles is the number of holes of the union of disks open at
+	// RangeM (holes, not gaps: see report.txt TERMS).
+	OpenHoles int `json:"open_holes"`
 	// Cells are the service areas, one per distinct site position.
 	Cells []SummaryCell `json:"cells"`
 	// Projection describes the local plane.
@@ -86,8 +89,9 @@ type SummaryDoc struct {
 // CellsDoc is the summary.json document of the cells command: the layout
 // fields of SummaryDoc without coverage figures.
 type CellsDoc struct {
-	Command       string        `json:"command"`
-	Version       string        `json:"version"`
+	Command string `json:"command"`
+	Version string `json:"version"`
+	RunInputs
 	Sites         int           `json:"sites"`
 	Duplicates    int           `json:"duplicates"`
 	AreaM2        float64       `json:"area_m2"`
@@ -98,6 +102,42 @@ type CellsDoc struct {
 	Coordinates   string        `json:"coordinates"`
 	Warnings      []string      `json:"warnings"`
 	Timings       Timings       `json:"timings"`
+}
+
+// RunInputs identifies a run in every summary.json: the title of its
+// report and maps and the input files as given ("" when not given; the
+// demo's built-in files are named with "(built in)").
+type RunInputs struct {
+	Title       string `json:"title"`
+	SitesFile   string `json:"sites_file"`
+	AreaFile    string `json:"area_file"`
+	ExcludeFile string `json:"exclude_file"`
+	// CandidatesFile and PointsFile are the planning moves' inputs.
+	CandidatesFile string `json:"candidates_file,omitempty"`
+	PointsFile     string `json:"points_file,omitempty"`
+}
+
+// runInputs returns the RunInputs of the scene's run.
+func (s *scene) runInputs() RunInputs {
+	return RunInputs{Title: s.m.Title, SitesFile: s.m.SitesFile, AreaFile: s.m.AreaFile, ExcludeFile: s.m.ExcludeFile,
+		CandidatesFile: s.m.CandidatesFile, PointsFile: s.m.PointsFile}
+}
+
+// summaryGap is gap g in summary.json, with its deepest point out.
+func (s *scene) summaryGap(g *coverage.Gap, deepest Point) SummaryGap {
+	labels := make([]string, len(g.Sites))
+	for k, i := range g.Sites {
+		labels[k] = s.label(i)
+	}
+	return SummaryGap{
+		ID:              g.ID,
+		AreaM2:          g.Area,
+		ClosingRangeM:   g.ClosingRange,
+		DeepestPoint:    deepest,
+		TouchesBoundary: g.TouchesBoundary,
+		Sites:           append(make([]int, 0, len(g.Sites)), g.Sites...),
+		SiteLabels:      labels,
+	}
 }
 
 // Point is a point of summary.json: [lon, lat] or [x, y] (see
@@ -111,9 +151,11 @@ type SummaryGap struct {
 	ClosingRangeM   float64 `json:"closing_range_m"`
 	DeepestPoint    Point   `json:"deepest_point"`
 	TouchesBoundary bool    `json:"touches_boundary"`
-	// Sites are the input indices of the sites whose service areas the
-	// gap meets.
-	Sites []int `json:"sites"`
+	// Sites are the input indices (0-based) of the devices bordering the
+	// gap: those whose service areas it meets. SiteLabels names the same
+	// devices as the text outputs do (DeviceLabel), in the same order.
+	Sites      []int    `json:"sites"`
+	SiteLabels []string `json:"site_labels"`
 }
 
 // SummaryHole is one hole of the union of disks in summary.json.
@@ -121,6 +163,10 @@ type SummaryHole struct {
 	BirthM     float64 `json:"birth_m"`
 	DeathM     float64 `json:"death_m"`
 	DeathPoint Point   `json:"death_point"`
+	// Note marks the hole as report.txt does: "outside site" (it closes
+	// outside the site area), "brief" (it lives less than 1 % of the
+	// planned range), both, or "".
+	Note string `json:"note"`
 }
 
 // Percentiles are the ranges at which the given share of the area is
@@ -287,6 +333,7 @@ func (s *scene) summary() *SummaryDoc {
 	d := &SummaryDoc{
 		Command:          s.m.Command,
 		Version:          s.m.Version,
+		RunInputs:        s.runInputs(),
 		Sites:            len(s.l.Sites),
 		Duplicates:       s.duplicates(),
 		AreaM2:           s.l.AreaM2,
@@ -299,7 +346,7 @@ func (s *scene) summary() *SummaryDoc {
 		Holes:            make([]SummaryHole, 0),
 		RangePercentiles: s.percentiles(),
 		Pieces:           a.Pieces,
-		EnclosedHoles:    a.EnclosedHoles,
+		OpenHoles:        a.EnclosedHoles,
 		Cells:            s.summaryCells(),
 		Projection:       s.projection(),
 		MaxScaleError:    s.m.MaxScaleError,
@@ -315,21 +362,14 @@ func (s *scene) summary() *SummaryDoc {
 		d.FullCoverWorstPoint = d.FullCoverWorstPoints[0]
 	}
 	d.FullCoverNearestSites = append(make([]int, 0, len(a.FullCover.WorstSites)), a.FullCover.WorstSites...)
-	for gi, g := range a.Gaps {
-		d.Gaps = append(d.Gaps, SummaryGap{
-			ID:              g.ID,
-			AreaM2:          g.Area,
-			ClosingRangeM:   g.ClosingRange,
-			DeepestPoint:    s.deepestOut(gi),
-			TouchesBoundary: g.TouchesBoundary,
-			Sites:           append(make([]int, 0, len(g.Sites)), g.Sites...),
-		})
+	for gi := range a.Gaps {
+		d.Gaps = append(d.Gaps, s.summaryGap(&a.Gaps[gi], s.deepestOut(gi)))
 	}
 	if p := a.Persistence; p != nil {
 		d.LinkRangeM = p.LinkRange
 		d.ConnectRangeM = p.ConnectRange
 		for i, h := range p.Holes {
-			d.Holes = append(d.Holes, SummaryHole{BirthM: h.Birth, DeathM: h.Death, DeathPoint: s.closingOut(i)})
+			d.Holes = append(d.Holes, SummaryHole{BirthM: h.Birth, DeathM: h.Death, DeathPoint: s.closingOut(i), Note: s.holeNote(i)})
 		}
 	}
 	return d
@@ -339,6 +379,7 @@ func (s *scene) cellsSummary() *CellsDoc {
 	return &CellsDoc{
 		Command:       s.m.Command,
 		Version:       s.m.Version,
+		RunInputs:     s.runInputs(),
 		Sites:         len(s.l.Sites),
 		Duplicates:    s.duplicates(),
 		AreaM2:        s.l.AreaM2,

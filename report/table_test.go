@@ -40,11 +40,16 @@ func TestTable(t *testing.T) {
 	cells.str("Weird")
 	cells.str("x")
 
-	for name, tb := range map[string]*table{"rows": whole, "cells": cells} {
-		var b bytes.Buffer
-		tb.write(&b)
-		if b.String() != want {
-			t.Errorf("%s:\n%s\nwant\n%s", name, b.String(), want)
-		}
+	for _, tc := range []struct {
+		name string
+		tb   *table
+	}{{"rows", whole}, {"cells", cells}} {
+		t.Run(tc.name, func(t *testing.T) {
+			var b bytes.Buffer
+			tc.tb.write(&b)
+			if b.String() != want {
+				t.Errorf("%s:\n%s\nwant\n%s", tc.name, b.String(), want)
+			}
+		})
 	}
 }

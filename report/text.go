@@ -18,6 +18,7 @@ import (
 
 	"github.com/paulmach/orb"
 	"github.com/sitecover/sitecover/coverage"
+	"github.com/sitecover/sitecover/planar"
 )
 
 // maxListed caps lists inside one table cell or line (worst points, nearby
@@ -33,6 +34,7 @@ func (s *scene) text() []byte {
 	}
 	s.textInputs(&b)
 	if s.a != nil {
+		s.textTerms(&b)
 		s.textSummary(&b)
 		s.textGaps(&b)
 	} else {
@@ -92,7 +94,7 @@ func (s *scene) textHeader(b *bytes.Buffer) {
 		title = "Service-area report"
 	}
 	s.textTitle(b, title)
-	b.WriteString("Sites are numbered #0, #1, ... in input order (as in summary.json).\n")
+	b.WriteString(numberingNote)
 }
 
 // textTitle writes the report's title (base and the report title),
@@ -147,7 +149,7 @@ func (s *scene) textInputs(b *bytes.Buffer) {
 	kv.add("Site area", fmt.Sprintf("%s (%s), exclusion zones removed", m2(s.l.AreaM2), ha(s.l.AreaM2)))
 	if s.l.Area != nil {
 		holes := s.l.Area.NumRings() - s.l.Area.NumPolygons()
-		kv.add("Area outline", fmt.Sprintf("%d polygon(s), %d exclusion zone(s)", s.l.Area.NumPolygons(), holes))
+		kv.add("Area outline", Plural(s.l.Area.NumPolygons(), "polygon")+", "+Plural(holes, "exclusion zone"))
 	}
 	kv.write(b)
 }
@@ -174,11 +176,12 @@ func (s *scene) textSummary(b *bytes.Buffer) {
 	section(b, "COVERAGE AT THE PLANNED RANGE")
 	kv := &kvList{}
 	kv.add("Planned range", metres(a.Range))
-	kv.add("Covered", fmt.Sprintf("%.3f %% of the area", 100*a.CoveredFraction))
+	kv.add("Covered", CoveredPercent(a.CoveredFraction, a.UncoveredArea, 3)+" % of the area")
 	kv.add("Uncovered", fmt.Sprintf("%s (%s)", m2(a.UncoveredArea), ha(a.UncoveredArea)))
-	kv.add("Gaps", fmt.Sprintf("%d (uncovered pieces of the area, listed below)", len(a.Gaps)))
+	inner := innerGaps(a.Gaps)
+	kv.add("Gaps", fmt.Sprintf("%d (%d at the edge, %d inner; listed below)", len(a.Gaps), len(a.Gaps)-inner, inner))
 	kv.add("Pieces of coverage", fmt.Sprintf("%d (separate groups of overlapping disks)", a.Pieces))
-	kv.add("Enclosed holes", fmt.Sprintf("%d (holes ringed by coverage)", a.EnclosedHoles))
+	kv.add("Holes open", Plural(a.EnclosedHoles, "hole")+" of the union of disks at this range (see HOLES)")
 	kv.write(b)
 
 	section(b, "RANGES")
@@ -220,22 +223,17 @@ func (s *scene) textGaps(b *bytes.Buffer) {
 		return
 	}
 	b.WriteString("  Closing range: the range at which the gap vanishes (distance from its deepest\n")
-	b.WriteString("  point to the nearest site). Edge: the gap reaches the area's outline or an\n")
-	b.WriteString("  exclusion zone; enclosed: coverage surrounds it.\n\n")
+	b.WriteString("  point to the nearest site). Kind: edge or inner (see TERMS).\n\n")
 	t := &table{}
 	hx, hy := s.pointHeads()
-	t.head("ID", "Area m2", "Closing m", hx, hy, "Kind", "Nearby sites")
+	t.head("Gap", "Area m²", "Closing m", hx, hy, "Kind", "Bordering devices")
 	t.left(5, 6)
 	for gi, g := range a.Gaps {
-		kind := "enclosed"
-		if g.TouchesBoundary {
-			kind = "edge"
-		}
 		t.int("", g.ID)
 		t.num(g.Area, 1)
 		t.num(g.ClosingRange, 2)
 		s.pointCells(t, s.deepestOut(gi))
-		t.str(kind)
+		t.str(gapKind(g))
 		for i, site := range g.Sites {
 			if i > 0 {
 				t.cells = append(t.cells, ", "...)
@@ -263,21 +261,19 @@ func (s *scene) textCells(b *bytes.Buffer) {
 	b.WriteString("  from its site; the site's disk covers its service area at that range.\n\n")
 	t := &table{}
 	hx, hy := s.pointHeads()
-	t.head("Site", "Area m2", "Share %", "Farthest m", hx, hy, "Name", "Merged duplicates")
-	t.left(6, 7)
+	t.head("Area m²", "Share %", "Farthest m", hx, hy, "Device", "Merged duplicates")
+	t.left(5, 6)
 	for ci, c := range s.cells {
-		t.int("#", c.Site)
 		t.num(c.Area, 1)
 		t.num(100*c.Share, 3)
 		t.num(c.Farthest, 2)
 		s.pointCells(t, s.farthestOut(ci))
-		t.str(orDash(s.name(c.Site)))
+		t.str(s.label(c.Site))
 		for k, i := range c.Merged {
 			if k > 0 {
-				t.cells = append(t.cells, ' ')
+				t.cells = append(t.cells, ", "...)
 			}
-			t.cells = append(t.cells, '#')
-			t.cells = strconv.AppendInt(t.cells, int64(i), 10)
+			t.cells = s.appendLabel(t.cells, i)
 		}
 		t.cell()
 	}
@@ -291,21 +287,28 @@ func (s *scene) textHoles(b *bytes.Buffer) {
 		b.WriteString("  none: at no range do the disks ring an uncovered hole\n")
 		return
 	}
-	b.WriteString("  A hole appears when a ring of disks closes around an uncovered spot and\n")
-	b.WriteString("  closes when the disks fill it; the closing point is where it fills last.\n")
-	b.WriteString("  Listed by lifetime (closing minus appearance range), longest first.\n")
 	r := s.a.Range
-	open := 0
-	for _, h := range p.Holes {
+	tol := briefHoleFraction * r
+	b.WriteString("  Holes as defined in TERMS, listed by lifetime (closing minus appearance\n")
+	b.WriteString("  range), longest first; the closing point is where a hole fills last.\n")
+	fmt.Fprintf(b, "  Note \"outside site\": the closing point lies in an exclusion zone or beyond\n")
+	fmt.Fprintf(b, "  the site outline, so the part of the hole that lasts longest needs no\n")
+	fmt.Fprintf(b, "  coverage. Note \"brief\": the hole lives less than %s (%s of the\n", metresShort(tol), trimFloat(100*briefHoleFraction)+" %")
+	fmt.Fprintf(b, "  planned range), too short to matter for planning. Marked holes stay listed.\n")
+	open, marked := 0, 0
+	for i, h := range p.Holes {
 		if h.Birth <= r && r < h.Death {
 			open++
+			if s.holeNote(i) != "" {
+				marked++
+			}
 		}
 	}
-	fmt.Fprintf(b, "  At the planned range %s, %d of these %d holes are open.\n\n", metres(r), open, len(p.Holes))
+	fmt.Fprintf(b, "  At the planned range %s, %d of %s listed %s open (%d of them marked).\n\n", metres(r), open, Plural(len(p.Holes), "hole"), isAre(open), marked)
 	t := &table{}
 	hx, hy := s.pointHeads()
-	t.head("No", "Appears m", "Closes m", "Lifetime m", hx, hy, "At "+metresShort(r), "Ringed at appearance by")
-	t.left(6, 7)
+	t.head("No", "Appears m", "Closes m", "Lifetime m", hx, hy, "At "+metresShort(r), "Note", "Ringed at appearance by")
+	t.left(6, 7, 8)
 	for i, h := range p.Holes {
 		state := "open"
 		switch {
@@ -320,6 +323,7 @@ func (s *scene) textHoles(b *bytes.Buffer) {
 		t.num(h.Death-h.Birth, 2)
 		s.pointCells(t, s.closingOut(i))
 		t.str(state)
+		t.str(orDash(s.holeNote(i)))
 		t.cells = s.appendLabel(t.cells, h.BirthSites[0])
 		t.cells = append(t.cells, ", "...)
 		t.cells = s.appendLabel(t.cells, h.BirthSites[1])
@@ -328,13 +332,121 @@ func (s *scene) textHoles(b *bytes.Buffer) {
 	t.write(b)
 }
 
+// briefHoleFraction is the lifetime, as a fraction of the planned range,
+// below which a hole is marked "brief": at 1 % (1.2 m at 120 m) a hole
+// closes before any practical change of range or position would notice it.
+const briefHoleFraction = 0.01
+
+// textTerms defines, once, the two words the report keeps apart: gaps (of
+// the site) and holes (of the union of disks).
+func (s *scene) textTerms(b *bytes.Buffer) {
+	section(b, "TERMS")
+	noteLines(b, []string{
+		"Gap   a connected part of the site area out of reach of every device at",
+		"      the planned range; measured inside the site only. Kind \"edge\": it",
+		"      reaches the site outline or an exclusion zone; \"inner\": coverage",
+		"      surrounds it on every side.",
+		"Hole  a bounded region outside the union of the disks and surrounded by",
+		"      them (the topological view, whatever the site): it appears at the",
+		"      range where a ring of disks closes around it and closes at the range",
+		"      where the disks fill it. A hole may lie partly or wholly outside the",
+		"      site; an edge gap may be the part of a hole that the outline cuts.",
+	})
+}
+
+// CoveredPercent formats a covered share (fraction of the area, 0..1) as
+// a percentage with d decimals, never rounding to a whole when it is not:
+// when uncoveredM2 > 0 but the share would print as 100 it is written
+// "> 99.99" (d = 2), and a positive share that would print as 0 is written
+// "< 0.01". A share of exactly full or no cover prints as usual. The "%"
+// sign is left to the caller.
+func CoveredPercent(fraction, uncoveredM2 float64, d int) string {
+	v := 100 * math.Max(0, math.Min(1, fraction))
+	s := strconv.FormatFloat(v, 'f', d, 64)
+	step := math.Pow(10, -float64(d))
+	switch {
+	case uncoveredM2 > 0 && s == strconv.FormatFloat(100, 'f', d, 64):
+		return "> " + strconv.FormatFloat(100-step, 'f', d, 64)
+	case fraction > 0 && s == strconv.FormatFloat(0, 'f', d, 64):
+		return "< " + strconv.FormatFloat(step, 'f', d, 64)
+	}
+	return s
+}
+
+// Plural returns a count and its noun, the noun plural unless n is 1
+// ("1 gap", "2 gaps"). Every count written in words goes through it.
+func Plural(n int, noun string) string {
+	if n == 1 {
+		return "1 " + noun
+	}
+	return fmt.Sprintf("%d %ss", n, noun)
+}
+
+// isAre is the verb agreeing with a count n: "is" for 1, "are" otherwise.
+func isAre(n int) string {
+	if n == 1 {
+		return "is"
+	}
+	return "are"
+}
+
+// innerGaps counts the gaps surrounded by coverage (not touching the
+// site outline or an exclusion zone).
+func innerGaps(gaps []coverage.Gap) int {
+	n := 0
+	for _, g := range gaps {
+		if !g.TouchesBoundary {
+			n++
+		}
+	}
+	return n
+}
+
+// gapKind is a gap's kind as the reports name it: "edge" or "inner".
+func gapKind(g coverage.Gap) string {
+	if g.TouchesBoundary {
+		return "edge"
+	}
+	return "inner"
+}
+
+// holeNote returns the mark of hole i (see textHoles for the rules):
+// "outside site" when its closing point is not in the site area, "brief"
+// when it lives less than briefHoleFraction of the planned range, both
+// joined, or "". The marks are computed once for all holes, with one
+// index over the area's edges.
+func (s *scene) holeNote(i int) string {
+	s.notesOnce.Do(func() {
+		holes := s.a.Persistence.Holes
+		tol := briefHoleFraction * s.a.Range
+		var ix *planar.RegionIndex
+		if s.l.Area != nil && len(holes) > 0 {
+			ix = s.l.Area.Index()
+		}
+		s.holeNotes = make([]string, len(holes))
+		for k, h := range holes {
+			out := ix != nil && !ix.Contains(h.DeathPoint[0], h.DeathPoint[1])
+			brief := h.Death-h.Birth < tol
+			switch {
+			case out && brief:
+				s.holeNotes[k] = "outside site, brief"
+			case out:
+				s.holeNotes[k] = "outside site"
+			case brief:
+				s.holeNotes[k] = "brief"
+			}
+		}
+	})
+	return s.holeNotes[i]
+}
+
 func (s *scene) textAccuracy(b *bytes.Buffer) {
 	section(b, "ACCURACY AND NOTES")
 	lines := []string{
 		"Areas, covered share, uncovered area, gap areas, service areas and the",
 		"full-cover range are closed-form results (polygon-disk intersections,",
 		"Voronoi vertices), exact up to floating-point rounding; they are printed",
-		"rounded to 0.1 m2, 0.001 % and 0.01 m.",
+		"rounded to 0.1 m², 0.001 % and 0.01 m.",
 		"The 50/90/95/99 % ranges are inverted from the exact coverage curve to",
 		"within 1e-9 of the full-cover range.",
 		fmt.Sprintf("Gap outlines (%s and the coverage map) replace circular arcs by", LayerFile(FileGaps, s.m.Planar)),
@@ -344,9 +456,11 @@ func (s *scene) textAccuracy(b *bytes.Buffer) {
 	}
 	if s.geographic() {
 		lines = append(lines,
-			"Points are WGS84 latitude/longitude in degrees, rounded to 7 decimals",
-			"(about 1 cm). GeoJSON layers are RFC 7946: longitude first, exterior",
-			"rings counter-clockwise, holes clockwise.")
+			"Points are WGS84 latitude and longitude in degrees with hemisphere letters,",
+			"rounded to 7 decimals (about 1 cm). summary.json and the GeoJSON layers",
+			"hold the same points as numbers in RFC 7946 order: longitude first",
+			"(negative west and south); polygon exterior rings counter-clockwise,",
+			"polygon holes clockwise.")
 	} else {
 		lines = append(lines,
 			"Points are local plane x/y in metres, rounded to 1 mm. The GeoJSON layers",
@@ -390,45 +504,87 @@ func (s *scene) rangeOrZero() float64 {
 	return s.a.Range
 }
 
+// The one coordinate format of every text output (stdout, report.txt,
+// the planning reports): latitude then longitude in degrees with
+// hemisphere letters, 7 decimals (1e-7° is at most 1.1 cm), e.g.
+// "44.3807215°N 99.8651782°W", so the order cannot be misread; local plane
+// points as "x 12.345 m, y 67.890 m" (1 mm). Tables put the same two
+// strings in two columns. summary.json and the GeoJSON layers keep
+// numbers in [lon, lat] order as RFC 7946 requires.
+const (
+	degreeDecimals = 7
+	metreDecimals  = 3
+)
+
+// FormatPoint formats an output point p of a document whose
+// "coordinates" member is kind ("lon_lat" or "x_y") in the one text form.
+func FormatPoint(p Point, kind string) string {
+	if kind == "lon_lat" {
+		b := appendDegrees(nil, p[1], "N", "S")
+		b = append(b, ' ')
+		return string(appendDegrees(b, p[0], "E", "W"))
+	}
+	return string(appendXY(nil, p))
+}
+
+// appendDegrees appends |v| with degreeDecimals decimals, "°" and the
+// hemisphere letter (pos for v ≥ 0, else neg).
+func appendDegrees(b []byte, v float64, pos, neg string) []byte {
+	h := pos
+	if v < 0 {
+		h, v = neg, -v
+	}
+	b = strconv.AppendFloat(b, v, 'f', degreeDecimals, 64)
+	b = append(b, "°"...)
+	return append(b, h...)
+}
+
+// appendXY appends a local point as "x 12.345 m, y 67.890 m".
+func appendXY(b []byte, p Point) []byte {
+	b = append(b, "x "...)
+	b = strconv.AppendFloat(b, p[0], 'f', metreDecimals, 64)
+	b = append(b, " m, y "...)
+	b = strconv.AppendFloat(b, p[1], 'f', metreDecimals, 64)
+	return append(b, " m"...)
+}
+
 // pointHeads returns the column heads of a point.
 func (s *scene) pointHeads() (string, string) {
 	if s.geographic() {
-		return "Lat deg", "Lon deg"
+		return "Latitude", "Longitude"
 	}
 	return "x m", "y m"
 }
 
-// pointCols returns a point as two table cells (lat, lon or x, y).
+// pointCols returns a point as two table cells (latitude, longitude or
+// x, y).
 func (s *scene) pointCols(p orb.Point) (string, string) { return s.outCols(s.point(p)) }
 
-// outCols returns an output point as two table cells (lat, lon or x, y).
+// outCols returns an output point as two table cells (latitude,
+// longitude or x, y), as FormatPoint writes them.
 func (s *scene) outCols(q Point) (string, string) {
 	if s.geographic() {
-		return strconv.FormatFloat(q[1], 'f', 7, 64), strconv.FormatFloat(q[0], 'f', 7, 64)
+		return string(appendDegrees(nil, q[1], "N", "S")), string(appendDegrees(nil, q[0], "E", "W"))
 	}
-	return strconv.FormatFloat(q[0], 'f', 3, 64), strconv.FormatFloat(q[1], 'f', 3, 64)
+	return strconv.FormatFloat(q[0], 'f', metreDecimals, 64), strconv.FormatFloat(q[1], 'f', metreDecimals, 64)
 }
 
-// pointCells adds an output point to t as two cells (lat, lon or x, y),
-// as outCols formats it.
+// pointCells adds an output point to t as two cells, as outCols formats
+// it.
 func (s *scene) pointCells(t *table, q Point) {
 	if s.geographic() {
-		t.num(q[1], 7)
-		t.num(q[0], 7)
+		t.cells = appendDegrees(t.cells, q[1], "N", "S")
+		t.cell()
+		t.cells = appendDegrees(t.cells, q[0], "E", "W")
+		t.cell()
 		return
 	}
-	t.num(q[0], 3)
-	t.num(q[1], 3)
+	t.num(q[0], metreDecimals)
+	t.num(q[1], metreDecimals)
 }
 
-// pointText returns a point as text.
-func (s *scene) pointText(p orb.Point) string {
-	q := s.point(p)
-	if s.geographic() {
-		return fmt.Sprintf("lat %.7f, lon %.7f", q[1], q[0])
-	}
-	return fmt.Sprintf("x %.3f m, y %.3f m", q[0], q[1])
-}
+// pointText returns a point as text (FormatPoint).
+func (s *scene) pointText(p orb.Point) string { return FormatPoint(s.point(p), s.coordKind()) }
 
 func metres(v float64) string {
 	if math.IsNaN(v) || math.IsInf(v, 0) {
@@ -437,7 +593,19 @@ func metres(v float64) string {
 	return fmt.Sprintf("%.2f m", v)
 }
 
-func m2(v float64) string { return fmt.Sprintf("%.1f m2", v) }
+func m2(v float64) string { return AreaNumber(v, 1) + " m²" }
+
+// AreaNumber formats an area in m² with d decimals, never rounding a
+// positive area to zero: an uncovered remnant of 0.01 m² reads "< 0.1"
+// (d = 1), not "0.0", in line with CoveredPercent. The unit is left to
+// the caller.
+func AreaNumber(v float64, d int) string {
+	s := strconv.FormatFloat(v, 'f', d, 64)
+	if v > 0 && s == strconv.FormatFloat(0, 'f', d, 64) {
+		return "< " + strconv.FormatFloat(math.Pow(10, -float64(d)), 'f', d, 64)
+	}
+	return s
+}
 
 func ha(v float64) string { return fmt.Sprintf("%.4f ha", v/1e4) }
 

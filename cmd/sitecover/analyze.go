@@ -125,10 +125,10 @@ func printAnalysis(w io.Writer, d *report.SummaryDoc, m report.Meta) {
 	if m.Title != "" {
 		fmt.Fprintln(w, m.Title)
 	}
-	enclosed := 0
+	inner := 0
 	for _, g := range d.Gaps {
 		if !g.TouchesBoundary {
-			enclosed++
+			inner++
 		}
 	}
 	hull := ""
@@ -138,8 +138,8 @@ func printAnalysis(w io.Writer, d *report.SummaryDoc, m report.Meta) {
 	fmt.Fprintf(w, "  %-24s %d\n", "sites", d.Sites)
 	fmt.Fprintf(w, "  %-24s %s m²%s\n", "site area", fmtNum(d.AreaM2, 1), hull)
 	fmt.Fprintf(w, "  %-24s %s m\n", "planned range", fmtNum(d.RangeM, 2))
-	fmt.Fprintf(w, "  %-24s %s %% (%s m² uncovered in %d gaps, %d enclosed)\n", "covered at planned range",
-		fmtNum(100*d.CoveredFraction, 2), fmtNum(d.UncoveredAreaM2, 1), len(d.Gaps), enclosed)
+	fmt.Fprintf(w, "  %-24s %s %% (%s m² uncovered in %s, %d inner)\n", "covered at planned range",
+		report.CoveredPercent(d.CoveredFraction, d.UncoveredAreaM2, 2), report.AreaNumber(d.UncoveredAreaM2, 1), nGaps(len(d.Gaps)), inner)
 	where := ""
 	if len(d.FullCoverWorstPoints) > 0 {
 		where = " at " + fmtPoint(d.FullCoverWorstPoint, d.Coordinates)
@@ -164,7 +164,7 @@ func printGapTable(w io.Writer, d *report.SummaryDoc, m report.Meta) {
 		return
 	}
 	fmt.Fprintf(w, "\nGaps at %s m, by closing range:\n", fmtNum(d.RangeM, 2))
-	fmt.Fprintf(w, "  %4s  %12s  %11s  %-26s  %-8s  %s\n", "gap", "area m²", "closing m", "deepest point", "where", "nearby sites")
+	fmt.Fprintf(w, "  %4s  %12s  %11s  %-26s  %-8s  %s\n", "gap", "area m²", "closing m", "deepest point", "kind", "bordering devices")
 	for i, g := range d.Gaps {
 		if i == maxGapRows {
 			fmt.Fprintf(w, "  ... and %d more gaps (all in report.txt, summary.json and gaps.geojson)\n", len(d.Gaps)-i)
@@ -172,7 +172,7 @@ func printGapTable(w io.Writer, d *report.SummaryDoc, m report.Meta) {
 		}
 		kind := "edge"
 		if !g.TouchesBoundary {
-			kind = "enclosed"
+			kind = "inner"
 		}
 		var sites []string
 		for k, s := range g.Sites {
@@ -187,13 +187,8 @@ func printGapTable(w io.Writer, d *report.SummaryDoc, m report.Meta) {
 	}
 }
 
-// siteLabel is "#i name" or "#i" for input site i.
-func siteLabel(m report.Meta, i int) string {
-	if i >= 0 && i < len(m.SiteNames) && m.SiteNames[i] != "" {
-		return fmt.Sprintf("#%d %s", i, m.SiteNames[i])
-	}
-	return fmt.Sprintf("#%d", i)
-}
+// siteLabel names input site i as every output does (report.DeviceLabel).
+func siteLabel(m report.Meta, i int) string { return report.DeviceLabel(m.SiteNames, i) }
 
 // printWritten lists the files written.
 func printWritten(w io.Writer, dir string, written []string) {
@@ -201,18 +196,12 @@ func printWritten(w io.Writer, dir string, written []string) {
 	for i, p := range written {
 		names[i] = filepath.Base(p)
 	}
-	fmt.Fprintf(w, "Wrote %d files to %s: %s\n", len(written), dir, strings.Join(names, ", "))
+	fmt.Fprintf(w, "Wrote %s to %s: %s\n", report.Plural(len(written), "file"), dir, strings.Join(names, ", "))
 }
 
 // fmtNum formats v with d decimals.
 func fmtNum(v float64, d int) string { return fmt.Sprintf("%.*f", d, v) }
 
-// fmtPoint formats an output point for reading: geographic points with
-// hemisphere letters (so the order cannot be misread; 1e-6° is at most
-// 11 cm), local points as x and y metres.
-func fmtPoint(p report.Point, kind string) string {
-	if kind == "lon_lat" {
-		return degrees(p[1], "N", "S", 6) + " " + degrees(p[0], "E", "W", 6)
-	}
-	return fmt.Sprintf("x %.2f y %.2f", p[0], p[1])
-}
+// fmtPoint formats an output point in the one text form of every output
+// (report.FormatPoint).
+func fmtPoint(p report.Point, kind string) string { return report.FormatPoint(p, kind) }

@@ -86,7 +86,7 @@ func TestDemoWritesEverything(t *testing.T) {
 			t.Errorf("timings lack %q: %v", phase, s.Timings)
 		}
 	}
-	// The demo is meant to have gaps at the planned range, one enclosed.
+	// The demo is meant to have gaps at the planned range, one inner.
 	enclosed := 0
 	for _, g := range s.Gaps {
 		if !g.TouchesBoundary {
@@ -235,7 +235,7 @@ func TestCellsAndGapsCommands(t *testing.T) {
 
 	out = filepath.Join(dir, "gaps")
 	r = mustRun(t, "gaps", "--sites", sites, "--area", area, "--range", "120m", "--out", out)
-	if !strings.Contains(r.stdout, "Gaps at 120.00 m") || !strings.Contains(r.stdout, "enclosed") {
+	if !strings.Contains(r.stdout, "Gaps at 120.00 m") || !strings.Contains(r.stdout, "inner") {
 		t.Errorf("gaps stdout: %s", r.stdout)
 	}
 	if _, err := os.Stat(filepath.Join(out, report.FileChartCurve)); err == nil {

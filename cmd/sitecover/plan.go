@@ -381,7 +381,7 @@ func printPlan(w io.Writer, d *report.PlanDoc, m report.Meta, mode printMode) {
 			case len(s.Added) == 0 && s.Reached:
 				line("fewest additions", "none needed: no gap at %s m", fmtNum(s.RangeM, 2))
 			case s.Reached:
-				line("fewest additions", "%d (%s) for no gap at %s m, %d devices in all", len(s.Added), s.Method, fmtNum(s.RangeM, 2), s.TotalDevices)
+				line("fewest additions", "%d (%s) for no gap at %s m, %s in all", len(s.Added), s.Method, fmtNum(s.RangeM, 2), report.Plural(s.TotalDevices, "device"))
 			default:
 				line("additions", "%d placed, gaps remain (the search stopped at its cap)", len(s.Added))
 			}
@@ -393,8 +393,9 @@ func printPlan(w io.Writer, d *report.PlanDoc, m report.Meta, mode printMode) {
 		}
 		line("range of the figures", "%s m%s", fmtNum(s.RangeM, 2), note)
 		line("full-cover range", "%s m -> %s m", fmtNum(s.FullCoverRangeBeforeM, 2), fmtNum(s.FullCoverRangeAfterM, 2))
-		line("covered", "%s %% -> %s %% (%s m² -> %s m² uncovered)", fmtNum(100*s.CoveredFractionBefore, 2), fmtNum(100*s.CoveredFractionAfter, 2),
-			fmtNum(s.UncoveredBeforeM2, 1), fmtNum(s.UncoveredAfterM2, 1))
+		line("covered", "%s %% -> %s %% (%s m² -> %s m² uncovered)",
+			report.CoveredPercent(s.CoveredFractionBefore, s.UncoveredBeforeM2, 2), report.CoveredPercent(s.CoveredFractionAfter, s.UncoveredAfterM2, 2),
+			report.AreaNumber(s.UncoveredBeforeM2, 1), report.AreaNumber(s.UncoveredAfterM2, 1))
 		if mode == printFull && len(s.Added) > 0 {
 			fmt.Fprintf(w, "\n  %4s  %-26s  %-18s  %-17s  %s\n", "new", "position", "full cover m", "covered %", "uncovered m²")
 			for i, a := range s.Added {
@@ -404,23 +405,24 @@ func printPlan(w io.Writer, d *report.PlanDoc, m report.Meta, mode printMode) {
 				}
 				fmt.Fprintf(w, "  %4s  %-26s  %-18s  %-17s  %s\n", fmt.Sprintf("+%d", a.N), fmtPoint(a.Point, d.Coordinates),
 					fmtNum(a.FullCoverBeforeM, 2)+" -> "+fmtNum(a.FullCoverAfterM, 2),
-					fmtNum(100*a.CoveredBefore, 2)+" -> "+fmtNum(100*a.CoveredAfter, 2),
-					fmtNum(a.UncoveredBeforeM2, 1)+" -> "+fmtNum(a.UncoveredAfterM2, 1))
+					report.CoveredPercent(a.CoveredBefore, a.UncoveredBeforeM2, 2)+" -> "+report.CoveredPercent(a.CoveredAfter, a.UncoveredAfterM2, 2),
+					report.AreaNumber(a.UncoveredBeforeM2, 1)+" -> "+report.AreaNumber(a.UncoveredAfterM2, 1))
 			}
 		}
 	case report.MoveCandidates:
 		c := d.Candidates
 		line("candidate spots picked", "%d of %d at %s m", len(c.Picked), c.Count, fmtNum(c.RangeM, 2))
-		line("covered", "%s %% -> %s %% (%s m² -> %s m² uncovered)", fmtNum(100*c.CoveredFractionBefore, 2), fmtNum(100*c.CoveredFractionAfter, 2),
-			fmtNum(c.UncoveredBeforeM2, 1), fmtNum(c.UncoveredAfterM2, 1))
+		line("covered", "%s %% -> %s %% (%s m² -> %s m² uncovered)",
+			report.CoveredPercent(c.CoveredFractionBefore, c.UncoveredBeforeM2, 2), report.CoveredPercent(c.CoveredFractionAfter, c.UncoveredAfterM2, 2),
+			report.AreaNumber(c.UncoveredBeforeM2, 1), report.AreaNumber(c.UncoveredAfterM2, 1))
 		line("full-cover range", "%s m -> %s m", fmtNum(c.FullCoverRangeBeforeM, 2), fmtNum(c.FullCoverRangeAfterM, 2))
 		switch {
 		case c.Complete:
 			line("result", "full cover: no gap remains")
 		case c.Exhausted:
-			line("result", "FULL COVER CANNOT BE REACHED from these spots: %s m² stay uncovered in %s", fmtNum(c.UncoveredAfterM2, 1), nGaps(len(c.Remaining)))
+			line("result", "FULL COVER CANNOT BE REACHED from these spots: %s m² stay uncovered in %s", report.AreaNumber(c.UncoveredAfterM2, 1), nGaps(len(c.Remaining)))
 		default:
-			line("result", "%s m² stay uncovered in %s", fmtNum(c.UncoveredAfterM2, 1), nGaps(len(c.Remaining)))
+			line("result", "%s m² stay uncovered in %s", report.AreaNumber(c.UncoveredAfterM2, 1), nGaps(len(c.Remaining)))
 		}
 		if mode == printFull {
 			for i, pk := range c.Picked {
@@ -428,11 +430,7 @@ func printPlan(w io.Writer, d *report.PlanDoc, m report.Meta, mode printMode) {
 					fmt.Fprintf(w, "  ... and %d more picks (all in report.txt and summary.json)\n", len(c.Picked)-i)
 					break
 				}
-				name := ""
-				if pk.Name != "" {
-					name = " " + pk.Name
-				}
-				fmt.Fprintf(w, "  %4d  c%d%s at %s: +%s m²\n", pk.Order, pk.Candidate, name, fmtPoint(pk.Point, d.Coordinates), fmtNum(pk.GainM2, 1))
+				fmt.Fprintf(w, "  %4d  %s at %s: +%s m²\n", pk.Order, report.ItemLabel(pk.Name, "candidate", pk.Candidate), fmtPoint(pk.Point, d.Coordinates), fmtNum(pk.GainM2, 1))
 			}
 		}
 	case report.MoveFailures:
@@ -443,7 +441,7 @@ func printPlan(w io.Writer, d *report.PlanDoc, m report.Meta, mode printMode) {
 				fmtPoint(d.SurvivePoint, d.Coordinates), siteLabel(m, d.SurviveSite))
 		}
 		if d.RangeM != nil {
-			line("uncovered, all working", "%s m² at %s m", fmtNum(*d.UncoveredAreaM2, 1), fmtNum(*d.RangeM, 2))
+			line("uncovered, all working", "%s m² at %s m", report.AreaNumber(*d.UncoveredAreaM2, 1), fmtNum(*d.RangeM, 2))
 		}
 		rows := len(d.Failures)
 		if mode == printBrief {
@@ -452,14 +450,14 @@ func printPlan(w io.Writer, d *report.PlanDoc, m report.Meta, mode printMode) {
 			rows = min(rows, 10)
 		}
 		if rows > 0 {
-			fmt.Fprintf(w, "  worst failures (loss: area uncovered when the device is out of service):\n")
+			fmt.Fprintf(w, "  worst failures by rank (loss: area uncovered when the device is out of service):\n")
 		}
 		for _, fl := range d.Failures[:rows] {
 			closing := "deepest new gap: no device left"
 			if fl.ClosingRangeM != nil {
 				closing = "deepest new gap needs " + fmtNum(*fl.ClosingRangeM, 2) + " m"
 			}
-			fmt.Fprintf(w, "  %4d  %-32s loss %10s m²  %s\n", fl.Rank, siteLabel(m, fl.Site), fmtNum(fl.AddedUncoveredM2, 1), closing)
+			fmt.Fprintf(w, "  rank %-3d %-28s loss %10s m²  %s\n", fl.Rank, siteLabel(m, fl.Site), fmtNum(fl.AddedUncoveredM2, 1), closing)
 		}
 	case report.MoveAssign:
 		a := d.Assignment
@@ -487,15 +485,11 @@ func printPlan(w io.Writer, d *report.PlanDoc, m report.Meta, mode printMode) {
 			if a.Weighted {
 				wt = ", weight " + trimNum(ld.Weight)
 			}
-			line("busiest device", "%s: %d items%s", siteLabel(m, ld.Device), ld.Count, wt)
+			line("busiest device", "%s: %s%s", siteLabel(m, ld.Device), report.Plural(ld.Count, "item"), wt)
 		}
 		if a.Farthest != nil {
 			p := a.Farthest
-			name := ""
-			if p.Name != "" {
-				name = " " + p.Name
-			}
-			line("farthest item", "item %d%s: %s m from %s", p.Point, name, fmtNum(p.DistanceM, 2), siteLabel(m, p.Device))
+			line("farthest item", "%s: %s m from %s", report.ItemLabel(p.Name, "item", p.Point), fmtNum(p.DistanceM, 2), siteLabel(m, p.Device))
 		}
 	}
 }
@@ -509,9 +503,4 @@ func trimNum(v float64) string {
 }
 
 // nGaps is "1 gap" or "n gaps".
-func nGaps(n int) string {
-	if n == 1 {
-		return "1 gap"
-	}
-	return fmt.Sprintf("%d gaps", n)
-}
+func nGaps(n int) string { return report.Plural(n, "gap") }

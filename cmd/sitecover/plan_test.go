@@ -233,9 +233,9 @@ func TestSuggestPutsMissingDeviceBack(t *testing.T) {
 	checkNear(t, "existing uncovered (top-level field)", *p.UncoveredAreaM2, s*s*(2-math.Pi/2), 1e-9)
 	checkNear(t, "existing full cover (top-level field)", p.FullCoverRangeM, s, 1e-9)
 	if len(sg.GapsBefore) != 1 || len(sg.GapsAfter) != 0 || sg.GapsBefore[0].TouchesBoundary {
-		t.Errorf("gaps %d enclosed before, %d after", len(sg.GapsBefore), len(sg.GapsAfter))
+		t.Errorf("gaps %d inner before, %d after", len(sg.GapsBefore), len(sg.GapsAfter))
 	}
-	if !strings.Contains(res.stdout, "suggested devices          1 new + 35 existing") || !strings.Contains(res.stdout, "+1  x 25.00 y 35.00") {
+	if !strings.Contains(res.stdout, "suggested devices          1 new + 35 existing") || !strings.Contains(res.stdout, "+1  x 25.000 m, y 35.000 m") {
 		t.Errorf("stdout:\n%s", res.stdout)
 	}
 	for _, ph := range []string{"layout", "suggest", "gaps"} {
