@@ -2,8 +2,8 @@
 // without the charts (report.txt, summary.json, GeoJSON layers, the maps)
 // and prints the table of gaps: each connected uncovered part of the area,
 // its exact area, the range that closes it, its deepest point, whether it
-// runs against the boundary or is enclosed by coverage, and the sites
-// around it.
+// is an edge gap (it runs against the site boundary) or an inner gap
+// (coverage surrounds it), and the devices around it.
 
 package main
 
@@ -18,8 +18,9 @@ func newGapsCmd(e *env) *cobra.Command {
 		Short: "Coverage at a range: the gaps, their areas and the ranges that close them",
 		Long: `gaps analyses coverage at one range and prints the gaps, largest closing
 range first: area, closing range (the range at which the gap vanishes),
-deepest point (the point farthest from every site), edge or enclosed, and the
-nearby sites. The report folder gets report.txt, summary.json, the GeoJSON
+deepest point (the point farthest from every device), edge gap (it runs
+against the site boundary) or inner gap (coverage surrounds it), and the
+devices around it. The report folder gets report.txt, summary.json, the GeoJSON
 layers and the maps (no charts).`,
 		Example: `  sitecover gaps --sites sensors.geojson --area campus.geojson --range 120m
   sitecover gaps --sites sirens.csv --area town.geojson --range 0.5mi --no-maps
