@@ -1,0 +1,184 @@
+// Polygon overlay: the ray from a component's smallest vertex towards +x.
+//
+// The ray gives two things (see boolean_graph.go): the winding numbers at
+// the vertex, as the signed count of the other components' edges it
+// crosses (half-open rule of EdgeRay: an edge counts when exactly one
+// endpoint lies strictly above the ray), and the nearest contact with
+// another component, which names the face holding the component. Contacts
+// are edges crossed in their interior and vertices lying on the ray;
+// their order along the ray is decided exactly:
+//
+//   - vertex w against vertex w′: by x (both lie on the ray);
+//   - vertex w against edge LH (L below, H above the ray): the edge meets
+//     the ray before w iff w lies right of L→H, Orient2D(L, H, w) < 0;
+//   - edge against edge: the two edges do not cross (the arrangement is
+//     noded), so their order on the ray is their order at any height they
+//     share; it is read off from an endpoint of one that lies within the
+//     other's height range and off its line.
+package planar
+
+import "errors"
+
+// errBooleanInconsistent reports face windings that disagree around a
+// face: impossible for a noded arrangement, checked as a safeguard.
+var errBooleanInconsistent = errors.New("internal error: face winding numbers are inconsistent")
+
+// booleanRay casts rays over the edges of a booleanGraph through a grid
+// in which edge m is the two-vertex ring (2m, 2m+1).
+type booleanRay struct {
+	gr *booleanGraph
+	g  regionGrid
+}
+
+func newBooleanRay(gr *booleanGraph) *booleanRay {
+	r := &booleanRay{gr: gr}
+	ne := len(gr.eLo)
+	xy := make([]float64, 0, 4*ne)
+	rs := make([]int32, 0, ne+1)
+	rs = append(rs, 0)
+	for m := 0; m < ne; m++ {
+		a, b := gr.eLo[m], gr.eHi[m]
+		xy = append(xy, gr.vx[2*a], gr.vx[2*a+1], gr.vx[2*b], gr.vx[2*b+1])
+		rs = append(rs, int32(2*m+2))
+	}
+	r.g.build(xy, rs)
+	return r
+}
+
+// booleanContact is the nearest contact found so far: a vertex (v ≥ 0),
+// an edge (m ≥ 0) or none.
+type booleanContact struct {
+	v, m int32
+}
+
+// cast returns the winding numbers at component root v (from the other
+// components) and the face cycle holding the component (−1 if none: the
+// unbounded face).
+func (r *booleanRay) cast(v int32) ([2]int32, int32) {
+	gr, g := r.gr, &r.g
+	px, py := gr.vx[2*v], gr.vx[2*v+1]
+	own := gr.comp[v]
+	var w [2]int32
+	best := booleanContact{-1, -1}
+	row := g.clampRow((py - g.y0) / g.ch)
+	c0 := g.clampCol((px - g.x0) / g.cw)
+	for c := c0; c < g.nx; c++ {
+		cell := row*g.nx + c
+		for _, ent := range g.entries[g.cellStart[cell]:g.cellStart[cell+1]] {
+			if c > c0 && ent&1 == 0 || ent&2 != 0 {
+				continue // seen in an earlier cell, or the reverse copy
+			}
+			m := ent >> 2
+			a, b := gr.eLo[m], gr.eHi[m]
+			if gr.comp[a] == own {
+				continue
+			}
+			ax, ay, bx, by := gr.vx[2*a], gr.vx[2*a+1], gr.vx[2*b], gr.vx[2*b+1]
+			if ay == py && ax > px {
+				best = r.nearer(best, booleanContact{a, -1}, py)
+			}
+			if by == py && bx > px {
+				best = r.nearer(best, booleanContact{b, -1}, py)
+			}
+			if (ay > py) == (by > py) {
+				continue
+			}
+			up := by > ay // lo→hi runs upward
+			lx, ly, hx, hy := ax, ay, bx, by
+			if !up {
+				lx, ly, hx, hy = bx, by, ax, ay
+			}
+			if Orient2D(lx, ly, hx, hy, px, py) <= 0 {
+				continue // the edge passes left of the vertex
+			}
+			j := gr.jump[m]
+			if up {
+				w[0], w[1] = w[0]+j[0], w[1]+j[1]
+			} else {
+				w[0], w[1] = w[0]-j[0], w[1]-j[1]
+			}
+			if ay != py && by != py {
+				best = r.nearer(best, booleanContact{-1, m}, py)
+			}
+		}
+	}
+	switch {
+	case best.v >= 0:
+		return w, gr.faceTowardMinusX(best.v)
+	case best.m >= 0:
+		h := 2 * best.m // the upward half-edge has the vertex on its left
+		if gr.vx[2*gr.eHi[best.m]+1] < gr.vx[2*gr.eLo[best.m]+1] {
+			h++
+		}
+		return w, gr.face[h]
+	}
+	return w, -1
+}
+
+// nearer returns whichever of two contacts on the ray y = py comes first.
+func (r *booleanRay) nearer(p, q booleanContact, py float64) booleanContact {
+	vx := r.gr.vx
+	switch {
+	case p.v < 0 && p.m < 0:
+		return q
+	case p.v >= 0 && q.v >= 0:
+		if vx[2*q.v] < vx[2*p.v] {
+			return q
+		}
+		return p
+	case p.v >= 0: // q is an edge
+		if r.edgeBeforeX(q.m, vx[2*p.v], py) {
+			return q
+		}
+		return p
+	case q.v >= 0: // p is an edge
+		if r.edgeBeforeX(p.m, vx[2*q.v], py) {
+			return p
+		}
+		return q
+	}
+	if r.edgeLeftOf(q.m, p.m) {
+		return q
+	}
+	return p
+}
+
+// lowHigh returns edge m's endpoints ordered by y.
+func (r *booleanRay) lowHigh(m int32) (lx, ly, hx, hy float64) {
+	vx := r.gr.vx
+	a, b := r.gr.eLo[m], r.gr.eHi[m]
+	lx, ly, hx, hy = vx[2*a], vx[2*a+1], vx[2*b], vx[2*b+1]
+	if hy < ly {
+		lx, ly, hx, hy = hx, hy, lx, ly
+	}
+	return
+}
+
+// edgeBeforeX reports whether edge m, which crosses the line y = py in its
+// interior, meets it left of x.
+func (r *booleanRay) edgeBeforeX(m int32, x, py float64) bool {
+	lx, ly, hx, hy := r.lowHigh(m)
+	return Orient2D(lx, ly, hx, hy, x, py) < 0
+}
+
+// edgeLeftOf reports whether edge m1 meets a horizontal line that both
+// cross in their interiors left of edge m2. The edges do not cross.
+func (r *booleanRay) edgeLeftOf(m1, m2 int32) bool {
+	l1x, l1y, h1x, h1y := r.lowHigh(m1)
+	l2x, l2y, h2x, h2y := r.lowHigh(m2)
+	for _, q := range [2][2]float64{{l2x, l2y}, {h2x, h2y}} {
+		if q[1] >= l1y && q[1] <= h1y {
+			if o := Orient2D(l1x, l1y, h1x, h1y, q[0], q[1]); o != 0 {
+				return o < 0 // m2's point lies right of m1
+			}
+		}
+	}
+	for _, q := range [2][2]float64{{l1x, l1y}, {h1x, h1y}} {
+		if q[1] >= l2y && q[1] <= h2y {
+			if o := Orient2D(l2x, l2y, h2x, h2y, q[0], q[1]); o != 0 {
+				return o > 0 // m1's point lies left of m2
+			}
+		}
+	}
+	return false
+}

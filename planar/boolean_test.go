@@ -1,0 +1,192 @@
+// Tests of Union, Intersection, Difference and SiteArea: named geometric
+// cases with hand-computed areas, refusal of invalid rings, and the result
+// checked exactly by NewRegion (booleanCheckValid).
+
+package planar
+
+import (
+	"errors"
+	"math"
+	"strings"
+	"testing"
+
+	"github.com/paulmach/orb"
+)
+
+// bRect returns the axis-parallel rectangle [x0, x1] × [y0, y1] as a
+// polygon, counter-clockwise, closed.
+func bRect(x0, y0, x1, y1 float64) orb.Polygon {
+	return orb.Polygon{{{x0, y0}, {x1, y0}, {x1, y1}, {x0, y1}, {x0, y0}}}
+}
+
+// bPoly builds a one-ring polygon from coordinate pairs.
+func bPoly(c ...float64) orb.Polygon {
+	r := make(orb.Ring, 0, len(c)/2+1)
+	for i := 0; i+1 < len(c); i += 2 {
+		r = append(r, orb.Point{c[i], c[i+1]})
+	}
+	return orb.Polygon{append(r, r[0])}
+}
+
+// booleanArea returns the signed-sum area of a polygon set (exteriors
+// positive, holes negative as oriented).
+func booleanArea(mp orb.MultiPolygon) float64 {
+	s := 0.0
+	for _, p := range mp {
+		for _, r := range p {
+			s += RingArea(FlatRing(r))
+		}
+	}
+	return s
+}
+
+// booleanCheckValid fails unless mp is accepted by NewRegion and its rings
+// are oriented (exteriors counter-clockwise, holes clockwise): the exact
+// validity check used for every result in these tests.
+func booleanCheckValid(t testing.TB, mp orb.MultiPolygon) {
+	t.Helper()
+	if len(mp) == 0 {
+		return
+	}
+	if _, err := NewRegion(mp); err != nil {
+		t.Fatalf("result not valid: %v", err)
+	}
+	for p, poly := range mp {
+		for k, r := range poly {
+			xy := FlatRing(r[:len(r)-1])
+			if regionRingCCW(xy) != (k == 0) {
+				t.Fatalf("polygon %d ring %d: wrong orientation", p, k)
+			}
+		}
+	}
+}
+
+func TestSiteArea(t *testing.T) {
+	// Chamfers at pinch points remove at most 2⁻⁴¹ L² each (boolean_pinch.go).
+	const pinchTol = 1e-11
+	cases := []struct {
+		name       string
+		area, excl orb.MultiPolygon
+		want       float64
+		polys      int
+		stats      func(SiteAreaStats) bool
+	}{
+		{"parcels touching at an edge", orb.MultiPolygon{bRect(0, 0, 1, 1), bRect(1, 0, 2, 1)}, nil, 2, 1,
+			func(s SiteAreaStats) bool { return s.AreaParts == 1 && s.Pinches == 0 }},
+		{"parcels sharing part of an edge (collinear overlap)", orb.MultiPolygon{bRect(0, 0, 2, 1), bRect(1, 1, 3, 2)}, nil, 4, 1,
+			func(s SiteAreaStats) bool { return s.AreaParts == 1 }},
+		{"parcels touching at a point", orb.MultiPolygon{bRect(0, 0, 1, 1), bRect(1, 1, 2, 2)}, nil, 2, 2,
+			func(s SiteAreaStats) bool { return s.AreaParts == 2 && s.Pinches == 1 }},
+		{"parcels overlapping", orb.MultiPolygon{bRect(0, 0, 2, 2), bRect(1, 1, 3, 3)}, nil, 7, 1,
+			func(s SiteAreaStats) bool { return s.AreaParts == 1 }},
+		{"identical parcels", orb.MultiPolygon{bRect(0, 0, 1, 1), bRect(0, 0, 1, 1)}, nil, 1, 1,
+			func(s SiteAreaStats) bool { return s.AreaParts == 1 }},
+		{"parcels 1e-9 apart", orb.MultiPolygon{bRect(0, 0, 1, 1), bRect(1+1e-9, 0, 2, 1)}, nil, 2 - 1e-9, 2,
+			func(s SiteAreaStats) bool { return s.AreaParts == 2 && s.Pinches == 0 }},
+		{"exclusion on the boundary along an edge", orb.MultiPolygon{bRect(0, 0, 4, 4)}, orb.MultiPolygon{bRect(0, 1, 1, 2)}, 15, 1,
+			func(s SiteAreaStats) bool { return s.ExclusionsClipped == 0 && s.ExclusionsOutside == 0 }},
+		{"exclusion touching the boundary at a point", orb.MultiPolygon{bRect(0, 0, 4, 4)}, orb.MultiPolygon{bPoly(0, 2, 1, 1, 1, 3)}, 15, 1,
+			func(s SiteAreaStats) bool { return s.Pinches == 1 }},
+		{"exclusions sharing an edge", orb.MultiPolygon{bRect(0, 0, 4, 4)}, orb.MultiPolygon{bRect(1, 1, 2, 2), bRect(2, 1, 3, 2)}, 14, 1,
+			func(s SiteAreaStats) bool { return s.ExclusionParts == 1 }},
+		{"exclusions touching at a corner", orb.MultiPolygon{bRect(0, 0, 4, 4)}, orb.MultiPolygon{bRect(1, 1, 2, 2), bRect(2, 2, 3, 3)}, 14, 1,
+			func(s SiteAreaStats) bool { return s.ExclusionParts == 2 && s.Pinches == 1 }},
+		{"exclusions overlapping and sticking out", orb.MultiPolygon{bRect(0, 0, 4, 4)}, orb.MultiPolygon{bRect(3, 1, 5, 2), bRect(2.5, 1.5, 3.5, 3)}, 16 - 1 - 1.5 + 0.25, 1,
+			func(s SiteAreaStats) bool { return s.ExclusionParts == 1 && s.ExclusionsClipped == 1 }},
+		{"exclusion outside", orb.MultiPolygon{bRect(0, 0, 4, 4)}, orb.MultiPolygon{bRect(5, 5, 6, 6), bRect(4, 0, 5, 1)}, 16, 1,
+			func(s SiteAreaStats) bool { return s.ExclusionsOutside == 2 }},
+		{"exclusion cutting the area in two", orb.MultiPolygon{bRect(0, 0, 4, 4)}, orb.MultiPolygon{bRect(-1, 1, 5, 2)}, 12, 2,
+			func(s SiteAreaStats) bool { return s.ExclusionsClipped == 1 }},
+		{"holes in the input", orb.MultiPolygon{{bRect(0, 0, 4, 4)[0], bPoly(1, 1, 1, 3, 3, 3, 3, 1)[0]}},
+			orb.MultiPolygon{{bRect(2, 0, 5, 4)[0], bPoly(3, 3.5, 4.5, 3.5, 4.5, 0.5, 3, 0.5)[0]}}, 8 - 2 + 3, 2,
+			func(s SiteAreaStats) bool { return s.ExclusionsClipped == 1 }},
+		{"parcel inside another's hole", orb.MultiPolygon{{bRect(0, 0, 4, 4)[0], bPoly(1, 1, 1, 3, 3, 3, 3, 1)[0]}, bRect(1.5, 1.5, 2.5, 2.5)}, nil, 13, 2,
+			func(s SiteAreaStats) bool { return s.AreaParts == 2 }},
+		{"hole touching the exterior at a point", orb.MultiPolygon{{bRect(0, 0, 4, 4)[0], bPoly(0, 2, 2, 3, 2, 1)[0]}}, nil, 14, 1,
+			func(s SiteAreaStats) bool { return s.Pinches == 1 }},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			res, st, err := SiteArea(c.area, c.excl)
+			if err != nil {
+				t.Fatal(err)
+			}
+			booleanCheckValid(t, res)
+			if got := booleanArea(res); math.Abs(got-c.want) > pinchTol*math.Max(1, c.want) {
+				t.Errorf("area %.17g, want %.17g", got, c.want)
+			}
+			if len(res) != c.polys {
+				t.Errorf("%d polygons, want %d", len(res), c.polys)
+			}
+			if !c.stats(st) {
+				t.Errorf("stats %+v (%q)", st, st.String())
+			}
+		})
+	}
+}
+
+func TestSiteAreaRefusals(t *testing.T) {
+	cases := []struct {
+		name       string
+		area, excl orb.MultiPolygon
+		want       []string
+		is         error
+	}{
+		{"exclusion equal to the area", orb.MultiPolygon{bRect(0, 0, 1, 1)}, orb.MultiPolygon{bRect(0, 0, 1, 1)},
+			[]string{"cover the whole site area"}, ErrEmptySite},
+		{"bow-tie", orb.MultiPolygon{bPoly(0, 0, 2, 2, 2, 0, 0, 2)}, nil,
+			[]string{"area polygon 0, ring 0", "crosses", "vertex 0 (0, 0)", "vertex 2 (2, 0)"}, nil},
+		{"self-intersecting exclusion", orb.MultiPolygon{bRect(0, 0, 9, 9)}, orb.MultiPolygon{bRect(5, 5, 6, 6), bPoly(1, 1, 4, 1, 4, 4, 2, 0, 1, 4)},
+			[]string{"exclusion 1, ring 0", "crosses", "vertex"}, nil},
+		{"spike", orb.MultiPolygon{bPoly(0, 0, 2, 0, 2, 2, 3, 3, 2.5, 2.5, 0, 2)}, nil,
+			[]string{"area polygon 0, ring 0", "spike", "vertex 3 (3, 3)"}, nil},
+		{"ring touching itself", orb.MultiPolygon{bPoly(0, 0, 4, 0, 2, 2, 3, 4, 1, 4, 2, 2)}, nil,
+			[]string{"area polygon 0, ring 0", "touches", "(2, 2)"}, nil},
+		{"zero-width ring", orb.MultiPolygon{bPoly(0, 0, 1, 1, 2, 2)}, nil,
+			[]string{"area polygon 0, ring 0", "collinear", "(0, 0)"}, nil},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			_, _, err := SiteArea(c.area, c.excl)
+			if err == nil {
+				t.Fatal("no error")
+			}
+			for _, w := range c.want {
+				if !strings.Contains(err.Error(), w) {
+					t.Errorf("error %q does not contain %q", err, w)
+				}
+			}
+			if c.is != nil && !errors.Is(err, c.is) {
+				t.Errorf("error %q is not %v", err, c.is)
+			}
+		})
+	}
+}
+
+func TestBooleanOperations(t *testing.T) {
+	a := orb.MultiPolygon{bRect(0, 0, 2, 2), bRect(3, 0, 4, 1)}
+	b := orb.MultiPolygon{bPoly(1, -1, 3.5, 0.5, 1, 3)}
+	ua, _ := Union(a)
+	ub, _ := Union(b)
+	i, err := Intersection(a, b)
+	if err != nil {
+		t.Fatal(err)
+	}
+	d, err := Difference(a, b)
+	if err != nil {
+		t.Fatal(err)
+	}
+	u, err := Union(append(append(orb.MultiPolygon{}, a...), b...))
+	if err != nil {
+		t.Fatal(err)
+	}
+	for name, mp := range map[string]orb.MultiPolygon{"intersection": i, "difference": d, "union": u} {
+		t.Run(name+" valid", func(t *testing.T) { booleanCheckValid(t, mp) })
+	}
+	t.Run("area identities", func(t *testing.T) {
+		aa, ab, ai, ad, au := booleanArea(ua), booleanArea(ub), booleanArea(i), booleanArea(d), booleanArea(u)
+		if math.Abs(ad+ai-aa) > 1e-12 || math.Abs(au-(aa+ab-ai)) > 1e-12 {
+			t.Errorf("A=%v B=%v A∩B=%v A−B=%v A∪B=%v", aa, ab, ai, ad, au)
+		}
+	})
+}
