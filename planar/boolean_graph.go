@@ -22,7 +22,7 @@
 //   - In each connected component, the cycle around the component (its
 //     outer cycle) is the face at its smallest vertex containing the
 //     direction −x. Its winding numbers are those of the point there,
-//     counted exactly by the crossing rule on a ray towards +x over the
+//     counted exactly by the crossing rule on a ray towards −x over the
 //     edges of the other components (Shimrat, CACM 5, 1962, with signed
 //     crossings), found through a uniform grid as in region.go. Within a
 //     component every other cycle's winding follows across edges:

@@ -1,4 +1,4 @@
-// Polygon overlay: the ray from a component's smallest vertex towards +x.
+// Polygon overlay: the ray from a component's smallest vertex towards −x.
 //
 // The ray gives two things (see boolean_graph.go): the winding numbers at
 // the vertex, as the signed count of the other components' edges it
@@ -10,7 +10,7 @@
 //
 //   - vertex w against vertex w′: by x (both lie on the ray);
 //   - vertex w against edge LH (L below, H above the ray): the edge meets
-//     the ray before w iff w lies right of L→H, Orient2D(L, H, w) < 0;
+//     the ray left of w iff w lies right of L→H, Orient2D(L, H, w) < 0;
 //   - edge against edge: the two edges do not cross (the arrangement is
 //     noded), so their order on the ray is their order at any height they
 //     share; it is read off from an endpoint of one that lies within the
@@ -53,31 +53,32 @@ type booleanContact struct {
 
 // cast returns the winding numbers at component root v (from the other
 // components) and the face cycle holding the component (−1 if none: the
-// unbounded face).
+// unbounded face). The ray runs towards −x: v is its component's
+// lexicographically smallest vertex, so the ray meets nothing of its own
+// component and its nearest contact bounds the face that holds it.
 func (r *booleanRay) cast(v int32) ([2]int32, int32) {
 	gr, g := r.gr, &r.g
 	px, py := gr.vx[2*v], gr.vx[2*v+1]
-	own := gr.comp[v]
 	var w [2]int32
 	best := booleanContact{-1, -1}
 	row := g.clampRow((py - g.y0) / g.ch)
 	c0 := g.clampCol((px - g.x0) / g.cw)
-	for c := c0; c < g.nx; c++ {
+	for c := c0; c >= 0; c-- {
 		cell := row*g.nx + c
 		for _, ent := range g.entries[g.cellStart[cell]:g.cellStart[cell+1]] {
-			if c > c0 && ent&1 == 0 || ent&2 != 0 {
-				continue // seen in an earlier cell, or the reverse copy
+			// Each edge once, in the leftmost cell of its run in this row
+			// (every edge reaching left of the vertex has it at or left of
+			// c0); skip the reverse copies.
+			if ent&1 == 0 || ent&2 != 0 {
+				continue
 			}
 			m := ent >> 2
 			a, b := gr.eLo[m], gr.eHi[m]
-			if gr.comp[a] == own {
-				continue
-			}
 			ax, ay, bx, by := gr.vx[2*a], gr.vx[2*a+1], gr.vx[2*b], gr.vx[2*b+1]
-			if ay == py && ax > px {
+			if ay == py && ax < px {
 				best = r.nearer(best, booleanContact{a, -1}, py)
 			}
-			if by == py && bx > px {
+			if by == py && bx < px {
 				best = r.nearer(best, booleanContact{b, -1}, py)
 			}
 			if (ay > py) == (by > py) {
@@ -88,14 +89,16 @@ func (r *booleanRay) cast(v int32) ([2]int32, int32) {
 			if !up {
 				lx, ly, hx, hy = bx, by, ax, ay
 			}
-			if Orient2D(lx, ly, hx, hy, px, py) <= 0 {
-				continue // the edge passes left of the vertex
+			if Orient2D(lx, ly, hx, hy, px, py) >= 0 {
+				continue // the edge passes right of the vertex
 			}
+			// Crossing an upward edge from its left to its right changes
+			// the winding by −jump (left minus right).
 			j := gr.jump[m]
 			if up {
-				w[0], w[1] = w[0]+j[0], w[1]+j[1]
-			} else {
 				w[0], w[1] = w[0]-j[0], w[1]-j[1]
+			} else {
+				w[0], w[1] = w[0]+j[0], w[1]+j[1]
 			}
 			if ay != py && by != py {
 				best = r.nearer(best, booleanContact{-1, m}, py)
@@ -104,10 +107,14 @@ func (r *booleanRay) cast(v int32) ([2]int32, int32) {
 	}
 	switch {
 	case best.v >= 0:
-		return w, gr.faceTowardMinusX(best.v)
+		// The face at the contact vertex holding direction +x: the sector
+		// after its last outgoing half-edge (no edge leaves it along +x,
+		// or that edge's far end would be a nearer contact).
+		list := gr.out[gr.outStart[best.v]:gr.outStart[best.v+1]]
+		return w, gr.face[list[len(list)-1]]
 	case best.m >= 0:
-		h := 2 * best.m // the upward half-edge has the vertex on its left
-		if gr.vx[2*gr.eHi[best.m]+1] < gr.vx[2*gr.eLo[best.m]+1] {
+		h := 2 * best.m // the downward half-edge has the vertex on its left
+		if gr.vx[2*gr.eHi[best.m]+1] > gr.vx[2*gr.eLo[best.m]+1] {
 			h++
 		}
 		return w, gr.face[h]
@@ -115,29 +122,30 @@ func (r *booleanRay) cast(v int32) ([2]int32, int32) {
 	return w, -1
 }
 
-// nearer returns whichever of two contacts on the ray y = py comes first.
+// nearer returns whichever of two contacts on the ray y = py (towards −x)
+// comes first, that is, lies further right.
 func (r *booleanRay) nearer(p, q booleanContact, py float64) booleanContact {
 	vx := r.gr.vx
 	switch {
 	case p.v < 0 && p.m < 0:
 		return q
 	case p.v >= 0 && q.v >= 0:
-		if vx[2*q.v] < vx[2*p.v] {
+		if vx[2*q.v] > vx[2*p.v] {
 			return q
 		}
 		return p
 	case p.v >= 0: // q is an edge
-		if r.edgeBeforeX(q.m, vx[2*p.v], py) {
+		if !r.edgeBeforeX(q.m, vx[2*p.v], py) {
 			return q
 		}
 		return p
 	case q.v >= 0: // p is an edge
-		if r.edgeBeforeX(p.m, vx[2*q.v], py) {
+		if !r.edgeBeforeX(p.m, vx[2*q.v], py) {
 			return p
 		}
 		return q
 	}
-	if r.edgeLeftOf(q.m, p.m) {
+	if r.edgeLeftOf(p.m, q.m) {
 		return q
 	}
 	return p
