@@ -16,14 +16,15 @@
 //     each face's winding numbers in both operands.
 //  3. boolean_extract.go: the faces that satisfy the operation, and their
 //     boundary traced into rings grouped into polygons.
-//  4. boolean_pinch.go: pinch points opened by a chamfer so that the rings
-//     are pairwise disjoint and simple, as NewRegion requires.
+//  4. boolean_pinch.go: pinch points opened (each passage through the
+//     point pulled back into its own sector by a few dozen ulps) so that
+//     the rings are pairwise disjoint and simple, as NewRegion requires.
 //
 // Every topological decision (which edges meet, where a point lies, the
 // angular order at a vertex, which face a component lies in) is an exact
 // Orient2D sign; vertex identity is float64 equality, so points 1e-9 apart
-// stay apart. The only rounded values are crossing points and chamfer
-// points; the result is checked exactly by NewRegion in SiteArea.
+// stay apart. The only rounded values are crossing points and pulled-back
+// pinch points; the result is checked exactly by NewRegion in SiteArea.
 //
 // Input rings must be simple: a ring that crosses or touches itself, or
 // doubles back (a spike), is refused with the polygon, ring, vertex and its
@@ -130,11 +131,11 @@ func (s SiteAreaStats) String() string {
 // Pinch points. Where parts of the result touch only at a point (two
 // parcels meeting at a corner, an exclusion touching the boundary at a
 // vertex, a hole touching its exterior) a Region cannot represent the
-// contact, so each sector meeting there is cut back by a chamfer of size
-// δ ≤ 2⁻²⁰ times its shorter edge (and ≤ a quarter of the distance to any
-// other edge); the area lost is at most 2⁻⁴¹ L² per sector. A part joined
-// to the rest only at a point thus becomes a separate polygon, and a hole
-// touching its exterior becomes a bay of the exterior.
+// contact, so each passage of a ring through that point is pulled back
+// into its own sector by booleanPinchSep (64) ulps, normally; the area lost
+// is at most ½(|vp| + |vq|)·64 ulp per passage (see boolean_pinch.go). A
+// part joined to the rest only at a point thus becomes a separate polygon,
+// and a hole touching its exterior becomes a bay of the exterior.
 //
 // Errors name the polygon ("area polygon 2, ring 0" or "exclusion 5,
 // ring 1") and, for a self-intersecting ring, a bow-tie or a spike, the

@@ -4,20 +4,26 @@
 // A Region's rings must not touch at all (region.go), while an exact
 // union or difference can have rings meeting at isolated vertices: two
 // parcels touching at a corner, an exclusion touching the boundary at a
-// point, a hole touching its exterior. Such a pinch point is opened by a
-// chamfer: in every sector of the result that meets at the vertex v, the
-// ring's passage p → v → q is replaced by p → v′ → v″ → q with
+// point, a hole touching its exterior. Such a pinch point v is opened by
+// pulling each passage p → v → q of a ring through v back into its own
+// sector of the result (the angle β from direction v→q counter-clockwise
+// to v→p): v is replaced, in that passage only, by
 //
-//	v′ = v + δ (p − v)/|p − v|,   v″ = v + δ (q − v)/|q − v|,
-//	δ  = min(L / 2^booleanPinchShift, c / 4),
+//	v′ = v + δ·b,   δ = min(booleanPinchSep·ulp / sin(min(β/2, π/2)), L/4, c/4),
 //
-// L the shorter of the two ring edges at v and c the distance from v to the
-// nearest result edge not incident to v. The result loses a triangle of
-// area at most ½δ² ≤ 2⁻⁴¹ L² per sector and the sectors no longer meet:
-// each chamfer lies in its own sector, at distance at least c/4 from every
-// other edge. Rounding v′ and v″ to float64 moves them by at most an ulp,
-// negligible against δ unless L is within about 2³⁰ ulps of v's magnitude;
-// the caller's final NewRegion call checks the outcome exactly.
+// b the unit bisector of the sector, L the shorter of the passage's two
+// edges, ulp = 2⁻⁵² times the largest of |vx|, |vy| and L and c the distance from v to the
+// nearest result edge not incident to v. The pulled-back vertex lies
+// inside its sector, at distance δ·sin(β/2) = booleanPinchSep ulps from
+// the lines of its own edges (for β ≤ π; behind v for β > π), and its new
+// edges stay inside the sector, which meets the other passages' sectors
+// only at v. So the rings no longer touch, and rounding v′ (half an ulp)
+// cannot undo that. The passage loses the triangles p v v′ and v q v′, of
+// area at most ½(|vp| + |vq|)·booleanPinchSep·ulp: far below any area
+// tolerance (about 1e-14 relative for a 1 km site in metres). When the
+// cap L/4 or c/4 binds (features within ~booleanPinchSep ulps of v) the
+// separation is smaller; the caller's final NewRegion call checks the
+// outcome exactly and reports a failure.
 package planar
 
 import (
@@ -25,12 +31,13 @@ import (
 	"slices"
 )
 
-// booleanPinchShift sets the chamfer size relative to the edges at a pinch
-// point: δ ≤ L·2⁻²⁰, so the area removed is at most 2⁻⁴¹·L² per sector.
-const booleanPinchShift = 20
+// booleanPinchSep is the least separation, in ulps of the pinch vertex's
+// coordinates, between a pulled-back vertex and the other passages' edges.
+const booleanPinchSep = 64
 
-// openPinches replaces every passage of a ring through a pinch vertex by a
-// chamfer and returns the new rings and the number of pinch vertices.
+// openPinches pulls every passage of a ring through a pinch vertex back
+// into its sector and returns the new rings and the number of pinch
+// vertices.
 func (r *booleanRings) openPinches() (*booleanRings, int) {
 	var pinched []int32
 	for k := 0; k+1 < len(r.ringStart); k++ {
@@ -50,46 +57,65 @@ func (r *booleanRings) openPinches() (*booleanRings, int) {
 	for i, n := range next {
 		prev[n] = int32(i)
 	}
-	type chamfer struct{ x1, y1, x2, y2 float64 }
-	cut := make(map[int32]chamfer, len(pinched))
-	var verts []int32
-	for _, i := range pinched {
-		vx, vy := r.xy[2*i], r.xy[2*i+1]
-		p, q := prev[i], next[i]
-		px, py, qx, qy := r.xy[2*p], r.xy[2*p+1], r.xy[2*q], r.xy[2*q+1]
-		lp, lq := math.Hypot(px-vx, py-vy), math.Hypot(qx-vx, qy-vy)
-		l := math.Min(lp, lq)
-		c := l / 2
-		g.cellEdges(vx-c, vy-c, vx+c, vy+c, func(e int32) {
-			n := next[e]
-			if r.vid[e] == r.vid[i] || r.vid[n] == r.vid[i] {
-				return
-			}
-			c = math.Min(c, booleanPointSegDist(vx, vy, r.xy[2*e], r.xy[2*e+1], r.xy[2*n], r.xy[2*n+1]))
-		})
-		d := math.Min(math.Ldexp(l, -booleanPinchShift), c/4)
-		cut[i] = chamfer{vx + d/lp*(px-vx), vy + d/lp*(py-vy), vx + d/lq*(qx-vx), vy + d/lq*(qy-vy)}
-		verts = append(verts, r.vid[i])
-	}
-	out := &booleanRings{ringStart: []int32{0}, polyStart: slices.Clone(r.polyStart), pinch: r.pinch}
-	for k := 0; k+1 < len(r.ringStart); k++ {
-		for i := r.ringStart[k]; i < r.ringStart[k+1]; i++ {
-			if ch, ok := cut[i]; ok {
-				out.xy = append(out.xy, ch.x1, ch.y1, ch.x2, ch.y2)
-				out.vid = append(out.vid, -1, -1)
-				continue
-			}
-			out.xy = append(out.xy, r.xy[2*i], r.xy[2*i+1])
-			out.vid = append(out.vid, r.vid[i])
+	out := &booleanRings{xy: slices.Clone(r.xy), vid: slices.Clone(r.vid), ringStart: r.ringStart, polyStart: r.polyStart, pinch: r.pinch}
+	slices.SortFunc(pinched, func(a, b int32) int { return int(r.vid[a]) - int(r.vid[b]) })
+	nPinch := 0
+	for s := 0; s < len(pinched); {
+		e := s
+		for e < len(pinched) && r.vid[pinched[e]] == r.vid[pinched[s]] {
+			e++
 		}
-		out.ringStart = append(out.ringStart, int32(len(out.vid)))
+		group := pinched[s:e]
+		s = e
+		nPinch++
+		c := r.pinchClearance(&g, prev, group)
+		v := group[0]
+		vx, vy := r.xy[2*v], r.xy[2*v+1]
+		for _, i := range group {
+			p, q := prev[i], next[i]
+			lq, lp := math.Hypot(r.xy[2*q]-vx, r.xy[2*q+1]-vy), math.Hypot(r.xy[2*p]-vx, r.xy[2*p+1]-vy)
+			ulp := math.Max(math.Max(math.Abs(vx), math.Abs(vy)), math.Min(lp, lq)) * 0x1p-52
+			ux, uy := (r.xy[2*q]-vx)/lq, (r.xy[2*q+1]-vy)/lq
+			wx, wy := (r.xy[2*p]-vx)/lp, (r.xy[2*p+1]-vy)/lp
+			beta := math.Atan2(ux*wy-uy*wx, ux*wx+uy*wy) // from v→q to v→p
+			if beta <= 0 {
+				beta += 2 * math.Pi
+			}
+			sn, cs := math.Sincos(beta / 2)
+			d := math.Min(booleanPinchSep*ulp/math.Sin(math.Min(beta/2, math.Pi/2)), math.Min(math.Min(lp, lq), c)/4)
+			out.xy[2*i] = vx + d*(ux*cs-uy*sn)
+			out.xy[2*i+1] = vy + d*(ux*sn+uy*cs)
+			out.vid[i] = -1
+		}
 	}
-	slices.Sort(verts)
-	return out, len(slices.Compact(verts))
+	return out, nPinch
+}
+
+// pinchClearance returns the distance from the pinch vertex of group (its
+// passages' ring positions) to the nearest ring edge not incident to it,
+// searched within the largest of the passages' shorter edges (a farther
+// edge cannot limit δ).
+func (r *booleanRings) pinchClearance(g *regionGrid, prev, group []int32) float64 {
+	next := g.next
+	v := group[0]
+	vx, vy := r.xy[2*v], r.xy[2*v+1]
+	c := 0.0
+	for _, i := range group {
+		p, q := prev[i], next[i]
+		c = math.Max(c, math.Min(math.Hypot(r.xy[2*p]-vx, r.xy[2*p+1]-vy), math.Hypot(r.xy[2*q]-vx, r.xy[2*q+1]-vy)))
+	}
+	g.cellEdges(vx-c, vy-c, vx+c, vy+c, func(e int32) {
+		n := next[e]
+		if r.vid[e] == r.vid[v] || r.vid[n] == r.vid[v] {
+			return
+		}
+		c = math.Min(c, booleanPointSegDist(vx, vy, r.xy[2*e], r.xy[2*e+1], r.xy[2*n], r.xy[2*n+1]))
+	})
+	return c
 }
 
 // booleanPointSegDist returns the distance from p to segment ab (float64,
-// used only to size a chamfer).
+// used only to size a pull-back).
 func booleanPointSegDist(px, py, ax, ay, bx, by float64) float64 {
 	dx, dy := bx-ax, by-ay
 	t := 0.0

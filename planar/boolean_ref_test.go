@@ -22,7 +22,8 @@ import (
 
 // booleanRefTol is the relative area tolerance against GEOS: both sides
 // sum float64 shoelace terms (relative error ~n·ε) and round crossing
-// points to a few ulps; chamfers at pinch points remove ≤ 2⁻⁴¹ L² each.
+// points to a few ulps; opened pinch points remove ≤ ½(|vp| + |vq|)·64 ulp
+// per passage (boolean_pinch.go).
 const booleanRefTol = 1e-9
 
 // booleanRef is the JSON written by testdata/ref_boolean.py.
