@@ -100,21 +100,29 @@ type SiteAreaStats struct {
 func (s SiteAreaStats) String() string {
 	var parts []string
 	if s.AreaParts < s.AreaPolygons {
-		parts = append(parts, fmt.Sprintf("%d area polygons merged into %d", s.AreaPolygons, s.AreaParts))
+		parts = append(parts, fmt.Sprintf("%s merged into %d", booleanCount(s.AreaPolygons, "area polygon"), s.AreaParts))
 	}
 	if s.ExclusionParts < s.Exclusions {
-		parts = append(parts, fmt.Sprintf("%d touching or overlapping exclusions merged into %d", s.Exclusions, s.ExclusionParts))
+		parts = append(parts, fmt.Sprintf("%s merged into %d", booleanCount(s.Exclusions, "touching or overlapping exclusion"), s.ExclusionParts))
 	}
 	if s.ExclusionsClipped > 0 {
-		parts = append(parts, fmt.Sprintf("%d exclusions clipped to the area", s.ExclusionsClipped))
+		parts = append(parts, booleanCount(s.ExclusionsClipped, "exclusion")+" clipped to the area")
 	}
 	if s.ExclusionsOutside > 0 {
-		parts = append(parts, fmt.Sprintf("%d exclusions outside the area dropped", s.ExclusionsOutside))
+		parts = append(parts, booleanCount(s.ExclusionsOutside, "exclusion")+" outside the area dropped")
 	}
 	if s.Pinches > 0 {
-		parts = append(parts, fmt.Sprintf("%d touching points opened", s.Pinches))
+		parts = append(parts, booleanCount(s.Pinches, "touching point")+" opened")
 	}
 	return strings.Join(parts, "; ")
+}
+
+// booleanCount returns "1 word" or "n words".
+func booleanCount(n int, word string) string {
+	if n == 1 {
+		return "1 " + word
+	}
+	return fmt.Sprintf("%d %ss", n, word)
 }
 
 // SiteArea returns the site area: the union of the area polygons minus the
@@ -123,10 +131,11 @@ func (s SiteAreaStats) String() string {
 // The area polygons may share edges, overlap or touch; exclusions may
 // touch the area's boundary along an edge or at a point, share edges with
 // or overlap one another, and stick out of the area. All of that is
-// resolved exactly (see the file comment). The result is a set of polygons
-// that NewRegion accepts (it is checked with NewRegion before returning):
-// exteriors counter-clockwise, holes clockwise, rings closed, simple and
-// pairwise disjoint.
+// resolved exactly (see the file comment). The result is returned as the
+// Region that NewRegion builds from it (so it passed NewRegion's exact
+// validation: rings simple and pairwise disjoint, exteriors
+// counter-clockwise, holes clockwise); Region.MultiPolygon gives the
+// polygons.
 //
 // Pinch points. Where parts of the result touch only at a point (two
 // parcels meeting at a corner, an exclusion touching the boundary at a
@@ -141,7 +150,7 @@ func (s SiteAreaStats) String() string {
 // ring 1") and, for a self-intersecting ring, a bow-tie or a spike, the
 // vertex and its coordinates. If the exclusions cover the whole area the
 // error wraps ErrEmptySite.
-func SiteArea(area, exclusions orb.MultiPolygon) (orb.MultiPolygon, SiteAreaStats, error) {
+func SiteArea(area, exclusions orb.MultiPolygon) (*Region, SiteAreaStats, error) {
 	const where = "planar: SiteArea"
 	if len(area) == 0 {
 		return nil, SiteAreaStats{}, fmt.Errorf("%s: no area polygon", where)
@@ -153,10 +162,11 @@ func SiteArea(area, exclusions orb.MultiPolygon) (orb.MultiPolygon, SiteAreaStat
 	if len(res) == 0 {
 		return nil, st, fmt.Errorf("%s: %w", where, ErrEmptySite)
 	}
-	if _, err := NewRegion(res); err != nil {
+	reg, err := NewRegion(res)
+	if err != nil {
 		return nil, st, fmt.Errorf("%s: internal error: result not accepted by NewRegion: %w", where, err)
 	}
-	return res, st, nil
+	return reg, st, nil
 }
 
 // booleanRun validates the operands, runs the overlay op and returns the

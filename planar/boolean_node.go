@@ -64,6 +64,7 @@ type booleanRingFault struct {
 // edges of the same ring is a fault: the first such pair (in edge order)
 // is returned and nothing is split.
 func booleanNode(xy []float64, ringStart []int32) ([]float64, []int32, *booleanRingFault, error) {
+	var fresh []bool // edges created by the last round's splits; nil: all
 	for round := 0; round < booleanMaxNodeRounds; round++ {
 		var g regionGrid
 		g.build(xy, ringStart)
@@ -71,14 +72,14 @@ func booleanNode(xy []float64, ringStart []int32) ([]float64, []int32, *booleanR
 		if round == 0 {
 			ringOf = booleanRingOf(ringStart)
 		}
-		splits, fault := booleanFindSplits(&g, ringOf)
+		splits, fault := booleanFindSplits(&g, ringOf, fresh)
 		if fault != nil {
 			return nil, nil, fault, nil
 		}
 		if len(splits) == 0 {
 			return xy, ringStart, nil, nil
 		}
-		xy, ringStart = booleanApplySplits(xy, ringStart, g.next, splits)
+		xy, ringStart, fresh = booleanApplySplits(xy, ringStart, g.next, splits)
 	}
 	return nil, nil, nil, fmt.Errorf("noding did not settle after %d rounds (crossing points keep creating crossings)", booleanMaxNodeRounds)
 }
@@ -96,8 +97,10 @@ func booleanRingOf(ringStart []int32) []int32 {
 
 // booleanFindSplits tests every pair of edges sharing a grid cell. If
 // ringOf is not nil, pairs within one ring are checked for contact instead
-// (the input must be simple rings) and the first fault is returned.
-func booleanFindSplits(g *regionGrid, ringOf []int32) ([]booleanSplit, *booleanRingFault) {
+// (the input must be simple rings) and the first fault is returned. If
+// fresh is not nil, only pairs with a fresh edge are tested: a pair of
+// edges that the previous round tested and left unsplit has no contact.
+func booleanFindSplits(g *regionGrid, ringOf []int32, fresh []bool) ([]booleanSplit, *booleanRingFault) {
 	var splits []booleanSplit
 	var fault *booleanRingFault
 	for c := 0; c+1 < len(g.cellStart); c++ {
@@ -107,7 +110,7 @@ func booleanFindSplits(g *regionGrid, ringOf []int32) ([]booleanSplit, *booleanR
 			for j := i + 1; j < len(ents); j++ {
 				e2 := ents[j] >> 1
 				a, b := min(e1, e2), max(e1, e2)
-				if a == b {
+				if a == b || fresh != nil && !fresh[a] && !fresh[b] {
 					continue
 				}
 				if ringOf != nil && ringOf[a] == ringOf[b] {
@@ -133,8 +136,8 @@ func booleanPairSplits(g *regionGrid, a, b int32, splits []booleanSplit) []boole
 	an, bn := g.next[a], g.next[b]
 	ax, ay, bx, by := g.xy[2*a], g.xy[2*a+1], g.xy[2*an], g.xy[2*an+1]
 	cx, cy, dx, dy := g.xy[2*b], g.xy[2*b+1], g.xy[2*bn], g.xy[2*bn+1]
-	if math.Max(ax, bx) < math.Min(cx, dx) || math.Max(cx, dx) < math.Min(ax, bx) ||
-		math.Max(ay, by) < math.Min(cy, dy) || math.Max(cy, dy) < math.Min(ay, by) {
+	if max(ax, bx) < min(cx, dx) || max(cx, dx) < min(ax, bx) ||
+		max(ay, by) < min(cy, dy) || max(cy, dy) < min(ay, by) {
 		return splits
 	}
 	o1 := Orient2D(ax, ay, bx, by, cx, cy)
@@ -241,8 +244,9 @@ func booleanTwoTwoProduct(a1, a0, b1, b0 float64, h []float64) int {
 }
 
 // booleanApplySplits inserts the split points into their edges, in order
-// along each edge, and returns the refined rings.
-func booleanApplySplits(xy []float64, ringStart []int32, next []int32, splits []booleanSplit) ([]float64, []int32) {
+// along each edge, and returns the refined rings and which of their edges
+// are new (pieces of a split edge).
+func booleanApplySplits(xy []float64, ringStart []int32, next []int32, splits []booleanSplit) ([]float64, []int32, []bool) {
 	slices.SortFunc(splits, func(p, q booleanSplit) int {
 		if c := cmp.Compare(p.e, q.e); c != 0 {
 			return c
@@ -265,12 +269,15 @@ func booleanApplySplits(xy []float64, ringStart []int32, next []int32, splits []
 		return cmp.Compare(pv, qv)
 	})
 	out := make([]float64, 0, len(xy)+4*len(splits))
+	fresh := make([]bool, 0, cap(out)/2)
 	rs := make([]int32, 1, len(ringStart))
 	s := 0
 	for k := 0; k+1 < len(ringStart); k++ {
 		for e := ringStart[k]; e < ringStart[k+1]; e++ {
 			x, y := xy[2*e], xy[2*e+1]
 			out = append(out, x, y)
+			fresh = append(fresh, false)
+			split := len(fresh) - 1
 			n := next[e]
 			nx, ny := xy[2*n], xy[2*n+1]
 			lx, ly := x, y
@@ -280,10 +287,12 @@ func booleanApplySplits(xy []float64, ringStart []int32, next []int32, splits []
 					continue
 				}
 				out = append(out, sx, sy)
+				fresh = append(fresh, true)
+				fresh[split] = true
 				lx, ly = sx, sy
 			}
 		}
 		rs = append(rs, int32(len(out)/2))
 	}
-	return out, rs
+	return out, rs, fresh
 }
