@@ -165,30 +165,46 @@ func TestSiteAreaRefusals(t *testing.T) {
 	}
 }
 
-func TestBooleanOperations(t *testing.T) {
-	a := orb.MultiPolygon{bRect(0, 0, 2, 2), bRect(3, 0, 4, 1)}
-	b := orb.MultiPolygon{bPoly(1, -1, 3.5, 0.5, 1, 3)}
-	ua, _ := Union(a)
-	ub, _ := Union(b)
-	i, err := Intersection(a, b)
-	if err != nil {
-		t.Fatal(err)
+// booleanOpAreas runs Union on a and on b, Intersection, Difference and
+// Union on both, checks every result with booleanCheckValid and returns
+// the areas of A, B, A∩B, A−B and A∪B.
+func booleanOpAreas(t testing.TB, a, b orb.MultiPolygon) (aa, ab, ai, ad, au float64) {
+	t.Helper()
+	ops := []func() (orb.MultiPolygon, error){
+		func() (orb.MultiPolygon, error) { return Union(a) },
+		func() (orb.MultiPolygon, error) { return Union(b) },
+		func() (orb.MultiPolygon, error) { return Intersection(a, b) },
+		func() (orb.MultiPolygon, error) { return Difference(a, b) },
+		func() (orb.MultiPolygon, error) { return Union(append(append(orb.MultiPolygon{}, a...), b...)) },
 	}
-	d, err := Difference(a, b)
-	if err != nil {
-		t.Fatal(err)
-	}
-	u, err := Union(append(append(orb.MultiPolygon{}, a...), b...))
-	if err != nil {
-		t.Fatal(err)
-	}
-	for name, mp := range map[string]orb.MultiPolygon{"intersection": i, "difference": d, "union": u} {
-		t.Run(name+" valid", func(t *testing.T) { booleanCheckValid(t, mp) })
-	}
-	t.Run("area identities", func(t *testing.T) {
-		aa, ab, ai, ad, au := booleanArea(ua), booleanArea(ub), booleanArea(i), booleanArea(d), booleanArea(u)
-		if math.Abs(ad+ai-aa) > 1e-12 || math.Abs(au-(aa+ab-ai)) > 1e-12 {
-			t.Errorf("A=%v B=%v A∩B=%v A−B=%v A∪B=%v", aa, ab, ai, ad, au)
+	var areas [5]float64
+	for k, op := range ops {
+		mp, err := op()
+		if err != nil {
+			t.Fatal(err)
 		}
-	})
+		booleanCheckValid(t, mp)
+		areas[k] = booleanArea(mp)
+	}
+	return areas[0], areas[1], areas[2], areas[3], areas[4]
+}
+
+func TestBooleanOperations(t *testing.T) {
+	cases := []struct {
+		name string
+		a, b orb.MultiPolygon
+	}{
+		{"triangle across two squares", orb.MultiPolygon{bRect(0, 0, 2, 2), bRect(3, 0, 4, 1)}, orb.MultiPolygon{bPoly(1, -1, 3.5, 0.5, 1, 3)}},
+		{"b inside a", orb.MultiPolygon{bRect(0, 0, 4, 4)}, orb.MultiPolygon{bRect(1, 1, 2, 2)}},
+		{"disjoint", orb.MultiPolygon{bRect(0, 0, 1, 1)}, orb.MultiPolygon{bRect(2, 2, 3, 3)}},
+		{"equal", orb.MultiPolygon{bRect(0, 0, 1, 1)}, orb.MultiPolygon{bRect(0, 0, 1, 1)}},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			aa, ab, ai, ad, au := booleanOpAreas(t, c.a, c.b)
+			if math.Abs(ad+ai-aa) > 1e-12 || math.Abs(au-(aa+ab-ai)) > 1e-12 {
+				t.Errorf("A=%v B=%v A∩B=%v A−B=%v A∪B=%v", aa, ab, ai, ad, au)
+			}
+		})
+	}
 }
