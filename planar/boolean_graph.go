@@ -21,15 +21,19 @@
 //     its face on the left.
 //   - In each connected component, the cycle around the component (its
 //     outer cycle) is the face at its smallest vertex containing the
-//     direction −x. Its winding numbers are those of the point there,
-//     counted exactly by the crossing rule on a ray towards −x over the
-//     edges of the other components (Shimrat, CACM 5, 1962, with signed
-//     crossings), found through a uniform grid as in region.go. Within a
+//     direction −x. A ray from that vertex towards −x, walked through a
+//     uniform grid as in region.go, finds the nearest edge or vertex of
+//     another component: it bounds the face that holds the component
+//     (Shimrat's ray, CACM 5, 1962, used for location rather than
+//     parity). The outer cycle takes that face's winding numbers (0 if
+//     the ray meets nothing), which are known because the holding
+//     component has a vertex left of the ray's origin and so a smaller
+//     smallest vertex: components are processed in that order. Within a
 //     component every other cycle's winding follows across edges:
 //     w(left of h) = w(right of h) + jump(h).
-//   - The same ray's nearest contact names the face that holds the
-//     component, so face cycles that belong to one geometric face (a hole
-//     inside a polygon) are linked for grouping the output rings.
+//   - The link from the outer cycle to the holding face also joins face
+//     cycles that belong to one geometric face (a hole inside a polygon)
+//     when grouping the output rings.
 //
 // No decision uses a tolerance: vertex identity is float64 equality, and
 // every sidedness and angular order is an exact Orient2D sign.
@@ -295,14 +299,29 @@ func (gr *booleanGraph) windings() error {
 	gr.wind = make([][2]int32, gr.nFace)
 	gr.holder = make([]int32, gr.nFace)
 	known := make([]bool, gr.nFace)
-	ray := newBooleanRay(gr)
+	var ray *booleanRay // built only if there is more than one component
+	for v := int32(1); v < nv && ray == nil; v++ {
+		if gr.comp[v] == v {
+			ray = newBooleanRay(gr)
+		}
+	}
 	var queue []int32
 	for v := int32(0); v < nv; v++ {
 		if gr.comp[v] != v {
 			continue
 		}
 		outer := gr.faceTowardMinusX(v)
-		w, hold := ray.cast(v)
+		var w [2]int32
+		hold := int32(-1)
+		if ray != nil {
+			hold = ray.cast(v)
+		}
+		if hold >= 0 {
+			if !known[hold] {
+				return errBooleanInconsistent
+			}
+			w = gr.wind[hold]
+		}
 		gr.wind[outer] = w
 		gr.holder[outer] = hold
 		known[outer] = true

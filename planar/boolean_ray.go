@@ -1,12 +1,9 @@
 // Polygon overlay: the ray from a component's smallest vertex towards −x.
 //
-// The ray gives two things (see boolean_graph.go): the winding numbers at
-// the vertex, as the signed count of the other components' edges it
-// crosses (half-open rule of EdgeRay: an edge counts when exactly one
-// endpoint lies strictly above the ray), and the nearest contact with
-// another component, which names the face holding the component. Contacts
-// are edges crossed in their interior and vertices lying on the ray;
-// their order along the ray is decided exactly:
+// The ray's nearest contact with another component names the face that
+// holds the component (see boolean_graph.go). Contacts are edges crossed
+// in their interior and vertices lying on the ray; their order along the
+// ray is decided exactly:
 //
 //   - vertex w against vertex w′: by x (both lie on the ray);
 //   - vertex w against edge LH (L below, H above the ray): the edge meets
@@ -15,9 +12,15 @@
 //     noded), so their order on the ray is their order at any height they
 //     share; it is read off from an endpoint of one that lies within the
 //     other's height range and off its line.
+//
+// A float64 estimate of the contact's x serves only to stop the walk
+// through the grid, with a margin of two cells.
 package planar
 
-import "errors"
+import (
+	"errors"
+	"math"
+)
 
 // errBooleanInconsistent reports face windings that disagree around a
 // face: impossible for a noded arrangement, checked as a safeguard.
@@ -51,58 +54,54 @@ type booleanContact struct {
 	v, m int32
 }
 
-// cast returns the winding numbers at component root v (from the other
-// components) and the face cycle holding the component (−1 if none: the
-// unbounded face). The ray runs towards −x: v is its component's
-// lexicographically smallest vertex, so the ray meets nothing of its own
-// component and its nearest contact bounds the face that holds it.
-func (r *booleanRay) cast(v int32) ([2]int32, int32) {
+// cast returns the face cycle holding the component whose smallest
+// vertex is v (−1 if none: the unbounded face). The ray runs towards −x:
+// v is its component's lexicographically smallest vertex, so the ray meets
+// nothing of its own component, and its nearest contact bounds the face
+// that holds it. That contact lies left of v, so the holding component's
+// smallest vertex precedes v: processing components in vertex order, its
+// windings are already known. Cells are walked from v's leftwards, each
+// edge tested in every cell it is registered in (repeats are harmless),
+// and the walk stops once the nearest contact found lies right of every
+// cell still to come.
+func (r *booleanRay) cast(v int32) int32 {
 	gr, g := r.gr, &r.g
 	px, py := gr.vx[2*v], gr.vx[2*v+1]
-	var w [2]int32
 	best := booleanContact{-1, -1}
+	bestX := math.Inf(-1) // approximate x of best, only for stopping
 	row := g.clampRow((py - g.y0) / g.ch)
 	c0 := g.clampCol((px - g.x0) / g.cw)
 	for c := c0; c >= 0; c-- {
 		cell := row*g.nx + c
 		for _, ent := range g.entries[g.cellStart[cell]:g.cellStart[cell+1]] {
-			// Each edge once, in the leftmost cell of its run in this row
-			// (every edge reaching left of the vertex has it at or left of
-			// c0); skip the reverse copies.
-			if ent&1 == 0 || ent&2 != 0 {
-				continue
+			if ent&2 != 0 {
+				continue // the reverse copy of an edge
 			}
 			m := ent >> 2
 			a, b := gr.eLo[m], gr.eHi[m]
 			ax, ay, bx, by := gr.vx[2*a], gr.vx[2*a+1], gr.vx[2*b], gr.vx[2*b+1]
 			if ay == py && ax < px {
-				best = r.nearer(best, booleanContact{a, -1}, py)
+				best, bestX = r.nearer(best, booleanContact{a, -1}, py), max(bestX, ax)
 			}
 			if by == py && bx < px {
-				best = r.nearer(best, booleanContact{b, -1}, py)
+				best, bestX = r.nearer(best, booleanContact{b, -1}, py), max(bestX, bx)
 			}
-			if (ay > py) == (by > py) {
+			if (ay > py) == (by > py) || ay == py || by == py {
 				continue
 			}
-			up := by > ay // lo→hi runs upward
 			lx, ly, hx, hy := ax, ay, bx, by
-			if !up {
+			if by < ay {
 				lx, ly, hx, hy = bx, by, ax, ay
 			}
 			if Orient2D(lx, ly, hx, hy, px, py) >= 0 {
 				continue // the edge passes right of the vertex
 			}
-			// Crossing an upward edge from its left to its right changes
-			// the winding by −jump (left minus right).
-			j := gr.jump[m]
-			if up {
-				w[0], w[1] = w[0]-j[0], w[1]-j[1]
-			} else {
-				w[0], w[1] = w[0]+j[0], w[1]+j[1]
-			}
-			if ay != py && by != py {
-				best = r.nearer(best, booleanContact{-1, m}, py)
-			}
+			best = r.nearer(best, booleanContact{-1, m}, py)
+			bestX = max(bestX, lx+(py-ly)/(hy-ly)*(hx-lx))
+		}
+		// Cells left of c end at x0 + c·cw (plus the registration margin).
+		if bestX > g.x0+float64(c)*g.cw+2*(g.padX+1)*g.cw {
+			break
 		}
 	}
 	switch {
@@ -111,15 +110,15 @@ func (r *booleanRay) cast(v int32) ([2]int32, int32) {
 		// after its last outgoing half-edge (no edge leaves it along +x,
 		// or that edge's far end would be a nearer contact).
 		list := gr.out[gr.outStart[best.v]:gr.outStart[best.v+1]]
-		return w, gr.face[list[len(list)-1]]
+		return gr.face[list[len(list)-1]]
 	case best.m >= 0:
 		h := 2 * best.m // the downward half-edge has the vertex on its left
 		if gr.vx[2*gr.eHi[best.m]+1] > gr.vx[2*gr.eLo[best.m]+1] {
 			h++
 		}
-		return w, gr.face[h]
+		return gr.face[h]
 	}
-	return w, -1
+	return -1
 }
 
 // nearer returns whichever of two contacts on the ray y = py (towards −x)
