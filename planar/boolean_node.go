@@ -32,8 +32,13 @@
 // points all lie exactly on their edges needs no successor (the pieces
 // cover the same points, and every contact is now a shared vertex). A
 // split point is kept only once per edge and never at an endpoint, so no
-// zero-length edge arises. Rounds are capped (booleanMaxNodeRounds); in
-// practice a second round finds nothing.
+// zero-length edge arises. A crossing point within booleanSnapRel (2⁻⁴⁶)
+// times the coordinate magnitude of an endpoint of either edge is snapped
+// to that endpoint (the hot pixel of snap rounding), so clusters of
+// nearly concurrent edges converge on one vertex instead of producing new
+// points ulps apart each round; input vertices never move, so points
+// 1e-9 apart stay apart unless an edge crosses between them. Rounds are
+// capped (booleanMaxNodeRounds); in practice a second round finds nothing.
 package planar
 
 import (
@@ -54,6 +59,15 @@ const booleanMaxNodeRounds = 32
 // boundary passes through; more cells cost more registrations per edge.
 // 2 was no slower than 1, 4 or 8 on the SiteArea benchmarks.
 const booleanGridDensity = 2
+
+// booleanSnapRel is the snap radius for crossing points, relative to the
+// largest coordinate magnitude of the two edges (2⁻⁴⁶, 64 ulps): a crossing
+// point that close to an endpoint of either edge is replaced by that
+// endpoint. Without it, nearly concurrent edges near a point where one
+// coordinate is tiny (float64 is very fine near 0) can keep producing new
+// crossing points ulps apart, round after round; with it, the edges are
+// pulled into one vertex (a hot pixel in the sense of snap rounding).
+const booleanSnapRel = 0x1p-46
 
 // booleanSplit is a point at which ring edge e (from vertex e to its ring
 // successor) must be split.
@@ -183,6 +197,7 @@ func booleanPairSplits(g *regionGrid, a, b int32, splits []booleanSplit) []boole
 	}
 	if o1 != 0 && o2 != 0 && o3 != 0 && o4 != 0 {
 		px, py := booleanCrossing(ax, ay, bx, by, cx, cy, dx, dy, o3, o4)
+		px, py = booleanSnap(px, py, ax, ay, bx, by, cx, cy, dx, dy)
 		if !(px == ax && py == ay) && !(px == bx && py == by) {
 			splits = append(splits, booleanSplit{a, px, py})
 		}
@@ -205,6 +220,20 @@ func booleanPairSplits(g *regionGrid, a, b int32, splits []booleanSplit) []boole
 		splits = append(splits, booleanSplit{b, bx, by})
 	}
 	return splits
+}
+
+// booleanSnap returns the endpoint among a, b, c, d nearest to p (in the
+// max norm) if it lies within booleanSnapRel times their largest
+// coordinate magnitude, else p itself.
+func booleanSnap(px, py, ax, ay, bx, by, cx, cy, dx, dy float64) (float64, float64) {
+	m := max(math.Abs(ax), math.Abs(ay), math.Abs(bx), math.Abs(by), math.Abs(cx), math.Abs(cy), math.Abs(dx), math.Abs(dy))
+	best, qx, qy := booleanSnapRel*m, px, py
+	for _, q := range [4][2]float64{{ax, ay}, {bx, by}, {cx, cy}, {dx, dy}} {
+		if d := max(math.Abs(q[0]-px), math.Abs(q[1]-py)); d <= best {
+			best, qx, qy = d, q[0], q[1]
+		}
+	}
+	return qx, qy
 }
 
 // booleanStrictlyInside reports whether p, known to be collinear with a
