@@ -28,10 +28,12 @@
 //
 // Input rings must be simple: a ring that crosses or touches itself, or
 // doubles back (a spike), is refused with the polygon, ring, vertex and its
-// coordinates. Rings of different polygons, and of one polygon, may
-// otherwise meet in any way; a polygon's holes are subtracted through the
+// coordinates. Rings of different polygons may meet in any way, and a
+// polygon's rings may touch; a polygon's holes are subtracted through the
 // winding numbers (a point counts as inside operand A when its winding
-// number in A is at least 1).
+// number in A is at least 1). A hole outside its exterior, or two holes of
+// one polygon overlapping, makes some winding number negative and is
+// refused, naming a ring concerned.
 //
 // Cost: O((n + k) log n) for sorting vertices, edges and the angular order,
 // plus the pair search in the uniform grid, which is O(n + k) expected for
@@ -195,6 +197,9 @@ func booleanRun(a, b orb.MultiPolygon, op int, nameA, nameB string) (orb.MultiPo
 	if err := gr.windings(); err != nil {
 		return nil, st, err
 	}
+	if err := gr.checkNesting(&in, rs, xy); err != nil {
+		return nil, st, err
+	}
 	st.AreaParts = gr.countPieces(gr.booleanSelect(booleanUnion))
 	st.ExclusionParts = gr.countExclusionParts()
 	st.ExclusionsClipped, st.ExclusionsOutside = gr.exclusionFates(&in, rs)
@@ -203,6 +208,41 @@ func booleanRun(a, b orb.MultiPolygon, op int, nameA, nameB string) (orb.MultiPo
 	res := rings.multiPolygon()
 	st.Polygons = len(res)
 	return res, st, nil
+}
+
+// checkNesting refuses polygons whose holes are not inside their exterior
+// or overlap one another: exactly the inputs that give some face a
+// negative winding number in their operand (a valid polygon's winding is
+// 0 or 1 everywhere, and sums of those are never negative). The error
+// names a ring bounding such a face and a point on it.
+func (gr *booleanGraph) checkNesting(in *booleanInput, rs []int32, xy []float64) error {
+	bad := -1
+	for f, w := range gr.wind {
+		if w[0] < 0 || w[1] < 0 {
+			bad = f
+			break
+		}
+	}
+	if bad < 0 {
+		return nil
+	}
+	op := uint8(0)
+	if gr.wind[bad][0] >= 0 {
+		op = 1
+	}
+	for k := range in.operand {
+		if in.operand[k] != op {
+			continue
+		}
+		for e := rs[k]; e < rs[k+1]; e++ {
+			h := gr.ringHalf[e]
+			if gr.face[h] == int32(bad) || gr.face[h^1] == int32(bad) {
+				return fmt.Errorf("%s: a hole lies outside its exterior ring or overlaps another hole of the same polygon (near (%v, %v))",
+					in.names[k], xy[2*e], xy[2*e+1])
+			}
+		}
+	}
+	return fmt.Errorf("a hole lies outside its exterior ring or overlaps another hole")
 }
 
 // countExclusionParts returns the number of connected parts of operand B.

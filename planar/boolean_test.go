@@ -144,6 +144,10 @@ func TestSiteAreaRefusals(t *testing.T) {
 			[]string{"area polygon 0, ring 0", "spike", "vertex 3 (3, 3)"}, nil},
 		{"ring touching itself", orb.MultiPolygon{bPoly(0, 0, 4, 0, 2, 2, 3, 4, 1, 4, 2, 2)}, nil,
 			[]string{"area polygon 0, ring 0", "touches", "(2, 2)"}, nil},
+		{"hole outside its exterior", orb.MultiPolygon{{bRect(0, 0, 2, 2)[0], bPoly(3, 0, 3, 1, 4, 1, 4, 0)[0]}}, nil,
+			[]string{"area polygon 0, ring 1", "hole lies outside"}, nil},
+		{"overlapping holes", orb.MultiPolygon{{bRect(0, 0, 9, 9)[0], bPoly(1, 1, 1, 3, 3, 3, 3, 1)[0], bPoly(2, 2, 2, 4, 4, 4, 4, 2)[0]}}, nil,
+			[]string{"area polygon 0, ring", "overlaps another hole"}, nil},
 		{"zero-width ring", orb.MultiPolygon{bPoly(0, 0, 1, 1, 2, 2)}, nil,
 			[]string{"area polygon 0, ring 0", "collinear", "(0, 0)"}, nil},
 	}
