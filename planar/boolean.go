@@ -186,7 +186,7 @@ func booleanRun(a, b orb.MultiPolygon, op int, nameA, nameB string) (orb.MultiPo
 	if len(in.ringStart) == 1 {
 		return orb.MultiPolygon{}, st, nil
 	}
-	xy, rs, fault, err := booleanNode(in.xy, in.ringStart)
+	xy, rs, grid, fault, err := booleanNode(in.xy, in.ringStart)
 	if err != nil {
 		return nil, st, err
 	}
@@ -194,7 +194,7 @@ func booleanRun(a, b orb.MultiPolygon, op int, nameA, nameB string) (orb.MultiPo
 		return nil, st, in.faultError(fault)
 	}
 	gr := booleanBuildGraph(xy, rs, in.operand, in.sign)
-	if err := gr.windings(); err != nil {
+	if err := gr.windings(grid); err != nil {
 		return nil, st, err
 	}
 	if err := gr.checkNesting(&in, rs, xy); err != nil {

@@ -47,19 +47,21 @@ import (
 // booleanGraph is the noded arrangement with face windings. Half-edge h
 // belongs to edge h>>1 and runs lo→hi when h is even, hi→lo when odd.
 type booleanGraph struct {
-	vx       []float64 // vertex coordinates, interleaved, in (x, y) order
-	eLo, eHi []int32   // edge endpoints, eLo < eHi
-	jump     [][2]int32
-	outStart []int32 // half-edges leaving each vertex: out[outStart[v]:outStart[v+1]]
-	out      []int32 // sorted counter-clockwise from direction +x
-	pos      []int32 // index of each half-edge within its origin's list
-	face     []int32 // face cycle on the left of each half-edge
-	nFace    int
-	faceHE   []int32 // some half-edge of each face cycle
-	comp     []int32 // component (its smallest vertex) of each vertex
-	wind     [][2]int32
-	holder   []int32 // per face cycle: the face cycle of the same face it is linked to, or -1
-	ringHalf []int32 // per noded ring edge: the half-edge it became
+	vx        []float64 // vertex coordinates, interleaved, in (x, y) order
+	eLo, eHi  []int32   // edge endpoints, eLo < eHi
+	jump      [][2]int32
+	outStart  []int32 // half-edges leaving each vertex: out[outStart[v]:outStart[v+1]]
+	out       []int32 // sorted counter-clockwise from direction +x
+	pos       []int32 // index of each half-edge within its origin's list
+	face      []int32 // face cycle on the left of each half-edge
+	nFace     int
+	faceHE    []int32 // some half-edge of each face cycle
+	comp      []int32 // component (its smallest vertex) of each vertex
+	wind      [][2]int32
+	holder    []int32 // per face cycle: the face cycle of the same face it is linked to, or -1
+	ringHalf  []int32 // per noded ring edge: the half-edge it became
+	ringXY    []float64
+	ringStart []int32 // the noded rings, kept for the ray grid
 }
 
 func (gr *booleanGraph) origin(h int32) int32 {
@@ -111,6 +113,7 @@ func booleanBuildGraph(xy []float64, ringStart []int32, operand []uint8, sign []
 		gr.vx = append(gr.vx, xy[2*o], xy[2*o+1])
 		id[o] = int32(len(gr.vx)/2 - 1)
 	}
+	gr.ringXY, gr.ringStart = xy, ringStart
 	gr.mergeEdges(id, ringStart, operand, sign)
 	gr.sortAround()
 	gr.traceFaces()
@@ -293,8 +296,9 @@ func (gr *booleanGraph) faceTowardMinusX(v int32) int32 {
 	return gr.face[last]
 }
 
-// windings sets every face cycle's winding numbers and holder link.
-func (gr *booleanGraph) windings() error {
+// windings sets every face cycle's winding numbers and holder link. grid,
+// if not nil, is a regionGrid over the graph's noded rings.
+func (gr *booleanGraph) windings(grid *regionGrid) error {
 	nv := int32(len(gr.vx) / 2)
 	gr.wind = make([][2]int32, gr.nFace)
 	gr.holder = make([]int32, gr.nFace)
@@ -302,7 +306,7 @@ func (gr *booleanGraph) windings() error {
 	var ray *booleanRay // built only if there is more than one component
 	for v := int32(1); v < nv && ray == nil; v++ {
 		if gr.comp[v] == v {
-			ray = newBooleanRay(gr)
+			ray = newBooleanRay(gr, grid)
 		}
 	}
 	var queue []int32

@@ -84,35 +84,36 @@ type booleanRingFault struct {
 }
 
 // booleanNode splits the rings (xy, ringStart) until they are noded and
-// returns the refined rings. In the first round, a contact between two
-// edges of the same ring is a fault: the first such pair (in edge order)
-// is returned and nothing is split.
-func booleanNode(xy []float64, ringStart []int32) ([]float64, []int32, *booleanRingFault, error) {
+// returns the refined rings and, when the last round built it, the grid
+// over them. In the first round, a contact between two edges of the same
+// ring is a fault: the first such pair (in edge order) is returned and
+// nothing is split.
+func booleanNode(xy []float64, ringStart []int32) ([]float64, []int32, *regionGrid, *booleanRingFault, error) {
 	var fresh []bool // edges created by the last round's splits; nil: all
 	for round := 0; round < booleanMaxNodeRounds; round++ {
-		var g regionGrid
+		g := &regionGrid{}
 		g.buildDensity(xy, ringStart, booleanGridDensity)
 		var ringOf []int32
 		if round == 0 {
 			ringOf = booleanRingOf(ringStart)
 		}
-		splits, fault := booleanFindSplits(&g, ringOf, fresh)
+		splits, fault := booleanFindSplits(g, ringOf, fresh)
 		if fault != nil {
-			return nil, nil, fault, nil
+			return nil, nil, nil, fault, nil
 		}
 		if len(splits) == 0 {
-			return xy, ringStart, nil, nil
+			return xy, ringStart, g, nil, nil
 		}
-		exact := booleanSplitsExact(&g, splits)
+		exact := booleanSplitsExact(g, splits)
 		xy, ringStart, fresh = booleanApplySplits(xy, ringStart, g.next, splits)
 		if exact {
 			// Every split point lies exactly on its edge: the pieces cover
 			// the same points as before and every contact is now a shared
 			// vertex, so no further round can find anything.
-			return xy, ringStart, nil, nil
+			return xy, ringStart, nil, nil, nil
 		}
 	}
-	return nil, nil, nil, fmt.Errorf("noding did not settle after %d rounds (crossing points keep creating crossings)", booleanMaxNodeRounds)
+	return nil, nil, nil, nil, fmt.Errorf("noding did not settle after %d rounds (crossing points keep creating crossings)", booleanMaxNodeRounds)
 }
 
 // booleanSplitsExact reports whether every split point lies exactly on

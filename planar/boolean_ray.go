@@ -26,26 +26,21 @@ import (
 // face: impossible for a noded arrangement, checked as a safeguard.
 var errBooleanInconsistent = errors.New("internal error: face winding numbers are inconsistent")
 
-// booleanRay casts rays over the edges of a booleanGraph through a grid
-// in which edge m is the two-vertex ring (2m, 2m+1).
+// booleanRay casts rays over the noded rings' edges through a grid over
+// those rings; ring edge e is graph edge ringHalf[e]>>1.
 type booleanRay struct {
 	gr *booleanGraph
-	g  regionGrid
+	g  *regionGrid
 }
 
-func newBooleanRay(gr *booleanGraph) *booleanRay {
-	r := &booleanRay{gr: gr}
-	ne := len(gr.eLo)
-	xy := make([]float64, 0, 4*ne)
-	rs := make([]int32, 0, ne+1)
-	rs = append(rs, 0)
-	for m := 0; m < ne; m++ {
-		a, b := gr.eLo[m], gr.eHi[m]
-		xy = append(xy, gr.vx[2*a], gr.vx[2*a+1], gr.vx[2*b], gr.vx[2*b+1])
-		rs = append(rs, int32(2*m+2))
+// newBooleanRay uses grid if it is not nil (it must be built over the
+// graph's rings) and otherwise builds one.
+func newBooleanRay(gr *booleanGraph, grid *regionGrid) *booleanRay {
+	if grid == nil {
+		grid = &regionGrid{}
+		grid.build(gr.ringXY, gr.ringStart)
 	}
-	r.g.build(xy, rs)
-	return r
+	return &booleanRay{gr: gr, g: grid}
 }
 
 // booleanContact is the nearest contact found so far: a vertex (v ≥ 0),
@@ -65,7 +60,7 @@ type booleanContact struct {
 // and the walk stops once the nearest contact found lies right of every
 // cell still to come.
 func (r *booleanRay) cast(v int32) int32 {
-	gr, g := r.gr, &r.g
+	gr, g := r.gr, r.g
 	px, py := gr.vx[2*v], gr.vx[2*v+1]
 	best := booleanContact{-1, -1}
 	bestX := math.Inf(-1) // approximate x of best, only for stopping
@@ -74,10 +69,8 @@ func (r *booleanRay) cast(v int32) int32 {
 	for c := c0; c >= 0; c-- {
 		cell := row*g.nx + c
 		for _, ent := range g.entries[g.cellStart[cell]:g.cellStart[cell+1]] {
-			if ent&2 != 0 {
-				continue // the reverse copy of an edge
-			}
-			m := ent >> 2
+			e := ent >> 1
+			m := gr.ringHalf[e] >> 1
 			a, b := gr.eLo[m], gr.eHi[m]
 			ax, ay, bx, by := gr.vx[2*a], gr.vx[2*a+1], gr.vx[2*b], gr.vx[2*b+1]
 			if ay == py && ax < px {
