@@ -204,6 +204,7 @@ func booleanRun(a, b orb.MultiPolygon, op int, nameA, nameB string) (orb.MultiPo
 	st.ExclusionParts = gr.countExclusionParts()
 	st.ExclusionsClipped, st.ExclusionsOutside = gr.exclusionFates(&in, rs)
 	rings, pinches := gr.extract(gr.booleanSelect(op)).openPinches()
+	rings.dropStraight()
 	st.Pinches = pinches
 	res := rings.multiPolygon()
 	st.Polygons = len(res)

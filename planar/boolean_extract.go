@@ -172,3 +172,47 @@ func (gr *booleanGraph) nextBoundary(h int32, in []bool) int32 {
 	}
 	return t // unreachable: the sector after h is in the result
 }
+
+// dropStraight removes ring vertices at which the ring runs straight on
+// (the previous kept vertex, the vertex and the next one are collinear, by
+// Orient2D): noding leaves such vertices where merged parcels' corners or
+// split points met a straight boundary. Called after openPinches, when no
+// ring touches another, so the point set of every ring and with it the
+// validity are unchanged. Rings keep at least 3 vertices.
+func (r *booleanRings) dropStraight() {
+	out := r.xy[:0]
+	vid := r.vid[:0]
+	rs := make([]int32, 1, len(r.ringStart))
+	for k := 0; k+1 < len(r.ringStart); k++ {
+		s, e := int(r.ringStart[k]), int(r.ringStart[k+1])
+		n := e - s
+		keep := make([]bool, n)
+		for i := range keep {
+			keep[i] = true
+		}
+		kept := n
+		// prev is the last kept vertex before i (cyclically).
+		prev := n - 1
+		for i := 0; i < n && kept > 3; i++ {
+			nx := (i + 1) % n
+			for !keep[nx] {
+				nx = (nx + 1) % n
+			}
+			a, b, c := s+prev, s+i, s+nx
+			if Orient2D(r.xy[2*a], r.xy[2*a+1], r.xy[2*b], r.xy[2*b+1], r.xy[2*c], r.xy[2*c+1]) == 0 {
+				keep[i] = false
+				kept--
+				continue
+			}
+			prev = i
+		}
+		for i := 0; i < n; i++ {
+			if keep[i] {
+				out = append(out, r.xy[2*(s+i)], r.xy[2*(s+i)+1])
+				vid = append(vid, r.vid[s+i])
+			}
+		}
+		rs = append(rs, int32(len(vid)))
+	}
+	r.xy, r.vid, r.ringStart = out, vid, rs
+}

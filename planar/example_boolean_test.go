@@ -1,3 +1,5 @@
+// Runnable example of SiteArea: parcels merged, exclusions clipped.
+
 package planar_test
 
 import (
