@@ -61,6 +61,20 @@ func booleanCheckValid(t testing.TB, mp orb.MultiPolygon) {
 	}
 }
 
+// booleanChecker returns the black squares of an n×n checkerboard: they
+// touch only at corners, (n−1)² pinch points.
+func booleanChecker(n int) orb.MultiPolygon {
+	var mp orb.MultiPolygon
+	for i := 0; i < n; i++ {
+		for j := 0; j < n; j++ {
+			if (i+j)%2 == 0 {
+				mp = append(mp, bRect(float64(i), float64(j), float64(i+1), float64(j+1)))
+			}
+		}
+	}
+	return mp
+}
+
 func TestSiteArea(t *testing.T) {
 	// Opened pinch points remove at most ½(|vp| + |vq|)·64 ulp per passage
 	// (boolean_pinch.go): below 1e-13 here.
@@ -108,6 +122,12 @@ func TestSiteArea(t *testing.T) {
 			orb.MultiPolygon{bPoly(500090.3, 5000040.7, 500110.1, 5000050.9, 500089.7, 5000060.2)},
 			20000 - math.Abs(RingArea([]float64{500090.3, 5000040.7, 500110.1, 5000050.9, 500089.7, 5000060.2})), 1,
 			func(s SiteAreaStats) bool { return s.AreaParts == 1 && s.ExclusionsClipped == 0 }},
+		{"checkerboard parcels touching at corners", booleanChecker(10), nil, 50, 50,
+			func(s SiteAreaStats) bool { return s.AreaParts == 50 && s.Pinches == 81 }},
+		// The 32 inner white squares meet the rest only at corners: with
+		// the pinch points opened they are polygons of their own.
+		{"checkerboard exclusions in a square", orb.MultiPolygon{bRect(-1, -1, 11, 11)}, booleanChecker(10), 144 - 50, 33,
+			func(s SiteAreaStats) bool { return s.ExclusionParts == 50 && s.Pinches == 81 }},
 		{"hole touching the exterior at a point", orb.MultiPolygon{{bRect(0, 0, 4, 4)[0], bPoly(0, 2, 2, 3, 2, 1)[0]}}, nil, 14, 1,
 			func(s SiteAreaStats) bool { return s.Pinches == 1 }},
 	}
