@@ -39,6 +39,7 @@
 // plus the pair search in the uniform grid, which is O(n + k) expected for
 // edges short compared with the extent (k = number of contacts), and one
 // grid ray per connected component of the arrangement.
+
 package planar
 
 import (

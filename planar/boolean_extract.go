@@ -17,6 +17,7 @@
 // lexicographically smallest point of a bounded set lies on its outer
 // boundary, and a hole touching the exterior there is, by the face rule,
 // part of the same ring).
+
 package planar
 
 // Overlay operations.

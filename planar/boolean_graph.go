@@ -37,6 +37,7 @@
 //
 // No decision uses a tolerance: vertex identity is float64 equality, and
 // every sidedness and angular order is an exact Orient2D sign.
+
 package planar
 
 import (

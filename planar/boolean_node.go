@@ -39,6 +39,7 @@
 // points ulps apart each round; input vertices never move, so points
 // 1e-9 apart stay apart unless an edge crosses between them. Rounds are
 // capped (booleanMaxNodeRounds); in practice a second round finds nothing.
+
 package planar
 
 import (

@@ -24,6 +24,7 @@
 // cap L/4 or c/4 binds (features within ~booleanPinchSep ulps of v) the
 // separation is smaller; the caller's final NewRegion call checks the
 // outcome exactly and reports a failure.
+
 package planar
 
 import (

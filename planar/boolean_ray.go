@@ -15,6 +15,7 @@
 //
 // A float64 estimate of the contact's x serves only to stop the walk
 // through the grid, with a margin of two cells.
+
 package planar
 
 import (
