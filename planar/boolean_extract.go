@@ -1,0 +1,219 @@
+// Polygon overlay, step 3: selecting the result's faces and tracing its
+// rings.
+//
+// A face belongs to the result when its winding numbers satisfy the
+// operation (union: wA ≥ 1; intersection: wA ≥ 1 and wB ≥ 1; difference:
+// wA ≥ 1 and wB = 0). The result's boundary is the set of half-edges with
+// a result face on the left and a non-result face on the right. Rings are
+// traced along them with the face rule (arriving at a vertex, leave by the
+// first boundary half-edge clockwise after the reverse of the arriving
+// one), so every ring has the result on its left: exteriors come out
+// counter-clockwise and holes clockwise, and where the boundary passes a
+// vertex more than once (a pinch point) each passage keeps to its own
+// sector of the result. Rings are grouped into polygons by the connected
+// parts of the result (faces joined across edges interior to the result,
+// and face cycles of one face joined through the ray links); in each part
+// the ring through the part's smallest vertex is the exterior (the
+// lexicographically smallest point of a bounded set lies on its outer
+// boundary, and a hole touching the exterior there is, by the face rule,
+// part of the same ring).
+
+package planar
+
+// Overlay operations.
+const (
+	booleanUnion = iota
+	booleanIntersection
+	booleanDifference
+)
+
+// booleanSelect returns, for each face cycle, whether it is in the result
+// of operation op over the given operands (0: wA, 1: wB).
+func (gr *booleanGraph) booleanSelect(op int) []bool {
+	in := make([]bool, gr.nFace)
+	for f, w := range gr.wind {
+		a, b := w[0] >= 1, w[1] >= 1
+		switch op {
+		case booleanUnion:
+			in[f] = a
+		case booleanIntersection:
+			in[f] = a && b
+		case booleanDifference:
+			in[f] = a && !b
+		}
+	}
+	return in
+}
+
+// pieces returns a union-find forest over face cycles joining the result
+// faces that form one connected part of the result.
+func (gr *booleanGraph) pieces(in []bool) []int32 {
+	parent := make([]int32, gr.nFace)
+	for f := range parent {
+		parent[f] = int32(f)
+	}
+	for m := range gr.eLo {
+		f, g := gr.face[2*m], gr.face[2*m+1]
+		if in[f] && in[g] {
+			booleanUnite(parent, f, g)
+		}
+	}
+	for f, h := range gr.holder {
+		if h >= 0 && in[f] {
+			booleanUnite(parent, int32(f), h)
+		}
+	}
+	return parent
+}
+
+// countPieces returns the number of connected parts of the result.
+func (gr *booleanGraph) countPieces(in []bool) int {
+	parent := gr.pieces(in)
+	n := 0
+	for f := range parent {
+		if in[f] && booleanFind(parent, int32(f)) == int32(f) {
+			n++
+		}
+	}
+	return n
+}
+
+// booleanRings is an overlay result: rings as interleaved coordinates with
+// the arrangement vertex of each ring vertex; polygon p has rings
+// polyStart[p] (its exterior) to polyStart[p+1]−1 (its holes).
+type booleanRings struct {
+	xy        []float64
+	vid       []int32
+	ringStart []int32
+	polyStart []int32
+	pinch     []bool // per arrangement vertex: the boundary passes it more than once
+}
+
+// extract traces the boundary of the result faces in into rings grouped
+// into polygons.
+func (gr *booleanGraph) extract(in []bool) *booleanRings {
+	nh := int32(len(gr.out))
+	boundary := func(h int32) bool { return in[gr.face[h]] && !in[gr.face[h^1]] }
+	nv := len(gr.vx) / 2
+	bdeg := make([]int32, nv)
+	for h := int32(0); h < nh; h++ {
+		if boundary(h) {
+			bdeg[gr.origin(h)]++
+		}
+	}
+	parent := gr.pieces(in)
+	type ringInfo struct{ piece, minV, start, end int32 }
+	var rings []ringInfo
+	var xy []float64
+	var vid []int32
+	seen := make([]bool, nh)
+	for h0 := int32(0); h0 < nh; h0++ {
+		if seen[h0] || !boundary(h0) {
+			continue
+		}
+		ri := ringInfo{piece: booleanFind(parent, gr.face[h0]), minV: int32(nv), start: int32(len(vid))}
+		for h := h0; !seen[h]; h = gr.nextBoundary(h, in) {
+			seen[h] = true
+			v := gr.origin(h)
+			xy = append(xy, gr.vx[2*v], gr.vx[2*v+1])
+			vid = append(vid, v)
+			ri.minV = min(ri.minV, v)
+		}
+		ri.end = int32(len(vid))
+		rings = append(rings, ri)
+	}
+	// Group by piece, exterior (smallest minV) first.
+	exterior := make(map[int32]int, len(rings))
+	for i, r := range rings {
+		if j, ok := exterior[r.piece]; !ok || r.minV < rings[j].minV {
+			exterior[r.piece] = i
+		}
+	}
+	out := &booleanRings{ringStart: []int32{0}, polyStart: []int32{0}, pinch: make([]bool, nv)}
+	for v, d := range bdeg {
+		out.pinch[v] = d > 1
+	}
+	holes := make(map[int32][]int, len(exterior))
+	var order []int32
+	for i, r := range rings {
+		if exterior[r.piece] == i {
+			order = append(order, r.piece)
+		} else {
+			holes[r.piece] = append(holes[r.piece], i)
+		}
+	}
+	emit := func(i int) {
+		r := rings[i]
+		out.xy = append(out.xy, xy[2*r.start:2*r.end]...)
+		out.vid = append(out.vid, vid[r.start:r.end]...)
+		out.ringStart = append(out.ringStart, int32(len(out.vid)))
+	}
+	for _, p := range order {
+		emit(exterior[p])
+		for _, i := range holes[p] {
+			emit(i)
+		}
+		out.polyStart = append(out.polyStart, int32(len(out.ringStart)-1))
+	}
+	return out
+}
+
+// nextBoundary returns the boundary half-edge that follows boundary
+// half-edge h: the first one clockwise after h's twin around h's end.
+func (gr *booleanGraph) nextBoundary(h int32, in []bool) int32 {
+	t := h ^ 1
+	v := gr.origin(t)
+	s, n := gr.outStart[v], gr.outStart[v+1]-gr.outStart[v]
+	i := gr.pos[t]
+	for k := int32(1); k < n; k++ {
+		g := gr.out[s+(i-k+n)%n]
+		if in[gr.face[g]] && !in[gr.face[g^1]] {
+			return g
+		}
+	}
+	return t // unreachable: the sector after h is in the result
+}
+
+// dropStraight removes ring vertices at which the ring runs straight on
+// (the previous kept vertex, the vertex and the next one are collinear, by
+// Orient2D): noding leaves such vertices where merged parcels' corners or
+// split points met a straight boundary. Called after openPinches, when no
+// ring touches another, so the point set of every ring and with it the
+// validity are unchanged. Rings keep at least 3 vertices.
+func (r *booleanRings) dropStraight() {
+	out := r.xy[:0]
+	vid := r.vid[:0]
+	rs := make([]int32, 1, len(r.ringStart))
+	for k := 0; k+1 < len(r.ringStart); k++ {
+		s, e := int(r.ringStart[k]), int(r.ringStart[k+1])
+		n := e - s
+		keep := make([]bool, n)
+		for i := range keep {
+			keep[i] = true
+		}
+		kept := n
+		// prev is the last kept vertex before i (cyclically).
+		prev := n - 1
+		for i := 0; i < n && kept > 3; i++ {
+			nx := (i + 1) % n
+			for !keep[nx] {
+				nx = (nx + 1) % n
+			}
+			a, b, c := s+prev, s+i, s+nx
+			if Orient2D(r.xy[2*a], r.xy[2*a+1], r.xy[2*b], r.xy[2*b+1], r.xy[2*c], r.xy[2*c+1]) == 0 {
+				keep[i] = false
+				kept--
+				continue
+			}
+			prev = i
+		}
+		for i := 0; i < n; i++ {
+			if keep[i] {
+				out = append(out, r.xy[2*(s+i)], r.xy[2*(s+i)+1])
+				vid = append(vid, r.vid[s+i])
+			}
+		}
+		rs = append(rs, int32(len(vid)))
+	}
+	r.xy, r.vid, r.ringStart = out, vid, rs
+}

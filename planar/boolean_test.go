@@ -1,0 +1,260 @@
+// Tests of Union, Intersection, Difference and SiteArea: named geometric
+// cases with hand-computed areas, refusal of invalid rings, and the result
+// checked exactly by NewRegion (booleanCheckValid).
+
+package planar
+
+import (
+	"errors"
+	"math"
+	"strings"
+	"testing"
+
+	"github.com/paulmach/orb"
+)
+
+// bRect returns the axis-parallel rectangle [x0, x1] × [y0, y1] as a
+// polygon, counter-clockwise, closed.
+func bRect(x0, y0, x1, y1 float64) orb.Polygon {
+	return orb.Polygon{{{x0, y0}, {x1, y0}, {x1, y1}, {x0, y1}, {x0, y0}}}
+}
+
+// bPoly builds a one-ring polygon from coordinate pairs.
+func bPoly(c ...float64) orb.Polygon {
+	r := make(orb.Ring, 0, len(c)/2+1)
+	for i := 0; i+1 < len(c); i += 2 {
+		r = append(r, orb.Point{c[i], c[i+1]})
+	}
+	return orb.Polygon{append(r, r[0])}
+}
+
+// booleanArea returns the signed-sum area of a polygon set (exteriors
+// positive, holes negative as oriented).
+func booleanArea(mp orb.MultiPolygon) float64 {
+	s := 0.0
+	for _, p := range mp {
+		for _, r := range p {
+			s += RingArea(FlatRing(r))
+		}
+	}
+	return s
+}
+
+// booleanCheckValid fails unless mp is accepted by NewRegion and its rings
+// are oriented (exteriors counter-clockwise, holes clockwise): the exact
+// validity check used for every result in these tests.
+func booleanCheckValid(t testing.TB, mp orb.MultiPolygon) {
+	t.Helper()
+	if len(mp) == 0 {
+		return
+	}
+	if _, err := NewRegion(mp); err != nil {
+		t.Fatalf("result not valid: %v", err)
+	}
+	for p, poly := range mp {
+		for k, r := range poly {
+			xy := FlatRing(r[:len(r)-1])
+			if regionRingCCW(xy) != (k == 0) {
+				t.Fatalf("polygon %d ring %d: wrong orientation", p, k)
+			}
+		}
+	}
+}
+
+// booleanChecker returns the black squares of an n×n checkerboard: they
+// touch only at corners, (n−1)² pinch points.
+func booleanChecker(n int) orb.MultiPolygon {
+	var mp orb.MultiPolygon
+	for i := 0; i < n; i++ {
+		for j := 0; j < n; j++ {
+			if (i+j)%2 == 0 {
+				mp = append(mp, bRect(float64(i), float64(j), float64(i+1), float64(j+1)))
+			}
+		}
+	}
+	return mp
+}
+
+func TestSiteArea(t *testing.T) {
+	// Opened pinch points remove at most ½(|vp| + |vq|)·64 ulp per passage
+	// (boolean_pinch.go): below 1e-13 here.
+	const pinchTol = 1e-12
+	cases := []struct {
+		name       string
+		area, excl orb.MultiPolygon
+		want       float64
+		polys      int
+		stats      func(SiteAreaStats) bool
+	}{
+		{"parcels touching at an edge", orb.MultiPolygon{bRect(0, 0, 1, 1), bRect(1, 0, 2, 1)}, nil, 2, 1,
+			func(s SiteAreaStats) bool { return s.AreaParts == 1 && s.Pinches == 0 }},
+		{"parcels sharing part of an edge (collinear overlap)", orb.MultiPolygon{bRect(0, 0, 2, 1), bRect(1, 1, 3, 2)}, nil, 4, 1,
+			func(s SiteAreaStats) bool { return s.AreaParts == 1 }},
+		{"parcels touching at a point", orb.MultiPolygon{bRect(0, 0, 1, 1), bRect(1, 1, 2, 2)}, nil, 2, 2,
+			func(s SiteAreaStats) bool { return s.AreaParts == 2 && s.Pinches == 1 }},
+		{"parcels overlapping", orb.MultiPolygon{bRect(0, 0, 2, 2), bRect(1, 1, 3, 3)}, nil, 7, 1,
+			func(s SiteAreaStats) bool { return s.AreaParts == 1 }},
+		{"identical parcels", orb.MultiPolygon{bRect(0, 0, 1, 1), bRect(0, 0, 1, 1)}, nil, 1, 1,
+			func(s SiteAreaStats) bool { return s.AreaParts == 1 }},
+		{"parcels 1e-9 apart", orb.MultiPolygon{bRect(0, 0, 1, 1), bRect(1+1e-9, 0, 2, 1)}, nil, 2 - 1e-9, 2,
+			func(s SiteAreaStats) bool { return s.AreaParts == 2 && s.Pinches == 0 }},
+		{"exclusion on the boundary along an edge", orb.MultiPolygon{bRect(0, 0, 4, 4)}, orb.MultiPolygon{bRect(0, 1, 1, 2)}, 15, 1,
+			func(s SiteAreaStats) bool { return s.ExclusionsClipped == 0 && s.ExclusionsOutside == 0 }},
+		{"exclusion touching the boundary at a point", orb.MultiPolygon{bRect(0, 0, 4, 4)}, orb.MultiPolygon{bPoly(0, 2, 1, 1, 1, 3)}, 15, 1,
+			func(s SiteAreaStats) bool { return s.Pinches == 1 }},
+		{"exclusions sharing an edge", orb.MultiPolygon{bRect(0, 0, 4, 4)}, orb.MultiPolygon{bRect(1, 1, 2, 2), bRect(2, 1, 3, 2)}, 14, 1,
+			func(s SiteAreaStats) bool { return s.ExclusionParts == 1 }},
+		{"exclusions touching at a corner", orb.MultiPolygon{bRect(0, 0, 4, 4)}, orb.MultiPolygon{bRect(1, 1, 2, 2), bRect(2, 2, 3, 3)}, 14, 1,
+			func(s SiteAreaStats) bool { return s.ExclusionParts == 2 && s.Pinches == 1 }},
+		{"exclusions overlapping and sticking out", orb.MultiPolygon{bRect(0, 0, 4, 4)}, orb.MultiPolygon{bRect(3, 1, 5, 2), bRect(2.5, 1.5, 3.5, 3)}, 16 - 1 - 1.5 + 0.25, 1,
+			func(s SiteAreaStats) bool { return s.ExclusionParts == 1 && s.ExclusionsClipped == 1 }},
+		{"exclusion outside", orb.MultiPolygon{bRect(0, 0, 4, 4)}, orb.MultiPolygon{bRect(5, 5, 6, 6), bRect(4, 0, 5, 1)}, 16, 1,
+			func(s SiteAreaStats) bool { return s.ExclusionsOutside == 2 }},
+		{"exclusion cutting the area in two", orb.MultiPolygon{bRect(0, 0, 4, 4)}, orb.MultiPolygon{bRect(-1, 1, 5, 2)}, 12, 2,
+			func(s SiteAreaStats) bool { return s.ExclusionsClipped == 1 }},
+		{"holes in the input", orb.MultiPolygon{{bRect(0, 0, 4, 4)[0], bPoly(1, 1, 1, 3, 3, 3, 3, 1)[0]}},
+			orb.MultiPolygon{{bRect(2, 0, 5, 4)[0], bPoly(3, 3.5, 4.5, 3.5, 4.5, 0.5, 3, 0.5)[0]}}, 8 - 2 + 3, 2,
+			func(s SiteAreaStats) bool { return s.ExclusionsClipped == 1 }},
+		{"parcel inside another's hole", orb.MultiPolygon{{bRect(0, 0, 4, 4)[0], bPoly(1, 1, 1, 3, 3, 3, 3, 1)[0]}, bRect(1.5, 1.5, 2.5, 2.5)}, nil, 13, 2,
+			func(s SiteAreaStats) bool { return s.AreaParts == 2 }},
+		{"UTM-sized coordinates, exclusion across a shared edge",
+			orb.MultiPolygon{bRect(500000, 5000000, 500100, 5000100), bRect(500100, 5000000, 500200, 5000100)},
+			orb.MultiPolygon{bPoly(500090.3, 5000040.7, 500110.1, 5000050.9, 500089.7, 5000060.2)},
+			20000 - math.Abs(RingArea([]float64{500090.3, 5000040.7, 500110.1, 5000050.9, 500089.7, 5000060.2})), 1,
+			func(s SiteAreaStats) bool { return s.AreaParts == 1 && s.ExclusionsClipped == 0 }},
+		{"checkerboard parcels touching at corners", booleanChecker(10), nil, 50, 50,
+			func(s SiteAreaStats) bool { return s.AreaParts == 50 && s.Pinches == 81 }},
+		// The 32 inner white squares meet the rest only at corners: with
+		// the pinch points opened they are polygons of their own.
+		{"checkerboard exclusions in a square", orb.MultiPolygon{bRect(-1, -1, 11, 11)}, booleanChecker(10), 144 - 50, 33,
+			func(s SiteAreaStats) bool { return s.ExclusionParts == 50 && s.Pinches == 81 }},
+		{"hole touching the exterior at a point", orb.MultiPolygon{{bRect(0, 0, 4, 4)[0], bPoly(0, 2, 2, 3, 2, 1)[0]}}, nil, 14, 1,
+			func(s SiteAreaStats) bool { return s.Pinches == 1 }},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			reg, st, err := SiteArea(c.area, c.excl)
+			if err != nil {
+				t.Fatal(err)
+			}
+			res := reg.MultiPolygon()
+			booleanCheckValid(t, res)
+			// Relative to the area: shoelace sums of n terms err by ~n·ε.
+			if got := booleanArea(res); math.Abs(got-c.want) > pinchTol*math.Max(1, c.want) {
+				t.Errorf("area %.17g, want %.17g", got, c.want)
+			}
+			if len(res) != c.polys {
+				t.Errorf("%d polygons, want %d", len(res), c.polys)
+			}
+			if !c.stats(st) {
+				t.Errorf("stats %+v (%q)", st, st.String())
+			}
+		})
+	}
+}
+
+func TestSiteAreaRefusals(t *testing.T) {
+	cases := []struct {
+		name       string
+		area, excl orb.MultiPolygon
+		want       []string
+		is         error
+	}{
+		{"exclusion equal to the area", orb.MultiPolygon{bRect(0, 0, 1, 1)}, orb.MultiPolygon{bRect(0, 0, 1, 1)},
+			[]string{"cover the whole site area"}, ErrEmptySite},
+		{"bow-tie", orb.MultiPolygon{bPoly(0, 0, 2, 2, 2, 0, 0, 2)}, nil,
+			[]string{"area polygon 0, ring 0", "crosses", "vertex 0 (0, 0)", "vertex 2 (2, 0)"}, nil},
+		{"self-intersecting exclusion", orb.MultiPolygon{bRect(0, 0, 9, 9)}, orb.MultiPolygon{bRect(5, 5, 6, 6), bPoly(1, 1, 4, 1, 4, 4, 2, 0, 1, 4)},
+			[]string{"exclusion 1, ring 0", "crosses", "vertex"}, nil},
+		{"spike", orb.MultiPolygon{bPoly(0, 0, 2, 0, 2, 2, 3, 3, 2.5, 2.5, 0, 2)}, nil,
+			[]string{"area polygon 0, ring 0", "spike", "vertex 3 (3, 3)"}, nil},
+		{"ring touching itself", orb.MultiPolygon{bPoly(0, 0, 4, 0, 2, 2, 3, 4, 1, 4, 2, 2)}, nil,
+			[]string{"area polygon 0, ring 0", "touches", "(2, 2)"}, nil},
+		{"hole outside its exterior", orb.MultiPolygon{{bRect(0, 0, 2, 2)[0], bPoly(3, 0, 3, 1, 4, 1, 4, 0)[0]}}, nil,
+			[]string{"area polygon 0, ring 1", "hole lies outside"}, nil},
+		{"overlapping holes", orb.MultiPolygon{{bRect(0, 0, 9, 9)[0], bPoly(1, 1, 1, 3, 3, 3, 3, 1)[0], bPoly(2, 2, 2, 4, 4, 4, 4, 2)[0]}}, nil,
+			[]string{"area polygon 0, ring", "overlaps another hole"}, nil},
+		{"zero-width ring", orb.MultiPolygon{bPoly(0, 0, 1, 1, 2, 2)}, nil,
+			[]string{"area polygon 0, ring 0", "collinear", "(0, 0)"}, nil},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			_, _, err := SiteArea(c.area, c.excl)
+			if err == nil {
+				t.Fatal("no error")
+			}
+			for _, w := range c.want {
+				if !strings.Contains(err.Error(), w) {
+					t.Errorf("error %q does not contain %q", err, w)
+				}
+			}
+			if c.is != nil && !errors.Is(err, c.is) {
+				t.Errorf("error %q is not %v", err, c.is)
+			}
+		})
+	}
+}
+
+// booleanOpAreas runs Union on a and on b, Intersection, Difference and
+// Union on both, checks every result with booleanCheckValid and returns
+// the areas of A, B, A∩B, A−B and A∪B.
+func booleanOpAreas(t testing.TB, a, b orb.MultiPolygon) (aa, ab, ai, ad, au float64) {
+	t.Helper()
+	ops := []func() (orb.MultiPolygon, error){
+		func() (orb.MultiPolygon, error) { return Union(a) },
+		func() (orb.MultiPolygon, error) { return Union(b) },
+		func() (orb.MultiPolygon, error) { return Intersection(a, b) },
+		func() (orb.MultiPolygon, error) { return Difference(a, b) },
+		func() (orb.MultiPolygon, error) { return Union(append(append(orb.MultiPolygon{}, a...), b...)) },
+	}
+	var areas [5]float64
+	for k, op := range ops {
+		mp, err := op()
+		if err != nil {
+			t.Fatal(err)
+		}
+		booleanCheckValid(t, mp)
+		areas[k] = booleanArea(mp)
+	}
+	return areas[0], areas[1], areas[2], areas[3], areas[4]
+}
+
+func TestBooleanOperations(t *testing.T) {
+	// Small integer-ish shapes: the areas are shoelace sums of a few terms
+	// of size ≤ 16, exact to well below 1e-12.
+	const tol = 1e-12
+	cases := []struct {
+		name string
+		a, b orb.MultiPolygon
+	}{
+		{"triangle across two squares", orb.MultiPolygon{bRect(0, 0, 2, 2), bRect(3, 0, 4, 1)}, orb.MultiPolygon{bPoly(1, -1, 3.5, 0.5, 1, 3)}},
+		{"b inside a", orb.MultiPolygon{bRect(0, 0, 4, 4)}, orb.MultiPolygon{bRect(1, 1, 2, 2)}},
+		{"disjoint", orb.MultiPolygon{bRect(0, 0, 1, 1)}, orb.MultiPolygon{bRect(2, 2, 3, 3)}},
+		{"equal", orb.MultiPolygon{bRect(0, 0, 1, 1)}, orb.MultiPolygon{bRect(0, 0, 1, 1)}},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			aa, ab, ai, ad, au := booleanOpAreas(t, c.a, c.b)
+			if math.Abs(ad+ai-aa) > tol || math.Abs(au-(aa+ab-ai)) > tol {
+				t.Errorf("A=%v B=%v A∩B=%v A−B=%v A∪B=%v", aa, ab, ai, ad, au)
+			}
+		})
+	}
+}
+
+func TestSiteAreaDropsStraightVertices(t *testing.T) {
+	var area orb.MultiPolygon
+	for i := 0; i < 3; i++ {
+		for j := 0; j < 3; j++ {
+			area = append(area, bRect(float64(i), float64(j), float64(i+1), float64(j+1)))
+		}
+	}
+	reg, st, err := SiteArea(area, nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	mp := reg.MultiPolygon()
+	if len(mp) != 1 || len(mp[0]) != 1 || len(mp[0][0]) != 5 || st.AreaParts != 1 {
+		t.Errorf("3×3 parcels gave %v (%+v), want one square of 4 corners", mp, st)
+	}
+}
