@@ -99,6 +99,14 @@ func AbortWrites() {
 	}
 }
 
+// Interrupted reports whether AbortWrites has been called in this process:
+// a write that failed since then failed because of it.
+func Interrupted() bool {
+	active.mu.Lock()
+	defer active.mu.Unlock()
+	return active.aborted
+}
+
 // errAborted is returned by writes after AbortWrites.
 var errAborted = errors.New("interrupted")
 

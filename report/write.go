@@ -104,6 +104,9 @@ func (w *writer) writeAll(steps []step) error {
 	for i := range steps {
 		if errs[i] != nil {
 			w.set.abort()
+			if Interrupted() {
+				return errAborted // the files went with the staging folder
+			}
 			return errs[i]
 		}
 	}

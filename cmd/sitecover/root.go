@@ -79,6 +79,11 @@ func run(args []string, stdout, stderr io.Writer) (code int) {
 	root.SetOut(stdout)
 	root.SetErr(stderr)
 	err := root.Execute()
+	if err != nil && report.Interrupted() {
+		// Ctrl-C removed the files being written: the signal handler
+		// (main.go) prints the one line and exits; wait for it.
+		select {}
+	}
 	if err != nil {
 		fmt.Fprintln(stderr, errorLine(err))
 	}
