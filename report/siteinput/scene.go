@@ -125,7 +125,11 @@ func Load(in Inputs) (*Scene, error) {
 
 	t1 := time.Now()
 	sc.Sites = sites.Pts
-	if !in.Planar {
+	if in.Planar {
+		if err := degreesInPlanar(inputFiles(in), allInputPoints(sc, sites, polys)); err != nil {
+			return nil, err
+		}
+	} else {
 		if err := sc.project(in, sites, polys); err != nil {
 			return nil, err
 		}
@@ -145,6 +149,9 @@ func Load(in Inputs) (*Scene, error) {
 		if len(hull) < 3 {
 			return nil, errorf("%s: the sites are all on one line (or fewer than 3 distinct), so they enclose no area: give the site area with --area", in.Sites.Name)
 		}
+		if err := sliverHull(in.Sites.Name, hull, sc.Sites); err != nil {
+			return nil, err
+		}
 		mp = orb.MultiPolygon{{hull}}
 		names = [][]string{{in.Sites.Name + ": convex hull of the sites"}}
 		sc.AreaFromHull = true
@@ -160,6 +167,11 @@ func Load(in Inputs) (*Scene, error) {
 	if err != nil {
 		return nil, regionError(err, names)
 	}
+	if !sc.AreaFromHull {
+		if err := tinyArea(inputFiles(in), region.Area(), sc.Sites); err != nil {
+			return nil, err
+		}
+	}
 	sc.Region = region
 	sc.Warnings = append(sc.Warnings, siteWarnings(sc.Sites, sites.Names, region)...)
 	sc.Timings = append(sc.Timings, coverage.Timing{Phase: "build area", Seconds: time.Since(t2).Seconds()})
@@ -169,29 +181,8 @@ func Load(in Inputs) (*Scene, error) {
 // project fits the local plane to every input, checks its scale error and
 // replaces all coordinates by plane metres.
 func (sc *Scene) project(in Inputs, sites *siteSet, polys []areaPoly) error {
-	all := make([]orb.Point, 0, len(sites.Pts)+64)
-	all = append(all, sites.Pts...)
-	for _, p := range polys {
-		for _, r := range p.Rings {
-			all = append(all, r...)
-		}
-	}
-	files := in.Sites.Name
-	if in.Area != nil {
-		files += ", " + in.Area.Name
-	}
-	if in.Exclude != nil {
-		files += ", " + in.Exclude.Name
-	}
-	for _, extra := range []struct {
-		it  *Items
-		src *Source
-	}{{sc.Candidates, in.Candidates}, {sc.Demand, in.Points}} {
-		if extra.it != nil {
-			all = append(all, extra.it.allVertices()...)
-			files += ", " + extra.src.Name
-		}
-	}
+	all := allInputPoints(sc, sites, polys)
+	files := inputFiles(in)
 	b, err := planar.LonLatBound(all)
 	if err != nil {
 		return errorf("%s: %v", files, err)
@@ -225,6 +216,36 @@ func (sc *Scene) project(in Inputs, sites *siteSet, polys []areaPoly) error {
 		}
 	}
 	return nil
+}
+
+// allInputPoints returns every input position: sites, area vertices and
+// the planning items' points and vertices.
+func allInputPoints(sc *Scene, sites *siteSet, polys []areaPoly) []orb.Point {
+	all := make([]orb.Point, 0, len(sites.Pts)+64)
+	all = append(all, sites.Pts...)
+	for _, p := range polys {
+		for _, r := range p.Rings {
+			all = append(all, r...)
+		}
+	}
+	for _, it := range []*Items{sc.Candidates, sc.Demand} {
+		if it != nil {
+			all = append(all, it.allVertices()...)
+		}
+	}
+	return all
+}
+
+// inputFiles lists the names of the given inputs, for messages about all
+// of them.
+func inputFiles(in Inputs) string {
+	files := in.Sites.Name
+	for _, s := range []*Source{in.Area, in.Exclude, in.Candidates, in.Points} {
+		if s != nil {
+			files += ", " + s.Name
+		}
+	}
+	return files
 }
 
 // meanRadiusKm is the IUGG mean Earth radius R₁ (Moritz, "Geodetic

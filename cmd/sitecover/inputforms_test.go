@@ -1,0 +1,49 @@
+// Input forms of issue 11 at the command line: wrong answers that must be
+// refused (degrees read as metres, sliver hulls, an area in other units),
+// and the file forms planners export (CSV header names, encodings,
+// projected grids, the antimeridian cut). Each refusal is one line, exit 1.
+
+package main
+
+import (
+	"path/filepath"
+	"testing"
+)
+
+func TestWrongAnswersRefused(t *testing.T) {
+	dir := t.TempDir()
+	w := func(name, content string) string { return writeFile(t, dir, name, content) }
+	// A GIS export of a WGS84 layer: X, Y columns in degrees.
+	degXY := w("degxy.csv", "X,Y,name\n13.404954,52.520008,a\n13.410500,52.522100,b\n13.401200,52.525300,c\n")
+	// Three devices along one street, 1e-4 m off a straight line.
+	street := w("street.csv", "x,y\n0,0\n100,0.0001\n200,0\n")
+	// The same in lon/lat: 200 m along a parallel, the middle one 1.1 mm off.
+	streetLL := w("streetll.csv", "lat,lon\n52.52,13.40\n52.52000001,13.4015\n52.52,13.403\n")
+	// Sites in metres, area in degrees.
+	sitesM := w("sitesm.csv", "x,y\n0,0\n100,0\n0,100\n100,100\n")
+	areaDeg := w("areadeg.geojson", `{"type":"Polygon","coordinates":[[[13.40,52.52],[13.41,52.52],[13.41,52.53],[13.40,52.53],[13.40,52.52]]]}`)
+	an := func(extra ...string) []string {
+		return append([]string{"analyze", "--range", "100m", "--no-maps", "--out", filepath.Join(dir, "out")}, extra...)
+	}
+	cases := []failureCase{
+		{"planar with degrees in X,Y", an("--planar", "--sites", degXY), 1, []string{"degxy.csv: with --planar the coordinates are metres", "longitude/latitude degrees", "drop --planar"}},
+		{"nearly collinear planar sites", an("--planar", "--sites", street), 1, []string{"street.csv: the sites lie (nearly) on one line", "--area"}},
+		{"nearly collinear lon/lat sites", an("--sites", streetLL), 1, []string{"streetll.csv: the sites lie (nearly) on one line", "--area"}},
+		{"area tiny against the sites", an("--planar", "--sites", sitesM, "--area", areaDeg), 1, []string{"areadeg.geojson: the site area is 0.0001 m²", "not in the same units"}},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			checkFailure(t, runCLI(t, c.args...), c.code, c.want)
+		})
+	}
+	// A street with devices on both sides (20 m across 1 km) is a site.
+	wide := w("widestreet.csv", "x,y\n0,0\n500,20\n1000,0\n")
+	for _, c := range []struct {
+		name string
+		args []string
+	}{
+		{"street 20 m wide", an("--planar", "--sites", wide)},
+	} {
+		t.Run(c.name, func(t *testing.T) { mustRun(t, c.args...) })
+	}
+}
