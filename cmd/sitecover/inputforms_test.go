@@ -6,8 +6,11 @@
 package main
 
 import (
+	"os"
 	"path/filepath"
+	"strings"
 	"testing"
+	"unicode/utf8"
 )
 
 func TestWrongAnswersRefused(t *testing.T) {
@@ -45,5 +48,38 @@ func TestWrongAnswersRefused(t *testing.T) {
 		{"street 20 m wide", an("--planar", "--sites", wide)},
 	} {
 		t.Run(c.name, func(t *testing.T) { mustRun(t, c.args...) })
+	}
+}
+
+func TestWindows1252CSV(t *testing.T) {
+	// A European spreadsheet export: ';', decimal comma, Windows-1252
+	// names (ä = E4, ü = FC, € = 80, invalid as UTF-8).
+	dir := t.TempDir()
+	sites := writeFile(t, dir, "sites.csv", "name;lat;lon\nGeb\xe4ude S\xfcd;52,5200;13,4000\nM\xfchle;52,5210;13,4010\nKiosk \x80;52,5205;13,4020\n")
+	out := filepath.Join(dir, "out")
+	r := mustRun(t, "analyze", "--sites", sites, "--range", "50m", "--no-maps", "--out", out)
+	if !strings.Contains(r.stderr, "read as Windows-1252") {
+		t.Errorf("no encoding warning on stderr: %q", r.stderr)
+	}
+	ents, err := os.ReadDir(out)
+	if err != nil {
+		t.Fatal(err)
+	}
+	found := false
+	for _, e := range ents {
+		if e.IsDir() {
+			continue
+		}
+		b, err := os.ReadFile(filepath.Join(out, e.Name()))
+		if err != nil {
+			t.Fatal(err)
+		}
+		if !utf8.Valid(b) {
+			t.Errorf("%s: not valid UTF-8", e.Name())
+		}
+		found = found || strings.Contains(string(b), "Gebäude Süd") && strings.Contains(string(b), "Kiosk €")
+	}
+	if !found {
+		t.Error("no output holds the decoded names \"Gebäude Süd\" and \"Kiosk €\"")
 	}
 }

@@ -75,8 +75,8 @@ type Scene struct {
 	// Title is the name of the first area polygon to cover that has one,
 	// else the sites file's base name without its extension.
 	Title string
-	// Warnings are problems that do not stop a run: sites outside the
-	// area, repeated sites, exclusion zones that were ignored or dropped.
+	// Warnings are problems that do not stop a run: an input that was not
+	// UTF-8 and was decoded (see decodeText), sites outside the area, repeated sites, exclusion zones that were ignored or dropped.
 	Warnings []string
 	// Timings holds the wall time of reading, projecting and building the
 	// area.
@@ -87,6 +87,10 @@ type Scene struct {
 // is an *Error naming the file and the place in it.
 func Load(in Inputs) (*Scene, error) {
 	t0 := time.Now()
+	textWarn, err := decodeInputs(&in)
+	if err != nil {
+		return nil, err
+	}
 	sites, err := loadSites(in.Sites, in.Planar)
 	if err != nil {
 		return nil, err
@@ -109,7 +113,7 @@ func Load(in Inputs) (*Scene, error) {
 		}
 		polys = append(polys, p...)
 	}
-	sc := &Scene{Names: sites.Names}
+	sc := &Scene{Names: sites.Names, Warnings: textWarn}
 	if in.Candidates != nil {
 		if sc.Candidates, err = loadItems(*in.Candidates, in.Planar, candidateKind); err != nil {
 			return nil, err
@@ -176,6 +180,36 @@ func Load(in Inputs) (*Scene, error) {
 	sc.Warnings = append(sc.Warnings, siteWarnings(sc.Sites, sites.Names, region)...)
 	sc.Timings = append(sc.Timings, coverage.Timing{Phase: "build area", Seconds: time.Since(t2).Seconds()})
 	return sc, nil
+}
+
+// decodeInputs makes every input valid UTF-8 (decodeText) and returns the
+// warnings about the inputs that had to be decoded.
+func decodeInputs(in *Inputs) ([]string, error) {
+	var warn []string
+	decode := func(s Source) (Source, error) {
+		d, w, err := decodeText(s)
+		if w != "" {
+			warn = append(warn, w)
+		}
+		return d, err
+	}
+	var err error
+	if in.Sites, err = decode(in.Sites); err != nil {
+		return nil, err
+	}
+	// The optional inputs are copied, never changed where the caller
+	// keeps them.
+	for _, p := range []**Source{&in.Area, &in.Exclude, &in.Candidates, &in.Points} {
+		if *p == nil {
+			continue
+		}
+		d, err := decode(**p)
+		if err != nil {
+			return nil, err
+		}
+		*p = &d
+	}
+	return warn, nil
 }
 
 // project fits the local plane to every input, checks its scale error and
