@@ -25,6 +25,10 @@ func TestWrongAnswersRefused(t *testing.T) {
 	// Sites in metres, area in degrees.
 	sitesM := w("sitesm.csv", "x,y\n0,0\n100,0\n0,100\n100,100\n")
 	areaDeg := w("areadeg.geojson", `{"type":"Polygon","coordinates":[[[13.40,52.52],[13.41,52.52],[13.41,52.53],[13.40,52.53],[13.40,52.52]]]}`)
+	// Twelve sites in Berlin, line 9 written longitude first.
+	swapped := w("swapped.csv", "name,lat,lon\n"+
+		"a,52.520,13.400\nb,52.521,13.401\nc,52.522,13.402\nd,52.523,13.400\ne,52.524,13.401\nf,52.525,13.402\n"+
+		"g,52.526,13.400\nh,13.401,52.527\ni,52.528,13.402\nj,52.529,13.400\nk,52.530,13.401\nl,52.531,13.402\n")
 	an := func(extra ...string) []string {
 		return append([]string{"analyze", "--range", "100m", "--no-maps", "--out", filepath.Join(dir, "out")}, extra...)
 	}
@@ -32,6 +36,7 @@ func TestWrongAnswersRefused(t *testing.T) {
 		{"planar with degrees in X,Y", an("--planar", "--sites", degXY), 1, []string{"degxy.csv: with --planar the coordinates are metres", "longitude/latitude degrees", "drop --planar"}},
 		{"nearly collinear planar sites", an("--planar", "--sites", street), 1, []string{"street.csv: the sites lie (nearly) on one line", "--area"}},
 		{"nearly collinear lon/lat sites", an("--sites", streetLL), 1, []string{"streetll.csv: the sites lie (nearly) on one line", "--area"}},
+		{"one site with latitude and longitude swapped", an("--sites", swapped), 1, []string{`swapped.csv line 9 ("h") lies 55`, "latitude and longitude swapped?", "correct or remove it"}},
 		{"area tiny against the sites", an("--planar", "--sites", sitesM, "--area", areaDeg), 1, []string{"areadeg.geojson: the site area is 0.0001 m²", "not in the same units"}},
 	}
 	for _, c := range cases {

@@ -177,7 +177,7 @@ func pointsFromCSV(src Source, planarInput, withWeight bool) (s *siteSet, weight
 	}
 	decimalComma := comma != ','
 	need := max(l.xi, l.yi, l.wkt, l.weight) + 1
-	s = &siteSet{}
+	s = &siteSet{Lines: true}
 	for {
 		rec, err := r.Read()
 		if err == io.EOF {
@@ -208,6 +208,7 @@ func pointsFromCSV(src Source, planarInput, withWeight bool) (s *siteSet, weight
 			name = strings.TrimSpace(rec[l.name])
 		}
 		s.Names = append(s.Names, name)
+		s.Src = append(s.Src, int32(line))
 		if l.weight >= 0 {
 			w, err := csvWeight(rec[l.weight], decimalComma)
 			if err != nil {

@@ -216,8 +216,11 @@ func coordProblem(planarInput bool, x, y float64) string {
 		return "latitude is infinite"
 	}
 	hint := ""
-	if math.Abs(x) > 1000 || math.Abs(y) > 1000 {
+	switch {
+	case math.Abs(x) > 1000 || math.Abs(y) > 1000:
 		hint = " (local metres? add --planar)"
+	case math.Abs(x) <= 90 && math.Abs(y) <= 180:
+		hint = fmt.Sprintf(" (latitude and longitude swapped? read the other way round, latitude %s and longitude %s are valid; GeoJSON positions are [longitude, latitude])", fmtCoord(x), fmtCoord(y))
 	}
 	if x < -180 || x > 180 {
 		return fmt.Sprintf("longitude %s is outside -180..180%s", fmtCoord(x), hint)

@@ -226,6 +226,14 @@ func (sc *Scene) project(in Inputs, sites *siteSet, polys []areaPoly) error {
 		return errorf("%s: %v", files, err)
 	}
 	if err := tm.CheckExtent(b); err != nil {
+		if far, n := farInputs(in.Sites.Name, sites, polys); n > 0 {
+			them := "it"
+			if n > 1 {
+				them = "them"
+			}
+			return errorf("%s; correct or remove %s (with %[2]s the inputs span an %s)", far, them,
+				strings.TrimSuffix(extentMessage(tm, b), "; split the site"))
+		}
 		return errorf("%s: %s", files, extentMessage(tm, b))
 	}
 	sc.MaxScaleError = tm.MaxScaleError(b)

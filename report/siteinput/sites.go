@@ -28,6 +28,22 @@ type siteSet struct {
 	Pts []orb.Point
 	// Names holds a name per site ("" for none).
 	Names []string
+	// Src holds per site its CSV line (1-based) or GeoJSON feature
+	// (0-based), for messages; Lines tells which.
+	Src   []int32
+	Lines bool
+}
+
+// label names site i in messages: "line 7" or "feature 3", with its name.
+func (s *siteSet) label(i int) string {
+	w := fmt.Sprintf("feature %d", s.Src[i])
+	if s.Lines {
+		w = fmt.Sprintf("line %d", s.Src[i])
+	}
+	if s.Names[i] != "" {
+		w += fmt.Sprintf(" (%q)", s.Names[i])
+	}
+	return w
 }
 
 // loadSites reads sites from src (GeoJSON or CSV).
@@ -73,11 +89,15 @@ func sitesFromGeoJSON(src Source, planarInput bool) (*siteSet, error) {
 			if x, y, ok := fastPosition(f.Geometry.Coordinates); ok && coordProblem(planarInput, x, y) == "" {
 				s.Pts = append(s.Pts, orb.Point{x, y})
 				s.Names = append(s.Names, name)
+				s.Src = append(s.Src, int32(i))
 				continue
 			}
 		}
 		if err := s.addGeometry(src, fmt.Sprintf("feature %d", i), f.Geometry, name, planarInput); err != nil {
 			return nil, err
+		}
+		for len(s.Src) < len(s.Pts) {
+			s.Src = append(s.Src, int32(i))
 		}
 	}
 	return s, nil
