@@ -88,3 +88,36 @@ func TestWindows1252CSV(t *testing.T) {
 		t.Error("no output holds the decoded names \"Gebäude Süd\" and \"Kiosk €\"")
 	}
 }
+
+func TestProjectedCLI(t *testing.T) {
+	dir := t.TempDir()
+	w := func(name, content string) string { return writeFile(t, dir, name, content) }
+	// Munich in UTM 32N: sites as CSV Easting/Northing, area as GeoJSON
+	// with a GeoJSON 2008 crs member.
+	sites := w("utm.csv", "Easting,Northing,name\n691000,5335000,a\n691100,5335000,b\n691000,5335100,c\n")
+	area := w("utm.geojson", `{"type":"FeatureCollection","crs":{"type":"name","properties":{"name":"urn:ogc:def:crs:EPSG::32632"}},"features":[`+
+		`{"type":"Feature","properties":{},"geometry":{"type":"Polygon","coordinates":[[[690900,5334900],[691200,5334900],[691200,5335200],[690900,5335200],[690900,5334900]]]}}]}`)
+	out := filepath.Join(dir, "out")
+	mustRun(t, "analyze", "--crs", "EPSG:32632", "--sites", sites, "--area", area, "--range", "150m", "--no-maps", "--out", out)
+	b, err := os.ReadFile(filepath.Join(out, "summary.json"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	// The site area is 300 m × 300 m of grid, 90 000 m² / k² on the
+	// ground (k = 1.00005 here, see report/siteinput TestProjectedInputs).
+	if !strings.Contains(string(b), `"area_m2": 89991`) && !strings.Contains(string(b), `"area_m2": 89990`) {
+		i := strings.Index(string(b), "area_m2")
+		t.Errorf("summary.json area: %s", string(b)[i:min(len(b), i+40)])
+	}
+	an := func(extra ...string) []string {
+		return append([]string{"analyze", "--range", "100m", "--no-maps", "--out", filepath.Join(dir, "o2")}, extra...)
+	}
+	cases := []failureCase{
+		{"unsupported --crs", an("--crs", "EPSG:27700", "--sites", sites), 2, []string{"--crs: coordinate reference system EPSG:27700 is not supported", "25828", "SWEREF99"}},
+		{"--crs with --planar", an("--crs", "EPSG:32632", "--planar", "--sites", sites), 2, []string{"--crs", "--planar", "give one of them"}},
+		{"Easting/Northing without --crs", an("--sites", sites), 1, []string{"utm.csv line 1: needs lat and lon columns", "--crs EPSG:NNNN"}},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) { checkFailure(t, runCLI(t, c.args...), c.code, c.want) })
+	}
+}

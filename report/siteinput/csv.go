@@ -14,11 +14,12 @@
 //	weight       weight (demand points only)
 //
 // Geographic input (the default) reads lat and lon; without them a WKT
-// column holds "POINT (lon lat)" (other x/y columns are then ignored). x/y and easting/northing are metres: local
-// metres with --planar, a projected grid with a coordinate reference
-// system; geographic input without lat/lon refuses them with that advice.
-// Planar input reads x/y (or easting/northing, POINT_X/POINT_Y), else a WKT
-// column.
+// column holds "POINT (lon lat)" (other x/y columns are then ignored).
+// x/y and easting/northing are metres: local metres with --planar, a
+// projected grid with --crs (and longitude/latitude with --crs EPSG:4326);
+// geographic input without lat/lon refuses them with that advice. Planar
+// and grid input read x/y (or easting/northing, POINT_X/POINT_Y), else a
+// WKT column.
 //
 // The delimiter is the one of ',', ';' and TAB that occurs most often in the
 // header line; with ';' or TAB a decimal comma is accepted. A first line of
@@ -126,7 +127,7 @@ func csvHeader(src Source, header []string, planarInput, withWeight bool) (*csvL
 	default:
 		hint := ""
 		if hasX && hasY {
-			hint = fmt.Sprintf("; %s/%s are metres: for x/y in local metres add --planar", header[col["x"]], header[col["y"]])
+			hint = fmt.Sprintf("; %s/%s are metres: for x/y in local metres add --planar, for a projected grid give --crs EPSG:NNNN (for longitude/latitude in x/y: --crs EPSG:4326)", header[col["x"]], header[col["y"]])
 		}
 		return nil, errorf("%s line 1: needs lat and lon columns, found %s%s (%s)", src.Name, quoteList(found), hint, acceptedColumns)
 	}

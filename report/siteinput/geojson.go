@@ -218,7 +218,7 @@ func coordProblem(planarInput bool, x, y float64) string {
 	hint := ""
 	switch {
 	case math.Abs(x) > 1000 || math.Abs(y) > 1000:
-		hint = " (local metres? add --planar)"
+		hint = " (local metres? add --planar; a projected grid? give --crs EPSG:NNNN)"
 	case math.Abs(x) <= 90 && math.Abs(y) <= 180:
 		hint = fmt.Sprintf(" (latitude and longitude swapped? read the other way round, latitude %s and longitude %s are valid; GeoJSON positions are [longitude, latitude])", fmtCoord(x), fmtCoord(y))
 	}

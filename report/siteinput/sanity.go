@@ -87,7 +87,7 @@ func degreesInPlanar(files string, pts []orb.Point) error {
 	if !ok {
 		return nil
 	}
-	return errorf("%s: with --planar the coordinates are metres, but these span only %.3g × %.3g around x %.6g, y %.6g, as longitude/latitude degrees do: they are probably WGS84 lon/lat (drop --planar; x/X/POINT_X is read as longitude, y as latitude) or a projected grid (give --crs EPSG:NNNN)",
+	return errorf("%s: with --planar the coordinates are metres, but these span only %.3g × %.3g around x %.6g, y %.6g, as longitude/latitude degrees do: they are probably WGS84 longitude/latitude: drop --planar and give --crs EPSG:4326 (x read as longitude, y as latitude)",
 		files, b.Max[0]-b.Min[0], b.Max[1]-b.Min[1], b.Center()[0], b.Center()[1])
 }
 

@@ -46,6 +46,11 @@ type Inputs struct {
 	// Planar is true when the coordinates are local metres (x, y), not
 	// longitude/latitude.
 	Planar bool
+	// CRS names the coordinate reference system ("EPSG:32632", see
+	// ParseCRS) of every CSV input without lat/lon columns and every
+	// GeoJSON input without a "crs" member; "" for WGS84
+	// longitude/latitude. It excludes Planar.
+	CRS string
 }
 
 // Scene is the inputs in the local plane, ready for package coverage.
@@ -78,6 +83,10 @@ type Scene struct {
 	// Warnings are problems that do not stop a run: an input that was not
 	// UTF-8 and was decoded (see decodeText), sites outside the area, repeated sites, exclusion zones that were ignored or dropped.
 	Warnings []string
+	// Converted says which inputs were converted from a projected system
+	// to WGS84 longitude/latitude, e.g. "sites.csv: EPSG:32632 (WGS 84 /
+	// UTM zone 32N) converted to WGS84 longitude/latitude".
+	Converted []string
 	// Timings holds the wall time of reading, projecting and building the
 	// area.
 	Timings []coverage.Timing
@@ -91,37 +100,84 @@ func Load(in Inputs) (*Scene, error) {
 	if err != nil {
 		return nil, err
 	}
-	sites, err := loadSites(in.Sites, in.Planar)
+	var def *CRS
+	if strings.TrimSpace(in.CRS) != "" {
+		if in.Planar {
+			return nil, errorf("--crs names a coordinate reference system, --planar says local metres: give one of them")
+		}
+		if def, err = ParseCRS(in.CRS); err != nil {
+			return nil, errorf("--crs: %v", err)
+		}
+	}
+	// Each input is read in its own system and converted to WGS84
+	// longitude/latitude (see crs.go).
+	sc := &Scene{Warnings: textWarn}
+	system := func(src Source) (*CRS, bool, error) {
+		c, err := sourceCRS(src, def, in.Planar)
+		if c != nil {
+			sc.Converted = append(sc.Converted, src.Name+": "+c.Label()+" converted to WGS84 longitude/latitude")
+		}
+		return c, in.Planar || c != nil, err
+	}
+	c, metric, err := system(in.Sites)
 	if err != nil {
 		return nil, err
 	}
-	var polys []areaPoly
-	if in.Area != nil {
-		p, err := loadArea(*in.Area, in.Planar, false)
-		if err != nil {
+	sites, err := loadSites(in.Sites, metric)
+	if err != nil {
+		return nil, err
+	}
+	if c != nil {
+		if err := c.convertSites(in.Sites.Name, sites); err != nil {
 			return nil, err
 		}
-		polys = append(polys, p...)
 	}
-	if in.Exclude != nil {
-		p, err := loadArea(*in.Exclude, in.Planar, true)
-		if err != nil {
-			return nil, err
+	sc.Names = sites.Names
+	var polys []areaPoly
+	for _, a := range []struct {
+		src     *Source
+		exclude bool
+	}{{in.Area, false}, {in.Exclude, true}} {
+		if a.src == nil {
+			continue
 		}
 		if in.Area == nil {
 			return nil, errorf("--exclude needs --area: exclusion zones are cut out of a given area")
 		}
-		polys = append(polys, p...)
-	}
-	sc := &Scene{Names: sites.Names, Warnings: textWarn}
-	if in.Candidates != nil {
-		if sc.Candidates, err = loadItems(*in.Candidates, in.Planar, candidateKind); err != nil {
+		c, metric, err := system(*a.src)
+		if err != nil {
 			return nil, err
 		}
-	}
-	if in.Points != nil {
-		if sc.Demand, err = loadItems(*in.Points, in.Planar, demandKind); err != nil {
+		p, err := loadArea(*a.src, metric, a.exclude)
+		if err != nil {
 			return nil, err
+		}
+		if c != nil {
+			if err := c.convertPolys(a.src.Name, p); err != nil {
+				return nil, err
+			}
+		}
+		polys = append(polys, p...)
+	}
+	for _, it := range []struct {
+		src  *Source
+		dst  **Items
+		kind pointKind
+	}{{in.Candidates, &sc.Candidates, candidateKind}, {in.Points, &sc.Demand, demandKind}} {
+		if it.src == nil {
+			continue
+		}
+		c, metric, err := system(*it.src)
+		if err != nil {
+			return nil, err
+		}
+		if *it.dst, err = loadItems(*it.src, metric, it.kind); err != nil {
+			return nil, err
+		}
+		if c != nil {
+			if err := c.convertItems(it.src.Name, *it.dst); err != nil {
+				return nil, err
+			}
 		}
 	}
 	sc.Title = defaultTitle(in, polys)
