@@ -294,23 +294,24 @@ func (sc *Scene) project(in Inputs, sites *siteSet, polys []areaPoly) error {
 	}
 	sc.MaxScaleError = tm.MaxScaleError(b)
 	sc.Projection = tm
+	f := newLonFrame(tm, b)
 	pts := make([]orb.Point, len(sites.Pts))
 	for i, p := range sites.Pts {
-		x, y := tm.Forward(p[0], p[1])
+		x, y := f.forward(p[0], p[1])
 		pts[i] = orb.Point{x, y}
 	}
 	sc.Sites = pts
 	for _, p := range polys {
 		for _, r := range p.Rings {
 			for k, q := range r {
-				x, y := tm.Forward(q[0], q[1])
+				x, y := f.forward(q[0], q[1])
 				r[k] = orb.Point{x, y}
 			}
 		}
 	}
 	for _, it := range []*Items{sc.Candidates, sc.Demand} {
 		if it != nil {
-			it.transform(tm.Forward)
+			it.transform(f.forward)
 		}
 	}
 	return nil
