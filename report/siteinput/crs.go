@@ -50,6 +50,7 @@ import (
 	"fmt"
 	"math"
 	"regexp"
+	"slices"
 	"strconv"
 	"strings"
 
@@ -326,7 +327,13 @@ func (c *CRS) convertPolys(name string, polys []areaPoly) error {
 	if err := c.degreesInGrid(name, all); err != nil {
 		return err
 	}
-	for _, p := range polys {
+	for i := range polys {
+		p := &polys[i]
+		p.CRS = c
+		p.Grid = make([]orb.Ring, len(p.Rings))
+		for k, r := range p.Rings {
+			p.Grid[k] = slices.Clone(r)
+		}
 		for k, r := range p.Rings {
 			for v, q := range r {
 				ll, problem := c.toLonLat(q[0], q[1])

@@ -83,6 +83,18 @@ type Scene struct {
 	// Warnings are problems that do not stop a run: an input that was not
 	// UTF-8 and was decoded (see decodeText), sites outside the area, repeated sites, exclusion zones that were ignored or dropped.
 	Warnings []string
+	// EdgeAreaError bounds the relative difference between the area of
+	// the densified, projected area polygons and the area of the polygons
+	// the files mean, whose edges are straight in longitude/latitude (RFC
+	// 7946 §3.1.1) or in the input's grid (densify.go); 0 for planar input
+	// and for the convex hull.
+	EdgeAreaError float64
+	// AreaRelError bounds the relative difference between the site area in
+	// the local plane and its area on the WGS84 ellipsoid: (1 + m)² − 1 for
+	// the point scale k within 1 ± m (m = MaxScaleError) plus
+	// EdgeAreaError. 0 for planar input.
+	AreaRelError float64
+	edgeArea     float64 // the absolute bound behind EdgeAreaError, m²
 	// Converted says which inputs were converted from a projected system
 	// to WGS84 longitude/latitude, e.g. "sites.csv: EPSG:32632 (WGS 84 /
 	// UTM zone 32N) converted to WGS84 longitude/latitude".
@@ -225,12 +237,19 @@ func Load(in Inputs) (*Scene, error) {
 	}
 	region, err := planar.NewRegion(mp)
 	if err != nil {
-		return nil, regionError(err, names)
+		return nil, regionError(err, names, ringOrigins(mp, polys))
 	}
 	if !sc.AreaFromHull {
 		if err := tinyArea(inputFiles(in), region.Area(), sc.Sites); err != nil {
 			return nil, err
 		}
+	}
+	if sc.Projection != nil {
+		if a := region.Area(); a > 0 {
+			sc.EdgeAreaError = sc.edgeArea / a
+		}
+		m := sc.MaxScaleError
+		sc.AreaRelError = (1+m)*(1+m) - 1 + sc.EdgeAreaError
 	}
 	sc.Region = region
 	sc.Warnings = append(sc.Warnings, siteWarnings(sc.Sites, sites.Names, region)...)
@@ -301,14 +320,7 @@ func (sc *Scene) project(in Inputs, sites *siteSet, polys []areaPoly) error {
 		pts[i] = orb.Point{x, y}
 	}
 	sc.Sites = pts
-	for _, p := range polys {
-		for _, r := range p.Rings {
-			for k, q := range r {
-				x, y := f.forward(q[0], q[1])
-				r[k] = orb.Point{x, y}
-			}
-		}
-	}
+	sc.edgeArea = densifyPolys(polys, f)
 	for _, it := range []*Items{sc.Candidates, sc.Demand} {
 		if it != nil {
 			it.transform(f.forward)
