@@ -112,85 +112,10 @@ func Load(in Inputs) (*Scene, error) {
 	if err != nil {
 		return nil, err
 	}
-	var def *CRS
-	if strings.TrimSpace(in.CRS) != "" {
-		if in.Planar {
-			return nil, errorf("--crs names a coordinate reference system, --planar says local metres: give one of them")
-		}
-		if def, err = ParseCRS(in.CRS); err != nil {
-			return nil, errorf("--crs: %v", err)
-		}
-	}
-	// Each input is read in its own system and converted to WGS84
-	// longitude/latitude (see crs.go).
 	sc := &Scene{Warnings: textWarn}
-	system := func(src Source) (*CRS, bool, error) {
-		c, err := sourceCRS(src, def, in.Planar)
-		if c != nil {
-			sc.Converted = append(sc.Converted, src.Name+": "+c.Label()+" converted to WGS84 longitude/latitude")
-		}
-		return c, in.Planar || c != nil, err
-	}
-	c, metric, err := system(in.Sites)
+	sites, polys, err := sc.read(in)
 	if err != nil {
 		return nil, err
-	}
-	sites, err := loadSites(in.Sites, metric)
-	if err != nil {
-		return nil, err
-	}
-	if c != nil {
-		if err := c.convertSites(in.Sites.Name, sites); err != nil {
-			return nil, err
-		}
-	}
-	sc.Names = sites.Names
-	var polys []areaPoly
-	for _, a := range []struct {
-		src     *Source
-		exclude bool
-	}{{in.Area, false}, {in.Exclude, true}} {
-		if a.src == nil {
-			continue
-		}
-		if in.Area == nil {
-			return nil, errorf("--exclude needs --area: exclusion zones are cut out of a given area")
-		}
-		c, metric, err := system(*a.src)
-		if err != nil {
-			return nil, err
-		}
-		p, err := loadArea(*a.src, metric, a.exclude)
-		if err != nil {
-			return nil, err
-		}
-		if c != nil {
-			if err := c.convertPolys(a.src.Name, p); err != nil {
-				return nil, err
-			}
-		}
-		polys = append(polys, p...)
-	}
-	for _, it := range []struct {
-		src  *Source
-		dst  **Items
-		kind pointKind
-	}{{in.Candidates, &sc.Candidates, candidateKind}, {in.Points, &sc.Demand, demandKind}} {
-		if it.src == nil {
-			continue
-		}
-		c, metric, err := system(*it.src)
-		if err != nil {
-			return nil, err
-		}
-		if *it.dst, err = loadItems(*it.src, metric, it.kind); err != nil {
-			return nil, err
-		}
-		if c != nil {
-			if err := c.convertItems(it.src.Name, *it.dst); err != nil {
-				return nil, err
-			}
-		}
 	}
 	sc.Title = defaultTitle(in, polys)
 	sc.Timings = append(sc.Timings, coverage.Timing{Phase: "read inputs", Seconds: time.Since(t0).Seconds()})
@@ -255,6 +180,91 @@ func Load(in Inputs) (*Scene, error) {
 	sc.Warnings = append(sc.Warnings, siteWarnings(sc.Sites, sites.Names, region)...)
 	sc.Timings = append(sc.Timings, coverage.Timing{Phase: "build area", Seconds: time.Since(t2).Seconds()})
 	return sc, nil
+}
+
+// read reads every input, each in its own coordinate system (see crs.go),
+// converting projected ones to WGS84 longitude/latitude; it sets the
+// scene's names, planning items and Converted.
+func (sc *Scene) read(in Inputs) (*siteSet, []areaPoly, error) {
+	var err error
+	var def *CRS
+	if strings.TrimSpace(in.CRS) != "" {
+		if in.Planar {
+			return nil, nil, errorf("--crs names a coordinate reference system, --planar says local metres: give one of them")
+		}
+		if def, err = ParseCRS(in.CRS); err != nil {
+			return nil, nil, errorf("--crs: %v", err)
+		}
+	}
+	system := func(src Source) (*CRS, bool, error) {
+		c, err := sourceCRS(src, def, in.Planar)
+		if c != nil {
+			sc.Converted = append(sc.Converted, src.Name+": "+c.Label()+" converted to WGS84 longitude/latitude")
+		}
+		return c, in.Planar || c != nil, err
+	}
+	c, metric, err := system(in.Sites)
+	if err != nil {
+		return nil, nil, err
+	}
+	sites, err := loadSites(in.Sites, metric)
+	if err != nil {
+		return nil, nil, err
+	}
+	if c != nil {
+		if err := c.convertSites(in.Sites.Name, sites); err != nil {
+			return nil, nil, err
+		}
+	}
+	sc.Names = sites.Names
+	var polys []areaPoly
+	for _, a := range []struct {
+		src     *Source
+		exclude bool
+	}{{in.Area, false}, {in.Exclude, true}} {
+		if a.src == nil {
+			continue
+		}
+		if in.Area == nil {
+			return nil, nil, errorf("--exclude needs --area: exclusion zones are cut out of a given area")
+		}
+		c, metric, err := system(*a.src)
+		if err != nil {
+			return nil, nil, err
+		}
+		p, err := loadArea(*a.src, metric, a.exclude)
+		if err != nil {
+			return nil, nil, err
+		}
+		if c != nil {
+			if err := c.convertPolys(a.src.Name, p); err != nil {
+				return nil, nil, err
+			}
+		}
+		polys = append(polys, p...)
+	}
+	for _, it := range []struct {
+		src  *Source
+		dst  **Items
+		kind pointKind
+	}{{in.Candidates, &sc.Candidates, candidateKind}, {in.Points, &sc.Demand, demandKind}} {
+		if it.src == nil {
+			continue
+		}
+		c, metric, err := system(*it.src)
+		if err != nil {
+			return nil, nil, err
+		}
+		if *it.dst, err = loadItems(*it.src, metric, it.kind); err != nil {
+			return nil, nil, err
+		}
+		if c != nil {
+			if err := c.convertItems(it.src.Name, *it.dst); err != nil {
+				return nil, nil, err
+			}
+		}
+	}
+	return sites, polys, nil
 }
 
 // decodeInputs makes every input valid UTF-8 (decodeText) and returns the
