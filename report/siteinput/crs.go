@@ -116,52 +116,49 @@ func ParseCRS(s string) (*CRS, error) {
 	return nil, fmt.Errorf("coordinate reference system EPSG:%d is not supported (supported: %s; convert other grids to one of these or to WGS84 longitude/latitude first)", code, SupportedCRS)
 }
 
+// tmGrid is the transverse Mercator definition of a national grid.
+type tmGrid struct {
+	name                   string
+	lon0, lat0, k0, fe, fn float64
+}
+
+// nationalGrids are the supported grids other than the UTM zones, all on
+// GRS80 (parameters: see the file comment).
+var nationalGrids = map[int]tmGrid{
+	4647: {"ETRS89 / UTM zone 32N (zE-N)", 9, 0, 0.9996, 32500000, 0},
+	5650: {"ETRS89 / UTM zone 33N (zE-N)", 15, 0, 0.9996, 33500000, 0},
+	3006: {"SWEREF99 TM", 15, 0, 0.9996, 500000, 0},
+	3067: {"ETRS89 / TM35FIN(E,N)", 27, 0, 0.9996, 500000, 0},
+	2193: {"NZGD2000 / New Zealand Transverse Mercator 2000", 173, 0, 0.9996, 1600000, 10000000},
+	2180: {"ETRS89 / Poland CS92", 19, 0, 0.9993, 500000, -5300000},
+	3763: {"ETRS89 / Portugal TM06", -(8 + 7.0/60 + 59.19/3600), 39 + 40.0/60 + 5.73/3600, 1, 0, 0},
+}
+
 // epsg returns the definition of a supported EPSG code, else nil.
 func epsg(code int) *CRS {
-	tm := func(e planar.Ellipsoid, lon0, lat0, k0, fe, fn float64) *planar.TransverseMercator {
-		return planar.NewTransverseMercator(e, lon0, lat0, k0, fe, fn)
-	}
 	c := &CRS{Code: "EPSG:" + strconv.Itoa(code)}
+	utm := func(name string, e planar.Ellipsoid, zone int, fn float64) {
+		c.Name = fmt.Sprintf(name, zone)
+		c.TM = planar.NewTransverseMercator(e, float64(6*zone-183), 0, 0.9996, 500000, fn)
+	}
 	switch {
 	case code == 4326:
 		c.Name = "WGS 84 longitude/latitude"
 	case code == 4258:
 		c.Name = "ETRS89 longitude/latitude"
 	case code >= 32601 && code <= 32660:
-		z := code - 32600
-		c.Name = fmt.Sprintf("WGS 84 / UTM zone %dN", z)
-		c.TM = tm(planar.WGS84, float64(6*z-183), 0, 0.9996, 500000, 0)
+		utm("WGS 84 / UTM zone %dN", planar.WGS84, code-32600, 0)
 	case code >= 32701 && code <= 32760:
-		z := code - 32700
-		c.Name = fmt.Sprintf("WGS 84 / UTM zone %dS", z)
-		c.TM = tm(planar.WGS84, float64(6*z-183), 0, 0.9996, 500000, 10000000)
+		utm("WGS 84 / UTM zone %dS", planar.WGS84, code-32700, 10000000)
 	case code >= 25828 && code <= 25838:
-		z := code - 25800
-		c.Name = fmt.Sprintf("ETRS89 / UTM zone %dN", z)
-		c.TM = tm(GRS80, float64(6*z-183), 0, 0.9996, 500000, 0)
-	case code == 4647:
-		c.Name = "ETRS89 / UTM zone 32N (zE-N)"
-		c.TM = tm(GRS80, 9, 0, 0.9996, 32500000, 0)
-	case code == 5650:
-		c.Name = "ETRS89 / UTM zone 33N (zE-N)"
-		c.TM = tm(GRS80, 15, 0, 0.9996, 33500000, 0)
-	case code == 3006:
-		c.Name = "SWEREF99 TM"
-		c.TM = tm(GRS80, 15, 0, 0.9996, 500000, 0)
-	case code == 3067:
-		c.Name = "ETRS89 / TM35FIN(E,N)"
-		c.TM = tm(GRS80, 27, 0, 0.9996, 500000, 0)
-	case code == 2193:
-		c.Name = "NZGD2000 / New Zealand Transverse Mercator 2000"
-		c.TM = tm(GRS80, 173, 0, 0.9996, 1600000, 10000000)
-	case code == 2180:
-		c.Name = "ETRS89 / Poland CS92"
-		c.TM = tm(GRS80, 19, 0, 0.9993, 500000, -5300000)
-	case code == 3763:
-		c.Name = "ETRS89 / Portugal TM06"
-		c.TM = tm(GRS80, -(8 + 7.0/60 + 59.19/3600), 39+40.0/60+5.73/3600, 1, 0, 0)
+		utm("ETRS89 / UTM zone %dN", GRS80, code-25800, 0)
 	default:
-		return nil
+		g, ok := nationalGrids[code]
+		if !ok {
+			return nil
+		}
+		c.Name = g.name
+		c.TM = planar.NewTransverseMercator(GRS80, g.lon0, g.lat0, g.k0, g.fe, g.fn)
 	}
 	return c
 }

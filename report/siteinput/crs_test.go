@@ -89,13 +89,7 @@ func TestCRSLive(t *testing.T) {
 	if os.Getenv("SITECOVER_LIVE") != "1" {
 		t.Skip("set SITECOVER_LIVE=1 to re-run testdata/ref_crs.py (needs /usr/bin/python3 and proj-bin: projinfo, cs2cs)")
 	}
-	out := filepath.Join(t.TempDir(), "crs_ref.json")
-	seed := fmt.Sprint(time.Now().UnixNano() % 1000000007)
-	cmd := exec.Command("/usr/bin/python3", filepath.Join("testdata", "ref_crs.py"), "--seed", seed, "--points", "4", "--out", out)
-	if b, err := cmd.CombinedOutput(); err != nil {
-		t.Fatalf("ref_crs.py --seed %s: %v\n%s", seed, err, b)
-	}
-	t.Logf("seed %s", seed)
+	out := runRefScript(t, "ref_crs.py", "--points", "4")
 	checkCRSRef(t, out)
 }
 
@@ -193,4 +187,22 @@ func TestProjectedInputs(t *testing.T) {
 			}
 		})
 	}
+}
+
+// runRefScript runs testdata/<script> with a fresh seed (SITECOVER_SEED
+// overrides it) and the extra arguments, and returns the path of the
+// reference JSON it wrote.
+func runRefScript(t *testing.T, script string, args ...string) string {
+	t.Helper()
+	out := filepath.Join(t.TempDir(), "ref.json")
+	seed := fmt.Sprint(time.Now().UnixNano() % 1000000007)
+	if s := os.Getenv("SITECOVER_SEED"); s != "" {
+		seed = s
+	}
+	args = append([]string{"-B", filepath.Join("testdata", script), "--seed", seed, "--out", out}, args...)
+	if b, err := exec.Command("/usr/bin/python3", args...).CombinedOutput(); err != nil {
+		t.Fatalf("%s --seed %s: %v\n%s", script, seed, err, b)
+	}
+	t.Logf("seed %s", seed)
+	return out
 }

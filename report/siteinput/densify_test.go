@@ -10,11 +10,9 @@ import (
 	"fmt"
 	"math"
 	"os"
-	"os/exec"
 	"path/filepath"
 	"strings"
 	"testing"
-	"time"
 )
 
 // areasRef is testdata/areas_ref.json (written by testdata/ref_areas.py).
@@ -99,15 +97,6 @@ func TestAreasLive(t *testing.T) {
 	if os.Getenv("SITECOVER_LIVE") != "1" {
 		t.Skip("set SITECOVER_LIVE=1 to re-run testdata/ref_areas.py (needs /usr/bin/python3 and geographiclib-tools: Planimeter)")
 	}
-	out := filepath.Join(t.TempDir(), "areas_ref.json")
-	seed := fmt.Sprint(time.Now().UnixNano() % 1000000007)
-	if s := os.Getenv("SITECOVER_SEED"); s != "" {
-		seed = s
-	}
-	cmd := exec.Command("/usr/bin/python3", filepath.Join("testdata", "ref_areas.py"), "--seed", seed, "--random", "20", "--out", out)
-	if b, err := cmd.CombinedOutput(); err != nil {
-		t.Fatalf("ref_areas.py --seed %s: %v\n%s", seed, err, b)
-	}
-	t.Logf("seed %s", seed)
+	out := runRefScript(t, "ref_areas.py", "--random", "20")
 	checkAreasRef(t, out, false)
 }

@@ -21,12 +21,12 @@ Usage: /usr/bin/python3 ref_areas.py [--seed N] [--random K] [--out FILE]
 """
 
 import argparse
-import json
 import math
 import os
 import random
-import re
 import subprocess
+
+import refjson  # this folder
 
 DEFAULT_SEED = 7946
 HERE = os.path.dirname(os.path.abspath(__file__))
@@ -98,15 +98,10 @@ def main():
     opt = ap.parse_args()
     rng = random.Random(opt.seed)
     cases = fixed() if opt.random == 0 else [random_poly(rng) for _ in range(opt.random)]
-    ver = subprocess.run(["Planimeter", "--version"], capture_output=True, text=True)
     data = {"generator": "report/siteinput/testdata/ref_areas.py", "seed": opt.seed,
-            "planimeter": (ver.stdout + ver.stderr).strip(), "pieces_per_edge": N,
+            "planimeter": refjson.tool_version(["Planimeter", "--version"]), "pieces_per_edge": N,
             "cases": [case(n, r) for n, r in cases]}
-    text = json.dumps(data, indent=1)
-    text = re.sub(r"\[\s*([-0-9.eE+,\s]+?)\s*\]",
-                  lambda m: "[" + ", ".join(v.strip() for v in m.group(1).split(",")) + "]", text)
-    with open(opt.out, "w") as f:
-        f.write(text + "\n")
+    refjson.write(data, opt.out)
 
 
 if __name__ == "__main__":

@@ -17,11 +17,12 @@ Usage: /usr/bin/python3 ref_crs.py [--seed N] [--points K] [--out FILE]
 """
 
 import argparse
-import json
 import os
 import random
 import re
 import subprocess
+
+import refjson  # this folder
 
 DEFAULT_SEED = 32632  # fixed seed for the committed data
 HERE = os.path.dirname(os.path.abspath(__file__))
@@ -85,9 +86,8 @@ def main():
     ap.add_argument("--out", default=os.path.join(HERE, "crs_ref.json"))
     opt = ap.parse_args()
     rng = random.Random(opt.seed)
-    ver = subprocess.run(["cs2cs"], capture_output=True, text=True)
     data = {"generator": "report/siteinput/testdata/ref_crs.py", "seed": opt.seed,
-            "proj": (ver.stdout + ver.stderr).strip().splitlines()[0], "codes": []}
+            "proj": refjson.tool_version(["cs2cs"]), "codes": []}
     for code, (lo0, lo1), (la0, la1) in codes():
         proj, geo = proj_def(code)
         pts = [(wrap(rng.uniform(lo0, lo1)), rng.uniform(la0, la1)) for _ in range(opt.points)]
@@ -96,11 +96,7 @@ def main():
         data["codes"].append({"code": code, "proj": proj,
                               "forward": [[p[0], p[1], q[0], q[1]] for p, q in zip(pts, en)],
                               "inverse": [[q[0], q[1], r[0], r[1]] for q, r in zip(en, ll)]})
-    text = json.dumps(data, indent=1)
-    text = re.sub(r"\[\s*([-0-9.eE+,\s]+?)\s*\]",
-                  lambda m: "[" + ", ".join(v.strip() for v in m.group(1).split(",")) + "]", text)
-    with open(opt.out, "w") as f:
-        f.write(text + "\n")
+    refjson.write(data, opt.out)
 
 
 if __name__ == "__main__":
