@@ -10,6 +10,7 @@ import (
 	"path/filepath"
 	"strings"
 	"testing"
+	"time"
 	"unicode/utf8"
 )
 
@@ -119,5 +120,31 @@ func TestProjectedCLI(t *testing.T) {
 	}
 	for _, c := range cases {
 		t.Run(c.name, func(t *testing.T) { checkFailure(t, runCLI(t, c.args...), c.code, c.want) })
+	}
+}
+
+func TestTinyCoordinatesRefusedAtOnce(t *testing.T) {
+	// Issue 14: subnormal and 1e-300 m coordinates hung or took minutes;
+	// they are refused while reading, and so is a site under 1 mm.
+	dir := t.TempDir()
+	w := func(name, content string) string { return writeFile(t, dir, name, content) }
+	an := func(extra ...string) []string {
+		return append([]string{"analyze", "--range", "1m", "--no-maps", "--out", filepath.Join(dir, "out")}, extra...)
+	}
+	cases := []failureCase{
+		{"subnormal", an("--planar", "--sites", w("sub.csv", "x,y\n0,0\n5e-324,0\n0,5e-324\n")), 1, []string{"sub.csv line 3: x 5e-324 m is not 0 but below 1e-30"}},
+		{"1e-300 m", an("--planar", "--sites", w("e300.csv", "x,y\n1e-300,0\n2e-300,0\n0,1e-300\n")), 1, []string{"e300.csv line 2: x 1e-300 m is not 0 but below 1e-30"}},
+		{"1e-160 m", an("--planar", "--sites", w("e160.csv", "x,y\n0,0\n1e-160,0\n0,1e-160\n")), 1, []string{"e160.csv line 3: x 1e-160 m"}},
+		{"subnormal degrees", an("--sites", w("subdeg.csv", "lat,lon\n0,0\n0,5e-324\n1e-310,0\n")), 1, []string{"subdeg.csv line 3: longitude 5e-324 is not 0 but below 1e-30"}},
+		{"site under 1 mm", an("--planar", "--sites", w("um.csv", "x,y\n0,0\n0.00001,0\n0,0.00001\n")), 1, []string{"um.csv: the inputs span only 1e-05 m × 1e-05 m, less than 0.001 m"}},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			t0 := time.Now()
+			checkFailure(t, runCLI(t, c.args...), c.code, c.want)
+			if d := time.Since(t0); d > 2*time.Second {
+				t.Errorf("refused after %v, want within 2 s", d)
+			}
+		})
 	}
 }

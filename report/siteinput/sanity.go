@@ -18,6 +18,10 @@
 //     diagonal of the sites) is a millionth of the sites' spread squared: a
 //     100 m campus would have to be under 1 cm² for this to trigger, while
 //     an area in degrees against sites in metres gives ratios below 1e-9.
+//   - Extent. All inputs together (in plane metres) must span at least
+//     minInputExtent = 1 mm: below that nothing a device serves can be told
+//     apart, and sizes near the bottom of the float64 range (1e-160 m)
+//     make the exact geometry crawl through underflowing expansions.
 //   - Degrees in planar mode. Every coordinate lies within ±180 (x) and ±90
 //     (y), the data span at most planarDegreesMaxSpan units and lie at least
 //     planarDegreesOffset spans from the origin. Longitude/latitude of a
@@ -131,4 +135,33 @@ func fmtLen(d float64) string {
 		return fmt.Sprintf("%.4g km", d/1000)
 	}
 	return fmt.Sprintf("%.3g m", d)
+}
+
+// minInputExtent is the least span of all inputs together, in metres
+// (file comment).
+const minInputExtent = 1e-3
+
+// tooSmall refuses inputs that together span less than minInputExtent in
+// the plane (sites, area and planning items).
+func tooSmall(files string, sc *Scene, polys []areaPoly) error {
+	b := boundOf(sc.Sites)
+	for _, p := range polys {
+		for _, r := range p.Rings {
+			for _, q := range r {
+				b = b.Extend(q)
+			}
+		}
+	}
+	for _, it := range []*Items{sc.Candidates, sc.Demand} {
+		if it != nil {
+			for _, q := range it.allVertices() {
+				b = b.Extend(q)
+			}
+		}
+	}
+	w, h := b.Max[0]-b.Min[0], b.Max[1]-b.Min[1]
+	if math.Max(w, h) >= minInputExtent {
+		return nil
+	}
+	return errorf("%s: the inputs span only %.3g m × %.3g m, less than %g m: no site is that small (check the units)", files, w, h, minInputExtent)
 }

@@ -132,6 +132,9 @@ func Load(in Inputs) (*Scene, error) {
 		}
 		sc.Timings = append(sc.Timings, coverage.Timing{Phase: "project", Seconds: time.Since(t1).Seconds()})
 	}
+	if err := tooSmall(inputFiles(in), sc, polys); err != nil {
+		return nil, err
+	}
 	if sc.Demand != nil {
 		if err := sc.Demand.finish(in.Points.Name); err != nil {
 			return nil, err
