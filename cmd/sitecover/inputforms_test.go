@@ -148,3 +148,33 @@ func TestTinyCoordinatesRefusedAtOnce(t *testing.T) {
 		})
 	}
 }
+
+func TestGarbageRefusedAtOnce(t *testing.T) {
+	// Issue 14: /dev/zero and a large file of NUL bytes are refused with
+	// one line in well under two seconds, without reading them.
+	dir := t.TempDir()
+	zeros := filepath.Join(dir, "zeros.geojson")
+	if err := os.WriteFile(zeros, []byte(`{"type":"FeatureCollection","features":[`), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	if err := os.Truncate(zeros, 3<<30); err != nil { // sparse: no disk used
+		t.Fatal(err)
+	}
+	an := func(extra ...string) []string {
+		return append([]string{"analyze", "--range", "1m", "--no-maps", "--out", filepath.Join(dir, "out")}, extra...)
+	}
+	cases := []failureCase{
+		{"/dev/zero", an("--sites", "/dev/zero"), 1, []string{"/dev/zero: not GeoJSON or CSV (binary data): a NUL byte at offset 0"}},
+		{"3 GiB file, NUL bytes after a header", an("--sites", zeros), 1, []string{"zeros.geojson: not GeoJSON or CSV (binary data): a NUL byte at offset 40"}},
+		{"/dev/zero as area", an("--sites", writeFile(t, dir, "ok.csv", "lat,lon\n52.5,13.4\n52.6,13.5\n52.5,13.6\n"), "--area", "/dev/zero"), 1, []string{"/dev/zero: not GeoJSON or CSV (binary data)"}},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			t0 := time.Now()
+			checkFailure(t, runCLI(t, c.args...), c.code, c.want)
+			if d := time.Since(t0); d > 2*time.Second {
+				t.Errorf("refused after %v, want within 2 s", d)
+			}
+		})
+	}
+}

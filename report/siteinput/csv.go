@@ -152,17 +152,7 @@ func numericLine(fields []string) bool {
 // column); an empty or bad weight field is an error naming its line.
 func pointsFromCSV(src Source, planarInput, withWeight bool) (s *siteSet, weights []float64, err error) {
 	data := src.Data
-	firstLine := data
-	if i := bytes.IndexByte(data, '\n'); i >= 0 {
-		firstLine = data[:i]
-	}
-	comma := ','
-	best := bytes.Count(firstLine, []byte{','})
-	for _, c := range []rune{';', '\t'} {
-		if n := bytes.Count(firstLine, []byte(string(c))); n > best {
-			comma, best = c, n
-		}
-	}
+	comma := csvDelimiter(data)
 	r := csv.NewReader(bytes.NewReader(data))
 	r.Comma = comma
 	r.FieldsPerRecord = -1
@@ -219,6 +209,23 @@ func pointsFromCSV(src Source, planarInput, withWeight bool) (s *siteSet, weight
 		}
 	}
 	return s, weights, nil
+}
+
+// csvDelimiter is the one of ',', ';' and TAB that occurs most often in
+// the first line.
+func csvDelimiter(data []byte) rune {
+	firstLine := data
+	if i := bytes.IndexByte(data, '\n'); i >= 0 {
+		firstLine = data[:i]
+	}
+	comma := ','
+	best := bytes.Count(firstLine, []byte{','})
+	for _, c := range []rune{';', '\t'} {
+		if n := bytes.Count(firstLine, []byte(string(c))); n > best {
+			comma, best = c, n
+		}
+	}
+	return comma
 }
 
 // position reads the coordinates of one record.
