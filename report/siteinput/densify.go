@@ -70,30 +70,60 @@ type edgeMap func(x, y float64) (float64, float64)
 type densifier struct {
 	delta float64
 	m     edgeMap
-	area  float64 // Σ (2/3)·s·h·densifyAreaSafety over the pieces
+	// lonLat is true when the input coordinates are longitude/latitude
+	// (the cheap curvature bound applies; see shortEdge).
+	lonLat bool
+	area   float64 // Σ (2/3)·s·h·densifyAreaSafety over the pieces
+}
+
+// minCurvatureRadius is below every radius of curvature of the WGS84 and
+// GRS80 ellipsoids (the least, meridional at the equator, is 6 335 439 m),
+// for the curvature bound of shortEdge.
+const minCurvatureRadius = 6.335e6
+
+// shortEdge reports whether the lon/lat-straight edge between input points
+// p and q (plane chord length s) surely stays within δ/4 of its chord, and
+// then returns its sagitta bound. The curvature of a lon/lat line in the
+// plane is at most that of the parallel through its farthest-from-the-
+// equator point, tan φ/N, plus the scale gradient of the local plane, which
+// is below 1/N; twice their sum bounds it with room to spare, so
+// h ≤ s²·2(|tan φ| + 1)/(8·minCurvatureRadius). Most edges of a detailed
+// outline pass this test and cost no extra projection.
+func (d *densifier) shortEdge(p, q orb.Point, s float64) (float64, bool) {
+	if !d.lonLat {
+		return 0, false
+	}
+	lat := math.Max(math.Abs(p[1]), math.Abs(q[1]))
+	if lat >= 89.9 {
+		return 0, false
+	}
+	h := s * s * 2 * (math.Tan(lat*math.Pi/180) + 1) / (8 * minCurvatureRadius)
+	return h, h <= d.delta/4
 }
 
 // ring densifies an input ring (closed or open, input coordinates) and
 // returns the projected ring and, per vertex, the input vertex index that
 // starts its edge.
 func (d *densifier) ring(r orb.Ring) (orb.Ring, []int32) {
-	out := make(orb.Ring, 0, len(r)+8)
-	orig := make([]int32, 0, len(r)+8)
 	n := len(r)
+	proj := make(orb.Ring, n)
+	for i, p := range r {
+		proj[i][0], proj[i][1] = d.m(p[0], p[1])
+	}
+	out := make(orb.Ring, 0, n+8)
+	orig := make([]int32, 0, n+8)
 	for i := 0; i < n; i++ {
-		p := r[i]
-		x, y := d.m(p[0], p[1])
-		out = append(out, orb.Point{x, y})
+		out = append(out, proj[i])
 		orig = append(orig, int32(i))
 		if i == n-1 && r[0] == r[n-1] {
 			break // the closing repeat ends the ring
 		}
-		q := r[(i+1)%n]
-		if p == q {
+		j := (i + 1) % n
+		if r[i] == r[j] {
 			continue
 		}
 		k := len(out)
-		d.edge(p, q, &out)
+		d.edge(r[i], r[j], proj[i], proj[j], &out)
 		for range len(out) - k {
 			orig = append(orig, int32(i))
 		}
@@ -101,19 +131,22 @@ func (d *densifier) ring(r orb.Ring) (orb.Ring, []int32) {
 	return out, orig
 }
 
-// edge appends the projected interior points of the edge p→q to out. The
-// points are computed from the edge in a canonical direction (the lesser
-// endpoint first), so the two copies of a shared edge get identical
-// points.
-func (d *densifier) edge(p, q orb.Point, out *orb.Ring) {
+// edge appends the projected interior points of the edge p→q (P, Q their
+// projections) to out. The points are computed from the edge in a
+// canonical direction (the lesser endpoint first), so the two copies of a
+// shared edge get identical points.
+func (d *densifier) edge(p, q, P, Q orb.Point, out *orb.Ring) {
+	s := math.Hypot(Q[0]-P[0], Q[1]-P[1])
+	if h, ok := d.shortEdge(p, q, s); ok {
+		d.area += 2.0 / 3 * s * h * densifyAreaSafety
+		return
+	}
 	rev := q[0] < p[0] || q[0] == p[0] && q[1] < p[1]
 	if rev {
-		p, q = q, p
+		p, q, P, Q = q, p, Q, P
 	}
 	var pts orb.Ring
-	px, py := d.m(p[0], p[1])
-	qx, qy := d.m(q[0], q[1])
-	d.piece(p, q, orb.Point{px, py}, orb.Point{qx, qy}, 0, &pts)
+	d.piece(p, q, P, Q, 0, &pts)
 	if rev {
 		slices.Reverse(pts)
 	}
@@ -179,6 +212,7 @@ func densifyPolys(polys []areaPoly, f lonFrame) float64 {
 				}
 				d.m = lonlat
 			}
+			d.lonLat = p.CRS == nil
 			p.Rings[k], p.Orig[k] = d.ring(in)
 		}
 	}

@@ -9,10 +9,14 @@ import (
 	"encoding/json"
 	"fmt"
 	"math"
+	"math/rand/v2"
 	"os"
 	"path/filepath"
 	"strings"
 	"testing"
+
+	"github.com/paulmach/orb"
+	"github.com/sitecover/sitecover/planar"
 )
 
 // areasRef is testdata/areas_ref.json (written by testdata/ref_areas.py).
@@ -99,4 +103,42 @@ func TestAreasLive(t *testing.T) {
 	}
 	out := runRefScript(t, "ref_areas.py", "--random", "20")
 	checkAreasRef(t, out, false)
+}
+
+func TestShortEdgeBound(t *testing.T) {
+	// The cheap curvature bound of shortEdge must cover the deviation of
+	// every lon/lat-straight edge from its chord, measured in a local
+	// plane centred anywhere near the edge (random edges up to 20 km, any
+	// direction, latitudes up to 89.9°).
+	rng := rand.New(rand.NewPCG(11, 7946))
+	worst := 0.0
+	for i := range 20000 {
+		lat := rng.Float64()*179.8 - 89.9
+		lon := rng.Float64()*340 - 170
+		l := 20e3 * rng.Float64()
+		az := rng.Float64() * 2 * math.Pi
+		dlat := l * math.Cos(az) / 111e3
+		dlon := l * math.Sin(az) / (111e3 * math.Cos(lat*math.Pi/180))
+		p, q := orb.Point{lon, lat}, orb.Point{lon + dlon, math.Max(-89.95, math.Min(89.95, lat+dlat))}
+		b := orb.Bound{Min: p, Max: p}.Extend(q)
+		tm := planar.NewTransverseMercator(planar.WGS84, b.Center()[0]+(rng.Float64()-0.5)*2, b.Center()[1], 1, 0, 0)
+		d := &densifier{delta: densifyMaxDeviation, m: tm.Forward, lonLat: true}
+		var P, Q, M orb.Point
+		P[0], P[1] = tm.Forward(p[0], p[1])
+		Q[0], Q[1] = tm.Forward(q[0], q[1])
+		M[0], M[1] = tm.Forward((p[0]+q[0])/2, (p[1]+q[1])/2)
+		s := math.Hypot(Q[0]-P[0], Q[1]-P[1])
+		h, _ := d.shortEdge(p, q, s)
+		if math.Max(math.Abs(p[1]), math.Abs(q[1])) >= 89.9 {
+			continue
+		}
+		dev := chordDistance(P, Q, M)
+		if dev > h+1e-9 {
+			t.Fatalf("case %d: edge %v-%v (%.0f m): deviation %.3g m above the bound %.3g m", i, p, q, s, dev, h)
+		}
+		if h > 0 {
+			worst = math.Max(worst, dev/h)
+		}
+	}
+	t.Logf("largest deviation / bound: %.3g", worst)
 }
