@@ -125,12 +125,17 @@ func earlyCheck(src Source, complete bool) error {
 	if !complete {
 		data = data[:start] // complete lines only
 	}
-	return csvPrefixCheck(Source{Name: src.Name, Data: data})
+	if len(bytes.TrimSpace(data)) == 0 {
+		return nil
+	}
+	return csvPrefixCheck(Source{Name: src.Name, Data: data}, complete)
 }
 
 // csvPrefixCheck checks complete CSV lines: a coordinate column in the
-// header, valid quoting, and a coordinate in each data line.
-func csvPrefixCheck(src Source) error {
+// header, valid quoting, and a coordinate in each data line. In a prefix
+// (complete false) a quoting error may be a quoted field that goes on past
+// the prefix, so it ends the check instead of refusing.
+func csvPrefixCheck(src Source, complete bool) error {
 	r := csv.NewReader(bytes.NewReader(src.Data))
 	r.Comma = csvDelimiter(src.Data)
 	r.FieldsPerRecord = -1
@@ -158,6 +163,9 @@ func csvPrefixCheck(src Source) error {
 			return nil
 		}
 		if err != nil {
+			if !complete {
+				return nil
+			}
 			return csvError(src, err)
 		}
 		line, _ := r.FieldPos(0)
