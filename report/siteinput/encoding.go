@@ -10,6 +10,9 @@
 //   - a UTF-16 byte order mark (FF FE or FE FF) selects UTF-16 LE/BE,
 //     decoded with a warning;
 //   - valid UTF-8 is kept as it is;
+//   - UTF-8 with some invalid bytes (it has valid multi-byte sequences as
+//     well) keeps its UTF-8 and has the invalid bytes replaced by U+FFFD,
+//     with a warning;
 //   - anything else is decoded as Windows-1252 (a superset of ISO 8859-1
 //     in the printable range) with a warning naming the first line that is
 //     not UTF-8. Windows-1252 leaves five byte values undefined (81, 8D,
@@ -43,6 +46,12 @@ func decodeText(src Source) (Source, string, error) {
 	case utf8.Valid(b):
 		src.Data = b
 		return src, "", nil
+	case hasUTF8Sequence(b):
+		// UTF-8 with a few bad bytes: decoding it all as Windows-1252
+		// would garble every correct accented letter.
+		src.Data = bytes.ToValidUTF8(b, []byte("\uFFFD"))
+		return src, src.Name + ": not valid UTF-8 at line " + strconv.Itoa(firstInvalidLine(b)) +
+			"; the invalid bytes are replaced by U+FFFD (the rest is UTF-8); check the names in the outputs", nil
 	default:
 		dec = charmap.Windows1252.NewDecoder()
 		what = "Windows-1252, the usual European spreadsheet export (line " + strconv.Itoa(firstInvalidLine(b)) + " is not UTF-8)"
@@ -74,4 +83,23 @@ func firstInvalidLine(b []byte) int {
 		i += n
 	}
 	return line
+}
+
+// hasUTF8Sequence reports whether b holds a valid multi-byte UTF-8
+// sequence: text with one is UTF-8 (Windows-1252 text almost never forms
+// one: it would need a lead byte such as Ã followed by a symbol from
+// 80–BF hex).
+func hasUTF8Sequence(b []byte) bool {
+	for i := 0; i < len(b); {
+		if b[i] < utf8.RuneSelf {
+			i++
+			continue
+		}
+		r, n := utf8.DecodeRune(b[i:])
+		if r != utf8.RuneError || n > 1 {
+			return true
+		}
+		i++
+	}
+	return false
 }

@@ -22,6 +22,7 @@ func TestTextEncodings(t *testing.T) {
 		{"UTF-8 byte order mark", "\xef\xbb\xbfname,lat,lon\nÅby,52.5,13.4\n", []string{"Åby"}, ""},
 		{"Windows-1252", "name;lat;lon\nGeb\xe4ude S\xfcd \x80;52,5;13,4\n", []string{"Gebäude Süd €"}, "s.csv: read as Windows-1252, the usual European spreadsheet export (line 2 is not UTF-8)"},
 		{"Windows-1252, undefined byte", "name,lat,lon\nx\x81y,52.5,13.4\n", []string{"x\uFFFDy"}, "bytes undefined in Windows-1252 are replaced by U+FFFD"},
+		{"UTF-8 with one bad byte", "name,lat,lon\nGebäude\xff,52.5,13.4\n", []string{"Gebäude\uFFFD"}, "s.csv: not valid UTF-8 at line 2; the invalid bytes are replaced by U+FFFD"},
 		{"UTF-16 LE", utf16le("\ufeffname,lat,lon\nÉcole,52.5,13.4\n"), []string{"École"}, "s.csv: read as UTF-16 (little-endian"},
 		{"UTF-16 BE", utf16be("\ufeffname,lat,lon\nÉcole,52.5,13.4\n"), []string{"École"}, "s.csv: read as UTF-16 (big-endian"},
 	}
