@@ -164,6 +164,7 @@ func noArgs(cmd *cobra.Command, args []string) error {
 type runFlags struct {
 	sites, area, exclude string
 	planar               bool
+	crs                  string
 	rangeText            string
 	out                  string
 	json                 bool
@@ -179,6 +180,7 @@ func (f *runFlags) addInputFlags(fs *pflag.FlagSet) {
 	fs.Var(newOnceString(&f.area, ""), "area", "site area: GeoJSON Polygon/MultiPolygon features; holes and features with \"exclude\": true need no coverage (default: the sites' convex hull)")
 	fs.Var(newOnceString(&f.exclude, ""), "exclude", "extra zones that need no coverage: GeoJSON polygons cut out of --area")
 	fs.BoolVar(&f.planar, "planar", false, "coordinates are already local metres (x east, y north), e.g. a site plan or CAD export")
+	fs.Var(newOnceString(&f.crs, ""), "crs", "coordinate reference system of CSV x/y (Easting/Northing) columns and of GeoJSON without a \"crs\" member, e.g. EPSG:32632 (UTM zones of WGS 84 and ETRS89, SWEREF99 TM, ETRS-TM35FIN, NZTM2000, Poland CS92, Portugal TM06; EPSG:4326 reads x/y as longitude/latitude); outputs stay WGS84")
 }
 
 // addOutputFlags registers the output flags.
@@ -216,7 +218,16 @@ func (f *runFlags) inputs() (siteinput.Inputs, error) {
 	}
 	var in siteinput.Inputs
 	var err error
+	if f.planar && f.crs != "" {
+		return in, usageErrorf("--crs names a coordinate reference system, --planar says local metres: give one of them")
+	}
 	in.Planar = f.planar
+	in.CRS = f.crs
+	if in.CRS != "" {
+		if _, err := siteinput.ParseCRS(in.CRS); err != nil {
+			return in, usageErrorf("--crs: %v", err)
+		}
+	}
 	if in.Sites, err = readSource(f.sites, "--sites"); err != nil {
 		return in, err
 	}

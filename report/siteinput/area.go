@@ -34,6 +34,14 @@ type areaPoly struct {
 	Exclude bool
 	// Name is the feature's "name" property ("" for none).
 	Name string
+	// Grid holds the rings in the grid coordinates of CRS when the input
+	// was in a projected system (Rings then hold them converted to
+	// longitude/latitude); the edges are straight in the grid.
+	Grid []orb.Ring
+	CRS  *CRS
+	// Orig holds, once the rings are densified and projected, per ring and
+	// vertex the input vertex index that starts its edge (densify.go).
+	Orig [][]int32
 }
 
 // loadArea reads the polygons of src. With excludeAll every polygon is an

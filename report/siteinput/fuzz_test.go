@@ -61,3 +61,35 @@ func FuzzLoadArea(f *testing.F) {
 		buildArea(polys)
 	})
 }
+
+// FuzzEarlyCheck: the early check of ReadFile refuses nothing the loader
+// accepts, whether it sees the whole file or only a prefix.
+//
+//	go test -run '^$' -fuzz '^FuzzEarlyCheck$' -fuzztime 20s ./report/siteinput
+func FuzzEarlyCheck(f *testing.F) {
+	f.Add([]byte("lat,lon\n1,2\n"), true, uint16(5))
+	f.Add([]byte("name;x;y\na;1,5;2\n\n"), true, uint16(9))
+	f.Add([]byte("WKT\n\"POINT (1 2)\"\n"), true, uint16(0))
+	f.Add([]byte(`{"type":"Point","coordinates":[1,2]}`), false, uint16(12))
+	f.Add(examplesites.SitesCSV(), true, uint16(300))
+	f.Add([]byte("name,lat,lon\n\"two\nlines\",1,2\n"), true, uint16(20))
+	f.Fuzz(func(t *testing.T, data []byte, csv bool, cut uint16) {
+		name := "s.geojson"
+		if csv {
+			name = "s.csv"
+		}
+		src := Source{Name: name, Data: data}
+		_, errG := loadSites(src, false)
+		_, errP := loadSites(src, true)
+		if errG != nil && errP != nil {
+			return
+		}
+		if err := earlyCheck(src, true); err != nil {
+			t.Fatalf("whole file refused early but loaded: %v", err)
+		}
+		n := min(int(cut), len(data))
+		if err := earlyCheck(Source{Name: name, Data: data[:n]}, false); err != nil {
+			t.Fatalf("prefix of %d bytes refused early but the file loads: %v", n, err)
+		}
+	})
+}

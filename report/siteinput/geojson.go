@@ -201,6 +201,8 @@ func coordProblem(planarInput bool, x, y float64) string {
 				return v.name + " is infinite"
 			case math.Abs(v.v) > maxPlanarCoord:
 				return fmt.Sprintf("%s %g m is beyond ±%g m: not local metres", v.name, v.v, maxPlanarCoord)
+			case v.v != 0 && math.Abs(v.v) < minCoordMagnitude:
+				return fmt.Sprintf("%s %g m is not 0 but below %g in magnitude: write 0, or check the units", v.name, v.v, minCoordMagnitude)
 			}
 		}
 		return ""
@@ -216,8 +218,11 @@ func coordProblem(planarInput bool, x, y float64) string {
 		return "latitude is infinite"
 	}
 	hint := ""
-	if math.Abs(x) > 1000 || math.Abs(y) > 1000 {
-		hint = " (local metres? add --planar)"
+	switch {
+	case math.Abs(x) > 1000 || math.Abs(y) > 1000:
+		hint = " (local metres? add --planar; a projected grid? give --crs EPSG:NNNN)"
+	case math.Abs(x) <= 90 && math.Abs(y) <= 180:
+		hint = fmt.Sprintf(" (latitude and longitude swapped? read the other way round, latitude %s and longitude %s are valid; GeoJSON positions are [longitude, latitude])", fmtCoord(x), fmtCoord(y))
 	}
 	if x < -180 || x > 180 {
 		return fmt.Sprintf("longitude %s is outside -180..180%s", fmtCoord(x), hint)
@@ -228,8 +233,25 @@ func coordProblem(planarInput bool, x, y float64) string {
 	if err := planar.ValidLonLat(x, y); err != nil {
 		return err.Error()
 	}
+	for _, v := range [...]struct {
+		name string
+		v    float64
+	}{{"longitude", x}, {"latitude", y}} {
+		if v.v != 0 && math.Abs(v.v) < minCoordMagnitude {
+			return fmt.Sprintf("%s %g is not 0 but below %g in magnitude: write 0", v.name, v.v, minCoordMagnitude)
+		}
+	}
 	return ""
 }
+
+// minCoordMagnitude is the least magnitude of a non-zero coordinate
+// (metres or degrees): 1e-30. Below it a value is noise or garbage (5e-324,
+// 1e-300), and the exact predicates, which square and multiply coordinate
+// differences up to the fourth degree, would underflow: differences of
+// coordinates that are 0 or at least 1e-30 are at least 1e-46 (the spacing
+// of doubles near 1e-30), whose fourth power 1e-184 is far above the
+// smallest normal double (2.2e-308).
+const minCoordMagnitude = 1e-30
 
 // maxPlanarCoord bounds local-plane coordinates: 20 000 km, half the
 // Earth's circumference; anything larger is not a site plan in metres.

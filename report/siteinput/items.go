@@ -218,18 +218,24 @@ func (it *Items) allVertices() []orb.Point {
 
 // transform maps every position and vertex in place.
 func (it *Items) transform(f func(x, y float64) (float64, float64)) {
-	for i, p := range it.Pts {
-		if it.Polys[i] == nil {
-			x, y := f(p[0], p[1])
-			it.Pts[i] = orb.Point{x, y}
-			continue
-		}
-		for _, poly := range it.Polys[i] {
-			for _, r := range poly {
-				for k, q := range r {
-					x, y := f(q[0], q[1])
-					r[k] = orb.Point{x, y}
-				}
+	for i := range it.Pts {
+		it.transformItem(i, f)
+	}
+}
+
+// transformItem maps the position of item i, or the vertices of its
+// polygon, in place.
+func (it *Items) transformItem(i int, f func(x, y float64) (float64, float64)) {
+	if it.Polys[i] == nil {
+		x, y := f(it.Pts[i][0], it.Pts[i][1])
+		it.Pts[i] = orb.Point{x, y}
+		return
+	}
+	for _, poly := range it.Polys[i] {
+		for _, r := range poly {
+			for k, q := range r {
+				x, y := f(q[0], q[1])
+				r[k] = orb.Point{x, y}
 			}
 		}
 	}

@@ -173,19 +173,33 @@ func buildArea(polys []areaPoly) (orb.MultiPolygon, [][]string, []string, error)
 	return mp, names, warn, nil
 }
 
-// regionRef matches the ring references of planar.NewRegion's messages.
-var regionRef = regexp.MustCompile(`polygon (\d+), ring (\d+)`)
+// regionRef matches the ring and vertex references of planar.NewRegion's
+// messages.
+var regionRef = regexp.MustCompile(`polygon (\d+), ring (\d+)|vertex (\d+)`)
 
 // regionError rewrites a planar.NewRegion error in terms of the inputs:
-// "polygon p, ring k" becomes the input name of that ring, and the
-// package prefix is dropped.
-func regionError(err error, names [][]string) error {
+// "polygon p, ring k" becomes the input name of that ring, a following
+// "vertex v" the input vertex (origs, from densification; nil: as is),
+// and the package prefix is dropped.
+func regionError(err error, names [][]string, origs [][][]int32) error {
 	msg := strings.TrimPrefix(err.Error(), "planar: NewRegion: ")
 	first := ""
+	var orig []int32 // the vertex map of the ring named last
 	msg = regionRef.ReplaceAllStringFunc(msg, func(m string) string {
 		sub := regionRef.FindStringSubmatch(m)
+		if sub[3] != "" {
+			v, _ := strconv.Atoi(sub[3])
+			if v < len(orig) {
+				return "vertex " + strconv.Itoa(int(orig[v]))
+			}
+			return m
+		}
 		p, _ := strconv.Atoi(sub[1])
 		k, _ := strconv.Atoi(sub[2])
+		orig = nil
+		if p < len(origs) && k < len(origs[p]) {
+			orig = origs[p][k]
+		}
 		if p >= len(names) || k >= len(names[p]) {
 			return m
 		}

@@ -46,6 +46,11 @@ type Inputs struct {
 	// Planar is true when the coordinates are local metres (x, y), not
 	// longitude/latitude.
 	Planar bool
+	// CRS names the coordinate reference system ("EPSG:32632", see
+	// ParseCRS) of every CSV input without lat/lon columns and every
+	// GeoJSON input without a "crs" member; "" for WGS84
+	// longitude/latitude. It excludes Planar.
+	CRS string
 }
 
 // Scene is the inputs in the local plane, ready for package coverage.
@@ -75,9 +80,25 @@ type Scene struct {
 	// Title is the name of the first area polygon to cover that has one,
 	// else the sites file's base name without its extension.
 	Title string
-	// Warnings are problems that do not stop a run: sites outside the
-	// area, repeated sites, exclusion zones that were ignored or dropped.
+	// Warnings are problems that do not stop a run: an input that was not
+	// UTF-8 and was decoded (see decodeText), sites outside the area, repeated sites, exclusion zones that were ignored or dropped.
 	Warnings []string
+	// EdgeAreaError bounds the relative difference between the area of
+	// the densified, projected area polygons and the area of the polygons
+	// the files mean, whose edges are straight in longitude/latitude (RFC
+	// 7946 §3.1.1) or in the input's grid (densify.go); 0 for planar input
+	// and for the convex hull.
+	EdgeAreaError float64
+	// AreaRelError bounds the relative difference between the site area in
+	// the local plane and its area on the WGS84 ellipsoid: (1 + m)² − 1 for
+	// the point scale k within 1 ± m (m = MaxScaleError) plus
+	// EdgeAreaError. 0 for planar input.
+	AreaRelError float64
+	edgeArea     float64 // the absolute bound behind EdgeAreaError, m²
+	// Converted says which inputs were converted from a projected system
+	// to WGS84 longitude/latitude, e.g. "sites.csv: EPSG:32632 (WGS 84 /
+	// UTM zone 32N) converted to WGS84 longitude/latitude".
+	Converted []string
 	// Timings holds the wall time of reading, projecting and building the
 	// area.
 	Timings []coverage.Timing
@@ -87,49 +108,32 @@ type Scene struct {
 // is an *Error naming the file and the place in it.
 func Load(in Inputs) (*Scene, error) {
 	t0 := time.Now()
-	sites, err := loadSites(in.Sites, in.Planar)
+	textWarn, err := decodeInputs(&in)
 	if err != nil {
 		return nil, err
 	}
-	var polys []areaPoly
-	if in.Area != nil {
-		p, err := loadArea(*in.Area, in.Planar, false)
-		if err != nil {
-			return nil, err
-		}
-		polys = append(polys, p...)
-	}
-	if in.Exclude != nil {
-		p, err := loadArea(*in.Exclude, in.Planar, true)
-		if err != nil {
-			return nil, err
-		}
-		if in.Area == nil {
-			return nil, errorf("--exclude needs --area: exclusion zones are cut out of a given area")
-		}
-		polys = append(polys, p...)
-	}
-	sc := &Scene{Names: sites.Names}
-	if in.Candidates != nil {
-		if sc.Candidates, err = loadItems(*in.Candidates, in.Planar, candidateKind); err != nil {
-			return nil, err
-		}
-	}
-	if in.Points != nil {
-		if sc.Demand, err = loadItems(*in.Points, in.Planar, demandKind); err != nil {
-			return nil, err
-		}
+	sc := &Scene{Warnings: textWarn}
+	sites, polys, err := sc.read(in)
+	if err != nil {
+		return nil, err
 	}
 	sc.Title = defaultTitle(in, polys)
 	sc.Timings = append(sc.Timings, coverage.Timing{Phase: "read inputs", Seconds: time.Since(t0).Seconds()})
 
 	t1 := time.Now()
 	sc.Sites = sites.Pts
-	if !in.Planar {
+	if in.Planar {
+		if err := degreesInPlanar(inputFiles(in), allInputPoints(sc, sites, polys)); err != nil {
+			return nil, err
+		}
+	} else {
 		if err := sc.project(in, sites, polys); err != nil {
 			return nil, err
 		}
 		sc.Timings = append(sc.Timings, coverage.Timing{Phase: "project", Seconds: time.Since(t1).Seconds()})
+	}
+	if err := tooSmall(inputFiles(in), sc, polys); err != nil {
+		return nil, err
 	}
 	if sc.Demand != nil {
 		if err := sc.Demand.finish(in.Points.Name); err != nil {
@@ -145,6 +149,9 @@ func Load(in Inputs) (*Scene, error) {
 		if len(hull) < 3 {
 			return nil, errorf("%s: the sites are all on one line (or fewer than 3 distinct), so they enclose no area: give the site area with --area", in.Sites.Name)
 		}
+		if err := sliverHull(in.Sites.Name, hull, sc.Sites); err != nil {
+			return nil, err
+		}
 		mp = orb.MultiPolygon{{hull}}
 		names = [][]string{{in.Sites.Name + ": convex hull of the sites"}}
 		sc.AreaFromHull = true
@@ -158,7 +165,19 @@ func Load(in Inputs) (*Scene, error) {
 	}
 	region, err := planar.NewRegion(mp)
 	if err != nil {
-		return nil, regionError(err, names)
+		return nil, regionError(err, names, ringOrigins(mp, polys))
+	}
+	if !sc.AreaFromHull {
+		if err := tinyArea(inputFiles(in), region.Area(), sc.Sites); err != nil {
+			return nil, err
+		}
+	}
+	if sc.Projection != nil {
+		if a := region.Area(); a > 0 {
+			sc.EdgeAreaError = sc.edgeArea / a
+		}
+		m := sc.MaxScaleError
+		sc.AreaRelError = (1+m)*(1+m) - 1 + sc.EdgeAreaError
 	}
 	sc.Region = region
 	sc.Warnings = append(sc.Warnings, siteWarnings(sc.Sites, sites.Names, region)...)
@@ -166,32 +185,126 @@ func Load(in Inputs) (*Scene, error) {
 	return sc, nil
 }
 
+// read reads every input, each in its own coordinate system (see crs.go),
+// converting projected ones to WGS84 longitude/latitude; it sets the
+// scene's names, planning items and Converted.
+func (sc *Scene) read(in Inputs) (*siteSet, []areaPoly, error) {
+	var err error
+	var def *CRS
+	if strings.TrimSpace(in.CRS) != "" {
+		if in.Planar {
+			return nil, nil, errorf("--crs names a coordinate reference system, --planar says local metres: give one of them")
+		}
+		if def, err = ParseCRS(in.CRS); err != nil {
+			return nil, nil, errorf("--crs: %v", err)
+		}
+	}
+	system := func(src Source) (*CRS, bool, error) {
+		c, err := sourceCRS(src, def, in.Planar)
+		if c != nil {
+			sc.Converted = append(sc.Converted, src.Name+": "+c.Label()+" converted to WGS84 longitude/latitude")
+		}
+		return c, in.Planar || c != nil, err
+	}
+	c, metric, err := system(in.Sites)
+	if err != nil {
+		return nil, nil, err
+	}
+	sites, err := loadSites(in.Sites, metric)
+	if err != nil {
+		return nil, nil, err
+	}
+	if c != nil {
+		if err := c.convertSites(in.Sites.Name, sites); err != nil {
+			return nil, nil, err
+		}
+	}
+	sc.Names = sites.Names
+	var polys []areaPoly
+	for _, a := range []struct {
+		src     *Source
+		exclude bool
+	}{{in.Area, false}, {in.Exclude, true}} {
+		if a.src == nil {
+			continue
+		}
+		if in.Area == nil {
+			return nil, nil, errorf("--exclude needs --area: exclusion zones are cut out of a given area")
+		}
+		c, metric, err := system(*a.src)
+		if err != nil {
+			return nil, nil, err
+		}
+		p, err := loadArea(*a.src, metric, a.exclude)
+		if err != nil {
+			return nil, nil, err
+		}
+		if c != nil {
+			if err := c.convertPolys(a.src.Name, p); err != nil {
+				return nil, nil, err
+			}
+		}
+		polys = append(polys, p...)
+	}
+	for _, it := range []struct {
+		src  *Source
+		dst  **Items
+		kind pointKind
+	}{{in.Candidates, &sc.Candidates, candidateKind}, {in.Points, &sc.Demand, demandKind}} {
+		if it.src == nil {
+			continue
+		}
+		c, metric, err := system(*it.src)
+		if err != nil {
+			return nil, nil, err
+		}
+		if *it.dst, err = loadItems(*it.src, metric, it.kind); err != nil {
+			return nil, nil, err
+		}
+		if c != nil {
+			if err := c.convertItems(it.src.Name, *it.dst); err != nil {
+				return nil, nil, err
+			}
+		}
+	}
+	return sites, polys, nil
+}
+
+// decodeInputs makes every input valid UTF-8 (decodeText) and returns the
+// warnings about the inputs that had to be decoded.
+func decodeInputs(in *Inputs) ([]string, error) {
+	var warn []string
+	decode := func(s Source) (Source, error) {
+		d, w, err := decodeText(s)
+		if w != "" {
+			warn = append(warn, w)
+		}
+		return d, err
+	}
+	var err error
+	if in.Sites, err = decode(in.Sites); err != nil {
+		return nil, err
+	}
+	// The optional inputs are copied, never changed where the caller
+	// keeps them.
+	for _, p := range []**Source{&in.Area, &in.Exclude, &in.Candidates, &in.Points} {
+		if *p == nil {
+			continue
+		}
+		d, err := decode(**p)
+		if err != nil {
+			return nil, err
+		}
+		*p = &d
+	}
+	return warn, nil
+}
+
 // project fits the local plane to every input, checks its scale error and
 // replaces all coordinates by plane metres.
 func (sc *Scene) project(in Inputs, sites *siteSet, polys []areaPoly) error {
-	all := make([]orb.Point, 0, len(sites.Pts)+64)
-	all = append(all, sites.Pts...)
-	for _, p := range polys {
-		for _, r := range p.Rings {
-			all = append(all, r...)
-		}
-	}
-	files := in.Sites.Name
-	if in.Area != nil {
-		files += ", " + in.Area.Name
-	}
-	if in.Exclude != nil {
-		files += ", " + in.Exclude.Name
-	}
-	for _, extra := range []struct {
-		it  *Items
-		src *Source
-	}{{sc.Candidates, in.Candidates}, {sc.Demand, in.Points}} {
-		if extra.it != nil {
-			all = append(all, extra.it.allVertices()...)
-			files += ", " + extra.src.Name
-		}
-	}
+	all := allInputPoints(sc, sites, polys)
+	files := inputFiles(in)
 	b, err := planar.LonLatBound(all)
 	if err != nil {
 		return errorf("%s: %v", files, err)
@@ -201,30 +314,62 @@ func (sc *Scene) project(in Inputs, sites *siteSet, polys []areaPoly) error {
 		return errorf("%s: %v", files, err)
 	}
 	if err := tm.CheckExtent(b); err != nil {
+		if far, n := farInputs(in.Sites.Name, sites, polys); n > 0 {
+			them := "it"
+			if n > 1 {
+				them = "them"
+			}
+			return errorf("%s; correct or remove %s (with %[2]s the inputs span an %s)", far, them,
+				strings.TrimSuffix(extentMessage(tm, b), "; split the site"))
+		}
 		return errorf("%s: %s", files, extentMessage(tm, b))
 	}
 	sc.MaxScaleError = tm.MaxScaleError(b)
 	sc.Projection = tm
+	f := newLonFrame(tm, b)
 	pts := make([]orb.Point, len(sites.Pts))
 	for i, p := range sites.Pts {
-		x, y := tm.Forward(p[0], p[1])
+		x, y := f.forward(p[0], p[1])
 		pts[i] = orb.Point{x, y}
 	}
 	sc.Sites = pts
+	sc.edgeArea = densifyPolys(polys, f)
+	for _, it := range []*Items{sc.Candidates, sc.Demand} {
+		if it != nil {
+			it.transform(f.forward)
+		}
+	}
+	return nil
+}
+
+// allInputPoints returns every input position: sites, area vertices and
+// the planning items' points and vertices.
+func allInputPoints(sc *Scene, sites *siteSet, polys []areaPoly) []orb.Point {
+	all := make([]orb.Point, 0, len(sites.Pts)+64)
+	all = append(all, sites.Pts...)
 	for _, p := range polys {
 		for _, r := range p.Rings {
-			for k, q := range r {
-				x, y := tm.Forward(q[0], q[1])
-				r[k] = orb.Point{x, y}
-			}
+			all = append(all, r...)
 		}
 	}
 	for _, it := range []*Items{sc.Candidates, sc.Demand} {
 		if it != nil {
-			it.transform(tm.Forward)
+			all = append(all, it.allVertices()...)
 		}
 	}
-	return nil
+	return all
+}
+
+// inputFiles lists the names of the given inputs, for messages about all
+// of them.
+func inputFiles(in Inputs) string {
+	files := in.Sites.Name
+	for _, s := range []*Source{in.Area, in.Exclude, in.Candidates, in.Points} {
+		if s != nil {
+			files += ", " + s.Name
+		}
+	}
+	return files
 }
 
 // meanRadiusKm is the IUGG mean Earth radius R₁ (Moritz, "Geodetic

@@ -5,12 +5,7 @@
 // position. The site name is the "name" property, else the "id" property,
 // else the Feature's "id" (a MultiPoint's positions get "#1", "#2", ...).
 //
-// CSV: a header line, then one site per line. Column names are matched
-// case-insensitively after trimming spaces: lat or latitude; lon, lng or
-// longitude; x; y; name; id. Geographic input needs lat and lon, --planar
-// input needs x and y. The delimiter is the one of ',', ';' and TAB that
-// occurs most often in the header line; with ';' or TAB a decimal comma is
-// accepted. Line numbers in messages are those of the file (1 = header).
+// CSV: see csv.go.
 //
 // Coordinates are checked one by one (see coordProblem) and never altered.
 
@@ -18,11 +13,9 @@ package siteinput
 
 import (
 	"bytes"
-	"encoding/csv"
 	"encoding/json"
 	"errors"
 	"fmt"
-	"io"
 	"strconv"
 	"strings"
 
@@ -35,6 +28,22 @@ type siteSet struct {
 	Pts []orb.Point
 	// Names holds a name per site ("" for none).
 	Names []string
+	// Src holds per site its CSV line (1-based) or GeoJSON feature
+	// (0-based), for messages; Lines tells which.
+	Src   []int32
+	Lines bool
+}
+
+// label names site i in messages: "line 7" or "feature 3", with its name.
+func (s *siteSet) label(i int) string {
+	w := fmt.Sprintf("feature %d", s.Src[i])
+	if s.Lines {
+		w = fmt.Sprintf("line %d", s.Src[i])
+	}
+	if s.Names[i] != "" {
+		w += fmt.Sprintf(" (%q)", s.Names[i])
+	}
+	return w
 }
 
 // loadSites reads sites from src (GeoJSON or CSV).
@@ -80,11 +89,15 @@ func sitesFromGeoJSON(src Source, planarInput bool) (*siteSet, error) {
 			if x, y, ok := fastPosition(f.Geometry.Coordinates); ok && coordProblem(planarInput, x, y) == "" {
 				s.Pts = append(s.Pts, orb.Point{x, y})
 				s.Names = append(s.Names, name)
+				s.Src = append(s.Src, int32(i))
 				continue
 			}
 		}
 		if err := s.addGeometry(src, fmt.Sprintf("feature %d", i), f.Geometry, name, planarInput); err != nil {
 			return nil, err
+		}
+		for len(s.Src) < len(s.Pts) {
+			s.Src = append(s.Src, int32(i))
 		}
 	}
 	return s, nil
@@ -193,195 +206,4 @@ func decodeCoords(raw []byte, v any) error {
 		return errors.New("not an array of numbers of the right depth")
 	}
 	return nil
-}
-
-// csvColumns are the recognised CSV header names.
-var csvColumns = map[string]string{
-	"lat": "lat", "latitude": "lat",
-	"lon": "lon", "lng": "lon", "longitude": "lon",
-	"x": "x", "y": "y",
-	"name": "name", "id": "id",
-}
-
-func sitesFromCSV(src Source, planarInput bool) (*siteSet, error) {
-	s, _, err := pointsFromCSV(src, planarInput, false)
-	return s, err
-}
-
-// pointsFromCSV reads points from CSV as described in the file comment.
-// With withWeight a "weight" column is recognised too: weights then holds
-// one finite weight ≥ 0 per point (nil when the header has no weight
-// column); an empty or bad weight field is an error naming its line.
-func pointsFromCSV(src Source, planarInput, withWeight bool) (s *siteSet, weights []float64, err error) {
-	data := src.Data
-	firstLine := data
-	if i := bytes.IndexByte(data, '\n'); i >= 0 {
-		firstLine = data[:i]
-	}
-	comma := ','
-	best := bytes.Count(firstLine, []byte{','})
-	for _, c := range []rune{';', '\t'} {
-		if n := bytes.Count(firstLine, []byte(string(c))); n > best {
-			comma, best = c, n
-		}
-	}
-	r := csv.NewReader(bytes.NewReader(data))
-	r.Comma = comma
-	r.FieldsPerRecord = -1
-	r.TrimLeadingSpace = true
-	r.ReuseRecord = true
-	header, err := r.Read()
-	if err != nil {
-		return nil, nil, csvError(src, err)
-	}
-	col := map[string]int{}
-	var found []string
-	for i, h := range header {
-		key, ok := csvColumns[strings.ToLower(strings.TrimSpace(h))]
-		if !ok && withWeight && strings.EqualFold(strings.TrimSpace(h), "weight") {
-			key, ok = "weight", true
-		}
-		if !ok {
-			continue
-		}
-		if j, dup := col[key]; dup {
-			return nil, nil, errorf("%s line 1: columns %d (%q) and %d (%q) are both %s", src.Name, j+1, header[j], i+1, h, key)
-		}
-		col[key] = i
-		found = append(found, strings.TrimSpace(h))
-	}
-	_, hasLat := col["lat"]
-	_, hasLon := col["lon"]
-	_, hasX := col["x"]
-	_, hasY := col["y"]
-	if !hasLat && !hasLon && !hasX && !hasY {
-		return nil, nil, errorf("%s: not GeoJSON or CSV: line 1 has no lat/lon or x/y column header (found %s)", src.Name, quoteList(header))
-	}
-	xcol, ycol := "lon", "lat"
-	xname, yname := "longitude", "latitude"
-	if planarInput {
-		xcol, ycol, xname, yname = "x", "y", "x", "y"
-		if !hasX || !hasY {
-			hint := ""
-			if hasLat && hasLon {
-				hint = "; the lat/lon columns are geographic: drop --planar"
-			}
-			return nil, nil, errorf("%s line 1: --planar needs x and y columns, found %s%s", src.Name, quoteList(found), hint)
-		}
-	} else if !hasLat || !hasLon {
-		hint := ""
-		if hasX && hasY {
-			hint = "; for x/y in local metres add --planar"
-		}
-		return nil, nil, errorf("%s line 1: needs lat and lon columns, found %s%s", src.Name, quoteList(found), hint)
-	}
-	xi, yi := col[xcol], col[ycol]
-	ni, hasName := col["name"]
-	if !hasName {
-		ni, hasName = col["id"]
-	}
-	wi, hasWeight := col["weight"]
-	decimalComma := comma != ','
-	s = &siteSet{}
-	for {
-		rec, err := r.Read()
-		if err == io.EOF {
-			break
-		}
-		if err != nil {
-			return nil, nil, csvError(src, err)
-		}
-		line, _ := r.FieldPos(0)
-		if len(rec) == 1 && strings.TrimSpace(rec[0]) == "" {
-			continue
-		}
-		need := max(xi, yi) + 1
-		if hasWeight {
-			need = max(need, wi+1)
-		}
-		if len(rec) < need {
-			return nil, nil, errorf("%s line %d: %d fields, the header has %d", src.Name, line, len(rec), len(header))
-		}
-		x, err := csvNumber(rec[xi], xname, decimalComma)
-		var y float64
-		if err == nil {
-			y, err = csvNumber(rec[yi], yname, decimalComma)
-		}
-		if err == nil {
-			if p := coordProblem(planarInput, x, y); p != "" {
-				err = errors.New(p)
-			}
-		}
-		if err != nil {
-			return nil, nil, errorf("%s line %d: %v", src.Name, line, err)
-		}
-		s.Pts = append(s.Pts, orb.Point{x, y})
-		name := ""
-		if hasName && ni < len(rec) {
-			name = strings.TrimSpace(rec[ni])
-		}
-		s.Names = append(s.Names, name)
-		if hasWeight {
-			w, err := csvWeight(rec[wi], decimalComma)
-			if err != nil {
-				return nil, nil, errorf("%s line %d: %v", src.Name, line, err)
-			}
-			weights = append(weights, w)
-		}
-	}
-	return s, weights, nil
-}
-
-// csvWeight parses one weight field: a finite number ≥ 0.
-func csvWeight(field string, decimalComma bool) (float64, error) {
-	if strings.TrimSpace(field) == "" {
-		return 0, errors.New("weight is empty (give a number ≥ 0 on every line, or drop the weight column)")
-	}
-	w, err := csvNumber(field, "weight", decimalComma)
-	if err != nil {
-		return 0, err
-	}
-	if p := weightProblem(w); p != "" {
-		return 0, errors.New(p)
-	}
-	return w, nil
-}
-
-// csvNumber parses one coordinate field.
-func csvNumber(field, what string, decimalComma bool) (float64, error) {
-	f := strings.TrimSpace(field)
-	if f == "" {
-		return 0, fmt.Errorf("%s is empty", what)
-	}
-	if decimalComma {
-		f = strings.Replace(f, ",", ".", 1)
-	}
-	v, err := strconv.ParseFloat(f, 64)
-	if err != nil {
-		var ne *strconv.NumError
-		if errors.As(err, &ne) && ne.Err == strconv.ErrRange {
-			return 0, fmt.Errorf("%s %s is out of the float64 range", what, field)
-		}
-		return 0, fmt.Errorf("%s %q is not a number", what, field)
-	}
-	return v, nil
-}
-
-func csvError(src Source, err error) error {
-	var pe *csv.ParseError
-	if errors.As(err, &pe) {
-		return errorf("%s line %d: not valid CSV: %v", src.Name, pe.StartLine, pe.Err)
-	}
-	return errorf("%s: not valid CSV: %v", src.Name, err)
-}
-
-func quoteList(xs []string) string {
-	if len(xs) == 0 {
-		return "none"
-	}
-	q := make([]string, len(xs))
-	for i, x := range xs {
-		q[i] = strconv.Quote(strings.TrimSpace(x))
-	}
-	return strings.Join(q, ", ")
 }

@@ -42,6 +42,12 @@ func errorf(format string, args ...any) error {
 // ReadFile reads the input file at path; flag names where the path was
 // given (e.g. "--sites") in the messages about a missing file or a folder.
 // A leading UTF-8 byte order mark is dropped; an empty file is an *Error.
+//
+// Limits (see limits.go): a file larger than maxInputBytes is refused
+// before it is read, and the first earlyCheckBytes are checked before the
+// rest is read, so binary data (a NUL byte), /dev/zero and a header
+// followed by garbage are refused at once; the rest is read in chunks up to
+// maxInputBytes, each checked for NUL bytes.
 func ReadFile(path, flag string) (Source, error) {
 	fi, err := os.Stat(path)
 	switch {
@@ -51,10 +57,21 @@ func ReadFile(path, flag string) (Source, error) {
 		return Source{}, errorf("%s: cannot read: %v", path, unwrapPathErr(err))
 	case fi.IsDir():
 		return Source{}, errorf("%s: is a folder, not a file (given to %s)", path, flag)
+	case fi.Mode().IsRegular() && fi.Size() > maxInputBytes:
+		return Source{}, errorf("%s: %s, more than the %s an input may have: split it", path, byteSize(fi.Size()), byteSize(maxInputBytes))
 	}
-	b, err := os.ReadFile(path)
+	f, err := os.Open(path)
 	if err != nil {
 		return Source{}, errorf("%s: cannot read: %v", path, unwrapPathErr(err))
+	}
+	defer f.Close()
+	size := int64(earlyCheckBytes)
+	if fi.Mode().IsRegular() {
+		size = fi.Size()
+	}
+	b, err := readLimited(path, f, size)
+	if err != nil {
+		return Source{}, err
 	}
 	b = bytes.TrimPrefix(b, []byte("\xef\xbb\xbf")) // UTF-8 byte order mark
 	if len(bytes.TrimSpace(b)) == 0 {

@@ -1,0 +1,179 @@
+// Input forms of issue 11 at the command line: wrong answers that must be
+// refused (degrees read as metres, sliver hulls, an area in other units),
+// and the file forms planners export (CSV header names, encodings,
+// projected grids, the antimeridian cut). Each refusal is one line, exit 1.
+
+package main
+
+import (
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+	"time"
+	"unicode/utf8"
+)
+
+func TestWrongAnswersRefused(t *testing.T) {
+	dir := t.TempDir()
+	w := func(name, content string) string { return writeFile(t, dir, name, content) }
+	// A GIS export of a WGS84 layer: X, Y columns in degrees.
+	degXY := w("degxy.csv", "X,Y,name\n13.404954,52.520008,a\n13.410500,52.522100,b\n13.401200,52.525300,c\n")
+	// Three devices along one street, 1e-4 m off a straight line.
+	street := w("street.csv", "x,y\n0,0\n100,0.0001\n200,0\n")
+	// The same in lon/lat: 200 m along a parallel, the middle one 1.1 mm off.
+	streetLL := w("streetll.csv", "lat,lon\n52.52,13.40\n52.52000001,13.4015\n52.52,13.403\n")
+	// Sites in metres, area in degrees.
+	sitesM := w("sitesm.csv", "x,y\n0,0\n100,0\n0,100\n100,100\n")
+	areaDeg := w("areadeg.geojson", `{"type":"Polygon","coordinates":[[[13.40,52.52],[13.41,52.52],[13.41,52.53],[13.40,52.53],[13.40,52.52]]]}`)
+	// Twelve sites in Berlin, line 9 written longitude first.
+	swapped := w("swapped.csv", "name,lat,lon\n"+
+		"a,52.520,13.400\nb,52.521,13.401\nc,52.522,13.402\nd,52.523,13.400\ne,52.524,13.401\nf,52.525,13.402\n"+
+		"g,52.526,13.400\nh,13.401,52.527\ni,52.528,13.402\nj,52.529,13.400\nk,52.530,13.401\nl,52.531,13.402\n")
+	an := func(extra ...string) []string {
+		return append([]string{"analyze", "--range", "100m", "--no-maps", "--out", filepath.Join(dir, "out")}, extra...)
+	}
+	cases := []failureCase{
+		{"planar with degrees in X,Y", an("--planar", "--sites", degXY), 1, []string{"degxy.csv: with --planar the coordinates are metres", "longitude/latitude degrees", "drop --planar"}},
+		{"nearly collinear planar sites", an("--planar", "--sites", street), 1, []string{"street.csv: the sites lie (nearly) on one line", "--area"}},
+		{"nearly collinear lon/lat sites", an("--sites", streetLL), 1, []string{"streetll.csv: the sites lie (nearly) on one line", "--area"}},
+		{"one site with latitude and longitude swapped", an("--sites", swapped), 1, []string{`swapped.csv line 9 ("h") lies 55`, "latitude and longitude swapped?", "correct or remove it"}},
+		{"area tiny against the sites", an("--planar", "--sites", sitesM, "--area", areaDeg), 1, []string{"areadeg.geojson: the site area is 0.0001 m²", "not in the same units"}},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			checkFailure(t, runCLI(t, c.args...), c.code, c.want)
+		})
+	}
+	// A street with devices on both sides (20 m across 1 km) is a site.
+	wide := w("widestreet.csv", "x,y\n0,0\n500,20\n1000,0\n")
+	for _, c := range []struct {
+		name string
+		args []string
+	}{
+		{"street 20 m wide", an("--planar", "--sites", wide)},
+	} {
+		t.Run(c.name, func(t *testing.T) { mustRun(t, c.args...) })
+	}
+}
+
+func TestWindows1252CSV(t *testing.T) {
+	// A European spreadsheet export: ';', decimal comma, Windows-1252
+	// names (ä = E4, ü = FC, € = 80, invalid as UTF-8).
+	dir := t.TempDir()
+	sites := writeFile(t, dir, "sites.csv", "name;lat;lon\nGeb\xe4ude S\xfcd;52,5200;13,4000\nM\xfchle;52,5210;13,4010\nKiosk \x80;52,5205;13,4020\n")
+	out := filepath.Join(dir, "out")
+	r := mustRun(t, "analyze", "--sites", sites, "--range", "50m", "--no-maps", "--out", out)
+	if !strings.Contains(r.stderr, "read as Windows-1252") {
+		t.Errorf("no encoding warning on stderr: %q", r.stderr)
+	}
+	ents, err := os.ReadDir(out)
+	if err != nil {
+		t.Fatal(err)
+	}
+	found := false
+	for _, e := range ents {
+		if e.IsDir() {
+			continue
+		}
+		b, err := os.ReadFile(filepath.Join(out, e.Name()))
+		if err != nil {
+			t.Fatal(err)
+		}
+		if !utf8.Valid(b) {
+			t.Errorf("%s: not valid UTF-8", e.Name())
+		}
+		found = found || strings.Contains(string(b), "Gebäude Süd") && strings.Contains(string(b), "Kiosk €")
+	}
+	if !found {
+		t.Error("no output holds the decoded names \"Gebäude Süd\" and \"Kiosk €\"")
+	}
+}
+
+func TestProjectedCLI(t *testing.T) {
+	dir := t.TempDir()
+	w := func(name, content string) string { return writeFile(t, dir, name, content) }
+	// Munich in UTM 32N: sites as CSV Easting/Northing, area as GeoJSON
+	// with a GeoJSON 2008 crs member.
+	sites := w("utm.csv", "Easting,Northing,name\n691000,5335000,a\n691100,5335000,b\n691000,5335100,c\n")
+	area := w("utm.geojson", `{"type":"FeatureCollection","crs":{"type":"name","properties":{"name":"urn:ogc:def:crs:EPSG::32632"}},"features":[`+
+		`{"type":"Feature","properties":{},"geometry":{"type":"Polygon","coordinates":[[[690900,5334900],[691200,5334900],[691200,5335200],[690900,5335200],[690900,5334900]]]}}]}`)
+	out := filepath.Join(dir, "out")
+	mustRun(t, "analyze", "--crs", "EPSG:32632", "--sites", sites, "--area", area, "--range", "150m", "--no-maps", "--out", out)
+	b, err := os.ReadFile(filepath.Join(out, "summary.json"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	// The site area is 300 m × 300 m of grid, 90 000 m² / k² on the
+	// ground (k = 1.00005 here, see report/siteinput TestProjectedInputs).
+	if !strings.Contains(string(b), `"area_m2": 89991`) && !strings.Contains(string(b), `"area_m2": 89990`) {
+		i := strings.Index(string(b), "area_m2")
+		t.Errorf("summary.json area: %s", string(b)[i:min(len(b), i+40)])
+	}
+	an := func(extra ...string) []string {
+		return append([]string{"analyze", "--range", "100m", "--no-maps", "--out", filepath.Join(dir, "o2")}, extra...)
+	}
+	cases := []failureCase{
+		{"unsupported --crs", an("--crs", "EPSG:27700", "--sites", sites), 2, []string{"--crs: coordinate reference system EPSG:27700 is not supported", "25828", "SWEREF99"}},
+		{"--crs with --planar", an("--crs", "EPSG:32632", "--planar", "--sites", sites), 2, []string{"--crs", "--planar", "give one of them"}},
+		{"Easting/Northing without --crs", an("--sites", sites), 1, []string{"utm.csv line 1: needs lat and lon columns", "--crs EPSG:NNNN"}},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) { checkFailure(t, runCLI(t, c.args...), c.code, c.want) })
+	}
+}
+
+func TestTinyCoordinatesRefusedAtOnce(t *testing.T) {
+	// Issue 14: subnormal and 1e-300 m coordinates hung or took minutes;
+	// they are refused while reading, and so is a site under 1 mm.
+	dir := t.TempDir()
+	w := func(name, content string) string { return writeFile(t, dir, name, content) }
+	an := func(extra ...string) []string {
+		return append([]string{"analyze", "--range", "1m", "--no-maps", "--out", filepath.Join(dir, "out")}, extra...)
+	}
+	cases := []failureCase{
+		{"subnormal", an("--planar", "--sites", w("sub.csv", "x,y\n0,0\n5e-324,0\n0,5e-324\n")), 1, []string{"sub.csv line 3: x 5e-324 m is not 0 but below 1e-30"}},
+		{"1e-300 m", an("--planar", "--sites", w("e300.csv", "x,y\n1e-300,0\n2e-300,0\n0,1e-300\n")), 1, []string{"e300.csv line 2: x 1e-300 m is not 0 but below 1e-30"}},
+		{"1e-160 m", an("--planar", "--sites", w("e160.csv", "x,y\n0,0\n1e-160,0\n0,1e-160\n")), 1, []string{"e160.csv line 3: x 1e-160 m"}},
+		{"subnormal degrees", an("--sites", w("subdeg.csv", "lat,lon\n0,0\n0,5e-324\n1e-310,0\n")), 1, []string{"subdeg.csv line 3: longitude 5e-324 is not 0 but below 1e-30"}},
+		{"site under 1 mm", an("--planar", "--sites", w("um.csv", "x,y\n0,0\n0.00001,0\n0,0.00001\n")), 1, []string{"um.csv: the inputs span only 1e-05 m × 1e-05 m, less than 0.001 m"}},
+	}
+	checkFastFailures(t, cases)
+}
+
+func TestGarbageRefusedAtOnce(t *testing.T) {
+	// Issue 14: /dev/zero and a large file of NUL bytes are refused with
+	// one line in well under two seconds, without reading them.
+	dir := t.TempDir()
+	zeros := filepath.Join(dir, "zeros.geojson")
+	if err := os.WriteFile(zeros, []byte(`{"type":"FeatureCollection","features":[`), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	if err := os.Truncate(zeros, 3<<30); err != nil { // sparse: no disk used
+		t.Fatal(err)
+	}
+	an := func(extra ...string) []string {
+		return append([]string{"analyze", "--range", "1m", "--no-maps", "--out", filepath.Join(dir, "out")}, extra...)
+	}
+	cases := []failureCase{
+		{"/dev/zero", an("--sites", "/dev/zero"), 1, []string{"/dev/zero: not GeoJSON or CSV (binary data): a NUL byte at offset 0"}},
+		{"3 GiB file, NUL bytes after a header", an("--sites", zeros), 1, []string{"zeros.geojson: not GeoJSON or CSV (binary data): a NUL byte at offset 40"}},
+		{"/dev/zero as area", an("--sites", writeFile(t, dir, "ok.csv", "lat,lon\n52.5,13.4\n52.6,13.5\n52.5,13.6\n"), "--area", "/dev/zero"), 1, []string{"/dev/zero: not GeoJSON or CSV (binary data)"}},
+	}
+	checkFastFailures(t, cases)
+}
+
+// checkFastFailures runs refusals that must come within two seconds
+// (issue 14).
+func checkFastFailures(t *testing.T, cases []failureCase) {
+	t.Helper()
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			t0 := time.Now()
+			checkFailure(t, runCLI(t, c.args...), c.code, c.want)
+			if d := time.Since(t0); d > 2*time.Second {
+				t.Errorf("refused after %v, want within 2 s", d)
+			}
+		})
+	}
+}

@@ -1,0 +1,344 @@
+// Reading points from CSV.
+//
+// A header line, then one point per line. Column names are matched
+// case-insensitively after trimming spaces; the accepted names are the
+// common export names of spreadsheets and desktop GIS:
+//
+//	latitude     lat, latitude
+//	longitude    lon, long, lng, longitude
+//	x (east)     x, point_x, easting
+//	y (north)    y, point_y, northing
+//	WKT point    wkt, wkt_geom, geometry, geom, the_geom: POINT (x y),
+//	             POINT Z (x y z), optionally after "SRID=n;"
+//	name         name (else id)
+//	weight       weight (demand points only)
+//
+// Geographic input (the default) reads lat and lon; without them a WKT
+// column holds "POINT (lon lat)" (other x/y columns are then ignored).
+// x/y and easting/northing are metres: local metres with --planar, a
+// projected grid with --crs (and longitude/latitude with --crs EPSG:4326);
+// geographic input without lat/lon refuses them with that advice. Planar
+// and grid input read x/y (or easting/northing, POINT_X/POINT_Y), else a
+// WKT column.
+//
+// The delimiter is the one of ',', ';' and TAB that occurs most often in the
+// header line; with ';' or TAB a decimal comma is accepted. A first line of
+// numbers is data, not a header, and is refused listing the accepted
+// names. Line numbers in messages are those of the file (1 = header).
+
+package siteinput
+
+import (
+	"bytes"
+	"encoding/csv"
+	"errors"
+	"fmt"
+	"io"
+	"strconv"
+	"strings"
+
+	"github.com/paulmach/orb"
+)
+
+// csvColumns maps each accepted header name to its role.
+var csvColumns = map[string]string{
+	"lat": "lat", "latitude": "lat",
+	"lon": "lon", "long": "lon", "lng": "lon", "longitude": "lon",
+	"x": "x", "point_x": "x", "easting": "x",
+	"y": "y", "point_y": "y", "northing": "y",
+	"wkt": "wkt", "wkt_geom": "wkt", "geometry": "wkt", "geom": "wkt", "the_geom": "wkt",
+	"name": "name", "id": "id",
+}
+
+// acceptedColumns lists every accepted coordinate header, for messages.
+const acceptedColumns = "accepted: lat or latitude with lon, long, lng or longitude; " +
+	"x, point_x or easting with y, point_y or northing; " +
+	"or one WKT POINT column named wkt, wkt_geom, geometry, geom or the_geom"
+
+func sitesFromCSV(src Source, planarInput bool) (*siteSet, error) {
+	s, _, err := pointsFromCSV(src, planarInput, false)
+	return s, err
+}
+
+// csvLayout is where the coordinates of a CSV file are.
+type csvLayout struct {
+	xi, yi       int // the columns of x (longitude) and y (latitude); -1 with wkt
+	wkt          int // the WKT column, or -1
+	xname, yname string
+	name         int // the name (else id) column, or -1
+	weight       int // the weight column, or -1
+}
+
+// csvHeader finds the columns of the header line (see the file comment).
+func csvHeader(src Source, header []string, planarInput, withWeight bool) (*csvLayout, error) {
+	col := map[string]int{}
+	var found []string
+	for i, h := range header {
+		key, ok := csvColumns[strings.ToLower(strings.TrimSpace(h))]
+		if !ok && withWeight && strings.EqualFold(strings.TrimSpace(h), "weight") {
+			key, ok = "weight", true
+		}
+		if !ok {
+			continue
+		}
+		if j, dup := col[key]; dup {
+			return nil, errorf("%s line 1: columns %d (%q) and %d (%q) are both %s", src.Name, j+1, header[j], i+1, h, key)
+		}
+		col[key] = i
+		found = append(found, strings.TrimSpace(h))
+	}
+	_, hasLat := col["lat"]
+	_, hasLon := col["lon"]
+	_, hasX := col["x"]
+	_, hasY := col["y"]
+	wi, hasWKT := col["wkt"]
+	if !hasLat && !hasLon && !hasX && !hasY && !hasWKT {
+		if numericLine(header) {
+			return nil, errorf("%s line 1: holds numbers, not column names: the first line must name the columns (%s)", src.Name, acceptedColumns)
+		}
+		return nil, errorf("%s: not GeoJSON or CSV: line 1 has no lat/lon or x/y column header (found %s; %s)", src.Name, quoteList(header), acceptedColumns)
+	}
+	l := &csvLayout{xi: -1, yi: -1, wkt: -1, name: -1, weight: -1}
+	if i, ok := col["name"]; ok {
+		l.name = i
+	} else if i, ok := col["id"]; ok {
+		l.name = i
+	}
+	if i, ok := col["weight"]; ok {
+		l.weight = i
+	}
+	switch {
+	case planarInput && hasX && hasY:
+		l.xi, l.yi, l.xname, l.yname = col["x"], col["y"], "x", "y"
+	case !planarInput && hasLat && hasLon:
+		l.xi, l.yi, l.xname, l.yname = col["lon"], col["lat"], "longitude", "latitude"
+	case hasWKT:
+		l.wkt = wi
+		l.xname, l.yname = "x", "y"
+		if !planarInput {
+			l.xname, l.yname = "longitude", "latitude"
+		}
+	case planarInput:
+		hint := ""
+		if hasLat && hasLon {
+			hint = "; the lat/lon columns are geographic: drop --planar"
+		}
+		return nil, errorf("%s line 1: --planar needs x and y columns, found %s%s (%s)", src.Name, quoteList(found), hint, acceptedColumns)
+	default:
+		hint := ""
+		if hasX && hasY {
+			hint = fmt.Sprintf("; %s/%s are metres: for x/y in local metres add --planar, for a projected grid give --crs EPSG:NNNN (for longitude/latitude in x/y: --crs EPSG:4326)", header[col["x"]], header[col["y"]])
+		}
+		return nil, errorf("%s line 1: needs lat and lon columns, found %s%s (%s)", src.Name, quoteList(found), hint, acceptedColumns)
+	}
+	return l, nil
+}
+
+// numericLine reports whether some field of a line is a number: a line of
+// data where a header was expected.
+func numericLine(fields []string) bool {
+	for _, f := range fields {
+		f = strings.TrimSpace(f)
+		if _, err := strconv.ParseFloat(strings.Replace(f, ",", ".", 1), 64); err == nil && f != "" {
+			return true
+		}
+	}
+	return false
+}
+
+// pointsFromCSV reads points from CSV as described in the file comment.
+// With withWeight a "weight" column is recognised too: weights then holds
+// one finite weight ≥ 0 per point (nil when the header has no weight
+// column); an empty or bad weight field is an error naming its line.
+func pointsFromCSV(src Source, planarInput, withWeight bool) (s *siteSet, weights []float64, err error) {
+	data := src.Data
+	comma := csvDelimiter(data)
+	r := csv.NewReader(bytes.NewReader(data))
+	r.Comma = comma
+	r.FieldsPerRecord = -1
+	r.TrimLeadingSpace = true
+	r.ReuseRecord = true
+	header, err := r.Read()
+	if err != nil {
+		return nil, nil, csvError(src, err)
+	}
+	l, err := csvHeader(src, header, planarInput, withWeight)
+	if err != nil {
+		return nil, nil, err
+	}
+	decimalComma := comma != ','
+	need := max(l.xi, l.yi, l.wkt, l.weight) + 1
+	s = &siteSet{Lines: true}
+	for {
+		rec, err := r.Read()
+		if err == io.EOF {
+			break
+		}
+		if err != nil {
+			return nil, nil, csvError(src, err)
+		}
+		line, _ := r.FieldPos(0)
+		if len(rec) == 1 && strings.TrimSpace(rec[0]) == "" {
+			continue
+		}
+		if len(rec) < need {
+			return nil, nil, errorf("%s line %d: %d fields, the header has %d", src.Name, line, len(rec), len(header))
+		}
+		x, y, err := l.position(rec, decimalComma)
+		if err == nil {
+			if p := coordProblem(planarInput, x, y); p != "" {
+				err = errors.New(p)
+			}
+		}
+		if err != nil {
+			return nil, nil, errorf("%s line %d: %v", src.Name, line, err)
+		}
+		s.Pts = append(s.Pts, orb.Point{x, y})
+		name := ""
+		if l.name >= 0 && l.name < len(rec) {
+			name = strings.TrimSpace(rec[l.name])
+		}
+		s.Names = append(s.Names, name)
+		s.Src = append(s.Src, int32(line))
+		if l.weight >= 0 {
+			w, err := csvWeight(rec[l.weight], decimalComma)
+			if err != nil {
+				return nil, nil, errorf("%s line %d: %v", src.Name, line, err)
+			}
+			weights = append(weights, w)
+		}
+	}
+	return s, weights, nil
+}
+
+// csvDelimiter is the one of ',', ';' and TAB that occurs most often in
+// the first line.
+func csvDelimiter(data []byte) rune {
+	firstLine := data
+	if i := bytes.IndexByte(data, '\n'); i >= 0 {
+		firstLine = data[:i]
+	}
+	comma := ','
+	best := bytes.Count(firstLine, []byte{','})
+	for _, c := range []rune{';', '\t'} {
+		if n := bytes.Count(firstLine, []byte(string(c))); n > best {
+			comma, best = c, n
+		}
+	}
+	return comma
+}
+
+// position reads the coordinates of one record.
+func (l *csvLayout) position(rec []string, decimalComma bool) (x, y float64, err error) {
+	if l.wkt >= 0 {
+		return wktPoint(rec[l.wkt])
+	}
+	x, err = csvNumber(rec[l.xi], l.xname, decimalComma)
+	if err == nil {
+		y, err = csvNumber(rec[l.yi], l.yname, decimalComma)
+	}
+	return x, y, err
+}
+
+// wktPoint parses a WKT point: "POINT (x y)", "POINT Z (x y z)",
+// "POINT M (...)", "POINT ZM (...)", optionally after "SRID=n;" (EWKT).
+// Decimal points only: WKT separates numbers by spaces.
+func wktPoint(field string) (x, y float64, err error) {
+	f := strings.TrimSpace(field)
+	if i := strings.IndexByte(f, ';'); i >= 0 && strings.HasPrefix(strings.ToUpper(f), "SRID=") {
+		f = strings.TrimSpace(f[i+1:])
+	}
+	bad := func(why string) error {
+		short := field
+		if len(short) > 60 {
+			short = short[:60] + "..."
+		}
+		return fmt.Errorf("WKT %q %s", short, why)
+	}
+	u := strings.ToUpper(f)
+	if !strings.HasPrefix(u, "POINT") {
+		if f == "" {
+			return 0, 0, errors.New("WKT geometry is empty")
+		}
+		return 0, 0, bad("is not a POINT (sites and items are points)")
+	}
+	rest := strings.TrimSpace(f[len("POINT"):])
+	for _, dim := range []string{"ZM", "Z", "M"} {
+		if strings.HasPrefix(strings.ToUpper(rest), dim) {
+			rest = strings.TrimSpace(rest[len(dim):])
+			break
+		}
+	}
+	if strings.EqualFold(rest, "EMPTY") {
+		return 0, 0, bad("is empty")
+	}
+	if len(rest) < 2 || rest[0] != '(' || rest[len(rest)-1] != ')' {
+		return 0, 0, bad("is not of the form POINT (x y)")
+	}
+	nums := strings.Fields(rest[1 : len(rest)-1])
+	if len(nums) < 2 || len(nums) > 4 {
+		return 0, 0, bad(fmt.Sprintf("has %d numbers, expected 2 to 4", len(nums)))
+	}
+	v := [2]float64{}
+	for i := range v {
+		v[i], err = strconv.ParseFloat(nums[i], 64)
+		if err != nil || strings.ContainsAny(nums[i], "_xXpP") {
+			return 0, 0, bad(fmt.Sprintf("coordinate %q is not a number", nums[i]))
+		}
+	}
+	return v[0], v[1], nil
+}
+
+// csvWeight parses one weight field: a finite number ≥ 0.
+func csvWeight(field string, decimalComma bool) (float64, error) {
+	if strings.TrimSpace(field) == "" {
+		return 0, errors.New("weight is empty (give a number ≥ 0 on every line, or drop the weight column)")
+	}
+	w, err := csvNumber(field, "weight", decimalComma)
+	if err != nil {
+		return 0, err
+	}
+	if p := weightProblem(w); p != "" {
+		return 0, errors.New(p)
+	}
+	return w, nil
+}
+
+// csvNumber parses one coordinate field.
+func csvNumber(field, what string, decimalComma bool) (float64, error) {
+	f := strings.TrimSpace(field)
+	if f == "" {
+		return 0, fmt.Errorf("%s is empty", what)
+	}
+	if decimalComma {
+		f = strings.Replace(f, ",", ".", 1)
+	}
+	v, err := strconv.ParseFloat(f, 64)
+	if err != nil {
+		var ne *strconv.NumError
+		if errors.As(err, &ne) && ne.Err == strconv.ErrRange {
+			return 0, fmt.Errorf("%s %s is out of the float64 range", what, field)
+		}
+		return 0, fmt.Errorf("%s %q is not a number", what, field)
+	}
+	return v, nil
+}
+
+func csvError(src Source, err error) error {
+	var pe *csv.ParseError
+	if errors.As(err, &pe) {
+		return errorf("%s line %d: not valid CSV: %v", src.Name, pe.StartLine, pe.Err)
+	}
+	return errorf("%s: not valid CSV: %v", src.Name, err)
+}
+
+func quoteList(xs []string) string {
+	if len(xs) == 0 {
+		return "none"
+	}
+	q := make([]string, len(xs))
+	for i, x := range xs {
+		q[i] = strconv.Quote(strings.TrimSpace(x))
+	}
+	return strings.Join(q, ", ")
+}
