@@ -64,15 +64,6 @@ func TestBadInput(t *testing.T) {
 	twoVertex := w("twovertex.geojson", `{"type":"Polygon","coordinates":[[[-99,44],[-98,44],[-99,44]]]}`)
 	badExclude := w("badexcl.geojson", `{"type":"Feature","properties":{"exclude":"yes"},"geometry":{"type":"Polygon","coordinates":[[[0,0],[1,0],[1,1],[0,0]]]}}`)
 	allExcluded := w("allexcl.geojson", `{"type":"Feature","properties":{"exclude":true},"geometry":{"type":"Polygon","coordinates":[[[0,0],[40,0],[40,40],[0,0]]]}}`)
-	crossing := w("crossing.geojson", `{"type":"FeatureCollection","features":[
-		{"type":"Feature","properties":{},"geometry":{"type":"Polygon","coordinates":[[[0,0],[40,0],[40,40],[0,40],[0,0]]]}},
-		{"type":"Feature","properties":{"exclude":true},"geometry":{"type":"Polygon","coordinates":[[[30,30],[50,30],[50,50],[30,50],[30,30]]]}}]}`)
-	overlapping := w("overlap.geojson", `{"type":"FeatureCollection","features":[
-		{"type":"Feature","properties":{},"geometry":{"type":"Polygon","coordinates":[[[0,0],[40,0],[40,40],[0,40],[0,0]]]}},
-		{"type":"Feature","properties":{},"geometry":{"type":"Polygon","coordinates":[[[20,20],[60,20],[60,60],[20,60],[20,20]]]}}]}`)
-	adjacent := w("adjacent.geojson", `{"type":"FeatureCollection","features":[
-		{"type":"Feature","properties":{},"geometry":{"type":"Polygon","coordinates":[[[0,0],[40,0],[40,40],[0,40],[0,0]]]}},
-		{"type":"Feature","properties":{},"geometry":{"type":"Polygon","coordinates":[[[40,0],[80,0],[80,40],[40,40],[40,0]]]}}]}`)
 	selfCross := w("bowtie.geojson", `{"type":"Polygon","coordinates":[[[0,0],[40,40],[40,0],[0,40],[0,0]]]}`)
 	// 10° × 10° of the Earth: far beyond a 0.1 % scale error.
 	wide := w("wide.csv", "lat,lon\n40,-105\n50,-95\n45,-100\n")
@@ -119,9 +110,6 @@ func TestBadInput(t *testing.T) {
 		{"ring with two vertices", an("--sites", goodCSV, "--area", twoVertex), 1, []string{"twovertex.geojson feature 0 ring 0: 2 distinct vertices"}},
 		{"exclude not boolean", an("--planar", "--sites", planarSites, "--area", badExclude), 1, []string{"badexcl.geojson feature 0: property \"exclude\" must be true or false, got \"yes\""}},
 		{"everything excluded", an("--planar", "--sites", planarSites, "--area", allExcluded), 1, []string{"allexcl.geojson feature 0: every polygon is an exclusion zone"}},
-		{"exclusion crossing the boundary", an("--planar", "--sites", planarSites, "--area", crossing), 1, []string{"crossing.geojson feature 1: exclusion zone crosses the boundary of feature 0"}},
-		{"overlapping area polygons", an("--planar", "--sites", planarSites, "--area", overlapping), 1, []string{"overlap.geojson feature 1 overlaps feature 0: merge them"}},
-		{"polygons sharing an edge", an("--planar", "--sites", planarSites, "--area", adjacent), 1, []string{"adjacent.geojson feature 0: edge at vertex 0 touches feature 1, edge at vertex 0", "merge polygons that share an edge"}},
 		{"self-crossing ring", an("--planar", "--sites", planarSites, "--area", selfCross), 1, []string{"bowtie.geojson feature 0", "cross"}},
 		{"area too large for one plane", an("--sites", wide), 1, []string{"wide.csv: area too large for one local plane: scale error", "km ×", "split the site"}},
 		{"collinear sites, no area", an("--planar", "--sites", collinear), 1, []string{"fence.csv: the sites are all on one line", "--area"}},

@@ -39,6 +39,10 @@ type areaPoly struct {
 	// longitude/latitude); the edges are straight in the grid.
 	Grid []orb.Ring
 	CRS  *CRS
+	// Input holds the rings in the file's own coordinates once Rings have
+	// been projected (nil before, and for local-metre input, where Rings
+	// are the file's coordinates); messages quote vertices from it.
+	Input []orb.Ring
 	// Orig holds, once the rings are densified and projected, per ring and
 	// vertex the input vertex index that starts its edge (densify.go).
 	Orig [][]int32

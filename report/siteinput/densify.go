@@ -196,6 +196,11 @@ func densifyPolys(polys []areaPoly, f lonFrame) float64 {
 	for i := range polys {
 		p := &polys[i]
 		p.Orig = make([][]int32, len(p.Rings))
+		p.Input = p.Rings // the file's rings; Rings gets the projected ones
+		if p.CRS != nil {
+			p.Input = p.Grid
+		}
+		p.Rings = slices.Clone(p.Rings)
 		for k := range p.Rings {
 			var in orb.Ring
 			if p.CRS != nil {

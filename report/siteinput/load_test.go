@@ -4,6 +4,7 @@
 package siteinput
 
 import (
+	"math"
 	"strings"
 	"testing"
 
@@ -129,45 +130,21 @@ func TestAreaExcludeAndRings(t *testing.T) {
 	if polys[0].Name != "Park" || len(polys[0].Rings) != 2 || polys[2].Where != "a.geojson feature 2 polygon 0" {
 		t.Errorf("names/rings: %q %d %q", polys[0].Name, len(polys[0].Rings), polys[2].Where)
 	}
-	mp, names, warn, err := buildArea(polys)
+	// Park (100×100 less the 50 m² triangle hole) less the Pond triangle
+	// (50 m²), and the separate 5 000 m² triangle: elementary geometry.
+	reg, note, warn, err := buildArea(polys)
 	if err != nil {
 		t.Fatal(err)
 	}
-	if len(mp) != 2 || len(mp[0]) != 3 || len(warn) != 0 {
-		t.Errorf("assembled %d polygons, first has %d rings, warnings %v", len(mp), len(mp[0]), warn)
+	if reg.NumPolygons() != 2 || len(warn) != 0 || note != "" {
+		t.Errorf("assembled %d polygons, note %q, warnings %v", reg.NumPolygons(), note, warn)
 	}
-	if names[0][2] != "a.geojson feature 1" {
-		t.Errorf("hole name %q", names[0][2])
+	if a := reg.Area(); math.Abs(a-(10000-50-50+5000)) > 1e-9 {
+		t.Errorf("area %v, want 14900", a)
 	}
 	// The whole file as exclusions (the --exclude file).
 	ex, err := loadArea(src("x.geojson", area), true, true)
 	if err != nil || !ex[0].Exclude || !ex[2].Exclude {
 		t.Errorf("excludeAll: %v", err)
-	}
-}
-
-func TestRelate(t *testing.T) {
-	sq := func(x0, y0, s float64) orb.Ring {
-		return orb.Ring{{x0, y0}, {x0 + s, y0}, {x0 + s, y0 + s}, {x0, y0 + s}, {x0, y0}}
-	}
-	cases := []struct {
-		name string
-		a, b orb.Ring
-		want ringRelation
-	}{
-		{"inside", sq(1, 1, 2), sq(0, 0, 10), relAInB},
-		{"contains", sq(0, 0, 10), sq(1, 1, 2), relBInA},
-		{"disjoint", sq(0, 0, 1), sq(5, 5, 1), relDisjoint},
-		{"crossing", sq(0, 0, 2), sq(1, 1, 2), relCross},
-		{"inside touching an edge", sq(0, 2, 2), sq(0, 0, 10), relAInB},
-		{"through a vertex", orb.Ring{{-1, 5}, {5, 5}, {5, 10}, {-1, 10}}, sq(0, 0, 10), relCross},
-		{"same ring", sq(0, 0, 3), sq(0, 0, 3), relCross},
-	}
-	for _, c := range cases {
-		t.Run(c.name, func(t *testing.T) {
-			if got := relate(c.a, c.b); got != c.want {
-				t.Errorf("relate = %d, want %d", got, c.want)
-			}
-		})
 	}
 }

@@ -67,6 +67,10 @@ type Scene struct {
 	// AreaFromHull is true when no area was given and Region is the convex
 	// hull of the sites.
 	AreaFromHull bool
+	// AreaNote says in one line what building the area merged or clipped
+	// (e.g. "2 area polygons merged into 1; 1 exclusion clipped to the
+	// area"); "" when the polygons were used as given.
+	AreaNote string
 	// Projection maps longitude/latitude to the local plane
 	// (Projection.Forward) and back (Projection.Inverse); nil for planar
 	// input.
@@ -142,8 +146,7 @@ func Load(in Inputs) (*Scene, error) {
 	}
 
 	t2 := time.Now()
-	var mp orb.MultiPolygon
-	var names [][]string
+	var region *planar.Region
 	if len(polys) == 0 {
 		hull := planar.ConvexHull(sc.Sites)
 		if len(hull) < 3 {
@@ -152,20 +155,17 @@ func Load(in Inputs) (*Scene, error) {
 		if err := sliverHull(in.Sites.Name, hull, sc.Sites); err != nil {
 			return nil, err
 		}
-		mp = orb.MultiPolygon{{hull}}
-		names = [][]string{{in.Sites.Name + ": convex hull of the sites"}}
+		if region, err = planar.NewRegion(orb.MultiPolygon{{hull}}); err != nil {
+			return nil, errorf("%s: convex hull of the sites: %v", in.Sites.Name, err)
+		}
 		sc.AreaFromHull = true
 	} else {
 		var warn []string
-		mp, names, warn, err = buildArea(polys)
+		region, sc.AreaNote, warn, err = buildArea(polys)
 		if err != nil {
 			return nil, err
 		}
 		sc.Warnings = append(sc.Warnings, warn...)
-	}
-	region, err := planar.NewRegion(mp)
-	if err != nil {
-		return nil, regionError(err, names, ringOrigins(mp, polys))
 	}
 	if !sc.AreaFromHull {
 		if err := tinyArea(inputFiles(in), region.Area(), sc.Sites); err != nil {
