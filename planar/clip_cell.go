@@ -361,7 +361,7 @@ func (w *clipWork) clipCell(v int32, seeds []int32, out *clipOut) {
 	}
 	largest := w.wholeRings(px, py)
 	if len(w.events) == 0 {
-		w.boundaryRing(largest, px, py, bounded)
+		w.boundaryRing(v, largest, px, py, bounded)
 	}
 	w.emit(out, px, py)
 }
@@ -378,7 +378,7 @@ func (w *clipWork) startCell(v int32) (px, py float64, bounded bool) {
 		nx, ny := c.xy[2*j]-px, c.xy[2*j+1]-py
 		w.cnx = append(w.cnx, nx)
 		w.cny = append(w.cny, ny)
-		w.ch = append(w.ch, 0.5*(nx*nx+ny*ny))
+		w.ch = append(w.ch, c.halfOffset(v, j, nx, ny))
 	}
 	w.stamp++
 	w.sx, w.sy, w.sin, w.sg, w.sgp, w.svert = w.sx[:0], w.sy[:0], w.sin[:0], w.sg[:0], w.sgp[:0], w.svert[:0]
@@ -527,15 +527,16 @@ func (w *clipWork) wholeRings(px, py float64) int {
 
 // boundaryRing handles a cell whose boundary no chain touches: the cell's
 // own boundary lies in the area exactly when the largest whole ring is a
-// hole (or, with none, when the site is in the area), and then it is an
-// exterior ring.
-func (w *clipWork) boundaryRing(largest int, px, py float64, bounded bool) {
+// hole (or, with none, when the site is in the area; for a power cell a
+// point of the cell, cellPointOf), and then it is an exterior ring.
+func (w *clipWork) boundaryRing(v int32, largest int, px, py float64, bounded bool) {
 	c := w.c
 	boundaryIn := false
 	if largest >= 0 {
 		boundaryIn = w.rings[largest].hole
 	} else {
-		in, on := c.grid.locate(px, py, nil, nil)
+		x, y := c.cellPointOf(v, w.nb, w.tri)
+		in, on := c.grid.locate(x, y, nil, nil)
 		boundaryIn = in && !on
 		if on {
 			c.anomalies.Add(1)

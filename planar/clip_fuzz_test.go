@@ -66,7 +66,7 @@ func FuzzClipCells(f *testing.F) {
 		if err != nil {
 			t.Fatal(err)
 		}
-		cells, st, err := clipCells(tri, reg, 1+int(shift/2)%2)
+		cells, st, err := clipCells(tri, nil, reg, 1+int(shift/2)%2)
 		if err != nil {
 			t.Fatal(err)
 		}
