@@ -110,6 +110,13 @@ func (l *Layout) UncoveredArea(r float64) float64 {
 	if r <= 0 {
 		return l.AreaM2
 	}
+	return l.uncovered(r, 0)
+}
+
+// uncovered sums the uncovered area over the cells: each disk of radius r,
+// or for a layout with per-device ranges of radius √(r_v² + t).
+func (l *Layout) uncovered(r, t float64) float64 {
+	weighted := l.weighted()
 	c := l.Cells
 	nv := l.numVertices()
 	const chunk = 2048
@@ -122,16 +129,22 @@ func (l *Layout) UncoveredArea(r float64) float64 {
 			if a == 0 {
 				continue
 			}
+			rv := r
+			if weighted {
+				rv = l.grownRadius(v, t)
+			}
 			d, _, _ := l.vertexFarthest(v)
-			if r >= d {
+			if rv >= d {
 				continue
 			}
 			cx, cy := l.site(v)
 			cov := 0.0
-			k0, k1 := c.PolyStart[c.SiteStart[v]], c.PolyStart[c.SiteStart[v+1]]
-			for k := k0; k < k1; k++ {
-				ring := c.XY[2*c.RingStart[k] : 2*c.RingStart[k+1]]
-				cov += planar.RingDiskArea(ring, cx, cy, r)
+			if rv > 0 {
+				k0, k1 := c.PolyStart[c.SiteStart[v]], c.PolyStart[c.SiteStart[v+1]]
+				for k := k0; k < k1; k++ {
+					ring := c.XY[2*c.RingStart[k] : 2*c.RingStart[k+1]]
+					cov += planar.RingDiskArea(ring, cx, cy, rv)
+				}
 			}
 			u := a - cov
 			if u < 0 {
@@ -218,7 +231,7 @@ func (l *Layout) ServiceAreas() []ServiceArea {
 		}
 	})
 	for i, v := range l.Tri.Vertex {
-		if int32(i) != l.Tri.Source[v] {
+		if v >= 0 && int32(i) != l.Tri.Source[v] {
 			out[v].Merged = append(out[v].Merged, i)
 		}
 	}

@@ -20,6 +20,19 @@ type Layout struct {
 	Cells *planar.Cells
 	// AreaM2 is the area of Area in square metres.
 	AreaM2 float64
+	// Ranges holds each triangulation vertex's planned range (m) for a
+	// layout with per-device ranges (NewLayoutRanges); nil for a common
+	// range. Tri is then the regular triangulation of the sites weighted
+	// by r_i², Cells the power cells, and Tri.Vertex is −1 for a hidden
+	// device.
+	Ranges []float64
+	// InputRanges holds the planned range of each input site (m), hidden
+	// devices included; nil for a common range.
+	InputRanges []float64
+	// Hidden lists the input indices of the devices whose power cell is
+	// empty, ascending: their disk lies inside the union of the others,
+	// so they are redundant for coverage. Nil for a common range.
+	Hidden []int
 }
 
 // FullCover is the smallest common range at which the disks around the
@@ -62,6 +75,9 @@ type Gap struct {
 	// Outline is the component's boundary with circular arcs replaced by
 	// chords within the requested tolerance.
 	Outline orb.MultiPolygon
+	// Closing says what closes the gap when devices have their own ranges
+	// (GapsRanges); nil from Gaps.
+	Closing *GapClosing
 }
 
 // Hole is a finite H1 pair of the alpha filtration: a hole enclosed by the
