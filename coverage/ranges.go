@@ -265,3 +265,42 @@ func (l *Layout) FullCoverRanges() RangesFullCover {
 	out.Needed = l.GrownRanges(fc.Range)
 	return out
 }
+
+// CurveRanges returns the coverage curve of a layout with per-device
+// ranges under uniform power growth: its argument is the growth t (m²),
+// every device's range being √(r_i² + t) (t = 0: the planned ranges). The
+// Curve methods then take and return powers: UncoveredArea(t),
+// CoveredFraction(t), RangeFor(fraction) (the smallest t reaching it; the
+// ranges are GrownRanges(t)), FullCoverRange (the full-cover power) and
+// Samples (from the smallest −r_i² to the full-cover power). Nil for a
+// common-range layout (use Curve).
+func (l *Layout) CurveRanges() *Curve {
+	if !l.weighted() {
+		return nil
+	}
+	cv := l.Curve()
+	nv := l.numVertices()
+	cv.w = make([]float64, nv)
+	wmax := 0.0
+	cv.lo = math.Inf(1)
+	for v, r := range l.Ranges {
+		cv.w[v] = r * r
+		wmax = math.Max(wmax, cv.w[v])
+		cv.lo = math.Min(cv.lo, -cv.w[v])
+	}
+	cv.full, cv.contact = math.Inf(-1), math.Inf(1)
+	for p := range cv.pieceArea {
+		w := cv.w[cv.pieceV[p]]
+		cv.full = math.Max(cv.full, cv.pieceMax[p]*cv.pieceMax[p]-w)
+		ct := cv.pieceMin[p]*cv.pieceMin[p] - w
+		if cv.pieceIn[p] {
+			ct = -w
+		}
+		cv.contact = math.Min(cv.contact, ct)
+	}
+	if len(cv.pieceArea) == 0 {
+		cv.full, cv.contact = cv.lo, cv.lo
+	}
+	cv.tol = crvTol * (math.Abs(cv.full) + wmax)
+	return cv
+}

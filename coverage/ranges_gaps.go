@@ -19,7 +19,8 @@
 //     at a vertex (the convex hull of the boundary's vertices) or, on a
 //     circle arc of centre c and radius ρ, at c + ρ·(c − p_i)/|c − p_i| when
 //     that point lies on the arc. The device with the smallest increase
-//     among those whose cells the gap meets is reported, with its range.
+//     among those whose cells the gap meets is reported, with its range
+//     (the increase counted from its range at the growth analysed).
 //
 // Error bounds: as gaps.go; the farthest distances are those of the traced
 // vertices (a few ulps) and the closed-form arc point.
@@ -121,7 +122,7 @@ func (l *Layout) gapClosings(m *gapMerged, gapOf []int32, gs []Gap, pow []float6
 			pts, arcs = m.gapBoundary(l, nodesOf[g], gp, pts[:0], arcs[:0])
 			hull := planar.ConvexHull(pts)
 			if len(G.Sites)*(len(hull)+len(arcs)) <= gapClosingWork {
-				cl.Device, cl.DeviceRange = l.singleClosing(G.Sites, hull, arcs)
+				cl.Device, cl.DeviceRange = l.singleClosing(G.Sites, hull, arcs, gp)
 			}
 			G.Closing = cl
 		}
@@ -155,9 +156,9 @@ func (m *gapMerged) gapBoundary(l *Layout, nodes []int32, gp *gapParams, pts []o
 }
 
 // singleClosing returns the device among sites (input indices) whose range
-// must grow least to reach every point of the gap with the given hull of
-// boundary vertices and arcs, and the range it needs.
-func (l *Layout) singleClosing(sites []int, hull orb.Ring, arcs []gapArcRef) (int, float64) {
+// (its radius in gp) must grow least to reach every point of the gap with
+// the given hull of boundary vertices and arcs, and the range it needs.
+func (l *Layout) singleClosing(sites []int, hull orb.Ring, arcs []gapArcRef, gp *gapParams) (int, float64) {
 	best, bestInc, bestR := -1, math.Inf(1), 0.0
 	for _, s := range sites {
 		px, py := l.Sites[s][0], l.Sites[s][1]
@@ -176,7 +177,7 @@ func (l *Layout) singleClosing(sites []int, hull orb.Ring, arcs []gapArcRef) (in
 				far = dc + a.r
 			}
 		}
-		if inc := far - l.InputRanges[s]; inc < bestInc {
+		if inc := far - gp.radius(l.Tri.Vertex[s]); inc < bestInc {
 			best, bestInc, bestR = s, inc, far
 		}
 	}
