@@ -39,7 +39,7 @@ type Options struct {
 // Timing is the wall-clock time of one phase of Analyze.
 type Timing struct {
 	// Phase is one of triangulate, clip, fullcover, curve, gaps,
-	// persistence.
+	// persistence, and links (AnalyzeRanges).
 	Phase string
 	// Seconds is the elapsed time.
 	Seconds float64

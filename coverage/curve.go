@@ -482,7 +482,7 @@ func (c *Curve) UncoveredArea(r float64) float64 {
 	if math.IsNaN(r) {
 		return math.NaN()
 	}
-	if r < 0 {
+	if r < 0 && c.w == nil {
 		r = 0
 	}
 	return c.eval([]float64{r}, 1).u[0]

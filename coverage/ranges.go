@@ -21,7 +21,10 @@
 // A device whose power cell is empty is hidden: its disk lies inside the
 // union of the others (every point of D_i has a smaller or equal power with
 // respect to some other device, so it is covered by it), so for coverage it
-// is redundant. Its input index is listed in Layout.Hidden.
+// is redundant. Its input index is listed in Layout.Hidden. The converse
+// does not hold: a disk inside another's has a non-empty power cell (the
+// half-plane beyond their power line) unless other devices take it, so a
+// device may be redundant without being hidden.
 //
 // Error bounds: as layout.go (each term within about 1e-16 of the cell
 // area; fixed chunk order), the radius √(r_i² + t) rounding once more.

@@ -23,6 +23,7 @@ import (
 	"encoding/json"
 	"fmt"
 	"math"
+	"math/rand/v2"
 	"os"
 	"os/exec"
 	"path/filepath"
@@ -32,6 +33,7 @@ import (
 
 	"github.com/paulmach/orb"
 	"github.com/sitecover/sitecover/planar"
+	"github.com/sitecover/sitecover/planar/sitegen"
 )
 
 type rangesRefDoc struct {
@@ -220,4 +222,255 @@ func TestRangesGEOSLive(t *testing.T) {
 		t.Fatal(err)
 	}
 	checkRangesRef(t, doc)
+}
+
+// mixedLayout is a reproducible layout of devices with the 40/60/120/150 m
+// mix at about one per 100 m × 100 m over a square area with a hole.
+func mixedLayout(t testing.TB, n int, seed uint64) (*Layout, []orb.Point, []float64) {
+	t.Helper()
+	r := rand.New(rand.NewPCG(seed, 7))
+	side := 100 * math.Sqrt(float64(n))
+	sites := make([]orb.Point, n)
+	ranges := make([]float64, n)
+	mix := [4]float64{40, 60, 120, 150}
+	for i := range sites {
+		sites[i] = orb.Point{r.Float64() * side, r.Float64() * side}
+		ranges[i] = mix[r.IntN(4)]
+	}
+	reg, err := planar.NewRegion(orb.MultiPolygon{{
+		{{0, 0}, {side, 0}, {side, side}, {0, side}},
+		{{0.3 * side, 0.3 * side}, {0.3 * side, 0.45 * side}, {0.45 * side, 0.45 * side}, {0.45 * side, 0.3 * side}},
+	}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	l, err := NewLayoutRanges(sites, ranges, reg)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return l, sites, ranges
+}
+
+// TestRangesMonteCarlo: the uncovered fraction at several growths against
+// random points tested against every disk (brute force), within 5 standard
+// errors; and no random point beats the full-cover power.
+func TestRangesMonteCarlo(t *testing.T) {
+	l, sites, ranges := mixedLayout(t, 300, 3)
+	b := l.Area.Bound()
+	r := rand.New(rand.NewPCG(11, 12))
+	const n = 60000
+	fc := l.FullCoverRanges()
+	for _, growth := range []float64{0, 2000, -1000} {
+		t.Run(fmt.Sprintf("t=%g", growth), func(t *testing.T) {
+			in, out := 0, 0
+			for k := 0; k < n; k++ {
+				x := b.Min[0] + r.Float64()*(b.Max[0]-b.Min[0])
+				y := b.Min[1] + r.Float64()*(b.Max[1]-b.Min[1])
+				if !l.Area.Contains(x, y) {
+					continue
+				}
+				in++
+				best := math.Inf(1)
+				for i, s := range sites {
+					best = math.Min(best, (x-s[0])*(x-s[0])+(y-s[1])*(y-s[1])-ranges[i]*ranges[i])
+				}
+				if best > growth {
+					out++
+				}
+				if best > fc.Power*(1+1e-9) {
+					t.Fatalf("(%g, %g) has power %g above the full-cover power %g", x, y, best, fc.Power)
+				}
+			}
+			p := float64(out) / float64(in)
+			want := l.UncoveredAreaGrown(growth) / l.AreaM2
+			if se := math.Sqrt(want * (1 - want) / float64(in)); math.Abs(p-want) > 5*se+1e-12 {
+				t.Errorf("Monte Carlo uncovered fraction %.5f, exact %.5f (5σ = %.5f)", p, want, 5*se)
+			}
+		})
+	}
+}
+
+// TestRangesTwoDisksLens: closed form. Two overlapping disks of radii a, b
+// at distance d inside a box: uncovered = box − (πa² + πb² − lens), lens
+// = a² acos((d² + a² − b²)/(2da)) + b² acos((d² + b² − a²)/(2db)) −
+// ½√((−d + a + b)(d + a − b)(d − a + b)(d + a + b)) (textbook).
+func TestRangesTwoDisksLens(t *testing.T) {
+	for _, cs := range []struct {
+		name    string
+		a, b, d float64
+	}{
+		{"unequal", 150, 40, 170},
+		{"deep", 150, 60, 100},
+		{"equal", 60, 60, 100},
+	} {
+		t.Run(cs.name, func(t *testing.T) {
+			reg, err := planar.NewRegion(orb.MultiPolygon{{{{-300, -300}, {500, -300}, {500, 300}, {-300, 300}}}})
+			if err != nil {
+				t.Fatal(err)
+			}
+			l, err := NewLayoutRanges([]orb.Point{{0, 0}, {cs.d, 0}}, []float64{cs.a, cs.b}, reg)
+			if err != nil {
+				t.Fatal(err)
+			}
+			a, b, d := cs.a, cs.b, cs.d
+			lens := a*a*math.Acos((d*d+a*a-b*b)/(2*d*a)) + b*b*math.Acos((d*d+b*b-a*a)/(2*d*b)) -
+				0.5*math.Sqrt((-d+a+b)*(d+a-b)*(d-a+b)*(d+a+b))
+			want := 800*600 - (math.Pi*a*a + math.Pi*b*b - lens)
+			if got := l.UncoveredAreaGrown(0); math.Abs(got-want) > 1e-9*want {
+				t.Errorf("uncovered %.12g, closed form %.12g", got, want)
+			}
+			gs := l.GapsRanges(0, DefaultChordTolerance)
+			if len(gs) != 1 || !gs[0].TouchesBoundary {
+				t.Fatalf("%d gaps, want one touching the boundary", len(gs))
+			}
+			// The deepest point is a box corner; its power with respect to
+			// the device of its cell is the full-cover power.
+			if fc := l.FullCoverRanges(); math.Abs(gs[0].Closing.Power-fc.Power) > 1e-9*fc.Power {
+				t.Errorf("gap closing power %g, full-cover power %g", gs[0].Closing.Power, fc.Power)
+			}
+		})
+	}
+}
+
+// TestRangesLatticeKnown: closed form. A checkerboard square lattice of
+// spacing 100 m with radii 60 m and 35 m (neighbours 95 m < 100 m apart in
+// reach, same-radius diagonals 141 m > 120 m): no two disks meet, so in a
+// box holding every disk the uncovered area is the box minus all disks,
+// there is one gap (touching the boundary), no device is hidden, the union
+// has one piece per disk and no hole, and no two devices link.
+func TestRangesLatticeKnown(t *testing.T) {
+	const k, s = 9, 100.0
+	var sites []orb.Point
+	var ranges []float64
+	disks := 0.0
+	for j := 0; j < k; j++ {
+		for i := 0; i < k; i++ {
+			r := 35.0
+			if (i+j)%2 == 0 {
+				r = 60
+			}
+			sites = append(sites, orb.Point{float64(i) * s, float64(j) * s})
+			ranges = append(ranges, r)
+			disks += math.Pi * r * r
+		}
+	}
+	lo, hi := -70.0, float64(k-1)*s+70
+	reg, err := planar.NewRegion(orb.MultiPolygon{{{{lo, lo}, {hi, lo}, {hi, hi}, {lo, hi}}}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	a, err := AnalyzeRanges(sites, ranges, reg, Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	box := (hi - lo) * (hi - lo)
+	if want := box - disks; math.Abs(a.UncoveredArea-want) > 1e-9*box {
+		t.Errorf("uncovered %.12g, closed form %.12g", a.UncoveredArea, want)
+	}
+	if len(a.Gaps) != 1 || !a.Gaps[0].TouchesBoundary || len(a.Hidden) != 0 {
+		t.Errorf("%d gaps, hidden %v; want one gap touching the boundary, none hidden", len(a.Gaps), a.Hidden)
+	}
+	if a.Pieces != k*k || a.EnclosedHoles != 0 || a.Links.Components != k*k {
+		t.Errorf("pieces %d, holes %d, link groups %d; want %d, 0, %d", a.Pieces, a.EnclosedHoles, a.Links.Components, k*k, k*k)
+	}
+}
+
+// TestRangesHiddenRedundant: a small disk inside a large one is hidden and
+// listed as redundant; removing it changes no uncovered area.
+func TestRangesHiddenRedundant(t *testing.T) {
+	reg, err := planar.NewRegion(orb.MultiPolygon{{{{0, 0}, {600, 0}, {600, 400}, {0, 400}}}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	// Device 1 (40 m) lies in the middle of four 150 m devices.
+	sites := []orb.Point{{100, 200}, {210, 205}, {300, 200}, {200, 100}, {200, 300}}
+	ranges := []float64{150, 40, 150, 150, 150}
+	l, err := NewLayoutRanges(sites, ranges, reg)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !slices.Equal(l.Hidden, []int{1}) {
+		t.Fatalf("hidden %v, want [1]", l.Hidden)
+	}
+	l2, err := NewLayoutRanges(slices.Delete(slices.Clone(sites), 1, 2), slices.Delete(slices.Clone(ranges), 1, 2), reg)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, growth := range []float64{0, 5000} {
+		if a, b := l.UncoveredAreaGrown(growth), l2.UncoveredAreaGrown(growth); math.Abs(a-b) > 1e-9*a {
+			t.Errorf("t=%g: uncovered %v with the hidden device, %v without", growth, a, b)
+		}
+	}
+	sa := l.ServiceAreasRanges()
+	if len(sa) != 4 || sa[0].Site != 0 || sa[1].Site != 2 {
+		t.Fatalf("service areas %+v", sa)
+	}
+	for _, s := range sa {
+		if s.Served > s.Area || s.Served <= 0 {
+			t.Errorf("device %d serves %v of its %v m²", s.Site, s.Served, s.Area)
+		}
+	}
+}
+
+// TestRangesCurve: the curve under uniform power growth agrees with the
+// direct sum at every growth, reaches 1 at the full-cover power, and its
+// inverse meets the requested fractions.
+func TestRangesCurve(t *testing.T) {
+	l, _, _ := mixedLayout(t, 400, 5)
+	cv := l.CurveRanges()
+	fc := l.FullCoverRanges()
+	if math.Abs(cv.FullCoverRange()-fc.Power) > 1e-9*math.Abs(fc.Power) {
+		t.Errorf("curve full-cover power %v, FullCoverRanges %v", cv.FullCoverRange(), fc.Power)
+	}
+	for _, growth := range []float64{-20000, -1000, 0, 3000, 10000, fc.Power} {
+		a, b := cv.UncoveredArea(growth), l.UncoveredAreaGrown(growth)
+		if math.Abs(a-b) > 1e-9*l.AreaM2 {
+			t.Errorf("t=%g: curve %v, direct %v", growth, a, b)
+		}
+	}
+	if u := l.UncoveredAreaGrown(fc.Power); u > 1e-9*l.AreaM2 {
+		t.Errorf("uncovered %v at the full-cover power", u)
+	}
+	fr := []float64{0.2, 0.5, 0.9, 0.99}
+	for i, p := range cv.RangesFor(fr) {
+		if got := l.CoveredFractionGrown(p); math.Abs(got-fr[i]) > 1e-7 {
+			t.Errorf("fraction %v: growth %v gives %v", fr[i], p, got)
+		}
+	}
+}
+
+// TestRangesLinksBruteForce compares the link groups with all pairs.
+func TestRangesLinksBruteForce(t *testing.T) {
+	sites := sitegen.Uniform(600, 9)
+	for i := range sites {
+		sites[i] = orb.Point{sites[i][0] * 6, sites[i][1] * 6}
+	}
+	ranges := make([]float64, len(sites))
+	r := rand.New(rand.NewPCG(4, 4))
+	for i := range ranges {
+		ranges[i] = [4]float64{40, 60, 120, 150}[r.IntN(4)]
+	}
+	ls := LinksRanges(sites, ranges)
+	uf := planar.NewUnionFind(len(sites))
+	for i := range sites {
+		for j := i + 1; j < len(sites); j++ {
+			m := math.Min(ranges[i], ranges[j])
+			if dx, dy := sites[i][0]-sites[j][0], sites[i][1]-sites[j][1]; dx*dx+dy*dy <= m*m {
+				uf.UnionMin(int32(i), int32(j))
+			}
+		}
+	}
+	groups := 0
+	for i := range sites {
+		g := int(uf.Find(int32(i)))
+		if g == i {
+			groups++
+		}
+		if ls.Group[i] != g {
+			t.Fatalf("device %d in group %d, brute force %d", i, ls.Group[i], g)
+		}
+	}
+	if ls.Components != groups {
+		t.Errorf("%d groups, brute force %d", ls.Components, groups)
+	}
 }
