@@ -117,6 +117,17 @@ func gapsOutlineContains(mp orb.MultiPolygon, p orb.Point) bool {
 	return false
 }
 
+// gapsMatch returns the index of the first gap whose outline holds p, −1
+// when none does.
+func gapsMatch(gs []Gap, p orb.Point) int {
+	for i, g := range gs {
+		if gapsOutlineContains(g.Outline, p) {
+			return i
+		}
+	}
+	return -1
+}
+
 // gapsCheck runs the gap analysis with the self-check and the invariants
 // every result must satisfy; it returns the gaps.
 func gapsCheck(t *testing.T, name string, l *Layout, r float64) []Gap {
@@ -195,13 +206,7 @@ func gapsCompareGEOS(t *testing.T, sc gapsRefScene, l *Layout, c gapsRefCase) {
 	used := make([]bool, len(gs))
 	for k, comp := range c.Components {
 		p := orb.Point{comp.Rep[0], comp.Rep[1]}
-		found := -1
-		for i, g := range gs {
-			if gapsOutlineContains(g.Outline, p) {
-				found = i
-				break
-			}
-		}
+		found := gapsMatch(gs, p)
 		if found < 0 || used[found] {
 			t.Errorf("%s r=%v: GEOS component %d (point %v) matches no distinct gap", sc.Name, c.R, k, p)
 			continue

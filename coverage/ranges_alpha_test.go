@@ -17,15 +17,9 @@
 package coverage
 
 import (
-	"encoding/json"
-	"fmt"
 	"math"
-	"os"
-	"os/exec"
-	"path/filepath"
 	"slices"
 	"testing"
-	"time"
 
 	"github.com/paulmach/orb"
 	"github.com/sitecover/sitecover/planar"
@@ -146,36 +140,14 @@ func checkPowerRef(t *testing.T, doc powerRefDoc) {
 }
 
 func TestPowerPersistenceGUDHI(t *testing.T) {
-	raw, err := os.ReadFile("testdata/weighted_persistence_ref.json")
-	if err != nil {
-		t.Fatal(err)
-	}
 	var doc powerRefDoc
-	if err := json.Unmarshal(raw, &doc); err != nil {
-		t.Fatal(err)
-	}
+	loadRef(t, "testdata/weighted_persistence_ref.json", &doc)
 	checkPowerRef(t, doc)
 }
 
 func TestPowerPersistenceLive(t *testing.T) {
-	if os.Getenv("SITECOVER_LIVE") != "1" {
-		t.Skip("set SITECOVER_LIVE=1 to re-run testdata/ref_weighted_persistence.py (GUDHI) on a fresh seed")
-	}
-	seed := time.Now().UnixNano() % 1000000007
-	out := filepath.Join(t.TempDir(), "ref.json")
-	cmd := exec.Command("/usr/bin/python3", "testdata/ref_weighted_persistence.py", "--small", "--seed", fmt.Sprint(seed), "--out", out)
-	if b, err := cmd.CombinedOutput(); err != nil {
-		t.Fatalf("ref_weighted_persistence.py (needs python3-gudhi): %v\n%s", err, b)
-	}
-	t.Logf("seed %d", seed)
-	raw, err := os.ReadFile(out)
-	if err != nil {
-		t.Fatal(err)
-	}
 	var doc powerRefDoc
-	if err := json.Unmarshal(raw, &doc); err != nil {
-		t.Fatal(err)
-	}
+	liveRef(t, "ref_weighted_persistence.py", "Debian python3-gudhi", &doc, "--small")
 	checkPowerRef(t, doc)
 }
 

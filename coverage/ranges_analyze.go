@@ -17,7 +17,6 @@
 package coverage
 
 import (
-	"errors"
 	"fmt"
 	"math"
 	"time"
@@ -75,17 +74,9 @@ type RangesAnalysis struct {
 // for Analyze (ChordTolerance relative to each arc's own radius). Errors
 // name the offending input.
 func AnalyzeRanges(sites []orb.Point, ranges []float64, area *planar.Region, opt Options) (*RangesAnalysis, error) {
-	if math.IsNaN(opt.ChordTolerance) || math.IsInf(opt.ChordTolerance, 0) {
-		return nil, errors.New("coverage: chord tolerance is not a finite number")
-	}
-	pct := opt.Percentiles
-	if pct == nil {
-		pct = DefaultPercentiles
-	}
-	for i, f := range pct {
-		if !(f >= 0 && f <= 1) {
-			return nil, fmt.Errorf("coverage: percentile %d (%v) is not a fraction in [0, 1]", i, f)
-		}
+	pct, err := opt.percentiles()
+	if err != nil {
+		return nil, err
 	}
 	if len(ranges) == len(sites) && len(ranges) > 0 && rangesEqual(ranges) {
 		return analyzeEqualRanges(sites, ranges, area, opt, pct)

@@ -125,13 +125,7 @@ func checkRangesRef(t *testing.T, doc rangesRefDoc) {
 				used := make([]bool, len(gs))
 				for k, comp := range c.Components {
 					p := orb.Point{comp.Rep[0], comp.Rep[1]}
-					found := -1
-					for i, g := range gs {
-						if gapsOutlineContains(g.Outline, p) {
-							found = i
-							break
-						}
-					}
+					found := gapsMatch(gs, p)
 					if found < 0 || used[found] {
 						t.Errorf("GEOS component %d (point %v) matches no distinct gap", k, p)
 						continue
@@ -188,40 +182,48 @@ func checkClosing(t *testing.T, l *Layout, g Gap, growth float64, farCirc, farIn
 }
 
 func TestRangesGEOSReference(t *testing.T) {
-	raw, err := os.ReadFile("testdata/weighted_gaps_ref.json")
-	if err != nil {
-		t.Fatal(err)
-	}
 	var doc rangesRefDoc
-	if err := json.Unmarshal(raw, &doc); err != nil {
-		t.Fatal(err)
-	}
+	loadRef(t, "testdata/weighted_gaps_ref.json", &doc)
 	checkRangesRef(t, doc)
 }
 
 func TestRangesGEOSLive(t *testing.T) {
+	var doc rangesRefDoc
+	liveRef(t, "ref_weighted_gaps.py", "GEOS via Debian python3-shapely", &doc)
+	checkRangesRef(t, doc)
+}
+
+// loadRef decodes the JSON file at path into doc.
+func loadRef(t *testing.T, path string, doc any) {
+	t.Helper()
+	raw, err := os.ReadFile(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if err := json.Unmarshal(raw, doc); err != nil {
+		t.Fatalf("%s: %v", path, err)
+	}
+}
+
+// liveRef runs testdata/script (which needs tool) with a fresh --seed
+// (SITECOVER_SEED repeats one) and extra args, and decodes its output into
+// doc. It skips unless SITECOVER_LIVE=1 and fails when the tool is missing.
+func liveRef(t *testing.T, script, tool string, doc any, args ...string) {
+	t.Helper()
 	if os.Getenv("SITECOVER_LIVE") != "1" {
-		t.Skip("set SITECOVER_LIVE=1 to re-run testdata/ref_weighted_gaps.py (GEOS via Debian python3-shapely) on a fresh seed")
+		t.Skipf("set SITECOVER_LIVE=1 to re-run testdata/%s (%s) on a fresh seed", script, tool)
 	}
 	seed := time.Now().UnixNano() % 1000000007
 	if s := os.Getenv("SITECOVER_SEED"); s != "" {
 		fmt.Sscan(s, &seed)
 	}
 	out := filepath.Join(t.TempDir(), "ref.json")
-	cmd := exec.Command("/usr/bin/python3", "testdata/ref_weighted_gaps.py", "--seed", fmt.Sprint(seed), "--out", out)
-	if b, err := cmd.CombinedOutput(); err != nil {
-		t.Fatalf("ref_weighted_gaps.py (needs python3-shapely): %v\n%s", err, b)
+	args = append([]string{filepath.Join("testdata", script), "--seed", fmt.Sprint(seed), "--out", out}, args...)
+	if b, err := exec.Command("/usr/bin/python3", args...).CombinedOutput(); err != nil {
+		t.Fatalf("%s --seed %d (needs %s): %v\n%s", script, seed, tool, err, b)
 	}
 	t.Logf("seed %d", seed)
-	raw, err := os.ReadFile(out)
-	if err != nil {
-		t.Fatal(err)
-	}
-	var doc rangesRefDoc
-	if err := json.Unmarshal(raw, &doc); err != nil {
-		t.Fatal(err)
-	}
-	checkRangesRef(t, doc)
+	loadRef(t, out, doc)
 }
 
 // mixedLayout is a reproducible layout of devices with the 40/60/120/150 m

@@ -35,11 +35,9 @@ import sys
 
 import numpy as np
 import shapely
-from shapely.geometry import Point
-from shapely.ops import unary_union
 
 sys.path.insert(0, os.path.dirname(os.path.abspath(__file__)))
-from ref_gaps import N_SEG, RES, components, region_of, scene_fence, scene_lshape, scene_two_parts, touches  # noqa: E402
+from ref_gaps import N_SEG, RES, bracket, region_of, scene_fence, scene_lshape, scene_two_parts  # noqa: E402
 
 MIX = [20.0, 30.0, 45.0, 60.0]
 GROWTH = [0.0, 600.0]
@@ -59,38 +57,11 @@ def farthest(comp, p):
 
 def case(region, sites, ranges, t):
     radii = [math.sqrt(r * r + t) for r in ranges]
-    insc = region.difference(unary_union([Point(p).buffer(r, resolution=RES) for p, r in zip(sites, radii)]))
-    circ = region.difference(unary_union([Point(p).buffer(r / math.cos(math.pi / N_SEG), resolution=RES) for p, r in zip(sites, radii)]))
-    ci, cc = components(insc), components(circ)
-    out = {
-        "t": t,
-        "uncovered_inscribed": insc.area,
-        "uncovered_circumscribed": circ.area,
-        "count_inscribed": len(ci),
-        "count_circumscribed": len(cc),
-        "components": [],
-    }
-    bnd = region.boundary
-    used = set()
-    ok = len(ci) == len(cc)
-    for c in cc:
-        rp = c.representative_point()
-        match = [k for k, q in enumerate(ci) if q.contains(rp)]
-        if len(match) != 1 or match[0] in used:
-            ok = False
-            break
-        used.add(match[0])
-        q = ci[match[0]]
-        out["components"].append({
-            "rep": [rp.x, rp.y],
-            "area_circumscribed": c.area,
-            "area_inscribed": q.area,
-            "touches_circumscribed": touches(c, bnd),
-            "touches_inscribed": touches(q, bnd),
-            "far_circumscribed": [farthest(c, p) for p in sites],
-            "far_inscribed": [farthest(q, p) for p in sites],
-        })
-    return out if ok else None
+    b = bracket(region, sites, radii, lambda c, q: {
+        "far_circumscribed": [farthest(c, p) for p in sites],
+        "far_inscribed": [farthest(q, p) for p in sites],
+    })
+    return None if b is None else dict({"t": t}, **b)
 
 
 def build(seed):
