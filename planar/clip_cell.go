@@ -134,7 +134,12 @@ func (w *clipWork) wholeCell(v int32, out *clipOut) {
 		out.src = out.src[:start]
 		out.sitePolys = append(out.sitePolys, 0)
 		out.area = append(out.area, 0)
-		w.c.anomalies.Add(1)
+		if c.wt == nil {
+			// A Voronoi cell always has area; a power cell of a vertex
+			// whose lift lies exactly on its neighbours' plane (kept by
+			// the perturbation) is a point, and empty is right.
+			w.c.anomalies.Add(1)
+		}
 		return
 	}
 	out.ringPts = append(out.ringPts, int32(n))
@@ -525,6 +530,17 @@ func (w *clipWork) wholeRings(px, py float64) int {
 	return largest
 }
 
+// cornerArea returns the signed area of the current bounded cell's corner
+// polygon (its circumcentres or power centres in order).
+func (w *clipWork) cornerArea() float64 {
+	xy := w.tmp[:0]
+	for _, t := range w.tri {
+		xy = append(xy, w.c.cc[2*t], w.c.cc[2*t+1])
+	}
+	w.tmp = xy
+	return RingArea(xy)
+}
+
 // boundaryRing handles a cell whose boundary no chain touches: the cell's
 // own boundary lies in the area exactly when the largest whole ring is a
 // hole (or, with none, when the site is in the area; for a power cell a
@@ -535,10 +551,12 @@ func (w *clipWork) boundaryRing(v int32, largest int, px, py float64, bounded bo
 	if largest >= 0 {
 		boundaryIn = w.rings[largest].hole
 	} else {
-		x, y := c.cellPointOf(v, w.nb, w.tri)
+		x, y := c.cellPointOf(v, w.nb, w.tri, bounded)
 		in, on := c.grid.locate(x, y, nil, nil)
 		boundaryIn = in && !on
-		if on {
+		if on && !(c.wt != nil && bounded && w.cornerArea() == 0) {
+			// (A power cell of zero area, a point or a segment, may lie
+			// on the area's boundary; it is empty either way.)
 			c.anomalies.Add(1)
 		}
 	}

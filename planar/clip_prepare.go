@@ -200,12 +200,16 @@ func (c *clipper) cellPoint(v int32, nb, tri []int32) (x, y float64) {
 	if c.wt == nil {
 		return c.xy[2*v], c.xy[2*v+1]
 	}
-	nb, tri, _ = c.around(v, nb, tri)
-	return c.cellPointOf(v, nb, tri)
+	var bounded bool
+	nb, tri, bounded = c.around(v, nb, tri)
+	return c.cellPointOf(v, nb, tri, bounded)
 }
 
-// cellPointOf is cellPoint given v's neighbours and triangles (around).
-func (c *clipper) cellPointOf(v int32, nb, tri []int32) (x, y float64) {
+// cellPointOf is cellPoint given v's neighbours and triangles (around). An
+// unbounded cell's corner mean is moved along the sum of its two rays'
+// directions (the outward normals of its hull edges, in the cell's
+// recession cone) by the spread of its corners, off its boundary.
+func (c *clipper) cellPointOf(v int32, nb, tri []int32, bounded bool) (x, y float64) {
 	px, py := c.xy[2*v], c.xy[2*v+1]
 	if c.wt == nil {
 		return px, py
@@ -215,7 +219,22 @@ func (c *clipper) cellPointOf(v int32, nb, tri []int32) (x, y float64) {
 			x += c.cc[2*k]
 			y += c.cc[2*k+1]
 		}
-		return x / float64(len(tri)), y / float64(len(tri))
+		x, y = x/float64(len(tri)), y/float64(len(tri))
+		if bounded {
+			return x, y
+		}
+		spread := 1.0
+		for _, k := range tri {
+			spread += math.Abs(c.cc[2*k]-x) + math.Abs(c.cc[2*k+1]-y)
+		}
+		// Hull edges v → nb[0] and nb[last] → v, interior on the left:
+		// outward normals (dy, −dx).
+		a, b := nb[0], nb[len(nb)-1]
+		d1x, d1y := c.xy[2*a]-px, c.xy[2*a+1]-py
+		d2x, d2y := px-c.xy[2*b], py-c.xy[2*b+1]
+		l1, l2 := math.Hypot(d1x, d1y), math.Hypot(d2x, d2y)
+		ux, uy := d1y/l1+d2y/l2, -d1x/l1-d2x/l2
+		return x + spread*ux, y + spread*uy
 	}
 	// Collinear: along n = p_j − p_v the power line with j is at the
 	// fraction s = (|n|² + w_v − w_j)/(2|n|²) of n.
