@@ -210,3 +210,34 @@ func TestClipPowerCellsTwoDisks(t *testing.T) {
 		})
 	}
 }
+
+// TestNearestPower compares NearestPower with the brute-force smallest
+// power at random points, on random, lattice and collinear layouts.
+func TestNearestPower(t *testing.T) {
+	cases := []struct {
+		name string
+		pts  []orb.Point
+	}{
+		{"uniform-2000", scaled(sitegen.Uniform(2000, 31), 10)},
+		{"lattice-15x15", sitegen.TriangularLattice(15, 15, 100)},
+		{"collinear", []orb.Point{{0, 0}, {100, 10}, {200, 20}, {300, 30}, {400, 40}}},
+	}
+	for ci, cs := range cases {
+		t.Run(cs.name, func(t *testing.T) {
+			rt := mustRegular(t, cs.pts, rangeWeights(len(cs.pts), uint64(ci)+40))
+			b := orb.MultiPoint(cs.pts).Bound()
+			r := rand.New(rand.NewPCG(uint64(ci), 5))
+			hint := int32(-1)
+			for q := 0; q < 2000; q++ {
+				x := b.Min[0] - 50 + r.Float64()*(b.Max[0]-b.Min[0]+100)
+				y := b.Min[1] - 50 + r.Float64()*(b.Max[1]-b.Min[1]+100)
+				want, gap := bruteSmallestPower(&rt.Triangulation, rt.Weights, x, y)
+				got := rt.NearestPower(x, y, hint)
+				hint = got
+				if got != want && gap > 1e-6 {
+					t.Fatalf("(%g, %g): vertex %d, brute force %d", x, y, got, want)
+				}
+			}
+		})
+	}
+}

@@ -28,6 +28,7 @@
 //     lines for bisectors and power centres for circumcentres (Aurenhammer,
 //     SIAM J. Comput. 16, 1987), on the regular triangulation
 //     (TriangulateRegular); equal weights give ClipCells's output exactly.
+//     RegularTriangulation.NearestPower finds the vertex of smallest power.
 //   - Areas: polygon ∩ disk by the closed form summed over polygon edges
 //     (each edge contributes a triangle part and a circular-sector part).
 //   - Rings (ring.go, ringset.go): shoelace area and moments, exact
