@@ -8,6 +8,13 @@ import (
 // Layout is a set of device sites and a site area in the local plane, with
 // the Delaunay triangulation of the sites and their Voronoi cells clipped to
 // the area. Everything else in this package is computed from a Layout.
+//
+// A layout built by NewLayoutRanges (devices with their own ranges) holds
+// the regular triangulation and the power cells instead; its figures come
+// from the methods that take the ranges into account (UncoveredAreaGrown,
+// GapsRanges, FullCoverRanges, CurveRanges, PersistenceRanges,
+// ServiceAreasRanges). The common-range methods treat its cells as Voronoi
+// cells, which they are only when all ranges are equal.
 type Layout struct {
 	// Sites are the device positions in input order (metres).
 	Sites []orb.Point
