@@ -110,13 +110,14 @@ func (l *Layout) UncoveredArea(r float64) float64 {
 	if r <= 0 {
 		return l.AreaM2
 	}
-	return l.uncovered(r, 0)
+	return l.uncovered(r, 0, false)
 }
 
 // uncovered sums the uncovered area over the cells: each disk of radius r,
-// or for a layout with per-device ranges of radius √(r_v² + t).
-func (l *Layout) uncovered(r, t float64) float64 {
-	weighted := l.weighted()
+// or with perDevice (a layout with per-device ranges) of radius
+// √(r_v² + t).
+func (l *Layout) uncovered(r, t float64, perDevice bool) float64 {
+	weighted := perDevice
 	c := l.Cells
 	nv := l.numVertices()
 	const chunk = 2048

@@ -159,7 +159,7 @@ func (l *Layout) UncoveredAreaGrown(t float64) float64 {
 	if !l.weighted() {
 		return l.UncoveredArea(math.Sqrt(math.Max(0, t)))
 	}
-	return l.uncovered(0, t)
+	return l.uncovered(0, t, true)
 }
 
 // CoveredFractionGrown is UncoveredAreaGrown as a covered fraction of the

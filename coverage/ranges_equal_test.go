@@ -113,3 +113,29 @@ func TestRangesEqualIsCommon(t *testing.T) {
 		}
 	}
 }
+
+// TestRangesCommonMethodsKeepTheirRange: on a layout with ranges the
+// common-range methods still answer for the range they are given.
+func TestRangesCommonMethodsKeepTheirRange(t *testing.T) {
+	l, sites, _ := mixedLayout(t, 200, 8)
+	equal := make([]float64, len(sites))
+	for i := range equal {
+		equal[i] = 80
+	}
+	le, err := NewLayoutRanges(sites, equal, l.Area)
+	if err != nil {
+		t.Fatal(err)
+	}
+	l0, err := NewLayout(sites, l.Area)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, r := range []float64{30, 80, 200} {
+		if a, b := le.UncoveredArea(r), l0.UncoveredArea(r); a != b {
+			t.Errorf("r=%g: UncoveredArea %v on the layout with ranges, %v without", r, a, b)
+		}
+		if a, b := len(le.Gaps(r, 0)), len(l0.Gaps(r, 0)); a != b {
+			t.Errorf("r=%g: %d gaps on the layout with ranges, %d without", r, a, b)
+		}
+	}
+}
