@@ -50,18 +50,21 @@ type gapsRefScene struct {
 }
 
 type gapsRefCase struct {
-	R          float64 `json:"r"`
-	UInsc      float64 `json:"uncovered_inscribed"`
-	UCirc      float64 `json:"uncovered_circumscribed"`
-	CountInsc  int     `json:"count_inscribed"`
-	CountCirc  int     `json:"count_circumscribed"`
-	Components []struct {
-		Rep       [2]float64 `json:"rep"`
-		AreaCirc  float64    `json:"area_circumscribed"`
-		AreaInsc  float64    `json:"area_inscribed"`
-		TouchCirc bool       `json:"touches_circumscribed"`
-		TouchInsc bool       `json:"touches_inscribed"`
-	} `json:"components"`
+	R          float64            `json:"r"`
+	UInsc      float64            `json:"uncovered_inscribed"`
+	UCirc      float64            `json:"uncovered_circumscribed"`
+	CountInsc  int                `json:"count_inscribed"`
+	CountCirc  int                `json:"count_circumscribed"`
+	Components []gapsRefComponent `json:"components"`
+}
+
+// gapsRefComponent is one GEOS gap of a reference case.
+type gapsRefComponent struct {
+	Rep       [2]float64 `json:"rep"`
+	AreaCirc  float64    `json:"area_circumscribed"`
+	AreaInsc  float64    `json:"area_inscribed"`
+	TouchCirc bool       `json:"touches_circumscribed"`
+	TouchInsc bool       `json:"touches_inscribed"`
 }
 
 func gapsLoadRef(t *testing.T, path string) gapsRefDoc {

@@ -51,13 +51,9 @@ type rangesRefDoc struct {
 			CountInsc  int     `json:"count_inscribed"`
 			CountCirc  int     `json:"count_circumscribed"`
 			Components []struct {
-				Rep       [2]float64 `json:"rep"`
-				AreaCirc  float64    `json:"area_circumscribed"`
-				AreaInsc  float64    `json:"area_inscribed"`
-				TouchCirc bool       `json:"touches_circumscribed"`
-				TouchInsc bool       `json:"touches_inscribed"`
-				FarCirc   []float64  `json:"far_circumscribed"`
-				FarInsc   []float64  `json:"far_inscribed"`
+				gapsRefComponent
+				FarCirc []float64 `json:"far_circumscribed"`
+				FarInsc []float64 `json:"far_inscribed"`
 			} `json:"components"`
 		} `json:"cases"`
 	} `json:"scenes"`

@@ -38,6 +38,22 @@ var clipFuzzRegions = []orb.MultiPolygon{
 	}},
 }
 
+// clipFuzzPartition checks that no cell area is negative and that the
+// areas sum to the region's (the cells partition the plane).
+func clipFuzzPartition(t *testing.T, reg *Region, cells *Cells) {
+	t.Helper()
+	sum := 0.0
+	for _, a := range cells.Area {
+		if a < -1e-12 {
+			t.Errorf("negative cell area %g", a)
+		}
+		sum += a
+	}
+	if math.Abs(sum-reg.Area()) > 1e-9*reg.Area() {
+		t.Errorf("areas sum to %.15g, region %.15g", sum, reg.Area())
+	}
+}
+
 func FuzzClipCells(f *testing.F) {
 	f.Add([]byte{0, 0, 40, 40}, uint8(0), uint8(0))
 	f.Add([]byte{10, 10, 30, 30, 10, 30, 30, 10, 20, 20}, uint8(1), uint8(1))
@@ -73,16 +89,7 @@ func FuzzClipCells(f *testing.F) {
 		if st.anomalies != 0 {
 			t.Errorf("%d inconsistent boundary orders", st.anomalies)
 		}
-		sum := 0.0
-		for _, a := range cells.Area {
-			if a < -1e-12 {
-				t.Errorf("negative cell area %g", a)
-			}
-			sum += a
-		}
-		if math.Abs(sum-reg.Area()) > 1e-9*reg.Area() {
-			t.Errorf("areas sum to %.15g, region %.15g", sum, reg.Area())
-		}
+		clipFuzzPartition(t, reg, cells)
 		clipCheckCells(t, tri, reg, cells)
 	})
 }
@@ -126,16 +133,7 @@ func FuzzClipPowerCells(f *testing.F) {
 		if st.anomalies != 0 && !anyZeroWidthCell(rt) {
 			t.Errorf("%d anomalies", st.anomalies)
 		}
-		sum := 0.0
-		for _, a := range cells.Area {
-			if a < -1e-12 {
-				t.Errorf("negative cell area %g", a)
-			}
-			sum += a
-		}
-		if math.Abs(sum-reg.Area()) > 1e-9*reg.Area() {
-			t.Errorf("areas sum to %.15g, region %.15g", sum, reg.Area())
-		}
+		clipFuzzPartition(t, reg, cells)
 		clipCheckPowerCells(t, &rt.Triangulation, rt.Weights, reg, cells)
 	})
 }

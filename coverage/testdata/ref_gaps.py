@@ -192,12 +192,16 @@ def main():
     ap.add_argument("--seed", type=int, default=20240612)
     ap.add_argument("--out", default=os.path.join(os.path.dirname(os.path.abspath(__file__)), "gaps_ref.json"))
     a = ap.parse_args()
-    data = build(a.seed)
+    write_json(build(a.seed), a.out)
+
+
+def write_json(data, out):
+    """Writes data as indented JSON to the file out ('-': standard output)."""
     text = json.dumps(data, indent=1)
-    if a.out == "-":
+    if out == "-":
         sys.stdout.write(text)
     else:
-        with open(a.out, "w") as f:
+        with open(out, "w") as f:
             f.write(text + "\n")
 
 

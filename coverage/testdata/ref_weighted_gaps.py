@@ -28,7 +28,6 @@ Usage: ref_weighted_gaps.py [--seed S] [--out FILE]
 """
 
 import argparse
-import json
 import math
 import os
 import sys
@@ -37,7 +36,7 @@ import numpy as np
 import shapely
 
 sys.path.insert(0, os.path.dirname(os.path.abspath(__file__)))
-from ref_gaps import N_SEG, RES, bracket, region_of, scene_fence, scene_lshape, scene_two_parts  # noqa: E402
+from ref_gaps import N_SEG, RES, bracket, region_of, scene_fence, scene_lshape, scene_two_parts, write_json  # noqa: E402
 
 MIX = [20.0, 30.0, 45.0, 60.0]
 GROWTH = [0.0, 600.0]
@@ -97,12 +96,7 @@ def main():
     ap.add_argument("--seed", type=int, default=20261204)
     ap.add_argument("--out", default=os.path.join(os.path.dirname(os.path.abspath(__file__)), "weighted_gaps_ref.json"))
     a = ap.parse_args()
-    text = json.dumps(build(a.seed), indent=1)
-    if a.out == "-":
-        sys.stdout.write(text)
-    else:
-        with open(a.out, "w") as f:
-            f.write(text + "\n")
+    write_json(build(a.seed), a.out)
 
 
 if __name__ == "__main__":
