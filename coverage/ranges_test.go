@@ -251,7 +251,8 @@ func mixedLayout(t testing.TB, n int, seed uint64) (*Layout, []orb.Point, []floa
 
 // TestRangesMonteCarlo: the uncovered fraction at several growths against
 // random points tested against every disk (brute force), within 5 standard
-// errors; and no random point beats the full-cover power.
+// errors; every uncovered point lies in a gap whose closing power is at
+// least its own, and none beats the full-cover power.
 func TestRangesMonteCarlo(t *testing.T) {
 	l, sites, ranges := mixedLayout(t, 300, 3)
 	b := l.Area.Bound()
@@ -260,6 +261,7 @@ func TestRangesMonteCarlo(t *testing.T) {
 	fc := l.FullCoverRanges()
 	for _, growth := range []float64{0, 2000, -1000} {
 		t.Run(fmt.Sprintf("t=%g", growth), func(t *testing.T) {
+			gs := l.GapsRanges(growth, DefaultChordTolerance)
 			in, out := 0, 0
 			for k := 0; k < n; k++ {
 				x := b.Min[0] + r.Float64()*(b.Max[0]-b.Min[0])
@@ -274,6 +276,13 @@ func TestRangesMonteCarlo(t *testing.T) {
 				}
 				if best > growth {
 					out++
+					// The point lies in a gap (the outline holds the
+					// true gap) whose closing power is at least its own.
+					if g := gapsMatch(gs, orb.Point{x, y}); g < 0 {
+						t.Fatalf("uncovered (%g, %g) is in no gap outline", x, y)
+					} else if best > gs[g].Closing.Power+1e-9*math.Abs(gs[g].Closing.Power) {
+						t.Fatalf("(%g, %g) in gap %d has power %g above its closing power %g", x, y, gs[g].ID, best, gs[g].Closing.Power)
+					}
 				}
 				if best > fc.Power*(1+1e-9) {
 					t.Fatalf("(%g, %g) has power %g above the full-cover power %g", x, y, best, fc.Power)
