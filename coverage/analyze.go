@@ -36,10 +36,28 @@ type Options struct {
 	Percentiles []float64
 }
 
+// percentiles checks the options and returns the percentiles asked for
+// (DefaultPercentiles when nil).
+func (opt Options) percentiles() ([]float64, error) {
+	if math.IsNaN(opt.ChordTolerance) || math.IsInf(opt.ChordTolerance, 0) {
+		return nil, errors.New("coverage: chord tolerance is not a finite number")
+	}
+	pct := opt.Percentiles
+	if pct == nil {
+		pct = DefaultPercentiles
+	}
+	for i, f := range pct {
+		if !(f >= 0 && f <= 1) {
+			return nil, fmt.Errorf("coverage: percentile %d (%v) is not a fraction in [0, 1]", i, f)
+		}
+	}
+	return pct, nil
+}
+
 // Timing is the wall-clock time of one phase of Analyze.
 type Timing struct {
 	// Phase is one of triangulate, clip, fullcover, curve, gaps,
-	// persistence.
+	// persistence, and links (AnalyzeRanges).
 	Phase string
 	// Seconds is the elapsed time.
 	Seconds float64
@@ -81,17 +99,9 @@ func Analyze(sites []orb.Point, area *planar.Region, r float64, opt Options) (*A
 	if r < 0 {
 		return nil, fmt.Errorf("coverage: range %v m is negative", r)
 	}
-	if math.IsNaN(opt.ChordTolerance) || math.IsInf(opt.ChordTolerance, 0) {
-		return nil, errors.New("coverage: chord tolerance is not a finite number")
-	}
-	pct := opt.Percentiles
-	if pct == nil {
-		pct = DefaultPercentiles
-	}
-	for i, f := range pct {
-		if !(f >= 0 && f <= 1) {
-			return nil, fmt.Errorf("coverage: percentile %d (%v) is not a fraction in [0, 1]", i, f)
-		}
+	pct, err := opt.percentiles()
+	if err != nil {
+		return nil, err
 	}
 	tol := opt.ChordTolerance
 	if tol == 0 {

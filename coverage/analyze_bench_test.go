@@ -59,6 +59,31 @@ func benchPeak(stop <-chan struct{}, peak *atomic.Uint64) {
 	}
 }
 
+// benchMemory runs run b.N times under the timer and reports the bytes
+// allocated and the peak heap growth per item (n items, named unit).
+func benchMemory(b *testing.B, n int, unit string, run func()) {
+	runtime.GC()
+	var ms0, ms1 runtime.MemStats
+	runtime.ReadMemStats(&ms0)
+	var peak atomic.Uint64
+	base := ms0.HeapAlloc
+	stop := make(chan struct{})
+	done := make(chan struct{})
+	go func() { benchPeak(stop, &peak); close(done) }()
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		run()
+	}
+	b.StopTimer()
+	close(stop)
+	<-done
+	runtime.ReadMemStats(&ms1)
+	b.ReportMetric(float64(ms1.TotalAlloc-ms0.TotalAlloc)/float64(b.N)/float64(n), "alloc-B/"+unit)
+	if p := peak.Load(); p > base {
+		b.ReportMetric(float64(p-base)/float64(n), "peak-B/"+unit)
+	}
+}
+
 func BenchmarkAnalyze(b *testing.B) {
 	type gen struct {
 		name string
@@ -86,31 +111,14 @@ func BenchmarkAnalyze(b *testing.B) {
 					}
 					r = l.Curve().RangeFor(0.999)
 				}
-				runtime.GC()
-				var ms0, ms1 runtime.MemStats
-				runtime.ReadMemStats(&ms0)
-				var peak atomic.Uint64
-				base := ms0.HeapAlloc
-				stop := make(chan struct{})
-				done := make(chan struct{})
-				go func() { benchPeak(stop, &peak); close(done) }()
-				b.ResetTimer()
 				var a *Analysis
-				for i := 0; i < b.N; i++ {
+				benchMemory(b, n, "site", func() {
 					var err error
 					a, err = Analyze(sites, area, r, Options{})
 					if err != nil {
 						b.Fatal(err)
 					}
-				}
-				b.StopTimer()
-				close(stop)
-				<-done
-				runtime.ReadMemStats(&ms1)
-				b.ReportMetric(float64(ms1.TotalAlloc-ms0.TotalAlloc)/float64(b.N)/float64(n), "alloc-B/site")
-				if p := peak.Load(); p > base {
-					b.ReportMetric(float64(p-base)/float64(n), "peak-B/site")
-				}
+				})
 				b.ReportMetric(float64(len(a.Gaps)), "gaps")
 				for _, t := range a.Timings {
 					b.ReportMetric(t.Seconds, t.Phase+"-s")

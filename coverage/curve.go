@@ -48,6 +48,14 @@ type Curve struct {
 	pieceMax  []float64 // distance from the site to the farthest piece vertex
 	pieceIn   []bool    // site inside the piece (winding number 1)
 	theta     []float64 // per ring point: angle subtended at the site by the edge starting there
+
+	// w holds r_v² per vertex for the curve under uniform power growth
+	// (CurveRanges): the argument is then the growth t, each piece's disk
+	// has radius √(w + t), and contact, full and lo are powers. Nil for
+	// the common-range curve.
+	w   []float64
+	lo  float64 // start of Samples (0; for powers the smallest −w)
+	tol float64 // stopping tolerance of the inverse (crvTol times the scale)
 }
 
 // RangeAt pairs a covered fraction with a range.
@@ -111,6 +119,7 @@ func (l *Layout) Curve() *Curve {
 	if math.IsInf(cv.contact, 1) {
 		cv.contact = 0
 	}
+	cv.tol = crvTol * cv.full
 	return cv
 }
 
@@ -344,10 +353,13 @@ func (cv *Curve) eval(rs []float64, stride int) crvEval {
 	nc := (nsel + chunk - 1) / chunk
 	// Per chunk: exact u and du at each range, and difference arrays for
 	// the pieces below their nearest-boundary distance (area − [in]·πr²).
-	type part struct{ u, du, constD, cntD, inD []float64 }
+	type part struct{ u, du, constD, cntD, inD, inWD []float64 }
 	parts := make([]part, nc)
 	planar.ParallelChunks(nsel, chunk, 0, func(ci, lo, hi int) {
-		pt := part{make([]float64, K), make([]float64, K), make([]float64, K+1), make([]float64, K+1), make([]float64, K+1)}
+		pt := part{make([]float64, K), make([]float64, K), make([]float64, K+1), make([]float64, K+1), make([]float64, K+1), nil}
+		if cv.w != nil {
+			pt.inWD = make([]float64, K+1)
+		}
 		var edges []crvEdge
 		for s := lo; s < hi; s++ {
 			p := s * stride
@@ -356,6 +368,14 @@ func (cv *Curve) eval(rs []float64, stride int) crvEval {
 				continue
 			}
 			mn, mx := cv.pieceMin[p], cv.pieceMax[p]
+			w, kZero := 0.0, 0
+			if cv.w != nil {
+				// Powers: the radius √(w + t) passes mn at t = mn² − w
+				// and mx at mx² − w; below −w there is no disk.
+				w = cv.w[cv.pieceV[p]]
+				mn, mx = mn*mn-w, mx*mx-w
+				kZero = sort.SearchFloat64s(rs, math.Nextafter(-w, math.Inf(1)))
+			}
 			// Ranges r <= mn: closed form. Ranges r >= mx: zero.
 			kMin := sort.SearchFloat64s(rs, math.Nextafter(mn, math.Inf(1))) // first r > mn
 			kMax := sort.SearchFloat64s(rs, mx)                              // first r >= mx
@@ -367,9 +387,13 @@ func (cv *Curve) eval(rs []float64, stride int) crvEval {
 				pt.constD[kMin] -= a
 				pt.cntD[0]++
 				pt.cntD[kMin]--
-				if cv.pieceIn[p] {
-					pt.inD[0]++
+				if cv.pieceIn[p] && kZero < kMin {
+					pt.inD[kZero]++
 					pt.inD[kMin]--
+					if w != 0 {
+						pt.inWD[kZero] += w
+						pt.inWD[kMin] -= w
+					}
 				}
 			}
 			if kMin < kMax {
@@ -379,6 +403,9 @@ func (cv *Curve) eval(rs []float64, stride int) crvEval {
 			}
 			for k := kMin; k < kMax; k++ {
 				r := rs[k]
+				if cv.w != nil {
+					r = math.Sqrt(math.Max(0, w+rs[k]))
+				}
 				cov, ang := crvEdgesDisk(edges, r)
 				u := a - cov
 				if u < 0 {
@@ -387,7 +414,11 @@ func (cv *Curve) eval(rs []float64, stride int) crvEval {
 					u = a
 				}
 				pt.u[k] += u
-				pt.du[k] -= r * ang
+				if cv.w != nil {
+					pt.du[k] -= ang / 2 // dU/dt = (dU/dr)/(2r)
+				} else {
+					pt.du[k] -= r * ang
+				}
 			}
 		}
 		parts[ci] = pt
@@ -398,8 +429,9 @@ func (cv *Curve) eval(rs []float64, stride int) crvEval {
 	ev := crvEval{make([]float64, K), make([]float64, K)}
 	cst := make([]float64, K)
 	in := make([]float64, K)
+	inW := make([]float64, K) // powers: Σ w over the pieces counted in in
 	for _, pt := range parts {
-		ch, cl, cnt, n := 0.0, 0.0, 0.0, 0.0
+		ch, cl, cnt, n, nw := 0.0, 0.0, 0.0, 0.0, 0.0
 		for k := 0; k < K; k++ {
 			ch, cl = planar.DDAdd(ch, cl, pt.constD[k])
 			cnt += pt.cntD[k]
@@ -408,11 +440,27 @@ func (cv *Curve) eval(rs []float64, stride int) crvEval {
 				cst[k] += ch + cl
 			}
 			in[k] += n
+			if pt.inWD != nil {
+				nw += pt.inWD[k]
+				inW[k] += nw
+			}
 			ev.u[k] += pt.u[k]
 			ev.du[k] += pt.du[k]
 		}
 	}
 	for k, r := range rs {
+		if cv.w != nil {
+			// Each counted piece holds its whole disk, π(w + t).
+			ev.u[k] += cst[k] - math.Pi*(in[k]*r+inW[k])
+			ev.du[k] -= in[k] * math.Pi
+			if ev.u[k] < 0 {
+				ev.u[k] = 0
+			}
+			if r <= cv.contact && stride == 1 {
+				ev.u[k] = cv.area
+			}
+			continue
+		}
 		ev.u[k] += cst[k] - in[k]*math.Pi*r*r
 		ev.du[k] -= in[k] * 2 * math.Pi * r
 		if ev.u[k] < 0 {
@@ -434,7 +482,7 @@ func (c *Curve) UncoveredArea(r float64) float64 {
 	if math.IsNaN(r) {
 		return math.NaN()
 	}
-	if r < 0 {
+	if r < 0 && c.w == nil {
 		r = 0
 	}
 	return c.eval([]float64{r}, 1).u[0]
@@ -470,8 +518,8 @@ func (c *Curve) RangesFor(fractions []float64) []float64 {
 		case math.IsNaN(f):
 			out[i] = math.NaN()
 		case f <= 0:
-			out[i] = 0
-		case f >= 1 || c.full == 0:
+			out[i] = c.lo
+		case f >= 1 || c.full == c.lo:
 			out[i] = c.full
 		default:
 			st = append(st, &state{i: i, target: (1 - f) * c.area, lo: c.contact, hi: c.full, prev: math.NaN()})
@@ -491,7 +539,7 @@ func (c *Curve) RangesFor(fractions []float64) []float64 {
 		}
 		s.x = x
 	})
-	tol := crvTol * c.full
+	tol := c.tol
 	for iter := 0; iter < 200; iter++ {
 		var act []*state
 		for _, s := range st {
@@ -617,10 +665,10 @@ func (c *Curve) Samples(n int) []RangeAt {
 	}
 	rs := make([]float64, 0, n+1)
 	for k := 0; k < n; k++ {
-		rs = append(rs, c.full*float64(k)/float64(n-1))
+		rs = append(rs, c.lo+(c.full-c.lo)*float64(k)/float64(n-1))
 	}
 	rs[n-1] = c.full
-	if c.contact > 0 && c.contact < c.full {
+	if c.contact > c.lo && c.contact < c.full {
 		rs = append(rs, c.contact)
 	}
 	sort.Float64s(rs)

@@ -45,6 +45,20 @@
 //     2010; Edelsbrunner, "The union of balls and its dual shape", 1995),
 //     giving the number of pieces of the union and of holes it encloses.
 //
+//   - Devices with their own ranges (ranges*.go: NewLayoutRanges,
+//     AnalyzeRanges). Device i serves D(p_i, r_i); the power
+//     π_i(x) = |x − p_i|² − r_i² replaces the distance, power cells (on the
+//     regular triangulation) replace Voronoi cells (Aurenhammer, SIAM J.
+//     Comput. 16, 1987), and inside P_i only D_i matters, so every
+//     quantity above carries over with each cell's own radius. Growth is
+//     uniform in power, r_i' = √(r_i² + t), and every power is reported
+//     with the ranges it means; the full-cover figure is max over A of
+//     min_i π_i; gaps carry what closes each (the range each bordering
+//     device needs, and the single device closing it with the smallest
+//     increase); holes come from the weighted alpha filtration (Edelsbrunner
+//     1995). Devices with an empty power cell are hidden: redundant for
+//     coverage. With all ranges equal every figure is the common-range one.
+//
 //   - Planning moves (plan_*.go), all planning aids for a design review:
 //     devices added by farthest-point insertion (Gonzalez, "Clustering to
 //     minimize the maximum intercluster distance", 1985) refined by moving

@@ -30,36 +30,69 @@ const fcTieRel = 1e-9
 // FullCover returns the smallest common range at which the disks cover the
 // whole site area, and the points where that range is needed.
 func (l *Layout) FullCover() FullCover {
+	return l.fullCover(false)
+}
+
+// fullCover is FullCover, or with powers set (a layout with per-device
+// ranges) the same search by power: Range then holds the largest power
+// max_x min_i π_i(x) over the cell vertices, ties within fcTieRel of
+// R_max² where R_max is the largest distance from a worst point to its
+// device (the scale of the powers compared), and points within fcTieRel
+// of R_max merged.
+func (l *Layout) fullCover(powers bool) FullCover {
 	nv := l.numVertices()
 	const chunk = 4096
 	nc := (nv + chunk - 1) / chunk
 	best := make([]float64, nc)
+	scale := make([]float64, nc)
 	planar.ParallelChunks(nv, chunk, 0, func(ci, lo, hi int) {
 		m := 0.0
+		if powers {
+			m = math.Inf(-1)
+		}
 		for v := int32(lo); v < int32(hi); v++ {
-			if d, _, _ := l.vertexFarthest(v); d > m {
+			d, _, _ := l.vertexFarthest(v)
+			if powers {
+				if d < 0 {
+					continue
+				}
+				w := l.Ranges[v] * l.Ranges[v]
+				if p := d*d - w; p > m {
+					m = p
+					scale[ci] = math.Max(scale[ci], d)
+				}
+				continue
+			}
+			if d > m {
 				m = d
 			}
 		}
 		best[ci] = m
 	})
-	R := 0.0
-	for _, m := range best {
+	R, S := 0.0, 0.0
+	if powers {
+		R = math.Inf(-1)
+	}
+	for ci, m := range best {
 		if m > R {
 			R = m
 		}
+		S = math.Max(S, scale[ci])
 	}
 	fc := FullCover{Range: R}
-	if R == 0 {
+	if !powers && R == 0 || powers && S == 0 {
 		return fc
 	}
 	thr := R * (1 - fcTieRel)
+	tol := fcTieRel * R
+	if powers {
+		thr, tol = R-fcTieRel*S*S, fcTieRel*S
+	}
 	type cand struct {
 		x, y, d float64
 		src     int32
 		qx      int64
 	}
-	tol := fcTieRel * R
 	parts := make([][]cand, nc)
 	c := l.Cells
 	planar.ParallelChunks(nv, chunk, 0, func(ci, lo, hi int) {
@@ -70,12 +103,21 @@ func (l *Layout) FullCover() FullCover {
 				continue
 			}
 			cx, cy := l.site(v)
+			w := 0.0
+			if powers {
+				w = l.Ranges[v] * l.Ranges[v]
+			}
 			for k := c.PolyStart[p0]; k < c.PolyStart[p1]; k++ {
 				i0, i1 := c.RingStart[k], c.RingStart[k+1]
 				for i := i0; i < i1; i++ {
 					px, py := c.XY[2*i], c.XY[2*i+1]
 					dx, dy := px-cx, py-cy
-					d := math.Sqrt(dx*dx + dy*dy)
+					var d float64
+					if powers {
+						d = dx*dx + dy*dy - w
+					} else {
+						d = math.Sqrt(dx*dx + dy*dy)
+					}
 					if d < thr {
 						continue
 					}

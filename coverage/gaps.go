@@ -66,12 +66,38 @@ var gapTracerPool = sync.Pool{New: func() any { return new(gapTracer) }}
 // against the closed form; it also returns the number of pieces that
 // needed the fallback or failed the check.
 func (l *Layout) gaps(r, chordTol float64, selfCheck bool) ([]Gap, int) {
+	return l.gapsAt(gapParams{r: r}, chordTol, selfCheck)
+}
+
+// gapParams selects the disks of a gap computation: radius r for every
+// cell, or, with radii set (a layout with per-device ranges), radii[v] for
+// the cell of vertex v, r being their largest; closing asks for each
+// gap's GapClosing (with t the uniform power growth the radii stand for).
+type gapParams struct {
+	r       float64
+	radii   []float64
+	t       float64
+	closing bool
+}
+
+// radius returns the disk radius of vertex v's cell.
+func (gp *gapParams) radius(v int32) float64 {
+	if gp.radii != nil {
+		return gp.radii[v]
+	}
+	return gp.r
+}
+
+// gapsAt is gaps for the disks gp selects.
+func (l *Layout) gapsAt(gp gapParams, chordTol float64, selfCheck bool) ([]Gap, int) {
+	r := gp.r
 	if math.IsNaN(r) {
 		return nil, 0
 	}
 	if r < 0 {
 		r = 0
 	}
+	gp.r = r
 	if chordTol == 0 || math.IsNaN(chordTol) {
 		chordTol = DefaultChordTolerance
 	}
@@ -82,13 +108,17 @@ func (l *Layout) gaps(r, chordTol float64, selfCheck bool) ([]Gap, int) {
 	chunks := make([]gapChunk, nc)
 	planar.ParallelChunks(nv, chunk, 0, func(ci, lo, hi int) {
 		t := gapTracerPool.Get().(*gapTracer)
-		t.l, t.r, t.r2, t.selfCheck, t.keep = l, r, r*r, selfCheck, chordTol > 0
+		t.l, t.r, t.r2, t.selfCheck, t.keep = l, r, r*r, selfCheck, chordTol > 0 || gp.closing
 		ch := &chunks[ci]
 		for v := int32(lo); v < int32(hi); v++ {
 			if c.SiteStart[v] == c.SiteStart[v+1] {
 				continue
 			}
-			if d, _, _ := l.vertexFarthest(v); r >= d {
+			if gp.radii != nil {
+				t.r = gp.radii[v]
+				t.r2 = t.r * t.r
+			}
+			if d, _, _ := l.vertexFarthest(v); t.r >= d {
 				continue
 			}
 			for p := c.SiteStart[v]; p < c.SiteStart[v+1]; p++ {
@@ -106,7 +136,8 @@ func (l *Layout) gaps(r, chordTol float64, selfCheck bool) ([]Gap, int) {
 	b := l.Area.Bound()
 	ext := math.Max(math.Max(math.Abs(b.Min[0]), math.Abs(b.Max[0])), math.Max(math.Abs(b.Min[1]), math.Abs(b.Max[1])))
 	gapUnion := m.union(gapPortionUlps * (ext + r))
-	return l.gapAssemble(m, gapUnion, r, chordTol), anomalies
+	// (r is the largest radius when they differ.)
+	return l.gapAssemble(m, gapUnion, &gp, chordTol), anomalies
 }
 
 // gapPortionUlps is the overlap, relative to the coordinates' magnitude,
@@ -207,12 +238,13 @@ func (m *gapMerged) union(tolLen float64) []int32 {
 }
 
 // gapAssemble builds the Gap values from the components and their roots.
-func (l *Layout) gapAssemble(m *gapMerged, root []int32, r, chordTol float64) []Gap {
+func (l *Layout) gapAssemble(m *gapMerged, root []int32, gp *gapParams, chordTol float64) []Gap {
 	gapOf := make([]int32, len(m.nodes))
 	index := make(map[int32]int32)
 	var gs []Gap
 	type acc struct{ mx, my float64 }
 	var accs []acc
+	var pow []float64 // per gap, with radii: the largest power of a deepest point
 	for i := range m.nodes {
 		rt := root[i]
 		g, ok := index[rt]
@@ -224,6 +256,7 @@ func (l *Layout) gapAssemble(m *gapMerged, root []int32, r, chordTol float64) []
 				ClosingRange: -1,
 			})
 			accs = append(accs, acc{})
+			pow = append(pow, math.Inf(-1))
 		}
 		gapOf[i] = g
 		nd := &m.nodes[i]
@@ -237,7 +270,16 @@ func (l *Layout) gapAssemble(m *gapMerged, root []int32, r, chordTol float64) []
 		G.Bound.Max[0] = math.Max(G.Bound.Max[0], nd.maxX)
 		G.Bound.Max[1] = math.Max(G.Bound.Max[1], nd.maxY)
 		G.TouchesBoundary = G.TouchesBoundary || nd.touches
-		if nd.deepD > G.ClosingRange {
+		if gp.radii != nil {
+			// Deepest by power: the device of the cell holding the point
+			// needs its distance, every other one its power plus r².
+			rv := gp.radii[nd.v]
+			if p := nd.deepD*nd.deepD - rv*rv; p > pow[g] {
+				pow[g] = p
+				G.ClosingRange = nd.deepD
+				G.Deepest = orb.Point{nd.deepX, nd.deepY}
+			}
+		} else if nd.deepD > G.ClosingRange {
 			G.ClosingRange = nd.deepD
 			G.Deepest = orb.Point{nd.deepX, nd.deepY}
 		}
@@ -265,8 +307,11 @@ func (l *Layout) gapAssemble(m *gapMerged, root []int32, r, chordTol float64) []
 			gs[g].Centroid = orb.Point{accs[g].mx / gs[g].Area, accs[g].my / gs[g].Area}
 		}
 	}
+	if gp.closing {
+		l.gapClosings(m, gapOf, gs, pow, gp)
+	}
 	if chordTol > 0 {
-		outl := m.outlines(l, gapOf, len(gs), r, chordTol)
+		outl := m.outlines(l, gapOf, len(gs), gp, chordTol)
 		for g := range gs {
 			gs[g].Outline = outl[g]
 		}
@@ -278,6 +323,8 @@ func (l *Layout) gapAssemble(m *gapMerged, root []int32, r, chordTol float64) []
 	slices.SortStableFunc(order, func(i, j int32) int {
 		a, b := &gs[i], &gs[j]
 		switch {
+		case gp.radii != nil && pow[i] != pow[j]:
+			return -cmp.Compare(pow[i], pow[j])
 		case a.ClosingRange != b.ClosingRange:
 			return -cmp.Compare(a.ClosingRange, b.ClosingRange)
 		case a.Area != b.Area:

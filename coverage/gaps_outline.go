@@ -63,7 +63,7 @@ func gapTau(l *Layout, v, j int32, x, y float64) (uint64, float64) {
 }
 
 // outlines returns the outline of each of the ng gaps.
-func (m *gapMerged) outlines(l *Layout, gapOf []int32, ng int, r, tol float64) []orb.MultiPolygon {
+func (m *gapMerged) outlines(l *Layout, gapOf []int32, ng int, gp *gapParams, tol float64) []orb.MultiPolygon {
 	nLoops := len(m.loopElem) - 1
 	loopNode := make([]int32, nLoops)
 	m.loopNode = loopNode
@@ -120,7 +120,7 @@ func (m *gapMerged) outlines(l *Layout, gapOf []int32, ng int, r, tol float64) [
 			chains = append(chains, ch)
 		}
 	}
-	m.linkChains(l, chains, r)
+	m.linkChains(l, chains, gp.r)
 	// Follow the links into rings.
 	alpha := 2 * math.Acos(1-math.Min(tol, 1))
 	rings := make([][]orb.Ring, ng)
@@ -134,7 +134,7 @@ func (m *gapMerged) outlines(l *Layout, gapOf []int32, ng int, r, tol float64) [
 		for cur >= 0 && !chains[cur].seen {
 			c := &chains[cur]
 			c.seen = true
-			buf = m.chainPoints(l, c, loopNode, r, alpha, buf)
+			buf = m.chainPoints(l, c, loopNode, gp, alpha, buf)
 			if c.closed {
 				break
 			}
@@ -324,11 +324,13 @@ func (m *gapMerged) chainDir(l *Layout, c *gapChain, start bool) (float64, float
 
 // chainPoints appends the points of chain c: each element's start, and the
 // chord points inside each arc.
-func (m *gapMerged) chainPoints(l *Layout, c *gapChain, loopNode []int32, r, alpha float64, buf []orb.Point) []orb.Point {
+func (m *gapMerged) chainPoints(l *Layout, c *gapChain, loopNode []int32, gp *gapParams, alpha float64, buf []orb.Point) []orb.Point {
 	e0, e1 := m.loopElem[c.loop], m.loopElem[c.loop+1]
 	n := e1 - e0
 	off := c.first - e0
-	cx, cy := l.site(m.nodes[loopNode[c.loop]].v)
+	v := m.nodes[loopNode[c.loop]].v
+	cx, cy := l.site(v)
+	r := gp.radius(v)
 	for k := int32(0); k < c.n; k++ {
 		el := &m.elems[e0+(off+k)%n]
 		buf = append(buf, orb.Point{el.x, el.y})

@@ -50,18 +50,21 @@ type gapsRefScene struct {
 }
 
 type gapsRefCase struct {
-	R          float64 `json:"r"`
-	UInsc      float64 `json:"uncovered_inscribed"`
-	UCirc      float64 `json:"uncovered_circumscribed"`
-	CountInsc  int     `json:"count_inscribed"`
-	CountCirc  int     `json:"count_circumscribed"`
-	Components []struct {
-		Rep       [2]float64 `json:"rep"`
-		AreaCirc  float64    `json:"area_circumscribed"`
-		AreaInsc  float64    `json:"area_inscribed"`
-		TouchCirc bool       `json:"touches_circumscribed"`
-		TouchInsc bool       `json:"touches_inscribed"`
-	} `json:"components"`
+	R          float64            `json:"r"`
+	UInsc      float64            `json:"uncovered_inscribed"`
+	UCirc      float64            `json:"uncovered_circumscribed"`
+	CountInsc  int                `json:"count_inscribed"`
+	CountCirc  int                `json:"count_circumscribed"`
+	Components []gapsRefComponent `json:"components"`
+}
+
+// gapsRefComponent is one GEOS gap of a reference case.
+type gapsRefComponent struct {
+	Rep       [2]float64 `json:"rep"`
+	AreaCirc  float64    `json:"area_circumscribed"`
+	AreaInsc  float64    `json:"area_inscribed"`
+	TouchCirc bool       `json:"touches_circumscribed"`
+	TouchInsc bool       `json:"touches_inscribed"`
 }
 
 func gapsLoadRef(t *testing.T, path string) gapsRefDoc {
@@ -115,6 +118,17 @@ func gapsOutlineContains(mp orb.MultiPolygon, p orb.Point) bool {
 		}
 	}
 	return false
+}
+
+// gapsMatch returns the index of the first gap whose outline holds p, −1
+// when none does.
+func gapsMatch(gs []Gap, p orb.Point) int {
+	for i, g := range gs {
+		if gapsOutlineContains(g.Outline, p) {
+			return i
+		}
+	}
+	return -1
 }
 
 // gapsCheck runs the gap analysis with the self-check and the invariants
@@ -195,13 +209,7 @@ func gapsCompareGEOS(t *testing.T, sc gapsRefScene, l *Layout, c gapsRefCase) {
 	used := make([]bool, len(gs))
 	for k, comp := range c.Components {
 		p := orb.Point{comp.Rep[0], comp.Rep[1]}
-		found := -1
-		for i, g := range gs {
-			if gapsOutlineContains(g.Outline, p) {
-				found = i
-				break
-			}
-		}
+		found := gapsMatch(gs, p)
 		if found < 0 || used[found] {
 			t.Errorf("%s r=%v: GEOS component %d (point %v) matches no distinct gap", sc.Name, c.R, k, p)
 			continue

@@ -110,6 +110,14 @@ func (l *Layout) UncoveredArea(r float64) float64 {
 	if r <= 0 {
 		return l.AreaM2
 	}
+	return l.uncovered(r, 0, false)
+}
+
+// uncovered sums the uncovered area over the cells: each disk of radius r,
+// or with perDevice (a layout with per-device ranges) of radius
+// √(r_v² + t).
+func (l *Layout) uncovered(r, t float64, perDevice bool) float64 {
+	weighted := perDevice
 	c := l.Cells
 	nv := l.numVertices()
 	const chunk = 2048
@@ -122,16 +130,22 @@ func (l *Layout) UncoveredArea(r float64) float64 {
 			if a == 0 {
 				continue
 			}
+			rv := r
+			if weighted {
+				rv = l.grownRadius(v, t)
+			}
 			d, _, _ := l.vertexFarthest(v)
-			if r >= d {
+			if rv >= d {
 				continue
 			}
 			cx, cy := l.site(v)
 			cov := 0.0
-			k0, k1 := c.PolyStart[c.SiteStart[v]], c.PolyStart[c.SiteStart[v+1]]
-			for k := k0; k < k1; k++ {
-				ring := c.XY[2*c.RingStart[k] : 2*c.RingStart[k+1]]
-				cov += planar.RingDiskArea(ring, cx, cy, r)
+			if rv > 0 {
+				k0, k1 := c.PolyStart[c.SiteStart[v]], c.PolyStart[c.SiteStart[v+1]]
+				for k := k0; k < k1; k++ {
+					ring := c.XY[2*c.RingStart[k] : 2*c.RingStart[k+1]]
+					cov += planar.RingDiskArea(ring, cx, cy, rv)
+				}
 			}
 			u := a - cov
 			if u < 0 {
@@ -218,7 +232,7 @@ func (l *Layout) ServiceAreas() []ServiceArea {
 		}
 	})
 	for i, v := range l.Tri.Vertex {
-		if int32(i) != l.Tri.Source[v] {
+		if v >= 0 && int32(i) != l.Tri.Source[v] {
 			out[v].Merged = append(out[v].Merged, i)
 		}
 	}

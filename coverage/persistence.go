@@ -288,7 +288,9 @@ func persistDual(nt int, tkeys, keys, ends, sides []uint64) []persistHoleRec {
 		young, old := min(ra, rb), max(ra, rb)
 		uf.Parent[young] = old // link by index: the older root survives
 		birth, death := math.Float64frombits(keys[i]), math.Float64frombits(tkeys[young])
-		if death-birth > HoleResolution*death {
+		// (Weighted values may be negative: the scale is the larger
+		// magnitude; for values ≥ 0 it is death.)
+		if death-birth > HoleResolution*math.Max(math.Abs(death), math.Abs(birth)) {
 			out = append(out, persistHoleRec{birth, death, ends[i], young})
 		}
 	}

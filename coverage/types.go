@@ -8,6 +8,13 @@ import (
 // Layout is a set of device sites and a site area in the local plane, with
 // the Delaunay triangulation of the sites and their Voronoi cells clipped to
 // the area. Everything else in this package is computed from a Layout.
+//
+// A layout built by NewLayoutRanges (devices with their own ranges) holds
+// the regular triangulation and the power cells instead; its figures come
+// from the methods that take the ranges into account (UncoveredAreaGrown,
+// GapsRanges, FullCoverRanges, CurveRanges, PersistenceRanges,
+// ServiceAreasRanges). The common-range methods treat its cells as Voronoi
+// cells, which they are only when all ranges are equal.
 type Layout struct {
 	// Sites are the device positions in input order (metres).
 	Sites []orb.Point
@@ -20,6 +27,19 @@ type Layout struct {
 	Cells *planar.Cells
 	// AreaM2 is the area of Area in square metres.
 	AreaM2 float64
+	// Ranges holds each triangulation vertex's planned range (m) for a
+	// layout with per-device ranges (NewLayoutRanges); nil for a common
+	// range. Tri is then the regular triangulation of the sites weighted
+	// by r_i², Cells the power cells, and Tri.Vertex is −1 for a hidden
+	// device.
+	Ranges []float64
+	// InputRanges holds the planned range of each input site (m), hidden
+	// devices included; nil for a common range.
+	InputRanges []float64
+	// Hidden lists the input indices of the devices whose power cell is
+	// empty, ascending: their disk lies inside the union of the others,
+	// so they are redundant for coverage. Nil for a common range.
+	Hidden []int
 }
 
 // FullCover is the smallest common range at which the disks around the
@@ -62,6 +82,9 @@ type Gap struct {
 	// Outline is the component's boundary with circular arcs replaced by
 	// chords within the requested tolerance.
 	Outline orb.MultiPolygon
+	// Closing says what closes the gap when devices have their own ranges
+	// (GapsRanges); nil from Gaps.
+	Closing *GapClosing
 }
 
 // Hole is a finite H1 pair of the alpha filtration: a hole enclosed by the

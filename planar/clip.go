@@ -119,8 +119,43 @@ import (
 // edge labelled by its source (see Cells). Sites may lie outside r; their
 // clipped cell is then often empty.
 func ClipCells(t *Triangulation, r *Region) (*Cells, error) {
-	cells, _, err := clipCells(t, r, 0)
+	cells, _, err := clipCells(t, nil, r, 0)
 	return cells, err
+}
+
+// ClipPowerCells returns each vertex's power (Laguerre–Voronoi) cell
+// clipped to the site area r: the points where |x − p_v|² − weights[v] is
+// smallest, with t the regular triangulation of the weighted vertices
+// (TriangulateRegular; weights indexed by vertex, as
+// RegularTriangulation.Weights). The cell boundaries are power lines
+// (radical axes) labelled by neighbour as in ClipCells, and its corners
+// are the power centres of the regular triangles. A cell may not contain
+// its own site. With weights nil or all equal the result is ClipCells's,
+// bit for bit (the same code path with the weight terms left out).
+func ClipPowerCells(t *Triangulation, weights []float64, r *Region) (*Cells, error) {
+	if t != nil && weights != nil && len(weights) != t.NumVertices() {
+		return nil, fmt.Errorf("planar: ClipPowerCells: %d weights for %d vertices", len(weights), t.NumVertices())
+	}
+	cells, _, err := clipCells(t, weights, r, 0)
+	return cells, err
+}
+
+// PowerCells returns the power cells of the regular triangulation clipped
+// to r (ClipPowerCells with rt.Weights); hidden inputs are not vertices
+// and have no cell.
+func (rt *RegularTriangulation) PowerCells(r *Region) (*Cells, error) {
+	return ClipPowerCells(&rt.Triangulation, rt.Weights, r)
+}
+
+// uniformWeights returns nil when the weights are nil or all equal (the
+// power diagram is then the Voronoi diagram), else w.
+func uniformWeights(w []float64) []float64 {
+	for _, x := range w {
+		if x != w[0] {
+			return w
+		}
+	}
+	return nil
 }
 
 // NumSites returns the number of sites (triangulation vertices).
@@ -183,6 +218,7 @@ const (
 type clipper struct {
 	t         *Triangulation
 	r         *Region
+	wt        []float64 // vertex weights of a power diagram; nil for Voronoi
 	nv        int
 	xy        []float64
 	collinear bool
@@ -203,8 +239,9 @@ type clipper struct {
 	anomalies atomic.Int64
 }
 
-// clipCells is ClipCells with statistics; workers ≤ 0 means GOMAXPROCS.
-func clipCells(t *Triangulation, r *Region, workers int) (*Cells, clipStats, error) {
+// clipCells is ClipPowerCells with statistics; workers ≤ 0 means
+// GOMAXPROCS.
+func clipCells(t *Triangulation, weights []float64, r *Region, workers int) (*Cells, clipStats, error) {
 	var st clipStats
 	if t == nil || r == nil {
 		return nil, st, errors.New("planar: ClipCells: nil triangulation or region")
@@ -215,7 +252,7 @@ func clipCells(t *Triangulation, r *Region, workers int) (*Cells, clipStats, err
 	if workers <= 0 {
 		workers = runtime.GOMAXPROCS(0)
 	}
-	c := &clipper{t: t, r: r, nv: t.NumVertices(), xy: t.Coords, workers: workers}
+	c := &clipper{t: t, r: r, nv: t.NumVertices(), xy: t.Coords, wt: uniformWeights(weights), workers: workers}
 	c.collinear = len(t.Triangles) == 0
 	if c.nv == 0 {
 		return &Cells{SiteStart: []int32{0}, PolyStart: []int32{0}, RingStart: []int32{0},

@@ -89,3 +89,27 @@ func BenchmarkClipCells(b *testing.B) {
 		})
 	}
 }
+
+// BenchmarkClipPowerCells clips the power cells of devices at about one per
+// 100 m × 100 m with ranges drawn from 40/60/120/150 m (weights = range²)
+// to the same kind of area; the regular triangulation is built outside the
+// timer.
+func BenchmarkClipPowerCells(b *testing.B) {
+	for _, n := range []int{100000, 1000000} {
+		b.Run(fmt.Sprintf("uniform-%d", n), func(b *testing.B) {
+			pts := scaled(sitegen.Uniform(n, 1), 10)
+			rt, err := TriangulateRegular(pts, rangeWeights(n, 1))
+			if err != nil {
+				b.Fatal(err)
+			}
+			reg := clipBenchRegion(b, math.Sqrt(float64(n))*100, 4000)
+			b.ResetTimer()
+			for i := 0; i < b.N; i++ {
+				if _, err := rt.PowerCells(reg); err != nil {
+					b.Fatal(err)
+				}
+			}
+			b.ReportMetric(float64(b.Elapsed().Nanoseconds())/float64(b.N)/float64(rt.NumVertices()), "ns/site")
+		})
+	}
+}

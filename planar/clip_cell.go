@@ -134,7 +134,12 @@ func (w *clipWork) wholeCell(v int32, out *clipOut) {
 		out.src = out.src[:start]
 		out.sitePolys = append(out.sitePolys, 0)
 		out.area = append(out.area, 0)
-		w.c.anomalies.Add(1)
+		if c.wt == nil {
+			// A Voronoi cell always has area; a power cell of a vertex
+			// whose lift lies exactly on its neighbours' plane (kept by
+			// the perturbation) is a point, and empty is right.
+			w.c.anomalies.Add(1)
+		}
 		return
 	}
 	out.ringPts = append(out.ringPts, int32(n))
@@ -361,7 +366,7 @@ func (w *clipWork) clipCell(v int32, seeds []int32, out *clipOut) {
 	}
 	largest := w.wholeRings(px, py)
 	if len(w.events) == 0 {
-		w.boundaryRing(largest, px, py, bounded)
+		w.boundaryRing(v, largest, px, py, bounded)
 	}
 	w.emit(out, px, py)
 }
@@ -378,7 +383,7 @@ func (w *clipWork) startCell(v int32) (px, py float64, bounded bool) {
 		nx, ny := c.xy[2*j]-px, c.xy[2*j+1]-py
 		w.cnx = append(w.cnx, nx)
 		w.cny = append(w.cny, ny)
-		w.ch = append(w.ch, 0.5*(nx*nx+ny*ny))
+		w.ch = append(w.ch, c.halfOffset(v, j, nx, ny))
 	}
 	w.stamp++
 	w.sx, w.sy, w.sin, w.sg, w.sgp, w.svert = w.sx[:0], w.sy[:0], w.sin[:0], w.sg[:0], w.sgp[:0], w.svert[:0]
@@ -525,19 +530,33 @@ func (w *clipWork) wholeRings(px, py float64) int {
 	return largest
 }
 
+// cornerArea returns the signed area of the current bounded cell's corner
+// polygon (its circumcentres or power centres in order).
+func (w *clipWork) cornerArea() float64 {
+	xy := w.tmp[:0]
+	for _, t := range w.tri {
+		xy = append(xy, w.c.cc[2*t], w.c.cc[2*t+1])
+	}
+	w.tmp = xy
+	return RingArea(xy)
+}
+
 // boundaryRing handles a cell whose boundary no chain touches: the cell's
 // own boundary lies in the area exactly when the largest whole ring is a
-// hole (or, with none, when the site is in the area), and then it is an
-// exterior ring.
-func (w *clipWork) boundaryRing(largest int, px, py float64, bounded bool) {
+// hole (or, with none, when the site is in the area; for a power cell a
+// point of the cell, cellPointOf), and then it is an exterior ring.
+func (w *clipWork) boundaryRing(v int32, largest int, px, py float64, bounded bool) {
 	c := w.c
 	boundaryIn := false
 	if largest >= 0 {
 		boundaryIn = w.rings[largest].hole
 	} else {
-		in, on := c.grid.locate(px, py, nil, nil)
+		x, y := c.cellPointOf(v, w.nb, w.tri, bounded)
+		in, on := c.grid.locate(x, y, nil, nil)
 		boundaryIn = in && !on
-		if on {
+		if on && !(c.wt != nil && bounded && w.cornerArea() == 0) {
+			// (A power cell of zero area, a point or a segment, may lie
+			// on the area's boundary; it is empty either way.)
 			c.anomalies.Add(1)
 		}
 	}

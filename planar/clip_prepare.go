@@ -16,7 +16,10 @@
 //     (the direction it moves when every edge moves inward by δ, used by the
 //     symbolic perturbation described in clip.go), and the edge grids.
 //   - nearest: greedy descent over Delaunay neighbours to the nearest site
-//     (on a Delaunay graph a vertex with no nearer neighbour is nearest).
+//     (on a Delaunay graph a vertex with no nearer neighbour is nearest; on
+//     a regular triangulation, by power, the same holds).
+//   - halfOffset, power, cellPoint, cocircular: where a power diagram
+//     differs from the Voronoi diagram (weights nil: the Voronoi case).
 
 package planar
 
@@ -86,20 +89,30 @@ func (c *clipper) circumcentres() {
 			case lab >= lbd && lab >= lda:
 				a, b, d = d, a, b
 			}
-			x, y, eb := CircumcentreErr(c.xy[2*a], c.xy[2*a+1], c.xy[2*b], c.xy[2*b+1], c.xy[2*d], c.xy[2*d+1])
+			var x, y, eb, r2 float64
+			if c.wt == nil {
+				x, y, eb = CircumcentreErr(c.xy[2*a], c.xy[2*a+1], c.xy[2*b], c.xy[2*b+1], c.xy[2*d], c.xy[2*d+1])
+				r2 = dist2(x, y, c.xy[2*a], c.xy[2*a+1])
+			} else {
+				x, y, eb = powerCentreErr(c.xy[2*a], c.xy[2*a+1], c.wt[a], c.xy[2*b], c.xy[2*b+1], c.wt[b], c.xy[2*d], c.xy[2*d+1], c.wt[d])
+				// The largest distance to a vertex bounds the distance to
+				// the vertex shared with any neighbouring triangle.
+				r2 = max(dist2(x, y, c.xy[2*a], c.xy[2*a+1]), dist2(x, y, c.xy[2*b], c.xy[2*b+1]), dist2(x, y, c.xy[2*d], c.xy[2*d+1]))
+			}
 			c.cc[2*i], c.cc[2*i+1], errb[i] = x, y, eb
-			// A Voronoi edge is at most R1 + R2 long (R the circumradii):
-			// one between two small circles near no ring edge cannot
-			// meet one (see markCrossedEdges).
-			// A Voronoi edge is at most R1 + R2 long (R the circumradii);
-			// see markCrossedEdges.
+			// A Voronoi edge is at most R1 + R2 long (R the circumradii;
+			// for a power edge between the centres c1, c2 of two
+			// triangles sharing vertex a, |c1 − c2| ≤ |c1 − a| + |a − c2|
+			// with R the largest distance from a centre to its
+			// triangle's vertices): one between two small circles near
+			// no ring edge cannot meet one (see markCrossedEdges).
 			fq, fr := math.Floor((x-g.x0)/g.cw), math.Floor((y-g.y0)/g.ch)
 			near := false
 			if fq >= -1 && fq <= float64(g.nx) && fr >= -1 && fr <= float64(g.ny) {
 				q, r := min(max(int(fq), 0), g.nx-1), min(max(int(fr), 0), g.ny-1)
 				near = occupied[r*g.nx+q]
 			}
-			if dist2(x, y, c.xy[2*a], c.xy[2*a+1]) >= 0.25*small*small*clipNearMargin {
+			if r2 >= 0.25*small*small*clipNearMargin {
 				near = true
 			}
 			c.near[i] = near
@@ -122,7 +135,7 @@ func (c *clipper) circumcentres() {
 			}
 			a, b, cc := t.Triangles[3*tr], t.Triangles[3*tr+1], t.Triangles[3*tr+2]
 			d := t.Triangles[PrevHalfedge(o)]
-			if InCircle(c.xy[2*a], c.xy[2*a+1], c.xy[2*b], c.xy[2*b+1], c.xy[2*cc], c.xy[2*cc+1], c.xy[2*d], c.xy[2*d+1]) == 0 {
+			if c.cocircular(a, b, cc, d) {
 				local = append(local, [2]int32{int32(tr), to})
 			}
 		}
@@ -143,6 +156,103 @@ func (c *clipper) circumcentres() {
 	for i, k := range uf.Flatten() {
 		c.cc[2*i], c.cc[2*i+1] = c.cc[2*k], c.cc[2*k+1]
 	}
+}
+
+// cocircular reports whether the lifts of a, b, c, d are exactly coplanar
+// (InCircle, or PowerTest for a power diagram, without perturbation): the
+// two triangles then share one circumcentre or power centre.
+func (c *clipper) cocircular(a, b, cc, d int32) bool {
+	xy := c.xy
+	if c.wt == nil {
+		return InCircle(xy[2*a], xy[2*a+1], xy[2*b], xy[2*b+1], xy[2*cc], xy[2*cc+1], xy[2*d], xy[2*d+1]) == 0
+	}
+	w := c.wt
+	return PowerTest(xy[2*a], xy[2*a+1], w[a], xy[2*b], xy[2*b+1], w[b], xy[2*cc], xy[2*cc+1], w[cc], xy[2*d], xy[2*d+1], w[d]) == 0
+}
+
+// halfOffset is h in the half-plane (x − p_v)·n − h ≤ 0 of the cell of v
+// against neighbour j, n = p_j − p_v = (nx, ny): |n|²/2 for a Voronoi cell
+// (the bisector), (|n|² + w_v − w_j)/2 for a power cell (the power line,
+// from |x − p_v|² − w_v ≤ |x − p_j|² − w_j).
+func (c *clipper) halfOffset(v, j int32, nx, ny float64) float64 {
+	if c.wt == nil {
+		return 0.5 * (nx*nx + ny*ny)
+	}
+	return 0.5 * (nx*nx + ny*ny + (c.wt[v] - c.wt[j]))
+}
+
+// power returns the power of (x, y) with respect to vertex v: the squared
+// distance, less the weight for a power diagram.
+func (c *clipper) power(v int32, x, y float64) float64 {
+	d := dist2(c.xy[2*v], c.xy[2*v+1], x, y)
+	if c.wt != nil {
+		d -= c.wt[v]
+	}
+	return d
+}
+
+// cellPoint returns a point of the closed cell of v for the point-in-area
+// test that decides a cell meeting no ring edge: the site for a Voronoi
+// cell (strictly inside it). A power cell may not hold its site; then the
+// mean of its corners (power centres), or in the collinear case a point
+// between its two power lines on the line of the sites.
+func (c *clipper) cellPoint(v int32, nb, tri []int32) (x, y float64) {
+	if c.wt == nil {
+		return c.xy[2*v], c.xy[2*v+1]
+	}
+	var bounded bool
+	nb, tri, bounded = c.around(v, nb, tri)
+	return c.cellPointOf(v, nb, tri, bounded)
+}
+
+// cellPointOf is cellPoint given v's neighbours and triangles (around). An
+// unbounded cell's corner mean is moved along the sum of its two rays'
+// directions (the outward normals of its hull edges, in the cell's
+// recession cone) by the spread of its corners, off its boundary.
+func (c *clipper) cellPointOf(v int32, nb, tri []int32, bounded bool) (x, y float64) {
+	px, py := c.xy[2*v], c.xy[2*v+1]
+	if c.wt == nil {
+		return px, py
+	}
+	if len(tri) > 0 {
+		for _, k := range tri {
+			x += c.cc[2*k]
+			y += c.cc[2*k+1]
+		}
+		x, y = x/float64(len(tri)), y/float64(len(tri))
+		if bounded {
+			return x, y
+		}
+		spread := 1.0
+		for _, k := range tri {
+			spread += math.Abs(c.cc[2*k]-x) + math.Abs(c.cc[2*k+1]-y)
+		}
+		// Hull edges v → nb[0] and nb[last] → v, interior on the left:
+		// outward normals (dy, −dx).
+		a, b := nb[0], nb[len(nb)-1]
+		d1x, d1y := c.xy[2*a]-px, c.xy[2*a+1]-py
+		d2x, d2y := px-c.xy[2*b], py-c.xy[2*b+1]
+		l1, l2 := math.Hypot(d1x, d1y), math.Hypot(d2x, d2y)
+		ux, uy := d1y/l1+d2y/l2, -d1x/l1-d2x/l2
+		return x + spread*ux, y + spread*uy
+	}
+	// Collinear: along n = p_j − p_v the power line with j is at the
+	// fraction s = (|n|² + w_v − w_j)/(2|n|²) of n.
+	var s [2]float64
+	var n [2][2]float64
+	for i, j := range nb {
+		nx, ny := c.xy[2*j]-px, c.xy[2*j+1]-py
+		n[i] = [2]float64{nx, ny}
+		s[i] = c.halfOffset(v, j, nx, ny) / (nx*nx + ny*ny)
+	}
+	switch len(nb) {
+	case 1:
+		s[0]--
+		return px + s[0]*n[0][0], py + s[0]*n[0][1]
+	case 2:
+		return px + 0.5*(s[0]*n[0][0]+s[1]*n[1][0]), py + 0.5*(s[0]*n[0][1]+s[1]*n[1][1])
+	}
+	return px, py
 }
 
 // around lists the Delaunay neighbours of v counter-clockwise in nb and, in
@@ -229,16 +339,18 @@ func (c *clipper) prepareRegion() {
 	}
 }
 
-// nearest returns the site nearest (x, y) by greedy descent over Delaunay
-// neighbours from hint (which finds the nearest site on a Delaunay graph).
+// nearest returns the site nearest (x, y) (of smallest power, for a power
+// diagram) by greedy descent over the triangulation's neighbours from hint:
+// a cell is the intersection of the half-planes of its neighbours, so a
+// vertex with no neighbour of smaller power holds (x, y) in its cell.
 func (c *clipper) nearest(x, y float64, hint int32, nb, tri []int32) int32 {
 	v := hint
-	d := dist2(c.xy[2*v], c.xy[2*v+1], x, y)
+	d := c.power(v, x, y)
 	for steps := 0; steps <= c.nv; steps++ {
 		nb, tri, _ = c.around(v, nb, tri)
 		best, bd := v, d
 		for _, j := range nb {
-			if dj := dist2(c.xy[2*j], c.xy[2*j+1], x, y); dj < bd {
+			if dj := c.power(j, x, y); dj < bd {
 				best, bd = j, dj
 			}
 		}

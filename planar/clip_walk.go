@@ -69,7 +69,7 @@ func (c *clipper) walkBoundary() {
 						continue
 					}
 					nx, ny := c.xy[2*j]-px, c.xy[2*j+1]-py
-					h := 0.5 * (nx*nx + ny*ny)
+					h := c.halfOffset(site, j, nx, ny)
 					ga := (ax-px)*nx + (ay-py)*ny - h
 					gb := (bx-px)*nx + (by-py)*ny - h
 					if ga == 0 && gb == 0 {
@@ -110,7 +110,7 @@ func (c *clipper) walkBoundary() {
 						continue
 					}
 					nx, ny := c.xy[2*j]-px, c.xy[2*j+1]-py
-					h := 0.5 * (nx*nx + ny*ny)
+					h := c.halfOffset(site, j, nx, ny)
 					ga := (ax-px)*nx + (ay-py)*ny - h
 					gb := (bx-px)*nx + (by-py)*ny - h
 					if gb > 0 && gb > ga && ga/(ga-gb) <= bt+clipWalkTieT {
@@ -205,7 +205,8 @@ func (c *clipper) markCrossedEdges() {
 // classify decides every uncrossed cell: uncrossed cells joined by a
 // Voronoi edge of positive length lie on the same side of the area's
 // boundary, so one point-in-area test (at a site, which lies strictly
-// inside its own cell) decides a whole group. Groups are found by
+// inside its own Voronoi cell; for a power cell at cellPoint) decides a
+// whole group. Groups are found by
 // union-find over the Delaunay edges in one linear pass.
 func (c *clipper) classify() {
 	uf := NewUnionFind(c.nv)
@@ -236,6 +237,7 @@ func (c *clipper) classify() {
 	// Verdict per group: 0 undecided, 1 inside, 2 outside, 3 only sites on
 	// the boundary seen so far.
 	verdict := make([]uint8, c.nv)
+	var nb, tri []int32
 	for v := int32(0); int(v) < c.nv; v++ {
 		if c.state[v] != clipUnknown {
 			continue
@@ -244,7 +246,8 @@ func (c *clipper) classify() {
 		if verdict[r] == 1 || verdict[r] == 2 {
 			continue
 		}
-		in, on := c.grid.locate(c.xy[2*v], c.xy[2*v+1], nil, nil)
+		x, y := c.cellPoint(v, nb, tri)
+		in, on := c.grid.locate(x, y, nil, nil)
 		switch {
 		case on:
 			verdict[r] = 3

@@ -277,7 +277,9 @@ func triangulateCollinear(pts []orb.Point) *Triangulation {
 // Duplicates returns the groups of input indices that were merged into one
 // vertex because their points are equal, each group in increasing order and
 // the groups in order of their vertex. Inputs without a duplicate are not
-// listed; the result is empty when all points are distinct.
+// listed; the result is empty when all points are distinct. Inputs that
+// are hidden in a regular triangulation (Vertex −1) are not listed either
+// (RegularTriangulation.Hidden lists them).
 func (t *Triangulation) Duplicates() [][]int32 {
 	m := len(t.Source)
 	if len(t.Vertex) == m {
@@ -285,7 +287,9 @@ func (t *Triangulation) Duplicates() [][]int32 {
 	}
 	count := make([]int32, m)
 	for _, v := range t.Vertex {
-		count[v]++
+		if v >= 0 { // -1: hidden in a regular triangulation
+			count[v]++
+		}
 	}
 	var groups [][]int32
 	slot := make([]int32, m)
@@ -297,6 +301,9 @@ func (t *Triangulation) Duplicates() [][]int32 {
 		}
 	}
 	for i, v := range t.Vertex {
+		if v < 0 {
+			continue
+		}
 		if s := slot[v]; s >= 0 {
 			groups[s] = append(groups[s], int32(i))
 		}

@@ -23,6 +23,12 @@
 //   - Cells: the Voronoi cell of a site is the convex polygon whose vertices
 //     are the circumcentres of its Delaunay triangles; it is intersected
 //     with the site area (a polygon set with holes) edge by edge.
+//   - Power cells (ClipPowerCells, RegularTriangulation.PowerCells): for
+//     weighted sites (a device's range squared) the same clipper with power
+//     lines for bisectors and power centres for circumcentres (Aurenhammer,
+//     SIAM J. Comput. 16, 1987), on the regular triangulation
+//     (TriangulateRegular); equal weights give ClipCells's output exactly.
+//     RegularTriangulation.NearestPower finds the vertex of smallest power.
 //   - Areas: polygon ∩ disk by the closed form summed over polygon edges
 //     (each edge contributes a triangle part and a circular-sector part).
 //   - Rings (ring.go, ringset.go): shoelace area and moments, exact

@@ -118,13 +118,15 @@ def touches(comp, boundary):
     return comp.boundary.intersection(boundary.buffer(1e-7)).length > 1e-6
 
 
-def case(region, sites, r):
-    rc = r / math.cos(math.pi / N_SEG)
-    insc = region.difference(unary_union([Point(p).buffer(r, resolution=RES) for p in sites]))
-    circ = region.difference(unary_union([Point(p).buffer(rc, resolution=RES) for p in sites]))
+def bracket(region, sites, radii, extra=None):
+    """Uncovered part with inscribed and circumscribed 1024-gons of radii
+    (one per site); extra(c, q) adds fields per component (circumscribed c,
+    inscribed q). None when the two brackets' components do not match."""
+    insc = region.difference(unary_union([Point(p).buffer(r, resolution=RES) for p, r in zip(sites, radii)]))
+    circ = region.difference(unary_union([Point(p).buffer(r / math.cos(math.pi / N_SEG), resolution=RES)
+                                          for p, r in zip(sites, radii)]))
     ci, cc = components(insc), components(circ)
     out = {
-        "r": r,
         "uncovered_inscribed": insc.area,
         "uncovered_circumscribed": circ.area,
         "count_inscribed": len(ci),
@@ -142,14 +144,22 @@ def case(region, sites, r):
             break
         used.add(match[0])
         q = ci[match[0]]
-        out["components"].append({
+        comp = {
             "rep": [rp.x, rp.y],
             "area_circumscribed": c.area,
             "area_inscribed": q.area,
             "touches_circumscribed": touches(c, bnd),
             "touches_inscribed": touches(q, bnd),
-        })
+        }
+        if extra is not None:
+            comp.update(extra(c, q))
+        out["components"].append(comp)
     return out if ok else None
+
+
+def case(region, sites, r):
+    b = bracket(region, sites, [r] * len(sites))
+    return None if b is None else dict({"r": r}, **b)
 
 
 def build(seed):
@@ -182,12 +192,16 @@ def main():
     ap.add_argument("--seed", type=int, default=20240612)
     ap.add_argument("--out", default=os.path.join(os.path.dirname(os.path.abspath(__file__)), "gaps_ref.json"))
     a = ap.parse_args()
-    data = build(a.seed)
+    write_json(build(a.seed), a.out)
+
+
+def write_json(data, out):
+    """Writes data as indented JSON to the file out ('-': standard output)."""
     text = json.dumps(data, indent=1)
-    if a.out == "-":
+    if out == "-":
         sys.stdout.write(text)
     else:
-        with open(a.out, "w") as f:
+        with open(out, "w") as f:
             f.write(text + "\n")
 
 
