@@ -304,7 +304,7 @@ func (s *session) added(e *Edit, cfg *Config) ([]device, error) {
 			return nil, refuse(400, "added point %d needs \"x\" and \"y\" (local metres)", k)
 		}
 		if err := cfg.checkPoint(*p.X, *p.Y); err != nil {
-			return nil, refuse(400, "added point %d: %v", k, err)
+			return nil, refuse(err.(*editError).status, "added point %d: %v", k, err)
 		}
 		if len(p.Label) > maxLabel {
 			return nil, refuse(400, "added point %d: label longer than %d bytes", k, maxLabel)
