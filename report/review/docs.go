@@ -1,13 +1,16 @@
 // The JSON documents of the review API: the scene (fixed), the state
 // (devices and figures), one device's figures and the service areas. All
-// coordinates are local metres; drawing-only outlines are rounded to the
-// millimetre (outlineDecimals), device positions and figures are not.
+// coordinates are local metres; drawing-only outlines are rounded (to the
+// millimetre in the scene, the centimetre in gaps and cells), device
+// positions and figures are not.
 
 package review
 
 import (
+	"encoding/json"
 	"math"
 	"slices"
+	"strconv"
 	"strings"
 	"time"
 
@@ -16,9 +19,14 @@ import (
 	"github.com/sitecover/sitecover/report"
 )
 
-// outlineScale rounds drawing-only coordinates to 1 mm: far below a
-// screen pixel at any useful zoom, and it keeps the answers small.
-const outlineScale = 1000
+// outlineScale rounds drawing-only coordinates of the scene to 1 mm, and
+// outlineDecimals writes gap and cell outlines with centimetre decimals:
+// far below a screen pixel at any useful zoom, and it keeps the answers
+// small.
+const (
+	outlineScale    = 1000
+	outlineDecimals = 2
+)
 
 // sceneDoc is the /api/scene answer.
 type sceneDoc struct {
@@ -85,12 +93,35 @@ func cautionParagraphs() []string {
 
 // stateDoc is the /api/state and /api/edit answer.
 type stateDoc struct {
-	Version int         `json:"version"`
-	CanUndo bool        `json:"canUndo"`
+	Version int  `json:"version"`
+	CanUndo bool `json:"canUndo"`
+	// Devices is left out (null) from the answer to a range edit: the
+	// device list did not change.
 	Devices []deviceRow `json:"devices"`
 	Figures figuresDoc  `json:"figures"`
 	// ComputeMs is the server time of the edit (recompute), milliseconds.
 	ComputeMs float64 `json:"computeMs"`
+	// outlines holds the gap outlines, by gap, as JSON (see encode).
+	outlines [][]byte
+}
+
+// encode writes the state as JSON, with the gap outlines as a last member
+// "outlines" (one per gap, in the order of figures.gaps), appended by hand:
+// encoding/json would re-scan them as raw messages, which cost as much as
+// tracing the gaps for 10 000 devices.
+func (d *stateDoc) encode() ([]byte, error) {
+	b, err := json.Marshal(d)
+	if err != nil {
+		return nil, err
+	}
+	b = append(b[:len(b)-1], `,"outlines":[`...)
+	for i, o := range d.outlines {
+		if i > 0 {
+			b = append(b, ',')
+		}
+		b = append(b, o...)
+	}
+	return append(b, "]}"...), nil
 }
 
 // deviceRow is one device in the state.
@@ -121,14 +152,14 @@ type figuresDoc struct {
 
 // gapDoc is one gap.
 type gapDoc struct {
-	ID              int              `json:"id"`
-	AreaM2          float64          `json:"areaM2"`
-	ClosingRangeM   float64          `json:"closingRangeM"`
-	Deepest         [2]float64       `json:"deepest"`
-	Centroid        [2]float64       `json:"centroid"`
-	TouchesBoundary bool             `json:"touchesBoundary"`
-	Devices         []int            `json:"devices"`
-	Outline         [][][][2]float64 `json:"outline"`
+	ID              int             `json:"id"`
+	AreaM2          float64         `json:"areaM2"`
+	ClosingRangeM   float64         `json:"closingRangeM"`
+	Deepest         [2]float64      `json:"deepest"`
+	Centroid        [2]float64      `json:"centroid"`
+	TouchesBoundary bool            `json:"touchesBoundary"`
+	Devices         []int           `json:"devices"`
+	Outline         json.RawMessage `json:"outline"`
 }
 
 // holeDoc is one hole of the union of disks (persistence).
@@ -140,14 +171,17 @@ type holeDoc struct {
 	Open    bool       `json:"open"`
 }
 
-// stateDoc builds the state answer; the caller holds the lock.
-func (sv *Server) stateDoc(took time.Duration) stateDoc {
+// stateDoc builds the state answer, with the device list when
+// withDevices; the caller holds the lock.
+func (sv *Server) stateDoc(took time.Duration, withDevices bool) stateDoc {
 	s := sv.s
 	g := s.geo
 	d := stateDoc{Version: s.version, CanUndo: len(s.undo) > 0, ComputeMs: took.Seconds() * 1000}
-	d.Devices = make([]deviceRow, len(s.devs))
-	for i, v := range s.devs {
-		d.Devices[i] = deviceRow{X: v.X, Y: v.Y, Label: v.Label, On: v.On}
+	if withDevices {
+		d.Devices = make([]deviceRow, len(s.devs))
+		for i, v := range s.devs {
+			d.Devices[i] = deviceRow{X: v.X, Y: v.Y, Label: v.Label, On: v.On}
+		}
 	}
 	f := &d.Figures
 	f.RangeM = s.r
@@ -162,12 +196,14 @@ func (sv *Server) stateDoc(took time.Duration) stateDoc {
 	f.FullCoverDevices = g.deviceIndex(g.full.WorstSites)
 	f.DevicesOn = len(g.active)
 	f.Gaps = make([]gapDoc, len(s.at.gaps))
+	d.outlines = make([][]byte, len(s.at.gaps))
 	for i, gp := range s.at.gaps {
 		f.Gaps[i] = gapDoc{
 			ID: gp.ID, AreaM2: gp.Area, ClosingRangeM: gp.ClosingRange,
 			Deepest: gp.Deepest, Centroid: gp.Centroid, TouchesBoundary: gp.TouchesBoundary,
-			Devices: g.deviceIndex(gp.Sites), Outline: multiPolygonDoc(gp.Outline),
+			Devices: g.deviceIndex(gp.Sites),
 		}
+		d.outlines[i] = appendMultiPolygon(nil, gp.Outline)
 		if !gp.TouchesBoundary {
 			f.EnclosedGaps++
 		}
@@ -257,8 +293,8 @@ func (sv *Server) deviceDoc(i int) (deviceDoc, error) {
 
 // cellDoc is one device's service area.
 type cellDoc struct {
-	Device  int              `json:"device"`
-	Outline [][][][2]float64 `json:"outline"`
+	Device  int             `json:"device"`
+	Outline json.RawMessage `json:"outline"`
 }
 
 // cellsDoc lists the service areas; the caller holds the lock.
@@ -267,23 +303,33 @@ func (sv *Server) cellsDoc() []cellDoc {
 	c := g.layout.Cells
 	nv := len(c.SiteStart) - 1
 	out := make([]cellDoc, 0, nv)
+	var pts []orb.Point
 	for v := 0; v < nv; v++ {
-		var polys [][][][2]float64
-		for p := c.SiteStart[v]; p < c.SiteStart[v+1]; p++ {
-			var rings [][][2]float64
-			for k := c.PolyStart[p]; k < c.PolyStart[p+1]; k++ {
-				xy := c.XY[2*c.RingStart[k] : 2*c.RingStart[k+1]]
-				ring := make([][2]float64, len(xy)/2)
-				for j := range ring {
-					ring[j] = round2(orb.Point{xy[2*j], xy[2*j+1]})
-				}
-				rings = append(rings, ring)
+		p0, p1 := c.SiteStart[v], c.SiteStart[v+1]
+		if p0 == p1 {
+			continue
+		}
+		b := []byte{'['}
+		for p := p0; p < p1; p++ {
+			if p > p0 {
+				b = append(b, ',')
 			}
-			polys = append(polys, rings)
+			b = append(b, '[')
+			for k := c.PolyStart[p]; k < c.PolyStart[p+1]; k++ {
+				if k > c.PolyStart[p] {
+					b = append(b, ',')
+				}
+				xy := c.XY[2*c.RingStart[k] : 2*c.RingStart[k+1]]
+				pts = pts[:0]
+				for j := 0; j < len(xy); j += 2 {
+					pts = append(pts, orb.Point{xy[j], xy[j+1]})
+				}
+				b = appendRing(b, pts)
+			}
+			b = append(b, ']')
 		}
-		if len(polys) > 0 {
-			out = append(out, cellDoc{Device: int(g.active[g.layout.Tri.Source[v]]), Outline: polys})
-		}
+		b = append(b, ']')
+		out = append(out, cellDoc{Device: int(g.active[g.layout.Tri.Source[v]]), Outline: b})
 	}
 	return out
 }
@@ -302,6 +348,44 @@ func multiPolygonDoc(mp orb.MultiPolygon) [][][][2]float64 {
 		}
 	}
 	return out
+}
+
+// appendMultiPolygon appends mp as JSON arrays of [x, y] with
+// centimetre decimals: drawing-only outlines, written by hand because
+// they are the bulk of an edit's answer (encoding/json's shortest float
+// formatting cost more than the gap tracing for 10 000 devices).
+func appendMultiPolygon(b []byte, mp orb.MultiPolygon) []byte {
+	b = append(b, '[')
+	for i, poly := range mp {
+		if i > 0 {
+			b = append(b, ',')
+		}
+		b = append(b, '[')
+		for j, ring := range poly {
+			if j > 0 {
+				b = append(b, ',')
+			}
+			b = appendRing(b, ring)
+		}
+		b = append(b, ']')
+	}
+	return append(b, ']')
+}
+
+// appendRing appends one ring as [[x,y],...] with centimetre decimals.
+func appendRing(b []byte, ring []orb.Point) []byte {
+	b = append(b, '[')
+	for k, p := range ring {
+		if k > 0 {
+			b = append(b, ',')
+		}
+		b = append(b, '[')
+		b = strconv.AppendFloat(b, p[0], 'f', outlineDecimals, 64)
+		b = append(b, ',')
+		b = strconv.AppendFloat(b, p[1], 'f', outlineDecimals, 64)
+		b = append(b, ']')
+	}
+	return append(b, ']')
 }
 
 // round2 rounds a drawing-only point to outlineScale.

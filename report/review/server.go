@@ -69,8 +69,9 @@ type Config struct {
 	// AnyHost accepts any Host header (the server listens beyond
 	// loopback).
 	AnyHost bool
-	// ChordTolerance is the outline tolerance passed to Layout.Gaps (0:
-	// coverage.DefaultChordTolerance).
+	// ChordTolerance is the outline tolerance of the full report (0:
+	// coverage.DefaultChordTolerance). The page's gap outlines use
+	// drawChordTolerance.
 	ChordTolerance float64
 
 	// reach is how far outside the area's bounding box a device may stand;
@@ -215,7 +216,8 @@ func (sv *Server) page(w http.ResponseWriter, r *http.Request) {
 // state answers the current state.
 func (sv *Server) state(w http.ResponseWriter, r *http.Request) {
 	sv.mu.Lock()
-	b, err := json.Marshal(sv.stateDoc(0))
+	d := sv.stateDoc(0, true)
+	b, err := d.encode()
 	sv.mu.Unlock()
 	if err != nil {
 		writeError(w, http.StatusInternalServerError, "%v", err)
@@ -236,7 +238,8 @@ func (sv *Server) edit(w http.ResponseWriter, r *http.Request) {
 	err := sv.s.apply(&e, &sv.cfg)
 	var b []byte
 	if err == nil {
-		b, err = json.Marshal(sv.stateDoc(time.Since(t0)))
+		d := sv.stateDoc(time.Since(t0), e.Op != "range")
+		b, err = d.encode()
 	}
 	sv.mu.Unlock()
 	if err != nil {

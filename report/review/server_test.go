@@ -195,6 +195,9 @@ func TestEdits(t *testing.T) {
 				t.Errorf("version %d after %d", s.Version, prev)
 			}
 			prev = s.Version
+			if s.Devices == nil {
+				s.Devices = getState(t, h).Devices
+			}
 			st.check(t, s)
 			checkFigures(t, cfg, s)
 		})

@@ -49,10 +49,16 @@ const (
 	MaxUndo = 200
 	// curveSamples is the number of evenly spaced ranges of the coverage
 	// curve drawn beside the range slider (plus its breakpoints).
-	curveSamples = 64
+	curveSamples = 32
 	// maxHoles is the number of holes (longest-lived first) sent to the
 	// page.
 	maxHoles = 50
+	// drawChordTolerance is the sagitta of the page's gap outline chords,
+	// relative to the range: 1 % of the range is below a pixel whenever a
+	// disk is drawn under 200 px across, and it halves the outline work
+	// against coverage.DefaultChordTolerance. Gap areas, closing ranges
+	// and deepest points are exact whatever the tolerance.
+	drawChordTolerance = 0.01
 	// maxLabel is the longest device label accepted, in bytes.
 	maxLabel = 200
 )
@@ -167,7 +173,7 @@ func (g *geometry) atRange(r float64, cfg *Config) (atRange, error) {
 	}
 	return atRange{
 		uncovered: g.layout.UncoveredArea(r),
-		gaps:      g.layout.Gaps(r, cfg.ChordTolerance),
+		gaps:      g.layout.Gaps(r, drawChordTolerance),
 	}, nil
 }
 

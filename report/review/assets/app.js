@@ -279,6 +279,8 @@
 
   // ---------- figures ----------
   function setState(s) {
+    if (!s.devices) s.devices = state.devices; // a range edit leaves them as they were
+    s.figures.gaps.forEach((g, k) => { g.outline = s.outlines[k]; });
     // while a device is dragged, it stays under the pointer
     if (dragging.device !== null && dragging.pos && s.devices[dragging.device]) {
       s.devices[dragging.device].x = dragging.pos[0]; s.devices[dragging.device].y = dragging.pos[1];
