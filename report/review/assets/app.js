@@ -122,6 +122,7 @@
     drawGaps();
     drawDevices();
     drawOverlay();
+    drawLegend();
   }
 
   function drawArea() {
@@ -215,7 +216,11 @@
     el("path", { d: "M0 -22L9 8L0 2L-9 8Z", fill: "#1b1b1b" }, na);
     const nt = el("text", { x: 0, y: 24, "text-anchor": "middle" }, na);
     nt.textContent = "N";
-    // legend, bottom left
+  }
+
+  // drawLegend draws the legend in the side panel (it would hide part of
+  // the plan).
+  function drawLegend() {
     const items = [
       ["area", "site area"], ["excl", "needs no coverage"], ["disk", "device range"],
       ["dev", "device"], ["off", "switched off"], ["gap", "gap (numbered)"], ["deep", "deepest point"],
@@ -223,10 +228,12 @@
     ];
     if (scene.context.length || scene.contextPoints.length) items.push(["ctx", "context"]);
     if ($("show-cells").checked) items.push(["cell", "service area"]);
-    const lg = el("g", { class: "legend", transform: `translate(10,${view.h - 18 * items.length - 16})` }, g);
-    el("rect", { x: 0, y: 0, width: 168, height: 18 * items.length + 8, rx: 4, class: "bg" }, lg);
+    const lg = $("legend");
+    while (lg.firstChild) lg.removeChild(lg.firstChild);
+    const rows = Math.ceil(items.length / 2);
+    lg.setAttribute("viewBox", `0 0 320 ${18 * rows + 4}`);
     items.forEach(([k, label], i) => {
-      const y = 14 + 18 * i, x = 16;
+      const y = 14 + 18 * (i % rows), x = 10 + 160 * Math.floor(i / rows);
       if (k === "dev") el("circle", { cx: x, cy: y - 4, r: 5, class: "dev" }, lg);
       else if (k === "off") { el("circle", { cx: x, cy: y - 4, r: 5, class: "dev off" }, lg); el("path", { d: `M${x - 3.5} ${y - 7.5}L${x + 3.5} ${y - 0.5}M${x - 3.5} ${y - 0.5}L${x + 3.5} ${y - 7.5}`, class: "offx" }, lg); }
       else if (k === "deep") el("path", { d: `M${x - 4} ${y - 8}L${x + 4} ${y}M${x - 4} ${y}L${x + 4} ${y - 8}`, class: "deep" }, lg);
@@ -234,7 +241,7 @@
       else if (k === "disk") el("circle", { cx: x, cy: y - 4, r: 7, class: "disk" }, lg);
       else if (k === "cell") el("path", { d: `M${x - 9} ${y - 4}L${x + 9} ${y - 4}`, class: "cell" }, lg);
       else el("rect", { x: x - 9, y: y - 10, width: 18, height: 12, class: k }, lg);
-      const tt = el("text", { x: 32, y: y }, lg);
+      const tt = el("text", { x: x + 18, y: y }, lg);
       tt.textContent = label;
     });
   }
@@ -313,6 +320,7 @@
     if (selected && selected.kind === "gap" && !f.gaps.some((g) => g.id === selected.id)) selected = null;
     if (selected && selected.kind === "device" && selected.id >= s.devices.length) selected = null;
     if ($("show-cells").checked) loadCells(); else cells = null;
+    hideTip(); // the hovered element may be gone
     draw();
     drawCurve();
     showSelection();
