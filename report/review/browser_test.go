@@ -110,7 +110,7 @@ func leftDrag(p *input.DispatchMouseEventParams) {
 // js runs a script for its effects.
 func js(script string) chromedp.Action[chromedp.Void] {
 	return chromedp.Func(func(ctx context.Context, t *chromedp.Target) error {
-		_, err := chromedp.Evaluate[bool]("(() => {" + script + "; return true; })()")(ctx, t)
+		_, err := chromedp.Evaluate[bool]("(() => {"+script+"; return true; })()")(ctx, t)
 		return err
 	})
 }
