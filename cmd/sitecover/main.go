@@ -48,18 +48,23 @@ func main() {
 	os.Exit(run(os.Args[1:], os.Stdout, os.Stderr))
 }
 
-// exitOnSignal waits for Ctrl-C (SIGINT) or SIGTERM, stops the review
-// server if one runs (runInterruptHook), removes the staging
-// folders of report writes in progress (the output folders keep their
-// previous set, see report.AbortWrites), says so in one line and exits
-// with 130 (128 + SIGINT, the shell convention; 143 for SIGTERM).
+// exitOnSignal waits for Ctrl-C (SIGINT) or SIGTERM. While the review
+// command serves its page, the first signal only stops its server
+// (runInterruptHook) and the command returns normally. Otherwise it
+// removes the staging folders of report writes in progress (the output
+// folders keep their previous set, see report.AbortWrites), says so in one
+// line and exits with 130 (128 + SIGINT, the shell convention; 143 for
+// SIGTERM).
 func exitOnSignal(sig <-chan os.Signal) {
-	s := <-sig
-	runInterruptHook()
-	report.AbortWrites()
-	fmt.Fprintln(os.Stderr, "sitecover: interrupted: output folders left as they were (or complete, if already written)")
-	if s == syscall.SIGTERM {
-		os.Exit(143)
+	for s := range sig {
+		if runInterruptHook() {
+			continue
+		}
+		report.AbortWrites()
+		fmt.Fprintln(os.Stderr, "sitecover: interrupted: output folders left as they were (or complete, if already written)")
+		if s == syscall.SIGTERM {
+			os.Exit(143)
+		}
+		os.Exit(130)
 	}
-	os.Exit(130)
 }

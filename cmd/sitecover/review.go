@@ -1,8 +1,10 @@
 // The review command: load the inputs like analyze, start the local review
 // page of package report/review (net/http, loopback only unless
-// --allow-remote), print its URL and serve until Ctrl-C. On Ctrl-C the
-// signal handler of main.go stops the server first (interruptHook), then
-// exits as for every other command.
+// --allow-remote), print its URL and serve until Ctrl-C. The first Ctrl-C
+// (or SIGTERM) is taken by the interrupt hook: the signal handler of
+// main.go shuts the server down (open requests get reviewShutdownWait to
+// finish) and the command returns, exit 0. A second Ctrl-C during the
+// shutdown exits at once, 130, as for every other command.
 
 package main
 
@@ -157,16 +159,21 @@ func runReview(e *env, f *runFlags, rf *reviewFlags, in siteinput.Inputs, r floa
 	}
 	fmt.Fprintf(e.stdout, "Review page for %s (%d devices, range %s m): http://%s/\nPress Ctrl-C to stop.\n",
 		cfg.Meta.Title, len(cfg.Sites), fmtNum(r, 2), urlHost(ln.Addr()))
-	stop := func() {
-		ctx, cancel := context.WithTimeout(context.Background(), reviewShutdownWait)
-		defer cancel()
-		hs.Shutdown(ctx)
-	}
-	setInterruptHook(stop)
+	stopped := make(chan struct{})
+	setInterruptHook(func() {
+		go func() {
+			ctx, cancel := context.WithTimeout(context.Background(), reviewShutdownWait)
+			defer cancel()
+			hs.Shutdown(ctx)
+			close(stopped)
+		}()
+	})
 	defer setInterruptHook(nil)
 	if err := hs.Serve(ln); err != nil && !errors.Is(err, http.ErrServerClosed) {
 		return inputErrorf("review server: %v", err)
 	}
+	<-stopped
+	fmt.Fprintln(e.stderr, "sitecover: review stopped")
 	return nil
 }
 
@@ -194,8 +201,8 @@ func urlHost(a net.Addr) string {
 	return net.JoinHostPort(ip.String(), fmt.Sprint(ta.Port))
 }
 
-// interruptHook, when set, runs first when Ctrl-C or SIGTERM arrives; the
-// review command stops its server there.
+// interruptHook, when set, takes the next Ctrl-C or SIGTERM instead of the
+// default exit; the review command stops its server there.
 var interruptHook struct {
 	sync.Mutex
 	fn func()
@@ -208,12 +215,15 @@ func setInterruptHook(fn func()) {
 	interruptHook.Unlock()
 }
 
-// runInterruptHook runs the interrupt hook, if any.
-func runInterruptHook() {
+// runInterruptHook runs the interrupt hook once and clears it; it reports
+// whether there was one. The hook must not block.
+func runInterruptHook() bool {
 	interruptHook.Lock()
 	fn := interruptHook.fn
+	interruptHook.fn = nil
 	interruptHook.Unlock()
 	if fn != nil {
 		fn()
 	}
+	return fn != nil
 }
