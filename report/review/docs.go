@@ -40,6 +40,7 @@ type sceneDoc struct {
 	Area       [][][][2]float64 `json:"area"`  // polygons, rings (first outer, then exclusions)
 	Context    [][][][2]float64 `json:"context"`
 	ContextPts [][2]float64     `json:"contextPoints"`
+	CurveTopM  float64          `json:"curveTopM"`
 	CanReport  bool             `json:"canReport"`
 	OutDir     string           `json:"outDir,omitempty"`
 	Limits     limitsDoc        `json:"limits"`
@@ -63,6 +64,7 @@ func (sv *Server) sceneDoc() sceneDoc {
 		Bound:      [4]float64{c.bound.Min[0], c.bound.Min[1], c.bound.Max[0], c.bound.Max[1]},
 		Area:       multiPolygonDoc(c.Region.MultiPolygon()),
 		ContextPts: [][2]float64{},
+		CurveTopM:  c.grid[len(c.grid)-1],
 		CanReport:  c.OutDir != "",
 		OutDir:     c.OutDir,
 		Limits:     limitsDoc{MaxRange: c.maxRange, MaxAddPerEdit: MaxAddPerEdit},
@@ -147,7 +149,7 @@ type figuresDoc struct {
 	Pieces           int          `json:"pieces"`
 	OpenHoles        int          `json:"openHoles"`
 	Holes            []holeDoc    `json:"holes"`
-	Curve            [][2]float64 `json:"curve"` // (range m, covered fraction)
+	Curve            [][2]float64 `json:"curve"` // (range m, covered fraction), see curve.go
 }
 
 // gapDoc is one gap.
@@ -210,9 +212,13 @@ func (sv *Server) stateDoc(took time.Duration, withDevices bool) stateDoc {
 	}
 	f.Pieces, f.OpenHoles = g.pers.Betti(s.r)
 	f.Holes = holesDoc(g, s.r)
-	f.Curve = make([][2]float64, len(g.curve))
-	for i, c := range g.curve {
-		f.Curve[i] = [2]float64{c.Range, c.Fraction}
+	f.Curve = make([][2]float64, 0, len(g.share)+1)
+	grid := sv.cfg.grid
+	for k, sh := range g.share {
+		if k > 0 && grid[k-1] < g.full.Range && g.full.Range < grid[k] {
+			f.Curve = append(f.Curve, [2]float64{g.full.Range, 1})
+		}
+		f.Curve = append(f.Curve, [2]float64{grid[k], sh})
 	}
 	return d
 }

@@ -79,6 +79,8 @@ type Config struct {
 	bound    orb.Bound
 	reach    float64
 	maxRange float64
+	// grid is the curve's sample ranges, fixed by the first layout.
+	grid []float64
 }
 
 // Server serves one review session.

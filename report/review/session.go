@@ -12,11 +12,15 @@
 //   - A device edit (move, add, remove, switch off or on, undo) rebuilds
 //     the layout of the devices in service from scratch (planar.Triangulate
 //     and planar.ClipCells, O(n log n)), then the full-cover range, the
-//     curve samples, the persistence and the gaps. This is NOT incremental:
-//     for 10 000 devices the rebuild costs a few tens of milliseconds,
-//     inside the 100 ms budget (BenchmarkReviewUpdate10k), so a local
-//     re-clip of the cells around the edited device (the star of a removed
-//     vertex, Devillers, IJCGA 2002) is not worth its complexity here.
+//     persistence and the gaps (O(n) each). These are NOT incremental: for
+//     10 000 devices they cost some 40 ms of CPU together, inside the
+//     100 ms budget (BenchmarkReviewUpdate10k), so a local re-clip of the
+//     cells around the edited device (the star of a removed vertex,
+//     Devillers, IJCGA 2002) is not worth its complexity here.
+//   - The coverage curve IS incremental (curve.go): each cell's terms are
+//     cached and only the cells whose rings changed are evaluated again.
+//     Evaluating every cell at every sample range was the largest single
+//     cost of a device edit.
 //   - The per-device figures (served area, the loss if the device fails)
 //     come from Layout.ServiceAreas and coverage.Failures, which are local
 //     per device (each visits the device's cell and its Delaunay
@@ -48,8 +52,8 @@ const (
 	// MaxUndo is the depth of the undo stack; older states are dropped.
 	MaxUndo = 200
 	// curveSamples is the number of evenly spaced ranges of the coverage
-	// curve drawn beside the range slider (plus its breakpoints).
-	curveSamples = 32
+	// curve drawn beside the range slider (plus the full-cover range).
+	curveSamples = 49
 	// maxHoles is the number of holes (longest-lived first) sent to the
 	// page.
 	maxHoles = 50
@@ -83,8 +87,13 @@ type geometry struct {
 	// active maps a layout input index to its device index.
 	active []int32
 	full   coverage.FullCover
-	curve  []coverage.RangeAt
-	pers   *coverage.Persistence
+	// cells caches each cell's curve terms; share is the covered share at
+	// the curve's sample ranges (curve.go); fresh counts the cells
+	// evaluated for this layout.
+	cells curveCells
+	share []float64
+	fresh int
+	pers  *coverage.Persistence
 	// Per-device figures, computed on first request (see deviceInfo).
 	services []coverage.ServiceArea
 	failures *coverage.FailureReport
@@ -134,7 +143,7 @@ func newSession(sites []orb.Point, names []string, r float64, cfg *Config) (*ses
 		}
 	}
 	s := &session{}
-	geo, at, err := compute(devs, r, cfg)
+	geo, at, err := compute(devs, r, cfg, nil)
 	if err != nil {
 		return nil, err
 	}
@@ -142,8 +151,10 @@ func newSession(sites []orb.Point, names []string, r float64, cfg *Config) (*ses
 	return s, nil
 }
 
-// buildGeometry lays out the devices in service.
-func buildGeometry(devs []device, cfg *Config) (*geometry, error) {
+// buildGeometry lays out the devices in service, reusing the curve terms
+// of the cells prev (nil: none) has too. The first call, from New, also
+// fixes the curve's sample ranges.
+func buildGeometry(devs []device, cfg *Config, prev *geometry) (*geometry, error) {
 	g := &geometry{}
 	pts := make([]orb.Point, 0, len(devs))
 	for i, d := range devs {
@@ -161,7 +172,14 @@ func buildGeometry(devs []device, cfg *Config) (*geometry, error) {
 	}
 	g.layout = l
 	g.full = l.FullCover()
-	g.curve = l.Curve().Samples(curveSamples)
+	if cfg.grid == nil {
+		cfg.grid = curveGrid(curveTop(g.full.Range, cfg.Range, cfg.maxRange))
+	}
+	var prevCells curveCells
+	if prev != nil {
+		prevCells = prev.cells
+	}
+	g.cells, g.share, g.fresh = curveFor(l, cfg.grid, prevCells)
 	g.pers = coverage.ComputePersistence(l.Tri, coverage.NewFiltration(l.Tri))
 	return g, nil
 }
@@ -235,7 +253,7 @@ func (s *session) apply(e *Edit, cfg *Config) error {
 	if err != nil {
 		return err
 	}
-	geo, at, err := compute(devs, s.r, cfg)
+	geo, at, err := compute(devs, s.r, cfg, s.geo)
 	if err != nil {
 		return err
 	}
@@ -324,9 +342,10 @@ func (s *session) added(e *Edit, cfg *Config) ([]device, error) {
 	return devs, nil
 }
 
-// compute lays out devs and computes the figures at range r.
-func compute(devs []device, r float64, cfg *Config) (*geometry, atRange, error) {
-	geo, err := buildGeometry(devs, cfg)
+// compute lays out devs and computes the figures at range r, reusing what
+// it can of prev (nil: nothing).
+func compute(devs []device, r float64, cfg *Config, prev *geometry) (*geometry, atRange, error) {
+	geo, err := buildGeometry(devs, cfg, prev)
 	if err != nil {
 		return nil, atRange{}, err
 	}
@@ -349,7 +368,7 @@ func (s *session) undoLast(cfg *Config) error {
 		return refuse(409, "nothing to undo")
 	}
 	last := s.undo[len(s.undo)-1]
-	geo, at, err := compute(last.devs, last.r, cfg)
+	geo, at, err := compute(last.devs, last.r, cfg, s.geo)
 	if err != nil {
 		return err
 	}

@@ -539,10 +539,8 @@
     }
     if (!sc.canReport) { $("write-report").disabled = true; $("report-out").textContent = "Start with --out to write the full report."; }
     else $("report-out").textContent = "into " + sc.outDir;
-    const f = st.figures;
-    const top = Math.min(sc.limits.maxRange, Math.max(1.3 * f.fullCoverRangeM, 1.5 * f.rangeM, 10));
     const r = $("range");
-    r.max = (Math.ceil(top / 10) * 10).toString();
+    r.max = sc.curveTopM.toString();
     r.min = "0.5";
     fit();
     setState(st);
