@@ -6,6 +6,7 @@
 
 (function () {
   const NS = "http://www.w3.org/2000/svg";
+  const MAX_MARKED = 40; // gaps numbered on the plan (by closing range)
   const $ = (id) => document.getElementById(id);
   const svg = $("map");
 
@@ -163,6 +164,9 @@
       p.addEventListener("pointerenter", (ev) => hoverGap(gp, ev));
       p.addEventListener("pointermove", (ev) => moveTip(ev));
       p.addEventListener("pointerleave", hideTip);
+      // Number and mark only the deepest gaps when there are many, unless
+      // one is selected.
+      if (gp.id > MAX_MARKED && !isSel("gap", gp.id)) continue;
       const x = sx(gp.deepest[0]), y = sy(gp.deepest[1]), s = 4;
       el("path", { d: `M${x - s} ${y - s}L${x + s} ${y + s}M${x - s} ${y + s}L${x + s} ${y - s}`, class: "deep" }, m);
       const t = el("text", { x: x + 6, y: y - 5, class: "gapnum" }, m);
@@ -178,8 +182,8 @@
     const g = clear("l-devices");
     const lab = clear("l-labels");
     const labels = $("show-labels").checked;
-    const n = state.devices.length;
-    const rad = n > 2000 ? 3 : 6;
+    // dots shrink when the disks are small on screen (dense plans)
+    const rad = Math.min(6, Math.max(1.5, 0.2 * state.figures.rangeM * view.k));
     state.devices.forEach((d, i) => {
       const x = sx(d.x), y = sy(d.y);
       const c = el("circle", { cx: x, cy: y, r: rad, class: "dev" + (d.on ? "" : " off") + (isSel("device", i) ? " sel" : ""), "data-i": i }, g);
