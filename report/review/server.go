@@ -245,12 +245,7 @@ func (sv *Server) edit(w http.ResponseWriter, r *http.Request) {
 	}
 	sv.mu.Unlock()
 	if err != nil {
-		var ee *editError
-		if errors.As(err, &ee) {
-			writeError(w, ee.status, "%s", ee.msg)
-		} else {
-			writeError(w, http.StatusInternalServerError, "%v", err)
-		}
+		writeFailure(w, err)
 		return
 	}
 	writeRaw(w, http.StatusOK, "application/json", b)
@@ -261,21 +256,30 @@ func (sv *Server) edit(w http.ResponseWriter, r *http.Request) {
 func decodeBody(r *http.Request, v any) (int, error) {
 	dec := json.NewDecoder(r.Body)
 	dec.DisallowUnknownFields()
-	if err := dec.Decode(v); err != nil {
-		var mb *http.MaxBytesError
-		if errors.As(err, &mb) {
-			return http.StatusRequestEntityTooLarge, fmt.Errorf("request body over %d bytes", MaxBody)
+	err := dec.Decode(v)
+	if err == nil {
+		if _, err = dec.Token(); err == io.EOF {
+			return 0, nil
+		} else if err == nil {
+			err = errors.New("more than one value in the body")
 		}
-		return http.StatusBadRequest, fmt.Errorf("bad JSON: %v", err)
 	}
-	if _, err := dec.Token(); err != io.EOF {
-		var mb *http.MaxBytesError
-		if errors.As(err, &mb) {
-			return http.StatusRequestEntityTooLarge, fmt.Errorf("request body over %d bytes", MaxBody)
-		}
-		return http.StatusBadRequest, errors.New("bad JSON: more than one value in the body")
+	var mb *http.MaxBytesError
+	if errors.As(err, &mb) {
+		return http.StatusRequestEntityTooLarge, fmt.Errorf("request body over %d bytes", MaxBody)
 	}
-	return 0, nil
+	return http.StatusBadRequest, fmt.Errorf("bad JSON: %v", err)
+}
+
+// writeFailure answers a refused edit (*editError) with its status, any
+// other error with 500.
+func writeFailure(w http.ResponseWriter, err error) {
+	var ee *editError
+	if errors.As(err, &ee) {
+		writeError(w, ee.status, "%s", ee.msg)
+		return
+	}
+	writeError(w, http.StatusInternalServerError, "%v", err)
 }
 
 // device answers one device's figures.
@@ -289,12 +293,7 @@ func (sv *Server) device(w http.ResponseWriter, r *http.Request) {
 	doc, err := sv.deviceDoc(i)
 	sv.mu.Unlock()
 	if err != nil {
-		var ee *editError
-		if errors.As(err, &ee) {
-			writeError(w, ee.status, "%s", ee.msg)
-		} else {
-			writeError(w, http.StatusInternalServerError, "%v", err)
-		}
+		writeFailure(w, err)
 		return
 	}
 	writeJSON(w, http.StatusOK, doc)
