@@ -132,19 +132,7 @@ func TestBrowserReview(t *testing.T) {
 	ts := httptest.NewServer(sv.Handler())
 	defer ts.Close()
 
-	opts := append(chromedp.DefaultExecAllocatorOptions[:],
-		chromedp.ExecPath(path), chromedp.WindowSize(1600, 1000), chromedp.NoSandbox, chromedp.DisableGPU)
-	actx, cancelA := chromedp.NewExecAllocator(context.Background(), opts...)
-	defer cancelA()
-	ctx, cancelB := chromedp.NewContext(actx)
-	defer cancelB()
-	ctx, cancel := context.WithTimeout(ctx, browserTimeout)
-	defer cancel()
-
-	shots := t.TempDir()
-	if os.Getenv("SITECOVER_README_IMAGES") == "1" {
-		shots = filepath.Join("..", "..", "docs", "images")
-	}
+	ctx := startBrowser(t, path)
 	check := func(step string) {
 		t.Helper()
 		if err := waitIdle(ctx, sv); err != nil {
@@ -241,39 +229,61 @@ func TestBrowserReview(t *testing.T) {
 		}
 	})
 
-	t.Run("screenshots", func(t *testing.T) {
-		err := chromedp.Do(ctx,
-			chromedp.Click(chromedp.CSS(`#tools [data-tool="drag"]`)),
-			js(`document.getElementById("show-labels").click()`),
-			// Select the deepest gap so the detail panel shows its figures.
-			js(`document.querySelector("#gaps tbody tr").click()`))
+	t.Run("screenshots", func(t *testing.T) { screenshots(t, ctx) })
+}
+
+// startBrowser starts headless Chromium at 1600×1000; the browser ends
+// with the test.
+func startBrowser(t *testing.T, path string) context.Context {
+	opts := append(chromedp.DefaultExecAllocatorOptions[:],
+		chromedp.ExecPath(path), chromedp.WindowSize(1600, 1000), chromedp.NoSandbox, chromedp.DisableGPU)
+	actx, cancelA := chromedp.NewExecAllocator(context.Background(), opts...)
+	t.Cleanup(cancelA)
+	ctx, cancelB := chromedp.NewContext(actx)
+	t.Cleanup(cancelB)
+	ctx, cancel := context.WithTimeout(ctx, browserTimeout)
+	t.Cleanup(cancel)
+	return ctx
+}
+
+// screenshots selects the deepest gap, turns the labels on and saves the
+// page at 1600×1000 and 1024×768 (see the file comment for where).
+func screenshots(t *testing.T, ctx context.Context) {
+	shots := t.TempDir()
+	if os.Getenv("SITECOVER_README_IMAGES") == "1" {
+		shots = filepath.Join("..", "..", "docs", "images")
+	}
+	err := chromedp.Do(ctx,
+		chromedp.Click(chromedp.CSS(`#tools [data-tool="drag"]`)),
+		js(`document.getElementById("show-labels").click()`),
+		// Select the deepest gap so the detail panel shows its figures.
+		js(`document.querySelector("#gaps tbody tr").click()`))
+	if err != nil {
+		t.Fatal(err)
+	}
+	status, err := chromedp.Run(ctx, chromedp.Text(chromedp.CSS(`#status`)))
+	if err != nil {
+		t.Fatal(err)
+	}
+	t.Logf("page status after the edits: %s", status)
+	for _, s := range []struct {
+		name string
+		w, h int64
+	}{{"review.png", 1600, 1000}, {"review-1024.png", 1024, 768}} {
+		err := chromedp.Do(ctx, chromedp.EmulateViewport(s.w, s.h), chromedp.Sleep(100*time.Millisecond),
+			js(`document.getElementById("fit").click()`), chromedp.Sleep(200*time.Millisecond))
 		if err != nil {
 			t.Fatal(err)
 		}
-		status, err := chromedp.Run(ctx, chromedp.Text(chromedp.CSS(`#status`)))
+		png, err := chromedp.Run(ctx, chromedp.CaptureScreenshot())
 		if err != nil {
 			t.Fatal(err)
 		}
-		t.Logf("page status after the edits: %s", status)
-		for _, s := range []struct {
-			name string
-			w, h int64
-		}{{"review.png", 1600, 1000}, {"review-1024.png", 1024, 768}} {
-			err := chromedp.Do(ctx, chromedp.EmulateViewport(s.w, s.h), chromedp.Sleep(100*time.Millisecond),
-				js(`document.getElementById("fit").click()`), chromedp.Sleep(200*time.Millisecond))
-			if err != nil {
-				t.Fatal(err)
-			}
-			png, err := chromedp.Run(ctx, chromedp.CaptureScreenshot())
-			if err != nil {
-				t.Fatal(err)
-			}
-			if len(png) < 10000 {
-				t.Fatalf("%s: screenshot of %d bytes", s.name, len(png))
-			}
-			if err := os.WriteFile(filepath.Join(shots, s.name), png, 0o644); err != nil {
-				t.Fatal(err)
-			}
+		if len(png) < 10000 {
+			t.Fatalf("%s: screenshot of %d bytes", s.name, len(png))
 		}
-	})
+		if err := os.WriteFile(filepath.Join(shots, s.name), png, 0o644); err != nil {
+			t.Fatal(err)
+		}
+	}
 }
