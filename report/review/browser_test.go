@@ -115,7 +115,9 @@ func js(script string) chromedp.Action[chromedp.Void] {
 	})
 }
 
-func TestBrowserReview(t *testing.T) {
+// chromiumOrSkip returns Chromium's path; without it the test is skipped,
+// or fails with SITECOVER_LIVE=1.
+func chromiumOrSkip(t *testing.T) string {
 	path := findChromium()
 	if path == "" {
 		if os.Getenv("SITECOVER_LIVE") == "1" {
@@ -123,6 +125,11 @@ func TestBrowserReview(t *testing.T) {
 		}
 		t.Skip("no Chromium found (install the Debian package chromium); SITECOVER_LIVE=1 makes this a failure")
 	}
+	return path
+}
+
+func TestBrowserReview(t *testing.T) {
+	path := chromiumOrSkip(t)
 	cfg := demoConfig(t)
 	cfg.OutDir = filepath.Join(t.TempDir(), "report")
 	sv, err := New(cfg)
@@ -284,6 +291,52 @@ func screenshots(t *testing.T, ctx context.Context) {
 		}
 		if err := os.WriteFile(filepath.Join(shots, s.name), png, 0o644); err != nil {
 			t.Fatal(err)
+		}
+	}
+}
+
+// measureEdit is a script that sends one edit from the page and resolves
+// to the milliseconds until the page has drawn the answer.
+const measureEdit = `new Promise((resolve) => {
+  const t0 = performance.now();
+  window.review.edit(%s);
+  const wait = () => window.review.pending ? setTimeout(wait, 2) :
+    requestAnimationFrame(() => resolve(performance.now() - t0));
+  wait(); })`
+
+// browserUpdateLimit is a generous bound on one update seen in the
+// browser for 10 000 devices: it catches a regression (a quadratic draw)
+// without failing on a loaded machine; the times are logged. Headless
+// Chromium paints in software: most of an update's time is the paint.
+const browserUpdateLimit = 5 * time.Second
+
+// TestBrowserUpdate10k times edits in the browser on 10 000 devices: from
+// sending the edit to the page having drawn the new plan and figures.
+func TestBrowserUpdate10k(t *testing.T) {
+	path := chromiumOrSkip(t)
+	sv := newBenchServer(t, benchDevices)
+	ts := httptest.NewServer(sv.Handler())
+	defer ts.Close()
+	ctx := startBrowser(t, path)
+	if err := chromedp.Do(ctx, chromedp.Navigate(ts.URL), chromedp.WaitVisible(chromedp.CSS(`body[data-ready="1"]`))); err != nil {
+		t.Fatal(err)
+	}
+	edits := []struct{ name, edit string }{
+		{"range", `{op: "range", range: 60}`},
+		{"range back", `{op: "range", range: 55}`},
+		{"move", `{op: "move", device: 17, x: 2500, y: 2500}`},
+		{"switch off", `{op: "off", device: 99}`},
+		{"undo", `{op: "undo"}`},
+	}
+	for _, e := range edits {
+		ms, err := chromedp.Run(ctx, chromedp.Evaluate[float64](fmt.Sprintf(measureEdit, e.edit), chromedp.EvalAwaitPromise))
+		if err != nil {
+			t.Fatal(err)
+		}
+		parts, _ := chromedp.Run(ctx, chromedp.Evaluate[[3]float64](`[window.review.fetchMs, window.review.setStateMs, window.review.drawMs]`))
+		t.Logf("%-10s %6.0f ms from the edit to the page drawn (request %.0f ms, setState %.0f ms, draw %.0f ms)", e.name, ms, parts[0], parts[1], parts[2])
+		if time.Duration(ms*float64(time.Millisecond)) > browserUpdateLimit {
+			t.Errorf("%s: %.0f ms, over %v", e.name, ms, browserUpdateLimit)
 		}
 	}
 }

@@ -57,7 +57,10 @@
     const t0 = performance.now();
     postJSON("/api/edit", e).then((s) => {
       lastRoundTripMs = performance.now() - t0;
+      const t1 = performance.now();
       setState(s);
+      window.review.setStateMs = performance.now() - t1;
+      window.review.fetchMs = lastRoundTripMs;
     }).catch((err) => {
       toast(err.message);
       draw();
@@ -117,6 +120,7 @@
   // ---------- drawing ----------
   function draw() {
     if (!scene || !state) return;
+    const t0 = performance.now();
     drawArea();
     drawDisks();
     drawCells();
@@ -124,6 +128,7 @@
     drawDevices();
     drawOverlay();
     drawLegend();
+    window.review.drawMs = performance.now() - t0;
   }
 
   function drawArea() {
@@ -141,11 +146,20 @@
   function drawDisks() {
     const g = clear("l-disks");
     if (!$("show-disks").checked) return;
+    // One path for all disks (an element per disk is too slow for
+    // thousands); the dragged device's disk is drawn by drawDragged.
     const r = state.figures.rangeM * view.k;
+    const parts = [];
     state.devices.forEach((d, i) => {
-      if (!d.on) return;
-      el("circle", { cx: sx(d.x), cy: sy(d.y), r: r, class: "disk", "data-i": i }, g);
+      if (d.on && i !== dragging.device) parts.push(circlePath(sx(d.x), sy(d.y), r));
     });
+    el("path", { d: parts.join(""), class: "disk" }, g);
+  }
+
+  // circlePath is an SVG path of a circle (two arcs).
+  function circlePath(x, y, r) {
+    const rr = r.toFixed(1), d = (2 * r).toFixed(1);
+    return "M" + (x - r).toFixed(1) + " " + y.toFixed(1) + "a" + rr + " " + rr + " 0 1 0 " + d + " 0a" + rr + " " + rr + " 0 1 0 -" + d + " 0";
   }
 
   function drawCells() {
@@ -159,11 +173,10 @@
   function drawGaps() {
     const g = clear("l-gaps");
     const m = clear("l-marks");
+    // a hatch pattern per gap is slow to paint when there are hundreds
+    const dense = state.figures.gaps.length > MAX_MARKED ? " solid" : "";
     for (const gp of state.figures.gaps) {
-      const p = el("path", { d: polysPath(gp.outline), class: "gap" + (isSel("gap", gp.id) ? " sel" : ""), "fill-rule": "evenodd", "data-gap": gp.id }, g);
-      p.addEventListener("pointerenter", (ev) => hoverGap(gp, ev));
-      p.addEventListener("pointermove", (ev) => moveTip(ev));
-      p.addEventListener("pointerleave", hideTip);
+      const p = el("path", { d: polysPath(gp.outline), class: "gap" + dense + (isSel("gap", gp.id) ? " sel" : ""), "fill-rule": "evenodd", "data-gap": gp.id }, g);
       // Number and mark only the deepest gaps when there are many, unless
       // one is selected.
       if (gp.id > MAX_MARKED && !isSel("gap", gp.id)) continue;
@@ -182,18 +195,52 @@
     const g = clear("l-devices");
     const lab = clear("l-labels");
     const labels = $("show-labels").checked;
-    // dots shrink when the disks are small on screen (dense plans)
-    const rad = Math.min(6, Math.max(1.5, 0.2 * state.figures.rangeM * view.k));
+    // One path for the devices in service, one for those switched off
+    // and their crosses; pointer events find the device by distance
+    // (deviceAt). The selected and the dragged device are drawn on top.
+    const rad = devRadius();
+    const on = [], off = [], crosses = [];
     state.devices.forEach((d, i) => {
+      if (i === dragging.device) return;
       const x = sx(d.x), y = sy(d.y);
-      const c = el("circle", { cx: x, cy: y, r: rad, class: "dev" + (d.on ? "" : " off") + (isSel("device", i) ? " sel" : ""), "data-i": i }, g);
-      c.addEventListener("pointerdown", (ev) => devicePointerDown(ev, i));
-      c.addEventListener("pointerenter", (ev) => hoverDevice(i, ev));
-      c.addEventListener("pointermove", (ev) => moveTip(ev));
-      c.addEventListener("pointerleave", hideTip);
-      if (!d.on) el("path", { d: `M${x - 4} ${y - 4}L${x + 4} ${y + 4}M${x - 4} ${y + 4}L${x + 4} ${y - 4}`, class: "offx" }, g);
+      (d.on ? on : off).push(circlePath(x, y, rad));
+      if (!d.on) crosses.push(`M${(x - 4).toFixed(1)} ${(y - 4).toFixed(1)}l8 8m-8 0l8 -8`);
       if (labels && d.label) { const t = el("text", { x: x + 8, y: y + 4, class: "lab" }, lab); t.textContent = d.label; }
     });
+    el("path", { d: on.join(""), class: "dev" }, g);
+    el("path", { d: off.join(""), class: "dev off" }, g);
+    el("path", { d: crosses.join(""), class: "offx" }, g);
+    if (selected && selected.kind === "device" && state.devices[selected.id] && selected.id !== dragging.device) {
+      const d = state.devices[selected.id];
+      el("circle", { cx: sx(d.x), cy: sy(d.y), r: rad, class: "dev sel" + (d.on ? "" : " off") }, g);
+    }
+    drawDragged();
+  }
+
+  // devRadius is the dot radius: dots shrink when the disks are small on
+  // screen (dense plans).
+  function devRadius() { return Math.min(6, Math.max(1.5, 0.2 * state.figures.rangeM * view.k)); }
+
+  // drawDragged draws the device being dragged, with its disk, at the
+  // pointer.
+  function drawDragged() {
+    const g = clear("l-drag");
+    if (dragging.device === null || !dragging.pos) return;
+    const x = sx(dragging.pos[0]), y = sy(dragging.pos[1]);
+    if ($("show-disks").checked) el("circle", { cx: x, cy: y, r: state.figures.rangeM * view.k, class: "disk" }, g);
+    el("circle", { cx: x, cy: y, r: devRadius(), class: "dev sel" }, g);
+  }
+
+  // deviceAt returns the device nearest the screen point (px, py) within
+  // reach of a pointer, or -1.
+  function deviceAt(px, py) {
+    const reach = Math.max(devRadius() + 3, 7);
+    let best = -1, bd = reach * reach;
+    state.devices.forEach((d, i) => {
+      const dx = sx(d.x) - px, dy = sy(d.y) - py, e = dx * dx + dy * dy;
+      if (e <= bd) { bd = e; best = i; }
+    });
+    return best;
   }
 
   function niceLength(maxM) {
@@ -389,6 +436,15 @@
     tip.textContent = "Gap " + gp.id + ": " + fmtArea(gp.areaM2) + ", closes at " + fmtM(gp.closingRangeM);
     tip.hidden = false; moveTip(ev);
   }
+  // hover shows the tooltip of the device or gap under the pointer.
+  function hover(ev) {
+    const b = svg.getBoundingClientRect();
+    const i = deviceAt(ev.clientX - b.left, ev.clientY - b.top);
+    if (i >= 0) { hoverDevice(i, ev); return; }
+    const gid = ev.target.getAttribute && ev.target.getAttribute("data-gap");
+    const gp = gid && state.figures.gaps.find((g) => g.id === +gid);
+    if (gp) hoverGap(gp, ev); else hideTip();
+  }
   function hoverDevice(i, ev) {
     if (dragging.device !== null) return;
     const d = state.devices[i];
@@ -416,6 +472,9 @@
   }
 
   svg.addEventListener("pointerdown", (ev) => {
+    const b = svg.getBoundingClientRect();
+    const hit = deviceAt(ev.clientX - b.left, ev.clientY - b.top);
+    if (hit >= 0 && tool !== "add") { devicePointerDown(ev, hit); return; }
     if (tool === "add") {
       const [x, y] = localXY(ev);
       edit({ op: "add", points: [{ x: x, y: y }] });
@@ -432,14 +491,16 @@
     if (dragging.device !== null) {
       const i = dragging.device;
       if (!dragging.moved && Math.hypot(ev.clientX - dragging.start[0], ev.clientY - dragging.start[1]) < 3) return;
+      const first = !dragging.moved;
       dragging.moved = true;
       const [x, y] = localXY(ev);
-      state.devices[i].x = x; state.devices[i].y = y;
       dragging.pos = [x, y];
       // move the device and its disk at once; the figures follow the server
-      for (const c of svg.querySelectorAll('[data-i="' + i + '"]')) { c.setAttribute("cx", sx(x)); c.setAttribute("cy", sy(y)); }
+      if (first) { drawDisks(); drawDevices(); } else drawDragged();
       edit({ op: "move", device: i, x: x, y: y, gesture: dragging.gesture });
-    } else if (dragging.pan) {
+    } else if (!dragging.pan) {
+      hover(ev);
+    } else {
       const [x0, y0, cx, cy] = dragging.pan;
       if (Math.hypot(ev.clientX - x0, ev.clientY - y0) > 2) dragging.moved = true;
       view.cx = cx - (ev.clientX - x0) / view.k;
@@ -447,6 +508,7 @@
       draw();
     }
   });
+  svg.addEventListener("pointerleave", hideTip);
   svg.addEventListener("pointerup", (ev) => {
     if (dragging.device !== null) {
       const i = dragging.device;
@@ -524,6 +586,7 @@
     },
     screenOfPoint(x, y) { const b = svg.getBoundingClientRect(); return [b.left + sx(x), b.top + sy(y)]; },
     setTool: setTool,
+    edit: edit,
   };
 
   // ---------- start ----------
