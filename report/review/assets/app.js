@@ -143,23 +143,62 @@
     for (const p of scene.contextPoints) el("circle", { cx: sx(p[0]), cy: sy(p[1]), r: 2.5, class: "ctxpt" }, c);
   }
 
-  function drawDisks() {
-    const g = clear("l-disks");
-    if (!$("show-disks").checked) return;
-    // One path for all disks (an element per disk is too slow for
-    // thousands); the dragged device's disk is drawn by drawDragged.
-    const r = state.figures.rangeM * view.k;
-    const parts = [];
-    state.devices.forEach((d, i) => {
-      if (d.on && i !== dragging.device) parts.push(circlePath(sx(d.x), sy(d.y), r));
+  // The disks and the devices are painted on a canvas between the area
+  // (SVG below) and the gaps (SVG above): an SVG element, or even one SVG
+  // path, per device is far too slow to paint for thousands of devices.
+  // A device is never inside a gap (its own spot is covered), so the gaps
+  // may lie above the devices. Pointer events find devices by distance
+  // (deviceAt).
+  const cv = $("cv");
+  const disksCv = document.createElement("canvas");
+  function drawDisks() { drawCanvas(); }
+  function drawCanvas() {
+    const dpr = window.devicePixelRatio || 1;
+    const W = Math.round(view.w * dpr), H = Math.round(view.h * dpr);
+    for (const c of [cv, disksCv]) if (c.width !== W || c.height !== H) { c.width = W; c.height = H; }
+    const ctx = cv.getContext("2d");
+    ctx.setTransform(1, 0, 0, 1, 0, 0);
+    ctx.clearRect(0, 0, W, H);
+    ctx.setTransform(dpr, 0, 0, dpr, 0, 0);
+    const devs = state.devices;
+    if ($("show-disks").checked) {
+      // the union of the disks, tinted once: painted opaque apart, then
+      // laid on with the tint's opacity
+      const r = state.figures.rangeM * view.k;
+      const dc = disksCv.getContext("2d");
+      dc.setTransform(1, 0, 0, 1, 0, 0);
+      dc.clearRect(0, 0, W, H);
+      dc.setTransform(dpr, 0, 0, dpr, 0, 0);
+      const disks = new Path2D();
+      devs.forEach((d, i) => {
+        if (!d.on || i === dragging.device) return;
+        const x = sx(d.x), y = sy(d.y);
+        disks.moveTo(x + r, y);
+        disks.arc(x, y, r, 0, 2 * Math.PI);
+      });
+      dc.fillStyle = "#56B4E9";
+      dc.fill(disks);
+      ctx.globalAlpha = 0.16;
+      ctx.drawImage(disksCv, 0, 0, view.w, view.h);
+      ctx.globalAlpha = 1;
+      ctx.strokeStyle = "rgba(0,114,178,0.45)";
+      ctx.lineWidth = 1;
+      ctx.stroke(disks);
+    }
+    const rad = devRadius();
+    const on = new Path2D(), off = new Path2D(), crosses = new Path2D();
+    devs.forEach((d, i) => {
+      if (i === dragging.device) return;
+      const x = sx(d.x), y = sy(d.y), p = d.on ? on : off;
+      p.moveTo(x + rad, y);
+      p.arc(x, y, rad, 0, 2 * Math.PI);
+      if (!d.on) { crosses.moveTo(x - 4, y - 4); crosses.lineTo(x + 4, y + 4); crosses.moveTo(x - 4, y + 4); crosses.lineTo(x + 4, y - 4); }
     });
-    el("path", { d: parts.join(""), class: "disk" }, g);
-  }
-
-  // circlePath is an SVG path of a circle (two arcs).
-  function circlePath(x, y, r) {
-    const rr = r.toFixed(1), d = (2 * r).toFixed(1);
-    return "M" + (x - r).toFixed(1) + " " + y.toFixed(1) + "a" + rr + " " + rr + " 0 1 0 " + d + " 0a" + rr + " " + rr + " 0 1 0 -" + d + " 0";
+    ctx.lineWidth = 1.5;
+    ctx.fillStyle = "#0072B2"; ctx.strokeStyle = "#ffffff";
+    ctx.fill(on); ctx.stroke(on);
+    ctx.fillStyle = "#ffffff"; ctx.strokeStyle = "#444444";
+    ctx.fill(off); ctx.stroke(off); ctx.stroke(crosses);
   }
 
   function drawCells() {
@@ -195,21 +234,16 @@
     const g = clear("l-devices");
     const lab = clear("l-labels");
     const labels = $("show-labels").checked;
-    // One path for the devices in service, one for those switched off
-    // and their crosses; pointer events find the device by distance
-    // (deviceAt). The selected and the dragged device are drawn on top.
+    // the devices themselves are on the canvas (drawCanvas); here only
+    // their labels, the selected one and the dragged one
     const rad = devRadius();
-    const on = [], off = [], crosses = [];
-    state.devices.forEach((d, i) => {
-      if (i === dragging.device) return;
-      const x = sx(d.x), y = sy(d.y);
-      (d.on ? on : off).push(circlePath(x, y, rad));
-      if (!d.on) crosses.push(`M${(x - 4).toFixed(1)} ${(y - 4).toFixed(1)}l8 8m-8 0l8 -8`);
-      if (labels && d.label) { const t = el("text", { x: x + 8, y: y + 4, class: "lab" }, lab); t.textContent = d.label; }
-    });
-    el("path", { d: on.join(""), class: "dev" }, g);
-    el("path", { d: off.join(""), class: "dev off" }, g);
-    el("path", { d: crosses.join(""), class: "offx" }, g);
+    if (labels) {
+      state.devices.forEach((d, i) => {
+        if (i === dragging.device || !d.label) return;
+        const t = el("text", { x: sx(d.x) + 8, y: sy(d.y) + 4, class: "lab" }, lab);
+        t.textContent = d.label;
+      });
+    }
     if (selected && selected.kind === "device" && state.devices[selected.id] && selected.id !== dragging.device) {
       const d = state.devices[selected.id];
       el("circle", { cx: sx(d.x), cy: sy(d.y), r: rad, class: "dev sel" + (d.on ? "" : " off") }, g);
@@ -496,7 +530,7 @@
       const [x, y] = localXY(ev);
       dragging.pos = [x, y];
       // move the device and its disk at once; the figures follow the server
-      if (first) { drawDisks(); drawDevices(); } else drawDragged();
+      if (first) { drawCanvas(); drawDevices(); } else drawDragged();
       edit({ op: "move", device: i, x: x, y: y, gesture: dragging.gesture });
     } else if (!dragging.pan) {
       hover(ev);
