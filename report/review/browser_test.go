@@ -277,8 +277,10 @@ func screenshots(t *testing.T, ctx context.Context) {
 		name string
 		w, h int64
 	}{{"review.png", 1600, 1000}, {"review-1024.png", 1024, 768}} {
+		// The small screenshot shows the service areas instead of the labels.
+		toggle := js(`if (innerWidth < 1200) { document.getElementById("show-labels").click(); document.getElementById("show-cells").click(); }`)
 		err := chromedp.Do(ctx, chromedp.EmulateViewport(s.w, s.h), chromedp.Sleep(100*time.Millisecond),
-			js(`document.getElementById("fit").click()`), chromedp.Sleep(200*time.Millisecond))
+			toggle, js(`document.getElementById("fit").click()`), chromedp.Sleep(300*time.Millisecond))
 		if err != nil {
 			t.Fatal(err)
 		}
