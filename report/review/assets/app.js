@@ -122,7 +122,7 @@
     if (!scene || !state) return;
     const t0 = performance.now();
     drawArea();
-    drawDisks();
+    drawCanvas();
     drawCells();
     drawGaps();
     drawDevices();
@@ -151,7 +151,6 @@
   // (deviceAt).
   const cv = $("cv");
   const disksCv = document.createElement("canvas");
-  function drawDisks() { drawCanvas(); }
   function drawCanvas() {
     const dpr = window.devicePixelRatio || 1;
     const W = Math.round(view.w * dpr), H = Math.round(view.h * dpr);
@@ -161,6 +160,9 @@
     ctx.clearRect(0, 0, W, H);
     ctx.setTransform(dpr, 0, 0, dpr, 0, 0);
     const devs = state.devices;
+    // on dense plans the disk rims and device outlines are left out: they
+    // merge into a blur anyway and cost most of the painting
+    const dense = devs.length > DENSE;
     if ($("show-disks").checked) {
       // the union of the disks, tinted once: painted opaque apart, then
       // laid on with the tint's opacity
@@ -169,36 +171,52 @@
       dc.setTransform(1, 0, 0, 1, 0, 0);
       dc.clearRect(0, 0, W, H);
       dc.setTransform(dpr, 0, 0, dpr, 0, 0);
-      const disks = new Path2D();
-      devs.forEach((d, i) => {
-        if (!d.on || i === dragging.device) return;
-        const x = sx(d.x), y = sy(d.y);
-        disks.moveTo(x + r, y);
-        disks.arc(x, y, r, 0, 2 * Math.PI);
-      });
       dc.fillStyle = "#56B4E9";
-      dc.fill(disks);
+      const rims = circles(devs, r, (d) => d.on, (p) => dc.fill(p));
       ctx.globalAlpha = 0.16;
       ctx.drawImage(disksCv, 0, 0, view.w, view.h);
       ctx.globalAlpha = 1;
-      ctx.strokeStyle = "rgba(0,114,178,0.45)";
-      ctx.lineWidth = 1;
-      ctx.stroke(disks);
+      if (!dense) {
+        ctx.strokeStyle = "rgba(0,114,178,0.45)";
+        ctx.lineWidth = 1;
+        for (const p of rims) ctx.stroke(p);
+      }
     }
     const rad = devRadius();
-    const on = new Path2D(), off = new Path2D(), crosses = new Path2D();
-    devs.forEach((d, i) => {
-      if (i === dragging.device) return;
-      const x = sx(d.x), y = sy(d.y), p = d.on ? on : off;
-      p.moveTo(x + rad, y);
-      p.arc(x, y, rad, 0, 2 * Math.PI);
-      if (!d.on) { crosses.moveTo(x - 4, y - 4); crosses.lineTo(x + 4, y + 4); crosses.moveTo(x - 4, y + 4); crosses.lineTo(x + 4, y - 4); }
-    });
     ctx.lineWidth = 1.5;
     ctx.fillStyle = "#0072B2"; ctx.strokeStyle = "#ffffff";
-    ctx.fill(on); ctx.stroke(on);
+    circles(devs, rad, (d) => d.on, (p) => { ctx.fill(p); if (!dense) ctx.stroke(p); });
+    const crosses = new Path2D();
+    const off = circles(devs, rad, (d) => !d.on, () => {});
+    devs.forEach((d, i) => {
+      if (d.on || i === dragging.device) return;
+      const x = sx(d.x), y = sy(d.y);
+      crosses.moveTo(x - 4, y - 4); crosses.lineTo(x + 4, y + 4); crosses.moveTo(x - 4, y + 4); crosses.lineTo(x + 4, y - 4);
+    });
     ctx.fillStyle = "#ffffff"; ctx.strokeStyle = "#444444";
-    ctx.fill(off); ctx.stroke(off); ctx.stroke(crosses);
+    for (const p of off) { ctx.fill(p); ctx.stroke(p); }
+    ctx.stroke(crosses);
+  }
+
+  // circles builds the circles of radius r (px) around the devices that
+  // pass keep, in batches of CIRCLE_BATCH (one path of thousands of
+  // overlapping circles is slow to fill), calls paint on each batch and
+  // returns the batches. The dragged device is left out.
+  const CIRCLE_BATCH = 256;
+  const DENSE = 2000;
+  function circles(devs, r, keep, paint) {
+    const out = [];
+    let p = null, n = 0;
+    devs.forEach((d, i) => {
+      if (!keep(d) || i === dragging.device) return;
+      if (!p || n === CIRCLE_BATCH) { if (p) paint(p); p = new Path2D(); out.push(p); n = 0; }
+      const x = sx(d.x), y = sy(d.y);
+      p.moveTo(x + r, y);
+      p.arc(x, y, r, 0, 2 * Math.PI);
+      n++;
+    });
+    if (p) paint(p);
+    return out;
   }
 
   function drawCells() {
