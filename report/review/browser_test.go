@@ -128,7 +128,7 @@ func chromiumOrSkip(t *testing.T) string {
 	return path
 }
 
-func TestBrowserReview(t *testing.T) {
+func TestBrowserReviewLive(t *testing.T) {
 	path := chromiumOrSkip(t)
 	cfg := demoConfig(t)
 	cfg.OutDir = filepath.Join(t.TempDir(), "report")
@@ -312,9 +312,9 @@ const measureEdit = `new Promise((resolve) => {
 // Chromium paints in software: most of an update's time is the paint.
 const browserUpdateLimit = 5 * time.Second
 
-// TestBrowserUpdate10k times edits in the browser on 10 000 devices: from
+// TestBrowserUpdate10kLive times edits in the browser on 10 000 devices: from
 // sending the edit to the page having drawn the new plan and figures.
-func TestBrowserUpdate10k(t *testing.T) {
+func TestBrowserUpdate10kLive(t *testing.T) {
 	path := chromiumOrSkip(t)
 	sv := newBenchServer(t, benchDevices)
 	ts := httptest.NewServer(sv.Handler())
