@@ -17,6 +17,7 @@
 //	sitecover suggest --sites FILE [--area FILE] --candidates FILE --range 150m [--add K]
 //	sitecover failures --sites FILE [--area FILE] --range 150m
 //	sitecover assign  --sites FILE [--area FILE] --points FILE [--range 150m]
+//	sitecover review  --sites FILE [--area FILE] --range 150m [--listen 127.0.0.1:0] [--out DIR]
 //	sitecover completion bash|zsh|fish|powershell
 //	sitecover --version
 //
@@ -47,16 +48,23 @@ func main() {
 	os.Exit(run(os.Args[1:], os.Stdout, os.Stderr))
 }
 
-// exitOnSignal waits for Ctrl-C (SIGINT) or SIGTERM, removes the staging
-// folders of report writes in progress (the output folders keep their
-// previous set, see report.AbortWrites), says so in one line and exits
-// with 130 (128 + SIGINT, the shell convention; 143 for SIGTERM).
+// exitOnSignal waits for Ctrl-C (SIGINT) or SIGTERM. While the review
+// command serves its page, the first signal only stops its server
+// (runInterruptHook) and the command returns normally. Otherwise it
+// removes the staging folders of report writes in progress (the output
+// folders keep their previous set, see report.AbortWrites), says so in one
+// line and exits with 130 (128 + SIGINT, the shell convention; 143 for
+// SIGTERM).
 func exitOnSignal(sig <-chan os.Signal) {
-	s := <-sig
-	report.AbortWrites()
-	fmt.Fprintln(os.Stderr, "sitecover: interrupted: output folders left as they were (or complete, if already written)")
-	if s == syscall.SIGTERM {
-		os.Exit(143)
+	for s := range sig {
+		if runInterruptHook() {
+			continue
+		}
+		report.AbortWrites()
+		fmt.Fprintln(os.Stderr, "sitecover: interrupted: output folders left as they were (or complete, if already written)")
+		if s == syscall.SIGTERM {
+			os.Exit(143)
+		}
+		os.Exit(130)
 	}
-	os.Exit(130)
 }

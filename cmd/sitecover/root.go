@@ -139,7 +139,7 @@ func newRootCmd(e *env) *cobra.Command {
 	root.SetFlagErrorFunc(flagError)
 	root.CompletionOptions.HiddenDefaultCmd = false
 	root.AddCommand(newAnalyzeCmd(e), newCellsCmd(e), newGapsCmd(e), newDemoCmd(e),
-		newSuggestCmd(e), newFailuresCmd(e), newAssignCmd(e))
+		newSuggestCmd(e), newFailuresCmd(e), newAssignCmd(e), newReviewCmd(e))
 	for _, c := range root.Commands() {
 		c.SilenceErrors, c.SilenceUsage = true, true
 		c.SetFlagErrorFunc(flagError)
