@@ -18,6 +18,7 @@ import (
 
 	"github.com/paulmach/orb"
 	"github.com/sitecover/sitecover/coverage"
+	"github.com/sitecover/sitecover/report/siteinput"
 )
 
 // scene bundles what every output needs.
@@ -128,12 +129,7 @@ func (s *scene) name(i int) string {
 // i+1, its position in the input (the first site is #1). The 0-based
 // index itself appears only in summary.json and the GeoJSON layers
 // ("site"), next to the label.
-func DeviceLabel(names []string, i int) string {
-	if i >= 0 && i < len(names) && names[i] != "" {
-		return names[i]
-	}
-	return "#" + strconv.Itoa(i+1)
-}
+func DeviceLabel(names []string, i int) string { return siteinput.DeviceLabel(names, i) }
 
 // ItemLabel names an input item of another kind (a candidate spot, a
 // demand item) as DeviceLabel names a device: its own name or, when it has

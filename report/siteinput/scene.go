@@ -19,6 +19,7 @@ import (
 	"fmt"
 	"math"
 	"path/filepath"
+	"strconv"
 	"strings"
 	"time"
 
@@ -418,12 +419,7 @@ func defaultTitle(in Inputs, polys []areaPoly) string {
 // sites at exactly the position of an earlier one (they share its service
 // area), listing up to five of each.
 func siteWarnings(sites []orb.Point, names []string, region *planar.Region) []string {
-	label := func(i int) string {
-		if i < len(names) && names[i] != "" {
-			return fmt.Sprintf("#%d %s", i, names[i])
-		}
-		return fmt.Sprintf("#%d", i)
-	}
+	label := func(i int) string { return DeviceLabel(names, i) }
 	list := func(idx []string, total int) string {
 		s := strings.Join(idx, ", ")
 		if total > len(idx) {
@@ -468,4 +464,14 @@ func siteWarnings(sites []orb.Point, names []string, region *planar.Region) []st
 		warn = append(warn, fmt.Sprintf("%d %s: %s", nDup, what, list(dups, nDup)))
 	}
 	return warn
+}
+
+// DeviceLabel returns how every text output and map names input site i
+// (0-based): its own label names[i] or, when it has none, "#n" with n =
+// i+1, its position in the input (the first site is #1).
+func DeviceLabel(names []string, i int) string {
+	if i >= 0 && i < len(names) && names[i] != "" {
+		return names[i]
+	}
+	return "#" + strconv.Itoa(i+1)
 }
