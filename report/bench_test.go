@@ -7,8 +7,11 @@ package report
 import (
 	"math"
 	"math/rand/v2"
+	"runtime"
+	"runtime/metrics"
 	"sync"
 	"testing"
+	"time"
 
 	"github.com/paulmach/orb"
 	"github.com/sitecover/sitecover/coverage"
@@ -56,11 +59,66 @@ func BenchmarkMaps(b *testing.B) {
 func BenchmarkWriteNoPNG(b *testing.B) {
 	an := bigScene(b)
 	dir := b.TempDir()
+	peak := startPeakHeap()
 	b.ResetTimer()
 	for range b.N {
 		if _, err := WriteAnalysis(dir, an, Meta{Planar: true}, Options{}); err != nil {
 			b.Fatal(err)
 		}
+	}
+	reportPerSite(b, peak, len(an.Layout.Sites))
+}
+
+// peakHeap samples the live heap (runtime/metrics, cheap enough to read
+// every millisecond) from its start until stop, keeping the largest value
+// above the heap at the start: the memory the measured code held at once.
+type peakHeap struct {
+	base, peak uint64
+	before     runtime.MemStats
+	done       chan struct{}
+	wg         sync.WaitGroup
+}
+
+// heapSampleEvery is how often peakHeap reads the heap size; an allocation
+// freed within one interval can be missed, which matters little for the
+// megabyte buffers this measures.
+const heapSampleEvery = time.Millisecond
+
+func startPeakHeap() *peakHeap {
+	runtime.GC()
+	p := &peakHeap{done: make(chan struct{})}
+	sample := []metrics.Sample{{Name: "/memory/classes/heap/objects:bytes"}}
+	metrics.Read(sample)
+	p.base = sample[0].Value.Uint64()
+	runtime.ReadMemStats(&p.before)
+	p.wg.Go(func() {
+		t := time.NewTicker(heapSampleEvery)
+		defer t.Stop()
+		for {
+			select {
+			case <-p.done:
+				return
+			case <-t.C:
+				metrics.Read(sample)
+				p.peak = max(p.peak, sample[0].Value.Uint64())
+			}
+		}
+	})
+	return p
+}
+
+// reportPerSite stops p and reports the bytes allocated per site and per
+// run (B/site) and the peak live heap above the start per site
+// (peak-B/site).
+func reportPerSite(b *testing.B, p *peakHeap, sites int) {
+	close(p.done)
+	p.wg.Wait()
+	var after runtime.MemStats
+	runtime.ReadMemStats(&after)
+	n := float64(sites) * float64(b.N)
+	b.ReportMetric(float64(after.TotalAlloc-p.before.TotalAlloc)/n, "B/site")
+	if p.peak > p.base {
+		b.ReportMetric(float64(p.peak-p.base)/float64(sites), "peak-B/site")
 	}
 }
 
@@ -105,11 +163,13 @@ func BenchmarkFiles(b *testing.B) {
 			{"hole-closings", s.holesLayer},
 		} {
 			b.Run(mode.name+"/"+f.name, func(b *testing.B) {
+				peak := startPeakHeap()
 				for range b.N {
 					if _, err := f.make(); err != nil {
 						b.Fatal(err)
 					}
 				}
+				reportPerSite(b, peak, len(an.Layout.Sites))
 			})
 		}
 	}
