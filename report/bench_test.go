@@ -5,6 +5,7 @@
 package report
 
 import (
+	"io"
 	"math"
 	"math/rand/v2"
 	"runtime"
@@ -54,8 +55,8 @@ func BenchmarkMaps(b *testing.B) {
 	}
 }
 
-// BenchmarkWriteNoPNG writes report.txt, summary.json and the GeoJSON
-// layers for 100 000 sites (the part of `analyze` after the analysis).
+// BenchmarkWriteNoPNG writes report.txt, summary.json, the GeoJSON
+// layers and the GeoPackage for 100 000 sites (the part of `analyze` after the analysis).
 func BenchmarkWriteNoPNG(b *testing.B) {
 	an := bigScene(b)
 	dir := b.TempDir()
@@ -137,8 +138,8 @@ func BenchmarkCharts(b *testing.B) {
 	}
 }
 
-// BenchmarkFiles produces each text and GeoJSON output for 100 000 sites
-// in memory (no file system), for geographic output (lon/lat through the
+// BenchmarkFiles streams each text and GeoJSON output for 100 000 sites
+// to io.Discard (no file system, no GeoPackage), for geographic output (lon/lat through the
 // inverse projection) and planar output.
 func BenchmarkFiles(b *testing.B) {
 	an := bigScene(b)
@@ -151,21 +152,22 @@ func BenchmarkFiles(b *testing.B) {
 		{"planar", Meta{Planar: true}},
 	} {
 		s := newScene(an.Layout, an, mode.m)
+		s.listMax = SummaryListMax
 		for _, f := range []struct {
 			name string
-			make func() ([]byte, error)
+			make func() error
 		}{
-			{"report.txt", func() ([]byte, error) { return s.text(), nil }},
-			{"summary.json", func() ([]byte, error) { return Summary(an, mode.m).MarshalIndent() }},
-			{"sites", s.sitesLayer},
-			{"service-areas", s.serviceAreasLayer},
-			{"gaps", s.gapsLayer},
-			{"hole-closings", s.holesLayer},
+			{"report.txt", func() error { return s.writeTextTo(io.Discard) }},
+			{"summary.json", func() error { return writeDoc(io.Discard, s.summary()) }},
+			{"sites", func() error { return s.writeLayer(io.Discard, s.sitesLayer(), nil) }},
+			{"service-areas", func() error { return s.writeLayer(io.Discard, s.serviceAreasLayer(), nil) }},
+			{"gaps", func() error { return s.writeLayer(io.Discard, s.gapsLayer(), nil) }},
+			{"hole-closings", func() error { return s.writeLayer(io.Discard, s.holesLayer(), nil) }},
 		} {
 			b.Run(mode.name+"/"+f.name, func(b *testing.B) {
 				peak := startPeakHeap()
 				for range b.N {
-					if _, err := f.make(); err != nil {
+					if err := f.make(); err != nil {
 						b.Fatal(err)
 					}
 				}

@@ -7,8 +7,8 @@
 package report
 
 import (
-	"bytes"
 	"fmt"
+	"io"
 	"math"
 	"strings"
 
@@ -29,35 +29,47 @@ var moveTitle = map[Move]string{
 	MoveAssign:     "Assignment of demand to devices",
 }
 
+// planText returns the whole report.txt (for the tests).
 func (s *planScene) planText() []byte {
-	var b bytes.Buffer
-	s.textTitle(&b, moveTitle[s.p.Move])
-	b.WriteString(numberingNote)
-	if s.m.LifeSafety {
-		section(&b, "CAUTIONS (LIFE-SAFETY DEVICES)")
-		b.WriteString(Cautions() + "\n")
-	}
-	s.textInputs(&b)
-	s.planInputs(&b)
-	s.textTerms(&b)
-	s.textExisting(&b)
-	switch s.p.Move {
-	case MoveAdd, MoveFewest:
-		s.textSuggestion(&b)
-	case MoveCandidates:
-		s.textCandidates(&b)
-	case MoveFailures:
-		s.textFailures(&b)
-	case MoveAssign:
-		s.textAssignment(&b)
-	}
-	s.textPlanNotes(&b)
-	s.textClosing(&b, planFileNote)
+	var b textBuf
+	s.writePlanText(&b)
 	return b.Bytes()
 }
 
+// writePlanTextTo streams report.txt to w.
+func (s *planScene) writePlanTextTo(w io.Writer) error {
+	b := &textBuf{w: w}
+	s.writePlanText(b)
+	return b.flush()
+}
+
+func (s *planScene) writePlanText(b *textBuf) {
+	s.textTitle(b, moveTitle[s.p.Move])
+	b.WriteString(numberingNote)
+	if s.m.LifeSafety {
+		section(b, "CAUTIONS (LIFE-SAFETY DEVICES)")
+		b.WriteString(Cautions() + "\n")
+	}
+	s.textInputs(b)
+	s.planInputs(b)
+	s.textTerms(b)
+	s.textExisting(b)
+	switch s.p.Move {
+	case MoveAdd, MoveFewest:
+		s.textSuggestion(b)
+	case MoveCandidates:
+		s.textCandidates(b)
+	case MoveFailures:
+		s.textFailures(b)
+	case MoveAssign:
+		s.textAssignment(b)
+	}
+	s.textPlanNotes(b)
+	s.textClosing(b, planFileNote)
+}
+
 // planInputs adds the move's own inputs under INPUTS.
-func (s *planScene) planInputs(b *bytes.Buffer) {
+func (s *planScene) planInputs(b *textBuf) {
 	kv := &kvList{}
 	switch s.p.Move {
 	case MoveCandidates:
@@ -97,7 +109,7 @@ func (s *planScene) rangeText() string {
 	return t
 }
 
-func (s *planScene) textExisting(b *bytes.Buffer) {
+func (s *planScene) textExisting(b *textBuf) {
 	p := s.p
 	section(b, "THE EXISTING LAYOUT")
 	kv := &kvList{}
@@ -121,7 +133,7 @@ func (s *planScene) textExisting(b *bytes.Buffer) {
 	kv.write(b)
 }
 
-func (s *planScene) textSuggestion(b *bytes.Buffer) {
+func (s *planScene) textSuggestion(b *textBuf) {
 	p, sg := s.p, s.p.Suggestion
 	if p.Move == MoveAdd {
 		section(b, fmt.Sprintf("%d SUGGESTED DEVICES (free placement)", len(sg.Added)))
@@ -175,7 +187,7 @@ func (s *planScene) textSuggestion(b *bytes.Buffer) {
 
 // textGapList writes a table of gaps (id, area, closing range, deepest
 // point, kind).
-func (s *planScene) textGapList(b *bytes.Buffer, title string, gaps []coverage.Gap, none string) {
+func (s *planScene) textGapList(b *textBuf, title string, gaps []coverage.Gap, none string) {
 	section(b, fmt.Sprintf("%s AT %s", title, metres(s.p.Range)))
 	if len(gaps) == 0 {
 		b.WriteString("  " + none + "\n")
@@ -195,7 +207,7 @@ func (s *planScene) textGapList(b *bytes.Buffer, title string, gaps []coverage.G
 	fmt.Fprintf(b, "  %s, %s in all.\n", Plural(len(gaps), "gap"), m2(total))
 }
 
-func (s *planScene) textCandidates(b *bytes.Buffer) {
+func (s *planScene) textCandidates(b *textBuf) {
 	p, ch := s.p, s.p.Choice
 	if p.Requested > 0 {
 		section(b, fmt.Sprintf("CHOICE OF %d AMONG %d CANDIDATE SPOTS AT %s", p.Requested, len(p.Candidates), metres(ch.Range)))
@@ -246,7 +258,7 @@ func (s *planScene) textCandidates(b *bytes.Buffer) {
 	s.textGapList(b, "GAPS LEFT WITH THE PICKS", ch.Remaining, "none: the picks leave no gap at this range")
 }
 
-func (s *planScene) textFailures(b *bytes.Buffer) {
+func (s *planScene) textFailures(b *textBuf) {
 	fr := s.p.Failures
 	section(b, "SURVIVING ANY SINGLE FAILURE")
 	kv := &kvList{}
@@ -311,7 +323,7 @@ func weightText(w float64) string {
 	return trimFloat(w)
 }
 
-func (s *planScene) textAssignment(b *bytes.Buffer) {
+func (s *planScene) textAssignment(b *textBuf) {
 	p, a := s.p, s.p.Assignment
 	ranged := s.hasRange()
 	section(b, "DEMAND SERVED")
@@ -389,7 +401,7 @@ func (s *planScene) textAssignment(b *bytes.Buffer) {
 // demandLabel names demand item i (ItemLabel: its name, or "item n").
 func (s *planScene) demandLabel(i int) string { return ItemLabel(s.demandName(i), "item", i) }
 
-func (s *planScene) textPlanNotes(b *bytes.Buffer) {
+func (s *planScene) textPlanNotes(b *textBuf) {
 	section(b, "ACCURACY AND NOTES")
 	var lines []string
 	switch s.p.Move {

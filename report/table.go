@@ -87,7 +87,7 @@ func (t *table) body(k int) []byte {
 }
 
 // write writes the headings, a rule of dashes under them and the rows.
-func (t *table) write(b *bytes.Buffer) {
+func (t *table) write(b *textBuf) {
 	n := len(t.heads)
 	if n == 0 {
 		return
@@ -103,7 +103,7 @@ func (t *table) write(b *bytes.Buffer) {
 	for _, wi := range w {
 		lineLen += wi + 2
 	}
-	b.Grow(lineLen * (2 + len(t.ends)/n))
+	b.Grow(min(lineLen*(2+len(t.ends)/n), textFlush)) // lines are written on every textFlush bytes
 
 	row := make([][]byte, n)
 	for i, h := range t.heads {
@@ -127,7 +127,7 @@ func (t *table) write(b *bytes.Buffer) {
 }
 
 // line writes one line of cells padded to the widths w.
-func (t *table) line(b *bytes.Buffer, w []int, cells [][]byte) {
+func (t *table) line(b *textBuf, w []int, cells [][]byte) {
 	start := b.Len()
 	b.WriteString("  ")
 	for i, c := range cells {
@@ -150,10 +150,11 @@ func (t *table) line(b *bytes.Buffer, w []int, cells [][]byte) {
 	trimmed := bytes.TrimRight(b.Bytes()[start:], " ")
 	b.Truncate(start + len(trimmed))
 	b.WriteByte('\n')
+	b.spill()
 }
 
 // spaces writes n spaces (none when n <= 0).
-func spaces(b *bytes.Buffer, n int) {
+func spaces(b *textBuf, n int) {
 	const blank = "                                                                "
 	for n > 0 {
 		k := min(n, len(blank))
