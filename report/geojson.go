@@ -1,5 +1,6 @@
-// GeoJSON layers (RFC 7946): sites, service areas, gaps and hole-closing
-// points (and the planning layers of plan_layers.go).
+// GeoJSON layers (RFC 7946): sites, service areas, gaps, hole-closing
+// points and the covered area (and the planning layers of
+// plan_layers.go).
 //
 // Geometry is mapped vertex by vertex from the local plane to WGS84 with
 // Meta.ToLonLat and rounded to 7 decimals (RFC 7946 §11.2 recommends
@@ -22,9 +23,11 @@
 package report
 
 import (
+	"cmp"
 	"fmt"
 	"io"
 	"math"
+	"slices"
 	"strconv"
 	"strings"
 
@@ -318,6 +321,41 @@ func (s *scene) holesLayer() *layerDef {
 			}
 			for i, h := range p.Holes {
 				if err := emit(orb.Point(s.closingOut(i)), h.Birth, h.Death, h.Death-h.Birth, s.holeNote(i), joinInts(h.BirthSites[:])); err != nil {
+					return err
+				}
+			}
+			return nil
+		}}
+}
+
+// coveredLayer is the covered part of the area at the planned range
+// (coverage.Layout.Covered: the area less the gap outlines, so inside the
+// true covered part by at most the chord tolerance), one feature per
+// connected covered part, largest first by outline area.
+func (s *scene) coveredLayer() *layerDef {
+	return &layerDef{geom: gpkg.MultiPolygon,
+		fields: fieldList("part", gpkg.Integer, "outline_area_m2", gpkg.Real, "range_m", gpkg.Real),
+		each: func(emit emitFunc) error {
+			parts := s.l.Covered(s.a.Gaps)
+			area := make([]float64, len(parts))
+			for i, p := range parts {
+				for _, r := range p {
+					area[i] += planar.RingArea(planar.FlatRing(r))
+				}
+			}
+			order := make([]int, len(parts))
+			for i := range order {
+				order[i] = i
+			}
+			slices.SortStableFunc(order, func(a, b int) int { return cmp.Compare(area[b], area[a]) })
+			n := 0
+			for _, i := range order {
+				mp := s.multiPolygon(orb.MultiPolygon{parts[i]})
+				if len(mp) == 0 {
+					continue
+				}
+				n++
+				if err := emit(mp, n, area[i], s.a.Range); err != nil {
 					return err
 				}
 			}

@@ -116,6 +116,7 @@ const (
 	FileGaps            = "gaps.geojson"
 	FileHoleClosings    = "hole-closings.geojson"
 	FileSites           = "sites.geojson"
+	FileCovered         = "covered.geojson"
 	FileMapServiceAreas = "map-service-areas.png"
 	FileMapCoverage     = "map-coverage.png"
 	FileChartCurve      = "chart-coverage-curve.png"
@@ -140,7 +141,7 @@ func Files(cells bool, m Meta, opt Options) []string {
 	f = append(f, FileReport, FileSummary)
 	f = append(f, LayerFile(FileSites, m.Planar), LayerFile(FileServiceAreas, m.Planar))
 	if !cells {
-		f = append(f, LayerFile(FileGaps, m.Planar), LayerFile(FileHoleClosings, m.Planar))
+		f = append(f, LayerFile(FileGaps, m.Planar), LayerFile(FileHoleClosings, m.Planar), LayerFile(FileCovered, m.Planar))
 	}
 	f = append(f, FileGeoPackage)
 	if opt.Maps {
@@ -177,6 +178,7 @@ func WriteAnalysis(dir string, a *coverage.Analysis, m Meta, opt Options) (writt
 		s.layerStep(FileServiceAreas, s.serviceAreasLayer()),
 		s.layerStep(FileGaps, s.gapsLayer()),
 		s.layerStep(FileHoleClosings, s.holesLayer()),
+		s.layerStep(FileCovered, s.coveredLayer()),
 		{name: FileGeoPackage, gpkg: true},
 	}
 	width := mapWidth(opt)

@@ -523,6 +523,7 @@ var fileNote = map[string]string{
 	FileServiceAreas:    "service areas (polygons) with area, share, farthest point",
 	FileGaps:            "gaps at the planned range (polygons) with their figures",
 	FileHoleClosings:    "where each hole of the union of disks closes (points)",
+	FileCovered:         "covered area at the planned range, one polygon per connected part",
 	FileMapServiceAreas: "map of the service areas",
 	FileMapCoverage:     "map of coverage and gaps at the planned range",
 	FileChartCurve:      "chart: covered share against range",

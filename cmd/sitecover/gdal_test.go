@@ -37,6 +37,7 @@ var demoLayerFields = map[string][]string{
 	"failures":         {"rank", "site", "name", "shared", "service_area_m2", "added_uncovered_m2", "uncovered_area_m2", "closing_range_m", "deepest_lon", "deepest_lat", "backup", "full_cover_range_m", "range_m"},
 	"assignment":       {"point", "name", "device", "device_name", "distance_m", "within_range", "weight"},
 	"device_load":      {"device", "name", "count", "weight", "in_range", "in_range_weight"},
+	"covered":          {"part", "outline_area_m2", "range_m"},
 }
 
 var gapFieldNames = []string{"id", "area_m2", "closing_range_m", "deepest_lon", "deepest_lat", "touches_boundary", "sites", "range_m"}
@@ -45,7 +46,7 @@ var gapFieldNames = []string{"id", "area_m2", "closing_range_m", "deepest_lon", 
 var demoLayerGeometry = map[string]string{
 	"sites": "Point", "service_areas": "Multi Polygon", "gaps": "Multi Polygon", "gaps_before": "Multi Polygon",
 	"gaps_after": "Multi Polygon", "hole_closings": "Point", "proposed_devices": "Point", "candidates": "Point",
-	"failures": "Point", "assignment": "Line String", "device_load": "Point",
+	"failures": "Point", "assignment": "Line String", "device_load": "Point", "covered": "Multi Polygon",
 }
 
 // ogrLayer is what ogrinfo -so -al says about one layer.

@@ -1,0 +1,341 @@
+// The covered part of the site area as polygons: A ∩ U(r), the union of the
+// disks inside the area, from the outlines of its gaps.
+//
+// Math. C = A \ G with G the union of the gaps, so as oriented boundary
+// chains ∂C = ∂A − ∂G: the area's rings (exteriors counter-clockwise,
+// holes clockwise: the area on the left) and the gap outlines (the gap on
+// the left) run the same way where a gap meets the area boundary, and those
+// portions cancel; what is left is the covered part of ∂A plus every other
+// piece of gap outline — the chords standing for arcs — reversed, which
+// puts C on the left. Each area edge is split at the outline vertices that
+// lie on it (within coveredOnEdgeRel of the coordinates' magnitude; a
+// vertex that close to an area vertex is that vertex), a sub-edge cancels
+// when a gap outline has the same segment, and the remaining segments are
+// linked into rings, at a vertex where several leave taking the sharpest
+// left turn so that parts touching at a point become separate rings.
+// Rings of positive area are exteriors, the others holes, each given to
+// the smallest exterior containing it.
+//
+// Accuracy: the gap outlines replace arcs by chords lying inside the disks
+// (sagitta at most chordTol·r, see Gaps), so each outline contains its gap
+// and the polygons returned lie inside the true covered part, short of it
+// by the circular segments, about (2/3)·chordTol·r per metre of arc; no
+// point outside the disks is ever claimed covered.
+
+package coverage
+
+import (
+	"math"
+	"slices"
+
+	"github.com/paulmach/orb"
+	"github.com/sitecover/sitecover/planar"
+)
+
+// coveredOnEdgeRel is the distance, relative to the largest coordinate
+// magnitude of the area plus its extent, within which a gap outline vertex
+// lies on an area edge: such vertices are computed from the edge by a few
+// operations (a few ulps, about 1e-15 relative), while outline vertices off
+// the boundary (chord ends on a circle) are much farther unless a circle
+// all but touches the edge; 1e-11 leaves a margin of 10⁴.
+const coveredOnEdgeRel = 1e-11
+
+// Covered returns the covered part of the site area at the range of gaps,
+// which must be the gaps with outlines that Gaps returned for that range
+// (no gaps: the whole area). Polygons have a counter-clockwise exterior
+// and clockwise holes, one polygon per connected covered part (parts
+// touching at a single point are separate polygons). See the file comment
+// for the accuracy.
+func (l *Layout) Covered(gaps []Gap) orb.MultiPolygon {
+	areaRings := l.coveredAreaRings()
+	if len(gaps) == 0 {
+		out := make(orb.MultiPolygon, 0, len(areaRings))
+		return append(out, l.Area.MultiPolygon()...)
+	}
+	b := l.Area.Bound()
+	mag := math.Max(math.Max(math.Abs(b.Min[0]), math.Abs(b.Max[0])), math.Max(math.Abs(b.Min[1]), math.Abs(b.Max[1])))
+	tol := coveredOnEdgeRel * (mag + math.Max(b.Max[0]-b.Min[0], b.Max[1]-b.Min[1]))
+	idx := newCoveredEdgeIndex(areaRings, b, tol)
+
+	// The gap outline segments, with vertices on the boundary snapped to
+	// area vertices and recorded as split points of their edges.
+	type seg struct {
+		a, b orb.Point
+		gone bool
+	}
+	var segs []seg
+	at := map[[2]orb.Point]int32{}
+	splits := make([][]coveredSplit, len(idx.edges))
+	for gi := range gaps {
+		touch := gaps[gi].TouchesBoundary
+		for _, poly := range gaps[gi].Outline {
+			for _, ring := range poly {
+				n := len(ring)
+				if n > 1 && ring[0] == ring[n-1] {
+					n--
+				}
+				pts := make([]orb.Point, n)
+				for i := range n {
+					pts[i] = ring[i]
+					if touch {
+						pts[i] = idx.touch(ring[i], splits)
+					}
+				}
+				for i := range n {
+					p, q := pts[i], pts[(i+1)%n]
+					if p == q {
+						continue
+					}
+					at[[2]orb.Point{p, q}] = int32(len(segs))
+					segs = append(segs, seg{a: p, b: q})
+				}
+			}
+		}
+	}
+
+	// The area edges, split, less the portions a gap outline runs along.
+	var out []coveredSeg
+	for e, ed := range idx.edges {
+		sp := splits[e]
+		slices.SortFunc(sp, func(x, y coveredSplit) int { return cmpFloat(x.t, y.t) })
+		prev := ed.a
+		for k := 0; k <= len(sp); k++ {
+			next := ed.b
+			if k < len(sp) {
+				next = sp[k].p
+			}
+			if next == prev {
+				continue
+			}
+			if j, ok := at[[2]orb.Point{prev, next}]; ok && !segs[j].gone {
+				segs[j].gone = true
+			} else {
+				out = append(out, coveredSeg{prev, next})
+			}
+			prev = next
+		}
+	}
+	for _, s := range segs {
+		if !s.gone {
+			out = append(out, coveredSeg{s.b, s.a})
+		}
+	}
+	return coveredPolygons(coveredRings(out))
+}
+
+func cmpFloat(a, b float64) int {
+	switch {
+	case a < b:
+		return -1
+	case a > b:
+		return 1
+	}
+	return 0
+}
+
+// coveredAreaRings returns the area's rings, open (no repeated first
+// point), exteriors counter-clockwise and holes clockwise.
+func (l *Layout) coveredAreaRings() []orb.Ring {
+	var rings []orb.Ring
+	for _, poly := range l.Area.MultiPolygon() {
+		for k, ring := range poly {
+			r := append(orb.Ring(nil), ring...)
+			if n := len(r); n > 1 && r[0] == r[n-1] {
+				r = r[:n-1]
+			}
+			if len(r) < 3 {
+				continue
+			}
+			if a := planar.RingArea(planar.FlatRing(r)); (a > 0) != (k == 0) {
+				slices.Reverse(r)
+			}
+			rings = append(rings, r)
+		}
+	}
+	return rings
+}
+
+// coveredSeg is one directed segment of the covered boundary.
+type coveredSeg struct{ a, b orb.Point }
+
+// coveredSplit is a point p at parameter t along an area edge.
+type coveredSplit struct {
+	t float64
+	p orb.Point
+}
+
+// coveredEdgeIndex finds the area edges near a point: a uniform grid of
+// about one edge per cell over the area's bounding box.
+type coveredEdgeIndex struct {
+	edges    []coveredSeg
+	grid     planar.Grid
+	cells    [][]int32
+	tol      float64
+	vertices map[orb.Point]bool
+}
+
+func newCoveredEdgeIndex(rings []orb.Ring, b orb.Bound, tol float64) *coveredEdgeIndex {
+	idx := &coveredEdgeIndex{tol: tol, vertices: map[orb.Point]bool{}}
+	for _, r := range rings {
+		for i := range r {
+			idx.edges = append(idx.edges, coveredSeg{r[i], r[(i+1)%len(r)]})
+			idx.vertices[r[i]] = true
+		}
+	}
+	idx.grid = planar.GridOfCells(b.Min[0]-tol, b.Min[1]-tol, b.Max[0]+tol, b.Max[1]+tol, len(idx.edges))
+	g := &idx.grid
+	idx.cells = make([][]int32, g.NumCells())
+	for e, ed := range idx.edges {
+		i0, j0 := g.Col(math.Min(ed.a[0], ed.b[0])-tol), g.Row(math.Min(ed.a[1], ed.b[1])-tol)
+		i1, j1 := g.Col(math.Max(ed.a[0], ed.b[0])+tol), g.Row(math.Max(ed.a[1], ed.b[1])+tol)
+		for j := j0; j <= j1; j++ {
+			for i := i0; i <= i1; i++ {
+				c := j*idx.grid.NX + i
+				idx.cells[c] = append(idx.cells[c], int32(e))
+			}
+		}
+	}
+	return idx
+}
+
+// touch returns q, or the area vertex within tol of it, and records it as
+// a split point of every area edge it lies on.
+func (idx *coveredEdgeIndex) touch(q orb.Point, splits [][]coveredSplit) orb.Point {
+	if idx.vertices[q] {
+		return q
+	}
+	cell := idx.cells[idx.grid.Cell(q[0], q[1])]
+	for _, e := range cell {
+		ed := idx.edges[e]
+		if math.Hypot(q[0]-ed.a[0], q[1]-ed.a[1]) <= idx.tol {
+			return ed.a
+		}
+		if math.Hypot(q[0]-ed.b[0], q[1]-ed.b[1]) <= idx.tol {
+			return ed.b
+		}
+	}
+	for _, e := range cell {
+		ed := idx.edges[e]
+		dx, dy := ed.b[0]-ed.a[0], ed.b[1]-ed.a[1]
+		l2 := dx*dx + dy*dy
+		t := ((q[0]-ed.a[0])*dx + (q[1]-ed.a[1])*dy) / l2
+		if !(t > 0 && t < 1) {
+			continue
+		}
+		if math.Abs((q[0]-ed.a[0])*dy-(q[1]-ed.a[1])*dx)/math.Sqrt(l2) <= idx.tol {
+			splits[e] = append(splits[e], coveredSplit{t, q})
+		}
+	}
+	return q
+}
+
+// coveredRings links directed segments into closed rings; where several
+// segments leave a point, the one turning most to the left of the
+// arriving direction is taken.
+func coveredRings(segs []coveredSeg) []orb.Ring {
+	from := make(map[orb.Point][]int32, len(segs))
+	for i, s := range segs {
+		from[s.a] = append(from[s.a], int32(i))
+	}
+	used := make([]bool, len(segs))
+	var rings []orb.Ring
+	for start := range segs {
+		if used[start] {
+			continue
+		}
+		used[start] = true
+		ring := orb.Ring{segs[start].a}
+		cur := start
+		for {
+			p := segs[cur].b
+			if p == segs[start].a {
+				break
+			}
+			ring = append(ring, p)
+			next := coveredNext(segs, from[p], used, segs[cur])
+			if next < 0 {
+				ring = nil // an open chain: the outlines did not match up
+				break
+			}
+			used[next] = true
+			cur = int(next)
+		}
+		if len(ring) >= 3 {
+			rings = append(rings, append(ring, ring[0]))
+		}
+	}
+	return rings
+}
+
+// coveredNext picks the unused segment among cands that turns most to the
+// left from the direction of in; −1 when none is left.
+func coveredNext(segs []coveredSeg, cands []int32, used []bool, in coveredSeg) int32 {
+	best, bestAng := int32(-1), 0.0
+	dx, dy := in.b[0]-in.a[0], in.b[1]-in.a[1]
+	for _, c := range cands {
+		if used[c] {
+			continue
+		}
+		ex, ey := segs[c].b[0]-segs[c].a[0], segs[c].b[1]-segs[c].a[1]
+		ang := math.Atan2(dx*ey-dy*ex, dx*ex+dy*ey) // turn angle, left positive
+		if best < 0 || ang > bestAng {
+			best, bestAng = c, ang
+		}
+	}
+	return best
+}
+
+// coveredPolygons sorts rings into exteriors (positive area) and holes,
+// each hole going to the smallest exterior that contains it.
+func coveredPolygons(rings []orb.Ring) orb.MultiPolygon {
+	type ext struct {
+		ring orb.Ring
+		flat []float64
+		area float64
+		b    orb.Bound
+		hole []orb.Ring
+	}
+	var exts []*ext
+	var holes []orb.Ring
+	for _, r := range rings {
+		flat := planar.FlatRing(r)
+		switch a := planar.RingArea(flat); {
+		case a > 0:
+			exts = append(exts, &ext{ring: r, flat: flat, area: a, b: r.Bound()})
+		case a < 0:
+			holes = append(holes, r)
+		}
+	}
+	slices.SortFunc(exts, func(x, y *ext) int { return cmpFloat(x.area, y.area) })
+	for _, h := range holes {
+		hb := h.Bound()
+		var cands []*ext
+		for _, e := range exts {
+			if e.b.Contains(hb.Min) && e.b.Contains(hb.Max) {
+				cands = append(cands, e)
+			}
+		}
+		for k, e := range cands {
+			if k == len(cands)-1 || coveredInside(e.flat, h) {
+				e.hole = append(e.hole, h)
+				break
+			}
+		}
+	}
+	out := make(orb.MultiPolygon, 0, len(exts))
+	for _, e := range exts {
+		out = append(out, append(orb.Polygon{e.ring}, e.hole...))
+	}
+	return out
+}
+
+// coveredInside reports whether ring h lies inside the ring flat, judged at
+// its first vertex not on that ring.
+func coveredInside(flat []float64, h orb.Ring) bool {
+	for _, p := range h {
+		if c := planar.PointInRing(flat, p[0], p[1]); c != 0 {
+			return c > 0
+		}
+	}
+	return false
+}
