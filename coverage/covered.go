@@ -57,13 +57,18 @@ func (l *Layout) Covered(gaps []Gap) orb.MultiPolygon {
 	tol := coveredOnEdgeRel * (mag + math.Max(b.Max[0]-b.Min[0], b.Max[1]-b.Min[1]))
 	idx := newCoveredEdgeIndex(areaRings, b, tol)
 
-	// The gap outline segments, with vertices on the boundary snapped to
-	// area vertices and recorded as split points of their edges.
+	// The segments of the outline rings that reach the boundary, with
+	// vertices on it snapped to area vertices and recorded as split points
+	// of their edges. Every other outline ring (those of gaps enclosed by
+	// coverage, and the rings around covered islands) is a whole ring of
+	// ∂C, reversed, and needs no linking.
 	type seg struct {
 		a, b orb.Point
 		gone bool
 	}
 	var segs []seg
+	var whole []orb.Ring
+	var pts []orb.Point
 	at := map[[2]orb.Point]int32{}
 	splits := make([][]coveredSplit, len(idx.edges))
 	for gi := range gaps {
@@ -74,12 +79,20 @@ func (l *Layout) Covered(gaps []Gap) orb.MultiPolygon {
 				if n > 1 && ring[0] == ring[n-1] {
 					n--
 				}
-				pts := make([]orb.Point, n)
-				for i := range n {
-					pts[i] = ring[i]
-					if touch {
-						pts[i] = idx.touch(ring[i], splits)
+				on := false
+				if touch {
+					pts = pts[:0]
+					for i := range n {
+						q, hit := idx.touch(ring[i], splits)
+						pts = append(pts, q)
+						on = on || hit
 					}
+				}
+				if !on {
+					r := append(orb.Ring(nil), ring...)
+					slices.Reverse(r)
+					whole = append(whole, r)
+					continue
 				}
 				for i := range n {
 					p, q := pts[i], pts[(i+1)%n]
@@ -120,7 +133,7 @@ func (l *Layout) Covered(gaps []Gap) orb.MultiPolygon {
 			out = append(out, coveredSeg{s.b, s.a})
 		}
 	}
-	return coveredPolygons(coveredRings(out))
+	return coveredPolygons(append(coveredRings(out), whole...))
 }
 
 func cmpFloat(a, b float64) int {
@@ -199,19 +212,20 @@ func newCoveredEdgeIndex(rings []orb.Ring, b orb.Bound, tol float64) *coveredEdg
 }
 
 // touch returns q, or the area vertex within tol of it, and records it as
-// a split point of every area edge it lies on.
-func (idx *coveredEdgeIndex) touch(q orb.Point, splits [][]coveredSplit) orb.Point {
+// a split point of every area edge it lies on; hit reports that q is on
+// the area boundary.
+func (idx *coveredEdgeIndex) touch(q orb.Point, splits [][]coveredSplit) (p orb.Point, hit bool) {
 	if idx.vertices[q] {
-		return q
+		return q, true
 	}
 	cell := idx.cells[idx.grid.Cell(q[0], q[1])]
 	for _, e := range cell {
 		ed := idx.edges[e]
 		if math.Hypot(q[0]-ed.a[0], q[1]-ed.a[1]) <= idx.tol {
-			return ed.a
+			return ed.a, true
 		}
 		if math.Hypot(q[0]-ed.b[0], q[1]-ed.b[1]) <= idx.tol {
-			return ed.b
+			return ed.b, true
 		}
 	}
 	for _, e := range cell {
@@ -224,9 +238,10 @@ func (idx *coveredEdgeIndex) touch(q orb.Point, splits [][]coveredSplit) orb.Poi
 		}
 		if math.Abs((q[0]-ed.a[0])*dy-(q[1]-ed.a[1])*dx)/math.Sqrt(l2) <= idx.tol {
 			splits[e] = append(splits[e], coveredSplit{t, q})
+			hit = true
 		}
 	}
-	return q
+	return q, hit
 }
 
 // coveredRings links directed segments into closed rings; where several
@@ -286,11 +301,13 @@ func coveredNext(segs []coveredSeg, cands []int32, used []bool, in coveredSeg) i
 }
 
 // coveredPolygons sorts rings into exteriors (positive area) and holes,
-// each hole going to the smallest exterior that contains it.
+// each hole going to the smallest exterior that contains it (found through
+// a grid of the exteriors' bounding boxes; when only one exterior's box
+// holds the hole's, the hole is in it).
 func coveredPolygons(rings []orb.Ring) orb.MultiPolygon {
 	type ext struct {
 		ring orb.Ring
-		flat []float64
+		flat []float64 // the ring flattened, made when first needed
 		area float64
 		b    orb.Bound
 		hole []orb.Ring
@@ -298,25 +315,50 @@ func coveredPolygons(rings []orb.Ring) orb.MultiPolygon {
 	var exts []*ext
 	var holes []orb.Ring
 	for _, r := range rings {
-		flat := planar.FlatRing(r)
-		switch a := planar.RingArea(flat); {
+		switch a := coveredRingArea(r); {
 		case a > 0:
-			exts = append(exts, &ext{ring: r, flat: flat, area: a, b: r.Bound()})
+			exts = append(exts, &ext{ring: r, area: a, b: r.Bound()})
 		case a < 0:
 			holes = append(holes, r)
 		}
 	}
 	slices.SortFunc(exts, func(x, y *ext) int { return cmpFloat(x.area, y.area) })
+	// A grid of about one exterior per cell, each cell listing the
+	// exteriors whose bounding box meets it, smallest first.
+	var all orb.Bound
+	for i, e := range exts {
+		if i == 0 {
+			all = e.b
+		} else {
+			all = all.Union(e.b)
+		}
+	}
+	g := planar.GridOfCells(all.Min[0], all.Min[1], all.Max[0], all.Max[1], len(exts))
+	cells := make([][]int32, g.NumCells())
+	for k, e := range exts {
+		for j := g.Row(e.b.Min[1]); j <= g.Row(e.b.Max[1]); j++ {
+			for i := g.Col(e.b.Min[0]); i <= g.Col(e.b.Max[0]); i++ {
+				cells[j*g.NX+i] = append(cells[j*g.NX+i], int32(k))
+			}
+		}
+	}
 	for _, h := range holes {
 		hb := h.Bound()
 		var cands []*ext
-		for _, e := range exts {
-			if e.b.Contains(hb.Min) && e.b.Contains(hb.Max) {
+		for _, k := range cells[g.Cell(hb.Min[0], hb.Min[1])] {
+			if e := exts[k]; e.b.Contains(hb.Min) && e.b.Contains(hb.Max) {
 				cands = append(cands, e)
 			}
 		}
 		for k, e := range cands {
-			if k == len(cands)-1 || coveredInside(e.flat, h) {
+			if k == len(cands)-1 {
+				e.hole = append(e.hole, h)
+				break
+			}
+			if e.flat == nil {
+				e.flat = planar.FlatRing(e.ring)
+			}
+			if coveredInside(e.flat, h) {
 				e.hole = append(e.hole, h)
 				break
 			}
@@ -327,6 +369,16 @@ func coveredPolygons(rings []orb.Ring) orb.MultiPolygon {
 		out = append(out, append(orb.Polygon{e.ring}, e.hole...))
 	}
 	return out
+}
+
+// coveredRingArea is the shoelace area of a closed ring, positive when
+// counter-clockwise (as planar.RingArea, without a flat copy).
+func coveredRingArea(r orb.Ring) float64 {
+	a := 0.0
+	for i := 1; i < len(r); i++ {
+		a += r[i-1][0]*r[i][1] - r[i][0]*r[i-1][1]
+	}
+	return a / 2
 }
 
 // coveredInside reports whether ring h lies inside the ring flat, judged at
