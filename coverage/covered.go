@@ -25,6 +25,7 @@
 package coverage
 
 import (
+	"cmp"
 	"math"
 	"slices"
 
@@ -110,7 +111,7 @@ func (l *Layout) Covered(gaps []Gap) orb.MultiPolygon {
 	var out []coveredSeg
 	for e, ed := range idx.edges {
 		sp := splits[e]
-		slices.SortFunc(sp, func(x, y coveredSplit) int { return cmpFloat(x.t, y.t) })
+		slices.SortFunc(sp, func(x, y coveredSplit) int { return cmp.Compare(x.t, y.t) })
 		prev := ed.a
 		for k := 0; k <= len(sp); k++ {
 			next := ed.b
@@ -134,16 +135,6 @@ func (l *Layout) Covered(gaps []Gap) orb.MultiPolygon {
 		}
 	}
 	return coveredPolygons(append(coveredRings(out), whole...))
-}
-
-func cmpFloat(a, b float64) int {
-	switch {
-	case a < b:
-		return -1
-	case a > b:
-		return 1
-	}
-	return 0
 }
 
 // coveredAreaRings returns the area's rings, open (no repeated first
@@ -322,7 +313,7 @@ func coveredPolygons(rings []orb.Ring) orb.MultiPolygon {
 			holes = append(holes, r)
 		}
 	}
-	slices.SortFunc(exts, func(x, y *ext) int { return cmpFloat(x.area, y.area) })
+	slices.SortFunc(exts, func(x, y *ext) int { return cmp.Compare(x.area, y.area) })
 	// A grid of about one exterior per cell, each cell listing the
 	// exteriors whose bounding box meets it, smallest first.
 	var all orb.Bound

@@ -30,18 +30,10 @@ var moveTitle = map[Move]string{
 }
 
 // planText returns the whole report.txt (for the tests).
-func (s *planScene) planText() []byte {
-	var b textBuf
-	s.writePlanText(&b)
-	return b.Bytes()
-}
+func (s *planScene) planText() []byte { return bufferedText(s.writePlanText) }
 
 // writePlanTextTo streams report.txt to w.
-func (s *planScene) writePlanTextTo(w io.Writer) error {
-	b := &textBuf{w: w}
-	s.writePlanText(b)
-	return b.flush()
-}
+func (s *planScene) writePlanTextTo(w io.Writer) error { return streamText(w, s.writePlanText) }
 
 func (s *planScene) writePlanText(b *textBuf) {
 	s.textTitle(b, moveTitle[s.p.Move])

@@ -54,19 +54,25 @@ func (b *textBuf) flush() error {
 	return b.err
 }
 
-// text returns the whole report.txt (for the tests and small reports).
-func (s *scene) text() []byte {
+// bufferedText returns the text write produces (for the tests).
+func bufferedText(write func(*textBuf)) []byte {
 	var b textBuf
-	s.writeText(&b)
+	write(&b)
 	return b.Bytes()
 }
 
-// writeTextTo streams report.txt to w.
-func (s *scene) writeTextTo(w io.Writer) error {
+// streamText streams the text write produces to w.
+func streamText(w io.Writer, write func(*textBuf)) error {
 	b := &textBuf{w: w}
-	s.writeText(b)
+	write(b)
 	return b.flush()
 }
+
+// text returns the whole report.txt (for the tests).
+func (s *scene) text() []byte { return bufferedText(s.writeText) }
+
+// writeTextTo streams report.txt to w.
+func (s *scene) writeTextTo(w io.Writer) error { return streamText(w, s.writeText) }
 
 func (s *scene) writeText(b *textBuf) {
 	s.textHeader(b)
