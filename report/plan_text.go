@@ -191,10 +191,13 @@ func (s *planScene) textGapList(b *textBuf, title string, gaps []coverage.Gap, n
 	t.left(5)
 	total := 0.0
 	for _, g := range gaps {
-		px, py := s.pointCols(g.Deepest)
-		t.row(fmt.Sprint(g.ID), fmt.Sprintf("%.1f", g.Area), fmt.Sprintf("%.2f", g.ClosingRange), px, py, gapKind(g))
 		total += g.Area
 	}
+	t.rows(len(gaps), func(i int) {
+		g := gaps[i]
+		px, py := s.pointCols(g.Deepest)
+		t.row(fmt.Sprint(g.ID), fmt.Sprintf("%.1f", g.Area), fmt.Sprintf("%.2f", g.ClosingRange), px, py, gapKind(g))
+	})
 	t.write(b)
 	fmt.Fprintf(b, "  %s, %s in all.\n", Plural(len(gaps), "gap"), m2(total))
 }
@@ -274,7 +277,8 @@ func (s *planScene) textFailures(b *textBuf) {
 	hx, hy := s.pointHeads()
 	t.head("Rank", "Loss m²", "Uncovered m²", "Closing m", hx, hy, "Full cover m", "Device", "Backup")
 	t.left(7, 8)
-	for k, d := range fr.Devices {
+	t.rows(len(fr.Devices), func(k int) {
+		d := fr.Devices[k]
 		px, py := s.pointCols(d.Deepest)
 		name := s.label(d.Site)
 		if d.Shared {
@@ -286,7 +290,7 @@ func (s *planScene) textFailures(b *textBuf) {
 		}
 		t.row(fmt.Sprint(k+1), fmt.Sprintf("%.1f", d.AddedUncovered), fmt.Sprintf("%.1f", d.Uncovered),
 			metresCol(d.ClosingRange), px, py, metresCol(d.FullCover), name, backup)
-	}
+	})
 	t.write(b)
 }
 
@@ -347,13 +351,14 @@ func (s *planScene) textAssignment(b *textBuf) {
 		t.head("Items", "Weight", "Device")
 		t.left(2)
 	}
-	for i, ld := range a.Load {
+	t.rows(len(a.Load), func(i int) {
+		ld := a.Load[i]
 		if ranged {
 			t.row(fmt.Sprint(ld.Count), weightText(ld.Weight), fmt.Sprint(ld.InRange), weightText(ld.InRangeWeight), s.label(i))
 		} else {
 			t.row(fmt.Sprint(ld.Count), weightText(ld.Weight), s.label(i))
 		}
-	}
+	})
 	t.write(b)
 
 	all := len(p.Demand) <= maxDemandRows
@@ -366,8 +371,14 @@ func (s *planScene) textAssignment(b *textBuf) {
 	hx, hy := s.pointHeads()
 	t.head(hx, hy, "Distance m", "In range", "Weight", "Item", "Device")
 	t.left(5, 6)
-	rows := 0
+	var shown []int32 // the items listed (4 bytes each: the rows are formatted when written)
 	for i := range p.Demand {
+		if all || (ranged && !a.Within[i]) {
+			shown = append(shown, int32(i))
+		}
+	}
+	t.rows(len(shown), func(k int) {
+		i := int(shown[k])
 		in := "-"
 		if ranged {
 			in = "yes"
@@ -375,15 +386,11 @@ func (s *planScene) textAssignment(b *textBuf) {
 				in = "NO"
 			}
 		}
-		if !all && (!ranged || a.Within[i]) {
-			continue
-		}
 		px, py := s.pointCols(p.Demand[i])
 		t.row(px, py, fmt.Sprintf("%.2f", a.Distance[i]), in,
 			weightText(a.Weight[i]), s.demandLabel(i), s.label(a.Device[i]))
-		rows++
-	}
-	if rows == 0 {
+	})
+	if len(shown) == 0 {
 		b.WriteString("  none\n")
 		return
 	}

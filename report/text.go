@@ -275,7 +275,8 @@ func (s *scene) textGaps(b *textBuf) {
 	hx, hy := s.pointHeads()
 	t.head("Gap", "Area m²", "Closing m", hx, hy, "Kind", "Bordering devices")
 	t.left(5, 6)
-	for gi, g := range a.Gaps {
+	t.rows(len(a.Gaps), func(gi int) {
+		g := a.Gaps[gi]
 		t.int("", g.ID)
 		t.num(g.Area, 1)
 		t.num(g.ClosingRange, 2)
@@ -294,7 +295,7 @@ func (s *scene) textGaps(b *textBuf) {
 			t.cells = s.appendLabel(t.cells, site)
 		}
 		t.cell()
-	}
+	})
 	t.write(b)
 }
 
@@ -310,7 +311,8 @@ func (s *scene) textCells(b *textBuf) {
 	hx, hy := s.pointHeads()
 	t.head("Area m²", "Share %", "Farthest m", hx, hy, "Device", "Merged duplicates")
 	t.left(5, 6)
-	for ci, c := range s.cells {
+	t.rows(len(s.cells), func(ci int) {
+		c := s.cells[ci]
 		t.num(c.Area, 1)
 		t.num(100*c.Share, 3)
 		t.num(c.Farthest, 2)
@@ -323,7 +325,7 @@ func (s *scene) textCells(b *textBuf) {
 			t.cells = s.appendLabel(t.cells, i)
 		}
 		t.cell()
-	}
+	})
 	t.write(b)
 }
 
@@ -356,7 +358,8 @@ func (s *scene) textHoles(b *textBuf) {
 	hx, hy := s.pointHeads()
 	t.head("No", "Appears m", "Closes m", "Lifetime m", hx, hy, "At "+metresShort(r), "Note", "Ringed at appearance by")
 	t.left(6, 7, 8)
-	for i, h := range p.Holes {
+	t.rows(len(p.Holes), func(i int) {
+		h := p.Holes[i]
 		state := "open"
 		switch {
 		case r < h.Birth:
@@ -375,7 +378,7 @@ func (s *scene) textHoles(b *textBuf) {
 		t.cells = append(t.cells, ", "...)
 		t.cells = s.appendLabel(t.cells, h.BirthSites[1])
 		t.cell()
-	}
+	})
 	t.write(b)
 }
 
