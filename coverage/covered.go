@@ -58,19 +58,15 @@ func (l *Layout) Covered(gaps []Gap) orb.MultiPolygon {
 	tol := coveredOnEdgeRel * (mag + math.Max(b.Max[0]-b.Min[0], b.Max[1]-b.Min[1]))
 	idx := newCoveredEdgeIndex(areaRings, b, tol)
 
-	// The segments of the outline rings that reach the boundary, with
-	// vertices on it snapped to area vertices and recorded as split points
-	// of their edges. Every other outline ring (those of gaps enclosed by
-	// coverage, and the rings around covered islands) is a whole ring of
-	// ∂C, reversed, and needs no linking.
-	type seg struct {
-		a, b orb.Point
-		gone bool
-	}
-	var segs []seg
+	// The outline rings that reach the boundary, with their vertices on it
+	// snapped to area vertices and recorded as split points of their edges
+	// (flat, ring k from touched[start[k]] to touched[start[k+1]]). Every
+	// other outline ring (those of gaps enclosed by coverage, and the rings
+	// around covered islands) is a whole ring of ∂C, reversed, and needs
+	// no linking.
 	var whole []orb.Ring
-	var pts []orb.Point
-	at := map[[2]orb.Point]int32{}
+	var touched []orb.Point
+	start := []int{0}
 	splits := make([][]coveredSplit, len(idx.edges))
 	for gi := range gaps {
 		touch := gaps[gi].TouchesBoundary
@@ -82,33 +78,28 @@ func (l *Layout) Covered(gaps []Gap) orb.MultiPolygon {
 				}
 				on := false
 				if touch {
-					pts = pts[:0]
 					for i := range n {
 						q, hit := idx.touch(ring[i], splits)
-						pts = append(pts, q)
+						touched = append(touched, q)
 						on = on || hit
 					}
-				}
-				if !on {
-					r := append(orb.Ring(nil), ring...)
-					slices.Reverse(r)
-					whole = append(whole, r)
-					continue
-				}
-				for i := range n {
-					p, q := pts[i], pts[(i+1)%n]
-					if p == q {
+					if on {
+						start = append(start, len(touched))
 						continue
 					}
-					at[[2]orb.Point{p, q}] = int32(len(segs))
-					segs = append(segs, seg{a: p, b: q})
+					touched = touched[:start[len(start)-1]]
 				}
+				r := append(orb.Ring(nil), ring...)
+				slices.Reverse(r)
+				whole = append(whole, r)
 			}
 		}
 	}
 
-	// The area edges, split, less the portions a gap outline runs along.
-	var out []coveredSeg
+	// The area edges, split; a sub-edge that a touching outline ring runs
+	// along cancels with it, the rest of those rings is reversed.
+	var sub []coveredSeg
+	subAt := map[[2]orb.Point]int32{}
 	for e, ed := range idx.edges {
 		sp := splits[e]
 		slices.SortFunc(sp, func(x, y coveredSplit) int { return cmp.Compare(x.t, y.t) })
@@ -121,17 +112,30 @@ func (l *Layout) Covered(gaps []Gap) orb.MultiPolygon {
 			if next == prev {
 				continue
 			}
-			if j, ok := at[[2]orb.Point{prev, next}]; ok && !segs[j].gone {
-				segs[j].gone = true
-			} else {
-				out = append(out, coveredSeg{prev, next})
-			}
+			subAt[[2]orb.Point{prev, next}] = int32(len(sub))
+			sub = append(sub, coveredSeg{prev, next})
 			prev = next
 		}
 	}
-	for _, s := range segs {
-		if !s.gone {
-			out = append(out, coveredSeg{s.b, s.a})
+	gone := make([]bool, len(sub))
+	var out []coveredSeg
+	for k := 0; k+1 < len(start); k++ {
+		ring := touched[start[k]:start[k+1]]
+		for i, p := range ring {
+			q := ring[(i+1)%len(ring)]
+			if p == q {
+				continue
+			}
+			if j, ok := subAt[[2]orb.Point{p, q}]; ok && !gone[j] {
+				gone[j] = true
+				continue
+			}
+			out = append(out, coveredSeg{q, p})
+		}
+	}
+	for j, sg := range sub {
+		if !gone[j] {
+			out = append(out, sg)
 		}
 	}
 	return coveredPolygons(append(coveredRings(out), whole...))
@@ -239,32 +243,42 @@ func (idx *coveredEdgeIndex) touch(q orb.Point, splits [][]coveredSplit) (p orb.
 // segments leave a point, the one turning most to the left of the
 // arriving direction is taken.
 func coveredRings(segs []coveredSeg) []orb.Ring {
-	from := make(map[orb.Point][]int32, len(segs))
-	for i, s := range segs {
-		from[s.a] = append(from[s.a], int32(i))
+	// The segments leaving each point: first[p], then along next.
+	first := make(map[orb.Point]int32, len(segs))
+	next := make([]int32, len(segs))
+	for i := len(segs) - 1; i >= 0; i-- {
+		f, ok := first[segs[i].a]
+		if !ok {
+			f = -1
+		}
+		next[i], first[segs[i].a] = f, int32(i)
 	}
 	used := make([]bool, len(segs))
 	var rings []orb.Ring
-	for start := range segs {
-		if used[start] {
+	for s0 := range segs {
+		if used[s0] {
 			continue
 		}
-		used[start] = true
-		ring := orb.Ring{segs[start].a}
-		cur := start
+		used[s0] = true
+		ring := orb.Ring{segs[s0].a}
+		cur := s0
 		for {
 			p := segs[cur].b
-			if p == segs[start].a {
+			if p == segs[s0].a {
 				break
 			}
 			ring = append(ring, p)
-			next := coveredNext(segs, from[p], used, segs[cur])
-			if next < 0 {
+			f, ok := first[p]
+			if !ok {
+				f = -1
+			}
+			nx := coveredNext(segs, f, next, used, segs[cur])
+			if nx < 0 {
 				ring = nil // an open chain: the outlines did not match up
 				break
 			}
-			used[next] = true
-			cur = int(next)
+			used[nx] = true
+			cur = int(nx)
 		}
 		if len(ring) >= 3 {
 			rings = append(rings, append(ring, ring[0]))
@@ -273,12 +287,13 @@ func coveredRings(segs []coveredSeg) []orb.Ring {
 	return rings
 }
 
-// coveredNext picks the unused segment among cands that turns most to the
-// left from the direction of in; −1 when none is left.
-func coveredNext(segs []coveredSeg, cands []int32, used []bool, in coveredSeg) int32 {
+// coveredNext picks the unused segment among those leaving a point (c,
+// then along next) that turns most to the left from the direction of in;
+// −1 when none is left.
+func coveredNext(segs []coveredSeg, c int32, next []int32, used []bool, in coveredSeg) int32 {
 	best, bestAng := int32(-1), 0.0
 	dx, dy := in.b[0]-in.a[0], in.b[1]-in.a[1]
-	for _, c := range cands {
+	for ; c >= 0; c = next[c] {
 		if used[c] {
 			continue
 		}

@@ -163,6 +163,7 @@ func BenchmarkFiles(b *testing.B) {
 			{"service-areas", func() error { return s.writeLayer(io.Discard, s.serviceAreasLayer(), nil) }},
 			{"gaps", func() error { return s.writeLayer(io.Discard, s.gapsLayer(), nil) }},
 			{"hole-closings", func() error { return s.writeLayer(io.Discard, s.holesLayer(), nil) }},
+			{"covered", func() error { return s.writeLayer(io.Discard, s.coveredLayer(), nil) }},
 		} {
 			b.Run(mode.name+"/"+f.name, func(b *testing.B) {
 				peak := startPeakHeap()
