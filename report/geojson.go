@@ -23,6 +23,7 @@
 package report
 
 import (
+	"bytes"
 	"cmp"
 	"fmt"
 	"io"
@@ -75,7 +76,14 @@ func (l *geoJSON) feature(g orb.Geometry, fields []gpkg.Field, vals []any) error
 	l.b = append(l.b, `,"properties":{`...)
 	for i, f := range fields {
 		l.b = kv(l.b, f.Name, i == 0)
+		n := len(l.b)
 		l.b = appendValue(l.b, vals[i])
+		if f.Type == gpkg.Real && vals[i] != nil && !bytes.ContainsAny(l.b[n:], ".en") {
+			// A whole number in a REAL field keeps a decimal point, so a
+			// reader that guesses types (GDAL) makes the field real, as in
+			// the GeoPackage, whatever the values.
+			l.b = append(l.b, ".0"...)
+		}
 	}
 	l.b = append(l.b, "}}"...)
 	if len(l.b) < geoJSONFlush {
