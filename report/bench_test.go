@@ -5,10 +5,14 @@
 package report
 
 import (
+	"io"
 	"math"
 	"math/rand/v2"
+	"runtime"
+	"runtime/metrics"
 	"sync"
 	"testing"
+	"time"
 
 	"github.com/paulmach/orb"
 	"github.com/sitecover/sitecover/coverage"
@@ -51,16 +55,71 @@ func BenchmarkMaps(b *testing.B) {
 	}
 }
 
-// BenchmarkWriteNoPNG writes report.txt, summary.json and the GeoJSON
-// layers for 100 000 sites (the part of `analyze` after the analysis).
+// BenchmarkWriteNoPNG writes report.txt, summary.json, the GeoJSON
+// layers and the GeoPackage for 100 000 sites (the part of `analyze` after the analysis).
 func BenchmarkWriteNoPNG(b *testing.B) {
 	an := bigScene(b)
 	dir := b.TempDir()
+	peak := startPeakHeap()
 	b.ResetTimer()
 	for range b.N {
 		if _, err := WriteAnalysis(dir, an, Meta{Planar: true}, Options{}); err != nil {
 			b.Fatal(err)
 		}
+	}
+	reportPerSite(b, peak, len(an.Layout.Sites))
+}
+
+// peakHeap samples the live heap (runtime/metrics, cheap enough to read
+// every millisecond) from its start until stop, keeping the largest value
+// above the heap at the start: the memory the measured code held at once.
+type peakHeap struct {
+	base, peak uint64
+	before     runtime.MemStats
+	done       chan struct{}
+	wg         sync.WaitGroup
+}
+
+// heapSampleEvery is how often peakHeap reads the heap size; an allocation
+// freed within one interval can be missed, which matters little for the
+// megabyte buffers this measures.
+const heapSampleEvery = time.Millisecond
+
+func startPeakHeap() *peakHeap {
+	runtime.GC()
+	p := &peakHeap{done: make(chan struct{})}
+	sample := []metrics.Sample{{Name: "/memory/classes/heap/objects:bytes"}}
+	metrics.Read(sample)
+	p.base = sample[0].Value.Uint64()
+	runtime.ReadMemStats(&p.before)
+	p.wg.Go(func() {
+		t := time.NewTicker(heapSampleEvery)
+		defer t.Stop()
+		for {
+			select {
+			case <-p.done:
+				return
+			case <-t.C:
+				metrics.Read(sample)
+				p.peak = max(p.peak, sample[0].Value.Uint64())
+			}
+		}
+	})
+	return p
+}
+
+// reportPerSite stops p and reports the bytes allocated per site and per
+// run (B/site) and the peak live heap above the start per site
+// (peak-B/site).
+func reportPerSite(b *testing.B, p *peakHeap, sites int) {
+	close(p.done)
+	p.wg.Wait()
+	var after runtime.MemStats
+	runtime.ReadMemStats(&after)
+	n := float64(sites) * float64(b.N)
+	b.ReportMetric(float64(after.TotalAlloc-p.before.TotalAlloc)/n, "B/site")
+	if p.peak > p.base {
+		b.ReportMetric(float64(p.peak-p.base)/float64(sites), "peak-B/site")
 	}
 }
 
@@ -79,8 +138,8 @@ func BenchmarkCharts(b *testing.B) {
 	}
 }
 
-// BenchmarkFiles produces each text and GeoJSON output for 100 000 sites
-// in memory (no file system), for geographic output (lon/lat through the
+// BenchmarkFiles streams each text and GeoJSON output for 100 000 sites
+// to io.Discard (no file system, no GeoPackage), for geographic output (lon/lat through the
 // inverse projection) and planar output.
 func BenchmarkFiles(b *testing.B) {
 	an := bigScene(b)
@@ -93,23 +152,27 @@ func BenchmarkFiles(b *testing.B) {
 		{"planar", Meta{Planar: true}},
 	} {
 		s := newScene(an.Layout, an, mode.m)
+		s.listMax = SummaryListMax
 		for _, f := range []struct {
 			name string
-			make func() ([]byte, error)
+			make func() error
 		}{
-			{"report.txt", func() ([]byte, error) { return s.text(), nil }},
-			{"summary.json", func() ([]byte, error) { return Summary(an, mode.m).MarshalIndent() }},
-			{"sites", s.sitesLayer},
-			{"service-areas", s.serviceAreasLayer},
-			{"gaps", s.gapsLayer},
-			{"hole-closings", s.holesLayer},
+			{"report.txt", func() error { return s.writeTextTo(io.Discard) }},
+			{"summary.json", func() error { return writeDoc(io.Discard, s.summary()) }},
+			{"sites", func() error { return s.writeLayer(io.Discard, s.sitesLayer(), nil) }},
+			{"service-areas", func() error { return s.writeLayer(io.Discard, s.serviceAreasLayer(), nil) }},
+			{"gaps", func() error { return s.writeLayer(io.Discard, s.gapsLayer(), nil) }},
+			{"hole-closings", func() error { return s.writeLayer(io.Discard, s.holesLayer(), nil) }},
+			{"covered", func() error { return s.writeLayer(io.Discard, s.coveredLayer(), nil) }},
 		} {
 			b.Run(mode.name+"/"+f.name, func(b *testing.B) {
+				peak := startPeakHeap()
 				for range b.N {
-					if _, err := f.make(); err != nil {
+					if err := f.make(); err != nil {
 						b.Fatal(err)
 					}
 				}
+				reportPerSite(b, peak, len(an.Layout.Sites))
 			})
 		}
 	}

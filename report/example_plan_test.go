@@ -53,6 +53,7 @@ func ExampleWritePlan() {
 	// sites-xy.geojson
 	// failures-xy.geojson
 	// failures.csv
+	// sitecover.gpkg
 	// manifest.json
 	// survives any single failure at 79.06 m
 }

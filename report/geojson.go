@@ -1,5 +1,6 @@
-// GeoJSON layers (RFC 7946): sites, service areas, gaps and hole-closing
-// points (and the planning layers of plan_layers.go).
+// GeoJSON layers (RFC 7946): sites, service areas, gaps, hole-closing
+// points and the covered area (and the planning layers of
+// plan_layers.go).
 //
 // Geometry is mapped vertex by vertex from the local plane to WGS84 with
 // Meta.ToLonLat and rounded to 7 decimals (RFC 7946 §11.2 recommends
@@ -22,31 +23,39 @@
 package report
 
 import (
+	"bytes"
+	"cmp"
 	"fmt"
+	"io"
 	"math"
+	"slices"
 	"strconv"
 	"strings"
 
 	"github.com/paulmach/orb"
+	"github.com/sitecover/sitecover/coverage"
 	"github.com/sitecover/sitecover/planar"
+	"github.com/sitecover/sitecover/report/gpkg"
 )
 
-// layer builds one FeatureCollection as JSON text. The encoder is written
+// geoJSON writes one FeatureCollection to a stream. The encoder is written
 // out by hand (positions with strconv's shortest round-trip formatting of
 // the already rounded values, so a 7-decimal value prints with at most 7
 // decimals) because reflection-based encoding of 10⁵ features costs more
-// than the analysis; the tests decode every layer with orb/geojson.
-type layer struct {
+// than the analysis; the tests decode every layer with orb/geojson. Text
+// gathers in a small buffer that is handed on whenever it passes
+// geoJSONFlush bytes, so a layer is never held whole in memory.
+type geoJSON struct {
+	w io.Writer
 	b []byte
 	n int
 }
 
-func (s *scene) newLayer() *layer { return s.newLayerSized(1 << 16) }
+// geoJSONFlush is the buffered size at which a layer's text is written on.
+const geoJSONFlush = 64 << 10
 
-// newLayerSized starts a layer with room for about size bytes (a large
-// layer built by doubling would copy itself many times over).
-func (s *scene) newLayerSized(size int) *layer {
-	l := &layer{b: make([]byte, 0, size)}
+func (s *scene) newGeoJSON(w io.Writer) *geoJSON {
+	l := &geoJSON{w: w, b: make([]byte, 0, 2*geoJSONFlush)}
 	l.b = append(l.b, `{"type":"FeatureCollection",`...)
 	if !s.geographic() {
 		l.b = append(l.b, `"coordinates":"local plane x/y in metres (not WGS84; not RFC 7946 longitude/latitude)",`...)
@@ -55,9 +64,9 @@ func (s *scene) newLayerSized(size int) *layer {
 	return l
 }
 
-// feature appends one feature; props appends the members of the
-// properties object (without braces).
-func (l *layer) feature(g orb.Geometry, props func(b []byte) []byte) {
+// feature writes one feature with the given fields and values (nil,
+// string, bool, float64 or an integer type).
+func (l *geoJSON) feature(g orb.Geometry, fields []gpkg.Field, vals []any) error {
 	if l.n > 0 {
 		l.b = append(l.b, ',')
 	}
@@ -65,11 +74,54 @@ func (l *layer) feature(g orb.Geometry, props func(b []byte) []byte) {
 	l.b = append(l.b, "\n"+`{"type":"Feature","geometry":`...)
 	l.b = appendGeometry(l.b, g)
 	l.b = append(l.b, `,"properties":{`...)
-	l.b = props(l.b)
+	for i, f := range fields {
+		l.b = kv(l.b, f.Name, i == 0)
+		n := len(l.b)
+		l.b = appendValue(l.b, vals[i])
+		if f.Type == gpkg.Real && vals[i] != nil && !bytes.ContainsAny(l.b[n:], ".en") {
+			// A whole number in a REAL field keeps a decimal point, so a
+			// reader that guesses types (GDAL) makes the field real, as in
+			// the GeoPackage, whatever the values.
+			l.b = append(l.b, ".0"...)
+		}
+	}
 	l.b = append(l.b, "}}"...)
+	if len(l.b) < geoJSONFlush {
+		return nil
+	}
+	_, err := l.w.Write(l.b)
+	l.b = l.b[:0]
+	return err
 }
 
-func (l *layer) bytes() []byte { return append(l.b, "\n]}\n"...) }
+// close ends the collection and writes what is left.
+func (l *geoJSON) close() error {
+	l.b = append(l.b, "\n]}\n"...)
+	_, err := l.w.Write(l.b)
+	l.b = nil
+	return err
+}
+
+// appendValue appends one property value.
+func appendValue(b []byte, v any) []byte {
+	switch v := v.(type) {
+	case nil:
+		return append(b, "null"...)
+	case string:
+		return appendStr(b, v)
+	case bool:
+		return strconv.AppendBool(b, v)
+	case float64:
+		return appendNum(b, v)
+	case int:
+		return strconv.AppendInt(b, int64(v), 10)
+	case int32:
+		return strconv.AppendInt(b, int64(v), 10)
+	case int64:
+		return strconv.AppendInt(b, v, 10)
+	}
+	panic(fmt.Sprintf("report: layer property of type %T", v)) // a programming error: every producer passes the types above
+}
 
 func appendGeometry(b []byte, g orb.Geometry) []byte {
 	switch g := g.(type) {
@@ -185,19 +237,7 @@ func appendStr(b []byte, s string) []byte {
 	return append(b, '"')
 }
 
-func appendInts(b []byte, v []int) []byte {
-	b = append(b, '[')
-	for i, x := range v {
-		if i > 0 {
-			b = append(b, ',')
-		}
-		b = strconv.AppendInt(b, int64(x), 10)
-	}
-	return append(b, ']')
-}
-
-// kv appends "key": followed by the value appended by f, with a leading
-// comma unless first.
+// kv appends "key": with a leading comma unless first.
 func kv(b []byte, key string, first bool) []byte {
 	if !first {
 		b = append(b, ',')
@@ -207,81 +247,128 @@ func kv(b []byte, key string, first bool) []byte {
 	return append(b, `":`...)
 }
 
-func (s *scene) sitesLayer() ([]byte, error) {
-	l := s.newLayer()
-	tri := s.l.Tri
-	for i, p := range s.l.Sites {
-		dup := -1
-		if tri != nil && i < len(tri.Vertex) {
-			if src := int(tri.Source[tri.Vertex[i]]); src != i {
-				dup = src
+// sitesLayer is every input site: its input index, name and, for a site at
+// exactly the position of an earlier one, that site's index (−1 for none).
+func (s *scene) sitesLayer() *layerDef {
+	return &layerDef{geom: gpkg.Point,
+		fields: fieldList("site", gpkg.Integer, "name", gpkg.Text, "duplicate_of", gpkg.Integer),
+		each: func(emit emitFunc) error {
+			tri := s.l.Tri
+			for i, p := range s.l.Sites {
+				dup := -1
+				if tri != nil && i < len(tri.Vertex) {
+					if src := int(tri.Source[tri.Vertex[i]]); src != i {
+						dup = src
+					}
+				}
+				if err := emit(orb.Point(s.point(p)), i, s.name(i), dup); err != nil {
+					return err
+				}
 			}
-		}
-		l.feature(orb.Point(s.point(p)), func(b []byte) []byte {
-			b = strconv.AppendInt(kv(b, "site", true), int64(i), 10)
-			b = appendStr(kv(b, "name", false), s.name(i))
-			return strconv.AppendInt(kv(b, "duplicate_of", false), int64(dup), 10)
-		})
-	}
-	return l.bytes(), nil
+			return nil
+		}}
 }
 
-func (s *scene) serviceAreasLayer() ([]byte, error) {
-	// About 26 bytes a position and 200 of properties a feature.
-	l := s.newLayerSized(13*len(s.l.Cells.XY) + 200*len(s.cells) + 1<<16)
-	for i, c := range s.cells {
-		mp := s.multiPolygon(s.l.Cells.Polygons(c.Vertex))
-		if len(mp) == 0 {
-			continue
-		}
-		l.feature(mp, func(b []byte) []byte {
-			b = strconv.AppendInt(kv(b, "site", true), int64(c.Site), 10)
-			b = appendStr(kv(b, "name", false), s.name(c.Site))
-			b = appendNum(kv(b, "area_m2", false), c.Area)
-			b = appendNum(kv(b, "share", false), c.Share)
-			b = appendNum(kv(b, "farthest_m", false), c.Farthest)
-			b = appendPos(kv(b, "farthest_point", false), orb.Point(s.farthestOut(i)))
-			return appendInts(kv(b, "merged", false), c.Merged)
-		})
-	}
-	return l.bytes(), nil
+// serviceAreasLayer is the service area of each distinct site position;
+// merged lists the duplicates merged into it (ListSeparator between).
+func (s *scene) serviceAreasLayer() *layerDef {
+	f := append([]any{"site", gpkg.Integer, "name", gpkg.Text, "area_m2", gpkg.Real, "share", gpkg.Real, "farthest_m", gpkg.Real},
+		s.coordFields("farthest")...)
+	return &layerDef{geom: gpkg.MultiPolygon,
+		fields: fieldList(append(f, "merged", gpkg.Text)...),
+		each: func(emit emitFunc) error {
+			for i, c := range s.cells {
+				mp := s.multiPolygon(s.l.Cells.Polygons(c.Vertex))
+				if len(mp) == 0 {
+					continue
+				}
+				far := s.farthestOut(i)
+				if err := emit(mp, c.Site, s.name(c.Site), c.Area, c.Share, c.Farthest, far[0], far[1], joinInts(c.Merged)); err != nil {
+					return err
+				}
+			}
+			return nil
+		}}
 }
 
-func (s *scene) gapsLayer() ([]byte, error) {
-	l := s.newLayer()
-	for gi, g := range s.a.Gaps {
-		mp := s.multiPolygon(g.Outline)
-		if len(mp) == 0 {
-			continue
-		}
-		l.feature(mp, func(b []byte) []byte {
-			b = strconv.AppendInt(kv(b, "id", true), int64(g.ID), 10)
-			b = appendNum(kv(b, "area_m2", false), g.Area)
-			b = appendNum(kv(b, "closing_range_m", false), g.ClosingRange)
-			b = appendPos(kv(b, "deepest_point", false), orb.Point(s.deepestOut(gi)))
-			b = strconv.AppendBool(kv(b, "touches_boundary", false), g.TouchesBoundary)
-			b = appendInts(kv(b, "sites", false), g.Sites)
-			return appendNum(kv(b, "range_m", false), s.a.Range)
-		})
-	}
-	return l.bytes(), nil
+// gapFields are the fields of a gaps layer.
+func (s *scene) gapFields() []gpkg.Field {
+	f := append([]any{"id", gpkg.Integer, "area_m2", gpkg.Real, "closing_range_m", gpkg.Real}, s.coordFields("deepest")...)
+	return fieldList(append(f, "touches_boundary", gpkg.Boolean, "sites", gpkg.Text, "range_m", gpkg.Real)...)
 }
 
-func (s *scene) holesLayer() ([]byte, error) {
-	l := s.newLayer()
-	if p := s.a.Persistence; p != nil {
-		for i, h := range p.Holes {
-			note := s.holeNote(i)
-			l.feature(orb.Point(s.closingOut(i)), func(b []byte) []byte {
-				b = appendNum(kv(b, "birth_m", true), h.Birth)
-				b = appendNum(kv(b, "death_m", false), h.Death)
-				b = appendNum(kv(b, "lifetime_m", false), h.Death-h.Birth)
-				b = appendStr(kv(b, "note", false), note)
-				return appendInts(kv(b, "birth_sites", false), h.BirthSites[:])
-			})
-		}
-	}
-	return l.bytes(), nil
+// gapLayer is a gaps layer for gaps at range r; deepest gives gap i's
+// deepest point in output coordinates.
+func (s *scene) gapLayer(gaps []coverage.Gap, r float64, deepest func(i int) Point) *layerDef {
+	return &layerDef{geom: gpkg.MultiPolygon, fields: s.gapFields(),
+		each: func(emit emitFunc) error {
+			for gi, g := range gaps {
+				mp := s.multiPolygon(g.Outline)
+				if len(mp) == 0 {
+					continue
+				}
+				d := deepest(gi)
+				if err := emit(mp, g.ID, g.Area, g.ClosingRange, d[0], d[1], g.TouchesBoundary, joinInts(g.Sites), r); err != nil {
+					return err
+				}
+			}
+			return nil
+		}}
+}
+
+func (s *scene) gapsLayer() *layerDef { return s.gapLayer(s.a.Gaps, s.a.Range, s.deepestOut) }
+
+// holesLayer is the closing point of each hole of the union of disks.
+func (s *scene) holesLayer() *layerDef {
+	return &layerDef{geom: gpkg.Point,
+		fields: fieldList("birth_m", gpkg.Real, "death_m", gpkg.Real, "lifetime_m", gpkg.Real, "note", gpkg.Text, "birth_sites", gpkg.Text),
+		each: func(emit emitFunc) error {
+			p := s.a.Persistence
+			if p == nil {
+				return nil
+			}
+			for i, h := range p.Holes {
+				if err := emit(orb.Point(s.closingOut(i)), h.Birth, h.Death, h.Death-h.Birth, s.holeNote(i), joinInts(h.BirthSites[:])); err != nil {
+					return err
+				}
+			}
+			return nil
+		}}
+}
+
+// coveredLayer is the covered part of the area at the planned range
+// (coverage.Layout.Covered: the area less the gap outlines, so inside the
+// true covered part by at most the chord tolerance), one feature per
+// connected covered part, largest first by outline area.
+func (s *scene) coveredLayer() *layerDef {
+	return &layerDef{geom: gpkg.MultiPolygon,
+		fields: fieldList("part", gpkg.Integer, "outline_area_m2", gpkg.Real, "range_m", gpkg.Real),
+		each: func(emit emitFunc) error {
+			parts := s.l.Covered(s.a.Gaps)
+			area := make([]float64, len(parts))
+			for i, p := range parts {
+				for _, r := range p {
+					area[i] += planar.RingArea(planar.FlatRing(r))
+				}
+			}
+			order := make([]int, len(parts))
+			for i := range order {
+				order[i] = i
+			}
+			slices.SortStableFunc(order, func(a, b int) int { return cmp.Compare(area[b], area[a]) })
+			n := 0
+			for _, i := range order {
+				mp := s.multiPolygon(orb.MultiPolygon{parts[i]})
+				if len(mp) == 0 {
+					continue
+				}
+				n++
+				if err := emit(mp, n, area[i], s.a.Range); err != nil {
+					return err
+				}
+			}
+			return nil
+		}}
 }
 
 // multiPolygon converts a local-plane multipolygon to output coordinates,

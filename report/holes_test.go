@@ -40,13 +40,20 @@ func TestHoleMarks(t *testing.T) {
 			if got := Summary(an, Meta{Planar: true}).Holes[0].Note; got != c.want {
 				t.Errorf("summary.json note %q, want %q", got, c.want)
 			}
-			layer, err := s.holesLayer()
-			if err != nil {
-				t.Fatal(err)
-			}
+			layer := layerText(t, s, s.holesLayer())
 			if !strings.Contains(string(layer), `"note":"`+c.want+`"`) {
 				t.Errorf("hole-closings layer lacks note %q: %s", c.want, layer)
 			}
 		})
 	}
+}
+
+// layerText encodes a layer as GeoJSON text (no GeoPackage).
+func layerText(t *testing.T, s *scene, d *layerDef) string {
+	t.Helper()
+	var b strings.Builder
+	if err := s.writeLayer(&b, d, nil); err != nil {
+		t.Fatal(err)
+	}
+	return b.String()
 }

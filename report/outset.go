@@ -406,21 +406,10 @@ func (o *outputSet) discard() {
 // storeFile writes b to path (a new file in the staging folder), synced,
 // and returns its size and SHA-256 checksum.
 func storeFile(path string, b []byte) (int64, string, error) {
-	f, err := os.OpenFile(path, os.O_WRONLY|os.O_CREATE|os.O_EXCL, 0o644)
-	if err != nil {
-		return 0, "", unwrapPath(err)
-	}
-	if _, err = f.Write(b); err == nil {
-		err = f.Sync()
-	}
-	if cerr := f.Close(); err == nil {
-		err = cerr
-	}
-	if err != nil {
-		return 0, "", unwrapPath(err)
-	}
-	sum := sha256.Sum256(b)
-	return int64(len(b)), hex.EncodeToString(sum[:]), nil
+	return storeStream(path, func(w io.Writer) error {
+		_, err := w.Write(b)
+		return err
+	})
 }
 
 // syncFolder flushes a folder's entries to disk.

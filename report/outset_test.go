@@ -18,19 +18,19 @@ func writeSet(t *testing.T, dir string, files map[string]string, fail string) er
 	var steps []step
 	for n, content := range files {
 		names = append(names, n)
-		steps = append(steps, step{n, func() ([]byte, error) {
+		steps = append(steps, step{name: n, write: fromBytes(func() ([]byte, error) {
 			if n == fail {
 				return nil, errors.New("injected failure")
 			}
 			return []byte(content), nil
-		}})
+		})})
 	}
 	names = append(names, FileManifest)
 	w, err := newWriter(dir, names, Meta{Command: "test", Arguments: []string{"--x"}}, nil)
 	if err != nil {
 		return err
 	}
-	return w.writeAll(steps)
+	return w.writeAll(nil, steps)
 }
 
 // listDir returns the names in dir, and fails on staging debris beside it.
@@ -151,7 +151,7 @@ func TestAbortWrites(t *testing.T) {
 	if _, err := os.Stat(stage); !errors.Is(err, os.ErrNotExist) {
 		t.Errorf("staging folder left after abort: %v", err)
 	}
-	if err := w.writeAll([]step{{FileReport, func() ([]byte, error) { return []byte("x"), nil }}}); err == nil {
+	if err := w.writeAll(nil, []step{{name: FileReport, write: fromBytes(func() ([]byte, error) { return []byte("x"), nil })}}); err == nil {
 		t.Error("write after abort succeeded")
 	}
 	if got := listDir(t, dir); len(got) != 0 {

@@ -20,6 +20,7 @@ package report
 
 import (
 	"fmt"
+	"io"
 
 	"github.com/paulmach/orb"
 	"github.com/sitecover/sitecover/coverage"
@@ -139,6 +140,7 @@ func PlanFiles(move Move, m Meta, opt Options) []string {
 		f = append(f, LayerFile(FileAssignment, m.Planar), LayerFile(FileDeviceLoad, m.Planar), FileAssignmentCSV, FileDeviceLoadCSV)
 		png = FileMapAssignment
 	}
+	f = append(f, FileGeoPackage)
 	if opt.Maps && png != "" {
 		f = append(f, png)
 	}
@@ -194,44 +196,45 @@ func WritePlan(dir string, p *Plan, m Meta, opt Options) ([]string, error) {
 	}
 	s := newPlanScene(p, m)
 	s.files = files
+	s.listMax = SummaryListMax
 	steps := []step{
-		{FileReport, func() ([]byte, error) { return s.planText(), nil }},
-		{FileSummary, func() ([]byte, error) { return s.planSummary().MarshalIndent() }},
-		{LayerFile(FileSites, m.Planar), s.sitesLayer},
+		{name: FileReport, write: s.writePlanTextTo},
+		{name: FileSummary, write: func(out io.Writer) error { return writeDoc(out, s.planSummary()) }},
+		s.layerStep(FileSites, s.sitesLayer()),
 	}
-	lf := func(name string) string { return LayerFile(name, m.Planar) }
 	width := mapWidth(opt)
 	var drawMap func(int) ([]byte, error)
 	switch p.Move {
 	case MoveAdd, MoveFewest:
 		steps = append(steps,
-			step{lf(FileProposed), s.proposedLayer},
-			step{lf(FileGapsBefore), func() ([]byte, error) { return s.gapLayer(p.GapsBefore), nil }},
-			step{lf(FileGapsAfter), func() ([]byte, error) { return s.gapLayer(p.GapsAfter), nil }})
+			s.layerStep(FileProposed, s.proposedLayer()),
+			s.layerStep(FileGapsBefore, s.planGapLayer(p.GapsBefore)),
+			s.layerStep(FileGapsAfter, s.planGapLayer(p.GapsAfter)))
 		drawMap = s.suggestionMap
 	case MoveCandidates:
 		steps = append(steps,
-			step{lf(FileCandidates), s.candidatesLayer},
-			step{lf(FileGapsBefore), func() ([]byte, error) { return s.gapLayer(p.GapsBefore), nil }},
-			step{lf(FileGapsAfter), func() ([]byte, error) { return s.gapLayer(p.Choice.Remaining), nil }})
+			s.layerStep(FileCandidates, s.candidatesLayer()),
+			s.layerStep(FileGapsBefore, s.planGapLayer(p.GapsBefore)),
+			s.layerStep(FileGapsAfter, s.planGapLayer(p.Choice.Remaining)))
 		drawMap = s.candidateMap
 	case MoveFailures:
 		steps = append(steps,
-			step{lf(FileFailures), s.failuresLayer},
-			step{FileFailuresCSV, s.failuresCSV})
+			s.layerStep(FileFailures, s.failuresLayer()),
+			step{name: FileFailuresCSV, write: s.failuresCSV})
 		drawMap = s.failureMap
 	case MoveAssign:
 		steps = append(steps,
-			step{lf(FileAssignment), s.assignmentLayer},
-			step{lf(FileDeviceLoad), s.loadLayer},
-			step{FileAssignmentCSV, s.assignmentCSV},
-			step{FileDeviceLoadCSV, s.loadCSV})
+			s.layerStep(FileAssignment, s.assignmentLayer()),
+			s.layerStep(FileDeviceLoad, s.loadLayer()),
+			step{name: FileAssignmentCSV, write: s.assignmentCSV},
+			step{name: FileDeviceLoadCSV, write: s.loadCSV})
 		drawMap = s.assignmentMap
 	}
+	steps = append(steps, step{name: FileGeoPackage, gpkg: true})
 	if opt.Maps {
-		steps = append(steps, step{files[len(files)-2], func() ([]byte, error) { return drawMap(width) }}) // the map, before manifest.json
+		steps = append(steps, step{name: files[len(files)-2], write: fromBytes(func() ([]byte, error) { return drawMap(width) })}) // the map, before manifest.json
 	}
-	err = w.writeAll(steps)
+	err = w.writeAll(s.scene, steps)
 	return w.done, err
 }
 

@@ -14,166 +14,145 @@
 package report
 
 import (
-	"bytes"
 	"encoding/csv"
+	"io"
 	"math"
-	"slices"
 	"strconv"
 
 	"github.com/paulmach/orb"
 	"github.com/sitecover/sitecover/coverage"
+	"github.com/sitecover/sitecover/report/gpkg"
 )
 
-// gapLayer is a gaps layer for the given gaps at the plan's range.
-func (s *planScene) gapLayer(gaps []coverage.Gap) []byte {
-	l := s.newLayer()
-	for _, g := range gaps {
-		mp := s.multiPolygon(g.Outline)
-		if len(mp) == 0 {
-			continue
-		}
-		l.feature(mp, func(b []byte) []byte {
-			b = strconv.AppendInt(kv(b, "id", true), int64(g.ID), 10)
-			b = appendNum(kv(b, "area_m2", false), g.Area)
-			b = appendNum(kv(b, "closing_range_m", false), g.ClosingRange)
-			b = appendPos(kv(b, "deepest_point", false), orb.Point(s.point(g.Deepest)))
-			b = strconv.AppendBool(kv(b, "touches_boundary", false), g.TouchesBoundary)
-			b = appendInts(kv(b, "sites", false), g.Sites)
-			return appendNum(kv(b, "range_m", false), s.p.Range)
-		})
-	}
-	return l.bytes()
+// planGapLayer is a gaps layer for the given gaps at the plan's range.
+func (s *planScene) planGapLayer(gaps []coverage.Gap) *layerDef {
+	return s.gapLayer(gaps, s.p.Range, func(i int) Point { return s.point(gaps[i].Deepest) })
 }
 
-func (s *planScene) proposedLayer() ([]byte, error) {
-	l := s.newLayer()
+// proposedLayer is each added device, in the order added.
+func (s *planScene) proposedLayer() *layerDef {
 	sg := s.p.Suggestion
-	for j, st := range sg.Steps {
-		l.feature(orb.Point(s.point(st.Added)), func(b []byte) []byte {
-			b = strconv.AppendInt(kv(b, "n", true), int64(j+1), 10)
-			b = appendNum(kv(b, "full_cover_before_m", false), st.FullCoverBefore)
-			b = appendNum(kv(b, "full_cover_after_m", false), st.FullCoverAfter)
-			b = appendNum(kv(b, "covered_fraction_before", false), st.CoveredBefore)
-			b = appendNum(kv(b, "covered_fraction_after", false), st.CoveredAfter)
-			b = appendNum(kv(b, "uncovered_before_m2", false), st.UncoveredBefore)
-			b = appendNum(kv(b, "uncovered_after_m2", false), st.UncoveredAfter)
-			return appendNum(kv(b, "range_m", false), sg.Range)
-		})
-	}
-	return l.bytes(), nil
+	return &layerDef{geom: gpkg.Point,
+		fields: fieldList("n", gpkg.Integer, "full_cover_before_m", gpkg.Real, "full_cover_after_m", gpkg.Real,
+			"covered_fraction_before", gpkg.Real, "covered_fraction_after", gpkg.Real,
+			"uncovered_before_m2", gpkg.Real, "uncovered_after_m2", gpkg.Real, "range_m", gpkg.Real),
+		each: func(emit emitFunc) error {
+			for j, st := range sg.Steps {
+				if err := emit(orb.Point(s.point(st.Added)), j+1, st.FullCoverBefore, st.FullCoverAfter,
+					st.CoveredBefore, st.CoveredAfter, st.UncoveredBefore, st.UncoveredAfter, sg.Range); err != nil {
+					return err
+				}
+			}
+			return nil
+		}}
 }
 
-func (s *planScene) candidatesLayer() ([]byte, error) {
+// candidatesLayer is every candidate spot; pick_order is its place among
+// the picked ones (−1 and a null gain for a spot not picked).
+func (s *planScene) candidatesLayer() *layerDef {
 	p, ch := s.p, s.p.Choice
-	order := make([]int, len(p.Candidates))
-	gain := make([]float64, len(p.Candidates))
-	for i := range order {
-		order[i], gain[i] = -1, math.NaN()
-	}
-	for j, c := range ch.Picked {
-		order[c], gain[c] = j+1, ch.Gains[j]
-	}
-	l := s.newLayer()
-	for i, c := range p.Candidates {
-		l.feature(orb.Point(s.point(c)), func(b []byte) []byte {
-			b = strconv.AppendInt(kv(b, "candidate", true), int64(i), 10)
-			b = appendStr(kv(b, "name", false), p.CandidateNames[i])
-			b = strconv.AppendBool(kv(b, "picked", false), order[i] > 0)
-			b = strconv.AppendInt(kv(b, "order", false), int64(order[i]), 10)
-			b = appendNum(kv(b, "gain_m2", false), gain[i])
-			return appendNum(kv(b, "range_m", false), ch.Range)
-		})
-	}
-	return l.bytes(), nil
+	return &layerDef{geom: gpkg.Point,
+		fields: fieldList("candidate", gpkg.Integer, "name", gpkg.Text, "picked", gpkg.Boolean, "pick_order", gpkg.Integer,
+			"gain_m2", gpkg.Real, "range_m", gpkg.Real),
+		each: func(emit emitFunc) error {
+			order := make([]int, len(p.Candidates))
+			gain := make([]float64, len(p.Candidates))
+			for i := range order {
+				order[i], gain[i] = -1, math.NaN()
+			}
+			for j, c := range ch.Picked {
+				order[c], gain[c] = j+1, ch.Gains[j]
+			}
+			for i, c := range p.Candidates {
+				if err := emit(orb.Point(s.point(c)), i, p.CandidateNames[i], order[i] > 0, order[i], gain[i], ch.Range); err != nil {
+					return err
+				}
+			}
+			return nil
+		}}
 }
 
-func (s *planScene) failuresLayer() ([]byte, error) {
+// failuresLayer is each device ranked by the effect of its failure.
+func (s *planScene) failuresLayer() *layerDef {
 	fr := s.p.Failures
-	l := s.newLayer()
-	for k, d := range fr.Devices {
-		l.feature(orb.Point(s.point(s.l.Sites[d.Site])), func(b []byte) []byte {
-			b = strconv.AppendInt(kv(b, "rank", true), int64(k+1), 10)
-			b = strconv.AppendInt(kv(b, "site", false), int64(d.Site), 10)
-			b = appendStr(kv(b, "name", false), s.name(d.Site))
-			b = strconv.AppendBool(kv(b, "shared", false), d.Shared)
-			b = appendNum(kv(b, "service_area_m2", false), d.ServiceArea)
-			b = appendNum(kv(b, "added_uncovered_m2", false), d.AddedUncovered)
-			b = appendNum(kv(b, "uncovered_area_m2", false), d.Uncovered)
-			b = appendNum(kv(b, "closing_range_m", false), d.ClosingRange)
-			b = appendPos(kv(b, "deepest_point", false), orb.Point(s.point(d.Deepest)))
-			b = strconv.AppendInt(kv(b, "backup", false), int64(d.Backup), 10)
-			b = appendNum(kv(b, "full_cover_range_m", false), d.FullCover)
-			return appendNum(kv(b, "range_m", false), fr.Range)
-		})
-	}
-	return l.bytes(), nil
+	f := append([]any{"rank", gpkg.Integer, "site", gpkg.Integer, "name", gpkg.Text, "shared", gpkg.Boolean,
+		"service_area_m2", gpkg.Real, "added_uncovered_m2", gpkg.Real, "uncovered_area_m2", gpkg.Real,
+		"closing_range_m", gpkg.Real}, s.coordFields("deepest")...)
+	return &layerDef{geom: gpkg.Point,
+		fields: fieldList(append(f, "backup", gpkg.Integer, "full_cover_range_m", gpkg.Real, "range_m", gpkg.Real)...),
+		each: func(emit emitFunc) error {
+			for k, d := range fr.Devices {
+				dp := s.point(d.Deepest)
+				if err := emit(orb.Point(s.point(s.l.Sites[d.Site])), k+1, d.Site, s.name(d.Site), d.Shared,
+					d.ServiceArea, d.AddedUncovered, d.Uncovered, d.ClosingRange, dp[0], dp[1],
+					d.Backup, d.FullCover, fr.Range); err != nil {
+					return err
+				}
+			}
+			return nil
+		}}
 }
 
-func (s *planScene) assignmentLayer() ([]byte, error) {
+// assignmentLayer is a line from each demand point to its device.
+func (s *planScene) assignmentLayer() *layerDef {
 	p, a := s.p, s.p.Assignment
 	ranged := s.hasRange()
-	l := s.newLayer()
-	l.b = slices.Grow(l.b, 260*len(p.Demand)) // one feature is about 250 bytes
-	for i, q := range p.Demand {
-		dev := s.l.Sites[a.Device[i]]
-		line := orb.LineString{orb.Point(s.point(q)), orb.Point(s.point(dev))}
-		l.feature(line, func(b []byte) []byte {
-			b = strconv.AppendInt(kv(b, "point", true), int64(i), 10)
-			b = appendStr(kv(b, "name", false), s.demandName(i))
-			b = strconv.AppendInt(kv(b, "device", false), int64(a.Device[i]), 10)
-			b = appendStr(kv(b, "device_name", false), s.name(a.Device[i]))
-			b = appendNum(kv(b, "distance_m", false), a.Distance[i])
-			b = kv(b, "within_range", false)
-			if ranged {
-				b = strconv.AppendBool(b, a.Within[i])
-			} else {
-				b = append(b, "null"...)
+	return &layerDef{geom: gpkg.LineString,
+		fields: fieldList("point", gpkg.Integer, "name", gpkg.Text, "device", gpkg.Integer, "device_name", gpkg.Text,
+			"distance_m", gpkg.Real, "within_range", gpkg.Boolean, "weight", gpkg.Real),
+		each: func(emit emitFunc) error {
+			for i, q := range p.Demand {
+				dev := s.l.Sites[a.Device[i]]
+				line := orb.LineString{orb.Point(s.point(q)), orb.Point(s.point(dev))}
+				var within any
+				if ranged {
+					within = a.Within[i]
+				}
+				if err := emit(line, i, s.demandName(i), a.Device[i], s.name(a.Device[i]), a.Distance[i], within, a.Weight[i]); err != nil {
+					return err
+				}
 			}
-			return appendNum(kv(b, "weight", false), a.Weight[i])
-		})
-	}
-	return l.bytes(), nil
+			return nil
+		}}
 }
 
-func (s *planScene) loadLayer() ([]byte, error) {
+// loadLayer is each device with the demand assigned to it.
+func (s *planScene) loadLayer() *layerDef {
 	a := s.p.Assignment
 	ranged := s.hasRange()
-	l := s.newLayer()
-	for i, ld := range a.Load {
-		l.feature(orb.Point(s.point(s.l.Sites[i])), func(b []byte) []byte {
-			b = strconv.AppendInt(kv(b, "device", true), int64(i), 10)
-			b = appendStr(kv(b, "name", false), s.name(i))
-			b = strconv.AppendInt(kv(b, "count", false), int64(ld.Count), 10)
-			b = appendNum(kv(b, "weight", false), ld.Weight)
-			if ranged {
-				b = strconv.AppendInt(kv(b, "in_range", false), int64(ld.InRange), 10)
-				return appendNum(kv(b, "in_range_weight", false), ld.InRangeWeight)
+	return &layerDef{geom: gpkg.Point,
+		fields: fieldList("device", gpkg.Integer, "name", gpkg.Text, "count", gpkg.Integer, "weight", gpkg.Real,
+			"in_range", gpkg.Integer, "in_range_weight", gpkg.Real),
+		each: func(emit emitFunc) error {
+			for i, ld := range a.Load {
+				var in, inw any
+				if ranged {
+					in, inw = ld.InRange, ld.InRangeWeight
+				}
+				if err := emit(orb.Point(s.point(s.l.Sites[i])), i, s.name(i), ld.Count, ld.Weight, in, inw); err != nil {
+					return err
+				}
 			}
-			b = append(kv(b, "in_range", false), "null"...)
-			return append(kv(b, "in_range_weight", false), "null"...)
-		})
-	}
-	return l.bytes(), nil
+			return nil
+		}}
 }
 
-// csvTable collects the rows of one CSV file.
+// csvTable writes the rows of one CSV file to a stream.
 type csvTable struct {
-	b bytes.Buffer
 	w *csv.Writer
 }
 
-func newCSV(head ...string) *csvTable {
-	t := &csvTable{}
-	t.w = csv.NewWriter(&t.b)
+func newCSV(out io.Writer, head ...string) *csvTable {
+	t := &csvTable{w: csv.NewWriter(out)}
 	t.w.Write(head)
 	return t
 }
 
 func (t *csvTable) row(cells ...string) { t.w.Write(cells) }
 
-func (t *csvTable) bytes() ([]byte, error) {
+func (t *csvTable) close() error {
 	t.w.Flush()
-	return t.b.Bytes(), t.w.Error()
+	return t.w.Error()
 }
 
 // csvNum formats a number at full precision ("" when not finite).
@@ -198,11 +177,11 @@ func (s *planScene) coordCells(p orb.Point) []string {
 	return []string{csvNum(q[0]), csvNum(q[1])}
 }
 
-func (s *planScene) failuresCSV() ([]byte, error) {
+func (s *planScene) failuresCSV(out io.Writer) error {
 	fr := s.p.Failures
 	head := append([]string{"rank", "site", "name", "shared", "service_area_m2", "uncovered_area_m2", "added_uncovered_m2",
 		"closing_range_m", "backup", "backup_name", "full_cover_range_m", "range_m"}, s.coordHeads("deepest_")...)
-	t := newCSV(head...)
+	t := newCSV(out, head...)
 	for k, d := range fr.Devices {
 		backup := ""
 		if d.Backup >= 0 {
@@ -212,13 +191,13 @@ func (s *planScene) failuresCSV() ([]byte, error) {
 			csvNum(d.ServiceArea), csvNum(d.Uncovered), csvNum(d.AddedUncovered), csvNum(d.ClosingRange),
 			backup, s.name(d.Backup), csvNum(d.FullCover), csvNum(fr.Range)}, s.coordCells(d.Deepest)...)...)
 	}
-	return t.bytes()
+	return t.close()
 }
 
-func (s *planScene) assignmentCSV() ([]byte, error) {
+func (s *planScene) assignmentCSV(out io.Writer) error {
 	p, a := s.p, s.p.Assignment
 	ranged := s.hasRange()
-	t := newCSV(append([]string{"point", "name", "device", "device_name", "distance_m", "within_range", "weight"}, s.coordHeads("")...)...)
+	t := newCSV(out, append([]string{"point", "name", "device", "device_name", "distance_m", "within_range", "weight"}, s.coordHeads("")...)...)
 	for i, q := range p.Demand {
 		in := ""
 		if ranged {
@@ -227,13 +206,13 @@ func (s *planScene) assignmentCSV() ([]byte, error) {
 		t.row(append([]string{strconv.Itoa(i), s.demandName(i), strconv.Itoa(a.Device[i]), s.name(a.Device[i]),
 			csvNum(a.Distance[i]), in, csvNum(a.Weight[i])}, s.coordCells(q)...)...)
 	}
-	return t.bytes()
+	return t.close()
 }
 
-func (s *planScene) loadCSV() ([]byte, error) {
+func (s *planScene) loadCSV(out io.Writer) error {
 	a := s.p.Assignment
 	ranged := s.hasRange()
-	t := newCSV(append([]string{"device", "device_name", "count", "weight", "in_range", "in_range_weight"}, s.coordHeads("")...)...)
+	t := newCSV(out, append([]string{"device", "device_name", "count", "weight", "in_range", "in_range_weight"}, s.coordHeads("")...)...)
 	for i, ld := range a.Load {
 		in, inw := "", ""
 		if ranged {
@@ -241,5 +220,5 @@ func (s *planScene) loadCSV() ([]byte, error) {
 		}
 		t.row(append([]string{strconv.Itoa(i), s.name(i), strconv.Itoa(ld.Count), csvNum(ld.Weight), in, inw}, s.coordCells(s.l.Sites[i])...)...)
 	}
-	return t.bytes()
+	return t.close()
 }

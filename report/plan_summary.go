@@ -91,8 +91,12 @@ type SuggestionsDoc struct {
 	UncoveredAfterM2      float64 `json:"uncovered_area_after_m2"`
 	// GapsBefore and GapsAfter are the gaps at RangeM without and with the
 	// additions.
-	GapsBefore []SummaryGap `json:"gaps_before"`
-	GapsAfter  []SummaryGap `json:"gaps_after"`
+	// (each the first SummaryListMax in summary.json, beside the count
+	// of all; the gaps layers hold every one).
+	GapsBefore      []SummaryGap `json:"gaps_before"`
+	GapsBeforeTotal int          `json:"gaps_before_total"`
+	GapsAfter       []SummaryGap `json:"gaps_after"`
+	GapsAfterTotal  int          `json:"gaps_after_total"`
 	// FewestFields holds the figures of the "fewest" mode.
 	*FewestFields
 }
@@ -157,8 +161,12 @@ type CandidatesDoc struct {
 	Exhausted bool `json:"exhausted"`
 	// GapsBefore are the gaps without picks; Remaining those left with
 	// them (empty when Complete).
-	GapsBefore []SummaryGap `json:"gaps_before"`
-	Remaining  []SummaryGap `json:"remaining"`
+	// (each the first SummaryListMax in summary.json, beside the count
+	// of all; the gaps layers hold every one).
+	GapsBefore      []SummaryGap `json:"gaps_before"`
+	GapsBeforeTotal int          `json:"gaps_before_total"`
+	Remaining       []SummaryGap `json:"remaining"`
+	RemainingTotal  int          `json:"remaining_total"`
 	// Evaluations counts marginal-area evaluations (lazy greedy).
 	Evaluations int `json:"evaluations"`
 }
@@ -180,8 +188,11 @@ type PickedCandidate struct {
 
 // FailureFields are the failures members of summary.json.
 type FailureFields struct {
-	// Failures lists every device, worst failure first.
-	Failures []DeviceFailureDoc `json:"failures"`
+	// Failures lists the devices, worst failure first (in summary.json
+	// the first SummaryListMax; FailuresTotal counts them all and
+	// failures.csv and the failures layer list every one).
+	Failures      []DeviceFailureDoc `json:"failures"`
+	FailuresTotal int                `json:"failures_total"`
 	// SurviveAnySingleFailureM is the range at which the area stays fully
 	// covered whichever single device fails (null with one device);
 	// SurvivePoint is where it is needed and SurviveSite the device whose
@@ -240,8 +251,11 @@ type AssignmentDoc struct {
 	// Farthest is the demand item farthest from its device (null when
 	// there is none).
 	Farthest *AssignedPoint `json:"farthest"`
-	// Load holds one entry per device, in input order.
-	Load []DeviceLoadDoc `json:"load"`
+	// Load holds one entry per device, in input order (in summary.json
+	// the first SummaryListMax; LoadTotal counts them all and
+	// device-load.csv and the device-load layer list every one).
+	Load      []DeviceLoadDoc `json:"load"`
+	LoadTotal int             `json:"load_total"`
 }
 
 // AssignedPoint is one demand item and its serving device.
@@ -291,8 +305,8 @@ func finite(v float64) *float64 {
 func ptr[T any](v T) *T { return &v }
 
 func (s *planScene) summaryGaps(gaps []coverage.Gap) []SummaryGap {
-	out := make([]SummaryGap, 0, len(gaps))
-	for i := range gaps {
+	out := make([]SummaryGap, 0, s.listed(len(gaps)))
+	for i := range s.listed(len(gaps)) {
 		out = append(out, s.summaryGap(&gaps[i], s.point(gaps[i].Deepest)))
 	}
 	return out
@@ -367,7 +381,9 @@ func (s *planScene) suggestionsDoc() *SuggestionsDoc {
 		UncoveredBeforeM2:     sg.UncoveredBefore,
 		UncoveredAfterM2:      sg.UncoveredAfter,
 		GapsBefore:            s.summaryGaps(p.GapsBefore),
+		GapsBeforeTotal:       len(p.GapsBefore),
 		GapsAfter:             s.summaryGaps(p.GapsAfter),
+		GapsAfterTotal:        len(p.GapsAfter),
 	}
 	if p.Move == MoveAdd {
 		d.Requested = p.Requested
@@ -429,7 +445,9 @@ func (s *planScene) candidatesDoc() *CandidatesDoc {
 		Complete:              ch.Complete,
 		Exhausted:             ch.Exhausted,
 		GapsBefore:            s.summaryGaps(p.GapsBefore),
+		GapsBeforeTotal:       len(p.GapsBefore),
 		Remaining:             s.summaryGaps(ch.Remaining),
+		RemainingTotal:        len(ch.Remaining),
 		Evaluations:           ch.Evaluations,
 	}
 	cum := cumulative(ch)
@@ -450,12 +468,13 @@ func (s *planScene) candidatesDoc() *CandidatesDoc {
 func (s *planScene) failureFields() *FailureFields {
 	fr := s.p.Failures
 	f := &FailureFields{
-		Failures:                 make([]DeviceFailureDoc, 0, len(fr.Devices)),
+		Failures:                 make([]DeviceFailureDoc, 0, s.listed(len(fr.Devices))),
+		FailuresTotal:            len(fr.Devices),
 		SurviveAnySingleFailureM: finite(fr.SurviveRange),
 		SurvivePoint:             s.point(fr.SurvivePoint),
 		SurviveSite:              fr.SurviveSite,
 	}
-	for k, d := range fr.Devices {
+	for k, d := range fr.Devices[:s.listed(len(fr.Devices))] {
 		f.Failures = append(f.Failures, DeviceFailureDoc{
 			Rank:             k + 1,
 			Site:             d.Site,
@@ -481,7 +500,8 @@ func (s *planScene) assignmentDoc() *AssignmentDoc {
 		Points:      len(p.Demand),
 		Weighted:    p.Weighted,
 		Assignments: []AssignedPoint{},
-		Load:        make([]DeviceLoadDoc, len(a.Load)),
+		Load:        make([]DeviceLoadDoc, s.listed(len(a.Load))),
+		LoadTotal:   len(a.Load),
 	}
 	d.AssignmentsListed = len(p.Demand) <= MaxListedAssignments
 	if d.AssignmentsListed {
@@ -524,7 +544,7 @@ func (s *planScene) assignmentDoc() *AssignmentDoc {
 	for i := range d.Assignments {
 		d.Assignments[i] = entry(i)
 	}
-	for i, ld := range a.Load {
+	for i, ld := range a.Load[:len(d.Load)] {
 		e := DeviceLoadDoc{Device: i, Name: s.name(i), Count: ld.Count, Weight: ld.Weight}
 		if ranged {
 			e.InRange, e.InRangeWeight = ptr(ld.InRange), ptr(ld.InRangeWeight)

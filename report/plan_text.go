@@ -7,8 +7,8 @@
 package report
 
 import (
-	"bytes"
 	"fmt"
+	"io"
 	"math"
 	"strings"
 
@@ -29,35 +29,39 @@ var moveTitle = map[Move]string{
 	MoveAssign:     "Assignment of demand to devices",
 }
 
-func (s *planScene) planText() []byte {
-	var b bytes.Buffer
-	s.textTitle(&b, moveTitle[s.p.Move])
+// planText returns the whole report.txt (for the tests).
+func (s *planScene) planText() []byte { return bufferedText(s.writePlanText) }
+
+// writePlanTextTo streams report.txt to w.
+func (s *planScene) writePlanTextTo(w io.Writer) error { return streamText(w, s.writePlanText) }
+
+func (s *planScene) writePlanText(b *textBuf) {
+	s.textTitle(b, moveTitle[s.p.Move])
 	b.WriteString(numberingNote)
 	if s.m.LifeSafety {
-		section(&b, "CAUTIONS (LIFE-SAFETY DEVICES)")
+		section(b, "CAUTIONS (LIFE-SAFETY DEVICES)")
 		b.WriteString(Cautions() + "\n")
 	}
-	s.textInputs(&b)
-	s.planInputs(&b)
-	s.textTerms(&b)
-	s.textExisting(&b)
+	s.textInputs(b)
+	s.planInputs(b)
+	s.textTerms(b)
+	s.textExisting(b)
 	switch s.p.Move {
 	case MoveAdd, MoveFewest:
-		s.textSuggestion(&b)
+		s.textSuggestion(b)
 	case MoveCandidates:
-		s.textCandidates(&b)
+		s.textCandidates(b)
 	case MoveFailures:
-		s.textFailures(&b)
+		s.textFailures(b)
 	case MoveAssign:
-		s.textAssignment(&b)
+		s.textAssignment(b)
 	}
-	s.textPlanNotes(&b)
-	s.textClosing(&b, planFileNote)
-	return b.Bytes()
+	s.textPlanNotes(b)
+	s.textClosing(b, planFileNote)
 }
 
 // planInputs adds the move's own inputs under INPUTS.
-func (s *planScene) planInputs(b *bytes.Buffer) {
+func (s *planScene) planInputs(b *textBuf) {
 	kv := &kvList{}
 	switch s.p.Move {
 	case MoveCandidates:
@@ -97,7 +101,7 @@ func (s *planScene) rangeText() string {
 	return t
 }
 
-func (s *planScene) textExisting(b *bytes.Buffer) {
+func (s *planScene) textExisting(b *textBuf) {
 	p := s.p
 	section(b, "THE EXISTING LAYOUT")
 	kv := &kvList{}
@@ -121,7 +125,7 @@ func (s *planScene) textExisting(b *bytes.Buffer) {
 	kv.write(b)
 }
 
-func (s *planScene) textSuggestion(b *bytes.Buffer) {
+func (s *planScene) textSuggestion(b *textBuf) {
 	p, sg := s.p, s.p.Suggestion
 	if p.Move == MoveAdd {
 		section(b, fmt.Sprintf("%d SUGGESTED DEVICES (free placement)", len(sg.Added)))
@@ -175,7 +179,7 @@ func (s *planScene) textSuggestion(b *bytes.Buffer) {
 
 // textGapList writes a table of gaps (id, area, closing range, deepest
 // point, kind).
-func (s *planScene) textGapList(b *bytes.Buffer, title string, gaps []coverage.Gap, none string) {
+func (s *planScene) textGapList(b *textBuf, title string, gaps []coverage.Gap, none string) {
 	section(b, fmt.Sprintf("%s AT %s", title, metres(s.p.Range)))
 	if len(gaps) == 0 {
 		b.WriteString("  " + none + "\n")
@@ -187,15 +191,18 @@ func (s *planScene) textGapList(b *bytes.Buffer, title string, gaps []coverage.G
 	t.left(5)
 	total := 0.0
 	for _, g := range gaps {
-		px, py := s.pointCols(g.Deepest)
-		t.row(fmt.Sprint(g.ID), fmt.Sprintf("%.1f", g.Area), fmt.Sprintf("%.2f", g.ClosingRange), px, py, gapKind(g))
 		total += g.Area
 	}
+	t.rows(len(gaps), func(i int) {
+		g := gaps[i]
+		px, py := s.pointCols(g.Deepest)
+		t.row(fmt.Sprint(g.ID), fmt.Sprintf("%.1f", g.Area), fmt.Sprintf("%.2f", g.ClosingRange), px, py, gapKind(g))
+	})
 	t.write(b)
 	fmt.Fprintf(b, "  %s, %s in all.\n", Plural(len(gaps), "gap"), m2(total))
 }
 
-func (s *planScene) textCandidates(b *bytes.Buffer) {
+func (s *planScene) textCandidates(b *textBuf) {
 	p, ch := s.p, s.p.Choice
 	if p.Requested > 0 {
 		section(b, fmt.Sprintf("CHOICE OF %d AMONG %d CANDIDATE SPOTS AT %s", p.Requested, len(p.Candidates), metres(ch.Range)))
@@ -246,7 +253,7 @@ func (s *planScene) textCandidates(b *bytes.Buffer) {
 	s.textGapList(b, "GAPS LEFT WITH THE PICKS", ch.Remaining, "none: the picks leave no gap at this range")
 }
 
-func (s *planScene) textFailures(b *bytes.Buffer) {
+func (s *planScene) textFailures(b *textBuf) {
 	fr := s.p.Failures
 	section(b, "SURVIVING ANY SINGLE FAILURE")
 	kv := &kvList{}
@@ -270,7 +277,8 @@ func (s *planScene) textFailures(b *bytes.Buffer) {
 	hx, hy := s.pointHeads()
 	t.head("Rank", "Loss m²", "Uncovered m²", "Closing m", hx, hy, "Full cover m", "Device", "Backup")
 	t.left(7, 8)
-	for k, d := range fr.Devices {
+	t.rows(len(fr.Devices), func(k int) {
+		d := fr.Devices[k]
 		px, py := s.pointCols(d.Deepest)
 		name := s.label(d.Site)
 		if d.Shared {
@@ -282,7 +290,7 @@ func (s *planScene) textFailures(b *bytes.Buffer) {
 		}
 		t.row(fmt.Sprint(k+1), fmt.Sprintf("%.1f", d.AddedUncovered), fmt.Sprintf("%.1f", d.Uncovered),
 			metresCol(d.ClosingRange), px, py, metresCol(d.FullCover), name, backup)
-	}
+	})
 	t.write(b)
 }
 
@@ -311,7 +319,7 @@ func weightText(w float64) string {
 	return trimFloat(w)
 }
 
-func (s *planScene) textAssignment(b *bytes.Buffer) {
+func (s *planScene) textAssignment(b *textBuf) {
 	p, a := s.p, s.p.Assignment
 	ranged := s.hasRange()
 	section(b, "DEMAND SERVED")
@@ -343,13 +351,14 @@ func (s *planScene) textAssignment(b *bytes.Buffer) {
 		t.head("Items", "Weight", "Device")
 		t.left(2)
 	}
-	for i, ld := range a.Load {
+	t.rows(len(a.Load), func(i int) {
+		ld := a.Load[i]
 		if ranged {
 			t.row(fmt.Sprint(ld.Count), weightText(ld.Weight), fmt.Sprint(ld.InRange), weightText(ld.InRangeWeight), s.label(i))
 		} else {
 			t.row(fmt.Sprint(ld.Count), weightText(ld.Weight), s.label(i))
 		}
-	}
+	})
 	t.write(b)
 
 	all := len(p.Demand) <= maxDemandRows
@@ -362,8 +371,14 @@ func (s *planScene) textAssignment(b *bytes.Buffer) {
 	hx, hy := s.pointHeads()
 	t.head(hx, hy, "Distance m", "In range", "Weight", "Item", "Device")
 	t.left(5, 6)
-	rows := 0
+	var shown []int32 // the items listed (4 bytes each: the rows are formatted when written)
 	for i := range p.Demand {
+		if all || (ranged && !a.Within[i]) {
+			shown = append(shown, int32(i))
+		}
+	}
+	t.rows(len(shown), func(k int) {
+		i := int(shown[k])
 		in := "-"
 		if ranged {
 			in = "yes"
@@ -371,15 +386,11 @@ func (s *planScene) textAssignment(b *bytes.Buffer) {
 				in = "NO"
 			}
 		}
-		if !all && (!ranged || a.Within[i]) {
-			continue
-		}
 		px, py := s.pointCols(p.Demand[i])
 		t.row(px, py, fmt.Sprintf("%.2f", a.Distance[i]), in,
 			weightText(a.Weight[i]), s.demandLabel(i), s.label(a.Device[i]))
-		rows++
-	}
-	if rows == 0 {
+	})
+	if len(shown) == 0 {
 		b.WriteString("  none\n")
 		return
 	}
@@ -389,7 +400,7 @@ func (s *planScene) textAssignment(b *bytes.Buffer) {
 // demandLabel names demand item i (ItemLabel: its name, or "item n").
 func (s *planScene) demandLabel(i int) string { return ItemLabel(s.demandName(i), "item", i) }
 
-func (s *planScene) textPlanNotes(b *bytes.Buffer) {
+func (s *planScene) textPlanNotes(b *textBuf) {
 	section(b, "ACCURACY AND NOTES")
 	var lines []string
 	switch s.p.Move {

@@ -1,6 +1,7 @@
 // Package report turns a coverage analysis into the files a design review
 // reads: a fixed-width text report, a machine-readable summary.json, GIS
-// layers in GeoJSON (RFC 7946), PNG maps and PNG charts.
+// layers in GeoJSON (RFC 7946) and the same layers in one GeoPackage
+// (OGC 12-128), PNG maps and PNG charts.
 //
 // Nothing here computes coverage: every figure comes from package coverage
 // (exact to floating-point rounding unless coverage states a tolerance, and
@@ -15,14 +16,15 @@
 // layers are written under names ending in "-xy.geojson" because RFC 7946
 // requires WGS84 and a reader must not mistake them for it.
 //
-// Files are written atomically: each one goes to a temporary file in the
-// output folder and is renamed into place only when complete, so a reader
-// never sees a half-written file. A path that is one of the input files is
-// never written.
+// Files are streamed (never held whole in memory; stream.go) into a
+// staging folder that is swapped in whole when every file is complete
+// (outset.go), so a reader never sees a half-written or mixed set. A path
+// that is one of the input files is never written.
 package report
 
 import (
 	"fmt"
+	"io"
 	"strings"
 
 	"github.com/paulmach/orb"
@@ -114,6 +116,7 @@ const (
 	FileGaps            = "gaps.geojson"
 	FileHoleClosings    = "hole-closings.geojson"
 	FileSites           = "sites.geojson"
+	FileCovered         = "covered.geojson"
 	FileMapServiceAreas = "map-service-areas.png"
 	FileMapCoverage     = "map-coverage.png"
 	FileChartCurve      = "chart-coverage-curve.png"
@@ -138,8 +141,9 @@ func Files(cells bool, m Meta, opt Options) []string {
 	f = append(f, FileReport, FileSummary)
 	f = append(f, LayerFile(FileSites, m.Planar), LayerFile(FileServiceAreas, m.Planar))
 	if !cells {
-		f = append(f, LayerFile(FileGaps, m.Planar), LayerFile(FileHoleClosings, m.Planar))
+		f = append(f, LayerFile(FileGaps, m.Planar), LayerFile(FileHoleClosings, m.Planar), LayerFile(FileCovered, m.Planar))
 	}
+	f = append(f, FileGeoPackage)
 	if opt.Maps {
 		f = append(f, FileMapServiceAreas)
 		if !cells {
@@ -166,26 +170,29 @@ func WriteAnalysis(dir string, a *coverage.Analysis, m Meta, opt Options) (writt
 	}
 	s := newScene(a.Layout, a, m)
 	s.files = Files(false, m, opt)
+	s.listMax = SummaryListMax
 	steps := []step{
-		{FileReport, func() ([]byte, error) { return s.text(), nil }},
-		{FileSummary, func() ([]byte, error) { return s.summary().MarshalIndent() }},
-		{LayerFile(FileSites, m.Planar), s.sitesLayer},
-		{LayerFile(FileServiceAreas, m.Planar), s.serviceAreasLayer},
-		{LayerFile(FileGaps, m.Planar), s.gapsLayer},
-		{LayerFile(FileHoleClosings, m.Planar), s.holesLayer},
+		{name: FileReport, write: s.writeTextTo},
+		{name: FileSummary, write: func(out io.Writer) error { return writeDoc(out, s.summary()) }},
+		s.layerStep(FileSites, s.sitesLayer()),
+		s.layerStep(FileServiceAreas, s.serviceAreasLayer()),
+		s.layerStep(FileGaps, s.gapsLayer()),
+		s.layerStep(FileHoleClosings, s.holesLayer()),
+		s.layerStep(FileCovered, s.coveredLayer()),
+		{name: FileGeoPackage, gpkg: true},
 	}
 	width := mapWidth(opt)
 	if opt.Maps {
 		steps = append(steps,
-			step{FileMapServiceAreas, func() ([]byte, error) { return s.serviceAreaMap(width) }},
-			step{FileMapCoverage, func() ([]byte, error) { return s.coverageMap(width) }})
+			step{name: FileMapServiceAreas, write: fromBytes(func() ([]byte, error) { return s.serviceAreaMap(width) })},
+			step{name: FileMapCoverage, write: fromBytes(func() ([]byte, error) { return s.coverageMap(width) })})
 	}
 	if opt.Charts {
 		steps = append(steps,
-			step{FileChartCurve, func() ([]byte, error) { return s.curveChart(width) }},
-			step{FileChartHoles, func() ([]byte, error) { return s.holeChart(width) }})
+			step{name: FileChartCurve, write: fromBytes(func() ([]byte, error) { return s.curveChart(width) })},
+			step{name: FileChartHoles, write: fromBytes(func() ([]byte, error) { return s.holeChart(width) })})
 	}
-	err = w.writeAll(steps)
+	err = w.writeAll(s, steps)
 	return w.done, err
 }
 
@@ -203,24 +210,20 @@ func WriteCells(dir string, l *coverage.Layout, m Meta, opt Options) ([]string, 
 	}
 	s := newScene(l, nil, m)
 	s.files = Files(true, m, opt)
+	s.listMax = SummaryListMax
 	steps := []step{
-		{FileReport, func() ([]byte, error) { return s.text(), nil }},
-		{FileSummary, func() ([]byte, error) { return s.cellsSummary().MarshalIndent() }},
-		{LayerFile(FileSites, m.Planar), s.sitesLayer},
-		{LayerFile(FileServiceAreas, m.Planar), s.serviceAreasLayer},
+		{name: FileReport, write: s.writeTextTo},
+		{name: FileSummary, write: func(out io.Writer) error { return writeDoc(out, s.cellsSummary()) }},
+		s.layerStep(FileSites, s.sitesLayer()),
+		s.layerStep(FileServiceAreas, s.serviceAreasLayer()),
+		{name: FileGeoPackage, gpkg: true},
 	}
 	if opt.Maps {
 		width := mapWidth(opt)
-		steps = append(steps, step{FileMapServiceAreas, func() ([]byte, error) { return s.serviceAreaMap(width) }})
+		steps = append(steps, step{name: FileMapServiceAreas, write: fromBytes(func() ([]byte, error) { return s.serviceAreaMap(width) })})
 	}
-	err = w.writeAll(steps)
+	err = w.writeAll(s, steps)
 	return w.done, err
-}
-
-// step is one output file and the function producing its bytes.
-type step struct {
-	name string
-	make func() ([]byte, error)
 }
 
 func mapWidth(opt Options) int {

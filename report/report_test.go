@@ -472,8 +472,8 @@ func TestGeoJSONLayers(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if len(files) != 7 {
-		t.Errorf("wrote %v, want 7 files (6 and the manifest) without maps and charts", files)
+	if len(files) != 9 {
+		t.Errorf("wrote %v, want 9 files (7, the GeoPackage and the manifest) without maps and charts", files)
 	}
 	lonR := [2]float64{8.54 - 1e-7, 8.544 + 1e-7}
 	latR := [2]float64{47.37 - 1e-7, 47.373 + 1e-7}
@@ -498,7 +498,7 @@ func TestGeoJSONLayers(t *testing.T) {
 		t.Errorf("%d service areas, want %d", len(cells), len(g.lonlat))
 	}
 	for _, f := range cells {
-		for _, k := range []string{"site", "name", "area_m2", "share", "farthest_m"} {
+		for _, k := range []string{"site", "name", "area_m2", "share", "farthest_m", "farthest_lon", "farthest_lat", "merged"} {
 			if _, ok := f.Properties[k]; !ok {
 				t.Errorf("service area lacks property %q", k)
 			}
@@ -509,7 +509,7 @@ func TestGeoJSONLayers(t *testing.T) {
 		t.Errorf("%d gap features, analysis has %d gaps", len(gaps), len(g.an.Gaps))
 	}
 	for _, f := range gaps {
-		for _, k := range []string{"id", "area_m2", "closing_range_m", "deepest_point", "touches_boundary"} {
+		for _, k := range []string{"id", "area_m2", "closing_range_m", "deepest_lon", "deepest_lat", "touches_boundary", "sites"} {
 			if _, ok := f.Properties[k]; !ok {
 				t.Errorf("gap lacks property %q", k)
 			}
@@ -707,7 +707,7 @@ func TestWriteCells(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if len(files) != 6 {
+	if len(files) != 7 {
 		t.Errorf("wrote %v", files)
 	}
 	b, _ := os.ReadFile(filepath.Join(dir, FileSummary))

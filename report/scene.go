@@ -28,6 +28,9 @@ type scene struct {
 	m     Meta
 	cells []coverage.ServiceArea
 	files []string // output files, for the FILES section of report.txt
+	// listMax caps each long list of summary.json (0: no cap); see
+	// SummaryListMax.
+	listMax int
 
 	// The output points that several files print (report.txt,
 	// summary.json and a GeoJSON layer each), converted once on first use:
@@ -49,6 +52,14 @@ func newScene(l *coverage.Layout, a *coverage.Analysis, m Meta) *scene {
 		s.cells = l.ServiceAreas()
 	}
 	return s
+}
+
+// listed returns how many of n list entries summary.json holds.
+func (s *scene) listed(n int) int {
+	if s.listMax > 0 {
+		return min(n, s.listMax)
+	}
+	return n
 }
 
 // geographic reports whether points are written as WGS84 lon/lat.

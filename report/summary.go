@@ -14,6 +14,7 @@ import (
 	"bytes"
 	"encoding/json"
 	"fmt"
+	"io"
 	"math"
 	"strconv"
 
@@ -54,10 +55,15 @@ type SummaryDoc struct {
 	// UncoveredAreaM2 is the uncovered area at RangeM, m².
 	UncoveredAreaM2 float64 `json:"uncovered_area_m2"`
 	// Gaps are the uncovered components at RangeM, by decreasing closing
-	// range.
-	Gaps []SummaryGap `json:"gaps"`
-	// Holes are the holes of the union of disks (persistence pairs).
-	Holes []SummaryHole `json:"holes"`
+	// range (in summary.json the first SummaryListMax; GapsTotal counts
+	// them all and the gaps layer holds every one).
+	Gaps      []SummaryGap `json:"gaps"`
+	GapsTotal int          `json:"gaps_total"`
+	// Holes are the holes of the union of disks (persistence pairs; in
+	// summary.json the first SummaryListMax, HolesTotal counts them all and
+	// the hole-closings layer holds every one).
+	Holes      []SummaryHole `json:"holes"`
+	HolesTotal int           `json:"holes_total"`
 	// RangePercentiles are the ranges covering 50, 90, 95 and 99 % of the
 	// area.
 	RangePercentiles Percentiles `json:"range_percentiles"`
@@ -71,8 +77,11 @@ type SummaryDoc struct {
 	// OpenHoles is the number of holes of the union of disks open at
 	// RangeM (holes, not gaps: see report.txt TERMS).
 	OpenHoles int `json:"open_holes"`
-	// Cells are the service areas, one per distinct site position.
-	Cells []SummaryCell `json:"cells"`
+	// Cells are the service areas, one per distinct site position (in
+	// summary.json the first SummaryListMax; CellsTotal counts them all and
+	// the service-areas layer holds every one).
+	Cells      []SummaryCell `json:"cells"`
+	CellsTotal int           `json:"cells_total"`
 	// Projection describes the local plane.
 	Projection string `json:"projection"`
 	// MaxScaleError is the largest |k − 1| of the projection.
@@ -97,6 +106,7 @@ type CellsDoc struct {
 	AreaM2        float64       `json:"area_m2"`
 	AreaFromHull  bool          `json:"area_from_hull"`
 	Cells         []SummaryCell `json:"cells"`
+	CellsTotal    int           `json:"cells_total"`
 	Projection    string        `json:"projection"`
 	MaxScaleError float64       `json:"max_scale_error"`
 	Coordinates   string        `json:"coordinates"`
@@ -228,6 +238,15 @@ func (t Timings) MarshalJSON() ([]byte, error) {
 	return b.Bytes(), nil
 }
 
+// SummaryListMax is the most entries a long list of summary.json holds
+// (gaps, holes, service areas; in planning reports gaps, failures and
+// device loads): the first ones in the list's order, beside a *_total
+// count. The GeoJSON layers, the GeoPackage and the CSV tables hold every
+// entry, so summary.json stays small whatever the number of devices. The
+// documents returned by Summary, CellsSummary and PlanSummary are not
+// capped.
+const SummaryListMax = 1000
+
 // Summary builds the summary.json document of a.
 func Summary(a *coverage.Analysis, m Meta) *SummaryDoc {
 	s := newScene(a.Layout, a, m)
@@ -245,6 +264,15 @@ func (d *SummaryDoc) MarshalIndent() ([]byte, error) { return marshalDoc(d) }
 
 // MarshalIndent encodes the document as indented JSON ending in a newline.
 func (d *CellsDoc) MarshalIndent() ([]byte, error) { return marshalDoc(d) }
+
+// writeDoc writes a summary document (capped, so small) to w.
+func writeDoc(w io.Writer, v any) error {
+	b, err := marshalDoc(v)
+	if err == nil {
+		_, err = w.Write(b)
+	}
+	return err
+}
 
 func marshalDoc(v any) ([]byte, error) {
 	b, err := json.Marshal(v)
@@ -342,12 +370,14 @@ func (s *scene) summary() *SummaryDoc {
 		FullCoverRangeM:  a.FullCover.Range,
 		CoveredFraction:  a.CoveredFraction,
 		UncoveredAreaM2:  a.UncoveredArea,
-		Gaps:             make([]SummaryGap, 0, len(a.Gaps)),
+		Gaps:             make([]SummaryGap, 0, s.listed(len(a.Gaps))),
+		GapsTotal:        len(a.Gaps),
 		Holes:            make([]SummaryHole, 0),
 		RangePercentiles: s.percentiles(),
 		Pieces:           a.Pieces,
 		OpenHoles:        a.EnclosedHoles,
 		Cells:            s.summaryCells(),
+		CellsTotal:       len(s.cells),
 		Projection:       s.projection(),
 		MaxScaleError:    s.m.MaxScaleError,
 		Coordinates:      s.coordKind(),
@@ -362,13 +392,14 @@ func (s *scene) summary() *SummaryDoc {
 		d.FullCoverWorstPoint = d.FullCoverWorstPoints[0]
 	}
 	d.FullCoverNearestSites = append(make([]int, 0, len(a.FullCover.WorstSites)), a.FullCover.WorstSites...)
-	for gi := range a.Gaps {
+	for gi := range s.listed(len(a.Gaps)) {
 		d.Gaps = append(d.Gaps, s.summaryGap(&a.Gaps[gi], s.deepestOut(gi)))
 	}
 	if p := a.Persistence; p != nil {
 		d.LinkRangeM = p.LinkRange
 		d.ConnectRangeM = p.ConnectRange
-		for i, h := range p.Holes {
+		d.HolesTotal = len(p.Holes)
+		for i, h := range p.Holes[:s.listed(len(p.Holes))] {
 			d.Holes = append(d.Holes, SummaryHole{BirthM: h.Birth, DeathM: h.Death, DeathPoint: s.closingOut(i), Note: s.holeNote(i)})
 		}
 	}
@@ -385,6 +416,7 @@ func (s *scene) cellsSummary() *CellsDoc {
 		AreaM2:        s.l.AreaM2,
 		AreaFromHull:  s.m.AreaFromHull,
 		Cells:         s.summaryCells(),
+		CellsTotal:    len(s.cells),
 		Projection:    s.projection(),
 		MaxScaleError: s.m.MaxScaleError,
 		Coordinates:   s.coordKind(),
@@ -394,8 +426,8 @@ func (s *scene) cellsSummary() *CellsDoc {
 }
 
 func (s *scene) summaryCells() []SummaryCell {
-	cells := make([]SummaryCell, 0, len(s.cells))
-	for i, c := range s.cells {
+	cells := make([]SummaryCell, 0, s.listed(len(s.cells)))
+	for i, c := range s.cells[:s.listed(len(s.cells))] {
 		cells = append(cells, SummaryCell{
 			Site:          c.Site,
 			Name:          s.name(c.Site),

@@ -2,7 +2,10 @@
 //
 // A table holds its body cells as one byte slice with the end offset of
 // each cell (row-major), so a table of 10⁵ rows costs two allocations
-// that grow, not one string per cell. Column widths are counted in runes
+// that grow, not one string per cell. A long table (one row per site, gap
+// or hole) is given as a row count and a function filling row i (rows):
+// it is then formatted twice, once to measure the column widths and once
+// to write, one row in memory at a time, so its size never matters. Column widths are counted in runes
 // (UTF-8 code points), which is the display width for the names sitecover
 // prints (Latin, Greek, Cyrillic); wide East Asian characters would need
 // two columns each and are not measured specially.
@@ -29,6 +32,23 @@ type table struct {
 	// order; ends[k] is the end offset of cell k in cells.
 	cells []byte
 	ends  []int
+	// n and fill, when fill is set, give the body instead: fill(i) adds
+	// the cells of row i (see rows).
+	n    int
+	fill func(i int)
+}
+
+// rows gives the body as n rows, fill(i) adding the cells of row i with
+// str, num, int and cell; write formats each row twice (widths, then
+// text) and keeps one row at a time.
+func (t *table) rows(n int, fill func(i int)) {
+	t.n, t.fill = n, fill
+}
+
+// fillRow replaces the body by row i of a table given with rows.
+func (t *table) fillRow(i int) {
+	t.cells, t.ends = t.cells[:0], t.ends[:0]
+	t.fill(i)
 }
 
 // head sets the column headings; it must be called before any cell.
@@ -87,7 +107,7 @@ func (t *table) body(k int) []byte {
 }
 
 // write writes the headings, a rule of dashes under them and the rows.
-func (t *table) write(b *bytes.Buffer) {
+func (t *table) write(b *textBuf) {
 	n := len(t.heads)
 	if n == 0 {
 		return
@@ -96,14 +116,26 @@ func (t *table) write(b *bytes.Buffer) {
 	for i, h := range t.heads {
 		w[i] = utf8.RuneCountInString(h)
 	}
-	for k := range t.ends {
-		w[k%n] = max(w[k%n], utf8.RuneCount(t.body(k)))
+	measure := func() {
+		for k := range t.ends {
+			w[k%n] = max(w[k%n], utf8.RuneCount(t.body(k)))
+		}
+	}
+	rows := len(t.ends) / n
+	if t.fill != nil {
+		rows = t.n
+		for i := range t.n {
+			t.fillRow(i)
+			measure()
+		}
+	} else {
+		measure()
 	}
 	lineLen := 3 // indent and newline
 	for _, wi := range w {
 		lineLen += wi + 2
 	}
-	b.Grow(lineLen * (2 + len(t.ends)/n))
+	b.Grow(min(lineLen*(2+rows), textFlush)) // lines are written on every textFlush bytes
 
 	row := make([][]byte, n)
 	for i, h := range t.heads {
@@ -118,16 +150,26 @@ func (t *table) write(b *bytes.Buffer) {
 		row[i] = bytes.Repeat([]byte{'-'}, k)
 	}
 	t.line(b, w, row)
-	for k := 0; k+n <= len(t.ends); k += n {
+	if t.fill == nil {
+		for k := 0; k+n <= len(t.ends); k += n {
+			for i := range row {
+				row[i] = t.body(k + i)
+			}
+			t.line(b, w, row)
+		}
+		return
+	}
+	for r := range t.n {
+		t.fillRow(r)
 		for i := range row {
-			row[i] = t.body(k + i)
+			row[i] = t.body(i)
 		}
 		t.line(b, w, row)
 	}
 }
 
 // line writes one line of cells padded to the widths w.
-func (t *table) line(b *bytes.Buffer, w []int, cells [][]byte) {
+func (t *table) line(b *textBuf, w []int, cells [][]byte) {
 	start := b.Len()
 	b.WriteString("  ")
 	for i, c := range cells {
@@ -150,10 +192,11 @@ func (t *table) line(b *bytes.Buffer, w []int, cells [][]byte) {
 	trimmed := bytes.TrimRight(b.Bytes()[start:], " ")
 	b.Truncate(start + len(trimmed))
 	b.WriteByte('\n')
+	b.spill()
 }
 
 // spaces writes n spaces (none when n <= 0).
-func spaces(b *bytes.Buffer, n int) {
+func spaces(b *textBuf, n int) {
 	const blank = "                                                                "
 	for n > 0 {
 		k := min(n, len(blank))

@@ -1,7 +1,6 @@
 package report
 
 import (
-	"bytes"
 	"testing"
 )
 
@@ -45,7 +44,7 @@ func TestTable(t *testing.T) {
 		tb   *table
 	}{{"rows", whole}, {"cells", cells}} {
 		t.Run(tc.name, func(t *testing.T) {
-			var b bytes.Buffer
+			var b textBuf
 			tc.tb.write(&b)
 			if b.String() != want {
 				t.Errorf("%s:\n%s\nwant\n%s", tc.name, b.String(), want)

@@ -11,6 +11,7 @@ package report
 import (
 	"bytes"
 	"fmt"
+	"io"
 	"math"
 	"strconv"
 	"strings"
@@ -25,34 +26,80 @@ import (
 // sites); the full lists are in summary.json.
 const maxListed = 6
 
-func (s *scene) text() []byte {
-	var b bytes.Buffer
-	s.textHeader(&b)
+// textBuf gathers report.txt text and hands it on to w (when not nil)
+// whenever more than textFlush bytes are waiting, so a long table is never
+// held whole as text (only its cells, see table.go).
+type textBuf struct {
+	bytes.Buffer
+	w   io.Writer
+	err error
+}
+
+// textFlush is the buffered size at which report.txt text is written on.
+const textFlush = 64 << 10
+
+// spill writes the buffered text on once it passes textFlush bytes.
+func (b *textBuf) spill() {
+	if b.w != nil && b.Len() >= textFlush {
+		b.flush()
+	}
+}
+
+// flush writes the buffered text on and reports the first write error.
+func (b *textBuf) flush() error {
+	if b.w != nil && b.err == nil {
+		_, b.err = b.w.Write(b.Bytes())
+		b.Reset()
+	}
+	return b.err
+}
+
+// bufferedText returns the text write produces (for the tests).
+func bufferedText(write func(*textBuf)) []byte {
+	var b textBuf
+	write(&b)
+	return b.Bytes()
+}
+
+// streamText streams the text write produces to w.
+func streamText(w io.Writer, write func(*textBuf)) error {
+	b := &textBuf{w: w}
+	write(b)
+	return b.flush()
+}
+
+// text returns the whole report.txt (for the tests).
+func (s *scene) text() []byte { return bufferedText(s.writeText) }
+
+// writeTextTo streams report.txt to w.
+func (s *scene) writeTextTo(w io.Writer) error { return streamText(w, s.writeText) }
+
+func (s *scene) writeText(b *textBuf) {
+	s.textHeader(b)
 	if s.m.LifeSafety {
-		section(&b, "CAUTIONS (LIFE-SAFETY DEVICES)")
+		section(b, "CAUTIONS (LIFE-SAFETY DEVICES)")
 		b.WriteString(Cautions() + "\n")
 	}
-	s.textInputs(&b)
+	s.textInputs(b)
 	if s.a != nil {
-		s.textTerms(&b)
-		s.textSummary(&b)
-		s.textGaps(&b)
+		s.textTerms(b)
+		s.textSummary(b)
+		s.textGaps(b)
 	} else {
-		s.textLayoutSummary(&b)
+		s.textLayoutSummary(b)
 	}
-	s.textCells(&b)
+	s.textCells(b)
 	if s.a != nil {
-		s.textHoles(&b)
+		s.textHoles(b)
 	}
-	s.textAccuracy(&b)
-	s.textClosing(&b, analysisFileNote)
-	return b.Bytes()
+	s.textAccuracy(b)
+	s.textClosing(b, analysisFileNote)
 }
 
 // textClosing writes the sections that close every report: the warnings,
 // the output files with note(f) beside each, and the cautions (unless
 // they were put first for life-safety devices).
-func (s *scene) textClosing(b *bytes.Buffer, note func(f string) string) {
+func (s *scene) textClosing(b *textBuf, note func(f string) string) {
 	section(b, "WARNINGS")
 	if w := s.warnings(); len(w) == 0 {
 		b.WriteString("  none\n")
@@ -78,17 +125,17 @@ func analysisFileNote(f string) string {
 }
 
 // noteLines writes each line of a notes section, indented.
-func noteLines(b *bytes.Buffer, lines []string) {
+func noteLines(b *textBuf, lines []string) {
 	for _, l := range lines {
 		b.WriteString("  " + l + "\n")
 	}
 }
 
-func section(b *bytes.Buffer, title string) {
+func section(b *textBuf, title string) {
 	b.WriteString("\n" + title + "\n" + strings.Repeat("-", utf8.RuneCountInString(title)) + "\n")
 }
 
-func (s *scene) textHeader(b *bytes.Buffer) {
+func (s *scene) textHeader(b *textBuf) {
 	title := "Site coverage report"
 	if s.a == nil {
 		title = "Service-area report"
@@ -99,7 +146,7 @@ func (s *scene) textHeader(b *bytes.Buffer) {
 
 // textTitle writes the report's title (base and the report title),
 // underlined, and the line naming the program version and command.
-func (s *scene) textTitle(b *bytes.Buffer, base string) {
+func (s *scene) textTitle(b *textBuf, base string) {
 	title := s.titled(base)
 	b.WriteString(title + "\n" + strings.Repeat("=", utf8.RuneCountInString(title)) + "\n")
 	v := s.m.Version
@@ -116,7 +163,7 @@ func orDash(v string) string {
 	return v
 }
 
-func (s *scene) textInputs(b *bytes.Buffer) {
+func (s *scene) textInputs(b *textBuf) {
 	section(b, "INPUTS")
 	kv := &kvList{}
 	kv.add("Sites file", orDash(s.m.SitesFile))
@@ -154,7 +201,7 @@ func (s *scene) textInputs(b *bytes.Buffer) {
 	kv.write(b)
 }
 
-func (s *scene) textLayoutSummary(b *bytes.Buffer) {
+func (s *scene) textLayoutSummary(b *textBuf) {
 	section(b, "SERVICE AREAS IN BRIEF")
 	kv := &kvList{}
 	var largest float64
@@ -171,7 +218,7 @@ func (s *scene) textLayoutSummary(b *bytes.Buffer) {
 	kv.write(b)
 }
 
-func (s *scene) textSummary(b *bytes.Buffer) {
+func (s *scene) textSummary(b *textBuf) {
 	a := s.a
 	section(b, "COVERAGE AT THE PLANNED RANGE")
 	kv := &kvList{}
@@ -215,7 +262,7 @@ func (s *scene) textSummary(b *bytes.Buffer) {
 	kv.write(b)
 }
 
-func (s *scene) textGaps(b *bytes.Buffer) {
+func (s *scene) textGaps(b *textBuf) {
 	a := s.a
 	section(b, fmt.Sprintf("GAPS AT %s, BY CLOSING RANGE", metres(a.Range)))
 	if len(a.Gaps) == 0 {
@@ -228,7 +275,8 @@ func (s *scene) textGaps(b *bytes.Buffer) {
 	hx, hy := s.pointHeads()
 	t.head("Gap", "Area m²", "Closing m", hx, hy, "Kind", "Bordering devices")
 	t.left(5, 6)
-	for gi, g := range a.Gaps {
+	t.rows(len(a.Gaps), func(gi int) {
+		g := a.Gaps[gi]
 		t.int("", g.ID)
 		t.num(g.Area, 1)
 		t.num(g.ClosingRange, 2)
@@ -247,11 +295,11 @@ func (s *scene) textGaps(b *bytes.Buffer) {
 			t.cells = s.appendLabel(t.cells, site)
 		}
 		t.cell()
-	}
+	})
 	t.write(b)
 }
 
-func (s *scene) textCells(b *bytes.Buffer) {
+func (s *scene) textCells(b *textBuf) {
 	section(b, "SERVICE AREAS (each site's Voronoi cell within the area)")
 	if len(s.cells) == 0 {
 		b.WriteString("  none\n")
@@ -263,7 +311,8 @@ func (s *scene) textCells(b *bytes.Buffer) {
 	hx, hy := s.pointHeads()
 	t.head("Area m²", "Share %", "Farthest m", hx, hy, "Device", "Merged duplicates")
 	t.left(5, 6)
-	for ci, c := range s.cells {
+	t.rows(len(s.cells), func(ci int) {
+		c := s.cells[ci]
 		t.num(c.Area, 1)
 		t.num(100*c.Share, 3)
 		t.num(c.Farthest, 2)
@@ -276,11 +325,11 @@ func (s *scene) textCells(b *bytes.Buffer) {
 			t.cells = s.appendLabel(t.cells, i)
 		}
 		t.cell()
-	}
+	})
 	t.write(b)
 }
 
-func (s *scene) textHoles(b *bytes.Buffer) {
+func (s *scene) textHoles(b *textBuf) {
 	section(b, "HOLES OF THE UNION OF DISKS (persistence of the alpha filtration)")
 	p := s.a.Persistence
 	if p == nil || len(p.Holes) == 0 {
@@ -309,7 +358,8 @@ func (s *scene) textHoles(b *bytes.Buffer) {
 	hx, hy := s.pointHeads()
 	t.head("No", "Appears m", "Closes m", "Lifetime m", hx, hy, "At "+metresShort(r), "Note", "Ringed at appearance by")
 	t.left(6, 7, 8)
-	for i, h := range p.Holes {
+	t.rows(len(p.Holes), func(i int) {
+		h := p.Holes[i]
 		state := "open"
 		switch {
 		case r < h.Birth:
@@ -328,7 +378,7 @@ func (s *scene) textHoles(b *bytes.Buffer) {
 		t.cells = append(t.cells, ", "...)
 		t.cells = s.appendLabel(t.cells, h.BirthSites[1])
 		t.cell()
-	}
+	})
 	t.write(b)
 }
 
@@ -339,7 +389,7 @@ const briefHoleFraction = 0.01
 
 // textTerms defines, once, the two words the report keeps apart: gaps (of
 // the site) and holes (of the union of disks).
-func (s *scene) textTerms(b *bytes.Buffer) {
+func (s *scene) textTerms(b *textBuf) {
 	section(b, "TERMS")
 	noteLines(b, []string{
 		"Gap   a connected part of the site area out of reach of every device at",
@@ -440,7 +490,7 @@ func (s *scene) holeNote(i int) string {
 	return s.holeNotes[i]
 }
 
-func (s *scene) textAccuracy(b *bytes.Buffer) {
+func (s *scene) textAccuracy(b *textBuf) {
 	section(b, "ACCURACY AND NOTES")
 	lines := []string{
 		"Areas, covered share, uncovered area, gap areas, service areas and the",
@@ -477,15 +527,17 @@ func (s *scene) textAccuracy(b *bytes.Buffer) {
 // fileNote describes each output file in the FILES section.
 var fileNote = map[string]string{
 	FileReport:          "this report",
-	FileSummary:         "all figures, machine-readable",
+	FileSummary:         "all figures, machine-readable (long lists: first 1000, all in the layers)",
 	FileSites:           "device sites (points)",
 	FileServiceAreas:    "service areas (polygons) with area, share, farthest point",
 	FileGaps:            "gaps at the planned range (polygons) with their figures",
 	FileHoleClosings:    "where each hole of the union of disks closes (points)",
+	FileCovered:         "covered area at the planned range, one polygon per connected part",
 	FileMapServiceAreas: "map of the service areas",
 	FileMapCoverage:     "map of coverage and gaps at the planned range",
 	FileChartCurve:      "chart: covered share against range",
 	FileChartHoles:      "chart: hole appearance against closing range",
+	FileGeoPackage:      "every layer above in one GeoPackage (one table each, spatial index)",
 	FileManifest:        "which run made this folder: version, command, inputs with checksums, every file",
 }
 
@@ -614,7 +666,7 @@ type kvList struct{ k, v []string }
 
 func (l *kvList) add(k, v string) { l.k = append(l.k, k); l.v = append(l.v, v) }
 
-func (l *kvList) write(b *bytes.Buffer) {
+func (l *kvList) write(b *textBuf) {
 	w := 0
 	for _, k := range l.k {
 		w = max(w, utf8.RuneCountInString(k))

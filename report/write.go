@@ -1,17 +1,20 @@
-// Writing one report: the files are produced in parallel, each stored
-// (written and synced) in the staging folder of the report's output set,
-// and the set is swapped into the output folder when every file is there
-// (outset.go). Before anything is produced the writer checks that no output
-// path names an input file (by cleaned absolute path, and by device/inode
-// when both exist, which also catches hard links and symbolic links).
+// Writing one report: the files are produced in parallel, each streamed
+// (written, hashed and synced) into the staging folder of the report's
+// output set (stream.go), and the set is swapped into the output folder
+// when every file is there (outset.go). Before anything is produced the
+// writer checks that no output path names an input file (by cleaned
+// absolute path, and by device/inode when both exist, which also catches
+// hard links and symbolic links).
 
 package report
 
 import (
 	"fmt"
+	"io"
 	"os"
 	"path/filepath"
 	"runtime"
+	"slices"
 	"sync"
 )
 
@@ -55,60 +58,101 @@ func unwrapPath(err error) error {
 	return err
 }
 
+// step is one output file: a plain file written by write, a GeoJSON layer
+// (layer; its features also go into the GeoPackage), or, with gpkg set,
+// the GeoPackage itself, which the layer steps fill.
+type step struct {
+	name  string
+	write func(io.Writer) error
+	layer *layerDef
+	gpkg  bool
+}
+
 // writeAll produces and stores the files of steps, then swaps the set in.
-// Up to GOMAXPROCS steps produce their bytes at a time (a step only reads
-// the scene); each finished file is then written and synced on its own
-// goroutine, so the disk wait overlaps the next step's work. If any step
-// fails nothing is swapped in: the output folder keeps its previous set,
-// the staging folder is removed, and the error is that of the first failed
-// step in step order. On success w.done lists the files, in step order.
-func (w *writer) writeAll(steps []step) error {
+// Up to GOMAXPROCS steps run at a time (a step only reads the scene), each
+// streaming its file into the staging folder (storeStream: buffered,
+// hashed and counted as it goes, synced at the end); the layer steps also
+// insert their features into the GeoPackage, which is completed when every
+// layer is done. If any step fails nothing is swapped in: the output
+// folder keeps its previous set, the staging folder is removed, and the
+// error is that of the first failed step in step order. On success w.done
+// lists the files, in step order.
+func (w *writer) writeAll(s *scene, steps []step) error {
 	errs := make([]error, len(steps))
 	entries := make([]ManifestEntry, len(steps))
+	var gp *gpkgSet
+	gpAt := -1
+	var defs []*layerDef
+	for i, st := range steps {
+		if st.gpkg {
+			gpAt = i
+		}
+		if st.layer != nil {
+			defs = append(defs, st.layer)
+		}
+	}
+	if gpAt >= 0 {
+		var err error
+		if gp, err = s.openGeoPackage(w.set.path(steps[gpAt].name), defs); err != nil {
+			w.set.abort()
+			return fmt.Errorf("%s: cannot write: %v", w.set.finalPath(steps[gpAt].name), err)
+		}
+	}
 	workers := min(runtime.GOMAXPROCS(0), len(steps))
 	var next int
 	var mu sync.Mutex // guards next and the progress callback
-	var producing, storing sync.WaitGroup
+	var producing sync.WaitGroup
 	for range workers {
 		producing.Go(func() {
 			for {
 				mu.Lock()
 				i := next
 				next++
-				if i < len(steps) && w.progress != nil {
+				if i < len(steps) && w.progress != nil && !steps[i].gpkg {
 					w.progress(steps[i].name)
 				}
 				mu.Unlock()
 				if i >= len(steps) {
 					return
 				}
-				final := w.set.finalPath(steps[i].name)
-				b, err := steps[i].make()
-				if err != nil {
-					errs[i] = fmt.Errorf("%s: %v", final, err)
+				st := steps[i]
+				if st.gpkg {
 					continue
 				}
-				storing.Go(func() {
-					n, sum, err := storeFile(w.set.path(steps[i].name), b)
-					if err != nil {
-						errs[i] = fmt.Errorf("%s: cannot write: %v", final, err)
-						return
-					}
-					entries[i] = ManifestEntry{Path: steps[i].name, Bytes: n, SHA256: sum}
-				})
+				write := st.write
+				if st.layer != nil {
+					write = func(out io.Writer) error { return s.writeLayer(out, st.layer, gp) }
+				}
+				n, sum, err := storeStream(w.set.path(st.name), write)
+				if err != nil {
+					errs[i] = fmt.Errorf("%s: %v", w.set.finalPath(st.name), err)
+					continue
+				}
+				entries[i] = ManifestEntry{Path: st.name, Bytes: n, SHA256: sum}
 			}
 		})
 	}
 	producing.Wait()
-	storing.Wait()
-	for i := range steps {
-		if errs[i] != nil {
-			w.set.abort()
-			if Interrupted() {
-				return errAborted // the files went with the staging folder
+	failed := slices.IndexFunc(errs, func(e error) bool { return e != nil })
+	if gp != nil {
+		if failed >= 0 {
+			gp.w.Abort()
+		} else if err := w.closeGeoPackage(gp, steps[gpAt].name); err != nil {
+			errs[gpAt], failed = err, gpAt
+		} else {
+			entries[gpAt].Path = steps[gpAt].name
+			entries[gpAt].Bytes, entries[gpAt].SHA256, errs[gpAt] = hashFile(w.set.path(steps[gpAt].name))
+			if errs[gpAt] != nil {
+				failed = gpAt
 			}
-			return errs[i]
 		}
+	}
+	if failed >= 0 {
+		w.set.abort()
+		if Interrupted() {
+			return errAborted // the files went with the staging folder
+		}
+		return errs[failed]
 	}
 	man := newManifest(w.meta)
 	man.Files = entries
@@ -119,5 +163,17 @@ func (w *writer) writeAll(steps []step) error {
 		w.done = append(w.done, w.set.finalPath(st.name))
 	}
 	w.done = append(w.done, w.set.finalPath(FileManifest))
+	return nil
+}
+
+// closeGeoPackage completes the GeoPackage (its R-trees and bounding
+// boxes), reporting progress under its name.
+func (w *writer) closeGeoPackage(gp *gpkgSet, name string) error {
+	if w.progress != nil {
+		w.progress(name)
+	}
+	if err := gp.w.Close(); err != nil {
+		return fmt.Errorf("%s: cannot write: %v", w.set.finalPath(name), err)
+	}
 	return nil
 }

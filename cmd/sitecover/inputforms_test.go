@@ -12,6 +12,8 @@ import (
 	"testing"
 	"time"
 	"unicode/utf8"
+
+	"github.com/sitecover/sitecover/report/gpkg"
 )
 
 func TestWrongAnswersRefused(t *testing.T) {
@@ -74,6 +76,11 @@ func TestWindows1252CSV(t *testing.T) {
 	found := false
 	for _, e := range ents {
 		if e.IsDir() {
+			continue
+		}
+		if strings.HasSuffix(e.Name(), ".gpkg") {
+			// A binary file: its text fields must be valid UTF-8.
+			checkGeoPackageText(t, filepath.Join(out, e.Name()))
 			continue
 		}
 		b, err := os.ReadFile(filepath.Join(out, e.Name()))
@@ -175,5 +182,33 @@ func checkFastFailures(t *testing.T, cases []failureCase) {
 				t.Errorf("refused after %v, want within 2 s", d)
 			}
 		})
+	}
+}
+
+// checkGeoPackageText fails when a text field of any layer of the
+// GeoPackage at path is not valid UTF-8.
+func checkGeoPackageText(t *testing.T, path string) {
+	t.Helper()
+	r, err := gpkg.Open(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer r.Close()
+	layers, err := r.Layers()
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, l := range layers {
+		err := r.ReadLayer(l.Name, func(f gpkg.Feature) error {
+			for k, v := range f.Properties {
+				if s, ok := v.(string); ok && !utf8.ValidString(s) {
+					t.Errorf("%s layer %s feature %d: field %s is not valid UTF-8", path, l.Name, f.FID, k)
+				}
+			}
+			return nil
+		})
+		if err != nil {
+			t.Fatal(err)
+		}
 	}
 }

@@ -32,6 +32,6 @@ func ExampleLoad() {
 	// Output:
 	// Depot [gate yard roof roof] [[10 10] [90 10] [50 80] [50 80]]
 	// area 9600 m², projected: false
-	// warning: 1 site repeats the exact position of an earlier site and shares its service area: #3 roof = #2 roof
+	// warning: 1 site repeats the exact position of an earlier site and shares its service area: roof (#4) = roof (#3)
 	// true bad.csv line 3: latitude 95.2 is outside -90..90
 }

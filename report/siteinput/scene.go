@@ -450,7 +450,11 @@ func siteWarnings(sites []orb.Point, names []string, region *planar.Region) []st
 		if j, ok := first[p]; ok {
 			nDup++
 			if len(dups) < 5 {
-				dups = append(dups, fmt.Sprintf("%s = %s", label(i), label(j)))
+				a, b := label(i), label(j)
+				if a == b { // two devices of one name: tell them apart by input position
+					a, b = fmt.Sprintf("%s (#%d)", a, i+1), fmt.Sprintf("%s (#%d)", b, j+1)
+				}
+				dups = append(dups, a+" = "+b)
 			}
 			continue
 		}

@@ -1,0 +1,231 @@
+// Streamed output files: every file of a report is written through a
+// buffered writer straight into its staging file, and hashed (SHA-256) and
+// counted on the way for the manifest, so no file is ever held whole in
+// memory.
+//
+// Layers: one feature stream, two encoders. A layer is described once
+// (layerDef: its GeoPackage table name, geometry type, fields and the
+// function producing its features in order); each feature is produced
+// once and written both as GeoJSON (geojson.go) into the layer's own file
+// and into the run's GeoPackage (FileGeoPackage, package gpkg), so the two
+// always hold the same features with the same fields. Property values are
+// plain: text, integer, real, boolean or null (a missing value, or a
+// number that is not finite); never an array or an object.
+
+package report
+
+import (
+	"bufio"
+	"crypto/sha256"
+	"encoding/hex"
+	"hash"
+	"io"
+	"math"
+	"os"
+	"strconv"
+	"strings"
+	"sync"
+
+	"github.com/paulmach/orb"
+	"github.com/sitecover/sitecover/report/gpkg"
+)
+
+// streamBuffer is the size of the buffer between a producer and its file:
+// large enough that writes are few, small against any output.
+const streamBuffer = 256 << 10
+
+// hashingFile counts and hashes what is written to its file.
+type hashingFile struct {
+	f *os.File
+	h hash.Hash
+	n int64
+}
+
+func (w *hashingFile) Write(p []byte) (int, error) {
+	n, err := w.f.Write(p)
+	w.h.Write(p[:n])
+	w.n += int64(n)
+	return n, err
+}
+
+// storeStream creates path (a new file in the staging folder), lets write
+// fill it through a buffer, syncs it and returns its size and SHA-256
+// checksum.
+func storeStream(path string, write func(io.Writer) error) (int64, string, error) {
+	f, err := os.OpenFile(path, os.O_WRONLY|os.O_CREATE|os.O_EXCL, 0o644)
+	if err != nil {
+		return 0, "", unwrapPath(err)
+	}
+	hf := &hashingFile{f: f, h: sha256.New()}
+	bw := bufio.NewWriterSize(hf, streamBuffer)
+	err = write(bw)
+	if err == nil {
+		err = bw.Flush()
+	}
+	if err == nil {
+		err = f.Sync()
+	}
+	if cerr := f.Close(); err == nil {
+		err = cerr
+	}
+	if err != nil {
+		return 0, "", unwrapPath(err)
+	}
+	return hf.n, hex.EncodeToString(hf.h.Sum(nil)), nil
+}
+
+// hashFile returns the size and SHA-256 checksum of a finished file (the
+// GeoPackage, which SQLite writes itself), read in a stream.
+func hashFile(path string) (int64, string, error) {
+	f, err := os.Open(path)
+	if err != nil {
+		return 0, "", unwrapPath(err)
+	}
+	defer f.Close()
+	h := sha256.New()
+	n, err := io.Copy(h, f)
+	if err != nil {
+		return 0, "", unwrapPath(err)
+	}
+	return n, hex.EncodeToString(h.Sum(nil)), nil
+}
+
+// fromBytes adapts a producer of a whole file (a PNG map or chart, which
+// the image encoder builds in memory anyway) to a step.
+func fromBytes(make func() ([]byte, error)) func(io.Writer) error {
+	return func(w io.Writer) error {
+		b, err := make()
+		if err != nil {
+			return err
+		}
+		_, err = w.Write(b)
+		return err
+	}
+}
+
+// FileGeoPackage is the GeoPackage (OGC 12-128) holding every layer of a
+// report, one table per GeoJSON layer (the table name is the layer's
+// file name without "-xy" and ".geojson", with "-" turned into "_"): in
+// WGS 84 (EPSG:4326) for geographic runs, in the undefined Cartesian
+// system (srs_id −1, local metres) for planar ones, each table with an
+// R-tree spatial index.
+const FileGeoPackage = "sitecover.gpkg"
+
+// ListSeparator separates the items of a list written as one text
+// property of a layer (the input indices of sites, e.g. "3;17;42").
+const ListSeparator = ";"
+
+// emitFunc receives one feature of a layer: its geometry in output
+// coordinates and one value per field of the layer (nil for none).
+type emitFunc func(g orb.Geometry, vals ...any) error
+
+// layerDef is one output layer.
+type layerDef struct {
+	table  string            // GeoPackage table name
+	geom   gpkg.GeometryType // declared geometry type
+	fields []gpkg.Field      // property names and types, in order
+	each   func(emit emitFunc) error
+}
+
+// tableName returns the GeoPackage table of a GeoJSON layer file name.
+func tableName(file string) string {
+	return strings.ReplaceAll(strings.TrimSuffix(file, ".geojson"), "-", "_")
+}
+
+// layerStep is the step writing the GeoJSON layer file (name depends on
+// Meta.Planar) of def.
+func (s *scene) layerStep(file string, def *layerDef) step {
+	def.table = tableName(file)
+	return step{name: LayerFile(file, s.m.Planar), layer: def}
+}
+
+// fieldList builds a field list from name/type pairs.
+func fieldList(nt ...any) []gpkg.Field {
+	out := make([]gpkg.Field, 0, len(nt)/2)
+	for i := 0; i+1 < len(nt); i += 2 {
+		out = append(out, gpkg.Field{Name: nt[i].(string), Type: nt[i+1].(gpkg.FieldType)})
+	}
+	return out
+}
+
+// coordFields are the two numeric fields of a point property with the
+// given prefix: prefix_lon, prefix_lat (WGS84 degrees) or prefix_x,
+// prefix_y (local metres).
+func (s *scene) coordFields(prefix string) []any {
+	if s.geographic() {
+		return []any{prefix + "_lon", gpkg.Real, prefix + "_lat", gpkg.Real}
+	}
+	return []any{prefix + "_x", gpkg.Real, prefix + "_y", gpkg.Real}
+}
+
+// joinInts writes a list of input indices as one text value.
+func joinInts(v []int) string {
+	var b []byte
+	for i, x := range v {
+		if i > 0 {
+			b = append(b, ListSeparator...)
+		}
+		b = strconv.AppendInt(b, int64(x), 10)
+	}
+	return string(b)
+}
+
+// gpkgSet is the GeoPackage of a report being written by the layer steps.
+type gpkgSet struct {
+	mu     sync.Mutex // the writer is not safe for concurrent use
+	w      *gpkg.Writer
+	layers map[*layerDef]*gpkg.Layer
+}
+
+// openGeoPackage creates the GeoPackage at path with a table per layer
+// def, in order.
+func (s *scene) openGeoPackage(path string, defs []*layerDef) (*gpkgSet, error) {
+	w, err := gpkg.Create(path, gpkg.Options{})
+	if err != nil {
+		return nil, err
+	}
+	srs := gpkg.UndefinedCartesian
+	if s.geographic() {
+		srs = gpkg.WGS84
+	}
+	g := &gpkgSet{w: w, layers: map[*layerDef]*gpkg.Layer{}}
+	for _, d := range defs {
+		l, err := w.AddLayer(gpkg.LayerSpec{Name: d.table, Geometry: d.geom, SRS: srs, Fields: d.fields, SpatialIndex: true})
+		if err != nil {
+			w.Abort()
+			return nil, err
+		}
+		g.layers[d] = l
+	}
+	return g, nil
+}
+
+// writeLayer produces the features of d once and writes each as GeoJSON
+// to out and, when g is not nil, into its GeoPackage table.
+func (s *scene) writeLayer(out io.Writer, d *layerDef, g *gpkgSet) error {
+	gj := s.newGeoJSON(out)
+	var gl *gpkg.Layer
+	if g != nil {
+		gl = g.layers[d]
+	}
+	err := d.each(func(geom orb.Geometry, vals ...any) error {
+		for i, v := range vals {
+			if f, ok := v.(float64); ok && (math.IsNaN(f) || math.IsInf(f, 0)) {
+				vals[i] = nil
+			}
+		}
+		if err := gj.feature(geom, d.fields, vals); err != nil {
+			return err
+		}
+		if gl == nil {
+			return nil
+		}
+		g.mu.Lock()
+		defer g.mu.Unlock()
+		return gl.Insert(geom, vals...)
+	})
+	if err != nil {
+		return err
+	}
+	return gj.close()
+}
