@@ -40,12 +40,48 @@ func (l *Layout) FullCover() FullCover {
 // device (the scale of the powers compared), and points within fcTieRel
 // of R_max merged.
 func (l *Layout) fullCover(powers bool) FullCover {
+	R, S := l.fcLargest(powers)
+	fc := FullCover{Range: R}
+	if !powers && R == 0 || powers && S == 0 {
+		return fc
+	}
+	thr := R * (1 - fcTieRel)
+	tol := fcTieRel * R
+	if powers {
+		thr, tol = R-fcTieRel*S*S, fcTieRel*S
+	}
+	kept := fcMergeCopies(l.fcCandidates(powers, thr, tol), tol)
+	slices.SortStableFunc(kept, func(a, b fcCand) int {
+		switch {
+		case a.d != b.d:
+			return -cmp.Compare(a.d, b.d)
+		case a.x != b.x:
+			return cmp.Compare(a.x, b.x)
+		}
+		return cmp.Compare(a.y, b.y)
+	})
+	fc.Worst = make([]orb.Point, len(kept))
+	fc.WorstSites = make([]int, len(kept))
+	for i, p := range kept {
+		fc.Worst[i] = orb.Point{p.x, p.y}
+		fc.WorstSites[i] = int(p.src)
+	}
+	return fc
+}
+
+// fcChunk is the number of vertices per parallel chunk of the full-cover
+// passes.
+const fcChunk = 4096
+
+// fcLargest returns the largest distance (or, with powers, power) from a
+// cell vertex to its device over all cells, and with powers the distance
+// S of the vertex attaining it (the scale of the powers compared).
+func (l *Layout) fcLargest(powers bool) (R, S float64) {
 	nv := l.numVertices()
-	const chunk = 4096
-	nc := (nv + chunk - 1) / chunk
+	nc := (nv + fcChunk - 1) / fcChunk
 	best := make([]float64, nc)
 	scale := make([]float64, nc)
-	planar.ParallelChunks(nv, chunk, 0, func(ci, lo, hi int) {
+	planar.ParallelChunks(nv, fcChunk, 0, func(ci, lo, hi int) {
 		m := 0.0
 		if powers {
 			m = math.Inf(-1)
@@ -69,7 +105,6 @@ func (l *Layout) fullCover(powers bool) FullCover {
 		}
 		best[ci] = m
 	})
-	R, S := 0.0, 0.0
 	if powers {
 		R = math.Inf(-1)
 	}
@@ -79,24 +114,26 @@ func (l *Layout) fullCover(powers bool) FullCover {
 		}
 		S = math.Max(S, scale[ci])
 	}
-	fc := FullCover{Range: R}
-	if !powers && R == 0 || powers && S == 0 {
-		return fc
-	}
-	thr := R * (1 - fcTieRel)
-	tol := fcTieRel * R
-	if powers {
-		thr, tol = R-fcTieRel*S*S, fcTieRel*S
-	}
-	type cand struct {
-		x, y, d float64
-		src     int32
-		qx      int64
-	}
-	parts := make([][]cand, nc)
+	return R, S
+}
+
+// fcCand is a cell vertex whose distance (or power) d reaches the
+// full-cover threshold; qx is its x cell of side tol for merging copies.
+type fcCand struct {
+	x, y, d float64
+	src     int32
+	qx      int64
+}
+
+// fcCandidates returns the cell vertices at distance (or power) ≥ thr from
+// their device, each shared vertex emitted once where possible.
+func (l *Layout) fcCandidates(powers bool, thr, tol float64) []fcCand {
+	nv := l.numVertices()
+	nc := (nv + fcChunk - 1) / fcChunk
+	parts := make([][]fcCand, nc)
 	c := l.Cells
-	planar.ParallelChunks(nv, chunk, 0, func(ci, lo, hi int) {
-		var out []cand
+	planar.ParallelChunks(nv, fcChunk, 0, func(ci, lo, hi int) {
+		var out []fcCand
 		for v := int32(lo); v < int32(hi); v++ {
 			p0, p1 := c.SiteStart[v], c.SiteStart[v+1]
 			if p0 == p1 {
@@ -123,7 +160,7 @@ func (l *Layout) fullCover(powers bool) FullCover {
 					}
 					// A vertex between two bisector edges is shared with
 					// those neighbours: emit it from the smallest vertex
-					// index only (copies that slip through are merged below).
+					// index only (copies that slip through are merged later).
 					prev := i - 1
 					if i == i0 {
 						prev = i1 - 1
@@ -131,20 +168,24 @@ func (l *Layout) fullCover(powers bool) FullCover {
 					if a, b := c.EdgeSource[prev], c.EdgeSource[i]; (a >= 0 && a < v) || (b >= 0 && b < v) {
 						continue
 					}
-					out = append(out, cand{px, py, d, l.Tri.Source[v], int64(math.Floor(px / tol))})
+					out = append(out, fcCand{px, py, d, l.Tri.Source[v], int64(math.Floor(px / tol))})
 				}
 			}
 		}
 		parts[ci] = out
 	})
-	var all []cand
+	var all []fcCand
 	for _, p := range parts {
 		all = append(all, p...)
 	}
-	parts = nil
-	// Merge copies closer than tol: sorted by (x cell, y), a copy of a point
-	// is in its own x cell within tol in y, or in the previous x cell.
-	slices.SortFunc(all, func(a, b cand) int {
+	return all
+}
+
+// fcMergeCopies drops candidates within tol (in x and y) of an earlier
+// kept one. Sorted by (x cell, y), a copy of a point is in its own x cell
+// within tol in y, or in the previous x cell. O(m log m).
+func fcMergeCopies(all []fcCand, tol float64) []fcCand {
+	slices.SortFunc(all, func(a, b fcCand) int {
 		switch {
 		case a.qx != b.qx:
 			return cmp.Compare(a.qx, b.qx)
@@ -177,7 +218,7 @@ func (l *Layout) fullCover(powers bool) FullCover {
 		}
 		if !dup[i] && prevStart < curStart {
 			seg := all[prevStart:curStart]
-			j, _ := slices.BinarySearchFunc(seg, p.y-tol, func(a cand, y float64) int { return cmp.Compare(a.y, y) })
+			j, _ := slices.BinarySearchFunc(seg, p.y-tol, func(a fcCand, y float64) int { return cmp.Compare(a.y, y) })
 			for ; j < len(seg) && seg[j].y <= p.y+tol; j++ {
 				if !dup[prevStart+j] && math.Abs(seg[j].x-p.x) <= tol {
 					dup[i] = true
@@ -192,20 +233,5 @@ func (l *Layout) fullCover(powers bool) FullCover {
 			kept = append(kept, all[i])
 		}
 	}
-	slices.SortStableFunc(kept, func(a, b cand) int {
-		switch {
-		case a.d != b.d:
-			return -cmp.Compare(a.d, b.d)
-		case a.x != b.x:
-			return cmp.Compare(a.x, b.x)
-		}
-		return cmp.Compare(a.y, b.y)
-	})
-	fc.Worst = make([]orb.Point, len(kept))
-	fc.WorstSites = make([]int, len(kept))
-	for i, p := range kept {
-		fc.Worst[i] = orb.Point{p.x, p.y}
-		fc.WorstSites[i] = int(p.src)
-	}
-	return fc
+	return kept
 }
