@@ -373,124 +373,148 @@ func printPlan(w io.Writer, d *report.PlanDoc, m report.Meta, mode printMode) {
 	}
 	switch d.Move {
 	case report.MoveAdd, report.MoveFewest:
-		s := d.Suggestions
-		if d.Move == report.MoveAdd {
-			line("suggested devices", "%d new + %d existing", len(s.Added), s.Existing)
-		} else {
-			switch {
-			case len(s.Added) == 0 && s.Reached:
-				line("fewest additions", "none needed: no gap at %s m", fmtNum(s.RangeM, 2))
-			case s.Reached:
-				line("fewest additions", "%d (%s) for no gap at %s m, %s in all", len(s.Added), s.Method, fmtNum(s.RangeM, 2), report.Plural(s.TotalDevices, "device"))
-			default:
-				line("additions", "%d placed, gaps remain (the search stopped at its cap)", len(s.Added))
-			}
-			line("hexagonal estimate", "%s devices (Kershner 1939): the plan uses %s times that", fmtNum(s.HexEstimate, 1), fmtNum(s.HexRatio, 2))
-		}
-		note := ""
-		if !d.RangeGiven {
-			note = " (" + d.RangeNote + ")"
-		}
-		line("range of the figures", "%s m%s", fmtNum(s.RangeM, 2), note)
-		line("full-cover range", "%s m -> %s m", fmtNum(s.FullCoverRangeBeforeM, 2), fmtNum(s.FullCoverRangeAfterM, 2))
-		line("covered", "%s %% -> %s %% (%s m² -> %s m² uncovered)",
-			report.CoveredPercent(s.CoveredFractionBefore, s.UncoveredBeforeM2, 2), report.CoveredPercent(s.CoveredFractionAfter, s.UncoveredAfterM2, 2),
-			report.AreaNumber(s.UncoveredBeforeM2, 1), report.AreaNumber(s.UncoveredAfterM2, 1))
-		if mode == printFull && len(s.Added) > 0 {
-			fmt.Fprintf(w, "\n  %4s  %-26s  %-18s  %-17s  %s\n", "new", "position", "full cover m", "covered %", "uncovered m²")
-			for i, a := range s.Added {
-				if i == maxGapRows {
-					fmt.Fprintf(w, "  ... and %d more (all in report.txt, summary.json and %s)\n", len(s.Added)-i, report.LayerFile(report.FileProposed, m.Planar))
-					break
-				}
-				fmt.Fprintf(w, "  %4s  %-26s  %-18s  %-17s  %s\n", fmt.Sprintf("+%d", a.N), fmtPoint(a.Point, d.Coordinates),
-					fmtNum(a.FullCoverBeforeM, 2)+" -> "+fmtNum(a.FullCoverAfterM, 2),
-					report.CoveredPercent(a.CoveredBefore, a.UncoveredBeforeM2, 2)+" -> "+report.CoveredPercent(a.CoveredAfter, a.UncoveredAfterM2, 2),
-					report.AreaNumber(a.UncoveredBeforeM2, 1)+" -> "+report.AreaNumber(a.UncoveredAfterM2, 1))
-			}
-		}
+		printSuggestions(w, line, d, m, mode)
 	case report.MoveCandidates:
-		c := d.Candidates
-		line("candidate spots picked", "%d of %d at %s m", len(c.Picked), c.Count, fmtNum(c.RangeM, 2))
-		line("covered", "%s %% -> %s %% (%s m² -> %s m² uncovered)",
-			report.CoveredPercent(c.CoveredFractionBefore, c.UncoveredBeforeM2, 2), report.CoveredPercent(c.CoveredFractionAfter, c.UncoveredAfterM2, 2),
-			report.AreaNumber(c.UncoveredBeforeM2, 1), report.AreaNumber(c.UncoveredAfterM2, 1))
-		line("full-cover range", "%s m -> %s m", fmtNum(c.FullCoverRangeBeforeM, 2), fmtNum(c.FullCoverRangeAfterM, 2))
-		switch {
-		case c.Complete:
-			line("result", "full cover: no gap remains")
-		case c.Exhausted:
-			line("result", "FULL COVER CANNOT BE REACHED from these spots: %s m² stay uncovered in %s", report.AreaNumber(c.UncoveredAfterM2, 1), nGaps(len(c.Remaining)))
-		default:
-			line("result", "%s m² stay uncovered in %s", report.AreaNumber(c.UncoveredAfterM2, 1), nGaps(len(c.Remaining)))
-		}
-		if mode == printFull {
-			for i, pk := range c.Picked {
-				if i == maxGapRows {
-					fmt.Fprintf(w, "  ... and %d more picks (all in report.txt and summary.json)\n", len(c.Picked)-i)
-					break
-				}
-				fmt.Fprintf(w, "  %4d  %s at %s: +%s m²\n", pk.Order, report.ItemLabel(pk.Name, "candidate", pk.Candidate), fmtPoint(pk.Point, d.Coordinates), fmtNum(pk.GainM2, 1))
-			}
-		}
+		printCandidates(w, line, d, mode)
 	case report.MoveFailures:
-		if d.SurviveAnySingleFailureM == nil {
-			line("survive any single failure", "impossible: a single device")
-		} else {
-			line("survive any single failure", "%s m, needed at %s when %s fails", fmtNum(*d.SurviveAnySingleFailureM, 2),
-				fmtPoint(d.SurvivePoint, d.Coordinates), siteLabel(m, d.SurviveSite))
-		}
-		if d.RangeM != nil {
-			line("uncovered, all working", "%s m² at %s m", report.AreaNumber(*d.UncoveredAreaM2, 1), fmtNum(*d.RangeM, 2))
-		}
-		rows := len(d.Failures)
-		if mode == printBrief {
-			rows = min(rows, 3)
-		} else {
-			rows = min(rows, 10)
-		}
-		if rows > 0 {
-			fmt.Fprintf(w, "  worst failures by rank (loss: area uncovered when the device is out of service):\n")
-		}
-		for _, fl := range d.Failures[:rows] {
-			closing := "deepest new gap: no device left"
-			if fl.ClosingRangeM != nil {
-				closing = "deepest new gap needs " + fmtNum(*fl.ClosingRangeM, 2) + " m"
-			}
-			fmt.Fprintf(w, "  rank %-3d %-28s loss %10s m²  %s\n", fl.Rank, siteLabel(m, fl.Site), fmtNum(fl.AddedUncoveredM2, 1), closing)
-		}
+		printFailures(w, line, d, m, mode)
 	case report.MoveAssign:
-		a := d.Assignment
-		what := fmt.Sprintf("%d", a.Points)
-		if a.Polygons > 0 {
-			what += fmt.Sprintf(" (%d polygons)", a.Polygons)
+		printAssignment(line, d, m)
+	}
+}
+
+// lineFunc prints one "key  value" line of a planning summary.
+type lineFunc func(key, format string, args ...any)
+
+// printSuggestions prints the figures of suggest --add and of the fewest
+// additions.
+func printSuggestions(w io.Writer, line lineFunc, d *report.PlanDoc, m report.Meta, mode printMode) {
+	s := d.Suggestions
+	if d.Move == report.MoveAdd {
+		line("suggested devices", "%d new + %d existing", len(s.Added), s.Existing)
+	} else {
+		switch {
+		case len(s.Added) == 0 && s.Reached:
+			line("fewest additions", "none needed: no gap at %s m", fmtNum(s.RangeM, 2))
+		case s.Reached:
+			line("fewest additions", "%d (%s) for no gap at %s m, %s in all", len(s.Added), s.Method, fmtNum(s.RangeM, 2), report.Plural(s.TotalDevices, "device"))
+		default:
+			line("additions", "%d placed, gaps remain (the search stopped at its cap)", len(s.Added))
 		}
-		line("demand items", "%s", what)
-		if a.Served != nil {
-			wt := ""
-			if a.Weighted {
-				wt = fmt.Sprintf(" (weight %s of %s)", trimNum(*a.ServedWeight), trimNum(*a.ServedWeight+*a.UnservedWeight))
+		line("hexagonal estimate", "%s devices (Kershner 1939): the plan uses %s times that", fmtNum(s.HexEstimate, 1), fmtNum(s.HexRatio, 2))
+	}
+	note := ""
+	if !d.RangeGiven {
+		note = " (" + d.RangeNote + ")"
+	}
+	line("range of the figures", "%s m%s", fmtNum(s.RangeM, 2), note)
+	line("full-cover range", "%s m -> %s m", fmtNum(s.FullCoverRangeBeforeM, 2), fmtNum(s.FullCoverRangeAfterM, 2))
+	line("covered", "%s %% -> %s %% (%s m² -> %s m² uncovered)",
+		report.CoveredPercent(s.CoveredFractionBefore, s.UncoveredBeforeM2, 2), report.CoveredPercent(s.CoveredFractionAfter, s.UncoveredAfterM2, 2),
+		report.AreaNumber(s.UncoveredBeforeM2, 1), report.AreaNumber(s.UncoveredAfterM2, 1))
+	if mode == printFull && len(s.Added) > 0 {
+		fmt.Fprintf(w, "\n  %4s  %-26s  %-18s  %-17s  %s\n", "new", "position", "full cover m", "covered %", "uncovered m²")
+		for i, a := range s.Added {
+			if i == maxGapRows {
+				fmt.Fprintf(w, "  ... and %d more (all in report.txt, summary.json and %s)\n", len(s.Added)-i, report.LayerFile(report.FileProposed, m.Planar))
+				break
 			}
-			line("within range", "%d of %d at %s m%s", *a.Served, a.Points, fmtNum(*d.RangeM, 2), wt)
+			fmt.Fprintf(w, "  %4s  %-26s  %-18s  %-17s  %s\n", fmt.Sprintf("+%d", a.N), fmtPoint(a.Point, d.Coordinates),
+				fmtNum(a.FullCoverBeforeM, 2)+" -> "+fmtNum(a.FullCoverAfterM, 2),
+				report.CoveredPercent(a.CoveredBefore, a.UncoveredBeforeM2, 2)+" -> "+report.CoveredPercent(a.CoveredAfter, a.UncoveredAfterM2, 2),
+				report.AreaNumber(a.UncoveredBeforeM2, 1)+" -> "+report.AreaNumber(a.UncoveredAfterM2, 1))
 		}
-		busiest := -1
-		for i, ld := range a.Load {
-			if busiest < 0 || ld.Weight > a.Load[busiest].Weight {
-				busiest = i
+	}
+}
+
+// printCandidates prints the figures of suggest --candidates.
+func printCandidates(w io.Writer, line lineFunc, d *report.PlanDoc, mode printMode) {
+	c := d.Candidates
+	line("candidate spots picked", "%d of %d at %s m", len(c.Picked), c.Count, fmtNum(c.RangeM, 2))
+	line("covered", "%s %% -> %s %% (%s m² -> %s m² uncovered)",
+		report.CoveredPercent(c.CoveredFractionBefore, c.UncoveredBeforeM2, 2), report.CoveredPercent(c.CoveredFractionAfter, c.UncoveredAfterM2, 2),
+		report.AreaNumber(c.UncoveredBeforeM2, 1), report.AreaNumber(c.UncoveredAfterM2, 1))
+	line("full-cover range", "%s m -> %s m", fmtNum(c.FullCoverRangeBeforeM, 2), fmtNum(c.FullCoverRangeAfterM, 2))
+	switch {
+	case c.Complete:
+		line("result", "full cover: no gap remains")
+	case c.Exhausted:
+		line("result", "FULL COVER CANNOT BE REACHED from these spots: %s m² stay uncovered in %s", report.AreaNumber(c.UncoveredAfterM2, 1), nGaps(len(c.Remaining)))
+	default:
+		line("result", "%s m² stay uncovered in %s", report.AreaNumber(c.UncoveredAfterM2, 1), nGaps(len(c.Remaining)))
+	}
+	if mode == printFull {
+		for i, pk := range c.Picked {
+			if i == maxGapRows {
+				fmt.Fprintf(w, "  ... and %d more picks (all in report.txt and summary.json)\n", len(c.Picked)-i)
+				break
 			}
+			fmt.Fprintf(w, "  %4d  %s at %s: +%s m²\n", pk.Order, report.ItemLabel(pk.Name, "candidate", pk.Candidate), fmtPoint(pk.Point, d.Coordinates), fmtNum(pk.GainM2, 1))
 		}
-		if busiest >= 0 {
-			ld := a.Load[busiest]
-			wt := ""
-			if a.Weighted {
-				wt = ", weight " + trimNum(ld.Weight)
-			}
-			line("busiest device", "%s: %s%s", siteLabel(m, ld.Device), report.Plural(ld.Count, "item"), wt)
+	}
+}
+
+// printFailures prints the single-failure figures and the worst failures.
+func printFailures(w io.Writer, line lineFunc, d *report.PlanDoc, m report.Meta, mode printMode) {
+	if d.SurviveAnySingleFailureM == nil {
+		line("survive any single failure", "impossible: a single device")
+	} else {
+		line("survive any single failure", "%s m, needed at %s when %s fails", fmtNum(*d.SurviveAnySingleFailureM, 2),
+			fmtPoint(d.SurvivePoint, d.Coordinates), siteLabel(m, d.SurviveSite))
+	}
+	if d.RangeM != nil {
+		line("uncovered, all working", "%s m² at %s m", report.AreaNumber(*d.UncoveredAreaM2, 1), fmtNum(*d.RangeM, 2))
+	}
+	rows := len(d.Failures)
+	if mode == printBrief {
+		rows = min(rows, 3)
+	} else {
+		rows = min(rows, 10)
+	}
+	if rows > 0 {
+		fmt.Fprintf(w, "  worst failures by rank (loss: area uncovered when the device is out of service):\n")
+	}
+	for _, fl := range d.Failures[:rows] {
+		closing := "deepest new gap: no device left"
+		if fl.ClosingRangeM != nil {
+			closing = "deepest new gap needs " + fmtNum(*fl.ClosingRangeM, 2) + " m"
 		}
-		if a.Farthest != nil {
-			p := a.Farthest
-			line("farthest item", "%s: %s m from %s", report.ItemLabel(p.Name, "item", p.Point), fmtNum(p.DistanceM, 2), siteLabel(m, p.Device))
+		fmt.Fprintf(w, "  rank %-3d %-28s loss %10s m²  %s\n", fl.Rank, siteLabel(m, fl.Site), fmtNum(fl.AddedUncoveredM2, 1), closing)
+	}
+}
+
+// printAssignment prints the assignment figures.
+func printAssignment(line lineFunc, d *report.PlanDoc, m report.Meta) {
+	a := d.Assignment
+	what := fmt.Sprintf("%d", a.Points)
+	if a.Polygons > 0 {
+		what += fmt.Sprintf(" (%d polygons)", a.Polygons)
+	}
+	line("demand items", "%s", what)
+	if a.Served != nil {
+		wt := ""
+		if a.Weighted {
+			wt = fmt.Sprintf(" (weight %s of %s)", trimNum(*a.ServedWeight), trimNum(*a.ServedWeight+*a.UnservedWeight))
 		}
+		line("within range", "%d of %d at %s m%s", *a.Served, a.Points, fmtNum(*d.RangeM, 2), wt)
+	}
+	busiest := -1
+	for i, ld := range a.Load {
+		if busiest < 0 || ld.Weight > a.Load[busiest].Weight {
+			busiest = i
+		}
+	}
+	if busiest >= 0 {
+		ld := a.Load[busiest]
+		wt := ""
+		if a.Weighted {
+			wt = ", weight " + trimNum(ld.Weight)
+		}
+		line("busiest device", "%s: %s%s", siteLabel(m, ld.Device), report.Plural(ld.Count, "item"), wt)
+	}
+	if a.Farthest != nil {
+		p := a.Farthest
+		line("farthest item", "%s: %s m from %s", report.ItemLabel(p.Name, "item", p.Point), fmtNum(p.DistanceM, 2), siteLabel(m, p.Device))
 	}
 }
 
