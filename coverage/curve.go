@@ -351,81 +351,95 @@ func (cv *Curve) eval(rs []float64, stride int) crvEval {
 		chunk = nsel / 64
 	}
 	nc := (nsel + chunk - 1) / chunk
-	// Per chunk: exact u and du at each range, and difference arrays for
-	// the pieces below their nearest-boundary distance (area − [in]·πr²).
-	type part struct{ u, du, constD, cntD, inD, inWD []float64 }
-	parts := make([]part, nc)
+	parts := make([]crvPart, nc)
 	planar.ParallelChunks(nsel, chunk, 0, func(ci, lo, hi int) {
-		pt := part{make([]float64, K), make([]float64, K), make([]float64, K+1), make([]float64, K+1), make([]float64, K+1), nil}
+		pt := crvPart{make([]float64, K), make([]float64, K), make([]float64, K+1), make([]float64, K+1), make([]float64, K+1), nil}
 		if cv.w != nil {
 			pt.inWD = make([]float64, K+1)
 		}
 		var edges []crvEdge
 		for s := lo; s < hi; s++ {
-			p := s * stride
-			a := cv.pieceArea[p]
-			if a <= 0 {
-				continue
-			}
-			mn, mx := cv.pieceMin[p], cv.pieceMax[p]
-			w, kZero := 0.0, 0
-			if cv.w != nil {
-				// Powers: the radius √(w + t) passes mn at t = mn² − w
-				// and mx at mx² − w; below −w there is no disk.
-				w = cv.w[cv.pieceV[p]]
-				mn, mx = mn*mn-w, mx*mx-w
-				kZero = sort.SearchFloat64s(rs, math.Nextafter(-w, math.Inf(1)))
-			}
-			// Ranges r <= mn: closed form. Ranges r >= mx: zero.
-			kMin := sort.SearchFloat64s(rs, math.Nextafter(mn, math.Inf(1))) // first r > mn
-			kMax := sort.SearchFloat64s(rs, mx)                              // first r >= mx
-			if kMin > kMax {
-				kMin = kMax
-			}
-			if kMin > 0 {
-				pt.constD[0] += a
-				pt.constD[kMin] -= a
-				pt.cntD[0]++
-				pt.cntD[kMin]--
-				if cv.pieceIn[p] && kZero < kMin {
-					pt.inD[kZero]++
-					pt.inD[kMin]--
-					if w != 0 {
-						pt.inWD[kZero] += w
-						pt.inWD[kMin] -= w
-					}
-				}
-			}
-			if kMin < kMax {
-				c := cv.l.Cells
-				cx, cy := cv.l.site(cv.pieceV[p])
-				edges = crvEdges(edges[:0], c.XY, c.RingStart[c.PolyStart[p]:c.PolyStart[p+1]+1], cv.theta, cx, cy)
-			}
-			for k := kMin; k < kMax; k++ {
-				r := rs[k]
-				if cv.w != nil {
-					r = math.Sqrt(math.Max(0, w+rs[k]))
-				}
-				cov, ang := crvEdgesDisk(edges, r)
-				u := a - cov
-				if u < 0 {
-					u = 0
-				} else if u > a {
-					u = a
-				}
-				pt.u[k] += u
-				if cv.w != nil {
-					pt.du[k] -= ang / 2 // dU/dt = (dU/dr)/(2r)
-				} else {
-					pt.du[k] -= r * ang
-				}
-			}
+			edges = cv.evalPiece(&pt, s*stride, rs, edges)
 		}
 		parts[ci] = pt
 	})
-	// The difference arrays are summed in double-double arithmetic, and a
-	// range with no piece in its closed-form state gets exactly 0, so that
-	// the uncovered area is exactly 0 at and beyond the full-cover range.
+	return cv.combine(parts, rs, stride)
+}
+
+// crvPart holds one chunk's share of an evaluation: exact u and du at each
+// range, and difference arrays for the pieces below their nearest-boundary
+// distance (area − [in]·πr²).
+type crvPart struct{ u, du, constD, cntD, inD, inWD []float64 }
+
+// evalPiece adds piece p's uncovered area and derivative at the ranges rs
+// to pt; edges is scratch space, returned for reuse.
+func (cv *Curve) evalPiece(pt *crvPart, p int, rs []float64, edges []crvEdge) []crvEdge {
+	a := cv.pieceArea[p]
+	if a <= 0 {
+		return edges
+	}
+	mn, mx := cv.pieceMin[p], cv.pieceMax[p]
+	w, kZero := 0.0, 0
+	if cv.w != nil {
+		// Powers: the radius √(w + t) passes mn at t = mn² − w
+		// and mx at mx² − w; below −w there is no disk.
+		w = cv.w[cv.pieceV[p]]
+		mn, mx = mn*mn-w, mx*mx-w
+		kZero = sort.SearchFloat64s(rs, math.Nextafter(-w, math.Inf(1)))
+	}
+	// Ranges r <= mn: closed form. Ranges r >= mx: zero.
+	kMin := sort.SearchFloat64s(rs, math.Nextafter(mn, math.Inf(1))) // first r > mn
+	kMax := sort.SearchFloat64s(rs, mx)                              // first r >= mx
+	if kMin > kMax {
+		kMin = kMax
+	}
+	if kMin > 0 {
+		pt.constD[0] += a
+		pt.constD[kMin] -= a
+		pt.cntD[0]++
+		pt.cntD[kMin]--
+		if cv.pieceIn[p] && kZero < kMin {
+			pt.inD[kZero]++
+			pt.inD[kMin]--
+			if w != 0 {
+				pt.inWD[kZero] += w
+				pt.inWD[kMin] -= w
+			}
+		}
+	}
+	if kMin < kMax {
+		c := cv.l.Cells
+		cx, cy := cv.l.site(cv.pieceV[p])
+		edges = crvEdges(edges[:0], c.XY, c.RingStart[c.PolyStart[p]:c.PolyStart[p+1]+1], cv.theta, cx, cy)
+	}
+	for k := kMin; k < kMax; k++ {
+		r := rs[k]
+		if cv.w != nil {
+			r = math.Sqrt(math.Max(0, w+rs[k]))
+		}
+		cov, ang := crvEdgesDisk(edges, r)
+		u := a - cov
+		if u < 0 {
+			u = 0
+		} else if u > a {
+			u = a
+		}
+		pt.u[k] += u
+		if cv.w != nil {
+			pt.du[k] -= ang / 2 // dU/dt = (dU/dr)/(2r)
+		} else {
+			pt.du[k] -= r * ang
+		}
+	}
+	return edges
+}
+
+// combine sums the chunks' shares in chunk order. The difference arrays
+// are summed in double-double arithmetic, and a range with no piece in its
+// closed-form state gets exactly 0, so that the uncovered area is exactly 0
+// at and beyond the full-cover range.
+func (cv *Curve) combine(parts []crvPart, rs []float64, stride int) crvEval {
+	K := len(rs)
 	ev := crvEval{make([]float64, K), make([]float64, K)}
 	cst := make([]float64, K)
 	in := make([]float64, K)
