@@ -452,30 +452,7 @@ func (s *planScene) failureMap(width int) ([]byte, error) {
 func (s *planScene) drawAssignmentMap(width int) (*canvas, error) {
 	p, a := s.p, s.p.Assignment
 	ranged := s.hasRange()
-	var items []legendItem
-	if ranged {
-		items = append(items, legendItem{fmt.Sprintf("Within %s of a device", metresShort(p.Range)), swatchFill(colCovered, colDiskEdge)})
-	}
-	items = append(items, legendItem{"Service-area edge", swatchLine(colCellEdge, 1.2)})
-	switch {
-	case !ranged:
-		items = append(items, legendItem{"Demand item, line to its device", swatchWithin})
-	case a.Served > 0:
-		items = append(items, legendItem{"Demand item within range, line to its device", swatchWithin})
-	}
-	if ranged && a.Unserved > 0 {
-		items = append(items, legendItem{"Demand item beyond range", swatchBeyond})
-	}
-	polys := 0
-	for _, q := range p.DemandPolygons {
-		if q != nil {
-			polys++
-		}
-	}
-	if polys > 0 {
-		items = append(items, legendItem{"Building or yard outline (demand polygon)", swatchFill(colBuild, colInk)})
-	}
-	items = append(items, legendItem{"Device (label: items served)", swatchDot})
+	items, polys := s.assignmentLegend(ranged)
 	key := mapKey{items: items, notes: []string{s.northNote()}}
 	const dense = "single devices and demand items"
 	if s.denseNote(width, dense) == "" && len(p.Demand) > 5000 {
@@ -541,7 +518,63 @@ func (s *planScene) drawAssignmentMap(width int) (*canvas, error) {
 	c.paint(in.mask(), color.NRGBA{0x1A, 0x1A, 0x1A, 0xB0}, nil)
 	c.paint(out.mask(), color.NRGBA(colBeyond), nil)
 	s.drawSiteMarks(c, d)
-	// Demand marks: squares within range, triangles beyond.
+	s.drawDemandMarks(c, ranged)
+	// Label the devices that serve something, when few.
+	var pts []orb.Point
+	var texts []string
+	for i, ld := range a.Load {
+		if ld.Count == 0 {
+			continue
+		}
+		t := s.label(i) + fmt.Sprintf(": %d", ld.Count)
+		if p.Weighted {
+			t += " (w " + weightText(ld.Weight) + ")"
+		}
+		pts = append(pts, s.l.Sites[i])
+		texts = append(texts, t)
+	}
+	if len(pts) <= maxMarked && d.spacing >= 25*c.u {
+		s.placeLabels(c, pts, texts, 6*c.u, 14, false)
+	}
+	c.finish(key)
+	return c, nil
+}
+
+// assignmentLegend returns the legend entries of the assignment map, for
+// the classes present, and the number of demand polygons.
+func (s *planScene) assignmentLegend(ranged bool) ([]legendItem, int) {
+	p, a := s.p, s.p.Assignment
+	var items []legendItem
+	if ranged {
+		items = append(items, legendItem{fmt.Sprintf("Within %s of a device", metresShort(p.Range)), swatchFill(colCovered, colDiskEdge)})
+	}
+	items = append(items, legendItem{"Service-area edge", swatchLine(colCellEdge, 1.2)})
+	switch {
+	case !ranged:
+		items = append(items, legendItem{"Demand item, line to its device", swatchWithin})
+	case a.Served > 0:
+		items = append(items, legendItem{"Demand item within range, line to its device", swatchWithin})
+	}
+	if ranged && a.Unserved > 0 {
+		items = append(items, legendItem{"Demand item beyond range", swatchBeyond})
+	}
+	polys := 0
+	for _, q := range p.DemandPolygons {
+		if q != nil {
+			polys++
+		}
+	}
+	if polys > 0 {
+		items = append(items, legendItem{"Building or yard outline (demand polygon)", swatchFill(colBuild, colInk)})
+	}
+	items = append(items, legendItem{"Device (label: items served)", swatchDot})
+	return items, polys
+}
+
+// drawDemandMarks draws the demand items: squares within range, triangles
+// beyond, on white halos when they are few enough to be told apart.
+func (s *planScene) drawDemandMarks(c *canvas, ranged bool) {
+	p, a := s.p, s.p.Assignment
 	r := 5.5 * c.u
 	if len(p.Demand) > 5000 {
 		r = math.Max(1.2, 2*c.u)
@@ -564,25 +597,6 @@ func (s *planScene) drawAssignmentMap(width int) (*canvas, error) {
 	}
 	c.paint(inM.mask(), color.NRGBA(colWithin), nil)
 	c.paint(outM.mask(), color.NRGBA(colBeyond), nil)
-	// Label the devices that serve something, when few.
-	var pts []orb.Point
-	var texts []string
-	for i, ld := range a.Load {
-		if ld.Count == 0 {
-			continue
-		}
-		t := s.label(i) + fmt.Sprintf(": %d", ld.Count)
-		if p.Weighted {
-			t += " (w " + weightText(ld.Weight) + ")"
-		}
-		pts = append(pts, s.l.Sites[i])
-		texts = append(texts, t)
-	}
-	if len(pts) <= maxMarked && d.spacing >= 25*c.u {
-		s.placeLabels(c, pts, texts, 6*c.u, 14, false)
-	}
-	c.finish(key)
-	return c, nil
 }
 
 func (s *planScene) assignmentMap(width int) ([]byte, error) {
