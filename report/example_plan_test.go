@@ -53,7 +53,6 @@ func ExampleWritePlan() {
 	// sites-xy.geojson
 	// failures-xy.geojson
 	// failures.csv
-	// sitecover.gpkg
 	// manifest.json
 	// survives any single failure at 79.06 m
 }

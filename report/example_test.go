@@ -46,7 +46,6 @@ func ExampleWriteAnalysis() {
 	// gaps-xy.geojson
 	// hole-closings-xy.geojson
 	// covered-xy.geojson
-	// sitecover.gpkg
 	// manifest.json
 	// covered 28.27 %, full cover at 70.71 m, 1 gap
 }

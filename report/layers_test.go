@@ -156,14 +156,14 @@ func TestLayersMatchGeoPackage(t *testing.T) {
 		}
 		t.Run(fmt.Sprintf("analysis/planar=%v", planarOut), func(t *testing.T) {
 			dir := t.TempDir()
-			if _, err := WriteAnalysis(dir, an, m, Options{}); err != nil {
+			if _, err := WriteAnalysis(dir, an, m, Options{GeoPackage: true}); err != nil {
 				t.Fatal(err)
 			}
 			checkLayerSet(t, dir, planarOut)
 		})
 		t.Run(fmt.Sprintf("cells/planar=%v", planarOut), func(t *testing.T) {
 			dir := t.TempDir()
-			if _, err := WriteCells(dir, an.Layout, m, Options{}); err != nil {
+			if _, err := WriteCells(dir, an.Layout, m, Options{GeoPackage: true}); err != nil {
 				t.Fatal(err)
 			}
 			checkLayerSet(t, dir, planarOut)
@@ -171,7 +171,7 @@ func TestLayersMatchGeoPackage(t *testing.T) {
 		for _, mv := range allMoves {
 			t.Run(fmt.Sprintf("%s/planar=%v", mv, planarOut), func(t *testing.T) {
 				dir := t.TempDir()
-				if _, err := WritePlan(dir, latticePlan(t, mv, 10/math.Sqrt2), m, Options{}); err != nil {
+				if _, err := WritePlan(dir, latticePlan(t, mv, 10/math.Sqrt2), m, Options{GeoPackage: true}); err != nil {
 					t.Fatal(err)
 				}
 				checkLayerSet(t, dir, planarOut)

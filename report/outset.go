@@ -489,7 +489,7 @@ func swapByRenames(a, b string) error {
 // recognising an earlier report's folder.
 func knownOutputNames() []string {
 	var names []string
-	all := Options{Maps: true, Charts: true}
+	all := Options{Maps: true, Charts: true, GeoPackage: true}
 	for _, planar := range []bool{false, true} {
 		m := Meta{Planar: planar}
 		names = append(names, Files(false, m, all)...)

@@ -140,7 +140,9 @@ func PlanFiles(move Move, m Meta, opt Options) []string {
 		f = append(f, LayerFile(FileAssignment, m.Planar), LayerFile(FileDeviceLoad, m.Planar), FileAssignmentCSV, FileDeviceLoadCSV)
 		png = FileMapAssignment
 	}
-	f = append(f, FileGeoPackage)
+	if opt.GeoPackage {
+		f = append(f, FileGeoPackage)
+	}
 	if opt.Maps && png != "" {
 		f = append(f, png)
 	}
@@ -230,7 +232,9 @@ func WritePlan(dir string, p *Plan, m Meta, opt Options) ([]string, error) {
 			step{name: FileDeviceLoadCSV, write: s.loadCSV})
 		drawMap = s.assignmentMap
 	}
-	steps = append(steps, step{name: FileGeoPackage, gpkg: true})
+	if opt.GeoPackage {
+		steps = append(steps, step{name: FileGeoPackage, gpkg: true})
+	}
 	if opt.Maps {
 		steps = append(steps, step{name: files[len(files)-2], write: fromBytes(func() ([]byte, error) { return drawMap(width) })}) // the map, before manifest.json
 	}

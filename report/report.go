@@ -93,6 +93,10 @@ type Options struct {
 	Maps bool
 	// Charts enables the PNG charts (WriteAnalysis only).
 	Charts bool
+	// GeoPackage adds sitecover.gpkg, every layer of the run in one
+	// GeoPackage (FileGeoPackage). It costs about as much again as the
+	// GeoJSON layers (SQLite inserts and the R-tree), so it is asked for.
+	GeoPackage bool
 	// MapWidth is the width of the maps and charts in pixels; 0 means
 	// DefaultMapWidth. Values below MinMapWidth are raised to it.
 	MapWidth int
@@ -143,7 +147,9 @@ func Files(cells bool, m Meta, opt Options) []string {
 	if !cells {
 		f = append(f, LayerFile(FileGaps, m.Planar), LayerFile(FileHoleClosings, m.Planar), LayerFile(FileCovered, m.Planar))
 	}
-	f = append(f, FileGeoPackage)
+	if opt.GeoPackage {
+		f = append(f, FileGeoPackage)
+	}
 	if opt.Maps {
 		f = append(f, FileMapServiceAreas)
 		if !cells {
@@ -179,7 +185,9 @@ func WriteAnalysis(dir string, a *coverage.Analysis, m Meta, opt Options) (writt
 		s.layerStep(FileGaps, s.gapsLayer()),
 		s.layerStep(FileHoleClosings, s.holesLayer()),
 		s.layerStep(FileCovered, s.coveredLayer()),
-		{name: FileGeoPackage, gpkg: true},
+	}
+	if opt.GeoPackage {
+		steps = append(steps, step{name: FileGeoPackage, gpkg: true})
 	}
 	width := mapWidth(opt)
 	if opt.Maps {
@@ -216,7 +224,9 @@ func WriteCells(dir string, l *coverage.Layout, m Meta, opt Options) ([]string, 
 		{name: FileSummary, write: func(out io.Writer) error { return writeDoc(out, s.cellsSummary()) }},
 		s.layerStep(FileSites, s.sitesLayer()),
 		s.layerStep(FileServiceAreas, s.serviceAreasLayer()),
-		{name: FileGeoPackage, gpkg: true},
+	}
+	if opt.GeoPackage {
+		steps = append(steps, step{name: FileGeoPackage, gpkg: true})
 	}
 	if opt.Maps {
 		width := mapWidth(opt)

@@ -472,8 +472,8 @@ func TestGeoJSONLayers(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if len(files) != 9 {
-		t.Errorf("wrote %v, want 9 files (7, the GeoPackage and the manifest) without maps and charts", files)
+	if len(files) != 8 {
+		t.Errorf("wrote %v, want 8 files (7 and the manifest) without maps and charts", files)
 	}
 	lonR := [2]float64{8.54 - 1e-7, 8.544 + 1e-7}
 	latR := [2]float64{47.37 - 1e-7, 47.373 + 1e-7}
@@ -707,7 +707,7 @@ func TestWriteCells(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if len(files) != 7 {
+	if len(files) != 6 {
 		t.Errorf("wrote %v", files)
 	}
 	b, _ := os.ReadFile(filepath.Join(dir, FileSummary))

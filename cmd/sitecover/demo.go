@@ -84,6 +84,7 @@ campus buildings to their serving sensors). --no-plans skips them.`,
 			if f.title == "" {
 				f.title = title
 			}
+			f.gpkg = true // the demo shows every output
 			if err := asInput(runAnalysis(e, "demo", f, in, r, true)); err != nil || noPlans {
 				return err
 			}

@@ -36,7 +36,7 @@ func campusReference(t *testing.T) (*refFigures, float64) {
 func TestDemoWritesEverything(t *testing.T) {
 	out := filepath.Join(t.TempDir(), "campus")
 	r := mustRun(t, "demo", "--out", out)
-	files := report.Files(false, report.Meta{}, report.Options{Maps: true, Charts: true})
+	files := report.Files(false, report.Meta{}, report.Options{Maps: true, Charts: true, GeoPackage: true})
 	for _, name := range files {
 		fi, err := os.Stat(filepath.Join(out, name))
 		if err != nil || fi.Size() == 0 {

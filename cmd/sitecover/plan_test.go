@@ -184,7 +184,8 @@ func checkPNGWidths(t *testing.T, dir string, names []string) {
 // checkFiles checks that dir holds exactly the files of a planning move.
 func checkFiles(t *testing.T, dir string, move report.Move, planarOut, maps bool) {
 	t.Helper()
-	want := report.PlanFiles(move, report.Meta{Planar: planarOut}, report.Options{Maps: maps})
+	_, err := os.Stat(filepath.Join(dir, report.FileGeoPackage))
+	want := report.PlanFiles(move, report.Meta{Planar: planarOut}, report.Options{Maps: maps, GeoPackage: err == nil})
 	ents, _ := os.ReadDir(dir)
 	var got []string
 	for _, e := range ents {

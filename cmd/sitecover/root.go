@@ -169,6 +169,7 @@ type runFlags struct {
 	out                  string
 	json                 bool
 	noMaps               bool
+	gpkg                 bool
 	title                string
 	lifeSafety           bool
 	mapWidth             int
@@ -187,6 +188,7 @@ func (f *runFlags) addInputFlags(fs *pflag.FlagSet) {
 func (f *runFlags) addOutputFlags(fs *pflag.FlagSet, maps bool) {
 	fs.Var(newOnceString(&f.out, "sitecover-report"), "out", "output folder for one report: created if needed, must be new, empty or an earlier report; the whole set is replaced at the end (input files are never overwritten)")
 	fs.BoolVar(&f.json, "json", false, "print a copy of the summary.json written to --out on stdout, instead of the text summary (warnings still go to stderr; the files are written either way)")
+	fs.BoolVar(&f.gpkg, "gpkg", false, "also write sitecover.gpkg: every layer in one GeoPackage (read by desktop GIS; roughly doubles the time spent writing layers)")
 	if maps {
 		fs.BoolVar(&f.noMaps, "no-maps", false, "skip the PNG maps and charts (faster on very large inputs)")
 		fs.IntVar(&f.mapWidth, "map-width", report.DefaultMapWidth, "width of the PNG maps and charts in pixels")

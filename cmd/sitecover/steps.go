@@ -82,10 +82,11 @@ func startRun(e *env, command string, f *runFlags, in siteinput.Inputs) (*scene,
 // written; a failure is an input error.
 func writeReport(f *runFlags, pr *progress, charts bool, write func(report.Options) ([]string, error)) ([]string, error) {
 	opt := report.Options{
-		Maps:     !f.noMaps,
-		Charts:   !f.noMaps && charts,
-		MapWidth: f.mapWidth,
-		Progress: func(file string) { pr.set("writing " + file) },
+		GeoPackage: f.gpkg,
+		Maps:       !f.noMaps,
+		Charts:     !f.noMaps && charts,
+		MapWidth:   f.mapWidth,
+		Progress:   func(file string) { pr.set("writing " + file) },
 	}
 	written, err := write(opt)
 	pr.end()
