@@ -73,8 +73,12 @@ const KMaxDefault = 3
 // KOptions selects what KCover computes.
 type KOptions struct {
 	// MaxK is the largest k (levels 1 … MaxK are computed); 0 means
-	// KMaxDefault.
+	// KMaxDefault. Ignored when Levels is set.
 	MaxK int
+	// Levels lists the k to compute and report (any order, repeats
+	// allowed); the levels in between are only enumerated (their order-k
+	// sets, not their pieces). nil: 1 … MaxK.
+	Levels []int
 	// CurveSamples is the number of ranges on each coverage-depth curve,
 	// evenly spaced from 0 to the largest k-cover range (0: no curve).
 	CurveSamples int
@@ -133,7 +137,7 @@ type KCoverage struct {
 	Warnings []string
 	// CurveRanges are the ranges of every level's Curve.
 	CurveRanges []float64
-	// Levels holds k = 1 … MaxK in order.
+	// Levels holds the levels asked for, by increasing k.
 	Levels []KLevel
 }
 
@@ -150,16 +154,10 @@ func KCover(l *Layout, r float64, opt KOptions) (*KCoverage, error) {
 	if math.IsNaN(r) || math.IsInf(r, 0) || r < 0 {
 		return nil, fmt.Errorf("coverage: KCover: range %v must be a finite number ≥ 0", r)
 	}
-	K := opt.MaxK
-	if K == 0 {
-		K = KMaxDefault
-	}
 	nv := l.Tri.NumVertices()
-	if K < 1 {
-		return nil, fmt.Errorf("coverage: KCover: k = %d must be at least 1", K)
-	}
-	if K > nv {
-		return nil, fmt.Errorf("coverage: KCover: k = %d but the layout has %d distinct devices: %w", K, nv, ErrKTooLarge)
+	want, K, err := kWanted(opt, nv)
+	if err != nil {
+		return nil, fmt.Errorf("coverage: KCover: %w", err)
 	}
 	if opt.CurveSamples < 0 {
 		return nil, fmt.Errorf("coverage: KCover: %d curve samples", opt.CurveSamples)
@@ -176,15 +174,25 @@ func KCover(l *Layout, r float64, opt KOptions) (*KCoverage, error) {
 		kc.Warnings = append(kc.Warnings, fmt.Sprintf("%d devices stand at exactly the same spot as another; each spot counts once", d))
 	}
 	keep := opt.CurveSamples > 0 || opt.Gaps
-	kc.Levels = append(kc.Levels, kLevelOne(l, r))
+	if want[1] {
+		kc.Levels = append(kc.Levels, kLevelOne(l, r))
+	}
 	sets := make([]int32, 0, nv)
 	for v := int32(0); v < int32(nv); v++ {
 		if l.Cells.SiteStart[v] < l.Cells.SiteStart[v+1] {
 			sets = append(sets, v)
 		}
 	}
+	var g *kGraph
+	if K > 2 {
+		g = newKGraph(l.Tri, l.Cells)
+	}
 	for k := 2; k <= K; k++ {
-		lv, next := kLevelBuild(l, k, sets, r, keep, k < K)
+		if !want[k] {
+			sets = kLevelEnumerate(l, g, k, sets)
+			continue
+		}
+		lv, next := kLevelBuild(l, g, k, sets, r, keep, k < K)
 		kc.Levels = append(kc.Levels, lv)
 		sets = next
 	}
@@ -205,7 +213,7 @@ func KCover(l *Layout, r float64, opt KOptions) (*KCoverage, error) {
 	}
 	if opt.Gaps {
 		for i := range kc.Levels {
-			kc.Levels[i].Gaps = kc.gaps(l, i+1, tol)
+			kc.Levels[i].Gaps = kc.gaps(l, i, tol)
 		}
 	}
 	return kc, nil
@@ -231,6 +239,49 @@ func kLevelOne(l *Layout, r float64) KLevel {
 	return lv
 }
 
+// Level returns the computed level k, nil when k was not asked for.
+func (kc *KCoverage) Level(k int) *KLevel {
+	for i := range kc.Levels {
+		if kc.Levels[i].K == k {
+			return &kc.Levels[i]
+		}
+	}
+	return nil
+}
+
+// kWanted checks the levels asked for and returns them as a mask over
+// 0 … K, with K the largest.
+func kWanted(opt KOptions, nv int) ([]bool, int, error) {
+	ks := opt.Levels
+	if ks == nil {
+		K := opt.MaxK
+		if K == 0 {
+			K = KMaxDefault
+		}
+		if K < 1 {
+			return nil, 0, fmt.Errorf("k = %d must be at least 1", K)
+		}
+		for k := 1; k <= K; k++ {
+			ks = append(ks, k)
+		}
+	}
+	if len(ks) == 0 {
+		return nil, 0, errors.New("no k asked for")
+	}
+	K := slices.Max(ks)
+	if K > nv {
+		return nil, 0, fmt.Errorf("k = %d but the layout has %d distinct devices: %w", K, nv, ErrKTooLarge)
+	}
+	want := make([]bool, K+1)
+	for _, k := range ks {
+		if k < 1 {
+			return nil, 0, fmt.Errorf("k = %d must be at least 1", k)
+		}
+		want[k] = true
+	}
+	return want, K, nil
+}
+
 // SharesAt returns the share of the area reached by at least k devices at
 // each of the ranges, each exact (the sum over the pieces of the piece ∩
 // disk areas). It needs the pieces kept by KCover (CurveSamples > 0 or
@@ -244,13 +295,13 @@ func (kc *KCoverage) SharesAt(l *Layout, k int, ranges []float64) []float64 {
 		}
 		return out
 	}
-	if k < 1 || k > len(kc.Levels) {
+	lv := kc.Level(k)
+	if lv == nil {
 		for i := range out {
 			out[i] = math.NaN()
 		}
 		return out
 	}
-	lv := &kc.Levels[k-1]
 	part := make([][]float64, len(lv.store))
 	planar.ParallelChunks(len(lv.store), 1, 0, func(ci, _, _ int) {
 		part[ci] = lv.store[ci].diskAreas(l, ranges)
@@ -323,12 +374,15 @@ type kChunk struct {
 // kScratch is per-chunk scratch space of kLevelBuild.
 type kScratch struct {
 	nb     []int32
+	cand   []int32
 	cell   planar.ClipRings
 	a, b   planar.ClipRings
 	hit    []bool
 	split  kSplitScratch
 	holdFn func(int32, float64, float64) bool
 	tset   []int32
+	box    []float64
+	pairs  []kByDist
 }
 
 // kSetChunk is the number of sets per chunk of a level (the unit of
@@ -339,7 +393,7 @@ const kSetChunk = 1024
 // each ascending), returning the level and, with wantNext, the order-k sets
 // (ascending tuples, sorted, distinct; they are always found, to count the
 // cells).
-func kLevelBuild(l *Layout, k int, sets []int32, r float64, keep, wantNext bool) (KLevel, []int32) {
+func kLevelBuild(l *Layout, g *kGraph, k int, sets []int32, r float64, keep, wantNext bool) (KLevel, []int32) {
 	m := k - 1
 	ns := len(sets) / m
 	nc := (ns + kSetChunk - 1) / kSetChunk
@@ -353,7 +407,7 @@ func kLevelBuild(l *Layout, k int, sets []int32, r float64, keep, wantNext bool)
 			ch.store = &kStore{k: k, start: []int32{0}}
 		}
 		for i := lo; i < hi; i++ {
-			kSetPieces(l, sets[i*m:(i+1)*m], r, keep, sc, ch)
+			kSetPieces(l, g, sets[i*m:(i+1)*m], r, keep, sc, ch)
 		}
 	})
 	lv := KLevel{K: k, CoverRange: -1}
@@ -379,7 +433,7 @@ func kLevelBuild(l *Layout, k int, sets []int32, r float64, keep, wantNext bool)
 		lv.CoverRange = 0
 	}
 	lv.CoverSites = kNearestFirst(l, farSet, lv.CoverPoint)
-	next = kUniqueSets(next, k)
+	next = kUniqueSets(next, k, l.Tri.NumVertices())
 	lv.Cells = len(next) / k
 	if !wantNext {
 		next = nil
@@ -387,15 +441,220 @@ func kLevelBuild(l *Layout, k int, sets []int32, r float64, keep, wantNext bool)
 	return lv, next
 }
 
+// kLevelEnumerate returns the order-k sets (ascending tuples, sorted,
+// distinct) from the order-(k−1) sets, without the pieces: each order-k
+// cell meeting the area is S ∪ {u} for an order-(k−1) cell S and a device
+// u across one of its edges (kEnumerateSet). A superset near the area's
+// boundary is harmless: a set whose cell misses the area gets no piece.
+func kLevelEnumerate(l *Layout, g *kGraph, k int, sets []int32) []int32 {
+	m := k - 1
+	ns := len(sets) / m
+	nc := (ns + kSetChunk - 1) / kSetChunk
+	next := make([][]int32, nc)
+	b := l.Area.Bound()
+	box := []float64{b.Min[0], b.Min[1], b.Max[0], b.Min[1], b.Max[0], b.Max[1], b.Min[0], b.Max[1]}
+	planar.ParallelChunks(ns, kSetChunk, 0, func(ci, lo, hi int) {
+		sc := &kScratch{}
+		var out []int32
+		for i := lo; i < hi; i++ {
+			S := sets[i*m : (i+1)*m]
+			for _, u := range kEnumerateSet(l, g, S, box, sc) {
+				sc.tset = append(append(sc.tset[:0], S...), u)
+				slices.Sort(sc.tset)
+				out = append(out, sc.tset...)
+			}
+		}
+		next[ci] = out
+	})
+	return kUniqueSets(slices.Concat(next...), k, l.Tri.NumVertices())
+}
+
+// kEnumerateSet returns the devices u such that S ∪ {u} may be an order-k
+// cell meeting the area. For one member v these are its Delaunay
+// neighbours. Otherwise C_S is clipped from a box holding C_S ∩ A (the
+// members' cell boxes when their cells lie inside the area, else the
+// area's bounding box) and the devices across its edges are taken
+// (kEdgeCandidates); an edge along the box (a piece of C_S may reach the
+// area there without touching C_S's own edges inside the box) takes all of
+// N(S).
+func kEnumerateSet(l *Layout, g *kGraph, S []int32, areaBox []float64, sc *kScratch) []int32 {
+	t := l.Tri
+	sc.nb = kNeighbourhood(t, g, S, sc.nb)
+	if len(S) == 1 || len(sc.nb) == 0 {
+		return sc.nb
+	}
+	sc.cell.Reset()
+	box := areaBox
+	if kAllInner(g, S) {
+		box = kCellsBox(g, S, sc.box[:0])
+		sc.box = box
+	}
+	sc.cell.AppendRing(box, S[0])
+	cs := kRestrict(t, &sc.cell, S, -1, sc.nb, sc)
+	if cs == nil {
+		return nil
+	}
+	if box[0] == areaBox[0] && box[1] == areaBox[1] && box[4] == areaBox[4] && box[5] == areaBox[5] && kTouchesBox(cs, box) {
+		return sc.nb
+	}
+	sc.cand = kEdgeCandidates(t, cs, sc.nb, sc.cand[:0])
+	return sc.cand
+}
+
+// kTouchesBox reports whether some edge of the rings lies along a side of
+// the axis-parallel box (x0, y0, x1, y0, x1, y1, x0, y1): a crossing of a
+// box side keeps that side's coordinate exactly (a + t·0).
+func kTouchesBox(cs *planar.ClipRings, box []float64) bool {
+	x0, y0, x1, y1 := box[0], box[1], box[4], box[5]
+	for k := 0; k < cs.NumRings(); k++ {
+		ring := cs.Ring(k)
+		n := len(ring) / 2
+		for i := 0; i < n; i++ {
+			j := (i + 1) % n
+			ax, ay, bx, by := ring[2*i], ring[2*i+1], ring[2*j], ring[2*j+1]
+			if ax == bx && (ax == x0 || ax == x1) || ay == by && (ay == y0 || ay == y1) {
+				return true
+			}
+		}
+	}
+	return false
+}
+
+// kCellsBox returns in dst the counter-clockwise ring of the bounding box
+// of the members' cells.
+func kCellsBox(g *kGraph, S []int32, dst []float64) []float64 {
+	minX, minY, maxX, maxY := math.Inf(1), math.Inf(1), math.Inf(-1), math.Inf(-1)
+	for _, s := range S {
+		b := g.BoxXY[4*s : 4*s+4]
+		minX, minY, maxX, maxY = min(minX, b[0]), min(minY, b[1]), max(maxX, b[2]), max(maxY, b[3])
+	}
+	return append(dst, minX, minY, maxX, minY, maxX, maxY, minX, maxY)
+}
+
 // kSetPieces computes the pieces (S, q) of one order-(k−1) set S.
-func kSetPieces(l *Layout, S []int32, r float64, keep bool, sc *kScratch, ch *kChunk) {
-	t, c := l.Tri, l.Cells
-	sc.nb = kNeighbourhood(t, S, sc.nb)
+func kSetPieces(l *Layout, g *kGraph, S []int32, r float64, keep bool, sc *kScratch, ch *kChunk) {
+	t := l.Tri
+	sc.nb = kNeighbourhood(t, g, S, sc.nb)
 	nb := sc.nb
 	if len(nb) == 0 {
 		return
 	}
-	sc.hit = append(sc.hit[:0], make([]bool, len(nb))...)
+	sc.hit = slices.Grow(sc.hit[:0], len(nb))[:len(nb)]
+	clear(sc.hit)
+	if len(S) > 1 && kAllInner(g, S) {
+		kWholeSet(l, g, S, r, keep, sc, ch)
+	} else {
+		kSetPerBase(l, S, r, keep, sc, ch)
+	}
+	for qi, h := range sc.hit[:len(sc.nb)] {
+		if !h {
+			continue
+		}
+		ch.pieces++
+		sc.tset = append(append(sc.tset[:0], S...), sc.nb[qi])
+		slices.Sort(sc.tset)
+		ch.next = append(ch.next, sc.tset...)
+	}
+}
+
+// kAllInner reports whether every member of S has a cell inside the area.
+func kAllInner(g *kGraph, S []int32) bool {
+	for _, s := range S {
+		if !g.Inner[s] {
+			return false
+		}
+	}
+	return true
+}
+
+// kWholeSet computes the pieces of S when the cells of its members lie
+// inside the area: then C_S ∩ A = C_S, a convex polygon, clipped from the
+// bounding box of those cells (which holds C_S ⊂ ⋃ V_s) by the half-planes
+// H(s, u), s ∈ S, u ∈ N(S), and split once (not once per member).
+func kWholeSet(l *Layout, g *kGraph, S []int32, r float64, keep bool, sc *kScratch, ch *kChunk) {
+	t := l.Tri
+	sc.box = kCellsBox(g, S, sc.box[:0])
+	sc.cell.Reset()
+	sc.cell.AppendRing(sc.box, S[0])
+	base := kRestrict(t, &sc.cell, S, -1, sc.nb, sc)
+	if base == nil {
+		return
+	}
+	// Only the devices across the edges of C_S split it (see
+	// kEdgeCandidates); sc.nb is replaced by that shorter list.
+	old := sc.nb
+	sc.nb = kEdgeCandidates(t, base, old, sc.cand[:0])
+	sc.cand = old
+	kSplit(t, base, sc.nb, r, nil, keep, &sc.split)
+	kTakePieces(t, S, -1, keep, sc, ch)
+}
+
+// kEdgeTieRel is the relative tolerance within which devices count as tied
+// at the midpoint of an edge of C_S: far above the rounding of the clipped vertices
+// (planar/halfplane.go, about 1e-15 relative), far below any real gap
+// between distances that matters (a device wrongly admitted as a candidate
+// only costs a clip; its piece comes out empty).
+const kEdgeTieRel = 1e-9
+
+// kEdgeCandidates returns (in dst) the members of nb that split the convex
+// order-(k−1) cell C_S with the given rings into pieces of positive area.
+// Every piece of C_S touches its boundary: the piece of q holds the
+// segment from q (outside C_S, q being its own nearest device) to any of
+// its points, inside q's convex Voronoi cell of P \ S. Along a whole edge
+// of C_S on the bisector of s ∈ S and u, u is the nearest device of P \ S
+// (on C_S's boundary s and u tie, every other device is at least as far),
+// so the piece of u holds a strip along the edge, and u is the device of
+// N(S) nearest the edge's midpoint. A piece meeting the boundary at a
+// vertex only has zero area unless five devices tie there; its vertices
+// are vertices of the pieces around it, so the range does not need it, and
+// an order-(k+1) cell of positive area is found from one of its order-k
+// subsets of positive area. Devices within kEdgeTieRel of the nearest at a
+// midpoint (cocircular lattices) are all taken. The list keeps the order
+// of nb.
+func kEdgeCandidates(t *planar.Triangulation, cs *planar.ClipRings, nb, dst []int32) []int32 {
+	var take [64]bool
+	if len(nb) > len(take) {
+		return append(dst, nb...)
+	}
+	for k := 0; k < cs.NumRings(); k++ {
+		ring := cs.Ring(k)
+		n := len(ring) / 2
+		for i := 0; i < n; i++ {
+			j := (i + 1) % n
+			mx, my := (ring[2*i]+ring[2*j])/2, (ring[2*i+1]+ring[2*j+1])/2
+			kMarkNearest(t, nb, mx, my, kEdgeTieRel, &take)
+		}
+	}
+	for i, u := range nb {
+		if take[i] {
+			dst = append(dst, u)
+		}
+	}
+	return dst
+}
+
+// kMarkNearest marks the members of nb nearest (x, y), and those within
+// rel (relative) of the nearest distance.
+func kMarkNearest(t *planar.Triangulation, nb []int32, x, y, rel float64, take *[64]bool) {
+	best := math.Inf(1)
+	for _, u := range nb {
+		dx, dy := t.Coords[2*u]-x, t.Coords[2*u+1]-y
+		best = min(best, dx*dx+dy*dy)
+	}
+	lim := best * (1 + rel) * (1 + rel)
+	for i, u := range nb {
+		dx, dy := t.Coords[2*u]-x, t.Coords[2*u+1]-y
+		if dx*dx+dy*dy <= lim {
+			take[i] = true
+		}
+	}
+}
+
+// kSetPerBase computes the pieces of S one member's clipped cell at a
+// time (cells that meet the area's boundary or its holes, and k = 2).
+func kSetPerBase(l *Layout, S []int32, r float64, keep bool, sc *kScratch, ch *kChunk) {
+	t, c := l.Tri, l.Cells
+	nb := sc.nb
 	for _, v := range S {
 		rs := planCellRings(c, v)
 		if rs.NumRings() == 0 {
@@ -414,51 +673,58 @@ func kSetPieces(l *Layout, S []int32, r float64, keep bool, sc *kScratch, ch *kC
 			continue
 		}
 		kSplit(t, base, nb, r, valid, keep, &sc.split)
-		for pi, p := range sc.split.res {
-			ch.covered += p.disk
-			ch.pieceArea += p.area
-			sc.hit[p.cand] = true
-			if p.far > ch.far {
-				ch.far, ch.fx, ch.fy = p.far, p.fx, p.fy
-				ch.farSet = append(append(ch.farSet[:0], S...), nb[p.cand])
-			}
-			if keep {
-				kKeep(t, ch.store, &sc.split.kept, pi, v, S, nb[p.cand], p)
-			}
-		}
+		kTakePieces(t, S, v, keep, sc, ch)
 	}
-	for qi, h := range sc.hit {
-		if !h {
-			continue
+}
+
+// kTakePieces adds the pieces kSplit left in sc.split (base vertex v, −1
+// for a whole set) to the chunk.
+func kTakePieces(t *planar.Triangulation, S []int32, v int32, keep bool, sc *kScratch, ch *kChunk) {
+	nb := sc.nb
+	for pi, p := range sc.split.res {
+		ch.covered += p.disk
+		ch.pieceArea += p.area
+		sc.hit[p.cand] = true
+		if p.far > ch.far {
+			ch.far, ch.fx, ch.fy = p.far, p.fx, p.fy
+			ch.farSet = append(append(ch.farSet[:0], S...), nb[p.cand])
 		}
-		ch.pieces++
-		sc.tset = append(append(sc.tset[:0], S...), nb[qi])
-		slices.Sort(sc.tset)
-		ch.next = append(ch.next, sc.tset...)
+		if keep {
+			kKeep(t, ch.store, &sc.split.kept, pi, v, S, nb[p.cand], p)
+		}
 	}
 }
 
 // kRestrict clips the base cell of v to the order-(k−1) cell of S:
-// ⋂ H(s, u) over s ∈ S \ {v}, u ∈ nb (V_v already gives H(v, u)). It
-// returns nil when nothing remains.
+// ⋂ H(s, u) over s ∈ S \ {v}, u ∈ nb (V_v already gives H(v, u); v = −1
+// takes every member). It returns nil when nothing remains.
 func kRestrict(t *planar.Triangulation, cell *planar.ClipRings, S []int32, v int32, nb []int32, sc *kScratch) *planar.ClipRings {
-	cur := cell
-	for _, s := range S {
+	// Closest pairs first: their bisectors cut most, so later half-planes
+	// mostly find nothing outside (one pass, no copy).
+	sc.pairs = sc.pairs[:0]
+	for si, s := range S {
 		if s == v {
 			continue
 		}
 		sx, sy := t.Coords[2*s], t.Coords[2*s+1]
-		for _, u := range nb {
-			hp := planar.Bisector(sx, sy, t.Coords[2*u], t.Coords[2*u+1])
-			if !hp.SomeOutside(cur.XY) {
-				continue
-			}
-			hp.ClipSet(cur, &sc.b)
-			sc.a, sc.b = sc.b, sc.a
-			cur = &sc.a
-			if len(cur.XY) == 0 {
-				return nil
-			}
+		for ui, u := range nb {
+			dx, dy := t.Coords[2*u]-sx, t.Coords[2*u+1]-sy
+			sc.pairs = append(sc.pairs, kByDist{dx*dx + dy*dy, int32(si*len(nb) + ui)})
+		}
+	}
+	kSortByDist(sc.pairs)
+	cur := cell
+	for _, p := range sc.pairs {
+		s, u := S[int(p.v)/len(nb)], nb[int(p.v)%len(nb)]
+		hp := planar.Bisector(t.Coords[2*s], t.Coords[2*s+1], t.Coords[2*u], t.Coords[2*u+1])
+		if !hp.SomeOutside(cur.XY) {
+			continue
+		}
+		hp.ClipSet(cur, &sc.b)
+		sc.a, sc.b = sc.b, sc.a
+		cur = &sc.a
+		if len(cur.XY) == 0 {
+			return nil
 		}
 	}
 	return cur
@@ -501,17 +767,62 @@ func kSegDist(ax, ay, bx, by, px, py float64) float64 {
 	return math.Hypot(ax+t*dx-px, ay+t*dy-py)
 }
 
+// kGraph is the Delaunay graph in compressed rows (the neighbours of
+// vertex v are Adj[Start[v]:Start[v+1]], in Triangulation.Neighbors order),
+// with, per vertex, whether its clipped cell is its whole Voronoi cell (one
+// ring, every edge on a bisector: the cell lies inside the area) and the
+// cell's bounding box.
+type kGraph struct {
+	Start []int32
+	Adj   []int32
+	Inner []bool
+	BoxXY []float64 // minX, minY, maxX, maxY per vertex
+}
+
+// newKGraph collects the neighbour lists and cell boxes of every vertex.
+func newKGraph(t *planar.Triangulation, c *planar.Cells) *kGraph {
+	nv := t.NumVertices()
+	g := &kGraph{Start: make([]int32, nv+1), Inner: make([]bool, nv), BoxXY: make([]float64, 4*nv)}
+	var buf []int32
+	for v := int32(0); v < int32(nv); v++ {
+		buf = t.Neighbors(v, buf)
+		g.Adj = append(g.Adj, buf...)
+		g.Start[v+1] = int32(len(g.Adj))
+	}
+	planar.ParallelFor(nv, 4096, func(lo, hi int) {
+		for v := lo; v < hi; v++ {
+			p0, p1 := c.SiteStart[v], c.SiteStart[v+1]
+			if p1-p0 != 1 || c.PolyStart[p0+1]-c.PolyStart[p0] != 1 {
+				continue
+			}
+			k := c.PolyStart[p0]
+			i0, i1 := c.RingStart[k], c.RingStart[k+1]
+			inner := true
+			for i := i0; i < i1; i++ {
+				if c.EdgeSource[i] < 0 {
+					inner = false
+					break
+				}
+			}
+			g.Inner[v] = inner
+			minX, minY, maxX, maxY := planar.BoundsXY(c.XY[2*i0:2*i1], nil)
+			copy(g.BoxXY[4*v:], []float64{minX, minY, maxX, maxY})
+		}
+	})
+	return g
+}
+
 // kNeighbourhood returns N(S) in buf: the Delaunay neighbours of the
-// members of S that are not in S, each once, in the order met (for one
-// member exactly Triangulation.Neighbors).
-func kNeighbourhood(t *planar.Triangulation, S []int32, buf []int32) []int32 {
+// members of S that are not in S, each once, in the order met. For one
+// member it is exactly Triangulation.Neighbors (as Failures uses; g may
+// then be nil).
+func kNeighbourhood(t *planar.Triangulation, g *kGraph, S []int32, buf []int32) []int32 {
 	if len(S) == 1 {
 		return t.Neighbors(S[0], buf)
 	}
 	buf = buf[:0]
-	var tmp [32]int32
 	for _, s := range S {
-		for _, u := range t.Neighbors(s, tmp[:0]) {
+		for _, u := range g.Adj[g.Start[s]:g.Start[s+1]] {
 			if !slices.Contains(S, u) && !slices.Contains(buf, u) {
 				buf = append(buf, u)
 			}
@@ -520,23 +831,39 @@ func kNeighbourhood(t *planar.Triangulation, S []int32, buf []int32) []int32 {
 	return buf
 }
 
-// kUniqueSets sorts the stride-k tuples of sets and removes repeats.
-func kUniqueSets(sets []int32, k int) []int32 {
+// kUniqueSets sorts the stride-k tuples of sets (each ascending) and
+// removes repeats: a counting sort by the first member, then a sort of
+// each (short) group.
+func kUniqueSets(sets []int32, k int, nv int) []int32 {
 	n := len(sets) / k
-	idx := make([]int32, n)
-	for i := range idx {
-		idx[i] = int32(i)
+	cnt := make([]int32, nv+1)
+	for i := 0; i < n; i++ {
+		cnt[sets[i*k]+1]++
 	}
-	slices.SortFunc(idx, func(a, b int32) int {
+	for v := 0; v < nv; v++ {
+		cnt[v+1] += cnt[v]
+	}
+	idx := make([]int32, n)
+	pos := slices.Clone(cnt[:nv])
+	for i := 0; i < n; i++ {
+		f := sets[i*k]
+		idx[pos[f]] = int32(i)
+		pos[f]++
+	}
+	cmpTup := func(a, b int32) int {
 		return slices.Compare(sets[int(a)*k:int(a)*k+k], sets[int(b)*k:int(b)*k+k])
-	})
-	out := make([]int32, 0, len(sets))
-	for j, i := range idx {
-		tup := sets[int(i)*k : int(i)*k+k]
-		if j > 0 && slices.Equal(tup, out[len(out)-k:]) {
-			continue
+	}
+	out := make([]int32, 0, len(sets)/2)
+	for v := 0; v < nv; v++ {
+		grp := idx[cnt[v]:cnt[v+1]]
+		slices.SortFunc(grp, cmpTup)
+		for j, i := range grp {
+			tup := sets[int(i)*k : int(i)*k+k]
+			if j > 0 && slices.Equal(tup, out[len(out)-k:]) {
+				continue
+			}
+			out = append(out, tup...)
 		}
-		out = append(out, tup...)
 	}
 	return out
 }

@@ -46,6 +46,7 @@ type kPiece struct {
 // kSplitScratch is per-goroutine scratch space of kSplit.
 type kSplitScratch struct {
 	cur, next planar.ClipRings
+	order     []kByDist
 	// res receives one entry per non-empty piece, in candidate order.
 	res []kPiece
 	// kept receives the rings of every non-empty piece (label = index into
@@ -67,10 +68,18 @@ func kSplit(t *planar.Triangulation, base *planar.ClipRings, cand []int32, r flo
 	for wi, w := range cand {
 		wx, wy := t.Coords[2*w], t.Coords[2*w+1]
 		cur := base
+		// Nearest candidates first: their half-planes cut most, so an empty
+		// piece is found after few clips.
+		sc.order = sc.order[:0]
 		for _, u := range cand {
-			if u == w {
-				continue
+			if u != w {
+				dx, dy := t.Coords[2*u]-wx, t.Coords[2*u+1]-wy
+				sc.order = append(sc.order, kByDist{dx*dx + dy*dy, u})
 			}
+		}
+		kSortByDist(sc.order)
+		for _, o := range sc.order {
+			u := o.v
 			hp := planar.Bisector(wx, wy, t.Coords[2*u], t.Coords[2*u+1])
 			if !hp.SomeOutside(cur.XY) {
 				continue
@@ -95,5 +104,25 @@ func kSplit(t *planar.Triangulation, base *planar.ClipRings, cand []int32, r flo
 			}
 		}
 		sc.res = append(sc.res, kPiece{cand: int32(wi), area: a, disk: d, far: far, fx: fx, fy: fy})
+	}
+}
+
+// kByDist is a candidate device with its squared distance from a point.
+type kByDist struct {
+	d2 float64
+	v  int32
+}
+
+// kSortByDist sorts a short list by increasing distance, ties by vertex
+// (insertion sort: the lists hold a few dozen entries at most).
+func kSortByDist(a []kByDist) {
+	for i := 1; i < len(a); i++ {
+		x := a[i]
+		j := i
+		for j > 0 && (a[j-1].d2 > x.d2 || a[j-1].d2 == x.d2 && a[j-1].v > x.v) {
+			a[j] = a[j-1]
+			j--
+		}
+		a[j] = x
 	}
 }

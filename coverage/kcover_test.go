@@ -32,6 +32,11 @@ func kTestScenes(t testing.TB) []kTestScene {
 		uni[i] = orb.Point{uni[i][0] * 100 / (math.Sqrt(60) * 10), uni[i][1] * 100 / (math.Sqrt(60) * 10)}
 	}
 	out = append(out, kTestScene{"uniform-60", cvLayout(t, uni, benchArea(t, uni, 5))})
+	u3 := sitegen.Uniform(300, 9)
+	for i := range u3 {
+		u3[i] = orb.Point{u3[i][0] * 100 / (math.Sqrt(300) * 10), u3[i][1] * 100 / (math.Sqrt(300) * 10)}
+	}
+	out = append(out, kTestScene{"uniform-300", cvLayout(t, u3, cvRegion(t, [][]orb.Point{cvRect(-2, -2, 102, 102)}))})
 	cl := sitegen.Clustered(80, 3)
 	b := orb.MultiPoint(cl).Bound()
 	sc := 100 / math.Max(b.Max[0]-b.Min[0], b.Max[1]-b.Min[1])
@@ -153,7 +158,7 @@ func TestKCoverTilingAndBound(t *testing.T) {
 					t.Errorf("k=%d: pieces sum to %.12g, area %.12g", lv.K, lv.PieceArea, sc.l.AreaM2)
 				}
 				k := lv.K
-				if bound := (2*k-1)*n - k*k + 1; sc.name == "uniform-60" && lv.Cells > bound {
+				if bound := (2*k-1)*n - k*k + 1; (sc.name == "uniform-60" || sc.name == "uniform-300") && lv.Cells > bound {
 					t.Errorf("k=%d: %d order-k cells, Lee's bound %d", k, lv.Cells, bound)
 				}
 				t.Logf("k=%d cells %d pieces %d range %.6g share %.6g", k, lv.Cells, lv.Pieces, lv.CoverRange, lv.Share)
@@ -239,7 +244,7 @@ func TestKCoverLattices(t *testing.T) {
 		// s from their second-nearest device (the site itself is the
 		// worst).
 		s := 10.0
-		l := kTestScenes(t)[2].l
+		l := kTestScenes(t)[3].l
 		kc, err := KCover(l, 5, KOptions{MaxK: 2})
 		if err != nil {
 			t.Fatal(err)
@@ -300,7 +305,7 @@ func TestKCoverLattices(t *testing.T) {
 }
 
 func TestKCoverBadInput(t *testing.T) {
-	l := kTestScenes(t)[4].l // 20 distinct devices, 23 inputs
+	l := kTestScenes(t)[5].l // 20 distinct devices, 23 inputs
 	for _, c := range []struct {
 		name string
 		k    int
@@ -345,4 +350,37 @@ func TestKCoverBadInput(t *testing.T) {
 			t.Errorf("3-cover range %v, corners %v", got, best)
 		}
 	})
+}
+
+func TestKCoverLevelsOnly(t *testing.T) {
+	// Reference: the full computation of every level 1 … 5. Asking for
+	// some levels only enumerates the others' sets (kLevelEnumerate); the
+	// figures must not change (the range is the same maximum; the areas
+	// are the same terms, possibly summed in other chunks).
+	for _, sc := range kTestScenes(t) {
+		t.Run(sc.name, func(t *testing.T) {
+			K := min(5, sc.l.Tri.NumVertices())
+			all, err := KCover(sc.l, 11, KOptions{MaxK: K})
+			if err != nil {
+				t.Fatal(err)
+			}
+			for k := 2; k <= K; k++ {
+				one, err := KCover(sc.l, 11, KOptions{Levels: []int{k}})
+				if err != nil {
+					t.Fatal(err)
+				}
+				a, b := all.Level(k), one.Level(k)
+				if len(one.Levels) != 1 || b == nil {
+					t.Fatalf("k=%d: levels %d", k, len(one.Levels))
+				}
+				// On a lattice the zero-area pieces at cocircular spots
+				// depend on the route; the figures do not.
+				lattice := sc.name == "square-lattice-7x7"
+				if a.CoverRange != b.CoverRange || !lattice && (a.Cells != b.Cells || a.Pieces != b.Pieces) ||
+					math.Abs(a.CoveredArea-b.CoveredArea) > 1e-12*sc.l.AreaM2 || math.Abs(a.PieceArea-b.PieceArea) > 1e-12*sc.l.AreaM2 {
+					t.Errorf("k=%d: alone %+v, with the others %+v", k, *b, *a)
+				}
+			}
+		})
+	}
 }
