@@ -384,3 +384,82 @@ func TestKCoverLevelsOnly(t *testing.T) {
 		})
 	}
 }
+
+func TestKCoverGaps(t *testing.T) {
+	// References: the k-gaps partition the part reached by fewer than k
+	// devices (their areas sum to area − k-covered area); each gap's
+	// closing range is the brute-force k-th nearest distance at its
+	// deepest spot, and the largest is the k-cover range; the number of
+	// outlines hold the brute-force samples reached by fewer than k
+	// devices and no others (kCheckOutlines).
+	for _, sc := range kTestScenes(t) {
+		t.Run(sc.name, func(t *testing.T) {
+			pts := kDistinct(sc.l)
+			K := min(4, len(pts))
+			for _, r := range []float64{9, 14, 20} {
+				kc, err := KCover(sc.l, r, KOptions{MaxK: K, Gaps: true})
+				if err != nil {
+					t.Fatal(err)
+				}
+				for _, lv := range kc.Levels {
+					sum := 0.0
+					top := 0.0
+					for _, g := range lv.Gaps {
+						sum += g.Area
+						top = math.Max(top, g.ClosingRange)
+						if d := kBrute(pts, g.Deepest[0], g.Deepest[1], lv.K); math.Abs(d-g.ClosingRange) > 1e-9*g.ClosingRange {
+							t.Errorf("r=%v k=%d gap %d: k-th distance at the deepest spot %.12g, closing range %.12g", r, lv.K, g.ID, d, g.ClosingRange)
+						}
+						if len(g.Sites) != lv.K || len(g.Outline) == 0 {
+							t.Errorf("r=%v k=%d gap %d: %d sites, %d outline polygons", r, lv.K, g.ID, len(g.Sites), len(g.Outline))
+						}
+					}
+					unc := sc.l.AreaM2 - lv.CoveredArea
+					if math.Abs(sum-unc) > 1e-9*sc.l.AreaM2 {
+						t.Errorf("r=%v k=%d: gaps sum to %.12g, uncovered %.12g", r, lv.K, sum, unc)
+					}
+					if lv.CoverRange > r && math.Abs(top-lv.CoverRange) > 1e-9*lv.CoverRange {
+						t.Errorf("r=%v k=%d: deepest gap %.12g, cover range %.12g", r, lv.K, top, lv.CoverRange)
+					}
+					kCheckOutlines(t, sc.l, pts, r, lv)
+				}
+			}
+		})
+	}
+}
+
+// kCheckOutlines checks the gap outlines against brute-force samples: a
+// sample of the area whose k-th nearest distance exceeds r by more than the
+// chord sagitta lies in exactly one gap's outline; one below r by as much
+// lies in none.
+func kCheckOutlines(t *testing.T, l *Layout, pts []orb.Point, r float64, lv KLevel) {
+	t.Helper()
+	margin := 2 * DefaultChordTolerance * r
+	ix := l.Area.Index()
+	b := l.Area.Bound()
+	const h = 2.0
+	bad := 0
+	for x := b.Min[0] + h/3; x <= b.Max[0]; x += h {
+		for y := b.Min[1] + h/5; y <= b.Max[1]; y += h {
+			if !ix.Contains(x, y) {
+				continue
+			}
+			d := kBrute(pts, x, y, lv.K)
+			if math.Abs(d-r) < margin {
+				continue
+			}
+			in := 0
+			for _, g := range lv.Gaps {
+				if gapsOutlineContains(g.Outline, orb.Point{x, y}) {
+					in++
+				}
+			}
+			if (d > r) != (in == 1) || in > 1 {
+				bad++
+				if bad <= 3 {
+					t.Errorf("r=%v k=%d: (%v, %v) at k-th distance %.6g lies in %d gap outlines", r, lv.K, x, y, d, in)
+				}
+			}
+		}
+	}
+}
