@@ -93,6 +93,9 @@ type Options struct {
 	// Progress, when not nil, is called with each file name before the
 	// file is produced (for a progress line on a terminal).
 	Progress func(file string)
+	// Reach, when not nil, adds the k-coverage outputs to WriteAnalysis
+	// (kcover.go).
+	Reach *coverage.KCoverage
 }
 
 // DefaultMapWidth is the map width used when Options.MapWidth is 0.
@@ -145,6 +148,9 @@ func Files(cells bool, m Meta, opt Options) []string {
 	if opt.Charts && !cells {
 		f = append(f, FileChartCurve, FileChartHoles)
 	}
+	if !cells {
+		f = append(f, reachFiles(m, opt)...)
+	}
 	return append(f, FileManifest)
 }
 
@@ -163,8 +169,12 @@ func WriteAnalysis(dir string, a *coverage.Analysis, m Meta, opt Options) (writt
 	s := newScene(a.Layout, a, m)
 	s.files = Files(false, m, opt)
 	steps := []step{
-		{FileReport, func() ([]byte, error) { return s.text(), nil }},
-		{FileSummary, func() ([]byte, error) { return s.summary().MarshalIndent() }},
+		{FileReport, func() ([]byte, error) { return append(s.text(), s.reachText(opt.Reach)...), nil }},
+		{FileSummary, func() ([]byte, error) {
+			d := s.summary()
+			d.Reach = s.reachDoc(opt.Reach)
+			return d.MarshalIndent()
+		}},
 		{LayerFile(FileSites, m.Planar), s.sitesLayer},
 		{LayerFile(FileServiceAreas, m.Planar), s.serviceAreasLayer},
 		{LayerFile(FileGaps, m.Planar), s.gapsLayer},
@@ -181,6 +191,7 @@ func WriteAnalysis(dir string, a *coverage.Analysis, m Meta, opt Options) (writt
 			step{FileChartCurve, func() ([]byte, error) { return s.curveChart(width) }},
 			step{FileChartHoles, func() ([]byte, error) { return s.holeChart(width) }})
 	}
+	steps = append(steps, s.reachSteps(opt)...)
 	err = w.writeAll(steps)
 	return w.done, err
 }
