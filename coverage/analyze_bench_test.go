@@ -16,7 +16,6 @@ package coverage
 import (
 	"fmt"
 	"math"
-	"runtime"
 	"runtime/metrics"
 	"sync/atomic"
 	"testing"
@@ -86,31 +85,14 @@ func BenchmarkAnalyze(b *testing.B) {
 					}
 					r = l.Curve().RangeFor(0.999)
 				}
-				runtime.GC()
-				var ms0, ms1 runtime.MemStats
-				runtime.ReadMemStats(&ms0)
-				var peak atomic.Uint64
-				base := ms0.HeapAlloc
-				stop := make(chan struct{})
-				done := make(chan struct{})
-				go func() { benchPeak(stop, &peak); close(done) }()
-				b.ResetTimer()
 				var a *Analysis
-				for i := 0; i < b.N; i++ {
+				benchMemory(b, n, func() {
 					var err error
 					a, err = Analyze(sites, area, r, Options{})
 					if err != nil {
 						b.Fatal(err)
 					}
-				}
-				b.StopTimer()
-				close(stop)
-				<-done
-				runtime.ReadMemStats(&ms1)
-				b.ReportMetric(float64(ms1.TotalAlloc-ms0.TotalAlloc)/float64(b.N)/float64(n), "alloc-B/site")
-				if p := peak.Load(); p > base {
-					b.ReportMetric(float64(p-base)/float64(n), "peak-B/site")
-				}
+				})
 				b.ReportMetric(float64(len(a.Gaps)), "gaps")
 				for _, t := range a.Timings {
 					b.ReportMetric(t.Seconds, t.Phase+"-s")

@@ -716,13 +716,7 @@ func kRestrict(t *planar.Triangulation, cell *planar.ClipRings, S []int32, v int
 	cur := cell
 	for _, p := range sc.pairs {
 		s, u := S[int(p.v)/len(nb)], nb[int(p.v)%len(nb)]
-		hp := planar.Bisector(t.Coords[2*s], t.Coords[2*s+1], t.Coords[2*u], t.Coords[2*u+1])
-		if !hp.SomeOutside(cur.XY) {
-			continue
-		}
-		hp.ClipSet(cur, &sc.b)
-		sc.a, sc.b = sc.b, sc.a
-		cur = &sc.a
+		cur = kCut(planar.Bisector(t.Coords[2*s], t.Coords[2*s+1], t.Coords[2*u], t.Coords[2*u+1]), cur, &sc.a, &sc.b)
 		if len(cur.XY) == 0 {
 			return nil
 		}

@@ -36,32 +36,15 @@ func BenchmarkKCover(b *testing.B) {
 				b.Run(fmt.Sprintf("k%d/%s-%d", k, g.name, n), func(b *testing.B) {
 					sites := g.make(n)
 					l := planBenchLayout(b, sites)
-					runtime.GC()
-					var ms0, ms1 runtime.MemStats
-					runtime.ReadMemStats(&ms0)
-					var peak atomic.Uint64
-					base := ms0.HeapAlloc
-					stop := make(chan struct{})
-					done := make(chan struct{})
-					go func() { benchPeak(stop, &peak); close(done) }()
-					cpu0 := kBenchCPU()
-					b.ResetTimer()
 					var kc *KCoverage
-					for i := 0; i < b.N; i++ {
+					cpu0 := kBenchCPU()
+					benchMemory(b, n, func() {
 						var err error
 						if kc, err = KCover(l, 12, KOptions{Levels: []int{k}}); err != nil {
 							b.Fatal(err)
 						}
-					}
-					b.StopTimer()
+					})
 					b.ReportMetric((kBenchCPU()-cpu0)/float64(b.N), "cpu-s/op")
-					close(stop)
-					<-done
-					runtime.ReadMemStats(&ms1)
-					b.ReportMetric(float64(ms1.TotalAlloc-ms0.TotalAlloc)/float64(b.N)/float64(n), "alloc-B/site")
-					if p := peak.Load(); p > base {
-						b.ReportMetric(float64(p-base)/float64(n), "peak-B/site")
-					}
 					b.ReportMetric(float64(kc.Levels[0].Cells)/float64(n), "cells/site")
 				})
 			}
@@ -78,4 +61,29 @@ func kBenchCPU() float64 {
 		return 0
 	}
 	return float64(ru.Utime.Nano()+ru.Stime.Nano()) / 1e9
+}
+
+// benchMemory runs run b.N times with the timer on and reports the bytes
+// allocated per run and the peak heap growth, both per site (n sites).
+func benchMemory(b *testing.B, n int, run func()) {
+	runtime.GC()
+	var ms0, ms1 runtime.MemStats
+	runtime.ReadMemStats(&ms0)
+	var peak atomic.Uint64
+	base := ms0.HeapAlloc
+	stop := make(chan struct{})
+	done := make(chan struct{})
+	go func() { benchPeak(stop, &peak); close(done) }()
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		run()
+	}
+	b.StopTimer()
+	close(stop)
+	<-done
+	runtime.ReadMemStats(&ms1)
+	b.ReportMetric(float64(ms1.TotalAlloc-ms0.TotalAlloc)/float64(b.N)/float64(n), "alloc-B/site")
+	if p := peak.Load(); p > base {
+		b.ReportMetric(float64(p-base)/float64(n), "peak-B/site")
+	}
 }

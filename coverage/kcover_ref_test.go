@@ -82,24 +82,33 @@ func TestKCoverReference(t *testing.T) {
 }
 
 func TestKCoverLive(t *testing.T) {
+	kRefCheck(t, kRefLoad(t, liveRefRun(t, "ref_kcover.py", "SciPy cKDTree, GEOS via python3-shapely")))
+}
+
+// liveRefRun runs testdata/<script> --small on a fresh seed (SITECOVER_SEED
+// reproduces one) under SITECOVER_LIVE=1 and returns the path of its JSON
+// output; it skips the test otherwise, and fails it when the reference
+// tool (/usr/bin/python3 with the libraries named in tools) is missing.
+func liveRefRun(t *testing.T, script, tools string) string {
+	t.Helper()
 	if os.Getenv("SITECOVER_LIVE") != "1" {
-		t.Skip("set SITECOVER_LIVE=1 to re-run testdata/ref_kcover.py (SciPy cKDTree, GEOS via python3-shapely) on a fresh seed")
+		t.Skipf("set SITECOVER_LIVE=1 to re-run testdata/%s (%s) on a fresh seed", script, tools)
 	}
 	if _, err := os.Stat("/usr/bin/python3"); err != nil {
 		t.Fatalf("reference tool missing: /usr/bin/python3: %v", err)
 	}
-	out := filepath.Join(t.TempDir(), "kcover_live.json")
+	out := filepath.Join(t.TempDir(), "live.json")
 	seed := time.Now().UnixNano() % 1000000007
 	if s := os.Getenv("SITECOVER_SEED"); s != "" {
 		fmt.Sscan(s, &seed)
 	}
-	cmd := exec.Command("/usr/bin/python3", filepath.Join("testdata", "ref_kcover.py"),
+	cmd := exec.Command("/usr/bin/python3", filepath.Join("testdata", script),
 		"--small", "--seed", fmt.Sprint(seed), "--out", out)
 	if b, err := cmd.CombinedOutput(); err != nil {
-		t.Fatalf("ref_kcover.py --seed %d failed: %v\n%s", seed, err, b)
+		t.Fatalf("%s --seed %d failed: %v\n%s", script, seed, err, b)
 	}
 	t.Logf("seed %d", seed)
-	kRefCheck(t, kRefLoad(t, out))
+	return out
 }
 
 func kRefCheck(t *testing.T, d *kRefDoc) {

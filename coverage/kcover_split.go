@@ -80,13 +80,7 @@ func kSplit(t *planar.Triangulation, base *planar.ClipRings, cand []int32, r flo
 		kSortByDist(sc.order)
 		for _, o := range sc.order {
 			u := o.v
-			hp := planar.Bisector(wx, wy, t.Coords[2*u], t.Coords[2*u+1])
-			if !hp.SomeOutside(cur.XY) {
-				continue
-			}
-			hp.ClipSet(cur, &sc.next)
-			sc.cur, sc.next = sc.next, sc.cur
-			cur = &sc.cur
+			cur = kCut(planar.Bisector(wx, wy, t.Coords[2*u], t.Coords[2*u+1]), cur, &sc.cur, &sc.next)
 			if len(cur.XY) == 0 {
 				break
 			}
@@ -125,4 +119,16 @@ func kSortByDist(a []kByDist) {
 		}
 		a[j] = x
 	}
+}
+
+// kCut clips cur by hp when some vertex of cur lies outside it, leaving the
+// result in *a (the previous contents of *a go to *b, reused as scratch),
+// and returns the set now current: cur itself when nothing was cut.
+func kCut(hp planar.HalfPlane, cur, a, b *planar.ClipRings) *planar.ClipRings {
+	if !hp.SomeOutside(cur.XY) {
+		return cur
+	}
+	hp.ClipSet(cur, b)
+	*a, *b = *b, *a
+	return a
 }
