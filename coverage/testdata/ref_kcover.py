@@ -50,6 +50,10 @@ from shapely import affinity, vectorized
 from shapely.geometry import Point, Polygon
 from shapely.ops import unary_union
 
+# The area sample (grid of spacing h inside the area plus points every h
+# along its rings) is the one of the planning references.
+from ref_plan import samples
+
 RES = 256  # quarter-circle segments: 1024-gons
 NSEG = 4 * RES
 KMAX = 4
@@ -75,20 +79,6 @@ def scenes(rng):
     out.append(dict(name="clustered", exterior=[(0, 0), (100, 0), (100, 80), (0, 80)], holes=[],
                     sites=cl, range=25.0))
     return out
-
-
-def samples(poly, h):
-    minx, miny, maxx, maxy = poly.bounds
-    xs = np.arange(minx, maxx + h / 2, h)
-    ys = np.arange(miny, maxy + h / 2, h)
-    gx, gy = np.meshgrid(xs, ys)
-    gx, gy = gx.ravel(), gy.ravel()
-    inside = vectorized.contains(poly, gx, gy)
-    pts = [np.column_stack([gx[inside], gy[inside]])]
-    for ring in [poly.exterior] + list(poly.interiors):
-        n = max(4, int(math.ceil(ring.length / h)))
-        pts.append(np.array([ring.interpolate(i * ring.length / n).coords[0] for i in range(n)]))
-    return np.vstack(pts)
 
 
 def disks(sites, r, circumscribed):
