@@ -847,10 +847,14 @@ func kUniqueSets(sets []int32, k int, nv int) []int32 {
 	cmpTup := func(a, b int32) int {
 		return slices.Compare(sets[int(a)*k:int(a)*k+k], sets[int(b)*k:int(b)*k+k])
 	}
+	planar.ParallelFor(nv, 4096, func(lo, hi int) {
+		for v := lo; v < hi; v++ {
+			slices.SortFunc(idx[cnt[v]:cnt[v+1]], cmpTup)
+		}
+	})
 	out := make([]int32, 0, len(sets)/2)
 	for v := 0; v < nv; v++ {
 		grp := idx[cnt[v]:cnt[v+1]]
-		slices.SortFunc(grp, cmpTup)
 		for j, i := range grp {
 			tup := sets[int(i)*k : int(i)*k+k]
 			if j > 0 && slices.Equal(tup, out[len(out)-k:]) {
