@@ -391,7 +391,16 @@ func kgRingChains(ring []float64, qx, qy, r float64, base int32) ([]kgChain, []k
 	return chains, cross, true
 }
 
-// kgTrace links chains and arcs into loops and groups them into parts.
+// kgLoop is a closed boundary of piece \ D: chains linked by arcs, its
+// outline (arcs as chords), its exact signed area and its chains.
+type kgLoop struct {
+	ring   orb.Ring
+	area   float64
+	chains []int
+}
+
+// kgTrace links chains and arcs into loops (see the file comment) and
+// groups them into parts (kgParts).
 func kgTrace(l *Layout, st *kStore, i int, gid int32, chains []kgChain, cross []kgCross, free []int,
 	anyCross bool, qx, qy, r, tol float64) ([]kgPart, []float64, bool) {
 	slices.SortFunc(cross, func(a, b kgCross) int { return cmp.Compare(a.ang, b.ang) })
@@ -427,18 +436,13 @@ func kgTrace(l *Layout, st *kStore, i int, gid int32, chains []kgChain, cross []
 	if !(step > 0) {
 		step = 0.01
 	}
-	type loop struct {
-		ring   orb.Ring
-		area   float64
-		chains []int
-	}
-	var loops []loop
+	var loops []kgLoop
 	seen := make([]bool, len(chains))
 	for c0 := range chains {
 		if seen[c0] {
 			continue
 		}
-		var lp loop
+		var lp kgLoop
 		c := c0
 		for !seen[c] {
 			seen[c] = true
@@ -481,8 +485,15 @@ func kgTrace(l *Layout, st *kStore, i int, gid int32, chains []kgChain, cross []
 			a := -2 * math.Pi * float64(s) / float64(ns)
 			ring = append(ring, orb.Point{qx + r*math.Cos(a), qy + r*math.Sin(a)})
 		}
-		loops = append(loops, loop{ring: ring, area: -math.Pi * r * r})
+		loops = append(loops, kgLoop{ring: ring, area: -math.Pi * r * r})
 	}
+	return kgParts(l, st, i, gid, chains, loops, qx, qy, r)
+}
+
+// kgParts makes one part per counter-clockwise loop, adds each clockwise
+// loop (a hole) to the part holding it, and takes each part's area, its
+// farthest valid vertex from q and its chain edges.
+func kgParts(l *Layout, st *kStore, i int, gid int32, chains []kgChain, loops []kgLoop, qx, qy, r float64) ([]kgPart, []float64, bool) {
 	// Outer loops make parts; holes join the outer loop holding them.
 	var parts []kgPart
 	partOf := make([]int, len(loops))
