@@ -38,13 +38,25 @@
 // last digit (TestKCoverFailures). The order-k sets are the S ∪ {q} of the
 // non-empty pieces, deduplicated; level k+1 starts from them.
 //
+// Cells inside the area. When the clipped cells of all members of S are
+// whole Voronoi cells (inside the area, no hole), C_S ∩ A = C_S, a convex
+// polygon: it is clipped once from the bounding box of those cells (which
+// holds C_S ⊂ ⋃ V_s) rather than once per member, and split only among the
+// devices across its edges (kEdgeCandidates): every piece of C_S holds a
+// strip along a whole edge of C_S.
+//
+// Levels not asked for (KOptions.Levels) are only enumerated: their sets
+// come from the devices across the edges of the cells of the level below
+// (kLevelEnumerate), without pieces or measures.
+//
 // k = 1 is the ordinary analysis: its figures are the Layout's own
 // (UncoveredArea, FullCover, Curve), not recomputed.
 //
 // Cost. Lee's bound: the order-k diagram of n sites has O(k(n − k)) cells
-// (at most (2k − 1)n − k² + 1 in general position); each has O(k) pieces
-// and each piece O(k) sub-pieces of O(|N(S)|) clips, so level k costs
-// O(k³ n) clips of small polygons, in parallel over the sets.
+// (at most (2k − 1)n − k² + 1 in general position); a cell inside the area
+// costs O(k·|N(S)|) half-plane tests and a few clips of a small convex
+// polygon, one meeting the area's boundary O(k) sub-pieces of O(|N(S)|²)
+// clips; so a level costs O(k² n) small clips, in parallel over the sets.
 //
 // Duplicates (devices at exactly the same spot) count once: "reached by k
 // devices" means k distinct positions; KCover warns when it merged some.
