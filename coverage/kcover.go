@@ -397,6 +397,11 @@ type kScratch struct {
 	pairs  []kByDist
 }
 
+// kNextPerSet is the room reserved per set for the sets of the next level
+// (the mean number of pieces per order-k cell is below 4 for k ≥ 2 on
+// random sites, 6 for k = 1: a reserve, not a limit).
+const kNextPerSet = 4
+
 // kSetChunk is the number of sets per chunk of a level (the unit of
 // parallel work and of the fixed summation order).
 const kSetChunk = 1024
@@ -415,6 +420,7 @@ func kLevelBuild(l *Layout, g *kGraph, k int, sets []int32, r float64, keep, wan
 		sc.holdFn = func(_ int32, x, y float64) bool { return planCellHolds(&sc.cell.RingSet, x, y) }
 		ch := &chunks[ci]
 		ch.far = -1
+		ch.next = make([]int32, 0, (hi-lo)*k*kNextPerSet)
 		if keep {
 			ch.store = &kStore{k: k, start: []int32{0}}
 		}
@@ -436,8 +442,15 @@ func kLevelBuild(l *Layout, g *kGraph, k int, sets []int32, r float64, keep, wan
 		if keep {
 			lv.store = append(lv.store, ch.store)
 		}
-		next = append(next, ch.next...)
-		ch.next = nil
+	}
+	nn := 0
+	for ci := range chunks {
+		nn += len(chunks[ci].next)
+	}
+	next = make([]int32, 0, nn)
+	for ci := range chunks {
+		next = append(next, chunks[ci].next...)
+		chunks[ci].next = nil
 	}
 	lv.CoveredArea = min(l.AreaM2, max(0, lv.CoveredArea))
 	lv.Share = lv.CoveredArea / l.AreaM2
@@ -467,7 +480,7 @@ func kLevelEnumerate(l *Layout, g *kGraph, k int, sets []int32) []int32 {
 	box := []float64{b.Min[0], b.Min[1], b.Max[0], b.Min[1], b.Max[0], b.Max[1], b.Min[0], b.Max[1]}
 	planar.ParallelChunks(ns, kSetChunk, 0, func(ci, lo, hi int) {
 		sc := &kScratch{}
-		var out []int32
+		out := make([]int32, 0, (hi-lo)*k*kNextPerSet)
 		for i := lo; i < hi; i++ {
 			S := sets[i*m : (i+1)*m]
 			for _, u := range kEnumerateSet(l, g, S, box, sc) {
@@ -711,26 +724,33 @@ func kTakePieces(t *planar.Triangulation, S []int32, v int32, keep bool, sc *kSc
 // ⋂ H(s, u) over s ∈ S \ {v}, u ∈ nb (V_v already gives H(v, u); v = −1
 // takes every member). It returns nil when nothing remains.
 func kRestrict(t *planar.Triangulation, cell *planar.ClipRings, S []int32, v int32, nb []int32, sc *kScratch) *planar.ClipRings {
-	// Closest pairs first: their bisectors cut most, so later half-planes
-	// mostly find nothing outside (one pass, no copy).
+	// Devices nearest the members' centre first: their bisectors cut
+	// most, so later half-planes mostly find nothing outside (one pass,
+	// no copy).
+	cx, cy := 0.0, 0.0
+	for _, s := range S {
+		cx += t.Coords[2*s]
+		cy += t.Coords[2*s+1]
+	}
+	cx /= float64(len(S))
+	cy /= float64(len(S))
 	sc.pairs = sc.pairs[:0]
-	for si, s := range S {
-		if s == v {
-			continue
-		}
-		sx, sy := t.Coords[2*s], t.Coords[2*s+1]
-		for ui, u := range nb {
-			dx, dy := t.Coords[2*u]-sx, t.Coords[2*u+1]-sy
-			sc.pairs = append(sc.pairs, kByDist{dx*dx + dy*dy, int32(si*len(nb) + ui)})
-		}
+	for _, u := range nb {
+		dx, dy := t.Coords[2*u]-cx, t.Coords[2*u+1]-cy
+		sc.pairs = append(sc.pairs, kByDist{dx*dx + dy*dy, u})
 	}
 	kSortByDist(sc.pairs)
 	cur := cell
 	for _, p := range sc.pairs {
-		s, u := S[int(p.v)/len(nb)], nb[int(p.v)%len(nb)]
-		cur = kCut(planar.Bisector(t.Coords[2*s], t.Coords[2*s+1], t.Coords[2*u], t.Coords[2*u+1]), cur, &sc.a, &sc.b)
-		if len(cur.XY) == 0 {
-			return nil
+		ux, uy := t.Coords[2*p.v], t.Coords[2*p.v+1]
+		for _, s := range S {
+			if s == v {
+				continue
+			}
+			cur = kCut(planar.Bisector(t.Coords[2*s], t.Coords[2*s+1], ux, uy), cur, &sc.a, &sc.b)
+			if len(cur.XY) == 0 {
+				return nil
+			}
 		}
 	}
 	return cur
