@@ -41,13 +41,8 @@ type kRefDoc struct {
 
 // kRefScene is one scene of kcover_ref.json.
 type kRefScene struct {
-	Name     string         `json:"name"`
-	Exterior [][2]float64   `json:"exterior"`
-	Holes    [][][2]float64 `json:"holes"`
-	Sites    [][2]float64   `json:"sites"`
-	Range    float64        `json:"range"`
-	Spacing  float64        `json:"sample_spacing"`
-	Levels   []kRefLevel    `json:"levels"`
+	refScene
+	Levels []kRefLevel `json:"levels"`
 }
 
 // kRefLevel holds the reference values of one k.

@@ -44,19 +44,26 @@ type planRefDoc struct {
 	Cands     []planRefCandidates `json:"candidates"`
 }
 
+// refScene is a reference scene of the JSON files written by the ref_*.py
+// scripts: a site area (exterior, holes), device sites, the planned range
+// and the spacing of the area sample.
+type refScene struct {
+	Name     string         `json:"name"`
+	Exterior [][2]float64   `json:"exterior"`
+	Holes    [][][2]float64 `json:"holes"`
+	Sites    [][2]float64   `json:"sites"`
+	Range    float64        `json:"range"`
+	Spacing  float64        `json:"sample_spacing"`
+}
+
 type planRefFailures struct {
-	Name         string         `json:"name"`
-	Exterior     [][2]float64   `json:"exterior"`
-	Holes        [][][2]float64 `json:"holes"`
-	Sites        [][2]float64   `json:"sites"`
-	Range        float64        `json:"range"`
-	Spacing      float64        `json:"sample_spacing"`
-	UncIntact    float64        `json:"uncovered_intact"`
-	UncWithout   []float64      `json:"uncovered_without"`
-	Survive      float64        `json:"survive_sample"`
-	SurvivePoint [2]float64     `json:"survive_sample_point"`
-	Closing      []float64      `json:"closing_sample"`
-	Samples      int            `json:"samples"`
+	refScene
+	UncIntact    float64    `json:"uncovered_intact"`
+	UncWithout   []float64  `json:"uncovered_without"`
+	Survive      float64    `json:"survive_sample"`
+	SurvivePoint [2]float64 `json:"survive_sample_point"`
+	Closing      []float64  `json:"closing_sample"`
+	Samples      int        `json:"samples"`
 }
 
 type planRefAssign struct {
