@@ -241,9 +241,9 @@ func Failures(l *Layout, r float64) (*FailureReport, error) {
 
 // planFailScratch is per-goroutine scratch space of Failures.
 type planFailScratch struct {
-	nbrs      []int32
-	cell      planar.ClipRings
-	cur, next planar.ClipRings
+	nbrs  []int32
+	cell  planar.ClipRings
+	split kSplitScratch
 }
 
 // planFailOne computes the failure of vertex v.
@@ -294,33 +294,15 @@ func planFailOne(l *Layout, v int32, r float64, shared bool, sc *planFailScratch
 	if !planCellConvex(&sc.cell.RingSet) {
 		valid = func(_ int32, x, y float64) bool { return planCellHolds(&sc.cell.RingSet, x, y) }
 	}
+	// The pieces P_w: kSplit (kcover_split.go), the same computation that
+	// gives the order-2 pieces of KCover.
+	kSplit(t, &sc.cell, nbrs, r, valid, false, &sc.split)
 	sumDisk := 0.0
 	out.closing = -1
-	for _, w := range nbrs {
-		wx, wy := t.Coords[2*w], t.Coords[2*w+1]
-		cur := &sc.cell
-		for _, u := range nbrs {
-			if u == w {
-				continue
-			}
-			hp := planar.Bisector(wx, wy, t.Coords[2*u], t.Coords[2*u+1])
-			if !hp.SomeOutside(cur.XY) {
-				continue
-			}
-			hp.ClipSet(cur, &sc.next)
-			sc.cur, sc.next = sc.next, sc.cur
-			cur = &sc.cur
-			if len(cur.XY) == 0 {
-				break
-			}
-		}
-		if len(cur.XY) == 0 {
-			continue
-		}
-		_, d, far, fx, fy := planMeasures(cur, wx, wy, r, valid)
-		sumDisk += d
-		if far > out.closing {
-			out.closing, out.dx, out.dy, out.backup = far, fx, fy, w
+	for _, p := range sc.split.res {
+		sumDisk += p.disk
+		if p.far > out.closing {
+			out.closing, out.dx, out.dy, out.backup = p.far, p.fx, p.fy, nbrs[p.cand]
 		}
 	}
 	if r > 0 {

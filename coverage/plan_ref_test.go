@@ -24,14 +24,11 @@ package coverage
 
 import (
 	"encoding/json"
-	"fmt"
 	"math"
 	"os"
-	"os/exec"
 	"path/filepath"
 	"slices"
 	"testing"
-	"time"
 
 	"github.com/paulmach/orb"
 	"github.com/sitecover/sitecover/planar"
@@ -47,19 +44,26 @@ type planRefDoc struct {
 	Cands     []planRefCandidates `json:"candidates"`
 }
 
+// refScene is a reference scene of the JSON files written by the ref_*.py
+// scripts: a site area (exterior, holes), device sites, the planned range
+// and the spacing of the area sample.
+type refScene struct {
+	Name     string         `json:"name"`
+	Exterior [][2]float64   `json:"exterior"`
+	Holes    [][][2]float64 `json:"holes"`
+	Sites    [][2]float64   `json:"sites"`
+	Range    float64        `json:"range"`
+	Spacing  float64        `json:"sample_spacing"`
+}
+
 type planRefFailures struct {
-	Name         string         `json:"name"`
-	Exterior     [][2]float64   `json:"exterior"`
-	Holes        [][][2]float64 `json:"holes"`
-	Sites        [][2]float64   `json:"sites"`
-	Range        float64        `json:"range"`
-	Spacing      float64        `json:"sample_spacing"`
-	UncIntact    float64        `json:"uncovered_intact"`
-	UncWithout   []float64      `json:"uncovered_without"`
-	Survive      float64        `json:"survive_sample"`
-	SurvivePoint [2]float64     `json:"survive_sample_point"`
-	Closing      []float64      `json:"closing_sample"`
-	Samples      int            `json:"samples"`
+	refScene
+	UncIntact    float64    `json:"uncovered_intact"`
+	UncWithout   []float64  `json:"uncovered_without"`
+	Survive      float64    `json:"survive_sample"`
+	SurvivePoint [2]float64 `json:"survive_sample_point"`
+	Closing      []float64  `json:"closing_sample"`
+	Samples      int        `json:"samples"`
 }
 
 type planRefAssign struct {
@@ -141,21 +145,7 @@ func TestPlanReference(t *testing.T) {
 }
 
 func TestPlanLive(t *testing.T) {
-	if os.Getenv("SITECOVER_LIVE") != "1" {
-		t.Skip("set SITECOVER_LIVE=1 to re-run testdata/ref_plan.py (GEOS via python3-shapely, SciPy cKDTree) on a fresh seed")
-	}
-	if _, err := os.Stat("/usr/bin/python3"); err != nil {
-		t.Fatalf("reference tool missing: /usr/bin/python3: %v", err)
-	}
-	out := filepath.Join(t.TempDir(), "plan_live.json")
-	seed := time.Now().UnixNano() % 1000000007
-	cmd := exec.Command("/usr/bin/python3", filepath.Join("testdata", "ref_plan.py"),
-		"--small", "--seed", fmt.Sprint(seed), "--out", out)
-	if b, err := cmd.CombinedOutput(); err != nil {
-		t.Fatalf("ref_plan.py --seed %d failed: %v\n%s", seed, err, b)
-	}
-	t.Logf("seed %d", seed)
-	planCheckRef(t, planLoadRef(t, out))
+	planCheckRef(t, planLoadRef(t, liveRefRun(t, "ref_plan.py", "GEOS via python3-shapely, SciPy cKDTree")))
 }
 
 func planCheckRef(t *testing.T, d *planRefDoc) {

@@ -103,6 +103,9 @@ type Options struct {
 	// Progress, when not nil, is called with each file name before the
 	// file is produced (for a progress line on a terminal).
 	Progress func(file string)
+	// Reach, when not nil, adds the k-coverage outputs to WriteAnalysis
+	// (kcover.go).
+	Reach *coverage.KCoverage
 }
 
 // DefaultMapWidth is the map width used when Options.MapWidth is 0.
@@ -159,6 +162,9 @@ func Files(cells bool, m Meta, opt Options) []string {
 	if opt.Charts && !cells {
 		f = append(f, FileChartCurve, FileChartHoles)
 	}
+	if !cells {
+		f = append(f, reachFiles(m, opt)...)
+	}
 	return append(f, FileManifest)
 }
 
@@ -178,8 +184,18 @@ func WriteAnalysis(dir string, a *coverage.Analysis, m Meta, opt Options) (writt
 	s.files = Files(false, m, opt)
 	s.listMax = SummaryListMax
 	steps := []step{
-		{name: FileReport, write: s.writeTextTo},
-		{name: FileSummary, write: func(out io.Writer) error { return writeDoc(out, s.summary()) }},
+		{name: FileReport, write: func(out io.Writer) error {
+			if err := s.writeTextTo(out); err != nil {
+				return err
+			}
+			_, err := out.Write(s.reachText(opt.Reach))
+			return err
+		}},
+		{name: FileSummary, write: func(out io.Writer) error {
+			d := s.summary()
+			d.Reach = s.reachDoc(opt.Reach)
+			return writeDoc(out, d)
+		}},
 		s.layerStep(FileSites, s.sitesLayer()),
 		s.layerStep(FileServiceAreas, s.serviceAreasLayer()),
 		s.layerStep(FileGaps, s.gapsLayer()),
@@ -200,6 +216,7 @@ func WriteAnalysis(dir string, a *coverage.Analysis, m Meta, opt Options) (writt
 			step{name: FileChartCurve, write: fromBytes(func() ([]byte, error) { return s.curveChart(width) })},
 			step{name: FileChartHoles, write: fromBytes(func() ([]byte, error) { return s.holeChart(width) })})
 	}
+	steps = append(steps, s.reachSteps(opt)...)
 	err = w.writeAll(s, steps)
 	return w.done, err
 }

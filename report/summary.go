@@ -93,6 +93,8 @@ type SummaryDoc struct {
 	Warnings []string `json:"warnings"`
 	// Timings are the seconds spent per phase.
 	Timings Timings `json:"timings"`
+	// Reach is the k-coverage (analyze --reach; absent otherwise).
+	Reach *ReachDoc `json:"reach,omitempty"`
 }
 
 // CellsDoc is the summary.json document of the cells command: the layout

@@ -37,6 +37,9 @@ number is metres.`,
   sitecover analyze --planar --sites plan-xy.csv --area plan-xy.geojson --range 25`,
 		Args: noArgs,
 		RunE: func(cmd *cobra.Command, args []string) error {
+			if _, err := parseReach(f.reach); err != nil {
+				return err
+			}
 			in, r, err := f.rangedInputs(cmd)
 			if err != nil {
 				return err
@@ -44,6 +47,7 @@ number is metres.`,
 			return asInput(runAnalysis(e, "analyze", f, in, r, true))
 		},
 	}
+	cmd.Flags().Var(newOnceString(&f.reach, ""), "reach", "also report the share reached by at least k devices, the range giving every spot k devices, and the parts short of k, for k = 1 … the largest listed (e.g. 2 or 2,3; redundancy and positioning)")
 	f.addInputFlags(cmd.Flags())
 	f.addRangeFlag(cmd.Flags(), "", "planned range of every device, e.g. 150m, 0.2km, 500ft, 0.1mi (required)")
 	f.addOutputFlags(cmd.Flags(), true)
@@ -63,17 +67,26 @@ func runAnalysis(e *env, command string, f *runFlags, in siteinput.Inputs, r flo
 	if err != nil {
 		return inputErrorf("%s: %v", inputNames(in), err)
 	}
+	kc, err := runReach(pr, f, a, r)
+	if err != nil {
+		return err
+	}
 	written, err := writeReport(f, pr, charts, func(opt report.Options) ([]string, error) {
+		opt.Reach = kc
 		return report.WriteAnalysis(f.out, a, sc.meta, opt)
 	})
 	if err != nil {
 		return err
 	}
 	doc := report.Summary(a, sc.meta)
+	if kc != nil {
+		doc.Reach = report.ReachSummary(kc, a.Layout, sc.meta)
+	}
 	if done, err := printHead(e, f, doc.Warnings); done {
 		return err
 	}
 	printAnalysis(e.stdout, doc, sc.meta)
+	printReach(e.stdout, doc)
 	if !charts {
 		printGapTable(e.stdout, doc, sc.meta)
 	}

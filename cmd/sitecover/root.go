@@ -173,6 +173,7 @@ type runFlags struct {
 	title                string
 	lifeSafety           bool
 	mapWidth             int
+	reach                string // analyze --reach: k values, comma-separated
 }
 
 // addInputFlags registers the input flags.

@@ -1,0 +1,87 @@
+// Tests of analyze --reach (reach.go): the outputs of a good run, agreement
+// with coverage.KCover and with the failures command's survive range, and
+// the usage errors.
+
+package main
+
+import (
+	"encoding/json"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+
+	"github.com/sitecover/sitecover/report"
+)
+
+func TestReachRun(t *testing.T) {
+	dir := t.TempDir()
+	sites := writeFile(t, dir, "s.csv", "x,y\n10,10\n30,12\n22,30\n5,35\n38,38\n20,20\n")
+	area := writeFile(t, dir, "a.geojson", squareGeoJSON(0, 0, 40))
+	out := filepath.Join(dir, "out")
+	r := runCLI(t, "analyze", "--planar", "--sites", sites, "--area", area, "--range", "15", "--reach", "3,2", "--out", out, "--no-maps")
+	if r.code != 0 {
+		t.Fatalf("exit %d: %s", r.code, r.stderr)
+	}
+	for _, f := range []string{report.LayerFile(report.FileReach, true), report.LayerFile(report.FileReachGaps, true)} {
+		if _, err := os.Stat(filepath.Join(out, f)); err != nil {
+			t.Errorf("missing %s: %v", f, err)
+		}
+	}
+	b, err := os.ReadFile(filepath.Join(out, report.FileSummary))
+	if err != nil {
+		t.Fatal(err)
+	}
+	var doc struct {
+		CoveredFraction float64          `json:"covered_fraction"`
+		FullCoverRangeM float64          `json:"full_cover_range_m"`
+		Reach           *report.ReachDoc `json:"reach"`
+	}
+	if err := json.Unmarshal(b, &doc); err != nil {
+		t.Fatal(err)
+	}
+	if doc.Reach == nil || len(doc.Reach.Levels) != 3 {
+		t.Fatalf("summary.json reach: %+v", doc.Reach)
+	}
+	// Reference: the ordinary analysis for k = 1 (the same figures).
+	if l := doc.Reach.Levels[0]; l.CoveredFraction != doc.CoveredFraction || l.CoverRangeM != doc.FullCoverRangeM {
+		t.Errorf("k = 1: %v %v, analysis %v %v", l.CoveredFraction, l.CoverRangeM, doc.CoveredFraction, doc.FullCoverRangeM)
+	}
+	// Reference: the failures command's survive range is the 2-cover range.
+	fout := filepath.Join(dir, "fail")
+	r = runCLI(t, "failures", "--planar", "--sites", sites, "--area", area, "--range", "15", "--out", fout, "--no-maps", "--json")
+	if r.code != 0 {
+		t.Fatalf("failures exit %d: %s", r.code, r.stderr)
+	}
+	var fd struct {
+		Survive *float64 `json:"survive_any_single_failure_m"`
+	}
+	if err := json.Unmarshal([]byte(r.stdout), &fd); err != nil || fd.Survive == nil {
+		t.Fatalf("failures summary: %v %s", err, r.stdout)
+	}
+	if *fd.Survive != doc.Reach.Levels[1].CoverRangeM {
+		t.Errorf("failures survive range %v, 2-cover range %v", *fd.Survive, doc.Reach.Levels[1].CoverRangeM)
+	}
+	rep, err := os.ReadFile(filepath.Join(out, report.FileReport))
+	if err != nil || !strings.Contains(string(rep), "REACHED BY k DEVICES") {
+		t.Errorf("report.txt lacks the reach section (%v)", err)
+	}
+}
+
+func TestReachBadUsage(t *testing.T) {
+	dir := t.TempDir()
+	sites := writeFile(t, dir, "s.csv", "x,y\n10,10\n30,12\n22,30\n22,30\n")
+	area := writeFile(t, dir, "a.geojson", squareGeoJSON(0, 0, 40))
+	base := []string{"analyze", "--planar", "--sites", sites, "--area", area, "--range", "15", "--out", filepath.Join(dir, "o"), "--no-maps"}
+	for _, c := range []failureCase{
+		{"zero", append(base, "--reach", "0"), exitUsage, []string{"--reach", "at least 1"}},
+		{"negative", append(base, "--reach", "2,-1"), exitUsage, []string{"at least 1"}},
+		{"not-integer", append(base, "--reach", "2.5"), exitUsage, []string{"not a whole number"}},
+		{"word", append(base, "--reach", "two"), exitUsage, []string{"not a whole number"}},
+		{"above-distinct", append(base, "--reach", "4"), exitUsage, []string{"k = 4", "3 distinct"}},
+	} {
+		t.Run(c.name, func(t *testing.T) {
+			checkFailure(t, runCLI(t, c.args...), c.code, c.want)
+		})
+	}
+}

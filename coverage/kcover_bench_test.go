@@ -1,0 +1,62 @@
+// Benchmarks of KCover (kcover.go): k = 2 up to 1 000 000 devices, k = 3
+// and 4 up to 100 000, on uniform and grid layouts (the layout, i.e. the
+// triangulation and the clipped order-1 cells, is built before the timer
+// starts; BenchmarkAnalyze times it). Only level k is reported; the levels
+// below it are enumerated.
+
+package coverage
+
+import (
+	"fmt"
+	"syscall"
+	"testing"
+
+	"github.com/paulmach/orb"
+	"github.com/sitecover/sitecover/planar/sitegen"
+)
+
+func BenchmarkKCover(b *testing.B) {
+	type gen struct {
+		name string
+		make func(n int) []orb.Point
+	}
+	gens := []gen{
+		{"uniform", func(n int) []orb.Point { return sitegen.Uniform(n, 1) }},
+		{"grid", sitegen.Grid},
+	}
+	for _, k := range []int{2, 3, 4} {
+		sizes := []int{10_000, 100_000}
+		if k == 2 {
+			sizes = append(sizes, 1_000_000)
+		}
+		for _, g := range gens {
+			for _, n := range sizes {
+				b.Run(fmt.Sprintf("k%d/%s-%d", k, g.name, n), func(b *testing.B) {
+					sites := g.make(n)
+					l := planBenchLayout(b, sites)
+					var kc *KCoverage
+					cpu0 := kBenchCPU()
+					benchMemory(b, n, "device", func() {
+						var err error
+						if kc, err = KCover(l, 12, KOptions{Levels: []int{k}}); err != nil {
+							b.Fatal(err)
+						}
+					})
+					b.ReportMetric((kBenchCPU()-cpu0)/float64(b.N), "cpu-s/op")
+					b.ReportMetric(float64(kc.Levels[0].Cells)/float64(n), "cells/site")
+				})
+			}
+		}
+	}
+}
+
+// kBenchCPU returns the user plus system CPU seconds of the process: on a
+// shared machine a steadier figure than the wall time (the wall time on an
+// idle machine is about the CPU time divided by the cores in use).
+func kBenchCPU() float64 {
+	var ru syscall.Rusage
+	if err := syscall.Getrusage(syscall.RUSAGE_SELF, &ru); err != nil {
+		return 0
+	}
+	return float64(ru.Utime.Nano()+ru.Stime.Nano()) / 1e9
+}
