@@ -147,7 +147,7 @@ func (s *scene) reachText(kc *coverage.KCoverage) []byte {
 	fmt.Fprintf(&b, "  %2s  %10s  %14s  %14s  %s\n", "k", "reached %", "short m²", "k-cover m", "needed at (devices nearest first)")
 	for _, lv := range kc.Levels {
 		fmt.Fprintf(&b, "  %2d  %10s  %14s  %14s  %s (%s)\n", lv.K, fmtReach(100*lv.Share, 3),
-			fmtReach(kc.AreaM2-lv.CoveredArea, 1), fmtReach(lv.CoverRange, 2), s.pointText(lv.CoverPoint), reachSites(lv.CoverSites))
+			fmtReach(kc.AreaM2-lv.CoveredArea, 1), fmtReach(lv.CoverRange, 2), s.pointText(lv.CoverPoint), s.reachSites(lv.CoverSites))
 	}
 	for _, lv := range kc.Levels {
 		if len(lv.Gaps) == 0 {
@@ -166,7 +166,7 @@ func (s *scene) reachText(kc *coverage.KCoverage) []byte {
 				break
 			}
 			fmt.Fprintf(&b, "  %4d  %12s  %11s  %s (%s)\n", g.ID, fmtReach(g.Area, 1), fmtReach(g.ClosingRange, 2),
-				s.pointText(g.Deepest), reachSites(g.Sites))
+				s.pointText(g.Deepest), s.reachSites(g.Sites))
 		}
 	}
 	b.WriteString("\n  Method: order-k Voronoi pieces (Lee, IEEE Trans. Computers 31, 1982); areas exact (closed form),\n" +
@@ -174,11 +174,12 @@ func (s *scene) reachText(kc *coverage.KCoverage) []byte {
 	return []byte(b.String())
 }
 
-// reachSites formats input indices as "#3, #7, …".
-func reachSites(v []int) string {
+// reachSites names the devices of input indices v as every output does
+// (their labels, or #n by input position).
+func (s *scene) reachSites(v []int) string {
 	p := make([]string, len(v))
 	for i, x := range v {
-		p[i] = "#" + strconv.Itoa(x)
+		p[i] = s.label(x)
 	}
 	return strings.Join(p, ", ")
 }
