@@ -284,7 +284,7 @@ func (c *canvas) haloStroke(halo float64, col color.Color, w float64) {
 // coverAlpha is the opacity of the covered fill: opaque, or translucent
 // over context layers so the buildings beneath stay visible.
 func (s *scene) coverAlpha() uint8 {
-	if len(s.m.Context) > 0 {
+	if len(s.m.Context) > 0 || len(s.m.ContextPoints) > 0 {
 		return 0xA8
 	}
 	return 0xFF
@@ -293,6 +293,7 @@ func (s *scene) coverAlpha() uint8 {
 // drawContext fills and outlines the context polygons (Meta.Context)
 // inside the area's frame; it draws nothing without them.
 func (s *scene) drawContext(c *canvas) {
+	s.drawContextPoints(c)
 	if len(s.m.Context) == 0 {
 		return
 	}
@@ -318,8 +319,31 @@ func (s *scene) drawContext(c *canvas) {
 // contextLegend is the legend item of the context layer, when there is
 // one.
 func (s *scene) contextLegend() []legendItem {
-	if len(s.m.Context) == 0 {
+	if len(s.m.Context) == 0 && len(s.m.ContextPoints) == 0 {
 		return nil
 	}
 	return []legendItem{{"Building or other context (drawn only, not analysed)", swatchFill(colContext, colContextEd)}}
+}
+
+// contextMarkPx is the half side, in page units, of the square marking a
+// context feature given as a point.
+const contextMarkPx = 5.0
+
+// drawContextPoints marks the context features given as points
+// (Meta.ContextPoints) with small squares in the context colours.
+func (s *scene) drawContextPoints(c *canvas) {
+	if len(s.m.ContextPoints) == 0 {
+		return
+	}
+	r := contextMarkPx * c.u
+	fill, edge := c.newFill(), c.newFillSeparate()
+	for _, p := range s.m.ContextPoints {
+		x, y := c.px(p)
+		sq := []float64{x - r, y - r, x + r, y - r, x + r, y + r, x - r, y + r}
+		fill.ringPx(sq, 1)
+		edge.ringPx([]float64{x - r - c.u, y - r - c.u, x + r + c.u, y - r - c.u, x + r + c.u, y + r + c.u, x - r - c.u, y + r + c.u}, 1)
+		edge.ringPx(sq, -1)
+	}
+	c.paint(edge.mask(), color.NRGBA(colContextEd), nil)
+	c.paint(fill.mask(), color.NRGBA(colContext), nil)
 }

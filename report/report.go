@@ -81,6 +81,16 @@ type Meta struct {
 	Timings []coverage.Timing
 	// Version is the program version printed in the report.
 	Version string
+	// AreaNote says in one line what building the site area merged or
+	// clipped (parcels merged, exclusions clipped); "" when nothing was.
+	AreaNote string
+	// AreaRelError bounds the relative error of areas against the
+	// ellipsoid: the projection's scale error plus the chords of densified
+	// edges (siteinput.Scene.AreaRelError); 0 for planar input.
+	AreaRelError float64
+	// ContextPoints are drawing-only context features given as points
+	// (e.g. buildings known by one position), in the local plane.
+	ContextPoints []orb.Point
 	// Context holds context polygons in the local plane (buildings,
 	// paths, ...): drawn on the maps under the coverage, never analysed.
 	Context orb.MultiPolygon

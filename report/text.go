@@ -181,8 +181,12 @@ func (s *scene) textInputs(b *textBuf) {
 	kv.add("Local plane", orDash(s.projection()))
 	if s.geographic() {
 		e := s.m.MaxScaleError
+		areaErr := 2*e + e*e
+		if s.m.AreaRelError > areaErr {
+			areaErr = s.m.AreaRelError // with the chords of densified edges
+		}
 		kv.add("Largest scale error", fmt.Sprintf("|k-1| = %.2g over the extent: plane distances within %.2g %% of the ground, areas within %.2g %%",
-			e, 100*e, 100*(2*e+e*e)))
+			e, 100*e, 100*areaErr))
 	} else {
 		kv.add("Largest scale error", "none (no projection)")
 	}
@@ -197,6 +201,9 @@ func (s *scene) textInputs(b *textBuf) {
 	if s.l.Area != nil {
 		holes := s.l.Area.NumRings() - s.l.Area.NumPolygons()
 		kv.add("Area outline", Plural(s.l.Area.NumPolygons(), "polygon")+", "+Plural(holes, "exclusion zone"))
+	}
+	if s.m.AreaNote != "" {
+		kv.add("Area built", s.m.AreaNote+" (union of the area polygons minus the union of the exclusion zones)")
 	}
 	kv.write(b)
 }

@@ -40,6 +40,7 @@ and service-area GeoJSON layers and the service-area map.`,
 		},
 	}
 	f.addInputFlags(cmd.Flags())
+	f.addContextFlag(cmd.Flags())
 	f.addOutputFlags(cmd.Flags(), true)
 	return cmd
 }

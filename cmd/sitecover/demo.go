@@ -78,8 +78,9 @@ campus buildings to their serving sensors). --no-plans skips them.`,
 			}
 			sites, area, _, title := examplesites.Campus()
 			in := siteinput.Inputs{
-				Sites: siteinput.Source{Name: examplesites.SitesFile + " (built in)", Data: sites},
-				Area:  &siteinput.Source{Name: examplesites.AreaFile + " (built in)", Data: area},
+				Sites:   siteinput.Source{Name: examplesites.SitesFile + " (built in)", Data: sites},
+				Area:    &siteinput.Source{Name: examplesites.AreaFile + " (built in)", Data: area},
+				Context: &siteinput.Source{Name: examplesites.BuildingsFile + " (built in)", Data: examplesites.BuildingsGeoJSON()},
 			}
 			if f.title == "" {
 				f.title = title

@@ -35,6 +35,7 @@ layers and the maps (no charts).`,
 		},
 	}
 	f.addInputFlags(cmd.Flags())
+	f.addContextFlag(cmd.Flags())
 	f.addRangeFlag(cmd.Flags(), "", "range of every device, e.g. 150m, 0.2km, 500ft, 0.1mi (required)")
 	f.addOutputFlags(cmd.Flags(), true)
 	return cmd

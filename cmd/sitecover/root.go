@@ -163,6 +163,7 @@ func noArgs(cmd *cobra.Command, args []string) error {
 // runFlags are the flags shared by the commands.
 type runFlags struct {
 	sites, area, exclude string
+	context              string
 	planar               bool
 	crs                  string
 	rangeText            string
@@ -174,6 +175,11 @@ type runFlags struct {
 	lifeSafety           bool
 	mapWidth             int
 	reach                string // analyze --reach: k values, comma-separated
+}
+
+// addContextFlag registers --context (analyze, gaps, cells).
+func (f *runFlags) addContextFlag(fs *pflag.FlagSet) {
+	fs.Var(newOnceString(&f.context, ""), "context", "drawing-only context layer for the maps: GeoJSON points or polygons (buildings, paths), never analysed")
 }
 
 // addInputFlags registers the input flags.
@@ -241,6 +247,11 @@ func (f *runFlags) inputs() (siteinput.Inputs, error) {
 	}
 	if f.exclude != "" {
 		if in.Exclude, err = openSource(f.exclude, "--exclude"); err != nil {
+			return in, err
+		}
+	}
+	if f.context != "" {
+		if in.Context, err = openSource(f.context, "--context"); err != nil {
 			return in, err
 		}
 	}

@@ -69,6 +69,17 @@ func loadScene(in siteinput.Inputs) (*scene, error) {
 	m.Planar = in.Planar
 	m.Title = s.Title
 	m.AreaFromHull = s.AreaFromHull
+	m.AreaNote = s.AreaNote
+	m.AreaRelError = s.AreaRelError
+	if c := s.Context; c != nil {
+		for i, p := range c.Pts {
+			if c.Polys[i] != nil {
+				m.Context = append(m.Context, c.Polys[i]...)
+			} else {
+				m.ContextPoints = append(m.ContextPoints, p)
+			}
+		}
+	}
 	m.Warnings = s.Warnings
 	m.Timings = s.Timings
 	if tm := s.Projection; tm != nil {

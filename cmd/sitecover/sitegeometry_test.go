@@ -9,6 +9,7 @@ package main
 import (
 	"path/filepath"
 	"strconv"
+	"strings"
 	"testing"
 )
 
@@ -55,5 +56,29 @@ func TestSiteGeometryAsItComes(t *testing.T) {
 			s := readSummary(t, out)
 			checkNear(t, "site area", s.AreaM2, c.want, 1e-9*c.want)
 		})
+	}
+}
+
+// --context draws buildings under the coverage and is never analysed: the
+// figures are those of the same run without it, and a bad context file is
+// refused naming it.
+func TestContextLayer(t *testing.T) {
+	dir := t.TempDir()
+	sites := writeFile(t, dir, "p.csv", "x,y\n10,10\n20,20\n30,10\n")
+	area := writeFile(t, dir, "a.geojson", squareGeoJSON(0, 0, 40))
+	ctx := writeFile(t, dir, "buildings.geojson", `{"type":"FeatureCollection","features":[
+		{"type":"Feature","properties":{"name":"Hall"},"geometry":{"type":"Polygon","coordinates":[[[2,2],[8,2],[8,8],[2,8],[2,2]]]}},
+		{"type":"Feature","properties":{"name":"Kiosk"},"geometry":{"type":"Point","coordinates":[35,35]}}]}`)
+	with, without := filepath.Join(dir, "with"), filepath.Join(dir, "without")
+	mustRun(t, "analyze", "--planar", "--sites", sites, "--area", area, "--range", "12", "--context", ctx, "--out", with, "--map-width", "600")
+	mustRun(t, "analyze", "--planar", "--sites", sites, "--area", area, "--range", "12", "--out", without, "--no-maps")
+	a, b := readSummary(t, with), readSummary(t, without)
+	if a.UncoveredAreaM2 != b.UncoveredAreaM2 || a.FullCoverRangeM != b.FullCoverRangeM {
+		t.Errorf("context changed the figures: %v/%v vs %v/%v", a.UncoveredAreaM2, a.FullCoverRangeM, b.UncoveredAreaM2, b.FullCoverRangeM)
+	}
+	bad := writeFile(t, dir, "bad.geojson", `{"type":"FeatureCollection","features":[{"type":"Feature","properties":{},"geometry":{"type":"LineString","coordinates":[[0,0],[1,1]]}}]}`)
+	r := runCLI(t, "analyze", "--planar", "--sites", sites, "--area", area, "--range", "12", "--context", bad, "--out", filepath.Join(dir, "bad"))
+	if r.code != 1 || !strings.Contains(r.stderr, "bad.geojson") {
+		t.Errorf("bad context: exit %d, stderr %q", r.code, r.stderr)
 	}
 }

@@ -64,6 +64,7 @@ type pointKind struct {
 var (
 	candidateKind = pointKind{what: "candidate spots"}
 	demandKind    = pointKind{what: "demand points", polygons: true, weights: true}
+	contextKind   = pointKind{what: "context features", polygons: true}
 )
 
 // expected is the geometry list of the messages.

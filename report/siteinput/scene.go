@@ -44,6 +44,9 @@ type Inputs struct {
 	// Points holds demand points or polygons, optionally weighted; nil
 	// when none.
 	Points *Source
+	// Context is an optional drawing-only layer (buildings, paths): points
+	// or polygons shown on the maps under the coverage, never analysed.
+	Context *Source
 	// Planar is true when the coordinates are local metres (x, y), not
 	// longitude/latitude.
 	Planar bool
@@ -82,6 +85,9 @@ type Scene struct {
 	// Candidates and Demand are the planning inputs in local metres (nil
 	// when not given).
 	Candidates, Demand *Items
+	// Context is the drawing-only context layer in local metres (nil
+	// without Inputs.Context).
+	Context *Items
 	// Title is the name of the first area polygon to cover that has one,
 	// else the sites file's base name without its extension.
 	Title string
@@ -251,7 +257,7 @@ func (sc *Scene) read(in Inputs) (*siteSet, []areaPoly, error) {
 		src  *Source
 		dst  **Items
 		kind pointKind
-	}{{in.Candidates, &sc.Candidates, candidateKind}, {in.Points, &sc.Demand, demandKind}} {
+	}{{in.Candidates, &sc.Candidates, candidateKind}, {in.Points, &sc.Demand, demandKind}, {in.Context, &sc.Context, contextKind}} {
 		if it.src == nil {
 			continue
 		}
@@ -288,7 +294,7 @@ func decodeInputs(in *Inputs) ([]string, error) {
 	}
 	// The optional inputs are copied, never changed where the caller
 	// keeps them.
-	for _, p := range []**Source{&in.Area, &in.Exclude, &in.Candidates, &in.Points} {
+	for _, p := range []**Source{&in.Area, &in.Exclude, &in.Candidates, &in.Points, &in.Context} {
 		if *p == nil {
 			continue
 		}
@@ -335,7 +341,7 @@ func (sc *Scene) project(in Inputs, sites *siteSet, polys []areaPoly) error {
 	}
 	sc.Sites = pts
 	sc.edgeArea = densifyPolys(polys, f)
-	for _, it := range []*Items{sc.Candidates, sc.Demand} {
+	for _, it := range []*Items{sc.Candidates, sc.Demand, sc.Context} {
 		if it != nil {
 			it.transform(f.forward)
 		}
@@ -365,7 +371,7 @@ func allInputPoints(sc *Scene, sites *siteSet, polys []areaPoly) []orb.Point {
 // of them.
 func inputFiles(in Inputs) string {
 	files := in.Sites.Name
-	for _, s := range []*Source{in.Area, in.Exclude, in.Candidates, in.Points} {
+	for _, s := range []*Source{in.Area, in.Exclude, in.Candidates, in.Points, in.Context} {
 		if s != nil {
 			files += ", " + s.Name
 		}
