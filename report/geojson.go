@@ -212,7 +212,7 @@ func (s *scene) sitesLayer() ([]byte, error) {
 	tri := s.l.Tri
 	for i, p := range s.l.Sites {
 		dup := -1
-		if tri != nil && i < len(tri.Vertex) {
+		if tri != nil && i < len(tri.Vertex) && tri.Vertex[i] >= 0 {
 			if src := int(tri.Source[tri.Vertex[i]]); src != i {
 				dup = src
 			}
@@ -220,6 +220,7 @@ func (s *scene) sitesLayer() ([]byte, error) {
 		l.feature(orb.Point(s.point(p)), func(b []byte) []byte {
 			b = strconv.AppendInt(kv(b, "site", true), int64(i), 10)
 			b = appendStr(kv(b, "name", false), s.name(i))
+			b = s.appendRangeProps(b, i)
 			return strconv.AppendInt(kv(b, "duplicate_of", false), int64(dup), 10)
 		})
 	}

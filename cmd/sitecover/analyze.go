@@ -37,27 +37,31 @@ number is metres.`,
   sitecover analyze --planar --sites plan-xy.csv --area plan-xy.geojson --range 25`,
 		Args: noArgs,
 		RunE: func(cmd *cobra.Command, args []string) error {
-			in, r, err := f.rangedInputs(cmd)
+			in, err := f.rangesInputs(cmd)
 			if err != nil {
 				return err
 			}
-			return asInput(runAnalysis(e, "analyze", f, in, r, true))
+			return asInput(runAnalysis(e, "analyze", f, in, true))
 		},
 	}
 	f.addInputFlags(cmd.Flags())
-	f.addRangeFlag(cmd.Flags(), "", "planned range of every device, e.g. 150m, 0.2km, 500ft, 0.1mi (required)")
+	f.addRangeFlag(cmd.Flags(), "", "planned range of every device, e.g. 150m, 0.2km, 500ft, 0.1mi (required unless the sites give their own: a range column, or a type column with --type-range)")
 	f.addOutputFlags(cmd.Flags(), true)
 	return cmd
 }
 
 // runAnalysis is the analyze/gaps/demo pipeline. With charts false the
 // PNG charts are skipped and the gap table is printed (the gaps command).
-func runAnalysis(e *env, command string, f *runFlags, in siteinput.Inputs, r float64, charts bool) error {
+func runAnalysis(e *env, command string, f *runFlags, in siteinput.Inputs, charts bool) error {
 	sc, pr, err := startRun(e, command, f, in)
 	if err != nil {
 		return err
 	}
 	defer pr.end()
+	if sc.ranges != nil {
+		return runRangesAnalysis(e, f, sc, pr, in, charts)
+	}
+	r := sc.rangeM
 	pr.set(fmt.Sprintf("analysing %d sites", len(sc.sites)))
 	a, err := coverage.Analyze(sc.sites, sc.region, r, coverage.Options{})
 	if err != nil {

@@ -80,11 +80,12 @@ campus buildings to their serving sensors). --no-plans skips them.`,
 			in := siteinput.Inputs{
 				Sites: siteinput.Source{Name: examplesites.SitesFile + " (built in)", Data: sites},
 				Area:  &siteinput.Source{Name: examplesites.AreaFile + " (built in)", Data: area},
+				Range: r,
 			}
 			if f.title == "" {
 				f.title = title
 			}
-			if err := asInput(runAnalysis(e, "demo", f, in, r, true)); err != nil || noPlans {
+			if err := asInput(runAnalysis(e, "demo", f, in, true)); err != nil || noPlans {
 				return err
 			}
 			mode := printBrief

@@ -1,0 +1,125 @@
+// Devices with their own ranges on the command line: the flags giving
+// ranges per device type (--type-range TYPE=LENGTH, repeatable, or
+// --range-table FILE, a CSV "type,range"), the start of the commands that
+// accept a range column instead of --range (analyze, gaps), and the run of
+// coverage.AnalyzeRanges with its stdout summary. How each device's range
+// is chosen, and what is refused, is siteinput's (report/siteinput/ranges.go).
+
+package main
+
+import (
+	"fmt"
+	"io"
+	"strings"
+
+	"github.com/sitecover/sitecover/coverage"
+	"github.com/sitecover/sitecover/report"
+	"github.com/sitecover/sitecover/report/siteinput"
+	"github.com/spf13/cobra"
+	"github.com/spf13/pflag"
+)
+
+// addTypeRangeFlags registers --type-range and --range-table.
+func (f *runFlags) addTypeRangeFlags(fs *pflag.FlagSet) {
+	fs.StringArrayVar(&f.typeRange, "type-range", nil, "range of one device type, TYPE=LENGTH (e.g. gateway=150m; repeat for each type): devices take the range of their type column (CSV type, GeoJSON \"type\" property)")
+	fs.Var(newOnceString(&f.rangeTable, ""), "range-table", "CSV file of ranges per device type (columns type,range), instead of --type-range")
+}
+
+// typeRanges reads the table of ranges per type from --type-range or
+// --range-table (nil when neither is given; both is bad usage).
+func (f *runFlags) typeRanges() (*siteinput.TypeRanges, error) {
+	switch {
+	case len(f.typeRange) > 0 && f.rangeTable != "":
+		return nil, usageErrorf("--type-range and --range-table both give ranges per device type: use one of them")
+	case len(f.typeRange) > 0:
+		tr, err := siteinput.ParseTypeRanges(f.typeRange, "--type-range")
+		return tr, fromInput(err)
+	case f.rangeTable != "":
+		tr, err := siteinput.ReadRangeTable(f.rangeTable, "--range-table")
+		return tr, fromInput(err)
+	}
+	return nil, nil
+}
+
+// rangesInputs is the start of analyze and gaps: --sites is required,
+// --range is optional when the sites carry their own ranges (a range
+// column, or a type column with a type table); without any range source
+// loading the scene reports the missing --range.
+func (f *runFlags) rangesInputs(cmd *cobra.Command) (siteinput.Inputs, error) {
+	if err := requireFlags(cmd, "sites"); err != nil {
+		return siteinput.Inputs{}, err
+	}
+	r, _, err := f.optionalRange(cmd)
+	if err != nil {
+		return siteinput.Inputs{}, err
+	}
+	in, err := f.inputs()
+	if err != nil {
+		return siteinput.Inputs{}, err
+	}
+	in.Range, in.RangeRequired = r, true
+	return in, nil
+}
+
+// refuseRanges is the answer of the commands that do not model per-device
+// ranges yet when the sites carry them: an input error, never a silent
+// common range.
+func refuseRanges(sc *scene, command string, in siteinput.Inputs) error {
+	if sc.ranges == nil {
+		return nil
+	}
+	return inputErrorf("%s: the devices have their own ranges (range column or type table); %s uses one common range: give only --range", in.Sites.Name, command)
+}
+
+// runRangesAnalysis is runAnalysis for devices with their own ranges:
+// coverage.AnalyzeRanges, the report folder, and the stdout summary.
+func runRangesAnalysis(e *env, f *runFlags, sc *scene, pr *progress, in siteinput.Inputs, charts bool) error {
+	pr.set(fmt.Sprintf("analysing %d sites with their own ranges", len(sc.sites)))
+	a, err := coverage.AnalyzeRanges(sc.sites, sc.ranges, sc.region, coverage.Options{})
+	if err != nil {
+		return inputErrorf("%s: %v", inputNames(in), err)
+	}
+	written, err := writeReport(f, pr, charts, func(opt report.Options) ([]string, error) {
+		return report.WriteRangesAnalysis(f.out, a, sc.meta, opt)
+	})
+	if err != nil {
+		return err
+	}
+	doc := report.RangesSummary(a, sc.meta)
+	if done, err := printHead(e, f, doc.Warnings); done {
+		return err
+	}
+	printRangesAnalysis(e.stdout, doc, sc.meta)
+	printWritten(e.stdout, f.out, written)
+	return nil
+}
+
+// printRangesAnalysis prints the headline figures of an analysis with
+// per-device ranges: the range of each device type, the coverage at the
+// planned ranges, the full-cover ranges and the hidden devices.
+func printRangesAnalysis(w io.Writer, d *report.RangesDoc, m report.Meta) {
+	if m.Title != "" {
+		fmt.Fprintln(w, m.Title)
+	}
+	fmt.Fprintf(w, "  %-24s %d\n", "sites", d.Sites)
+	fmt.Fprintf(w, "  %-24s %s m²\n", "site area", fmtNum(d.AreaM2, 1))
+	for _, g := range d.RangeGroups {
+		fmt.Fprintf(w, "  %-24s %s m (%s)\n", "range of "+g.Type, fmtNum(g.RangeM, 2), report.Plural(g.Devices, "device"))
+	}
+	fmt.Fprintf(w, "  %-24s %s %% (%s m² uncovered in %s)\n", "covered at planned",
+		report.CoveredPercent(d.CoveredFraction, d.UncoveredAreaM2, 2), report.AreaNumber(d.UncoveredAreaM2, 1), nGaps(len(d.Gaps)))
+	var full []string
+	for _, g := range d.FullCover {
+		full = append(full, fmt.Sprintf("%s %s m", g.Type, fmtNum(g.RangeM, 2)))
+	}
+	fmt.Fprintf(w, "  %-24s %s\n", "full cover needs", strings.Join(full, ", "))
+	hidden := "none"
+	if len(d.Hidden) > 0 {
+		var names []string
+		for _, i := range d.Hidden {
+			names = append(names, siteLabel(m, i))
+		}
+		hidden = strings.Join(names, ", ")
+	}
+	fmt.Fprintf(w, "  %-24s %s\n", "redundant (hidden)", hidden)
+}
