@@ -74,6 +74,17 @@ func (rs *rangesScene) drawCoverageMap(width int) (*canvas, error) {
 	rs.drawZones(c)
 	rs.strokeArea(c)
 	rs.drawSites(c, d)
+	if len(a.Hidden) > 0 {
+		// Hidden devices have no vertex of the regular triangulation, so
+		// drawSites (by vertex) leaves them out: mark them here.
+		rho := d.siteRadius(c.u)
+		marks := c.newFill()
+		for _, i := range a.Hidden {
+			p := rs.l.Sites[i]
+			marks.circle(c.ox+p[0]*c.k, c.oy-p[1]*c.k, rho, unitCircle(circleSides(rho)))
+		}
+		c.paint(marks.mask(), color.NRGBA(colInk), nil)
+	}
 	c.gapMarks(a.Gaps[:numbered])
 	c.finish(key)
 	return c, nil

@@ -90,6 +90,9 @@ func runRangesAnalysis(e *env, f *runFlags, sc *scene, pr *progress, in siteinpu
 		return err
 	}
 	printRangesAnalysis(e.stdout, doc, sc.meta)
+	if !charts {
+		printRangesGapTable(e.stdout, doc, sc.meta)
+	}
 	printWritten(e.stdout, f.out, written)
 	return nil
 }
@@ -122,4 +125,41 @@ func printRangesAnalysis(w io.Writer, d *report.RangesDoc, m report.Meta) {
 		hidden = strings.Join(names, ", ")
 	}
 	fmt.Fprintf(w, "  %-24s %s\n", "redundant (hidden)", hidden)
+}
+
+// printRangesGapTable prints the gaps at the planned ranges with what
+// closes each: the range each bordering device needs when all ranges grow
+// together, and the single device whose smallest increase closes it.
+func printRangesGapTable(w io.Writer, d *report.RangesDoc, m report.Meta) {
+	if len(d.Gaps) == 0 {
+		fmt.Fprintln(w, "No gaps at the planned ranges.")
+		return
+	}
+	fmt.Fprintln(w, "\nGaps at the planned ranges:")
+	fmt.Fprintf(w, "  %4s  %12s  %-8s  %-26s  %s\n", "gap", "area m²", "kind", "single-device fix", "closing ranges (all grow together)")
+	for i, g := range d.Gaps {
+		if i == maxGapRows {
+			fmt.Fprintf(w, "  ... and %d more gaps (all in report.txt, summary.json and gaps.geojson)\n", len(d.Gaps)-i)
+			break
+		}
+		kind := "edge"
+		if !g.TouchesBoundary {
+			kind = "inner"
+		}
+		fix := "-"
+		if g.FixSite >= 0 {
+			fix = g.FixLabel + " to " + fmtNum(g.FixRangeM, 2) + " m"
+		}
+		var need []string
+		for k, s := range g.Sites {
+			if k == 6 {
+				need = append(need, fmt.Sprintf("+%d", len(g.Sites)-k))
+				break
+			}
+			if k < len(g.NeededM) {
+				need = append(need, siteLabel(m, s)+" "+fmtNum(g.NeededM[k], 2)+" m")
+			}
+		}
+		fmt.Fprintf(w, "  %4d  %12s  %-8s  %-26s  %s\n", g.ID, fmtNum(g.AreaM2, 1), kind, fix, strings.Join(need, ", "))
+	}
 }

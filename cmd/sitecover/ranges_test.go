@@ -50,6 +50,9 @@ func TestRangesCLI(t *testing.T) {
 					t.Errorf("stdout lacks %q:\n%s", w, r.stdout)
 				}
 			}
+			if c.args[0] == "gaps" && !strings.Contains(r.stdout, "g1 to 316.23 m") {
+				t.Errorf("gaps stdout lacks the single-device fix:\n%s", r.stdout)
+			}
 			var doc struct {
 				Hidden  []int `json:"hidden"`
 				Devices []struct {
