@@ -95,15 +95,16 @@ type RangesDoc struct {
 	CoveredFraction float64     `json:"covered_fraction"`
 	UncoveredAreaM2 float64     `json:"uncovered_area_m2"`
 	Gaps            []RangesGap `json:"gaps"`
-	// Pieces and EnclosedHoles are the Betti numbers of the union of the
-	// disks at the planned ranges; LinkGroups the groups of devices linked
-	// two-way (each within the other's range).
-	Pieces        int      `json:"pieces"`
-	EnclosedHoles int      `json:"enclosed_holes"`
-	LinkGroups    int      `json:"link_groups"`
-	Coordinates   string   `json:"coordinates"`
-	Warnings      []string `json:"warnings"`
-	Timings       Timings  `json:"timings"`
+	// Pieces and OpenHoles are the Betti numbers of the union of the
+	// disks at the planned ranges (pieces of coverage, holes open);
+	// LinkGroups the groups of devices linked two-way (each within the
+	// other's range).
+	Pieces      int      `json:"pieces"`
+	OpenHoles   int      `json:"open_holes"`
+	LinkGroups  int      `json:"link_groups"`
+	Coordinates string   `json:"coordinates"`
+	Warnings    []string `json:"warnings"`
+	Timings     Timings  `json:"timings"`
 }
 
 // MarshalIndent returns the document as indented JSON.
@@ -253,7 +254,7 @@ func (rs *rangesScene) summary() *RangesDoc {
 		Hidden:          append([]int{}, a.Hidden...),
 		CoveredFraction: a.CoveredFraction, UncoveredAreaM2: a.UncoveredArea,
 		Gaps:   make([]RangesGap, 0, len(a.Gaps)),
-		Pieces: a.Pieces, EnclosedHoles: a.EnclosedHoles, LinkGroups: a.Links.Components,
+		Pieces: a.Pieces, OpenHoles: a.EnclosedHoles, LinkGroups: a.Links.Components,
 		Coordinates: rs.coordKind(), Warnings: append([]string{}, rs.m.Warnings...),
 	}
 	hidden := make(map[int]bool, len(a.Hidden))
@@ -307,6 +308,7 @@ func (rs *rangesScene) text() []byte {
 		b.WriteString(Cautions() + "\n")
 	}
 	rs.textInputs(&b)
+	rs.textTerms(&b)
 	section(&b, "DEVICES WITH THEIR OWN RANGES")
 	b.WriteString(rangesMeaning)
 	var t table
@@ -322,6 +324,7 @@ func (rs *rangesScene) text() []byte {
 	kv.add("covered at the planned ranges", CoveredPercent(d.CoveredFraction, d.UncoveredAreaM2, 2)+" %")
 	kv.add("uncovered", m2(d.UncoveredAreaM2)+" in "+Plural(len(d.Gaps), "gap"))
 	kv.add("pieces of coverage", strconv.Itoa(d.Pieces))
+	kv.add("holes open", strconv.Itoa(d.OpenHoles))
 	kv.add("groups of linked devices", strconv.Itoa(d.LinkGroups)+" (a link: each device within the other's range)")
 	kv.add("redundant (hidden) devices", rs.labels(d.Hidden, "none"))
 	kv.write(&b)
@@ -351,8 +354,8 @@ func (rs *rangesScene) textGapsRanges(b *bytes.Buffer, d *RangesDoc) {
 		return
 	}
 	var t table
-	t.head("gap", "area m²", "kind", "closing ranges (all grow together)", "single-device fix")
-	t.left(2, 3, 4)
+	t.head("gap", "area m²", "kind", "deepest point", "single-device fix", "closing ranges (all grow together)")
+	t.left(2, 3, 4, 5)
 	for gi, g := range d.Gaps {
 		var need []string
 		for k, i := range g.Sites {
@@ -364,7 +367,7 @@ func (rs *rangesScene) textGapsRanges(b *bytes.Buffer, d *RangesDoc) {
 		if g.FixSite >= 0 {
 			fix = fmt.Sprintf("%s to %s m", g.FixLabel, metresNum(g.FixRangeM))
 		}
-		t.row(strconv.Itoa(g.ID), AreaNumber(g.AreaM2, 1), gapKind(rs.ra.Gaps[gi]), strings.Join(need, ", "), fix)
+		t.row(strconv.Itoa(g.ID), AreaNumber(g.AreaM2, 1), gapKind(rs.ra.Gaps[gi]), FormatPoint(g.DeepestPoint, d.Coordinates), fix, strings.Join(need, ", "))
 	}
 	t.write(b)
 }

@@ -10,9 +10,11 @@ package main
 import (
 	"fmt"
 	"io"
+	"path/filepath"
 	"strings"
 
 	"github.com/sitecover/sitecover/coverage"
+	"github.com/sitecover/sitecover/examplesites"
 	"github.com/sitecover/sitecover/report"
 	"github.com/sitecover/sitecover/report/siteinput"
 	"github.com/spf13/cobra"
@@ -162,4 +164,25 @@ func printRangesGapTable(w io.Writer, d *report.RangesDoc, m report.Meta) {
 		}
 		fmt.Fprintf(w, "  %4d  %12s  %-8s  %-26s  %s\n", g.ID, fmtNum(g.AreaM2, 1), kind, fix, strings.Join(need, ", "))
 	}
+}
+
+// mixedDemoDir is the demo's sub-folder of the mixed-range campus.
+const mixedDemoDir = "mixed-ranges"
+
+// runMixedDemo analyses the demo campus with mixed ranges
+// (examplesites.MixedSitesGeoJSON: each device's range in the sites file)
+// into the sub-folder mixedDemoDir of the demo's output. With --json
+// nothing more is printed (stdout holds the main summary.json only).
+func runMixedDemo(e *env, f *runFlags, in siteinput.Inputs) error {
+	mi := in
+	mi.Sites = siteinput.Source{Name: examplesites.MixedSitesFile + " (built in)", Data: examplesites.MixedSitesGeoJSON()}
+	mf := *f
+	mf.out = filepath.Join(f.out, mixedDemoDir)
+	me := *e
+	if f.json {
+		me.stdout, mf.json = io.Discard, false
+	} else {
+		fmt.Fprintf(e.stdout, "\nMixed ranges: short-range sensors among long-range gateways (%s)\n", mixedDemoDir)
+	}
+	return asInput(runAnalysis(&me, "demo", &mf, mi, true))
 }

@@ -12,6 +12,8 @@ import (
 	"slices"
 	"strings"
 	"testing"
+
+	"github.com/sitecover/sitecover/examplesites"
 )
 
 // mixedCSV is a gateway reaching 150 m and three sensors reaching 40 m;
@@ -104,6 +106,77 @@ func TestRangesCLI(t *testing.T) {
 		r := mustRun(t, "cells", "--planar", "--sites", mixed, "--area", area, "--out", filepath.Join(dir, "cells"), "--no-maps")
 		if !strings.Contains(r.stdout, "service areas") {
 			t.Errorf("stdout %q", r.stdout)
+		}
+	})
+}
+
+// TestMixedDemoReference checks the demo's mixed-range campus (sensors at
+// 80 m among gateways at 180 m, ranges in the sites file) against
+// campus-mixed-reference.json, made by examplesites/gen_mixed.py with GEOS
+// (shapely 1.8.5): area minus the union of 4096-gon buffers of each
+// device's own radius.
+func TestMixedDemoReference(t *testing.T) {
+	var ref struct {
+		Uncovered float64 `json:"uncovered_area_m2"`
+		Deficit   float64 `json:"disk_deficit_m2"`
+		Gaps      int     `json:"gaps"`
+		Hidden    []int   `json:"hidden"`
+		Sites     int     `json:"sites"`
+	}
+	if err := json.Unmarshal(examplesites.MixedReferenceJSON(), &ref); err != nil {
+		t.Fatal(err)
+	}
+	out := filepath.Join(t.TempDir(), "demo")
+	mustRun(t, "demo", "--out", out, "--no-maps")
+	var doc struct {
+		Sites     int     `json:"sites"`
+		Uncovered float64 `json:"uncovered_area_m2"`
+		Gaps      []any   `json:"gaps"`
+		Hidden    []int   `json:"hidden"`
+		Groups    []struct {
+			Type    string  `json:"type"`
+			RangeM  float64 `json:"range_m"`
+			Devices int     `json:"devices"`
+		} `json:"range_groups"`
+	}
+	b, err := os.ReadFile(filepath.Join(out, mixedDemoDir, "summary.json"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if err := json.Unmarshal(b, &doc); err != nil {
+		t.Fatal(err)
+	}
+	t.Run("two device types from the sites file", func(t *testing.T) {
+		if doc.Sites != ref.Sites || len(doc.Groups) != 2 || doc.Groups[0].Type != "gateway" || doc.Groups[0].RangeM != 180 ||
+			doc.Groups[1].Type != "sensor" || doc.Groups[1].RangeM != 80 || doc.Groups[1].Devices != 40 {
+			t.Errorf("sites %d groups %+v", doc.Sites, doc.Groups)
+		}
+	})
+	t.Run("uncovered area vs GEOS", func(t *testing.T) {
+		// The GEOS figure is at most Deficit too large (inscribed polygons,
+		// gen_mixed.py) and never too small; the projection of the
+		// rounded coordinates agrees to well under a millimetre (PROJ vs
+		// the Krüger series), worth at most a few m² over the gap edges.
+		const projSlackM2 = 1.0
+		if doc.Uncovered > ref.Uncovered+projSlackM2 || doc.Uncovered < ref.Uncovered-ref.Deficit-projSlackM2 {
+			t.Errorf("uncovered %.4f m², GEOS %.4f m² (deficit bound %.3f m²)", doc.Uncovered, ref.Uncovered, ref.Deficit)
+		}
+	})
+	t.Run("gap count vs GEOS", func(t *testing.T) {
+		if len(doc.Gaps) != ref.Gaps {
+			t.Errorf("%d gaps, GEOS %d", len(doc.Gaps), ref.Gaps)
+		}
+	})
+	t.Run("hidden devices are redundant by GEOS", func(t *testing.T) {
+		// Hidden (empty power cell) implies redundant; not conversely
+		// (coverage/ranges.go), so the hidden list is a subset.
+		if len(doc.Hidden) == 0 {
+			t.Error("no hidden device: the demo should show redundant sensors")
+		}
+		for _, i := range doc.Hidden {
+			if !slices.Contains(ref.Hidden, i) {
+				t.Errorf("device %d hidden but its disk is not inside the others' union by GEOS (%v)", i, ref.Hidden)
+			}
 		}
 	})
 }
