@@ -46,8 +46,11 @@ type DeviceLoad struct {
 
 // Assignment maps every demand point to its serving device.
 type Assignment struct {
-	// Range is the planned range (metres).
+	// Range is the planned range (metres); 0 from AssignRanges.
 	Range float64
+	// Ranges holds each device's own range by input index (AssignRanges);
+	// nil for one common range.
+	Ranges []float64
 	// Device holds, per demand point, the input index of its serving
 	// (nearest) device.
 	Device []int
