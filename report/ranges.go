@@ -412,6 +412,31 @@ func (rs *rangesScene) sitesLayer() ([]byte, error) {
 	return l.bytes(), nil
 }
 
+// serviceAreasLayer writes each device's power cell clipped to the area
+// (its share when ranges differ) with its range and the part of the share
+// within that range (coverage.ServiceAreasRanges); hidden devices have
+// none.
+func (rs *rangesScene) serviceAreasLayer() ([]byte, error) {
+	l := rs.newLayerSized(13*len(rs.l.Cells.XY) + 200*len(rs.cells) + 1<<16)
+	for _, c := range rs.l.ServiceAreasRanges() {
+		mp := rs.multiPolygon(rs.l.Cells.Polygons(c.Vertex))
+		if len(mp) == 0 {
+			continue
+		}
+		l.feature(mp, func(b []byte) []byte {
+			b = strconv.AppendInt(kv(b, "site", true), int64(c.Site), 10)
+			b = appendStr(kv(b, "name", false), rs.name(c.Site))
+			b = rs.appendRangeProps(b, c.Site)
+			b = appendNum(kv(b, "area_m2", false), c.Area)
+			b = appendNum(kv(b, "share", false), c.Share)
+			b = appendNum(kv(b, "served_m2", false), c.Served)
+			b = appendNum(kv(b, "farthest_m", false), c.Farthest)
+			return appendInts(kv(b, "merged", false), c.Merged)
+		})
+	}
+	return l.bytes(), nil
+}
+
 // gapsLayer writes the gaps with their closings.
 func (rs *rangesScene) gapsLayer() ([]byte, error) {
 	l := rs.newLayer()

@@ -79,6 +79,10 @@ func TestRangesCLI(t *testing.T) {
 			if !strings.Contains(string(sites), `"range_m":150,"type":"gateway"`) || !strings.Contains(string(sites), `"hidden":true`) {
 				t.Errorf("sites layer lacks ranges, types or hidden: %s", sites)
 			}
+			cells, _ := os.ReadFile(filepath.Join(out, "service-areas-xy.geojson"))
+			if strings.Count(string(cells), `"served_m2"`) != 3 || !strings.Contains(string(cells), `"range_m":40,"type":"sensor"`) {
+				t.Errorf("service areas: want the 3 power cells (s3 hidden) with range, type and served area: %s", cells)
+			}
 		})
 	}
 	t.Run("equal ranges from a column: the common-range report", func(t *testing.T) {
