@@ -27,6 +27,7 @@
 package coverage
 
 import (
+	"cmp"
 	"fmt"
 	"math"
 	"slices"
@@ -58,21 +59,14 @@ func AssignRanges(sites []orb.Point, ranges []float64, points []orb.Point, weigh
 		}
 		side = math.Max(side, r)
 	}
-	if weights != nil && len(weights) != len(points) {
-		return nil, fmt.Errorf("%s: %d weights for %d points", where, len(weights), len(points))
-	}
-	w := make([]float64, len(points))
 	for i, p := range points {
 		if err := planCheckPoint(p); err != nil {
 			return nil, fmt.Errorf("%s: point %d: %w", where, i, err)
 		}
-		w[i] = 1
-		if weights != nil {
-			if x := weights[i]; math.IsNaN(x) || math.IsInf(x, 0) || x < 0 {
-				return nil, fmt.Errorf("%s: point %d: weight %v must be a finite number ≥ 0", where, i, x)
-			}
-			w[i] = weights[i]
-		}
+	}
+	w, err := planAssignWeights(where, len(points), weights)
+	if err != nil {
+		return nil, err
 	}
 	g := newReachGrid(sites, side)
 	a := &Assignment{
@@ -88,20 +82,7 @@ func AssignRanges(sites []orb.Point, ranges []float64, points []orb.Point, weigh
 			a.Device[i], a.Distance[i], a.Within[i] = g.serve(points[i], ranges)
 		}
 	})
-	for i := range points {
-		ld := &a.Load[a.Device[i]]
-		ld.Count++
-		ld.Weight += w[i]
-		if a.Within[i] {
-			ld.InRange++
-			ld.InRangeWeight += w[i]
-			a.Served++
-			a.ServedWeight += w[i]
-		} else {
-			a.Unserved++
-			a.UnservedWeight += w[i]
-		}
-	}
+	a.tally()
 	return a, nil
 }
 
@@ -141,7 +122,7 @@ func newReachGrid(sites []orb.Point, s float64) *reachGrid {
 	}
 	slices.SortFunc(kds, func(a, b kd) int {
 		if a.k != b.k {
-			return cmpInt64(a.k, b.k)
+			return cmp.Compare(a.k, b.k)
 		}
 		return int(a.i - b.i)
 	})
@@ -154,16 +135,6 @@ func newReachGrid(sites []orb.Point, s float64) *reachGrid {
 	}
 	g.start = append(g.start, int32(len(kds)))
 	return g
-}
-
-func cmpInt64(a, b int64) int {
-	switch {
-	case a < b:
-		return -1
-	case a > b:
-		return 1
-	}
-	return 0
 }
 
 // cell returns the cell column and row of p (clamped to the grid).

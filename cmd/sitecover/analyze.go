@@ -12,6 +12,7 @@ import (
 	"os"
 	"path/filepath"
 	"strings"
+	"sync"
 
 	"github.com/sitecover/sitecover/coverage"
 	"github.com/sitecover/sitecover/report"
@@ -58,31 +59,55 @@ func runAnalysis(e *env, command string, f *runFlags, in siteinput.Inputs, chart
 		return err
 	}
 	defer pr.end()
+	var out analysisOutput
 	if sc.ranges != nil {
-		return runRangesAnalysis(e, f, sc, pr, in, charts)
+		out, err = rangesAnalysis(f, sc, pr, in)
+	} else {
+		out, err = commonAnalysis(f, sc, pr, in)
 	}
-	r := sc.rangeM
-	pr.set(fmt.Sprintf("analysing %d sites", len(sc.sites)))
-	a, err := coverage.Analyze(sc.sites, sc.region, r, coverage.Options{})
-	if err != nil {
-		return inputErrorf("%s: %v", inputNames(in), err)
-	}
-	written, err := writeReport(f, pr, charts, func(opt report.Options) ([]string, error) {
-		return report.WriteAnalysis(f.out, a, sc.meta, opt)
-	})
 	if err != nil {
 		return err
 	}
-	doc := report.Summary(a, sc.meta)
-	if done, err := printHead(e, f, doc.Warnings); done {
+	written, err := writeReport(f, pr, charts, out.write)
+	if err != nil {
 		return err
 	}
-	printAnalysis(e.stdout, doc, sc.meta)
-	if !charts {
-		printGapTable(e.stdout, doc, sc.meta)
+	if done, err := printHead(e, f, out.warnings()); done {
+		return err
 	}
+	out.print(e.stdout, !charts)
 	printWritten(e.stdout, f.out, written)
 	return nil
+}
+
+// analysisOutput is what runAnalysis writes and prints of one analysis:
+// the report folder, the warnings and the stdout summary (with the gap
+// table when gapTable is true).
+type analysisOutput struct {
+	write    func(opt report.Options) ([]string, error)
+	warnings func() []string
+	print    func(w io.Writer, gapTable bool)
+}
+
+// commonAnalysis runs coverage.Analyze at the common range.
+func commonAnalysis(f *runFlags, sc *scene, pr *progress, in siteinput.Inputs) (analysisOutput, error) {
+	pr.set(fmt.Sprintf("analysing %d sites", len(sc.sites)))
+	a, err := coverage.Analyze(sc.sites, sc.region, sc.rangeM, coverage.Options{})
+	if err != nil {
+		return analysisOutput{}, inputErrorf("%s: %v", inputNames(in), err)
+	}
+	doc := sync.OnceValue(func() *report.SummaryDoc { return report.Summary(a, sc.meta) }) // one document for warnings and print
+	return analysisOutput{
+		write:    func(opt report.Options) ([]string, error) { return report.WriteAnalysis(f.out, a, sc.meta, opt) },
+		warnings: func() []string { return doc().Warnings },
+		print: func(w io.Writer, gapTable bool) {
+			d := doc()
+			printAnalysis(w, d, sc.meta)
+			if gapTable {
+				printGapTable(w, d, sc.meta)
+			}
+		},
+	}, nil
 }
 
 // setMeta fills the report metadata from the flags.

@@ -12,6 +12,7 @@ import (
 	"io"
 	"path/filepath"
 	"strings"
+	"sync"
 
 	"github.com/sitecover/sitecover/coverage"
 	"github.com/sitecover/sitecover/examplesites"
@@ -73,30 +74,26 @@ func refuseRanges(sc *scene, command string, in siteinput.Inputs) error {
 	return inputErrorf("%s: the devices have their own ranges (range column or type table); %s uses one common range: give only --range", in.Sites.Name, command)
 }
 
-// runRangesAnalysis is runAnalysis for devices with their own ranges:
-// coverage.AnalyzeRanges, the report folder, and the stdout summary.
-func runRangesAnalysis(e *env, f *runFlags, sc *scene, pr *progress, in siteinput.Inputs, charts bool) error {
+// rangesAnalysis runs coverage.AnalyzeRanges for devices with their own
+// ranges (runAnalysis writes and prints it).
+func rangesAnalysis(f *runFlags, sc *scene, pr *progress, in siteinput.Inputs) (analysisOutput, error) {
 	pr.set(fmt.Sprintf("analysing %d sites with their own ranges", len(sc.sites)))
 	a, err := coverage.AnalyzeRanges(sc.sites, sc.ranges, sc.region, coverage.Options{})
 	if err != nil {
-		return inputErrorf("%s: %v", inputNames(in), err)
+		return analysisOutput{}, inputErrorf("%s: %v", inputNames(in), err)
 	}
-	written, err := writeReport(f, pr, charts, func(opt report.Options) ([]string, error) {
-		return report.WriteRangesAnalysis(f.out, a, sc.meta, opt)
-	})
-	if err != nil {
-		return err
-	}
-	doc := report.RangesSummary(a, sc.meta)
-	if done, err := printHead(e, f, doc.Warnings); done {
-		return err
-	}
-	printRangesAnalysis(e.stdout, doc, sc.meta)
-	if !charts {
-		printRangesGapTable(e.stdout, doc, sc.meta)
-	}
-	printWritten(e.stdout, f.out, written)
-	return nil
+	doc := sync.OnceValue(func() *report.RangesDoc { return report.RangesSummary(a, sc.meta) }) // one document for warnings and print
+	return analysisOutput{
+		write:    func(opt report.Options) ([]string, error) { return report.WriteRangesAnalysis(f.out, a, sc.meta, opt) },
+		warnings: func() []string { return doc().Warnings },
+		print: func(w io.Writer, gapTable bool) {
+			d := doc()
+			printRangesAnalysis(w, d, sc.meta)
+			if gapTable {
+				printRangesGapTable(w, d, sc.meta)
+			}
+		},
+	}, nil
 }
 
 // printRangesAnalysis prints the headline figures of an analysis with
