@@ -196,13 +196,10 @@ func printGapTable(w io.Writer, d *report.SummaryDoc, m report.Meta) {
 	fmt.Fprintf(w, "  %4s  %12s  %11s  %-26s  %-8s  %s\n", "gap", "area m²", "closing m", "deepest point", "kind", "bordering devices")
 	for i, g := range d.Gaps {
 		if i == maxGapRows {
-			fmt.Fprintf(w, "  ... and %d more gaps (all in report.txt, summary.json and gaps.geojson)\n", len(d.Gaps)-i)
+			printMoreGaps(w, len(d.Gaps)-i)
 			break
 		}
-		kind := "edge"
-		if !g.TouchesBoundary {
-			kind = "inner"
-		}
+		kind := gapRowKind(g.TouchesBoundary)
 		var sites []string
 		for k, s := range g.Sites {
 			if k == 6 {
@@ -214,6 +211,20 @@ func printGapTable(w io.Writer, d *report.SummaryDoc, m report.Meta) {
 		fmt.Fprintf(w, "  %4d  %12s  %11s  %-26s  %-8s  %s\n", g.ID, fmtNum(g.AreaM2, 1), fmtNum(g.ClosingRangeM, 2),
 			fmtPoint(g.DeepestPoint, d.Coordinates), kind, strings.Join(sites, ", "))
 	}
+}
+
+// printMoreGaps ends a gap table cut at maxGapRows, n gaps short.
+func printMoreGaps(w io.Writer, n int) {
+	fmt.Fprintf(w, "  ... and %d more gaps (all in report.txt, summary.json and gaps.geojson)\n", n)
+}
+
+// gapRowKind is a gap's kind in the stdout tables: "edge" when it
+// reaches the site boundary, else "inner".
+func gapRowKind(touchesBoundary bool) string {
+	if touchesBoundary {
+		return "edge"
+	}
+	return "inner"
 }
 
 // siteLabel names input site i as every output does (report.DeviceLabel).

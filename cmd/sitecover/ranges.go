@@ -138,13 +138,10 @@ func printRangesGapTable(w io.Writer, d *report.RangesDoc, m report.Meta) {
 	fmt.Fprintf(w, "  %4s  %12s  %-8s  %-26s  %s\n", "gap", "area m²", "kind", "single-device fix", "closing ranges (all grow together)")
 	for i, g := range d.Gaps {
 		if i == maxGapRows {
-			fmt.Fprintf(w, "  ... and %d more gaps (all in report.txt, summary.json and gaps.geojson)\n", len(d.Gaps)-i)
+			printMoreGaps(w, len(d.Gaps)-i)
 			break
 		}
-		kind := "edge"
-		if !g.TouchesBoundary {
-			kind = "inner"
-		}
+		kind := gapRowKind(g.TouchesBoundary)
 		fix := "-"
 		if g.FixSite >= 0 {
 			fix = g.FixLabel + " to " + fmtNum(g.FixRangeM, 2) + " m"
