@@ -31,7 +31,9 @@ gaps, hole closing points), PNG maps (service areas; coverage with gaps) and
 PNG charts (covered share against range; hole lifetimes).
 
 The range takes a unit: m, km, ft (0.3048 m) or mi (1609.344 m); a plain
-number is metres.`,
+number is metres. Devices with their own ranges: a range column (CSV) or
+"range" property (GeoJSON), or a type column with --type-range or
+--range-table; --range is then the default for devices without one.`,
 		Example: `  sitecover analyze --sites sensors.geojson --area campus.geojson --range 120m
   sitecover analyze --sites sensors.csv --area campus.geojson --exclude ponds.geojson --range 400ft
   sitecover analyze --sites gateways.csv --range 2km --out gw-report --json > summary.json
