@@ -50,12 +50,19 @@ type RangeGroup struct {
 
 // RangesDevice is one device in summary.json.
 type RangesDevice struct {
-	Site            int     `json:"site"`
-	Name            string  `json:"name"`
-	Type            string  `json:"type"`
+	// Site is the input index, Name the device's own label ("" for none)
+	// and Type its type ("" for none).
+	Site int    `json:"site"`
+	Name string `json:"name"`
+	Type string `json:"type"`
+	// RangeM is the planned range; FullCoverRangeM the range the device
+	// needs when all ranges grow together until the area is covered (its
+	// planned range when the area is covered already).
 	RangeM          float64 `json:"range_m"`
 	FullCoverRangeM float64 `json:"full_cover_range_m"`
-	Hidden          bool    `json:"hidden"`
+	// Hidden is true when the other disks cover this device's whole disk
+	// (empty power cell): redundant for coverage.
+	Hidden bool `json:"hidden"`
 }
 
 // RangesGap is one gap in summary.json: its area and place, the range
