@@ -46,8 +46,11 @@ type DeviceLoad struct {
 
 // Assignment maps every demand point to its serving device.
 type Assignment struct {
-	// Range is the planned range (metres).
+	// Range is the planned range (metres); 0 from AssignRanges.
 	Range float64
+	// Ranges holds each device's own range by input index (AssignRanges);
+	// nil for one common range.
+	Ranges []float64
 	// Device holds, per demand point, the input index of its serving
 	// (nearest) device.
 	Device []int
@@ -84,9 +87,6 @@ func Assign(l *Layout, points []orb.Point, weights []float64, r float64) (*Assig
 	if math.IsNaN(r) || math.IsInf(r, 0) || r < 0 {
 		return nil, fmt.Errorf("%s: range %v must be a finite number ≥ 0", where, r)
 	}
-	if weights != nil && len(weights) != len(points) {
-		return nil, fmt.Errorf("%s: %d weights for %d points", where, len(weights), len(points))
-	}
 	xy := make([]float64, 2*len(points))
 	for i, p := range points {
 		if err := planCheckPoint(p); err != nil {
@@ -94,15 +94,9 @@ func Assign(l *Layout, points []orb.Point, weights []float64, r float64) (*Assig
 		}
 		xy[2*i], xy[2*i+1] = p[0], p[1]
 	}
-	w := make([]float64, len(points))
-	for i := range w {
-		w[i] = 1
-		if weights != nil {
-			if x := weights[i]; math.IsNaN(x) || math.IsInf(x, 0) || x < 0 {
-				return nil, fmt.Errorf("%s: point %d: weight %v must be a finite number ≥ 0", where, i, x)
-			}
-			w[i] = weights[i]
-		}
+	w, err := planAssignWeights(where, len(points), weights)
+	if err != nil {
+		return nil, err
 	}
 	t := l.Tri
 	near := planNearestSorted(t, xy)
@@ -123,21 +117,46 @@ func Assign(l *Layout, points []orb.Point, weights []float64, r float64) (*Assig
 			a.Within[i] = d <= r
 		}
 	})
-	for i := range points {
-		ld := &a.Load[a.Device[i]]
-		ld.Count++
-		ld.Weight += w[i]
-		if a.Within[i] {
-			ld.InRange++
-			ld.InRangeWeight += w[i]
-			a.Served++
-			a.ServedWeight += w[i]
-		} else {
-			a.Unserved++
-			a.UnservedWeight += w[i]
+	a.tally()
+	return a, nil
+}
+
+// planAssignWeights returns the weight of each of n points: 1 when
+// weights is nil, else weights checked (finite, ≥ 0; one per point).
+func planAssignWeights(where string, n int, weights []float64) ([]float64, error) {
+	if weights != nil && len(weights) != n {
+		return nil, fmt.Errorf("%s: %d weights for %d points", where, len(weights), n)
+	}
+	w := make([]float64, n)
+	for i := range w {
+		w[i] = 1
+		if weights != nil {
+			if x := weights[i]; math.IsNaN(x) || math.IsInf(x, 0) || x < 0 {
+				return nil, fmt.Errorf("%s: point %d: weight %v must be a finite number ≥ 0", where, i, x)
+			}
+			w[i] = weights[i]
 		}
 	}
-	return a, nil
+	return w, nil
+}
+
+// tally sums the loads and the served and unserved counts from Device,
+// Within and Weight.
+func (a *Assignment) tally() {
+	for i, dev := range a.Device {
+		ld := &a.Load[dev]
+		ld.Count++
+		ld.Weight += a.Weight[i]
+		if a.Within[i] {
+			ld.InRange++
+			ld.InRangeWeight += a.Weight[i]
+			a.Served++
+			a.ServedWeight += a.Weight[i]
+		} else {
+			a.Unserved++
+			a.UnservedWeight += a.Weight[i]
+		}
+	}
 }
 
 // AssignPolygons assigns each polygon (a building, a yard) by its

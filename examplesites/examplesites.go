@@ -10,7 +10,9 @@
 // are made by gen_campus.py in this folder, which also writes
 // campus-reference.json: figures computed with GEOS (shapely), GUDHI and
 // GeographicLib for the command's tests. The candidate mounting spots of
-// the planning demo are made by gen_candidates.py.
+// the planning demo are made by gen_candidates.py, the mixed-range variant
+// (short-range sensors among long-range gateways, each with its own range
+// in the sites file) by gen_mixed.py.
 //
 // The layout is meant to give a design review something to find: at the
 // planned range of 120 m about 97% of the park is covered and ten gaps
@@ -39,7 +41,29 @@ const (
 	BuildingsFile  = "campus-buildings.geojson"
 	CandidatesFile = "campus-candidates.geojson"
 	ReferenceFile  = "campus-reference.json"
+	// MixedSitesFile and MixedReferenceFile are the mixed-range variant
+	// (gen_mixed.py): the sensors at a short range among long-range
+	// gateways, and its figures computed outside sitecover.
+	MixedSitesFile     = "campus-mixed-sites.geojson"
+	MixedReferenceFile = "campus-mixed-reference.json"
 )
+
+//go:embed campus-mixed-sites.geojson
+var mixedSites []byte
+
+//go:embed campus-mixed-reference.json
+var mixedReference []byte
+
+// MixedSitesGeoJSON returns a copy of campus-mixed-sites.geojson: the 40
+// sensors of SitesGeoJSON with "type": "sensor" and "range": "80m", then
+// six invented gateways on building roofs with "type": "gateway" and
+// "range": "180m" (made by gen_mixed.py).
+func MixedSitesGeoJSON() []byte { return clone(mixedSites) }
+
+// MixedReferenceJSON returns a copy of campus-mixed-reference.json: the
+// mixed-range campus's uncovered area, gap count and redundant devices
+// computed with GEOS (see gen_mixed.py for the method and its bound).
+func MixedReferenceJSON() []byte { return clone(mixedReference) }
 
 //go:embed campus-area.geojson
 var area []byte

@@ -247,21 +247,27 @@ func kv(b []byte, key string, first bool) []byte {
 	return append(b, `":`...)
 }
 
-// sitesLayer is every input site: its input index, name and, for a site at
-// exactly the position of an earlier one, that site's index (−1 for none).
+// sitesLayer is every input site: its input index, name, range (its own,
+// or the common one; null when the run has none) and type ("" when the
+// sites have no types), and, for a site at exactly the position of an
+// earlier one, that site's index (−1 for none).
 func (s *scene) sitesLayer() *layerDef {
 	return &layerDef{geom: gpkg.Point,
-		fields: fieldList("site", gpkg.Integer, "name", gpkg.Text, "duplicate_of", gpkg.Integer),
+		fields: fieldList("site", gpkg.Integer, "name", gpkg.Text, "range_m", gpkg.Real, "type", gpkg.Text, "duplicate_of", gpkg.Integer),
 		each: func(emit emitFunc) error {
 			tri := s.l.Tri
 			for i, p := range s.l.Sites {
 				dup := -1
-				if tri != nil && i < len(tri.Vertex) {
+				if tri != nil && i < len(tri.Vertex) && tri.Vertex[i] >= 0 {
 					if src := int(tri.Source[tri.Vertex[i]]); src != i {
 						dup = src
 					}
 				}
-				if err := emit(orb.Point(s.point(p)), i, s.name(i), dup); err != nil {
+				var r any
+				if v := s.rangeOf(i); v > 0 {
+					r = v
+				}
+				if err := emit(orb.Point(s.point(p)), i, s.name(i), r, s.typeOf(i), dup); err != nil {
 					return err
 				}
 			}

@@ -52,6 +52,12 @@ type Meta struct {
 	// SiteNames holds a name per input site index ("" for none). It may be
 	// shorter than the site list.
 	SiteNames []string
+	// Ranges holds each device's own range (m) by input index when the
+	// devices have different ranges; nil for one common range. Types
+	// holds each device's type ("" for none); nil without types. Both are
+	// shown wherever devices are listed (ranges.go).
+	Ranges []float64
+	Types  []string
 	// Planar is true when the input coordinates were already local metres.
 	Planar bool
 	// Projection is a one-line description of the local plane (e.g.

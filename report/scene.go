@@ -175,7 +175,9 @@ func (s *scene) duplicates() int {
 	if s.l == nil || s.l.Tri == nil {
 		return 0
 	}
-	return len(s.l.Sites) - s.l.Tri.NumVertices()
+	// Hidden devices (per-device ranges) have no vertex but are not
+	// duplicates.
+	return len(s.l.Sites) - s.l.Tri.NumVertices() - len(s.l.Hidden)
 }
 
 // warnings returns Meta.Warnings plus the report's own, never nil.

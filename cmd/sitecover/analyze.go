@@ -12,6 +12,7 @@ import (
 	"os"
 	"path/filepath"
 	"strings"
+	"sync"
 
 	"github.com/sitecover/sitecover/coverage"
 	"github.com/sitecover/sitecover/report"
@@ -30,7 +31,9 @@ gaps, hole closing points), PNG maps (service areas; coverage with gaps) and
 PNG charts (covered share against range; hole lifetimes).
 
 The range takes a unit: m, km, ft (0.3048 m) or mi (1609.344 m); a plain
-number is metres.`,
+number is metres. Devices with their own ranges: a range column (CSV) or
+"range" property (GeoJSON), or a type column with --type-range or
+--range-table; --range is then the default for devices without one.`,
 		Example: `  sitecover analyze --sites sensors.geojson --area campus.geojson --range 120m
   sitecover analyze --sites sensors.csv --area campus.geojson --exclude ponds.geojson --range 400ft
   sitecover analyze --sites gateways.csv --range 2km --out gw-report --json > summary.json
@@ -40,59 +43,95 @@ number is metres.`,
 			if _, err := parseReach(f.reach); err != nil {
 				return err
 			}
-			in, r, err := f.rangedInputs(cmd)
+			in, err := f.rangesInputs(cmd)
 			if err != nil {
 				return err
 			}
-			return asInput(runAnalysis(e, "analyze", f, in, r, true))
+			return asInput(runAnalysis(e, "analyze", f, in, true))
 		},
 	}
 	cmd.Flags().Var(newOnceString(&f.reach, ""), "reach", "also report the share reached by at least k devices, the range giving every spot k devices, and the parts short of k, for k = 1 … the largest listed (e.g. 2 or 2,3; redundancy and positioning)")
 	f.addInputFlags(cmd.Flags())
 	f.addContextFlag(cmd.Flags())
-	f.addRangeFlag(cmd.Flags(), "", "planned range of every device, e.g. 150m, 0.2km, 500ft, 0.1mi (required)")
+	f.addRangeFlag(cmd.Flags(), "", "planned range of every device, e.g. 150m, 0.2km, 500ft, 0.1mi (required unless the sites give their own: a range column, or a type column with --type-range)")
 	f.addOutputFlags(cmd.Flags(), true)
 	return cmd
 }
 
 // runAnalysis is the analyze/gaps/demo pipeline. With charts false the
 // PNG charts are skipped and the gap table is printed (the gaps command).
-func runAnalysis(e *env, command string, f *runFlags, in siteinput.Inputs, r float64, charts bool) error {
+func runAnalysis(e *env, command string, f *runFlags, in siteinput.Inputs, charts bool) error {
 	sc, pr, err := startRun(e, command, f, in)
 	if err != nil {
 		return err
 	}
 	defer pr.end()
-	pr.set(fmt.Sprintf("analysing %d sites", len(sc.sites)))
-	a, err := coverage.Analyze(sc.sites, sc.region, r, coverage.Options{})
-	if err != nil {
-		return inputErrorf("%s: %v", inputNames(in), err)
+	var out analysisOutput
+	if sc.ranges != nil {
+		if f.reach != "" {
+			return usageErrorf("--reach counts devices at one common range; the sites give their own ranges (devices reached by k with their own ranges is not supported yet)")
+		}
+		out, err = rangesAnalysis(f, sc, pr, in)
+	} else {
+		out, err = commonAnalysis(f, sc, pr, in)
 	}
-	kc, err := runReach(pr, f, a, r)
-	if err != nil {
-		return err
-	}
-	written, err := writeReport(f, pr, charts, func(opt report.Options) ([]string, error) {
-		opt.Reach = kc
-		return report.WriteAnalysis(f.out, a, sc.meta, opt)
-	})
 	if err != nil {
 		return err
 	}
-	doc := report.Summary(a, sc.meta)
-	if kc != nil {
-		doc.Reach = report.ReachSummary(kc, a.Layout, sc.meta)
-	}
-	if done, err := printHead(e, f, doc.Warnings); done {
+	written, err := writeReport(f, pr, charts, out.write)
+	if err != nil {
 		return err
 	}
-	printAnalysis(e.stdout, doc, sc.meta)
-	printReach(e.stdout, doc)
-	if !charts {
-		printGapTable(e.stdout, doc, sc.meta)
+	if done, err := printHead(e, f, out.warnings()); done {
+		return err
 	}
+	out.print(e.stdout, !charts)
 	printWritten(e.stdout, f.out, written)
 	return nil
+}
+
+// analysisOutput is what runAnalysis writes and prints of one analysis:
+// the report folder, the warnings and the stdout summary (with the gap
+// table when gapTable is true).
+type analysisOutput struct {
+	write    func(opt report.Options) ([]string, error)
+	warnings func() []string
+	print    func(w io.Writer, gapTable bool)
+}
+
+// commonAnalysis runs coverage.Analyze at the common range.
+func commonAnalysis(f *runFlags, sc *scene, pr *progress, in siteinput.Inputs) (analysisOutput, error) {
+	pr.set(fmt.Sprintf("analysing %d sites", len(sc.sites)))
+	a, err := coverage.Analyze(sc.sites, sc.region, sc.rangeM, coverage.Options{})
+	if err != nil {
+		return analysisOutput{}, inputErrorf("%s: %v", inputNames(in), err)
+	}
+	kc, err := runReach(pr, f, a, sc.rangeM)
+	if err != nil {
+		return analysisOutput{}, err
+	}
+	doc := sync.OnceValue(func() *report.SummaryDoc { // one document for warnings and print
+		d := report.Summary(a, sc.meta)
+		if kc != nil {
+			d.Reach = report.ReachSummary(kc, a.Layout, sc.meta)
+		}
+		return d
+	})
+	return analysisOutput{
+		write: func(opt report.Options) ([]string, error) {
+			opt.Reach = kc
+			return report.WriteAnalysis(f.out, a, sc.meta, opt)
+		},
+		warnings: func() []string { return doc().Warnings },
+		print: func(w io.Writer, gapTable bool) {
+			d := doc()
+			printAnalysis(w, d, sc.meta)
+			printReach(w, d)
+			if gapTable {
+				printGapTable(w, d, sc.meta)
+			}
+		},
+	}, nil
 }
 
 // setMeta fills the report metadata from the flags.
@@ -181,13 +220,10 @@ func printGapTable(w io.Writer, d *report.SummaryDoc, m report.Meta) {
 	fmt.Fprintf(w, "  %4s  %12s  %11s  %-26s  %-8s  %s\n", "gap", "area m²", "closing m", "deepest point", "kind", "bordering devices")
 	for i, g := range d.Gaps {
 		if i == maxGapRows {
-			fmt.Fprintf(w, "  ... and %d more gaps (all in report.txt, summary.json and gaps.geojson)\n", len(d.Gaps)-i)
+			printMoreGaps(w, len(d.Gaps)-i)
 			break
 		}
-		kind := "edge"
-		if !g.TouchesBoundary {
-			kind = "inner"
-		}
+		kind := gapRowKind(g.TouchesBoundary)
 		var sites []string
 		for k, s := range g.Sites {
 			if k == 6 {
@@ -199,6 +235,20 @@ func printGapTable(w io.Writer, d *report.SummaryDoc, m report.Meta) {
 		fmt.Fprintf(w, "  %4d  %12s  %11s  %-26s  %-8s  %s\n", g.ID, fmtNum(g.AreaM2, 1), fmtNum(g.ClosingRangeM, 2),
 			fmtPoint(g.DeepestPoint, d.Coordinates), kind, strings.Join(sites, ", "))
 	}
+}
+
+// printMoreGaps ends a gap table cut at maxGapRows, n gaps short.
+func printMoreGaps(w io.Writer, n int) {
+	fmt.Fprintf(w, "  ... and %d more gaps (all in report.txt, summary.json and gaps.geojson)\n", n)
+}
+
+// gapRowKind is a gap's kind in the stdout tables: "edge" when it
+// reaches the site boundary, else "inner".
+func gapRowKind(touchesBoundary bool) string {
+	if touchesBoundary {
+		return "edge"
+	}
+	return "inner"
 }
 
 // siteLabel names input site i as every output does (report.DeviceLabel).

@@ -211,3 +211,52 @@ func TestNoOverwriteOfInputs(t *testing.T) {
 		})
 	}
 }
+
+// TestBadRangeInput: per-device ranges that are bad, missing or given by
+// two sources: one line naming the file, the line or feature and the
+// value; exit 1 (2 for bad usage); nothing written.
+func TestBadRangeInput(t *testing.T) {
+	dir := t.TempDir()
+	w := func(name, content string) string { return writeFile(t, dir, name, content) }
+	area := w("p.geojson", squareGeoJSON(0, 0, 400))
+	rows := func(r2 string) string {
+		return "name,x,y,type,range\ng1,50,50,gateway,150m\ns1,300,50,sensor," + r2 + "\ns2,200,300,sensor,40m\n"
+	}
+	typed := w("typed.csv", "name,x,y,type\ng1,50,50,gateway\ns1,300,50,sensor\ns2,200,300,siren\n")
+	table := w("types.csv", "type,range\ngateway,150m\nsensor,nan\n")
+	out := filepath.Join(dir, "out")
+	an := func(sites string, extra ...string) []string {
+		return append([]string{"analyze", "--planar", "--sites", sites, "--area", area, "--out", out}, extra...)
+	}
+	cases := []failureCase{
+		{"range NaN", an(w("nan.csv", rows("NaN"))), 1, []string{"nan.csv line 3", `("s1")`, `"NaN"`}},
+		{"range zero", an(w("zero.csv", rows("0"))), 1, []string{"zero.csv line 3", `"0"`, "greater than 0"}},
+		{"range negative", an(w("neg.csv", rows("-40m"))), 1, []string{"neg.csv line 3", `"-40m"`, "greater than 0"}},
+		{"range unparseable", an(w("word.csv", rows("far"))), 1, []string{"word.csv line 3", `"far"`}},
+		{"range unknown unit", an(w("yd.csv", rows("40yd"))), 1, []string{"yd.csv line 3", `unknown unit "yd"`}},
+		{"range out of bounds", an(w("big.csv", rows("5000km"))), 1, []string{"big.csv line 3", "between 1 mm and 1000 km"}},
+		{"range missing on a row", an(w("gap.csv", rows(""))), 1, []string{"gap.csv line 3", "no range"}},
+		{"GeoJSON range property zero", an(w("zero.geojson", `{"type":"FeatureCollection","features":[
+			{"type":"Feature","properties":{"name":"g1","range":0},"geometry":{"type":"Point","coordinates":[50,50]}}]}`)), 1,
+			[]string{"zero.geojson feature 0", `("g1")`, "greater than 0"}},
+		{"type with no range", an(typed, "--type-range", "gateway=150m", "--type-range", "sensor=40m"), 1,
+			[]string{"typed.csv line 4", `type "siren" has no range in --type-range`}},
+		{"range table with a bad range", an(typed, "--range-table", table), 1, []string{"types.csv line 3", `"nan"`}},
+		{"type-range bad value", an(typed, "--type-range", "gateway:150m"), 1, []string{"--type-range", "TYPE=LENGTH"}},
+		{"range column and type table", an(w("both.csv", rows("40m")), "--type-range", "gateway=150m"), 1,
+			[]string{"both.csv has a range column", "two range sources"}},
+		{"failures with a range column", []string{"failures", "--planar", "--sites", w("own.csv", rows("40m")), "--area", area, "--range", "40m", "--out", out}, 1,
+			[]string{"own.csv", "own ranges", "failures uses one common range"}},
+		{"review with a range column", []string{"review", "--planar", "--sites", w("rev.csv", rows("40m")), "--area", area, "--range", "40m", "--out", out}, 1,
+			[]string{"rev.csv", "own ranges", "review uses one common range"}},
+		{"both type tables", an(typed, "--type-range", "gateway=150m", "--range-table", table), 2, []string{"--type-range and --range-table"}},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			checkFailure(t, runCLI(t, c.args...), c.code, c.want)
+			if ents, err := os.ReadDir(out); err == nil && len(ents) > 0 {
+				t.Errorf("%d files written to %s", len(ents), out)
+			}
+		})
+	}
+}

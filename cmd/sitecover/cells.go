@@ -52,7 +52,13 @@ func runCells(e *env, f *runFlags, in siteinput.Inputs) error {
 	}
 	defer pr.end()
 	pr.set(fmt.Sprintf("service areas of %d sites", len(sc.sites)))
-	l, err := coverage.NewLayout(sc.sites, sc.region)
+	var l *coverage.Layout
+	if sc.ranges != nil {
+		// Power cells: each device's share when ranges differ.
+		l, err = coverage.NewLayoutRanges(sc.sites, sc.ranges, sc.region)
+	} else {
+		l, err = coverage.NewLayout(sc.sites, sc.region)
+	}
 	if err != nil {
 		return inputErrorf("%s: %v", inputNames(in), err)
 	}

@@ -57,6 +57,10 @@ func newDemoCmd(e *env) *cobra.Command {
 %d environmental sensors, a pond and a quarry that need no coverage, and a
 planned range of %g m. The data are invented.
 
+Then it analyses the same campus with mixed ranges into the sub-folder
+mixed-ranges: the sensors as short-range devices (80 m) among six long-range
+gateways (180 m), each range given in the sites file.
+
 Then it runs each planning move on the campus at the same range, each into a
 sub-folder of --out: suggest-add (%d devices placed freely), suggest-fewest
 (the fewest additions for no gap), suggest-candidates (the fewest of %d
@@ -81,12 +85,16 @@ campus buildings to their serving sensors). --no-plans skips them.`,
 				Sites:   siteinput.Source{Name: examplesites.SitesFile + " (built in)", Data: sites},
 				Area:    &siteinput.Source{Name: examplesites.AreaFile + " (built in)", Data: area},
 				Context: &siteinput.Source{Name: examplesites.BuildingsFile + " (built in)", Data: examplesites.BuildingsGeoJSON()},
+				Range:   r,
 			}
 			if f.title == "" {
 				f.title = title
 			}
 			f.gpkg = true // the demo shows every output
-			if err := asInput(runAnalysis(e, "demo", f, in, r, true)); err != nil || noPlans {
+			if err := asInput(runAnalysis(e, "demo", f, in, true)); err != nil || noPlans {
+				return err
+			}
+			if err := runMixedDemo(e, f, in); err != nil {
 				return err
 			}
 			mode := printBrief
@@ -115,6 +123,6 @@ campus buildings to their serving sensors). --no-plans skips them.`,
 	}
 	f.addRangeFlag(cmd.Flags(), fmt.Sprintf("%gm", examplesites.PlannedRange), "planned range")
 	f.addOutputFlags(cmd.Flags(), true)
-	cmd.Flags().BoolVar(&noPlans, "no-plans", false, "write the analysis only, without the planning sub-folders")
+	cmd.Flags().BoolVar(&noPlans, "no-plans", false, "write the analysis only, without the mixed-range and planning sub-folders")
 	return cmd
 }

@@ -27,16 +27,16 @@ layers and the maps (no charts).`,
   sitecover gaps --sites aps.csv --area floor.geojson --planar --range 15 --json`,
 		Args: noArgs,
 		RunE: func(cmd *cobra.Command, args []string) error {
-			in, r, err := f.rangedInputs(cmd)
+			in, err := f.rangesInputs(cmd)
 			if err != nil {
 				return err
 			}
-			return asInput(runAnalysis(e, "gaps", f, in, r, false))
+			return asInput(runAnalysis(e, "gaps", f, in, false))
 		},
 	}
 	f.addInputFlags(cmd.Flags())
 	f.addContextFlag(cmd.Flags())
-	f.addRangeFlag(cmd.Flags(), "", "range of every device, e.g. 150m, 0.2km, 500ft, 0.1mi (required)")
+	f.addRangeFlag(cmd.Flags(), "", "range of every device, e.g. 150m, 0.2km, 500ft, 0.1mi (required unless the sites give their own: a range column, or a type column with --type-range)")
 	f.addOutputFlags(cmd.Flags(), true)
 	return cmd
 }

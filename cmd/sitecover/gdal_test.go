@@ -26,7 +26,7 @@ import (
 // demoLayerFields are the fields of each layer (GeoPackage table name) of
 // a geographic run, in order.
 var demoLayerFields = map[string][]string{
-	"sites":            {"site", "name", "duplicate_of"},
+	"sites":            {"site", "name", "range_m", "type", "duplicate_of"},
 	"service_areas":    {"site", "name", "area_m2", "share", "farthest_m", "farthest_lon", "farthest_lat", "merged"},
 	"gaps":             gapFieldNames,
 	"gaps_before":      gapFieldNames,

@@ -236,7 +236,9 @@ func (f *runFlags) planInputs(cmd *cobra.Command, ps *planSpec) (siteinput.Input
 	if ps.r, ps.rangeGiven, err = f.optionalRange(cmd); err != nil {
 		return siteinput.Inputs{}, err
 	}
-	return f.inputs()
+	in, err := f.inputs()
+	in.Range = ps.r
+	return in, err
 }
 
 // printMode says what a planning run prints on stdout.
@@ -255,6 +257,9 @@ func runPlan(e *env, command string, f *runFlags, in siteinput.Inputs, ps planSp
 		return err
 	}
 	defer pr.end()
+	if err := refuseRanges(sc, command, in); err != nil {
+		return err
+	}
 	timed := func(phase string, t0 time.Time) {
 		sc.meta.Timings = append(sc.meta.Timings, coverage.Timing{Phase: phase, Seconds: time.Since(t0).Seconds()})
 	}

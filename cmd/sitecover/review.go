@@ -137,6 +137,9 @@ func runReview(e *env, f *runFlags, rf *reviewFlags, in siteinput.Inputs, r floa
 	if err != nil {
 		return err
 	}
+	if err := refuseRanges(sc, "review", in); err != nil {
+		return err
+	}
 	sc.setMeta("review", f)
 	sc.meta.Arguments = e.args
 	cfg := reviewConfig(sc, f, r)

@@ -167,14 +167,17 @@ type runFlags struct {
 	planar               bool
 	crs                  string
 	rangeText            string
-	out                  string
-	json                 bool
-	noMaps               bool
-	gpkg                 bool
-	title                string
-	lifeSafety           bool
-	mapWidth             int
-	reach                string // analyze --reach: k values, comma-separated
+	// typeRange and rangeTable give ranges per device type (ranges.go).
+	typeRange  []string
+	rangeTable string
+	out        string
+	json       bool
+	noMaps     bool
+	gpkg       bool
+	title      string
+	lifeSafety bool
+	mapWidth   int
+	reach      string // analyze --reach: k values, comma-separated
 }
 
 // addContextFlag registers --context (analyze, gaps, cells).
@@ -188,6 +191,7 @@ func (f *runFlags) addInputFlags(fs *pflag.FlagSet) {
 	fs.Var(newOnceString(&f.area, ""), "area", "site area: GeoJSON Polygon/MultiPolygon features; holes and features with \"exclude\": true need no coverage (default: the sites' convex hull)")
 	fs.Var(newOnceString(&f.exclude, ""), "exclude", "extra zones that need no coverage: GeoJSON polygons cut out of --area")
 	fs.BoolVar(&f.planar, "planar", false, "coordinates are already local metres (x east, y north), e.g. a site plan or CAD export")
+	f.addTypeRangeFlags(fs)
 	fs.Var(newOnceString(&f.crs, ""), "crs", "coordinate reference system of CSV x/y (Easting/Northing) columns and of GeoJSON without a \"crs\" member, e.g. EPSG:32632 (UTM zones of WGS 84 and ETRS89, SWEREF99 TM, ETRS-TM35FIN, NZTM2000, Poland CS92, Portugal TM06; EPSG:4326 reads x/y as longitude/latitude); outputs stay WGS84")
 }
 
@@ -238,6 +242,9 @@ func (f *runFlags) inputs() (siteinput.Inputs, error) {
 		}
 	}
 	if in.Sites, err = readSource(f.sites, "--sites"); err != nil {
+		return in, err
+	}
+	if in.TypeRanges, err = f.typeRanges(); err != nil {
 		return in, err
 	}
 	if f.area != "" {

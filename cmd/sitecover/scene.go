@@ -22,6 +22,11 @@ type scene struct {
 	// candidates and demand are the planning inputs in the local plane
 	// (nil when not given).
 	candidates, demand *siteinput.Items
+	// ranges holds each device's range when they differ (nil when all
+	// are rangeM); types each device's type (nil without a type column).
+	ranges []float64
+	rangeM float64
+	types  []string
 }
 
 // fromInput gives a *siteinput.Error its exit code, bad input; other
@@ -47,10 +52,14 @@ func loadScene(in siteinput.Inputs) (*scene, error) {
 		return nil, usageErrorf("--exclude needs --area: exclusion zones are cut out of a given area")
 	}
 	s, err := siteinput.Load(in)
+	if errors.Is(err, siteinput.ErrNoRange) {
+		return nil, usageErrorf("required flag --range is missing: give --range LENGTH, a range column in %s, or --type-range with a type column", in.Sites.Name)
+	}
 	if err != nil {
 		return nil, fromInput(err)
 	}
-	sc := &scene{sites: s.Sites, region: s.Region, candidates: s.Candidates, demand: s.Demand}
+	sc := &scene{sites: s.Sites, region: s.Region, candidates: s.Candidates, demand: s.Demand,
+		ranges: s.Ranges, rangeM: s.Range, types: s.Types}
 	m := &sc.meta
 	m.SitesFile = in.Sites.Name
 	if in.Area != nil {
@@ -66,6 +75,7 @@ func loadScene(in siteinput.Inputs) (*scene, error) {
 		m.PointsFile = in.Points.Name
 	}
 	m.SiteNames = s.Names
+	m.Ranges, m.Types = s.Ranges, s.Types
 	m.Planar = in.Planar
 	m.Title = s.Title
 	m.AreaFromHull = s.AreaFromHull

@@ -26,6 +26,7 @@ func (f *runFlags) rangedInputs(cmd *cobra.Command) (siteinput.Inputs, float64, 
 	if err != nil {
 		return siteinput.Inputs{}, 0, err
 	}
+	in.Range = r
 	return in, r, nil
 }
 

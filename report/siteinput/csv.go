@@ -12,6 +12,8 @@
 //	             POINT Z (x y z), optionally after "SRID=n;"
 //	name         name (else id)
 //	weight       weight (demand points only)
+//	range        range, range_m (sites only: the device's own range, ranges.go)
+//	type         type, device_type (sites only: the device type)
 //
 // Geographic input (the default) reads lat and lon; without them a WKT
 // column holds "POINT (lon lat)" (other x/y columns are then ignored).
@@ -48,6 +50,7 @@ var csvColumns = map[string]string{
 	"y": "y", "point_y": "y", "northing": "y",
 	"wkt": "wkt", "wkt_geom": "wkt", "geometry": "wkt", "geom": "wkt", "the_geom": "wkt",
 	"name": "name", "id": "id",
+	"range": "range", "range_m": "range", "type": "type", "device_type": "type",
 }
 
 // acceptedColumns lists every accepted coordinate header, for messages.
@@ -67,6 +70,7 @@ type csvLayout struct {
 	xname, yname string
 	name         int // the name (else id) column, or -1
 	weight       int // the weight column, or -1
+	rng, typ     int // the range and type columns, or -1
 }
 
 // csvHeader finds the columns of the header line (see the file comment).
@@ -98,7 +102,13 @@ func csvHeader(src Source, header []string, planarInput, withWeight bool) (*csvL
 		}
 		return nil, errorf("%s: not GeoJSON or CSV: line 1 has no lat/lon or x/y column header (found %s; %s)", src.Name, quoteList(header), acceptedColumns)
 	}
-	l := &csvLayout{xi: -1, yi: -1, wkt: -1, name: -1, weight: -1}
+	l := &csvLayout{xi: -1, yi: -1, wkt: -1, name: -1, weight: -1, rng: -1, typ: -1}
+	if i, ok := col["range"]; ok {
+		l.rng = i
+	}
+	if i, ok := col["type"]; ok {
+		l.typ = i
+	}
 	if i, ok := col["name"]; ok {
 		l.name = i
 	} else if i, ok := col["id"]; ok {
@@ -169,6 +179,12 @@ func pointsFromCSV(src Source, planarInput, withWeight bool) (s *siteSet, weight
 	decimalComma := comma != ','
 	need := max(l.xi, l.yi, l.wkt, l.weight) + 1
 	s = &siteSet{Lines: true}
+	if l.rng >= 0 {
+		s.Ranges = []string{} // a range column is a range source even when empty
+	}
+	if l.typ >= 0 {
+		s.Types = []string{}
+	}
 	for {
 		rec, err := r.Read()
 		if err == io.EOF {
@@ -200,6 +216,9 @@ func pointsFromCSV(src Source, planarInput, withWeight bool) (s *siteSet, weight
 		}
 		s.Names = append(s.Names, name)
 		s.Src = append(s.Src, int32(line))
+		if l.rng >= 0 || l.typ >= 0 {
+			s.addRangeType(field(rec, l.rng), field(rec, l.typ))
+		}
 		if l.weight >= 0 {
 			w, err := csvWeight(rec[l.weight], decimalComma)
 			if err != nil {
@@ -209,6 +228,15 @@ func pointsFromCSV(src Source, planarInput, withWeight bool) (s *siteSet, weight
 		}
 	}
 	return s, weights, nil
+}
+
+// field returns the trimmed field i of rec, "" when i < 0 or the record is
+// shorter.
+func field(rec []string, i int) string {
+	if i < 0 || i >= len(rec) {
+		return ""
+	}
+	return strings.TrimSpace(rec[i])
 }
 
 // csvDelimiter is the one of ',', ';' and TAB that occurs most often in

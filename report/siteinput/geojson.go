@@ -40,6 +40,18 @@ type gjProps struct {
 	Exclude json.RawMessage `json:"exclude"`
 	// Weight is read from demand points (assign --points) only.
 	Weight json.RawMessage `json:"weight"`
+	// Range and Type are read from sites only (ranges.go).
+	Range json.RawMessage `json:"range"`
+	Type  json.RawMessage `json:"type"`
+}
+
+// shortJSON is a JSON value for a message, cut after 40 bytes.
+func shortJSON(raw json.RawMessage) string {
+	s := string(bytes.TrimSpace(raw))
+	if len(s) > 40 {
+		s = s[:40] + "..."
+	}
+	return s
 }
 
 // gjFeature is a GeoJSON Feature.

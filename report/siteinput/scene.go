@@ -55,6 +55,15 @@ type Inputs struct {
 	// GeoJSON input without a "crs" member; "" for WGS84
 	// longitude/latitude. It excludes Planar.
 	CRS string
+	// Range is the common range (m) of the devices without one of their
+	// own (--range); 0 when not given.
+	Range float64
+	// TypeRanges is a table of ranges per device type (--type-range or
+	// --range-table); nil when not given. See ranges.go.
+	TypeRanges *TypeRanges
+	// RangeRequired makes Load return ErrNoRange when no source gives a
+	// range (the commands that need one).
+	RangeRequired bool
 }
 
 // Scene is the inputs in the local plane, ready for package coverage.
@@ -65,6 +74,15 @@ type Scene struct {
 	Sites []orb.Point
 	// Names holds a name per site ("" for none), by input index.
 	Names []string
+	// Ranges holds each device's range (m) by input index; nil when every
+	// device has the same range, Range (see ranges.go).
+	Ranges []float64
+	// Range is the common range (m) when Ranges is nil (0 when no source
+	// gave one); with Ranges, Inputs.Range (0 when not given).
+	Range float64
+	// Types holds each device's type ("" for none) by input index; nil
+	// when the sites have no type column or property.
+	Types []string
 	// Region is the site area with its holes (zones that need no
 	// coverage).
 	Region *planar.Region
@@ -227,6 +245,9 @@ func (sc *Scene) read(in Inputs) (*siteSet, []areaPoly, error) {
 		}
 	}
 	sc.Names = sites.Names
+	if err := sc.resolveRanges(in, sites); err != nil {
+		return nil, nil, err
+	}
 	var polys []areaPoly
 	for _, a := range []struct {
 		src     *Source

@@ -32,6 +32,39 @@ type siteSet struct {
 	// (0-based), for messages; Lines tells which.
 	Src   []int32
 	Lines bool
+	// Ranges holds per site the text of its own range ("" for none); nil
+	// when the input has no range column or property (ranges.go).
+	Ranges []string
+	// Types holds per site its device type ("" for none); nil when the
+	// input has no type column or property.
+	Types []string
+	// tagged counts the sites given their range and type so far.
+	tagged int
+}
+
+// addRangeType appends the range text and type of the sites added since
+// the last call (a feature's positions share its properties), creating
+// Ranges or Types at the first non-empty value (the earlier sites then
+// have none).
+func (s *siteSet) addRangeType(rangeText, typ string) {
+	s.Ranges = appendUpTo(s.Ranges, rangeText, s.tagged, len(s.Pts))
+	s.Types = appendUpTo(s.Types, typ, s.tagged, len(s.Pts))
+	s.tagged = len(s.Pts)
+}
+
+// appendUpTo extends xs to n entries with v, after "" up to done; a nil xs
+// stays nil while v is "".
+func appendUpTo(xs []string, v string, done, n int) []string {
+	if xs == nil && v == "" {
+		return nil
+	}
+	if xs == nil {
+		xs = make([]string, done, n)
+	}
+	for len(xs) < n {
+		xs = append(xs, v)
+	}
+	return xs
 }
 
 // label names site i in messages: "line 7" or "feature 3", with its name.
@@ -82,7 +115,13 @@ func sitesFromGeoJSON(src Source, planarInput bool) (*siteSet, error) {
 		if f.Geometry == nil {
 			return nil, errorf("%s feature %d: no geometry (null), expected Point or MultiPoint", src.Name, i)
 		}
-		name := featureName(featureProps(f), f.ID)
+		props := featureProps(f)
+		name := featureName(props, f.ID)
+		rangeText, ok := jsonLength(props.Range)
+		if !ok {
+			return nil, errorf("%s feature %d: range %s is not a length (give metres as a number, or a string such as \"150m\")", src.Name, i, shortJSON(props.Range))
+		}
+		typ := jsonText(props.Type)
 		if f.Geometry.Type == "Point" {
 			// Fast path for the common case; anything unusual falls
 			// through to the general decoder and its messages.
@@ -90,6 +129,7 @@ func sitesFromGeoJSON(src Source, planarInput bool) (*siteSet, error) {
 				s.Pts = append(s.Pts, orb.Point{x, y})
 				s.Names = append(s.Names, name)
 				s.Src = append(s.Src, int32(i))
+				s.addRangeType(rangeText, typ)
 				continue
 			}
 		}
@@ -99,6 +139,7 @@ func sitesFromGeoJSON(src Source, planarInput bool) (*siteSet, error) {
 		for len(s.Src) < len(s.Pts) {
 			s.Src = append(s.Src, int32(i))
 		}
+		s.addRangeType(rangeText, typ)
 	}
 	return s, nil
 }
