@@ -284,7 +284,7 @@ func Cautions() string {
 }
 
 var cautionLines = []string{
-	"- Coverage is modelled as straight-line disks of one common range. Walls,",
+	"- Coverage is modelled as straight-line disks of the planned ranges. Walls,",
 	"  floors, terrain, foliage, vehicles, weather and radio interference are",
 	"  ignored; real ranges are shorter and uneven. Survey before committing.",
 	"- For life-safety devices (sirens, alarm call points, defibrillator",
