@@ -353,16 +353,7 @@ func (m *gapMerged) chainPoints(l *Layout, c *gapChain, loopNode []int32, gp *ga
 // gapCloseRing copies pts into a closed ring without repeated points; nil
 // when fewer than three distinct points remain.
 func gapCloseRing(pts []orb.Point) orb.Ring {
-	ring := make(orb.Ring, 0, len(pts)+1)
-	for _, p := range pts {
-		if len(ring) > 0 && ring[len(ring)-1] == p {
-			continue
-		}
-		ring = append(ring, p)
-	}
-	for len(ring) > 1 && ring[len(ring)-1] == ring[0] {
-		ring = ring[:len(ring)-1]
-	}
+	ring := planar.DropRepeats(append(make(orb.Ring, 0, len(pts)+1), pts...))
 	if len(ring) < 3 {
 		return nil
 	}

@@ -189,3 +189,20 @@ func RingMoments(xy []float64, ox, oy float64) (a, sx, sy float64) {
 	}
 	return a / 2, sx / 6, sy / 6
 }
+
+// DropRepeats removes, in place, the consecutive repeated points of r and
+// the copies of its first point at its end (a closing repeat), and returns
+// the open ring that remains; it may have fewer than three points. O(n).
+func DropRepeats(r orb.Ring) orb.Ring {
+	out := r[:0]
+	for _, p := range r {
+		if len(out) > 0 && out[len(out)-1] == p {
+			continue
+		}
+		out = append(out, p)
+	}
+	for len(out) > 1 && out[len(out)-1] == out[0] {
+		out = out[:len(out)-1]
+	}
+	return out
+}

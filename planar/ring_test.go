@@ -130,3 +130,24 @@ func TestRingMoments(t *testing.T) {
 		})
 	}
 }
+
+func TestDropRepeats(t *testing.T) {
+	cases := []struct {
+		name string
+		in   orb.Ring
+		want int
+	}{
+		{"closed square", orb.Ring{{0, 0}, {1, 0}, {1, 1}, {0, 1}, {0, 0}}, 4},
+		{"repeats inside", orb.Ring{{0, 0}, {1, 0}, {1, 0}, {1, 1}, {0, 1}}, 4},
+		{"several closing copies", orb.Ring{{0, 0}, {1, 0}, {1, 1}, {0, 0}, {0, 0}}, 3},
+		{"all one point", orb.Ring{{2, 2}, {2, 2}, {2, 2}}, 1},
+		{"empty", orb.Ring{}, 0},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			if got := DropRepeats(append(orb.Ring(nil), c.in...)); len(got) != c.want {
+				t.Errorf("DropRepeats = %v, want %d points", got, c.want)
+			}
+		})
+	}
+}

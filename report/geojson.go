@@ -402,22 +402,11 @@ func (s *scene) multiPolygon(in orb.MultiPolygon) orb.MultiPolygon {
 
 // ring converts one ring; nil when it degenerates after rounding.
 func (s *scene) ring(in orb.Ring, exterior bool) orb.Ring {
-	r := make(orb.Ring, 0, len(in)+1)
+	r := make(orb.Ring, len(in), len(in)+1)
 	for i, p := range in {
-		var q orb.Point
-		if i > 0 && i == len(in)-1 && p == in[0] {
-			q = r[0] // the closing position, already converted
-		} else {
-			q = orb.Point(s.point(p))
-		}
-		if len(r) > 0 && r[len(r)-1] == q {
-			continue
-		}
-		r = append(r, q)
+		r[i] = orb.Point(s.point(p))
 	}
-	for len(r) > 1 && r[len(r)-1] == r[0] {
-		r = r[:len(r)-1]
-	}
+	r = planar.DropRepeats(r) // rounding may repeat points
 	if len(r) < 3 {
 		return nil
 	}
