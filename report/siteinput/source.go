@@ -65,6 +65,13 @@ func ReadFile(path, flag string) (Source, error) {
 		return Source{}, errorf("%s: cannot read: %v", path, unwrapPathErr(err))
 	}
 	defer f.Close()
+	if isGeoPackage(f) {
+		b, err := geoPackageAsGeoJSON(path, flag)
+		if err != nil {
+			return Source{}, err
+		}
+		return Source{Name: path, Data: b}, nil
+	}
 	size := int64(earlyCheckBytes)
 	if fi.Mode().IsRegular() {
 		size = fi.Size()
