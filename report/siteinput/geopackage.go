@@ -27,8 +27,8 @@ import (
 // sqliteMagic starts every SQLite database file, so every GeoPackage.
 var sqliteMagic = []byte("SQLite format 3\x00")
 
-// isGeoPackage reports whether the file f starts like a GeoPackage; it
-// leaves f at its start.
+// isGeoPackage reports whether the regular file f starts like a
+// GeoPackage; it leaves f at its start.
 func isGeoPackage(f *os.File) bool {
 	head := make([]byte, len(sqliteMagic))
 	n, _ := io.ReadFull(f, head)

@@ -65,7 +65,7 @@ func ReadFile(path, flag string) (Source, error) {
 		return Source{}, errorf("%s: cannot read: %v", path, unwrapPathErr(err))
 	}
 	defer f.Close()
-	if isGeoPackage(f) {
+	if fi.Mode().IsRegular() && isGeoPackage(f) { // a pipe cannot be rewound
 		b, err := geoPackageAsGeoJSON(path, flag)
 		if err != nil {
 			return Source{}, err
