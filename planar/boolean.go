@@ -204,7 +204,9 @@ func booleanRun(a, b orb.MultiPolygon, op int, nameA, nameB string) (orb.MultiPo
 	st.AreaParts = gr.countPieces(gr.booleanSelect(booleanUnion))
 	st.ExclusionParts = gr.countExclusionParts()
 	st.ExclusionsClipped, st.ExclusionsOutside = gr.exclusionFates(&in, rs)
-	rings, pinches := gr.extract(gr.booleanSelect(op)).openPinches()
+	extracted := gr.extract(gr.booleanSelect(op))
+	extracted.dropSlivers()
+	rings, pinches := extracted.openPinches()
 	rings.dropStraight()
 	st.Pinches = pinches
 	res := rings.multiPolygon()
