@@ -18,12 +18,18 @@ import (
 // GeoPackage in WGS84.
 func writeGPKG(t *testing.T, path string, layers map[string][]orb.Geometry, kinds map[string]gpkg.GeometryType) {
 	t.Helper()
+	writeGPKGIn(t, path, gpkg.WGS84, layers, kinds)
+}
+
+// writeGPKGIn is writeGPKG in the coordinate system srs.
+func writeGPKGIn(t *testing.T, path string, srs gpkg.SRS, layers map[string][]orb.Geometry, kinds map[string]gpkg.GeometryType) {
+	t.Helper()
 	w, err := gpkg.Create(path, gpkg.Options{})
 	if err != nil {
 		t.Fatal(err)
 	}
 	for name, geoms := range layers {
-		l, err := w.AddLayer(gpkg.LayerSpec{Name: name, Geometry: kinds[name], SRS: gpkg.WGS84, Fields: []gpkg.Field{{Name: "name", Type: gpkg.Text}}})
+		l, err := w.AddLayer(gpkg.LayerSpec{Name: name, Geometry: kinds[name], SRS: srs, Fields: []gpkg.Field{{Name: "name", Type: gpkg.Text}}})
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -69,4 +75,14 @@ func TestGeoPackageInputs(t *testing.T) {
 	if r.code != 1 || !strings.Contains(r.stderr, "no polygon layer for --area (layers: devices (point))") {
 		t.Errorf("points as area: exit %d, stderr %q", r.code, r.stderr)
 	}
+
+	// A layer in local metres (undefined Cartesian) is read with --planar
+	// and refused without it: small metre values would pass as degrees.
+	local := filepath.Join(dir, "local.gpkg")
+	writeGPKGIn(t, local, gpkg.UndefinedCartesian, map[string][]orb.Geometry{"plan": {orb.Point{10, 10}, orb.Point{30, 10}, orb.Point{20, 30}}}, map[string]gpkg.GeometryType{"plan": gpkg.Point})
+	r = runCLI(t, "analyze", "--sites", local, "--range", "20", "--out", filepath.Join(dir, "z"))
+	if r.code != 1 || !strings.Contains(r.stderr, "layer plan has local coordinates") || !strings.Contains(r.stderr, "--planar") {
+		t.Errorf("local layer without --planar: exit %d, stderr %q", r.code, r.stderr)
+	}
+	mustRun(t, "analyze", "--planar", "--sites", local, "--range", "20", "--no-maps", "--out", filepath.Join(dir, "zz"))
 }

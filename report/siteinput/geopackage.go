@@ -8,7 +8,10 @@
 // The layer is chosen by the input's role: point layers for sites and
 // candidate spots, polygon layers for the area and exclusions, point or
 // polygon layers for demand and context. A file with no such layer, or
-// with several, is refused, naming its layers.
+// with several, is refused, naming its layers. A layer in the undefined
+// Cartesian system (local metres) is read only with --planar, and with
+// --planar a WGS84 layer meets the degrees-in-planar refusal, so the
+// coordinates are never read in the wrong system.
 
 package siteinput
 
@@ -51,16 +54,17 @@ func layerKinds(flag string) ([]gpkg.GeometryType, string) {
 }
 
 // geoPackageAsGeoJSON reads the one layer of the GeoPackage at path that
-// suits flag and returns it as a GeoJSON FeatureCollection.
-func geoPackageAsGeoJSON(path, flag string) ([]byte, error) {
+// suits flag and returns it as a GeoJSON FeatureCollection, with the
+// layer's name when its coordinates are local (undefined Cartesian).
+func geoPackageAsGeoJSON(path, flag string) (doc []byte, localLayer string, err error) {
 	r, err := gpkg.Open(path)
 	if err != nil {
-		return nil, errorf("%s: not a readable GeoPackage: %v", path, gpkgMessage(err, path))
+		return nil, "", errorf("%s: not a readable GeoPackage: %v", path, gpkgMessage(err, path))
 	}
 	defer r.Close()
 	layers, err := r.Layers()
 	if err != nil {
-		return nil, errorf("%s: %v", path, gpkgMessage(err, path))
+		return nil, "", errorf("%s: %v", path, gpkgMessage(err, path))
 	}
 	kinds, what := layerKinds(flag)
 	var use []gpkg.LayerInfo
@@ -75,13 +79,13 @@ func geoPackageAsGeoJSON(path, flag string) ([]byte, error) {
 	}
 	switch {
 	case len(use) == 0:
-		return nil, errorf("%s: no %s layer for %s (layers: %s)", path, what, flag, orNone(all))
+		return nil, "", errorf("%s: no %s layer for %s (layers: %s)", path, what, flag, orNone(all))
 	case len(use) > 1:
 		var names []string
 		for _, l := range use {
 			names = append(names, l.Name)
 		}
-		return nil, errorf("%s: %d %s layers (%s): keep the one for %s in its own GeoPackage or GeoJSON file", path, len(use), what, strings.Join(names, ", "), flag)
+		return nil, "", errorf("%s: %d %s layers (%s): keep the one for %s in its own GeoPackage or GeoJSON file", path, len(use), what, strings.Join(names, ", "), flag)
 	}
 	l := use[0]
 	fc := geojson.NewFeatureCollection()
@@ -98,17 +102,20 @@ func geoPackageAsGeoJSON(path, flag string) ([]byte, error) {
 		return nil
 	})
 	if err != nil {
-		return nil, errorf("%s: %v", path, gpkgMessage(err, path))
+		return nil, "", errorf("%s: %v", path, gpkgMessage(err, path))
 	}
 	b, err := json.Marshal(fc)
 	if err != nil {
-		return nil, errorf("%s: layer %s: %v", path, l.Name, err)
+		return nil, "", errorf("%s: layer %s: %v", path, l.Name, err)
 	}
 	if s := l.SRS; strings.EqualFold(s.Organization, "EPSG") && s.OrgCoordsysID != 4326 {
 		crs := fmt.Sprintf(`{"crs":{"type":"name","properties":{"name":"EPSG:%d"}},`, s.OrgCoordsysID)
 		b = append([]byte(crs), b[1:]...)
 	}
-	return b, nil
+	if l.SRS.ID == gpkg.UndefinedCartesian.ID {
+		return b, l.Name, nil
+	}
+	return b, "", nil
 }
 
 // gpkgMessage drops the file name package gpkg puts in front of its

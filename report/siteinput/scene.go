@@ -137,6 +137,13 @@ type Scene struct {
 // is an *Error naming the file and the place in it.
 func Load(in Inputs) (*Scene, error) {
 	t0 := time.Now()
+	if !in.Planar {
+		for _, src := range []*Source{&in.Sites, in.Area, in.Exclude, in.Candidates, in.Points, in.Context} {
+			if src != nil && src.LocalLayer != "" {
+				return nil, errorf("%s: layer %s has local coordinates (undefined Cartesian system), not longitude/latitude: add --planar", src.Name, src.LocalLayer)
+			}
+		}
+	}
 	textWarn, err := decodeInputs(&in)
 	if err != nil {
 		return nil, err

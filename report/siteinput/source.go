@@ -20,6 +20,10 @@ type Source struct {
 	Name string
 	// Data is the file's content, without a UTF-8 byte order mark.
 	Data []byte
+	// LocalLayer names the GeoPackage layer Data came from when that layer
+	// says its coordinates are local (the undefined Cartesian system,
+	// srs_id −1): such an input is read only with Inputs.Planar.
+	LocalLayer string
 }
 
 // Error is a problem with the input data: a file that is missing,
@@ -66,11 +70,11 @@ func ReadFile(path, flag string) (Source, error) {
 	}
 	defer f.Close()
 	if fi.Mode().IsRegular() && isGeoPackage(f) { // a pipe cannot be rewound
-		b, err := geoPackageAsGeoJSON(path, flag)
+		b, local, err := geoPackageAsGeoJSON(path, flag)
 		if err != nil {
 			return Source{}, err
 		}
-		return Source{Name: path, Data: b}, nil
+		return Source{Name: path, Data: b, LocalLayer: local}, nil
 	}
 	size := int64(earlyCheckBytes)
 	if fi.Mode().IsRegular() {
