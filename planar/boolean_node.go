@@ -150,29 +150,21 @@ func booleanRingOf(ringStart []int32) []int32 {
 func booleanFindSplits(g *regionGrid, ringOf []int32, fresh []bool) ([]booleanSplit, *booleanRingFault) {
 	var splits []booleanSplit
 	var fault *booleanRingFault
-	for c := 0; c+1 < len(g.cellStart); c++ {
-		ents := g.entries[g.cellStart[c]:g.cellStart[c+1]]
-		for i := 0; i < len(ents); i++ {
-			e1 := ents[i] >> 1
-			for j := i + 1; j < len(ents); j++ {
-				e2 := ents[j] >> 1
-				a, b := min(e1, e2), max(e1, e2)
-				if a == b || fresh != nil && !fresh[a] && !fresh[b] {
-					continue
-				}
-				if ringOf != nil && ringOf[a] == ringOf[b] {
-					if fault != nil && (a > fault.e1 || a == fault.e1 && b >= fault.e2) {
-						continue
-					}
-					if kind := g.edgePair(a, b); kind != 0 {
-						fault = &booleanRingFault{a, b, kind}
-					}
-					continue
-				}
-				splits = booleanPairSplits(g, a, b, splits)
-			}
+	g.cellPairs(func(a, b int32) {
+		if fresh != nil && !fresh[a] && !fresh[b] {
+			return
 		}
-	}
+		if ringOf != nil && ringOf[a] == ringOf[b] {
+			if fault != nil && (a > fault.e1 || a == fault.e1 && b >= fault.e2) {
+				return
+			}
+			if kind := g.edgePair(a, b); kind != 0 {
+				fault = &booleanRingFault{a, b, kind}
+			}
+			return
+		}
+		splits = booleanPairSplits(g, a, b, splits)
+	})
 	return splits, fault
 }
 

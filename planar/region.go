@@ -406,22 +406,14 @@ func regionEdgeFault(g *regionGrid, reg *Region, rings []*regionRingIn, ringOf [
 		kind   int // 1 crosses, 2 touches, 3 overlaps (doubles back)
 	}
 	best := fault{e1: -1}
-	for c := 0; c+1 < len(g.cellStart); c++ {
-		ents := g.entries[g.cellStart[c]:g.cellStart[c+1]]
-		for i := 0; i < len(ents); i++ {
-			e1 := ents[i] >> 1
-			for j := i + 1; j < len(ents); j++ {
-				e2 := ents[j] >> 1
-				a, b := min(e1, e2), max(e1, e2)
-				if best.e1 >= 0 && (a > best.e1 || a == best.e1 && b >= best.e2) {
-					continue
-				}
-				if kind := g.edgePair(a, b); kind != 0 {
-					best = fault{a, b, kind}
-				}
-			}
+	g.cellPairs(func(a, b int32) {
+		if best.e1 >= 0 && (a > best.e1 || a == best.e1 && b >= best.e2) {
+			return
 		}
-	}
+		if kind := g.edgePair(a, b); kind != 0 {
+			best = fault{a, b, kind}
+		}
+	})
 	if best.e1 >= 0 {
 		k1, k2 := ringOf[best.e1], ringOf[best.e2]
 		v1 := rings[k1].orig[best.e1-reg.RingStart[k1]]

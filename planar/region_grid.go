@@ -357,3 +357,20 @@ func regionSameSide(ox, oy, px, py, qx, qy float64) bool {
 	}
 	return (py-oy > 0) == (qy-oy > 0) && py != oy && qy != oy
 }
+
+// cellPairs calls fn(a, b), a < b, for every pair of distinct edges
+// registered in a common grid cell, cell by cell in order; a pair sharing
+// several cells is visited once per shared cell. O(Σ cell occupancy²).
+func (g *regionGrid) cellPairs(fn func(a, b int32)) {
+	for c := 0; c+1 < len(g.cellStart); c++ {
+		ents := g.entries[g.cellStart[c]:g.cellStart[c+1]]
+		for i := 0; i < len(ents); i++ {
+			e1 := ents[i] >> 1
+			for j := i + 1; j < len(ents); j++ {
+				if e2 := ents[j] >> 1; e1 != e2 {
+					fn(min(e1, e2), max(e1, e2))
+				}
+			}
+		}
+	}
+}
