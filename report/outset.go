@@ -43,6 +43,7 @@ import (
 	"path/filepath"
 	"strings"
 	"sync"
+	"syscall"
 	"time"
 )
 
@@ -118,10 +119,11 @@ type outputSet struct {
 	slock *os.File // the staging folder, opened and locked
 }
 
-// CheckOutputFolder reports, without writing anything, whether a report
+// CheckOutputFolder reports, writing nothing that stays, whether a report
 // with the given file names can be written into dir: dir is a folder or
-// can be created, no output would overwrite an input named in m, and dir
-// holds nothing but an earlier report (or is empty). Commands call it
+// can be created, no output would overwrite an input named in m, dir
+// holds nothing but an earlier report (or is empty), and the folders the
+// report goes through accept new files (probeWritable). Commands call it
 // before their computation so that a bad --out fails at once; names nil
 // stands for every name a sitecover report may hold.
 func CheckOutputFolder(dir string, names []string, m Meta) error {
@@ -145,15 +147,54 @@ func CheckOutputFolder(dir string, names []string, m Meta) error {
 	}
 	ents, err := os.ReadDir(dir)
 	if err != nil {
-		if errors.Is(err, os.ErrNotExist) {
-			return checkCreatable(dir)
+		if errors.Is(err, os.ErrNotExist) || errors.Is(err, syscall.ENOTDIR) { // missing, or under a file
+			if err := checkCreatable(dir); err != nil {
+				return err
+			}
+			return probeWritable(dir)
 		}
 		return fmt.Errorf("output folder %s: cannot read it: %v", dir, unwrapPath(err))
 	}
 	if foreign := foreignEntry(dir, ents, names); foreign != "" {
 		return fmt.Errorf("output folder %s holds %s, which sitecover did not write: give --out a new or empty folder (a report replaces the folder's contents)", dir, foreign)
 	}
-	return nil
+	return probeWritable(dir)
+}
+
+// probeWritable checks, by creating and removing a probe file, that the
+// folder the staging folder goes into (the parent of dir, or its nearest
+// existing ancestor when dir is still to be created) and dir itself, when
+// it exists, accept new entries.
+func probeWritable(dir string) error {
+	abs, err := filepath.Abs(dir)
+	if err != nil {
+		return fmt.Errorf("output folder %s: %v", dir, err)
+	}
+	probe := func(p string) error {
+		f, err := os.CreateTemp(p, ".sitecover-probe-*")
+		if err != nil {
+			return fmt.Errorf("output folder %s: not writable: %v", dir, unwrapPath(err))
+		}
+		f.Close()
+		os.Remove(f.Name())
+		return nil
+	}
+	if fi, err := os.Stat(abs); err == nil && fi.IsDir() {
+		if err := probe(abs); err != nil {
+			return err
+		}
+	}
+	p := filepath.Dir(abs)
+	for {
+		if fi, err := os.Stat(p); err == nil && fi.IsDir() {
+			return probe(p)
+		}
+		q := filepath.Dir(p)
+		if q == p {
+			return nil
+		}
+		p = q
+	}
 }
 
 // checkCreatable reports whether the missing folder dir could be created:

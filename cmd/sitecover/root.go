@@ -264,24 +264,3 @@ func (f *runFlags) inputs() (siteinput.Inputs, error) {
 	}
 	return in, nil
 }
-
-// checkOutDir fails fast, before a long analysis, when the output folder
-// cannot be created or written. (report checks again when it writes.)
-func checkOutDir(dir string) error {
-	if dir == "" {
-		return usageErrorf("--out needs a folder name")
-	}
-	if fi, err := os.Stat(dir); err == nil && !fi.IsDir() {
-		return inputErrorf("output folder %s: exists and is not a folder (given to --out)", dir)
-	}
-	if err := os.MkdirAll(dir, 0o755); err != nil {
-		return inputErrorf("output folder %s: cannot create it: %v", dir, unwrapPathErr(err))
-	}
-	f, err := os.CreateTemp(dir, ".sitecover-probe-*")
-	if err != nil {
-		return inputErrorf("output folder %s: not writable: %v", dir, unwrapPathErr(err))
-	}
-	f.Close()
-	os.Remove(f.Name())
-	return nil
-}

@@ -56,20 +56,21 @@ func openSource(path, flag string) (*siteinput.Source, error) {
 // scene, checks the output folder and fills the report metadata. The caller
 // ends the progress line; on error startRun has ended it.
 func startRun(e *env, command string, f *runFlags, in siteinput.Inputs) (*scene, *progress, error) {
+	if f.out == "" {
+		return nil, nil, usageErrorf("--out needs a folder name")
+	}
 	pr := startProgress(e.stderr, e.terminal)
 	pr.set("reading inputs")
 	sc, err := loadScene(in)
-	if err == nil {
-		err = checkOutDir(f.out)
-	}
 	if err != nil {
 		pr.end()
 		return nil, nil, err
 	}
 	sc.setMeta(command, f)
 	sc.meta.Arguments = e.args
-	// Before any computation: an output that would overwrite an input, or a
-	// folder holding files sitecover did not write, fails now.
+	// Before any computation: an output folder that cannot be written, an
+	// output that would overwrite an input, or a folder holding files
+	// sitecover did not write fails now.
 	if err := report.CheckOutputFolder(f.out, nil, sc.meta); err != nil {
 		pr.end()
 		return nil, nil, inputErrorf("%v", err)
