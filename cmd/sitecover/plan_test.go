@@ -182,10 +182,9 @@ func checkPNGWidths(t *testing.T, dir string, names []string) {
 }
 
 // checkFiles checks that dir holds exactly the files of a planning move.
-func checkFiles(t *testing.T, dir string, move report.Move, planarOut, maps bool) {
+func checkFiles(t *testing.T, dir string, move report.Move, planarOut, maps, gpkg bool) {
 	t.Helper()
-	_, err := os.Stat(filepath.Join(dir, report.FileGeoPackage))
-	want := report.PlanFiles(move, report.Meta{Planar: planarOut}, report.Options{Maps: maps, GeoPackage: err == nil})
+	want := report.PlanFiles(move, report.Meta{Planar: planarOut}, report.Options{Maps: maps, GeoPackage: gpkg})
 	ents, _ := os.ReadDir(dir)
 	var got []string
 	for _, e := range ents {
@@ -217,7 +216,7 @@ func TestSuggestPutsMissingDeviceBack(t *testing.T) {
 	area := writeFile(t, dir, "area.geojson", squareGeoJSON(0, 0, 60))
 	out := filepath.Join(dir, "add")
 	res := mustRun(t, "suggest", "--planar", "--sites", sites, "--area", area, "--add", "1", "--range", rangeArg(r), "--out", out)
-	checkFiles(t, out, report.MoveAdd, true, true)
+	checkFiles(t, out, report.MoveAdd, true, true, false)
 	p := readPlan(t, out)
 	sg := p.Suggestions
 	if p.Command != "suggest" || p.Move != "add" || sg == nil || len(sg.Added) != 1 || sg.Requested != 1 {
@@ -249,7 +248,7 @@ func TestSuggestPutsMissingDeviceBack(t *testing.T) {
 	// new layout needs (here s/√2), and the summary says so.
 	out = filepath.Join(dir, "add-norange")
 	mustRun(t, "suggest", "--planar", "--sites", sites, "--area", area, "--add", "1", "--out", out, "--no-maps")
-	checkFiles(t, out, report.MoveAdd, true, false)
+	checkFiles(t, out, report.MoveAdd, true, false, false)
 	p = readPlan(t, out)
 	if p.RangeGiven || p.RangeM == nil || !near(*p.RangeM, r, 1e-9) || !strings.Contains(p.RangeNote, "full-cover range") {
 		t.Errorf("range %v given %v note %q, want the full-cover range after, %g", p.RangeM, p.RangeGiven, p.RangeNote, r)
@@ -297,7 +296,7 @@ func TestFailuresOnLattice(t *testing.T) {
 	area := writeFile(t, dir, "area.geojson", squareGeoJSON(0, 0, 50))
 	out := filepath.Join(dir, "failures")
 	res := mustRun(t, "failures", "--planar", "--sites", sites, "--area", area, "--range", rangeArg(r), "--out", out)
-	checkFiles(t, out, report.MoveFailures, true, true)
+	checkFiles(t, out, report.MoveFailures, true, true, false)
 	p := readPlan(t, out)
 	if p.Survive == nil || len(p.Failures) != 25 {
 		t.Fatalf("survive %v, %d failures", p.Survive, len(p.Failures))
@@ -421,7 +420,7 @@ func TestAssignAgainstBruteForce(t *testing.T) {
 	pf := writeFile(t, dir, "points.csv", pb.String())
 	out := filepath.Join(dir, "assign")
 	mustRun(t, "assign", "--planar", "--sites", sf, "--area", area, "--points", pf, "--range", rangeArg(r), "--out", out)
-	checkFiles(t, out, report.MoveAssign, true, true)
+	checkFiles(t, out, report.MoveAssign, true, true, false)
 	rows := readCSV(t, filepath.Join(out, report.FileAssignmentCSV))
 	if strings.Join(rows[0], ",") != "point,name,device,device_name,distance_m,within_range,weight,x,y" || len(rows) != m+1 {
 		t.Fatalf("assignment.csv: %d rows, header %v", len(rows), rows[0])
@@ -520,7 +519,7 @@ func TestSuggestCandidates(t *testing.T) {
 	cands := writeFile(t, dir, "spots.csv", "name,x,y\nfar pole,200,200\nlamp,25,35\nroof,5,5\n")
 	out := filepath.Join(dir, "cand")
 	res := mustRun(t, "suggest", "--planar", "--sites", sites, "--area", area, "--candidates", cands, "--range", rangeArg(r), "--out", out)
-	checkFiles(t, out, report.MoveCandidates, true, true)
+	checkFiles(t, out, report.MoveCandidates, true, true, false)
 	p := readPlan(t, out)
 	c := p.Candidates
 	if c == nil || c.Count != 3 || len(c.Picked) != 1 || c.Picked[0].Candidate != 1 || c.Picked[0].Name != "lamp" || !c.Complete || len(c.Remaining) != 0 {
@@ -601,7 +600,7 @@ func TestDemoWritesPlans(t *testing.T) {
 	res := mustRun(t, "demo", "--out", out)
 	for _, dp := range demoPlans(examplesites.PlannedRange) {
 		dir := filepath.Join(out, dp.dir)
-		checkFiles(t, dir, dp.ps.move, false, true)
+		checkFiles(t, dir, dp.ps.move, false, true, true) // the demo writes the GeoPackage
 		p := readPlan(t, dir)
 		if p.Move != string(dp.ps.move) || p.Sites != 40 || p.RangeM == nil || *p.RangeM != examplesites.PlannedRange {
 			t.Errorf("%s: move %q sites %d range %v", dp.dir, p.Move, p.Sites, p.RangeM)
