@@ -307,7 +307,11 @@ func (s *scene) textGaps(b *textBuf) {
 }
 
 func (s *scene) textCells(b *textBuf) {
-	section(b, "SERVICE AREAS (each site's Voronoi cell within the area)")
+	if len(s.m.Ranges) > 0 {
+		section(b, "SERVICE AREAS (each device's power cell within the area: where its disk reaches deepest, |x−p|² − r² smallest; empty for a hidden device)")
+	} else {
+		section(b, "SERVICE AREAS (each site's Voronoi cell within the area)")
+	}
 	if len(s.cells) == 0 {
 		b.WriteString("  none\n")
 		return
@@ -509,7 +513,7 @@ func (s *scene) textAccuracy(b *textBuf) {
 		fmt.Sprintf("Gap outlines (%s and the coverage map) replace circular arcs by", LayerFile(FileGaps, s.m.Planar)),
 		fmt.Sprintf("chords lying inside the disks, sagitta at most %s of the range (%s at", trimFloat(100*s.chordTol())+" %", metresShort(s.chordTol()*s.rangeOrZero())),
 		"the planned range): each outline contains its true gap. Gap areas are exact.",
-		"Service-area outlines are exact (straight Voronoi edges).",
+		"Service-area outlines are exact (straight cell edges).",
 	}
 	if s.geographic() {
 		lines = append(lines,

@@ -21,8 +21,9 @@ func newCellsCmd(e *env) *cobra.Command {
 		Use:   "cells --sites FILE [--area FILE] [flags]",
 		Short: "Service areas: which device serves which part of the site",
 		Long: `cells writes the service area of every site - the part of the site area
-closer to it than to any other site (its Voronoi cell clipped to the area) -
-with its size, share and farthest point: report.txt, summary.json, the sites
+closer to it than to any other site (its Voronoi cell clipped to the area;
+with devices of their own ranges, its power cell: where its disk reaches
+deepest) - with its size, share and farthest point: report.txt, summary.json, the sites
 and service-area GeoJSON layers and the service-area map.`,
 		Example: `  sitecover cells --sites sirens.csv --area town.geojson
   sitecover cells --sites call-points.geojson --area building.geojson --out cells --no-maps
