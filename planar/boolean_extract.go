@@ -220,7 +220,8 @@ func (r *booleanRings) dropStraight() {
 	r.xy, r.vid, r.ringStart = out, vid, rs
 }
 
-// dropSlivers removes the rings whose mean width is below booleanPinchSep
+// dropSlivers first merges ring vertices an ulp or two apart
+// (mergeNearVertices), then removes the rings whose mean width is below booleanPinchSep
 // ulps: |area| ≤ booleanPinchSep·ulp·perimeter, ulp = 2⁻⁵² times the
 // largest coordinate magnitude of the ring. Such a ring is an artefact of
 // rounded crossing points (where the exact result has zero width, two
@@ -244,6 +245,7 @@ func (r *booleanRings) dropSlivers() int {
 		ulp := m * 0x1p-52
 		return math.Abs(RingArea(xy)) <= booleanPinchSep*ulp*per
 	}
+	merged := r.mergeNearVertices()
 	out := &booleanRings{ringStart: []int32{0}, polyStart: []int32{0}, pinch: make([]bool, len(r.pinch))}
 	dropped := 0
 	for p := 0; p+1 < len(r.polyStart); p++ {
@@ -264,7 +266,7 @@ func (r *booleanRings) dropSlivers() int {
 		}
 		out.polyStart = append(out.polyStart, int32(len(out.ringStart)-1))
 	}
-	if dropped == 0 {
+	if dropped == 0 && merged == 0 {
 		return 0
 	}
 	seen := make([]int32, len(r.pinch))
@@ -275,5 +277,57 @@ func (r *booleanRings) dropSlivers() int {
 		out.pinch[v] = c > 1
 	}
 	*r = *out
+	return dropped
+}
+
+// booleanNearUlps is the distance, in ulps of the coordinates, within which
+// consecutive ring vertices are taken as one point by mergeNearVertices.
+const booleanNearUlps = 4
+
+// mergeNearVertices drops, in place, each ring vertex that lies within
+// booleanNearUlps ulps (in x and in y) of the next vertex of its ring,
+// keeping the one that is a pinch vertex when one is. Rounded crossing
+// points of different edge pairs at one true point can land an ulp or two
+// apart; the edge between them is too short for pinch opening to pull a
+// passage back from the other, so they are made one point first (the ring
+// moves by at most booleanNearUlps ulps). It returns the number dropped;
+// the pinch flags are recounted by the caller.
+func (r *booleanRings) mergeNearVertices() int {
+	near := func(i, j int32) bool {
+		xi, yi, xj, yj := r.xy[2*i], r.xy[2*i+1], r.xy[2*j], r.xy[2*j+1]
+		tol := booleanNearUlps * 0x1p-52 * math.Max(math.Max(math.Abs(xi), math.Abs(yi)), math.Max(math.Abs(xj), math.Abs(yj)))
+		return math.Abs(xi-xj) <= tol && math.Abs(yi-yj) <= tol
+	}
+	xy, vid := r.xy[:0], r.vid[:0]
+	rs := make([]int32, 1, len(r.ringStart))
+	dropped := 0
+	for k := 0; k+1 < len(r.ringStart); k++ {
+		s, e := r.ringStart[k], r.ringStart[k+1]
+		n := e - s
+		drop := make([]bool, n)
+		left := n
+		for i := int32(0); i < n && left > 3; i++ {
+			j := (i + 1) % n
+			if drop[i] || drop[j] || !near(s+i, s+j) {
+				continue
+			}
+			if r.pinch[r.vid[s+i]] && !r.pinch[r.vid[s+j]] {
+				drop[j] = true
+			} else {
+				drop[i] = true
+			}
+			left--
+		}
+		for i := int32(0); i < n; i++ {
+			if drop[i] {
+				dropped++
+				continue
+			}
+			xy = append(xy, r.xy[2*(s+i)], r.xy[2*(s+i)+1])
+			vid = append(vid, r.vid[s+i])
+		}
+		rs = append(rs, int32(len(vid)))
+	}
+	r.xy, r.vid, r.ringStart = xy, vid, rs
 	return dropped
 }
