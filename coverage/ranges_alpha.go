@@ -256,6 +256,8 @@ type PowerHole struct {
 	// BirthSites are the input indices of the devices whose disks close
 	// the loop at Birth.
 	BirthSites [2]int
+
+	deathTri int32 // the triangle that fills it
 }
 
 // PowerPersistence holds the persistence of the weighted alpha filtration:
@@ -277,11 +279,18 @@ type PowerPersistence struct {
 // filtration of a layout with per-device ranges (for a common-range layout
 // the ranges are taken as 0: the unweighted filtration in squared radii).
 func (l *Layout) PersistenceRanges() *PowerPersistence {
+	p, _ := l.persistenceRanges()
+	return p
+}
+
+// persistenceRanges is PersistenceRanges also returning the filtration.
+func (l *Layout) persistenceRanges() (*PowerPersistence, *PowerFiltration) {
 	ranges := l.Ranges
 	if ranges == nil {
 		ranges = make([]float64, l.numVertices())
 	}
-	return ComputePowerPersistence(l.Tri, NewPowerFiltration(l.Tri, ranges))
+	f := NewPowerFiltration(l.Tri, ranges)
+	return ComputePowerPersistence(l.Tri, f), f
 }
 
 // ComputePowerPersistence returns the H0 and H1 pairs of the weighted alpha
@@ -370,7 +379,8 @@ func ComputePowerPersistence(t *planar.Triangulation, f *PowerFiltration) *Power
 	holes := persistHoleList(t, &Filtration{centre: f.centre}, recs, order, tids)
 	p.Holes = make([]PowerHole, len(holes))
 	for i, h := range holes {
-		p.Holes[i] = PowerHole{Birth: h.Birth, Death: h.Death, DeathPoint: h.DeathPoint, BirthSites: h.BirthSites}
+		p.Holes[i] = PowerHole{Birth: h.Birth, Death: h.Death, DeathPoint: h.DeathPoint, BirthSites: h.BirthSites,
+			deathTri: tids[recs[order[i]].rank]}
 	}
 	return p
 }

@@ -52,6 +52,10 @@ type RangesAnalysis struct {
 	Percentiles []PowerAt
 	// Persistence holds the pairs of the weighted alpha filtration.
 	Persistence *PowerPersistence
+	// HoleClosings holds, per hole of Persistence (same order), what
+	// closes it in metres when it is open at the planned ranges; nil
+	// entries for the others.
+	HoleClosings []*HoleClosing
 	// Pieces and EnclosedHoles are the Betti numbers of the union of the
 	// disks at the planned ranges (in the whole plane).
 	Pieces, EnclosedHoles int
@@ -151,7 +155,9 @@ func (a *RangesAnalysis) finish(sites []orb.Point, ranges []float64, opt Options
 	a.Timings = append(a.Timings, Timing{"gaps", time.Since(t0).Seconds()})
 
 	t0 = time.Now()
-	a.Persistence = l.PersistenceRanges()
+	var f *PowerFiltration
+	a.Persistence, f = l.persistenceRanges()
+	a.HoleClosings = l.holeClosings(a.Persistence, f)
 	a.Pieces, a.EnclosedHoles = a.Persistence.Betti(0)
 	a.ConnectPower = a.Persistence.Births[0]
 	for _, m := range a.Persistence.Merges {

@@ -20,7 +20,8 @@
 //     circle arc of centre c and radius ρ, at c + ρ·(c − p_i)/|c − p_i| when
 //     that point lies on the arc. The device with the smallest increase
 //     among those whose cells the gap meets is reported, with its range
-//     (the increase counted from its range at the growth analysed).
+//     (the increase counted from its range at the growth analysed; ties
+//     within rounding go to the smaller input index).
 //
 // Error bounds: as gaps.go; the farthest distances are those of the traced
 // vertices (a few ulps) and the closed-form arc point.
@@ -177,9 +178,20 @@ func (l *Layout) singleClosing(sites []int, hull orb.Ring, arcs []gapArcRef, gp 
 				far = dc + a.r
 			}
 		}
-		if inc := far - gp.radius(l.Tri.Vertex[s]); inc < bestInc {
+		inc := far - gp.radius(l.Tri.Vertex[s])
+		tie := closingTieUlps * (math.Abs(px) + math.Abs(py) + far)
+		if inc < bestInc-tie || inc <= bestInc+tie && s < best {
 			best, bestInc, bestR = s, inc, far
 		}
 	}
 	return best, bestR
 }
+
+// closingTieUlps is the difference, relative to the coordinates and the
+// distance, below which two devices' increases tie and the smaller input
+// index is reported: each distance is a hypotenuse of coordinate
+// differences carrying a few ulps of the coordinates' magnitude, so two
+// increases equal in exact arithmetic (symmetric layouts) agree within a
+// few ulps; 64 ulps (64·2⁻⁵²) is far above that and far below any
+// difference a planner could act on.
+const closingTieUlps = 64 * 0x1p-52
