@@ -1,6 +1,8 @@
 // The report of devices with their own ranges (coverage.AnalyzeRanges):
-// report.txt, summary.json, the sites, service-area and gaps layers and
-// the coverage map, every figure in metres a planner can act on.
+// report.txt, summary.json, the sites, service-area, gaps and hole-closings
+// layers, the coverage map and the coverage curve chart, every figure in
+// metres a planner can act on (holes: ranges_holes.go; chart:
+// ranges_charts.go).
 //
 // Nothing is computed here beyond grouping: each device's planned range
 // and its full-cover range (coverage.RangesFullCover.Needed, the range it
@@ -107,12 +109,20 @@ type RangesDoc struct {
 	// disks at the planned ranges (pieces of coverage, holes open);
 	// LinkGroups the groups of devices linked two-way (each within the
 	// other's range).
-	Pieces      int      `json:"pieces"`
-	OpenHoles   int      `json:"open_holes"`
-	LinkGroups  int      `json:"link_groups"`
-	Coordinates string   `json:"coordinates"`
-	Warnings    []string `json:"warnings"`
-	Timings     Timings  `json:"timings"`
+	// ReferenceType and ReferenceRangeM name the reference devices (the
+	// longest planned range) whose range states a uniform growth in metres;
+	// Holes are the holes of the union of disks (the first SummaryListMax,
+	// HolesTotal counts them all), longest-lived first.
+	ReferenceType   string       `json:"reference_type"`
+	ReferenceRangeM float64      `json:"reference_range_m"`
+	Holes           []RangesHole `json:"holes"`
+	HolesTotal      int          `json:"holes_total"`
+	Pieces          int          `json:"pieces"`
+	OpenHoles       int          `json:"open_holes"`
+	LinkGroups      int          `json:"link_groups"`
+	Coordinates     string       `json:"coordinates"`
+	Warnings        []string     `json:"warnings"`
+	Timings         Timings      `json:"timings"`
 }
 
 // MarshalIndent returns the document as indented JSON.
@@ -122,17 +132,25 @@ func (d *RangesDoc) MarshalIndent() ([]byte, error) { return marshalDoc(d) }
 type rangesScene struct {
 	*scene
 	ra *coverage.RangesAnalysis
+	// refType and refM are the reference devices' type and planned range
+	// (ranges_holes.go).
+	refType string
+	refM    float64
 }
 
 // RangesFiles returns the names of the files WriteRangesAnalysis writes
 // for different ranges, in order.
 func RangesFiles(m Meta, opt Options) []string {
-	f := []string{FileReport, FileSummary, LayerFile(FileSites, m.Planar), LayerFile(FileServiceAreas, m.Planar), LayerFile(FileGaps, m.Planar)}
+	f := []string{FileReport, FileSummary, LayerFile(FileSites, m.Planar), LayerFile(FileServiceAreas, m.Planar), LayerFile(FileGaps, m.Planar),
+		LayerFile(FileHoleClosings, m.Planar)}
 	if opt.GeoPackage {
 		f = append(f, FileGeoPackage)
 	}
 	if opt.Maps {
 		f = append(f, FileMapCoverage)
+	}
+	if opt.Charts {
+		f = append(f, FileChartCurve)
 	}
 	return append(f, FileManifest)
 }
@@ -161,6 +179,7 @@ func WriteRangesAnalysis(dir string, a *coverage.RangesAnalysis, m Meta, opt Opt
 		rs.layerStep(FileSites, rs.sitesLayer()),
 		rs.layerStep(FileServiceAreas, rs.serviceAreasLayer()),
 		rs.layerStep(FileGaps, rs.gapsLayer()),
+		rs.layerStep(FileHoleClosings, rs.holesLayerRanges()),
 	}
 	if opt.GeoPackage {
 		steps = append(steps, step{name: FileGeoPackage, gpkg: true})
@@ -168,6 +187,10 @@ func WriteRangesAnalysis(dir string, a *coverage.RangesAnalysis, m Meta, opt Opt
 	if opt.Maps {
 		width := mapWidth(opt)
 		steps = append(steps, step{name: FileMapCoverage, write: fromBytes(func() ([]byte, error) { return rs.coverageMap(width) })})
+	}
+	if opt.Charts {
+		width := mapWidth(opt)
+		steps = append(steps, step{name: FileChartCurve, write: fromBytes(func() ([]byte, error) { return rs.curveChartRanges(width) })})
 	}
 	err = w.writeAll(rs.scene, steps)
 	return w.done, err
@@ -178,7 +201,13 @@ func WriteRangesAnalysis(dir string, a *coverage.RangesAnalysis, m Meta, opt Opt
 func newRangesScene(a *coverage.RangesAnalysis, m Meta) *rangesScene {
 	m.Ranges = a.Layout.InputRanges
 	s := newScene(a.Layout, nil, m)
-	return &rangesScene{scene: s, ra: a}
+	rs := &rangesScene{scene: s, ra: a}
+	for _, g := range rs.groups(nil) {
+		if g.RangeM > rs.refM {
+			rs.refType, rs.refM = g.Type, g.RangeM
+		}
+	}
+	return rs
 }
 
 // RangesSummary returns the summary.json document of a (for a.Common set,
@@ -282,6 +311,8 @@ func (rs *rangesScene) summary() *RangesDoc {
 	for gi := range a.Gaps {
 		d.Gaps = append(d.Gaps, rs.summaryGap(&a.Gaps[gi]))
 	}
+	d.ReferenceType, d.ReferenceRangeM = rs.refType, rs.refM
+	d.Holes, d.HolesTotal = rs.summaryHoles()
 	d.Timings = append(Timings{}, rs.m.Timings...)
 	d.Timings = append(d.Timings, a.Timings...)
 	return d
@@ -338,11 +369,12 @@ func (rs *rangesScene) text() []byte {
 	kv.add("covered at the planned ranges", CoveredPercent(d.CoveredFraction, d.UncoveredAreaM2, 2)+" %")
 	kv.add("uncovered", m2(d.UncoveredAreaM2)+" in "+Plural(len(d.Gaps), "gap"))
 	kv.add("pieces of coverage", strconv.Itoa(d.Pieces))
-	kv.add("holes open", strconv.Itoa(d.OpenHoles))
+	kv.add("holes open", strconv.Itoa(d.OpenHoles)+" (see HOLES)")
 	kv.add("groups of linked devices", strconv.Itoa(d.LinkGroups)+" (a link: each device within the other's range)")
 	kv.add("redundant (hidden) devices", rs.labels(d.Hidden, "none"))
 	kv.write(&b)
 	rs.textGapsRanges(&b, d)
+	rs.textHolesRanges(&b)
 	rs.textDevices(&b, d)
 	rs.textClosing(&b, analysisFileNote)
 	return b.Bytes()
@@ -371,17 +403,11 @@ func (rs *rangesScene) textGapsRanges(b *textBuf, d *RangesDoc) {
 	t.head("gap", "area m²", "kind", "deepest point", "single-device fix", "closing ranges (all grow together)")
 	t.left(2, 3, 4, 5)
 	for gi, g := range d.Gaps {
-		var need []string
-		for k, i := range g.Sites {
-			if k < len(g.NeededM) {
-				need = append(need, rs.label(i)+" "+metresNum(g.NeededM[k])+" m")
-			}
-		}
 		fix := "-"
 		if g.FixSite >= 0 {
 			fix = fmt.Sprintf("%s to %s m", g.FixLabel, metresNum(g.FixRangeM))
 		}
-		t.row(strconv.Itoa(g.ID), AreaNumber(g.AreaM2, 1), gapKind(rs.ra.Gaps[gi]), FormatPoint(g.DeepestPoint, d.Coordinates), fix, strings.Join(need, ", "))
+		t.row(strconv.Itoa(g.ID), AreaNumber(g.AreaM2, 1), gapKind(rs.ra.Gaps[gi]), FormatPoint(g.DeepestPoint, d.Coordinates), fix, rs.neededText(g.Sites, g.NeededM))
 	}
 	t.write(b)
 }

@@ -1,0 +1,122 @@
+// The coverage curve chart of devices with their own ranges, drawn with
+// gonum.org/v1/plot as charts.go's.
+//
+// The covered share of the area as all ranges grow together (every
+// device's r² by the same amount t, coverage.Layout.CurveRanges: exact
+// samples joined by straight segments). The x-axis is the range of the
+// reference devices (the longest planned range, ranges_holes.go),
+// √(r_ref² + t): in metres, 0 where those devices' disks appear, their
+// planned range at the plan itself. The markers at the planned ranges, 95 %
+// and full cover say in the legend what the other device types then have.
+
+package report
+
+import (
+	"fmt"
+	"image/color"
+	"math"
+	"strings"
+
+	"gonum.org/v1/plot"
+	"gonum.org/v1/plot/plotter"
+	"gonum.org/v1/plot/vg"
+)
+
+// maxLegendTypes is the most other device types a chart legend entry
+// names (the rest are summarised as "…").
+const maxLegendTypes = 3
+
+// othersAt lists the planned-range groups other than the reference with
+// their ranges after growth t ("sensor 78 m, siren 260 m").
+func (rs *rangesScene) othersAt(t float64) string {
+	var parts []string
+	for _, g := range rs.groups(nil) {
+		if g.Type == rs.refType && g.RangeM == rs.refM {
+			continue
+		}
+		if len(parts) == maxLegendTypes {
+			parts = append(parts, "…")
+			break
+		}
+		parts = append(parts, typeName(g.Type)+" "+metresShort(math.Sqrt(math.Max(0, g.RangeM*g.RangeM+t))))
+	}
+	return strings.Join(parts, ", ")
+}
+
+// growthAt returns the smallest growth covering fraction f of the area.
+func (rs *rangesScene) growthAt(f float64) float64 {
+	for _, p := range rs.ra.Percentiles {
+		if math.Abs(p.Fraction-f) < 1e-9 {
+			return p.Power
+		}
+	}
+	return rs.l.CurveRanges().RangeFor(f)
+}
+
+func (rs *rangesScene) curveChartRanges(width int) ([]byte, error) {
+	a := rs.ra
+	tFull, t95 := a.FullCover.Power, rs.growthAt(0.95)
+	full, x95 := rs.refRange(tFull), rs.refRange(t95)
+	xmax := 1.08 * math.Max(math.Max(full, rs.refM), 1e-9)
+
+	smp := rs.l.CurveRanges().Samples(curveSamples)
+	xy := make(plotter.XYs, 0, len(smp)+1)
+	for _, s := range smp {
+		xy = append(xy, plotter.XY{X: rs.refRange(s.Range), Y: 100 * s.Fraction})
+	}
+	if n := len(xy); n > 0 && xy[n-1].X < xmax {
+		xy = append(xy, plotter.XY{X: xmax, Y: xy[n-1].Y})
+	}
+	p := plot.New()
+	title := "Covered share of the site area as all ranges grow together"
+	if rs.m.Title != "" {
+		title = rs.m.Title + "\n" + title
+	}
+	p.Title.Text = title
+	p.X.Label.Text = fmt.Sprintf("Range of %s, all devices' r² growing by the same amount (m)", rs.refName())
+	p.Y.Label.Text = "Area covered (%)"
+	p.X.Min, p.X.Max = 0, xmax
+	p.X.Tick.Marker = niceTicks{}
+	p.Y.Min, p.Y.Max = 0, 128
+	p.Y.Tick.Marker = percentTicks{}
+	styleAxes(p)
+
+	line, err := plotter.NewLine(xy)
+	if err != nil {
+		return nil, err
+	}
+	line.Color = colInk
+	line.Width = vg.Points(1.8)
+	p.Add(line)
+	p.Legend.Add("covered share", line)
+	with := func(t float64) string {
+		if o := rs.othersAt(t); o != "" {
+			return " (" + o + ")"
+		}
+		return ""
+	}
+	marks := []struct {
+		x      float64
+		label  string
+		col    color.Color
+		dashes []vg.Length
+	}{
+		{rs.refM, fmt.Sprintf("planned ranges, %s%s: %s %%", metresShort(rs.refM), with(0), CoveredPercent(a.CoveredFraction, a.UncoveredArea, 2)),
+			oiBlue, []vg.Length{vg.Points(6), vg.Points(3)}},
+		{x95, fmt.Sprintf("95 %% covered at %s%s", metresShort(x95), with(t95)), oiOrange, []vg.Length{vg.Points(2), vg.Points(2)}},
+		{full, fmt.Sprintf("full cover at %s%s", metresShort(full), with(tFull)), oiVermilion, nil},
+	}
+	for _, m := range marks {
+		l, err := vline(m.x, 0, 100, m.col, m.dashes, 1.6)
+		if err != nil {
+			return nil, err
+		}
+		p.Add(l)
+		p.Legend.Add(m.label, l)
+	}
+	p.Legend.Left = true
+	p.Legend.Top = true
+	p.Legend.XOffs = vg.Points(8)
+	p.Legend.YOffs = vg.Points(-4)
+	return renderPlot(p, width)
+}
