@@ -323,56 +323,47 @@ func ComputePowerPersistence(t *planar.Triangulation, f *PowerFiltration) *Power
 		return p
 	}
 	he := t.Halfedges
-	ne := 0
-	for e, o := range he {
-		if o < int32(e) {
-			ne++
-		}
-	}
-	ids := make([]int32, 0, ne)
-	keys := make([]uint64, 0, ne)
-	for e, o := range he {
-		if o < int32(e) {
-			ids = append(ids, int32(e))
-			keys = append(keys, orderedBits(f.Edge[e]))
-		}
-	}
+	ids, keys := powerEdgeKeys(he, f.Edge)
+	ne := len(ids)
 	tkeys := make([]uint64, nt)
 	tids := make([]int32, nt)
 	rank := make([]int32, nt)
-	for i, v := range f.Triangle {
-		tkeys[i] = orderedBits(v)
-		tids[i] = int32(i)
-	}
+	planar.ParallelFor(nt, alphaGrain, func(lo, hi int) {
+		for i := lo; i < hi; i++ {
+			tkeys[i] = orderedBits(f.Triangle[i])
+			tids[i] = int32(i)
+		}
+	})
 	persistRadixSort(keys, ids)
 	persistRadixSort(tkeys, tids)
-	for r, i := range tids {
-		rank[i] = int32(r)
-	}
-	for i := range keys {
-		keys[i] = math.Float64bits(fromOrderedBits(keys[i]))
-	}
-	for i := range tkeys {
-		tkeys[i] = math.Float64bits(fromOrderedBits(tkeys[i]))
-	}
+	planar.ParallelFor(nt, alphaGrain, func(lo, hi int) {
+		for r := lo; r < hi; r++ {
+			rank[tids[r]] = int32(r)
+			tkeys[r] = math.Float64bits(fromOrderedBits(tkeys[r]))
+		}
+	})
 	tr := t.Triangles
 	outside := int32(nt)
 	vends := make([]uint64, ne) // vertex a | vertex b << 32
 	ends := make([]uint64, ne)  // input a | input b << 32, a < b
 	sides := make([]uint64, ne)
 	vals := make([]float64, ne)
-	for i, e := range ids {
-		a, b := tr[e], tr[planar.NextHalfedge(e)]
-		vends[i] = uint64(uint32(a)) | uint64(uint32(b))<<32
-		sa, sb := t.Source[a], t.Source[b]
-		ends[i] = uint64(uint32(min(sa, sb))) | uint64(uint32(max(sa, sb)))<<32
-		s2 := outside
-		if o := he[e]; o >= 0 {
-			s2 = rank[o/3]
+	planar.ParallelFor(ne, alphaGrain, func(lo, hi int) {
+		for i := lo; i < hi; i++ {
+			e := ids[i]
+			a, b := tr[e], tr[planar.NextHalfedge(e)]
+			vends[i] = uint64(uint32(a)) | uint64(uint32(b))<<32
+			sa, sb := t.Source[a], t.Source[b]
+			ends[i] = uint64(uint32(min(sa, sb))) | uint64(uint32(max(sa, sb)))<<32
+			s2 := outside
+			if o := he[e]; o >= 0 {
+				s2 = rank[o/3]
+			}
+			sides[i] = uint64(uint32(rank[e/3])) | uint64(uint32(s2))<<32
+			vals[i] = fromOrderedBits(keys[i])
+			keys[i] = math.Float64bits(vals[i])
 		}
-		sides[i] = uint64(uint32(rank[e/3])) | uint64(uint32(s2))<<32
-		vals[i] = math.Float64frombits(keys[i])
-	}
+	})
 	p.Merges = powerKruskal(t, f, vends, vals)
 	recs := persistDual(nt, tkeys, keys, ends, sides)
 	order := persistHoleOrder(recs)
@@ -383,6 +374,38 @@ func ComputePowerPersistence(t *planar.Triangulation, f *PowerFiltration) *Power
 			deathTri: tids[recs[order[i]].rank]}
 	}
 	return p
+}
+
+// powerEdgeKeys returns the first half-edge of every edge (the one with
+// the larger index, or the only one on the hull), in half-edge order, and
+// the edge's value as orderedBits; chunks of half-edges are counted and
+// filled in parallel.
+func powerEdgeKeys(he []int32, edge []float64) ([]int32, []uint64) {
+	const chunk = 1 << 16
+	nc := (len(he) + chunk - 1) / chunk
+	start := make([]int, nc+1)
+	planar.ParallelChunks(len(he), chunk, 0, func(ci, lo, hi int) {
+		for e := lo; e < hi; e++ {
+			if he[e] < int32(e) {
+				start[ci+1]++
+			}
+		}
+	})
+	for ci := range nc {
+		start[ci+1] += start[ci]
+	}
+	ids := make([]int32, start[nc])
+	keys := make([]uint64, start[nc])
+	planar.ParallelChunks(len(he), chunk, 0, func(ci, lo, hi int) {
+		k := start[ci]
+		for e := lo; e < hi; e++ {
+			if he[e] < int32(e) {
+				ids[k], keys[k] = int32(e), orderedBits(edge[e])
+				k++
+			}
+		}
+	})
+	return ids, keys
 }
 
 // powerKruskal runs the elder-rule union-find over the vertices along the

@@ -30,6 +30,7 @@ package coverage
 
 import (
 	"math"
+	"slices"
 
 	"github.com/paulmach/orb"
 	"github.com/sitecover/sitecover/planar"
@@ -99,9 +100,19 @@ func (l *Layout) equalRanges() bool {
 // power at the radii of gp (with gp.radii), else it follows from the
 // closing range.
 func (l *Layout) gapClosings(m *gapMerged, gapOf []int32, gs []Gap, pow []float64, gp *gapParams) {
-	nodesOf := make([][]int32, len(gs))
-	for i := range m.nodes {
-		nodesOf[gapOf[i]] = append(nodesOf[gapOf[i]], int32(i))
+	// The nodes of each gap in node order, in rows (CSR).
+	start := make([]int32, len(gs)+1)
+	for _, g := range gapOf {
+		start[g+1]++
+	}
+	for g := range gs {
+		start[g+1] += start[g]
+	}
+	nodes := make([]int32, len(gapOf))
+	fill := slices.Clone(start[:len(gs)])
+	for i, g := range gapOf {
+		nodes[fill[g]] = int32(i)
+		fill[g]++
 	}
 	planar.ParallelChunks(len(gs), 1, 0, func(_, lo, hi int) {
 		var pts []orb.Point
@@ -120,7 +131,7 @@ func (l *Layout) gapClosings(m *gapMerged, gapOf []int32, gs []Gap, pow []float6
 				r := l.Ranges[l.Tri.Vertex[s]]
 				cl.Needed[k] = math.Sqrt(math.Max(0, r*r+p))
 			}
-			pts, arcs = m.gapBoundary(l, nodesOf[g], gp, pts[:0], arcs[:0])
+			pts, arcs = m.gapBoundary(l, nodes[start[g]:start[g+1]], gp, pts[:0], arcs[:0])
 			hull := planar.ConvexHull(pts)
 			if len(G.Sites)*(len(hull)+len(arcs)) <= gapClosingWork {
 				cl.Device, cl.DeviceRange = l.singleClosing(G.Sites, hull, arcs, gp)
@@ -131,10 +142,14 @@ func (l *Layout) gapClosings(m *gapMerged, gapOf []int32, gs []Gap, pow []float6
 }
 
 // gapArcRef is a circle arc of a gap's boundary: centre, radius, start
-// angle and clockwise sweep.
+// point and clockwise sweep. The start angle, atan2(sy − cy, sx − cx), is
+// computed only where needed (startAngle).
 type gapArcRef struct {
-	cx, cy, r, th0, phi float64
+	cx, cy, r, sx, sy, phi float64
 }
+
+// startAngle returns the arc's start angle.
+func (a *gapArcRef) startAngle() float64 { return math.Atan2(a.sy-a.cy, a.sx-a.cx) }
 
 // gapBoundary appends the boundary vertices and arcs of the given nodes'
 // loops.
@@ -148,7 +163,7 @@ func (m *gapMerged) gapBoundary(l *Layout, nodes []int32, gp *gapParams, pts []o
 				el := &m.elems[e]
 				pts = append(pts, orb.Point{el.x, el.y})
 				if el.kind == gapArc {
-					arcs = append(arcs, gapArcRef{cx, cy, r, math.Atan2(el.y-cy, el.x-cx), float64(el.phi)})
+					arcs = append(arcs, gapArcRef{cx, cy, r, el.x, el.y, float64(el.phi)})
 				}
 			}
 		}
@@ -167,14 +182,15 @@ func (l *Layout) singleClosing(sites []int, hull orb.Ring, arcs []gapArcRef, gp 
 		for _, q := range hull {
 			far = math.Max(far, math.Hypot(q[0]-px, q[1]-py))
 		}
-		for _, a := range arcs {
+		for k := range arcs {
+			a := &arcs[k]
 			dc := math.Hypot(a.cx-px, a.cy-py)
 			if dc+a.r <= far || dc == 0 {
 				continue
 			}
 			// The farthest point of the circle from p, if on the arc.
 			ang := math.Atan2(a.cy-py, a.cx-px)
-			if d := math.Mod(a.th0-ang, 2*math.Pi); d < 0 && d+2*math.Pi <= a.phi || d >= 0 && d <= a.phi {
+			if d := math.Mod(a.startAngle()-ang, 2*math.Pi); d < 0 && d+2*math.Pi <= a.phi || d >= 0 && d <= a.phi {
 				far = dc + a.r
 			}
 		}

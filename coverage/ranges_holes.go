@@ -79,43 +79,60 @@ func (l *Layout) holeClosings(p *PowerPersistence, f *PowerFiltration) []*HoleCl
 	}
 	const growth = 0.0
 	comp := holeComponents(t, f, growth)
-	want := map[int32]int{} // component root → hole
+	// hole[root] = the open hole of that component, −1 for none.
+	hole := make([]int32, len(comp))
+	for i := range hole {
+		hole[i] = -1
+	}
+	open := 0
 	for k, h := range p.Holes {
 		if h.Birth <= growth && growth < h.Death && h.deathTri >= 0 {
 			if r := comp[h.deathTri]; r >= 0 {
-				want[r] = k
+				hole[r] = int32(k)
+				open++
 			}
 		}
 	}
-	if len(want) == 0 {
+	if open == 0 {
 		return out
 	}
-	bnd := map[int32][]int32{} // component root → boundary half-edges
+	// The boundary half-edges of each open hole, in rows (CSR).
+	start := make([]int32, len(p.Holes)+1)
 	for e := range t.Triangles {
-		if r := comp[e/3]; r >= 0 && f.Edge[e] <= growth {
-			if _, ok := want[r]; ok {
-				bnd[r] = append(bnd[r], int32(e))
-			}
+		if r := comp[e/3]; r >= 0 && hole[r] >= 0 && f.Edge[e] <= growth {
+			start[hole[r]+1]++
 		}
 	}
-	roots := make([]int32, 0, len(bnd))
-	for r := range bnd {
-		roots = append(roots, r)
+	for k := range p.Holes {
+		start[k+1] += start[k]
 	}
-	slices.Sort(roots)
+	edges := make([]int32, start[len(p.Holes)])
+	fill := slices.Clone(start[:len(p.Holes)])
+	for e := range t.Triangles {
+		if r := comp[e/3]; r >= 0 && hole[r] >= 0 && f.Edge[e] <= growth {
+			k := hole[r]
+			edges[fill[k]] = int32(e)
+			fill[k]++
+		}
+	}
 	gp := gapParams{t: growth, radii: make([]float64, l.numVertices())}
 	for v := range gp.radii {
 		gp.radii[v] = l.grownRadius(int32(v), growth)
 	}
-	planar.ParallelChunks(len(roots), 1, 0, func(_, lo, hi int) {
-		for _, r := range roots[lo:hi] {
-			k := want[r]
-			hb := l.holeBoundary(f, comp, bnd[r], &gp)
-			out[k] = l.closeHole(hb, p.Holes[k].Death, &gp)
+	planar.ParallelChunks(len(p.Holes), holeClosingChunk, 0, func(_, lo, hi int) {
+		for k := lo; k < hi; k++ {
+			if start[k] < start[k+1] {
+				hb := l.holeBoundary(f, comp, edges[start[k]:start[k+1]], &gp)
+				out[k] = l.closeHole(hb, p.Holes[k].Death, &gp)
+			}
 		}
 	})
 	return out
 }
+
+// holeClosingChunk is the number of holes per parallel chunk (most have
+// a handful of boundary edges).
+const holeClosingChunk = 256
 
 // holeComponents labels every triangle of value > growth with the root of
 // its component (joined across edges of value > growth); −1 for triangles
@@ -195,9 +212,9 @@ func (l *Layout) holeBoundary(f *PowerFiltration, comp []int32, edges []int32, g
 		// Counter-clockwise from (x1, y1) when that tangent points into
 		// b's side of the power line of a and b.
 		ccw := -(y1-by)*(bx-xy[2*a])+(x1-bx)*(by-xy[2*a+1]) > 0
-		start, sweep := th1, th1-th2 // clockwise from th1 to th2
+		sx, sy, sweep := x1, y1, th1-th2 // clockwise from th1 to th2
 		if ccw {
-			start, sweep = th2, th2-th1 // clockwise from th2 back to th1
+			sx, sy, sweep = x2, y2, th2-th1 // clockwise from th2 back to th1
 		}
 		if sweep < 0 {
 			sweep += 2 * math.Pi
@@ -205,7 +222,7 @@ func (l *Layout) holeBoundary(f *PowerFiltration, comp []int32, edges []int32, g
 		if sweep == 0 && n == he[e] {
 			sweep = 2 * math.Pi // the whole circle between two tangencies
 		}
-		hb.arcs = append(hb.arcs, gapArcRef{bx, by, gp.radius(b), start, sweep})
+		hb.arcs = append(hb.arcs, gapArcRef{bx, by, gp.radius(b), sx, sy, sweep})
 	}
 	return hb
 }
@@ -225,9 +242,10 @@ func (l *Layout) closeHole(hb holeBoundary, death float64, gp *gapParams) *HoleC
 		r := l.InputRanges[s]
 		hc.Needed[k] = math.Sqrt(math.Max(0, r*r+death))
 	}
-	hull := planar.ConvexHull(hb.pts)
-	if len(sites)*(len(hull)+len(hb.arcs)) <= gapClosingWork {
-		hc.Device, hc.DeviceRange = l.singleClosing(sites, hull, hb.arcs, gp)
+	// A hole has a handful of vertices: all of them stand in for their
+	// convex hull (the farthest vertex from a device is a hull vertex).
+	if len(sites)*(len(hb.pts)+len(hb.arcs)) <= gapClosingWork {
+		hc.Device, hc.DeviceRange = l.singleClosing(sites, hb.pts, hb.arcs, gp)
 	}
 	return hc
 }

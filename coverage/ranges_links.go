@@ -6,22 +6,31 @@
 // devices form one network exactly when r is at least Persistence's
 // LinkRange (the longest edge of the Euclidean minimum spanning tree).
 //
-// Method. Devices are bucketed in a square grid of side max r_i (a linked
-// pair lies in the same or a neighbouring cell), each pair of neighbouring
-// buckets is tested and linked pairs are joined by union-find. The test
+// Method. Devices are bucketed in a square grid of side at least max r_i
+// (a linked pair lies in the same or a neighbouring bucket; the side grows
+// when the extent would need more than linkBucketsPerSite buckets per
+// device), each pair of neighbouring buckets is tested (rows of buckets in
+// parallel) and linked pairs are joined by union-find (serially: the
+// groups and their smallest members do not depend on the order). The test
 // compares squared distances in floating point (exact up to a few ulps of
 // the squared range at an exact tie).
 
 package coverage
 
 import (
-	"cmp"
 	"math"
 	"slices"
 
 	"github.com/paulmach/orb"
 	"github.com/sitecover/sitecover/planar"
 )
+
+// linkBucketsPerSite bounds the grid's buckets per device (2: an empty
+// bucket costs a few loads, so the grid stays O(n) for any extent).
+const linkBucketsPerSite = 2
+
+// linkRowsChunk is the number of bucket rows per parallel chunk.
+const linkRowsChunk = 16
 
 // LinkSummary describes the network of devices linked two-way by their own
 // ranges (the file comment defines a link).
@@ -54,71 +63,61 @@ func LinksRanges(sites []orb.Point, ranges []float64) LinkSummary {
 	if !(side > 0) {
 		side = 1
 	}
-	type cell struct {
-		q, r int64
-		i    int32
-	}
-	cells := make([]cell, n)
+	xy := make([]float64, 2*n)
 	for i, p := range sites {
-		cells[i] = cell{int64(math.Floor(p[0] / side)), int64(math.Floor(p[1] / side)), int32(i)}
+		xy[2*i], xy[2*i+1] = p[0], p[1]
 	}
-	slices.SortFunc(cells, func(a, b cell) int {
-		if c := cmp.Compare(a.q, b.q); c != 0 {
-			return c
-		}
-		if c := cmp.Compare(a.r, b.r); c != 0 {
-			return c
-		}
-		return cmp.Compare(a.i, b.i)
-	})
-	// find returns the start of bucket (q, r) in cells and its end.
-	find := func(q, r int64) (int, int) {
-		lo, _ := slices.BinarySearchFunc(cells, cell{q, r, -1}, func(a, b cell) int {
-			if c := cmp.Compare(a.q, b.q); c != 0 {
-				return c
-			}
-			if c := cmp.Compare(a.r, b.r); c != 0 {
-				return c
-			}
-			return cmp.Compare(a.i, b.i)
-		})
-		hi := lo
-		for hi < n && cells[hi].q == q && cells[hi].r == r {
-			hi++
-		}
-		return lo, hi
+	minX, minY, maxX, maxY := planar.BoundsXY(xy, nil)
+	// Buckets of side at least max r_i (a linked pair lies in the same or
+	// neighbouring buckets), and no more than about linkBucketsPerSite·n
+	// of them.
+	if a := (maxX - minX) * (maxY - minY); a > 0 && !math.IsInf(a, 0) {
+		side = math.Max(side, math.Sqrt(a/(linkBucketsPerSite*float64(n))))
 	}
-	uf := planar.NewUnionFind(n)
-	linked := make([]bool, n)
-	for s := 0; s < n; {
-		e := s
-		for e < n && cells[e].q == cells[s].q && cells[e].r == cells[s].r {
-			e++
-		}
-		// This bucket against itself and its four "forward" neighbours.
-		for _, d := range [5][2]int64{{0, 0}, {1, -1}, {1, 0}, {1, 1}, {0, 1}} {
-			lo, hi := s, e
-			if d != [2]int64{0, 0} {
-				lo, hi = find(cells[s].q+d[0], cells[s].r+d[1])
-			}
-			for a := s; a < e; a++ {
-				i := cells[a].i
-				b0 := lo
-				if d == [2]int64{0, 0} {
-					b0 = a + 1
-				}
-				for b := b0; b < hi; b++ {
-					j := cells[b].i
-					m := math.Min(ranges[i], ranges[j])
-					dx, dy := sites[i][0]-sites[j][0], sites[i][1]-sites[j][1]
-					if m >= 0 && dx*dx+dy*dy <= m*m {
-						uf.UnionMin(i, j)
-						linked[i], linked[j] = true, true
+	bg := planar.NewBucketGrid(planar.GridOfSide(minX, minY, maxX, maxY, side), xy, nil)
+	// Each chunk of bucket rows lists its linked pairs (i | j<<32); the
+	// union is serial, in chunk order.
+	nx, ny := bg.NX, bg.NY
+	nc := (ny + linkRowsChunk - 1) / linkRowsChunk
+	pairs := make([][]uint64, nc)
+	planar.ParallelChunks(ny, linkRowsChunk, 0, func(ci, lo, hi int) {
+		var out []uint64
+		for row := lo; row < hi; row++ {
+			for col := range nx {
+				cell := bg.Bucket(row*nx + col)
+				// This bucket against itself and its four "forward"
+				// neighbours.
+				for _, d := range [5][2]int{{0, 0}, {1, -1}, {1, 0}, {1, 1}, {0, 1}} {
+					c2, r2 := col+d[0], row+d[1]
+					if c2 >= nx || r2 < 0 || r2 >= ny {
+						continue
+					}
+					other := bg.Bucket(r2*nx + c2)
+					for a, i := range cell {
+						if d == [2]int{0, 0} {
+							other = cell[a+1:]
+						}
+						for _, j := range other {
+							m := math.Min(ranges[i], ranges[j])
+							dx, dy := sites[i][0]-sites[j][0], sites[i][1]-sites[j][1]
+							if m >= 0 && dx*dx+dy*dy <= m*m {
+								out = append(out, uint64(uint32(i))|uint64(uint32(j))<<32)
+							}
+						}
 					}
 				}
 			}
 		}
-		s = e
+		pairs[ci] = out
+	})
+	uf := planar.NewUnionFind(n)
+	linked := make([]bool, n)
+	for _, ps := range pairs {
+		for _, ij := range ps {
+			i, j := int32(uint32(ij)), int32(ij>>32)
+			uf.UnionMin(i, j)
+			linked[i], linked[j] = true, true
+		}
 	}
 	ls.Group = make([]int, n)
 	size := make([]int, n)
