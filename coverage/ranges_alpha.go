@@ -165,28 +165,32 @@ func NewPowerFiltration(t *planar.Triangulation, ranges []float64) *PowerFiltrat
 // its edges (the edge values being final, and never below −w).
 func powerAttachVertices(t *planar.Triangulation, w []float64, f *PowerFiltration) {
 	xy, tr, he := t.Coords, t.Triangles, t.Halfedges
-	for e := range tr {
-		a, b := tr[e], tr[planar.NextHalfedge(int32(e))]
-		if o := he[e]; o >= 0 && o < int32(e) {
-			continue
-		}
-		// Edge a–b, once: does it attach a, or b?
-		d := dist2(xy, a, xy[2*b], xy[2*b+1])
-		if d-w[b] < -w[a] {
-			f.Vertex[a] = math.NaN()
-		}
-		if d-w[a] < -w[b] {
-			f.Vertex[b] = math.NaN()
-		}
-	}
 	att := make([]float64, len(f.Vertex))
 	for v := range att {
 		att[v] = math.Inf(1)
 	}
+	attached := false
 	for e := range tr {
+		if o := he[e]; o >= 0 && o < int32(e) {
+			continue
+		}
+		// Edge a–b, once: does it attach a, or b? And the smallest edge
+		// value at each vertex.
 		a, b := tr[e], tr[planar.NextHalfedge(int32(e))]
+		d := dist2(xy, a, xy[2*b], xy[2*b+1])
+		if d-w[b] < -w[a] {
+			f.Vertex[a] = math.NaN()
+			attached = true
+		}
+		if d-w[a] < -w[b] {
+			f.Vertex[b] = math.NaN()
+			attached = true
+		}
 		att[a] = math.Min(att[a], f.Edge[e])
 		att[b] = math.Min(att[b], f.Edge[e])
+	}
+	if !attached {
+		return
 	}
 	for v, x := range f.Vertex {
 		if math.IsNaN(x) {

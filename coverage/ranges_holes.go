@@ -120,10 +120,11 @@ func (l *Layout) holeClosings(p *PowerPersistence, f *PowerFiltration) []*HoleCl
 		gp.radii[v] = l.grownRadius(int32(v), growth)
 	}
 	planar.ParallelChunks(len(p.Holes), holeClosingChunk, 0, func(_, lo, hi int) {
+		var hb holeBoundary
 		for k := lo; k < hi; k++ {
 			if start[k] < start[k+1] {
-				hb := l.holeBoundary(f, comp, edges[start[k]:start[k+1]], &gp)
-				out[k] = l.closeHole(hb, p.Holes[k].Death, &gp)
+				l.holeBoundary(f, comp, edges[start[k]:start[k+1]], &gp, &hb)
+				out[k] = l.closeHole(&hb, p.Holes[k].Death, &gp)
 			}
 		}
 	})
@@ -184,12 +185,12 @@ func (l *Layout) holeVertex(f *PowerFiltration, e int32, gp *gapParams) (float64
 	return mx + h*nx, my + h*ny
 }
 
-// holeBoundary collects the vertices, arcs and bordering vertices of the
-// hole with the given boundary half-edges.
-func (l *Layout) holeBoundary(f *PowerFiltration, comp []int32, edges []int32, gp *gapParams) holeBoundary {
+// holeBoundary collects into hb (its slices reused) the vertices, arcs and
+// bordering vertices of the hole with the given boundary half-edges.
+func (l *Layout) holeBoundary(f *PowerFiltration, comp []int32, edges []int32, gp *gapParams, hb *holeBoundary) {
 	t := l.Tri
 	tr, he, xy := t.Triangles, t.Halfedges, t.Coords
-	var hb holeBoundary
+	hb.sites, hb.pts, hb.arcs = hb.sites[:0], hb.pts[:0], hb.arcs[:0]
 	r := comp[edges[0]/3]
 	for _, e := range edges {
 		a, b := tr[e], tr[planar.NextHalfedge(e)]
@@ -208,13 +209,15 @@ func (l *Layout) holeBoundary(f *PowerFiltration, comp []int32, edges []int32, g
 		}
 		x2, y2 := l.holeVertex(f, n, gp)
 		bx, by := xy[2*b], xy[2*b+1]
-		th1, th2 := math.Atan2(y1-by, x1-bx), math.Atan2(y2-by, x2-bx)
+		// The counter-clockwise angle from (x1, y1) to (x2, y2) around b.
+		ux, uy, vx, vy := x1-bx, y1-by, x2-bx, y2-by
+		turn := math.Atan2(ux*vy-uy*vx, ux*vx+uy*vy)
 		// Counter-clockwise from (x1, y1) when that tangent points into
 		// b's side of the power line of a and b.
-		ccw := -(y1-by)*(bx-xy[2*a])+(x1-bx)*(by-xy[2*a+1]) > 0
-		sx, sy, sweep := x1, y1, th1-th2 // clockwise from th1 to th2
+		ccw := -uy*(bx-xy[2*a])+ux*(by-xy[2*a+1]) > 0
+		sx, sy, sweep := x1, y1, -turn // clockwise from (x1, y1) to (x2, y2)
 		if ccw {
-			sx, sy, sweep = x2, y2, th2-th1 // clockwise from th2 back to th1
+			sx, sy, sweep = x2, y2, turn // clockwise from (x2, y2) back
 		}
 		if sweep < 0 {
 			sweep += 2 * math.Pi
@@ -224,12 +227,11 @@ func (l *Layout) holeBoundary(f *PowerFiltration, comp []int32, edges []int32, g
 		}
 		hb.arcs = append(hb.arcs, gapArcRef{bx, by, gp.radius(b), sx, sy, sweep})
 	}
-	return hb
 }
 
 // closeHole returns the closing of a hole with boundary hb that dies at
 // the given growth.
-func (l *Layout) closeHole(hb holeBoundary, death float64, gp *gapParams) *HoleClosing {
+func (l *Layout) closeHole(hb *holeBoundary, death float64, gp *gapParams) *HoleClosing {
 	src := l.Tri.Source
 	sites := make([]int, 0, len(hb.sites))
 	for _, v := range hb.sites {
