@@ -86,14 +86,33 @@ func (s *scene) curveChart(width int) ([]byte, error) {
 	p95 := s.rangeAt(0.95)
 	xmax := 1.08 * math.Max(math.Max(full, a.Range), 1e-9)
 
-	xy := s.curvePoints(xmax)
-	p := plot.New()
 	title := "Covered share of the site area against range"
 	if s.m.Title != "" {
 		title = s.m.Title + "\n" + title
 	}
+	return curvePlot(title, "Range (m)", xmax, s.curvePoints(xmax), []curveMark{
+		{a.Range, fmt.Sprintf("planned range %s: %s %%", metresShort(a.Range), CoveredPercent(a.CoveredFraction, a.UncoveredArea, 2)), oiBlue, []vg.Length{vg.Points(6), vg.Points(3)}},
+		{p95, fmt.Sprintf("95 %% covered at %s", metresShort(p95)), oiOrange, []vg.Length{vg.Points(2), vg.Points(2)}},
+		{full, fmt.Sprintf("full cover at %s", metresShort(full)), oiVermilion, nil},
+	}, width)
+}
+
+// curveMark is a vertical marker of a coverage curve chart, with its
+// legend entry.
+type curveMark struct {
+	x      float64
+	label  string
+	col    color.Color
+	dashes []vg.Length
+}
+
+// curvePlot draws a coverage curve chart: the covered share xy (percent)
+// against an x-axis from 0 to xmax, with the markers (also used by the
+// chart of devices with their own ranges, ranges_charts.go).
+func curvePlot(title, xLabel string, xmax float64, xy plotter.XYs, marks []curveMark, width int) ([]byte, error) {
+	p := plot.New()
 	p.Title.Text = title
-	p.X.Label.Text = "Range (m)"
+	p.X.Label.Text = xLabel
 	p.Y.Label.Text = "Area covered (%)"
 	p.X.Min, p.X.Max = 0, xmax
 	p.X.Tick.Marker = niceTicks{}
@@ -110,17 +129,6 @@ func (s *scene) curveChart(width int) ([]byte, error) {
 	line.Width = vg.Points(1.8)
 	p.Add(line)
 	p.Legend.Add("covered share", line)
-
-	marks := []struct {
-		x      float64
-		label  string
-		col    color.Color
-		dashes []vg.Length
-	}{
-		{a.Range, fmt.Sprintf("planned range %s: %s %%", metresShort(a.Range), CoveredPercent(a.CoveredFraction, a.UncoveredArea, 2)), oiBlue, []vg.Length{vg.Points(6), vg.Points(3)}},
-		{p95, fmt.Sprintf("95 %% covered at %s", metresShort(p95)), oiOrange, []vg.Length{vg.Points(2), vg.Points(2)}},
-		{full, fmt.Sprintf("full cover at %s", metresShort(full)), oiVermilion, nil},
-	}
 	for _, m := range marks {
 		l, err := vline(m.x, 0, 100, m.col, m.dashes, 1.6)
 		if err != nil {

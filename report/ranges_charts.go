@@ -13,11 +13,9 @@ package report
 
 import (
 	"fmt"
-	"image/color"
 	"math"
 	"strings"
 
-	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/plotter"
 	"gonum.org/v1/plot/vg"
 )
@@ -67,56 +65,20 @@ func (rs *rangesScene) curveChartRanges(width int) ([]byte, error) {
 	if n := len(xy); n > 0 && xy[n-1].X < xmax {
 		xy = append(xy, plotter.XY{X: xmax, Y: xy[n-1].Y})
 	}
-	p := plot.New()
 	title := "Covered share of the site area as all ranges grow together"
 	if rs.m.Title != "" {
 		title = rs.m.Title + "\n" + title
 	}
-	p.Title.Text = title
-	p.X.Label.Text = fmt.Sprintf("Range of %s, all devices' r² growing by the same amount (m)", rs.refName())
-	p.Y.Label.Text = "Area covered (%)"
-	p.X.Min, p.X.Max = 0, xmax
-	p.X.Tick.Marker = niceTicks{}
-	p.Y.Min, p.Y.Max = 0, 128
-	p.Y.Tick.Marker = percentTicks{}
-	styleAxes(p)
-
-	line, err := plotter.NewLine(xy)
-	if err != nil {
-		return nil, err
-	}
-	line.Color = colInk
-	line.Width = vg.Points(1.8)
-	p.Add(line)
-	p.Legend.Add("covered share", line)
 	with := func(t float64) string {
 		if o := rs.othersAt(t); o != "" {
 			return " (" + o + ")"
 		}
 		return ""
 	}
-	marks := []struct {
-		x      float64
-		label  string
-		col    color.Color
-		dashes []vg.Length
-	}{
+	return curvePlot(title, fmt.Sprintf("Range of %s, all devices' r² growing by the same amount (m)", rs.refName()), xmax, xy, []curveMark{
 		{rs.refM, fmt.Sprintf("planned ranges, %s%s: %s %%", metresShort(rs.refM), with(0), CoveredPercent(a.CoveredFraction, a.UncoveredArea, 2)),
 			oiBlue, []vg.Length{vg.Points(6), vg.Points(3)}},
 		{x95, fmt.Sprintf("95 %% covered at %s%s", metresShort(x95), with(t95)), oiOrange, []vg.Length{vg.Points(2), vg.Points(2)}},
 		{full, fmt.Sprintf("full cover at %s%s", metresShort(full), with(tFull)), oiVermilion, nil},
-	}
-	for _, m := range marks {
-		l, err := vline(m.x, 0, 100, m.col, m.dashes, 1.6)
-		if err != nil {
-			return nil, err
-		}
-		p.Add(l)
-		p.Legend.Add(m.label, l)
-	}
-	p.Legend.Left = true
-	p.Legend.Top = true
-	p.Legend.XOffs = vg.Points(8)
-	p.Legend.YOffs = vg.Points(-4)
-	return renderPlot(p, width)
+	}, width)
 }
