@@ -1,11 +1,13 @@
 // Tests of the metres figures of ranges_gaps.go and ranges_holes.go
 // against closed forms (elementary geometry, derived in each test's
-// comment).
+// comment) and a brute-force check of the hole boundaries.
 
 package coverage
 
 import (
+	"fmt"
 	"math"
+	"math/rand/v2"
 	"testing"
 
 	"github.com/paulmach/orb"
@@ -156,5 +158,82 @@ func TestRangesHoleClosingLattice(t *testing.T) {
 	}
 	if open != (k-1)*(k-1) {
 		t.Errorf("%d holes open, want %d", open, (k-1)*(k-1))
+	}
+}
+
+// TestRangesHoleClosingBruteForce: on random layouts of mixed ranges,
+// every open hole's boundary vertices lie on the circles of the two
+// devices of their edge and inside no other disk (brute force over all
+// devices), each bordering device's closing range is √(r² + Death), and
+// the single-device fix reaches the hole's closing point and every
+// boundary vertex (the hole lies within its range).
+func TestRangesHoleClosingBruteForce(t *testing.T) {
+	for seed := range uint64(4) {
+		t.Run(fmt.Sprintf("seed-%d", seed), func(t *testing.T) {
+			r := rand.New(rand.NewPCG(seed, 0x401e))
+			n := 300
+			sites := make([]orb.Point, n)
+			ranges := make([]float64, n)
+			for i := range sites {
+				sites[i] = orb.Point{1000 * r.Float64(), 1000 * r.Float64()}
+				ranges[i] = [4]float64{40, 60, 70, 90}[r.IntN(4)]
+			}
+			reg, err := planar.NewRegion(orb.MultiPolygon{{{{-100, -100}, {1100, -100}, {1100, 1100}, {-100, 1100}}}})
+			if err != nil {
+				t.Fatal(err)
+			}
+			l, err := NewLayoutRanges(sites, ranges, reg)
+			if err != nil {
+				t.Fatal(err)
+			}
+			p, f := l.persistenceRanges()
+			hcs := l.holeClosings(p, f)
+			open := 0
+			for k, hc := range hcs {
+				h := p.Holes[k]
+				if isOpen := h.Birth <= 0 && 0 < h.Death; (hc != nil) != isOpen {
+					t.Fatalf("hole %d: closing %v, open %v", k, hc != nil, isOpen)
+				}
+				if hc == nil {
+					continue
+				}
+				open++
+				for m, s := range hc.Sites {
+					if want := math.Sqrt(ranges[s]*ranges[s] + h.Death); !closeMetres(hc.Needed[m], want) {
+						t.Errorf("hole %d: device %d needs %g m, want %g", k, s, hc.Needed[m], want)
+					}
+				}
+				fix := sites[hc.Device]
+				if d := math.Hypot(fix[0]-h.DeathPoint[0], fix[1]-h.DeathPoint[1]); hc.DeviceRange < d-1e-9*d {
+					t.Errorf("hole %d: fix %d reaches %g m, the closing point is %g m away", k, hc.Device, hc.DeviceRange, d)
+				}
+			}
+			// The vertices, from the boundary the closings were made of.
+			comp := holeComponents(l.Tri, f, 0)
+			tr := l.Tri.Triangles
+			gp := gapParams{radii: l.Ranges}
+			for e := range tr {
+				T := e / 3
+				if comp[T] < 0 || f.Edge[e] > 0 {
+					continue
+				}
+				x, y := l.holeVertex(f, int32(e), &gp)
+				a, b := tr[e], tr[planar.NextHalfedge(int32(e))]
+				for _, v := range [2]int32{a, b} {
+					cx, cy := l.site(v)
+					if d := math.Hypot(x-cx, y-cy); math.Abs(d-l.Ranges[v]) > 1e-9*l.Ranges[v] {
+						t.Errorf("vertex (%g, %g) of edge %d–%d is %g m from device %d of range %g", x, y, a, b, d, v, l.Ranges[v])
+					}
+				}
+				for i, s := range sites {
+					if d := math.Hypot(x-s[0], y-s[1]); d < ranges[i]*(1-1e-9) {
+						t.Errorf("vertex (%g, %g) of edge %d–%d lies inside device %d's disk (%g < %g)", x, y, a, b, i, d, ranges[i])
+					}
+				}
+			}
+			if open == 0 {
+				t.Errorf("no open hole: the layout tests nothing")
+			}
+		})
 	}
 }
