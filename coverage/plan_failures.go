@@ -86,8 +86,26 @@ type DeviceFailure struct {
 	// Backup is the input index of the remaining device nearest Deepest,
 	// the one that takes over the deepest point; -1 when none remains.
 	Backup int
-	// FullCover is the full-cover range of the layout without this device.
+	// FullCover is the full-cover range of the layout without this device
+	// (NaN with per-device ranges: see FullCoverPower).
 	FullCover float64
+	// Hidden is true, with per-device ranges (FailuresRanges), for a
+	// device whose power cell is empty: the others cover its whole disk,
+	// so its failure costs nothing.
+	Hidden bool
+	// ClosingPower is, with per-device ranges, the uniform power growth t
+	// (m², every range becoming √(r_i² + t)) at which the remaining
+	// devices cover everything this one served: the largest power of a
+	// point of its service area with respect to its new serving device.
+	// ClosingRange is then the distance from Deepest to Backup, the range
+	// the backup alone needs to reach the deepest point. −Inf when the
+	// device serves no part of the area (hidden, or an empty clipped
+	// cell), +Inf when no device remains; 0 for one common range.
+	ClosingPower float64
+	// FullCoverPower is, with per-device ranges, the uniform power growth
+	// that covers the whole area without this device (+Inf when none
+	// remains); 0 for one common range.
+	FullCoverPower float64
 }
 
 // FailureReport ranks the devices by the coverage lost when each is out of
@@ -111,6 +129,24 @@ type FailureReport struct {
 	// SurviveSite is the input index of the device whose failure needs
 	// SurviveRange (-1 when the layout has no device).
 	SurviveSite int
+
+	// Ranges holds each device's planned range by input index with
+	// per-device ranges (FailuresRanges; Range is then 0 and SurviveRange
+	// the distance from SurvivePoint to its backup); nil for one common
+	// range.
+	Ranges []float64
+	// SurvivePower is, with per-device ranges, the smallest uniform power
+	// growth t (m²) at which the area stays fully covered whichever single
+	// device fails: the largest ClosingPower (≤ 0 when the planned ranges
+	// already survive any single failure; +Inf with a single device).
+	SurvivePower float64
+	// SurviveRanges holds, with per-device ranges, the range each device
+	// needs for that: √(r_i² + SurvivePower) by input index, the planned
+	// range when SurvivePower ≤ 0 (no growth needed).
+	SurviveRanges []float64
+	// FullCoverPower is, with per-device ranges, the uniform power growth
+	// that covers the whole area with every device working.
+	FullCoverPower float64
 }
 
 // planFailVertex holds per-vertex failure results.
