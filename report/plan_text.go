@@ -94,6 +94,9 @@ func (s *planScene) rangeText() string {
 	if !s.hasRange() {
 		return "none given: distances only, no within-range figures"
 	}
+	if s.p.own() {
+		return "each device's own: " + groupsText(s.rangeGroups(nil))
+	}
 	t := metres(s.p.Range)
 	if !s.p.RangeGiven && s.p.RangeNote != "" {
 		t += " (no range given: " + s.p.RangeNote + ")"
@@ -113,6 +116,11 @@ func (s *planScene) textExisting(b *textBuf) {
 	if p.Move == MoveAdd || p.Move == MoveFewest || p.Move == MoveCandidates {
 		kv.add("Gaps", fmt.Sprintf("%d at %s", len(p.GapsBefore), metres(p.Range)))
 	}
+	if fc := p.FullCoverRanges; fc != nil {
+		s.textFullCoverRanges(kv, fc)
+		kv.write(b)
+		return
+	}
 	fc := metres(p.FullCover.Range) + ": the smallest common range that leaves no gap"
 	kv.add("Full-cover range", fc)
 	if len(p.FullCover.Worst) > 0 {
@@ -123,6 +131,59 @@ func (s *planScene) textExisting(b *textBuf) {
 		kv.add("  needed at", w)
 	}
 	kv.write(b)
+}
+
+// textFullCoverRanges adds the full-cover figure of devices with their own
+// ranges and the hidden devices to kv.
+func (s *planScene) textFullCoverRanges(kv *kvList, fc *coverage.RangesFullCover) {
+	if fc.Covered {
+		kv.add("Full-cover ranges", "the planned ranges: no gap")
+	} else {
+		kv.add("Full-cover ranges", GroupsText(s.rangeGroups(nil), s.rangeGroups(func(i int) float64 { return s.grownRange(fc.Needed, false, i) })))
+		kv.add("", "(every device's r² grown by the same amount until no gap is left)")
+		if len(fc.Worst) > 0 && len(fc.WorstSites) > 0 {
+			kv.add("  needed at", s.pointText(fc.Worst[0])+", in the service area of "+s.label(fc.WorstSites[0]))
+		}
+	}
+	kv.add("Redundant (hidden)", s.hiddenText())
+}
+
+// hiddenText lists the hidden devices ("none" when there is none).
+func (s *planScene) hiddenText() string {
+	if len(s.l.Hidden) == 0 {
+		return "none"
+	}
+	return (&rangesScene{scene: s.scene}).labels(s.l.Hidden, "none") + ": the others cover their whole disk"
+}
+
+// groupsText lists device groups as "type 150.00 m (3 devices)" (without
+// a type: "150.00 m (3 devices)").
+func groupsText(gs []RangeGroup) string {
+	var parts []string
+	for _, g := range gs {
+		t := metres(g.RangeM) + " (" + Plural(g.Devices, "device") + ")"
+		if g.Type != "" {
+			t = g.Type + " " + t
+		}
+		parts = append(parts, t)
+	}
+	return strings.Join(parts, ", ")
+}
+
+// GroupsText lists the range each group of devices needs, grown[k] being
+// group planned[k] (the same grouping: PlanDoc.RangeGroups with
+// FullCoverRanges or SurviveAnySingleFailureRanges), as "gateway (150 m):
+// 197.60 m", or "40 m devices: 80.00 m" without a type.
+func GroupsText(planned, grown []RangeGroup) string {
+	var parts []string
+	for k, g := range grown {
+		name := trimFloat(planned[k].RangeM) + " m devices"
+		if g.Type != "" {
+			name = g.Type + " (" + trimFloat(planned[k].RangeM) + " m)"
+		}
+		parts = append(parts, name+": "+metres(g.RangeM))
+	}
+	return strings.Join(parts, ", ")
 }
 
 func (s *planScene) textSuggestion(b *textBuf) {
@@ -255,6 +316,10 @@ func (s *planScene) textCandidates(b *textBuf) {
 
 func (s *planScene) textFailures(b *textBuf) {
 	fr := s.p.Failures
+	if fr.Ranges != nil {
+		s.textFailuresRanges(b)
+		return
+	}
 	section(b, "SURVIVING ANY SINGLE FAILURE")
 	kv := &kvList{}
 	if math.IsInf(fr.SurviveRange, 0) {
@@ -294,6 +359,75 @@ func (s *planScene) textFailures(b *textBuf) {
 	t.write(b)
 }
 
+// survivesMeaning is the one sentence report.txt gives on the
+// single-failure ranges when devices have their own ranges.
+const survivesMeaning = "  These are the ranges at which the area stays covered whichever one device\n" +
+	"  fails, when every device's r² grows by the same amount (r' = sqrt(r² + t)),\n" +
+	"  keeping the differences between device types as planned.\n"
+
+// textFailuresRanges writes the failures sections for devices with their
+// own ranges.
+func (s *planScene) textFailuresRanges(b *textBuf) {
+	fr := s.p.Failures
+	section(b, "SURVIVING ANY SINGLE FAILURE")
+	kv := &kvList{}
+	switch {
+	case math.IsInf(fr.SurvivePower, 1):
+		kv.add("Ranges", "none: with a single device nothing remains when it fails")
+	case fr.SurvivePower <= 0:
+		kv.add("Ranges", "the planned ranges: no single failure opens a gap")
+	default:
+		kv.add("Ranges", GroupsText(s.rangeGroups(nil), s.rangeGroups(func(i int) float64 { return fr.SurviveRanges[i] })))
+		kv.add("  needed at", fmt.Sprintf("%s, when %s fails (%s then needs %s to reach it)",
+			s.pointText(fr.SurvivePoint), s.label(fr.SurviveSite), s.backupLabel(fr.SurviveSite), metres(fr.SurviveRange)))
+	}
+	kv.write(b)
+	if !math.IsInf(fr.SurvivePower, 1) && fr.SurvivePower > 0 {
+		b.WriteString("\n" + survivesMeaning)
+	}
+
+	section(b, "DEVICES RANKED BY WHAT THEIR FAILURE UNCOVERS AT THEIR OWN RANGES")
+	b.WriteString("  Loss: uncovered area added when the device is out of service (the others\n")
+	b.WriteString("  working, each at its own range). Closing: the range the backup device (the\n")
+	b.WriteString("  one that takes over the deepest point of the new gap) needs to reach that\n")
+	b.WriteString("  point. A hidden device's failure costs nothing: the others cover its disk.\n")
+	b.WriteString("  Ranked by loss, then by the growth that closes the new gap.\n\n")
+	t := &table{}
+	hx, hy := s.pointHeads()
+	t.head("Rank", "Loss m²", "Uncovered m²", "Closing m", hx, hy, "Range m", "Device", "Backup")
+	t.left(7, 8)
+	t.rows(len(fr.Devices), func(k int) {
+		d := fr.Devices[k]
+		px, py := s.pointCols(d.Deepest)
+		name := s.label(d.Site)
+		closing := metresCol(d.ClosingRange)
+		switch {
+		case d.Hidden:
+			name += " (hidden: its failure costs nothing)"
+			px, py, closing = "-", "-", "-"
+		case math.IsInf(d.ClosingPower, -1):
+			px, py, closing = "-", "-", "-"
+		}
+		backup := "-"
+		if d.Backup >= 0 {
+			backup = s.label(d.Backup)
+		}
+		t.row(fmt.Sprint(k+1), fmt.Sprintf("%.1f", d.AddedUncovered), fmt.Sprintf("%.1f", d.Uncovered),
+			closing, px, py, fmt.Sprintf("%.2f", s.rangeOf(d.Site)), name, backup)
+	})
+	t.write(b)
+}
+
+// backupLabel names the backup of the failure of device site.
+func (s *planScene) backupLabel(site int) string {
+	for _, d := range s.p.Failures.Devices {
+		if d.Site == site && d.Backup >= 0 {
+			return s.label(d.Backup)
+		}
+	}
+	return "no device"
+}
+
 // pickUncovered is the area left uncovered after pick j: positive before
 // the last pick (a later pick still adds area), UncoveredAfter after it.
 func pickUncovered(ch *coverage.Choice, j int) float64 {
@@ -325,7 +459,11 @@ func (s *planScene) textAssignment(b *textBuf) {
 	section(b, "DEMAND SERVED")
 	kv := &kvList{}
 	kv.add("Demand items", fmt.Sprint(len(p.Demand)))
-	if ranged {
+	switch {
+	case p.own():
+		kv.add("Within reach", fmt.Sprintf("%d (weight %s): inside their device's own range", a.Served, weightText(a.ServedWeight)))
+		kv.add("Beyond reach", fmt.Sprintf("%d (weight %s): no device's range reaches them", a.Unserved, weightText(a.UnservedWeight)))
+	case ranged:
 		kv.add("Within range", fmt.Sprintf("%d (weight %s)", a.Served, weightText(a.ServedWeight)))
 		kv.add("Beyond range", fmt.Sprintf("%d (weight %s): nearest device farther than %s", a.Unserved, weightText(a.UnservedWeight), metres(p.Range)))
 	}
@@ -341,8 +479,16 @@ func (s *planScene) textAssignment(b *textBuf) {
 	kv.write(b)
 
 	section(b, "LOAD PER DEVICE")
-	b.WriteString("  Each demand item is served by its nearest device (the one whose service area\n")
-	b.WriteString("  holds it). Devices serving nothing are listed too.\n\n")
+	if p.own() {
+		b.WriteString("  Each demand item is served by the device whose service area (power cell:\n")
+		b.WriteString("  where |x - p|² - r² is smallest) holds it, and is within reach when inside\n")
+		b.WriteString("  that device's own range - exactly when some device covers it. A hidden\n")
+		b.WriteString("  device serves nothing (the others cover its disk). Devices serving nothing\n")
+		b.WriteString("  are listed too.\n\n")
+	} else {
+		b.WriteString("  Each demand item is served by its nearest device (the one whose service area\n")
+		b.WriteString("  holds it). Devices serving nothing are listed too.\n\n")
+	}
 	t := &table{}
 	if ranged {
 		t.head("Items", "Weight", "In range", "Weight in range", "Device")
@@ -354,7 +500,11 @@ func (s *planScene) textAssignment(b *textBuf) {
 	t.rows(len(a.Load), func(i int) {
 		ld := a.Load[i]
 		if ranged {
-			t.row(fmt.Sprint(ld.Count), weightText(ld.Weight), fmt.Sprint(ld.InRange), weightText(ld.InRangeWeight), s.label(i))
+			name := s.label(i)
+			if s.hidden(i) {
+				name += " (hidden)"
+			}
+			t.row(fmt.Sprint(ld.Count), weightText(ld.Weight), fmt.Sprint(ld.InRange), weightText(ld.InRangeWeight), name)
 		} else {
 			t.row(fmt.Sprint(ld.Count), weightText(ld.Weight), s.label(i))
 		}
@@ -414,6 +564,15 @@ func (s *planScene) textPlanNotes(b *textBuf) {
 			"Positions are proposals for the disk model: check on site that a device can",
 			"be mounted there and reaches its range before committing.")
 	case MoveFailures:
+		if s.p.own() {
+			lines = append(lines,
+				"Each failure is computed locally: only the failed device's power cell",
+				"changes hands, shared by the power diagram of its regular-triangulation",
+				"neighbours and of any hidden device that then serves (Aurenhammer 1987).",
+				"Areas and ranges are closed-form results for the disk model, exact up to",
+				"rounding.")
+			break
+		}
 		lines = append(lines,
 			"Each failure is computed locally: only the failed device's service area",
 			"changes hands, shared among its Delaunay neighbours (Devillers 2002). Areas",

@@ -158,11 +158,11 @@ devices coloured by loss.
   sitecover failures --planar --sites aps.csv --area floor.geojson --range 15 --out ap-failures`,
 		Args: noArgs,
 		RunE: func(cmd *cobra.Command, args []string) error {
-			in, r, err := f.rangedInputs(cmd)
+			in, err := f.rangesInputs(cmd)
 			if err != nil {
 				return err
 			}
-			return asInput(runPlan(e, "failures", f, in, planSpec{move: report.MoveFailures, r: r, rangeGiven: true}, printFull))
+			return asInput(runPlan(e, "failures", f, in, planSpec{move: report.MoveFailures, r: in.Range, rangeGiven: in.Range > 0}, printFull))
 		},
 	}
 	f.addInputFlags(cmd.Flags())
@@ -257,21 +257,40 @@ func runPlan(e *env, command string, f *runFlags, in siteinput.Inputs, ps planSp
 		return err
 	}
 	defer pr.end()
-	if err := refuseRanges(sc, command, in); err != nil {
-		return err
+	own := sc.ranges != nil // the devices have their own, different ranges
+	if own && ps.move != report.MoveFailures && ps.move != report.MoveAssign {
+		if err := refuseRanges(sc, command, in); err != nil {
+			return err
+		}
+	}
+	if !own && !ps.rangeGiven && sc.rangeM > 0 {
+		// One range for every device from the sites file (a range column
+		// with one value, or a type table): the range of the figures.
+		ps.r, ps.rangeGiven = sc.rangeM, true
 	}
 	timed := func(phase string, t0 time.Time) {
 		sc.meta.Timings = append(sc.meta.Timings, coverage.Timing{Phase: phase, Seconds: time.Since(t0).Seconds()})
 	}
 	pr.set(fmt.Sprintf("service areas of %d sites", len(sc.sites)))
 	t0 := time.Now()
-	l, err := coverage.NewLayout(sc.sites, sc.region)
+	var l *coverage.Layout
+	if own {
+		l, err = coverage.NewLayoutRanges(sc.sites, sc.ranges, sc.region)
+	} else {
+		l, err = coverage.NewLayout(sc.sites, sc.region)
+	}
 	if err != nil {
 		return inputErrorf("%s: %v", inputNames(in), err)
 	}
 	timed("layout", t0)
 	t0 = time.Now()
-	p := &report.Plan{Move: ps.move, Layout: l, Range: ps.r, RangeGiven: ps.rangeGiven, Requested: ps.k, FullCover: l.FullCover()}
+	p := &report.Plan{Move: ps.move, Layout: l, Range: ps.r, RangeGiven: ps.rangeGiven, Requested: ps.k}
+	if own {
+		fc := l.FullCoverRanges()
+		p.FullCoverRanges, p.Range, p.RangeGiven = &fc, 0, true
+	} else {
+		p.FullCover = l.FullCover()
+	}
 	timed("full cover", t0)
 	fail := func(err error) error {
 		return inputErrorf("%s: %v", inputNames(in), strings.TrimPrefix(err.Error(), "coverage: "))
@@ -314,7 +333,12 @@ func runPlan(e *env, command string, f *runFlags, in siteinput.Inputs, ps planSp
 		timed("choose candidates", t0)
 	case report.MoveFailures:
 		pr.set(fmt.Sprintf("failures of %d devices", len(sc.sites)))
-		if p.Failures, err = coverage.Failures(l, ps.r); err != nil {
+		if own {
+			p.Failures, err = coverage.FailuresRanges(l)
+		} else {
+			p.Failures, err = coverage.Failures(l, ps.r)
+		}
+		if err != nil {
 			return fail(err)
 		}
 		timed("failures", t0)
@@ -322,13 +346,21 @@ func runPlan(e *env, command string, f *runFlags, in siteinput.Inputs, ps planSp
 		d := sc.demand
 		pr.set(fmt.Sprintf("assigning %d demand items", len(d.Pts)))
 		p.Demand, p.DemandNames, p.DemandPolygons, p.Weighted = d.Pts, d.Names, d.Polys, d.Weights != nil
-		if p.Assignment, err = coverage.Assign(l, d.Pts, d.Weights, ps.r); err != nil {
+		if own {
+			p.Assignment, err = coverage.AssignPowerCells(l, d.Pts, d.Weights)
+		} else {
+			p.Assignment, err = coverage.Assign(l, d.Pts, d.Weights, ps.r)
+		}
+		if err != nil {
 			return fail(err)
 		}
 		timed("assign", t0)
 	}
 	t0 = time.Now()
-	if p.Range > 0 {
+	switch {
+	case own:
+		p.Uncovered = l.UncoveredAreaGrown(0)
+	case p.Range > 0:
 		p.Uncovered = l.UncoveredArea(p.Range)
 	}
 	switch ps.move {
@@ -461,13 +493,24 @@ func printCandidates(w io.Writer, line lineFunc, d *report.PlanDoc, mode printMo
 
 // printFailures prints the single-failure figures and the worst failures.
 func printFailures(w io.Writer, line lineFunc, d *report.PlanDoc, m report.Meta, mode printMode) {
-	if d.SurviveAnySingleFailureM == nil {
+	own := d.RangeGroups != nil
+	switch {
+	case own && d.SurviveAnySingleFailureRanges == nil:
 		line("survive any single failure", "impossible: a single device")
-	} else {
+	case own:
+		line("survive any single failure", "%s (all r² grown alike), needed at %s when %s fails",
+			report.GroupsText(d.RangeGroups, d.SurviveAnySingleFailureRanges), fmtPoint(d.SurvivePoint, d.Coordinates), siteLabel(m, d.SurviveSite))
+	case d.SurviveAnySingleFailureM == nil:
+		line("survive any single failure", "impossible: a single device")
+	default:
 		line("survive any single failure", "%s m, needed at %s when %s fails", fmtNum(*d.SurviveAnySingleFailureM, 2),
 			fmtPoint(d.SurvivePoint, d.Coordinates), siteLabel(m, d.SurviveSite))
 	}
-	if d.RangeM != nil {
+	switch {
+	case own:
+		line("uncovered, all working", "%s m² at the planned ranges", report.AreaNumber(*d.UncoveredAreaM2, 1))
+		line("redundant (hidden)", "%s", hiddenNote(d.Hidden, m, "their failure costs nothing"))
+	case d.RangeM != nil:
 		line("uncovered, all working", "%s m² at %s m", report.AreaNumber(*d.UncoveredAreaM2, 1), fmtNum(*d.RangeM, 2))
 	}
 	rows := len(d.Failures)
@@ -481,7 +524,14 @@ func printFailures(w io.Writer, line lineFunc, d *report.PlanDoc, m report.Meta,
 	}
 	for _, fl := range d.Failures[:rows] {
 		closing := "deepest new gap: no device left"
-		if fl.ClosingRangeM != nil {
+		switch {
+		case fl.Hidden:
+			closing = "hidden: costs nothing"
+		case own && fl.ClosingRangeM != nil && fl.AddedUncoveredM2 == 0 && *fl.ClosingRangeM == 0:
+			closing = "serves no part of the area"
+		case own && fl.ClosingRangeM != nil:
+			closing = "deepest new gap: backup " + siteLabel(m, fl.Backup) + " needs " + fmtNum(*fl.ClosingRangeM, 2) + " m"
+		case fl.ClosingRangeM != nil:
 			closing = "deepest new gap needs " + fmtNum(*fl.ClosingRangeM, 2) + " m"
 		}
 		fmt.Fprintf(w, "  rank %-3d %-28s loss %10s m²  %s\n", fl.Rank, siteLabel(m, fl.Site), fmtNum(fl.AddedUncoveredM2, 1), closing)
@@ -501,7 +551,12 @@ func printAssignment(line lineFunc, d *report.PlanDoc, m report.Meta) {
 		if a.Weighted {
 			wt = fmt.Sprintf(" (weight %s of %s)", trimNum(*a.ServedWeight), trimNum(*a.ServedWeight+*a.UnservedWeight))
 		}
-		line("within range", "%d of %d at %s m%s", *a.Served, a.Points, fmtNum(*d.RangeM, 2), wt)
+		if d.RangeM != nil {
+			line("within range", "%d of %d at %s m%s", *a.Served, a.Points, fmtNum(*d.RangeM, 2), wt)
+		} else {
+			line("within reach", "%d of %d, each at its device's own range%s", *a.Served, a.Points, wt)
+			line("redundant (hidden)", "%s", hiddenNote(d.Hidden, m, "they serve nothing"))
+		}
 	}
 	busiest := -1
 	for i, ld := range a.Load {
@@ -521,6 +576,27 @@ func printAssignment(line lineFunc, d *report.PlanDoc, m report.Meta) {
 		p := a.Farthest
 		line("farthest item", "%s: %s m from %s", report.ItemLabel(p.Name, "item", p.Point), fmtNum(p.DistanceM, 2), siteLabel(m, p.Device))
 	}
+}
+
+// hiddenList names the hidden devices ("none" when there is none).
+func hiddenList(hidden []int, m report.Meta) string {
+	if len(hidden) == 0 {
+		return "none"
+	}
+	var names []string
+	for _, i := range hidden {
+		names = append(names, siteLabel(m, i))
+	}
+	return strings.Join(names, ", ")
+}
+
+// hiddenNote is hiddenList followed by ": note" when there is a hidden
+// device.
+func hiddenNote(hidden []int, m report.Meta, note string) string {
+	if len(hidden) == 0 {
+		return "none"
+	}
+	return hiddenList(hidden, m) + ": " + note
 }
 
 // trimNum formats a weight without needless decimals.
