@@ -138,7 +138,7 @@ after as GeoJSON, and a map.
 func newFailuresCmd(e *env) *cobra.Command {
 	f := &runFlags{}
 	cmd := &cobra.Command{
-		Use:   "failures --sites FILE [--area FILE] --range LENGTH [flags]",
+		Use:   "failures --sites FILE [--area FILE] (--range LENGTH | a range or type column) [flags]",
 		Short: "Device failures: what each outage uncovers, and the range that survives any single failure",
 		Long: `failures takes every device out of service in turn, the others working, and
 ranks the devices by the area their failure leaves uncovered at --range, with
@@ -146,6 +146,14 @@ the deepest new gap (the range the others need to cover what it served) and
 the device that backs it up there. It also gives the range at which the area
 stays fully covered whichever single device fails: the largest distance from
 a point of the area to its second-nearest device.
+
+Devices with their own ranges (a range column, or a type column with
+--type-range or --range-table; --range is then the default of the rest): each
+failure is taken at the devices' own ranges, with power cells (where
+|x - p|^2 - r^2 is smallest) as service areas, and the range that survives any
+single failure is given per device type, every device's r^2 growing by the
+same amount. A hidden device (the others cover its whole disk) costs nothing
+when it fails.
 
 Each failure is computed locally (only the failed device's service area
 changes hands, among its Delaunay neighbours), so a million devices take
@@ -181,6 +189,13 @@ func newAssignCmd(e *env) *cobra.Command {
 the nearest one, whose service area holds it - with the distance and, with
 --range, whether it is within range; and the load of every device (items
 served and their summed weight, within range or not).
+
+Devices with their own ranges (a range column, or a type column with
+--type-range or --range-table): an item is served by the device whose power
+cell holds it (where |x - p|^2 - r^2 is smallest; the service area the maps
+show), and is within reach when inside that device's own range - exactly when
+some device covers it. Hidden devices (the others cover their whole disk)
+serve nothing.
 
 --points FILE: GeoJSON Point/MultiPoint features, or Polygon/MultiPolygon
 features (buildings, yards: each placed at its centroid, or at a point on it
