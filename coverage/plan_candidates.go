@@ -73,6 +73,12 @@ type Choice struct {
 	Remaining []Gap
 	// Evaluations counts marginal-area evaluations (lazy greedy statistic).
 	Evaluations int
+	// NewRange is, with per-device ranges (ChooseCandidatesRanges), the
+	// range of a device at a picked spot; Range is then 0, the covered
+	// figures refer to each device's own range, and FullCoverBefore and
+	// FullCoverAfter are the range a picked device would need when every
+	// r² grows alike until no gap is left (NewRange when none is left).
+	NewRange float64
 }
 
 // ChooseCandidates picks k of the candidate spots to add to the layout,
