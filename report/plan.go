@@ -65,6 +65,11 @@ type Plan struct {
 	// FullCover is the existing layout's full-cover range (one common
 	// range).
 	FullCover coverage.FullCover
+	// NewRange is the range of the added devices or picked spots with
+	// per-device ranges (MoveAdd, MoveFewest, MoveCandidates), NewType
+	// their type when it was given by type ("" otherwise).
+	NewRange float64
+	NewType  string
 	// FullCoverRanges is the existing layout's full-cover figure when the
 	// devices have their own ranges (Layout from coverage.NewLayoutRanges:
 	// Range is then 0, the covered figures refer to each device's own

@@ -73,16 +73,24 @@ func (s *planScene) suggestionMap(width int) ([]byte, error) {
 	for j := range sg.Added {
 		ba.labels = append(ba.labels, fmt.Sprintf("+%d", j+1))
 	}
+	at := metresShort(p.Range)
+	if p.own() {
+		at = metresShort(p.NewRange) + " (own ranges for the others)"
+	}
 	if p.Move == MoveAdd {
-		ba.title = fmt.Sprintf("%d suggested devices at %s", len(sg.Added), metresShort(p.Range))
+		ba.title = fmt.Sprintf("%d suggested devices at %s", len(sg.Added), at)
 	} else {
 		if sg.Reached {
-			ba.title = fmt.Sprintf("%s close every gap at %s", Plural(len(sg.Added), "addition"), metresShort(p.Range))
+			ba.title = fmt.Sprintf("%s close every gap at %s", Plural(len(sg.Added), "addition"), at)
 		} else {
-			ba.title = fmt.Sprintf("%s at %s, gaps remain", Plural(len(sg.Added), "addition"), metresShort(p.Range))
+			ba.title = fmt.Sprintf("%s at %s, gaps remain", Plural(len(sg.Added), "addition"), at)
 		}
 	}
-	ba.sub = fmt.Sprintf("Full cover %s -> %s; covered %s %% -> %s %%; uncovered %.0f m² -> %.0f m²",
+	full := "Full cover"
+	if p.own() {
+		full = "New device needs (r² grown alike)"
+	}
+	ba.sub = fmt.Sprintf(full+" %s -> %s; covered %s %% -> %s %%; uncovered %.0f m² -> %.0f m²",
 		metresShort(sg.FullCoverBefore), metresShort(sg.FullCoverAfter),
 		CoveredPercent(sg.CoveredBefore, sg.UncoveredBefore, 2), CoveredPercent(sg.CoveredAfter, sg.UncoveredAfter, 2),
 		sg.UncoveredBefore, sg.UncoveredAfter)
@@ -106,7 +114,11 @@ func (s *planScene) candidateMap(width int) ([]byte, error) {
 			ba.others = append(ba.others, c)
 		}
 	}
-	ba.title = fmt.Sprintf("%d of %d candidate spots picked at %s", len(ch.Picked), len(p.Candidates), metresShort(ch.Range))
+	at := metresShort(ch.Range)
+	if p.own() {
+		at = metresShort(p.NewRange) + " (own ranges for the others)"
+	}
+	ba.title = fmt.Sprintf("%d of %d candidate spots picked at %s", len(ch.Picked), len(p.Candidates), at)
 	ba.sub = fmt.Sprintf("Covered %s %% -> %s %%; uncovered %.0f m² -> %.0f m²",
 		CoveredPercent(ch.FractionBefore, ch.UncoveredBefore, 2), CoveredPercent(ch.FractionAfter, ch.UncoveredAfter, 2),
 		ch.UncoveredBefore, ch.UncoveredAfter)
@@ -122,8 +134,12 @@ func (s *planScene) candidateMap(width int) ([]byte, error) {
 // drawBeforeAfter draws a before/after map.
 func (s *planScene) drawBeforeAfter(width int, ba beforeAfter) (*canvas, error) {
 	r := s.p.Range
+	within := metresShort(r)
+	if s.p.own() {
+		r, within = s.p.NewRange, "each within its own range"
+	}
 	numbered := min(len(ba.after), maxNumbered)
-	items := []legendItem{{fmt.Sprintf("Covered by the existing devices (within %s)", metresShort(r)), swatchFill(colCovered, colDiskEdge)}}
+	items := []legendItem{{fmt.Sprintf("Covered by the existing devices (%s)", within), swatchFill(colCovered, colDiskEdge)}}
 	if gapArea(ba.before) > gapArea(ba.after) {
 		items = append(items, legendItem{ba.closed, swatchFill(colClosed, nil)})
 	}
@@ -152,13 +168,18 @@ func (s *planScene) drawBeforeAfter(width int, ba beforeAfter) (*canvas, error) 
 	s.fillGaps(c, ba.after, colGap)
 	rho := r * c.k
 	unit := unitCircle(circleSides(rho))
-	c.paint(s.diskMask(c, rho, unit), color.NRGBA(colCovered), areaMask)
-	if d.spacing >= 8*c.u && rho >= 3 {
-		s.diskOutlines(c, rho, unit, areaMask)
+	if s.p.own() {
+		c.paint(s.ownDiskMask(c), color.NRGBA(colCovered), areaMask)
+	} else {
+		c.paint(s.diskMask(c, rho, unit), color.NRGBA(colCovered), areaMask)
+		if d.spacing >= 8*c.u && rho >= 3 {
+			s.diskOutlines(c, rho, unit, areaMask)
+		}
 	}
 	s.drawZones(c)
 	s.strokeArea(c)
 	s.drawSiteMarks(c, d)
+	s.drawHiddenMarks(c, d)
 	// New devices' reach, then the marks.
 	if len(ba.added) <= 10*maxMarked && rho >= 2 {
 		c.inFrame(func() {

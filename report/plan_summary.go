@@ -89,8 +89,14 @@ type SuggestionsDoc struct {
 	Mode Move `json:"mode"`
 	// Requested is K for "add", 0 for "fewest".
 	Requested int `json:"requested"`
-	// RangeM is the range the covered figures refer to.
-	RangeM float64 `json:"range_m"`
+	// RangeM is the range the covered figures refer to (0 with per-device
+	// ranges: each device's own; NewRangeM and NewType are then the range
+	// and type of the added devices, and the full-cover figures the range
+	// an added device would need with every r² grown alike until no gap
+	// is left).
+	RangeM    float64 `json:"range_m"`
+	NewRangeM float64 `json:"new_range_m,omitempty"`
+	NewType   string  `json:"new_type,omitempty"`
 	// Existing is the number of existing devices; Added the new ones in
 	// the order they were placed, with the figures before and after each.
 	Existing int               `json:"existing"`
@@ -157,6 +163,9 @@ type CandidatesDoc struct {
 	// Requested is K (0: the fewest that cover everything).
 	Requested int     `json:"requested"`
 	RangeM    float64 `json:"range_m"`
+	// NewRangeM and NewType: as in SuggestionsDoc (per-device ranges).
+	NewRangeM float64 `json:"new_range_m,omitempty"`
+	NewType   string  `json:"new_type,omitempty"`
 	// Picked lists the chosen spots in the order picked.
 	Picked []PickedCandidate `json:"picked"`
 	// Area figures without and with the picks.
@@ -439,6 +448,8 @@ func (s *planScene) suggestionsDoc() *SuggestionsDoc {
 		Mode:                  p.Move,
 		Requested:             p.Requested,
 		RangeM:                sg.Range,
+		NewRangeM:             sg.NewRange,
+		NewType:               p.NewType,
 		Existing:              sg.Existing,
 		Added:                 make([]SuggestedDevice, 0, len(sg.Steps)),
 		FullCoverRangeBeforeM: sg.FullCoverBefore,
@@ -500,6 +511,8 @@ func (s *planScene) candidatesDoc() *CandidatesDoc {
 		Count:                 len(p.Candidates),
 		Requested:             max(p.Requested, 0),
 		RangeM:                ch.Range,
+		NewRangeM:             ch.NewRange,
+		NewType:               p.NewType,
 		Picked:                make([]PickedCandidate, 0, len(ch.Picked)),
 		CoveredBeforeM2:       ch.CoveredBefore,
 		CoveredAfterM2:        ch.CoveredAfter,

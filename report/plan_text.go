@@ -114,7 +114,7 @@ func (s *planScene) textExisting(b *textBuf) {
 		kv.add("Uncovered", fmt.Sprintf("%s (%s)", m2(p.Uncovered), ha(p.Uncovered)))
 	}
 	if p.Move == MoveAdd || p.Move == MoveFewest || p.Move == MoveCandidates {
-		kv.add("Gaps", fmt.Sprintf("%d at %s", len(p.GapsBefore), metres(p.Range)))
+		kv.add("Gaps", fmt.Sprintf("%d at %s", len(p.GapsBefore), s.atText(false)))
 	}
 	if fc := p.FullCoverRanges; fc != nil {
 		s.textFullCoverRanges(kv, fc)
@@ -131,6 +131,37 @@ func (s *planScene) textExisting(b *textBuf) {
 		kv.add("  needed at", w)
 	}
 	kv.write(b)
+}
+
+// atText names the range of the covered figures: the common range, or the
+// planned ranges (upper case for a section title).
+func (s *planScene) atText(upper bool) string {
+	switch {
+	case !s.p.own():
+		return metres(s.p.Range)
+	case upper:
+		return "THE PLANNED RANGES"
+	}
+	return "the planned ranges"
+}
+
+// newText describes the added devices' range with per-device ranges:
+// "range 150.00 m", with their type when given.
+func (s *planScene) newText() string {
+	t := "range " + metres(s.p.NewRange)
+	if s.p.NewType != "" {
+		t = s.p.NewType + " " + t
+	}
+	return t
+}
+
+// fullCoverKey is the label of the full-cover figures of suggest and
+// candidates.
+func (s *planScene) fullCoverKey() string {
+	if s.p.own() {
+		return "New device needs (r² grown alike)"
+	}
+	return "Full-cover range"
 }
 
 // textFullCoverRanges adds the full-cover figure of devices with their own
@@ -188,14 +219,26 @@ func GroupsText(planned, grown []RangeGroup) string {
 
 func (s *planScene) textSuggestion(b *textBuf) {
 	p, sg := s.p, s.p.Suggestion
-	if p.Move == MoveAdd {
+	switch {
+	case p.Move == MoveAdd && p.own():
+		section(b, fmt.Sprintf("%d SUGGESTED DEVICES OF %s (free placement)", len(sg.Added), strings.ToUpper(s.newText())))
+		b.WriteString("  Each new device goes to the point that needs the largest growth of every r²\n")
+		b.WriteString("  to be covered (farthest-point insertion with powers |x - p|² - r²), the\n")
+		b.WriteString("  power cells recomputed after each. Existing devices stay where they are.\n")
+		b.WriteString("  Full cover: the range a new device would need with every r² grown alike\n")
+		b.WriteString("  until no gap is left. Figures before and after each addition, in order:\n\n")
+	case p.Move == MoveAdd:
 		section(b, fmt.Sprintf("%d SUGGESTED DEVICES (free placement)", len(sg.Added)))
 		b.WriteString("  Each new device goes to the point farthest from every device (farthest-point\n")
 		b.WriteString("  insertion, Gonzalez 1985), then moves to the centre of the smallest circle\n")
 		b.WriteString("  enclosing its service area while the full-cover range falls. Existing devices\n")
 		b.WriteString("  stay where they are. Figures before and after each addition, in order:\n\n")
-	} else {
-		section(b, fmt.Sprintf("FEWEST ADDITIONS FOR NO GAP AT %s", metres(p.Range)))
+	default:
+		title := fmt.Sprintf("FEWEST ADDITIONS FOR NO GAP AT %s", s.atText(true))
+		if p.own() {
+			title = fmt.Sprintf("FEWEST ADDITIONS OF %s FOR NO GAP AT THE PLANNED RANGES", strings.ToUpper(s.newText()))
+		}
+		section(b, title)
 		kv := &kvList{}
 		switch {
 		case len(sg.Added) == 0 && sg.Reached:
@@ -218,7 +261,11 @@ func (s *planScene) textSuggestion(b *textBuf) {
 	}
 	t := &table{}
 	hx, hy := s.pointHeads()
-	t.head("New", hx, hy, "Full cover m", "after m", "Covered %", "after %", "Uncovered m²", "after m²")
+	full := "Full cover m"
+	if p.own() {
+		full = "New needs m"
+	}
+	t.head("New", hx, hy, full, "after m", "Covered %", "after %", "Uncovered m²", "after m²")
 	for j, st := range sg.Steps {
 		px, py := s.pointCols(st.Added)
 		t.row(fmt.Sprintf("+%d", j+1), px, py,
@@ -230,8 +277,8 @@ func (s *planScene) textSuggestion(b *textBuf) {
 	section(b, "BEFORE AND AFTER")
 	kv := &kvList{}
 	kv.add("Devices", fmt.Sprintf("%d existing + %d new = %d", sg.Existing, len(sg.Added), sg.Existing+len(sg.Added)))
-	kv.add("Full-cover range", fmt.Sprintf("%s -> %s", metres(sg.FullCoverBefore), metres(sg.FullCoverAfter)))
-	kv.add("Covered at "+metres(sg.Range), CoveredPercent(sg.CoveredBefore, sg.UncoveredBefore, 3)+" % -> "+CoveredPercent(sg.CoveredAfter, sg.UncoveredAfter, 3)+" %")
+	kv.add(s.fullCoverKey(), fmt.Sprintf("%s -> %s", metres(sg.FullCoverBefore), metres(sg.FullCoverAfter)))
+	kv.add("Covered at "+s.atText(false), CoveredPercent(sg.CoveredBefore, sg.UncoveredBefore, 3)+" % -> "+CoveredPercent(sg.CoveredAfter, sg.UncoveredAfter, 3)+" %")
 	kv.add("Uncovered", fmt.Sprintf("%s -> %s", m2(sg.UncoveredBefore), m2(sg.UncoveredAfter)))
 	kv.add("Gaps", fmt.Sprintf("%d -> %d", len(p.GapsBefore), len(p.GapsAfter)))
 	kv.write(b)
@@ -241,7 +288,7 @@ func (s *planScene) textSuggestion(b *textBuf) {
 // textGapList writes a table of gaps (id, area, closing range, deepest
 // point, kind).
 func (s *planScene) textGapList(b *textBuf, title string, gaps []coverage.Gap, none string) {
-	section(b, fmt.Sprintf("%s AT %s", title, metres(s.p.Range)))
+	section(b, fmt.Sprintf("%s AT %s", title, s.atText(true)))
 	if len(gaps) == 0 {
 		b.WriteString("  " + none + "\n")
 		return
@@ -266,9 +313,13 @@ func (s *planScene) textGapList(b *textBuf, title string, gaps []coverage.Gap, n
 func (s *planScene) textCandidates(b *textBuf) {
 	p, ch := s.p, s.p.Choice
 	if p.Requested > 0 {
-		section(b, fmt.Sprintf("CHOICE OF %d AMONG %d CANDIDATE SPOTS AT %s", p.Requested, len(p.Candidates), metres(ch.Range)))
+		section(b, fmt.Sprintf("CHOICE OF %d AMONG %d CANDIDATE SPOTS AT %s", p.Requested, len(p.Candidates), s.atText(true)))
 	} else {
-		section(b, fmt.Sprintf("FEWEST CANDIDATE SPOTS FOR NO GAP AT %s", metres(ch.Range)))
+		section(b, fmt.Sprintf("FEWEST CANDIDATE SPOTS FOR NO GAP AT %s", s.atText(true)))
+	}
+	if p.own() {
+		b.WriteString("  A device of " + s.newText() + " at each picked spot; gains and figures from the\n")
+		b.WriteString("  power cells (where |x - p|² - r² is smallest), recomputed after each pick.\n")
 	}
 	b.WriteString("  Greedy choice: each pick is the spot that adds the most covered area, exact\n")
 	b.WriteString("  marginal areas with lazy re-evaluation. For K picks the added area is at least\n")
@@ -297,8 +348,8 @@ func (s *planScene) textCandidates(b *textBuf) {
 	section(b, "BEFORE AND AFTER")
 	kv := &kvList{}
 	kv.add("Spots picked", fmt.Sprintf("%d of %d", len(ch.Picked), len(p.Candidates)))
-	kv.add("Full-cover range", fmt.Sprintf("%s -> %s", metres(ch.FullCoverBefore), metres(ch.FullCoverAfter)))
-	kv.add("Covered at "+metres(ch.Range), CoveredPercent(ch.FractionBefore, ch.UncoveredBefore, 3)+" % -> "+CoveredPercent(ch.FractionAfter, ch.UncoveredAfter, 3)+" %")
+	kv.add(s.fullCoverKey(), fmt.Sprintf("%s -> %s", metres(ch.FullCoverBefore), metres(ch.FullCoverAfter)))
+	kv.add("Covered at "+s.atText(false), CoveredPercent(ch.FractionBefore, ch.UncoveredBefore, 3)+" % -> "+CoveredPercent(ch.FractionAfter, ch.UncoveredAfter, 3)+" %")
 	kv.add("Uncovered", fmt.Sprintf("%s -> %s", m2(ch.UncoveredBefore), m2(ch.UncoveredAfter)))
 	kv.add("Gaps", fmt.Sprintf("%d -> %d", len(p.GapsBefore), len(ch.Remaining)))
 	switch {

@@ -871,8 +871,70 @@ func TestPlanRangesCLI(t *testing.T) {
 			checkFiles(t, out+"-a", report.MoveAssign, true, true, false)
 		})
 	}
-	r := runCLI(t, "suggest", "--planar", "--area", area, "--sites", mixed, "--add", "1", "--out", filepath.Join(dir, "s"))
-	checkFailure(t, r, 1, []string{"mixed.csv", "own ranges", "suggest uses one common range"})
+}
+
+// TestSuggestRangesCLI: suggest with per-device ranges: --add, the fewest
+// additions and candidate spots, the added devices' range from --range or
+// from --new-type in the type table; and a common-range site with added
+// devices of another type.
+func TestSuggestRangesCLI(t *testing.T) {
+	dir := t.TempDir()
+	area := writeFile(t, dir, "a.geojson", `{"type":"Polygon","coordinates":[[[-50,-50],[260,-50],[260,180],[-50,180],[-50,-50]]]}`)
+	typed := writeFile(t, dir, "typed.csv", "name,x,y,type\ng1,0,0,gateway\ns1,200,0,sensor\ns2,100,120,sensor\ns3,20,10,sensor\n")
+	sensors := writeFile(t, dir, "sensors.csv", "name,x,y,type\ns1,200,0,sensor\ns2,100,120,sensor\ns3,20,10,sensor\n")
+	cands := writeFile(t, dir, "c.csv", "name,x,y\nc1,200,150\nc2,-30,150\nc3,230,-40\nc4,100,40\n")
+	types := []string{"--type-range", "gateway=150m", "--type-range", "sensor=40m"}
+	for _, c := range []struct {
+		name string
+		args []string
+		want []string
+	}{
+		{"add with --range", append([]string{"--sites", typed, "--add", "2", "--range", "60m"}, types...), []string{"new devices 60.00 m", "2 new + 4 existing"}},
+		{"fewest of a type", append([]string{"--sites", typed, "--new-type", "gateway"}, types...), []string{"new devices gateway 150.00 m", "for no gap at the planned ranges"}},
+		{"candidates", append([]string{"--sites", typed, "--candidates", cands, "--new-type", "sensor", "--add", "2"}, types...), []string{"2 of 4, new devices sensor 40.00 m"}},
+		{"gateways among sensors", append([]string{"--sites", sensors, "--new-type", "gateway", "--add", "1"}, types...), []string{"new devices gateway 150.00 m"}},
+	} {
+		t.Run(c.name, func(t *testing.T) {
+			out := filepath.Join(dir, strings.ReplaceAll(c.name, " ", "-"))
+			r := mustRun(t, append(append([]string{"suggest", "--planar", "--area", area}, c.args...), "--out", out)...)
+			for _, w := range c.want {
+				if !strings.Contains(r.stdout, w) {
+					t.Errorf("stdout lacks %q:\n%s", w, r.stdout)
+				}
+			}
+			var doc struct {
+				RangeM      *float64 `json:"range_m"`
+				Suggestions *struct {
+					NewRangeM float64 `json:"new_range_m"`
+					Before    float64 `json:"uncovered_area_before_m2"`
+					After     float64 `json:"uncovered_area_after_m2"`
+				} `json:"suggestions"`
+				Candidates *struct {
+					NewRangeM float64 `json:"new_range_m"`
+					Before    float64 `json:"uncovered_area_before_m2"`
+					After     float64 `json:"uncovered_area_after_m2"`
+				} `json:"candidates"`
+			}
+			b, err := os.ReadFile(filepath.Join(out, "summary.json"))
+			if err != nil {
+				t.Fatal(err)
+			}
+			if err := json.Unmarshal(b, &doc); err != nil {
+				t.Fatal(err)
+			}
+			newR, before, after := 0.0, 0.0, 0.0
+			if s := doc.Suggestions; s != nil {
+				newR, before, after = s.NewRangeM, s.Before, s.After
+			} else if c := doc.Candidates; c != nil {
+				newR, before, after = c.NewRangeM, c.Before, c.After
+			}
+			if doc.RangeM != nil || newR <= 0 || !(after < before) {
+				t.Errorf("range %v, new range %v, uncovered %v -> %v", doc.RangeM, newR, before, after)
+			}
+		})
+	}
+	r := runCLI(t, "suggest", "--planar", "--area", area, "--sites", typed, "--new-type", "siren", "--add", "1", "--type-range", "gateway=150m", "--type-range", "sensor=40m", "--out", filepath.Join(dir, "x"))
+	checkFailure(t, r, 1, []string{`--new-type "siren"`, "no range for this type"})
 }
 
 // TestPlanEqualRangeColumn: a range column with one value gives the
