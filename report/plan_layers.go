@@ -24,9 +24,14 @@ import (
 	"github.com/sitecover/sitecover/report/gpkg"
 )
 
-// planGapLayer is a gaps layer for the given gaps at the plan's range.
+// planGapLayer is a gaps layer for the given gaps at the plan's range
+// (range_m null with per-device ranges).
 func (s *planScene) planGapLayer(gaps []coverage.Gap) *layerDef {
-	return s.gapLayer(gaps, s.p.Range, func(i int) Point { return s.point(gaps[i].Deepest) })
+	r := s.p.Range
+	if s.p.own() {
+		r = math.NaN() // each device's own range: range_m null
+	}
+	return s.gapLayer(gaps, r, func(i int) Point { return s.point(gaps[i].Deepest) })
 }
 
 // proposedLayer is each added device, in the order added.
