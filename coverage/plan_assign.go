@@ -95,16 +95,7 @@ func Assign(l *Layout, points []orb.Point, weights []float64, r float64) (*Assig
 	near := planNearestSorted(t, xy)
 	a := newAssignment(l, w)
 	a.Range = r
-	planParallel(len(points), func(lo, hi int) {
-		for i := lo; i < hi; i++ {
-			v := near[i]
-			a.Device[i] = int(t.Source[v])
-			d := math.Hypot(xy[2*i]-t.Coords[2*v], xy[2*i+1]-t.Coords[2*v+1])
-			a.Distance[i] = d
-			a.Within[i] = d <= r
-		}
-	})
-	a.tally()
+	a.fill(t, near, xy, r, nil)
 	return a, nil
 }
 
@@ -132,6 +123,26 @@ func newAssignment(l *Layout, w []float64) *Assignment {
 		Weight:   w,
 		Load:     make([]DeviceLoad, len(l.Sites)),
 	}
+}
+
+// fill sets each point's device (the source of vertex near[i]), distance
+// and whether it is within reach: within ranges[v] of vertex v, or r when
+// ranges is nil; then tallies the loads.
+func (a *Assignment) fill(t *planar.Triangulation, near []int32, xy []float64, r float64, ranges []float64) {
+	planParallel(len(near), func(lo, hi int) {
+		for i := lo; i < hi; i++ {
+			v := near[i]
+			a.Device[i] = int(t.Source[v])
+			d := math.Hypot(xy[2*i]-t.Coords[2*v], xy[2*i+1]-t.Coords[2*v+1])
+			a.Distance[i] = d
+			reach := r
+			if ranges != nil {
+				reach = ranges[v]
+			}
+			a.Within[i] = d <= reach
+		}
+	})
+	a.tally()
 }
 
 // planAssignWeights returns the weight of each of n points: 1 when

@@ -32,7 +32,6 @@ package coverage
 
 import (
 	"fmt"
-	"math"
 
 	"github.com/paulmach/orb"
 	"github.com/sitecover/sitecover/planar"
@@ -79,17 +78,7 @@ func AssignPowerCells(l *Layout, points []orb.Point, weights []float64) (*Assign
 	})
 	a := newAssignment(l, w)
 	a.Ranges = append([]float64(nil), l.InputRanges...)
-	t := l.Tri
-	planParallel(len(points), func(lo, hi int) {
-		for i := lo; i < hi; i++ {
-			v := near[i]
-			a.Device[i] = int(t.Source[v])
-			d := math.Hypot(xy[2*i]-t.Coords[2*v], xy[2*i+1]-t.Coords[2*v+1])
-			a.Distance[i] = d
-			a.Within[i] = d <= l.Ranges[v]
-		}
-	})
-	a.tally()
+	a.fill(l.Tri, near, xy, 0, l.Ranges)
 	return a, nil
 }
 

@@ -195,18 +195,13 @@ func Failures(l *Layout, r float64) (*FailureReport, error) {
 	})
 	// Intact totals; top two cell radii for the full cover without v.
 	unc := 0.0
-	top1, top2 := int32(-1), int32(-1)
 	for v := range res {
 		unc += res[v].baseUnc
-		if top1 < 0 || res[v].rho > res[top1].rho {
-			top1, top2 = int32(v), top1
-		} else if top2 < 0 || res[v].rho > res[top2].rho {
-			top2 = int32(v)
-		}
 	}
+	top := planTopTwo(len(res), func(v int) float64 { return res[v].rho })
 	unc = math.Max(0, unc)
 	rep.Uncovered = unc
-	rep.FullCover = res[top1].rho
+	rep.FullCover = res[top.top1].rho
 	// Smallest other input index at each shared vertex.
 	twin := make(map[int32][2]int)
 	for i, v := range t.Vertex {
@@ -250,10 +245,8 @@ func Failures(l *Layout, r float64) (*FailureReport, error) {
 				d.Backup = int(t.Source[f.backup])
 			}
 			others := 0.0
-			if top1 != v {
-				others = res[top1].rho
-			} else if top2 >= 0 {
-				others = res[top2].rho
+			if o := top.other(v); o >= 0 {
+				others = res[o].rho
 			}
 			d.FullCover = math.Max(f.closing, others)
 		}
@@ -273,6 +266,32 @@ func Failures(l *Layout, r float64) (*FailureReport, error) {
 	})
 	rep.Devices = devs
 	return rep, nil
+}
+
+// planTop2 holds the indices of the largest and second-largest of a list
+// of values (the first index on ties; −1 where there is none).
+type planTop2 struct{ top1, top2 int32 }
+
+// planTopTwo returns the two largest of n values.
+func planTopTwo(n int, val func(i int) float64) planTop2 {
+	t := planTop2{-1, -1}
+	for i := 0; i < n; i++ {
+		switch x := val(i); {
+		case t.top1 < 0 || x > val(int(t.top1)):
+			t.top1, t.top2 = int32(i), t.top1
+		case t.top2 < 0 || x > val(int(t.top2)):
+			t.top2 = int32(i)
+		}
+	}
+	return t
+}
+
+// other returns the index of the largest value other than v's (−1: none).
+func (t planTop2) other(v int32) int32 {
+	if t.top1 != v {
+		return t.top1
+	}
+	return t.top2
 }
 
 // planFailScratch is per-goroutine scratch space of Failures.

@@ -103,20 +103,15 @@ func FailuresRanges(l *Layout) (*FailureReport, error) {
 	rep := &FailureReport{Ranges: append([]float64(nil), l.InputRanges...), SurviveSite: -1,
 		SurvivePoint: orb.Point{math.NaN(), math.NaN()}, SurvivePower: math.Inf(-1), SurviveRange: math.NaN()}
 	unc := 0.0
-	top1, top2 := int32(-1), int32(-1)
 	for v := range res {
 		unc += res[v].baseUnc
-		if top1 < 0 || res[v].own > res[top1].own {
-			top1, top2 = int32(v), top1
-		} else if top2 < 0 || res[v].own > res[top2].own {
-			top2 = int32(v)
-		}
 	}
+	top := planTopTwo(len(res), func(v int) float64 { return res[v].own })
 	rep.Uncovered = math.Max(0, unc)
 	rep.FullCover = math.NaN()
 	rep.FullCoverPower = math.Inf(-1)
-	if top1 >= 0 {
-		rep.FullCoverPower = res[top1].own
+	if top.top1 >= 0 {
+		rep.FullCoverPower = res[top.top1].own
 	}
 	devs := make([]DeviceFailure, len(l.Sites))
 	for i := range devs {
@@ -135,10 +130,8 @@ func FailuresRanges(l *Layout) (*FailureReport, error) {
 		d.Deepest = orb.Point{f.dx, f.dy}
 		d.ClosingRange, d.ClosingPower, d.Backup = f.closing, f.closingPow, f.backup
 		others := math.Inf(-1)
-		if top1 != v {
-			others = res[top1].own
-		} else if top2 >= 0 {
-			others = res[top2].own
+		if o := top.other(v); o >= 0 {
+			others = res[o].own
 		}
 		d.FullCoverPower = math.Max(f.closingPow, others)
 		if rep.SurviveSite < 0 || d.ClosingPower > rep.SurvivePower {

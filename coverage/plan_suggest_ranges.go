@@ -53,7 +53,6 @@
 package coverage
 
 import (
-	"container/heap"
 	"fmt"
 	"math"
 	"sort"
@@ -316,37 +315,19 @@ func ChooseCandidatesRanges(l *Layout, candidates []orb.Point, r float64, k int)
 	for i, v := range gains {
 		h[i] = planItem{gain: v, idx: int32(i)}
 	}
-	ch.Evaluations = len(candidates)
-	heap.Init(&h)
 	var sc rangesGainScratch
-	for h.Len() > 0 {
-		if k > 0 && len(ch.Picked) >= k || k <= 0 && p.covered() {
-			break
-		}
-		top := &h[0]
-		if top.gain <= eps {
-			ch.Exhausted = true
-			break
-		}
-		if int(top.stamp) != len(ch.Picked) {
-			c := candidates[top.idx]
-			top.gain = g.gain(c[0], c[1], r, &sc)
-			top.stamp = int32(len(ch.Picked))
-			ch.Evaluations++
-			heap.Fix(&h, 0)
-			continue
-		}
-		it := heap.Pop(&h).(planItem)
-		ch.Picked = append(ch.Picked, int(it.idx))
-		ch.Gains = append(ch.Gains, it.gain)
-		p.added = append(p.added, candidates[it.idx])
-		if err := p.rebuild(); err != nil {
-			return nil, fmt.Errorf("%s: layout with the picks: %w", where, err)
-		}
-		g = newGainIndex(p.cur)
-	}
-	if h.Len() == 0 && (k > 0 && len(ch.Picked) < k || k <= 0 && !p.covered()) {
-		ch.Exhausted = true
+	err := planLazyGreedy(ch, h, k, eps, p.covered,
+		func(i int32) float64 { return g.gain(candidates[i][0], candidates[i][1], r, &sc) },
+		func(i int32) error {
+			p.added = append(p.added, candidates[i])
+			if err := p.rebuild(); err != nil {
+				return err
+			}
+			g = newGainIndex(p.cur)
+			return nil
+		})
+	if err != nil {
+		return nil, fmt.Errorf("%s: layout with the picks: %w", where, err)
 	}
 	_, ch.FullCoverAfter, ch.UncoveredAfter, ch.FractionAfter = p.figures()
 	ch.CoveredAfter = math.Max(0, area-ch.UncoveredAfter)

@@ -389,23 +389,46 @@ func (s *planScene) textFailures(b *textBuf) {
 	b.WriteString("  working). Closing: the range the others need to cover what it served, the depth\n")
 	b.WriteString("  of the deepest new gap; at that point the backup device is the nearest one left.\n")
 	b.WriteString("  Ranked by loss, then closing range.\n\n")
+	s.textFailureTable(b)
+}
+
+// textFailureTable writes the failures ranking: the last figure is the
+// full-cover range without the device, or with per-device ranges the
+// device's own range.
+func (s *planScene) textFailureTable(b *textBuf) {
+	fr := s.p.Failures
+	own := fr.Ranges != nil
+	last := "Full cover m"
+	if own {
+		last = "Range m"
+	}
 	t := &table{}
 	hx, hy := s.pointHeads()
-	t.head("Rank", "Loss m²", "Uncovered m²", "Closing m", hx, hy, "Full cover m", "Device", "Backup")
+	t.head("Rank", "Loss m²", "Uncovered m²", "Closing m", hx, hy, last, "Device", "Backup")
 	t.left(7, 8)
 	t.rows(len(fr.Devices), func(k int) {
 		d := fr.Devices[k]
 		px, py := s.pointCols(d.Deepest)
 		name := s.label(d.Site)
-		if d.Shared {
+		closing, lastCol := metresCol(d.ClosingRange), metresCol(d.FullCover)
+		switch {
+		case d.Shared:
 			name += " (shares its spot: its failure changes nothing)"
+		case d.Hidden:
+			name += " (hidden: its failure costs nothing)"
+			px, py, closing = "-", "-", "-"
+		case own && math.IsInf(d.ClosingPower, -1):
+			px, py, closing = "-", "-", "-"
+		}
+		if own {
+			lastCol = fmt.Sprintf("%.2f", s.rangeOf(d.Site))
 		}
 		backup := "-"
 		if d.Backup >= 0 {
 			backup = s.label(d.Backup)
 		}
 		t.row(fmt.Sprint(k+1), fmt.Sprintf("%.1f", d.AddedUncovered), fmt.Sprintf("%.1f", d.Uncovered),
-			metresCol(d.ClosingRange), px, py, metresCol(d.FullCover), name, backup)
+			closing, px, py, lastCol, name, backup)
 	})
 	t.write(b)
 }
@@ -443,30 +466,7 @@ func (s *planScene) textFailuresRanges(b *textBuf) {
 	b.WriteString("  one that takes over the deepest point of the new gap) needs to reach that\n")
 	b.WriteString("  point. A hidden device's failure costs nothing: the others cover its disk.\n")
 	b.WriteString("  Ranked by loss, then by the growth that closes the new gap.\n\n")
-	t := &table{}
-	hx, hy := s.pointHeads()
-	t.head("Rank", "Loss m²", "Uncovered m²", "Closing m", hx, hy, "Range m", "Device", "Backup")
-	t.left(7, 8)
-	t.rows(len(fr.Devices), func(k int) {
-		d := fr.Devices[k]
-		px, py := s.pointCols(d.Deepest)
-		name := s.label(d.Site)
-		closing := metresCol(d.ClosingRange)
-		switch {
-		case d.Hidden:
-			name += " (hidden: its failure costs nothing)"
-			px, py, closing = "-", "-", "-"
-		case math.IsInf(d.ClosingPower, -1):
-			px, py, closing = "-", "-", "-"
-		}
-		backup := "-"
-		if d.Backup >= 0 {
-			backup = s.label(d.Backup)
-		}
-		t.row(fmt.Sprint(k+1), fmt.Sprintf("%.1f", d.AddedUncovered), fmt.Sprintf("%.1f", d.Uncovered),
-			closing, px, py, fmt.Sprintf("%.2f", s.rangeOf(d.Site)), name, backup)
-	})
-	t.write(b)
+	s.textFailureTable(b)
 }
 
 // backupLabel names the backup of the failure of device site.
