@@ -3,7 +3,9 @@
 // testdata/ref_plan_ranges.py: the uncovered area with every device
 // working and with each one out of service (FailuresRanges), the smallest
 // uniform power growth that survives any single failure (SurvivePower),
-// and whether each demand point is within reach (AssignPowerCells).
+// the area a device at a candidate spot adds (the gain of
+// ChooseCandidatesRanges), and whether each demand point is within reach
+// (AssignPowerCells).
 // TestPlanRangesReference checks the committed data; TestPlanRangesLive
 // re-runs the script on a fresh seed under SITECOVER_LIVE=1, where a
 // missing tool is a failure.
@@ -66,6 +68,10 @@ type planRangesRefScene struct {
 	Points     [][2]float64   `json:"points"`
 	CovIns     []bool         `json:"covered_inscribed"`
 	CovCir     []bool         `json:"covered_circumscribed"`
+	CandR      float64        `json:"candidate_range"`
+	Cands      [][2]float64   `json:"candidates"`
+	GainLow    []float64      `json:"gain_low"`
+	GainHigh   []float64      `json:"gain_high"`
 }
 
 func TestPlanRangesReference(t *testing.T) {
@@ -117,6 +123,12 @@ func checkPlanRangesRef(t *testing.T, doc planRangesRefDoc) {
 			// GEOS via shapely: bisections on the growth with each bracket.
 			if rep.SurvivePower < sc.SurviveCir-planRangesRefGrowthTol || rep.SurvivePower > sc.SurviveIns+planRangesRefGrowthTol {
 				t.Errorf("survive growth %v outside the GEOS bracket [%v, %v]", rep.SurvivePower, sc.SurviveCir, sc.SurviveIns)
+			}
+			g := newGainIndex(l)
+			var gs rangesGainScratch
+			for i, c := range sc.Cands {
+				// GEOS via shapely: the spot's disk minus the union, inscribed and circumscribed.
+				inBracket(fmt.Sprint("gain of candidate ", i), g.gain(c[0], c[1], sc.CandR, &gs), sc.GainLow[i], sc.GainHigh[i])
 			}
 			pts := make([]orb.Point, len(sc.Points))
 			for i, p := range sc.Points {

@@ -17,6 +17,11 @@ and every area with the circumscribed ones a lower bound.
     bracket: t_circumscribed <= t* <= t_inscribed, each to within
     T_TOL m^2 (a configuration counts as covered when the uncovered area
     is below EMPTY_M2).
+  * candidates: the covered area a device of range CAND_R at each of a
+    few random spots would add, area((A & disk(c)) - union of disks),
+    bracketed by the inscribed spot disk minus the circumscribed union
+    (a lower bound) and the circumscribed spot disk minus the inscribed
+    union (an upper bound).
   * assign: random demand points, each with whether the inscribed and the
     circumscribed union of disks holds it (inscribed => covered => within
     reach of its device; not circumscribed => beyond every device's reach).
@@ -47,6 +52,7 @@ CIRC = 1 / math.cos(math.pi / N_SEG)
 T_TOL = 1e-3
 EMPTY_M2 = 1e-9
 MIX = [12.0, 20.0, 35.0]
+CAND_R = 25.0
 
 
 def disks(sites, radii, scale):
@@ -101,6 +107,12 @@ def scene(name, ext, holes, sites, ranges, rng):
     minx, miny, maxx, maxy = poly.bounds
     pts = np.column_stack([rng.uniform(minx - 10, maxx + 10, 400), rng.uniform(miny - 10, maxy + 10, 400)])
     ins, circ = disks(sites, ranges, 1.0), disks(sites, ranges, CIRC)
+    cands = np.column_stack([rng.uniform(minx, maxx, 12), rng.uniform(miny, maxy, 12)])
+    out["candidate_range"] = CAND_R
+    out["candidates"] = cands.tolist()
+    out["gain_low"] = [poly.intersection(Point(c).buffer(CAND_R, resolution=RES)).difference(circ).area for c in cands]
+    out["gain_high"] = [poly.intersection(Point(c).buffer(CAND_R * CIRC, resolution=RES)).difference(ins).area
+                        for c in cands]
     out["points"] = pts.tolist()
     out["covered_inscribed"] = [bool(ins.covers(Point(p))) for p in pts]
     out["covered_circumscribed"] = [bool(circ.covers(Point(p))) for p in pts]
