@@ -87,38 +87,62 @@ func Assign(l *Layout, points []orb.Point, weights []float64, r float64) (*Assig
 	if math.IsNaN(r) || math.IsInf(r, 0) || r < 0 {
 		return nil, fmt.Errorf("%s: range %v must be a finite number ≥ 0", where, r)
 	}
-	xy := make([]float64, 2*len(points))
-	for i, p := range points {
-		if err := planCheckPoint(p); err != nil {
-			return nil, fmt.Errorf("%s: point %d: %w", where, i, err)
-		}
-		xy[2*i], xy[2*i+1] = p[0], p[1]
-	}
-	w, err := planAssignWeights(where, len(points), weights)
+	xy, w, err := planAssignInputs(where, points, weights)
 	if err != nil {
 		return nil, err
 	}
 	t := l.Tri
 	near := planNearestSorted(t, xy)
-	a := &Assignment{
-		Range:    r,
-		Device:   make([]int, len(points)),
-		Distance: make([]float64, len(points)),
-		Within:   make([]bool, len(points)),
+	a := newAssignment(l, w)
+	a.Range = r
+	a.fill(t, near, xy, r, nil)
+	return a, nil
+}
+
+// planAssignInputs checks the demand points and weights of an assignment
+// and returns the points interleaved and each point's weight.
+func planAssignInputs(where string, points []orb.Point, weights []float64) ([]float64, []float64, error) {
+	xy := make([]float64, 2*len(points))
+	for i, p := range points {
+		if err := planCheckPoint(p); err != nil {
+			return nil, nil, fmt.Errorf("%s: point %d: %w", where, i, err)
+		}
+		xy[2*i], xy[2*i+1] = p[0], p[1]
+	}
+	w, err := planAssignWeights(where, len(points), weights)
+	return xy, w, err
+}
+
+// newAssignment returns an empty assignment of len(w) points with weights
+// w to the devices of l.
+func newAssignment(l *Layout, w []float64) *Assignment {
+	return &Assignment{
+		Device:   make([]int, len(w)),
+		Distance: make([]float64, len(w)),
+		Within:   make([]bool, len(w)),
 		Weight:   w,
 		Load:     make([]DeviceLoad, len(l.Sites)),
 	}
-	planParallel(len(points), func(lo, hi int) {
+}
+
+// fill sets each point's device (the source of vertex near[i]), distance
+// and whether it is within reach: within ranges[v] of vertex v, or r when
+// ranges is nil; then tallies the loads.
+func (a *Assignment) fill(t *planar.Triangulation, near []int32, xy []float64, r float64, ranges []float64) {
+	planParallel(len(near), func(lo, hi int) {
 		for i := lo; i < hi; i++ {
 			v := near[i]
 			a.Device[i] = int(t.Source[v])
 			d := math.Hypot(xy[2*i]-t.Coords[2*v], xy[2*i+1]-t.Coords[2*v+1])
 			a.Distance[i] = d
-			a.Within[i] = d <= r
+			reach := r
+			if ranges != nil {
+				reach = ranges[v]
+			}
+			a.Within[i] = d <= reach
 		}
 	})
 	a.tally()
-	return a, nil
 }
 
 // planAssignWeights returns the weight of each of n points: 1 when
@@ -256,14 +280,21 @@ func RepresentativePoint(p orb.Polygon) (orb.Point, error) {
 // answer, a device next to the query (O(1) steps each instead of O(√n)
 // from a distant hint). The answers do not depend on the order.
 func planNearestSorted(t *planar.Triangulation, xy []float64) []int32 {
+	return planSortedQueries(t.NumVertices(), xy, t.NearestMany)
+}
+
+// planSortedQueries feeds the queries xy to answer (which fills one vertex
+// per query) in the serpentine bucket order of planNearestSorted, for a
+// triangulation of nv vertices, and returns the answers in query order.
+func planSortedQueries(nv int, xy []float64, answer func(xy []float64, out []int32)) []int32 {
 	nq := len(xy) / 2
 	out := make([]int32, nq)
 	if nq < 4096 {
-		t.NearestMany(xy, out)
+		answer(xy, out)
 		return out
 	}
 	minX, minY, maxX, maxY := planar.BoundsXY(xy, nil)
-	g := planar.NewBucketGrid(planar.GridOfCells(minX, minY, maxX, maxY, min(nq, t.NumVertices())), xy, nil)
+	g := planar.NewBucketGrid(planar.GridOfCells(minX, minY, maxX, maxY, min(nq, nv)), xy, nil)
 	perm := make([]int32, 0, nq)
 	for j := 0; j < g.NY; j++ {
 		for i := 0; i < g.NX; i++ {
@@ -279,7 +310,7 @@ func planNearestSorted(t *planar.Triangulation, xy []float64) []int32 {
 		sorted[2*j], sorted[2*j+1] = xy[2*i], xy[2*i+1]
 	}
 	res := g.Items // reuse
-	t.NearestMany(sorted, res)
+	answer(sorted, res)
 	for j, i := range perm {
 		out[i] = res[j]
 	}

@@ -11,7 +11,9 @@
 // reaches q; a planner asks which device the point talks to, and a device
 // in reach that is nearer is the usual answer. Hidden devices (coverage
 // redundant) still serve: their disks are covered by others, but a point
-// nearest to them is theirs.
+// nearest to them is theirs. AssignPowerCells (plan_assign_power.go)
+// applies the power-cell rule instead, whose loads add up to the service
+// areas; both mark the same points within reach (those some disk holds).
 //
 // Method. Devices are bucketed in a square grid of side s = max r_i
 // (sorted cell keys with offsets, no map): every device reaching q lies

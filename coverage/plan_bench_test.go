@@ -120,3 +120,37 @@ func BenchmarkChooseCandidates(b *testing.B) {
 		})
 	}
 }
+
+// BenchmarkFailuresRanges: FailuresRanges on the mixed 40/60/120/150 m
+// layouts of the ranges benchmarks (mixedLayout, one device per
+// 100 m × 100 m, many hidden sensors inside gateways' disks).
+func BenchmarkFailuresRanges(b *testing.B) {
+	for _, n := range []int{10_000, 100_000} {
+		l, _, _ := mixedLayout(b, n, 3)
+		b.Run(fmt.Sprintf("mixed-%d", n), func(b *testing.B) {
+			for b.Loop() {
+				if _, err := FailuresRanges(l); err != nil {
+					b.Fatal(err)
+				}
+			}
+		})
+	}
+}
+
+// BenchmarkAssignPowerCells: a million demand points on the mixed layout
+// of 100 000 devices.
+func BenchmarkAssignPowerCells(b *testing.B) {
+	l, _, _ := mixedLayout(b, 100_000, 3)
+	rng := rand.New(rand.NewPCG(1, 2))
+	side := 100 * math.Sqrt(100_000)
+	pts := make([]orb.Point, 1_000_000)
+	for i := range pts {
+		pts[i] = orb.Point{rng.Float64() * side, rng.Float64() * side}
+	}
+	b.ResetTimer()
+	for b.Loop() {
+		if _, err := AssignPowerCells(l, pts, nil); err != nil {
+			b.Fatal(err)
+		}
+	}
+}

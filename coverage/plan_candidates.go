@@ -73,6 +73,12 @@ type Choice struct {
 	Remaining []Gap
 	// Evaluations counts marginal-area evaluations (lazy greedy statistic).
 	Evaluations int
+	// NewRange is, with per-device ranges (ChooseCandidatesRanges), the
+	// range of a device at a picked spot; Range is then 0, the covered
+	// figures refer to each device's own range, and FullCoverBefore and
+	// FullCoverAfter are the range a picked device would need when every
+	// r² grows alike until no gap is left (NewRange when none is left).
+	NewRange float64
 }
 
 // ChooseCandidates picks k of the candidate spots to add to the layout,
@@ -119,42 +125,10 @@ func ChooseCandidates(l *Layout, candidates []orb.Point, r float64, k int) (*Cho
 	for i, g := range planGains(o, xy) {
 		h[i] = planItem{gain: g, idx: int32(i)}
 	}
-	ch.Evaluations = len(candidates)
-	heap.Init(&h)
 	var sc planScratch
-	picked := make([]bool, len(candidates))
-	for h.Len() > 0 {
-		if k > 0 && len(ch.Picked) >= k {
-			break
-		}
-		if k <= 0 && o.fullCover() <= target {
-			break
-		}
-		top := &h[0]
-		if top.gain <= eps {
-			ch.Exhausted = true
-			break
-		}
-		if int(top.stamp) != len(ch.Picked) {
-			top.gain = o.gain(candidates[top.idx][0], candidates[top.idx][1], &sc)
-			top.stamp = int32(len(ch.Picked))
-			ch.Evaluations++
-			heap.Fix(&h, 0)
-			continue
-		}
-		it := heap.Pop(&h).(planItem)
-		if picked[it.idx] {
-			continue
-		}
-		picked[it.idx] = true
-		ch.Picked = append(ch.Picked, int(it.idx))
-		ch.Gains = append(ch.Gains, it.gain)
-		p := candidates[it.idx]
-		o.add(p[0], p[1])
-	}
-	if h.Len() == 0 && (k > 0 && len(ch.Picked) < k || k <= 0 && o.fullCover() > target) {
-		ch.Exhausted = true
-	}
+	planLazyGreedy(ch, h, k, eps, func() bool { return o.fullCover() <= target },
+		func(i int32) float64 { return o.gain(candidates[i][0], candidates[i][1], &sc) },
+		func(i int32) error { o.add(candidates[i][0], candidates[i][1]); return nil })
 	ch.UncoveredAfter = o.uncovered()
 	ch.CoveredAfter = math.Max(0, area-ch.UncoveredAfter)
 	ch.FractionAfter = planFrac(ch.CoveredAfter, area)
@@ -169,6 +143,44 @@ func ChooseCandidates(l *Layout, candidates []orb.Point, r float64, k int) (*Cho
 		ch.Remaining = l2.Gaps(r, DefaultChordTolerance)
 	}
 	return ch, nil
+}
+
+// planLazyGreedy runs the lazy greedy choice of the file comment on the
+// candidates of heap h (their first gains computed): picks until k are
+// made (k > 0) or covered reports no gap left (k ≤ 0), gain re-evaluating
+// a stale top and pick adding a candidate to the layout. It fills
+// ch.Picked, Gains, Evaluations and Exhausted.
+func planLazyGreedy(ch *Choice, h planHeap, k int, eps float64, covered func() bool,
+	gain func(idx int32) float64, pick func(idx int32) error) error {
+	ch.Evaluations = len(h)
+	heap.Init(&h)
+	for h.Len() > 0 {
+		if k > 0 && len(ch.Picked) >= k || k <= 0 && covered() {
+			break
+		}
+		top := &h[0]
+		if top.gain <= eps {
+			ch.Exhausted = true
+			break
+		}
+		if int(top.stamp) != len(ch.Picked) {
+			top.gain = gain(top.idx)
+			top.stamp = int32(len(ch.Picked))
+			ch.Evaluations++
+			heap.Fix(&h, 0)
+			continue
+		}
+		it := heap.Pop(&h).(planItem)
+		ch.Picked = append(ch.Picked, int(it.idx))
+		ch.Gains = append(ch.Gains, it.gain)
+		if err := pick(it.idx); err != nil {
+			return err
+		}
+	}
+	if h.Len() == 0 && (k > 0 && len(ch.Picked) < k || k <= 0 && !covered()) {
+		ch.Exhausted = true
+	}
+	return nil
 }
 
 // planGainNoise is the gain, relative to the disk area πr², below which an

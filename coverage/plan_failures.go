@@ -86,8 +86,26 @@ type DeviceFailure struct {
 	// Backup is the input index of the remaining device nearest Deepest,
 	// the one that takes over the deepest point; -1 when none remains.
 	Backup int
-	// FullCover is the full-cover range of the layout without this device.
+	// FullCover is the full-cover range of the layout without this device
+	// (NaN with per-device ranges: see FullCoverPower).
 	FullCover float64
+	// Hidden is true, with per-device ranges (FailuresRanges), for a
+	// device whose power cell is empty: the others cover its whole disk,
+	// so its failure costs nothing.
+	Hidden bool
+	// ClosingPower is, with per-device ranges, the uniform power growth t
+	// (m², every range becoming √(r_i² + t)) at which the remaining
+	// devices cover everything this one served: the largest power of a
+	// point of its service area with respect to its new serving device.
+	// ClosingRange is then the distance from Deepest to Backup, the range
+	// the backup alone needs to reach the deepest point. −Inf when the
+	// device serves no part of the area (hidden, or an empty clipped
+	// cell), +Inf when no device remains; 0 for one common range.
+	ClosingPower float64
+	// FullCoverPower is, with per-device ranges, the uniform power growth
+	// that covers the whole area without this device (+Inf when none
+	// remains); 0 for one common range.
+	FullCoverPower float64
 }
 
 // FailureReport ranks the devices by the coverage lost when each is out of
@@ -111,6 +129,24 @@ type FailureReport struct {
 	// SurviveSite is the input index of the device whose failure needs
 	// SurviveRange (-1 when the layout has no device).
 	SurviveSite int
+
+	// Ranges holds each device's planned range by input index with
+	// per-device ranges (FailuresRanges; Range is then 0 and SurviveRange
+	// the distance from SurvivePoint to its backup); nil for one common
+	// range.
+	Ranges []float64
+	// SurvivePower is, with per-device ranges, the smallest uniform power
+	// growth t (m²) at which the area stays fully covered whichever single
+	// device fails: the largest ClosingPower (≤ 0 when the planned ranges
+	// already survive any single failure; +Inf with a single device).
+	SurvivePower float64
+	// SurviveRanges holds, with per-device ranges, the range each device
+	// needs for that: √(r_i² + SurvivePower) by input index, the planned
+	// range when SurvivePower ≤ 0 (no growth needed).
+	SurviveRanges []float64
+	// FullCoverPower is, with per-device ranges, the uniform power growth
+	// that covers the whole area with every device working.
+	FullCoverPower float64
 }
 
 // planFailVertex holds per-vertex failure results.
@@ -159,18 +195,13 @@ func Failures(l *Layout, r float64) (*FailureReport, error) {
 	})
 	// Intact totals; top two cell radii for the full cover without v.
 	unc := 0.0
-	top1, top2 := int32(-1), int32(-1)
 	for v := range res {
 		unc += res[v].baseUnc
-		if top1 < 0 || res[v].rho > res[top1].rho {
-			top1, top2 = int32(v), top1
-		} else if top2 < 0 || res[v].rho > res[top2].rho {
-			top2 = int32(v)
-		}
 	}
+	top := planTopTwo(len(res), func(v int) float64 { return res[v].rho })
 	unc = math.Max(0, unc)
 	rep.Uncovered = unc
-	rep.FullCover = res[top1].rho
+	rep.FullCover = res[top.top1].rho
 	// Smallest other input index at each shared vertex.
 	twin := make(map[int32][2]int)
 	for i, v := range t.Vertex {
@@ -214,10 +245,8 @@ func Failures(l *Layout, r float64) (*FailureReport, error) {
 				d.Backup = int(t.Source[f.backup])
 			}
 			others := 0.0
-			if top1 != v {
-				others = res[top1].rho
-			} else if top2 >= 0 {
-				others = res[top2].rho
+			if o := top.other(v); o >= 0 {
+				others = res[o].rho
 			}
 			d.FullCover = math.Max(f.closing, others)
 		}
@@ -237,6 +266,32 @@ func Failures(l *Layout, r float64) (*FailureReport, error) {
 	})
 	rep.Devices = devs
 	return rep, nil
+}
+
+// planTop2 holds the indices of the largest and second-largest of a list
+// of values (the first index on ties; −1 where there is none).
+type planTop2 struct{ top1, top2 int32 }
+
+// planTopTwo returns the two largest of n values.
+func planTopTwo(n int, val func(i int) float64) planTop2 {
+	t := planTop2{-1, -1}
+	for i := 0; i < n; i++ {
+		switch x := val(i); {
+		case t.top1 < 0 || x > val(int(t.top1)):
+			t.top1, t.top2 = int32(i), t.top1
+		case t.top2 < 0 || x > val(int(t.top2)):
+			t.top2 = int32(i)
+		}
+	}
+	return t
+}
+
+// other returns the index of the largest value other than v's (−1: none).
+func (t planTop2) other(v int32) int32 {
+	if t.top1 != v {
+		return t.top1
+	}
+	return t.top2
 }
 
 // planFailScratch is per-goroutine scratch space of Failures.

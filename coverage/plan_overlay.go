@@ -859,10 +859,14 @@ func (o *planOverlay) devRho(id int32) float64 { return o.cells[o.dev[id]].rho }
 // boundary, nudged inward until the exact point-in-area test accepts it.
 // ok is false when no such point is found.
 func (o *planOverlay) inside(x, y float64) (px, py float64, ok bool) {
-	if o.ix.Contains(x, y) {
+	return planInside(o.ix, o.l.Area, x, y)
+}
+
+// planInside is planOverlay.inside for the area a with index ix.
+func planInside(ix *planar.RegionIndex, a *planar.Region, x, y float64) (px, py float64, ok bool) {
+	if ix.Contains(x, y) {
 		return x, y, true
 	}
-	a := o.l.Area
 	best := math.Inf(1)
 	var bx, by, ex, ey float64
 	for k := 0; k < a.NumRings(); k++ {
@@ -899,7 +903,7 @@ func (o *planOverlay) inside(x, y float64) (px, py float64, ok bool) {
 			qx, qy = bx+step*nx, by+step*ny
 			step *= 2
 		}
-		if o.ix.Contains(qx, qy) {
+		if ix.Contains(qx, qy) {
 			return qx, qy, true
 		}
 	}

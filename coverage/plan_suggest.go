@@ -80,6 +80,11 @@ type Step struct {
 	Added orb.Point
 	// FullCoverBefore and FullCoverAfter are the full-cover ranges (m).
 	FullCoverBefore, FullCoverAfter float64
+	// FullCoverPowerBefore and FullCoverPowerAfter are, with per-device
+	// ranges (SuggestAdditionsRanges), the uniform growth of every r² that
+	// leaves no gap (m²); FullCoverBefore and FullCoverAfter are then the
+	// range an added device would need under it.
+	FullCoverPowerBefore, FullCoverPowerAfter float64
 	// CoveredBefore and CoveredAfter are the covered fractions (0..1) of
 	// the area at the planned range.
 	CoveredBefore, CoveredAfter float64
@@ -103,6 +108,15 @@ type Suggestion struct {
 	// FullCoverBefore and FullCoverAfter are the full-cover ranges of the
 	// layout alone and with every addition.
 	FullCoverBefore, FullCoverAfter float64
+	// NewRange is, with per-device ranges (SuggestAdditionsRanges,
+	// FewestAdditionsRanges), the range of every added device; Range is
+	// then 0, the covered figures refer to each device's own range, and
+	// FullCoverBefore and FullCoverAfter are the range an added device
+	// would need when every r² grows by FullCoverPowerBefore and
+	// FullCoverPowerAfter, the growth that leaves no gap (NewRange when
+	// none is needed).
+	NewRange                                  float64
+	FullCoverPowerBefore, FullCoverPowerAfter float64
 	// CoveredBefore and CoveredAfter are covered fractions (0..1).
 	CoveredBefore, CoveredAfter float64
 	// UncoveredBefore and UncoveredAfter are uncovered areas (m²).

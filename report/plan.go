@@ -62,8 +62,19 @@ type Plan struct {
 	// additions").
 	RangeGiven bool
 	RangeNote  string
-	// FullCover is the existing layout's full-cover range.
+	// FullCover is the existing layout's full-cover range (one common
+	// range).
 	FullCover coverage.FullCover
+	// NewRange is the range of the added devices or picked spots with
+	// per-device ranges (MoveAdd, MoveFewest, MoveCandidates), NewType
+	// their type when it was given by type ("" otherwise).
+	NewRange float64
+	NewType  string
+	// FullCoverRanges is the existing layout's full-cover figure when the
+	// devices have their own ranges (Layout from coverage.NewLayoutRanges:
+	// Range is then 0, the covered figures refer to each device's own
+	// range and FullCover is unused); nil for one common range.
+	FullCoverRanges *coverage.RangesFullCover
 	// Uncovered is the existing layout's uncovered area at Range (m²).
 	Uncovered float64
 	// GapsBefore are the existing layout's gaps at Range (MoveAdd,
@@ -101,6 +112,10 @@ type Plan struct {
 	DemandPolygons []orb.MultiPolygon
 	Weighted       bool
 }
+
+// own reports whether the devices have their own ranges (the layout holds
+// them: coverage.NewLayoutRanges).
+func (p *Plan) own() bool { return p.Layout.InputRanges != nil }
 
 // Output files of the planning moves (GeoJSON names take "-xy" with
 // Meta.Planar, see LayerFile).
@@ -156,6 +171,9 @@ type planScene struct {
 }
 
 func newPlanScene(p *Plan, m Meta) *planScene {
+	if p.own() && m.Ranges == nil {
+		m.Ranges = p.Layout.InputRanges // each device's range, wherever devices are listed
+	}
 	s := &planScene{scene: newScene(p.Layout, nil, m), p: p}
 	return s
 }
@@ -172,7 +190,7 @@ func (p *Plan) check() error {
 	case MoveCandidates:
 		ok = p.Choice != nil && len(p.CandidateNames) == len(p.Candidates)
 	case MoveFailures:
-		ok = p.Failures != nil
+		ok = p.Failures != nil && (p.Failures.Ranges != nil) == p.own()
 	case MoveAssign:
 		ok = p.Assignment != nil && len(p.Demand) == len(p.Assignment.Device)
 	default:
@@ -180,6 +198,9 @@ func (p *Plan) check() error {
 	}
 	if !ok {
 		return fmt.Errorf("report: plan %q lacks its result", p.Move)
+	}
+	if p.own() && p.FullCoverRanges == nil {
+		return fmt.Errorf("report: plan %q with per-device ranges lacks FullCoverRanges", p.Move)
 	}
 	return nil
 }

@@ -24,9 +24,14 @@ import (
 	"github.com/sitecover/sitecover/report/gpkg"
 )
 
-// planGapLayer is a gaps layer for the given gaps at the plan's range.
+// planGapLayer is a gaps layer for the given gaps at the plan's range
+// (range_m null with per-device ranges).
 func (s *planScene) planGapLayer(gaps []coverage.Gap) *layerDef {
-	return s.gapLayer(gaps, s.p.Range, func(i int) Point { return s.point(gaps[i].Deepest) })
+	r := s.p.Range
+	if s.p.own() {
+		r = math.NaN() // each device's own range: range_m null
+	}
+	return s.gapLayer(gaps, r, func(i int) Point { return s.point(gaps[i].Deepest) })
 }
 
 // proposedLayer is each added device, in the order added.
@@ -78,19 +83,37 @@ func (s *planScene) failuresLayer() *layerDef {
 	f := append([]any{"rank", gpkg.Integer, "site", gpkg.Integer, "name", gpkg.Text, "shared", gpkg.Boolean,
 		"service_area_m2", gpkg.Real, "added_uncovered_m2", gpkg.Real, "uncovered_area_m2", gpkg.Real,
 		"closing_range_m", gpkg.Real}, s.coordFields("deepest")...)
+	f = append(f, "backup", gpkg.Integer, "full_cover_range_m", gpkg.Real, "range_m", gpkg.Real)
+	own := fr.Ranges != nil
+	if own {
+		f = append(f, "hidden", gpkg.Boolean)
+	}
 	return &layerDef{geom: gpkg.Point,
-		fields: fieldList(append(f, "backup", gpkg.Integer, "full_cover_range_m", gpkg.Real, "range_m", gpkg.Real)...),
+		fields: fieldList(f...),
 		each: func(emit emitFunc) error {
 			for k, d := range fr.Devices {
 				dp := s.point(d.Deepest)
-				if err := emit(orb.Point(s.point(s.l.Sites[d.Site])), k+1, d.Site, s.name(d.Site), d.Shared,
+				vals := []any{k + 1, d.Site, s.name(d.Site), d.Shared,
 					d.ServiceArea, d.AddedUncovered, d.Uncovered, d.ClosingRange, dp[0], dp[1],
-					d.Backup, d.FullCover, fr.Range); err != nil {
+					d.Backup, d.FullCover, s.failureRange(d.Site)}
+				if own {
+					vals = append(vals, d.Hidden)
+				}
+				if err := emit(orb.Point(s.point(s.l.Sites[d.Site])), vals...); err != nil {
 					return err
 				}
 			}
 			return nil
 		}}
+}
+
+// failureRange is the planned range of device i in the failures outputs:
+// its own with per-device ranges, else the common one.
+func (s *planScene) failureRange(i int) float64 {
+	if s.p.Failures.Ranges != nil {
+		return s.p.Failures.Ranges[i]
+	}
+	return s.p.Failures.Range
 }
 
 // assignmentLayer is a line from each demand point to its device.
@@ -119,17 +142,25 @@ func (s *planScene) assignmentLayer() *layerDef {
 // loadLayer is each device with the demand assigned to it.
 func (s *planScene) loadLayer() *layerDef {
 	a := s.p.Assignment
-	ranged := s.hasRange()
+	ranged, own := s.hasRange(), s.p.own()
+	f := []any{"device", gpkg.Integer, "name", gpkg.Text, "count", gpkg.Integer, "weight", gpkg.Real,
+		"in_range", gpkg.Integer, "in_range_weight", gpkg.Real}
+	if own {
+		f = append(f, "range_m", gpkg.Real, "hidden", gpkg.Boolean)
+	}
 	return &layerDef{geom: gpkg.Point,
-		fields: fieldList("device", gpkg.Integer, "name", gpkg.Text, "count", gpkg.Integer, "weight", gpkg.Real,
-			"in_range", gpkg.Integer, "in_range_weight", gpkg.Real),
+		fields: fieldList(f...),
 		each: func(emit emitFunc) error {
 			for i, ld := range a.Load {
 				var in, inw any
 				if ranged {
 					in, inw = ld.InRange, ld.InRangeWeight
 				}
-				if err := emit(orb.Point(s.point(s.l.Sites[i])), i, s.name(i), ld.Count, ld.Weight, in, inw); err != nil {
+				vals := []any{i, s.name(i), ld.Count, ld.Weight, in, inw}
+				if own {
+					vals = append(vals, s.rangeOf(i), s.hidden(i))
+				}
+				if err := emit(orb.Point(s.point(s.l.Sites[i])), vals...); err != nil {
 					return err
 				}
 			}
@@ -181,15 +212,23 @@ func (s *planScene) failuresCSV(out io.Writer) error {
 	fr := s.p.Failures
 	head := append([]string{"rank", "site", "name", "shared", "service_area_m2", "uncovered_area_m2", "added_uncovered_m2",
 		"closing_range_m", "backup", "backup_name", "full_cover_range_m", "range_m"}, s.coordHeads("deepest_")...)
+	own := fr.Ranges != nil
+	if own {
+		head = append(head, "hidden")
+	}
 	t := newCSV(out, head...)
 	for k, d := range fr.Devices {
 		backup := ""
 		if d.Backup >= 0 {
 			backup = strconv.Itoa(d.Backup)
 		}
-		t.row(append([]string{strconv.Itoa(k + 1), strconv.Itoa(d.Site), s.name(d.Site), strconv.FormatBool(d.Shared),
+		row := append([]string{strconv.Itoa(k + 1), strconv.Itoa(d.Site), s.name(d.Site), strconv.FormatBool(d.Shared),
 			csvNum(d.ServiceArea), csvNum(d.Uncovered), csvNum(d.AddedUncovered), csvNum(d.ClosingRange),
-			backup, s.name(d.Backup), csvNum(d.FullCover), csvNum(fr.Range)}, s.coordCells(d.Deepest)...)...)
+			backup, s.name(d.Backup), csvNum(d.FullCover), csvNum(s.failureRange(d.Site))}, s.coordCells(d.Deepest)...)
+		if own {
+			row = append(row, strconv.FormatBool(d.Hidden))
+		}
+		t.row(row...)
 	}
 	return t.close()
 }
@@ -212,13 +251,22 @@ func (s *planScene) assignmentCSV(out io.Writer) error {
 func (s *planScene) loadCSV(out io.Writer) error {
 	a := s.p.Assignment
 	ranged := s.hasRange()
-	t := newCSV(out, append([]string{"device", "device_name", "count", "weight", "in_range", "in_range_weight"}, s.coordHeads("")...)...)
+	head := append([]string{"device", "device_name", "count", "weight", "in_range", "in_range_weight"}, s.coordHeads("")...)
+	own := s.p.own()
+	if own {
+		head = append(head, "range_m", "hidden")
+	}
+	t := newCSV(out, head...)
 	for i, ld := range a.Load {
 		in, inw := "", ""
 		if ranged {
 			in, inw = strconv.Itoa(ld.InRange), csvNum(ld.InRangeWeight)
 		}
-		t.row(append([]string{strconv.Itoa(i), s.name(i), strconv.Itoa(ld.Count), csvNum(ld.Weight), in, inw}, s.coordCells(s.l.Sites[i])...)...)
+		row := append([]string{strconv.Itoa(i), s.name(i), strconv.Itoa(ld.Count), csvNum(ld.Weight), in, inw}, s.coordCells(s.l.Sites[i])...)
+		if own {
+			row = append(row, csvNum(s.rangeOf(i)), strconv.FormatBool(s.hidden(i)))
+		}
+		t.row(row...)
 	}
 	return t.close()
 }

@@ -22,6 +22,7 @@ package report
 
 import (
 	"fmt"
+	"image"
 	"image/color"
 	"math"
 	"slices"
@@ -72,16 +73,24 @@ func (s *planScene) suggestionMap(width int) ([]byte, error) {
 	for j := range sg.Added {
 		ba.labels = append(ba.labels, fmt.Sprintf("+%d", j+1))
 	}
+	at := metresShort(p.Range)
+	if p.own() {
+		at = metresShort(p.NewRange) + " (own ranges for the others)"
+	}
 	if p.Move == MoveAdd {
-		ba.title = fmt.Sprintf("%d suggested devices at %s", len(sg.Added), metresShort(p.Range))
+		ba.title = fmt.Sprintf("%d suggested devices at %s", len(sg.Added), at)
 	} else {
 		if sg.Reached {
-			ba.title = fmt.Sprintf("%s close every gap at %s", Plural(len(sg.Added), "addition"), metresShort(p.Range))
+			ba.title = fmt.Sprintf("%s close every gap at %s", Plural(len(sg.Added), "addition"), at)
 		} else {
-			ba.title = fmt.Sprintf("%s at %s, gaps remain", Plural(len(sg.Added), "addition"), metresShort(p.Range))
+			ba.title = fmt.Sprintf("%s at %s, gaps remain", Plural(len(sg.Added), "addition"), at)
 		}
 	}
-	ba.sub = fmt.Sprintf("Full cover %s -> %s; covered %s %% -> %s %%; uncovered %.0f m² -> %.0f m²",
+	full := "Full cover"
+	if p.own() {
+		full = "New device needs (r² grown alike)"
+	}
+	ba.sub = fmt.Sprintf(full+" %s -> %s; covered %s %% -> %s %%; uncovered %.0f m² -> %.0f m²",
 		metresShort(sg.FullCoverBefore), metresShort(sg.FullCoverAfter),
 		CoveredPercent(sg.CoveredBefore, sg.UncoveredBefore, 2), CoveredPercent(sg.CoveredAfter, sg.UncoveredAfter, 2),
 		sg.UncoveredBefore, sg.UncoveredAfter)
@@ -105,7 +114,11 @@ func (s *planScene) candidateMap(width int) ([]byte, error) {
 			ba.others = append(ba.others, c)
 		}
 	}
-	ba.title = fmt.Sprintf("%d of %d candidate spots picked at %s", len(ch.Picked), len(p.Candidates), metresShort(ch.Range))
+	at := metresShort(ch.Range)
+	if p.own() {
+		at = metresShort(p.NewRange) + " (own ranges for the others)"
+	}
+	ba.title = fmt.Sprintf("%d of %d candidate spots picked at %s", len(ch.Picked), len(p.Candidates), at)
 	ba.sub = fmt.Sprintf("Covered %s %% -> %s %%; uncovered %.0f m² -> %.0f m²",
 		CoveredPercent(ch.FractionBefore, ch.UncoveredBefore, 2), CoveredPercent(ch.FractionAfter, ch.UncoveredAfter, 2),
 		ch.UncoveredBefore, ch.UncoveredAfter)
@@ -121,8 +134,12 @@ func (s *planScene) candidateMap(width int) ([]byte, error) {
 // drawBeforeAfter draws a before/after map.
 func (s *planScene) drawBeforeAfter(width int, ba beforeAfter) (*canvas, error) {
 	r := s.p.Range
+	within := metresShort(r)
+	if s.p.own() {
+		r, within = s.p.NewRange, "each within its own range"
+	}
 	numbered := min(len(ba.after), maxNumbered)
-	items := []legendItem{{fmt.Sprintf("Covered by the existing devices (within %s)", metresShort(r)), swatchFill(colCovered, colDiskEdge)}}
+	items := []legendItem{{fmt.Sprintf("Covered by the existing devices (%s)", within), swatchFill(colCovered, colDiskEdge)}}
 	if gapArea(ba.before) > gapArea(ba.after) {
 		items = append(items, legendItem{ba.closed, swatchFill(colClosed, nil)})
 	}
@@ -151,13 +168,18 @@ func (s *planScene) drawBeforeAfter(width int, ba beforeAfter) (*canvas, error) 
 	s.fillGaps(c, ba.after, colGap)
 	rho := r * c.k
 	unit := unitCircle(circleSides(rho))
-	c.paint(s.diskMask(c, rho, unit), color.NRGBA(colCovered), areaMask)
-	if d.spacing >= 8*c.u && rho >= 3 {
-		s.diskOutlines(c, rho, unit, areaMask)
+	if s.p.own() {
+		c.paint(s.ownDiskMask(c), color.NRGBA(colCovered), areaMask)
+	} else {
+		c.paint(s.diskMask(c, rho, unit), color.NRGBA(colCovered), areaMask)
+		if d.spacing >= 8*c.u && rho >= 3 {
+			s.diskOutlines(c, rho, unit, areaMask)
+		}
 	}
 	s.drawZones(c)
 	s.strokeArea(c)
 	s.drawSiteMarks(c, d)
+	s.drawHiddenMarks(c, d)
 	// New devices' reach, then the marks.
 	if len(ba.added) <= 10*maxMarked && rho >= 2 {
 		c.inFrame(func() {
@@ -385,22 +407,32 @@ func (s *planScene) drawFailureMap(width int) (*canvas, error) {
 		items = append(items, legendItem{fmt.Sprintf("Loss %s-%s m²", trimFloat(lo), trimFloat(ub[k])), swatchFill(cols[k], colCellEdge)})
 	}
 	items = append(items, legendItem{"Device; rank 1 to 10: the ten worst failures, largest loss first", swatchDot})
-	if fr.SurviveSite >= 0 && !math.IsInf(fr.SurviveRange, 0) {
+	if s.surviveMarked() {
 		items = append(items, legendItem{"Point fixing the range that survives any single failure", swatchWorst})
 	}
+	at := metresShort(fr.Range)
+	if fr.Ranges != nil {
+		at = "the planned ranges"
+	}
 	key := mapKey{items: items, notes: []string{
-		fmt.Sprintf("Service areas filled by the area left uncovered at %s when their device is out of service (the others working).", metresShort(fr.Range)),
+		fmt.Sprintf("Service areas filled by the area left uncovered at %s when their device is out of service (the others working).", at),
 		s.northNote(),
 	}}
 	c, d, err := s.layoutMap(s.extent(), width, &key, "single service areas")
 	if err != nil {
 		return nil, err
 	}
-	title := s.titled("Device failures at " + metresShort(fr.Range))
+	title := s.titled("Device failures at " + at)
 	sub := "Whichever single device fails, the others cover everything from "
-	if math.IsInf(fr.SurviveRange, 0) {
+	switch {
+	case fr.Ranges != nil && math.IsInf(fr.SurvivePower, 1), fr.Ranges == nil && math.IsInf(fr.SurviveRange, 0):
 		sub = "A single device: nothing remains when it fails"
-	} else {
+	case fr.Ranges != nil && fr.SurvivePower <= 0:
+		sub = fmt.Sprintf("No single failure opens a gap at the planned ranges; worst loss %.0f m²", maxLoss)
+	case fr.Ranges != nil:
+		sub = "Any single failure is survived at " + GroupsText(s.rangeGroups(nil), s.rangeGroups(func(i int) float64 { return fr.SurviveRanges[i] })) +
+			fmt.Sprintf(" (r² grown alike; diamond: where); worst loss %.0f m²", maxLoss)
+	default:
 		sub += metresShort(fr.SurviveRange) + fmt.Sprintf(" (diamond); worst loss %.0f m²", maxLoss)
 	}
 	c.title(title, sub)
@@ -424,25 +456,41 @@ func (s *planScene) drawFailureMap(width int) (*canvas, error) {
 	s.drawSiteMarks(c, d)
 	var pts []orb.Point
 	var texts []string
+	s.drawHiddenMarks(c, d)
 	for k := 0; k < min(10, len(fr.Devices)); k++ {
-		if fr.Devices[k].Shared {
+		if fr.Devices[k].Shared || fr.Devices[k].Hidden {
 			continue
 		}
 		pts = append(pts, s.l.Sites[fr.Devices[k].Site])
 		texts = append(texts, "rank "+strconv.Itoa(k+1))
 	}
-	if fr.SurviveSite >= 0 && !math.IsInf(fr.SurviveRange, 0) {
+	mark, needs := s.surviveMarked(), "needs "
+	if fr.Ranges != nil {
+		needs = "backup needs "
+	}
+	if mark {
 		x, y := c.px(fr.SurvivePoint)
 		c.worstMark(x, y)
 	}
 	if d.spacing >= 12*c.u {
 		s.placeLabels(c, pts, texts, 6*c.u, 18, true)
 	}
-	if fr.SurviveSite >= 0 && !math.IsInf(fr.SurviveRange, 0) {
-		s.placeLabels(c, []orb.Point{fr.SurvivePoint}, []string{"needs " + metresShort(fr.SurviveRange)}, 12*c.u, 17, true)
+	if mark {
+		s.placeLabels(c, []orb.Point{fr.SurvivePoint}, []string{needs + metresShort(fr.SurviveRange)}, 12*c.u, 17, true)
 	}
 	c.finish(key)
 	return c, nil
+}
+
+// surviveMarked reports whether the failure map marks the point that fixes
+// the single-failure figure: there is one, and with per-device ranges it
+// needs some growth.
+func (s *planScene) surviveMarked() bool {
+	fr := s.p.Failures
+	if fr.Ranges != nil {
+		return fr.SurviveSite >= 0 && fr.SurvivePower > 0 && !math.IsInf(fr.SurvivePower, 1)
+	}
+	return fr.SurviveSite >= 0 && !math.IsInf(fr.SurviveRange, 0)
 }
 
 func (s *planScene) failureMap(width int) ([]byte, error) {
@@ -465,7 +513,13 @@ func (s *planScene) drawAssignmentMap(width int) (*canvas, error) {
 	}
 	title := s.titled(fmt.Sprintf("Demand served (%s)", Plural(len(p.Demand), "item")))
 	sub := "Each item is served by its nearest device"
-	if ranged {
+	switch {
+	case p.own():
+		sub = fmt.Sprintf("%d of %s within their device's own range; %d beyond every device's reach", a.Served, Plural(len(p.Demand), "item"), a.Unserved)
+		if p.Weighted {
+			sub += fmt.Sprintf(" (weight %s within, %s beyond)", weightText(a.ServedWeight), weightText(a.UnservedWeight))
+		}
+	case ranged:
 		sub = fmt.Sprintf("%d of %s within %s of their nearest device; %d beyond", a.Served, Plural(len(p.Demand), "item"), metresShort(p.Range), a.Unserved)
 		if p.Weighted {
 			sub += fmt.Sprintf(" (weight %s within, %s beyond)", weightText(a.ServedWeight), weightText(a.UnservedWeight))
@@ -474,7 +528,10 @@ func (s *planScene) drawAssignmentMap(width int) (*canvas, error) {
 	c.title(title, sub)
 
 	areaMask := s.drawArea(c)
-	if ranged {
+	switch {
+	case p.own():
+		c.paint(s.ownDiskMask(c), color.NRGBA(colCovered), areaMask)
+	case ranged:
 		rho := p.Range * c.k
 		unit := unitCircle(circleSides(rho))
 		c.paint(s.diskMask(c, rho, unit), color.NRGBA(colCovered), areaMask)
@@ -518,6 +575,7 @@ func (s *planScene) drawAssignmentMap(width int) (*canvas, error) {
 	c.paint(in.mask(), color.NRGBA{0x1A, 0x1A, 0x1A, 0xB0}, nil)
 	c.paint(out.mask(), color.NRGBA(colBeyond), nil)
 	s.drawSiteMarks(c, d)
+	s.drawHiddenMarks(c, d)
 	s.drawDemandMarks(c, ranged)
 	// Label the devices that serve something, when few.
 	var pts []orb.Point
@@ -545,7 +603,10 @@ func (s *planScene) drawAssignmentMap(width int) (*canvas, error) {
 func (s *planScene) assignmentLegend(ranged bool) ([]legendItem, int) {
 	p, a := s.p, s.p.Assignment
 	var items []legendItem
-	if ranged {
+	switch {
+	case p.own():
+		items = append(items, legendItem{"Within a device's own range (each disk at its range)", swatchFill(colCovered, colDiskEdge)})
+	case ranged:
 		items = append(items, legendItem{fmt.Sprintf("Within %s of a device", metresShort(p.Range)), swatchFill(colCovered, colDiskEdge)})
 	}
 	items = append(items, legendItem{"Service-area edge", swatchLine(colCellEdge, 1.2)})
@@ -597,6 +658,32 @@ func (s *planScene) drawDemandMarks(c *canvas, ranged bool) {
 	}
 	c.paint(inM.mask(), color.NRGBA(colWithin), nil)
 	c.paint(outM.mask(), color.NRGBA(colBeyond), nil)
+}
+
+// ownDiskMask is the mask of every device's disk at its own range.
+func (s *planScene) ownDiskMask(c *canvas) *image.Alpha {
+	f := c.newFill()
+	for i, q := range s.l.Sites {
+		rho := s.rangeOf(i) * c.k
+		f.circle(c.ox+q[0]*c.k, c.oy-q[1]*c.k, rho, unitCircle(circleSides(rho)))
+	}
+	return f.mask()
+}
+
+// drawHiddenMarks marks the hidden devices (per-device ranges), which
+// have no vertex of the regular triangulation and so are left out by
+// drawSiteMarks: same dot, no halo.
+func (s *planScene) drawHiddenMarks(c *canvas, d density) {
+	if len(s.l.Hidden) == 0 {
+		return
+	}
+	rho := d.siteRadius(c.u)
+	marks := c.newFill()
+	for _, i := range s.l.Hidden {
+		q := s.l.Sites[i]
+		marks.circle(c.ox+q[0]*c.k, c.oy-q[1]*c.k, rho, unitCircle(circleSides(rho)))
+	}
+	c.paint(marks.mask(), color.NRGBA(colInk), nil)
 }
 
 func (s *planScene) assignmentMap(width int) ([]byte, error) {

@@ -16,6 +16,7 @@ package report
 
 import (
 	"math"
+	"slices"
 
 	"github.com/sitecover/sitecover/coverage"
 )
@@ -44,9 +45,21 @@ type PlanDoc struct {
 	RangeGiven bool     `json:"range_given"`
 	RangeNote  string   `json:"range_note,omitempty"`
 	// FullCoverRangeM and FullCoverWorstPoint describe the existing
-	// layout, as in the analysis.
-	FullCoverRangeM     float64 `json:"full_cover_range_m"`
-	FullCoverWorstPoint Point   `json:"full_cover_worst_point"`
+	// layout, as in the analysis (FullCoverRangeM null with per-device
+	// ranges: see FullCoverRanges).
+	FullCoverRangeM     *float64 `json:"full_cover_range_m"`
+	FullCoverWorstPoint Point    `json:"full_cover_worst_point"`
+	// With per-device ranges (omitted for one common range): RangeGroups
+	// are the devices by type and planned range (the covered figures
+	// refer to these ranges; range_m is null), FullCoverRanges the range
+	// each group needs to cover the whole area when every device's r²
+	// grows by the same amount (the planned range when it is covered
+	// already), and Hidden the devices whose disk the others cover
+	// entirely (redundant for coverage: they serve nothing and their
+	// failure costs nothing).
+	RangeGroups     []RangeGroup `json:"range_groups,omitempty"`
+	FullCoverRanges []RangeGroup `json:"full_cover_ranges,omitempty"`
+	Hidden          []int        `json:"hidden,omitempty"`
 	// CoveredFraction and UncoveredAreaM2 are the existing layout's
 	// figures at RangeM (null without a range).
 	CoveredFraction *float64 `json:"covered_fraction"`
@@ -76,8 +89,14 @@ type SuggestionsDoc struct {
 	Mode Move `json:"mode"`
 	// Requested is K for "add", 0 for "fewest".
 	Requested int `json:"requested"`
-	// RangeM is the range the covered figures refer to.
-	RangeM float64 `json:"range_m"`
+	// RangeM is the range the covered figures refer to (0 with per-device
+	// ranges: each device's own; NewRangeM and NewType are then the range
+	// and type of the added devices, and the full-cover figures the range
+	// an added device would need with every r² grown alike until no gap
+	// is left).
+	RangeM    float64 `json:"range_m"`
+	NewRangeM float64 `json:"new_range_m,omitempty"`
+	NewType   string  `json:"new_type,omitempty"`
 	// Existing is the number of existing devices; Added the new ones in
 	// the order they were placed, with the figures before and after each.
 	Existing int               `json:"existing"`
@@ -144,6 +163,9 @@ type CandidatesDoc struct {
 	// Requested is K (0: the fewest that cover everything).
 	Requested int     `json:"requested"`
 	RangeM    float64 `json:"range_m"`
+	// NewRangeM and NewType: as in SuggestionsDoc (per-device ranges).
+	NewRangeM float64 `json:"new_range_m,omitempty"`
+	NewType   string  `json:"new_type,omitempty"`
 	// Picked lists the chosen spots in the order picked.
 	Picked []PickedCandidate `json:"picked"`
 	// Area figures without and with the picks.
@@ -194,12 +216,18 @@ type FailureFields struct {
 	Failures      []DeviceFailureDoc `json:"failures"`
 	FailuresTotal int                `json:"failures_total"`
 	// SurviveAnySingleFailureM is the range at which the area stays fully
-	// covered whichever single device fails (null with one device);
-	// SurvivePoint is where it is needed and SurviveSite the device whose
-	// failure needs it.
+	// covered whichever single device fails (null with one device, and
+	// with per-device ranges); SurvivePoint is where it is needed and
+	// SurviveSite the device whose failure needs it.
 	SurviveAnySingleFailureM *float64 `json:"survive_any_single_failure_m"`
-	SurvivePoint             Point    `json:"survive_point"`
-	SurviveSite              int      `json:"survive_site"`
+	// SurviveAnySingleFailureRanges is, with per-device ranges, the range
+	// each group of devices (type, planned range) needs so that any single
+	// failure leaves no gap, all r² growing by the same amount (the
+	// planned range when no growth is needed; omitted for one common
+	// range, and with a single device: nothing remains when it fails).
+	SurviveAnySingleFailureRanges []RangeGroup `json:"survive_any_single_failure_ranges,omitempty"`
+	SurvivePoint                  Point        `json:"survive_point"`
+	SurviveSite                   int          `json:"survive_site"`
 }
 
 // DeviceFailureDoc is one device of the failures ranking.
@@ -224,8 +252,15 @@ type DeviceFailureDoc struct {
 	ClosingRangeM *float64 `json:"closing_range_m"`
 	Backup        int      `json:"backup"`
 	BackupName    string   `json:"backup_name"`
-	// FullCoverRangeM is the full-cover range without the device.
+	// FullCoverRangeM is the full-cover range without the device (null
+	// with per-device ranges).
 	FullCoverRangeM *float64 `json:"full_cover_range_m"`
+	// With per-device ranges: RangeM is the device's planned range, and
+	// Hidden tells that the others cover its whole disk (its failure
+	// costs nothing). ClosingRangeM is then the range the backup device
+	// needs to reach the deepest point.
+	RangeM *float64 `json:"range_m,omitempty"`
+	Hidden bool     `json:"hidden,omitempty"`
 }
 
 // AssignmentDoc is the assignment member of summary.json.
@@ -283,6 +318,10 @@ type DeviceLoadDoc struct {
 	Weight        float64  `json:"weight"`
 	InRange       *int     `json:"in_range"`
 	InRangeWeight *float64 `json:"in_range_weight"`
+	// With per-device ranges: RangeM is the device's planned range and
+	// Hidden tells that it serves nothing (the others cover its disk).
+	RangeM *float64 `json:"range_m,omitempty"`
+	Hidden bool     `json:"hidden,omitempty"`
 }
 
 // MaxListedAssignments is the largest number of demand items listed one
@@ -312,34 +351,71 @@ func (s *planScene) summaryGaps(gaps []coverage.Gap) []SummaryGap {
 	return out
 }
 
-// hasRange reports whether the plan's covered figures refer to a range.
-func (s *planScene) hasRange() bool { return s.p.Range > 0 }
+// hasRange reports whether the plan's covered figures refer to a range:
+// a common one, or each device's own.
+func (s *planScene) hasRange() bool { return s.p.Range > 0 || s.p.own() }
+
+// rangeGroups returns the devices grouped by type and planned range
+// (report/ranges.go), each group's range given by value (nil: planned).
+func (s *planScene) rangeGroups(value func(i int) float64) []RangeGroup {
+	return (&rangesScene{scene: s.scene}).groups(value)
+}
+
+// grownRange is device i's range from a list of ranges after uniform
+// power growth (coverage.RangesFullCover.Needed, FailureReport.
+// SurviveRanges), its planned range when no growth is needed.
+func (s *planScene) grownRange(grown []float64, none bool, i int) float64 {
+	if none || i >= len(grown) {
+		return s.rangeOf(i)
+	}
+	return grown[i]
+}
+
+// ownRange returns device i's planned range with per-device ranges, nil
+// for one common range.
+func (s *planScene) ownRange(i int) *float64 {
+	if !s.p.own() {
+		return nil
+	}
+	return ptr(s.rangeOf(i))
+}
 
 func (s *planScene) planSummary() *PlanDoc {
 	p := s.p
 	d := &PlanDoc{
-		Command:         s.m.Command,
-		Move:            p.Move,
-		Version:         s.m.Version,
-		RunInputs:       s.runInputs(),
-		Sites:           len(s.l.Sites),
-		Duplicates:      s.duplicates(),
-		AreaM2:          s.l.AreaM2,
-		AreaFromHull:    s.m.AreaFromHull,
-		RangeGiven:      p.RangeGiven,
-		RangeNote:       p.RangeNote,
-		FullCoverRangeM: p.FullCover.Range,
-		Projection:      s.projection(),
-		MaxScaleError:   s.m.MaxScaleError,
-		Coordinates:     s.coordKind(),
-		Warnings:        s.warnings(),
-		Timings:         s.timings(),
+		Command:       s.m.Command,
+		Move:          p.Move,
+		Version:       s.m.Version,
+		RunInputs:     s.runInputs(),
+		Sites:         len(s.l.Sites),
+		Duplicates:    s.duplicates(),
+		AreaM2:        s.l.AreaM2,
+		AreaFromHull:  s.m.AreaFromHull,
+		RangeGiven:    p.RangeGiven,
+		RangeNote:     p.RangeNote,
+		Projection:    s.projection(),
+		MaxScaleError: s.m.MaxScaleError,
+		Coordinates:   s.coordKind(),
+		Warnings:      s.warnings(),
+		Timings:       s.timings(),
 	}
-	if len(p.FullCover.Worst) > 0 {
-		d.FullCoverWorstPoint = s.point(p.FullCover.Worst[0])
+	if fc := p.FullCoverRanges; fc != nil {
+		if len(fc.Worst) > 0 {
+			d.FullCoverWorstPoint = s.point(fc.Worst[0])
+		}
+		d.RangeGroups = s.rangeGroups(nil)
+		d.FullCoverRanges = s.rangeGroups(func(i int) float64 { return s.grownRange(fc.Needed, fc.Covered, i) })
+		d.Hidden = append([]int{}, s.l.Hidden...)
+	} else {
+		d.FullCoverRangeM = ptr(p.FullCover.Range)
+		if len(p.FullCover.Worst) > 0 {
+			d.FullCoverWorstPoint = s.point(p.FullCover.Worst[0])
+		}
 	}
 	if s.hasRange() {
-		d.RangeM = ptr(p.Range)
+		if !p.own() {
+			d.RangeM = ptr(p.Range)
+		}
 		d.UncoveredAreaM2 = ptr(p.Uncovered)
 		d.CoveredFraction = ptr(s.fraction(p.Uncovered))
 	}
@@ -372,6 +448,8 @@ func (s *planScene) suggestionsDoc() *SuggestionsDoc {
 		Mode:                  p.Move,
 		Requested:             p.Requested,
 		RangeM:                sg.Range,
+		NewRangeM:             sg.NewRange,
+		NewType:               p.NewType,
 		Existing:              sg.Existing,
 		Added:                 make([]SuggestedDevice, 0, len(sg.Steps)),
 		FullCoverRangeBeforeM: sg.FullCoverBefore,
@@ -433,6 +511,8 @@ func (s *planScene) candidatesDoc() *CandidatesDoc {
 		Count:                 len(p.Candidates),
 		Requested:             max(p.Requested, 0),
 		RangeM:                ch.Range,
+		NewRangeM:             ch.NewRange,
+		NewType:               p.NewType,
 		Picked:                make([]PickedCandidate, 0, len(ch.Picked)),
 		CoveredBeforeM2:       ch.CoveredBefore,
 		CoveredAfterM2:        ch.CoveredAfter,
@@ -474,6 +554,12 @@ func (s *planScene) failureFields() *FailureFields {
 		SurvivePoint:             s.point(fr.SurvivePoint),
 		SurviveSite:              fr.SurviveSite,
 	}
+	if fr.Ranges != nil {
+		f.SurviveAnySingleFailureM = nil
+		if !math.IsInf(fr.SurvivePower, 1) {
+			f.SurviveAnySingleFailureRanges = s.rangeGroups(func(i int) float64 { return fr.SurviveRanges[i] })
+		}
+	}
 	for k, d := range fr.Devices[:s.listed(len(fr.Devices))] {
 		f.Failures = append(f.Failures, DeviceFailureDoc{
 			Rank:             k + 1,
@@ -488,6 +574,8 @@ func (s *planScene) failureFields() *FailureFields {
 			Backup:           d.Backup,
 			BackupName:       s.name(d.Backup),
 			FullCoverRangeM:  finite(d.FullCover),
+			RangeM:           s.ownRange(d.Site),
+			Hidden:           d.Hidden,
 		})
 	}
 	return f
@@ -545,13 +633,20 @@ func (s *planScene) assignmentDoc() *AssignmentDoc {
 		d.Assignments[i] = entry(i)
 	}
 	for i, ld := range a.Load[:len(d.Load)] {
-		e := DeviceLoadDoc{Device: i, Name: s.name(i), Count: ld.Count, Weight: ld.Weight}
+		e := DeviceLoadDoc{Device: i, Name: s.name(i), Count: ld.Count, Weight: ld.Weight, RangeM: s.ownRange(i), Hidden: s.hidden(i)}
 		if ranged {
 			e.InRange, e.InRangeWeight = ptr(ld.InRange), ptr(ld.InRangeWeight)
 		}
 		d.Load[i] = e
 	}
 	return d
+}
+
+// hidden reports whether input device i is hidden (per-device ranges: the
+// others cover its whole disk).
+func (s *planScene) hidden(i int) bool {
+	_, ok := slices.BinarySearch(s.l.Hidden, i)
+	return ok
 }
 
 // demandName returns the name of demand item i, or "".

@@ -463,3 +463,94 @@ func TestPlanLifeSafetyAndLongAssignments(t *testing.T) {
 		t.Errorf("farthest %v, want %v", as.Farthest.DistanceM, far)
 	}
 }
+
+// ownRangesPlan builds a plan of the given move on the lattice of
+// latticePlan with its own ranges: every device 6 m except a 13 m one at
+// (25, 25), whose disk holds the whole disk of a 4 m device added at
+// (26, 24) (√2 + 4 < 13), which is hidden; added devices and spots get
+// 9 m. Built the way the CLI does.
+func ownRangesPlan(t testing.TB, move Move) *Plan {
+	t.Helper()
+	sites := append(lattice(6, 10, [2]int{2, 3}), orb.Point{26, 24})
+	ranges := make([]float64, len(sites))
+	for i, q := range sites {
+		ranges[i] = 6
+		if q == (orb.Point{25, 25}) {
+			ranges[i] = 13
+		}
+	}
+	ranges[len(ranges)-1] = 4
+	l, err := coverage.NewLayoutRanges(sites, ranges, region(t, square(60)))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(l.Hidden) != 1 {
+		t.Fatalf("hidden %v, want the 4 m device", l.Hidden)
+	}
+	fc := l.FullCoverRanges()
+	p := &Plan{Move: move, Layout: l, RangeGiven: true, FullCoverRanges: &fc, Uncovered: l.UncoveredAreaGrown(0), NewRange: 9, NewType: "gateway"}
+	switch move {
+	case MoveAdd:
+		p.Requested = 2
+		p.Suggestion, err = coverage.SuggestAdditionsRanges(l, 2, 9)
+	case MoveFewest:
+		p.Suggestion, err = coverage.FewestAdditionsRanges(l, 9, coverage.SuggestOptions{})
+	case MoveCandidates:
+		p.Candidates = []orb.Point{{5, 5}, {25, 35}, {80, 80}}
+		p.CandidateNames = []string{"corner post", "the missing spot", "far away"}
+		p.Choice, err = coverage.ChooseCandidatesRanges(l, p.Candidates, 9, 0)
+	case MoveFailures:
+		p.Failures, err = coverage.FailuresRanges(l)
+	case MoveAssign:
+		p.Demand = []orb.Point{{25, 35}, {26, 24}, {1, 1}, {80, 5}}
+		p.DemandNames = make([]string, len(p.Demand))
+		p.DemandPolygons = make([]orb.MultiPolygon, len(p.Demand))
+		p.Assignment, err = coverage.AssignPowerCells(l, p.Demand, nil)
+	}
+	if err != nil {
+		t.Fatal(err)
+	}
+	if p.Suggestion != nil {
+		p.GapsBefore, p.GapsAfter = l.GapsRanges(0, 0), l.GapsRanges(0, 0)
+	}
+	return p
+}
+
+// TestPlanOwnRanges: every move with per-device ranges and a hidden device
+// writes its files (maps included) with no common range assumed: range_m
+// null, each device's range listed, the hidden device named.
+func TestPlanOwnRanges(t *testing.T) {
+	for _, move := range []Move{MoveAdd, MoveFewest, MoveCandidates, MoveFailures, MoveAssign} {
+		t.Run(string(move), func(t *testing.T) {
+			p := ownRangesPlan(t, move)
+			dir := t.TempDir()
+			if _, err := WritePlan(dir, p, Meta{Planar: true}, Options{Maps: true, MapWidth: 800, GeoPackage: true}); err != nil {
+				t.Fatal(err)
+			}
+			var doc struct {
+				RangeM      *float64     `json:"range_m"`
+				RangeGroups []RangeGroup `json:"range_groups"`
+				Hidden      []int        `json:"hidden"`
+			}
+			b, err := os.ReadFile(filepath.Join(dir, FileSummary))
+			if err != nil {
+				t.Fatal(err)
+			}
+			if err := json.Unmarshal(b, &doc); err != nil {
+				t.Fatal(err)
+			}
+			if doc.RangeM != nil || len(doc.RangeGroups) != 3 || !slices.Equal(doc.Hidden, []int{35}) {
+				t.Errorf("range %v groups %v hidden %v", doc.RangeM, doc.RangeGroups, doc.Hidden)
+			}
+			text, _ := os.ReadFile(filepath.Join(dir, FileReport))
+			for _, w := range []string{"each device's own", "#36"} {
+				if !strings.Contains(string(text), w) {
+					t.Errorf("report.txt lacks %q", w)
+				}
+			}
+			if strings.Contains(string(text), "NaN") || strings.Contains(string(text), "Inf") {
+				t.Errorf("report.txt prints a non-finite number")
+			}
+		})
+	}
+}

@@ -94,6 +94,9 @@ func (s *planScene) rangeText() string {
 	if !s.hasRange() {
 		return "none given: distances only, no within-range figures"
 	}
+	if s.p.own() {
+		return "each device's own: " + groupsText(s.rangeGroups(nil))
+	}
 	t := metres(s.p.Range)
 	if !s.p.RangeGiven && s.p.RangeNote != "" {
 		t += " (no range given: " + s.p.RangeNote + ")"
@@ -111,7 +114,12 @@ func (s *planScene) textExisting(b *textBuf) {
 		kv.add("Uncovered", fmt.Sprintf("%s (%s)", m2(p.Uncovered), ha(p.Uncovered)))
 	}
 	if p.Move == MoveAdd || p.Move == MoveFewest || p.Move == MoveCandidates {
-		kv.add("Gaps", fmt.Sprintf("%d at %s", len(p.GapsBefore), metres(p.Range)))
+		kv.add("Gaps", fmt.Sprintf("%d at %s", len(p.GapsBefore), s.atText(false)))
+	}
+	if fc := p.FullCoverRanges; fc != nil {
+		s.textFullCoverRanges(kv, fc)
+		kv.write(b)
+		return
 	}
 	fc := metres(p.FullCover.Range) + ": the smallest common range that leaves no gap"
 	kv.add("Full-cover range", fc)
@@ -125,16 +133,112 @@ func (s *planScene) textExisting(b *textBuf) {
 	kv.write(b)
 }
 
+// atText names the range of the covered figures: the common range, or the
+// planned ranges (upper case for a section title).
+func (s *planScene) atText(upper bool) string {
+	switch {
+	case !s.p.own():
+		return metres(s.p.Range)
+	case upper:
+		return "THE PLANNED RANGES"
+	}
+	return "the planned ranges"
+}
+
+// newText describes the added devices' range with per-device ranges:
+// "range 150.00 m", with their type when given.
+func (s *planScene) newText() string {
+	t := "range " + metres(s.p.NewRange)
+	if s.p.NewType != "" {
+		t = s.p.NewType + " " + t
+	}
+	return t
+}
+
+// fullCoverKey is the label of the full-cover figures of suggest and
+// candidates.
+func (s *planScene) fullCoverKey() string {
+	if s.p.own() {
+		return "New device needs (r² grown alike)"
+	}
+	return "Full-cover range"
+}
+
+// textFullCoverRanges adds the full-cover figure of devices with their own
+// ranges and the hidden devices to kv.
+func (s *planScene) textFullCoverRanges(kv *kvList, fc *coverage.RangesFullCover) {
+	if fc.Covered {
+		kv.add("Full-cover ranges", "the planned ranges: no gap")
+	} else {
+		kv.add("Full-cover ranges", GroupsText(s.rangeGroups(nil), s.rangeGroups(func(i int) float64 { return s.grownRange(fc.Needed, false, i) })))
+		kv.add("", "(every device's r² grown by the same amount until no gap is left)")
+		if len(fc.Worst) > 0 && len(fc.WorstSites) > 0 {
+			kv.add("  needed at", s.pointText(fc.Worst[0])+", in the service area of "+s.label(fc.WorstSites[0]))
+		}
+	}
+	kv.add("Redundant (hidden)", s.hiddenText())
+}
+
+// hiddenText lists the hidden devices ("none" when there is none).
+func (s *planScene) hiddenText() string {
+	if len(s.l.Hidden) == 0 {
+		return "none"
+	}
+	return (&rangesScene{scene: s.scene}).labels(s.l.Hidden, "none") + ": the others cover their whole disk"
+}
+
+// groupsText lists device groups as "type 150.00 m (3 devices)" (without
+// a type: "150.00 m (3 devices)").
+func groupsText(gs []RangeGroup) string {
+	var parts []string
+	for _, g := range gs {
+		t := metres(g.RangeM) + " (" + Plural(g.Devices, "device") + ")"
+		if g.Type != "" {
+			t = g.Type + " " + t
+		}
+		parts = append(parts, t)
+	}
+	return strings.Join(parts, ", ")
+}
+
+// GroupsText lists the range each group of devices needs, grown[k] being
+// group planned[k] (the same grouping: PlanDoc.RangeGroups with
+// FullCoverRanges or SurviveAnySingleFailureRanges), as "gateway (150 m):
+// 197.60 m", or "40 m devices: 80.00 m" without a type.
+func GroupsText(planned, grown []RangeGroup) string {
+	var parts []string
+	for k, g := range grown {
+		name := trimFloat(planned[k].RangeM) + " m devices"
+		if g.Type != "" {
+			name = g.Type + " (" + trimFloat(planned[k].RangeM) + " m)"
+		}
+		parts = append(parts, name+": "+metres(g.RangeM))
+	}
+	return strings.Join(parts, ", ")
+}
+
 func (s *planScene) textSuggestion(b *textBuf) {
 	p, sg := s.p, s.p.Suggestion
-	if p.Move == MoveAdd {
+	switch {
+	case p.Move == MoveAdd && p.own():
+		section(b, fmt.Sprintf("%d SUGGESTED DEVICES OF %s (free placement)", len(sg.Added), strings.ToUpper(s.newText())))
+		b.WriteString("  Each new device goes to the point that needs the largest growth of every r²\n")
+		b.WriteString("  to be covered (farthest-point insertion with powers |x - p|² - r²), the\n")
+		b.WriteString("  power cells recomputed after each. Existing devices stay where they are.\n")
+		b.WriteString("  Full cover: the range a new device would need with every r² grown alike\n")
+		b.WriteString("  until no gap is left. Figures before and after each addition, in order:\n\n")
+	case p.Move == MoveAdd:
 		section(b, fmt.Sprintf("%d SUGGESTED DEVICES (free placement)", len(sg.Added)))
 		b.WriteString("  Each new device goes to the point farthest from every device (farthest-point\n")
 		b.WriteString("  insertion, Gonzalez 1985), then moves to the centre of the smallest circle\n")
 		b.WriteString("  enclosing its service area while the full-cover range falls. Existing devices\n")
 		b.WriteString("  stay where they are. Figures before and after each addition, in order:\n\n")
-	} else {
-		section(b, fmt.Sprintf("FEWEST ADDITIONS FOR NO GAP AT %s", metres(p.Range)))
+	default:
+		title := fmt.Sprintf("FEWEST ADDITIONS FOR NO GAP AT %s", s.atText(true))
+		if p.own() {
+			title = fmt.Sprintf("FEWEST ADDITIONS OF %s FOR NO GAP AT THE PLANNED RANGES", strings.ToUpper(s.newText()))
+		}
+		section(b, title)
 		kv := &kvList{}
 		switch {
 		case len(sg.Added) == 0 && sg.Reached:
@@ -157,7 +261,11 @@ func (s *planScene) textSuggestion(b *textBuf) {
 	}
 	t := &table{}
 	hx, hy := s.pointHeads()
-	t.head("New", hx, hy, "Full cover m", "after m", "Covered %", "after %", "Uncovered m²", "after m²")
+	full := "Full cover m"
+	if p.own() {
+		full = "New needs m"
+	}
+	t.head("New", hx, hy, full, "after m", "Covered %", "after %", "Uncovered m²", "after m²")
 	for j, st := range sg.Steps {
 		px, py := s.pointCols(st.Added)
 		t.row(fmt.Sprintf("+%d", j+1), px, py,
@@ -169,8 +277,8 @@ func (s *planScene) textSuggestion(b *textBuf) {
 	section(b, "BEFORE AND AFTER")
 	kv := &kvList{}
 	kv.add("Devices", fmt.Sprintf("%d existing + %d new = %d", sg.Existing, len(sg.Added), sg.Existing+len(sg.Added)))
-	kv.add("Full-cover range", fmt.Sprintf("%s -> %s", metres(sg.FullCoverBefore), metres(sg.FullCoverAfter)))
-	kv.add("Covered at "+metres(sg.Range), CoveredPercent(sg.CoveredBefore, sg.UncoveredBefore, 3)+" % -> "+CoveredPercent(sg.CoveredAfter, sg.UncoveredAfter, 3)+" %")
+	kv.add(s.fullCoverKey(), fmt.Sprintf("%s -> %s", metres(sg.FullCoverBefore), metres(sg.FullCoverAfter)))
+	kv.add("Covered at "+s.atText(false), CoveredPercent(sg.CoveredBefore, sg.UncoveredBefore, 3)+" % -> "+CoveredPercent(sg.CoveredAfter, sg.UncoveredAfter, 3)+" %")
 	kv.add("Uncovered", fmt.Sprintf("%s -> %s", m2(sg.UncoveredBefore), m2(sg.UncoveredAfter)))
 	kv.add("Gaps", fmt.Sprintf("%d -> %d", len(p.GapsBefore), len(p.GapsAfter)))
 	kv.write(b)
@@ -180,7 +288,7 @@ func (s *planScene) textSuggestion(b *textBuf) {
 // textGapList writes a table of gaps (id, area, closing range, deepest
 // point, kind).
 func (s *planScene) textGapList(b *textBuf, title string, gaps []coverage.Gap, none string) {
-	section(b, fmt.Sprintf("%s AT %s", title, metres(s.p.Range)))
+	section(b, fmt.Sprintf("%s AT %s", title, s.atText(true)))
 	if len(gaps) == 0 {
 		b.WriteString("  " + none + "\n")
 		return
@@ -205,9 +313,13 @@ func (s *planScene) textGapList(b *textBuf, title string, gaps []coverage.Gap, n
 func (s *planScene) textCandidates(b *textBuf) {
 	p, ch := s.p, s.p.Choice
 	if p.Requested > 0 {
-		section(b, fmt.Sprintf("CHOICE OF %d AMONG %d CANDIDATE SPOTS AT %s", p.Requested, len(p.Candidates), metres(ch.Range)))
+		section(b, fmt.Sprintf("CHOICE OF %d AMONG %d CANDIDATE SPOTS AT %s", p.Requested, len(p.Candidates), s.atText(true)))
 	} else {
-		section(b, fmt.Sprintf("FEWEST CANDIDATE SPOTS FOR NO GAP AT %s", metres(ch.Range)))
+		section(b, fmt.Sprintf("FEWEST CANDIDATE SPOTS FOR NO GAP AT %s", s.atText(true)))
+	}
+	if p.own() {
+		b.WriteString("  A device of " + s.newText() + " at each picked spot; gains and figures from the\n")
+		b.WriteString("  power cells (where |x - p|² - r² is smallest), recomputed after each pick.\n")
 	}
 	b.WriteString("  Greedy choice: each pick is the spot that adds the most covered area, exact\n")
 	b.WriteString("  marginal areas with lazy re-evaluation. For K picks the added area is at least\n")
@@ -236,8 +348,8 @@ func (s *planScene) textCandidates(b *textBuf) {
 	section(b, "BEFORE AND AFTER")
 	kv := &kvList{}
 	kv.add("Spots picked", fmt.Sprintf("%d of %d", len(ch.Picked), len(p.Candidates)))
-	kv.add("Full-cover range", fmt.Sprintf("%s -> %s", metres(ch.FullCoverBefore), metres(ch.FullCoverAfter)))
-	kv.add("Covered at "+metres(ch.Range), CoveredPercent(ch.FractionBefore, ch.UncoveredBefore, 3)+" % -> "+CoveredPercent(ch.FractionAfter, ch.UncoveredAfter, 3)+" %")
+	kv.add(s.fullCoverKey(), fmt.Sprintf("%s -> %s", metres(ch.FullCoverBefore), metres(ch.FullCoverAfter)))
+	kv.add("Covered at "+s.atText(false), CoveredPercent(ch.FractionBefore, ch.UncoveredBefore, 3)+" % -> "+CoveredPercent(ch.FractionAfter, ch.UncoveredAfter, 3)+" %")
 	kv.add("Uncovered", fmt.Sprintf("%s -> %s", m2(ch.UncoveredBefore), m2(ch.UncoveredAfter)))
 	kv.add("Gaps", fmt.Sprintf("%d -> %d", len(p.GapsBefore), len(ch.Remaining)))
 	switch {
@@ -255,6 +367,10 @@ func (s *planScene) textCandidates(b *textBuf) {
 
 func (s *planScene) textFailures(b *textBuf) {
 	fr := s.p.Failures
+	if fr.Ranges != nil {
+		s.textFailuresRanges(b)
+		return
+	}
 	section(b, "SURVIVING ANY SINGLE FAILURE")
 	kv := &kvList{}
 	if math.IsInf(fr.SurviveRange, 0) {
@@ -273,25 +389,94 @@ func (s *planScene) textFailures(b *textBuf) {
 	b.WriteString("  working). Closing: the range the others need to cover what it served, the depth\n")
 	b.WriteString("  of the deepest new gap; at that point the backup device is the nearest one left.\n")
 	b.WriteString("  Ranked by loss, then closing range.\n\n")
+	s.textFailureTable(b)
+}
+
+// textFailureTable writes the failures ranking: the last figure is the
+// full-cover range without the device, or with per-device ranges the
+// device's own range.
+func (s *planScene) textFailureTable(b *textBuf) {
+	fr := s.p.Failures
+	own := fr.Ranges != nil
+	last := "Full cover m"
+	if own {
+		last = "Range m"
+	}
 	t := &table{}
 	hx, hy := s.pointHeads()
-	t.head("Rank", "Loss m²", "Uncovered m²", "Closing m", hx, hy, "Full cover m", "Device", "Backup")
+	t.head("Rank", "Loss m²", "Uncovered m²", "Closing m", hx, hy, last, "Device", "Backup")
 	t.left(7, 8)
 	t.rows(len(fr.Devices), func(k int) {
 		d := fr.Devices[k]
 		px, py := s.pointCols(d.Deepest)
 		name := s.label(d.Site)
-		if d.Shared {
+		closing, lastCol := metresCol(d.ClosingRange), metresCol(d.FullCover)
+		switch {
+		case d.Shared:
 			name += " (shares its spot: its failure changes nothing)"
+		case d.Hidden:
+			name += " (hidden: its failure costs nothing)"
+			px, py, closing = "-", "-", "-"
+		case own && math.IsInf(d.ClosingPower, -1):
+			px, py, closing = "-", "-", "-"
+		}
+		if own {
+			lastCol = fmt.Sprintf("%.2f", s.rangeOf(d.Site))
 		}
 		backup := "-"
 		if d.Backup >= 0 {
 			backup = s.label(d.Backup)
 		}
 		t.row(fmt.Sprint(k+1), fmt.Sprintf("%.1f", d.AddedUncovered), fmt.Sprintf("%.1f", d.Uncovered),
-			metresCol(d.ClosingRange), px, py, metresCol(d.FullCover), name, backup)
+			closing, px, py, lastCol, name, backup)
 	})
 	t.write(b)
+}
+
+// survivesMeaning is the one sentence report.txt gives on the
+// single-failure ranges when devices have their own ranges.
+const survivesMeaning = "  These are the ranges at which the area stays covered whichever one device\n" +
+	"  fails, when every device's r² grows by the same amount (r' = sqrt(r² + t)),\n" +
+	"  keeping the differences between device types as planned.\n"
+
+// textFailuresRanges writes the failures sections for devices with their
+// own ranges.
+func (s *planScene) textFailuresRanges(b *textBuf) {
+	fr := s.p.Failures
+	section(b, "SURVIVING ANY SINGLE FAILURE")
+	kv := &kvList{}
+	switch {
+	case math.IsInf(fr.SurvivePower, 1):
+		kv.add("Ranges", "none: with a single device nothing remains when it fails")
+	case fr.SurvivePower <= 0:
+		kv.add("Ranges", "the planned ranges: no single failure opens a gap")
+	default:
+		kv.add("Ranges", GroupsText(s.rangeGroups(nil), s.rangeGroups(func(i int) float64 { return fr.SurviveRanges[i] })))
+		kv.add("  needed at", fmt.Sprintf("%s, when %s fails (%s then needs %s to reach it)",
+			s.pointText(fr.SurvivePoint), s.label(fr.SurviveSite), s.backupLabel(fr.SurviveSite), metres(fr.SurviveRange)))
+	}
+	kv.write(b)
+	if !math.IsInf(fr.SurvivePower, 1) && fr.SurvivePower > 0 {
+		b.WriteString("\n" + survivesMeaning)
+	}
+
+	section(b, "DEVICES RANKED BY WHAT THEIR FAILURE UNCOVERS AT THEIR OWN RANGES")
+	b.WriteString("  Loss: uncovered area added when the device is out of service (the others\n")
+	b.WriteString("  working, each at its own range). Closing: the range the backup device (the\n")
+	b.WriteString("  one that takes over the deepest point of the new gap) needs to reach that\n")
+	b.WriteString("  point. A hidden device's failure costs nothing: the others cover its disk.\n")
+	b.WriteString("  Ranked by loss, then by the growth that closes the new gap.\n\n")
+	s.textFailureTable(b)
+}
+
+// backupLabel names the backup of the failure of device site.
+func (s *planScene) backupLabel(site int) string {
+	for _, d := range s.p.Failures.Devices {
+		if d.Site == site && d.Backup >= 0 {
+			return s.label(d.Backup)
+		}
+	}
+	return "no device"
 }
 
 // pickUncovered is the area left uncovered after pick j: positive before
@@ -325,7 +510,11 @@ func (s *planScene) textAssignment(b *textBuf) {
 	section(b, "DEMAND SERVED")
 	kv := &kvList{}
 	kv.add("Demand items", fmt.Sprint(len(p.Demand)))
-	if ranged {
+	switch {
+	case p.own():
+		kv.add("Within reach", fmt.Sprintf("%d (weight %s): inside their device's own range", a.Served, weightText(a.ServedWeight)))
+		kv.add("Beyond reach", fmt.Sprintf("%d (weight %s): no device's range reaches them", a.Unserved, weightText(a.UnservedWeight)))
+	case ranged:
 		kv.add("Within range", fmt.Sprintf("%d (weight %s)", a.Served, weightText(a.ServedWeight)))
 		kv.add("Beyond range", fmt.Sprintf("%d (weight %s): nearest device farther than %s", a.Unserved, weightText(a.UnservedWeight), metres(p.Range)))
 	}
@@ -341,8 +530,16 @@ func (s *planScene) textAssignment(b *textBuf) {
 	kv.write(b)
 
 	section(b, "LOAD PER DEVICE")
-	b.WriteString("  Each demand item is served by its nearest device (the one whose service area\n")
-	b.WriteString("  holds it). Devices serving nothing are listed too.\n\n")
+	if p.own() {
+		b.WriteString("  Each demand item is served by the device whose service area (power cell:\n")
+		b.WriteString("  where |x - p|² - r² is smallest) holds it, and is within reach when inside\n")
+		b.WriteString("  that device's own range - exactly when some device covers it. A hidden\n")
+		b.WriteString("  device serves nothing (the others cover its disk). Devices serving nothing\n")
+		b.WriteString("  are listed too.\n\n")
+	} else {
+		b.WriteString("  Each demand item is served by its nearest device (the one whose service area\n")
+		b.WriteString("  holds it). Devices serving nothing are listed too.\n\n")
+	}
 	t := &table{}
 	if ranged {
 		t.head("Items", "Weight", "In range", "Weight in range", "Device")
@@ -354,7 +551,11 @@ func (s *planScene) textAssignment(b *textBuf) {
 	t.rows(len(a.Load), func(i int) {
 		ld := a.Load[i]
 		if ranged {
-			t.row(fmt.Sprint(ld.Count), weightText(ld.Weight), fmt.Sprint(ld.InRange), weightText(ld.InRangeWeight), s.label(i))
+			name := s.label(i)
+			if s.hidden(i) {
+				name += " (hidden)"
+			}
+			t.row(fmt.Sprint(ld.Count), weightText(ld.Weight), fmt.Sprint(ld.InRange), weightText(ld.InRangeWeight), name)
 		} else {
 			t.row(fmt.Sprint(ld.Count), weightText(ld.Weight), s.label(i))
 		}
@@ -414,6 +615,15 @@ func (s *planScene) textPlanNotes(b *textBuf) {
 			"Positions are proposals for the disk model: check on site that a device can",
 			"be mounted there and reaches its range before committing.")
 	case MoveFailures:
+		if s.p.own() {
+			lines = append(lines,
+				"Each failure is computed locally: only the failed device's power cell",
+				"changes hands, shared by the power diagram of its regular-triangulation",
+				"neighbours and of any hidden device that then serves (Aurenhammer 1987).",
+				"Areas and ranges are closed-form results for the disk model, exact up to",
+				"rounding.")
+			break
+		}
 		lines = append(lines,
 			"Each failure is computed locally: only the failed device's service area",
 			"changes hands, shared among its Delaunay neighbours (Devillers 2002). Areas",

@@ -33,6 +33,7 @@ type planFlags struct {
 	add        int
 	candidates string
 	points     string
+	newType    string
 }
 
 // maxAdd bounds --add: more additions than this is a mistake, not a plan.
@@ -82,6 +83,16 @@ func newSuggestCmd(e *env) *cobra.Command {
                           everything; says when full cover cannot be reached
                           and what stays uncovered.
 
+Devices with their own ranges (a range column, or a type column with
+--type-range or --range-table): the added devices get the range of --range, or
+of --new-type TYPE in the type table; every figure comes from the power cells
+(where |x - p|^2 - r^2 is smallest). --add K puts each new device at the point
+that needs the largest growth of every r^2 to be covered, the fewest additions
+repeat that until no gap is left, and candidate spots are chosen by the exact
+area each adds. The full-cover figure is then the range a new device would need
+with every r^2 grown alike until no gap is left. --new-type also adds devices
+of another type to a site whose devices share one range.
+
 The report folder (default sitecover-report/suggest) gets report.txt,
 summary.json, the proposed devices or the candidate spots, the gaps before and
 after as GeoJSON, and a map.
@@ -90,27 +101,29 @@ after as GeoJSON, and a map.
   sitecover suggest --sites sensors.geojson --area campus.geojson --add 2
   sitecover suggest --sites sensors.csv --area campus.geojson --range 150m
   sitecover suggest --sites sensors.csv --area campus.geojson --candidates poles.geojson --range 120m
-  sitecover suggest --sites sensors.csv --area campus.geojson --candidates roofs.csv --range 120m --add 4`,
+  sitecover suggest --sites sensors.csv --area campus.geojson --candidates roofs.csv --range 120m --add 4
+  sitecover suggest --sites devices.csv --type-range gateway=150m --type-range sensor=40m --new-type gateway --add 2`,
 		Args: noArgs,
 		RunE: func(cmd *cobra.Command, args []string) error {
 			if err := requireFlags(cmd, "sites"); err != nil {
 				return err
 			}
 			fl := cmd.Flags()
-			ps := planSpec{}
+			ps := planSpec{newType: pf.newType}
 			hasAdd, hasRange := fl.Changed("add"), fl.Changed("range")
+			hasNew := hasRange || fl.Changed("new-type")
 			if hasAdd && (pf.add <= 0 || pf.add > maxAdd) {
 				return inputErrorf("--add %d: must be a whole number of devices from 1 to %d", pf.add, maxAdd)
 			}
 			switch {
 			case fl.Changed("candidates"):
-				if !hasRange {
-					return usageErrorf("--candidates needs --range: spots are chosen for the area they cover at a range (see '%s --help')", cmd.CommandPath())
+				if !hasNew {
+					return usageErrorf("--candidates needs --range (or --new-type): spots are chosen for the area they cover at a range (see '%s --help')", cmd.CommandPath())
 				}
 				ps.move, ps.k = report.MoveCandidates, pf.add
 			case hasAdd:
 				ps.move, ps.k = report.MoveAdd, pf.add
-			case hasRange:
+			case hasNew:
 				ps.move = report.MoveFewest
 			default:
 				return usageErrorf("suggest needs --add K (free placement), --range LENGTH (fewest additions for that range) or --candidates FILE with --range (see '%s --help')", cmd.CommandPath())
@@ -130,6 +143,7 @@ after as GeoJSON, and a map.
 	f.addInputFlags(cmd.Flags())
 	cmd.Flags().IntVar(&pf.add, "add", 0, "number of new devices to place (with --candidates: number of spots to pick; default: the fewest that cover everything)")
 	cmd.Flags().Var(newOnceString(&pf.candidates, ""), "candidates", "candidate mounting spots: GeoJSON Point/MultiPoint features or CSV like --sites")
+	cmd.Flags().Var(newOnceString(&pf.newType, ""), "new-type", "device type of the added devices: their range is that type's in --type-range or --range-table (instead of --range)")
 	f.addRangeFlag(cmd.Flags(), "", "planned range of every device, e.g. 150m, 0.2km, 500ft, 0.1mi")
 	f.addPlanOutputFlags(cmd.Flags(), "suggest")
 	return cmd
@@ -138,7 +152,7 @@ after as GeoJSON, and a map.
 func newFailuresCmd(e *env) *cobra.Command {
 	f := &runFlags{}
 	cmd := &cobra.Command{
-		Use:   "failures --sites FILE [--area FILE] --range LENGTH [flags]",
+		Use:   "failures --sites FILE [--area FILE] (--range LENGTH | a range or type column) [flags]",
 		Short: "Device failures: what each outage uncovers, and the range that survives any single failure",
 		Long: `failures takes every device out of service in turn, the others working, and
 ranks the devices by the area their failure leaves uncovered at --range, with
@@ -146,6 +160,14 @@ the deepest new gap (the range the others need to cover what it served) and
 the device that backs it up there. It also gives the range at which the area
 stays fully covered whichever single device fails: the largest distance from
 a point of the area to its second-nearest device.
+
+Devices with their own ranges (a range column, or a type column with
+--type-range or --range-table; --range is then the default of the rest): each
+failure is taken at the devices' own ranges, with power cells (where
+|x - p|^2 - r^2 is smallest) as service areas, and the range that survives any
+single failure is given per device type, every device's r^2 growing by the
+same amount. A hidden device (the others cover its whole disk) costs nothing
+when it fails.
 
 Each failure is computed locally (only the failed device's service area
 changes hands, among its Delaunay neighbours), so a million devices take
@@ -158,11 +180,11 @@ devices coloured by loss.
   sitecover failures --planar --sites aps.csv --area floor.geojson --range 15 --out ap-failures`,
 		Args: noArgs,
 		RunE: func(cmd *cobra.Command, args []string) error {
-			in, r, err := f.rangedInputs(cmd)
+			in, err := f.rangesInputs(cmd)
 			if err != nil {
 				return err
 			}
-			return asInput(runPlan(e, "failures", f, in, planSpec{move: report.MoveFailures, r: r, rangeGiven: true}, printFull))
+			return asInput(runPlan(e, "failures", f, in, planSpec{move: report.MoveFailures, r: in.Range, rangeGiven: in.Range > 0}, printFull))
 		},
 	}
 	f.addInputFlags(cmd.Flags())
@@ -181,6 +203,13 @@ func newAssignCmd(e *env) *cobra.Command {
 the nearest one, whose service area holds it - with the distance and, with
 --range, whether it is within range; and the load of every device (items
 served and their summed weight, within range or not).
+
+Devices with their own ranges (a range column, or a type column with
+--type-range or --range-table): an item is served by the device whose power
+cell holds it (where |x - p|^2 - r^2 is smallest; the service area the maps
+show), and is within reach when inside that device's own range - exactly when
+some device covers it. Hidden devices (the others cover their whole disk)
+serve nothing.
 
 --points FILE: GeoJSON Point/MultiPoint features, or Polygon/MultiPolygon
 features (buildings, yards: each placed at its centroid, or at a point on it
@@ -227,6 +256,8 @@ type planSpec struct {
 	// r is the range (m); rangeGiven is false when none was given.
 	r          float64
 	rangeGiven bool
+	// newType is the type of the added devices (suggest --new-type).
+	newType string
 }
 
 // planInputs parses --range into ps when it was given, then opens the
@@ -257,28 +288,66 @@ func runPlan(e *env, command string, f *runFlags, in siteinput.Inputs, ps planSp
 		return err
 	}
 	defer pr.end()
-	if err := refuseRanges(sc, command, in); err != nil {
-		return err
+	own := sc.ranges != nil // the devices have their own, different ranges
+	adding := ps.move == report.MoveAdd || ps.move == report.MoveFewest || ps.move == report.MoveCandidates
+	newR := 0.0 // the added devices' range, with own ranges
+	if adding {
+		if newR, err = newDeviceRange(sc, in, ps); err != nil {
+			return err
+		}
+		if !own && ps.newType != "" && newR != sc.rangeM {
+			// Added devices of another range than the existing ones.
+			own = true
+			sc.ranges = make([]float64, len(sc.sites))
+			for i := range sc.ranges {
+				sc.ranges[i] = sc.rangeM
+			}
+			sc.meta.Ranges = sc.ranges
+		} else if !own && ps.newType != "" {
+			ps.r, ps.rangeGiven = newR, true
+		}
+	}
+	if !own && !ps.rangeGiven && sc.rangeM > 0 {
+		// One range for every device from the sites file (a range column
+		// with one value, or a type table): the range of the figures.
+		ps.r, ps.rangeGiven = sc.rangeM, true
 	}
 	timed := func(phase string, t0 time.Time) {
 		sc.meta.Timings = append(sc.meta.Timings, coverage.Timing{Phase: phase, Seconds: time.Since(t0).Seconds()})
 	}
 	pr.set(fmt.Sprintf("service areas of %d sites", len(sc.sites)))
 	t0 := time.Now()
-	l, err := coverage.NewLayout(sc.sites, sc.region)
+	var l *coverage.Layout
+	if own {
+		l, err = coverage.NewLayoutRanges(sc.sites, sc.ranges, sc.region)
+	} else {
+		l, err = coverage.NewLayout(sc.sites, sc.region)
+	}
 	if err != nil {
 		return inputErrorf("%s: %v", inputNames(in), err)
 	}
 	timed("layout", t0)
 	t0 = time.Now()
-	p := &report.Plan{Move: ps.move, Layout: l, Range: ps.r, RangeGiven: ps.rangeGiven, Requested: ps.k, FullCover: l.FullCover()}
+	p := &report.Plan{Move: ps.move, Layout: l, Range: ps.r, RangeGiven: ps.rangeGiven, Requested: ps.k}
+	if own {
+		fc := l.FullCoverRanges()
+		p.FullCoverRanges, p.Range, p.RangeGiven = &fc, 0, true
+		p.NewRange, p.NewType = newR, ps.newType
+	} else {
+		p.FullCover = l.FullCover()
+	}
 	timed("full cover", t0)
 	fail := func(err error) error {
 		return inputErrorf("%s: %v", inputNames(in), strings.TrimPrefix(err.Error(), "coverage: "))
 	}
 	t0 = time.Now()
-	switch ps.move {
-	case report.MoveAdd:
+	switch {
+	case own && adding:
+		if err := runOwnAdditions(p, l, sc, ps, newR, pr); err != nil {
+			return fail(err)
+		}
+		timed("suggest", t0)
+	case ps.move == report.MoveAdd:
 		pr.set(fmt.Sprintf("placing %d new devices", ps.k))
 		r := ps.r
 		if !ps.rangeGiven {
@@ -296,7 +365,7 @@ func runPlan(e *env, command string, f *runFlags, in siteinput.Inputs, ps planSp
 			return fail(err)
 		}
 		timed("suggest", t0)
-	case report.MoveFewest:
+	case ps.move == report.MoveFewest:
 		pr.set(fmt.Sprintf("fewest additions for %s m", fmtNum(ps.r, 2)))
 		p.Suggestion, err = coverage.FewestAdditions(l, ps.r, coverage.SuggestOptions{})
 		if errors.Is(err, coverage.ErrAdditionCap) && p.Suggestion != nil {
@@ -305,34 +374,59 @@ func runPlan(e *env, command string, f *runFlags, in siteinput.Inputs, ps planSp
 			return fail(err)
 		}
 		timed("suggest", t0)
-	case report.MoveCandidates:
+	case ps.move == report.MoveCandidates:
 		pr.set(fmt.Sprintf("choosing among %d candidate spots", len(sc.candidates.Pts)))
 		p.Candidates, p.CandidateNames = sc.candidates.Pts, sc.candidates.Names
 		if p.Choice, err = coverage.ChooseCandidates(l, p.Candidates, ps.r, ps.k); err != nil {
 			return fail(err)
 		}
 		timed("choose candidates", t0)
-	case report.MoveFailures:
+	case ps.move == report.MoveFailures:
 		pr.set(fmt.Sprintf("failures of %d devices", len(sc.sites)))
-		if p.Failures, err = coverage.Failures(l, ps.r); err != nil {
+		if own {
+			p.Failures, err = coverage.FailuresRanges(l)
+		} else {
+			p.Failures, err = coverage.Failures(l, ps.r)
+		}
+		if err != nil {
 			return fail(err)
 		}
 		timed("failures", t0)
-	case report.MoveAssign:
+	case ps.move == report.MoveAssign:
 		d := sc.demand
 		pr.set(fmt.Sprintf("assigning %d demand items", len(d.Pts)))
 		p.Demand, p.DemandNames, p.DemandPolygons, p.Weighted = d.Pts, d.Names, d.Polys, d.Weights != nil
-		if p.Assignment, err = coverage.Assign(l, d.Pts, d.Weights, ps.r); err != nil {
+		if own {
+			p.Assignment, err = coverage.AssignPowerCells(l, d.Pts, d.Weights)
+		} else {
+			p.Assignment, err = coverage.Assign(l, d.Pts, d.Weights, ps.r)
+		}
+		if err != nil {
 			return fail(err)
 		}
 		timed("assign", t0)
 	}
 	t0 = time.Now()
-	if p.Range > 0 {
+	switch {
+	case own:
+		p.Uncovered = l.UncoveredAreaGrown(0)
+	case p.Range > 0:
 		p.Uncovered = l.UncoveredArea(p.Range)
 	}
-	switch ps.move {
-	case report.MoveAdd, report.MoveFewest, report.MoveCandidates:
+	switch {
+	case own && adding:
+		pr.set("gaps before and after")
+		p.GapsBefore = l.GapsRanges(0, 0)
+		if p.Suggestion != nil {
+			l2, err := coverage.NewLayoutRanges(append(append([]orb.Point(nil), sc.sites...), p.Suggestion.Added...),
+				append(append([]float64(nil), sc.ranges...), repeatRange(newR, len(p.Suggestion.Added))...), sc.region)
+			if err != nil {
+				return fail(err)
+			}
+			p.GapsAfter = l2.GapsRanges(0, 0)
+		}
+		timed("gaps", t0)
+	case adding:
 		pr.set("gaps before and after")
 		p.GapsBefore = l.Gaps(p.Range, 0)
 		if p.Suggestion != nil {
@@ -371,6 +465,60 @@ func runPlan(e *env, command string, f *runFlags, in siteinput.Inputs, ps planSp
 	return nil
 }
 
+// newDeviceRange returns the range of the devices suggest adds: the range
+// of --new-type in the type table, else --range (0 when neither was
+// given; with own ranges that is bad usage).
+func newDeviceRange(sc *scene, in siteinput.Inputs, ps planSpec) (float64, error) {
+	if ps.newType == "" {
+		if sc.ranges != nil && !ps.rangeGiven {
+			return 0, usageErrorf("the devices have their own ranges: give the added devices' range with --range LENGTH or --new-type TYPE")
+		}
+		return ps.r, nil
+	}
+	if in.TypeRanges == nil {
+		return 0, usageErrorf("--new-type %q needs a table of ranges per type: --type-range TYPE=LENGTH or --range-table FILE", ps.newType)
+	}
+	r, ok := in.TypeRanges.Ranges[strings.ToLower(strings.TrimSpace(ps.newType))] // the table's key: trimmed, lower case
+	if !ok {
+		return 0, inputErrorf("--new-type %q: %s gives no range for this type", ps.newType, in.TypeRanges.Source)
+	}
+	if sc.ranges == nil && sc.rangeM == 0 {
+		return 0, usageErrorf("--new-type %q: the existing devices have no range: give --range, a range column or a type column", ps.newType)
+	}
+	return r, nil
+}
+
+// repeatRange returns n copies of r.
+func repeatRange(r float64, n int) []float64 {
+	out := make([]float64, n)
+	for i := range out {
+		out[i] = r
+	}
+	return out
+}
+
+// runOwnAdditions runs suggest's move when the devices have their own
+// ranges, the added ones range r.
+func runOwnAdditions(p *report.Plan, l *coverage.Layout, sc *scene, ps planSpec, r float64, pr *progress) error {
+	var err error
+	switch ps.move {
+	case report.MoveAdd:
+		pr.set(fmt.Sprintf("placing %d new devices of %s m", ps.k, fmtNum(r, 2)))
+		p.Suggestion, err = coverage.SuggestAdditionsRanges(l, ps.k, r)
+	case report.MoveFewest:
+		pr.set(fmt.Sprintf("fewest additions of %s m devices", fmtNum(r, 2)))
+		p.Suggestion, err = coverage.FewestAdditionsRanges(l, r, coverage.SuggestOptions{})
+		if errors.Is(err, coverage.ErrAdditionCap) && p.Suggestion != nil {
+			p.CapReached, err = true, nil
+		}
+	case report.MoveCandidates:
+		pr.set(fmt.Sprintf("choosing among %d candidate spots", len(sc.candidates.Pts)))
+		p.Candidates, p.CandidateNames = sc.candidates.Pts, sc.candidates.Names
+		p.Choice, err = coverage.ChooseCandidatesRanges(l, p.Candidates, r, ps.k)
+	}
+	return err
+}
+
 // printPlan prints the headline figures of a planning move.
 func printPlan(w io.Writer, d *report.PlanDoc, m report.Meta, mode printMode) {
 	line := func(key, format string, args ...any) {
@@ -401,6 +549,8 @@ func printSuggestions(w io.Writer, line lineFunc, d *report.PlanDoc, m report.Me
 		switch {
 		case len(s.Added) == 0 && s.Reached:
 			line("fewest additions", "none needed: no gap at %s m", fmtNum(s.RangeM, 2))
+		case s.Reached && s.NewRangeM > 0:
+			line("fewest additions", "%d (%s) for no gap at the planned ranges, %s in all", len(s.Added), s.Method, report.Plural(s.TotalDevices, "device"))
 		case s.Reached:
 			line("fewest additions", "%d (%s) for no gap at %s m, %s in all", len(s.Added), s.Method, fmtNum(s.RangeM, 2), report.Plural(s.TotalDevices, "device"))
 		default:
@@ -412,13 +562,22 @@ func printSuggestions(w io.Writer, line lineFunc, d *report.PlanDoc, m report.Me
 	if !d.RangeGiven {
 		note = " (" + d.RangeNote + ")"
 	}
-	line("range of the figures", "%s m%s", fmtNum(s.RangeM, 2), note)
-	line("full-cover range", "%s m -> %s m", fmtNum(s.FullCoverRangeBeforeM, 2), fmtNum(s.FullCoverRangeAfterM, 2))
+	if s.NewRangeM > 0 {
+		line("range of the figures", "each device's own; new devices %s", newDevices(s.NewRangeM, s.NewType))
+		line("new device needs", "%s m -> %s m (every r² grown alike until no gap is left)", fmtNum(s.FullCoverRangeBeforeM, 2), fmtNum(s.FullCoverRangeAfterM, 2))
+	} else {
+		line("range of the figures", "%s m%s", fmtNum(s.RangeM, 2), note)
+		line("full-cover range", "%s m -> %s m", fmtNum(s.FullCoverRangeBeforeM, 2), fmtNum(s.FullCoverRangeAfterM, 2))
+	}
 	line("covered", "%s %% -> %s %% (%s m² -> %s m² uncovered)",
 		report.CoveredPercent(s.CoveredFractionBefore, s.UncoveredBeforeM2, 2), report.CoveredPercent(s.CoveredFractionAfter, s.UncoveredAfterM2, 2),
 		report.AreaNumber(s.UncoveredBeforeM2, 1), report.AreaNumber(s.UncoveredAfterM2, 1))
 	if mode == printFull && len(s.Added) > 0 {
-		fmt.Fprintf(w, "\n  %4s  %-26s  %-18s  %-17s  %s\n", "new", "position", "full cover m", "covered %", "uncovered m²")
+		full := "full cover m"
+		if s.NewRangeM > 0 {
+			full = "new needs m"
+		}
+		fmt.Fprintf(w, "\n  %4s  %-26s  %-18s  %-17s  %s\n", "new", "position", full, "covered %", "uncovered m²")
 		for i, a := range s.Added {
 			if i == maxGapRows {
 				fmt.Fprintf(w, "  ... and %d more (all in report.txt, summary.json and %s)\n", len(s.Added)-i, report.LayerFile(report.FileProposed, m.Planar))
@@ -435,11 +594,19 @@ func printSuggestions(w io.Writer, line lineFunc, d *report.PlanDoc, m report.Me
 // printCandidates prints the figures of suggest --candidates.
 func printCandidates(w io.Writer, line lineFunc, d *report.PlanDoc, mode printMode) {
 	c := d.Candidates
-	line("candidate spots picked", "%d of %d at %s m", len(c.Picked), c.Count, fmtNum(c.RangeM, 2))
+	if c.NewRangeM > 0 {
+		line("candidate spots picked", "%d of %d, new devices %s", len(c.Picked), c.Count, newDevices(c.NewRangeM, c.NewType))
+	} else {
+		line("candidate spots picked", "%d of %d at %s m", len(c.Picked), c.Count, fmtNum(c.RangeM, 2))
+	}
 	line("covered", "%s %% -> %s %% (%s m² -> %s m² uncovered)",
 		report.CoveredPercent(c.CoveredFractionBefore, c.UncoveredBeforeM2, 2), report.CoveredPercent(c.CoveredFractionAfter, c.UncoveredAfterM2, 2),
 		report.AreaNumber(c.UncoveredBeforeM2, 1), report.AreaNumber(c.UncoveredAfterM2, 1))
-	line("full-cover range", "%s m -> %s m", fmtNum(c.FullCoverRangeBeforeM, 2), fmtNum(c.FullCoverRangeAfterM, 2))
+	full := "full-cover range"
+	if c.NewRangeM > 0 {
+		full = "new device needs"
+	}
+	line(full, "%s m -> %s m", fmtNum(c.FullCoverRangeBeforeM, 2), fmtNum(c.FullCoverRangeAfterM, 2))
 	switch {
 	case c.Complete:
 		line("result", "full cover: no gap remains")
@@ -461,13 +628,24 @@ func printCandidates(w io.Writer, line lineFunc, d *report.PlanDoc, mode printMo
 
 // printFailures prints the single-failure figures and the worst failures.
 func printFailures(w io.Writer, line lineFunc, d *report.PlanDoc, m report.Meta, mode printMode) {
-	if d.SurviveAnySingleFailureM == nil {
+	own := d.RangeGroups != nil
+	switch {
+	case own && d.SurviveAnySingleFailureRanges == nil:
 		line("survive any single failure", "impossible: a single device")
-	} else {
+	case own:
+		line("survive any single failure", "%s (all r² grown alike), needed at %s when %s fails",
+			report.GroupsText(d.RangeGroups, d.SurviveAnySingleFailureRanges), fmtPoint(d.SurvivePoint, d.Coordinates), siteLabel(m, d.SurviveSite))
+	case d.SurviveAnySingleFailureM == nil:
+		line("survive any single failure", "impossible: a single device")
+	default:
 		line("survive any single failure", "%s m, needed at %s when %s fails", fmtNum(*d.SurviveAnySingleFailureM, 2),
 			fmtPoint(d.SurvivePoint, d.Coordinates), siteLabel(m, d.SurviveSite))
 	}
-	if d.RangeM != nil {
+	switch {
+	case own:
+		line("uncovered, all working", "%s m² at the planned ranges", report.AreaNumber(*d.UncoveredAreaM2, 1))
+		line("redundant (hidden)", "%s", hiddenNote(d.Hidden, m, "their failure costs nothing"))
+	case d.RangeM != nil:
 		line("uncovered, all working", "%s m² at %s m", report.AreaNumber(*d.UncoveredAreaM2, 1), fmtNum(*d.RangeM, 2))
 	}
 	rows := len(d.Failures)
@@ -481,7 +659,14 @@ func printFailures(w io.Writer, line lineFunc, d *report.PlanDoc, m report.Meta,
 	}
 	for _, fl := range d.Failures[:rows] {
 		closing := "deepest new gap: no device left"
-		if fl.ClosingRangeM != nil {
+		switch {
+		case fl.Hidden:
+			closing = "hidden: costs nothing"
+		case own && fl.ClosingRangeM != nil && fl.AddedUncoveredM2 == 0 && *fl.ClosingRangeM == 0:
+			closing = "serves no part of the area"
+		case own && fl.ClosingRangeM != nil:
+			closing = "deepest new gap: backup " + siteLabel(m, fl.Backup) + " needs " + fmtNum(*fl.ClosingRangeM, 2) + " m"
+		case fl.ClosingRangeM != nil:
 			closing = "deepest new gap needs " + fmtNum(*fl.ClosingRangeM, 2) + " m"
 		}
 		fmt.Fprintf(w, "  rank %-3d %-28s loss %10s m²  %s\n", fl.Rank, siteLabel(m, fl.Site), fmtNum(fl.AddedUncoveredM2, 1), closing)
@@ -501,7 +686,12 @@ func printAssignment(line lineFunc, d *report.PlanDoc, m report.Meta) {
 		if a.Weighted {
 			wt = fmt.Sprintf(" (weight %s of %s)", trimNum(*a.ServedWeight), trimNum(*a.ServedWeight+*a.UnservedWeight))
 		}
-		line("within range", "%d of %d at %s m%s", *a.Served, a.Points, fmtNum(*d.RangeM, 2), wt)
+		if d.RangeM != nil {
+			line("within range", "%d of %d at %s m%s", *a.Served, a.Points, fmtNum(*d.RangeM, 2), wt)
+		} else {
+			line("within reach", "%d of %d, each at its device's own range%s", *a.Served, a.Points, wt)
+			line("redundant (hidden)", "%s", hiddenNote(d.Hidden, m, "they serve nothing"))
+		}
 	}
 	busiest := -1
 	for i, ld := range a.Load {
@@ -521,6 +711,36 @@ func printAssignment(line lineFunc, d *report.PlanDoc, m report.Meta) {
 		p := a.Farthest
 		line("farthest item", "%s: %s m from %s", report.ItemLabel(p.Name, "item", p.Point), fmtNum(p.DistanceM, 2), siteLabel(m, p.Device))
 	}
+}
+
+// hiddenList names the hidden devices ("none" when there is none).
+func hiddenList(hidden []int, m report.Meta) string {
+	if len(hidden) == 0 {
+		return "none"
+	}
+	var names []string
+	for _, i := range hidden {
+		names = append(names, siteLabel(m, i))
+	}
+	return strings.Join(names, ", ")
+}
+
+// newDevices describes the added devices' range and type.
+func newDevices(r float64, typ string) string {
+	t := fmtNum(r, 2) + " m"
+	if typ != "" {
+		t = typ + " " + t
+	}
+	return t
+}
+
+// hiddenNote is hiddenList followed by ": note" when there is a hidden
+// device.
+func hiddenNote(hidden []int, m report.Meta, note string) string {
+	if len(hidden) == 0 {
+		return "none"
+	}
+	return hiddenList(hidden, m) + ": " + note
 }
 
 // trimNum formats a weight without needless decimals.

@@ -734,6 +734,9 @@ func TestPlanBadInput(t *testing.T) {
 		// failures
 		{"failures without --range", base("failures"), 2, []string{"required flag --range is missing"}},
 		{"failures range zero", base("failures", "--range", "0"), 1, []string{`--range "0": must be greater than 0`}},
+		{"failures range column zero", []string{"failures", "--planar", "--sites", w("rz.csv", "x,y,range\n1,1,5m\n20,1,0\n10,20,5\n"), "--area", area, "--out", out}, 1, []string{`rz.csv line 3: range "0": must be greater than 0`}},
+		{"assign range column bad unit", []string{"assign", "--planar", "--sites", w("ru.csv", "x,y,range\n1,1,5m\n20,1,5 parsecs\n10,20,5\n"), "--points", negWeight, "--area", area, "--out", out}, 1, []string{"ru.csv line 3", "range"}},
+		{"failures type without range", []string{"failures", "--planar", "--sites", w("tt.csv", "x,y,type\n1,1,a\n20,1,b\n10,20,a\n"), "--type-range", "a=5m", "--area", area, "--out", out}, 1, []string{"tt.csv line 3", `"b"`}},
 		{"failures unknown flag", base("failures", "--range", "5", "--add", "1"), 2, []string{"unknown flag: --add"}},
 	}
 	for _, c := range cases {
@@ -750,5 +753,218 @@ func TestPlanBadInput(t *testing.T) {
 	b, _ := os.ReadFile(demand)
 	if r.code != 1 || !strings.Contains(r.stderr, "overwrite") || string(b) != "x,y\n1,1\n" {
 		t.Errorf("overwrite: exit %d, %q, file %q", r.code, r.stderr, b)
+	}
+}
+
+// planRangesJSON mirrors the summary.json members of the planning moves
+// with per-device ranges.
+type planRangesJSON struct {
+	RangeM      *float64            `json:"range_m"`
+	FullCoverM  *float64            `json:"full_cover_range_m"`
+	Uncovered   *float64            `json:"uncovered_area_m2"`
+	RangeGroups []report.RangeGroup `json:"range_groups"`
+	FullCover   []report.RangeGroup `json:"full_cover_ranges"`
+	Hidden      []int               `json:"hidden"`
+	Survive     []report.RangeGroup `json:"survive_any_single_failure_ranges"`
+	SurviveM    *float64            `json:"survive_any_single_failure_m"`
+	Failures    []struct {
+		Site    int      `json:"site"`
+		Added   float64  `json:"added_uncovered_m2"`
+		Hidden  bool     `json:"hidden"`
+		RangeM  *float64 `json:"range_m"`
+		Closing *float64 `json:"closing_range_m"`
+		Backup  int      `json:"backup"`
+	} `json:"failures"`
+	Assignment *struct {
+		Served      *int `json:"served"`
+		Assignments []struct {
+			Device int   `json:"device"`
+			Within *bool `json:"within_range"`
+		} `json:"assignments"`
+		Load []struct {
+			Device int      `json:"device"`
+			Count  int      `json:"count"`
+			RangeM *float64 `json:"range_m"`
+			Hidden bool     `json:"hidden"`
+		} `json:"load"`
+	} `json:"assignment"`
+}
+
+// TestPlanRangesCLI: failures and assign with a range column and with a
+// type column and --type-range (gateway g1 150 m; sensors s1, s2 40 m; s3
+// inside g1's disk, hidden), and suggest refusing them.
+func TestPlanRangesCLI(t *testing.T) {
+	dir := t.TempDir()
+	area := writeFile(t, dir, "a.geojson", `{"type":"Polygon","coordinates":[[[-50,-50],[260,-50],[260,180],[-50,180],[-50,-50]]]}`)
+	mixed := writeFile(t, dir, "mixed.csv", mixedCSV)
+	typed := writeFile(t, dir, "typed.csv", "name,x,y,type\ng1,0,0,gateway\ns1,200,0,sensor\ns2,100,120,sensor\ns3,20,10,sensor\n")
+	// Demand: (190, 0) lies in s1's power cell (power −1500 against g1's
+	// 13600) and its disk; (100, 0) in g1's (−12500 against s1's 8400);
+	// (30, 10), next to the hidden s3, goes to g1 (hidden devices serve
+	// nothing); (100, 170) is reached by no device and lies in s2's power
+	// cell (900 against g1's 16400).
+	pts := writeFile(t, dir, "pts.csv", "name,x,y\na,190,0\nb,100,0\nc,30,10\nd,100,170\n")
+	wantDev := []int{1, 0, 0, 2}
+	wantIn := []bool{true, true, true, false}
+	for _, c := range []struct {
+		name  string
+		sites []string
+	}{
+		{"range column", []string{"--sites", mixed}},
+		{"type range", []string{"--sites", typed, "--type-range", "gateway=150m", "--type-range", "sensor=40m"}},
+	} {
+		t.Run(c.name, func(t *testing.T) {
+			out := filepath.Join(dir, strings.ReplaceAll(c.name, " ", "-"))
+			r := mustRun(t, append(append([]string{"failures", "--planar", "--area", area}, c.sites...), "--out", out+"-f")...)
+			for _, w := range []string{"survive any single failure", "gateway (150 m)", "sensor (40 m)", "redundant (hidden)         s3", "hidden: costs nothing"} {
+				if !strings.Contains(r.stdout, w) {
+					t.Errorf("failures stdout lacks %q:\n%s", w, r.stdout)
+				}
+			}
+			var f planRangesJSON
+			b, err := os.ReadFile(filepath.Join(out+"-f", "summary.json"))
+			if err != nil {
+				t.Fatal(err)
+			}
+			if err := json.Unmarshal(b, &f); err != nil {
+				t.Fatal(err)
+			}
+			if f.RangeM != nil || f.FullCoverM != nil || f.SurviveM != nil || !slices.Equal(f.Hidden, []int{3}) || len(f.Survive) != 2 || len(f.RangeGroups) != 2 {
+				t.Fatalf("summary: range %v full cover %v survive %v hidden %v groups %v / %v", f.RangeM, f.FullCoverM, f.SurviveM, f.Hidden, f.RangeGroups, f.Survive)
+			}
+			// Uniform power growth: both groups grow r² by the same amount.
+			g, s := f.Survive[0], f.Survive[1]
+			if g.Type != "gateway" || s.Type != "sensor" || !near(g.RangeM*g.RangeM-150*150, s.RangeM*s.RangeM-40*40, 1e-9) || g.RangeM <= 150 {
+				t.Errorf("survive ranges %+v", f.Survive)
+			}
+			for _, d := range f.Failures {
+				if d.RangeM == nil || (d.Site == 0) != (*d.RangeM == 150) || d.Hidden != (d.Site == 3) || d.Hidden && d.Added != 0 {
+					t.Errorf("failure %+v", d)
+				}
+			}
+			text, _ := os.ReadFile(filepath.Join(out+"-f", "report.txt"))
+			if !strings.Contains(string(text), "every device's r² grows by the same amount") {
+				t.Errorf("report.txt lacks the meaning of the survive ranges")
+			}
+			rows := readCSV(t, filepath.Join(out+"-f", report.FileFailuresCSV))
+			if rows[0][len(rows[0])-1] != "hidden" {
+				t.Errorf("failures.csv head %v", rows[0])
+			}
+
+			r = mustRun(t, append(append([]string{"assign", "--planar", "--area", area, "--points", pts}, c.sites...), "--out", out+"-a")...)
+			if !strings.Contains(r.stdout, "within reach               3 of 4") {
+				t.Errorf("assign stdout:\n%s", r.stdout)
+			}
+			var a planRangesJSON
+			b, _ = os.ReadFile(filepath.Join(out+"-a", "summary.json"))
+			if err := json.Unmarshal(b, &a); err != nil {
+				t.Fatal(err)
+			}
+			for i, e := range a.Assignment.Assignments {
+				if e.Device != wantDev[i] || e.Within == nil || *e.Within != wantIn[i] {
+					t.Errorf("item %d: device %d within %v, want %d %v", i, e.Device, e.Within, wantDev[i], wantIn[i])
+				}
+			}
+			if ld := a.Assignment.Load[3]; !ld.Hidden || ld.Count != 0 || ld.RangeM == nil || *ld.RangeM != 40 {
+				t.Errorf("hidden device load %+v", ld)
+			}
+			checkFiles(t, out+"-a", report.MoveAssign, true, true, false)
+		})
+	}
+}
+
+// TestSuggestRangesCLI: suggest with per-device ranges: --add, the fewest
+// additions and candidate spots, the added devices' range from --range or
+// from --new-type in the type table; and a common-range site with added
+// devices of another type.
+func TestSuggestRangesCLI(t *testing.T) {
+	dir := t.TempDir()
+	area := writeFile(t, dir, "a.geojson", `{"type":"Polygon","coordinates":[[[-50,-50],[260,-50],[260,180],[-50,180],[-50,-50]]]}`)
+	typed := writeFile(t, dir, "typed.csv", "name,x,y,type\ng1,0,0,gateway\ns1,200,0,sensor\ns2,100,120,sensor\ns3,20,10,sensor\n")
+	sensors := writeFile(t, dir, "sensors.csv", "name,x,y,type\ns1,200,0,sensor\ns2,100,120,sensor\ns3,20,10,sensor\n")
+	cands := writeFile(t, dir, "c.csv", "name,x,y\nc1,200,150\nc2,-30,150\nc3,230,-40\nc4,100,40\n")
+	types := []string{"--type-range", "gateway=150m", "--type-range", "sensor=40m"}
+	for _, c := range []struct {
+		name string
+		args []string
+		want []string
+	}{
+		{"add with --range", append([]string{"--sites", typed, "--add", "2", "--range", "60m"}, types...), []string{"new devices 60.00 m", "2 new + 4 existing"}},
+		{"fewest of a type", append([]string{"--sites", typed, "--new-type", "gateway"}, types...), []string{"new devices gateway 150.00 m", "for no gap at the planned ranges"}},
+		{"candidates", append([]string{"--sites", typed, "--candidates", cands, "--new-type", "sensor", "--add", "2"}, types...), []string{"2 of 4, new devices sensor 40.00 m"}},
+		{"gateways among sensors", append([]string{"--sites", sensors, "--new-type", "gateway", "--add", "1"}, types...), []string{"new devices gateway 150.00 m"}},
+	} {
+		t.Run(c.name, func(t *testing.T) {
+			out := filepath.Join(dir, strings.ReplaceAll(c.name, " ", "-"))
+			r := mustRun(t, append(append([]string{"suggest", "--planar", "--area", area}, c.args...), "--out", out)...)
+			for _, w := range c.want {
+				if !strings.Contains(r.stdout, w) {
+					t.Errorf("stdout lacks %q:\n%s", w, r.stdout)
+				}
+			}
+			var doc struct {
+				RangeM      *float64 `json:"range_m"`
+				Suggestions *struct {
+					NewRangeM float64 `json:"new_range_m"`
+					Before    float64 `json:"uncovered_area_before_m2"`
+					After     float64 `json:"uncovered_area_after_m2"`
+				} `json:"suggestions"`
+				Candidates *struct {
+					NewRangeM float64 `json:"new_range_m"`
+					Before    float64 `json:"uncovered_area_before_m2"`
+					After     float64 `json:"uncovered_area_after_m2"`
+				} `json:"candidates"`
+			}
+			b, err := os.ReadFile(filepath.Join(out, "summary.json"))
+			if err != nil {
+				t.Fatal(err)
+			}
+			if err := json.Unmarshal(b, &doc); err != nil {
+				t.Fatal(err)
+			}
+			newR, before, after := 0.0, 0.0, 0.0
+			if s := doc.Suggestions; s != nil {
+				newR, before, after = s.NewRangeM, s.Before, s.After
+			} else if c := doc.Candidates; c != nil {
+				newR, before, after = c.NewRangeM, c.Before, c.After
+			}
+			if doc.RangeM != nil || newR <= 0 || !(after < before) {
+				t.Errorf("range %v, new range %v, uncovered %v -> %v", doc.RangeM, newR, before, after)
+			}
+		})
+	}
+	r := runCLI(t, "suggest", "--planar", "--area", area, "--sites", typed, "--new-type", "siren", "--add", "1", "--type-range", "gateway=150m", "--type-range", "sensor=40m", "--out", filepath.Join(dir, "x"))
+	checkFailure(t, r, 1, []string{`--new-type "siren"`, "no range for this type"})
+}
+
+// TestPlanEqualRangeColumn: a range column with one value gives the
+// figures of --range, to the last digit.
+func TestPlanEqualRangeColumn(t *testing.T) {
+	dir := t.TempDir()
+	area := writeFile(t, dir, "area.geojson", squareGeoJSON(0, 0, 50))
+	plain := writeFile(t, dir, "plain.csv", cellLatticeCSV(5, 10, [2]int{2, 2}))
+	var b strings.Builder
+	for k, line := range strings.Split(strings.TrimSpace(cellLatticeCSV(5, 10, [2]int{2, 2})), "\n") {
+		if k == 0 {
+			b.WriteString(line + ",range\n")
+		} else {
+			b.WriteString(line + ",7.5m\n")
+		}
+	}
+	col := writeFile(t, dir, "col.csv", b.String())
+	pts := writeFile(t, dir, "pts.csv", "x,y\n1,1\n25,25\n33,12\n49,2\n")
+	for _, cmd := range [][]string{{"failures"}, {"assign", "--points", pts}} {
+		t.Run(cmd[0], func(t *testing.T) {
+			o1, o2 := filepath.Join(dir, cmd[0]+"-flag"), filepath.Join(dir, cmd[0]+"-col")
+			mustRun(t, append(append([]string{}, cmd...), "--planar", "--sites", plain, "--area", area, "--range", "7.5", "--out", o1)...)
+			mustRun(t, append(append([]string{}, cmd...), "--planar", "--sites", col, "--area", area, "--out", o2)...)
+			p1, p2 := readPlan(t, o1), readPlan(t, o2)
+			p1.Timings, p2.Timings = nil, nil // the one field that may differ
+			j1, _ := json.Marshal(p1)
+			j2, _ := json.Marshal(p2)
+			if string(j1) != string(j2) {
+				t.Errorf("figures differ:\n%s\n%s", j1, j2)
+			}
+		})
 	}
 }

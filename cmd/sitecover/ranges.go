@@ -115,15 +115,7 @@ func printRangesAnalysis(w io.Writer, d *report.RangesDoc, m report.Meta) {
 		full = append(full, fmt.Sprintf("%s %s m", g.Type, fmtNum(g.RangeM, 2)))
 	}
 	fmt.Fprintf(w, "  %-24s %s\n", "full cover needs", strings.Join(full, ", "))
-	hidden := "none"
-	if len(d.Hidden) > 0 {
-		var names []string
-		for _, i := range d.Hidden {
-			names = append(names, siteLabel(m, i))
-		}
-		hidden = strings.Join(names, ", ")
-	}
-	fmt.Fprintf(w, "  %-24s %s\n", "redundant (hidden)", hidden)
+	fmt.Fprintf(w, "  %-24s %s\n", "redundant (hidden)", hiddenList(d.Hidden, m))
 }
 
 // printRangesGapTable prints the gaps at the planned ranges with what

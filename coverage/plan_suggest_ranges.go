@@ -1,0 +1,419 @@
+// Where to add devices, and which candidate spots to pick, when the
+// devices have their own ranges and the added ones a range R of their own.
+//
+// Powers. Device i at p_i with range r_i has the power π_i(x) = |x − p_i|²
+// − r_i², a point is covered when min_i π_i(x) ≤ 0, and inside the power
+// cell P_i (where π_i is smallest) only D_i covers (Aurenhammer, SIAM J.
+// Comput. 16, 1987). The full-cover figure is the growth t* = max over A
+// of min_i π_i(x): every range grown to √(r_i² + t*) covers the area, and
+// its worst point is a vertex of a clipped power cell (FullCoverRanges).
+//
+// Free placement (SuggestAdditionsRanges, FewestAdditionsRanges).
+// Farthest-point insertion in power terms, the analogue of Gonzalez's rule
+// (Theor. Comp. Sci. 38, 1985) that plan_suggest.go follows for one
+// common range: each new device, of range R, goes to the current worst
+// point, the point of the area that needs the largest growth, moved into
+// the area (planInside) when rounding put it just outside. The layout is
+// rebuilt with the regular triangulation after each addition
+// (NewLayoutRanges), so every figure is the exact power-diagram one; there
+// is no smallest-enclosing-circle refinement (the centre of a power cell's
+// enclosing circle is not where a device of range R serves it best). The
+// fewest additions insert until no gap is left, then drop, latest first,
+// every addition whose removal leaves no gap, as plan_suggest.go does; the
+// hexagonal estimate area / ((3√3/2) R²) (Kershner 1939) is the comparison.
+//
+// Candidate spots (ChooseCandidatesRanges). Greedy maximum coverage with
+// lazy evaluation, as plan_candidates.go (Nemhauser, Wolsey & Fisher 1978;
+// Minoux 1978), the covered area being submodular whatever the radii. The
+// gain of a spot c with range R is exact: in the current power cell X of
+// device x, the points where π_c ≤ π_x (the half-plane L(c, x),
+// planPowerLine) pass to c and are covered by D(c, R) alone; the others
+// keep x and D(x, r_x). A point of X ∩ L(c, x) in D(x, r_x) has π_c ≤ π_x ≤
+// 0, so it lies in D(c, R), and
+//
+//	gain(c) = Σ_X [ area(X ∩ L(c,x) ∩ D(c,R)) − area(X ∩ L(c,x) ∩ D(x,r_x)) ],
+//
+// each a polygon ∩ disk area in closed form (planar.RingDiskArea). Only
+// cells within R + ρ_max of c can meet D(c, R) (ρ_max the largest distance
+// from a device to a point of its cell), and X ∩ L(c, x) lies in D(c, R)
+// wherever the terms differ, so the sum runs over those cells. After each
+// pick the layout is rebuilt.
+//
+// With all ranges equal, R included, the common-range planners run
+// (SuggestAdditions, FewestAdditions, ChooseCandidates: same positions and
+// picks), their figures restated in these terms.
+//
+// Cost: one regular triangulation and clipping per addition or pick
+// (O(n log n) each); suited to the hundreds of additions a site plan
+// makes, not to the million-device runs of the common-range planners.
+//
+// Error bounds: those of NewLayoutRanges and plan_clip.go (relative 1e-14
+// of the cell areas); gains below planGainEps(R) are rounding noise.
+
+package coverage
+
+import (
+	"fmt"
+	"math"
+	"sort"
+
+	"github.com/paulmach/orb"
+	"github.com/sitecover/sitecover/planar"
+)
+
+// rangesPlan is a layout with per-device ranges plus added devices of
+// range r, rebuilt after every change.
+type rangesPlan struct {
+	base  *Layout
+	r     float64
+	added []orb.Point
+	ix    *planar.RegionIndex
+	cur   *Layout
+	fc    RangesFullCover
+}
+
+// newRangesPlan starts a plan on layout l (per-device ranges) for added
+// devices of range r.
+func newRangesPlan(l *Layout, r float64) *rangesPlan {
+	return &rangesPlan{base: l, r: r, ix: l.Area.Index(), cur: l, fc: l.FullCoverRanges()}
+}
+
+// rebuild recomputes the layout with the current additions.
+func (p *rangesPlan) rebuild() error {
+	if len(p.added) == 0 {
+		p.cur, p.fc = p.base, p.base.FullCoverRanges()
+		return nil
+	}
+	sites := append(append([]orb.Point(nil), p.base.Sites...), p.added...)
+	ranges := append([]float64(nil), p.base.InputRanges...)
+	for range p.added {
+		ranges = append(ranges, p.r)
+	}
+	l, err := NewLayoutRanges(sites, ranges, p.base.Area)
+	if err != nil {
+		return err
+	}
+	p.cur, p.fc = l, l.FullCoverRanges()
+	return nil
+}
+
+// covered reports whether no gap is left (the full-cover growth is at
+// most 0, allowing planRangeTol of R² for rounding).
+func (p *rangesPlan) covered() bool { return p.fc.Power <= planRangeTol*p.r*p.r }
+
+// insert adds a device at the current worst point.
+func (p *rangesPlan) insert() error {
+	if len(p.fc.Worst) == 0 {
+		return fmt.Errorf("no worst point: the area has no service area")
+	}
+	w := p.fc.Worst[0]
+	x, y, ok := planInside(p.ix, p.base.Area, w[0], w[1])
+	if !ok {
+		return fmt.Errorf("no point of the site area found near the worst point (%.6g, %.6g)", w[0], w[1])
+	}
+	p.added = append(p.added, orb.Point{x, y})
+	return p.rebuild()
+}
+
+// grownNew is the range an added device needs under the uniform growth t:
+// √(R² + t), R itself when t ≤ 0 (no growth needed).
+func (p *rangesPlan) grownNew(t float64) float64 {
+	if t <= 0 {
+		return p.r
+	}
+	return math.Sqrt(p.r*p.r + t)
+}
+
+// figures returns the full-cover growth, the range an added device needs
+// under it, the uncovered area and the covered fraction of the current
+// layout.
+func (p *rangesPlan) figures() (pow, need, unc, frac float64) {
+	unc = p.cur.UncoveredAreaGrown(0)
+	return p.fc.Power, p.grownNew(p.fc.Power), unc, planFrac(p.cur.AreaM2-unc, p.cur.AreaM2)
+}
+
+// report replays the additions from the bare layout and collects the
+// figures.
+func (p *rangesPlan) report() (*Suggestion, error) {
+	pts := p.added
+	q := newRangesPlan(p.base, p.r)
+	s := &Suggestion{NewRange: p.r, Existing: len(p.base.Sites), Added: pts, Steps: make([]Step, len(pts))}
+	pow, need, unc, frac := q.figures()
+	s.FullCoverPowerBefore, s.FullCoverBefore, s.UncoveredBefore, s.CoveredBefore = pow, need, unc, frac
+	for j, a := range pts {
+		st := Step{Added: a, FullCoverPowerBefore: pow, FullCoverBefore: need, UncoveredBefore: unc, CoveredBefore: frac}
+		q.added = append(q.added, a)
+		if err := q.rebuild(); err != nil {
+			return nil, err
+		}
+		pow, need, unc, frac = q.figures()
+		st.FullCoverPowerAfter, st.FullCoverAfter, st.UncoveredAfter, st.CoveredAfter = pow, need, unc, frac
+		s.Steps[j] = st
+	}
+	s.FullCoverPowerAfter, s.FullCoverAfter, s.UncoveredAfter, s.CoveredAfter = pow, need, unc, frac
+	s.TotalDevices = s.Existing + len(pts)
+	return s, nil
+}
+
+// checkRangesMove checks the layout and the added devices' range r of a
+// planning move with per-device ranges.
+func checkRangesMove(where string, l *Layout, r float64) error {
+	if err := planCheckLayout(l); err != nil {
+		return fmt.Errorf("%s: %w", where, err)
+	}
+	if !l.weighted() {
+		return fmt.Errorf("%s: the layout has one common range (use the common-range planner)", where)
+	}
+	if math.IsNaN(r) || math.IsInf(r, 0) || r <= 0 {
+		return fmt.Errorf("%s: range %v of the added devices must be a finite number > 0", where, r)
+	}
+	return nil
+}
+
+// SuggestAdditionsRanges proposes positions for k new devices of range r
+// in the site area of a layout with per-device ranges (NewLayoutRanges),
+// by farthest-point insertion in power terms (see the file comment). The
+// result's NewRange is r and Range 0: covered figures refer to each
+// device's own range; FullCoverBefore and FullCoverAfter are the range an
+// added device would need with every r² grown alike until no gap is left,
+// FullCoverPowerBefore and FullCoverPowerAfter that growth.
+//
+// Suggestions are planning aids, exact for the disk model only.
+func SuggestAdditionsRanges(l *Layout, k int, r float64) (*Suggestion, error) {
+	const where = "coverage: SuggestAdditionsRanges"
+	if err := checkRangesMove(where, l, r); err != nil {
+		return nil, err
+	}
+	if k < 0 {
+		return nil, fmt.Errorf("%s: %d additions requested; need k ≥ 0", where, k)
+	}
+	if l.inputRangesEqual() && r == l.InputRanges[0] {
+		s, err := SuggestAdditions(l, k, SuggestOptions{Range: r})
+		return suggestionAsRanges(s, r), err
+	}
+	p := newRangesPlan(l, r)
+	for j := 0; j < k; j++ {
+		if err := p.insert(); err != nil {
+			return nil, fmt.Errorf("%s: addition %d: %w", where, j+1, err)
+		}
+	}
+	s, err := p.report()
+	if err != nil {
+		return nil, fmt.Errorf("%s: %w", where, err)
+	}
+	s.Method = MethodFarthestPoint
+	return s, nil
+}
+
+// FewestAdditionsRanges adds devices of range r to a layout with
+// per-device ranges until no gap is left (farthest-point insertion in
+// power terms, then pruning; see the file comment), and compares the
+// total with the hexagonal covering estimate for r. When the cap
+// opt.MaxAdditions (0: 8·⌈estimate⌉ + 64) is reached first it returns the
+// devices placed so far together with an error wrapping ErrAdditionCap.
+func FewestAdditionsRanges(l *Layout, r float64, opt SuggestOptions) (*Suggestion, error) {
+	const where = "coverage: FewestAdditionsRanges"
+	if err := checkRangesMove(where, l, r); err != nil {
+		return nil, err
+	}
+	hex := l.AreaM2 / (1.5 * math.Sqrt(3) * r * r)
+	limit := opt.MaxAdditions
+	if limit <= 0 {
+		limit = 8*int(math.Min(math.Ceil(hex), 1<<26)) + 64
+	}
+	if l.inputRangesEqual() && r == l.InputRanges[0] {
+		s, err := FewestAdditions(l, r, opt)
+		return suggestionAsRanges(s, r), err
+	}
+	p := newRangesPlan(l, r)
+	capped := false
+	for !p.covered() {
+		if len(p.added) >= limit {
+			capped = true
+			break
+		}
+		if err := p.insert(); err != nil {
+			return nil, fmt.Errorf("%s: addition %d: %w", where, len(p.added)+1, err)
+		}
+	}
+	if !capped {
+		// Drop additions whose removal leaves no gap, latest first.
+		for i := len(p.added) - 1; i >= 0; i-- {
+			keep := p.added
+			p.added = append(append([]orb.Point(nil), keep[:i]...), keep[i+1:]...)
+			if err := p.rebuild(); err != nil {
+				return nil, fmt.Errorf("%s: %w", where, err)
+			}
+			if !p.covered() {
+				p.added = keep
+			}
+		}
+		if err := p.rebuild(); err != nil {
+			return nil, fmt.Errorf("%s: %w", where, err)
+		}
+	}
+	s, err := p.report()
+	if err != nil {
+		return nil, fmt.Errorf("%s: %w", where, err)
+	}
+	s.Method = MethodFarthestPoint
+	s.Reached = p.covered()
+	s.HexEstimate = hex
+	s.HexDevices = int(math.Ceil(hex))
+	if hex > 0 {
+		s.HexRatio = float64(s.TotalDevices) / hex
+	}
+	if capped {
+		return s, fmt.Errorf("%s: %w: %d additions leave gaps (raise SuggestOptions.MaxAdditions)", where, ErrAdditionCap, len(s.Added))
+	}
+	return s, nil
+}
+
+// ChooseCandidatesRanges is ChooseCandidates for a layout with per-device
+// ranges, each picked spot getting a device of range r: k spots maximising
+// the covered area, or with k ≤ 0 the fewest that leave no gap (see the
+// file comment for the exact gain). The result's Range is 0 and NewRange
+// r; FullCoverBefore and FullCoverAfter are the range an added device
+// would need with every r² grown alike until no gap is left (r when none
+// is left), and Remaining are the gaps at the planned ranges.
+func ChooseCandidatesRanges(l *Layout, candidates []orb.Point, r float64, k int) (*Choice, error) {
+	const where = "coverage: ChooseCandidatesRanges"
+	if err := checkRangesMove(where, l, r); err != nil {
+		return nil, err
+	}
+	if len(candidates) == 0 {
+		return nil, fmt.Errorf("%s: no candidate spot", where)
+	}
+	for i, q := range candidates {
+		if err := planCheckPoint(q); err != nil {
+			return nil, fmt.Errorf("%s: candidate %d: %w", where, i, err)
+		}
+	}
+	if l.inputRangesEqual() && r == l.InputRanges[0] {
+		ch, err := ChooseCandidates(l, candidates, r, k)
+		if ch != nil {
+			ch.Range, ch.NewRange = 0, r
+			ch.FullCoverBefore, ch.FullCoverAfter = math.Max(r, ch.FullCoverBefore), math.Max(r, ch.FullCoverAfter)
+		}
+		return ch, err
+	}
+	p := newRangesPlan(l, r)
+	ch := &Choice{NewRange: r}
+	area := l.AreaM2
+	_, ch.FullCoverBefore, ch.UncoveredBefore, ch.FractionBefore = p.figures()
+	ch.CoveredBefore = math.Max(0, area-ch.UncoveredBefore)
+	eps := planGainEps(r)
+	g := newGainIndex(p.cur)
+	h := make(planHeap, len(candidates))
+	gains := make([]float64, len(candidates))
+	planar.ParallelFor(len(candidates), 64, func(lo, hi int) {
+		var sc rangesGainScratch
+		for i := lo; i < hi; i++ {
+			gains[i] = g.gain(candidates[i][0], candidates[i][1], r, &sc)
+		}
+	})
+	for i, v := range gains {
+		h[i] = planItem{gain: v, idx: int32(i)}
+	}
+	var sc rangesGainScratch
+	err := planLazyGreedy(ch, h, k, eps, p.covered,
+		func(i int32) float64 { return g.gain(candidates[i][0], candidates[i][1], r, &sc) },
+		func(i int32) error {
+			p.added = append(p.added, candidates[i])
+			if err := p.rebuild(); err != nil {
+				return err
+			}
+			g = newGainIndex(p.cur)
+			return nil
+		})
+	if err != nil {
+		return nil, fmt.Errorf("%s: layout with the picks: %w", where, err)
+	}
+	_, ch.FullCoverAfter, ch.UncoveredAfter, ch.FractionAfter = p.figures()
+	ch.CoveredAfter = math.Max(0, area-ch.UncoveredAfter)
+	ch.Complete = p.covered()
+	if !ch.Complete {
+		ch.Remaining = p.cur.GapsRanges(0, DefaultChordTolerance)
+	}
+	return ch, nil
+}
+
+// suggestionAsRanges restates a common-range suggestion (all ranges r) in
+// the terms of SuggestAdditionsRanges: NewRange r, Range 0, full-cover
+// growths ρ² − r² and the range an added device needs, max(r, ρ).
+func suggestionAsRanges(s *Suggestion, r float64) *Suggestion {
+	if s == nil {
+		return nil
+	}
+	pow := func(rho float64) float64 { return rho*rho - r*r }
+	s.Range, s.NewRange = 0, r
+	s.FullCoverPowerBefore, s.FullCoverPowerAfter = pow(s.FullCoverBefore), pow(s.FullCoverAfter)
+	s.FullCoverBefore, s.FullCoverAfter = math.Max(r, s.FullCoverBefore), math.Max(r, s.FullCoverAfter)
+	for j := range s.Steps {
+		st := &s.Steps[j]
+		st.FullCoverPowerBefore, st.FullCoverPowerAfter = pow(st.FullCoverBefore), pow(st.FullCoverAfter)
+		st.FullCoverBefore, st.FullCoverAfter = math.Max(r, st.FullCoverBefore), math.Max(r, st.FullCoverAfter)
+	}
+	return s
+}
+
+// gainIndex finds the power cells near a point: the vertices of a layout
+// sorted by x, and the largest cell radius.
+type gainIndex struct {
+	l      *Layout
+	x      []float64
+	v      []int32
+	rhoMax float64
+}
+
+func newGainIndex(l *Layout) *gainIndex {
+	nv := l.numVertices()
+	g := &gainIndex{l: l, x: make([]float64, nv), v: make([]int32, nv)}
+	for v := range g.v {
+		g.v[v] = int32(v)
+	}
+	t := l.Tri
+	sort.Slice(g.v, func(a, b int) bool { return t.Coords[2*g.v[a]] < t.Coords[2*g.v[b]] })
+	for k, v := range g.v {
+		g.x[k] = t.Coords[2*v]
+		d, _, _ := l.vertexFarthest(v)
+		g.rhoMax = math.Max(g.rhoMax, d)
+	}
+	return g
+}
+
+// rangesGainScratch is per-goroutine scratch space of gainIndex.gain.
+type rangesGainScratch struct {
+	cell, a, b planar.ClipRings
+}
+
+// gain returns the covered area a device of range r at (cx, cy) would add
+// (the file comment's formula).
+func (g *gainIndex) gain(cx, cy, r float64, sc *rangesGainScratch) float64 {
+	l, t, c := g.l, g.l.Tri, g.l.Cells
+	reach := r + g.rhoMax
+	sum := 0.0
+	for k := sort.SearchFloat64s(g.x, cx-reach); k < len(g.x) && g.x[k] <= cx+reach; k++ {
+		v := g.v[k]
+		vx, vy := t.Coords[2*v], t.Coords[2*v+1]
+		if math.Abs(vy-cy) > reach || c.SiteStart[v] == c.SiteStart[v+1] {
+			continue
+		}
+		rv := l.Ranges[v]
+		hp := planPowerLine(cx, cy, r*r, vx, vy, rv*rv)
+		sc.cell.Reset()
+		rs := planCellRings(c, v)
+		for j := 0; j < rs.NumRings(); j++ {
+			sc.cell.AppendRing(rs.Ring(j), v)
+		}
+		if hp.AllOutside(sc.cell.XY) {
+			continue
+		}
+		piece := kCut(hp, &sc.cell, &sc.a, &sc.b)
+		for j := 0; j < piece.NumRings(); j++ {
+			ring := piece.Ring(j)
+			sum += planar.RingDiskArea(ring, cx, cy, r) - planar.RingDiskArea(ring, vx, vy, rv)
+		}
+	}
+	return math.Max(0, sum)
+}
