@@ -20,6 +20,7 @@ import (
 	"os"
 	"os/exec"
 	"path/filepath"
+	"slices"
 	"testing"
 	"time"
 
@@ -298,22 +299,42 @@ func screenshots(t *testing.T, ctx context.Context) {
 }
 
 // measureEdit is a script that sends one edit from the page and resolves
-// to the milliseconds until the page has drawn the answer.
-const measureEdit = `new Promise((resolve) => {
-  const t0 = performance.now();
-  window.review.edit(%s);
-  const wait = () => window.review.pending ? setTimeout(wait, 2) :
-    requestAnimationFrame(() => resolve(performance.now() - t0));
-  wait(); })`
+// to the page's timing record of it (app.js, window.review.timing): from
+// sending the edit (totalMs) and from its answer arriving (redrawMs) to
+// the frame with the new plan and figures painted, with the server's
+// compute time, the JSON parse and the drawing calls.
+const measureEdit = `new Promise((res) => { const s = window.review.edit(%s);
+  const w = () => (window.review.timing && window.review.timing.seq === s) ? res(window.review.timing) : setTimeout(w, 2);
+  w(); })`
 
-// browserUpdateLimit is a generous bound on one update seen in the
-// browser for 10 000 devices: it catches a regression (a quadratic draw)
-// without failing on a loaded machine; the times are logged. Headless
-// Chromium paints in software: most of an update's time is the paint.
-const browserUpdateLimit = 5 * time.Second
+// editTiming is the page's timing record of one edit (milliseconds).
+type editTiming struct {
+	Op         string  `json:"op"`
+	TotalMs    float64 `json:"totalMs"`
+	FetchMs    float64 `json:"fetchMs"`
+	ServerMs   float64 `json:"serverMs"`
+	ParseMs    float64 `json:"parseMs"`
+	SetStateMs float64 `json:"setStateMs"`
+	DrawMs     float64 `json:"drawMs"`
+	RedrawMs   float64 `json:"redrawMs"`
+}
 
-// TestBrowserUpdate10kLive times edits in the browser on 10 000 devices: from
-// sending the edit to the page having drawn the new plan and figures.
+// browserRedrawLimitMs bounds the median time from an edit's answer
+// arriving to the page painted, for 10 000 devices: the issue's 100 ms.
+// The server's part of an update (decode, recompute, encode) is bounded
+// by BenchmarkReviewUpdate10k; this is the browser's part, measured in
+// the page with performance.now. It is the median of browserEdits edits
+// (range and device edits alike), so that an edit or two slowed by other
+// processes on a shared machine does not fail it while a redraw that is
+// slow every time does.
+const (
+	browserRedrawLimitMs = 100
+	browserEdits         = 11
+)
+
+// TestBrowserUpdate10kLive times edits in the browser on 10 000 devices:
+// from the edit sent, and from its answer arriving, to the page having
+// painted the new plan and figures.
 func TestBrowserUpdate10kLive(t *testing.T) {
 	path := chromiumOrSkip(t)
 	sv := newBenchServer(t, benchDevices)
@@ -323,22 +344,39 @@ func TestBrowserUpdate10kLive(t *testing.T) {
 	if err := chromedp.Do(ctx, chromedp.Navigate(ts.URL), chromedp.WaitVisible(chromedp.CSS(`body[data-ready="1"]`))); err != nil {
 		t.Fatal(err)
 	}
-	edits := []struct{ name, edit string }{
-		{"range", `{op: "range", range: 60}`},
-		{"range back", `{op: "range", range: 55}`},
-		{"move", `{op: "move", device: 17, x: 2500, y: 2500}`},
-		{"switch off", `{op: "off", device: 99}`},
-		{"undo", `{op: "undo"}`},
+	edits := []string{
+		`{op: "range", range: 60}`, `{op: "range", range: 55}`, `{op: "range", range: 52}`,
+		`{op: "move", device: 17, x: 2500, y: 2500}`, `{op: "off", device: 99}`, `{op: "on", device: 99}`,
+		`{op: "add", points: [{x: 1000, y: 1200}]}`, `{op: "remove", device: 5}`, `{op: "undo"}`,
+		`{op: "range", range: 58}`, `{op: "move", device: 400, x: 100, y: 4900}`,
 	}
+	if len(edits) != browserEdits {
+		t.Fatalf("%d edits listed; browserEdits is %d", len(edits), browserEdits)
+	}
+	var redraw, total []float64
 	for _, e := range edits {
-		ms, err := chromedp.Run(ctx, chromedp.Evaluate[float64](fmt.Sprintf(measureEdit, e.edit), chromedp.EvalAwaitPromise))
+		tm, err := chromedp.Run(ctx, chromedp.Evaluate[editTiming](fmt.Sprintf(measureEdit, e), chromedp.EvalAwaitPromise))
 		if err != nil {
 			t.Fatal(err)
 		}
-		parts, _ := chromedp.Run(ctx, chromedp.Evaluate[[3]float64](`[window.review.fetchMs, window.review.setStateMs, window.review.drawMs]`))
-		t.Logf("%-10s %6.0f ms from the edit to the page drawn (request %.0f ms, setState %.0f ms, draw %.0f ms)", e.name, ms, parts[0], parts[1], parts[2])
-		if time.Duration(ms*float64(time.Millisecond)) > browserUpdateLimit {
-			t.Errorf("%s: %.0f ms, over %v", e.name, ms, browserUpdateLimit)
-		}
+		t.Logf("%-7s total %4.0f ms: request %3.0f (server %3.0f), parse %2.0f, setState %3.0f (drawing calls %3.0f); answer to painted %4.0f ms",
+			tm.Op, tm.TotalMs, tm.FetchMs, tm.ServerMs, tm.ParseMs, tm.SetStateMs, tm.DrawMs, tm.RedrawMs)
+		redraw, total = append(redraw, tm.RedrawMs), append(total, tm.TotalMs)
 	}
+	disks, _ := chromedp.Run(ctx, chromedp.Evaluate[float64](`window.review.diskCount`))
+	mr, mt := median(redraw), median(total)
+	t.Logf("median of %d edits: %.0f ms from the answer to the page painted, %.0f ms from the edit sent (%.0f disks drawn as circles)", len(edits), mr, mt, disks)
+	if mr > browserRedrawLimitMs {
+		t.Errorf("median redraw %.0f ms for %d devices; want at most %d ms", mr, benchDevices, browserRedrawLimitMs)
+	}
+}
+
+// median returns the median of xs (xs is sorted in place).
+func median(xs []float64) float64 {
+	slices.Sort(xs)
+	n := len(xs)
+	if n%2 == 1 {
+		return xs[n/2]
+	}
+	return (xs[n/2-1] + xs[n/2]) / 2
 }

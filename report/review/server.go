@@ -241,6 +241,9 @@ func (sv *Server) edit(w http.ResponseWriter, r *http.Request) {
 	var b []byte
 	if err == nil {
 		d := sv.stateDoc(time.Since(t0), e.Op != "range")
+		if e.Patch {
+			d.patch(sv.s)
+		}
 		b, err = d.encode()
 	}
 	sv.mu.Unlock()

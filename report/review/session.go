@@ -118,6 +118,18 @@ type session struct {
 	gesture int
 	geo     *geometry
 	at      atRange
+	// change is what the last edit did to the device list (nil: unknown,
+	// as after an undo: send the whole list).
+	change *devChange
+}
+
+// devChange is what one edit did to the device list, from the list of
+// version base: the device removed (−1: none), then the devices set (new
+// or changed), by index into the new list.
+type devChange struct {
+	base    int
+	removed int
+	set     []int
 }
 
 // editError is a refused edit: its status is the HTTP status to answer.
@@ -216,6 +228,11 @@ type Edit struct {
 	// Version, when given, must equal the session's version: an edit made
 	// on a stale view is refused with 409.
 	Version *int `json:"version,omitempty"`
+	// Patch asks for the device list of the answer as a patch of the
+	// previous one (stateDoc.DevicePatch) where the edit allows it: the
+	// page sends it, so that moving one of 10 000 devices does not answer
+	// all 10 000 again.
+	Patch bool `json:"patch,omitempty"`
 }
 
 // NewDevice is a device placed by an add edit.
@@ -246,6 +263,7 @@ func (s *session) apply(e *Edit, cfg *Config) error {
 		}
 		s.record(e.Gesture)
 		s.r, s.at = *e.Range, at
+		s.change = &devChange{base: s.version, removed: -1}
 		s.version++
 		return nil
 	}
@@ -258,9 +276,27 @@ func (s *session) apply(e *Edit, cfg *Config) error {
 		return err
 	}
 	s.record(e.Gesture)
+	s.change = deviceChange(e, s.version, len(s.devs), len(devs))
 	s.devs, s.geo, s.at = devs, geo, at
 	s.version++
 	return nil
+}
+
+// deviceChange is what the device edit e did to a list of n devices of
+// version base, now m long.
+func deviceChange(e *Edit, base, n, m int) *devChange {
+	c := &devChange{base: base, removed: -1}
+	switch e.Op {
+	case "remove":
+		c.removed = *e.Device
+	case "add":
+		for i := n; i < m; i++ {
+			c.set = append(c.set, i)
+		}
+	default:
+		c.set = []int{*e.Device}
+	}
+	return c
 }
 
 // record pushes the current state for undo, unless the edit continues the
@@ -375,6 +411,7 @@ func (s *session) undoLast(cfg *Config) error {
 	s.devs, s.r, s.geo, s.at = last.devs, last.r, geo, at
 	s.undo = s.undo[:len(s.undo)-1]
 	s.gesture = 0
+	s.change = nil
 	s.version++
 	return nil
 }
