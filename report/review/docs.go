@@ -159,14 +159,19 @@ func (d *stateDoc) patch(s *session) {
 }
 
 // rowOf is a device's row.
-func rowOf(v device) deviceRow { return deviceRow{X: v.X, Y: v.Y, Label: v.Label, On: v.On} }
+func rowOf(v device) deviceRow {
+	return deviceRow{X: v.X, Y: v.Y, Label: v.Label, On: v.On, Range: v.R, Type: v.Type}
+}
 
-// deviceRow is one device in the state.
+// deviceRow is one device in the state; with own ranges Range is its own
+// range b (m; at growth t it reaches √(b² + t)) and Type its type.
 type deviceRow struct {
 	X     float64 `json:"x"`
 	Y     float64 `json:"y"`
 	Label string  `json:"label"`
 	On    bool    `json:"on"`
+	Range float64 `json:"range,omitempty"`
+	Type  string  `json:"type,omitempty"`
 }
 
 // figuresDoc holds the figures of the plan at the range.
@@ -185,6 +190,17 @@ type figuresDoc struct {
 	OpenHoles        int          `json:"openHoles"`
 	Holes            []holeDoc    `json:"holes"`
 	Curve            [][2]float64 `json:"curve"` // (range m, covered fraction), see curve.go
+	// With own ranges (ranges.go): RangeM, FullCoverRangeM, the gaps'
+	// ClosingRangeM, the holes' and the curve's ranges are the largest
+	// range (the slider's value); GrowthM2 is the growth t of every
+	// device's power (its range √(b² + t), b its row's range), LeastRangeM
+	// the slider's least value, Hidden the devices with no power cell.
+	GrowthM2    *float64 `json:"growthM2,omitempty"`
+	LeastRangeM *float64 `json:"leastRangeM,omitempty"`
+	Hidden      []int    `json:"hidden,omitempty"`
+	// Types lists the device types of the plan (own ranges with a type
+	// column), for the per-type range control.
+	Types []string `json:"types,omitempty"`
 }
 
 // gapDoc is one gap.
@@ -197,6 +213,10 @@ type gapDoc struct {
 	TouchesBoundary bool            `json:"touchesBoundary"`
 	Devices         []int           `json:"devices"`
 	Outline         json.RawMessage `json:"outline"`
+	// With own ranges: the device that closes the gap alone with the
+	// least increase, and the range it needs.
+	AloneDevice *int     `json:"aloneDevice,omitempty"`
+	AloneRangeM *float64 `json:"aloneRangeM,omitempty"`
 }
 
 // holeDoc is one hole of the union of disks (persistence).
@@ -221,17 +241,24 @@ func (sv *Server) stateDoc(took time.Duration, withDevices bool) stateDoc {
 		}
 	}
 	f := &d.Figures
-	f.RangeM = s.r
 	f.AreaM2 = g.layout.AreaM2
 	f.UncoveredM2 = s.at.uncovered
 	f.CoveredFraction = coveredFraction(s.at.uncovered, g.layout.AreaM2)
-	f.FullCoverRangeM = g.full.Range
-	f.FullCoverPoints = make([][2]float64, len(g.full.Worst))
-	for i, p := range g.full.Worst {
-		f.FullCoverPoints[i] = p
-	}
-	f.FullCoverDevices = g.deviceIndex(g.full.WorstSites)
 	f.DevicesOn = len(g.active)
+	if g.ranged != nil {
+		sv.rangedFigures(f)
+	} else {
+		f.RangeM = s.r
+		f.FullCoverRangeM = g.full.Range
+		f.FullCoverPoints = make([][2]float64, len(g.full.Worst))
+		for i, p := range g.full.Worst {
+			f.FullCoverPoints[i] = p
+		}
+		f.FullCoverDevices = g.deviceIndex(g.full.WorstSites)
+		f.Pieces, f.OpenHoles = g.pers.Betti(s.r)
+		f.Holes = holesDoc(g, s.r)
+	}
+	f.Types = sv.cfg.typeList
 	f.Gaps = make([]gapDoc, len(s.at.gaps))
 	d.outlines = make([][]byte, len(s.at.gaps))
 	for i, gp := range s.at.gaps {
@@ -240,18 +267,20 @@ func (sv *Server) stateDoc(took time.Duration, withDevices bool) stateDoc {
 			Deepest: gp.Deepest, Centroid: gp.Centroid, TouchesBoundary: gp.TouchesBoundary,
 			Devices: g.deviceIndex(gp.Sites),
 		}
+		if g.ranged != nil {
+			rangedGap(&f.Gaps[i], gp, g)
+		}
 		d.outlines[i] = appendMultiPolygon(nil, gp.Outline)
 		if !gp.TouchesBoundary {
 			f.EnclosedGaps++
 		}
 	}
-	f.Pieces, f.OpenHoles = g.pers.Betti(s.r)
-	f.Holes = holesDoc(g, s.r)
+	full := f.FullCoverRangeM
 	f.Curve = make([][2]float64, 0, len(g.share)+1)
 	grid := sv.cfg.grid
 	for k, sh := range g.share {
-		if k > 0 && grid[k-1] < g.full.Range && g.full.Range < grid[k] {
-			f.Curve = append(f.Curve, [2]float64{g.full.Range, 1})
+		if k > 0 && grid[k-1] < full && full < grid[k] {
+			f.Curve = append(f.Curve, [2]float64{full, 1})
 		}
 		f.Curve = append(f.Curve, [2]float64{grid[k], sh})
 	}
@@ -295,7 +324,16 @@ type deviceDoc struct {
 	X      float64 `json:"x"`
 	Y      float64 `json:"y"`
 	On     bool    `json:"on"`
-	// The figures below are present for a device in service.
+	// With own ranges: the device's range now (m), its type, whether it is
+	// hidden (no power cell: its disk lies inside the others' union), and
+	// the part of its service area within its range (at the ranges as
+	// given, growth 0).
+	RangeM        *float64 `json:"rangeM,omitempty"`
+	Type          string   `json:"type,omitempty"`
+	Hidden        bool     `json:"hidden,omitempty"`
+	WithinRangeM2 *float64 `json:"withinRangeM2,omitempty"`
+	// The figures below are present for a device in service (the loss if
+	// it fails: with one common range only).
 	ServedM2             *float64    `json:"servedM2,omitempty"`
 	ServedShare          *float64    `json:"servedShare,omitempty"`
 	FarthestM            *float64    `json:"farthestM,omitempty"`
@@ -313,7 +351,16 @@ func (sv *Server) deviceDoc(i int) (deviceDoc, error) {
 		return deviceDoc{}, refuse(404, "no device %d (the plan has %d)", i, len(s.devs))
 	}
 	v := s.devs[i]
-	d := deviceDoc{Device: i, Label: v.Label, X: v.X, Y: v.Y, On: v.On}
+	d := deviceDoc{Device: i, Label: v.Label, X: v.X, Y: v.Y, On: v.On, Type: v.Type}
+	if s.geo.ranged != nil {
+		if k, on := slices.BinarySearch(s.geo.active, int32(i)); on {
+			sv.rangedDevice(&d, k)
+		} else {
+			cur := grown(v.R, s.t)
+			d.RangeM = &cur
+		}
+		return d, nil
+	}
 	sa, f, ok, err := s.deviceFigures(i)
 	if err != nil || !ok {
 		return d, err

@@ -67,17 +67,21 @@ const (
 	maxLabel = 200
 )
 
-// device is one device of the session.
+// device is one device of the session. R is its own range (m) when the
+// devices have their own (ranges.go; 0 with one common range), Type its
+// type ("" for none).
 type device struct {
 	X, Y  float64
 	Label string
 	On    bool
+	R     float64
+	Type  string
 }
 
 // snapshot is a session state kept for undo.
 type snapshot struct {
 	devs []device
-	r    float64
+	r, t float64
 }
 
 // geometry is what depends on the devices in service but not on the
@@ -99,6 +103,10 @@ type geometry struct {
 	failures *coverage.FailureReport
 	failR    float64
 	failAt   []int32 // layout input index -> position in failures.Devices
+	// ranged holds the figures of a layout with own ranges (nil: one
+	// common range; then full, cells, pers and the per-device figures
+	// above are used).
+	ranged *rangedGeo
 }
 
 // atRange is what depends on the range too.
@@ -110,8 +118,12 @@ type atRange struct {
 // session is the state under review. It is not safe for concurrent use;
 // Server holds a mutex around every call.
 type session struct {
-	devs    []device
-	r       float64
+	devs []device
+	r    float64
+	// ranged is true when the devices have their own ranges; t is then the
+	// growth of every device's power (ranges.go) and r is unused.
+	ranged  bool
+	t       float64
 	undo    []snapshot
 	version int
 	// gesture is the Gesture of the last edit (0: none).
@@ -153,9 +165,15 @@ func newSession(sites []orb.Point, names []string, r float64, cfg *Config) (*ses
 		if i < len(names) {
 			devs[i].Label = names[i]
 		}
+		if cfg.Ranges != nil {
+			devs[i].R = cfg.Ranges[i]
+		}
+		if i < len(cfg.Types) {
+			devs[i].Type = cfg.Types[i]
+		}
 	}
-	s := &session{}
-	geo, at, err := compute(devs, r, cfg, nil)
+	s := &session{ranged: cfg.Ranges != nil}
+	geo, at, err := compute(devs, r, 0, cfg, nil)
 	if err != nil {
 		return nil, err
 	}
@@ -178,6 +196,9 @@ func buildGeometry(devs []device, cfg *Config, prev *geometry) (*geometry, error
 	if len(pts) == 0 {
 		return nil, refuse(409, "at least one device must stay in service")
 	}
+	if cfg.Ranges != nil {
+		return g, buildRanged(g, pts, devs, cfg)
+	}
 	l, err := coverage.NewLayout(pts, cfg.Region)
 	if err != nil {
 		return nil, refuse(422, "the devices in service cannot be laid out: %v", err)
@@ -196,8 +217,15 @@ func buildGeometry(devs []device, cfg *Config, prev *geometry) (*geometry, error
 	return g, nil
 }
 
-// atRange computes the range-dependent figures.
-func (g *geometry) atRange(r float64, cfg *Config) (atRange, error) {
+// atRange computes the range-dependent figures: at range r, or with own
+// ranges at growth t.
+func (g *geometry) atRange(r, t float64) (atRange, error) {
+	if g.ranged != nil {
+		return atRange{
+			uncovered: g.layout.UncoveredAreaGrown(t),
+			gaps:      g.layout.GapsRanges(t, drawChordTolerance),
+		}, nil
+	}
 	if !(r > 0) || math.IsInf(r, 0) {
 		return atRange{}, refuse(400, "range %v m is not a positive finite number", r)
 	}
@@ -208,7 +236,8 @@ func (g *geometry) atRange(r float64, cfg *Config) (atRange, error) {
 }
 
 // Edit is one edit request. Op is "move", "add", "remove", "off", "on",
-// "range" or "undo".
+// "range", "undo", and with own ranges "device-range" (Device, Range) or
+// "type-range" (Type, Range).
 type Edit struct {
 	// Op names the edit.
 	Op string `json:"op"`
@@ -219,8 +248,12 @@ type Edit struct {
 	Y *float64 `json:"y,omitempty"`
 	// Points are the devices an add edit places.
 	Points []NewDevice `json:"points,omitempty"`
-	// Range is the new range of a range edit (metres).
+	// Range is the new range of a range edit (metres): with own ranges the
+	// largest range (ranges.go); of a device-range edit the device's; of a
+	// type-range edit every device's of Type.
 	Range *float64 `json:"range,omitempty"`
+	// Type is the device type of a type-range edit.
+	Type string `json:"type,omitempty"`
 	// Gesture, when positive, names one continuous gesture on the page
 	// (a drag of a device or of the range slider): consecutive edits of
 	// the same gesture make one undo step.
@@ -240,6 +273,10 @@ type NewDevice struct {
 	X     *float64 `json:"x"`
 	Y     *float64 `json:"y"`
 	Label string   `json:"label,omitempty"`
+	// Range (own ranges only) is the device's range (default: the largest
+	// range in the plan); Type its type.
+	Range *float64 `json:"range,omitempty"`
+	Type  string   `json:"type,omitempty"`
 }
 
 // apply validates and applies e. On any error the session is unchanged.
@@ -257,12 +294,19 @@ func (s *session) apply(e *Edit, cfg *Config) error {
 		if err := cfg.checkRange(*e.Range); err != nil {
 			return err
 		}
-		at, err := s.geo.atRange(*e.Range, cfg)
+		r, t := *e.Range, 0.0
+		if rg := s.geo.ranged; rg != nil {
+			var err error
+			if t, err = rg.growthFor(r); err != nil {
+				return err
+			}
+		}
+		at, err := s.geo.atRange(r, t)
 		if err != nil {
 			return err
 		}
 		s.record(e.Gesture)
-		s.r, s.at = *e.Range, at
+		s.r, s.t, s.at = r, t, at
 		s.change = &devChange{base: s.version, removed: -1}
 		s.version++
 		return nil
@@ -271,13 +315,20 @@ func (s *session) apply(e *Edit, cfg *Config) error {
 	if err != nil {
 		return err
 	}
-	geo, at, err := compute(devs, s.r, cfg, s.geo)
+	t := s.t
+	if e.Op == "device-range" || e.Op == "type-range" || s.ranged && e.Op == "add" {
+		t = 0 // the grown ranges were fixed as the devices' own (ranges.go)
+	}
+	geo, at, err := compute(devs, s.r, t, cfg, s.geo)
 	if err != nil {
 		return err
 	}
 	s.record(e.Gesture)
 	s.change = deviceChange(e, s.version, len(s.devs), len(devs))
-	s.devs, s.geo, s.at = devs, geo, at
+	if t != s.t {
+		s.change = nil // every device's own range changed
+	}
+	s.devs, s.geo, s.at, s.t = devs, geo, at, t
 	s.version++
 	return nil
 }
@@ -287,6 +338,8 @@ func (s *session) apply(e *Edit, cfg *Config) error {
 func deviceChange(e *Edit, base, n, m int) *devChange {
 	c := &devChange{base: base, removed: -1}
 	switch e.Op {
+	case "device-range", "type-range":
+		return nil // ranges fixed for every device (ranges.go): the whole list
 	case "remove":
 		c.removed = *e.Device
 	case "add":
@@ -314,10 +367,12 @@ func (s *session) edited(e *Edit, cfg *Config) ([]device, error) {
 	case "move", "remove", "off", "on":
 	case "add":
 		return s.added(e, cfg)
+	case "device-range", "type-range":
+		return s.rangeEdit(e, cfg)
 	case "":
-		return nil, refuse(400, "edit needs \"op\": move, add, remove, off, on, range or undo")
+		return nil, refuse(400, "edit needs \"op\": move, add, remove, off, on, range, device-range, type-range or undo")
 	default:
-		return nil, refuse(400, "unknown edit %q: use move, add, remove, off, on, range or undo", e.Op)
+		return nil, refuse(400, "unknown edit %q: use move, add, remove, off, on, range, device-range, type-range or undo", e.Op)
 	}
 	if e.Device == nil {
 		return nil, refuse(400, "%s edit needs \"device\" (a device index)", e.Op)
@@ -359,6 +414,13 @@ func (s *session) added(e *Edit, cfg *Config) ([]device, error) {
 		return nil, refuse(413, "the plan would hold %d devices; at most %d", len(s.devs)+n, MaxDevices)
 	}
 	devs := slices.Grow(slices.Clone(s.devs), n)
+	largest := 0.0
+	if s.ranged {
+		devs = baked(devs, s.t)
+		for _, d := range devs {
+			largest = max(largest, d.R)
+		}
+	}
 	for k, p := range e.Points {
 		if p.X == nil || p.Y == nil {
 			return nil, refuse(400, "added point %d needs \"x\" and \"y\" (local metres)", k)
@@ -373,19 +435,37 @@ func (s *session) added(e *Edit, cfg *Config) ([]device, error) {
 		if label == "" {
 			label = fmt.Sprintf("added %d", len(devs)+1)
 		}
-		devs = append(devs, device{X: *p.X, Y: *p.Y, Label: label, On: true})
+		d := device{X: *p.X, Y: *p.Y, Label: label, On: true, Type: p.Type}
+		if p.Range != nil || p.Type != "" {
+			if !s.ranged {
+				return nil, refuse(409, "added point %d: this plan has one common range; a device's own range or type needs a plan with ranges per device", k)
+			}
+		}
+		if s.ranged {
+			d.R = largest
+			if p.Range != nil {
+				if err := cfg.checkRange(*p.Range); err != nil {
+					return nil, refuse(err.(*editError).status, "added point %d: %v", k, err)
+				}
+				d.R = *p.Range
+			}
+		}
+		devs = append(devs, d)
 	}
 	return devs, nil
 }
 
-// compute lays out devs and computes the figures at range r, reusing what
-// it can of prev (nil: nothing).
-func compute(devs []device, r float64, cfg *Config, prev *geometry) (*geometry, atRange, error) {
+// compute lays out devs and computes the figures at range r (own ranges:
+// at growth t), reusing what it can of prev (nil: nothing).
+func compute(devs []device, r, t float64, cfg *Config, prev *geometry) (*geometry, atRange, error) {
 	geo, err := buildGeometry(devs, cfg, prev)
 	if err != nil {
 		return nil, atRange{}, err
 	}
-	at, err := geo.atRange(r, cfg)
+	if rg := geo.ranged; rg != nil && !(rg.w2min+t > 0) {
+		return nil, atRange{}, refuse(422, "the ranges grown by the slider would shrink a device to nothing: raise the range slider first")
+	}
+	at, err := geo.atRange(r, t)
 	return geo, at, err
 }
 
@@ -395,7 +475,7 @@ func (s *session) push() {
 	if len(s.undo) == MaxUndo {
 		s.undo = slices.Delete(s.undo, 0, 1)
 	}
-	s.undo = append(s.undo, snapshot{devs: s.devs, r: s.r})
+	s.undo = append(s.undo, snapshot{devs: s.devs, r: s.r, t: s.t})
 }
 
 // undoLast restores the state before the last edit.
@@ -404,11 +484,11 @@ func (s *session) undoLast(cfg *Config) error {
 		return refuse(409, "nothing to undo")
 	}
 	last := s.undo[len(s.undo)-1]
-	geo, at, err := compute(last.devs, last.r, cfg, s.geo)
+	geo, at, err := compute(last.devs, last.r, last.t, cfg, s.geo)
 	if err != nil {
 		return err
 	}
-	s.devs, s.r, s.geo, s.at = last.devs, last.r, geo, at
+	s.devs, s.r, s.t, s.geo, s.at = last.devs, last.r, last.t, geo, at
 	s.undo = s.undo[:len(s.undo)-1]
 	s.gesture = 0
 	s.change = nil

@@ -606,6 +606,16 @@
     $("fig-uncovered").textContent = fmtArea(f.uncoveredM2);
     $("fig-gaps").textContent = f.gaps.length + (f.gaps.length ? " (" + f.enclosedGaps + " enclosed)" : "");
     $("fig-fullcover").textContent = fmtM(f.fullCoverRangeM);
+    if (ranged()) {
+      $("range").min = String(Math.ceil(2 * (f.leastRangeM + 0.01)) / 2);
+      $("range-label").textContent = "Largest range";
+      $("fullcover-label").textContent = "Full cover at largest range";
+      $("range-note").hidden = false;
+      $("range-note").textContent = "Devices have their own ranges. The slider grows them all together by uniform power growth: " +
+        "each range becomes √(r² + t) with one t, the slider showing the largest (the power diagram, so the service areas, stays the same). " +
+        "Hidden devices: " + (f.hidden ? f.hidden.length : 0) + ".";
+    }
+    typeControls();
     $("fig-devices").textContent = f.devicesOn + " of " + s.devices.length;
     $("fig-holes").textContent = f.openHoles + " / " + f.pieces;
     $("range-out").textContent = fmtM(f.rangeM);
@@ -651,9 +661,11 @@
   function esc(s) { return String(s).replace(/[&<>"']/g, (c) => ({ "&": "&amp;", "<": "&lt;", ">": "&gt;", '"': "&quot;", "'": "&#39;" }[c])); }
   function devName(i) { const d = state.devices[i]; return "#" + i + (d && d.label ? " " + esc(d.label) : ""); }
 
+  const ranged = () => state && state.figures.growthM2 !== undefined;
   function gapHTML(gp) {
     return "<h3>Gap " + gp.id + (gp.touchesBoundary ? " (reaches the edge)" : " (enclosed)") + "</h3><table>" +
-      row("area", fmtArea(gp.areaM2)) + row("closes at range", fmtM(gp.closingRangeM)) +
+      row("area", fmtArea(gp.areaM2)) + row(ranged() ? "closes at largest range" : "closes at range", fmtM(gp.closingRangeM)) +
+      (gp.aloneDevice !== undefined ? row("or alone", devName(gp.aloneDevice) + " at " + fmtM(gp.aloneRangeM)) : "") +
       row("deepest point", "x " + fx(gp.deepest[0], 1) + ", y " + fx(gp.deepest[1], 1) + " m") +
       row("bordering devices", gp.devices.slice(0, 12).map(devName).join(", ") + (gp.devices.length > 12 ? " +" + (gp.devices.length - 12) : "")) +
       "</table>";
@@ -672,6 +684,19 @@
       if (seq !== devSeq) return;
       let h = "<h3>Device " + devName(i) + (dv.on ? "" : " (switched off)") + "</h3><table>" +
         row("position", "x " + fx(dv.x, 1) + ", y " + fx(dv.y, 1) + " m");
+      if (dv.rangeM !== undefined) {
+        h += (dv.type ? row("type", esc(dv.type)) : "") + row("range", fmtM(dv.rangeM));
+        if (dv.hidden) h += row("hidden", "no power cell: its disk lies inside the others' union, so it adds no coverage");
+        else if (dv.on && dv.servedM2 !== undefined) {
+          h += row("serves", fmtArea(dv.servedM2) + " (" + fmtPct(dv.servedShare) + " of the area; power cell)") +
+            (dv.withinRangeM2 !== undefined ? row("within its range", fmtArea(dv.withinRangeM2)) : "") +
+            row("farthest point served", fmtM(dv.farthestM)) +
+            row("if it fails", "not computed with own ranges");
+        }
+        d.innerHTML = h + "</table>" + rangeControl("dev-range", "Set this device's range", dv.rangeM);
+        $("dev-range-set").addEventListener("click", () => setRange({ op: "device-range", device: i }, "dev-range"));
+        return;
+      }
       if (dv.on) {
         h += row("serves", fmtArea(dv.servedM2) + " (" + fmtPct(dv.servedShare) + " of the area)") +
           row("farthest point served", fmtM(dv.farthestM)) +
@@ -682,6 +707,32 @@
       }
       d.innerHTML = h + "</table>";
     }).catch((e) => toast(e.message));
+  }
+
+  // rangeControl is a number field with a Set button (own ranges).
+  function rangeControl(id, label, v) {
+    return '<div class="rangectl"><label for="' + id + '">' + label + '</label> <input type="number" id="' + id +
+      '" min="0.1" step="0.5" value="' + fx(v, 2) + '"> m <button class="btn" id="' + id + '-set">Set</button></div>';
+  }
+  // setRange sends a device-range or type-range edit with the field's
+  // value; the server checks it (a positive, finite, plausible length).
+  function setRange(e, id) {
+    const v = $(id).valueAsNumber;
+    if (!isFinite(v) || v <= 0) { toast("a range must be a positive number of metres"); return; }
+    e.range = v;
+    edit(e);
+  }
+  // typeControls shows one range field per device type (own ranges).
+  function typeControls() {
+    const f = state.figures, box = $("type-ranges");
+    box.hidden = !ranged() || !f.types;
+    if (box.hidden || box.contains(document.activeElement)) return;
+    box.innerHTML = "";
+    f.types.forEach((t, k) => {
+      const i = state.devices.findIndex((d) => d.type === t);
+      box.insertAdjacentHTML("beforeend", rangeControl("type-range-" + k, "All " + esc(t), i >= 0 ? rangeOf(i) : f.rangeM));
+      $("type-range-" + k + "-set").addEventListener("click", () => setRange({ op: "type-range", type: t }, "type-range-" + k));
+    });
   }
 
   const tip = $("tip");
@@ -864,7 +915,8 @@
       ban.className = "life";
       ban.textContent = "Life-safety devices: " + sc.cautions.join(" ");
     } else {
-      ban.textContent = "Coverage is modelled as disks of one common range: a planning aid, not a guarantee. Follow local codes and licensed practice.";
+      ban.textContent = "Coverage is modelled as disks of " + (st.figures.growthM2 !== undefined ? "each device's own range" : "one common range") +
+        ": a planning aid, not a guarantee. Follow local codes and licensed practice.";
     }
     if (!sc.canReport) { $("write-report").disabled = true; $("report-out").textContent = "Start with --out to write the full report."; }
     else $("report-out").textContent = "into " + sc.outDir;
