@@ -103,6 +103,25 @@ func waitIdle(ctx context.Context, sv *Server) error {
 	}
 }
 
+// figureCheck returns a check of one step: once the page is idle, the
+// figures it shows must equal expect's (made by the function named by
+// source).
+func figureCheck(t *testing.T, ctx context.Context, sv *Server, expect func(*testing.T, *Server) pageFigures, source string) func(step string) {
+	return func(step string) {
+		t.Helper()
+		if err := waitIdle(ctx, sv); err != nil {
+			t.Fatalf("%s: %v", step, err)
+		}
+		got, err := chromedp.Run(ctx, chromedp.Evaluate[pageFigures](readFigures))
+		if err != nil {
+			t.Fatalf("%s: %v", step, err)
+		}
+		if want := expect(t, sv); got != want {
+			t.Errorf("%s: the page shows %+v; %s gives %+v", step, got, source, want)
+		}
+	}
+}
+
 // leftDrag is a mouse option: the left button held.
 func leftDrag(p *input.DispatchMouseEventParams) {
 	p.Button, p.Buttons, p.ClickCount = input.MouseButtonLeft, 1, 1
@@ -131,29 +150,12 @@ func chromiumOrSkip(t *testing.T) string {
 
 func TestBrowserReviewLive(t *testing.T) {
 	path := chromiumOrSkip(t)
-	cfg := demoConfig(t)
-	cfg.OutDir = filepath.Join(t.TempDir(), "report")
-	sv, err := New(cfg)
-	if err != nil {
-		t.Fatal(err)
-	}
+	sv := newWithOut(t, demoConfig(t))
 	ts := httptest.NewServer(sv.Handler())
 	defer ts.Close()
 
 	ctx := startBrowser(t, path)
-	check := func(step string) {
-		t.Helper()
-		if err := waitIdle(ctx, sv); err != nil {
-			t.Fatalf("%s: %v", step, err)
-		}
-		got, err := chromedp.Run(ctx, chromedp.Evaluate[pageFigures](readFigures))
-		if err != nil {
-			t.Fatalf("%s: %v", step, err)
-		}
-		if want := expectFigures(t, sv); got != want {
-			t.Errorf("%s: the page shows %+v; coverage.Analyze gives %+v", step, got, want)
-		}
-	}
+	check := figureCheck(t, ctx, sv, expectFigures, "coverage.Analyze")
 	screen := func(expr string) (x, y float64) {
 		t.Helper()
 		p, err := chromedp.Run(ctx, chromedp.Evaluate[[2]float64](expr))
@@ -238,6 +240,98 @@ func TestBrowserReviewLive(t *testing.T) {
 	})
 
 	t.Run("screenshots", func(t *testing.T) { screenshots(t, ctx) })
+}
+
+// expectRangedFigures formats coverage.AnalyzeRanges's figures for the
+// session's current plan with own ranges as the page does.
+func expectRangedFigures(t *testing.T, sv *Server) pageFigures {
+	t.Helper()
+	sv.mu.Lock()
+	p := sv.s.plan()
+	total := len(sv.s.devs)
+	sv.mu.Unlock()
+	a, err := coverage.AnalyzeRanges(p.pts, p.ranges, sv.cfg.Region, coverage.Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	w2max := 0.0
+	for _, r := range p.ranges {
+		w2max = max(w2max, r*r)
+	}
+	enclosed := 0
+	for _, g := range a.Gaps {
+		if !g.TouchesBoundary {
+			enclosed++
+		}
+	}
+	gaps := fmt.Sprint(len(a.Gaps))
+	if len(a.Gaps) > 0 {
+		gaps = fmt.Sprintf("%d (%d enclosed)", len(a.Gaps), enclosed)
+	}
+	return pageFigures{
+		Covered:   fmt.Sprintf("%.2f %%", 100*a.CoveredFraction),
+		Uncovered: fmt.Sprintf("%.1f m²", a.UncoveredArea),
+		Gaps:      gaps,
+		FullCover: fmt.Sprintf("%.2f m", math.Sqrt(max(0, w2max+a.FullCover.Power))),
+		Devices:   fmt.Sprintf("%d of %d", len(p.pts), total),
+		Range:     fmt.Sprintf("%.2f m", math.Sqrt(w2max)),
+	}
+}
+
+// TestBrowserRangesLive reviews the demo with devices of their own ranges
+// and types: the figures shown equal AnalyzeRanges's after the slider (all
+// ranges grown together), the selected device's range control and a
+// type's range control.
+func TestBrowserRangesLive(t *testing.T) {
+	path := chromiumOrSkip(t)
+	sv, err := New(rangedConfig(t))
+	if err != nil {
+		t.Fatal(err)
+	}
+	ts := httptest.NewServer(sv.Handler())
+	defer ts.Close()
+	ctx := startBrowser(t, path)
+	check := figureCheck(t, ctx, sv, expectRangedFigures, "coverage.AnalyzeRanges")
+	if err := chromedp.Do(ctx, chromedp.Navigate(ts.URL), chromedp.WaitVisible(chromedp.CSS(`body[data-ready="1"]`))); err != nil {
+		t.Fatal(err)
+	}
+	check("loaded")
+	err = chromedp.Do(ctx, js(`const r = document.getElementById("range"); r.value = 165;
+		r.dispatchEvent(new Event("input")); r.dispatchEvent(new Event("change"))`))
+	if err != nil {
+		t.Fatal(err)
+	}
+	check("slider at 165 m")
+	// select device 4 (a click without a drag) and set its range
+	p, err := chromedp.Run(ctx, chromedp.Evaluate[[2]float64](`window.review.screenOf(4)`))
+	if err != nil {
+		t.Fatal(err)
+	}
+	err = chromedp.Do(ctx, chromedp.MouseClickXY(p[0], p[1]), chromedp.WaitVisible(chromedp.CSS(`#dev-range-set`)),
+		js(`document.getElementById("dev-range").value = "60"; document.getElementById("dev-range-set").click()`))
+	if err != nil {
+		t.Fatal(err)
+	}
+	check("device 4 at 60 m")
+	sv.mu.Lock()
+	r4, t4 := sv.s.devs[4].R, sv.s.t
+	sv.mu.Unlock()
+	if r4 != 60 || t4 != 0 {
+		t.Errorf("device 4 has range %v at growth %v; want 60 at 0", r4, t4)
+	}
+	err = chromedp.Do(ctx, js(`const f = document.querySelector("#type-ranges input"); f.value = "110";
+		document.querySelector("#type-ranges button").click()`))
+	if err != nil {
+		t.Fatal(err)
+	}
+	check("every beacon at 110 m")
+	sv.mu.Lock()
+	defer sv.mu.Unlock()
+	for i, d := range sv.s.devs {
+		if d.Type == "beacon" && d.R != 110 {
+			t.Errorf("beacon %d at %v m", i, d.R)
+		}
+	}
 }
 
 // startBrowser starts headless Chromium at 1600×1000; the browser ends
@@ -364,19 +458,11 @@ func TestBrowserUpdate10kLive(t *testing.T) {
 		redraw, total = append(redraw, tm.RedrawMs), append(total, tm.TotalMs)
 	}
 	disks, _ := chromedp.Run(ctx, chromedp.Evaluate[float64](`window.review.diskCount`))
-	mr, mt := median(redraw), median(total)
+	slices.Sort(redraw)
+	slices.Sort(total)
+	mr, mt := redraw[len(redraw)/2], total[len(total)/2] // medians: browserEdits is odd
 	t.Logf("median of %d edits: %.0f ms from the answer to the page painted, %.0f ms from the edit sent (%.0f disks drawn as circles)", len(edits), mr, mt, disks)
 	if mr > browserRedrawLimitMs {
 		t.Errorf("median redraw %.0f ms for %d devices; want at most %d ms", mr, benchDevices, browserRedrawLimitMs)
 	}
-}
-
-// median returns the median of xs (xs is sorted in place).
-func median(xs []float64) float64 {
-	slices.Sort(xs)
-	n := len(xs)
-	if n%2 == 1 {
-		return xs[n/2]
-	}
-	return (xs[n/2-1] + xs[n/2]) / 2
 }

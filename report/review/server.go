@@ -4,7 +4,8 @@
 //	GET  /                     the page (assets under /assets/)
 //	GET  /api/scene            what never changes: area, exclusions, context, cautions
 //	GET  /api/state            devices, range and figures
-//	POST /api/edit             one edit (see Edit); answers the new state
+//	POST /api/edit             one edit (see Edit); answers the new state (its
+//	                           device list as a patch when Edit.Patch)
 //	GET  /api/device/{i}       one device's figures (served area, loss if it fails)
 //	GET  /api/cells            service areas (clipped Voronoi cells) for drawing
 //	GET  /api/export/{format}  the edited plan as sites GeoJSON or CSV (a download)

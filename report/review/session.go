@@ -28,7 +28,10 @@
 //     and kept until the next edit.
 //
 // Every figure is the one coverage.Analyze reports for the same devices
-// and range: the same functions are called with the same arguments.
+// and range: the same functions are called with the same arguments. With
+// own ranges (ranges.go) the layout is the power diagram, a slider move
+// keeps it as a range edit does, and the figures are AnalyzeRanges's; the
+// coverage curve is then Layout.CurveRanges, not the cache of curve.go.
 
 package review
 

@@ -571,7 +571,8 @@
     el("line", { x1: L, x2: W - R, y1: Y(0), y2: Y(0), class: "curve-axis" }, c);
     const step = niceLength(curveMax / 3);
     for (let r = 0; r <= curveMax + 1e-9; r += step) {
-      const t = el("text", { x: X(r), y: H - 8, "text-anchor": "middle" }, c);
+      // the last label keeps inside the chart
+      const t = el("text", { x: Math.min(X(r), W - 2), y: H - 8, "text-anchor": X(r) > W - R - 12 ? "end" : "middle" }, c);
       t.textContent = r + " m";
     }
     let d = "";
@@ -730,7 +731,7 @@
     box.innerHTML = "";
     f.types.forEach((t, k) => {
       const i = state.devices.findIndex((d) => d.type === t);
-      box.insertAdjacentHTML("beforeend", rangeControl("type-range-" + k, "All " + esc(t), i >= 0 ? rangeOf(i) : f.rangeM));
+      box.insertAdjacentHTML("beforeend", rangeControl("type-range-" + k, "Every " + esc(t), i >= 0 ? rangeOf(i) : f.rangeM));
       $("type-range-" + k + "-set").addEventListener("click", () => setRange({ op: "type-range", type: t }, "type-range-" + k));
     });
   }
