@@ -410,6 +410,8 @@ type editTiming struct {
 	ParseMs    float64 `json:"parseMs"`
 	SetStateMs float64 `json:"setStateMs"`
 	DrawMs     float64 `json:"drawMs"`
+	FrameWait  float64 `json:"frameWaitMs"`
+	PaintMs    float64 `json:"paintMs"`
 	RedrawMs   float64 `json:"redrawMs"`
 }
 
@@ -453,8 +455,8 @@ func TestBrowserUpdate10kLive(t *testing.T) {
 		if err != nil {
 			t.Fatal(err)
 		}
-		t.Logf("%-7s total %4.0f ms: request %3.0f (server %3.0f), parse %2.0f, setState %3.0f (drawing calls %3.0f); answer to painted %4.0f ms",
-			tm.Op, tm.TotalMs, tm.FetchMs, tm.ServerMs, tm.ParseMs, tm.SetStateMs, tm.DrawMs, tm.RedrawMs)
+		t.Logf("%-7s total %4.0f ms: request %3.0f (server %3.0f), parse %2.0f, setState %3.0f (drawing calls %3.0f), wait for the frame %2.0f, paint %3.0f; answer to painted %4.0f ms",
+			tm.Op, tm.TotalMs, tm.FetchMs, tm.ServerMs, tm.ParseMs, tm.SetStateMs, tm.DrawMs, tm.FrameWait, tm.PaintMs, tm.RedrawMs)
 		redraw, total = append(redraw, tm.RedrawMs), append(total, tm.TotalMs)
 	}
 	disks, _ := chromedp.Run(ctx, chromedp.Evaluate[float64](`window.review.diskCount`))

@@ -75,11 +75,11 @@
         const t4 = performance.now();
         // the frame with the new plan is painted before a task queued in
         // the next animation frame callback runs
-        requestAnimationFrame(() => setTimeout(() => {
+        requestAnimationFrame(() => { const tf = performance.now(); setTimeout(() => {
           const t5 = performance.now();
           window.review.timing = { seq: seq, op: e.op, totalMs: t5 - t0, fetchMs: t1 - t0, serverMs: s.computeMs,
-            parseMs: t2 - t1, setStateMs: t4 - t3, drawMs: window.review.drawMs, redrawMs: t5 - t1 };
-        }, 0));
+            parseMs: t2 - t1, setStateMs: t4 - t3, drawMs: window.review.drawMs, frameWaitMs: tf - t4, paintMs: t5 - tf, redrawMs: t5 - t1 };
+        }, 0); });
       }).catch((err) => {
         toast(err.message);
         draw();
@@ -745,7 +745,7 @@
   function hideTip() { tip.hidden = true; }
   function hoverGap(gp, ev) {
     if (dragging.device !== null) return;
-    tip.textContent = "Gap " + gp.id + ": " + fmtArea(gp.areaM2) + ", closes at " + fmtM(gp.closingRangeM);
+    tip.textContent = "Gap " + gp.id + ": " + fmtArea(gp.areaM2) + ", closes at " + (ranged() ? "largest range " : "") + fmtM(gp.closingRangeM);
     tip.hidden = false; moveTip(ev);
   }
   // hover shows the tooltip of the device or gap under the pointer.
