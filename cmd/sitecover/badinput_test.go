@@ -247,8 +247,10 @@ func TestBadRangeInput(t *testing.T) {
 			[]string{"both.csv has a range column", "two range sources"}},
 		{"failures with a range column", []string{"failures", "--planar", "--sites", w("own.csv", rows("40m")), "--area", area, "--range", "40m", "--out", out}, 1,
 			[]string{"own.csv", "own ranges", "failures uses one common range"}},
-		{"review with a range column", []string{"review", "--planar", "--sites", w("rev.csv", rows("40m")), "--area", area, "--range", "40m", "--out", out}, 1,
-			[]string{"rev.csv", "own ranges", "review uses one common range"}},
+		// review models own ranges (TestReviewOwnRanges); what it still
+		// refuses is a second range source, as analyze does
+		{"review with a range column and a type table", []string{"review", "--planar", "--sites", w("rev.csv", rows("40m")), "--area", area, "--type-range", "gateway=150m", "--out", out}, 1,
+			[]string{"rev.csv has a range column", "two range sources"}},
 		{"both type tables", an(typed, "--type-range", "gateway=150m", "--range-table", table), 2, []string{"--type-range and --range-table"}},
 	}
 	for _, c := range cases {
