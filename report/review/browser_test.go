@@ -21,6 +21,7 @@ import (
 	"os/exec"
 	"path/filepath"
 	"slices"
+	"strings"
 	"testing"
 	"time"
 
@@ -236,6 +237,32 @@ func TestBrowserReviewLive(t *testing.T) {
 		sv.mu.Unlock()
 		if removed != 1 {
 			t.Errorf("%d devices removed", removed)
+		}
+	})
+
+	t.Run("click a gap", func(t *testing.T) {
+		// the deepest point of an enclosed gap lies inside it (farther than
+		// the range from every device); the gaps are on a canvas, found by
+		// the page's hit test
+		sv.mu.Lock()
+		id, deep := -1, [2]float64{}
+		for _, g := range sv.s.at.gaps {
+			if !g.TouchesBoundary {
+				id, deep = g.ID, g.Deepest
+				break
+			}
+		}
+		sv.mu.Unlock()
+		if id < 0 {
+			t.Skip("no enclosed gap")
+		}
+		x, y := screen(fmt.Sprintf("window.review.screenOfPoint(%v, %v)", deep[0], deep[1]))
+		if err := chromedp.Do(ctx, chromedp.Click(chromedp.CSS(`#tools [data-tool="drag"]`)), chromedp.MouseClickXY(x, y)); err != nil {
+			t.Fatal(err)
+		}
+		h, err := chromedp.Run(ctx, chromedp.Text(chromedp.CSS(`#detail h3`)))
+		if want := fmt.Sprintf("Gap %d ", id); err != nil || !strings.HasPrefix(h, want) {
+			t.Errorf("detail after clicking gap %d: %q, %v", id, h, err)
 		}
 	})
 
