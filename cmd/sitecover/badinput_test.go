@@ -247,8 +247,10 @@ func TestBadRangeInput(t *testing.T) {
 			[]string{"both.csv has a range column", "two range sources"}},
 		{"suggest with a range column, no range for the new devices", []string{"suggest", "--planar", "--sites", w("own.csv", rows("40m")), "--area", area, "--add", "1", "--out", out}, 2,
 			[]string{"own ranges", "--range LENGTH or --new-type TYPE"}},
-		{"review with a range column", []string{"review", "--planar", "--sites", w("rev.csv", rows("40m")), "--area", area, "--range", "40m", "--out", out}, 1,
-			[]string{"rev.csv", "own ranges", "review uses one common range"}},
+		// review models own ranges (TestReviewOwnRanges); what it still
+		// refuses is a second range source, as analyze does
+		{"review with a range column and a type table", []string{"review", "--planar", "--sites", w("rev.csv", rows("40m")), "--area", area, "--type-range", "gateway=150m", "--out", out}, 1,
+			[]string{"rev.csv has a range column", "two range sources"}},
 		{"both type tables", an(typed, "--type-range", "gateway=150m", "--range-table", table), 2, []string{"--type-range and --range-table"}},
 	}
 	for _, c := range cases {

@@ -46,7 +46,11 @@ needed) showing the plan: site area, exclusions, devices with their disks,
 the gaps numbered with their deepest points, service areas on a toggle.
 Drag a device, click to add one, remove or switch one off, slide the range:
 the covered share, uncovered area, gaps, full-cover range and holes are
-recomputed exactly on every change. The edited plan can be saved as GeoJSON
+recomputed exactly on every change. Devices with their own ranges (a range
+column, or a type column with --type-range or --range-table) are reviewed
+with their power diagram: each device's disk at its own range, a range
+control for the selected device and for each type, and the slider growing
+every range together (uniform power growth). The edited plan can be saved as GeoJSON
 or CSV, and the full report (the files analyze writes) written into --out.
 
 The page listens on 127.0.0.1 on a free port by default; the URL is printed.
@@ -65,7 +69,7 @@ Ctrl-C stops it.`,
 	}
 	fs := cmd.Flags()
 	f.addInputFlags(fs)
-	f.addRangeFlag(fs, "", "planned range of every device to start from, e.g. 150m, 0.2km, 500ft (required)")
+	f.addRangeFlag(fs, "", "planned range of every device to start from, e.g. 150m, 0.2km, 500ft (required unless the sites give their own: a range column, or a type column with --type-range)")
 	fs.Var(newOnceString(&f.out, "sitecover-review"), "out", "folder the page's \"write the full report\" writes into (created when used)")
 	fs.Var(newOnceString(&f.title, ""), "title", "title of the page and the report (default: the area's name, else the sites file name)")
 	fs.BoolVar(&f.lifeSafety, "life-safety", false, "the devices are life-safety equipment (sirens, call points, defibrillators): cautions shown prominently")
@@ -79,12 +83,19 @@ Ctrl-C stops it.`,
 // reviewInputs opens the inputs named by the flags, or the demo's.
 func reviewInputs(cmd *cobra.Command, f *runFlags, rf *reviewFlags) (siteinput.Inputs, float64, error) {
 	if !rf.demo {
-		in, r, err := f.rangedInputs(cmd)
-		if err != nil || rf.context == "" {
-			return in, r, err
+		in, err := f.rangesInputs(cmd)
+		if err != nil {
+			if !cmd.Flags().Changed("range") && in.TypeRanges == nil {
+				// without --range the sites must give their own ranges,
+				// and they could not be read
+				return in, 0, usageErrorf("required flag --range is missing (and the sites' own ranges could not be read: %v)", err)
+			}
+			return in, 0, err
 		}
-		in.Points, err = openSource(rf.context, "--context")
-		return in, r, err
+		if rf.context != "" {
+			in.Points, err = openSource(rf.context, "--context")
+		}
+		return in, in.Range, err
 	}
 	if f.sites != "" || f.area != "" || f.exclude != "" {
 		return siteinput.Inputs{}, 0, usageErrorf("--demo reviews the built-in campus: drop --sites, --area and --exclude")
@@ -109,7 +120,11 @@ func reviewInputs(cmd *cobra.Command, f *runFlags, rf *reviewFlags) (siteinput.I
 
 // reviewConfig builds the session configuration from the loaded scene.
 func reviewConfig(sc *scene, f *runFlags, r float64) review.Config {
-	cfg := review.Config{Sites: sc.sites, Names: sc.meta.SiteNames, Region: sc.region, Range: r, Meta: sc.meta, OutDir: f.out}
+	if r == 0 {
+		r = sc.rangeM // from a type table with one range for every type
+	}
+	cfg := review.Config{Sites: sc.sites, Names: sc.meta.SiteNames, Region: sc.region, Range: r, Meta: sc.meta, OutDir: f.out,
+		Ranges: sc.ranges, Types: sc.types}
 	if d := sc.demand; d != nil {
 		for k, p := range d.Polys {
 			if p != nil {
@@ -135,9 +150,6 @@ func runReview(e *env, f *runFlags, rf *reviewFlags, in siteinput.Inputs, r floa
 	}
 	sc, err := loadScene(in)
 	if err != nil {
-		return err
-	}
-	if err := refuseRanges(sc, "review", in); err != nil {
 		return err
 	}
 	sc.setMeta("review", f)

@@ -20,6 +20,8 @@ import (
 	"os"
 	"os/exec"
 	"path/filepath"
+	"slices"
+	"strings"
 	"testing"
 	"time"
 
@@ -102,6 +104,25 @@ func waitIdle(ctx context.Context, sv *Server) error {
 	}
 }
 
+// figureCheck returns a check of one step: once the page is idle, the
+// figures it shows must equal expect's (made by the function named by
+// source).
+func figureCheck(t *testing.T, ctx context.Context, sv *Server, expect func(*testing.T, *Server) pageFigures, source string) func(step string) {
+	return func(step string) {
+		t.Helper()
+		if err := waitIdle(ctx, sv); err != nil {
+			t.Fatalf("%s: %v", step, err)
+		}
+		got, err := chromedp.Run(ctx, chromedp.Evaluate[pageFigures](readFigures))
+		if err != nil {
+			t.Fatalf("%s: %v", step, err)
+		}
+		if want := expect(t, sv); got != want {
+			t.Errorf("%s: the page shows %+v; %s gives %+v", step, got, source, want)
+		}
+	}
+}
+
 // leftDrag is a mouse option: the left button held.
 func leftDrag(p *input.DispatchMouseEventParams) {
 	p.Button, p.Buttons, p.ClickCount = input.MouseButtonLeft, 1, 1
@@ -130,29 +151,12 @@ func chromiumOrSkip(t *testing.T) string {
 
 func TestBrowserReviewLive(t *testing.T) {
 	path := chromiumOrSkip(t)
-	cfg := demoConfig(t)
-	cfg.OutDir = filepath.Join(t.TempDir(), "report")
-	sv, err := New(cfg)
-	if err != nil {
-		t.Fatal(err)
-	}
+	sv := newWithOut(t, demoConfig(t))
 	ts := httptest.NewServer(sv.Handler())
 	defer ts.Close()
 
 	ctx := startBrowser(t, path)
-	check := func(step string) {
-		t.Helper()
-		if err := waitIdle(ctx, sv); err != nil {
-			t.Fatalf("%s: %v", step, err)
-		}
-		got, err := chromedp.Run(ctx, chromedp.Evaluate[pageFigures](readFigures))
-		if err != nil {
-			t.Fatalf("%s: %v", step, err)
-		}
-		if want := expectFigures(t, sv); got != want {
-			t.Errorf("%s: the page shows %+v; coverage.Analyze gives %+v", step, got, want)
-		}
-	}
+	check := figureCheck(t, ctx, sv, expectFigures, "coverage.Analyze")
 	screen := func(expr string) (x, y float64) {
 		t.Helper()
 		p, err := chromedp.Run(ctx, chromedp.Evaluate[[2]float64](expr))
@@ -236,7 +240,125 @@ func TestBrowserReviewLive(t *testing.T) {
 		}
 	})
 
+	t.Run("click a gap", func(t *testing.T) {
+		// the deepest point of an enclosed gap lies inside it (farther than
+		// the range from every device); the gaps are on a canvas, found by
+		// the page's hit test
+		sv.mu.Lock()
+		id, deep := -1, [2]float64{}
+		for _, g := range sv.s.at.gaps {
+			if !g.TouchesBoundary {
+				id, deep = g.ID, g.Deepest
+				break
+			}
+		}
+		sv.mu.Unlock()
+		if id < 0 {
+			t.Skip("no enclosed gap")
+		}
+		x, y := screen(fmt.Sprintf("window.review.screenOfPoint(%v, %v)", deep[0], deep[1]))
+		if err := chromedp.Do(ctx, chromedp.Click(chromedp.CSS(`#tools [data-tool="drag"]`)), chromedp.MouseClickXY(x, y)); err != nil {
+			t.Fatal(err)
+		}
+		h, err := chromedp.Run(ctx, chromedp.Text(chromedp.CSS(`#detail h3`)))
+		if want := fmt.Sprintf("Gap %d ", id); err != nil || !strings.HasPrefix(h, want) {
+			t.Errorf("detail after clicking gap %d: %q, %v", id, h, err)
+		}
+	})
+
 	t.Run("screenshots", func(t *testing.T) { screenshots(t, ctx) })
+}
+
+// expectRangedFigures formats coverage.AnalyzeRanges's figures for the
+// session's current plan with own ranges as the page does.
+func expectRangedFigures(t *testing.T, sv *Server) pageFigures {
+	t.Helper()
+	sv.mu.Lock()
+	p := sv.s.plan()
+	total := len(sv.s.devs)
+	sv.mu.Unlock()
+	a, err := coverage.AnalyzeRanges(p.pts, p.ranges, sv.cfg.Region, coverage.Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	w2max := 0.0
+	for _, r := range p.ranges {
+		w2max = max(w2max, r*r)
+	}
+	enclosed := 0
+	for _, g := range a.Gaps {
+		if !g.TouchesBoundary {
+			enclosed++
+		}
+	}
+	gaps := fmt.Sprint(len(a.Gaps))
+	if len(a.Gaps) > 0 {
+		gaps = fmt.Sprintf("%d (%d enclosed)", len(a.Gaps), enclosed)
+	}
+	return pageFigures{
+		Covered:   fmt.Sprintf("%.2f %%", 100*a.CoveredFraction),
+		Uncovered: fmt.Sprintf("%.1f m²", a.UncoveredArea),
+		Gaps:      gaps,
+		FullCover: fmt.Sprintf("%.2f m", math.Sqrt(max(0, w2max+a.FullCover.Power))),
+		Devices:   fmt.Sprintf("%d of %d", len(p.pts), total),
+		Range:     fmt.Sprintf("%.2f m", math.Sqrt(w2max)),
+	}
+}
+
+// TestBrowserRangesLive reviews the demo with devices of their own ranges
+// and types: the figures shown equal AnalyzeRanges's after the slider (all
+// ranges grown together), the selected device's range control and a
+// type's range control.
+func TestBrowserRangesLive(t *testing.T) {
+	path := chromiumOrSkip(t)
+	sv, err := New(rangedConfig(t))
+	if err != nil {
+		t.Fatal(err)
+	}
+	ts := httptest.NewServer(sv.Handler())
+	defer ts.Close()
+	ctx := startBrowser(t, path)
+	check := figureCheck(t, ctx, sv, expectRangedFigures, "coverage.AnalyzeRanges")
+	if err := chromedp.Do(ctx, chromedp.Navigate(ts.URL), chromedp.WaitVisible(chromedp.CSS(`body[data-ready="1"]`))); err != nil {
+		t.Fatal(err)
+	}
+	check("loaded")
+	err = chromedp.Do(ctx, js(`const r = document.getElementById("range"); r.value = 165;
+		r.dispatchEvent(new Event("input")); r.dispatchEvent(new Event("change"))`))
+	if err != nil {
+		t.Fatal(err)
+	}
+	check("slider at 165 m")
+	// select device 4 (a click without a drag) and set its range
+	p, err := chromedp.Run(ctx, chromedp.Evaluate[[2]float64](`window.review.screenOf(4)`))
+	if err != nil {
+		t.Fatal(err)
+	}
+	err = chromedp.Do(ctx, chromedp.MouseClickXY(p[0], p[1]), chromedp.WaitVisible(chromedp.CSS(`#dev-range-set`)),
+		js(`document.getElementById("dev-range").value = "60"; document.getElementById("dev-range-set").click()`))
+	if err != nil {
+		t.Fatal(err)
+	}
+	check("device 4 at 60 m")
+	sv.mu.Lock()
+	r4, t4 := sv.s.devs[4].R, sv.s.t
+	sv.mu.Unlock()
+	if r4 != 60 || t4 != 0 {
+		t.Errorf("device 4 has range %v at growth %v; want 60 at 0", r4, t4)
+	}
+	err = chromedp.Do(ctx, js(`const f = document.querySelector("#type-ranges input"); f.value = "110";
+		document.querySelector("#type-ranges button").click()`))
+	if err != nil {
+		t.Fatal(err)
+	}
+	check("every beacon at 110 m")
+	sv.mu.Lock()
+	defer sv.mu.Unlock()
+	for i, d := range sv.s.devs {
+		if d.Type == "beacon" && d.R != 110 {
+			t.Errorf("beacon %d at %v m", i, d.R)
+		}
+	}
 }
 
 // startBrowser starts headless Chromium at 1600×1000; the browser ends
@@ -298,22 +420,44 @@ func screenshots(t *testing.T, ctx context.Context) {
 }
 
 // measureEdit is a script that sends one edit from the page and resolves
-// to the milliseconds until the page has drawn the answer.
-const measureEdit = `new Promise((resolve) => {
-  const t0 = performance.now();
-  window.review.edit(%s);
-  const wait = () => window.review.pending ? setTimeout(wait, 2) :
-    requestAnimationFrame(() => resolve(performance.now() - t0));
-  wait(); })`
+// to the page's timing record of it (app.js, window.review.timing): from
+// sending the edit (totalMs) and from its answer arriving (redrawMs) to
+// the frame with the new plan and figures painted, with the server's
+// compute time, the JSON parse and the drawing calls.
+const measureEdit = `new Promise((res) => { const s = window.review.edit(%s);
+  const w = () => (window.review.timing && window.review.timing.seq === s) ? res(window.review.timing) : setTimeout(w, 2);
+  w(); })`
 
-// browserUpdateLimit is a generous bound on one update seen in the
-// browser for 10 000 devices: it catches a regression (a quadratic draw)
-// without failing on a loaded machine; the times are logged. Headless
-// Chromium paints in software: most of an update's time is the paint.
-const browserUpdateLimit = 5 * time.Second
+// editTiming is the page's timing record of one edit (milliseconds).
+type editTiming struct {
+	Op         string  `json:"op"`
+	TotalMs    float64 `json:"totalMs"`
+	FetchMs    float64 `json:"fetchMs"`
+	ServerMs   float64 `json:"serverMs"`
+	ParseMs    float64 `json:"parseMs"`
+	SetStateMs float64 `json:"setStateMs"`
+	DrawMs     float64 `json:"drawMs"`
+	FrameWait  float64 `json:"frameWaitMs"`
+	PaintMs    float64 `json:"paintMs"`
+	RedrawMs   float64 `json:"redrawMs"`
+}
 
-// TestBrowserUpdate10kLive times edits in the browser on 10 000 devices: from
-// sending the edit to the page having drawn the new plan and figures.
+// browserRedrawLimitMs bounds the median time from an edit's answer
+// arriving to the page painted, for 10 000 devices: the issue's 100 ms.
+// The server's part of an update (decode, recompute, encode) is bounded
+// by BenchmarkReviewUpdate10k; this is the browser's part, measured in
+// the page with performance.now. It is the median of browserEdits edits
+// (range and device edits alike), so that an edit or two slowed by other
+// processes on a shared machine does not fail it while a redraw that is
+// slow every time does.
+const (
+	browserRedrawLimitMs = 100
+	browserEdits         = 11
+)
+
+// TestBrowserUpdate10kLive times edits in the browser on 10 000 devices:
+// from the edit sent, and from its answer arriving, to the page having
+// painted the new plan and figures.
 func TestBrowserUpdate10kLive(t *testing.T) {
 	path := chromiumOrSkip(t)
 	sv := newBenchServer(t, benchDevices)
@@ -323,22 +467,31 @@ func TestBrowserUpdate10kLive(t *testing.T) {
 	if err := chromedp.Do(ctx, chromedp.Navigate(ts.URL), chromedp.WaitVisible(chromedp.CSS(`body[data-ready="1"]`))); err != nil {
 		t.Fatal(err)
 	}
-	edits := []struct{ name, edit string }{
-		{"range", `{op: "range", range: 60}`},
-		{"range back", `{op: "range", range: 55}`},
-		{"move", `{op: "move", device: 17, x: 2500, y: 2500}`},
-		{"switch off", `{op: "off", device: 99}`},
-		{"undo", `{op: "undo"}`},
+	edits := []string{
+		`{op: "range", range: 60}`, `{op: "range", range: 55}`, `{op: "range", range: 52}`,
+		`{op: "move", device: 17, x: 2500, y: 2500}`, `{op: "off", device: 99}`, `{op: "on", device: 99}`,
+		`{op: "add", points: [{x: 1000, y: 1200}]}`, `{op: "remove", device: 5}`, `{op: "undo"}`,
+		`{op: "range", range: 58}`, `{op: "move", device: 400, x: 100, y: 4900}`,
 	}
+	if len(edits) != browserEdits {
+		t.Fatalf("%d edits listed; browserEdits is %d", len(edits), browserEdits)
+	}
+	var redraw, total []float64
 	for _, e := range edits {
-		ms, err := chromedp.Run(ctx, chromedp.Evaluate[float64](fmt.Sprintf(measureEdit, e.edit), chromedp.EvalAwaitPromise))
+		tm, err := chromedp.Run(ctx, chromedp.Evaluate[editTiming](fmt.Sprintf(measureEdit, e), chromedp.EvalAwaitPromise))
 		if err != nil {
 			t.Fatal(err)
 		}
-		parts, _ := chromedp.Run(ctx, chromedp.Evaluate[[3]float64](`[window.review.fetchMs, window.review.setStateMs, window.review.drawMs]`))
-		t.Logf("%-10s %6.0f ms from the edit to the page drawn (request %.0f ms, setState %.0f ms, draw %.0f ms)", e.name, ms, parts[0], parts[1], parts[2])
-		if time.Duration(ms*float64(time.Millisecond)) > browserUpdateLimit {
-			t.Errorf("%s: %.0f ms, over %v", e.name, ms, browserUpdateLimit)
-		}
+		t.Logf("%-7s total %4.0f ms: request %3.0f (server %3.0f), parse %2.0f, setState %3.0f (drawing calls %3.0f), wait for the frame %2.0f, paint %3.0f; answer to painted %4.0f ms",
+			tm.Op, tm.TotalMs, tm.FetchMs, tm.ServerMs, tm.ParseMs, tm.SetStateMs, tm.DrawMs, tm.FrameWait, tm.PaintMs, tm.RedrawMs)
+		redraw, total = append(redraw, tm.RedrawMs), append(total, tm.TotalMs)
+	}
+	disks, _ := chromedp.Run(ctx, chromedp.Evaluate[float64](`window.review.diskCount`))
+	slices.Sort(redraw)
+	slices.Sort(total)
+	mr, mt := redraw[len(redraw)/2], total[len(total)/2] // medians: browserEdits is odd
+	t.Logf("median of %d edits: %.0f ms from the answer to the page painted, %.0f ms from the edit sent (%.0f disks drawn as circles)", len(edits), mr, mt, disks)
+	if mr > browserRedrawLimitMs {
+		t.Errorf("median redraw %.0f ms for %d devices; want at most %d ms", mr, benchDevices, browserRedrawLimitMs)
 	}
 }

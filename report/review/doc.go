@@ -7,9 +7,10 @@
 //
 // New starts a session from a loaded scene (local metres, see package
 // siteinput); Server.Handler serves the page (embedded HTML, CSS and
-// JavaScript; SVG drawing, no outside library) and its JSON API. See
-// server.go for the endpoints and session.go for what each edit
-// recomputes.
+// JavaScript; layered canvases and SVG, no outside library) and its JSON
+// API. See server.go for the endpoints, session.go for what each edit
+// recomputes and ranges.go for devices with their own ranges (power
+// diagram; the slider grows every range by uniform power growth).
 //
 // The figures are exact for the disk model; they are planning aids for a
 // design review, not a guarantee that a real device reaches its range

@@ -98,9 +98,12 @@ type stateDoc struct {
 	Version int  `json:"version"`
 	CanUndo bool `json:"canUndo"`
 	// Devices is left out (null) from the answer to a range edit: the
-	// device list did not change.
+	// device list did not change; and from an answer with DevicePatch.
 	Devices []deviceRow `json:"devices"`
-	Figures figuresDoc  `json:"figures"`
+	// DevicePatch, when the edit asked for it (Edit.Patch) and could give
+	// it, replaces Devices: the change from the list of version Base.
+	DevicePatch *patchDoc  `json:"devicePatch,omitempty"`
+	Figures     figuresDoc `json:"figures"`
 	// ComputeMs is the server time of the edit (recompute), milliseconds.
 	ComputeMs float64 `json:"computeMs"`
 	// outlines holds the gap outlines, by gap, as JSON (see encode).
@@ -126,12 +129,49 @@ func (d *stateDoc) encode() ([]byte, error) {
 	return append(b, "]}"...), nil
 }
 
-// deviceRow is one device in the state.
+// patchDoc is a change of the device list: from the list of version Base,
+// remove device Removed (−1: none), then set each Set[k] to Rows[k] (an
+// index equal to the list's length appends); the list then has Count
+// devices.
+type patchDoc struct {
+	Base    int         `json:"base"`
+	Removed int         `json:"removed"`
+	Set     []int       `json:"set"`
+	Rows    []deviceRow `json:"rows"`
+	Count   int         `json:"count"`
+}
+
+// patch replaces the device list of d by a patch of the previous one when
+// the last edit of s allows it.
+func (d *stateDoc) patch(s *session) {
+	c := s.change
+	if c == nil {
+		return
+	}
+	p := &patchDoc{Base: c.base, Removed: c.removed, Set: c.set, Count: len(s.devs), Rows: make([]deviceRow, len(c.set))}
+	if p.Set == nil {
+		p.Set = []int{}
+	}
+	for k, i := range c.set {
+		p.Rows[k] = rowOf(s.devs[i])
+	}
+	d.Devices, d.DevicePatch = nil, p
+}
+
+// rowOf is a device's row.
+func rowOf(v device) deviceRow {
+	return deviceRow{X: v.X, Y: v.Y, Label: v.Label, On: v.On, Range: v.R, Type: v.Type}
+}
+
+// deviceRow is one device in the state; with own ranges Range is its own
+// range b (m; at growth t it reaches √(b² + t)) and Type its type.
 type deviceRow struct {
 	X     float64 `json:"x"`
 	Y     float64 `json:"y"`
 	Label string  `json:"label"`
 	On    bool    `json:"on"`
+	Range float64 `json:"range,omitempty"`
+	Type  string  `json:"type,omitempty"`
 }
 
 // figuresDoc holds the figures of the plan at the range.
@@ -150,6 +190,17 @@ type figuresDoc struct {
 	OpenHoles        int          `json:"openHoles"`
 	Holes            []holeDoc    `json:"holes"`
 	Curve            [][2]float64 `json:"curve"` // (range m, covered fraction), see curve.go
+	// With own ranges (ranges.go): RangeM, FullCoverRangeM, the gaps'
+	// ClosingRangeM, the holes' and the curve's ranges are the largest
+	// range (the slider's value); GrowthM2 is the growth t of every
+	// device's power (its range √(b² + t), b its row's range), LeastRangeM
+	// the slider's least value, Hidden the devices with no power cell.
+	GrowthM2    *float64 `json:"growthM2,omitempty"`
+	LeastRangeM *float64 `json:"leastRangeM,omitempty"`
+	Hidden      []int    `json:"hidden,omitempty"`
+	// Types lists the device types of the plan (own ranges with a type
+	// column), for the per-type range control.
+	Types []string `json:"types,omitempty"`
 }
 
 // gapDoc is one gap.
@@ -162,6 +213,10 @@ type gapDoc struct {
 	TouchesBoundary bool            `json:"touchesBoundary"`
 	Devices         []int           `json:"devices"`
 	Outline         json.RawMessage `json:"outline"`
+	// With own ranges: the device that closes the gap alone with the
+	// least increase, and the range it needs.
+	AloneDevice *int     `json:"aloneDevice,omitempty"`
+	AloneRangeM *float64 `json:"aloneRangeM,omitempty"`
 }
 
 // holeDoc is one hole of the union of disks (persistence).
@@ -182,21 +237,28 @@ func (sv *Server) stateDoc(took time.Duration, withDevices bool) stateDoc {
 	if withDevices {
 		d.Devices = make([]deviceRow, len(s.devs))
 		for i, v := range s.devs {
-			d.Devices[i] = deviceRow{X: v.X, Y: v.Y, Label: v.Label, On: v.On}
+			d.Devices[i] = rowOf(v)
 		}
 	}
 	f := &d.Figures
-	f.RangeM = s.r
 	f.AreaM2 = g.layout.AreaM2
 	f.UncoveredM2 = s.at.uncovered
 	f.CoveredFraction = coveredFraction(s.at.uncovered, g.layout.AreaM2)
-	f.FullCoverRangeM = g.full.Range
-	f.FullCoverPoints = make([][2]float64, len(g.full.Worst))
-	for i, p := range g.full.Worst {
-		f.FullCoverPoints[i] = p
-	}
-	f.FullCoverDevices = g.deviceIndex(g.full.WorstSites)
 	f.DevicesOn = len(g.active)
+	if g.ranged != nil {
+		sv.rangedFigures(f)
+	} else {
+		f.RangeM = s.r
+		f.FullCoverRangeM = g.full.Range
+		f.FullCoverPoints = make([][2]float64, len(g.full.Worst))
+		for i, p := range g.full.Worst {
+			f.FullCoverPoints[i] = p
+		}
+		f.FullCoverDevices = g.deviceIndex(g.full.WorstSites)
+		f.Pieces, f.OpenHoles = g.pers.Betti(s.r)
+		f.Holes = holesDoc(g, s.r)
+	}
+	f.Types = sv.cfg.typeList
 	f.Gaps = make([]gapDoc, len(s.at.gaps))
 	d.outlines = make([][]byte, len(s.at.gaps))
 	for i, gp := range s.at.gaps {
@@ -205,18 +267,20 @@ func (sv *Server) stateDoc(took time.Duration, withDevices bool) stateDoc {
 			Deepest: gp.Deepest, Centroid: gp.Centroid, TouchesBoundary: gp.TouchesBoundary,
 			Devices: g.deviceIndex(gp.Sites),
 		}
+		if g.ranged != nil {
+			rangedGap(&f.Gaps[i], gp, g)
+		}
 		d.outlines[i] = appendMultiPolygon(nil, gp.Outline)
 		if !gp.TouchesBoundary {
 			f.EnclosedGaps++
 		}
 	}
-	f.Pieces, f.OpenHoles = g.pers.Betti(s.r)
-	f.Holes = holesDoc(g, s.r)
+	full := f.FullCoverRangeM
 	f.Curve = make([][2]float64, 0, len(g.share)+1)
 	grid := sv.cfg.grid
 	for k, sh := range g.share {
-		if k > 0 && grid[k-1] < g.full.Range && g.full.Range < grid[k] {
-			f.Curve = append(f.Curve, [2]float64{g.full.Range, 1})
+		if k > 0 && grid[k-1] < full && full < grid[k] {
+			f.Curve = append(f.Curve, [2]float64{full, 1})
 		}
 		f.Curve = append(f.Curve, [2]float64{grid[k], sh})
 	}
@@ -260,7 +324,16 @@ type deviceDoc struct {
 	X      float64 `json:"x"`
 	Y      float64 `json:"y"`
 	On     bool    `json:"on"`
-	// The figures below are present for a device in service.
+	// With own ranges: the device's range now (m), its type, whether it is
+	// hidden (no power cell: its disk lies inside the others' union), and
+	// the part of its service area within its range (at the ranges as
+	// given, growth 0).
+	RangeM        *float64 `json:"rangeM,omitempty"`
+	Type          string   `json:"type,omitempty"`
+	Hidden        bool     `json:"hidden,omitempty"`
+	WithinRangeM2 *float64 `json:"withinRangeM2,omitempty"`
+	// The figures below are present for a device in service (the loss if
+	// it fails: with one common range only).
 	ServedM2             *float64    `json:"servedM2,omitempty"`
 	ServedShare          *float64    `json:"servedShare,omitempty"`
 	FarthestM            *float64    `json:"farthestM,omitempty"`
@@ -278,7 +351,16 @@ func (sv *Server) deviceDoc(i int) (deviceDoc, error) {
 		return deviceDoc{}, refuse(404, "no device %d (the plan has %d)", i, len(s.devs))
 	}
 	v := s.devs[i]
-	d := deviceDoc{Device: i, Label: v.Label, X: v.X, Y: v.Y, On: v.On}
+	d := deviceDoc{Device: i, Label: v.Label, X: v.X, Y: v.Y, On: v.On, Type: v.Type}
+	if s.geo.ranged != nil {
+		if k, on := slices.BinarySearch(s.geo.active, int32(i)); on {
+			sv.rangedDevice(&d, k)
+		} else {
+			cur := grown(v.R, s.t)
+			d.RangeM = &cur
+		}
+		return d, nil
+	}
 	sa, f, ok, err := s.deviceFigures(i)
 	if err != nil || !ok {
 		return d, err
@@ -356,7 +438,7 @@ func multiPolygonDoc(mp orb.MultiPolygon) [][][][2]float64 {
 	return out
 }
 
-// appendMultiPolygon appends mp as JSON arrays of [x, y] with
+// appendMultiPolygon appends mp as JSON arrays of flat rings with
 // centimetre decimals: drawing-only outlines, written by hand because
 // they are the bulk of an edit's answer (encoding/json's shortest float
 // formatting cost more than the gap tracing for 10 000 devices).
@@ -378,18 +460,18 @@ func appendMultiPolygon(b []byte, mp orb.MultiPolygon) []byte {
 	return append(b, ']')
 }
 
-// appendRing appends one ring as [[x,y],...] with centimetre decimals.
+// appendRing appends one ring as a flat array [x0,y0,x1,y1,...] with
+// centimetre decimals: the page reads it straight into a path, and a flat
+// array parses several times faster than one small array per point.
 func appendRing(b []byte, ring []orb.Point) []byte {
 	b = append(b, '[')
 	for k, p := range ring {
 		if k > 0 {
 			b = append(b, ',')
 		}
-		b = append(b, '[')
 		b = strconv.AppendFloat(b, p[0], 'f', outlineDecimals, 64)
 		b = append(b, ',')
 		b = strconv.AppendFloat(b, p[1], 'f', outlineDecimals, 64)
-		b = append(b, ']')
 	}
 	return append(b, ']')
 }

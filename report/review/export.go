@@ -31,8 +31,9 @@ func (sv *Server) export(w http.ResponseWriter, r *http.Request) {
 		return
 	}
 	sv.mu.Lock()
-	pts, names := sv.s.activeSites()
+	p := sv.s.plan()
 	sv.mu.Unlock()
+	pts := p.pts
 	xs := make([][2]float64, len(pts))
 	for i, p := range pts {
 		xs[i] = p
@@ -44,9 +45,9 @@ func (sv *Server) export(w http.ResponseWriter, r *http.Request) {
 	var b []byte
 	var ct string
 	if format == "geojson" {
-		b, ct = sitesGeoJSON(xs, names), "application/geo+json"
+		b, ct = sitesGeoJSON(xs, p), "application/geo+json"
 	} else {
-		b, ct = sitesCSV(xs, names, sv.cfg.Meta.ToLonLat == nil), "text/csv; charset=utf-8"
+		b, ct = sitesCSV(xs, p, sv.cfg.Meta.ToLonLat == nil), "text/csv; charset=utf-8"
 	}
 	name := "sites-reviewed." + format
 	if sv.cfg.Meta.ToLonLat == nil {
@@ -66,10 +67,16 @@ func roundDegrees(v float64) float64 { return math.Round(v*degreeScale) / degree
 
 // gjFeature is one GeoJSON point feature of the saved plan.
 type gjFeature struct {
-	Type       string            `json:"type"`
-	Properties map[string]string `json:"properties"`
-	Geometry   gjPoint           `json:"geometry"`
+	Type       string         `json:"type"`
+	Properties map[string]any `json:"properties"`
+	Geometry   gjPoint        `json:"geometry"`
 }
+
+// rangeDecimals writes saved ranges to the millimetre.
+const rangeDecimals = 3
+
+// savedRange is a saved range: metres rounded to rangeDecimals.
+func savedRange(r float64) string { return strconv.FormatFloat(r, 'f', rangeDecimals, 64) }
 
 // gjPoint is a GeoJSON Point.
 type gjPoint struct {
@@ -77,13 +84,20 @@ type gjPoint struct {
 	Coordinates [2]float64 `json:"coordinates"`
 }
 
-// sitesGeoJSON writes the sites as a FeatureCollection.
-func sitesGeoJSON(xs [][2]float64, names []string) []byte {
+// sitesGeoJSON writes the sites as a FeatureCollection, with "range"
+// (metres) and "type" properties when the plan has them.
+func sitesGeoJSON(xs [][2]float64, pl plan) []byte {
 	fs := make([]gjFeature, len(xs))
 	for i, p := range xs {
-		props := map[string]string{}
-		if names[i] != "" {
-			props["name"] = names[i]
+		props := map[string]any{}
+		if pl.names[i] != "" {
+			props["name"] = pl.names[i]
+		}
+		if pl.ranges != nil {
+			props["range"] = json.Number(savedRange(pl.ranges[i]))
+		}
+		if pl.types != nil && pl.types[i] != "" {
+			props["type"] = pl.types[i]
 		}
 		fs[i] = gjFeature{Type: "Feature", Properties: props, Geometry: gjPoint{Type: "Point", Coordinates: p}}
 	}
@@ -91,21 +105,35 @@ func sitesGeoJSON(xs [][2]float64, names []string) []byte {
 	return append(b, '\n')
 }
 
-// sitesCSV writes the sites as CSV: name,lat,lon (name,x,y when planar).
-func sitesCSV(xs [][2]float64, names []string, planarOut bool) []byte {
+// sitesCSV writes the sites as CSV: name,lat,lon (name,x,y when planar),
+// then range (metres) and type columns when the plan has them.
+func sitesCSV(xs [][2]float64, pl plan, planarOut bool) []byte {
 	var buf bytes.Buffer
 	cw := csv.NewWriter(&buf)
+	head := []string{"name", "lat", "lon"}
 	if planarOut {
-		cw.Write([]string{"name", "x", "y"})
-	} else {
-		cw.Write([]string{"name", "lat", "lon"})
+		head = []string{"name", "x", "y"}
 	}
+	if pl.ranges != nil {
+		head = append(head, "range")
+	}
+	if pl.types != nil {
+		head = append(head, "type")
+	}
+	cw.Write(head)
 	for i, p := range xs {
 		a, b := p[0], p[1]
 		if !planarOut {
 			a, b = p[1], p[0]
 		}
-		cw.Write([]string{names[i], strconv.FormatFloat(a, 'f', -1, 64), strconv.FormatFloat(b, 'f', -1, 64)})
+		row := []string{pl.names[i], strconv.FormatFloat(a, 'f', -1, 64), strconv.FormatFloat(b, 'f', -1, 64)}
+		if pl.ranges != nil {
+			row = append(row, savedRange(pl.ranges[i]))
+		}
+		if pl.types != nil {
+			row = append(row, pl.types[i])
+		}
+		cw.Write(row)
 	}
 	cw.Flush()
 	return buf.Bytes()
@@ -131,7 +159,7 @@ func (sv *Server) writeReport(w http.ResponseWriter, r *http.Request) {
 		return
 	}
 	sv.mu.Lock()
-	pts, names := sv.s.activeSites()
+	p := sv.s.plan()
 	rng := sv.s.r
 	sv.mu.Unlock()
 	if !sv.reportMu.TryLock() {
@@ -139,14 +167,28 @@ func (sv *Server) writeReport(w http.ResponseWriter, r *http.Request) {
 		return
 	}
 	defer sv.reportMu.Unlock()
-	a, err := coverage.Analyze(pts, sv.cfg.Region, rng, coverage.Options{ChordTolerance: sv.cfg.ChordTolerance})
-	if err != nil {
-		writeError(w, http.StatusUnprocessableEntity, "%v", err)
-		return
-	}
 	m := sv.cfg.Meta
-	m.SiteNames = names
-	written, err := report.WriteAnalysis(sv.cfg.OutDir, a, m, report.Options{Maps: true, Charts: true})
+	m.SiteNames = p.names
+	m.Ranges, m.Types = p.ranges, p.types
+	opt := coverage.Options{ChordTolerance: sv.cfg.ChordTolerance}
+	var written []string
+	var err error
+	if p.ranges != nil {
+		// own ranges: the files analyze writes for a range column
+		var a *coverage.RangesAnalysis
+		if a, err = coverage.AnalyzeRanges(p.pts, p.ranges, sv.cfg.Region, opt); err != nil {
+			writeError(w, http.StatusUnprocessableEntity, "%v", err)
+			return
+		}
+		written, err = report.WriteRangesAnalysis(sv.cfg.OutDir, a, m, report.Options{Maps: true, Charts: true})
+	} else {
+		var a *coverage.Analysis
+		if a, err = coverage.Analyze(p.pts, sv.cfg.Region, rng, opt); err != nil {
+			writeError(w, http.StatusUnprocessableEntity, "%v", err)
+			return
+		}
+		written, err = report.WriteAnalysis(sv.cfg.OutDir, a, m, report.Options{Maps: true, Charts: true})
+	}
 	if err != nil {
 		writeError(w, http.StatusInternalServerError, "%v", err)
 		return

@@ -4,7 +4,8 @@
 //	GET  /                     the page (assets under /assets/)
 //	GET  /api/scene            what never changes: area, exclusions, context, cautions
 //	GET  /api/state            devices, range and figures
-//	POST /api/edit             one edit (see Edit); answers the new state
+//	POST /api/edit             one edit (see Edit); answers the new state (its
+//	                           device list as a patch when Edit.Patch)
 //	GET  /api/device/{i}       one device's figures (served area, loss if it fails)
 //	GET  /api/cells            service areas (clipped Voronoi cells) for drawing
 //	GET  /api/export/{format}  the edited plan as sites GeoJSON or CSV (a download)
@@ -54,6 +55,12 @@ type Config struct {
 	Region *planar.Region
 	// Range is the planned range to start from (metres).
 	Range float64
+	// Ranges holds each device's own range (m) by input index when the
+	// devices have their own (nil: one common range, Range; see ranges.go).
+	// Types holds each device's type ("" for none; nil without a type
+	// column).
+	Ranges []float64
+	Types  []string
 	// Context holds drawing-only layers (buildings, paths): polygons and
 	// points, in local metres.
 	Context []orb.MultiPolygon
@@ -81,6 +88,8 @@ type Config struct {
 	maxRange float64
 	// grid is the curve's sample ranges, fixed by the first layout.
 	grid []float64
+	// typeList is the sorted distinct device types (nil: none).
+	typeList []string
 }
 
 // Server serves one review session.
@@ -101,7 +110,7 @@ func New(cfg Config) (*Server, error) {
 	diag := math.Hypot(cfg.bound.Max[0]-cfg.bound.Min[0], cfg.bound.Max[1]-cfg.bound.Min[1])
 	cfg.reach = max(diag, minReach)
 	cfg.maxRange = max(rangeFactor*diag, minReach)
-	if err := cfg.checkRange(cfg.Range); err != nil {
+	if err := cfg.checkRanges(); err != nil {
 		return nil, fmt.Errorf("review: %v", err)
 	}
 	for i, p := range cfg.Sites {
@@ -150,6 +159,34 @@ func (c *Config) checkRange(r float64) error {
 	if r > c.maxRange {
 		return refuse(422, "range %.1f m is beyond %.0f m (ten times the site's extent)", r, c.maxRange)
 	}
+	return nil
+}
+
+// checkRanges checks the range, or the devices' own ranges and types; with
+// own ranges Range becomes the largest (the slider's start).
+func (c *Config) checkRanges() error {
+	if c.Types != nil && len(c.Types) != len(c.Sites) {
+		return fmt.Errorf("%d types for %d sites", len(c.Types), len(c.Sites))
+	}
+	if c.Ranges == nil {
+		return c.checkRange(c.Range)
+	}
+	if len(c.Ranges) != len(c.Sites) {
+		return fmt.Errorf("%d ranges for %d sites", len(c.Ranges), len(c.Sites))
+	}
+	c.Range = 0
+	for i, r := range c.Ranges {
+		if err := c.checkRange(r); err != nil {
+			return fmt.Errorf("site %d: %v", i, err)
+		}
+		c.Range = max(c.Range, r)
+	}
+	for _, t := range c.Types {
+		if t != "" && !slices.Contains(c.typeList, t) {
+			c.typeList = append(c.typeList, t)
+		}
+	}
+	slices.Sort(c.typeList)
 	return nil
 }
 
@@ -241,6 +278,9 @@ func (sv *Server) edit(w http.ResponseWriter, r *http.Request) {
 	var b []byte
 	if err == nil {
 		d := sv.stateDoc(time.Since(t0), e.Op != "range")
+		if e.Patch {
+			d.patch(sv.s)
+		}
 		b, err = d.encode()
 	}
 	sv.mu.Unlock()
@@ -334,15 +374,37 @@ func writeError(w http.ResponseWriter, status int, format string, args ...any) {
 
 // activeSites returns the positions and labels of the devices in service.
 func (s *session) activeSites() ([]orb.Point, []string) {
-	var pts []orb.Point
-	var names []string
+	p := s.plan()
+	return p.pts, p.names
+}
+
+// plan is the devices in service: positions, labels, and with own ranges
+// their ranges now (√(b² + t)) and types.
+type plan struct {
+	pts    []orb.Point
+	names  []string
+	ranges []float64 // nil: one common range
+	types  []string  // nil: no types
+}
+
+// plan returns the devices in service.
+func (s *session) plan() plan {
+	var p plan
 	for _, d := range s.devs {
-		if d.On {
-			pts = append(pts, orb.Point{d.X, d.Y})
-			names = append(names, d.Label)
+		if !d.On {
+			continue
 		}
+		p.pts = append(p.pts, orb.Point{d.X, d.Y})
+		p.names = append(p.names, d.Label)
+		if s.ranged {
+			p.ranges = append(p.ranges, grown(d.R, s.t))
+		}
+		p.types = append(p.types, d.Type)
 	}
-	return pts, names
+	if !slices.ContainsFunc(p.types, func(t string) bool { return t != "" }) {
+		p.types = nil
+	}
+	return p
 }
 
 // deviceIndex maps layout input indices to device indices.

@@ -202,18 +202,21 @@ func TestEdits(t *testing.T) {
 			checkFigures(t, cfg, s)
 		})
 	}
-	t.Run("undo-all", func(t *testing.T) {
-		var s stateDoc
-		for s = getState(t, h); s.CanUndo; {
-			s = editOK(t, h, `{"op":"undo"}`)
-		}
-		s.Version, s0.Version, s.ComputeMs = 0, 0, 0
-		a, _ := json.Marshal(s)
-		b, _ := json.Marshal(s0)
-		if !bytes.Equal(a, b) {
-			t.Error("undoing every edit does not give the first state")
-		}
-	})
+	t.Run("undo-all", func(t *testing.T) { checkUndoAll(t, h, s0) })
+}
+
+// checkUndoAll undoes every edit and requires the first state s0 again.
+func checkUndoAll(t *testing.T, h http.Handler, s0 stateDoc) {
+	var s stateDoc
+	for s = getState(t, h); s.CanUndo; {
+		s = editOK(t, h, `{"op":"undo"}`)
+	}
+	s.Version, s0.Version, s.ComputeMs = 0, 0, 0
+	a, _ := json.Marshal(s)
+	b, _ := json.Marshal(s0)
+	if !bytes.Equal(a, b) {
+		t.Error("undoing every edit does not give the first state")
+	}
 }
 
 func TestGestureIsOneUndoStep(t *testing.T) {
@@ -360,13 +363,21 @@ func TestPageAndAssets(t *testing.T) {
 	})
 }
 
-func TestSaveAndReport(t *testing.T) {
-	cfg := demoConfig(t)
+// newWithOut starts a server on cfg whose reports go into a new folder
+// "out" of the test's temporary folder.
+func newWithOut(t testing.TB, cfg Config) *Server {
+	t.Helper()
 	cfg.OutDir = filepath.Join(t.TempDir(), "out")
 	sv, err := New(cfg)
 	if err != nil {
 		t.Fatal(err)
 	}
+	return sv
+}
+
+func TestSaveAndReport(t *testing.T) {
+	cfg := demoConfig(t)
+	sv := newWithOut(t, cfg)
 	h := sv.Handler()
 	editOK(t, h, `{"op":"add","points":[{"x":15,"y":-30,"label":"pole, east"}]}`)
 	editOK(t, h, `{"op":"off","device":2}`)
@@ -407,7 +418,7 @@ func TestSaveAndReport(t *testing.T) {
 		b := do200ish(t, h, "/api/report")
 		var r reportDoc
 		json.Unmarshal(b, &r)
-		sum, err := os.ReadFile(filepath.Join(cfg.OutDir, "summary.json"))
+		sum, err := os.ReadFile(filepath.Join(sv.cfg.OutDir, "summary.json"))
 		if err != nil || len(r.Files) < 6 {
 			t.Fatalf("report: %s, %v", b, err)
 		}

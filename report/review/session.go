@@ -28,7 +28,10 @@
 //     and kept until the next edit.
 //
 // Every figure is the one coverage.Analyze reports for the same devices
-// and range: the same functions are called with the same arguments.
+// and range: the same functions are called with the same arguments. With
+// own ranges (ranges.go) the layout is the power diagram, a slider move
+// keeps it as a range edit does, and the figures are AnalyzeRanges's; the
+// coverage curve is then Layout.CurveRanges, not the cache of curve.go.
 
 package review
 
@@ -67,17 +70,21 @@ const (
 	maxLabel = 200
 )
 
-// device is one device of the session.
+// device is one device of the session. R is its own range (m) when the
+// devices have their own (ranges.go; 0 with one common range), Type its
+// type ("" for none).
 type device struct {
 	X, Y  float64
 	Label string
 	On    bool
+	R     float64
+	Type  string
 }
 
 // snapshot is a session state kept for undo.
 type snapshot struct {
 	devs []device
-	r    float64
+	r, t float64
 }
 
 // geometry is what depends on the devices in service but not on the
@@ -99,6 +106,10 @@ type geometry struct {
 	failures *coverage.FailureReport
 	failR    float64
 	failAt   []int32 // layout input index -> position in failures.Devices
+	// ranged holds the figures of a layout with own ranges (nil: one
+	// common range; then full, cells, pers and the per-device figures
+	// above are used).
+	ranged *rangedGeo
 }
 
 // atRange is what depends on the range too.
@@ -110,14 +121,30 @@ type atRange struct {
 // session is the state under review. It is not safe for concurrent use;
 // Server holds a mutex around every call.
 type session struct {
-	devs    []device
-	r       float64
+	devs []device
+	r    float64
+	// ranged is true when the devices have their own ranges; t is then the
+	// growth of every device's power (ranges.go) and r is unused.
+	ranged  bool
+	t       float64
 	undo    []snapshot
 	version int
 	// gesture is the Gesture of the last edit (0: none).
 	gesture int
 	geo     *geometry
 	at      atRange
+	// change is what the last edit did to the device list (nil: unknown,
+	// as after an undo: send the whole list).
+	change *devChange
+}
+
+// devChange is what one edit did to the device list, from the list of
+// version base: the device removed (−1: none), then the devices set (new
+// or changed), by index into the new list.
+type devChange struct {
+	base    int
+	removed int
+	set     []int
 }
 
 // editError is a refused edit: its status is the HTTP status to answer.
@@ -141,9 +168,15 @@ func newSession(sites []orb.Point, names []string, r float64, cfg *Config) (*ses
 		if i < len(names) {
 			devs[i].Label = names[i]
 		}
+		if cfg.Ranges != nil {
+			devs[i].R = cfg.Ranges[i]
+		}
+		if i < len(cfg.Types) {
+			devs[i].Type = cfg.Types[i]
+		}
 	}
-	s := &session{}
-	geo, at, err := compute(devs, r, cfg, nil)
+	s := &session{ranged: cfg.Ranges != nil}
+	geo, at, err := compute(devs, r, 0, cfg, nil)
 	if err != nil {
 		return nil, err
 	}
@@ -166,6 +199,9 @@ func buildGeometry(devs []device, cfg *Config, prev *geometry) (*geometry, error
 	if len(pts) == 0 {
 		return nil, refuse(409, "at least one device must stay in service")
 	}
+	if cfg.Ranges != nil {
+		return g, buildRanged(g, pts, devs, cfg)
+	}
 	l, err := coverage.NewLayout(pts, cfg.Region)
 	if err != nil {
 		return nil, refuse(422, "the devices in service cannot be laid out: %v", err)
@@ -184,8 +220,15 @@ func buildGeometry(devs []device, cfg *Config, prev *geometry) (*geometry, error
 	return g, nil
 }
 
-// atRange computes the range-dependent figures.
-func (g *geometry) atRange(r float64, cfg *Config) (atRange, error) {
+// atRange computes the range-dependent figures: at range r, or with own
+// ranges at growth t.
+func (g *geometry) atRange(r, t float64) (atRange, error) {
+	if g.ranged != nil {
+		return atRange{
+			uncovered: g.layout.UncoveredAreaGrown(t),
+			gaps:      g.layout.GapsRanges(t, drawChordTolerance),
+		}, nil
+	}
 	if !(r > 0) || math.IsInf(r, 0) {
 		return atRange{}, refuse(400, "range %v m is not a positive finite number", r)
 	}
@@ -196,7 +239,8 @@ func (g *geometry) atRange(r float64, cfg *Config) (atRange, error) {
 }
 
 // Edit is one edit request. Op is "move", "add", "remove", "off", "on",
-// "range" or "undo".
+// "range", "undo", and with own ranges "device-range" (Device, Range) or
+// "type-range" (Type, Range).
 type Edit struct {
 	// Op names the edit.
 	Op string `json:"op"`
@@ -207,8 +251,12 @@ type Edit struct {
 	Y *float64 `json:"y,omitempty"`
 	// Points are the devices an add edit places.
 	Points []NewDevice `json:"points,omitempty"`
-	// Range is the new range of a range edit (metres).
+	// Range is the new range of a range edit (metres): with own ranges the
+	// largest range (ranges.go); of a device-range edit the device's; of a
+	// type-range edit every device's of Type.
 	Range *float64 `json:"range,omitempty"`
+	// Type is the device type of a type-range edit.
+	Type string `json:"type,omitempty"`
 	// Gesture, when positive, names one continuous gesture on the page
 	// (a drag of a device or of the range slider): consecutive edits of
 	// the same gesture make one undo step.
@@ -216,6 +264,11 @@ type Edit struct {
 	// Version, when given, must equal the session's version: an edit made
 	// on a stale view is refused with 409.
 	Version *int `json:"version,omitempty"`
+	// Patch asks for the device list of the answer as a patch of the
+	// previous one (stateDoc.DevicePatch) where the edit allows it: the
+	// page sends it, so that moving one of 10 000 devices does not answer
+	// all 10 000 again.
+	Patch bool `json:"patch,omitempty"`
 }
 
 // NewDevice is a device placed by an add edit.
@@ -223,6 +276,10 @@ type NewDevice struct {
 	X     *float64 `json:"x"`
 	Y     *float64 `json:"y"`
 	Label string   `json:"label,omitempty"`
+	// Range (own ranges only) is the device's range (default: the largest
+	// range in the plan); Type its type.
+	Range *float64 `json:"range,omitempty"`
+	Type  string   `json:"type,omitempty"`
 }
 
 // apply validates and applies e. On any error the session is unchanged.
@@ -240,12 +297,20 @@ func (s *session) apply(e *Edit, cfg *Config) error {
 		if err := cfg.checkRange(*e.Range); err != nil {
 			return err
 		}
-		at, err := s.geo.atRange(*e.Range, cfg)
+		r, t := *e.Range, 0.0
+		if rg := s.geo.ranged; rg != nil {
+			var err error
+			if t, err = rg.growthFor(r); err != nil {
+				return err
+			}
+		}
+		at, err := s.geo.atRange(r, t)
 		if err != nil {
 			return err
 		}
 		s.record(e.Gesture)
-		s.r, s.at = *e.Range, at
+		s.r, s.t, s.at = r, t, at
+		s.change = &devChange{base: s.version, removed: -1}
 		s.version++
 		return nil
 	}
@@ -253,14 +318,41 @@ func (s *session) apply(e *Edit, cfg *Config) error {
 	if err != nil {
 		return err
 	}
-	geo, at, err := compute(devs, s.r, cfg, s.geo)
+	t := s.t
+	if e.Op == "device-range" || e.Op == "type-range" || s.ranged && e.Op == "add" {
+		t = 0 // the grown ranges were fixed as the devices' own (ranges.go)
+	}
+	geo, at, err := compute(devs, s.r, t, cfg, s.geo)
 	if err != nil {
 		return err
 	}
 	s.record(e.Gesture)
-	s.devs, s.geo, s.at = devs, geo, at
+	s.change = deviceChange(e, s.version, len(s.devs), len(devs))
+	if t != s.t {
+		s.change = nil // every device's own range changed
+	}
+	s.devs, s.geo, s.at, s.t = devs, geo, at, t
 	s.version++
 	return nil
+}
+
+// deviceChange is what the device edit e did to a list of n devices of
+// version base, now m long.
+func deviceChange(e *Edit, base, n, m int) *devChange {
+	c := &devChange{base: base, removed: -1}
+	switch e.Op {
+	case "device-range", "type-range":
+		return nil // ranges fixed for every device (ranges.go): the whole list
+	case "remove":
+		c.removed = *e.Device
+	case "add":
+		for i := n; i < m; i++ {
+			c.set = append(c.set, i)
+		}
+	default:
+		c.set = []int{*e.Device}
+	}
+	return c
 }
 
 // record pushes the current state for undo, unless the edit continues the
@@ -278,10 +370,12 @@ func (s *session) edited(e *Edit, cfg *Config) ([]device, error) {
 	case "move", "remove", "off", "on":
 	case "add":
 		return s.added(e, cfg)
+	case "device-range", "type-range":
+		return s.rangeEdit(e, cfg)
 	case "":
-		return nil, refuse(400, "edit needs \"op\": move, add, remove, off, on, range or undo")
+		return nil, refuse(400, "edit needs \"op\": move, add, remove, off, on, range, device-range, type-range or undo")
 	default:
-		return nil, refuse(400, "unknown edit %q: use move, add, remove, off, on, range or undo", e.Op)
+		return nil, refuse(400, "unknown edit %q: use move, add, remove, off, on, range, device-range, type-range or undo", e.Op)
 	}
 	if e.Device == nil {
 		return nil, refuse(400, "%s edit needs \"device\" (a device index)", e.Op)
@@ -323,6 +417,13 @@ func (s *session) added(e *Edit, cfg *Config) ([]device, error) {
 		return nil, refuse(413, "the plan would hold %d devices; at most %d", len(s.devs)+n, MaxDevices)
 	}
 	devs := slices.Grow(slices.Clone(s.devs), n)
+	largest := 0.0
+	if s.ranged {
+		devs = baked(devs, s.t)
+		for _, d := range devs {
+			largest = max(largest, d.R)
+		}
+	}
 	for k, p := range e.Points {
 		if p.X == nil || p.Y == nil {
 			return nil, refuse(400, "added point %d needs \"x\" and \"y\" (local metres)", k)
@@ -337,19 +438,37 @@ func (s *session) added(e *Edit, cfg *Config) ([]device, error) {
 		if label == "" {
 			label = fmt.Sprintf("added %d", len(devs)+1)
 		}
-		devs = append(devs, device{X: *p.X, Y: *p.Y, Label: label, On: true})
+		d := device{X: *p.X, Y: *p.Y, Label: label, On: true, Type: p.Type}
+		if p.Range != nil || p.Type != "" {
+			if !s.ranged {
+				return nil, refuse(409, "added point %d: this plan has one common range; a device's own range or type needs a plan with ranges per device", k)
+			}
+		}
+		if s.ranged {
+			d.R = largest
+			if p.Range != nil {
+				if err := cfg.checkRange(*p.Range); err != nil {
+					return nil, refuse(err.(*editError).status, "added point %d: %v", k, err)
+				}
+				d.R = *p.Range
+			}
+		}
+		devs = append(devs, d)
 	}
 	return devs, nil
 }
 
-// compute lays out devs and computes the figures at range r, reusing what
-// it can of prev (nil: nothing).
-func compute(devs []device, r float64, cfg *Config, prev *geometry) (*geometry, atRange, error) {
+// compute lays out devs and computes the figures at range r (own ranges:
+// at growth t), reusing what it can of prev (nil: nothing).
+func compute(devs []device, r, t float64, cfg *Config, prev *geometry) (*geometry, atRange, error) {
 	geo, err := buildGeometry(devs, cfg, prev)
 	if err != nil {
 		return nil, atRange{}, err
 	}
-	at, err := geo.atRange(r, cfg)
+	if rg := geo.ranged; rg != nil && !(rg.w2min+t > 0) {
+		return nil, atRange{}, refuse(422, "the ranges grown by the slider would shrink a device to nothing: raise the range slider first")
+	}
+	at, err := geo.atRange(r, t)
 	return geo, at, err
 }
 
@@ -359,7 +478,7 @@ func (s *session) push() {
 	if len(s.undo) == MaxUndo {
 		s.undo = slices.Delete(s.undo, 0, 1)
 	}
-	s.undo = append(s.undo, snapshot{devs: s.devs, r: s.r})
+	s.undo = append(s.undo, snapshot{devs: s.devs, r: s.r, t: s.t})
 }
 
 // undoLast restores the state before the last edit.
@@ -368,13 +487,14 @@ func (s *session) undoLast(cfg *Config) error {
 		return refuse(409, "nothing to undo")
 	}
 	last := s.undo[len(s.undo)-1]
-	geo, at, err := compute(last.devs, last.r, cfg, s.geo)
+	geo, at, err := compute(last.devs, last.r, last.t, cfg, s.geo)
 	if err != nil {
 		return err
 	}
-	s.devs, s.r, s.geo, s.at = last.devs, last.r, geo, at
+	s.devs, s.r, s.t, s.geo, s.at = last.devs, last.r, last.t, geo, at
 	s.undo = s.undo[:len(s.undo)-1]
 	s.gesture = 0
+	s.change = nil
 	s.version++
 	return nil
 }

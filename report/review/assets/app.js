@@ -12,7 +12,6 @@
 
   let scene = null;   // /api/scene
   let state = null;   // /api/state
-  let cells = null;   // /api/cells when shown
   let tool = "drag";
   let selected = null; // {kind: "gap"|"device", id}
   // view: screen = ((x - cx) * k + w/2, (cy - y) * k + h/2)
@@ -45,6 +44,7 @@
   // follow wait in a queue, where consecutive edits of one gesture (a drag,
   // the slider) collapse into the latest.
   const queue = [];
+  let editSeq = 0;
   function edit(e) {
     window.review.pending = true;
     if (busy) {
@@ -54,21 +54,58 @@
       return;
     }
     busy = true;
+    e.patch = true;
+    const seq = ++editSeq;
     const t0 = performance.now();
-    postJSON("/api/edit", e).then((s) => {
-      lastRoundTripMs = performance.now() - t0;
-      const t1 = performance.now();
-      setState(s);
-      window.review.setStateMs = performance.now() - t1;
-      window.review.fetchMs = lastRoundTripMs;
-    }).catch((err) => {
-      toast(err.message);
-      draw();
-    }).finally(() => {
-      busy = false;
-      if (queue.length) edit(queue.shift());
-      else window.review.pending = false;
-    });
+    let t1 = 0, t2 = 0;
+    fetch("/api/edit", { method: "POST", headers: { "Content-Type": "application/json" }, body: JSON.stringify(e) })
+      .then(async (r) => {
+        const text = await r.text();
+        t1 = performance.now();
+        const b = JSON.parse(text);
+        t2 = performance.now();
+        if (!r.ok) throw new Error(b.error || r.statusText);
+        return b;
+      })
+      .then((s) => withDevices(s))
+      .then((s) => {
+        lastRoundTripMs = t1 - t0;
+        const t3 = performance.now();
+        setState(s);
+        const t4 = performance.now();
+        // the frame with the new plan is painted before a task queued in
+        // the next animation frame callback runs
+        requestAnimationFrame(() => { const tf = performance.now(); setTimeout(() => {
+          const t5 = performance.now();
+          window.review.timing = { seq: seq, op: e.op, totalMs: t5 - t0, fetchMs: t1 - t0, serverMs: s.computeMs,
+            parseMs: t2 - t1, setStateMs: t4 - t3, drawMs: window.review.drawMs, frameWaitMs: tf - t4, paintMs: t5 - tf, redrawMs: t5 - t1 };
+        }, 0); });
+      }).catch((err) => {
+        toast(err.message);
+        draw();
+      }).finally(() => {
+        busy = false;
+        if (queue.length) edit(queue.shift());
+        else window.review.pending = false;
+      });
+    return seq;
+  }
+
+  // withDevices gives an answer its device list: the answer's own, the
+  // previous list (a range edit), or the previous list patched
+  // (devicePatch); when the patch is not of the list this page holds
+  // (another page edited meanwhile) the whole state is fetched.
+  async function withDevices(s) {
+    const p = s.devicePatch;
+    if (s.devices) return s;
+    if (!p) { s.devices = state.devices; return s; }
+    if (p.base !== state.version) { const full = await getJSON("/api/state"); full.computeMs = s.computeMs; return full; }
+    const devs = state.devices.slice();
+    if (p.removed >= 0) devs.splice(p.removed, 1);
+    p.set.forEach((i, k) => { devs[i] = p.rows[k]; });
+    devs.length = p.count;
+    s.devices = devs;
+    return s;
   }
 
   function toast(msg) {
@@ -85,18 +122,6 @@
   const wx = (px) => (px - view.w / 2) / view.k + view.cx;
   const wy = (py) => view.cy - (py - view.h / 2) / view.k;
 
-  function ringPath(ring) {
-    let d = "";
-    for (let i = 0; i < ring.length; i++) {
-      d += (i ? "L" : "M") + sx(ring[i][0]).toFixed(1) + " " + sy(ring[i][1]).toFixed(1);
-    }
-    return d + "Z";
-  }
-  function polysPath(polys) {
-    let d = "";
-    for (const poly of polys) for (const ring of poly) d += ringPath(ring);
-    return d;
-  }
   function el(name, attrs, parent) {
     const e = document.createElementNS(NS, name);
     for (const k in attrs) e.setAttribute(k, attrs[k]);
@@ -118,124 +143,290 @@
   }
 
   // ---------- drawing ----------
+  // Layers, bottom to top (index.html): cv-base holds the site area,
+  // exclusions and context, drawn only when the view changes; cv-disks the
+  // union of the disks, painted opaque and shown at 16 % opacity by CSS;
+  // cv the service areas, gaps and disk rims; cv-dev the devices, drawn
+  // only when the device list, the view or the dot size changes; above
+  // them the SVG (gap numbers, labels, the selected and the dragged device,
+  // scale bar, north arrow). Geometry is kept as Path2D objects in local
+  // metres, built once per scene (area) or per answer (gaps, cells), and
+  // copied to the screen with the view's matrix (Path2D.addPath), so a
+  // redraw parses nothing. Headless Chromium paints in software: what
+  // costs is pixels and path segments, so every layer is one path per
+  // style, and the devices are stamped into an ImageData (below).
+  const cvBase = $("cv-base"), cvDisks = $("cv-disks"), cv = $("cv"), cvDev = $("cv-dev");
+  let areaPath = null, ctxPath = null, exclPath = null; // per scene, metres
+  let gapPaths = [], gapsPath = null;                      // per answer, metres
+  let cellsPath = null;                                    // per /api/cells answer
+  let baseKey = "", devKey = "", devDrawn = null;
+
+  // ring and flat-ring paths, in metres
+  function addRing(p, ring) {
+    for (let i = 0; i < ring.length; i++) i ? p.lineTo(ring[i][0], ring[i][1]) : p.moveTo(ring[i][0], ring[i][1]);
+    p.closePath();
+  }
+  function addFlat(p, polys) {
+    for (const poly of polys) for (const r of poly) {
+      p.moveTo(r[0], r[1]);
+      for (let i = 2; i < r.length; i += 2) p.lineTo(r[i], r[i + 1]);
+      p.closePath();
+    }
+  }
+  function scenePaths() {
+    areaPath = new Path2D(); exclPath = new Path2D(); ctxPath = new Path2D();
+    for (const poly of scene.area) poly.forEach((ring, i) => { addRing(areaPath, ring); if (i) addRing(exclPath, ring); });
+    for (const poly of scene.context) for (const ring of poly) addRing(ctxPath, ring);
+  }
+  // gapPathsOf builds one path per gap (hover and click) with its bounding
+  // box, and one path of all gaps (drawing).
+  function gapPathsOf(gaps) {
+    gapPaths = []; gapsPath = new Path2D();
+    for (const gp of gaps) {
+      const p = new Path2D(); addFlat(p, gp.outline); gapsPath.addPath(p);
+      let b = [Infinity, Infinity, -Infinity, -Infinity];
+      for (const poly of gp.outline) { const r = poly[0]; for (let i = 0; i < r.length; i += 2) { b[0] = Math.min(b[0], r[i]); b[1] = Math.min(b[1], r[i + 1]); b[2] = Math.max(b[2], r[i]); b[3] = Math.max(b[3], r[i + 1]); } }
+      gapPaths.push({ id: gp.id, path: p, b: b });
+    }
+  }
+  // screenMatrix maps metres to CSS pixels of the view.
+  const screenMatrix = () => new DOMMatrix([view.k, 0, 0, -view.k, view.w / 2 - view.cx * view.k, view.h / 2 + view.cy * view.k]);
+  function onScreen(p) { const q = new Path2D(); q.addPath(p, screenMatrix()); return q; }
+  // prep sizes a layer to the view at res device pixels per CSS pixel
+  // (default: the device's), clears it and sets CSS-pixel units.
+  function prep(c, res) {
+    const dpr = res || window.devicePixelRatio || 1;
+    const W = Math.round(view.w * dpr), H = Math.round(view.h * dpr);
+    if (c.width !== W || c.height !== H) { c.width = W; c.height = H; }
+    const x = c.getContext("2d");
+    x.setTransform(1, 0, 0, 1, 0, 0);
+    x.clearRect(0, 0, W, H);
+    x.setTransform(dpr, 0, 0, dpr, 0, 0);
+    return x;
+  }
+  // hatch returns a repeating pattern of diagonal lines (the exclusions'
+  // and the gaps' hatching of the PNG maps).
+  const hatches = {};
+  function hatch(x, bg, fg, s, w, down) {
+    const key = bg + fg + s + down;
+    if (!hatches[key]) {
+      const t = document.createElement("canvas"); t.width = t.height = s;
+      const c = t.getContext("2d");
+      c.fillStyle = bg; c.fillRect(0, 0, s, s); c.strokeStyle = fg; c.lineWidth = w;
+      for (const o of [-s, 0, s]) { c.beginPath(); if (down) { c.moveTo(o, 0); c.lineTo(o + s, s); } else { c.moveTo(o, s); c.lineTo(o + s, 0); } c.stroke(); }
+      hatches[key] = t;
+    }
+    return x.createPattern(hatches[key], "repeat");
+  }
+  const viewKey = () => [view.cx, view.cy, view.k, view.w, view.h, window.devicePixelRatio].join();
+
   function draw() {
     if (!scene || !state) return;
     const t0 = performance.now();
-    drawArea();
-    drawCanvas();
-    drawCells();
-    drawGaps();
+    drawBase();
+    drawDisks();
+    drawMain();
+    drawDevLayer();
+    drawMarks();
     drawDevices();
     drawOverlay();
     drawLegend();
     window.review.drawMs = performance.now() - t0;
   }
 
-  function drawArea() {
-    const g = clear("l-area");
-    for (const poly of scene.area) {
-      el("path", { d: polysPath([poly]), class: "area" }, g);
-      for (let i = 1; i < poly.length; i++) el("path", { d: ringPath(poly[i]), class: "excl" }, g);
-    }
-    const c = clear("l-context");
+  function drawBase() {
+    const key = viewKey() + $("show-context").checked;
+    if (key === baseKey) return;
+    baseKey = key;
+    const c = prep(cvBase);
+    const a = onScreen(areaPath);
+    c.fillStyle = "#fbfaf4"; c.fill(a, "evenodd");
+    c.fillStyle = hatch(c, "#ffffff", "#8c8c8c", 8, 2, false); c.fill(onScreen(exclPath));
+    c.strokeStyle = "#6b6b6b"; c.lineWidth = 1; c.stroke(onScreen(exclPath));
+    c.strokeStyle = "#2b2b2b"; c.lineWidth = 1.5; c.stroke(a);
     if (!$("show-context").checked) return;
-    if (scene.context.length) el("path", { d: polysPath(scene.context), class: "ctx" }, c);
-    for (const p of scene.contextPoints) el("circle", { cx: sx(p[0]), cy: sy(p[1]), r: 2.5, class: "ctxpt" }, c);
+    if (scene.context.length) { const p = onScreen(ctxPath); c.fillStyle = "#c7c7c7"; c.fill(p); c.strokeStyle = "#8a8a8a"; c.lineWidth = 0.8; c.stroke(p); }
+    c.fillStyle = "#8a8a8a";
+    for (const p of scene.contextPoints) { c.beginPath(); c.arc(sx(p[0]), sy(p[1]), 2.5, 0, 2 * Math.PI); c.fill(); }
   }
 
-  // The disks and the devices are painted on a canvas between the area
-  // (SVG below) and the gaps (SVG above): an SVG element, or even one SVG
-  // path, per device is far too slow to paint for thousands of devices.
-  // A device is never inside a gap (its own spot is covered), so the gaps
-  // may lie above the devices. Pointer events find devices by distance
-  // (deviceAt).
-  const cv = $("cv");
-  const disksCv = document.createElement("canvas");
-  function drawCanvas() {
-    const dpr = window.devicePixelRatio || 1;
-    const W = Math.round(view.w * dpr), H = Math.round(view.h * dpr);
-    for (const c of [cv, disksCv]) if (c.width !== W || c.height !== H) { c.width = W; c.height = H; }
-    const ctx = cv.getContext("2d");
-    ctx.setTransform(1, 0, 0, 1, 0, 0);
-    ctx.clearRect(0, 0, W, H);
-    ctx.setTransform(dpr, 0, 0, dpr, 0, 0);
-    const devs = state.devices;
-    // on dense plans the disk rims and device outlines are left out: they
-    // merge into a blur anyway and cost most of the painting
-    const dense = devs.length > DENSE;
-    if ($("show-disks").checked) {
-      // the union of the disks, tinted once: painted opaque apart, then
-      // laid on with the tint's opacity
-      const r = state.figures.rangeM * view.k;
-      const dc = disksCv.getContext("2d");
-      dc.setTransform(1, 0, 0, 1, 0, 0);
-      dc.clearRect(0, 0, W, H);
-      dc.setTransform(dpr, 0, 0, dpr, 0, 0);
-      dc.fillStyle = "#56B4E9";
-      const rims = circles(devs, r, (d) => d.on, (p) => dc.fill(p));
-      ctx.globalAlpha = 0.16;
-      ctx.drawImage(disksCv, 0, 0, view.w, view.h);
-      ctx.globalAlpha = 1;
-      if (!dense) {
-        ctx.strokeStyle = "rgba(0,114,178,0.45)";
-        ctx.lineWidth = 1;
-        for (const p of rims) ctx.stroke(p);
+  // rangeOf is device i's range (m) at the state's range.
+  function rangeOf(i) {
+    const f = state.figures;
+    if (!f.growthM2 && f.growthM2 !== 0) return f.rangeM;
+    return Math.sqrt(Math.max(0, state.devices[i].range * state.devices[i].range + f.growthM2));
+  }
+
+  // The disks. A dense plan (over DENSE devices) paints their union as
+  // the site area less the gaps (one even-odd path: inside the area the
+  // union is exactly what is not a gap, up to the gap outlines' 1 %
+  // chords), and only the disks that may reach beyond the area or over an
+  // exclusion as circles: those whose device is nearer than its range to
+  // the outside, found in a distance map of the area (insideMap).
+  // The layer has half the device's resolution (a quarter of the pixels to
+  // paint): shown at 16 % opacity under the crisp gap outlines, the
+  // softer edge does not show.
+  const DENSE = 2000;
+  function drawDisks() {
+    const c = prep(cvDisks, (window.devicePixelRatio || 1) / 2);
+    if (!$("show-disks").checked) return;
+    const devs = state.devices, dense = devs.length > DENSE, k = view.k;
+    c.fillStyle = "#56B4E9";
+    const p = new Path2D();
+    if (dense) { p.addPath(areaPath); p.addPath(gapsPath); }
+    const circ = new Path2D(), m = insideMap();
+    let nc = 0;
+    for (let i = 0; i < devs.length; i++) {
+      const d = devs[i];
+      if (!d.on || i === dragging.device) continue;
+      const r = rangeOf(i);
+      if (dense && m.inside(d.x, d.y, r)) continue;
+      circ.moveTo(d.x + r, d.y); circ.arc(d.x, d.y, r, 0, 2 * Math.PI);
+      nc++;
+    }
+    if (dense) c.fill(onScreen(p), "evenodd");
+    c.fill(onScreen(circ));
+    window.review.diskCircles = circ;
+    window.review.diskCount = nc;
+  }
+
+  // insideMap is a distance map of the site area, made once per scene:
+  // the area is rasterised on a grid of at most MAP cells a side, and each
+  // cell inside holds the distance (m) from its centre to the nearest
+  // cell centre outside (exact Euclidean distance transform, Felzenszwalb
+  // and Huttenlocher, Theory of Computing 8, 2012). A disk is certainly
+  // inside the area when that distance less two cells' width exceeds its
+  // radius. An exclusion thinner than a cell may be missed: the disks
+  // over it are then not tinted, below a pixel at the fitted view.
+  const MAP = 1024;
+  let imap = null;
+  function insideMap() {
+    if (imap) return imap;
+    const b = scene.bound, pad = 4;
+    const h = Math.max(b[2] - b[0], b[3] - b[1], 1e-6) / (MAP - 2 * pad);
+    const nx = Math.min(MAP, Math.ceil((b[2] - b[0]) / h) + 2 * pad), ny = Math.min(MAP, Math.ceil((b[3] - b[1]) / h) + 2 * pad);
+    const x0 = b[0] - pad * h, y0 = b[1] - pad * h;
+    const t = document.createElement("canvas"); t.width = nx; t.height = ny;
+    const c = t.getContext("2d", { willReadFrequently: true });
+    c.setTransform(1 / h, 0, 0, 1 / h, -x0 / h, -y0 / h);
+    c.fillStyle = "#000"; c.fill(areaPath, "evenodd");
+    const px = c.getImageData(0, 0, nx, ny).data;
+    const INF = 1e20, f = new Float64Array(nx * ny);
+    for (let i = 0; i < nx * ny; i++) f[i] = px[4 * i + 3] === 255 ? INF : 0; // partly covered cells count as outside
+    edt(f, nx, ny);
+    imap = {
+      inside(x, y, r) {
+        const i = Math.floor((x - x0) / h), j = Math.floor((y - y0) / h);
+        if (i < 0 || j < 0 || i >= nx || j >= ny) return false;
+        return Math.sqrt(f[j * nx + i]) * h - 2 * h > r;
+      },
+    };
+    return imap;
+  }
+  // edt squares-distance-transforms f (0 outside, INF inside) in place,
+  // rows then columns, each by the lower envelope of parabolas.
+  function edt(f, nx, ny) {
+    const n = Math.max(nx, ny), g = new Float64Array(n), d = new Float64Array(n), v = new Int32Array(n), z = new Float64Array(n + 1);
+    const line = (get, set, len) => {
+      for (let q = 0; q < len; q++) g[q] = get(q);
+      let k = 0; v[0] = 0; z[0] = -Infinity; z[1] = Infinity;
+      for (let q = 1; q < len; q++) {
+        let s;
+        for (;;) { const p = v[k]; s = ((g[q] + q * q) - (g[p] + p * p)) / (2 * q - 2 * p); if (s <= z[k] && k > 0) k--; else break; }
+        if (s <= z[k]) { v[0] = q; z[0] = -Infinity; z[1] = Infinity; k = 0; continue; }
+        k++; v[k] = q; z[k] = s; z[k + 1] = Infinity;
+      }
+      k = 0;
+      for (let q = 0; q < len; q++) { while (z[k + 1] < q) k++; const dq = q - v[k]; d[q] = dq * dq + g[v[k]]; }
+      for (let q = 0; q < len; q++) set(q, d[q]);
+    };
+    for (let j = 0; j < ny; j++) line((q) => f[j * nx + q], (q, x) => { f[j * nx + q] = x; }, nx);
+    for (let i = 0; i < nx; i++) line((q) => f[q * nx + i], (q, x) => { f[q * nx + i] = x; }, ny);
+  }
+
+  // drawMain draws the service areas, the gaps and (plans up to DENSE
+  // devices) the disk rims.
+  function drawMain() {
+    const c = prep(cv);
+    if ($("show-cells").checked && cellsPath) {
+      c.strokeStyle = "#009E73"; c.lineWidth = 1.4; c.setLineDash([5, 3]); c.stroke(onScreen(cellsPath)); c.setLineDash([]);
+    }
+    if ($("show-disks").checked && state.devices.length <= DENSE && window.review.diskCircles) {
+      c.strokeStyle = "rgba(0,114,178,0.45)"; c.lineWidth = 1; c.stroke(onScreen(window.review.diskCircles));
+    }
+    const gaps = state.figures.gaps;
+    if (!gaps.length) return;
+    const g = onScreen(gapsPath);
+    // a hatch is slow to paint when there are hundreds of gaps
+    if (gaps.length > MAX_MARKED) { c.globalAlpha = 0.6; c.fillStyle = "#D55E00"; } else { c.globalAlpha = 0.9; c.fillStyle = hatch(c, "#f3b98f", "#D55E00", 7, 2.2, true); }
+    c.fill(g, "evenodd");
+    c.globalAlpha = 1;
+    c.strokeStyle = "#D55E00"; c.lineWidth = 1.2; c.stroke(g);
+    const sel = selected && selected.kind === "gap" && gapPaths.find((p) => p.id === selected.id);
+    if (sel) { c.strokeStyle = "#000"; c.lineWidth = 2.2; c.stroke(onScreen(sel.path)); }
+  }
+
+  // drawDevLayer stamps the devices into the cv-dev layer: a dot (or, off,
+  // a white dot with a cross) rendered once, copied by pixel into an
+  // ImageData with "over" blending, one putImageData. For 10 000 devices
+  // this is a few milliseconds where as many arcs take a hundred.
+  function drawDevLayer() {
+    const dpr = window.devicePixelRatio || 1, rad = devRadius(), devs = state.devices;
+    const key = viewKey() + "|" + rad + "|" + dragging.device;
+    if (key === devKey && devs === devDrawn) return;
+    devKey = key; devDrawn = devs;
+    const c = prep(cvDev);
+    const W = cvDev.width, H = cvDev.height;
+    const on = stamp(rad, dpr, true), off = stamp(rad, dpr, false);
+    if (!devImg || devImg.width !== W || devImg.height !== H) devImg = c.createImageData(W, H);
+    else new Uint32Array(devImg.data.buffer).fill(0);
+    const img = devImg, px = img.data;
+    for (let i = 0; i < devs.length; i++) {
+      const d = devs[i];
+      if (i === dragging.device) continue;
+      const s = d.on ? on : off;
+      const x0 = Math.round(sx(d.x) * dpr) - s.c, y0 = Math.round(sy(d.y) * dpr) - s.c;
+      if (x0 + s.n <= 0 || y0 + s.n <= 0 || x0 >= W || y0 >= H) continue;
+      for (let j = 0; j < s.n; j++) {
+        const y = y0 + j;
+        if (y < 0 || y >= H) continue;
+        for (let i2 = 0; i2 < s.n; i2++) {
+          const x = x0 + i2, q = 4 * (j * s.n + i2), sa = s.px[q + 3];
+          if (sa === 0 || x < 0 || x >= W) continue;
+          const o = 4 * (y * W + x);
+          if (sa === 255 || px[o + 3] === 0) { px[o] = s.px[q]; px[o + 1] = s.px[q + 1]; px[o + 2] = s.px[q + 2]; px[o + 3] = sa; continue; }
+          const da = px[o + 3] * (255 - sa) / 255, a = sa + da;
+          for (let ch = 0; ch < 3; ch++) px[o + ch] = (s.px[q + ch] * sa + px[o + ch] * da) / a;
+          px[o + 3] = a;
+        }
       }
     }
-    const rad = devRadius();
-    ctx.lineWidth = 1.5;
-    ctx.fillStyle = "#0072B2"; ctx.strokeStyle = "#ffffff";
-    circles(devs, rad, (d) => d.on, (p) => { ctx.fill(p); if (!dense) ctx.stroke(p); });
-    const crosses = new Path2D();
-    const off = circles(devs, rad, (d) => !d.on, () => {});
-    devs.forEach((d, i) => {
-      if (d.on || i === dragging.device) return;
-      const x = sx(d.x), y = sy(d.y);
-      crosses.moveTo(x - 4, y - 4); crosses.lineTo(x + 4, y + 4); crosses.moveTo(x - 4, y + 4); crosses.lineTo(x + 4, y - 4);
-    });
-    ctx.fillStyle = "#ffffff"; ctx.strokeStyle = "#444444";
-    for (const p of off) { ctx.fill(p); ctx.stroke(p); }
-    ctx.stroke(crosses);
+    c.putImageData(img, 0, 0);
+  }
+  let devImg = null; // the ImageData of cv-dev, kept between redraws
+  const stamps = {};
+  function stamp(rad, dpr, on) {
+    const key = rad + "|" + dpr + "|" + on;
+    if (stamps[key]) return stamps[key];
+    const half = Math.ceil((on ? rad + 1.5 : Math.max(rad + 1.5, 5)) * dpr) + 1, n = 2 * half + 1;
+    const t = document.createElement("canvas"); t.width = t.height = n;
+    const c = t.getContext("2d", { willReadFrequently: true });
+    c.setTransform(dpr, 0, 0, dpr, (half + 0.5), (half + 0.5));
+    c.beginPath(); c.arc(0, 0, rad, 0, 2 * Math.PI);
+    c.lineWidth = 1.5;
+    if (on) { c.fillStyle = "#0072B2"; c.fill(); if (rad >= 3) { c.strokeStyle = "#ffffff"; c.stroke(); } }
+    else {
+      c.fillStyle = "#ffffff"; c.fill(); c.strokeStyle = "#444444"; c.stroke();
+      c.beginPath(); c.moveTo(-4, -4); c.lineTo(4, 4); c.moveTo(-4, 4); c.lineTo(4, -4); c.stroke();
+    }
+    return (stamps[key] = { px: c.getImageData(0, 0, n, n).data, n: n, c: half });
   }
 
-  // circles builds the circles of radius r (px) around the devices that
-  // pass keep, in batches of CIRCLE_BATCH (one path of thousands of
-  // overlapping circles is slow to fill), calls paint on each batch and
-  // returns the batches. The dragged device is left out.
-  const CIRCLE_BATCH = 256;
-  const DENSE = 2000;
-  function circles(devs, r, keep, paint) {
-    const out = [];
-    let p = null, n = 0;
-    devs.forEach((d, i) => {
-      if (!keep(d) || i === dragging.device) return;
-      if (!p || n === CIRCLE_BATCH) { if (p) paint(p); p = new Path2D(); out.push(p); n = 0; }
-      const x = sx(d.x), y = sy(d.y);
-      p.moveTo(x + r, y);
-      p.arc(x, y, r, 0, 2 * Math.PI);
-      n++;
-    });
-    if (p) paint(p);
-    return out;
-  }
-
-  function drawCells() {
-    const g = clear("l-cells");
-    if (!$("show-cells").checked || !cells) return;
-    let d = "";
-    for (const c of cells) d += polysPath(c.outline);
-    el("path", { d: d, class: "cell" }, g);
-  }
-
-  function drawGaps() {
-    const g = clear("l-gaps");
+  // drawMarks numbers the deepest gaps (all when few) and marks the
+  // points that need the full-cover range.
+  function drawMarks() {
     const m = clear("l-marks");
-    // a hatch pattern per gap is slow to paint when there are hundreds
-    const dense = state.figures.gaps.length > MAX_MARKED ? " solid" : "";
     for (const gp of state.figures.gaps) {
-      const p = el("path", { d: polysPath(gp.outline), class: "gap" + dense + (isSel("gap", gp.id) ? " sel" : ""), "fill-rule": "evenodd", "data-gap": gp.id }, g);
-      // Number and mark only the deepest gaps when there are many, unless
-      // one is selected.
       if (gp.id > MAX_MARKED && !isSel("gap", gp.id)) continue;
       const x = sx(gp.deepest[0]), y = sy(gp.deepest[1]), s = 4;
       el("path", { d: `M${x - s} ${y - s}L${x + s} ${y + s}M${x - s} ${y + s}L${x + s} ${y - s}`, class: "deep" }, m);
@@ -248,12 +439,23 @@
     }
   }
 
+  // gapAt returns the id of the gap under the screen point, or null.
+  const hitCtx = document.createElement("canvas").getContext("2d");
+  function gapAt(px, py) {
+    const x = wx(px), y = wy(py);
+    for (const g of gapPaths) {
+      if (x < g.b[0] || x > g.b[2] || y < g.b[1] || y > g.b[3]) continue;
+      if (hitCtx.isPointInPath(g.path, x, y, "evenodd")) return g.id;
+    }
+    return null;
+  }
+
   function drawDevices() {
     const g = clear("l-devices");
     const lab = clear("l-labels");
     const labels = $("show-labels").checked;
-    // the devices themselves are on the canvas (drawCanvas); here only
-    // their labels, the selected one and the dragged one
+    // the devices themselves are in cv-dev (drawDevLayer); here only their
+    // labels, the selected one and the dragged one
     const rad = devRadius();
     if (labels) {
       state.devices.forEach((d, i) => {
@@ -269,9 +471,11 @@
     drawDragged();
   }
 
-  // devRadius is the dot radius: dots shrink when the disks are small on
-  // screen (dense plans).
-  function devRadius() { return Math.min(6, Math.max(1.5, 0.2 * state.figures.rangeM * view.k)); }
+  // devRadius is the dot radius (px): dots shrink when the disks are small
+  // on screen (dense plans). It follows the range the page started with,
+  // so that sliding the range does not repaint the devices.
+  function devRadius() { return Math.round(2 * Math.min(6, Math.max(1.5, 0.2 * startRange * view.k))) / 2; }
+  let startRange = 1;
 
   // drawDragged draws the device being dragged, with its disk, at the
   // pointer.
@@ -279,7 +483,7 @@
     const g = clear("l-drag");
     if (dragging.device === null || !dragging.pos) return;
     const x = sx(dragging.pos[0]), y = sy(dragging.pos[1]);
-    if ($("show-disks").checked) el("circle", { cx: x, cy: y, r: state.figures.rangeM * view.k, class: "disk" }, g);
+    if ($("show-disks").checked) el("circle", { cx: x, cy: y, r: rangeOf(dragging.device) * view.k, class: "disk" }, g);
     el("circle", { cx: x, cy: y, r: devRadius(), class: "dev sel" }, g);
   }
 
@@ -367,7 +571,8 @@
     el("line", { x1: L, x2: W - R, y1: Y(0), y2: Y(0), class: "curve-axis" }, c);
     const step = niceLength(curveMax / 3);
     for (let r = 0; r <= curveMax + 1e-9; r += step) {
-      const t = el("text", { x: X(r), y: H - 8, "text-anchor": "middle" }, c);
+      // the last label keeps inside the chart
+      const t = el("text", { x: Math.min(X(r), W - 2), y: H - 8, "text-anchor": X(r) > W - R - 12 ? "end" : "middle" }, c);
       t.textContent = r + " m";
     }
     let d = "";
@@ -389,8 +594,8 @@
 
   // ---------- figures ----------
   function setState(s) {
-    if (!s.devices) s.devices = state.devices; // a range edit leaves them as they were
     s.figures.gaps.forEach((g, k) => { g.outline = s.outlines[k]; });
+    gapPathsOf(s.figures.gaps);
     // while a device is dragged, it stays under the pointer
     if (dragging.device !== null && dragging.pos && s.devices[dragging.device]) {
       s.devices[dragging.device].x = dragging.pos[0]; s.devices[dragging.device].y = dragging.pos[1];
@@ -402,6 +607,16 @@
     $("fig-uncovered").textContent = fmtArea(f.uncoveredM2);
     $("fig-gaps").textContent = f.gaps.length + (f.gaps.length ? " (" + f.enclosedGaps + " enclosed)" : "");
     $("fig-fullcover").textContent = fmtM(f.fullCoverRangeM);
+    if (ranged()) {
+      $("range").min = String(Math.ceil(2 * (f.leastRangeM + 0.01)) / 2);
+      $("range-label").textContent = "Largest range";
+      $("fullcover-label").textContent = "Full cover at largest range";
+      $("range-note").hidden = false;
+      $("range-note").textContent = "Devices have their own ranges. The slider grows them all together by uniform power growth: " +
+        "each range becomes √(r² + t) with one t, the slider showing the largest (the power diagram, so the service areas, stays the same). " +
+        "Hidden devices: " + (f.hidden ? f.hidden.length : 0) + ".";
+    }
+    typeControls();
     $("fig-devices").textContent = f.devicesOn + " of " + s.devices.length;
     $("fig-holes").textContent = f.openHoles + " / " + f.pieces;
     $("range-out").textContent = fmtM(f.rangeM);
@@ -422,7 +637,7 @@
     });
     if (selected && selected.kind === "gap" && !f.gaps.some((g) => g.id === selected.id)) selected = null;
     if (selected && selected.kind === "device" && selected.id >= s.devices.length) selected = null;
-    if ($("show-cells").checked) loadCells(); else cells = null;
+    if ($("show-cells").checked) loadCells(); else cellsPath = null;
     hideTip(); // the hovered element may be gone
     draw();
     drawCurve();
@@ -430,7 +645,11 @@
   }
 
   function loadCells() {
-    getJSON("/api/cells").then((c) => { cells = c; drawCells(); }).catch((e) => toast(e.message));
+    getJSON("/api/cells").then((c) => {
+      cellsPath = new Path2D();
+      for (const cell of c) addFlat(cellsPath, cell.outline);
+      draw();
+    }).catch((e) => toast(e.message));
   }
 
   // ---------- selection and hover ----------
@@ -443,9 +662,11 @@
   function esc(s) { return String(s).replace(/[&<>"']/g, (c) => ({ "&": "&amp;", "<": "&lt;", ">": "&gt;", '"': "&quot;", "'": "&#39;" }[c])); }
   function devName(i) { const d = state.devices[i]; return "#" + i + (d && d.label ? " " + esc(d.label) : ""); }
 
+  const ranged = () => state && state.figures.growthM2 !== undefined;
   function gapHTML(gp) {
     return "<h3>Gap " + gp.id + (gp.touchesBoundary ? " (reaches the edge)" : " (enclosed)") + "</h3><table>" +
-      row("area", fmtArea(gp.areaM2)) + row("closes at range", fmtM(gp.closingRangeM)) +
+      row("area", fmtArea(gp.areaM2)) + row(ranged() ? "closes at largest range" : "closes at range", fmtM(gp.closingRangeM)) +
+      (gp.aloneDevice !== undefined ? row("or alone", devName(gp.aloneDevice) + " at " + fmtM(gp.aloneRangeM)) : "") +
       row("deepest point", "x " + fx(gp.deepest[0], 1) + ", y " + fx(gp.deepest[1], 1) + " m") +
       row("bordering devices", gp.devices.slice(0, 12).map(devName).join(", ") + (gp.devices.length > 12 ? " +" + (gp.devices.length - 12) : "")) +
       "</table>";
@@ -464,6 +685,19 @@
       if (seq !== devSeq) return;
       let h = "<h3>Device " + devName(i) + (dv.on ? "" : " (switched off)") + "</h3><table>" +
         row("position", "x " + fx(dv.x, 1) + ", y " + fx(dv.y, 1) + " m");
+      if (dv.rangeM !== undefined) {
+        h += (dv.type ? row("type", esc(dv.type)) : "") + row("range", fmtM(dv.rangeM));
+        if (dv.hidden) h += row("hidden", "no power cell: its disk lies inside the others' union, so it adds no coverage");
+        else if (dv.on && dv.servedM2 !== undefined) {
+          h += row("serves", fmtArea(dv.servedM2) + " (" + fmtPct(dv.servedShare) + " of the area; power cell)") +
+            (dv.withinRangeM2 !== undefined ? row("within its range", fmtArea(dv.withinRangeM2)) : "") +
+            row("farthest point served", fmtM(dv.farthestM)) +
+            row("if it fails", "not computed with own ranges");
+        }
+        d.innerHTML = h + "</table>" + rangeControl("dev-range", "Set this device's range", dv.rangeM);
+        $("dev-range-set").addEventListener("click", () => setRange({ op: "device-range", device: i }, "dev-range"));
+        return;
+      }
       if (dv.on) {
         h += row("serves", fmtArea(dv.servedM2) + " (" + fmtPct(dv.servedShare) + " of the area)") +
           row("farthest point served", fmtM(dv.farthestM)) +
@@ -476,6 +710,32 @@
     }).catch((e) => toast(e.message));
   }
 
+  // rangeControl is a number field with a Set button (own ranges).
+  function rangeControl(id, label, v) {
+    return '<div class="rangectl"><label for="' + id + '">' + label + '</label> <input type="number" id="' + id +
+      '" min="0.1" step="0.5" value="' + fx(v, 2) + '"> m <button class="btn" id="' + id + '-set">Set</button></div>';
+  }
+  // setRange sends a device-range or type-range edit with the field's
+  // value; the server checks it (a positive, finite, plausible length).
+  function setRange(e, id) {
+    const v = $(id).valueAsNumber;
+    if (!isFinite(v) || v <= 0) { toast("a range must be a positive number of metres"); return; }
+    e.range = v;
+    edit(e);
+  }
+  // typeControls shows one range field per device type (own ranges).
+  function typeControls() {
+    const f = state.figures, box = $("type-ranges");
+    box.hidden = !ranged() || !f.types;
+    if (box.hidden || box.contains(document.activeElement)) return;
+    box.innerHTML = "";
+    f.types.forEach((t, k) => {
+      const i = state.devices.findIndex((d) => d.type === t);
+      box.insertAdjacentHTML("beforeend", rangeControl("type-range-" + k, "Every " + esc(t), i >= 0 ? rangeOf(i) : f.rangeM));
+      $("type-range-" + k + "-set").addEventListener("click", () => setRange({ op: "type-range", type: t }, "type-range-" + k));
+    });
+  }
+
   const tip = $("tip");
   function moveTip(ev) {
     const b = svg.getBoundingClientRect();
@@ -485,7 +745,7 @@
   function hideTip() { tip.hidden = true; }
   function hoverGap(gp, ev) {
     if (dragging.device !== null) return;
-    tip.textContent = "Gap " + gp.id + ": " + fmtArea(gp.areaM2) + ", closes at " + fmtM(gp.closingRangeM);
+    tip.textContent = "Gap " + gp.id + ": " + fmtArea(gp.areaM2) + ", closes at " + (ranged() ? "largest range " : "") + fmtM(gp.closingRangeM);
     tip.hidden = false; moveTip(ev);
   }
   // hover shows the tooltip of the device or gap under the pointer.
@@ -493,8 +753,8 @@
     const b = svg.getBoundingClientRect();
     const i = deviceAt(ev.clientX - b.left, ev.clientY - b.top);
     if (i >= 0) { hoverDevice(i, ev); return; }
-    const gid = ev.target.getAttribute && ev.target.getAttribute("data-gap");
-    const gp = gid && state.figures.gaps.find((g) => g.id === +gid);
+    const gid = gapAt(ev.clientX - b.left, ev.clientY - b.top);
+    const gp = gid !== null && state.figures.gaps.find((g) => g.id === gid);
     if (gp) hoverGap(gp, ev); else hideTip();
   }
   function hoverDevice(i, ev) {
@@ -536,7 +796,7 @@
       svg.setPointerCapture(ev.pointerId);
       dragging.pan = [ev.clientX, ev.clientY, view.cx, view.cy];
       dragging.moved = false;
-      dragging.target = ev.target;
+      dragging.target = gapAt(ev.clientX - b.left, ev.clientY - b.top);
     }
   });
   svg.addEventListener("pointermove", (ev) => {
@@ -548,7 +808,7 @@
       const [x, y] = localXY(ev);
       dragging.pos = [x, y];
       // move the device and its disk at once; the figures follow the server
-      if (first) { drawCanvas(); drawDevices(); } else drawDragged();
+      if (first) { drawDisks(); drawMain(); drawDevLayer(); drawDevices(); } else drawDragged();
       edit({ op: "move", device: i, x: x, y: y, gesture: dragging.gesture });
     } else if (!dragging.pan) {
       hover(ev);
@@ -572,8 +832,8 @@
       select("device", i);
     } else if (dragging.pan) {
       dragging.pan = null;
-      const gid = dragging.target && dragging.target.getAttribute && dragging.target.getAttribute("data-gap");
-      if (!dragging.moved && gid) select("gap", +gid);
+      const gid = dragging.target;
+      if (!dragging.moved && gid !== null) select("gap", gid);
       else if (!dragging.moved && selected) { selected = null; draw(); showSelection(); }
     }
   });
@@ -618,7 +878,7 @@
     sliderGesture = 0;
   });
   for (const id of ["show-disks", "show-labels", "show-context"]) $(id).addEventListener("change", draw);
-  $("show-cells").addEventListener("change", () => { if ($("show-cells").checked) loadCells(); else { cells = null; draw(); } });
+  $("show-cells").addEventListener("change", () => { if ($("show-cells").checked) loadCells(); else { cellsPath = null; draw(); } });
 
   $("write-report").addEventListener("click", () => {
     $("report-out").textContent = "writing…";
@@ -644,6 +904,8 @@
   // ---------- start ----------
   Promise.all([getJSON("/api/scene"), getJSON("/api/state")]).then(([sc, st]) => {
     scene = sc;
+    scenePaths();
+    startRange = st.figures.rangeM;
     document.title = "Review: " + sc.title;
     $("title").textContent = sc.title;
     const cl = $("cautions");
@@ -654,7 +916,8 @@
       ban.className = "life";
       ban.textContent = "Life-safety devices: " + sc.cautions.join(" ");
     } else {
-      ban.textContent = "Coverage is modelled as disks of one common range: a planning aid, not a guarantee. Follow local codes and licensed practice.";
+      ban.textContent = "Coverage is modelled as disks of " + (st.figures.growthM2 !== undefined ? "each device's own range" : "one common range") +
+        ": a planning aid, not a guarantee. Follow local codes and licensed practice.";
     }
     if (!sc.canReport) { $("write-report").disabled = true; $("report-out").textContent = "Start with --out to write the full report."; }
     else $("report-out").textContent = "into " + sc.outDir;

@@ -1,0 +1,214 @@
+// Devices with their own ranges in the review session.
+//
+// Model. Device i has its own range b_i (the range column or its type's
+// range). The power π_i(x) = |x − p_i|² − b_i² replaces the distance and
+// the layout is the power diagram (coverage.NewLayoutRanges; Aurenhammer,
+// SIAM J. Comput. 16, 1987): a device whose power cell is empty is hidden,
+// its disk inside the union of the others. The range slider scales all
+// ranges by uniform power growth: every device's range becomes
+// √(b_i² + t) with one growth t (m²), the slider showing the largest
+// range √(max b_i² + t). Growing every power by the same t keeps the power
+// diagram, so a slider move reuses the layout (UncoveredAreaGrown,
+// GapsRanges at t), as a range edit does with one common range; and it is
+// the growth coverage.AnalyzeRanges reports the full-cover figure and the
+// gaps' closings in. The slider may not shrink any device to nothing:
+// its least value is √(max b_i² − min b_i²).
+//
+// Setting one device's range (or every device's of a type) first fixes
+// the grown ranges as the devices' own (b_i ← √(b_i² + t), t ← 0), then
+// sets the new one and lays the devices out again. Added devices take the
+// range given, else the largest range in the plan, the same way.
+//
+// Every figure is the one coverage.AnalyzeRanges reports for the devices
+// in service at ranges √(b_i² + t): the same Layout methods it chains
+// (FullCoverRanges, UncoveredAreaGrown, GapsRanges, PersistenceRanges and
+// its Betti numbers) on the same layout, at the growth t instead of 0.
+
+package review
+
+import (
+	"math"
+	"slices"
+	"strings"
+
+	"github.com/paulmach/orb"
+	"github.com/sitecover/sitecover/coverage"
+)
+
+// rangedGeo is what a layout with own ranges adds to geometry.
+type rangedGeo struct {
+	full  coverage.RangesFullCover
+	curve *coverage.Curve
+	pers  *coverage.PowerPersistence
+	// w2max and w2min are the largest and smallest b_i² in service.
+	w2max, w2min float64
+	services     []coverage.RangesServiceArea // on first request
+}
+
+// buildRanged lays out the devices in service with their own ranges.
+func buildRanged(g *geometry, pts []orb.Point, devs []device, cfg *Config) error {
+	ranges := make([]float64, len(g.active))
+	rg := &rangedGeo{w2min: math.Inf(1)}
+	for k, i := range g.active {
+		b := devs[i].R
+		ranges[k] = b
+		rg.w2max, rg.w2min = max(rg.w2max, b*b), min(rg.w2min, b*b)
+	}
+	l, err := coverage.NewLayoutRanges(pts, ranges, cfg.Region)
+	if err != nil {
+		return refuse(422, "the devices in service cannot be laid out: %v", err)
+	}
+	g.layout, g.ranged = l, rg
+	rg.full = l.FullCoverRanges()
+	rg.curve = l.CurveRanges()
+	rg.pers = l.PersistenceRanges()
+	if cfg.grid == nil {
+		cfg.grid = curveGrid(curveTop(math.Sqrt(max(0, rg.w2max+rg.full.Power)), cfg.Range, cfg.maxRange))
+	}
+	g.share = make([]float64, len(cfg.grid))
+	for k, r := range cfg.grid {
+		g.share[k] = rg.curve.CoveredFraction(r*r - rg.w2max)
+	}
+	return nil
+}
+
+// growthFor is the growth t at which the largest range in service is r
+// (the slider's value); it refuses an r that shrinks a device to nothing.
+func (rg *rangedGeo) growthFor(r float64) (float64, error) {
+	t := r*r - rg.w2max
+	if !(rg.w2min+t > 0) {
+		return 0, refuse(422, "largest range %.2f m would shrink the device of the smallest range to nothing: the least is %.2f m", r, rg.leastRange())
+	}
+	return t, nil
+}
+
+// leastRange is the least slider value: every device keeps a range.
+func (rg *rangedGeo) leastRange() float64 { return math.Sqrt(rg.w2max - rg.w2min) }
+
+// slider is the slider's value (the largest range in service) at growth t.
+func (rg *rangedGeo) slider(t float64) float64 { return math.Sqrt(max(0, rg.w2max+t)) }
+
+// grown is a device's range at growth t.
+func grown(b, t float64) float64 { return math.Sqrt(max(0, b*b+t)) }
+
+// baked returns devs with the grown ranges at growth t fixed as their own.
+func baked(devs []device, t float64) []device {
+	out := slices.Clone(devs)
+	if t != 0 {
+		for i := range out {
+			out[i].R = grown(out[i].R, t)
+		}
+	}
+	return out
+}
+
+// rangeEdit applies a "device-range" or "type-range" edit: the new device
+// list, at growth 0.
+func (s *session) rangeEdit(e *Edit, cfg *Config) ([]device, error) {
+	if !s.ranged {
+		return nil, refuse(409, "this plan has one common range: use the range slider (start review with a range column or --type-range for ranges per device)")
+	}
+	if e.Range == nil {
+		return nil, refuse(400, "%s edit needs \"range\" (metres)", e.Op)
+	}
+	v := *e.Range
+	if err := cfg.checkRange(v); err != nil {
+		return nil, err
+	}
+	devs := baked(s.devs, s.t)
+	if e.Op == "device-range" {
+		if e.Device == nil {
+			return nil, refuse(400, "device-range edit needs \"device\" (a device index)")
+		}
+		i := *e.Device
+		if i < 0 || i >= len(devs) {
+			return nil, refuse(404, "no device %d (the plan has %d)", i, len(devs))
+		}
+		devs[i].R = v
+		return devs, nil
+	}
+	typ := strings.ToLower(strings.TrimSpace(e.Type))
+	n := 0
+	for i := range devs {
+		if strings.ToLower(strings.TrimSpace(devs[i].Type)) == typ {
+			devs[i].R = v
+			n++
+		}
+	}
+	if n == 0 {
+		return nil, refuse(404, "no device of type %q", e.Type)
+	}
+	return devs, nil
+}
+
+// rangedFigures fills the figures of a plan with own ranges at growth t.
+func (sv *Server) rangedFigures(f *figuresDoc) {
+	s, g := sv.s, sv.s.geo
+	rg := g.ranged
+	t := s.t
+	f.RangeM = rg.slider(t)
+	f.GrowthM2 = &t
+	least := rg.leastRange()
+	f.LeastRangeM = &least
+	f.FullCoverRangeM = rg.slider(rg.full.Power)
+	f.FullCoverPoints = make([][2]float64, len(rg.full.Worst))
+	for i, p := range rg.full.Worst {
+		f.FullCoverPoints[i] = p
+	}
+	f.FullCoverDevices = g.deviceIndex(rg.full.WorstSites)
+	f.Hidden = g.deviceIndex(g.layout.Hidden)
+	f.Pieces, f.OpenHoles = rg.pers.Betti(t)
+	hs := rg.pers.Holes // by decreasing lifetime
+	if len(hs) > maxHoles {
+		hs = hs[:maxHoles]
+	}
+	f.Holes = make([]holeDoc, 0, len(hs))
+	for _, h := range hs {
+		f.Holes = append(f.Holes, holeDoc{
+			BirthM: rg.slider(h.Birth), DeathM: rg.slider(h.Death), Point: round2(h.DeathPoint),
+			Devices: [2]int{int(g.active[h.BirthSites[0]]), int(g.active[h.BirthSites[1]])},
+			Open:    h.Birth <= t && t < h.Death,
+		})
+	}
+}
+
+// rangedGap adds the closing of a gap with own ranges: ClosingRangeM is
+// the slider value (largest range) at which the gap vanishes under
+// uniform power growth; a single device closing it alone, when found.
+func rangedGap(d *gapDoc, gp coverage.Gap, g *geometry) {
+	c := gp.Closing
+	if c == nil {
+		return
+	}
+	d.ClosingRangeM = g.ranged.slider(c.Power)
+	if c.Device >= 0 {
+		dev, r := int(g.active[c.Device]), c.DeviceRange
+		d.AloneDevice, d.AloneRangeM = &dev, &r
+	}
+}
+
+// rangedDevice adds the figures of device i (layout input k) with own
+// ranges: its range, served area and whether it is hidden.
+func (sv *Server) rangedDevice(d *deviceDoc, k int) {
+	s, g := sv.s, sv.s.geo
+	rg := g.ranged
+	cur := grown(s.devs[d.Device].R, s.t)
+	d.RangeM = &cur
+	if rg.services == nil {
+		rg.services = g.layout.ServiceAreasRanges()
+	}
+	if slices.Contains(g.layout.Hidden, k) {
+		d.Hidden = true
+		return
+	}
+	j, hit := slices.BinarySearchFunc(rg.services, k, func(a coverage.RangesServiceArea, k int) int { return a.Site - k })
+	if !hit {
+		d.Shared = true // stands on another device's spot
+		return
+	}
+	sa := rg.services[j]
+	d.ServedM2, d.ServedShare, d.FarthestM = &sa.Area, &sa.Share, &sa.Farthest
+	if s.t == 0 {
+		d.WithinRangeM2 = &sa.Served
+	}
+}
