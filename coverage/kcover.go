@@ -226,6 +226,9 @@ func KCover(l *Layout, r float64, opt KOptions) (*KCoverage, error) {
 	if opt.Gaps {
 		for i := range kc.Levels {
 			kc.Levels[i].Gaps = kc.gaps(l, i, tol)
+			if kc.Levels[i].K > 1 {
+				kgMergeOutlines(kc.Levels[i].Gaps)
+			}
 		}
 	}
 	return kc, nil

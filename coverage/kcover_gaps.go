@@ -39,8 +39,15 @@
 // r); the devices around it are its k nearest, nearest first.
 //
 // Outlines are the parts' loops with arcs replaced by chords (sagitta at
-// most chordTol·r), one polygon per part: they tile the gap but are not
-// dissolved across the pieces' shared edges.
+// most chordTol·r), merged into the gap's own polygons by the exact union
+// of planar.Union (kgMergeOutline): the parts of one gap meet along the
+// pieces' shared edges, whose ends were rounded by different clips, so the
+// union may leave slivers between them; planar.Union drops those a few
+// ulps wide, and a remaining hole thinner than KGapSliverRel (area over
+// squared perimeter) is such a sliver too and is dropped. When the
+// union refuses the parts (a chord touching a ring edge within rounding
+// makes a ring non-simple) the gap keeps one polygon per part, which still
+// tile it.
 
 package coverage
 
@@ -86,8 +93,10 @@ type KGap struct {
 	// Sites are the input indices of the k devices nearest Deepest,
 	// nearest first.
 	Sites []int
-	// Outline is the gap as polygons that tile it (one per part of a
-	// piece; see the file comment), arcs replaced by chords.
+	// Outline is the gap as polygons, arcs replaced by chords: for k ≥ 2
+	// the union of its parts (one polygon per connected part, with its
+	// holes), or the parts themselves when the union refused them (see the
+	// file comment).
 	Outline orb.MultiPolygon
 }
 
@@ -234,6 +243,187 @@ func (kc *KCoverage) gaps(l *Layout, li int, tol float64) []KGap {
 		out[i].ID = i + 1
 	}
 	return out
+}
+
+// kgMergeOutlines merges each gap's part polygons (kgMergeOutline), in
+// parallel over the gaps.
+func kgMergeOutlines(gs []KGap) {
+	planar.ParallelFor(len(gs), 1, func(lo, hi int) {
+		for i := lo; i < hi; i++ {
+			gs[i].Outline, _ = kgMergeOutline(gs[i].Outline)
+		}
+	})
+}
+
+// KGapSliverRel is the largest ratio area / perimeter² of a hole of a
+// merged gap outline that counts as a sliver left between two parts'
+// shared edge (whose ends different clips rounded apart, by about 1e-15
+// relative to the coordinates): such a hole has a width of that order, so
+// the ratio is about 1e-15·|x| / (4·length), while a real hole's is at
+// least its width over four times its length (a disk's is 1/(4π)); a hole
+// 1e-9 times thinner than it is long is dropped.
+const KGapSliverRel = 1e-9
+
+// kgMergeOutline returns the union of the part polygons of one gap
+// (planar.Union), without sliver holes (KGapSliverRel), and the number of
+// parts left out of the union. A part whose outline is not simple (a chord
+// of a thin part crossing a ring edge within the sagitta) is refused by the
+// union; it is then kept as it is beside the union of the others (the
+// parts do not overlap, so the outline still tiles the gap). When the
+// union fails altogether the parts are returned as they are.
+func kgMergeOutline(parts orb.MultiPolygon) (orb.MultiPolygon, int) {
+	if len(parts) < 2 {
+		return parts, 0
+	}
+	m := 0.0
+	for _, pg := range parts {
+		for _, ring := range pg {
+			for _, p := range ring {
+				m = max(m, math.Abs(p[0]), math.Abs(p[1]))
+			}
+		}
+	}
+	_, e := math.Frexp(m)
+	snap := math.Ldexp(1, e-KGapSnapBits)
+	in := make(orb.MultiPolygon, 0, len(parts))
+	src := make([]int, 0, len(parts)) // part index of each polygon of in
+	for i, pg := range parts {
+		var q orb.Polygon
+		for _, ring := range pg {
+			if rr := kgCleanRing(ring, snap); len(rr) >= 4 {
+				q = append(q, rr)
+			}
+		}
+		if len(q) > 0 {
+			in = append(in, q)
+			src = append(src, i)
+		}
+	}
+	merged, err := planar.Union(in)
+	var refused orb.MultiPolygon
+	if err != nil {
+		// Find the parts the union refuses (one union each), merge the
+		// others.
+		good := in[:0:0]
+		for j, q := range in {
+			if _, err := planar.Union(orb.MultiPolygon{q}); err != nil {
+				refused = append(refused, parts[src[j]])
+			} else {
+				good = append(good, q)
+			}
+		}
+		in = good
+		if merged, err = planar.Union(in); err != nil {
+			return parts, len(parts)
+		}
+	}
+	if !kgSameArea(in, merged) {
+		return parts, len(parts)
+	}
+	for pi, pg := range merged {
+		holes := pg[:1]
+		for _, h := range pg[1:] {
+			per := 0.0
+			for j := 1; j < len(h); j++ {
+				per += math.Hypot(h[j][0]-h[j-1][0], h[j][1]-h[j-1][1])
+			}
+			if math.Abs(planar.RingArea(planar.FlatRing(h))) > KGapSliverRel*per*per {
+				holes = append(holes, h)
+			}
+		}
+		merged[pi] = holes
+	}
+	return append(merged, refused...), len(refused)
+}
+
+// KGapMergeAreaRel is the largest relative difference between the area of
+// a merged gap outline and the sum of its parts' areas (the parts do not
+// overlap, so the two agree up to the rounded crossing points and the
+// slivers dropped, each of area a few ulps times a perimeter: far below
+// this) beyond which the union is not trusted and the parts are kept.
+const KGapMergeAreaRel = 1e-9
+
+// kgSameArea reports whether merged has finite coordinates and the area of
+// the parts (KGapMergeAreaRel). The check guards against a union that
+// returned non-finite vertices (seen with ring vertices an ulp apart:
+// TestKGapMergeFallback).
+func kgSameArea(parts, merged orb.MultiPolygon) bool {
+	area := func(mp orb.MultiPolygon) (float64, bool) {
+		a := 0.0
+		for _, pg := range mp {
+			for _, ring := range pg {
+				for _, p := range ring {
+					if math.IsNaN(p[0]) || math.IsNaN(p[1]) || math.IsInf(p[0], 0) || math.IsInf(p[1], 0) {
+						return 0, false
+					}
+				}
+				a += planar.RingArea(planar.FlatRing(ring))
+			}
+		}
+		return a, true
+	}
+	a, ok1 := area(parts)
+	b, ok2 := area(merged)
+	return ok1 && ok2 && (len(merged) > 0 || len(parts) == 0) && math.Abs(a-b) <= KGapMergeAreaRel*math.Abs(a)
+}
+
+// KGapSnapBits sets the grid the part vertices are snapped to before the
+// union: a power of two 2^−KGapSnapBits times the largest coordinate
+// magnitude (rounded up to a power of two), so snapping is exact in
+// float64 and moves a vertex by at most 2^−41 ≈ 5e-13 of that magnitude,
+// far below the chord tolerance. The ends of a shared edge, rounded apart
+// by different clips by a few ulps (2^−52 relative), then mostly fall on
+// one grid point and the parts meet exactly.
+const KGapSnapBits = 40
+
+// kgCleanRing returns the closed ring with its vertices snapped to
+// multiples of snap (KGapSnapBits), without repeated consecutive vertices
+// (a zero-turn arc leaves a chain's end and the next chain's start at one
+// point) and without spikes (kgSpike), as planar.Union requires; nil when
+// fewer than three vertices remain.
+func kgCleanRing(ring orb.Ring, snap float64) orb.Ring {
+	out := make(orb.Ring, 0, len(ring))
+	for _, p := range ring {
+		p = orb.Point{math.Round(p[0]/snap) * snap, math.Round(p[1]/snap) * snap}
+		for len(out) >= 2 && kgSpike(out[len(out)-2], out[len(out)-1], p) {
+			out = out[:len(out)-1]
+		}
+		if len(out) == 0 || p != out[len(out)-1] {
+			out = append(out, p)
+		}
+	}
+	for changed := true; changed && len(out) >= 3; {
+		changed = false
+		n := len(out)
+		switch {
+		case out[0] == out[n-1] || kgSpike(out[n-2], out[n-1], out[0]):
+			out, changed = out[:n-1], true
+		case kgSpike(out[n-1], out[0], out[1]):
+			out, changed = out[1:], true
+		}
+	}
+	if len(out) < 3 {
+		return nil
+	}
+	return append(out, out[0])
+}
+
+// KGapSpikeSin is the largest sine of the angle between the edges a→b and
+// b→c, turning back at b, for which b is the tip of a spike: a
+// back-and-forth bridge of a clipped non-convex piece (planar/halfplane.go)
+// runs out and back along one line, up to the rounding of its crossing
+// points (about 1e-15 relative); a real corner of a part is far wider.
+const KGapSpikeSin = 1e-9
+
+// kgSpike reports whether b is the tip of a spike a → b → c (see
+// KGapSpikeSin).
+func kgSpike(a, b, c orb.Point) bool {
+	ux, uy := b[0]-a[0], b[1]-a[1]
+	vx, vy := c[0]-b[0], c[1]-b[1]
+	if ux*vx+uy*vy >= 0 {
+		return false
+	}
+	return math.Abs(ux*vy-uy*vx) <= KGapSpikeSin*math.Hypot(ux, uy)*math.Hypot(vx, vy)
 }
 
 // kGapsFromLayout returns the layout's own gaps (k = 1) as k-gaps.
