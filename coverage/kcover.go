@@ -151,6 +151,8 @@ type KCoverage struct {
 	CurveRanges []float64
 	// Levels holds the levels asked for, by increasing k.
 	Levels []KLevel
+
+	hasGaps bool // the levels' gaps were computed (KOptions.Gaps)
 }
 
 // ErrKTooLarge is returned (wrapped) when k exceeds the number of distinct
@@ -224,6 +226,7 @@ func KCover(l *Layout, r float64, opt KOptions) (*KCoverage, error) {
 		}
 	}
 	if opt.Gaps {
+		kc.hasGaps = true
 		for i := range kc.Levels {
 			kc.Levels[i].Gaps = kc.gaps(l, i, tol)
 			if kc.Levels[i].K > 1 {

@@ -44,10 +44,13 @@
 // pieces' shared edges, whose ends were rounded by different clips, so the
 // union may leave slivers between them; planar.Union drops those a few
 // ulps wide, and a remaining hole thinner than KGapSliverRel (area over
-// squared perimeter) is such a sliver too and is dropped. When the
-// union refuses the parts (a chord touching a ring edge within rounding
-// makes a ring non-simple) the gap keeps one polygon per part, which still
-// tile it.
+// squared perimeter) is such a sliver too and is dropped. Before the
+// union the vertices are snapped to a fine grid (KGapSnapBits) and spikes
+// removed (kgCleanRing); a part whose outline still crosses itself (a
+// chord of a thin part crossing a ring edge within the sagitta) is split
+// at its self-meetings (kgSplitPolygon). A part the union still refuses is
+// kept as it is beside the union of the others, and when the union fails
+// altogether the gap keeps one polygon per part (they still tile it).
 
 package coverage
 
@@ -266,11 +269,10 @@ const KGapSliverRel = 1e-9
 
 // kgMergeOutline returns the union of the part polygons of one gap
 // (planar.Union), without sliver holes (KGapSliverRel), and the number of
-// parts left out of the union. A part whose outline is not simple (a chord
-// of a thin part crossing a ring edge within the sagitta) is refused by the
-// union; it is then kept as it is beside the union of the others (the
-// parts do not overlap, so the outline still tiles the gap). When the
-// union fails altogether the parts are returned as they are.
+// parts left out of the union (see kgUnionSimple): those are kept as they
+// are beside the union of the others (the parts do not overlap, so the
+// outline still tiles the gap). When the union fails altogether the parts
+// are returned as they are.
 func kgMergeOutline(parts orb.MultiPolygon) (orb.MultiPolygon, int) {
 	if len(parts) < 2 {
 		return parts, 0
@@ -299,26 +301,13 @@ func kgMergeOutline(parts orb.MultiPolygon) (orb.MultiPolygon, int) {
 			src = append(src, i)
 		}
 	}
-	merged, err := planar.Union(in)
-	var refused orb.MultiPolygon
-	if err != nil {
-		// Find the parts the union refuses (one union each), merge the
-		// others.
-		good := in[:0:0]
-		for j, q := range in {
-			if _, err := planar.Union(orb.MultiPolygon{q}); err != nil {
-				refused = append(refused, parts[src[j]])
-			} else {
-				good = append(good, q)
-			}
-		}
-		in = good
-		if merged, err = planar.Union(in); err != nil {
-			return parts, len(parts)
-		}
-	}
-	if !kgSameArea(in, merged) {
+	merged, in, bad, err := kgUnionSimple(in)
+	if err != nil || !kgSameArea(in, merged) {
 		return parts, len(parts)
+	}
+	var refused orb.MultiPolygon
+	for _, j := range bad {
+		refused = append(refused, parts[src[j]])
 	}
 	for pi, pg := range merged {
 		holes := pg[:1]
@@ -334,6 +323,112 @@ func kgMergeOutline(parts orb.MultiPolygon) (orb.MultiPolygon, int) {
 		merged[pi] = holes
 	}
 	return append(merged, refused...), len(refused)
+}
+
+// kgUnionSimple returns the union of the polygons of mp (planar.Union),
+// the polygons it took and the indices of those it left out: when the
+// union refuses mp, each polygon is tried alone (one union each) and those
+// refused (non-simple rings) are left out.
+func kgUnionSimple(mp orb.MultiPolygon) (orb.MultiPolygon, orb.MultiPolygon, []int, error) {
+	u, err := planar.Union(mp)
+	if err == nil {
+		return u, mp, nil, nil
+	}
+	good := mp[:0:0]
+	var bad []int
+	for j, pg := range mp {
+		if _, e := planar.Union(orb.MultiPolygon{pg}); e == nil {
+			good = append(good, pg)
+			continue
+		}
+		if fixed := kgSplitPolygon(pg); fixed != nil {
+			if _, e := planar.Union(fixed); e == nil {
+				good = append(good, fixed...)
+				continue
+			}
+		}
+		bad = append(bad, j)
+	}
+	u, err = planar.Union(good)
+	return u, good, bad, err
+}
+
+// kgSplitPolygon repairs a part polygon whose exterior crosses or touches
+// itself (a chord of a thin part crossing a ring edge within the sagitta):
+// the exterior is split at its self-meetings into simple loops
+// (kgSplitRing); the counter-clockwise loops are the part, a clockwise one
+// is a twisted lobe (a sliver between the chord and the edge, outside the
+// part) and is dropped; the holes go with the loop holding their first
+// vertex. Nil when no loop remains.
+func kgSplitPolygon(pg orb.Polygon) orb.MultiPolygon {
+	var out orb.MultiPolygon
+	for _, lp := range kgSplitRing(pg[0], 0) {
+		if planar.RingArea(planar.FlatRing(lp)) > 0 {
+			out = append(out, orb.Polygon{lp})
+		}
+	}
+	for _, h := range pg[1:] {
+		for i := range out {
+			if planar.PointInRing(planar.FlatRing(out[i][0]), h[0][0], h[0][1]) > 0 {
+				out[i] = append(out[i], h)
+				break
+			}
+		}
+	}
+	return out
+}
+
+// kgSplitMaxDepth caps the recursion of kgSplitRing (each level removes
+// one self-meeting; a part has a handful at most).
+const kgSplitMaxDepth = 32
+
+// kgSplitRing splits the closed ring at its first meeting of two
+// non-adjacent edges (planar.SegmentsMeet, exact) into two closed loops
+// through the meeting point, recursively, and returns the simple loops.
+func kgSplitRing(ring orb.Ring, depth int) []orb.Ring {
+	n := len(ring) - 1 // ring[n] == ring[0]
+	if n < 3 || depth > kgSplitMaxDepth {
+		return []orb.Ring{ring}
+	}
+	for i := 0; i < n; i++ {
+		a, b := ring[i], ring[i+1]
+		for j := i + 2; j < n; j++ {
+			if i == 0 && j == n-1 {
+				continue // adjacent through the closing vertex
+			}
+			c, d := ring[j], ring[j+1]
+			if !planar.SegmentsMeet(a[0], a[1], b[0], b[1], c[0], c[1], d[0], d[1]) {
+				continue
+			}
+			x := kgMeetPoint(a, b, c, d)
+			la := append(append(append(orb.Ring{}, ring[:i+1]...), x), ring[j+1:]...)
+			lb := append(append(orb.Ring{x}, ring[i+1:j+1]...), x)
+			var out []orb.Ring
+			for _, lp := range []orb.Ring{planar.DropRepeats(la), planar.DropRepeats(lb)} {
+				if len(lp) >= 3 {
+					out = append(out, kgSplitRing(append(lp, lp[0]), depth+1)...)
+				}
+			}
+			return out
+		}
+	}
+	return []orb.Ring{ring}
+}
+
+// kgMeetPoint returns the meeting point of the segments ab and cd: their
+// crossing (rounded), or the endpoint lying on the other segment when
+// they touch or overlap.
+func kgMeetPoint(a, b, c, d orb.Point) orb.Point {
+	for _, p := range [][3]orb.Point{{c, a, b}, {d, a, b}, {a, c, d}, {b, c, d}} {
+		if planar.Orient2D(p[1][0], p[1][1], p[2][0], p[2][1], p[0][0], p[0][1]) == 0 &&
+			planar.OnSegment(p[1][0], p[1][1], p[2][0], p[2][1], p[0][0], p[0][1]) {
+			return p[0]
+		}
+	}
+	ux, uy := b[0]-a[0], b[1]-a[1]
+	vx, vy := d[0]-c[0], d[1]-c[1]
+	t := ((c[0]-a[0])*vy - (c[1]-a[1])*vx) / (ux*vy - uy*vx)
+	return orb.Point{a[0] + t*ux, a[1] + t*uy}
 }
 
 // KGapMergeAreaRel is the largest relative difference between the area of

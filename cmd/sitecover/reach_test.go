@@ -6,11 +6,16 @@ package main
 
 import (
 	"encoding/json"
+	"math"
 	"os"
 	"path/filepath"
+	"strconv"
 	"strings"
 	"testing"
 
+	"github.com/paulmach/orb"
+	"github.com/paulmach/orb/geojson"
+	"github.com/sitecover/sitecover/planar"
 	"github.com/sitecover/sitecover/report"
 )
 
@@ -28,6 +33,7 @@ func TestReachRun(t *testing.T) {
 			t.Errorf("missing %s: %v", f, err)
 		}
 	}
+	checkReachBands(t, filepath.Join(out, report.LayerFile(report.FileReach, true)), 3, 40*40)
 	b, err := os.ReadFile(filepath.Join(out, report.FileSummary))
 	if err != nil {
 		t.Fatal(err)
@@ -83,5 +89,53 @@ func TestReachBadUsage(t *testing.T) {
 		t.Run(c.name, func(t *testing.T) {
 			checkFailure(t, runCLI(t, c.args...), c.code, c.want)
 		})
+	}
+}
+
+// reachBandAreaRel is the tolerance of the band areas' sum against the site
+// area: coverage.KBandAreaRel for the outlines (overlay rounding), and the
+// exact areas are sums of closed forms (relative rounding far below it).
+const reachBandAreaRel = 1e-9
+
+// checkReachBands checks the reach layer (planar coordinates): one feature
+// per band 0 … K−1 and "K+", in order, whose outline areas and exact areas
+// each sum to the site area.
+func checkReachBands(t *testing.T, path string, K int, site float64) {
+	t.Helper()
+	b, err := os.ReadFile(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	fc, err := geojson.UnmarshalFeatureCollection(b)
+	if err != nil {
+		t.Fatal(err)
+	}
+	poly, exact := 0.0, 0.0
+	for i, f := range fc.Features {
+		want := strconv.Itoa(i)
+		if i == K {
+			want += "+"
+		}
+		if f.Properties["band"] != want || f.Properties["devices_in_reach"] != float64(i) {
+			t.Errorf("feature %d: band %v, devices_in_reach %v", i, f.Properties["band"], f.Properties["devices_in_reach"])
+		}
+		exact += f.Properties["area_m2"].(float64)
+		mp, ok := f.Geometry.(orb.MultiPolygon)
+		if !ok {
+			t.Fatalf("feature %d: geometry %T", i, f.Geometry)
+		}
+		for _, pg := range mp {
+			for _, r := range pg {
+				poly += planar.RingArea(planar.FlatRing(r))
+			}
+		}
+	}
+	if len(fc.Features) != K+1 {
+		t.Errorf("%d bands, want %d", len(fc.Features), K+1)
+	}
+	// The bands tile the site: outline areas (within the overlay's
+	// rounding) and exact areas each sum to the site area.
+	if math.Abs(poly-site) > reachBandAreaRel*site || math.Abs(exact-site) > reachBandAreaRel*site {
+		t.Errorf("band areas: outlines %.12g, exact %.12g, site %v", poly, exact, site)
 	}
 }
