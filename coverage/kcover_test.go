@@ -463,3 +463,34 @@ func kCheckOutlines(t *testing.T, l *Layout, pts []orb.Point, r float64, lv KLev
 		}
 	}
 }
+
+func TestKUniqueSets(t *testing.T) {
+	// Reference: a plain sort of the tuples and removal of repeats.
+	rng := rand.New(rand.NewPCG(3, 4))
+	for _, c := range []struct {
+		name  string
+		k, nv int
+	}{
+		{"packed-k2", 2, 50}, {"packed-k4", 4, 30}, {"tuples-k5", 5, 20},
+	} {
+		t.Run(c.name, func(t *testing.T) {
+			var sets []int32
+			var tups [][]int32
+			for i := 0; i < 2000; i++ {
+				tup := rng.Perm(c.nv)[:c.k]
+				t32 := make([]int32, c.k)
+				for j, v := range tup {
+					t32[j] = int32(v)
+				}
+				slices.Sort(t32)
+				sets = append(sets, t32...)
+				tups = append(tups, t32)
+			}
+			slices.SortFunc(tups, slices.Compare[[]int32])
+			tups = slices.CompactFunc(tups, slices.Equal[[]int32])
+			if got, want := kUniqueSets(sets, c.k, c.nv), slices.Concat(tups...); !slices.Equal(got, want) {
+				t.Errorf("%d values, want %d", len(got), len(want))
+			}
+		})
+	}
+}
