@@ -99,6 +99,8 @@ type KOptions struct {
 	// ChordTolerance is the largest distance between a gap outline's arc
 	// and its chords (metres); 0 means DefaultChordTolerance.
 	ChordTolerance float64
+
+	keepPieces bool // keep the pieces (for ReachAdditions) without curve or gaps
 }
 
 // KLevel is the k-coverage of a layout for one k.
@@ -187,7 +189,7 @@ func KCover(l *Layout, r float64, opt KOptions) (*KCoverage, error) {
 	if d := len(l.Sites) - nv; d > 0 {
 		kc.Warnings = append(kc.Warnings, fmt.Sprintf("%d devices stand at exactly the same spot as another; each spot counts once", d))
 	}
-	keep := opt.CurveSamples > 0 || opt.Gaps
+	keep := opt.CurveSamples > 0 || opt.Gaps || opt.keepPieces
 	if want[1] {
 		kc.Levels = append(kc.Levels, kLevelOne(l, r))
 	}

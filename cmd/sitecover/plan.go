@@ -81,7 +81,7 @@ func newSuggestCmd(e *env) *cobra.Command {
                           covered at --range, or the fewest that cover
                           everything; says when full cover cannot be reached
                           and what stays uncovered.
-
+` + suggestReachHelp + `
 The report folder (default sitecover-report/suggest) gets report.txt,
 summary.json, the proposed devices or the candidate spots, the gaps before and
 after as GeoJSON, and a map.
@@ -97,6 +97,9 @@ after as GeoJSON, and a map.
 				return err
 			}
 			fl := cmd.Flags()
+			if fl.Changed("reach") {
+				return runSuggestReach(e, cmd, f)
+			}
 			ps := planSpec{}
 			hasAdd, hasRange := fl.Changed("add"), fl.Changed("range")
 			if hasAdd && (pf.add <= 0 || pf.add > maxAdd) {
@@ -132,6 +135,7 @@ after as GeoJSON, and a map.
 	cmd.Flags().Var(newOnceString(&pf.candidates, ""), "candidates", "candidate mounting spots: GeoJSON Point/MultiPoint features or CSV like --sites")
 	f.addRangeFlag(cmd.Flags(), "", "planned range of every device, e.g. 150m, 0.2km, 500ft, 0.1mi")
 	f.addPlanOutputFlags(cmd.Flags(), "suggest")
+	addSuggestReachFlag(cmd.Flags(), f)
 	return cmd
 }
 
