@@ -14,7 +14,11 @@
 // nearest distance; if that is still the largest, the spot holds a device
 // already and the next device goes to the farthest vertex of the other
 // pieces (reachNext) — one more device at the same spot would count once
-// and change nothing.
+// and change nothing. Our refinement of the placement (not from the
+// papers above): the new device goes to that spot or to one of eight
+// points at 0.9·r from it (still reaching it), whichever leaves the
+// largest area reached by K devices (reachPlace) — a spot at the corner
+// of the area would otherwise get a device that reaches little else.
 // Additions repeat until the K-cover range is at most r (1e-12 relative,
 // as the full-cover test of plan_suggest.go). While the layout has fewer
 // than K distinct devices, the spot needing the most range for the largest
@@ -24,8 +28,8 @@
 //
 // Every figure is exact: after each addition the layout is rebuilt
 // (NewLayout) and KCover gives the K-cover range and the area reached by K
-// devices (closed forms). The cost is one layout and one level-K analysis
-// per addition and per pruning test: O(n·K²) each, meant for planning
+// devices (closed forms). The cost is nine layouts and level-K analyses
+// per addition and one per pruning test: O(n·K²) each, meant for planning
 // layouts, not millions of devices.
 
 package coverage
@@ -137,6 +141,49 @@ func reachNext(l *Layout, lv *KLevel) (orb.Point, bool) {
 	return best, ok
 }
 
+// reachPull is the distance, relative to r, from the spot needing the
+// most range at which the other candidate positions of a new device lie
+// (reachPlace): within r, so the spot is reached by the new device, and
+// far enough to reach into the area around it rather than past its edge.
+const reachPull = 0.9
+
+// reachDirections is the number of candidate directions around the spot.
+const reachDirections = 8
+
+// reachPlace chooses the position of the next device for the spot p: p
+// itself or one of reachDirections points at reachPull·r from p (inside
+// the area, not on a device), whichever gives the largest area reached by
+// K devices (exact; p on a tie or while fewer than K devices stand), and
+// returns it with the layout's state after it.
+func reachPlace(sites []orb.Point, l *Layout, K int, r float64, p orb.Point) (orb.Point, reachState, error) {
+	try := append(append([]orb.Point(nil), sites...), p)
+	best, err := reachMeasure(try, l, K, r)
+	if err != nil || math.IsInf(best.rng, 1) {
+		return p, best, err
+	}
+	at := p
+	taken := make(map[orb.Point]bool, len(sites))
+	for _, q := range sites {
+		taken[q] = true
+	}
+	for i := 0; i < reachDirections; i++ {
+		a := 2 * math.Pi * float64(i) / reachDirections
+		c := orb.Point{p[0] + reachPull*r*math.Cos(a), p[1] + reachPull*r*math.Sin(a)}
+		if taken[c] || !l.Area.Contains(c[0], c[1]) {
+			continue
+		}
+		try[len(try)-1] = c
+		st, err := reachMeasure(try, l, K, r)
+		if err != nil {
+			return p, best, err
+		}
+		if st.area > best.area {
+			best, at = st, c
+		}
+	}
+	return at, best, nil
+}
+
 // ReachAdditions adds devices to the layout until every spot of the site
 // area is reached by at least K devices at the planned range r (see the
 // file comment for the method), with the exact figures after each
@@ -177,11 +224,11 @@ func ReachAdditions(l *Layout, K int, r float64, opt SuggestOptions) (*ReachSugg
 		if !st.ok {
 			return nil, fmt.Errorf("%s: every spot needing more range holds a device already", where)
 		}
-		p := st.next
-		sites = append(sites, p)
-		if st, err = reachMeasure(sites, l, K, r); err != nil {
+		var p orb.Point
+		if p, st, err = reachPlace(sites, l, K, r, st.next); err != nil {
 			return nil, fmt.Errorf("%s: %w", where, err)
 		}
+		sites = append(sites, p)
 		s.Added = append(s.Added, p)
 		s.Steps = append(s.Steps, ReachStep{Added: p, CoverRange: st.rng, Share: st.share, CoveredArea: st.area})
 	}

@@ -71,7 +71,7 @@ type ReachAddedDoc struct {
 }
 
 // reachMethod names the placement method in the outputs.
-const reachMethod = "farthest-point insertion on the k-th nearest distance (Gonzalez 1985), then redundant additions dropped"
+const reachMethod = "farthest-point insertion on the k-th nearest distance (Gonzalez 1985), each device at the spot needing the most range or 0.9 range from it (the larger area reached by k), then redundant additions dropped"
 
 // ReachPlanFiles lists the files WriteReachPlan writes (no map or
 // GeoPackage yet).

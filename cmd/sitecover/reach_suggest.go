@@ -23,8 +23,10 @@ import (
 const suggestReachHelp = `  --reach K --range R     add devices until every spot is reached by at least K
                           devices at R (redundancy, positioning): each new
                           device at the spot needing the most range for K
-                          (farthest-point insertion, Gonzalez 1985), redundant
-                          ones dropped; exact figures after each addition.
+                          (farthest-point insertion, Gonzalez 1985) or 0.9 R
+                          from it, whichever reaches more area K times;
+                          redundant ones dropped; exact figures after each
+                          addition.
 `
 
 // addSuggestReachFlag registers suggest's --reach.
