@@ -74,44 +74,36 @@ func kBandSamples(t *testing.T, l *Layout, r float64, bands []KBand) {
 	pts := kDistinct(l)
 	K := len(bands) - 1
 	margin := 2 * DefaultChordTolerance * r
-	ix := l.Area.Index()
-	b := l.Area.Bound()
-	const h = 2.3
 	bad := 0
-	for x := b.Min[0] + h/3; x <= b.Max[0]; x += h {
-		for y := b.Min[1] + h/5; y <= b.Max[1]; y += h {
-			if !ix.Contains(x, y) {
-				continue
+	kForSamples(l, 2.3, func(x, y float64) {
+		n, clear := 0, true
+		for _, p := range pts {
+			d := math.Hypot(p[0]-x, p[1]-y)
+			if math.Abs(d-r) < margin {
+				clear = false
 			}
-			n, clear := 0, true
-			for _, p := range pts {
-				d := math.Hypot(p[0]-x, p[1]-y)
-				if math.Abs(d-r) < margin {
-					clear = false
-				}
-				if d <= r {
-					n++
-				}
-			}
-			if !clear {
-				continue
-			}
-			want := min(n, K)
-			in, got := 0, -1
-			for j, bd := range bands {
-				if gapsOutlineContains(bd.Outline, orb.Point{x, y}) {
-					in++
-					got = j
-				}
-			}
-			if in != 1 || got != want {
-				bad++
-				if bad <= 3 {
-					t.Errorf("(%v, %v): %d devices in reach, in %d bands (last %d)", x, y, n, in, got)
-				}
+			if d <= r {
+				n++
 			}
 		}
-	}
+		if !clear {
+			return
+		}
+		want := min(n, K)
+		in, got := 0, -1
+		for j, bd := range bands {
+			if gapsOutlineContains(bd.Outline, orb.Point{x, y}) {
+				in++
+				got = j
+			}
+		}
+		if in != 1 || got != want {
+			bad++
+			if bad <= 3 {
+				t.Errorf("(%v, %v): %d devices in reach, in %d bands (last %d)", x, y, n, in, got)
+			}
+		}
+	})
 }
 
 func TestKCoverBandsNeedLevels(t *testing.T) {

@@ -130,14 +130,8 @@ func kMergeWrite(t *testing.T, path string, gaps []kMergeGap) {
 
 func kMergeLoad(t *testing.T, path string) []kMergeGap {
 	t.Helper()
-	b, err := os.ReadFile(path)
-	if err != nil {
-		t.Fatal(err)
-	}
 	var d kMergeDoc
-	if err := json.Unmarshal(b, &d); err != nil {
-		t.Fatal(err)
-	}
+	kLoadJSON(t, path, &d)
 	if len(d.Gaps) == 0 {
 		t.Fatalf("%s: no gaps", path)
 	}

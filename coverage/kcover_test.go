@@ -435,30 +435,36 @@ func TestKCoverGaps(t *testing.T) {
 func kCheckOutlines(t *testing.T, l *Layout, pts []orb.Point, r float64, lv KLevel) {
 	t.Helper()
 	margin := 2 * DefaultChordTolerance * r
+	bad := 0
+	kForSamples(l, 2.0, func(x, y float64) {
+		d := kBrute(pts, x, y, lv.K)
+		if math.Abs(d-r) < margin {
+			return
+		}
+		in := 0
+		for _, g := range lv.Gaps {
+			if gapsOutlineContains(g.Outline, orb.Point{x, y}) {
+				in++
+			}
+		}
+		if (d > r) != (in == 1) || in > 1 {
+			bad++
+			if bad <= 3 {
+				t.Errorf("r=%v k=%d: (%v, %v) at k-th distance %.6g lies in %d gap outlines", r, lv.K, x, y, d, in)
+			}
+		}
+	})
+}
+
+// kForSamples calls fn at the points of a grid of spacing h (offset by
+// h/3, h/5 from the bounding box's corner) that lie in the area.
+func kForSamples(l *Layout, h float64, fn func(x, y float64)) {
 	ix := l.Area.Index()
 	b := l.Area.Bound()
-	const h = 2.0
-	bad := 0
 	for x := b.Min[0] + h/3; x <= b.Max[0]; x += h {
 		for y := b.Min[1] + h/5; y <= b.Max[1]; y += h {
-			if !ix.Contains(x, y) {
-				continue
-			}
-			d := kBrute(pts, x, y, lv.K)
-			if math.Abs(d-r) < margin {
-				continue
-			}
-			in := 0
-			for _, g := range lv.Gaps {
-				if gapsOutlineContains(g.Outline, orb.Point{x, y}) {
-					in++
-				}
-			}
-			if (d > r) != (in == 1) || in > 1 {
-				bad++
-				if bad <= 3 {
-					t.Errorf("r=%v k=%d: (%v, %v) at k-th distance %.6g lies in %d gap outlines", r, lv.K, x, y, d, in)
-				}
+			if ix.Contains(x, y) {
+				fn(x, y)
 			}
 		}
 	}
