@@ -396,7 +396,7 @@ type kScratch struct {
 	nb     []int32
 	cand   []int32
 	cell   planar.ClipRings
-	a, b   planar.ClipRings
+	a, b   *planar.ClipRings // clip scratch, swapped by kCut
 	hit    []bool
 	split  kSplitScratch
 	holdFn func(int32, float64, float64) bool
