@@ -40,7 +40,8 @@
 //
 // Outlines are the parts' loops with arcs replaced by chords (sagitta at
 // most chordTol·r), merged into the gap's own polygons by the exact union
-// of planar.Union (kgMergeOutline): the parts of one gap meet along the
+// of planar.Union (one union for all the gaps of a level, kgMergeOutlines;
+// a gap on its own, kgMergeOutline): the parts of one gap meet along the
 // pieces' shared edges, whose ends were rounded by different clips, so the
 // union may leave slivers between them; planar.Union drops those a few
 // ulps wide, and a remaining hole thinner than KGapSliverRel (area over
@@ -248,14 +249,161 @@ func (kc *KCoverage) gaps(l *Layout, li int, tol float64) []KGap {
 	return out
 }
 
-// kgMergeOutlines merges each gap's part polygons (kgMergeOutline), in
-// parallel over the gaps.
+// kgMergeOutlines merges each gap's part polygons. The parts of every gap
+// with several go through one union (the gaps are disjoint, so its
+// polygons are the gaps' own, each found by a vertex it shares with the
+// parts of its gap): one overlay instead of one per gap, whose fixed cost
+// dominates for thousands of small gaps. A gap whose polygons do not have
+// the area of its parts (or every gap, when the union fails or a polygon
+// shares no vertex with any part) is merged on its own (kgMergeOutline),
+// in parallel over the gaps.
 func kgMergeOutlines(gs []KGap) {
-	planar.ParallelFor(len(gs), 1, func(lo, hi int) {
-		for i := lo; i < hi; i++ {
-			gs[i].Outline, _ = kgMergeOutline(gs[i].Outline)
+	var multi []int
+	for i := range gs {
+		if len(gs[i].Outline) >= 2 {
+			multi = append(multi, i)
+		}
+	}
+	if len(multi) == 0 {
+		return
+	}
+	m := 0.0
+	for _, gi := range multi {
+		m = max(m, kgMaxAbs(gs[gi].Outline))
+	}
+	snap := kgSnapStep(m)
+	var in orb.MultiPolygon
+	var gapOf, partOf []int32
+	for _, gi := range multi {
+		for pi, pg := range gs[gi].Outline {
+			if q := kgCleanPolygon(pg, snap); q != nil {
+				in = append(in, q)
+				gapOf = append(gapOf, int32(gi))
+				partOf = append(partOf, int32(pi))
+			}
+		}
+	}
+	alone := make([]bool, len(gs)) // merged on its own
+	merged, _, bad, err := kgUnionSimple(in)
+	if err != nil {
+		merged = nil
+		for _, gi := range multi {
+			alone[gi] = true
+		}
+	}
+	out := make(map[int32]orb.MultiPolygon, len(multi))
+	if err == nil {
+		where := make(map[orb.Point]int32)
+		isBad := make(map[int]bool, len(bad))
+		for _, j := range bad {
+			isBad[j] = true
+		}
+		goodOf := make(map[int32]orb.MultiPolygon, len(multi))
+		for j, q := range in {
+			if isBad[j] {
+				// Refused even after repair: kept as it is.
+				out[gapOf[j]] = append(out[gapOf[j]], gs[gapOf[j]].Outline[partOf[j]])
+				continue
+			}
+			goodOf[gapOf[j]] = append(goodOf[gapOf[j]], q)
+			for _, ring := range q {
+				for _, p := range ring {
+					where[p] = gapOf[j]
+				}
+			}
+		}
+		mg := make(map[int32]orb.MultiPolygon, len(multi))
+		for _, pg := range merged {
+			gi, found := int32(-1), false
+			for _, p := range pg[0] {
+				if gi, found = where[p]; found {
+					break
+				}
+			}
+			if !found {
+				for _, g := range multi {
+					alone[g] = true
+				}
+				break
+			}
+			mg[gi] = append(mg[gi], pg)
+		}
+		for _, gi := range multi {
+			if !alone[gi] && (len(goodOf[int32(gi)]) > 0 && !kgSameArea(goodOf[int32(gi)], mg[int32(gi)])) {
+				alone[gi] = true
+			}
+			if !alone[gi] {
+				out[int32(gi)] = append(kgDropSliverHoles(mg[int32(gi)]), out[int32(gi)]...)
+			}
+		}
+	}
+	planar.ParallelFor(len(multi), 1, func(lo, hi int) {
+		for _, gi := range multi[lo:hi] {
+			if alone[gi] {
+				gs[gi].Outline, _ = kgMergeOutline(gs[gi].Outline)
+			}
 		}
 	})
+	for _, gi := range multi {
+		if !alone[gi] {
+			gs[gi].Outline = out[int32(gi)]
+		}
+	}
+}
+
+// kgMaxAbs returns the largest coordinate magnitude of mp.
+func kgMaxAbs(mp orb.MultiPolygon) float64 {
+	m := 0.0
+	for _, pg := range mp {
+		for _, ring := range pg {
+			for _, p := range ring {
+				m = max(m, math.Abs(p[0]), math.Abs(p[1]))
+			}
+		}
+	}
+	return m
+}
+
+// kgSnapStep returns the snapping grid for coordinates of magnitude up to
+// m (KGapSnapBits).
+func kgSnapStep(m float64) float64 {
+	_, e := math.Frexp(m)
+	return math.Ldexp(1, e-KGapSnapBits)
+}
+
+// kgCleanPolygon returns the polygon with its rings cleaned
+// (kgCleanRing), nil when its exterior vanishes; holes that vanish are
+// dropped.
+func kgCleanPolygon(pg orb.Polygon, snap float64) orb.Polygon {
+	var q orb.Polygon
+	for k, ring := range pg {
+		rr := kgCleanRing(ring, snap)
+		if len(rr) >= 4 {
+			q = append(q, rr)
+		} else if k == 0 {
+			return nil
+		}
+	}
+	return q
+}
+
+// kgDropSliverHoles removes from each polygon the holes that are slivers
+// (KGapSliverRel), in place.
+func kgDropSliverHoles(mp orb.MultiPolygon) orb.MultiPolygon {
+	for pi, pg := range mp {
+		holes := pg[:1]
+		for _, h := range pg[1:] {
+			per := 0.0
+			for j := 1; j < len(h); j++ {
+				per += math.Hypot(h[j][0]-h[j-1][0], h[j][1]-h[j-1][1])
+			}
+			if math.Abs(planar.RingArea(planar.FlatRing(h))) > KGapSliverRel*per*per {
+				holes = append(holes, h)
+			}
+		}
+		mp[pi] = holes
+	}
+	return mp
 }
 
 // KGapSliverRel is the largest ratio area / perimeter² of a hole of a
@@ -277,26 +425,11 @@ func kgMergeOutline(parts orb.MultiPolygon) (orb.MultiPolygon, int) {
 	if len(parts) < 2 {
 		return parts, 0
 	}
-	m := 0.0
-	for _, pg := range parts {
-		for _, ring := range pg {
-			for _, p := range ring {
-				m = max(m, math.Abs(p[0]), math.Abs(p[1]))
-			}
-		}
-	}
-	_, e := math.Frexp(m)
-	snap := math.Ldexp(1, e-KGapSnapBits)
+	snap := kgSnapStep(kgMaxAbs(parts))
 	in := make(orb.MultiPolygon, 0, len(parts))
 	src := make([]int, 0, len(parts)) // part index of each polygon of in
 	for i, pg := range parts {
-		var q orb.Polygon
-		for _, ring := range pg {
-			if rr := kgCleanRing(ring, snap); len(rr) >= 4 {
-				q = append(q, rr)
-			}
-		}
-		if len(q) > 0 {
+		if q := kgCleanPolygon(pg, snap); q != nil {
 			in = append(in, q)
 			src = append(src, i)
 		}
@@ -309,20 +442,7 @@ func kgMergeOutline(parts orb.MultiPolygon) (orb.MultiPolygon, int) {
 	for _, j := range bad {
 		refused = append(refused, parts[src[j]])
 	}
-	for pi, pg := range merged {
-		holes := pg[:1]
-		for _, h := range pg[1:] {
-			per := 0.0
-			for j := 1; j < len(h); j++ {
-				per += math.Hypot(h[j][0]-h[j-1][0], h[j][1]-h[j-1][1])
-			}
-			if math.Abs(planar.RingArea(planar.FlatRing(h))) > KGapSliverRel*per*per {
-				holes = append(holes, h)
-			}
-		}
-		merged[pi] = holes
-	}
-	return append(merged, refused...), len(refused)
+	return append(kgDropSliverHoles(merged), refused...), len(refused)
 }
 
 // kgUnionSimple returns the union of the polygons of mp (planar.Union),

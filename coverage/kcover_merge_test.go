@@ -20,6 +20,7 @@ package coverage
 
 import (
 	"encoding/json"
+	"fmt"
 	"math"
 	"os"
 	"os/exec"
@@ -181,6 +182,26 @@ func kLiveSeed(t *testing.T) int64 {
 // union: the number of polygons and holes, the area, and the side of a grid
 // of sample points.
 func kMergeCheck(t *testing.T, gaps []kMergeGap) {
+	// The merge of all gaps of one scene and k at once (kgMergeOutlines,
+	// as KCover does it) must give the same outlines as each on its own.
+	byLevel := map[string][]int{}
+	for i, g := range gaps {
+		key := fmt.Sprint(g.Scene, "/", g.K)
+		byLevel[key] = append(byLevel[key], i)
+	}
+	for key, idx := range byLevel {
+		gs := make([]KGap, len(idx))
+		for j, i := range idx {
+			gs[j].Outline = gaps[i].Parts
+		}
+		kgMergeOutlines(gs)
+		for j, i := range idx {
+			own, _ := kgMergeOutline(gaps[i].Parts)
+			if a, b := coveredPolyArea(gs[j].Outline), coveredPolyArea(own); len(gs[j].Outline) != len(own) || math.Abs(a-b) > kMergeRefAreaRel*b {
+				t.Errorf("%s gap %d: merged with the others %d polygons of area %.12g, alone %d of %.12g", key, gaps[i].ID, len(gs[j].Outline), a, len(own), b)
+			}
+		}
+	}
 	for _, g := range gaps {
 		got, refused := kgMergeOutline(g.Parts)
 		// Reference: GEOS unary_union (python3-shapely), see
