@@ -99,6 +99,8 @@ type KOptions struct {
 	// ChordTolerance is the largest distance between a gap outline's arc
 	// and its chords (metres); 0 means DefaultChordTolerance.
 	ChordTolerance float64
+
+	keepPieces bool // keep the pieces (for ReachAdditions) without curve or gaps
 }
 
 // KLevel is the k-coverage of a layout for one k.
@@ -151,6 +153,8 @@ type KCoverage struct {
 	CurveRanges []float64
 	// Levels holds the levels asked for, by increasing k.
 	Levels []KLevel
+
+	hasGaps bool // the levels' gaps were computed (KOptions.Gaps)
 }
 
 // ErrKTooLarge is returned (wrapped) when k exceeds the number of distinct
@@ -185,7 +189,7 @@ func KCover(l *Layout, r float64, opt KOptions) (*KCoverage, error) {
 	if d := len(l.Sites) - nv; d > 0 {
 		kc.Warnings = append(kc.Warnings, fmt.Sprintf("%d devices stand at exactly the same spot as another; each spot counts once", d))
 	}
-	keep := opt.CurveSamples > 0 || opt.Gaps
+	keep := opt.CurveSamples > 0 || opt.Gaps || opt.keepPieces
 	if want[1] {
 		kc.Levels = append(kc.Levels, kLevelOne(l, r))
 	}
@@ -224,8 +228,12 @@ func KCover(l *Layout, r float64, opt KOptions) (*KCoverage, error) {
 		}
 	}
 	if opt.Gaps {
+		kc.hasGaps = true
 		for i := range kc.Levels {
 			kc.Levels[i].Gaps = kc.gaps(l, i, tol)
+			if kc.Levels[i].K > 1 {
+				kgMergeOutlines(kc.Levels[i].Gaps)
+			}
 		}
 	}
 	return kc, nil
@@ -388,7 +396,7 @@ type kScratch struct {
 	nb     []int32
 	cand   []int32
 	cell   planar.ClipRings
-	a, b   planar.ClipRings
+	a, b   *planar.ClipRings // clip scratch, swapped by kCut
 	hit    []bool
 	split  kSplitScratch
 	holdFn func(int32, float64, float64) bool
@@ -857,6 +865,11 @@ func kNeighbourhood(t *planar.Triangulation, g *kGraph, S []int32, buf []int32) 
 	return buf
 }
 
+// kPackBits is the number of bits per member when the members after the
+// first of a tuple are packed into one uint64 key (kUniquePacked): up to
+// three members of up to 2^21 − 1 (2 097 151 vertices).
+const kPackBits = 21
+
 // kUniqueSets sorts the stride-k tuples of sets (each ascending) and
 // removes repeats: a counting sort by the first member, then a sort of
 // each (short) group.
@@ -868,6 +881,9 @@ func kUniqueSets(sets []int32, k int, nv int) []int32 {
 	}
 	for v := 0; v < nv; v++ {
 		cnt[v+1] += cnt[v]
+	}
+	if k-1 <= 64/kPackBits && nv < 1<<kPackBits {
+		return kUniquePacked(sets, k, nv, cnt)
 	}
 	idx := make([]int32, n)
 	pos := slices.Clone(cnt[:nv])
@@ -893,6 +909,47 @@ func kUniqueSets(sets []int32, k int, nv int) []int32 {
 				continue
 			}
 			out = append(out, tup...)
+		}
+	}
+	return out
+}
+
+// kUniquePacked is kUniqueSets with the members after the first packed
+// into one uint64 per tuple (most significant first, so the order of the
+// keys is the lexicographic order of the tuples): a sort of plain integers
+// per group instead of one of tuples. cnt holds the group starts.
+func kUniquePacked(sets []int32, k int, nv int, cnt []int32) []int32 {
+	n := len(sets) / k
+	keys := make([]uint64, n)
+	pos := slices.Clone(cnt[:nv])
+	for i := 0; i < n; i++ {
+		var key uint64
+		for _, m := range sets[i*k+1 : i*k+k] {
+			key = key<<kPackBits | uint64(m)
+		}
+		f := sets[i*k]
+		keys[pos[f]] = key
+		pos[f]++
+	}
+	planar.ParallelFor(nv, 4096, func(lo, hi int) {
+		for v := lo; v < hi; v++ {
+			slices.Sort(keys[cnt[v]:cnt[v+1]])
+		}
+	})
+	out := make([]int32, 0, len(sets)/2)
+	const mask = 1<<kPackBits - 1
+	for v := 0; v < nv; v++ {
+		grp := keys[cnt[v]:cnt[v+1]]
+		for j, key := range grp {
+			if j > 0 && key == grp[j-1] {
+				continue
+			}
+			out = append(out, int32(v))
+			out = slices.Grow(out, k-1)[:len(out)+k-1]
+			for m := len(out) - 1; m > len(out)-k; m-- {
+				out[m] = int32(key & mask)
+				key >>= kPackBits
+			}
 		}
 	}
 	return out

@@ -58,14 +58,8 @@ type kRefLevel struct {
 
 func kRefLoad(t *testing.T, path string) *kRefDoc {
 	t.Helper()
-	b, err := os.ReadFile(path)
-	if err != nil {
-		t.Fatal(err)
-	}
 	var d kRefDoc
-	if err := json.Unmarshal(b, &d); err != nil {
-		t.Fatal(err)
-	}
+	kLoadJSON(t, path, &d)
 	if len(d.Scenes) == 0 {
 		t.Fatalf("%s: no scenes", path)
 	}
@@ -78,6 +72,18 @@ func TestKCoverReference(t *testing.T) {
 
 func TestKCoverLive(t *testing.T) {
 	kRefCheck(t, kRefLoad(t, liveRefRun(t, "ref_kcover.py", "SciPy cKDTree, GEOS via python3-shapely")))
+}
+
+// kLoadJSON reads the JSON file at path into v.
+func kLoadJSON(t *testing.T, path string, v any) {
+	t.Helper()
+	b, err := os.ReadFile(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if err := json.Unmarshal(b, v); err != nil {
+		t.Fatalf("%s: %v", path, err)
+	}
 }
 
 // liveRefRun runs testdata/<script> --small on a fresh seed (SITECOVER_SEED

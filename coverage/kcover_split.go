@@ -45,7 +45,7 @@ type kPiece struct {
 
 // kSplitScratch is per-goroutine scratch space of kSplit.
 type kSplitScratch struct {
-	cur, next planar.ClipRings
+	cur, next *planar.ClipRings // clip scratch, swapped by kCut
 	order     []kByDist
 	// res receives one entry per non-empty piece, in candidate order.
 	res []kPiece
@@ -122,13 +122,20 @@ func kSortByDist(a []kByDist) {
 }
 
 // kCut clips cur by hp when some vertex of cur lies outside it, leaving the
-// result in *a (the previous contents of *a go to *b, reused as scratch),
-// and returns the set now current: cur itself when nothing was cut.
-func kCut(hp planar.HalfPlane, cur, a, b *planar.ClipRings) *planar.ClipRings {
+// result in **a (the previous *a goes to *b, reused as scratch; both are
+// allocated on first use), and returns the set now current: cur itself
+// when nothing was cut. The two are swapped as pointers, not copied.
+func kCut(hp planar.HalfPlane, cur *planar.ClipRings, a, b **planar.ClipRings) *planar.ClipRings {
 	if !hp.SomeOutside(cur.XY) {
 		return cur
 	}
-	hp.ClipSet(cur, b)
+	if *a == nil {
+		*a = &planar.ClipRings{}
+	}
+	if *b == nil {
+		*b = &planar.ClipRings{}
+	}
+	hp.ClipSet(cur, *b)
 	*a, *b = *b, *a
-	return a
+	return *a
 }

@@ -435,31 +435,68 @@ func TestKCoverGaps(t *testing.T) {
 func kCheckOutlines(t *testing.T, l *Layout, pts []orb.Point, r float64, lv KLevel) {
 	t.Helper()
 	margin := 2 * DefaultChordTolerance * r
-	ix := l.Area.Index()
-	b := l.Area.Bound()
-	const h = 2.0
 	bad := 0
-	for x := b.Min[0] + h/3; x <= b.Max[0]; x += h {
-		for y := b.Min[1] + h/5; y <= b.Max[1]; y += h {
-			if !ix.Contains(x, y) {
-				continue
-			}
-			d := kBrute(pts, x, y, lv.K)
-			if math.Abs(d-r) < margin {
-				continue
-			}
-			in := 0
-			for _, g := range lv.Gaps {
-				if gapsOutlineContains(g.Outline, orb.Point{x, y}) {
-					in++
-				}
-			}
-			if (d > r) != (in == 1) || in > 1 {
-				bad++
-				if bad <= 3 {
-					t.Errorf("r=%v k=%d: (%v, %v) at k-th distance %.6g lies in %d gap outlines", r, lv.K, x, y, d, in)
-				}
+	kForSamples(l, 2.0, func(x, y float64) {
+		d := kBrute(pts, x, y, lv.K)
+		if math.Abs(d-r) < margin {
+			return
+		}
+		in := 0
+		for _, g := range lv.Gaps {
+			if gapsOutlineContains(g.Outline, orb.Point{x, y}) {
+				in++
 			}
 		}
+		if (d > r) != (in == 1) || in > 1 {
+			bad++
+			if bad <= 3 {
+				t.Errorf("r=%v k=%d: (%v, %v) at k-th distance %.6g lies in %d gap outlines", r, lv.K, x, y, d, in)
+			}
+		}
+	})
+}
+
+// kForSamples calls fn at the points of a grid of spacing h (offset by
+// h/3, h/5 from the bounding box's corner) that lie in the area.
+func kForSamples(l *Layout, h float64, fn func(x, y float64)) {
+	ix := l.Area.Index()
+	b := l.Area.Bound()
+	for x := b.Min[0] + h/3; x <= b.Max[0]; x += h {
+		for y := b.Min[1] + h/5; y <= b.Max[1]; y += h {
+			if ix.Contains(x, y) {
+				fn(x, y)
+			}
+		}
+	}
+}
+
+func TestKUniqueSets(t *testing.T) {
+	// Reference: a plain sort of the tuples and removal of repeats.
+	rng := rand.New(rand.NewPCG(3, 4))
+	for _, c := range []struct {
+		name  string
+		k, nv int
+	}{
+		{"packed-k2", 2, 50}, {"packed-k4", 4, 30}, {"tuples-k5", 5, 20},
+	} {
+		t.Run(c.name, func(t *testing.T) {
+			var sets []int32
+			var tups [][]int32
+			for i := 0; i < 2000; i++ {
+				tup := rng.Perm(c.nv)[:c.k]
+				t32 := make([]int32, c.k)
+				for j, v := range tup {
+					t32[j] = int32(v)
+				}
+				slices.Sort(t32)
+				sets = append(sets, t32...)
+				tups = append(tups, t32)
+			}
+			slices.SortFunc(tups, slices.Compare[[]int32])
+			tups = slices.CompactFunc(tups, slices.Equal[[]int32])
+			if got, want := kUniqueSets(sets, c.k, c.nv), slices.Concat(tups...); !slices.Equal(got, want) {
+				t.Errorf("%d values, want %d", len(got), len(want))
+			}
+		})
 	}
 }

@@ -203,7 +203,7 @@ type planPowerScratch struct {
 	nbrs      []int32
 	cand      []planPowerCand
 	cell      planar.ClipRings
-	cur, next planar.ClipRings
+	cur, next *planar.ClipRings
 	order     []kByDist
 	res       []powerPiece
 	kept      planar.ClipRings

@@ -384,7 +384,8 @@ func newGainIndex(l *Layout) *gainIndex {
 
 // rangesGainScratch is per-goroutine scratch space of gainIndex.gain.
 type rangesGainScratch struct {
-	cell, a, b planar.ClipRings
+	cell planar.ClipRings
+	a, b *planar.ClipRings
 }
 
 // gain returns the covered area a device of range r at (cx, cy) would add

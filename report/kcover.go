@@ -1,7 +1,8 @@
 // "Reached by k devices": the k-coverage outputs of analyze --reach (the
 // computation is coverage.KCover): a section of report.txt, the "reach"
-// member of summary.json, two GeoJSON layers (the nested parts of the site
-// reached by fewer than k devices, one feature per k; the k-gaps) and the
+// member of summary.json, two GeoJSON layers (the site in bands by the
+// number of devices in reach, 0, 1, …, K−1 and K+, one feature per band;
+// the k-gaps) and the
 // "devices in reach" map (map_reach.go).
 //
 // Every figure is copied from the coverage.KCoverage result: shares and
@@ -14,15 +15,14 @@ import (
 	"strconv"
 	"strings"
 
-	"github.com/paulmach/orb"
 	"github.com/sitecover/sitecover/coverage"
 	"github.com/sitecover/sitecover/report/gpkg"
 )
 
 // Output files of the k-coverage (with Options.Reach set).
 const (
-	// FileReach is the layer of the parts reached by fewer than k
-	// devices, one feature per k asked for.
+	// FileReach is the layer of the site in bands by the number of
+	// devices in reach (0, 1, …, K−1, K+), one feature per band.
 	FileReach = "reach.geojson"
 	// FileReachGaps is the layer of the k-gaps.
 	FileReachGaps = "reach-gaps.geojson"
@@ -187,26 +187,27 @@ func (s *scene) reachSites(v []int) string {
 // fmtReach formats v with d decimals.
 func fmtReach(v float64, d int) string { return strconv.FormatFloat(v, 'f', d, 64) }
 
-// reachLayer is one feature per k: the part of the area reached by fewer
-// than k devices (the union of the k-gaps; these nest, fewer for smaller
-// k, so drawn from the largest k down they colour the site by the number
-// of devices in reach).
+// reachLayer is one feature per band of the number of devices in reach
+// (0, 1, …, K−1 and "K+"; coverage.KCoverage.Bands): disjoint polygons
+// tiling the site area, with the band's exact area.
 func (s *scene) reachLayer(kc *coverage.KCoverage) *layerDef {
 	return &layerDef{geom: gpkg.MultiPolygon,
-		fields: fieldList("reached_by_fewer_than", gpkg.Integer, "area_m2", gpkg.Real, "share", gpkg.Real, "range_m", gpkg.Real),
+		fields: fieldList("devices_in_reach", gpkg.Integer, "band", gpkg.Text, "area_m2", gpkg.Real, "share", gpkg.Real, "range_m", gpkg.Real),
 		each: func(emit emitFunc) error {
-			for _, lv := range kc.Levels {
-				var mp orb.MultiPolygon
-				area := 0.0
-				for _, g := range lv.Gaps {
-					mp = append(mp, g.Outline...)
-					area += g.Area
-				}
-				out := s.multiPolygon(mp)
+			bands, err := kc.Bands(s.l)
+			if err != nil {
+				return err
+			}
+			for _, b := range bands {
+				out := s.multiPolygon(b.Outline)
 				if len(out) == 0 {
 					continue
 				}
-				if err := emit(out, lv.K, area, area/kc.AreaM2, kc.Range); err != nil {
+				name := strconv.Itoa(b.Devices)
+				if b.OrMore {
+					name += "+"
+				}
+				if err := emit(out, b.Devices, name, b.Area, b.Share, kc.Range); err != nil {
 					return err
 				}
 			}

@@ -92,7 +92,7 @@ repeat that until no gap is left, and candidate spots are chosen by the exact
 area each adds. The full-cover figure is then the range a new device would need
 with every r^2 grown alike until no gap is left. --new-type also adds devices
 of another type to a site whose devices share one range.
-
+` + suggestReachHelp + `
 The report folder (default sitecover-report/suggest) gets report.txt,
 summary.json, the proposed devices or the candidate spots, the gaps before and
 after as GeoJSON, and a map.
@@ -109,6 +109,9 @@ after as GeoJSON, and a map.
 				return err
 			}
 			fl := cmd.Flags()
+			if fl.Changed("reach") {
+				return runSuggestReach(e, cmd, f)
+			}
 			ps := planSpec{newType: pf.newType}
 			hasAdd, hasRange := fl.Changed("add"), fl.Changed("range")
 			hasNew := hasRange || fl.Changed("new-type")
@@ -146,6 +149,7 @@ after as GeoJSON, and a map.
 	cmd.Flags().Var(newOnceString(&pf.newType, ""), "new-type", "device type of the added devices: their range is that type's in --type-range or --range-table (instead of --range)")
 	f.addRangeFlag(cmd.Flags(), "", "planned range of every device, e.g. 150m, 0.2km, 500ft, 0.1mi")
 	f.addPlanOutputFlags(cmd.Flags(), "suggest")
+	addSuggestReachFlag(cmd.Flags(), f)
 	return cmd
 }
 

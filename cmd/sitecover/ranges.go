@@ -64,6 +64,16 @@ func (f *runFlags) rangesInputs(cmd *cobra.Command) (siteinput.Inputs, error) {
 	return in, nil
 }
 
+// refuseRanges is the answer of the moves that count devices in reach at
+// one common range (suggest --reach) when the sites carry their own ranges:
+// an input error, never a silent common range.
+func refuseRanges(sc *scene, command string, in siteinput.Inputs) error {
+	if sc.ranges == nil {
+		return nil
+	}
+	return inputErrorf("%s: the devices have their own ranges (range column or type table); %s counts devices in reach at one common range: give only --range", in.Sites.Name, command)
+}
+
 // rangesAnalysis runs coverage.AnalyzeRanges for devices with their own
 // ranges (runAnalysis writes and prints it).
 func rangesAnalysis(f *runFlags, sc *scene, pr *progress, in siteinput.Inputs) (analysisOutput, error) {
