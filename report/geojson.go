@@ -252,7 +252,7 @@ func kv(b []byte, key string, first bool) []byte {
 // sites have no types), and, for a site at exactly the position of an
 // earlier one, that site's index (−1 for none).
 func (s *scene) sitesLayer() *layerDef {
-	return &layerDef{geom: gpkg.Point,
+	return s.withAttributes(&layerDef{geom: gpkg.Point,
 		fields: fieldList("site", gpkg.Integer, "name", gpkg.Text, "range_m", gpkg.Real, "type", gpkg.Text, "duplicate_of", gpkg.Integer),
 		each: func(emit emitFunc) error {
 			tri := s.l.Tri
@@ -272,7 +272,7 @@ func (s *scene) sitesLayer() *layerDef {
 				}
 			}
 			return nil
-		}}
+		}}, 0)
 }
 
 // serviceAreasLayer is the service area of each distinct site position;
@@ -280,7 +280,7 @@ func (s *scene) sitesLayer() *layerDef {
 func (s *scene) serviceAreasLayer() *layerDef {
 	f := append([]any{"site", gpkg.Integer, "name", gpkg.Text, "area_m2", gpkg.Real, "share", gpkg.Real, "farthest_m", gpkg.Real},
 		s.coordFields("farthest")...)
-	return &layerDef{geom: gpkg.MultiPolygon,
+	return s.withAttributes(&layerDef{geom: gpkg.MultiPolygon,
 		fields: fieldList(append(f, "merged", gpkg.Text)...),
 		each: func(emit emitFunc) error {
 			for i, c := range s.cells {
@@ -294,7 +294,7 @@ func (s *scene) serviceAreasLayer() *layerDef {
 				}
 			}
 			return nil
-		}}
+		}}, 0)
 }
 
 // gapFields are the fields of a gaps layer.

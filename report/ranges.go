@@ -409,7 +409,7 @@ func metresNum(v float64) string { return strconv.FormatFloat(v, 'f', 2, 64) }
 // sitesLayer is every device with its range, type, the range it would need
 // for full cover, and whether it is hidden.
 func (rs *rangesScene) sitesLayer() *layerDef {
-	return &layerDef{geom: gpkg.Point,
+	return rs.withAttributes(&layerDef{geom: gpkg.Point,
 		fields: fieldList("site", gpkg.Integer, "name", gpkg.Text, "range_m", gpkg.Real, "type", gpkg.Text, "full_cover_range_m", gpkg.Real, "hidden", gpkg.Boolean),
 		each: func(emit emitFunc) error {
 			hidden := make(map[int]bool, len(rs.ra.Hidden))
@@ -422,7 +422,7 @@ func (rs *rangesScene) sitesLayer() *layerDef {
 				}
 			}
 			return nil
-		}}
+		}}, 0)
 }
 
 // serviceAreasLayer is each device's power cell clipped to the area (its
@@ -430,7 +430,7 @@ func (rs *rangesScene) sitesLayer() *layerDef {
 // within that range (coverage.ServiceAreasRanges); hidden devices have
 // none.
 func (rs *rangesScene) serviceAreasLayer() *layerDef {
-	return &layerDef{geom: gpkg.MultiPolygon,
+	return rs.withAttributes(&layerDef{geom: gpkg.MultiPolygon,
 		fields: fieldList("site", gpkg.Integer, "name", gpkg.Text, "range_m", gpkg.Real, "type", gpkg.Text, "area_m2", gpkg.Real,
 			"share", gpkg.Real, "served_m2", gpkg.Real, "farthest_m", gpkg.Real, "merged", gpkg.Text),
 		each: func(emit emitFunc) error {
@@ -444,7 +444,7 @@ func (rs *rangesScene) serviceAreasLayer() *layerDef {
 				}
 			}
 			return nil
-		}}
+		}}, 0)
 }
 
 // gapsLayer is the gaps with their closings: the single device whose

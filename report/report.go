@@ -29,6 +29,7 @@ import (
 
 	"github.com/paulmach/orb"
 	"github.com/sitecover/sitecover/coverage"
+	"github.com/sitecover/sitecover/report/siteinput"
 )
 
 // Meta describes the inputs of a run: what the analysis cannot know about
@@ -58,6 +59,10 @@ type Meta struct {
 	// shown wherever devices are listed (ranges.go).
 	Ranges []float64
 	Types  []string
+	// SiteAttributes are the sites' own attributes (siteinput.Scene.
+	// Attributes), carried into the per-site layers (attributes.go); nil
+	// for none.
+	SiteAttributes []siteinput.Attribute
 	// Planar is true when the input coordinates were already local metres.
 	Planar bool
 	// Projection is a one-line description of the local plane (e.g.

@@ -6,8 +6,11 @@
 package main
 
 import (
+	"encoding/json"
 	"os"
+	"os/exec"
 	"path/filepath"
+	"reflect"
 	"strings"
 	"testing"
 	"time"
@@ -210,5 +213,166 @@ func checkGeoPackageText(t *testing.T, path string) {
 		if err != nil {
 			t.Fatal(err)
 		}
+	}
+}
+
+// layerProps reads the properties of each feature of a GeoJSON layer, by
+// its "site" value.
+func layerProps(t *testing.T, path string) map[int]map[string]any {
+	t.Helper()
+	b, err := os.ReadFile(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	var fc struct {
+		Features []struct {
+			Properties map[string]any `json:"properties"`
+		} `json:"features"`
+	}
+	if err := json.Unmarshal(b, &fc); err != nil {
+		t.Fatalf("%s: %v", path, err)
+	}
+	out := map[int]map[string]any{}
+	for _, f := range fc.Features {
+		out[int(f.Properties["site"].(float64))] = f.Properties
+	}
+	return out
+}
+
+// checkAttributes checks that every feature of the sites and service-area
+// layers in out carries want[site] (JSON-decoded values), and the
+// attributes' names in order after the layer's own fields.
+func checkAttributes(t *testing.T, out string, want map[int]map[string]any, order []string) {
+	t.Helper()
+	for _, file := range []string{"sites.geojson", "service-areas.geojson"} {
+		props := layerProps(t, filepath.Join(out, file))
+		for site, w := range want {
+			got, ok := props[site]
+			if !ok {
+				t.Errorf("%s: no feature of site %d", file, site)
+				continue
+			}
+			for k, v := range w {
+				if !reflect.DeepEqual(got[k], v) {
+					t.Errorf("%s site %d: %s = %#v, want %#v", file, site, k, got[k], v)
+				}
+			}
+		}
+		b, _ := os.ReadFile(filepath.Join(out, file))
+		first := string(b[strings.Index(string(b), `"properties":{`):])
+		first = first[:strings.Index(first, "}")]
+		at := -1
+		for _, k := range order {
+			i := strings.Index(first, `"`+k+`":`)
+			if i <= at {
+				t.Errorf("%s: attribute %q missing or out of order in %s", file, k, first)
+			}
+			at = i
+		}
+	}
+}
+
+func TestSiteAttributesCarried(t *testing.T) {
+	// A planner's own columns reach the per-site layers under their own
+	// names; one named like a field of ours ("share", "Site") is prefixed
+	// input_ (report/attributes.go).
+	dir := t.TempDir()
+	w := func(name, content string) string { return writeFile(t, dir, name, content) }
+	csvSites := w("sites.csv", "id,name,lat,lon,floor,owner,share,Site,asset id\n"+
+		"A1,North,44.001,8.001,3,ACME,x,7,007\nA2,South,44.000,8.000,1,\"Bob \"\"B\"\"\",y,8,008\nA3,East,44.0005,8.002,2,Carl,z,9,009\n")
+	gjSites := w("sites.geojson", `{"type":"FeatureCollection","features":[
+{"type":"Feature","properties":{"name":"North","floor":3,"height":2.5,"indoor":true,"owner":"ACME","share":"x"},"geometry":{"type":"Point","coordinates":[8.001,44.001]}},
+{"type":"Feature","properties":{"name":"South","floor":1,"height":4,"indoor":false,"owner":"Bob","share":"y"},"geometry":{"type":"Point","coordinates":[8,44]}},
+{"type":"Feature","properties":{"name":"East","floor":null,"height":1,"indoor":true,"share":"z","extra":[1,2]},"geometry":{"type":"Point","coordinates":[8.002,44.0005]}}]}`)
+	cases := []struct {
+		name  string
+		sites string
+		want  map[int]map[string]any
+		order []string
+	}{
+		{"CSV", csvSites, map[int]map[string]any{
+			0: {"name": "North", "id": "A1", "floor": "3", "owner": "ACME", "input_share": "x", "input_Site": "7", "asset id": "007"},
+			1: {"name": "South", "owner": `Bob "B"`, "asset id": "008"},
+			2: {"input_share": "z", "input_Site": "9"}},
+			[]string{"id", "floor", "owner", "input_share", "input_Site", "asset id"}},
+		{"GeoJSON", gjSites, map[int]map[string]any{
+			0: {"floor": 3.0, "height": 2.5, "indoor": true, "owner": "ACME", "input_share": "x", "extra": nil},
+			1: {"floor": 1.0, "height": 4.0, "indoor": false, "owner": "Bob"},
+			2: {"floor": nil, "owner": nil, "extra": "[1,2]"}},
+			[]string{"floor", "height", "indoor", "owner", "input_share", "extra"}},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			out := filepath.Join(dir, "out-"+c.name)
+			mustRun(t, "cells", "--sites", c.sites, "--no-maps", "--gpkg", "--out", out)
+			checkAttributes(t, out, c.want, c.order)
+			// The GeoPackage holds the same attributes.
+			r, err := gpkg.Open(filepath.Join(out, "sitecover.gpkg"))
+			if err != nil {
+				t.Fatal(err)
+			}
+			defer r.Close()
+			err = r.ReadLayer("sites", func(f gpkg.Feature) error {
+				site := int(f.Properties["site"].(int64))
+				for k, v := range c.want[site] {
+					g := f.Properties[k]
+					if i, ok := g.(int64); ok {
+						g = float64(i)
+					}
+					if bv, ok := v.(bool); ok {
+						v = map[bool]float64{false: 0, true: 1}[bv]
+						if gb, ok := g.(bool); ok {
+							g = map[bool]float64{false: 0, true: 1}[gb]
+						}
+					}
+					if !reflect.DeepEqual(g, v) {
+						t.Errorf("sitecover.gpkg sites site %d: %s = %#v, want %#v", site, k, f.Properties[k], v)
+					}
+				}
+				return nil
+			})
+			if err != nil {
+				t.Fatal(err)
+			}
+		})
+	}
+	// A whole value of a real property stays real in the written layer.
+	b, _ := os.ReadFile(filepath.Join(dir, "out-GeoJSON", "sites.geojson"))
+	if !strings.Contains(string(b), `"height":4.0`) {
+		t.Errorf("sites.geojson: height 4 of a REAL field is not written 4.0:\n%s", b)
+	}
+}
+
+func TestSiteAttributesGeoPackageGDALLive(t *testing.T) {
+	// Sites exported by a desktop GIS as a GeoPackage: written here by
+	// GDAL's ogr2ogr (Debian gdal-bin) from GeoJSON, with an integer, a
+	// real and a text attribute; they reach the output layers with their
+	// types and in the layer's column order.
+	if _, err := exec.LookPath("ogr2ogr"); err != nil {
+		msg := "reference tool ogr2ogr unavailable (" + err.Error() + "); install gdal-bin"
+		if os.Getenv("SITECOVER_LIVE") == "1" {
+			t.Fatal(msg)
+		}
+		t.Skip(msg)
+	}
+	dir := t.TempDir()
+	src := writeFile(t, dir, "sites.geojson", `{"type":"FeatureCollection","features":[
+{"type":"Feature","properties":{"name":"North","owner":"ACME","floor":3,"height":2.0},"geometry":{"type":"Point","coordinates":[8.001,44.001]}},
+{"type":"Feature","properties":{"name":"South","owner":"Bob","floor":1,"height":4.5},"geometry":{"type":"Point","coordinates":[8,44]}},
+{"type":"Feature","properties":{"name":"East","owner":"Carl","floor":2,"height":1.25},"geometry":{"type":"Point","coordinates":[8.002,44.0005]}}]}`)
+	gp := filepath.Join(dir, "sites.gpkg")
+	if out, err := exec.Command("ogr2ogr", "-f", "GPKG", "-nln", "sensors", gp, src).CombinedOutput(); err != nil {
+		t.Fatalf("ogr2ogr: %v\n%s", err, out)
+	}
+	out := filepath.Join(dir, "out")
+	mustRun(t, "cells", "--sites", gp, "--no-maps", "--out", out)
+	checkAttributes(t, out, map[int]map[string]any{
+		0: {"name": "North", "owner": "ACME", "floor": 3.0, "height": 2.0},
+		1: {"name": "South", "owner": "Bob", "floor": 1.0, "height": 4.5},
+		2: {"name": "East", "owner": "Carl", "floor": 2.0, "height": 1.25}},
+		[]string{"owner", "floor", "height"})
+	b, _ := os.ReadFile(filepath.Join(out, "sites.geojson"))
+	if !strings.Contains(string(b), `"floor":3,"height":2.0`) {
+		t.Errorf("sites.geojson: the integer and real attributes lost their types:\n%s", b)
 	}
 }

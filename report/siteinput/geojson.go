@@ -43,6 +43,38 @@ type gjProps struct {
 	// Range and Type are read from sites only (ranges.go).
 	Range json.RawMessage `json:"range"`
 	Type  json.RawMessage `json:"type"`
+	// raw is the whole properties object, for the sites' own attributes
+	// (attributes.go).
+	raw []byte
+}
+
+// UnmarshalJSON decodes the members sitecover reads and keeps the whole
+// object. A value that is not an object is refused with errNotObject,
+// whose place decodeGeoJSON finds (see there).
+func (p *gjProps) UnmarshalJSON(b []byte) error {
+	t := bytes.TrimSpace(b)
+	if len(t) == 0 || t[0] != '{' {
+		return errNotObject
+	}
+	type members gjProps // without this method
+	if err := json.Unmarshal(t, (*members)(p)); err != nil {
+		return err
+	}
+	p.raw = bytes.Clone(t)
+	return nil
+}
+
+// errNotObject is gjProps.UnmarshalJSON's refusal of a properties member
+// that is not an object; encoding/json gives it no offset.
+var errNotObject = errors.New("properties is not an object")
+
+// propsPlaces has the properties members of a GeoJSON document as plain
+// objects, so that decoding it reports where one is not an object.
+type propsPlaces struct {
+	Features []struct {
+		Properties *struct{} `json:"properties"`
+	} `json:"features"`
+	Properties *struct{} `json:"properties"`
 }
 
 // shortJSON is a JSON value for a message, cut after 40 bytes.
@@ -78,6 +110,13 @@ type gjDoc struct {
 func decodeGeoJSON(src Source) ([]gjFeature, error) {
 	var d gjDoc
 	if err := json.Unmarshal(src.Data, &d); err != nil {
+		if errors.Is(err, errNotObject) {
+			// The first error is a properties member that is not an
+			// object: decoding the members alone says where.
+			if perr := json.Unmarshal(src.Data, &propsPlaces{}); perr != nil {
+				err = perr
+			}
+		}
 		return nil, jsonError(src, err)
 	}
 	switch d.Type {

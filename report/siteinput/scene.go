@@ -83,6 +83,10 @@ type Scene struct {
 	// Types holds each device's type ("" for none) by input index; nil
 	// when the sites have no type column or property.
 	Types []string
+	// Attributes are the sites' own attributes (every column or property
+	// sitecover does not read itself; attributes.go), each with one value
+	// per site by input index; nil when there are none.
+	Attributes []Attribute
 	// Region is the site area with its holes (zones that need no
 	// coverage).
 	Region *planar.Region
@@ -252,6 +256,7 @@ func (sc *Scene) read(in Inputs) (*siteSet, []areaPoly, error) {
 		}
 	}
 	sc.Names = sites.Names
+	sc.Attributes = sites.attrs.finish(len(sites.Pts))
 	if err := sc.resolveRanges(in, sites); err != nil {
 		return nil, nil, err
 	}
