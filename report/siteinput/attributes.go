@@ -27,6 +27,7 @@ import (
 	"bytes"
 	"encoding/json"
 	"strconv"
+	"strings"
 
 	"github.com/sitecover/sitecover/report/gpkg"
 )
@@ -91,13 +92,14 @@ func (b *attrBuilder) addCSV(n int, rec []string, cols []int, names []string) {
 
 // addJSON records the members of a Feature's properties object (raw, or
 // nil) for the sites up to n, except name, range and type, and id when
-// idGaveName. A member given twice counts once, with its last value (as
+// idGaveName (keys matched ignoring case, as gjProps reads them). A member given twice counts once, with its last value (as
 // encoding/json reads it).
 func (b *attrBuilder) addJSON(n int, raw []byte, idGaveName bool) {
 	b.json = true
 	if len(raw) > 0 {
 		eachMember(raw, func(key string, val json.RawMessage) {
-			if key == "name" || key == "range" || key == "type" || idGaveName && key == "id" {
+			if strings.EqualFold(key, "name") || strings.EqualFold(key, "range") || strings.EqualFold(key, "type") ||
+				idGaveName && strings.EqualFold(key, "id") {
 				return
 			}
 			col := b.column(key)
@@ -111,26 +113,79 @@ func (b *attrBuilder) addJSON(n int, raw []byte, idGaveName bool) {
 	b.done = n
 }
 
-// eachMember calls fn with each member of a JSON object, in order. The
-// object was checked by the decoder, so a token error (impossible) stops
-// it quietly.
-func eachMember(raw []byte, fn func(key string, val json.RawMessage)) {
-	dec := json.NewDecoder(bytes.NewReader(raw))
-	if t, err := dec.Token(); err != nil || t != json.Delim('{') {
-		return
-	}
-	for dec.More() {
-		t, err := dec.Token()
-		key, ok := t.(string)
-		if err != nil || !ok {
-			return
+// eachMember calls fn with each member of the JSON object obj, in order:
+// the key decoded, the value as it stands. obj must be valid JSON (the
+// decoder checked it), so the scan only finds where tokens end.
+func eachMember(obj []byte, fn func(key string, val json.RawMessage)) {
+	i := skipSpace(obj, 1)
+	for i < len(obj) && obj[i] == '"' {
+		end := stringEnd(obj, i)
+		key := string(obj[i+1 : end-1])
+		if bytes.IndexByte(obj[i:end], '\\') >= 0 {
+			json.Unmarshal(obj[i:end], &key)
 		}
-		var val json.RawMessage
-		if err := dec.Decode(&val); err != nil {
-			return
+		i = skipSpace(obj, end)
+		i = skipSpace(obj, i+1) // the colon
+		vend := valueEnd(obj, i)
+		fn(key, obj[i:vend])
+		i = skipSpace(obj, vend)
+		if i < len(obj) && obj[i] == ',' {
+			i = skipSpace(obj, i+1)
 		}
-		fn(key, val)
 	}
+}
+
+// skipSpace returns the index of the first non-space byte of b at or after
+// i (JSON white space).
+func skipSpace(b []byte, i int) int {
+	for i < len(b) && (b[i] == ' ' || b[i] == '\t' || b[i] == '\n' || b[i] == '\r') {
+		i++
+	}
+	return i
+}
+
+// stringEnd returns the index just past the JSON string starting at b[i].
+func stringEnd(b []byte, i int) int {
+	for i++; i < len(b); i++ {
+		switch b[i] {
+		case '\\':
+			i++
+		case '"':
+			return i + 1
+		}
+	}
+	return len(b)
+}
+
+// valueEnd returns the index just past the JSON value starting at b[i].
+func valueEnd(b []byte, i int) int {
+	if i >= len(b) {
+		return i
+	}
+	switch b[i] {
+	case '"':
+		return stringEnd(b, i)
+	case '{', '[':
+		depth := 0
+		for ; i < len(b); i++ {
+			switch b[i] {
+			case '"':
+				i = stringEnd(b, i) - 1
+			case '{', '[':
+				depth++
+			case '}', ']':
+				depth--
+				if depth == 0 {
+					return i + 1
+				}
+			}
+		}
+		return len(b)
+	}
+	for i < len(b) && !strings.ContainsRune(",}] \t\n\r", rune(b[i])) {
+		i++
+	}
+	return i
 }
 
 // finish returns the columns with typed values (see the file comment);

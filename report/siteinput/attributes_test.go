@@ -5,6 +5,7 @@
 package siteinput
 
 import (
+	"encoding/json"
 	"fmt"
 	"reflect"
 	"strings"
@@ -104,6 +105,23 @@ func TestGeoPackageRealStaysReal(t *testing.T) {
 		t.Run(c.name, func(t *testing.T) {
 			if got := string(appendGpkgValue(nil, c.v)); got != c.want {
 				t.Errorf("%v → %s, want %s", c.v, got, c.want)
+			}
+		})
+	}
+}
+
+func TestEachMember(t *testing.T) {
+	// The member scanner against encoding/json on tricky objects.
+	for _, c := range []struct{ name, obj, want string }{
+		{"empty", `{}`, ""},
+		{"spaces", " {\n \"a\" :\t1 ,\r\n\"b\":[1,{\"c\":\"]}\"}] } ", `a=1;b=[1,{"c":"]}"}];`},
+		{"escaped key and value", `{"a\"b\\":"x\"}","\u00e9":true,"n":null,"o":{"k":[]},"e":-1.5e3}`, `a"b\="x\"}";é=true;n=null;o={"k":[]};e=-1.5e3;`},
+	} {
+		t.Run(c.name, func(t *testing.T) {
+			var b strings.Builder
+			eachMember([]byte(strings.TrimSpace(c.obj)), func(k string, v json.RawMessage) { fmt.Fprintf(&b, "%s=%s;", k, v) })
+			if b.String() != c.want {
+				t.Errorf("got %s, want %s", b.String(), c.want)
 			}
 		})
 	}

@@ -48,19 +48,43 @@ type gjProps struct {
 	raw []byte
 }
 
-// UnmarshalJSON decodes the members sitecover reads and keeps the whole
-// object. A value that is not an object is refused with errNotObject,
-// whose place decodeGeoJSON finds (see there).
+// UnmarshalJSON decodes the members sitecover reads (each copied; a key
+// matches ignoring case, and the last of repeated members counts, as
+// encoding/json matches struct fields) in one pass over the object, which
+// encoding/json has already checked, and keeps a copy of the whole object
+// in raw when it has other members (possible attributes of sites). A value
+// that is not an object is refused with errNotObject, whose place
+// decodeGeoJSON finds (see there).
 func (p *gjProps) UnmarshalJSON(b []byte) error {
 	t := bytes.TrimSpace(b)
 	if len(t) == 0 || t[0] != '{' {
 		return errNotObject
 	}
-	type members gjProps // without this method
-	if err := json.Unmarshal(t, (*members)(p)); err != nil {
-		return err
+	other := false
+	eachMember(t, func(key string, val json.RawMessage) {
+		var dst *json.RawMessage
+		switch {
+		case strings.EqualFold(key, "name"):
+			dst = &p.Name
+		case strings.EqualFold(key, "range"):
+			dst = &p.Range
+		case strings.EqualFold(key, "type"):
+			dst = &p.Type
+		case strings.EqualFold(key, "id"):
+			dst, other = &p.ID, true
+		case strings.EqualFold(key, "exclude"):
+			dst, other = &p.Exclude, true
+		case strings.EqualFold(key, "weight"):
+			dst, other = &p.Weight, true
+		default:
+			other = true
+			return
+		}
+		*dst = bytes.Clone(val)
+	})
+	if other {
+		p.raw = bytes.Clone(t)
 	}
-	p.raw = bytes.Clone(t)
 	return nil
 }
 
