@@ -397,7 +397,7 @@ func (s *scene) multiPolygon(in orb.MultiPolygon) orb.MultiPolygon {
 			out = append(out, op)
 		}
 	}
-	return out
+	return s.checkRounding(in, out)
 }
 
 // ring converts one ring; nil when it degenerates after rounding.

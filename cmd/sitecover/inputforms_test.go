@@ -11,6 +11,7 @@ import (
 	"os/exec"
 	"path/filepath"
 	"reflect"
+	"strconv"
 	"strings"
 	"testing"
 	"time"
@@ -374,5 +375,129 @@ func TestSiteAttributesGeoPackageGDALLive(t *testing.T) {
 	b, _ := os.ReadFile(filepath.Join(out, "sites.geojson"))
 	if !strings.Contains(string(b), `"floor":3,"height":2.0`) {
 		t.Errorf("sites.geojson: the integer and real attributes lost their types:\n%s", b)
+	}
+}
+
+// outlineScenes writes scenes whose outlines rounding could break: exclusion
+// zones a fraction of the rounding cell from the boundary and from each
+// other, zones touching the boundary along an edge and at a corner, parcels
+// touching at a corner, and an area whose two halves meet in a 1 µm neck
+// (in geographic mode 5e-8°, about 5 mm); planar (1 mm rounding) and
+// geographic (1e-7°). It returns the argument lists of the runs.
+func outlineScenes(t *testing.T, dir string) [][]string {
+	t.Helper()
+	w := func(name, content string) string { return writeFile(t, dir, name, content) }
+	poly := func(props string, pts ...[2]float64) string {
+		s := `{"type":"Feature","properties":{` + props + `},"geometry":{"type":"Polygon","coordinates":[[`
+		for i, p := range append(pts, pts[0]) {
+			if i > 0 {
+				s += ","
+			}
+			s += "[" + strconv.FormatFloat(p[0], 'f', -1, 64) + "," + strconv.FormatFloat(p[1], 'f', -1, 64) + "]"
+		}
+		return s + "]]}}"
+	}
+	rect := func(props string, x0, y0, x1, y1 float64) string {
+		return poly(props, [2]float64{x0, y0}, [2]float64{x1, y0}, [2]float64{x1, y1}, [2]float64{x0, y1})
+	}
+	fc := func(fs ...string) string {
+		return `{"type":"FeatureCollection","features":[` + strings.Join(fs, ",") + "]}"
+	}
+	ex := `"exclude":true`
+	// The planar scenes in metres; geographic ones scale them by deg per
+	// metre around 8°E 47°N (the near-touching offsets by the same factor
+	// become fractions of 1e-7°).
+	type scene struct {
+		name  string
+		area  func(k, x0, y0 float64) string
+		sites [][2]float64
+	}
+	sites := [][2]float64{{10, 10}, {50, 50}, {90, 90}, {20, 80}, {80, 20}}
+	scenes := []scene{
+		{"near-touching", func(k, x0, y0 float64) string {
+			return fc(rect("", x0, y0, x0+100*k, y0+100*k),
+				rect(ex, x0+0.0004*k, y0+30*k, x0+20*k, y0+40*k),
+				rect(ex, x0+40*k, y0+0.0003*k, x0+45*k, y0+5*k),
+				rect(ex, x0+60*k, y0+60*k, x0+70*k, y0+70*k),
+				rect(ex, x0+70.0004*k, y0+60*k, x0+75*k, y0+70*k))
+		}, sites},
+		{"touching", func(k, x0, y0 float64) string {
+			return fc(rect("", x0, y0, x0+100*k, y0+100*k), rect("", x0+100*k, y0+100*k, x0+150*k, y0+150*k),
+				rect(ex, x0, y0+30*k, x0+20*k, y0+40*k),
+				rect(ex, x0+60*k, y0+60*k, x0+70*k, y0+70*k),
+				rect(ex, x0+70*k, y0+70*k, x0+75*k, y0+75*k))
+		}, append(sites, [2]float64{130, 130})},
+		{"neck", func(k, x0, y0 float64) string {
+			n := 1e-6
+			if k != 1 {
+				n = 0.005
+			}
+			return fc(poly("", [2]float64{x0, y0}, [2]float64{x0 + 50*k, y0}, [2]float64{x0 + 50*k, y0 + 50*k},
+				[2]float64{x0 + 60*k, y0 + 50*k}, [2]float64{x0 + 60*k, y0}, [2]float64{x0 + 110*k, y0},
+				[2]float64{x0 + 110*k, y0 + 100*k}, [2]float64{x0 + 60*k, y0 + 100*k}, [2]float64{x0 + 60*k, y0 + (50+n)*k},
+				[2]float64{x0 + 50*k, y0 + (50+n)*k}, [2]float64{x0 + 50*k, y0 + 100*k}, [2]float64{x0, y0 + 100*k}))
+		}, [][2]float64{{10, 10}, {40, 90}, {100, 10}, {70, 80}}},
+	}
+	var runs [][]string
+	for _, sc := range scenes {
+		for _, geo := range []bool{false, true} {
+			k, x0, y0, head := 1.0, 0.0, 0.0, "x,y\n"
+			if geo {
+				k, x0, y0, head = 1/111000.0, 8, 47, "lon,lat\n"
+			}
+			csv := head
+			for _, p := range sc.sites {
+				csv += strconv.FormatFloat(x0+p[0]*k, 'f', -1, 64) + "," + strconv.FormatFloat(y0+p[1]*k, 'f', -1, 64) + "\n"
+			}
+			name := sc.name
+			if geo {
+				name += "-geo"
+			}
+			s := w(name+"-sites.csv", csv)
+			a := w(name+"-area.geojson", sc.area(k, x0, y0))
+			for _, r := range []string{"12m", "30m"} {
+				args := []string{"analyze", "--sites", s, "--area", a, "--range", r, "--no-maps", "--gpkg", "--out", filepath.Join(dir, "out", name+"-"+r)}
+				if !geo {
+					args = append(args, "--planar")
+				}
+				runs = append(runs, args)
+			}
+		}
+	}
+	return runs
+}
+
+func TestWrittenOutlinesValidGEOSLive(t *testing.T) {
+	// Every polygon written (GeoJSON and GeoPackage) by the demo and by
+	// scenes that rounding could break is valid by GEOS's IsValid
+	// (testdata/ref_valid.py: Debian python3-shapely, python3-gdal).
+	if err := exec.Command("/usr/bin/python3", "-c", "import shapely, osgeo.ogr").Run(); err != nil {
+		msg := "reference tools unavailable (python3 with shapely and osgeo: " + err.Error() + "); install python3-shapely python3-gdal"
+		if os.Getenv("SITECOVER_LIVE") == "1" {
+			t.Fatal(msg)
+		}
+		t.Skip(msg)
+	}
+	dir := t.TempDir()
+	for _, args := range outlineScenes(t, dir) {
+		mustRun(t, args...)
+	}
+	mustRun(t, "demo", "--out", filepath.Join(dir, "out", "demo"))
+	out, err := exec.Command("/usr/bin/python3", "testdata/ref_valid.py", filepath.Join(dir, "out")).CombinedOutput()
+	if err != nil {
+		t.Fatalf("ref_valid.py: %v\n%s", err, out)
+	}
+	var res struct {
+		Checked int      `json:"checked"`
+		Invalid []string `json:"invalid"`
+	}
+	if err := json.Unmarshal(out, &res); err != nil {
+		t.Fatalf("ref_valid.py: %v\n%s", err, out)
+	}
+	if res.Checked < 500 {
+		t.Errorf("only %d polygons checked", res.Checked)
+	}
+	for _, s := range res.Invalid {
+		t.Errorf("invalid by GEOS: %s", strings.TrimPrefix(s, dir))
 	}
 }
