@@ -57,7 +57,9 @@ const geoJSONFlush = 64 << 10
 func (s *scene) newGeoJSON(w io.Writer) *geoJSON {
 	l := &geoJSON{w: w, b: make([]byte, 0, 2*geoJSONFlush)}
 	l.b = append(l.b, `{"type":"FeatureCollection",`...)
-	if !s.geographic() {
+	if s.grid != nil {
+		l.b = append(l.b, s.grid.member...)
+	} else if !s.geographic() {
 		l.b = append(l.b, `"coordinates":"local plane x/y in metres (not WGS84; not RFC 7946 longitude/latitude)",`...)
 	}
 	l.b = append(l.b, `"features":[`...)

@@ -70,8 +70,9 @@ func (s *scene) listed(n int) int {
 	return n
 }
 
-// geographic reports whether points are written as WGS84 lon/lat.
-func (s *scene) geographic() bool { return !s.m.Planar && s.m.ToLonLat != nil }
+// geographic reports whether points are written as WGS84 lon/lat (not for
+// a projected copy, outcrs.go).
+func (s *scene) geographic() bool { return !s.m.Planar && s.m.ToLonLat != nil && s.grid == nil }
 
 // point converts a local-plane point to an output point, rounded.
 func (s *scene) point(p orb.Point) Point {

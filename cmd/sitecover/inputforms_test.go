@@ -7,6 +7,7 @@ package main
 
 import (
 	"encoding/json"
+	"math"
 	"os"
 	"os/exec"
 	"path/filepath"
@@ -499,5 +500,105 @@ func TestWrittenOutlinesValidGEOSLive(t *testing.T) {
 	}
 	for _, s := range res.Invalid {
 		t.Errorf("invalid by GEOS: %s", strings.TrimPrefix(s, dir))
+	}
+}
+
+// gridPositions reads every position of a GeoJSON layer.
+func gridPositions(t *testing.T, path string) [][2]float64 {
+	t.Helper()
+	b, err := os.ReadFile(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	var fc struct {
+		Features []struct {
+			Geometry struct {
+				Type        string          `json:"type"`
+				Coordinates json.RawMessage `json:"coordinates"`
+			} `json:"geometry"`
+		} `json:"features"`
+	}
+	if err := json.Unmarshal(b, &fc); err != nil {
+		t.Fatal(err)
+	}
+	var out [][2]float64
+	for _, f := range fc.Features {
+		switch f.Geometry.Type {
+		case "Point":
+			var p [2]float64
+			json.Unmarshal(f.Geometry.Coordinates, &p)
+			out = append(out, p)
+		case "MultiPolygon":
+			var mp [][][][2]float64
+			json.Unmarshal(f.Geometry.Coordinates, &mp)
+			for _, p := range mp {
+				for _, r := range p {
+					out = append(out, r...)
+				}
+			}
+		}
+	}
+	return out
+}
+
+func TestOutCRSCLI(t *testing.T) {
+	// --out-crs input writes each layer once more in the inputs' grid:
+	// the sites and the area's corners come back where the input put them,
+	// to the 1 mm rounding (the chain grid → WGS84 → local plane → WGS84 →
+	// grid is exact to nanometres; the grid series is checked against
+	// PROJ's cs2cs in report's TestGridPointsAgainstPROJ).
+	dir := t.TempDir()
+	w := func(name, content string) string { return writeFile(t, dir, name, content) }
+	sites := w("utm.csv", "Easting,Northing,name\n691000,5335000,a\n691100.25,5335000.5,b\n691000.125,5335100,c\n")
+	area := w("utm.geojson", `{"type":"FeatureCollection","crs":{"type":"name","properties":{"name":"urn:ogc:def:crs:EPSG::32632"}},"features":[`+
+		`{"type":"Feature","properties":{},"geometry":{"type":"Polygon","coordinates":[[[690900,5334900],[691200,5334900],[691200,5335200],[690900,5335200],[690900,5334900]]]}}]}`)
+	out := filepath.Join(dir, "out")
+	mustRun(t, "analyze", "--crs", "EPSG:32632", "--sites", sites, "--area", area, "--range", "60m", "--no-maps", "--gpkg", "--out-crs", "input", "--out", out)
+	near := func(got [][2]float64, want [2]float64) bool {
+		for _, p := range got {
+			if math.Hypot(p[0]-want[0], p[1]-want[1]) <= 1e-3 {
+				return true
+			}
+		}
+		return false
+	}
+	st := gridPositions(t, filepath.Join(out, "sites-epsg32632.geojson"))
+	for _, want := range [][2]float64{{691000, 5335000}, {691100.25, 5335000.5}, {691000.125, 5335100}} {
+		if !near(st, want) {
+			t.Errorf("sites-epsg32632.geojson: no site within 1 mm of %v (got %v)", want, st)
+		}
+	}
+	cov := gridPositions(t, filepath.Join(out, "service-areas-epsg32632.geojson"))
+	for _, want := range [][2]float64{{690900, 5334900}, {691200, 5334900}, {691200, 5335200}, {690900, 5335200}} {
+		if !near(cov, want) {
+			t.Errorf("service-areas-epsg32632.geojson: no vertex within 1 mm of the area corner %v", want)
+		}
+	}
+	if _, err := exec.LookPath("ogrinfo"); err == nil {
+		// GDAL (Debian gdal-bin) reads the crs member as the grid.
+		b, err := exec.Command("ogrinfo", "-so", filepath.Join(out, "gaps-epsg32632.geojson"), "gaps-epsg32632").CombinedOutput()
+		if err != nil || !strings.Contains(string(b), "UTM zone 32N") {
+			t.Errorf("ogrinfo does not read the layer as UTM zone 32N: %v\n%s", err, b)
+		}
+	}
+	// An explicit code for WGS84 inputs.
+	ll := w("ll.csv", "lat,lon\n48.1,11.5\n48.101,11.5\n48.1,11.502\n")
+	out2 := filepath.Join(dir, "out2")
+	mustRun(t, "cells", "--sites", ll, "--out-crs", "EPSG:25832", "--no-maps", "--out", out2)
+	if _, err := os.Stat(filepath.Join(out2, "service-areas-epsg25832.geojson")); err != nil {
+		t.Error(err)
+	}
+	an := func(extra ...string) []string {
+		return append([]string{"cells", "--no-maps", "--out", filepath.Join(dir, "o3")}, extra...)
+	}
+	cases := []failureCase{
+		{"input when the inputs are WGS84", an("--sites", ll, "--out-crs", "input"), 1, []string{"--out-crs input: every input is in WGS84 longitude/latitude"}},
+		{"a geographic code", an("--sites", ll, "--out-crs", "EPSG:4326"), 1, []string{"--out-crs: EPSG:4326 (WGS 84 longitude/latitude) is longitude/latitude", "name a projected system"}},
+		{"an unsupported code", an("--sites", ll, "--out-crs", "EPSG:27700"), 2, []string{"--out-crs: coordinate reference system EPSG:27700 is not supported"}},
+		{"with --planar", an("--planar", "--sites", ll, "--out-crs", "input"), 2, []string{"--out-crs", "--planar", "give one of them"}},
+		{"a grid far from the sites", an("--sites", ll, "--out-crs", "EPSG:2193"), 1, []string{"--out-crs EPSG:2193: site #1", "outside that grid"}},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) { checkFailure(t, runCLI(t, c.args...), c.code, c.want) })
 	}
 }
