@@ -11,7 +11,9 @@
 // zero area are dropped (a polygon whose exterior is dropped goes with
 // it), and every ring is oriented by the sign of its shoelace area in the
 // output coordinates — exterior rings counter-clockwise, holes clockwise
-// (RFC 7946 §3.1.6). No "crs" member is written (§4).
+// (RFC 7946 §3.1.6); a polygon that rounding would make invalid is split
+// at repeated points or written with more digits (outline.go). No "crs"
+// member is written (§4), except in the projected copies (outcrs.go).
 //
 // With Meta.Planar the same layers hold local x/y metres rounded to 1 mm
 // and carry a foreign member "coordinates" saying so; their file names end

@@ -102,14 +102,18 @@ func TestWindows1252CSV(t *testing.T) {
 	}
 }
 
+// utmArea is a 300 m square in Munich in UTM 32N, as GeoJSON with a
+// GeoJSON 2008 crs member.
+const utmArea = `{"type":"FeatureCollection","crs":{"type":"name","properties":{"name":"urn:ogc:def:crs:EPSG::32632"}},"features":[` +
+	`{"type":"Feature","properties":{},"geometry":{"type":"Polygon","coordinates":[[[690900,5334900],[691200,5334900],[691200,5335200],[690900,5335200],[690900,5334900]]]}}]}`
+
 func TestProjectedCLI(t *testing.T) {
 	dir := t.TempDir()
 	w := func(name, content string) string { return writeFile(t, dir, name, content) }
 	// Munich in UTM 32N: sites as CSV Easting/Northing, area as GeoJSON
 	// with a GeoJSON 2008 crs member.
 	sites := w("utm.csv", "Easting,Northing,name\n691000,5335000,a\n691100,5335000,b\n691000,5335100,c\n")
-	area := w("utm.geojson", `{"type":"FeatureCollection","crs":{"type":"name","properties":{"name":"urn:ogc:def:crs:EPSG::32632"}},"features":[`+
-		`{"type":"Feature","properties":{},"geometry":{"type":"Polygon","coordinates":[[[690900,5334900],[691200,5334900],[691200,5335200],[690900,5335200],[690900,5334900]]]}}]}`)
+	area := w("utm.geojson", utmArea)
 	out := filepath.Join(dir, "out")
 	mustRun(t, "analyze", "--crs", "EPSG:32632", "--sites", sites, "--area", area, "--range", "150m", "--no-maps", "--out", out)
 	b, err := os.ReadFile(filepath.Join(out, "summary.json"))
@@ -222,18 +226,10 @@ func checkGeoPackageText(t *testing.T, path string) {
 // its "site" value.
 func layerProps(t *testing.T, path string) map[int]map[string]any {
 	t.Helper()
-	b, err := os.ReadFile(path)
-	if err != nil {
-		t.Fatal(err)
-	}
 	var fc struct {
-		Features []struct {
-			Properties map[string]any `json:"properties"`
-		} `json:"features"`
+		Features []struct{ Properties map[string]any }
 	}
-	if err := json.Unmarshal(b, &fc); err != nil {
-		t.Fatalf("%s: %v", path, err)
-	}
+	loadJSON(t, path, &fc)
 	out := map[int]map[string]any{}
 	for _, f := range fc.Features {
 		out[int(f.Properties["site"].(float64))] = f.Properties
@@ -345,18 +341,27 @@ func TestSiteAttributesCarried(t *testing.T) {
 	}
 }
 
+// needTool skips t when err says an outside tool is missing, or fails it
+// under SITECOVER_LIVE=1 (CI's live pass); install names its packages.
+func needTool(t *testing.T, err error, tool, install string) {
+	t.Helper()
+	if err == nil {
+		return
+	}
+	msg := "reference tool " + tool + " unavailable (" + err.Error() + "); install " + install
+	if os.Getenv("SITECOVER_LIVE") == "1" {
+		t.Fatal(msg)
+	}
+	t.Skip(msg)
+}
+
 func TestSiteAttributesGeoPackageGDALLive(t *testing.T) {
 	// Sites exported by a desktop GIS as a GeoPackage: written here by
 	// GDAL's ogr2ogr (Debian gdal-bin) from GeoJSON, with an integer, a
 	// real and a text attribute; they reach the output layers with their
 	// types and in the layer's column order.
-	if _, err := exec.LookPath("ogr2ogr"); err != nil {
-		msg := "reference tool ogr2ogr unavailable (" + err.Error() + "); install gdal-bin"
-		if os.Getenv("SITECOVER_LIVE") == "1" {
-			t.Fatal(msg)
-		}
-		t.Skip(msg)
-	}
+	_, err := exec.LookPath("ogr2ogr")
+	needTool(t, err, "ogr2ogr", "gdal-bin")
 	dir := t.TempDir()
 	src := writeFile(t, dir, "sites.geojson", `{"type":"FeatureCollection","features":[
 {"type":"Feature","properties":{"name":"North","owner":"ACME","floor":3,"height":2.0},"geometry":{"type":"Point","coordinates":[8.001,44.001]}},
@@ -472,13 +477,7 @@ func TestWrittenOutlinesValidGEOSLive(t *testing.T) {
 	// Every polygon written (GeoJSON and GeoPackage) by the demo and by
 	// scenes that rounding could break is valid by GEOS's IsValid
 	// (testdata/ref_valid.py: Debian python3-shapely, python3-gdal).
-	if err := exec.Command("/usr/bin/python3", "-c", "import shapely, osgeo.ogr").Run(); err != nil {
-		msg := "reference tools unavailable (python3 with shapely and osgeo: " + err.Error() + "); install python3-shapely python3-gdal"
-		if os.Getenv("SITECOVER_LIVE") == "1" {
-			t.Fatal(msg)
-		}
-		t.Skip(msg)
-	}
+	needTool(t, exec.Command("/usr/bin/python3", "-c", "import shapely, osgeo.ogr").Run(), "python3 with shapely and osgeo", "python3-shapely python3-gdal")
 	dir := t.TempDir()
 	for _, args := range outlineScenes(t, dir) {
 		mustRun(t, args...)
@@ -506,21 +505,8 @@ func TestWrittenOutlinesValidGEOSLive(t *testing.T) {
 // gridPositions reads every position of a GeoJSON layer.
 func gridPositions(t *testing.T, path string) [][2]float64 {
 	t.Helper()
-	b, err := os.ReadFile(path)
-	if err != nil {
-		t.Fatal(err)
-	}
-	var fc struct {
-		Features []struct {
-			Geometry struct {
-				Type        string          `json:"type"`
-				Coordinates json.RawMessage `json:"coordinates"`
-			} `json:"geometry"`
-		} `json:"features"`
-	}
-	if err := json.Unmarshal(b, &fc); err != nil {
-		t.Fatal(err)
-	}
+	var fc geoLayer
+	loadJSON(t, path, &fc)
 	var out [][2]float64
 	for _, f := range fc.Features {
 		switch f.Geometry.Type {
@@ -550,8 +536,7 @@ func TestOutCRSCLI(t *testing.T) {
 	dir := t.TempDir()
 	w := func(name, content string) string { return writeFile(t, dir, name, content) }
 	sites := w("utm.csv", "Easting,Northing,name\n691000,5335000,a\n691100.25,5335000.5,b\n691000.125,5335100,c\n")
-	area := w("utm.geojson", `{"type":"FeatureCollection","crs":{"type":"name","properties":{"name":"urn:ogc:def:crs:EPSG::32632"}},"features":[`+
-		`{"type":"Feature","properties":{},"geometry":{"type":"Polygon","coordinates":[[[690900,5334900],[691200,5334900],[691200,5335200],[690900,5335200],[690900,5334900]]]}}]}`)
+	area := w("utm.geojson", utmArea)
 	out := filepath.Join(dir, "out")
 	mustRun(t, "analyze", "--crs", "EPSG:32632", "--sites", sites, "--area", area, "--range", "60m", "--no-maps", "--gpkg", "--out-crs", "input", "--out", out)
 	near := func(got [][2]float64, want [2]float64) bool {
