@@ -1,6 +1,7 @@
 // The layers in a projected system on request (Meta.OutCRS; the CLI's
 // --out-crs): besides the RFC 7946 layers in WGS84 longitude/latitude,
-// each layer of WriteAnalysis and WriteCells is written once more as
+// each layer of WriteAnalysis, WriteCells and WriteRangesAnalysis is
+// written once more as
 // "<layer>-epsg<code>.geojson" (e.g. sites-epsg32632.geojson), in the
 // system's easting/northing rounded to 1 mm, with the GeoJSON 2008 "crs"
 // member naming it ({"type":"name","properties":{"name":
@@ -51,20 +52,17 @@ func GridLayerFile(name string, c *siteinput.CRS) string {
 	return strings.TrimSuffix(name, ".geojson") + "-" + code + ".geojson"
 }
 
-// gridLayerFiles returns the projected copies WriteAnalysis (cells false)
-// or WriteCells (cells true) writes with m.
-func gridLayerFiles(cells bool, m Meta) []string {
+// gridLayerFiles returns the names of the projected copies of the layer
+// files names that a report with m writes (none unless gridWanted).
+func gridLayerFiles(m Meta, names ...string) []string {
 	if !gridWanted(m) {
 		return nil
 	}
-	names := []string{FileSites, FileServiceAreas}
-	if !cells {
-		names = append(names, FileGaps, FileHoleClosings, FileCovered)
-	}
+	out := make([]string, len(names))
 	for i, n := range names {
-		names[i] = GridLayerFile(n, m.OutCRS)
+		out[i] = GridLayerFile(n, m.OutCRS)
 	}
-	return names
+	return out
 }
 
 // gridCopies returns the steps writing the projected copies of the layer

@@ -134,6 +134,7 @@ func RangesFiles(m Meta, opt Options) []string {
 	if opt.Maps {
 		f = append(f, FileMapCoverage)
 	}
+	f = append(f, gridLayerFiles(m, FileSites, FileServiceAreas, FileGaps)...)
 	return append(f, FileManifest)
 }
 
@@ -169,6 +170,10 @@ func WriteRangesAnalysis(dir string, a *coverage.RangesAnalysis, m Meta, opt Opt
 		width := mapWidth(opt)
 		steps = append(steps, step{name: FileMapCoverage, write: fromBytes(func() ([]byte, error) { return rs.coverageMap(width) })})
 	}
+	steps = append(steps, rs.gridCopies(func(g *scene) []step {
+		rg := &rangesScene{scene: g, ra: a}
+		return []step{rg.layerStep(FileSites, rg.sitesLayer()), rg.layerStep(FileServiceAreas, rg.serviceAreasLayer()), rg.layerStep(FileGaps, rg.gapsLayer())}
+	})...)
 	err = w.writeAll(rs.scene, steps)
 	return w.done, err
 }

@@ -189,7 +189,11 @@ func Files(cells bool, m Meta, opt Options) []string {
 	if !cells {
 		f = append(f, reachFiles(m, opt)...)
 	}
-	f = append(f, gridLayerFiles(cells, m)...)
+	if cells {
+		f = append(f, gridLayerFiles(m, FileSites, FileServiceAreas)...)
+	} else {
+		f = append(f, gridLayerFiles(m, FileSites, FileServiceAreas, FileGaps, FileHoleClosings, FileCovered)...)
+	}
 	return append(f, FileManifest)
 }
 

@@ -566,6 +566,18 @@ func TestOutCRSCLI(t *testing.T) {
 			t.Errorf("ogrinfo does not read the layer as UTM zone 32N: %v\n%s", err, b)
 		}
 	}
+	// Devices with their own ranges get the copies too.
+	ranged := w("utmr.csv", "Easting,Northing,name,range\n691000,5335000,a,50\n691100,5335000,b,70\n691000,5335100,c,60\n")
+	outR := filepath.Join(dir, "outr")
+	mustRun(t, "analyze", "--crs", "EPSG:32632", "--sites", ranged, "--area", area, "--no-maps", "--out-crs", "input", "--out", outR)
+	for _, f := range []string{"sites-epsg32632.geojson", "service-areas-epsg32632.geojson", "gaps-epsg32632.geojson"} {
+		if _, err := os.Stat(filepath.Join(outR, f)); err != nil {
+			t.Error(err)
+		}
+	}
+	if !near(gridPositions(t, filepath.Join(outR, "sites-epsg32632.geojson")), [2]float64{691100, 5335000}) {
+		t.Error("own ranges: sites-epsg32632.geojson does not hold site b at its input position")
+	}
 	// An explicit code for WGS84 inputs.
 	ll := w("ll.csv", "lat,lon\n48.1,11.5\n48.101,11.5\n48.1,11.502\n")
 	out2 := filepath.Join(dir, "out2")
