@@ -78,15 +78,21 @@ func (b *attrBuilder) pad(n int) {
 }
 
 // addCSV records the fields of one CSV record for the sites up to n:
-// names[k] is the header of column cols[k].
+// names[k] is the header of column cols[k]. The columns are made at the
+// first record, one per header (a repeated header is a column of its own),
+// and the later records append by position.
 func (b *attrBuilder) addCSV(n int, rec []string, cols []int, names []string) {
-	for k, c := range cols {
-		col := b.column(names[k])
-		for len(col.Values) < n {
-			col.Values = append(col.Values, field(rec, c))
+	if len(b.cols) == 0 {
+		for _, name := range names {
+			b.cols = append(b.cols, Attribute{Name: name, Type: gpkg.Text, Values: make([]any, b.done)})
 		}
 	}
-	b.pad(n)
+	for k, c := range cols {
+		v := field(rec, c)
+		for len(b.cols[k].Values) < n {
+			b.cols[k].Values = append(b.cols[k].Values, v)
+		}
+	}
 	b.done = n
 }
 

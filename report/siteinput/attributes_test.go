@@ -126,3 +126,16 @@ func TestEachMember(t *testing.T) {
 		})
 	}
 }
+
+func TestCSVRepeatedHeader(t *testing.T) {
+	// Two columns of one name stay two attributes (report renames the
+	// second).
+	s, err := loadSites(src("s.csv", "lat,lon,a,a\n1,2,x,y\n3,4,z,w\n"), false)
+	if err != nil {
+		t.Fatal(err)
+	}
+	want := "a:TEXT=x(string)|z(string)\na:TEXT=y(string)|w(string)\n"
+	if got := attrSummary(s.attrs.finish(len(s.Pts))); got != want {
+		t.Errorf("attributes:\n%s\nwant:\n%s", got, want)
+	}
+}
