@@ -389,7 +389,8 @@ func TestSiteAttributesGeoPackageGDALLive(t *testing.T) {
 // other, zones touching the boundary along an edge and at a corner, parcels
 // touching at a corner, and an area whose two halves meet in a 1 µm neck
 // (in geographic mode 5e-8°, about 5 mm); planar (1 mm rounding) and
-// geographic (1e-7°). It returns the argument lists of the runs.
+// geographic (1e-7°, with a copy in UTM 32N at 1 mm). It returns the
+// argument lists of the runs.
 func outlineScenes(t *testing.T, dir string) [][]string {
 	t.Helper()
 	w := func(name, content string) string { return writeFile(t, dir, name, content) }
@@ -465,6 +466,8 @@ func outlineScenes(t *testing.T, dir string) [][]string {
 				args := []string{"analyze", "--sites", s, "--area", a, "--range", r, "--no-maps", "--gpkg", "--out", filepath.Join(dir, "out", name+"-"+r)}
 				if !geo {
 					args = append(args, "--planar")
+				} else {
+					args = append(args, "--out-crs", "EPSG:32632") // the copies are checked too
 				}
 				runs = append(runs, args)
 			}
