@@ -40,6 +40,7 @@ package report
 import (
 	"math"
 	"slices"
+	"sync"
 
 	"github.com/paulmach/orb"
 	"github.com/sitecover/sitecover/planar"
@@ -121,8 +122,12 @@ func outlineValid(mp orb.MultiPolygon) bool {
 	}
 	var small [bruteForceEdges]outlineEdge // no allocation for small outlines
 	edges := small[:0]
+	var sc *outlineScratch
 	if total > bruteForceEdges {
-		edges = make([]outlineEdge, 0, total)
+		sc = outlineScratchPool.Get().(*outlineScratch)
+		defer outlineScratchPool.Put(sc)
+		edges = slices.Grow(sc.edges[:0], total)
+		defer func() { sc.edges = edges[:0] }()
 	}
 	ring := int32(0)
 	b := orb.Bound{Min: orb.Point{math.Inf(1), math.Inf(1)}, Max: orb.Point{math.Inf(-1), math.Inf(-1)}}
@@ -146,23 +151,19 @@ func outlineValid(mp orb.MultiPolygon) bool {
 		}
 		return true
 	}
-	g := max(1, int(math.Sqrt(float64(len(edges)/edgesPerCell))))
-	cw := (b.Max[0] - b.Min[0]) / float64(g)
-	ch := (b.Max[1] - b.Min[1]) / float64(g)
-	cell := func(v, lo, w float64) int {
-		if w <= 0 {
-			return 0
-		}
-		return min(g-1, max(0, int((v-lo)/w)))
+	gr := outlineGrid{g: max(1, int(math.Sqrt(float64(len(edges)/edgesPerCell)))), b: b}
+	g := gr.g
+	if w := b.Max[0] - b.Min[0]; w > 0 {
+		gr.sx = float64(g) / w
 	}
-	box := func(e *outlineEdge) (x0, y0, x1, y1 int) {
-		return cell(min(e.ax, e.bx), b.Min[0], cw), cell(min(e.ay, e.by), b.Min[1], ch),
-			cell(max(e.ax, e.bx), b.Min[0], cw), cell(max(e.ay, e.by), b.Min[1], ch)
+	if h := b.Max[1] - b.Min[1]; h > 0 {
+		gr.sy = float64(g) / h
 	}
+
 	// Cell lists in compressed rows: start[c] .. start[c+1] in list.
-	start := make([]int32, g*g+1)
+	start := grownZero(&sc.start, g*g+1)
 	for i := range edges {
-		x0, y0, x1, y1 := box(&edges[i])
+		x0, y0, x1, y1 := gr.box(&edges[i])
 		for y := y0; y <= y1; y++ {
 			for x := x0; x <= x1; x++ {
 				start[y*g+x+1]++
@@ -172,10 +173,11 @@ func outlineValid(mp orb.MultiPolygon) bool {
 	for c := 1; c <= g*g; c++ {
 		start[c] += start[c-1]
 	}
-	list := make([]int32, start[g*g])
-	fill := slices.Clone(start[:g*g])
+	list := grownZero(&sc.list, int(start[g*g]))
+	fill := append(grownZero(&sc.fill, 0), start[:g*g]...)
+	sc.fill = fill
 	for i := range edges {
-		x0, y0, x1, y1 := box(&edges[i])
+		x0, y0, x1, y1 := gr.box(&edges[i])
 		for y := y0; y <= y1; y++ {
 			for x := x0; x <= x1; x++ {
 				list[fill[y*g+x]] = int32(i)
@@ -191,7 +193,7 @@ func outlineValid(mp orb.MultiPolygon) bool {
 				f := &edges[j]
 				lx := max(min(e.ax, e.bx), min(f.ax, f.bx))
 				ly := max(min(e.ay, e.by), min(f.ay, f.by))
-				if cell(ly, b.Min[1], ch)*g+cell(lx, b.Min[0], cw) != c {
+				if gr.cell(ly, b.Min[1], gr.sy)*g+gr.cell(lx, b.Min[0], gr.sx) != c {
 					continue // compared in another cell, or the boxes are apart
 				}
 				if !edgePairValid(e, f) {
@@ -201,6 +203,45 @@ func outlineValid(mp orb.MultiPolygon) bool {
 		}
 	}
 	return true
+}
+
+// outlineGrid is the uniform grid of outlineValid: g × g cells over the
+// box b, sx and sy cells per unit (0 for a box of no width or height).
+type outlineGrid struct {
+	g      int
+	b      orb.Bound
+	sx, sy float64
+}
+
+// cell is the column (or row) of coordinate v, for the box's low side lo
+// and s cells per unit.
+func (gr *outlineGrid) cell(v, lo, s float64) int {
+	return min(gr.g-1, max(0, int((v-lo)*s)))
+}
+
+// box returns the columns and rows of the cells an edge's box covers.
+func (gr *outlineGrid) box(e *outlineEdge) (x0, y0, x1, y1 int) {
+	return gr.cell(min(e.ax, e.bx), gr.b.Min[0], gr.sx), gr.cell(min(e.ay, e.by), gr.b.Min[1], gr.sy),
+		gr.cell(max(e.ax, e.bx), gr.b.Min[0], gr.sx), gr.cell(max(e.ay, e.by), gr.b.Min[1], gr.sy)
+}
+
+// outlineScratch holds outlineValid's buffers for large outlines, reused
+// through outlineScratchPool (a layer checks one outline after another).
+type outlineScratch struct {
+	edges             []outlineEdge
+	start, list, fill []int32
+}
+
+var outlineScratchPool = sync.Pool{New: func() any { return new(outlineScratch) }}
+
+// grownZero returns (*buf)[:n] zeroed, growing *buf when needed.
+func grownZero(buf *[]int32, n int) []int32 {
+	if cap(*buf) < n {
+		*buf = make([]int32, n)
+	}
+	*buf = (*buf)[:n]
+	clear(*buf)
+	return *buf
 }
 
 // edgePairValid reports whether two edges of a written outline meet only
