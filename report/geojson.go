@@ -11,7 +11,9 @@
 // zero area are dropped (a polygon whose exterior is dropped goes with
 // it), and every ring is oriented by the sign of its shoelace area in the
 // output coordinates — exterior rings counter-clockwise, holes clockwise
-// (RFC 7946 §3.1.6). No "crs" member is written (§4).
+// (RFC 7946 §3.1.6); a polygon that rounding would make invalid is split
+// at repeated points or written with more digits (outline.go). No "crs"
+// member is written (§4), except in the projected copies (outcrs.go).
 //
 // With Meta.Planar the same layers hold local x/y metres rounded to 1 mm
 // and carry a foreign member "coordinates" saying so; their file names end
@@ -57,7 +59,9 @@ const geoJSONFlush = 64 << 10
 func (s *scene) newGeoJSON(w io.Writer) *geoJSON {
 	l := &geoJSON{w: w, b: make([]byte, 0, 2*geoJSONFlush)}
 	l.b = append(l.b, `{"type":"FeatureCollection",`...)
-	if !s.geographic() {
+	if s.grid != nil {
+		l.b = append(l.b, s.grid.member...)
+	} else if !s.geographic() {
 		l.b = append(l.b, `"coordinates":"local plane x/y in metres (not WGS84; not RFC 7946 longitude/latitude)",`...)
 	}
 	l.b = append(l.b, `"features":[`...)
@@ -252,7 +256,7 @@ func kv(b []byte, key string, first bool) []byte {
 // sites have no types), and, for a site at exactly the position of an
 // earlier one, that site's index (−1 for none).
 func (s *scene) sitesLayer() *layerDef {
-	return &layerDef{geom: gpkg.Point,
+	return s.withAttributes(&layerDef{geom: gpkg.Point,
 		fields: fieldList("site", gpkg.Integer, "name", gpkg.Text, "range_m", gpkg.Real, "type", gpkg.Text, "duplicate_of", gpkg.Integer),
 		each: func(emit emitFunc) error {
 			tri := s.l.Tri
@@ -272,7 +276,7 @@ func (s *scene) sitesLayer() *layerDef {
 				}
 			}
 			return nil
-		}}
+		}}, 0)
 }
 
 // serviceAreasLayer is the service area of each distinct site position;
@@ -280,7 +284,7 @@ func (s *scene) sitesLayer() *layerDef {
 func (s *scene) serviceAreasLayer() *layerDef {
 	f := append([]any{"site", gpkg.Integer, "name", gpkg.Text, "area_m2", gpkg.Real, "share", gpkg.Real, "farthest_m", gpkg.Real},
 		s.coordFields("farthest")...)
-	return &layerDef{geom: gpkg.MultiPolygon,
+	return s.withAttributes(&layerDef{geom: gpkg.MultiPolygon,
 		fields: fieldList(append(f, "merged", gpkg.Text)...),
 		each: func(emit emitFunc) error {
 			for i, c := range s.cells {
@@ -294,7 +298,7 @@ func (s *scene) serviceAreasLayer() *layerDef {
 				}
 			}
 			return nil
-		}}
+		}}, 0)
 }
 
 // gapFields are the fields of a gaps layer.
@@ -397,7 +401,7 @@ func (s *scene) multiPolygon(in orb.MultiPolygon) orb.MultiPolygon {
 			out = append(out, op)
 		}
 	}
-	return out
+	return s.checkRounding(in, out)
 }
 
 // ring converts one ring; nil when it degenerates after rounding.

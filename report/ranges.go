@@ -152,6 +152,7 @@ func RangesFiles(m Meta, opt Options) []string {
 	if opt.Charts {
 		f = append(f, FileChartCurve)
 	}
+	f = append(f, gridLayerFiles(m, FileSites, FileServiceAreas, FileGaps)...)
 	return append(f, FileManifest)
 }
 
@@ -192,6 +193,10 @@ func WriteRangesAnalysis(dir string, a *coverage.RangesAnalysis, m Meta, opt Opt
 		width := mapWidth(opt)
 		steps = append(steps, step{name: FileChartCurve, write: fromBytes(func() ([]byte, error) { return rs.curveChartRanges(width) })})
 	}
+	steps = append(steps, rs.gridCopies(func(g *scene) []step {
+		rg := &rangesScene{scene: g, ra: a}
+		return []step{rg.layerStep(FileSites, rg.sitesLayer()), rg.layerStep(FileServiceAreas, rg.serviceAreasLayer()), rg.layerStep(FileGaps, rg.gapsLayer())}
+	})...)
 	err = w.writeAll(rs.scene, steps)
 	return w.done, err
 }
@@ -435,7 +440,7 @@ func metresNum(v float64) string { return strconv.FormatFloat(v, 'f', 2, 64) }
 // sitesLayer is every device with its range, type, the range it would need
 // for full cover, and whether it is hidden.
 func (rs *rangesScene) sitesLayer() *layerDef {
-	return &layerDef{geom: gpkg.Point,
+	return rs.withAttributes(&layerDef{geom: gpkg.Point,
 		fields: fieldList("site", gpkg.Integer, "name", gpkg.Text, "range_m", gpkg.Real, "type", gpkg.Text, "full_cover_range_m", gpkg.Real, "hidden", gpkg.Boolean),
 		each: func(emit emitFunc) error {
 			hidden := make(map[int]bool, len(rs.ra.Hidden))
@@ -448,7 +453,7 @@ func (rs *rangesScene) sitesLayer() *layerDef {
 				}
 			}
 			return nil
-		}}
+		}}, 0)
 }
 
 // serviceAreasLayer is each device's power cell clipped to the area (its
@@ -456,7 +461,7 @@ func (rs *rangesScene) sitesLayer() *layerDef {
 // within that range (coverage.ServiceAreasRanges); hidden devices have
 // none.
 func (rs *rangesScene) serviceAreasLayer() *layerDef {
-	return &layerDef{geom: gpkg.MultiPolygon,
+	return rs.withAttributes(&layerDef{geom: gpkg.MultiPolygon,
 		fields: fieldList("site", gpkg.Integer, "name", gpkg.Text, "range_m", gpkg.Real, "type", gpkg.Text, "area_m2", gpkg.Real,
 			"share", gpkg.Real, "served_m2", gpkg.Real, "farthest_m", gpkg.Real, "merged", gpkg.Text),
 		each: func(emit emitFunc) error {
@@ -470,7 +475,7 @@ func (rs *rangesScene) serviceAreasLayer() *layerDef {
 				}
 			}
 			return nil
-		}}
+		}}, 0)
 }
 
 // gapsLayer is the gaps with their closings: the single device whose

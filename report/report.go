@@ -29,6 +29,7 @@ import (
 
 	"github.com/paulmach/orb"
 	"github.com/sitecover/sitecover/coverage"
+	"github.com/sitecover/sitecover/report/siteinput"
 )
 
 // Meta describes the inputs of a run: what the analysis cannot know about
@@ -58,6 +59,13 @@ type Meta struct {
 	// shown wherever devices are listed (ranges.go).
 	Ranges []float64
 	Types  []string
+	// SiteAttributes are the sites' own attributes (siteinput.Scene.
+	// Attributes), carried into the per-site layers (attributes.go); nil
+	// for none.
+	SiteAttributes []siteinput.Attribute
+	// OutCRS, when set (a projected system), adds a copy of each layer in
+	// that system (outcrs.go).
+	OutCRS *siteinput.CRS
 	// Planar is true when the input coordinates were already local metres.
 	Planar bool
 	// Projection is a one-line description of the local plane (e.g.
@@ -181,6 +189,11 @@ func Files(cells bool, m Meta, opt Options) []string {
 	if !cells {
 		f = append(f, reachFiles(m, opt)...)
 	}
+	if cells {
+		f = append(f, gridLayerFiles(m, FileSites, FileServiceAreas)...)
+	} else {
+		f = append(f, gridLayerFiles(m, FileSites, FileServiceAreas, FileGaps, FileHoleClosings, FileCovered)...)
+	}
 	return append(f, FileManifest)
 }
 
@@ -212,12 +225,8 @@ func WriteAnalysis(dir string, a *coverage.Analysis, m Meta, opt Options) (writt
 			d.Reach = s.reachDoc(opt.Reach)
 			return writeDoc(out, d)
 		}},
-		s.layerStep(FileSites, s.sitesLayer()),
-		s.layerStep(FileServiceAreas, s.serviceAreasLayer()),
-		s.layerStep(FileGaps, s.gapsLayer()),
-		s.layerStep(FileHoleClosings, s.holesLayer()),
-		s.layerStep(FileCovered, s.coveredLayer()),
 	}
+	steps = append(steps, analysisLayers(s)...)
 	if opt.GeoPackage {
 		steps = append(steps, step{name: FileGeoPackage, gpkg: true})
 	}
@@ -233,6 +242,7 @@ func WriteAnalysis(dir string, a *coverage.Analysis, m Meta, opt Options) (writt
 			step{name: FileChartHoles, write: fromBytes(func() ([]byte, error) { return s.holeChart(width) })})
 	}
 	steps = append(steps, s.reachSteps(opt)...)
+	steps = append(steps, s.gridCopies(analysisLayers)...)
 	err = w.writeAll(s, steps)
 	return w.done, err
 }
@@ -255,9 +265,8 @@ func WriteCells(dir string, l *coverage.Layout, m Meta, opt Options) ([]string, 
 	steps := []step{
 		{name: FileReport, write: s.writeTextTo},
 		{name: FileSummary, write: func(out io.Writer) error { return writeDoc(out, s.cellsSummary()) }},
-		s.layerStep(FileSites, s.sitesLayer()),
-		s.layerStep(FileServiceAreas, s.serviceAreasLayer()),
 	}
+	steps = append(steps, cellLayers(s)...)
 	if opt.GeoPackage {
 		steps = append(steps, step{name: FileGeoPackage, gpkg: true})
 	}
@@ -265,8 +274,25 @@ func WriteCells(dir string, l *coverage.Layout, m Meta, opt Options) ([]string, 
 		width := mapWidth(opt)
 		steps = append(steps, step{name: FileMapServiceAreas, write: fromBytes(func() ([]byte, error) { return s.serviceAreaMap(width) })})
 	}
+	steps = append(steps, s.gridCopies(cellLayers)...)
 	err = w.writeAll(s, steps)
 	return w.done, err
+}
+
+// analysisLayers are the layer steps of WriteAnalysis.
+func analysisLayers(s *scene) []step {
+	return append(cellLayers(s),
+		s.layerStep(FileGaps, s.gapsLayer()),
+		s.layerStep(FileHoleClosings, s.holesLayer()),
+		s.layerStep(FileCovered, s.coveredLayer()))
+}
+
+// cellLayers are the layer steps of WriteCells.
+func cellLayers(s *scene) []step {
+	return []step{
+		s.layerStep(FileSites, s.sitesLayer()),
+		s.layerStep(FileServiceAreas, s.serviceAreasLayer()),
+	}
 }
 
 func mapWidth(opt Options) int {

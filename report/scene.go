@@ -4,7 +4,8 @@
 //
 // Output coordinates are rounded once, here: WGS84 degrees to 7 decimals
 // (1e-7° of latitude is 1.1 cm, of longitude at most that), local metres
-// to 3 decimals (1 mm). A percentile absent from Analysis.Percentiles is
+// and projected output grids (outcrs.go) to 3 decimals (1 mm); an outline
+// that rounding would make invalid gets more (outline.go). A percentile absent from Analysis.Percentiles is
 // found by bisection on the coverage curve, which is monotone in the
 // range, to 1e-9 relative.
 
@@ -44,6 +45,13 @@ type scene struct {
 	// computed once.
 	notesOnce sync.Once
 	holeNotes []string
+
+	// grid, when set, makes point convert to a projected output system
+	// (outcrs.go); extraDigits and unrounded refine point's rounding for
+	// an outline that rounding would make invalid (outline.go).
+	grid        *gridOutput
+	extraDigits int
+	unrounded   bool
 }
 
 func newScene(l *coverage.Layout, a *coverage.Analysis, m Meta) *scene {
@@ -62,16 +70,21 @@ func (s *scene) listed(n int) int {
 	return n
 }
 
-// geographic reports whether points are written as WGS84 lon/lat.
-func (s *scene) geographic() bool { return !s.m.Planar && s.m.ToLonLat != nil }
+// geographic reports whether points are written as WGS84 lon/lat (not for
+// a projected copy, outcrs.go).
+func (s *scene) geographic() bool { return !s.m.Planar && s.m.ToLonLat != nil && s.grid == nil }
 
 // point converts a local-plane point to an output point, rounded.
 func (s *scene) point(p orb.Point) Point {
+	if s.grid != nil {
+		x, y := s.grid.forward(p[0], p[1])
+		return Point{s.roundOut(x, 3), s.roundOut(y, 3)}
+	}
 	if s.geographic() {
 		lon, lat := s.m.ToLonLat(p[0], p[1])
-		return Point{round(lon, 7), round(lat, 7)}
+		return Point{s.roundOut(lon, 7), s.roundOut(lat, 7)}
 	}
-	return Point{round(p[0], 3), round(p[1], 3)}
+	return Point{s.roundOut(p[0], 3), s.roundOut(p[1], 3)}
 }
 
 // convertKeyPoints fills farOut, deepOut and closeOut (in parallel: with

@@ -52,6 +52,7 @@ number is metres. Devices with their own ranges: a range column (CSV) or
 	}
 	cmd.Flags().Var(newOnceString(&f.reach, ""), "reach", "also report the share reached by at least k devices, the range giving every spot k devices, and the parts short of k, for k = 1 … the largest listed (e.g. 2 or 2,3; redundancy and positioning)")
 	f.addInputFlags(cmd.Flags())
+	f.addOutCRSFlag(cmd.Flags())
 	f.addContextFlag(cmd.Flags())
 	f.addRangeFlag(cmd.Flags(), "", "planned range of every device, e.g. 150m, 0.2km, 500ft, 0.1mi (required unless the sites give their own: a range column, or a type column with --type-range)")
 	f.addOutputFlags(cmd.Flags(), true)

@@ -41,6 +41,7 @@ and service-area GeoJSON layers and the service-area map.`,
 		},
 	}
 	f.addInputFlags(cmd.Flags())
+	f.addOutCRSFlag(cmd.Flags())
 	f.addContextFlag(cmd.Flags())
 	f.addOutputFlags(cmd.Flags(), true)
 	return cmd

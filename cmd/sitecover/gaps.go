@@ -35,6 +35,7 @@ layers and the maps (no charts).`,
 		},
 	}
 	f.addInputFlags(cmd.Flags())
+	f.addOutCRSFlag(cmd.Flags())
 	f.addContextFlag(cmd.Flags())
 	f.addRangeFlag(cmd.Flags(), "", "range of every device, e.g. 150m, 0.2km, 500ft, 0.1mi (required unless the sites give their own: a range column, or a type column with --type-range)")
 	f.addOutputFlags(cmd.Flags(), true)

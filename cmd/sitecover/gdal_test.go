@@ -24,10 +24,11 @@ import (
 )
 
 // demoLayerFields are the fields of each layer (GeoPackage table name) of
-// a geographic run, in order.
+// a geographic run, in order; the per-site layers end with the demo
+// sensors' own attribute "id" (report/attributes.go).
 var demoLayerFields = map[string][]string{
-	"sites":            {"site", "name", "range_m", "type", "duplicate_of"},
-	"service_areas":    {"site", "name", "area_m2", "share", "farthest_m", "farthest_lon", "farthest_lat", "merged"},
+	"sites":            {"site", "name", "range_m", "type", "duplicate_of", "id"},
+	"service_areas":    {"site", "name", "area_m2", "share", "farthest_m", "farthest_lon", "farthest_lat", "merged", "id"},
 	"gaps":             gapFieldNames,
 	"gaps_before":      gapFieldNames,
 	"gaps_after":       gapFieldNames,

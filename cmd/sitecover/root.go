@@ -166,6 +166,7 @@ type runFlags struct {
 	context              string
 	planar               bool
 	crs                  string
+	outCRS               string
 	rangeText            string
 	// typeRange and rangeTable give ranges per device type (ranges.go).
 	typeRange  []string
@@ -193,6 +194,11 @@ func (f *runFlags) addInputFlags(fs *pflag.FlagSet) {
 	fs.BoolVar(&f.planar, "planar", false, "coordinates are already local metres (x east, y north), e.g. a site plan or CAD export")
 	f.addTypeRangeFlags(fs)
 	fs.Var(newOnceString(&f.crs, ""), "crs", "coordinate reference system of CSV x/y (Easting/Northing) columns and of GeoJSON without a \"crs\" member, e.g. EPSG:32632 (UTM zones of WGS 84 and ETRS89, SWEREF99 TM, ETRS-TM35FIN, NZTM2000, Poland CS92, Portugal TM06; EPSG:4326 reads x/y as longitude/latitude); outputs stay WGS84")
+}
+
+// addOutCRSFlag registers --out-crs (analyze, gaps, cells).
+func (f *runFlags) addOutCRSFlag(fs *pflag.FlagSet) {
+	fs.Var(newOnceString(&f.outCRS, ""), "out-crs", "also write each layer in a projected system, as LAYER-epsgNNNN.geojson with a \"crs\" member: \"input\" for the inputs' own (from --crs or a file's \"crs\" member) or an EPSG code of --crs's list")
 }
 
 // addOutputFlags registers the output flags.
@@ -236,6 +242,17 @@ func (f *runFlags) inputs() (siteinput.Inputs, error) {
 	}
 	in.Planar = f.planar
 	in.CRS = f.crs
+	if f.outCRS != "" {
+		if f.planar {
+			return in, usageErrorf("--out-crs names an output coordinate reference system, --planar says local metres: give one of them")
+		}
+		if !strings.EqualFold(strings.TrimSpace(f.outCRS), "input") {
+			if _, err := siteinput.ParseCRS(f.outCRS); err != nil {
+				return in, usageErrorf("--out-crs: %v", err)
+			}
+		}
+		in.OutCRS = f.outCRS
+	}
 	if in.CRS != "" {
 		if _, err := siteinput.ParseCRS(in.CRS); err != nil {
 			return in, usageErrorf("--crs: %v", err)

@@ -75,6 +75,8 @@ func loadScene(in siteinput.Inputs) (*scene, error) {
 		m.PointsFile = in.Points.Name
 	}
 	m.SiteNames = s.Names
+	m.SiteAttributes = s.Attributes
+	m.OutCRS = s.OutCRS
 	m.Ranges, m.Types = s.Ranges, s.Types
 	m.Planar = in.Planar
 	m.Title = s.Title

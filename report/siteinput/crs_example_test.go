@@ -25,3 +25,17 @@ func ExampleParseCRS() {
 	// EPSG:32632 (WGS 84 / UTM zone 32N): 11.56750°E 48.13956°N
 	// true
 }
+
+// FromLonLat converts longitude/latitude to the grid (what --out-crs
+// writes): the position above comes back to the millimetre.
+func ExampleCRS_FromLonLat() {
+	c, err := siteinput.ParseCRS("EPSG:32632")
+	if err != nil {
+		panic(err)
+	}
+	lon, lat := c.TM.Inverse(691000, 5335000)
+	e, n := c.FromLonLat(lon, lat)
+	fmt.Printf("E %.3f N %.3f\n", e, n)
+	// Output:
+	// E 691000.000 N 5335000.000
+}

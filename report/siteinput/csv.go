@@ -71,6 +71,10 @@ type csvLayout struct {
 	name         int // the name (else id) column, or -1
 	weight       int // the weight column, or -1
 	rng, typ     int // the range and type columns, or -1
+	// extra are the other columns, the sites' own attributes
+	// (attributes.go), and extraNames their headers.
+	extra      []int
+	extraNames []string
 }
 
 // csvHeader finds the columns of the header line (see the file comment).
@@ -140,6 +144,12 @@ func csvHeader(src Source, header []string, planarInput, withWeight bool) (*csvL
 			hint = fmt.Sprintf("; %s/%s are metres: for x/y in local metres add --planar, for a projected grid give --crs EPSG:NNNN (for longitude/latitude in x/y: --crs EPSG:4326)", header[col["x"]], header[col["y"]])
 		}
 		return nil, errorf("%s line 1: needs lat and lon columns, found %s%s (%s)", src.Name, quoteList(found), hint, acceptedColumns)
+	}
+	for i, h := range header {
+		if i != l.xi && i != l.yi && i != l.wkt && i != l.name && i != l.weight && i != l.rng && i != l.typ {
+			l.extra = append(l.extra, i)
+			l.extraNames = append(l.extraNames, strings.TrimSpace(h))
+		}
 	}
 	return l, nil
 }
@@ -218,6 +228,9 @@ func pointsFromCSV(src Source, planarInput, withWeight bool) (s *siteSet, weight
 		s.Src = append(s.Src, int32(line))
 		if l.rng >= 0 || l.typ >= 0 {
 			s.addRangeType(field(rec, l.rng), field(rec, l.typ))
+		}
+		if len(l.extra) > 0 {
+			s.attrs.addCSV(len(s.Pts), rec, l.extra, l.extraNames)
 		}
 		if l.weight >= 0 {
 			w, err := csvWeight(rec[l.weight], decimalComma)

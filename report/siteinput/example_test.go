@@ -35,3 +35,22 @@ func ExampleLoad() {
 	// warning: 1 site repeats the exact position of an earlier site and shares its service area: roof (#4) = roof (#3)
 	// true bad.csv line 3: latitude 95.2 is outside -90..90
 }
+
+// The sites' own columns are kept as attributes, one value per site.
+func ExampleScene_attributes() {
+	sites := siteinput.Source{Name: "sites.geojson", Data: []byte(`{"type":"FeatureCollection","features":[
+	 {"type":"Feature","properties":{"name":"gate","floor":0,"owner":"ACME"},"geometry":{"type":"Point","coordinates":[0,0]}},
+	 {"type":"Feature","properties":{"name":"yard","floor":2},"geometry":{"type":"Point","coordinates":[100,0]}},
+	 {"type":"Feature","properties":{"name":"roof","floor":5,"owner":"Bob"},"geometry":{"type":"Point","coordinates":[50,80]}}]}`)}
+	sc, err := siteinput.Load(siteinput.Inputs{Sites: sites, Planar: true})
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	for _, a := range sc.Attributes {
+		fmt.Println(a.Name, a.Type, a.Values)
+	}
+	// Output:
+	// floor INTEGER [0 2 5]
+	// owner TEXT [ACME <nil> Bob]
+}

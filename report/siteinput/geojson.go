@@ -43,6 +43,62 @@ type gjProps struct {
 	// Range and Type are read from sites only (ranges.go).
 	Range json.RawMessage `json:"range"`
 	Type  json.RawMessage `json:"type"`
+	// raw is the whole properties object, for the sites' own attributes
+	// (attributes.go).
+	raw []byte
+}
+
+// UnmarshalJSON decodes the members sitecover reads (each copied; a key
+// matches ignoring case, and the last of repeated members counts, as
+// encoding/json matches struct fields) in one pass over the object, which
+// encoding/json has already checked, and keeps a copy of the whole object
+// in raw when it has other members (possible attributes of sites). A value
+// that is not an object is refused with errNotObject, whose place
+// decodeGeoJSON finds (see there).
+func (p *gjProps) UnmarshalJSON(b []byte) error {
+	t := bytes.TrimSpace(b)
+	if len(t) == 0 || t[0] != '{' {
+		return errNotObject
+	}
+	other := false
+	eachMember(t, func(key string, val json.RawMessage) {
+		var dst *json.RawMessage
+		switch {
+		case strings.EqualFold(key, "name"):
+			dst = &p.Name
+		case strings.EqualFold(key, "range"):
+			dst = &p.Range
+		case strings.EqualFold(key, "type"):
+			dst = &p.Type
+		case strings.EqualFold(key, "id"):
+			dst, other = &p.ID, true
+		case strings.EqualFold(key, "exclude"):
+			dst, other = &p.Exclude, true
+		case strings.EqualFold(key, "weight"):
+			dst, other = &p.Weight, true
+		default:
+			other = true
+			return
+		}
+		*dst = bytes.Clone(val)
+	})
+	if other {
+		p.raw = bytes.Clone(t)
+	}
+	return nil
+}
+
+// errNotObject is gjProps.UnmarshalJSON's refusal of a properties member
+// that is not an object; encoding/json gives it no offset.
+var errNotObject = errors.New("properties is not an object")
+
+// propsPlaces has the properties members of a GeoJSON document as plain
+// objects, so that decoding it reports where one is not an object.
+type propsPlaces struct {
+	Features []struct {
+		Properties *struct{} `json:"properties"`
+	} `json:"features"`
+	Properties *struct{} `json:"properties"`
 }
 
 // shortJSON is a JSON value for a message, cut after 40 bytes.
@@ -78,6 +134,13 @@ type gjDoc struct {
 func decodeGeoJSON(src Source) ([]gjFeature, error) {
 	var d gjDoc
 	if err := json.Unmarshal(src.Data, &d); err != nil {
+		if errors.Is(err, errNotObject) {
+			// The first error is a properties member that is not an
+			// object: decoding the members alone says where.
+			if perr := json.Unmarshal(src.Data, &propsPlaces{}); perr != nil {
+				err = perr
+			}
+		}
 		return nil, jsonError(src, err)
 	}
 	switch d.Type {

@@ -20,7 +20,9 @@ import (
 	"encoding/json"
 	"fmt"
 	"io"
+	"math"
 	"os"
+	"strconv"
 	"strings"
 
 	"github.com/paulmach/orb/geojson"
@@ -88,25 +90,9 @@ func geoPackageAsGeoJSON(path, flag string) (doc []byte, localLayer string, err 
 		return nil, "", errorf("%s: %d %s layers (%s): keep the one for %s in its own GeoPackage or GeoJSON file", path, len(use), what, strings.Join(names, ", "), flag)
 	}
 	l := use[0]
-	fc := geojson.NewFeatureCollection()
-	err = r.ReadLayer(l.Name, func(f gpkg.Feature) error {
-		if f.Geometry == nil {
-			return nil
-		}
-		g := geojson.NewFeature(f.Geometry)
-		g.ID = f.FID
-		for k, v := range f.Properties {
-			g.Properties[k] = v
-		}
-		fc.Append(g)
-		return nil
-	})
+	b, err := layerGeoJSON(r, l)
 	if err != nil {
 		return nil, "", errorf("%s: %v", path, gpkgMessage(err, path))
-	}
-	b, err := json.Marshal(fc)
-	if err != nil {
-		return nil, "", errorf("%s: layer %s: %v", path, l.Name, err)
 	}
 	if s := l.SRS; strings.EqualFold(s.Organization, "EPSG") && s.OrgCoordsysID != 4326 {
 		crs := fmt.Sprintf(`{"crs":{"type":"name","properties":{"name":"EPSG:%d"}},`, s.OrgCoordsysID)
@@ -116,6 +102,67 @@ func geoPackageAsGeoJSON(path, flag string) (doc []byte, localLayer string, err 
 		return b, l.Name, nil
 	}
 	return b, "", nil
+}
+
+// layerGeoJSON reads layer l as a GeoJSON FeatureCollection: each feature
+// with a geometry, its FID as the Feature's id and its attributes as
+// properties in the layer's column order (the sites' attributes keep it,
+// attributes.go). A REAL value that is whole is written with a decimal
+// point, so the column stays real when typed from the JSON; a value that
+// is not finite is null.
+func layerGeoJSON(r *gpkg.Reader, l gpkg.LayerInfo) ([]byte, error) {
+	b := []byte(`{"type":"FeatureCollection","features":[`)
+	n := 0
+	err := r.ReadLayer(l.Name, func(f gpkg.Feature) error {
+		if f.Geometry == nil {
+			return nil
+		}
+		g, err := json.Marshal(geojson.NewGeometry(f.Geometry))
+		if err != nil {
+			return fmt.Errorf("layer %s feature %d: %v", l.Name, f.FID, err)
+		}
+		if n > 0 {
+			b = append(b, ',')
+		}
+		n++
+		b = append(b, `{"type":"Feature","id":`...)
+		b = strconv.AppendInt(b, f.FID, 10)
+		b = append(b, `,"geometry":`...)
+		b = append(b, g...)
+		b = append(b, `,"properties":{`...)
+		for k, fld := range l.Fields {
+			if k > 0 {
+				b = append(b, ',')
+			}
+			key, _ := json.Marshal(fld.Name)
+			b = append(b, key...)
+			b = append(b, ':')
+			b = appendGpkgValue(b, f.Properties[fld.Name])
+		}
+		b = append(b, "}}"...)
+		return nil
+	})
+	return append(b, "]}"...), err
+}
+
+// appendGpkgValue appends one attribute value as JSON (see layerGeoJSON).
+func appendGpkgValue(b []byte, v any) []byte {
+	if f, ok := v.(float64); ok {
+		if math.IsNaN(f) || math.IsInf(f, 0) {
+			return append(b, "null"...)
+		}
+		n := len(b)
+		b = strconv.AppendFloat(b, f, 'g', -1, 64)
+		if !bytes.ContainsAny(b[n:], ".e") {
+			b = append(b, ".0"...)
+		}
+		return b
+	}
+	j, err := json.Marshal(v)
+	if err != nil {
+		return append(b, "null"...)
+	}
+	return append(b, j...)
 }
 
 // gpkgMessage drops the file name package gpkg puts in front of its

@@ -55,6 +55,10 @@ type Inputs struct {
 	// GeoJSON input without a "crs" member; "" for WGS84
 	// longitude/latitude. It excludes Planar.
 	CRS string
+	// OutCRS asks for a copy of the layers in a projected system
+	// (outcrs.go): "input" for the inputs' own, or an EPSG code; "" for
+	// none.
+	OutCRS string
 	// Range is the common range (m) of the devices without one of their
 	// own (--range); 0 when not given.
 	Range float64
@@ -83,6 +87,10 @@ type Scene struct {
 	// Types holds each device's type ("" for none) by input index; nil
 	// when the sites have no type column or property.
 	Types []string
+	// Attributes are the sites' own attributes (every column or property
+	// sitecover does not read itself; attributes.go), each with one value
+	// per site by input index; nil when there are none.
+	Attributes []Attribute
 	// Region is the site area with its holes (zones that need no
 	// coverage).
 	Region *planar.Region
@@ -124,6 +132,10 @@ type Scene struct {
 	// EdgeAreaError. 0 for planar input.
 	AreaRelError float64
 	edgeArea     float64 // the absolute bound behind EdgeAreaError, m²
+	inputCRS     *CRS    // the first projected system of the inputs
+	// OutCRS is the projected system the layers are also written in
+	// (Inputs.OutCRS); nil for none.
+	OutCRS *CRS
 	// Converted says which inputs were converted from a projected system
 	// to WGS84 longitude/latitude, e.g. "sites.csv: EPSG:32632 (WGS 84 /
 	// UTM zone 32N) converted to WGS84 longitude/latitude".
@@ -151,6 +163,9 @@ func Load(in Inputs) (*Scene, error) {
 	sc := &Scene{Warnings: textWarn}
 	sites, polys, err := sc.read(in)
 	if err != nil {
+		return nil, err
+	}
+	if err := sc.resolveOutCRS(in, sc.inputCRS, sites.Pts); err != nil {
 		return nil, err
 	}
 	sc.Title = defaultTitle(in, polys)
@@ -235,6 +250,9 @@ func (sc *Scene) read(in Inputs) (*siteSet, []areaPoly, error) {
 		c, err := sourceCRS(src, def, in.Planar)
 		if c != nil {
 			sc.Converted = append(sc.Converted, src.Name+": "+c.Label()+" converted to WGS84 longitude/latitude")
+			if sc.inputCRS == nil {
+				sc.inputCRS = c
+			}
 		}
 		return c, in.Planar || c != nil, err
 	}
@@ -252,6 +270,7 @@ func (sc *Scene) read(in Inputs) (*siteSet, []areaPoly, error) {
 		}
 	}
 	sc.Names = sites.Names
+	sc.Attributes = sites.attrs.finish(len(sites.Pts))
 	if err := sc.resolveRanges(in, sites); err != nil {
 		return nil, nil, err
 	}

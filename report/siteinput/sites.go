@@ -40,6 +40,8 @@ type siteSet struct {
 	Types []string
 	// tagged counts the sites given their range and type so far.
 	tagged int
+	// attrs gathers the sites' own attributes (attributes.go).
+	attrs attrBuilder
 }
 
 // addRangeType appends the range text and type of the sites added since
@@ -122,6 +124,7 @@ func sitesFromGeoJSON(src Source, planarInput bool) (*siteSet, error) {
 			return nil, errorf("%s feature %d: range %s is not a length (give metres as a number, or a string such as \"150m\")", src.Name, i, shortJSON(props.Range))
 		}
 		typ := jsonText(props.Type)
+		idGaveName := jsonText(props.Name) == "" && jsonText(props.ID) != ""
 		if f.Geometry.Type == "Point" {
 			// Fast path for the common case; anything unusual falls
 			// through to the general decoder and its messages.
@@ -130,6 +133,7 @@ func sitesFromGeoJSON(src Source, planarInput bool) (*siteSet, error) {
 				s.Names = append(s.Names, name)
 				s.Src = append(s.Src, int32(i))
 				s.addRangeType(rangeText, typ)
+				s.attrs.addJSON(len(s.Pts), props.raw, idGaveName)
 				continue
 			}
 		}
@@ -140,6 +144,7 @@ func sitesFromGeoJSON(src Source, planarInput bool) (*siteSet, error) {
 			s.Src = append(s.Src, int32(i))
 		}
 		s.addRangeType(rangeText, typ)
+		s.attrs.addJSON(len(s.Pts), props.raw, idGaveName)
 	}
 	return s, nil
 }

@@ -1,0 +1,395 @@
+// Written outlines stay valid polygons after rounding.
+//
+// Output coordinates are rounded (scene.point: 7 decimals of a degree,
+// 1 mm in the plane). Rounding moves each vertex by up to half a rounding
+// cell, so edges closer than that may come to touch or cross: a hole
+// 0.4 mm from its polygon's boundary (an exclusion zone drawn almost on
+// the site's edge), a 1 µm neck of the area, two parts of a service area
+// or gap almost meeting. GEOS (and GIS with it) then calls the polygon
+// invalid ("Self-intersection").
+//
+// The rule: every polygon feature is checked after rounding (outlineValid,
+// exact predicates on the rounded coordinates). A ring that passes through
+// one point twice (a pinch: two vertices the plane keeps apart, as opened
+// pinches are, rounded or converted to one position) is split there into
+// its loops, each then a ring of its own (splitPinches), which GEOS
+// accepts: rings of a polygon may touch at a point. If the feature is
+// still invalid, it is written with 2 more decimals, then 4 more, then
+// unrounded (shortest round-trip doubles), whichever first passes. The
+// outline computed in the plane is valid, and its unrounded conversion
+// keeps that to within float64 spacing (1e-13° or 1e-9 m at the site's
+// coordinates), so only features with contacts closer than that could
+// still fail; such a feature is written unrounded as computed. Only the
+// features that need it get the extra digits.
+//
+// outlineValid accepts a multipolygon (rings closed, as written) when
+//   - within a ring, consecutive edges meet only at their common vertex
+//     (no spike folding back along an edge) and other edges do not meet;
+//   - edges of different rings meet only at a vertex both have, without
+//     overlapping along a line.
+//
+// These are the contacts GEOS's IsValid refuses (Ring Self-intersection,
+// Self-intersection) that rounding can create; rounding by less than the
+// distance between two rings cannot move a hole out of its polygon or a
+// part into another without such a contact on the way. A vertex of one
+// ring on an edge of another (valid in GEOS) is refused too: that feature
+// then keeps more digits, which is never wrong.
+
+package report
+
+import (
+	"math"
+	"slices"
+	"sync"
+
+	"github.com/paulmach/orb"
+	"github.com/sitecover/sitecover/planar"
+)
+
+// finerDigits is how many decimals each refinement step adds to a feature
+// that rounding made invalid; maxExtraDigits is the last step before
+// unrounded output.
+const (
+	finerDigits    = 2
+	maxExtraDigits = 4
+)
+
+// checkRounding returns out, the rounded conversion of in, when it is a
+// valid outline, else the conversion of in with more decimals (see the
+// file comment).
+func (s *scene) checkRounding(in, out orb.MultiPolygon) orb.MultiPolygon {
+	if outlineValid(out) {
+		return out
+	}
+	if split, ok := splitPinches(out); ok && outlineValid(split) {
+		return split
+	}
+	if s.unrounded {
+		return out
+	}
+	return s.finer().multiPolygon(in)
+}
+
+// finer returns a scene converting points as s does with finerDigits more
+// decimals, or unrounded after maxExtraDigits.
+func (s *scene) finer() *scene {
+	f := &scene{l: s.l, a: s.a, m: s.m, grid: s.grid, extraDigits: s.extraDigits + finerDigits}
+	if s.extraDigits >= maxExtraDigits {
+		f.extraDigits, f.unrounded = s.extraDigits, true
+	}
+	return f
+}
+
+// roundOut rounds an output coordinate to d decimals plus the scene's
+// extra ones, or not at all for an unrounded scene.
+func (s *scene) roundOut(v float64, d int) float64 {
+	if s.unrounded {
+		if v == 0 {
+			return 0 // no negative zero in the outputs
+		}
+		return v
+	}
+	return round(v, d+s.extraDigits)
+}
+
+// outlineEdge is one edge of a written outline, for outlineValid.
+type outlineEdge struct {
+	ax, ay, bx, by float64
+	ring, idx, n   int32 // ring number, edge index in it, edges in it
+}
+
+// bruteForceEdges is the edge count up to which outlineValid compares all
+// pairs; beyond it only pairs of edges whose bounding boxes share a cell
+// of a uniform grid are compared.
+const bruteForceEdges = 24
+
+// edgesPerCell is the mean number of edges per grid cell outlineValid
+// aims at.
+const edgesPerCell = 4
+
+// outlineValid reports whether the closed rings of mp make the contacts
+// the file comment allows, and only those. Exact: orientation and dot
+// signs of the written coordinates. Two edges can meet only where their
+// bounding boxes overlap, so beyond bruteForceEdges each edge is listed in
+// the grid cells its box covers and a pair is compared in one cell only,
+// the one holding the lower-left corner of the overlap of their boxes.
+func outlineValid(mp orb.MultiPolygon) bool {
+	total := 0
+	for _, p := range mp {
+		for _, r := range p {
+			total += len(r) - 1
+		}
+	}
+	var small [bruteForceEdges]outlineEdge // no allocation for small outlines
+	edges := small[:0]
+	var sc *outlineScratch
+	if total > bruteForceEdges {
+		sc = outlineScratchPool.Get().(*outlineScratch)
+		defer outlineScratchPool.Put(sc)
+		edges = slices.Grow(sc.edges[:0], total)
+		defer func() { sc.edges = edges[:0] }()
+	}
+	ring := int32(0)
+	b := orb.Bound{Min: orb.Point{math.Inf(1), math.Inf(1)}, Max: orb.Point{math.Inf(-1), math.Inf(-1)}}
+	for _, p := range mp {
+		for _, r := range p {
+			n := int32(len(r) - 1)
+			for i := int32(0); i < n; i++ {
+				edges = append(edges, outlineEdge{r[i][0], r[i][1], r[i+1][0], r[i+1][1], ring, i, n})
+				b = b.Extend(r[i])
+			}
+			ring++
+		}
+	}
+	if len(edges) <= bruteForceEdges {
+		for i := range edges {
+			for j := i + 1; j < len(edges); j++ {
+				if !edgePairValid(&edges[i], &edges[j]) {
+					return false
+				}
+			}
+		}
+		return true
+	}
+	gr := outlineGrid{g: max(1, int(math.Sqrt(float64(len(edges)/edgesPerCell)))), b: b}
+	g := gr.g
+	if w := b.Max[0] - b.Min[0]; w > 0 {
+		gr.sx = float64(g) / w
+	}
+	if h := b.Max[1] - b.Min[1]; h > 0 {
+		gr.sy = float64(g) / h
+	}
+
+	// Cell lists in compressed rows: start[c] .. start[c+1] in list.
+	start := grownZero(&sc.start, g*g+1)
+	for i := range edges {
+		x0, y0, x1, y1 := gr.box(&edges[i])
+		for y := y0; y <= y1; y++ {
+			for x := x0; x <= x1; x++ {
+				start[y*g+x+1]++
+			}
+		}
+	}
+	for c := 1; c <= g*g; c++ {
+		start[c] += start[c-1]
+	}
+	list := grownZero(&sc.list, int(start[g*g]))
+	fill := append(grownZero(&sc.fill, 0), start[:g*g]...)
+	sc.fill = fill
+	for i := range edges {
+		x0, y0, x1, y1 := gr.box(&edges[i])
+		for y := y0; y <= y1; y++ {
+			for x := x0; x <= x1; x++ {
+				list[fill[y*g+x]] = int32(i)
+				fill[y*g+x]++
+			}
+		}
+	}
+	for c := range g * g {
+		in := list[start[c]:start[c+1]]
+		for k, i := range in {
+			e := &edges[i]
+			for _, j := range in[k+1:] {
+				f := &edges[j]
+				lx := max(min(e.ax, e.bx), min(f.ax, f.bx))
+				ly := max(min(e.ay, e.by), min(f.ay, f.by))
+				if gr.cell(ly, b.Min[1], gr.sy)*g+gr.cell(lx, b.Min[0], gr.sx) != c {
+					continue // compared in another cell, or the boxes are apart
+				}
+				if !edgePairValid(e, f) {
+					return false
+				}
+			}
+		}
+	}
+	return true
+}
+
+// outlineGrid is the uniform grid of outlineValid: g × g cells over the
+// box b, sx and sy cells per unit (0 for a box of no width or height).
+type outlineGrid struct {
+	g      int
+	b      orb.Bound
+	sx, sy float64
+}
+
+// cell is the column (or row) of coordinate v, for the box's low side lo
+// and s cells per unit.
+func (gr *outlineGrid) cell(v, lo, s float64) int {
+	return min(gr.g-1, max(0, int((v-lo)*s)))
+}
+
+// box returns the columns and rows of the cells an edge's box covers.
+func (gr *outlineGrid) box(e *outlineEdge) (x0, y0, x1, y1 int) {
+	return gr.cell(min(e.ax, e.bx), gr.b.Min[0], gr.sx), gr.cell(min(e.ay, e.by), gr.b.Min[1], gr.sy),
+		gr.cell(max(e.ax, e.bx), gr.b.Min[0], gr.sx), gr.cell(max(e.ay, e.by), gr.b.Min[1], gr.sy)
+}
+
+// outlineScratch holds outlineValid's buffers for large outlines, reused
+// through outlineScratchPool (a layer checks one outline after another).
+type outlineScratch struct {
+	edges             []outlineEdge
+	start, list, fill []int32
+}
+
+var outlineScratchPool = sync.Pool{New: func() any { return new(outlineScratch) }}
+
+// grownZero returns (*buf)[:n] zeroed, growing *buf when needed.
+func grownZero(buf *[]int32, n int) []int32 {
+	if cap(*buf) < n {
+		*buf = make([]int32, n)
+	}
+	*buf = (*buf)[:n]
+	clear(*buf)
+	return *buf
+}
+
+// edgePairValid reports whether two edges of a written outline meet only
+// as the file comment allows.
+func edgePairValid(e, f *outlineEdge) bool {
+	if e.ring == f.ring {
+		switch {
+		case f.idx == e.idx+1 || (e.idx == f.n-1 && f.idx == 0):
+			return !foldsBack(e.ax, e.ay, e.bx, e.by, f.bx, f.by)
+		case e.idx == f.idx+1 || (f.idx == e.n-1 && e.idx == 0):
+			return !foldsBack(f.ax, f.ay, f.bx, f.by, e.bx, e.by)
+		}
+	}
+	if boxesApart(e, f) || !planar.SegmentsMeet(e.ax, e.ay, e.bx, e.by, f.ax, f.ay, f.bx, f.by) {
+		return true
+	}
+	if e.ring == f.ring {
+		return false
+	}
+	// They meet: only at a vertex both have, without overlapping.
+	for _, v := range [2][2]float64{{e.ax, e.ay}, {e.bx, e.by}} {
+		for _, w := range [2][2]float64{{f.ax, f.ay}, {f.bx, f.by}} {
+			if v != w {
+				continue
+			}
+			ox, oy := e.ax, e.ay // e's other end
+			if v == [2]float64{e.ax, e.ay} {
+				ox, oy = e.bx, e.by
+			}
+			px, py := f.ax, f.ay // f's other end
+			if w == [2]float64{f.ax, f.ay} {
+				px, py = f.bx, f.by
+			}
+			return planar.Orient2D(v[0], v[1], ox, oy, px, py) != 0 || planar.DotSign(ox, oy, px, py, v[0], v[1]) <= 0
+		}
+	}
+	return false
+}
+
+// boxesApart reports whether the bounding boxes of two edges are disjoint
+// (plain comparisons: the common case, kept out of SegmentsMeet's call).
+func boxesApart(e, f *outlineEdge) bool {
+	return max(e.ax, e.bx) < min(f.ax, f.bx) || max(f.ax, f.bx) < min(e.ax, e.bx) ||
+		max(e.ay, e.by) < min(f.ay, f.by) || max(f.ay, f.by) < min(e.ay, e.by)
+}
+
+// foldsBack reports whether the edge from (bx, by) to (cx, cy) following
+// the edge from (ax, ay) runs back along it (a spike): c on the line ab on
+// the side of a as seen from b.
+func foldsBack(ax, ay, bx, by, cx, cy float64) bool {
+	return planar.Orient2D(ax, ay, bx, by, cx, cy) == 0 && planar.DotSign(ax, ay, cx, cy, bx, by) > 0
+}
+
+// splitPinches splits every ring of mp that passes through a position
+// more than once into its loops (each visit closes the loop since the
+// last), then rebuilds the polygons: a loop turning as its ring did keeps
+// the ring's role, one turning the other way takes the other role (a loop
+// of an exterior ring turning clockwise is a hole of that polygon, a loop
+// of a hole turning counter-clockwise an island, a polygon of its own);
+// each hole goes to the smallest exterior ring of its polygon's loops that
+// contains it. Loops of zero area (spikes) are dropped. ok is false when
+// no ring repeats a position.
+func splitPinches(mp orb.MultiPolygon) (out orb.MultiPolygon, ok bool) {
+	for _, p := range mp {
+		var shells, holes []orb.Ring
+		for _, r := range p {
+			loops := ringLoops(r)
+			if len(loops) > 1 {
+				ok = true
+			}
+			for _, l := range loops {
+				// The rings are written oriented (exterior rings
+				// counter-clockwise, holes clockwise), so a loop's
+				// turn is its role.
+				switch a := planar.RingArea(planar.FlatRing(l)); {
+				case a > 0:
+					shells = append(shells, l)
+				case a < 0:
+					holes = append(holes, l)
+				}
+			}
+		}
+		out = append(out, assignHoles(shells, holes)...)
+	}
+	return out, ok
+}
+
+// ringLoops splits a closed ring at its repeated positions into closed
+// loops: walking the ring, a position already on the path closes the loop
+// from its earlier visit.
+func ringLoops(r orb.Ring) []orb.Ring {
+	var loops []orb.Ring
+	path := make([]orb.Point, 0, len(r))
+	at := make(map[orb.Point]int, len(r))
+	for _, q := range r[:len(r)-1] {
+		if i, seen := at[q]; seen {
+			loop := append(slices.Clone(path[i:]), q)
+			loops = append(loops, loop)
+			for _, x := range path[i+1:] {
+				delete(at, x)
+			}
+			path = path[:i+1]
+			continue
+		}
+		at[q] = len(path)
+		path = append(path, q)
+	}
+	return append(loops, append(path, path[0]))
+}
+
+// assignHoles makes polygons of shells (counter-clockwise) and gives each
+// hole to the smallest shell containing it (decided at the first of its
+// vertices not on that shell's boundary), with one shell without a test;
+// a hole in no shell is dropped.
+func assignHoles(shells, holes []orb.Ring) orb.MultiPolygon {
+	out := make(orb.MultiPolygon, len(shells))
+	flat := make([][]float64, len(shells))
+	area := make([]float64, len(shells))
+	for i, sh := range shells {
+		out[i] = orb.Polygon{sh}
+		flat[i] = planar.FlatRing(sh)
+		area[i] = planar.RingArea(flat[i])
+	}
+	for _, h := range holes {
+		if len(shells) == 1 {
+			out[0] = append(out[0], h)
+			continue
+		}
+		best := -1
+		for i := range shells {
+			if (best < 0 || area[i] < area[best]) && ringInside(h, flat[i]) {
+				best = i
+			}
+		}
+		if best >= 0 {
+			out[best] = append(out[best], h)
+		}
+	}
+	return out
+}
+
+// ringInside reports whether ring h lies inside the ring xy: its first
+// vertex not on xy's boundary is inside (PointInRing, exact).
+func ringInside(h orb.Ring, xy []float64) bool {
+	for _, q := range h {
+		if w := planar.PointInRing(xy, q[0], q[1]); w != 0 {
+			return w > 0
+		}
+	}
+	return false
+}

@@ -1,0 +1,111 @@
+// Tests of the written-outline check and pinch splitting (outline.go): the
+// contacts GEOS's IsValid accepts and refuses, on hand-made rings.
+
+package report
+
+import (
+	"testing"
+
+	"github.com/paulmach/orb"
+)
+
+// closed returns the ring through pts, closed.
+func closed(pts ...float64) orb.Ring {
+	var r orb.Ring
+	for i := 0; i+1 < len(pts); i += 2 {
+		r = append(r, orb.Point{pts[i], pts[i+1]})
+	}
+	return append(r, r[0])
+}
+
+// bigSquare is a counter-clockwise ring with many vertices on its edges,
+// so outlineValid takes its grid path.
+func bigSquare(side float64, per int) orb.Ring {
+	var pts []float64
+	for k := range 4 * per {
+		t := side * float64(k%per) / float64(per)
+		switch k / per {
+		case 0:
+			pts = append(pts, t, 0)
+		case 1:
+			pts = append(pts, side, t)
+		case 2:
+			pts = append(pts, side-t, side)
+		default:
+			pts = append(pts, 0, side-t)
+		}
+	}
+	return closed(pts...)
+}
+
+func TestOutlineValid(t *testing.T) {
+	sq := closed(0, 0, 10, 0, 10, 10, 0, 10)
+	hole := func(pts ...float64) orb.Ring { // clockwise
+		r := closed(pts...)
+		for i, j := 0, len(r)-1; i < j; i, j = i+1, j-1 {
+			r[i], r[j] = r[j], r[i]
+		}
+		return r
+	}
+	big := bigSquare(100, 20)
+	cases := []struct {
+		name string
+		mp   orb.MultiPolygon
+		want bool
+	}{
+		// Valid in GEOS.
+		{"square", orb.MultiPolygon{{sq}}, true},
+		{"square with hole", orb.MultiPolygon{{sq, hole(2, 2, 4, 2, 4, 4, 2, 4)}}, true},
+		{"hole touching the exterior at a shared vertex", orb.MultiPolygon{{closed(0, 0, 10, 0, 10, 10, 0, 10, 0, 5), hole(0, 5, 4, 4, 4, 6)}}, true},
+		{"polygons touching at a corner", orb.MultiPolygon{{sq}, {closed(10, 10, 20, 10, 20, 20, 10, 20)}}, true},
+		{"large ring with hole (grid path)", orb.MultiPolygon{{big, hole(40, 40, 60, 40, 60, 60, 40, 60)}}, true},
+		// Invalid in GEOS.
+		{"bow-tie", orb.MultiPolygon{{closed(0, 0, 10, 10, 10, 0, 0, 10)}}, false},
+		{"spike", orb.MultiPolygon{{closed(0, 0, 10, 0, 20, 0, 15, 0, 10, 10)}}, false},
+		{"ring touching itself at a vertex", orb.MultiPolygon{{closed(0, 0, 10, 0, 5, 5, 10, 10, 0, 10, 5, 5)}}, false},
+		{"hole along the exterior edge", orb.MultiPolygon{{sq, hole(0, 2, 4, 2, 4, 4, 0, 4)}}, false},
+		{"hole crossing the exterior", orb.MultiPolygon{{sq, hole(-1, 2, 4, 2, 4, 4, -1, 4)}}, false},
+		{"polygons sharing an edge", orb.MultiPolygon{{sq}, {closed(10, 0, 20, 0, 20, 10, 10, 10)}}, false},
+		{"large ring crossed by a hole (grid path)", orb.MultiPolygon{{big, hole(40, -1, 60, -1, 60, 60, 40, 60)}}, false},
+		{"large ring with a hole vertex on its edge (grid path)", orb.MultiPolygon{{big, hole(42.5, 0, 60, 40, 40, 40)}}, false},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			if got := outlineValid(c.mp); got != c.want {
+				t.Errorf("outlineValid = %v, want %v", got, c.want)
+			}
+		})
+	}
+}
+
+func TestSplitPinches(t *testing.T) {
+	cases := []struct {
+		name        string
+		mp          orb.MultiPolygon
+		polys       int
+		holes       int
+		splitNeeded bool
+	}{
+		{"figure eight: two polygons touching at a point", orb.MultiPolygon{{closed(0, 0, 10, 0, 5, 5, 10, 10, 0, 10, 5, 5)}}, 2, 0, true},
+		{"inverted hole: a hole touching its polygon's boundary", orb.MultiPolygon{{closed(0, 0, 10, 0, 10, 10, 0, 10, 0, 5, 4, 6, 4, 4, 0, 5)}}, 1, 1, true},
+		{"no repeated position", orb.MultiPolygon{{closed(0, 0, 10, 0, 10, 10)}}, 1, 0, false},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			out, ok := splitPinches(c.mp)
+			if ok != c.splitNeeded {
+				t.Fatalf("split %v, want %v", ok, c.splitNeeded)
+			}
+			holes := 0
+			for _, p := range out {
+				holes += len(p) - 1
+			}
+			if len(out) != c.polys || holes != c.holes {
+				t.Errorf("%d polygons with %d holes, want %d with %d: %v", len(out), holes, c.polys, c.holes, out)
+			}
+			if ok && !outlineValid(out) {
+				t.Errorf("split outline still invalid: %v", out)
+			}
+		})
+	}
+}
