@@ -88,7 +88,7 @@ func (s *planScene) failuresLayer() *layerDef {
 	if own {
 		f = append(f, "hidden", gpkg.Boolean)
 	}
-	return &layerDef{geom: gpkg.Point,
+	return s.withAttributes(&layerDef{geom: gpkg.Point,
 		fields: fieldList(f...),
 		each: func(emit emitFunc) error {
 			for k, d := range fr.Devices {
@@ -104,7 +104,7 @@ func (s *planScene) failuresLayer() *layerDef {
 				}
 			}
 			return nil
-		}}
+		}}, 1)
 }
 
 // failureRange is the planned range of device i in the failures outputs:
@@ -148,7 +148,7 @@ func (s *planScene) loadLayer() *layerDef {
 	if own {
 		f = append(f, "range_m", gpkg.Real, "hidden", gpkg.Boolean)
 	}
-	return &layerDef{geom: gpkg.Point,
+	return s.withAttributes(&layerDef{geom: gpkg.Point,
 		fields: fieldList(f...),
 		each: func(emit emitFunc) error {
 			for i, ld := range a.Load {
@@ -165,7 +165,7 @@ func (s *planScene) loadLayer() *layerDef {
 				}
 			}
 			return nil
-		}}
+		}}, 0)
 }
 
 // csvTable writes the rows of one CSV file to a stream.

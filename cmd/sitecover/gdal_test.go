@@ -35,9 +35,9 @@ var demoLayerFields = map[string][]string{
 	"hole_closings":    {"birth_m", "death_m", "lifetime_m", "note", "birth_sites"},
 	"proposed_devices": {"n", "full_cover_before_m", "full_cover_after_m", "covered_fraction_before", "covered_fraction_after", "uncovered_before_m2", "uncovered_after_m2", "range_m"},
 	"candidates":       {"candidate", "name", "picked", "pick_order", "gain_m2", "range_m"},
-	"failures":         {"rank", "site", "name", "shared", "service_area_m2", "added_uncovered_m2", "uncovered_area_m2", "closing_range_m", "deepest_lon", "deepest_lat", "backup", "full_cover_range_m", "range_m"},
+	"failures":         {"rank", "site", "name", "shared", "service_area_m2", "added_uncovered_m2", "uncovered_area_m2", "closing_range_m", "deepest_lon", "deepest_lat", "backup", "full_cover_range_m", "range_m", "id"},
 	"assignment":       {"point", "name", "device", "device_name", "distance_m", "within_range", "weight"},
-	"device_load":      {"device", "name", "count", "weight", "in_range", "in_range_weight"},
+	"device_load":      {"device", "name", "count", "weight", "in_range", "in_range_weight", "id"},
 	"covered":          {"part", "outline_area_m2", "range_m"},
 }
 
