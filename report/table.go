@@ -36,6 +36,17 @@ type table struct {
 	// the cells of row i (see rows).
 	n    int
 	fill func(i int)
+	// measuring is set while write fills rows only to measure widths.
+	measuring bool
+}
+
+// lastUnmeasured reports whether fill is being called only to measure the
+// column widths and the last column is left-aligned: no line pads that
+// column, so its width is not needed and a fill may leave its last cell
+// empty (ending it with cell) instead of formatting it twice, e.g. a
+// list of device names.
+func (t *table) lastUnmeasured() bool {
+	return t.measuring && t.isLeft[len(t.isLeft)-1]
 }
 
 // rows gives the body as n rows, fill(i) adding the cells of row i with
@@ -124,10 +135,12 @@ func (t *table) write(b *textBuf) {
 	rows := len(t.ends) / n
 	if t.fill != nil {
 		rows = t.n
+		t.measuring = true
 		for i := range t.n {
 			t.fillRow(i)
 			measure()
 		}
+		t.measuring = false
 	} else {
 		measure()
 	}

@@ -70,3 +70,22 @@ func BenchmarkAnalyze100kCSVPlanarNoMaps(b *testing.B) {
 	b.ResetTimer()
 	benchRun(b, "analyze", "--planar", "--sites", xy, "--range", "30", "--out", out, "--no-maps")
 }
+
+// BenchmarkAnalyzeFilePlanarNoMaps runs analyze --planar --no-maps on the
+// CSV file named by SITECOVER_BENCH_SITES at the range SITECOVER_BENCH_RANGE
+// (default 100), for profiling whole runs on large generated layouts, e.g.
+//
+//	SITECOVER_BENCH_SITES=/tmp/s1e6.csv go test -run XXX -bench AnalyzeFile -benchtime 1x -cpuprofile cpu.out ./cmd/sitecover
+func BenchmarkAnalyzeFilePlanarNoMaps(b *testing.B) {
+	sites := os.Getenv("SITECOVER_BENCH_SITES")
+	if sites == "" {
+		b.Skip("SITECOVER_BENCH_SITES is not set")
+	}
+	rng := os.Getenv("SITECOVER_BENCH_RANGE")
+	if rng == "" {
+		rng = "100"
+	}
+	out := filepath.Join(b.TempDir(), "out")
+	b.ResetTimer()
+	benchRun(b, "analyze", "--planar", "--sites", sites, "--range", rng, "--out", out, "--no-maps")
+}
