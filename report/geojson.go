@@ -45,9 +45,10 @@ import (
 // gathers in a small buffer that is handed on whenever it passes
 // geoJSONFlush bytes, so a layer is never held whole in memory.
 type geoJSON struct {
-	w io.Writer
-	b []byte
-	n int
+	w   io.Writer
+	b   []byte
+	n   int
+	err error // the first write error
 }
 
 // geoJSONFlush is the buffered size at which a layer's text is written on:
@@ -73,7 +74,7 @@ func (l *geoJSON) feature(g orb.Geometry, fields []gpkg.Field, vals []any) error
 	}
 	l.n++
 	l.b = append(l.b, "\n"+`{"type":"Feature","geometry":`...)
-	l.b = appendGeometry(l.b, g)
+	l.geometry(g)
 	l.b = append(l.b, `,"properties":{`...)
 	for i, f := range fields {
 		l.b = kv(l.b, f.Name, i == 0)
@@ -87,12 +88,46 @@ func (l *geoJSON) feature(g orb.Geometry, fields []gpkg.Field, vals []any) error
 		}
 	}
 	l.b = append(l.b, "}}"...)
+	l.spill()
+	return l.err
+}
+
+// spill writes the buffered text on once it passes geoJSONFlush bytes.
+func (l *geoJSON) spill() {
 	if len(l.b) < geoJSONFlush {
-		return nil
+		return
 	}
-	_, err := l.w.Write(l.b)
+	if l.err == nil {
+		_, l.err = l.w.Write(l.b)
+	}
 	l.b = l.b[:0]
-	return err
+}
+
+// geometry appends g as appendGeometry does, writing on between the rings
+// of a multipolygon, so that a single huge feature (the covered area of a
+// large site is one polygon with a hole per gap) never gathers whole.
+func (l *geoJSON) geometry(g orb.Geometry) {
+	mp, ok := g.(orb.MultiPolygon)
+	if !ok {
+		l.b = appendGeometry(l.b, g)
+		return
+	}
+	l.b = append(l.b, `{"type":"MultiPolygon","coordinates":[`...)
+	for i, p := range mp {
+		if i > 0 {
+			l.b = append(l.b, ',')
+		}
+		l.b = append(l.b, '[')
+		for k, r := range p {
+			if k > 0 {
+				l.b = append(l.b, ',')
+			}
+			l.b = appendRing(l.b, r)
+			l.spill()
+		}
+		l.b = append(l.b, ']')
+	}
+	l.b = append(l.b, "]}"...)
 }
 
 // hasDecimalMark reports whether a written number has a decimal point or
@@ -109,9 +144,11 @@ func hasDecimalMark(num []byte) bool {
 // close ends the collection and writes what is left.
 func (l *geoJSON) close() error {
 	l.b = append(l.b, "\n]}\n"...)
-	_, err := l.w.Write(l.b)
+	if l.err == nil {
+		_, l.err = l.w.Write(l.b)
+	}
 	l.b = nil
-	return err
+	return l.err
 }
 
 // appendValue appends one property value.
@@ -160,20 +197,25 @@ func appendGeometry(b []byte, g orb.Geometry) []byte {
 				if k > 0 {
 					b = append(b, ',')
 				}
-				b = append(b, '[')
-				for j, q := range r {
-					if j > 0 {
-						b = append(b, ',')
-					}
-					b = appendPos(b, q)
-				}
-				b = append(b, ']')
+				b = appendRing(b, r)
 			}
 			b = append(b, ']')
 		}
 		b = append(b, ']')
 	}
 	return append(b, '}')
+}
+
+// appendRing appends the positions of a ring as a JSON array.
+func appendRing(b []byte, r orb.Ring) []byte {
+	b = append(b, '[')
+	for j, q := range r {
+		if j > 0 {
+			b = append(b, ',')
+		}
+		b = appendPos(b, q)
+	}
+	return append(b, ']')
 }
 
 func appendPos(b []byte, p orb.Point) []byte {
