@@ -12,8 +12,11 @@ import (
 	"math/rand/v2"
 	"os"
 	"path/filepath"
+	"runtime/metrics"
+	"runtime/pprof"
 	"strings"
 	"testing"
+	"time"
 )
 
 // benchInputs writes n random sites over about 10 km × 10 km as a
@@ -86,6 +89,43 @@ func BenchmarkAnalyzeFilePlanarNoMaps(b *testing.B) {
 		rng = "100"
 	}
 	out := filepath.Join(b.TempDir(), "out")
+	if path := os.Getenv("SITECOVER_BENCH_PEAKHEAP"); path != "" {
+		stop := peakHeapProfiles(b, path)
+		defer stop()
+	}
 	b.ResetTimer()
 	benchRun(b, "analyze", "--planar", "--sites", sites, "--range", rng, "--out", out, "--no-maps")
+}
+
+// peakHeapProfiles writes a heap profile to path whenever the live heap
+// after a collection (runtime/metrics /gc/heap/live:bytes) reaches a new
+// high, checked every 100 ms, so that path ends up describing the heap at
+// about its peak; the returned function stops the checks.
+func peakHeapProfiles(b *testing.B, path string) (stop func()) {
+	b.Helper()
+	done := make(chan struct{})
+	finished := make(chan struct{})
+	go func() {
+		defer close(finished)
+		sample := []metrics.Sample{{Name: "/gc/heap/live:bytes"}}
+		var high uint64
+		tick := time.NewTicker(100 * time.Millisecond)
+		defer tick.Stop()
+		for {
+			select {
+			case <-done:
+				return
+			case <-tick.C:
+			}
+			metrics.Read(sample)
+			if v := sample[0].Value.Uint64(); v > high {
+				high = v
+				if f, err := os.Create(path); err == nil {
+					pprof.Lookup("heap").WriteTo(f, 0)
+					f.Close()
+				}
+			}
+		}
+	}()
+	return func() { close(done); <-finished }
 }
