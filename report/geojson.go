@@ -25,7 +25,6 @@
 package report
 
 import (
-	"bytes"
 	"cmp"
 	"fmt"
 	"io"
@@ -48,13 +47,16 @@ import (
 // gathers in a small buffer that is handed on whenever it passes
 // geoJSONFlush bytes, so a layer is never held whole in memory.
 type geoJSON struct {
-	w io.Writer
-	b []byte
-	n int
+	w   io.Writer
+	b   []byte
+	n   int
+	err error // the first write error
 }
 
-// geoJSONFlush is the buffered size at which a layer's text is written on.
-const geoJSONFlush = 64 << 10
+// geoJSONFlush is the buffered size at which a layer's text is written on:
+// the size of the stream's buffer (streamBuffer), so that bufio hands each
+// chunk straight to the file instead of copying it once more.
+const geoJSONFlush = streamBuffer
 
 func (s *scene) newGeoJSON(w io.Writer) *geoJSON {
 	l := &geoJSON{w: w, b: make([]byte, 0, 2*geoJSONFlush)}
@@ -76,13 +78,13 @@ func (l *geoJSON) feature(g orb.Geometry, fields []gpkg.Field, vals []any) error
 	}
 	l.n++
 	l.b = append(l.b, "\n"+`{"type":"Feature","geometry":`...)
-	l.b = appendGeometry(l.b, g)
+	l.geometry(g)
 	l.b = append(l.b, `,"properties":{`...)
 	for i, f := range fields {
 		l.b = kv(l.b, f.Name, i == 0)
 		n := len(l.b)
 		l.b = appendValue(l.b, vals[i])
-		if f.Type == gpkg.Real && vals[i] != nil && !bytes.ContainsAny(l.b[n:], ".en") {
+		if f.Type == gpkg.Real && vals[i] != nil && !hasDecimalMark(l.b[n:]) {
 			// A whole number in a REAL field keeps a decimal point, so a
 			// reader that guesses types (GDAL) makes the field real, as in
 			// the GeoPackage, whatever the values.
@@ -90,20 +92,67 @@ func (l *geoJSON) feature(g orb.Geometry, fields []gpkg.Field, vals []any) error
 		}
 	}
 	l.b = append(l.b, "}}"...)
+	l.spill()
+	return l.err
+}
+
+// spill writes the buffered text on once it passes geoJSONFlush bytes.
+func (l *geoJSON) spill() {
 	if len(l.b) < geoJSONFlush {
-		return nil
+		return
 	}
-	_, err := l.w.Write(l.b)
+	if l.err == nil {
+		_, l.err = l.w.Write(l.b)
+	}
 	l.b = l.b[:0]
-	return err
+}
+
+// geometry appends g as appendGeometry does, writing on between the rings
+// of a multipolygon, so that a single huge feature (the covered area of a
+// large site is one polygon with a hole per gap) never gathers whole.
+func (l *geoJSON) geometry(g orb.Geometry) {
+	mp, ok := g.(orb.MultiPolygon)
+	if !ok {
+		l.b = appendGeometry(l.b, g)
+		return
+	}
+	l.b = append(l.b, `{"type":"MultiPolygon","coordinates":[`...)
+	for i, p := range mp {
+		if i > 0 {
+			l.b = append(l.b, ',')
+		}
+		l.b = append(l.b, '[')
+		for k, r := range p {
+			if k > 0 {
+				l.b = append(l.b, ',')
+			}
+			l.b = appendRing(l.b, r)
+			l.spill()
+		}
+		l.b = append(l.b, ']')
+	}
+	l.b = append(l.b, "]}"...)
+}
+
+// hasDecimalMark reports whether a written number has a decimal point or
+// an exponent, or is the word null (the bytes '.', 'e', 'n').
+func hasDecimalMark(num []byte) bool {
+	for _, c := range num {
+		if c == '.' || c == 'e' || c == 'n' {
+			return true
+		}
+	}
+	return false
 }
 
 // close ends the collection and writes what is left.
 func (l *geoJSON) close() error {
 	l.b = append(l.b, "\n]}\n"...)
-	_, err := l.w.Write(l.b)
+	if l.err == nil {
+		_, l.err = l.w.Write(l.b)
+	}
 	l.b = nil
-	return err
+	return l.err
 }
 
 // appendValue appends one property value.
@@ -152,20 +201,25 @@ func appendGeometry(b []byte, g orb.Geometry) []byte {
 				if k > 0 {
 					b = append(b, ',')
 				}
-				b = append(b, '[')
-				for j, q := range r {
-					if j > 0 {
-						b = append(b, ',')
-					}
-					b = appendPos(b, q)
-				}
-				b = append(b, ']')
+				b = appendRing(b, r)
 			}
 			b = append(b, ']')
 		}
 		b = append(b, ']')
 	}
 	return append(b, '}')
+}
+
+// appendRing appends the positions of a ring as a JSON array.
+func appendRing(b []byte, r orb.Ring) []byte {
+	b = append(b, '[')
+	for j, q := range r {
+		if j > 0 {
+			b = append(b, ',')
+		}
+		b = appendPos(b, q)
+	}
+	return append(b, ']')
 }
 
 func appendPos(b []byte, p orb.Point) []byte {
@@ -200,27 +254,41 @@ func appendNum(b []byte, v float64) []byte {
 }
 
 // appendDecimal7 appends n/10⁷ in plain decimal without trailing zeros.
+// The digits are produced right to left into a local array: the integer
+// part of |n|/10⁷ < 10¹² has at most 12 digits, with sign, point and 7
+// decimals at most 21 bytes.
 func appendDecimal7(b []byte, n int64) []byte {
 	if n < 0 {
 		b = append(b, '-')
 		n = -n
 	}
-	b = strconv.AppendInt(b, n/1e7, 10)
-	frac := n % 1e7
-	if frac == 0 {
-		return b
+	var d [24]byte
+	i := len(d)
+	u := uint64(n)
+	ip, frac := u/1e7, u%1e7
+	if frac != 0 {
+		k := 7
+		for frac%10 == 0 {
+			frac /= 10
+			k--
+		}
+		for ; k > 0; k-- {
+			i--
+			d[i] = byte('0' + frac%10)
+			frac /= 10
+		}
+		i--
+		d[i] = '.'
 	}
-	var d [8]byte
-	d[0] = '.'
-	for i := 7; i >= 1; i-- {
-		d[i] = byte('0' + frac%10)
-		frac /= 10
+	for {
+		i--
+		d[i] = byte('0' + ip%10)
+		ip /= 10
+		if ip == 0 {
+			break
+		}
 	}
-	k := 8
-	for d[k-1] == '0' {
-		k--
-	}
-	return append(b, d[:k]...)
+	return append(b, d[i:]...)
 }
 
 // appendStr appends s as a JSON string (invalid UTF-8 replaced by U+FFFD).
@@ -287,8 +355,9 @@ func (s *scene) serviceAreasLayer() *layerDef {
 	return s.withAttributes(&layerDef{geom: gpkg.MultiPolygon,
 		fields: fieldList(append(f, "merged", gpkg.Text)...),
 		each: func(emit emitFunc) error {
+			var buf polyBuf
 			for i, c := range s.cells {
-				mp := s.multiPolygon(s.l.Cells.Polygons(c.Vertex))
+				mp := s.cellPolygons(&buf, c.Vertex)
 				if len(mp) == 0 {
 					continue
 				}
@@ -312,8 +381,9 @@ func (s *scene) gapFields() []gpkg.Field {
 func (s *scene) gapLayer(gaps []coverage.Gap, r float64, deepest func(i int) Point) *layerDef {
 	return &layerDef{geom: gpkg.MultiPolygon, fields: s.gapFields(),
 		each: func(emit emitFunc) error {
+			var buf polyBuf
 			for gi, g := range gaps {
-				mp := s.multiPolygon(g.Outline)
+				mp := s.multiPolygonInto(&buf, g.Outline)
 				if len(mp) == 0 {
 					continue
 				}
@@ -367,8 +437,9 @@ func (s *scene) coveredLayer() *layerDef {
 			}
 			slices.SortStableFunc(order, func(a, b int) int { return cmp.Compare(area[b], area[a]) })
 			n := 0
+			var buf polyBuf
 			for _, i := range order {
-				mp := s.multiPolygon(orb.MultiPolygon{parts[i]})
+				mp := s.multiPolygonInto(&buf, orb.MultiPolygon{parts[i]})
 				if len(mp) == 0 {
 					continue
 				}
@@ -382,46 +453,112 @@ func (s *scene) coveredLayer() *layerDef {
 }
 
 // multiPolygon converts a local-plane multipolygon to output coordinates,
-// rounded, repaired and oriented (exterior CCW, holes CW).
+// rounded, repaired, oriented (exterior CCW, holes CW) and checked valid
+// (checkRounding), into memory of its own.
 func (s *scene) multiPolygon(in orb.MultiPolygon) orb.MultiPolygon {
-	out := orb.MultiPolygon{}
-	for _, poly := range in {
-		var op orb.Polygon
-		for k, ring := range poly {
-			r := s.ring(ring, k == 0)
-			if r == nil {
-				if k == 0 {
-					break
-				}
-				continue
-			}
-			op = append(op, r)
-		}
-		if len(op) > 0 {
-			out = append(out, op)
-		}
+	var b polyBuf
+	if mp := s.multiPolygonInto(&b, in); len(mp) > 0 {
+		return mp
 	}
-	return s.checkRounding(in, out)
+	return orb.MultiPolygon{}
 }
 
-// ring converts one ring; nil when it degenerates after rounding.
+// polyBuf is the memory of the output multipolygon of one feature, reused
+// from feature to feature by a layer producer (emit encodes a feature
+// before it returns, so nothing refers to it afterwards): a layer of 10⁶
+// service areas then costs a few growing slices instead of several
+// allocations per ring.
+type polyBuf struct {
+	pts   []orb.Point   // the rings' positions, ring after ring
+	rings []orb.Ring    // the kept rings, slices of pts
+	polys []orb.Polygon // the kept polygons, slices of rings
+}
+
+// reset empties b for the next feature; the multipolygon it held is
+// overwritten from here on.
+func (b *polyBuf) reset() {
+	b.pts, b.rings, b.polys = b.pts[:0], b.rings[:0], b.polys[:0]
+}
+
+// multiPolygonInto is multiPolygon into the memory of b (valid until b is
+// used again).
+func (s *scene) multiPolygonInto(b *polyBuf, in orb.MultiPolygon) orb.MultiPolygon {
+	b.reset()
+	for _, poly := range in {
+		r0 := len(b.rings)
+		for k, ring := range poly {
+			if !s.addRing(b, planar.FlatRing(ring), k == 0) && k == 0 {
+				break
+			}
+		}
+		b.endPolygon(r0)
+	}
+	return s.checkRounding(in, b.polys)
+}
+
+// cellPolygons is multiPolygon of the clipped cell of vertex v, read from
+// the flat cell arrays without building the orb value first.
+func (s *scene) cellPolygons(b *polyBuf, v int32) orb.MultiPolygon {
+	b.reset()
+	c := s.l.Cells
+	for p := c.SiteStart[v]; p < c.SiteStart[v+1]; p++ {
+		r0 := len(b.rings)
+		for k := c.PolyStart[p]; k < c.PolyStart[p+1]; k++ {
+			xy, _ := c.Ring(int(k))
+			if !s.addRing(b, xy, k == c.PolyStart[p]) && k == c.PolyStart[p] {
+				break
+			}
+		}
+		b.endPolygon(r0)
+	}
+	if outlineValid(b.polys) {
+		return b.polys
+	}
+	return s.checkRounding(c.Polygons(v), b.polys)
+}
+
+// ring converts one ring as addRing does, into memory of its own; nil
+// when it degenerates.
 func (s *scene) ring(in orb.Ring, exterior bool) orb.Ring {
-	r := make(orb.Ring, len(in), len(in)+1)
-	for i, p := range in {
-		r[i] = orb.Point(s.point(p))
-	}
-	r = planar.DropRepeats(r) // rounding may repeat points
-	if len(r) < 3 {
+	var b polyBuf
+	if !s.addRing(&b, planar.FlatRing(in), exterior) {
 		return nil
 	}
-	a := planar.RingArea(planar.FlatRing(r))
+	return b.rings[0]
+}
+
+// endPolygon keeps the rings from index r0 on as one polygon, if any.
+func (b *polyBuf) endPolygon(r0 int) {
+	if n := len(b.rings); n > r0 {
+		b.polys = append(b.polys, b.rings[r0:n:n])
+	}
+}
+
+// addRing converts one ring (interleaved local coordinates, closed or
+// not) to output coordinates and keeps it in b, closed; false, keeping
+// nothing, when it degenerates after rounding (fewer than three distinct
+// positions, or zero area).
+func (s *scene) addRing(b *polyBuf, xy []float64, exterior bool) bool {
+	start := len(b.pts)
+	for i := 0; i+1 < len(xy); i += 2 {
+		b.pts = append(b.pts, orb.Point(s.point(orb.Point{xy[i], xy[i+1]})))
+	}
+	r := planar.DropRepeats(b.pts[start:]) // rounding may repeat points
+	a := 0.0
+	if len(r) >= 3 {
+		a = planar.RingArea(planar.FlatRing(r))
+	}
 	if a == 0 {
-		return nil
+		b.pts = b.pts[:start]
+		return false
 	}
 	if (a > 0) != exterior {
 		for i, j := 0, len(r)-1; i < j; i, j = i+1, j-1 {
 			r[i], r[j] = r[j], r[i]
 		}
 	}
-	return append(r, r[0])
+	b.pts = append(b.pts[:start+len(r)], r[0])
+	end := len(b.pts)
+	b.rings = append(b.rings, b.pts[start:end:end])
+	return true
 }

@@ -1103,3 +1103,36 @@ func TestAppendNumMatchesStrconv(t *testing.T) {
 		}
 	}
 }
+
+// TestSummaryCapped checks that SummaryCapped caps the long lists at
+// SummaryListMax, keeps the totals, and otherwise agrees with Summary.
+func TestSummaryCapped(t *testing.T) {
+	var sites []orb.Point
+	for i := range 40 {
+		for j := range 40 {
+			sites = append(sites, orb.Point{float64(10*i) + 0.5*float64(j%3), float64(10*j) + 0.5*float64(i%2)})
+		}
+	}
+	a := analyze(t, sites, region(t, square(400)), 3)
+	full, capped := Summary(a, Meta{Planar: true}), SummaryCapped(a, Meta{Planar: true})
+	for _, c := range []struct {
+		name                string
+		full, capped, total int
+	}{
+		{"cells", len(full.Cells), len(capped.Cells), capped.CellsTotal},
+		{"gaps", len(full.Gaps), len(capped.Gaps), capped.GapsTotal},
+		{"holes", len(full.Holes), len(capped.Holes), capped.HolesTotal},
+	} {
+		t.Run(c.name, func(t *testing.T) {
+			if c.full != c.total || c.capped != min(c.total, SummaryListMax) {
+				t.Errorf("full list %d, capped %d, total %d (cap %d)", c.full, c.capped, c.total, SummaryListMax)
+			}
+		})
+	}
+	if len(full.Cells) <= SummaryListMax {
+		t.Fatalf("only %d cells: the test needs more than %d", len(full.Cells), SummaryListMax)
+	}
+	if f, c := full.Cells[SummaryListMax-1], capped.Cells[SummaryListMax-1]; f.Site != c.Site || f.AreaM2 != c.AreaM2 || full.CoveredFraction != capped.CoveredFraction {
+		t.Errorf("capped document differs from the full one in its kept entries")
+	}
+}

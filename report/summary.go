@@ -255,6 +255,17 @@ func Summary(a *coverage.Analysis, m Meta) *SummaryDoc {
 	return s.summary()
 }
 
+// SummaryCapped builds the summary.json document of a as WriteAnalysis
+// writes it: each long list holds its first SummaryListMax entries beside
+// its *_total count. Its size does not grow with the number of devices
+// (Summary's document of 10⁷ devices takes gigabytes), so a caller that
+// only prints or checks the summary after writing a report should use it.
+func SummaryCapped(a *coverage.Analysis, m Meta) *SummaryDoc {
+	s := newScene(a.Layout, a, m)
+	s.listMax = SummaryListMax
+	return s.summary()
+}
+
 // CellsSummary builds the summary.json document of the cells command.
 func CellsSummary(l *coverage.Layout, m Meta) *CellsDoc {
 	s := newScene(l, nil, m)

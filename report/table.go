@@ -4,16 +4,19 @@
 // each cell (row-major), so a table of 10⁵ rows costs two allocations
 // that grow, not one string per cell. A long table (one row per site, gap
 // or hole) is given as a row count and a function filling row i (rows):
-// it is then formatted twice, once to measure the column widths and once
-// to write, one row in memory at a time, so its size never matters. Column widths are counted in runes
-// (UTF-8 code points), which is the display width for the names sitecover
-// prints (Latin, Greek, Cyrillic); wide East Asian characters would need
-// two columns each and are not measured specially.
+// it is then filled twice, once to measure the column widths and once to
+// write, one row in memory at a time, so its size never matters. In the
+// measuring pass numbers are not formatted: each column keeps its extreme
+// values, whose text is the widest (numExtremes). Column widths are
+// counted in runes (UTF-8 code points), which is the display width for the
+// names sitecover prints (Latin, Greek, Cyrillic); wide East Asian
+// characters would need two columns each and are not measured specially.
 
 package report
 
 import (
 	"bytes"
+	"math"
 	"strconv"
 	"unicode/utf8"
 )
@@ -36,6 +39,62 @@ type table struct {
 	// the cells of row i (see rows).
 	n    int
 	fill func(i int)
+	// measuring is set while write fills rows only to measure widths;
+	// ext then gathers, per column, the numbers num was given (see num).
+	measuring bool
+	ext       []numExtremes
+}
+
+// numExtremes are the largest and the most negative finite number given
+// to num in one column, all with decimals prec. The text of a number with
+// a fixed count of decimals grows with its magnitude (the correctly
+// rounded integer part can only gain digits), within each sign (−0 prints
+// "-0.00" as any negative does), so the widest such text in a column is
+// that of one of the two: widths are measured from them instead of
+// formatting every number of a long table twice.
+type numExtremes struct {
+	set, hasPos, hasNeg bool
+	prec                int
+	pos, neg            float64
+}
+
+// keep records v (finite, prec ≥ 0) and reports true, or reports false
+// when the column already holds numbers with other decimals.
+func (e *numExtremes) keep(v float64, prec int) bool {
+	if e.set && e.prec != prec {
+		return false
+	}
+	e.set, e.prec = true, prec
+	if math.Signbit(v) {
+		if !e.hasNeg || v < e.neg {
+			e.neg, e.hasNeg = v, true
+		}
+	} else if !e.hasPos || v > e.pos {
+		e.pos, e.hasPos = v, true
+	}
+	return true
+}
+
+// width returns the widest text of the numbers kept.
+func (e *numExtremes) width() int {
+	w := 0
+	var buf [32]byte
+	if e.hasPos {
+		w = len(strconv.AppendFloat(buf[:0], e.pos, 'f', e.prec, 64))
+	}
+	if e.hasNeg {
+		w = max(w, len(strconv.AppendFloat(buf[:0], e.neg, 'f', e.prec, 64)))
+	}
+	return w
+}
+
+// lastUnmeasured reports whether fill is being called only to measure the
+// column widths and the last column is left-aligned: no line pads that
+// column, so its width is not needed and a fill may leave its last cell
+// empty (ending it with cell) instead of formatting it twice, e.g. a
+// list of device names.
+func (t *table) lastUnmeasured() bool {
+	return t.measuring && t.isLeft[len(t.isLeft)-1]
 }
 
 // rows gives the body as n rows, fill(i) adding the cells of row i with
@@ -84,8 +143,16 @@ func (t *table) str(s string) {
 	t.cell()
 }
 
-// num adds v with prec decimals, as fmt's %.{prec}f would print it.
+// num adds v with prec decimals, as fmt's %.{prec}f would print it. While
+// the table is only being measured, a finite v is kept among its column's
+// extremes (numExtremes) and its cell left empty.
 func (t *table) num(v float64, prec int) {
+	if t.measuring && prec >= 0 && !math.IsNaN(v) && !math.IsInf(v, 0) {
+		if t.ext[len(t.ends)].keep(v, prec) {
+			t.cell()
+			return
+		}
+	}
 	t.cells = strconv.AppendFloat(t.cells, v, 'f', prec, 64)
 	t.cell()
 }
@@ -124,9 +191,15 @@ func (t *table) write(b *textBuf) {
 	rows := len(t.ends) / n
 	if t.fill != nil {
 		rows = t.n
+		t.measuring = true
+		t.ext = make([]numExtremes, n)
 		for i := range t.n {
 			t.fillRow(i)
 			measure()
+		}
+		t.measuring = false
+		for i := range t.ext {
+			w[i] = max(w[i], t.ext[i].width())
 		}
 	} else {
 		measure()

@@ -289,6 +289,10 @@ func (s *scene) textGaps(b *textBuf) {
 		t.num(g.ClosingRange, 2)
 		s.pointCells(t, s.deepestOut(gi))
 		t.str(gapKind(g))
+		if t.lastUnmeasured() {
+			t.cell()
+			return
+		}
 		for i, site := range g.Sites {
 			if i > 0 {
 				t.cells = append(t.cells, ", "...)
@@ -329,6 +333,10 @@ func (s *scene) textCells(b *textBuf) {
 		t.num(c.Farthest, 2)
 		s.pointCells(t, s.farthestOut(ci))
 		t.str(s.label(c.Site))
+		if t.lastUnmeasured() {
+			t.cell()
+			return
+		}
 		for k, i := range c.Merged {
 			if k > 0 {
 				t.cells = append(t.cells, ", "...)
@@ -385,9 +393,11 @@ func (s *scene) textHoles(b *textBuf) {
 		s.pointCells(t, s.closingOut(i))
 		t.str(state)
 		t.str(orDash(s.holeNote(i)))
-		t.cells = s.appendLabel(t.cells, h.BirthSites[0])
-		t.cells = append(t.cells, ", "...)
-		t.cells = s.appendLabel(t.cells, h.BirthSites[1])
+		if !t.lastUnmeasured() {
+			t.cells = s.appendLabel(t.cells, h.BirthSites[0])
+			t.cells = append(t.cells, ", "...)
+			t.cells = s.appendLabel(t.cells, h.BirthSites[1])
+		}
 		t.cell()
 	})
 	t.write(b)

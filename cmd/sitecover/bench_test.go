@@ -12,8 +12,11 @@ import (
 	"math/rand/v2"
 	"os"
 	"path/filepath"
+	"runtime/metrics"
+	"runtime/pprof"
 	"strings"
 	"testing"
+	"time"
 )
 
 // benchInputs writes n random sites over about 10 km × 10 km as a
@@ -69,4 +72,60 @@ func BenchmarkAnalyze100kCSVPlanarNoMaps(b *testing.B) {
 	out := filepath.Join(b.TempDir(), "out")
 	b.ResetTimer()
 	benchRun(b, "analyze", "--planar", "--sites", xy, "--range", "30", "--out", out, "--no-maps")
+}
+
+// BenchmarkAnalyzeFilePlanarNoMaps runs analyze --planar --no-maps on the
+// CSV file named by SITECOVER_BENCH_SITES at the range SITECOVER_BENCH_RANGE
+// (default 100), for profiling whole runs on large generated layouts, e.g.
+//
+//	SITECOVER_BENCH_SITES=/tmp/s1e6.csv go test -run XXX -bench AnalyzeFile -benchtime 1x -cpuprofile cpu.out ./cmd/sitecover
+func BenchmarkAnalyzeFilePlanarNoMaps(b *testing.B) {
+	sites := os.Getenv("SITECOVER_BENCH_SITES")
+	if sites == "" {
+		b.Skip("SITECOVER_BENCH_SITES is not set")
+	}
+	rng := os.Getenv("SITECOVER_BENCH_RANGE")
+	if rng == "" {
+		rng = "100"
+	}
+	out := filepath.Join(b.TempDir(), "out")
+	if path := os.Getenv("SITECOVER_BENCH_PEAKHEAP"); path != "" {
+		stop := peakHeapProfiles(b, path)
+		defer stop()
+	}
+	b.ResetTimer()
+	benchRun(b, "analyze", "--planar", "--sites", sites, "--range", rng, "--out", out, "--no-maps")
+}
+
+// peakHeapProfiles writes a heap profile to path whenever the live heap
+// after a collection (runtime/metrics /gc/heap/live:bytes) reaches a new
+// high, checked every 100 ms, so that path ends up describing the heap at
+// about its peak; the returned function stops the checks.
+func peakHeapProfiles(b *testing.B, path string) (stop func()) {
+	b.Helper()
+	done := make(chan struct{})
+	finished := make(chan struct{})
+	go func() {
+		defer close(finished)
+		sample := []metrics.Sample{{Name: "/gc/heap/live:bytes"}}
+		var high uint64
+		tick := time.NewTicker(100 * time.Millisecond)
+		defer tick.Stop()
+		for {
+			select {
+			case <-done:
+				return
+			case <-tick.C:
+			}
+			metrics.Read(sample)
+			if v := sample[0].Value.Uint64(); v > high {
+				high = v
+				if f, err := os.Create(path); err == nil {
+					pprof.Lookup("heap").WriteTo(f, 0)
+					f.Close()
+				}
+			}
+		}
+	}()
+	return func() { close(done); <-finished }
 }
