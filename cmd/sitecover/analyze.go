@@ -112,7 +112,7 @@ func commonAnalysis(f *runFlags, sc *scene, pr *progress, in siteinput.Inputs) (
 		return analysisOutput{}, err
 	}
 	doc := sync.OnceValue(func() *report.SummaryDoc { // one document for warnings and print
-		d := report.Summary(a, sc.meta)
+		d := report.SummaryCapped(a, sc.meta) // the document summary.json holds: bounded at any size
 		if kc != nil {
 			d.Reach = report.ReachSummary(kc, a.Layout, sc.meta)
 		}
@@ -126,7 +126,7 @@ func commonAnalysis(f *runFlags, sc *scene, pr *progress, in siteinput.Inputs) (
 		warnings: func() []string { return doc().Warnings },
 		print: func(w io.Writer, gapTable bool) {
 			d := doc()
-			printAnalysis(w, d, sc.meta)
+			printAnalysis(w, d, innerGaps(a.Gaps), sc.meta)
 			printReach(w, d)
 			if gapTable {
 				printGapTable(w, d, sc.meta)
@@ -174,16 +174,23 @@ func printSummaryFile(w io.Writer, dir string) error {
 	return err
 }
 
-// printAnalysis prints the headline figures of an analysis.
-func printAnalysis(w io.Writer, d *report.SummaryDoc, m report.Meta) {
-	if m.Title != "" {
-		fmt.Fprintln(w, m.Title)
-	}
+// innerGaps counts the gaps that do not touch the site boundary.
+func innerGaps(gaps []coverage.Gap) int {
 	inner := 0
-	for _, g := range d.Gaps {
+	for _, g := range gaps {
 		if !g.TouchesBoundary {
 			inner++
 		}
+	}
+	return inner
+}
+
+// printAnalysis prints the headline figures of an analysis (d as
+// summary.json holds it, its lists capped; inner gaps counted by the
+// caller over all of them).
+func printAnalysis(w io.Writer, d *report.SummaryDoc, inner int, m report.Meta) {
+	if m.Title != "" {
+		fmt.Fprintln(w, m.Title)
 	}
 	hull := ""
 	if d.AreaFromHull {
@@ -193,7 +200,7 @@ func printAnalysis(w io.Writer, d *report.SummaryDoc, m report.Meta) {
 	fmt.Fprintf(w, "  %-24s %s m²%s\n", "site area", fmtNum(d.AreaM2, 1), hull)
 	fmt.Fprintf(w, "  %-24s %s m\n", "planned range", fmtNum(d.RangeM, 2))
 	fmt.Fprintf(w, "  %-24s %s %% (%s m² uncovered in %s, %d inner)\n", "covered at planned range",
-		report.CoveredPercent(d.CoveredFraction, d.UncoveredAreaM2, 2), report.AreaNumber(d.UncoveredAreaM2, 1), nGaps(len(d.Gaps)), inner)
+		report.CoveredPercent(d.CoveredFraction, d.UncoveredAreaM2, 2), report.AreaNumber(d.UncoveredAreaM2, 1), nGaps(d.GapsTotal), inner)
 	where := ""
 	if len(d.FullCoverWorstPoints) > 0 {
 		where = " at " + fmtPoint(d.FullCoverWorstPoint, d.Coordinates)
@@ -221,7 +228,7 @@ func printGapTable(w io.Writer, d *report.SummaryDoc, m report.Meta) {
 	fmt.Fprintf(w, "  %4s  %12s  %11s  %-26s  %-8s  %s\n", "gap", "area m²", "closing m", "deepest point", "kind", "bordering devices")
 	for i, g := range d.Gaps {
 		if i == maxGapRows {
-			printMoreGaps(w, len(d.Gaps)-i)
+			printMoreGaps(w, d.GapsTotal-i)
 			break
 		}
 		kind := gapRowKind(g.TouchesBoundary)

@@ -68,6 +68,7 @@ func startRun(e *env, command string, f *runFlags, in siteinput.Inputs) (*scene,
 	}
 	sc.setMeta(command, f)
 	sc.meta.Arguments = e.args
+	setMemoryLimit(len(sc.sites))
 	// Before any computation: an output folder that cannot be written, an
 	// output that would overwrite an input, or a folder holding files
 	// sitecover did not write fails now.
