@@ -222,11 +222,13 @@ func TestRangesBadValues(t *testing.T) {
 		})
 	}
 	t.Run("common range plan", func(t *testing.T) {
+		// an added device's own range needs a plan with ranges per device
+		// (a device-range edit switches a common-range plan to one:
+		// TestRangesFromCommon)
 		_, hc := testServer(t)
-		for _, body := range []string{`{"op":"device-range","device":1,"range":50}`, `{"op":"add","points":[{"x":0,"y":0,"range":50}]}`} {
-			if code, b := do(t, hc, http.MethodPost, "/api/edit", body); code != 409 {
-				t.Errorf("%s on a common-range plan: status %d: %s", body, code, b)
-			}
+		body := `{"op":"add","points":[{"x":0,"y":0,"range":50}]}`
+		if code, b := do(t, hc, http.MethodPost, "/api/edit", body); code != 409 {
+			t.Errorf("%s on a common-range plan: status %d: %s", body, code, b)
 		}
 	})
 }
@@ -293,4 +295,30 @@ func TestRangesConcurrentEdits(t *testing.T) {
 	}
 	wg.Wait()
 	checkRangedFigures(t, cfg, getState(t, h))
+}
+
+// TestRangesCurveClipped: with own ranges the coverage curve starts at the
+// slider's least value, with the exact covered share there, and has no
+// point below it.
+func TestRangesCurveClipped(t *testing.T) {
+	_, h := rangedServer(t)
+	for _, body := range []string{"", `{"op":"range","range":170}`, `{"op":"device-range","device":0,"range":40}`} {
+		s := getState(t, h)
+		if body != "" {
+			s = editOK(t, h, body)
+		}
+		f := s.Figures
+		c := f.Curve
+		if len(c) == 0 || c[0][0] != *f.LeastRangeM {
+			t.Fatalf("after %q: curve starts at %v; least range %v", body, c[0], *f.LeastRangeM)
+		}
+		for _, p := range c {
+			if p[0] < *f.LeastRangeM {
+				t.Errorf("after %q: curve point %v below the least range %v", body, p, *f.LeastRangeM)
+			}
+		}
+		if c[1][0] <= c[0][0] || c[0][1] > c[1][1] {
+			t.Errorf("after %q: curve opens %v, %v", body, c[0], c[1])
+		}
+	}
 }

@@ -575,8 +575,12 @@
       const t = el("text", { x: Math.min(X(r), W - 2), y: H - 8, "text-anchor": X(r) > W - R - 12 ? "end" : "middle" }, c);
       t.textContent = r + " m";
     }
+    // the curve is drawn over the slider's domain only: with own ranges it
+    // starts at the slider's least value (shaded below it)
+    const lo = +$("range").min || 0;
+    if (lo > 0) el("rect", { x: L, y: T, width: X(lo) - L, height: Y(0) - T, class: "curve-out" }, c);
     let d = "";
-    const pts = f.curve.slice();
+    const pts = clipCurve(f.curve, lo);
     if (pts.length && pts[pts.length - 1][0] < curveMax) pts.push([curveMax, 1]);
     pts.forEach((p, i) => { d += (i ? "L" : "M") + X(p[0]).toFixed(1) + " " + Y(p[1]).toFixed(1); });
     el("path", { d: d, class: "curve-line" }, c);
@@ -590,6 +594,19 @@
       $("range").value = r;
       sendRange(+$("range").value, 0);
     };
+  }
+
+  // clipCurve returns the points of the curve c at ranges ≥ lo, opening
+  // with its value at lo (linear between the samples, as drawn).
+  function clipCurve(c, lo) {
+    const k = c.findIndex((p) => p[0] >= lo);
+    if (k < 0) return [];
+    const out = c.slice(k);
+    if (k > 0 && c[k][0] > lo) {
+      const a = c[k - 1], b = c[k];
+      out.unshift([lo, a[1] + (b[1] - a[1]) * (lo - a[0]) / (b[0] - a[0])]);
+    }
+    return out;
   }
 
   // ---------- figures ----------
@@ -687,27 +704,37 @@
         row("position", "x " + fx(dv.x, 1) + ", y " + fx(dv.y, 1) + " m");
       if (dv.rangeM !== undefined) {
         h += (dv.type ? row("type", esc(dv.type)) : "") + row("range", fmtM(dv.rangeM));
-        if (dv.hidden) h += row("hidden", "no power cell: its disk lies inside the others' union, so it adds no coverage");
+        if (dv.hidden) h += row("hidden", "its disk is covered by others; its failure costs nothing");
         else if (dv.on && dv.servedM2 !== undefined) {
           h += row("serves", fmtArea(dv.servedM2) + " (" + fmtPct(dv.servedShare) + " of the area; power cell)") +
             (dv.withinRangeM2 !== undefined ? row("within its range", fmtArea(dv.withinRangeM2)) : "") +
-            row("farthest point served", fmtM(dv.farthestM)) +
-            row("if it fails", "not computed with own ranges");
-        }
+            row("farthest point served", fmtM(dv.farthestM)) + failRows(dv, true);
+        } else if (dv.shared) h += row("note", "stands on another device's spot");
         d.innerHTML = h + "</table>" + rangeControl("dev-range", "Set this device's range", dv.rangeM);
         $("dev-range-set").addEventListener("click", () => setRange({ op: "device-range", device: i }, "dev-range"));
         return;
       }
       if (dv.on) {
         h += row("serves", fmtArea(dv.servedM2) + " (" + fmtPct(dv.servedShare) + " of the area)") +
-          row("farthest point served", fmtM(dv.farthestM)) +
-          row("if it fails: uncovered +", fmtArea(dv.failAddedUncoveredM2)) +
-          row("if it fails: closes at", dv.failClosingRangeM === undefined ? "no device left" : fmtM(dv.failClosingRangeM)) +
-          (dv.failBackup !== undefined ? row("takes over", devName(dv.failBackup)) : "") +
+          row("farthest point served", fmtM(dv.farthestM)) + failRows(dv, false) +
           (dv.shared ? row("note", "stands on another device's spot") : "");
       }
-      d.innerHTML = h + "</table>";
+      // on a common-range plan, setting one device's range switches the
+      // plan to ranges per device (every other device keeps the range)
+      d.innerHTML = h + "</table>" + rangeControl("dev-range", "Set this device's own range", state.figures.rangeM);
+      $("dev-range-set").addEventListener("click", () => setRange({ op: "device-range", device: i }, "dev-range"));
     }).catch((e) => toast(e.message));
+  }
+  // failRows are the rows of the loss if a device fails; with own ranges
+  // the closing is the largest range (the slider's value) and the range
+  // the device taking over needs to reach the deepest point.
+  function failRows(dv, own) {
+    const closes = dv.failClosingRangeM === undefined ? (dv.servedM2 === 0 ? "nothing to close" : "no device left") :
+      (own ? "largest range " : "") + fmtM(dv.failClosingRangeM);
+    return row("if it fails: uncovered +", fmtArea(dv.failAddedUncoveredM2)) +
+      row("if it fails: closes at", closes) +
+      (dv.failBackup !== undefined ? row("takes over", devName(dv.failBackup) +
+        (own && dv.failBackupRangeM !== undefined ? " (needs " + fmtM(dv.failBackupRangeM) + " to reach the deepest point)" : "")) : "");
   }
 
   // rangeControl is a number field with a Set button (own ranges).
