@@ -42,6 +42,7 @@
 package review
 
 import (
+	"errors"
 	"math"
 	"slices"
 
@@ -118,6 +119,9 @@ func (g *geometry) rangedFailure(k int, t float64, cfg *Config) (coverage.Device
 		return coverage.DeviceFailure{}, err
 	}
 	j := slices.IndexFunc(rep.Devices, func(d coverage.DeviceFailure) bool { return d.Site == self })
+	if j < 0 {
+		return coverage.DeviceFailure{}, errors.New("review: device missing from its failure report")
+	}
 	f := rep.Devices[j]
 	f.Site = k
 	if f.Backup >= 0 {

@@ -12,7 +12,6 @@ import (
 	"math"
 	"math/rand/v2"
 	"net/http"
-	"strings"
 	"testing"
 
 	"github.com/paulmach/orb"
@@ -27,16 +26,7 @@ func checkDeviceFailures(t *testing.T, h http.Handler, cfg Config) (hiddenBackup
 	t.Helper()
 	s := getState(t, h)
 	g := *s.Figures.GrowthM2
-	var pts []orb.Point
-	var ranges []float64
-	var idx []int
-	for i, d := range s.Devices {
-		if d.On {
-			pts = append(pts, orb.Point{d.X, d.Y})
-			ranges = append(ranges, grown(d.Range, g))
-			idx = append(idx, i)
-		}
-	}
+	pts, ranges, idx := inService(s, g)
 	l, err := coverage.NewLayoutRanges(pts, ranges, cfg.Region)
 	if err != nil {
 		t.Fatal(err)
@@ -220,35 +210,7 @@ func TestRangesFromCommon(t *testing.T) {
 	t.Run("bad values", func(t *testing.T) {
 		_, h := testServer(t)
 		editOK(t, h, `{"op":"range","range":125}`)
-		cases := []struct {
-			name, body string
-			status     int
-			want       string
-		}{
-			{"nan", `{"op":"device-range","device":1,"range":NaN}`, 400, "bad JSON"},
-			{"zero", `{"op":"device-range","device":1,"range":0}`, 400, "not a positive"},
-			{"negative", `{"op":"device-range","device":1,"range":-3}`, 400, "not a positive"},
-			{"absurd", `{"op":"device-range","device":1,"range":1e9}`, 422, "beyond"},
-			{"no range", `{"op":"device-range","device":1}`, 400, "needs \"range\""},
-			{"no device", `{"op":"device-range","range":50}`, 400, "needs \"device\""},
-			{"no such device", `{"op":"device-range","device":999,"range":50}`, 404, "no device 999"},
-			{"negative device", `{"op":"device-range","device":-1,"range":50}`, 404, "no device -1"},
-			{"unknown type", `{"op":"type-range","type":"siren","range":50}`, 404, "no device of type"},
-			{"stale version", `{"op":"device-range","device":1,"range":50,"version":0}`, 409, "changed"},
-		}
-		before := do200(t, h, "/api/state")
-		for _, c := range cases {
-			t.Run(c.name, func(t *testing.T) {
-				code, b := do(t, h, http.MethodPost, "/api/edit", c.body)
-				var e struct{ Error string }
-				json.Unmarshal(b, &e)
-				if code != c.status || !strings.Contains(e.Error, c.want) {
-					t.Errorf("status %d, error %q; want %d mentioning %q", code, e.Error, c.status, c.want)
-				}
-				if !bytes.Equal(before, do200(t, h, "/api/state")) {
-					t.Error("the session changed")
-				}
-			})
-		}
+		checkRefused(t, h, append(badDeviceRanges,
+			refusal{"stale version", `{"op":"device-range","device":1,"range":50,"version":0}`, 409, "changed"}))
 	})
 }

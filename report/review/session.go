@@ -25,7 +25,9 @@
 //     come from Layout.ServiceAreas and coverage.Failures, which are local
 //     per device (each visits the device's cell and its Delaunay
 //     neighbours); they are computed on the first request after an edit
-//     and kept until the next edit.
+//     and kept until the next edit. With own ranges the loss is computed
+//     for the device asked about only (failures.go), kept until the next
+//     edit or slider move.
 //
 // Every figure is the one coverage.Analyze reports for the same devices
 // and range: the same functions are called with the same arguments. With
