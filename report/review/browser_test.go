@@ -392,10 +392,26 @@ func TestBrowserSwitchToRangesLive(t *testing.T) {
 	}
 	figureCheck(t, ctx, sv, expectRangedFigures, "coverage.AnalyzeRanges")("device 4 at 200 m")
 	checkFailShown(t, ctx, 4)
+	checkSlider(t, ctx, "Largest range", "", "after the switch")
 	if err := chromedp.Do(ctx, chromedp.Click(chromedp.CSS(`#undo`))); err != nil {
 		t.Fatal(err)
 	}
 	figureCheck(t, ctx, sv, expectFigures, "coverage.Analyze")("undone")
+	checkSlider(t, ctx, "Range", "0.5", "after the undo")
+}
+
+// checkSlider checks the range slider's label and, unless min is "", its
+// least value.
+func checkSlider(t *testing.T, ctx context.Context, label, min, step string) {
+	t.Helper()
+	got, err := chromedp.Run(ctx, chromedp.Evaluate[[2]string](`[document.getElementById("range-label").textContent,
+		document.getElementById("range").min]`))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if got[0] != label || min != "" && got[1] != min {
+		t.Errorf("%s: slider label %q, least value %q; want %q, %q", step, got[0], got[1], label, min)
+	}
 }
 
 // openPage starts a server on cfg and the browser on its page, loaded;

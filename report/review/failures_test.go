@@ -123,6 +123,29 @@ func TestRangesDeviceFailures(t *testing.T) {
 		editOK(t, h, `{"op":"range","range":170}`) // at a growth t > 0
 		checkDeviceFailures(t, h, cfg)
 	})
+	t.Run("equal ranges, two devices on one spot", func(t *testing.T) {
+		// all ranges equal: coverage.FailuresRanges is Failures, and the
+		// failure of a device sharing its spot costs nothing
+		cfg := demoConfig(t)
+		cfg.Sites[1] = cfg.Sites[0]
+		cfg.Ranges = make([]float64, len(cfg.Sites))
+		for i := range cfg.Ranges {
+			cfg.Ranges[i] = 120
+		}
+		sv, err := New(cfg)
+		if err != nil {
+			t.Fatal(err)
+		}
+		h := sv.Handler()
+		checkDeviceFailures(t, h, cfg)
+		var d deviceDoc
+		if err := json.Unmarshal(do200(t, h, "/api/device/1"), &d); err != nil {
+			t.Fatal(err)
+		}
+		if !d.Shared || d.FailAddedUncoveredM2 == nil || *d.FailAddedUncoveredM2 != 0 || d.FailBackup == nil || *d.FailBackup != 0 {
+			t.Errorf("device 1 on device 0's spot: shared %v, failure adds %v, backup %v", d.Shared, ptrText(d.FailAddedUncoveredM2), ptrText(d.FailBackup))
+		}
+	})
 	t.Run("hidden devices take over", func(t *testing.T) {
 		// 300 devices of ranges 35–75 m on a 600 m square: many hidden
 		// devices, some of which take over when a neighbour fails

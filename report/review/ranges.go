@@ -216,13 +216,13 @@ func (sv *Server) rangedDevice(d *deviceDoc, k int) error {
 	}
 	j, hit := slices.BinarySearchFunc(rg.services, k, func(a coverage.RangesServiceArea, k int) int { return a.Site - k })
 	if !hit {
-		d.Shared = true // stands on another device's spot
-		return nil
-	}
-	sa := rg.services[j]
-	d.ServedM2, d.ServedShare, d.FarthestM = &sa.Area, &sa.Share, &sa.Farthest
-	if s.t == 0 {
-		d.WithinRangeM2 = &sa.Served
+		d.Shared = true // stands on another device's spot (its failure costs nothing)
+	} else {
+		sa := rg.services[j]
+		d.ServedM2, d.ServedShare, d.FarthestM = &sa.Area, &sa.Share, &sa.Farthest
+		if s.t == 0 {
+			d.WithinRangeM2 = &sa.Served
+		}
 	}
 	if rg.fails == nil || rg.failT != s.t {
 		rg.fails, rg.failT = map[int]coverage.DeviceFailure{}, s.t

@@ -624,11 +624,17 @@
     $("fig-uncovered").textContent = fmtArea(f.uncoveredM2);
     $("fig-gaps").textContent = f.gaps.length + (f.gaps.length ? " (" + f.enclosedGaps + " enclosed)" : "");
     $("fig-fullcover").textContent = fmtM(f.fullCoverRangeM);
+    // a device-range edit switches a common-range plan to own ranges, and
+    // its undo back: the slider's labels and domain follow the state
+    if (!scene.lifeSafety) {
+      $("caution-banner").textContent = "Coverage is modelled as disks of " + (ranged() ? "each device's own range" : "one common range") +
+        ": a planning aid, not a guarantee. Follow local codes and licensed practice.";
+    }
+    $("range-label").textContent = ranged() ? "Largest range" : "Range";
+    $("fullcover-label").textContent = ranged() ? "Full cover at largest range" : "Full-cover range";
+    $("range-note").hidden = !ranged();
+    $("range").min = ranged() ? String(Math.ceil(2 * (f.leastRangeM + 0.01)) / 2) : "0.5";
     if (ranged()) {
-      $("range").min = String(Math.ceil(2 * (f.leastRangeM + 0.01)) / 2);
-      $("range-label").textContent = "Largest range";
-      $("fullcover-label").textContent = "Full cover at largest range";
-      $("range-note").hidden = false;
       $("range-note").textContent = "Devices have their own ranges. The slider grows them all together by uniform power growth: " +
         "each range becomes √(r² + t) with one t, the slider showing the largest (the power diagram, so the service areas, stays the same). " +
         "Hidden devices: " + (f.hidden ? f.hidden.length : 0) + ".";
@@ -709,7 +715,7 @@
           h += row("serves", fmtArea(dv.servedM2) + " (" + fmtPct(dv.servedShare) + " of the area; power cell)") +
             (dv.withinRangeM2 !== undefined ? row("within its range", fmtArea(dv.withinRangeM2)) : "") +
             row("farthest point served", fmtM(dv.farthestM)) + failRows(dv, true);
-        } else if (dv.shared) h += row("note", "stands on another device's spot");
+        } else if (dv.shared) h += row("note", "stands on another device's spot") + failRows(dv, true);
         d.innerHTML = h + "</table>" + rangeControl("dev-range", "Set this device's range", dv.rangeM);
         $("dev-range-set").addEventListener("click", () => setRange({ op: "device-range", device: i }, "dev-range"));
         return;
@@ -942,15 +948,10 @@
     if (sc.lifeSafety) {
       ban.className = "life";
       ban.textContent = "Life-safety devices: " + sc.cautions.join(" ");
-    } else {
-      ban.textContent = "Coverage is modelled as disks of " + (st.figures.growthM2 !== undefined ? "each device's own range" : "one common range") +
-        ": a planning aid, not a guarantee. Follow local codes and licensed practice.";
     }
     if (!sc.canReport) { $("write-report").disabled = true; $("report-out").textContent = "Start with --out to write the full report."; }
     else $("report-out").textContent = "into " + sc.outDir;
-    const r = $("range");
-    r.max = sc.curveTopM.toString();
-    r.min = "0.5";
+    $("range").max = sc.curveTopM.toString();
     fit();
     setState(st);
     document.body.dataset.ready = "1";
