@@ -330,6 +330,20 @@ func TestBrowserRangesLive(t *testing.T) {
 		t.Fatal(err)
 	}
 	checkFailShown(t, ctx, 4)
+	// hovering shows the loss too
+	var tip string
+	for try := 0; try < 50 && !strings.Contains(tip, "if it fails, uncovered +"); try++ {
+		err = chromedp.Do(ctx, chromedp.MouseEvent(input.DispatchMouseEventTypeMouseMoved, p[0]+float64(try%2), p[1]), chromedp.Sleep(20*time.Millisecond))
+		if err != nil {
+			t.Fatal(err)
+		}
+		if tip, err = chromedp.Run(ctx, chromedp.Text(chromedp.CSS(`#tip`))); err != nil {
+			t.Fatal(err)
+		}
+	}
+	if !strings.Contains(tip, "Device #4") || !strings.Contains(tip, "if it fails, uncovered +") {
+		t.Errorf("tooltip over device 4: %q", tip)
+	}
 	err = chromedp.Do(ctx, js(`document.getElementById("dev-range").value = "60"; document.getElementById("dev-range-set").click()`))
 	if err != nil {
 		t.Fatal(err)

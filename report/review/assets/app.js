@@ -790,11 +790,27 @@
     const gp = gid !== null && state.figures.gaps.find((g) => g.id === gid);
     if (gp) hoverGap(gp, ev); else hideTip();
   }
+  // hoverDevice shows the device's name, then (one request per device and
+  // state, kept while the pointer stays) what it serves and what its
+  // failure would leave uncovered.
+  const hoverFig = { key: "", text: "" };
   function hoverDevice(i, ev) {
     if (dragging.device !== null) return;
-    const d = state.devices[i];
-    tip.textContent = "Device #" + i + (d.label ? " " + d.label : "") + (d.on ? "" : " (off)");
+    const d = state.devices[i], key = state.version + ":" + i;
+    const name = "Device #" + i + (d.label ? " " + d.label : "") + (d.on ? "" : " (off)");
+    tip.textContent = name + (hoverFig.key === key ? hoverFig.text : "");
     tip.hidden = false; moveTip(ev);
+    if (hoverFig.key === key || !d.on) return;
+    hoverFig.key = key; hoverFig.text = "";
+    getJSON("/api/device/" + i).then((dv) => {
+      if (hoverFig.key !== key) return;
+      if (dv.hidden) hoverFig.text = ": hidden — its disk is covered by others; its failure costs nothing";
+      else if (dv.failAddedUncoveredM2 !== undefined) {
+        hoverFig.text = (dv.servedM2 !== undefined ? ": serves " + fmtArea(dv.servedM2) : "") +
+          "; if it fails, uncovered + " + fmtArea(dv.failAddedUncoveredM2);
+      }
+      if (!tip.hidden && tip.textContent === name) tip.textContent = name + hoverFig.text;
+    }).catch(() => {});
   }
 
   // ---------- interaction ----------
