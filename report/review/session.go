@@ -244,8 +244,9 @@ func (g *geometry) atRange(r, t float64) (atRange, error) {
 }
 
 // Edit is one edit request. Op is "move", "add", "remove", "off", "on",
-// "range", "undo", and with own ranges "device-range" (Device, Range) or
-// "type-range" (Type, Range).
+// "range", "undo", "device-range" (Device, Range) or "type-range" (Type,
+// Range); the last two switch a plan with one common range to own ranges
+// (ranges.go).
 type Edit struct {
 	// Op names the edit.
 	Op string `json:"op"`
