@@ -50,8 +50,12 @@ recomputed exactly on every change. Devices with their own ranges (a range
 column, or a type column with --type-range or --range-table) are reviewed
 with their power diagram: each device's disk at its own range, a range
 control for the selected device and for each type, and the slider growing
-every range together (uniform power growth). The edited plan can be saved as GeoJSON
-or CSV, and the full report (the files analyze writes) written into --out.
+every range together (uniform power growth). Setting one device's range on
+a plan with one common range switches it to ranges per device (the others
+keep the common range; undo switches back). Click a device for the area it
+serves and what its failure would leave uncovered. The edited plan can be
+saved as GeoJSON or CSV, and the full report (the files analyze writes)
+written into --out.
 
 The page listens on 127.0.0.1 on a free port by default; the URL is printed.
 Ctrl-C stops it.`,

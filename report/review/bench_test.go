@@ -31,18 +31,26 @@ func benchServer(b *testing.B, n int) http.Handler {
 	return newBenchServer(b, n).Handler()
 }
 
-// newBenchServer is benchServer's server.
-func newBenchServer(b testing.TB, n int) *Server {
+// newBenchServer is benchServer's server; with a spread (m) the devices
+// have their own ranges, uniform in [benchRange − spread, benchRange].
+func newBenchServer(b testing.TB, n int, spread ...float64) *Server {
 	rng := rand.New(rand.NewPCG(1, 2))
 	sites := make([]orb.Point, n)
 	for i := range sites {
 		sites[i] = orb.Point{rng.Float64() * benchSide, rng.Float64() * benchSide}
 	}
+	var ranges []float64
+	if len(spread) > 0 {
+		ranges = make([]float64, n)
+		for i := range ranges {
+			ranges[i] = benchRange - spread[0]*rng.Float64()
+		}
+	}
 	reg, err := planar.NewRegion(orb.MultiPolygon{{{{0, 0}, {benchSide, 0}, {benchSide, benchSide}, {0, benchSide}, {0, 0}}}})
 	if err != nil {
 		b.Fatal(err)
 	}
-	sv, err := New(Config{Sites: sites, Region: reg, Range: benchRange})
+	sv, err := New(Config{Sites: sites, Region: reg, Range: benchRange, Ranges: ranges})
 	if err != nil {
 		b.Fatal(err)
 	}
@@ -61,18 +69,51 @@ func benchEdit(b *testing.B, h http.Handler, body string) {
 	}
 }
 
+// benchRangeSpread is the spread of the own ranges of the benchmark with
+// own ranges: benchRange − benchRangeSpread to benchRange (about a
+// quarter of the devices hidden).
+const benchRangeSpread = 25.0
+
 // BenchmarkReviewUpdate10k times one edit on 10 000 devices: "move" (a
-// device edit: the layout is rebuilt) and "range" (the layout is kept).
+// device edit: the layout is rebuilt) and "range" (the layout is kept);
+// "ranges-" the same with own ranges, and "ranges-device" the selected
+// device's figures on the first request after a move (untimed): the page
+// asks for them after every edit (served area and the loss if it fails,
+// failures.go).
 func BenchmarkReviewUpdate10k(b *testing.B) {
 	h := benchServer(b, benchDevices)
 	rng := rand.New(rand.NewPCG(3, 4))
-	b.Run("move", func(b *testing.B) {
+	benchUpdates(b, h, rng, "")
+	sv := newBenchServer(b, benchDevices, benchRangeSpread)
+	benchUpdates(b, sv.Handler(), rng, "ranges-")
+	hr := sv.Handler()
+	b.Run("ranges-device", func(b *testing.B) {
+		for b.Loop() {
+			i := rng.IntN(benchDevices)
+			b.StopTimer()
+			benchEdit(b, hr, fmt.Sprintf(`{"op":"move","device":%d,"x":%v,"y":%v}`,
+				rng.IntN(benchDevices), rng.Float64()*benchSide, rng.Float64()*benchSide))
+			b.StartTimer()
+			req := httptest.NewRequest(http.MethodGet, fmt.Sprintf("/api/device/%d", i), nil)
+			req.Host = testHost
+			rec := httptest.NewRecorder()
+			hr.ServeHTTP(rec, req)
+			if rec.Code != http.StatusOK {
+				b.Fatalf("device %d: status %d: %s", i, rec.Code, rec.Body.Bytes())
+			}
+		}
+	})
+}
+
+// benchUpdates runs the "move" and "range" cases on h, named with prefix.
+func benchUpdates(b *testing.B, h http.Handler, rng *rand.Rand, prefix string) {
+	b.Run(prefix+"move", func(b *testing.B) {
 		for b.Loop() {
 			benchEdit(b, h, fmt.Sprintf(`{"op":"move","device":%d,"x":%v,"y":%v}`,
 				rng.IntN(benchDevices), rng.Float64()*benchSide, rng.Float64()*benchSide))
 		}
 	})
-	b.Run("range", func(b *testing.B) {
+	b.Run(prefix+"range", func(b *testing.B) {
 		k := 0
 		for b.Loop() {
 			k++

@@ -21,6 +21,7 @@ import (
 	"os/exec"
 	"path/filepath"
 	"slices"
+	"strconv"
 	"strings"
 	"testing"
 	"time"
@@ -310,20 +311,10 @@ func expectRangedFigures(t *testing.T, sv *Server) pageFigures {
 // ranges grown together), the selected device's range control and a
 // type's range control.
 func TestBrowserRangesLive(t *testing.T) {
-	path := chromiumOrSkip(t)
-	sv, err := New(rangedConfig(t))
-	if err != nil {
-		t.Fatal(err)
-	}
-	ts := httptest.NewServer(sv.Handler())
-	defer ts.Close()
-	ctx := startBrowser(t, path)
+	sv, ctx := openPage(t, rangedConfig(t))
 	check := figureCheck(t, ctx, sv, expectRangedFigures, "coverage.AnalyzeRanges")
-	if err := chromedp.Do(ctx, chromedp.Navigate(ts.URL), chromedp.WaitVisible(chromedp.CSS(`body[data-ready="1"]`))); err != nil {
-		t.Fatal(err)
-	}
 	check("loaded")
-	err = chromedp.Do(ctx, js(`const r = document.getElementById("range"); r.value = 165;
+	err := chromedp.Do(ctx, js(`const r = document.getElementById("range"); r.value = 165;
 		r.dispatchEvent(new Event("input")); r.dispatchEvent(new Event("change"))`))
 	if err != nil {
 		t.Fatal(err)
@@ -334,8 +325,26 @@ func TestBrowserRangesLive(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	err = chromedp.Do(ctx, chromedp.MouseClickXY(p[0], p[1]), chromedp.WaitVisible(chromedp.CSS(`#dev-range-set`)),
-		js(`document.getElementById("dev-range").value = "60"; document.getElementById("dev-range-set").click()`))
+	err = chromedp.Do(ctx, chromedp.MouseClickXY(p[0], p[1]), chromedp.WaitVisible(chromedp.CSS(`#dev-range-set`)))
+	if err != nil {
+		t.Fatal(err)
+	}
+	checkFailShown(t, ctx, 4)
+	// hovering shows the loss too
+	var tip string
+	for try := 0; try < 50 && !strings.Contains(tip, "if it fails, uncovered +"); try++ {
+		err = chromedp.Do(ctx, chromedp.MouseEvent(input.DispatchMouseEventTypeMouseMoved, p[0]+float64(try%2), p[1]), chromedp.Sleep(20*time.Millisecond))
+		if err != nil {
+			t.Fatal(err)
+		}
+		if tip, err = chromedp.Run(ctx, chromedp.Text(chromedp.CSS(`#tip`))); err != nil {
+			t.Fatal(err)
+		}
+	}
+	if !strings.Contains(tip, "Device #4") || !strings.Contains(tip, "if it fails, uncovered +") {
+		t.Errorf("tooltip over device 4: %q", tip)
+	}
+	err = chromedp.Do(ctx, js(`document.getElementById("dev-range").value = "60"; document.getElementById("dev-range-set").click()`))
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -359,6 +368,81 @@ func TestBrowserRangesLive(t *testing.T) {
 			t.Errorf("beacon %d at %v m", i, d.R)
 		}
 	}
+}
+
+// checkFailShown checks that the detail panel shows device i's loss if it
+// fails with own ranges (the closing as a largest range), waiting up to
+// a second for the panel's request.
+func checkFailShown(t *testing.T, ctx context.Context, i int) {
+	t.Helper()
+	var text string
+	for try := 0; try < 50; try++ {
+		var err error
+		if text, err = chromedp.Run(ctx, chromedp.Text(chromedp.CSS(`#detail`))); err != nil {
+			t.Fatal(err)
+		}
+		if strings.Contains(text, "Device #"+strconv.Itoa(i)) && strings.Contains(text, "if it fails: uncovered +") &&
+			strings.Contains(text, "largest range ") {
+			return
+		}
+		time.Sleep(20 * time.Millisecond)
+	}
+	t.Errorf("detail panel of device %d: %q", i, text)
+}
+
+// TestBrowserSwitchToRangesLive: on the common-range demo, setting one
+// device's range from its detail panel switches the plan to own ranges
+// (figures as AnalyzeRanges's), and undo returns to the common range.
+func TestBrowserSwitchToRangesLive(t *testing.T) {
+	sv, ctx := openPage(t, demoConfig(t))
+	p, err := chromedp.Run(ctx, chromedp.Evaluate[[2]float64](`window.review.screenOf(4)`))
+	if err != nil {
+		t.Fatal(err)
+	}
+	err = chromedp.Do(ctx, chromedp.MouseClickXY(p[0], p[1]), chromedp.WaitVisible(chromedp.CSS(`#dev-range-set`)),
+		js(`document.getElementById("dev-range").value = "200"; document.getElementById("dev-range-set").click()`))
+	if err != nil {
+		t.Fatal(err)
+	}
+	figureCheck(t, ctx, sv, expectRangedFigures, "coverage.AnalyzeRanges")("device 4 at 200 m")
+	checkFailShown(t, ctx, 4)
+	checkSlider(t, ctx, "Largest range", "", "after the switch")
+	if err := chromedp.Do(ctx, chromedp.Click(chromedp.CSS(`#undo`))); err != nil {
+		t.Fatal(err)
+	}
+	figureCheck(t, ctx, sv, expectFigures, "coverage.Analyze")("undone")
+	checkSlider(t, ctx, "Range", "0.5", "after the undo")
+}
+
+// checkSlider checks the range slider's label and, unless min is "", its
+// least value.
+func checkSlider(t *testing.T, ctx context.Context, label, min, step string) {
+	t.Helper()
+	got, err := chromedp.Run(ctx, chromedp.Evaluate[[2]string](`[document.getElementById("range-label").textContent,
+		document.getElementById("range").min]`))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if got[0] != label || min != "" && got[1] != min {
+		t.Errorf("%s: slider label %q, least value %q; want %q, %q", step, got[0], got[1], label, min)
+	}
+}
+
+// openPage starts a server on cfg and the browser on its page, loaded;
+// both end with the test.
+func openPage(t *testing.T, cfg Config) (*Server, context.Context) {
+	path := chromiumOrSkip(t)
+	sv, err := New(cfg)
+	if err != nil {
+		t.Fatal(err)
+	}
+	ts := httptest.NewServer(sv.Handler())
+	t.Cleanup(ts.Close)
+	ctx := startBrowser(t, path)
+	if err := chromedp.Do(ctx, chromedp.Navigate(ts.URL), chromedp.WaitVisible(chromedp.CSS(`body[data-ready="1"]`))); err != nil {
+		t.Fatal(err)
+	}
+	return sv, ctx
 }
 
 // startBrowser starts headless Chromium at 1600×1000; the browser ends

@@ -9,8 +9,9 @@
 // siteinput); Server.Handler serves the page (embedded HTML, CSS and
 // JavaScript; layered canvases and SVG, no outside library) and its JSON
 // API. See server.go for the endpoints, session.go for what each edit
-// recomputes and ranges.go for devices with their own ranges (power
-// diagram; the slider grows every range by uniform power growth).
+// recomputes, ranges.go for devices with their own ranges (power
+// diagram; the slider grows every range by uniform power growth) and
+// failures.go for the loss if one device with its own range fails.
 //
 // The figures are exact for the disk model; they are planning aids for a
 // design review, not a guarantee that a real device reaches its range

@@ -258,7 +258,9 @@ func (sv *Server) stateDoc(took time.Duration, withDevices bool) stateDoc {
 		f.Pieces, f.OpenHoles = g.pers.Betti(s.r)
 		f.Holes = holesDoc(g, s.r)
 	}
-	f.Types = sv.cfg.typeList
+	if g.ranged != nil {
+		f.Types = sv.cfg.typeList
+	}
 	f.Gaps = make([]gapDoc, len(s.at.gaps))
 	d.outlines = make([][]byte, len(s.at.gaps))
 	for i, gp := range s.at.gaps {
@@ -275,16 +277,32 @@ func (sv *Server) stateDoc(took time.Duration, withDevices bool) stateDoc {
 			f.EnclosedGaps++
 		}
 	}
-	full := f.FullCoverRangeM
-	f.Curve = make([][2]float64, 0, len(g.share)+1)
-	grid := sv.cfg.grid
-	for k, sh := range g.share {
-		if k > 0 && grid[k-1] < full && full < grid[k] {
-			f.Curve = append(f.Curve, [2]float64{full, 1})
-		}
-		f.Curve = append(f.Curve, [2]float64{grid[k], sh})
-	}
+	f.Curve = curveDoc(g, sv.cfg.grid, f.FullCoverRangeM)
 	return d
+}
+
+// curveDoc is the coverage curve at the sample ranges grid, with the
+// full-cover range full inserted. With own ranges it starts at the
+// slider's least value (ranges.go): below it some device would have no
+// range, so the samples there are left out and the curve opens with its
+// exact value at the least range.
+func curveDoc(g *geometry, grid []float64, full float64) [][2]float64 {
+	out := make([][2]float64, 0, len(g.share)+2)
+	lo := 0.0
+	if rg := g.ranged; rg != nil {
+		lo = rg.leastRange()
+		out = append(out, [2]float64{lo, rg.curve.CoveredFraction(-rg.w2min)})
+	}
+	for k, sh := range g.share {
+		if grid[k] <= lo && g.ranged != nil {
+			continue
+		}
+		if k > 0 && max(grid[k-1], lo) < full && full < grid[k] {
+			out = append(out, [2]float64{full, 1})
+		}
+		out = append(out, [2]float64{grid[k], sh})
+	}
+	return out
 }
 
 // holesDoc lists the longest-lived holes (at most maxHoles).
@@ -332,8 +350,14 @@ type deviceDoc struct {
 	Type          string   `json:"type,omitempty"`
 	Hidden        bool     `json:"hidden,omitempty"`
 	WithinRangeM2 *float64 `json:"withinRangeM2,omitempty"`
-	// The figures below are present for a device in service (the loss if
-	// it fails: with one common range only).
+	// The figures below are present for a device in service. The loss if
+	// it fails: the uncovered area it adds, the range at which the others
+	// close that loss (with own ranges the largest range, the slider's
+	// value, under uniform power growth; absent when no device remains or,
+	// with own ranges, when it serves nothing), the deepest point of the new
+	// gap and the device that takes it over, with own ranges with the range
+	// that device alone needs to reach it (FailBackupRangeM). A hidden
+	// device's failure adds 0.
 	ServedM2             *float64    `json:"servedM2,omitempty"`
 	ServedShare          *float64    `json:"servedShare,omitempty"`
 	FarthestM            *float64    `json:"farthestM,omitempty"`
@@ -342,6 +366,7 @@ type deviceDoc struct {
 	FailClosingRangeM    *float64    `json:"failClosingRangeM,omitempty"`
 	FailDeepest          *[2]float64 `json:"failDeepest,omitempty"`
 	FailBackup           *int        `json:"failBackup,omitempty"`
+	FailBackupRangeM     *float64    `json:"failBackupRangeM,omitempty"`
 }
 
 // deviceDoc builds one device's answer; the caller holds the lock.
@@ -354,29 +379,37 @@ func (sv *Server) deviceDoc(i int) (deviceDoc, error) {
 	d := deviceDoc{Device: i, Label: v.Label, X: v.X, Y: v.Y, On: v.On, Type: v.Type}
 	if s.geo.ranged != nil {
 		if k, on := slices.BinarySearch(s.geo.active, int32(i)); on {
-			sv.rangedDevice(&d, k)
-		} else {
-			cur := grown(v.R, s.t)
-			d.RangeM = &cur
+			return d, sv.rangedDevice(&d, k)
 		}
+		cur := grown(v.R, s.t)
+		d.RangeM = &cur
 		return d, nil
 	}
 	sa, f, ok, err := s.deviceFigures(i)
 	if err != nil || !ok {
 		return d, err
 	}
-	share, dp := sa.Share, [2]float64(f.Deepest)
+	share := sa.Share
 	d.ServedM2, d.ServedShare, d.FarthestM = &sa.Area, &share, &sa.Farthest
 	d.Shared = f.Shared
-	d.FailAddedUncoveredM2, d.FailClosingRangeM, d.FailDeepest = &f.AddedUncovered, &f.ClosingRange, &dp
+	sv.failureFigures(&d, f)
+	d.FailClosingRangeM = &f.ClosingRange
 	if math.IsInf(f.ClosingRange, 0) {
 		d.FailClosingRangeM = nil
 	}
+	return d, nil
+}
+
+// failureFigures adds the loss if a device fails, common to both kinds of
+// plan: the added uncovered area, the deepest point of the new gap and the
+// device that takes it over.
+func (sv *Server) failureFigures(d *deviceDoc, f coverage.DeviceFailure) {
+	dp := [2]float64(f.Deepest)
+	d.FailAddedUncoveredM2, d.FailDeepest = &f.AddedUncovered, &dp
 	if f.Backup >= 0 {
-		b := int(s.geo.active[f.Backup])
+		b := int(sv.s.geo.active[f.Backup])
 		d.FailBackup = &b
 	}
-	return d, nil
 }
 
 // cellDoc is one device's service area.

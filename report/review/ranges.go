@@ -17,7 +17,11 @@
 // Setting one device's range (or every device's of a type) first fixes
 // the grown ranges as the devices' own (b_i ← √(b_i² + t), t ← 0), then
 // sets the new one and lays the devices out again. Added devices take the
-// range given, else the largest range in the plan, the same way.
+// range given, else the largest range in the plan, the same way. On a plan
+// with one common range r the same edit switches the session to own
+// ranges: every device takes b_i = r, then the one (or the type) is set;
+// undo returns to the common-range state (session.undoLast restores the
+// snapshot's device list, range and mode, and lays it out the same way).
 //
 // Every figure is the one coverage.AnalyzeRanges reports for the devices
 // in service at ranges √(b_i² + t): the same Layout methods it chains
@@ -43,6 +47,10 @@ type rangedGeo struct {
 	// w2max and w2min are the largest and smallest b_i² in service.
 	w2max, w2min float64
 	services     []coverage.RangesServiceArea // on first request
+	// fails holds the failures asked about (failures.go) by layout input
+	// index, at growth failT; dropped when the growth changes.
+	fails map[int]coverage.DeviceFailure
+	failT float64
 }
 
 // buildRanged lays out the devices in service with their own ranges.
@@ -105,9 +113,6 @@ func baked(devs []device, t float64) []device {
 // rangeEdit applies a "device-range" or "type-range" edit: the new device
 // list, at growth 0.
 func (s *session) rangeEdit(e *Edit, cfg *Config) ([]device, error) {
-	if !s.ranged {
-		return nil, refuse(409, "this plan has one common range: use the range slider (start review with a range column or --type-range for ranges per device)")
-	}
 	if e.Range == nil {
 		return nil, refuse(400, "%s edit needs \"range\" (metres)", e.Op)
 	}
@@ -116,6 +121,11 @@ func (s *session) rangeEdit(e *Edit, cfg *Config) ([]device, error) {
 		return nil, err
 	}
 	devs := baked(s.devs, s.t)
+	if !s.ranged {
+		for i := range devs {
+			devs[i].R = s.r // every device keeps the common range
+		}
+	}
 	if e.Op == "device-range" {
 		if e.Device == nil {
 			return nil, refuse(400, "device-range edit needs \"device\" (a device index)")
@@ -188,8 +198,9 @@ func rangedGap(d *gapDoc, gp coverage.Gap, g *geometry) {
 }
 
 // rangedDevice adds the figures of device i (layout input k) with own
-// ranges: its range, served area and whether it is hidden.
-func (sv *Server) rangedDevice(d *deviceDoc, k int) {
+// ranges: its range, served area, whether it is hidden, and the loss if it
+// fails at the ranges now (failures.go; a hidden device's costs nothing).
+func (sv *Server) rangedDevice(d *deviceDoc, k int) error {
 	s, g := sv.s, sv.s.geo
 	rg := g.ranged
 	cur := grown(s.devs[d.Device].R, s.t)
@@ -197,18 +208,39 @@ func (sv *Server) rangedDevice(d *deviceDoc, k int) {
 	if rg.services == nil {
 		rg.services = g.layout.ServiceAreasRanges()
 	}
-	if slices.Contains(g.layout.Hidden, k) {
+	if _, hidden := slices.BinarySearch(g.layout.Hidden, k); hidden {
 		d.Hidden = true
-		return
+		zero := 0.0
+		d.FailAddedUncoveredM2 = &zero
+		return nil
 	}
 	j, hit := slices.BinarySearchFunc(rg.services, k, func(a coverage.RangesServiceArea, k int) int { return a.Site - k })
 	if !hit {
-		d.Shared = true // stands on another device's spot
-		return
+		d.Shared = true // stands on another device's spot (its failure costs nothing)
+	} else {
+		sa := rg.services[j]
+		d.ServedM2, d.ServedShare, d.FarthestM = &sa.Area, &sa.Share, &sa.Farthest
+		if s.t == 0 {
+			d.WithinRangeM2 = &sa.Served
+		}
 	}
-	sa := rg.services[j]
-	d.ServedM2, d.ServedShare, d.FarthestM = &sa.Area, &sa.Share, &sa.Farthest
-	if s.t == 0 {
-		d.WithinRangeM2 = &sa.Served
+	if rg.fails == nil || rg.failT != s.t {
+		rg.fails, rg.failT = map[int]coverage.DeviceFailure{}, s.t
 	}
+	f, ok := rg.fails[k]
+	if !ok {
+		var err error
+		if f, err = g.rangedFailure(k, s.t, &sv.cfg); err != nil {
+			return err
+		}
+		rg.fails[k] = f
+	}
+	sv.failureFigures(d, f)
+	if !math.IsInf(f.ClosingPower, 0) {
+		// the largest range at which the others cover what it served, and
+		// the range the backup then needs to reach the deepest point
+		closing, backup := rg.slider(s.t+f.ClosingPower), f.ClosingRange
+		d.FailClosingRangeM, d.FailBackupRangeM = &closing, &backup
+	}
+	return nil
 }

@@ -58,6 +58,19 @@ const rangesTolerance = 1e-9
 // near reports whether a and b agree to rangesTolerance relative to scale.
 func near(a, b, scale float64) bool { return math.Abs(a-b) <= rangesTolerance*scale }
 
+// inService returns the devices in service of state s: positions, ranges
+// at growth g (√(b² + g)) and device indices.
+func inService(s stateDoc, g float64) (pts []orb.Point, ranges []float64, idx []int) {
+	for i, d := range s.Devices {
+		if d.On {
+			pts = append(pts, orb.Point{d.X, d.Y})
+			ranges = append(ranges, grown(d.Range, g))
+			idx = append(idx, i)
+		}
+	}
+	return pts, ranges, idx
+}
+
 // checkRangedFigures compares the state's figures with
 // coverage.AnalyzeRanges on the devices in service at their ranges now:
 // equal at growth 0 (the same functions on the same input), within
@@ -69,16 +82,7 @@ func checkRangedFigures(t testing.TB, cfg Config, s stateDoc) {
 		t.Fatal("no growthM2 in the state of a plan with own ranges")
 	}
 	g := *f.GrowthM2
-	var pts []orb.Point
-	var ranges []float64
-	var idx []int
-	for i, d := range s.Devices {
-		if d.On {
-			pts = append(pts, orb.Point{d.X, d.Y})
-			ranges = append(ranges, grown(d.Range, g))
-			idx = append(idx, i)
-		}
-	}
+	pts, ranges, idx := inService(s, g)
 	a, err := coverage.AnalyzeRanges(pts, ranges, cfg.Region, coverage.Options{})
 	if err != nil {
 		t.Fatal(err)
@@ -188,25 +192,51 @@ func TestRangesEdits(t *testing.T) {
 func TestRangesBadValues(t *testing.T) {
 	_, h := rangedServer(t)
 	editOK(t, h, `{"op":"range","range":160}`) // a growth t > 0
-	cases := []struct {
-		name, body string
-		status     int
-		want       string
-	}{
-		{"nan", `{"op":"device-range","device":1,"range":NaN}`, 400, "bad JSON"},
-		{"infinite", `{"op":"device-range","device":1,"range":1e999}`, 400, "bad JSON"},
-		{"zero", `{"op":"device-range","device":1,"range":0}`, 400, "not a positive"},
-		{"negative", `{"op":"device-range","device":1,"range":-3}`, 400, "not a positive"},
-		{"absurd", `{"op":"device-range","device":1,"range":1e9}`, 422, "beyond"},
-		{"no range", `{"op":"device-range","device":1}`, 400, "needs \"range\""},
-		{"no device", `{"op":"device-range","range":50}`, 400, "needs \"device\""},
-		{"no such device", `{"op":"device-range","device":999,"range":50}`, 404, "no device 999"},
-		{"type zero", `{"op":"type-range","type":"sensor","range":0}`, 400, "not a positive"},
-		{"unknown type", `{"op":"type-range","type":"siren","range":50}`, 404, "no device of type"},
-		{"slider below least", `{"op":"range","range":100}`, 422, "shrink"},
-		{"added negative", `{"op":"add","points":[{"x":0,"y":0,"range":-1}]}`, 400, "added point 0"},
-		{"added absurd", `{"op":"add","points":[{"x":0,"y":0,"range":1e8}]}`, 422, "added point 0"},
-	}
+	checkRefused(t, h, append(badDeviceRanges,
+		refusal{"infinite", `{"op":"device-range","device":1,"range":1e999}`, 400, "bad JSON"},
+		refusal{"type zero", `{"op":"type-range","type":"sensor","range":0}`, 400, "not a positive"},
+		refusal{"slider below least", `{"op":"range","range":100}`, 422, "shrink"},
+		refusal{"added negative", `{"op":"add","points":[{"x":0,"y":0,"range":-1}]}`, 400, "added point 0"},
+		refusal{"added absurd", `{"op":"add","points":[{"x":0,"y":0,"range":1e8}]}`, 422, "added point 0"},
+	))
+	t.Run("common range plan", func(t *testing.T) {
+		// an added device's own range needs a plan with ranges per device
+		// (a device-range edit switches a common-range plan to one:
+		// TestRangesFromCommon)
+		_, hc := testServer(t)
+		body := `{"op":"add","points":[{"x":0,"y":0,"range":50}]}`
+		if code, b := do(t, hc, http.MethodPost, "/api/edit", body); code != 409 {
+			t.Errorf("%s on a common-range plan: status %d: %s", body, code, b)
+		}
+	})
+}
+
+// refusal is an edit that must be refused: its body, the status and a
+// part of the error message.
+type refusal struct {
+	name, body string
+	status     int
+	want       string
+}
+
+// badDeviceRanges are device-range and type-range edits refused on any
+// plan (own ranges or one common range).
+var badDeviceRanges = []refusal{
+	{"nan", `{"op":"device-range","device":1,"range":NaN}`, 400, "bad JSON"},
+	{"zero", `{"op":"device-range","device":1,"range":0}`, 400, "not a positive"},
+	{"negative", `{"op":"device-range","device":1,"range":-3}`, 400, "not a positive"},
+	{"absurd", `{"op":"device-range","device":1,"range":1e9}`, 422, "beyond"},
+	{"no range", `{"op":"device-range","device":1}`, 400, "needs \"range\""},
+	{"no device", `{"op":"device-range","range":50}`, 400, "needs \"device\""},
+	{"no such device", `{"op":"device-range","device":999,"range":50}`, 404, "no device 999"},
+	{"negative device", `{"op":"device-range","device":-1,"range":50}`, 404, "no device -1"},
+	{"unknown type", `{"op":"type-range","type":"siren","range":50}`, 404, "no device of type"},
+}
+
+// checkRefused sends each refused edit to h and checks the status, the
+// message and that the session is unchanged.
+func checkRefused(t *testing.T, h http.Handler, cases []refusal) {
+	t.Helper()
 	before := do200(t, h, "/api/state")
 	for _, c := range cases {
 		t.Run(c.name, func(t *testing.T) {
@@ -221,14 +251,6 @@ func TestRangesBadValues(t *testing.T) {
 			}
 		})
 	}
-	t.Run("common range plan", func(t *testing.T) {
-		_, hc := testServer(t)
-		for _, body := range []string{`{"op":"device-range","device":1,"range":50}`, `{"op":"add","points":[{"x":0,"y":0,"range":50}]}`} {
-			if code, b := do(t, hc, http.MethodPost, "/api/edit", body); code != 409 {
-				t.Errorf("%s on a common-range plan: status %d: %s", body, code, b)
-			}
-		}
-	})
 }
 
 // TestRangesSave: the saved plan carries the range and type columns, and
@@ -293,4 +315,30 @@ func TestRangesConcurrentEdits(t *testing.T) {
 	}
 	wg.Wait()
 	checkRangedFigures(t, cfg, getState(t, h))
+}
+
+// TestRangesCurveClipped: with own ranges the coverage curve starts at the
+// slider's least value, with the exact covered share there, and has no
+// point below it.
+func TestRangesCurveClipped(t *testing.T) {
+	_, h := rangedServer(t)
+	for _, body := range []string{"", `{"op":"range","range":170}`, `{"op":"device-range","device":0,"range":40}`} {
+		s := getState(t, h)
+		if body != "" {
+			s = editOK(t, h, body)
+		}
+		f := s.Figures
+		c := f.Curve
+		if len(c) == 0 || c[0][0] != *f.LeastRangeM {
+			t.Fatalf("after %q: curve starts at %v; least range %v", body, c[0], *f.LeastRangeM)
+		}
+		for _, p := range c {
+			if p[0] < *f.LeastRangeM {
+				t.Errorf("after %q: curve point %v below the least range %v", body, p, *f.LeastRangeM)
+			}
+		}
+		if c[1][0] <= c[0][0] || c[0][1] > c[1][1] {
+			t.Errorf("after %q: curve opens %v, %v", body, c[0], c[1])
+		}
+	}
 }

@@ -168,6 +168,12 @@ func (c *Config) checkRanges() error {
 	if c.Types != nil && len(c.Types) != len(c.Sites) {
 		return fmt.Errorf("%d types for %d sites", len(c.Types), len(c.Sites))
 	}
+	for _, t := range c.Types {
+		if t != "" && !slices.Contains(c.typeList, t) {
+			c.typeList = append(c.typeList, t)
+		}
+	}
+	slices.Sort(c.typeList)
 	if c.Ranges == nil {
 		return c.checkRange(c.Range)
 	}
@@ -181,12 +187,6 @@ func (c *Config) checkRanges() error {
 		}
 		c.Range = max(c.Range, r)
 	}
-	for _, t := range c.Types {
-		if t != "" && !slices.Contains(c.typeList, t) {
-			c.typeList = append(c.typeList, t)
-		}
-	}
-	slices.Sort(c.typeList)
 	return nil
 }
 

@@ -25,7 +25,9 @@
 //     come from Layout.ServiceAreas and coverage.Failures, which are local
 //     per device (each visits the device's cell and its Delaunay
 //     neighbours); they are computed on the first request after an edit
-//     and kept until the next edit.
+//     and kept until the next edit. With own ranges the loss is computed
+//     for the device asked about only (failures.go), kept until the next
+//     edit or slider move.
 //
 // Every figure is the one coverage.Analyze reports for the same devices
 // and range: the same functions are called with the same arguments. With
@@ -81,10 +83,13 @@ type device struct {
 	Type  string
 }
 
-// snapshot is a session state kept for undo.
+// snapshot is a session state kept for undo: the devices, the range or
+// growth, and whether the devices had their own ranges (a device-range
+// edit on a common-range plan switches to own ranges; its undo back).
 type snapshot struct {
-	devs []device
-	r, t float64
+	devs   []device
+	r, t   float64
+	ranged bool
 }
 
 // geometry is what depends on the devices in service but not on the
@@ -176,7 +181,7 @@ func newSession(sites []orb.Point, names []string, r float64, cfg *Config) (*ses
 		}
 	}
 	s := &session{ranged: cfg.Ranges != nil}
-	geo, at, err := compute(devs, r, 0, cfg, nil)
+	geo, at, err := compute(devs, s.ranged, r, 0, cfg, nil)
 	if err != nil {
 		return nil, err
 	}
@@ -184,10 +189,10 @@ func newSession(sites []orb.Point, names []string, r float64, cfg *Config) (*ses
 	return s, nil
 }
 
-// buildGeometry lays out the devices in service, reusing the curve terms
-// of the cells prev (nil: none) has too. The first call, from New, also
-// fixes the curve's sample ranges.
-func buildGeometry(devs []device, cfg *Config, prev *geometry) (*geometry, error) {
+// buildGeometry lays out the devices in service (with their own ranges
+// when ranged), reusing the curve terms of the cells prev (nil: none) has
+// too. The first call, from New, also fixes the curve's sample ranges.
+func buildGeometry(devs []device, ranged bool, cfg *Config, prev *geometry) (*geometry, error) {
 	g := &geometry{}
 	pts := make([]orb.Point, 0, len(devs))
 	for i, d := range devs {
@@ -199,7 +204,7 @@ func buildGeometry(devs []device, cfg *Config, prev *geometry) (*geometry, error
 	if len(pts) == 0 {
 		return nil, refuse(409, "at least one device must stay in service")
 	}
-	if cfg.Ranges != nil {
+	if ranged {
 		return g, buildRanged(g, pts, devs, cfg)
 	}
 	l, err := coverage.NewLayout(pts, cfg.Region)
@@ -239,8 +244,9 @@ func (g *geometry) atRange(r, t float64) (atRange, error) {
 }
 
 // Edit is one edit request. Op is "move", "add", "remove", "off", "on",
-// "range", "undo", and with own ranges "device-range" (Device, Range) or
-// "type-range" (Type, Range).
+// "range", "undo", "device-range" (Device, Range) or "type-range" (Type,
+// Range); the last two switch a plan with one common range to own ranges
+// (ranges.go).
 type Edit struct {
 	// Op names the edit.
 	Op string `json:"op"`
@@ -318,11 +324,13 @@ func (s *session) apply(e *Edit, cfg *Config) error {
 	if err != nil {
 		return err
 	}
-	t := s.t
+	t, ranged := s.t, s.ranged
 	if e.Op == "device-range" || e.Op == "type-range" || s.ranged && e.Op == "add" {
-		t = 0 // the grown ranges were fixed as the devices' own (ranges.go)
+		// the grown ranges were fixed as the devices' own, or on a
+		// common-range plan every device took the common range (ranges.go)
+		t, ranged = 0, true
 	}
-	geo, at, err := compute(devs, s.r, t, cfg, s.geo)
+	geo, at, err := compute(devs, ranged, s.r, t, cfg, s.geo)
 	if err != nil {
 		return err
 	}
@@ -331,7 +339,7 @@ func (s *session) apply(e *Edit, cfg *Config) error {
 	if t != s.t {
 		s.change = nil // every device's own range changed
 	}
-	s.devs, s.geo, s.at, s.t = devs, geo, at, t
+	s.devs, s.geo, s.at, s.t, s.ranged = devs, geo, at, t, ranged
 	s.version++
 	return nil
 }
@@ -458,10 +466,10 @@ func (s *session) added(e *Edit, cfg *Config) ([]device, error) {
 	return devs, nil
 }
 
-// compute lays out devs and computes the figures at range r (own ranges:
-// at growth t), reusing what it can of prev (nil: nothing).
-func compute(devs []device, r, t float64, cfg *Config, prev *geometry) (*geometry, atRange, error) {
-	geo, err := buildGeometry(devs, cfg, prev)
+// compute lays out devs and computes the figures at range r (own ranges,
+// when ranged: at growth t), reusing what it can of prev (nil: nothing).
+func compute(devs []device, ranged bool, r, t float64, cfg *Config, prev *geometry) (*geometry, atRange, error) {
+	geo, err := buildGeometry(devs, ranged, cfg, prev)
 	if err != nil {
 		return nil, atRange{}, err
 	}
@@ -478,7 +486,7 @@ func (s *session) push() {
 	if len(s.undo) == MaxUndo {
 		s.undo = slices.Delete(s.undo, 0, 1)
 	}
-	s.undo = append(s.undo, snapshot{devs: s.devs, r: s.r, t: s.t})
+	s.undo = append(s.undo, snapshot{devs: s.devs, r: s.r, t: s.t, ranged: s.ranged})
 }
 
 // undoLast restores the state before the last edit.
@@ -487,11 +495,11 @@ func (s *session) undoLast(cfg *Config) error {
 		return refuse(409, "nothing to undo")
 	}
 	last := s.undo[len(s.undo)-1]
-	geo, at, err := compute(last.devs, last.r, last.t, cfg, s.geo)
+	geo, at, err := compute(last.devs, last.ranged, last.r, last.t, cfg, s.geo)
 	if err != nil {
 		return err
 	}
-	s.devs, s.r, s.t, s.geo, s.at = last.devs, last.r, last.t, geo, at
+	s.devs, s.r, s.t, s.ranged, s.geo, s.at = last.devs, last.r, last.t, last.ranged, geo, at
 	s.undo = s.undo[:len(s.undo)-1]
 	s.gesture = 0
 	s.change = nil

@@ -575,8 +575,12 @@
       const t = el("text", { x: Math.min(X(r), W - 2), y: H - 8, "text-anchor": X(r) > W - R - 12 ? "end" : "middle" }, c);
       t.textContent = r + " m";
     }
+    // the curve is drawn over the slider's domain only: with own ranges it
+    // starts at the slider's least value (shaded below it)
+    const lo = +$("range").min || 0;
+    if (lo > 0) el("rect", { x: L, y: T, width: X(lo) - L, height: Y(0) - T, class: "curve-out" }, c);
     let d = "";
-    const pts = f.curve.slice();
+    const pts = clipCurve(f.curve, lo);
     if (pts.length && pts[pts.length - 1][0] < curveMax) pts.push([curveMax, 1]);
     pts.forEach((p, i) => { d += (i ? "L" : "M") + X(p[0]).toFixed(1) + " " + Y(p[1]).toFixed(1); });
     el("path", { d: d, class: "curve-line" }, c);
@@ -590,6 +594,19 @@
       $("range").value = r;
       sendRange(+$("range").value, 0);
     };
+  }
+
+  // clipCurve returns the points of the curve c at ranges ≥ lo, opening
+  // with its value at lo (linear between the samples, as drawn).
+  function clipCurve(c, lo) {
+    const k = c.findIndex((p) => p[0] >= lo);
+    if (k < 0) return [];
+    const out = c.slice(k);
+    if (k > 0 && c[k][0] > lo) {
+      const a = c[k - 1], b = c[k];
+      out.unshift([lo, a[1] + (b[1] - a[1]) * (lo - a[0]) / (b[0] - a[0])]);
+    }
+    return out;
   }
 
   // ---------- figures ----------
@@ -607,11 +624,17 @@
     $("fig-uncovered").textContent = fmtArea(f.uncoveredM2);
     $("fig-gaps").textContent = f.gaps.length + (f.gaps.length ? " (" + f.enclosedGaps + " enclosed)" : "");
     $("fig-fullcover").textContent = fmtM(f.fullCoverRangeM);
+    // a device-range edit switches a common-range plan to own ranges, and
+    // its undo back: the slider's labels and domain follow the state
+    if (!scene.lifeSafety) {
+      $("caution-banner").textContent = "Coverage is modelled as disks of " + (ranged() ? "each device's own range" : "one common range") +
+        ": a planning aid, not a guarantee. Follow local codes and licensed practice.";
+    }
+    $("range-label").textContent = ranged() ? "Largest range" : "Range";
+    $("fullcover-label").textContent = ranged() ? "Full cover at largest range" : "Full-cover range";
+    $("range-note").hidden = !ranged();
+    $("range").min = ranged() ? String(Math.ceil(2 * (f.leastRangeM + 0.01)) / 2) : "0.5";
     if (ranged()) {
-      $("range").min = String(Math.ceil(2 * (f.leastRangeM + 0.01)) / 2);
-      $("range-label").textContent = "Largest range";
-      $("fullcover-label").textContent = "Full cover at largest range";
-      $("range-note").hidden = false;
       $("range-note").textContent = "Devices have their own ranges. The slider grows them all together by uniform power growth: " +
         "each range becomes √(r² + t) with one t, the slider showing the largest (the power diagram, so the service areas, stays the same). " +
         "Hidden devices: " + (f.hidden ? f.hidden.length : 0) + ".";
@@ -687,27 +710,37 @@
         row("position", "x " + fx(dv.x, 1) + ", y " + fx(dv.y, 1) + " m");
       if (dv.rangeM !== undefined) {
         h += (dv.type ? row("type", esc(dv.type)) : "") + row("range", fmtM(dv.rangeM));
-        if (dv.hidden) h += row("hidden", "no power cell: its disk lies inside the others' union, so it adds no coverage");
+        if (dv.hidden) h += row("hidden", "its disk is covered by others; its failure costs nothing");
         else if (dv.on && dv.servedM2 !== undefined) {
           h += row("serves", fmtArea(dv.servedM2) + " (" + fmtPct(dv.servedShare) + " of the area; power cell)") +
             (dv.withinRangeM2 !== undefined ? row("within its range", fmtArea(dv.withinRangeM2)) : "") +
-            row("farthest point served", fmtM(dv.farthestM)) +
-            row("if it fails", "not computed with own ranges");
-        }
+            row("farthest point served", fmtM(dv.farthestM)) + failRows(dv, true);
+        } else if (dv.shared) h += row("note", "stands on another device's spot") + failRows(dv, true);
         d.innerHTML = h + "</table>" + rangeControl("dev-range", "Set this device's range", dv.rangeM);
         $("dev-range-set").addEventListener("click", () => setRange({ op: "device-range", device: i }, "dev-range"));
         return;
       }
       if (dv.on) {
         h += row("serves", fmtArea(dv.servedM2) + " (" + fmtPct(dv.servedShare) + " of the area)") +
-          row("farthest point served", fmtM(dv.farthestM)) +
-          row("if it fails: uncovered +", fmtArea(dv.failAddedUncoveredM2)) +
-          row("if it fails: closes at", dv.failClosingRangeM === undefined ? "no device left" : fmtM(dv.failClosingRangeM)) +
-          (dv.failBackup !== undefined ? row("takes over", devName(dv.failBackup)) : "") +
+          row("farthest point served", fmtM(dv.farthestM)) + failRows(dv, false) +
           (dv.shared ? row("note", "stands on another device's spot") : "");
       }
-      d.innerHTML = h + "</table>";
+      // on a common-range plan, setting one device's range switches the
+      // plan to ranges per device (every other device keeps the range)
+      d.innerHTML = h + "</table>" + rangeControl("dev-range", "Set this device's own range", state.figures.rangeM);
+      $("dev-range-set").addEventListener("click", () => setRange({ op: "device-range", device: i }, "dev-range"));
     }).catch((e) => toast(e.message));
+  }
+  // failRows are the rows of the loss if a device fails; with own ranges
+  // the closing is the largest range (the slider's value) and the range
+  // the device taking over needs to reach the deepest point.
+  function failRows(dv, own) {
+    const closes = dv.failClosingRangeM === undefined ? (dv.servedM2 === 0 ? "nothing to close" : "no device left") :
+      (own ? "largest range " : "") + fmtM(dv.failClosingRangeM);
+    return row("if it fails: uncovered +", fmtArea(dv.failAddedUncoveredM2)) +
+      row("if it fails: closes at", closes) +
+      (dv.failBackup !== undefined ? row("takes over", devName(dv.failBackup) +
+        (own && dv.failBackupRangeM !== undefined ? " (needs " + fmtM(dv.failBackupRangeM) + " to reach the deepest point)" : "")) : "");
   }
 
   // rangeControl is a number field with a Set button (own ranges).
@@ -757,11 +790,27 @@
     const gp = gid !== null && state.figures.gaps.find((g) => g.id === gid);
     if (gp) hoverGap(gp, ev); else hideTip();
   }
+  // hoverDevice shows the device's name, then (one request per device and
+  // state, kept while the pointer stays) what it serves and what its
+  // failure would leave uncovered.
+  const hoverFig = { key: "", text: "" };
   function hoverDevice(i, ev) {
     if (dragging.device !== null) return;
-    const d = state.devices[i];
-    tip.textContent = "Device #" + i + (d.label ? " " + d.label : "") + (d.on ? "" : " (off)");
+    const d = state.devices[i], key = state.version + ":" + i;
+    const name = "Device #" + i + (d.label ? " " + d.label : "") + (d.on ? "" : " (off)");
+    tip.textContent = name + (hoverFig.key === key ? hoverFig.text : "");
     tip.hidden = false; moveTip(ev);
+    if (hoverFig.key === key || !d.on) return;
+    hoverFig.key = key; hoverFig.text = "";
+    getJSON("/api/device/" + i).then((dv) => {
+      if (hoverFig.key !== key) return;
+      if (dv.hidden) hoverFig.text = ": hidden — its disk is covered by others; its failure costs nothing";
+      else if (dv.failAddedUncoveredM2 !== undefined) {
+        hoverFig.text = (dv.servedM2 !== undefined ? ": serves " + fmtArea(dv.servedM2) : "") +
+          "; if it fails, uncovered + " + fmtArea(dv.failAddedUncoveredM2);
+      }
+      if (!tip.hidden && tip.textContent === name) tip.textContent = name + hoverFig.text;
+    }).catch(() => {});
   }
 
   // ---------- interaction ----------
@@ -915,15 +964,10 @@
     if (sc.lifeSafety) {
       ban.className = "life";
       ban.textContent = "Life-safety devices: " + sc.cautions.join(" ");
-    } else {
-      ban.textContent = "Coverage is modelled as disks of " + (st.figures.growthM2 !== undefined ? "each device's own range" : "one common range") +
-        ": a planning aid, not a guarantee. Follow local codes and licensed practice.";
     }
     if (!sc.canReport) { $("write-report").disabled = true; $("report-out").textContent = "Start with --out to write the full report."; }
     else $("report-out").textContent = "into " + sc.outDir;
-    const r = $("range");
-    r.max = sc.curveTopM.toString();
-    r.min = "0.5";
+    $("range").max = sc.curveTopM.toString();
     fit();
     setState(st);
     document.body.dataset.ready = "1";
