@@ -45,6 +45,8 @@ package planar
 import (
 	"errors"
 	"fmt"
+	"math"
+	"slices"
 	"strings"
 
 	"github.com/paulmach/orb"
@@ -208,6 +210,9 @@ func booleanRun(a, b orb.MultiPolygon, op int, nameA, nameB string) (orb.MultiPo
 	extracted.dropSlivers()
 	rings, pinches := extracted.openPinches()
 	rings.dropStraight()
+	if err := rings.checkFinite(); err != nil {
+		return nil, st, err
+	}
 	st.Pinches = pinches
 	res := rings.multiPolygon()
 	st.Polygons = len(res)
@@ -296,6 +301,22 @@ func (gr *booleanGraph) exclusionFates(in *booleanInput, rs []int32) (clipped, o
 		}
 	}
 	return clipped, outside
+}
+
+// checkFinite returns an error naming the first non-finite result vertex.
+// The inputs are finite and every result vertex is an input vertex, a
+// rounded crossing point or a pulled-back pinch point, so this never
+// fails unless a degenerate configuration escaped the steps above; it
+// turns such a failure into an error instead of NaN coordinates.
+func (r *booleanRings) checkFinite() error {
+	for i, c := range r.xy {
+		if math.IsNaN(c) || math.IsInf(c, 0) {
+			k, _ := slices.BinarySearch(r.ringStart, int32(i/2)+1)
+			return fmt.Errorf("internal error: result ring %d has a non-finite vertex (%v, %v); the input has a configuration the overlay could not resolve",
+				k-1, r.xy[i&^1], r.xy[i|1])
+		}
+	}
+	return nil
 }
 
 // multiPolygon converts overlay rings to closed orb rings.
