@@ -224,10 +224,30 @@ func booleanRun(a, b orb.MultiPolygon, op int, nameA, nameB string) (orb.MultiPo
 // negative winding number in their operand (a valid polygon's winding is
 // 0 or 1 everywhere, and sums of those are never negative). The error
 // names a ring bounding such a face and a point on it.
+//
+// A face cycle that is a sliver (booleanSliver: mean width below
+// booleanPinchSep ulps) is not taken as evidence: rounded crossing points
+// can fold a part of a valid ring thinner than a few ulps over itself (two
+// crossings on its two sides rounded past each other), leaving a face of
+// winding −1 and ulp-scale width. Such a face is outside the operand (its
+// winding is below 1), as the exact, unfolded ring would have it to within
+// its width.
 func (gr *booleanGraph) checkNesting(in *booleanInput, rs []int32, xy []float64) error {
 	bad := -1
+	var cyc []float64
 	for f, w := range gr.wind {
-		if w[0] < 0 || w[1] < 0 {
+		if w[0] >= 0 && w[1] >= 0 {
+			continue
+		}
+		cyc = cyc[:0]
+		for h := gr.faceHE[f]; ; {
+			v := gr.origin(h)
+			cyc = append(cyc, gr.vx[2*v], gr.vx[2*v+1])
+			if h = gr.next(h); h == gr.faceHE[f] {
+				break
+			}
+		}
+		if !booleanSliver(cyc) {
 			bad = f
 			break
 		}

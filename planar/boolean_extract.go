@@ -234,19 +234,7 @@ func (r *booleanRings) dropStraight() {
 func (r *booleanRings) dropSlivers() int {
 	sliver := func(k int) bool {
 		s, e := int(r.ringStart[k]), int(r.ringStart[k+1])
-		xy := r.xy[2*s : 2*e]
-		n := e - s
-		if n < 3 {
-			return true // collapsed by mergeNearVertices
-		}
-		per, m := 0.0, 0.0
-		for i := 0; i < n; i++ {
-			j := (i + 1) % n
-			per += math.Hypot(xy[2*j]-xy[2*i], xy[2*j+1]-xy[2*i+1])
-			m = math.Max(m, math.Max(math.Abs(xy[2*i]), math.Abs(xy[2*i+1])))
-		}
-		ulp := m * 0x1p-52
-		return math.Abs(RingArea(xy)) <= booleanPinchSep*ulp*per
+		return booleanSliver(r.xy[2*s : 2*e])
 	}
 	merged := r.mergeNearVertices()
 	out := &booleanRings{ringStart: []int32{0}, polyStart: []int32{0}, pinch: make([]bool, len(r.pinch))}
@@ -281,6 +269,25 @@ func (r *booleanRings) dropSlivers() int {
 	}
 	*r = *out
 	return dropped
+}
+
+// booleanSliver reports whether the ring xy (flat, unclosed) is a sliver
+// in the sense of dropSlivers: fewer than 3 vertices, or a mean width
+// below booleanPinchSep ulps (|area| ≤ booleanPinchSep·ulp·perimeter, ulp
+// = 2⁻⁵² times the largest coordinate magnitude of the ring).
+func booleanSliver(xy []float64) bool {
+	n := len(xy) / 2
+	if n < 3 {
+		return true
+	}
+	per, m := 0.0, 0.0
+	for i := 0; i < n; i++ {
+		j := (i + 1) % n
+		per += math.Hypot(xy[2*j]-xy[2*i], xy[2*j+1]-xy[2*i+1])
+		m = math.Max(m, math.Max(math.Abs(xy[2*i]), math.Abs(xy[2*i+1])))
+	}
+	ulp := m * 0x1p-52
+	return math.Abs(RingArea(xy)) <= booleanPinchSep*ulp*per
 }
 
 // booleanNearUlps is the distance, in ulps of the coordinates, within which
