@@ -36,11 +36,18 @@ const booleanFuzzTol = 1e-9
 // whose vertices need not lie on a coarse grid.
 const booleanFuzzUlps = 4 * (2 + 2*booleanNearUlps + 2*booleanPinchSep)
 
-// booleanFuzzRawMax bounds the magnitude of raw coordinates (larger or
-// non-finite ones make the polygon be skipped): sites are metres in a local
-// plane, far below this, and products of coordinates stay far from
-// overflow.
-const booleanFuzzRawMax = 0x1p40
+// booleanFuzzRawMin and booleanFuzzRawMax bound the magnitude of nonzero
+// raw coordinates (others, and non-finite ones, make the polygon be
+// skipped): sites are metres in a local plane, far inside this range.
+// Beyond it Orient2D leaves its expansion arithmetic for big.Rat
+// (predicates.go: 2⁻⁴⁰⁰ to 2⁴⁰⁰ for all operands, which rounded crossing
+// points of tiny coordinates can leave): exact still, but so slow that the
+// fuzzer took a 4-vertex ring at 1e-297 (corpus 689bc3e39b87d036) for a
+// hang.
+const (
+	booleanFuzzRawMin = 0x1p-60
+	booleanFuzzRawMax = 0x1p40
+)
 
 // booleanFuzzShapes decodes data into two polygon sets. Each group is one
 // polygon; byte 0 picks the operand (bit 0) and the kind. When bit 3 is
@@ -51,9 +58,10 @@ const booleanFuzzRawMax = 0x1p40
 // byte%8 vertices, followed by n little-endian float64 (x, y) pairs (16n
 // bytes), for vertices an ulp apart as rounded geometry leaves them; a raw
 // ring that is not simple (NewRegion refuses it) or has a coordinate
-// beyond booleanFuzzRawMax is skipped. It also returns the extra area
-// tolerance for the raw polygons (booleanFuzzUlps ulps of their largest
-// coordinate times the input perimeter; 0 without raw polygons).
+// outside booleanFuzzRawMin to booleanFuzzRawMax is skipped. It also
+// returns the extra area tolerance for the raw polygons (booleanFuzzUlps
+// ulps of their largest coordinate times the input perimeter; 0 without
+// raw polygons).
 func booleanFuzzShapes(data []byte) (a, b orb.MultiPolygon, rawTol float64) {
 	rawMax, per, raw := 0.0, 0.0, false
 	for len(data) >= 7 && len(a)+len(b) < 12 {
@@ -116,13 +124,14 @@ func booleanFuzzShapes(data []byte) (a, b orb.MultiPolygon, rawTol float64) {
 }
 
 // booleanFuzzRaw decodes little-endian float64 (x, y) pairs into a
-// one-ring polygon; nil when a coordinate is not finite or beyond
-// booleanFuzzRawMax, or when NewRegion refuses the ring.
+// one-ring polygon; nil when a coordinate is not finite or outside
+// booleanFuzzRawMin to booleanFuzzRawMax, or when NewRegion refuses the
+// ring.
 func booleanFuzzRaw(data []byte) orb.Polygon {
 	var c []float64
 	for i := 0; i+8 <= len(data); i += 8 {
 		v := math.Float64frombits(binary.LittleEndian.Uint64(data[i:]))
-		if !(math.Abs(v) <= booleanFuzzRawMax) {
+		if a := math.Abs(v); !(a <= booleanFuzzRawMax) || a != 0 && a < booleanFuzzRawMin {
 			return nil
 		}
 		c = append(c, v)
