@@ -208,7 +208,10 @@ func booleanRun(a, b orb.MultiPolygon, op int, nameA, nameB string) (orb.MultiPo
 	st.ExclusionsClipped, st.ExclusionsOutside = gr.exclusionFates(&in, rs)
 	extracted := gr.extract(gr.booleanSelect(op))
 	extracted.dropSlivers()
-	rings, pinches := extracted.openPinches()
+	rings, pinches, err := extracted.openPinches()
+	if err != nil {
+		return nil, st, err
+	}
 	rings.dropStraight()
 	if err := rings.checkFinite(); err != nil {
 		return nil, st, err

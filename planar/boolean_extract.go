@@ -301,9 +301,9 @@ const booleanNearUlps = 4
 // ulp or two apart; the edges between them are too short for pinch opening
 // to pull a passage back from the other, so they are made one point first.
 // A dropped vertex lies within booleanNearUlps ulps of the kept vertex at
-// the time it is dropped, and the kept vertex changes at most once (to a
-// pinch vertex, which is never replaced), so the ring moves by at most
-// 2·booleanNearUlps ulps.
+// the time it is dropped, and within a pass the kept vertex changes at
+// most once (to a pinch vertex, which is never replaced), so each dropped
+// vertex is within 2·booleanNearUlps ulps of the vertex replacing it.
 //
 // Merging can leave a ring passing a point twice in a row (a loop of
 // ulp-close vertices collapsed, as where the traced boundary ran

@@ -299,6 +299,15 @@ func TestBooleanOperations(t *testing.T) {
 		// two sides round past each other, folding it into a face of
 		// winding −1 and area 3e-29, once refused as a misplaced hole.
 		{name: "needle folded by rounded crossings", a: orb.MultiPolygon{bPoly(3.25, 3.25, 3.250000001, 3.25, 0, 12), bPoly(0.25, 0.25, 1e-9, 12, 12, 12)}, b: orb.MultiPolygon{bRect(0, 11, 1, 12)}},
+		// Found by FuzzPolygonUnion (corpus 2f17ec41a72242fb): the
+		// quadrilateral has a spike a few ulps wide ending at the point
+		// where the triangle touches it; pulling the quadrilateral's
+		// passage back from that point swept its edge across the spike's
+		// other side, so only the triangle's passage is pulled back.
+		{name: "sliver spike at a pinch point", a: orb.MultiPolygon{
+			bPoly(46.37647058823529, 8.094117647058823, 44.01831629136029, 14.333885158752004, 16.008547794117646, 14.333885158752011, 44.01911294364769, 14.333885158752011),
+			bPoly(16.188235294117646, 16.188235294117646, 44.0191129436477, 14.33388515875197, 44.0191129436477, 1.0923389955279424e+06),
+		}},
 		{name: "k-gap parts split between operands", a: booleanKGapParts[:2], b: booleanKGapParts[2:],
 			refArea: booleanKGapRefArea, refTol: kgapTol, refPolys: 1},
 	}
