@@ -45,6 +45,8 @@ package planar
 import (
 	"errors"
 	"fmt"
+	"math"
+	"slices"
 	"strings"
 
 	"github.com/paulmach/orb"
@@ -206,8 +208,14 @@ func booleanRun(a, b orb.MultiPolygon, op int, nameA, nameB string) (orb.MultiPo
 	st.ExclusionsClipped, st.ExclusionsOutside = gr.exclusionFates(&in, rs)
 	extracted := gr.extract(gr.booleanSelect(op))
 	extracted.dropSlivers()
-	rings, pinches := extracted.openPinches()
+	rings, pinches, err := extracted.openPinches()
+	if err != nil {
+		return nil, st, err
+	}
 	rings.dropStraight()
+	if err := rings.checkFinite(); err != nil {
+		return nil, st, err
+	}
 	st.Pinches = pinches
 	res := rings.multiPolygon()
 	st.Polygons = len(res)
@@ -219,10 +227,30 @@ func booleanRun(a, b orb.MultiPolygon, op int, nameA, nameB string) (orb.MultiPo
 // negative winding number in their operand (a valid polygon's winding is
 // 0 or 1 everywhere, and sums of those are never negative). The error
 // names a ring bounding such a face and a point on it.
+//
+// A face cycle that is a sliver (booleanSliver: mean width below
+// booleanPinchSep ulps) is not taken as evidence: rounded crossing points
+// can fold a part of a valid ring thinner than a few ulps over itself (two
+// crossings on its two sides rounded past each other), leaving a face of
+// winding −1 and ulp-scale width. Such a face is outside the operand (its
+// winding is below 1), as the exact, unfolded ring would have it to within
+// its width.
 func (gr *booleanGraph) checkNesting(in *booleanInput, rs []int32, xy []float64) error {
 	bad := -1
+	var cyc []float64
 	for f, w := range gr.wind {
-		if w[0] < 0 || w[1] < 0 {
+		if w[0] >= 0 && w[1] >= 0 {
+			continue
+		}
+		cyc = cyc[:0]
+		for h := gr.faceHE[f]; ; {
+			v := gr.origin(h)
+			cyc = append(cyc, gr.vx[2*v], gr.vx[2*v+1])
+			if h = gr.next(h); h == gr.faceHE[f] {
+				break
+			}
+		}
+		if !booleanSliver(cyc) {
 			bad = f
 			break
 		}
@@ -296,6 +324,22 @@ func (gr *booleanGraph) exclusionFates(in *booleanInput, rs []int32) (clipped, o
 		}
 	}
 	return clipped, outside
+}
+
+// checkFinite returns an error naming the first non-finite result vertex.
+// The inputs are finite and every result vertex is an input vertex, a
+// rounded crossing point or a pulled-back pinch point, so this never
+// fails unless a degenerate configuration escaped the steps above; it
+// turns such a failure into an error instead of NaN coordinates.
+func (r *booleanRings) checkFinite() error {
+	for i, c := range r.xy {
+		if math.IsNaN(c) || math.IsInf(c, 0) {
+			k, _ := slices.BinarySearch(r.ringStart, int32(i/2)+1)
+			return fmt.Errorf("internal error: result ring %d has a non-finite vertex (%v, %v); the input has a configuration the overlay could not resolve",
+				k-1, r.xy[i&^1], r.xy[i|1])
+		}
+	}
+	return nil
 }
 
 // multiPolygon converts overlay rings to closed orb rings.

@@ -234,16 +234,7 @@ func (r *booleanRings) dropStraight() {
 func (r *booleanRings) dropSlivers() int {
 	sliver := func(k int) bool {
 		s, e := int(r.ringStart[k]), int(r.ringStart[k+1])
-		xy := r.xy[2*s : 2*e]
-		n := e - s
-		per, m := 0.0, 0.0
-		for i := 0; i < n; i++ {
-			j := (i + 1) % n
-			per += math.Hypot(xy[2*j]-xy[2*i], xy[2*j+1]-xy[2*i+1])
-			m = math.Max(m, math.Max(math.Abs(xy[2*i]), math.Abs(xy[2*i+1])))
-		}
-		ulp := m * 0x1p-52
-		return math.Abs(RingArea(xy)) <= booleanPinchSep*ulp*per
+		return booleanSliver(r.xy[2*s : 2*e])
 	}
 	merged := r.mergeNearVertices()
 	out := &booleanRings{ringStart: []int32{0}, polyStart: []int32{0}, pinch: make([]bool, len(r.pinch))}
@@ -280,54 +271,124 @@ func (r *booleanRings) dropSlivers() int {
 	return dropped
 }
 
+// booleanSliver reports whether the ring xy (flat, unclosed) is a sliver
+// in the sense of dropSlivers: fewer than 3 vertices, or a mean width
+// below booleanPinchSep ulps (|area| ≤ booleanPinchSep·ulp·perimeter, ulp
+// = 2⁻⁵² times the largest coordinate magnitude of the ring).
+func booleanSliver(xy []float64) bool {
+	n := len(xy) / 2
+	if n < 3 {
+		return true
+	}
+	per, m := 0.0, 0.0
+	for i := 0; i < n; i++ {
+		j := (i + 1) % n
+		per += math.Hypot(xy[2*j]-xy[2*i], xy[2*j+1]-xy[2*i+1])
+		m = math.Max(m, math.Max(math.Abs(xy[2*i]), math.Abs(xy[2*i+1])))
+	}
+	ulp := m * 0x1p-52
+	return math.Abs(RingArea(xy)) <= booleanPinchSep*ulp*per
+}
+
 // booleanNearUlps is the distance, in ulps of the coordinates, within which
 // consecutive ring vertices are taken as one point by mergeNearVertices.
 const booleanNearUlps = 4
 
-// mergeNearVertices drops, in place, each ring vertex that lies within
-// booleanNearUlps ulps (in x and in y) of the next vertex of its ring,
-// keeping the one that is a pinch vertex when one is. Rounded crossing
-// points of different edge pairs at one true point can land an ulp or two
-// apart; the edge between them is too short for pinch opening to pull a
-// passage back from the other, so they are made one point first (the ring
-// moves by at most booleanNearUlps ulps). It returns the number dropped;
-// the pinch flags are recounted by the caller.
+// mergeNearVertices makes each run of consecutive ring vertices lying
+// within booleanNearUlps ulps (in x and in y) of the run's kept vertex one
+// point, in place, keeping a pinch vertex when the run has one. Rounded
+// crossing points of different edge pairs at one true point can land an
+// ulp or two apart; the edges between them are too short for pinch opening
+// to pull a passage back from the other, so they are made one point first.
+// A dropped vertex lies within booleanNearUlps ulps of the kept vertex at
+// the time it is dropped, and within a pass the kept vertex changes at
+// most once (to a pinch vertex, which is never replaced), so each dropped
+// vertex is within 2·booleanNearUlps ulps of the vertex replacing it.
+//
+// Merging can leave a ring passing a point twice in a row (a loop of
+// ulp-close vertices collapsed, as where the traced boundary ran
+// v → a → b → v with a and b an ulp from v) or doubling back (x → y → x).
+// Both are removed too (booleanMergePass), so no ring edge has zero length
+// (pinch opening divides by edge lengths); a ring left with fewer than 3
+// vertices has no area and is dropped by dropSlivers. It returns the
+// number of vertices dropped; the pinch flags are recounted by the caller.
 func (r *booleanRings) mergeNearVertices() int {
-	near := func(i, j int32) bool {
-		xi, yi, xj, yj := r.xy[2*i], r.xy[2*i+1], r.xy[2*j], r.xy[2*j+1]
-		tol := booleanNearUlps * 0x1p-52 * math.Max(math.Max(math.Abs(xi), math.Abs(yi)), math.Max(math.Abs(xj), math.Abs(yj)))
-		return math.Abs(xi-xj) <= tol && math.Abs(yi-yj) <= tol
-	}
 	xy, vid := r.xy[:0], r.vid[:0]
 	rs := make([]int32, 1, len(r.ringStart))
 	dropped := 0
+	var cur, nxt []int32
 	for k := 0; k+1 < len(r.ringStart); k++ {
 		s, e := r.ringStart[k], r.ringStart[k+1]
-		n := e - s
-		drop := make([]bool, n)
-		left := n
-		for i := int32(0); i < n && left > 3; i++ {
-			j := (i + 1) % n
-			if drop[i] || drop[j] || !near(s+i, s+j) {
-				continue
-			}
-			if r.pinch[r.vid[s+i]] && !r.pinch[r.vid[s+j]] {
-				drop[j] = true
-			} else {
-				drop[i] = true
-			}
-			left--
+		cur = cur[:0]
+		for i := s; i < e; i++ {
+			cur = append(cur, i)
 		}
-		for i := int32(0); i < n; i++ {
-			if drop[i] {
-				dropped++
-				continue
+		// A pass does not look across its seam (last → first), so the
+		// list is turned half-way round after each pass, putting the
+		// seam inside the next one; done when a pass after the first
+		// changes nothing (every pass that changes something drops a
+		// vertex, so this ends; normally after two passes).
+		for pass := 0; ; pass++ {
+			nxt = r.booleanMergePass(nxt[:0], cur)
+			changed := len(nxt) != len(cur)
+			h := len(nxt) / 2
+			cur = append(append(cur[:0], nxt[h:]...), nxt[:h]...)
+			if (pass > 0 && !changed) || len(cur) < 3 {
+				break
 			}
-			xy = append(xy, r.xy[2*(s+i)], r.xy[2*(s+i)+1])
-			vid = append(vid, r.vid[s+i])
+		}
+		// Back to the ring's own starting vertex (positions increase
+		// along the ring from it).
+		first := 0
+		for j, i := range cur {
+			if i < cur[first] {
+				first = j
+			}
+		}
+		dropped += int(e-s) - len(cur)
+		for _, i := range append(cur[first:], cur[:first]...) {
+			xy = append(xy, r.xy[2*i], r.xy[2*i+1])
+			vid = append(vid, r.vid[i])
 		}
 		rs = append(rs, int32(len(vid)))
 	}
 	r.xy, r.vid, r.ringStart = xy, vid, rs
 	return dropped
+}
+
+// booleanMergePass appends to st the ring positions of ring (in order)
+// that one merging pass of mergeNearVertices keeps: each vertex close to
+// the last kept one merged into it, then repeated vertices and spikes
+// (x → y → x, by arrangement vertex) popped. Each position is pushed once
+// and popped at most once: linear. The pair (last, first) is not looked at.
+func (r *booleanRings) booleanMergePass(st, ring []int32) []int32 {
+	same := func(i, j int32) bool { return r.vid[i] == r.vid[j] }
+	for _, i := range ring {
+		n := len(st)
+		switch {
+		case n == 0 || !r.near(st[n-1], i):
+			st = append(st, i)
+		case r.pinch[r.vid[i]] && !r.pinch[r.vid[st[n-1]]]:
+			st[n-1] = i
+		}
+		for {
+			n = len(st)
+			if n >= 2 && same(st[n-2], st[n-1]) {
+				st = st[:n-1]
+			} else if n >= 3 && same(st[n-3], st[n-1]) {
+				st = st[:n-2]
+			} else {
+				break
+			}
+		}
+	}
+	return st
+}
+
+// near reports whether ring positions i and j are within booleanNearUlps
+// ulps of each other in x and in y.
+func (r *booleanRings) near(i, j int32) bool {
+	xi, yi, xj, yj := r.xy[2*i], r.xy[2*i+1], r.xy[2*j], r.xy[2*j+1]
+	tol := booleanNearUlps * 0x1p-52 * math.Max(math.Max(math.Abs(xi), math.Abs(yi)), math.Max(math.Abs(xj), math.Abs(yj)))
+	return math.Abs(xi-xj) <= tol && math.Abs(yi-yj) <= tol
 }

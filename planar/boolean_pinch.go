@@ -24,10 +24,18 @@
 // cap L/4 or c/4 binds (features within ~booleanPinchSep ulps of v) the
 // separation is smaller; the caller's final NewRegion call checks the
 // outcome exactly and reports a failure.
+//
+// The new edges p v′ and v′ q sweep the triangles above; where another
+// edge of the ring runs within ulps of v p or v q (a sliver spike of the
+// result along that side, thinner than the pull-back), they would cross
+// it. Each pull-back is therefore checked exactly (pullBackClear); a
+// passage that fails stays at v, which is enough when it is the only one
+// (the others leave v). Two such passages at one point are an error.
 
 package planar
 
 import (
+	"fmt"
 	"math"
 	"slices"
 )
@@ -38,8 +46,10 @@ const booleanPinchSep = 64
 
 // openPinches pulls every passage of a ring through a pinch vertex back
 // into its sector and returns the new rings and the number of pinch
-// vertices.
-func (r *booleanRings) openPinches() (*booleanRings, int) {
+// vertices. A passage whose pull-back would cross another edge
+// (pullBackClear) stays at the vertex, which the other passages leave;
+// if two passages at one vertex cannot be pulled back it returns an error.
+func (r *booleanRings) openPinches() (*booleanRings, int, error) {
 	var pinched []int32
 	for k := 0; k+1 < len(r.ringStart); k++ {
 		for i := r.ringStart[k]; i < r.ringStart[k+1]; i++ {
@@ -49,7 +59,7 @@ func (r *booleanRings) openPinches() (*booleanRings, int) {
 		}
 	}
 	if len(pinched) == 0 {
-		return r, 0
+		return r, 0, nil
 	}
 	var g regionGrid
 	g.build(r.xy, r.ringStart)
@@ -72,6 +82,7 @@ func (r *booleanRings) openPinches() (*booleanRings, int) {
 		c := r.pinchClearance(&g, prev, group)
 		v := group[0]
 		vx, vy := r.xy[2*v], r.xy[2*v+1]
+		kept := false
 		for _, i := range group {
 			p, q := prev[i], next[i]
 			lq, lp := math.Hypot(r.xy[2*q]-vx, r.xy[2*q+1]-vy), math.Hypot(r.xy[2*p]-vx, r.xy[2*p+1]-vy)
@@ -84,12 +95,60 @@ func (r *booleanRings) openPinches() (*booleanRings, int) {
 			}
 			sn, cs := math.Sincos(beta / 2)
 			d := math.Min(booleanPinchSep*ulp/math.Sin(math.Min(beta/2, math.Pi/2)), math.Min(math.Min(lp, lq), c)/4)
-			out.xy[2*i] = vx + d*(ux*cs-uy*sn)
-			out.xy[2*i+1] = vy + d*(ux*sn+uy*cs)
+			x, y := vx+d*(ux*cs-uy*sn), vy+d*(ux*sn+uy*cs)
+			if !r.pullBackClear(&g, prev, i, x, y) {
+				if kept {
+					return nil, nPinch, fmt.Errorf("internal error: the result's rings touch at (%v, %v) in sectors too thin to pull apart (features within a few ulps of the point)", vx, vy)
+				}
+				kept = true // the other passages leave v: this one may stay
+				continue
+			}
+			out.xy[2*i], out.xy[2*i+1] = x, y
 			out.vid[i] = -1
 		}
 	}
-	return out, nPinch
+	return out, nPinch, nil
+}
+
+// pullBackClear reports whether passage i (ring position of a pinch
+// vertex v, between p = prev[i] and q = next[i]) may be pulled back to
+// (x, y): the new edges p → (x, y) → q meet no ring edge except the
+// passage's own two (which they replace) and, at p and q only, the edges
+// ending there. Exact (Orient2D). The pull-back of openPinches keeps the
+// new edges inside the passage's sector, so this fails only where another
+// edge of the ring runs within ulps of the sector's side: a part of the
+// ring a few ulps wide along p → v or v → q (a sliver spike), which the
+// pulled edge would sweep across.
+func (r *booleanRings) pullBackClear(g *regionGrid, prev []int32, i int32, x, y float64) bool {
+	next := g.next
+	p, q := prev[i], next[i]
+	ends := [2]int32{p, q}
+	x0, y0 := min(x, r.xy[2*i], r.xy[2*p], r.xy[2*q]), min(y, r.xy[2*i+1], r.xy[2*p+1], r.xy[2*q+1])
+	x1, y1 := max(x, r.xy[2*i], r.xy[2*p], r.xy[2*q]), max(y, r.xy[2*i+1], r.xy[2*p+1], r.xy[2*q+1])
+	clear := true
+	g.cellEdges(x0, y0, x1, y1, func(e int32) {
+		if !clear || e == p || e == i {
+			return
+		}
+		n := next[e]
+		ax, ay, bx, by := r.xy[2*e], r.xy[2*e+1], r.xy[2*n], r.xy[2*n+1]
+		for _, s := range ends {
+			sx, sy := r.xy[2*s], r.xy[2*s+1]
+			switch {
+			case ax == sx && ay == sy:
+				// Shares the end s: may not run along the new edge.
+				clear = !(Orient2D(sx, sy, x, y, bx, by) == 0 && regionSameSide(sx, sy, x, y, bx, by))
+			case bx == sx && by == sy:
+				clear = !(Orient2D(sx, sy, x, y, ax, ay) == 0 && regionSameSide(sx, sy, x, y, ax, ay))
+			default:
+				clear = !SegmentsMeet(x, y, sx, sy, ax, ay, bx, by)
+			}
+			if !clear {
+				return
+			}
+		}
+	})
+	return clear
 }
 
 // pinchClearance returns the distance from the pinch vertex of group (its

@@ -40,13 +40,22 @@ func booleanArea(mp orb.MultiPolygon) float64 {
 	return s
 }
 
-// booleanCheckValid fails unless mp is accepted by NewRegion and its rings
-// are oriented (exteriors counter-clockwise, holes clockwise): the exact
+// booleanCheckValid fails unless every vertex of mp is finite, mp is
+// accepted by NewRegion and its rings are oriented (exteriors counter-clockwise, holes clockwise): the exact
 // validity check used for every result in these tests.
 func booleanCheckValid(t testing.TB, mp orb.MultiPolygon) {
 	t.Helper()
 	if len(mp) == 0 {
 		return
+	}
+	for p, poly := range mp {
+		for k, r := range poly {
+			for i, q := range r {
+				if math.IsNaN(q[0]) || math.IsNaN(q[1]) || math.IsInf(q[0], 0) || math.IsInf(q[1], 0) {
+					t.Fatalf("polygon %d ring %d vertex %d: non-finite (%v, %v)", p, k, i, q[0], q[1])
+				}
+			}
+		}
 	}
 	if _, err := NewRegion(mp); err != nil {
 		t.Fatalf("result not valid: %v", err)
@@ -219,24 +228,113 @@ func booleanOpAreas(t testing.TB, a, b orb.MultiPolygon) (aa, ab, ai, ad, au flo
 	return areas[0], areas[1], areas[2], areas[3], areas[4]
 }
 
+// booleanKGapParts are four parts of a k = 4 coverage gap (the
+// "duplicates" scene at r = 20, from coverage's TestKGapMergeNearVertices)
+// whose shared edges end at points one or two ulps apart: the rounded
+// crossings of different edge pairs at one true point. Traced as they are,
+// the union's boundary ran v → a → b → v with a and b an ulp from v, and
+// merging them left a zero-length edge that pinch opening divided by (NaN
+// vertices).
+var booleanKGapParts = orb.MultiPolygon{
+	{{{46.237926882792756, 13.666420565500378}, {44.01911294364769, 14.333885158752004}, {46.17315575361574, 3.3190202757984357}, {46.17315575361574, 3.3190202757984357}, {46.237926882792756, 13.666420565500378}}},
+	{{{44.01911294364769, 14.333885158752008}, {44.01911294364769, 14.333885158752004}, {46.23792688279276, 13.666420565500374}, {56.34107512875944, 28.388415220118528}, {57.8948101000794, 34.46934519299851}, {57.8948101000794, 34.469345192998546}, {53.539602925789225, 34.60311897660256}, {44.01911294364769, 14.333885158752008}}},
+	{{{42.89586485718421, 11.942476928431024}, {44.0191129436477, 14.333885158752}, {44.0191129436477, 14.333885158752}, {31.350232896422263, 18.14494327340094}, {31.150002779539985, 17.840484686075857}, {42.89586485718421, 11.942476928431024}}},
+	{{{42.89586485718421, 11.942476928431022}, {43.66009911187321, 2.8940816340286326}, {46.17315575361574, 3.319020275798437}, {46.17315575361574, 3.3190202757984566}, {44.0191129436477, 14.333885158752}, {44.0191129436477, 14.333885158752002}, {42.89586485718421, 11.942476928431022}}},
+}
+
+// booleanKGapRefArea is the area of the union of booleanKGapParts from
+// GEOS (shapely 1.8.5 unary_union). GEOS refuses the parts as they are (a
+// TopologyException), so the reference is the union of the parts snapped
+// to a grid of step 2⁻³⁴ (2⁻⁴⁰ times 64, the power of two above the
+// largest coordinate, as coverage's KGapSnapBits), which moves each vertex
+// by at most booleanKGapSnapMove.
+const booleanKGapRefArea = 142.48757360553788
+
+// booleanKGapSnapMove is half the snapping step behind booleanKGapRefArea.
+const booleanKGapSnapMove = 0x1p-35
+
+// booleanKGapUlp is the ulp of the parts' coordinates (all below 64).
+const booleanKGapUlp = 64 * 0x1p-52
+
+// booleanPerimeter returns the summed length of the rings of mp.
+func booleanPerimeter(mp orb.MultiPolygon) float64 {
+	s := 0.0
+	for _, p := range mp {
+		for _, r := range p {
+			for i := 0; i+1 < len(r); i++ {
+				s += math.Hypot(r[i+1][0]-r[i][0], r[i+1][1]-r[i][1])
+			}
+		}
+	}
+	return s
+}
+
 func TestBooleanOperations(t *testing.T) {
 	// Small integer-ish shapes: the areas are shoelace sums of a few terms
 	// of size ≤ 16, exact to well below 1e-12.
 	const tol = 1e-12
+	// The k-gap parts: their union against GEOS within the snapping of
+	// the reference (each vertex moved by booleanKGapSnapMove) plus what
+	// the overlay moves (vertices merged within 2·booleanNearUlps ulps,
+	// slivers and opened pinches within booleanPinchSep ulps), each times
+	// the perimeter; the parts' perimeter bounds the union's and the
+	// slivers'. About 4e-9 here (the result is 2e-13 off).
+	kgapTol := booleanPerimeter(booleanKGapParts) * (booleanKGapSnapMove + (2*booleanNearUlps+booleanPinchSep)*booleanKGapUlp)
 	cases := []struct {
 		name string
 		a, b orb.MultiPolygon
+		// When refTol > 0: A∪B is refPolys polygons without holes of area
+		// refArea ± refTol.
+		refArea, refTol float64
+		refPolys        int
 	}{
-		{"triangle across two squares", orb.MultiPolygon{bRect(0, 0, 2, 2), bRect(3, 0, 4, 1)}, orb.MultiPolygon{bPoly(1, -1, 3.5, 0.5, 1, 3)}},
-		{"b inside a", orb.MultiPolygon{bRect(0, 0, 4, 4)}, orb.MultiPolygon{bRect(1, 1, 2, 2)}},
-		{"disjoint", orb.MultiPolygon{bRect(0, 0, 1, 1)}, orb.MultiPolygon{bRect(2, 2, 3, 3)}},
-		{"equal", orb.MultiPolygon{bRect(0, 0, 1, 1)}, orb.MultiPolygon{bRect(0, 0, 1, 1)}},
+		{name: "triangle across two squares", a: orb.MultiPolygon{bRect(0, 0, 2, 2), bRect(3, 0, 4, 1)}, b: orb.MultiPolygon{bPoly(1, -1, 3.5, 0.5, 1, 3)}},
+		{name: "b inside a", a: orb.MultiPolygon{bRect(0, 0, 4, 4)}, b: orb.MultiPolygon{bRect(1, 1, 2, 2)}},
+		{name: "disjoint", a: orb.MultiPolygon{bRect(0, 0, 1, 1)}, b: orb.MultiPolygon{bRect(2, 2, 3, 3)}},
+		{name: "equal", a: orb.MultiPolygon{bRect(0, 0, 1, 1)}, b: orb.MultiPolygon{bRect(0, 0, 1, 1)}},
+		{name: "k-gap parts meeting at ulp-apart vertices", a: booleanKGapParts,
+			refArea: booleanKGapRefArea, refTol: kgapTol, refPolys: 1},
+		// Found by FuzzPolygonUnion (corpus 8be00c41a4b1dff9): near the
+		// needle's tip the crossings of the other triangle's edge with its
+		// two sides round past each other, folding it into a face of
+		// winding −1 and area 3e-29, once refused as a misplaced hole.
+		{name: "needle folded by rounded crossings", a: orb.MultiPolygon{bPoly(3.25, 3.25, 3.250000001, 3.25, 0, 12), bPoly(0.25, 0.25, 1e-9, 12, 12, 12)}, b: orb.MultiPolygon{bRect(0, 11, 1, 12)}},
+		// Found by FuzzPolygonUnion (corpus 2f17ec41a72242fb): the
+		// quadrilateral has a spike a few ulps wide ending at the point
+		// where the triangle touches it; pulling the quadrilateral's
+		// passage back from that point swept its edge across the spike's
+		// other side, so only the triangle's passage is pulled back.
+		{name: "sliver spike at a pinch point", a: orb.MultiPolygon{
+			bPoly(46.37647058823529, 8.094117647058823, 44.01831629136029, 14.333885158752004, 16.008547794117646, 14.333885158752011, 44.01911294364769, 14.333885158752011),
+			bPoly(16.188235294117646, 16.188235294117646, 44.0191129436477, 14.33388515875197, 44.0191129436477, 1.0923389955279424e+06),
+		}},
+		{name: "k-gap parts split between operands", a: booleanKGapParts[:2], b: booleanKGapParts[2:],
+			refArea: booleanKGapRefArea, refTol: kgapTol, refPolys: 1},
 	}
 	for _, c := range cases {
 		t.Run(c.name, func(t *testing.T) {
 			aa, ab, ai, ad, au := booleanOpAreas(t, c.a, c.b)
-			if math.Abs(ad+ai-aa) > tol || math.Abs(au-(aa+ab-ai)) > tol {
+			idTol := math.Max(tol, c.refTol)
+			if math.Abs(ad+ai-aa) > idTol || math.Abs(au-(aa+ab-ai)) > idTol {
 				t.Errorf("A=%v B=%v A∩B=%v A−B=%v A∪B=%v", aa, ab, ai, ad, au)
+			}
+			if c.refTol == 0 {
+				return
+			}
+			if math.Abs(au-c.refArea) > c.refTol {
+				t.Errorf("area(A∪B) = %.17g, reference %.17g (tolerance %.2g)", au, c.refArea, c.refTol)
+			}
+			u, err := Union(append(append(orb.MultiPolygon{}, c.a...), c.b...))
+			if err != nil {
+				t.Fatal(err)
+			}
+			for _, p := range u {
+				if len(p) != 1 {
+					t.Errorf("A∪B has a polygon with %d holes", len(p)-1)
+				}
+			}
+			if len(u) != c.refPolys {
+				t.Errorf("A∪B is %d polygons, want %d", len(u), c.refPolys)
 			}
 		})
 	}
