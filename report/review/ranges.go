@@ -34,6 +34,7 @@ import (
 	"math"
 	"slices"
 	"strings"
+	"sync"
 
 	"github.com/paulmach/orb"
 	"github.com/sitecover/sitecover/coverage"
@@ -45,6 +46,8 @@ type rangedGeo struct {
 	// curve is nil until asked for (rangedCurve), as is geometry.share.
 	curve *coverage.Curve
 	pers  *coverage.PowerPersistence
+	// persWG is done when pers is set (buildRanged; compute waits).
+	persWG sync.WaitGroup
 	// w2max and w2min are the largest and smallest b_i² in service.
 	w2max, w2min float64
 	services     []coverage.RangesServiceArea // on first request
@@ -68,8 +71,12 @@ func buildRanged(g *geometry, pts []orb.Point, devs []device, cfg *Config) error
 		return refuse(422, "the devices in service cannot be laid out: %v", err)
 	}
 	g.layout, g.ranged = l, rg
+	// The persistence reads only the triangulation and the ranges (no
+	// layout method writes to the layout): it runs beside the full cover
+	// and the range-dependent figures (uncovered area, gaps) on the second
+	// core, and compute waits for it before the layout is used.
+	rg.persWG.Go(func() { rg.pers = l.PersistenceRanges() })
 	rg.full = l.FullCoverRanges()
-	rg.pers = l.PersistenceRanges()
 	if cfg.grid == nil {
 		cfg.grid = curveGrid(curveTop(math.Sqrt(max(0, rg.w2max+rg.full.Power)), cfg.Range, cfg.maxRange))
 	}

@@ -36,7 +36,8 @@
 // coverage curve is then Layout.CurveRanges, not the cache of curve.go.
 //
 // With own ranges a device edit is NOT incremental either (the power
-// diagram, the full cover, the persistence and the gaps are rebuilt), but
+// diagram, the full cover, the persistence and the gaps are rebuilt; the
+// persistence on a second goroutine beside the others, buildRanged), but
 // the coverage curve, the largest cost of such an edit (49 exact passes
 // over every cell), is deferred: the answer of an edit the page sends
 // with Edit.Later leaves it out, and the page fetches it (GET /api/curve)
@@ -487,8 +488,11 @@ func compute(devs []device, ranged bool, r, t float64, cfg *Config, prev *geomet
 	if err != nil {
 		return nil, atRange{}, err
 	}
-	if rg := geo.ranged; rg != nil && !(rg.w2min+t > 0) {
-		return nil, atRange{}, refuse(422, "the ranges grown by the slider would shrink a device to nothing: raise the range slider first")
+	if rg := geo.ranged; rg != nil {
+		defer rg.persWG.Wait() // the persistence runs beside (buildRanged)
+		if !(rg.w2min+t > 0) {
+			return nil, atRange{}, refuse(422, "the ranges grown by the slider would shrink a device to nothing: raise the range slider first")
+		}
 	}
 	at, err := geo.atRange(r, t)
 	return geo, at, err
