@@ -79,7 +79,10 @@ const benchRangeSpread = 25.0
 // "ranges-" the same with own ranges, and "ranges-device" the selected
 // device's figures on the first request after a move (untimed): the page
 // asks for them after every edit (served area and the loss if it fails,
-// failures.go).
+// failures.go). The edits are sent with "patch" and "later" as the page
+// sends them: the device list answered as a patch, and with own ranges
+// the coverage curve of a move left out; "ranges-curve" times the page's
+// follow-up request for it after a move (untimed).
 func BenchmarkReviewUpdate10k(b *testing.B) {
 	h := benchServer(b, benchDevices)
 	rng := rand.New(rand.NewPCG(3, 4))
@@ -90,26 +93,36 @@ func BenchmarkReviewUpdate10k(b *testing.B) {
 	b.Run("ranges-device", func(b *testing.B) {
 		for b.Loop() {
 			i := rng.IntN(benchDevices)
-			b.StopTimer()
-			benchEdit(b, hr, fmt.Sprintf(`{"op":"move","device":%d,"x":%v,"y":%v}`,
-				rng.IntN(benchDevices), rng.Float64()*benchSide, rng.Float64()*benchSide))
-			b.StartTimer()
-			req := httptest.NewRequest(http.MethodGet, fmt.Sprintf("/api/device/%d", i), nil)
-			req.Host = testHost
-			rec := httptest.NewRecorder()
-			hr.ServeHTTP(rec, req)
-			if rec.Code != http.StatusOK {
-				b.Fatalf("device %d: status %d: %s", i, rec.Code, rec.Body.Bytes())
-			}
+			benchAfterMove(b, hr, rng, fmt.Sprintf("/api/device/%d", i))
 		}
 	})
+	b.Run("ranges-curve", func(b *testing.B) {
+		for b.Loop() {
+			benchAfterMove(b, hr, rng, "/api/curve")
+		}
+	})
+}
+
+// benchAfterMove moves a random device (untimed), then times GET path.
+func benchAfterMove(b *testing.B, h http.Handler, rng *rand.Rand, path string) {
+	b.StopTimer()
+	benchEdit(b, h, fmt.Sprintf(`{"op":"move","device":%d,"x":%v,"y":%v,"patch":true,"later":true}`,
+		rng.IntN(benchDevices), rng.Float64()*benchSide, rng.Float64()*benchSide))
+	b.StartTimer()
+	req := httptest.NewRequest(http.MethodGet, path, nil)
+	req.Host = testHost
+	rec := httptest.NewRecorder()
+	h.ServeHTTP(rec, req)
+	if rec.Code != http.StatusOK {
+		b.Fatalf("%s: status %d: %s", path, rec.Code, rec.Body.Bytes())
+	}
 }
 
 // benchUpdates runs the "move" and "range" cases on h, named with prefix.
 func benchUpdates(b *testing.B, h http.Handler, rng *rand.Rand, prefix string) {
 	b.Run(prefix+"move", func(b *testing.B) {
 		for b.Loop() {
-			benchEdit(b, h, fmt.Sprintf(`{"op":"move","device":%d,"x":%v,"y":%v}`,
+			benchEdit(b, h, fmt.Sprintf(`{"op":"move","device":%d,"x":%v,"y":%v,"patch":true,"later":true}`,
 				rng.IntN(benchDevices), rng.Float64()*benchSide, rng.Float64()*benchSide))
 		}
 	})
@@ -117,7 +130,7 @@ func benchUpdates(b *testing.B, h http.Handler, rng *rand.Rand, prefix string) {
 		k := 0
 		for b.Loop() {
 			k++
-			benchEdit(b, h, fmt.Sprintf(`{"op":"range","range":%v}`, benchRange+float64(k%8)))
+			benchEdit(b, h, fmt.Sprintf(`{"op":"range","range":%v,"patch":true,"later":true}`, benchRange+float64(k%8)))
 		}
 	})
 }

@@ -20,6 +20,7 @@ import (
 	"os"
 	"os/exec"
 	"path/filepath"
+	"reflect"
 	"slices"
 	"strconv"
 	"strings"
@@ -349,6 +350,7 @@ func TestBrowserRangesLive(t *testing.T) {
 		t.Fatal(err)
 	}
 	check("device 4 at 60 m")
+	checkCurveLoaded(t, ctx, sv)
 	sv.mu.Lock()
 	r4, t4 := sv.s.devs[4].R, sv.s.t
 	sv.mu.Unlock()
@@ -367,6 +369,47 @@ func TestBrowserRangesLive(t *testing.T) {
 		if d.Type == "beacon" && d.R != 110 {
 			t.Errorf("beacon %d at %v m", i, d.R)
 		}
+	}
+}
+
+// checkCurveLoaded checks that the page fetched the coverage curve the
+// answer of its last edit left out (Edit.Later) and drew it: once loaded,
+// the page's curve equals the server's for the plan now.
+func checkCurveLoaded(t *testing.T, ctx context.Context, sv *Server) {
+	t.Helper()
+	if err := waitIdle(ctx, sv); err != nil {
+		t.Fatal(err)
+	}
+	deadline := time.Now().Add(10 * time.Second)
+	for {
+		loaded, err := chromedp.Run(ctx, chromedp.Evaluate[bool](`!window.review.state.figures.curvePending && !window.review.curveLoading`))
+		if err != nil {
+			t.Fatal(err)
+		}
+		if loaded {
+			break
+		}
+		if time.Now().After(deadline) {
+			t.Fatal("the page did not load the deferred coverage curve")
+		}
+		time.Sleep(20 * time.Millisecond)
+	}
+	got, err := chromedp.Run(ctx, chromedp.Evaluate[[][2]float64](`window.review.state.figures.curve`))
+	if err != nil {
+		t.Fatal(err)
+	}
+	path, err := chromedp.Run(ctx, chromedp.Evaluate[string](`document.querySelector("#curve .curve-line").getAttribute("d")`))
+	if err != nil {
+		t.Fatal(err)
+	}
+	sv.mu.Lock()
+	want := sv.curveNow()
+	sv.mu.Unlock()
+	if !reflect.DeepEqual(got, want) {
+		t.Errorf("page's curve %v; server's %v", got, want)
+	}
+	if strings.Count(path, "L") < len(want)-1 {
+		t.Errorf("curve drawn as %q for %d points", path, len(want))
 	}
 }
 

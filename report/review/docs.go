@@ -190,6 +190,9 @@ type figuresDoc struct {
 	OpenHoles        int          `json:"openHoles"`
 	Holes            []holeDoc    `json:"holes"`
 	Curve            [][2]float64 `json:"curve"` // (range m, covered fraction), see curve.go
+	// CurvePending is true when Curve was left out of an edit's answer
+	// (Edit.Later): the page fetches it from GET /api/curve.
+	CurvePending bool `json:"curvePending,omitempty"`
 	// With own ranges (ranges.go): RangeM, FullCoverRangeM, the gaps'
 	// ClosingRangeM, the holes' and the curve's ranges are the largest
 	// range (the slider's value); GrowthM2 is the growth t of every
@@ -229,8 +232,10 @@ type holeDoc struct {
 }
 
 // stateDoc builds the state answer, with the device list when
-// withDevices; the caller holds the lock.
-func (sv *Server) stateDoc(took time.Duration, withDevices bool) stateDoc {
+// withDevices; with later, a coverage curve not yet computed (own ranges,
+// after an edit of the devices) is left out and marked pending. The
+// caller holds the lock.
+func (sv *Server) stateDoc(took time.Duration, withDevices, later bool) stateDoc {
 	s := sv.s
 	g := s.geo
 	d := stateDoc{Version: s.version, CanUndo: len(s.undo) > 0, ComputeMs: took.Seconds() * 1000}
@@ -277,8 +282,32 @@ func (sv *Server) stateDoc(took time.Duration, withDevices bool) stateDoc {
 			f.EnclosedGaps++
 		}
 	}
-	f.Curve = curveDoc(g, sv.cfg.grid, f.FullCoverRangeM)
+	if later && g.ranged != nil && g.share == nil {
+		f.CurvePending = true // deferred: GET /api/curve (rangedCurve)
+	} else {
+		f.Curve = sv.curveNow()
+	}
 	return d
+}
+
+// curveNow is the coverage curve of the layout now (curveDoc), computing
+// a deferred one (rangedCurve); the caller holds the lock.
+func (sv *Server) curveNow() [][2]float64 {
+	g := sv.s.geo
+	full := g.full.Range
+	if rg := g.ranged; rg != nil {
+		g.rangedCurve(sv.cfg.grid)
+		full = rg.slider(rg.full.Power)
+	}
+	return curveDoc(g, sv.cfg.grid, full)
+}
+
+// curveAnswer is the answer of GET /api/curve: the coverage curve of the
+// plan of the given version (stateDoc's figures.curve, which an edit asked
+// to have "later" left out).
+type curveAnswer struct {
+	Version int          `json:"version"`
+	Curve   [][2]float64 `json:"curve"`
 }
 
 // curveDoc is the coverage curve at the sample ranges grid, with the

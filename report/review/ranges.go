@@ -34,6 +34,7 @@ import (
 	"math"
 	"slices"
 	"strings"
+	"sync"
 
 	"github.com/paulmach/orb"
 	"github.com/sitecover/sitecover/coverage"
@@ -41,9 +42,12 @@ import (
 
 // rangedGeo is what a layout with own ranges adds to geometry.
 type rangedGeo struct {
-	full  coverage.RangesFullCover
+	full coverage.RangesFullCover
+	// curve is nil until asked for (rangedCurve), as is geometry.share.
 	curve *coverage.Curve
 	pers  *coverage.PowerPersistence
+	// persWG is done when pers is set (buildRanged; compute waits).
+	persWG sync.WaitGroup
 	// w2max and w2min are the largest and smallest b_i² in service.
 	w2max, w2min float64
 	services     []coverage.RangesServiceArea // on first request
@@ -67,17 +71,38 @@ func buildRanged(g *geometry, pts []orb.Point, devs []device, cfg *Config) error
 		return refuse(422, "the devices in service cannot be laid out: %v", err)
 	}
 	g.layout, g.ranged = l, rg
+	// The persistence reads only the triangulation and the ranges (no
+	// layout method writes to the layout): it runs beside the full cover
+	// and the range-dependent figures (uncovered area, gaps) on the second
+	// core, and compute waits for it before the layout is used.
+	rg.persWG.Go(func() { rg.pers = l.PersistenceRanges() })
 	rg.full = l.FullCoverRanges()
-	rg.curve = l.CurveRanges()
-	rg.pers = l.PersistenceRanges()
 	if cfg.grid == nil {
 		cfg.grid = curveGrid(curveTop(math.Sqrt(max(0, rg.w2max+rg.full.Power)), cfg.Range, cfg.maxRange))
 	}
-	g.share = make([]float64, len(cfg.grid))
-	for k, r := range cfg.grid {
-		g.share[k] = rg.curve.CoveredFraction(r*r - rg.w2max)
-	}
 	return nil
+}
+
+// rangedCurve computes the coverage curve of a layout with own ranges and
+// its covered shares at the sample ranges grid, on first use after the
+// layout (the curve is deferred, not approximated): an edit answer the
+// page asks to have "later" leaves it out, and the page fetches it
+// (GET /api/curve) once the new plan is painted. The same calls on the
+// same layout in the same order as when it was computed with the layout,
+// so the values are identical; a slider move keeps the layout and the
+// curve with it. Nothing to do with one common range (the curve is
+// incremental there, curve.go) or when done.
+func (g *geometry) rangedCurve(grid []float64) {
+	rg := g.ranged
+	if rg == nil || g.share != nil {
+		return
+	}
+	rg.curve = g.layout.CurveRanges()
+	share := make([]float64, len(grid))
+	for k, r := range grid {
+		share[k] = rg.curve.CoveredFraction(r*r - rg.w2max)
+	}
+	g.share = share
 }
 
 // growthFor is the growth t at which the largest range in service is r

@@ -5,7 +5,9 @@
 //	GET  /api/scene            what never changes: area, exclusions, context, cautions
 //	GET  /api/state            devices, range and figures
 //	POST /api/edit             one edit (see Edit); answers the new state (its
-//	                           device list as a patch when Edit.Patch)
+//	                           device list as a patch when Edit.Patch; with own
+//	                           ranges the coverage curve deferred when Edit.Later)
+//	GET  /api/curve            the coverage curve now, with the version
 //	GET  /api/device/{i}       one device's figures (served area, loss if it fails)
 //	GET  /api/cells            service areas (clipped Voronoi cells) for drawing
 //	GET  /api/export/{format}  the edited plan as sites GeoJSON or CSV (a download)
@@ -201,6 +203,7 @@ func (sv *Server) Handler() http.Handler {
 	mux.HandleFunc("GET /api/state", sv.state)
 	mux.HandleFunc("POST /api/edit", sv.edit)
 	mux.HandleFunc("GET /api/device/{i}", sv.device)
+	mux.HandleFunc("GET /api/curve", sv.curve)
 	mux.HandleFunc("GET /api/cells", sv.cells)
 	mux.HandleFunc("GET /api/export/{format}", sv.export)
 	mux.HandleFunc("POST /api/report", sv.writeReport)
@@ -255,7 +258,7 @@ func (sv *Server) page(w http.ResponseWriter, r *http.Request) {
 // state answers the current state.
 func (sv *Server) state(w http.ResponseWriter, r *http.Request) {
 	sv.mu.Lock()
-	d := sv.stateDoc(0, true)
+	d := sv.stateDoc(0, true, false)
 	b, err := d.encode()
 	sv.mu.Unlock()
 	if err != nil {
@@ -277,7 +280,7 @@ func (sv *Server) edit(w http.ResponseWriter, r *http.Request) {
 	err := sv.s.apply(&e, &sv.cfg)
 	var b []byte
 	if err == nil {
-		d := sv.stateDoc(time.Since(t0), e.Op != "range")
+		d := sv.stateDoc(time.Since(t0), e.Op != "range", e.Later)
 		if e.Patch {
 			d.patch(sv.s)
 		}
@@ -320,6 +323,15 @@ func writeFailure(w http.ResponseWriter, err error) {
 		return
 	}
 	writeError(w, http.StatusInternalServerError, "%v", err)
+}
+
+// curve answers the coverage curve of the plan now, with its version
+// (the page applies it only to the state of that version).
+func (sv *Server) curve(w http.ResponseWriter, r *http.Request) {
+	sv.mu.Lock()
+	doc := curveAnswer{Version: sv.s.version, Curve: sv.curveNow()}
+	sv.mu.Unlock()
+	writeJSON(w, http.StatusOK, doc)
 }
 
 // device answers one device's figures.

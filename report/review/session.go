@@ -34,6 +34,16 @@
 // own ranges (ranges.go) the layout is the power diagram, a slider move
 // keeps it as a range edit does, and the figures are AnalyzeRanges's; the
 // coverage curve is then Layout.CurveRanges, not the cache of curve.go.
+//
+// With own ranges a device edit is NOT incremental either (the power
+// diagram, the full cover, the persistence and the gaps are rebuilt; the
+// persistence on a second goroutine beside the others, buildRanged), but
+// the coverage curve, the largest cost of such an edit (49 exact passes
+// over every cell), is deferred: the answer of an edit the page sends
+// with Edit.Later leaves it out, and the page fetches it (GET /api/curve)
+// after painting the new plan. Deferred, not approximated: it is computed
+// by the same calls on the same layout (rangedCurve), so its values are
+// those an immediate computation gives (TestRangesCurveDeferred).
 
 package review
 
@@ -275,6 +285,11 @@ type Edit struct {
 	// page sends it, so that moving one of 10 000 devices does not answer
 	// all 10 000 again.
 	Patch bool `json:"patch,omitempty"`
+	// Later lets the answer leave out the coverage curve when it is not
+	// computed yet (own ranges, after an edit of the devices:
+	// figures.curvePending); the page sends it and fetches the curve from
+	// GET /api/curve once the new plan is painted.
+	Later bool `json:"later,omitempty"`
 }
 
 // NewDevice is a device placed by an add edit.
@@ -473,8 +488,11 @@ func compute(devs []device, ranged bool, r, t float64, cfg *Config, prev *geomet
 	if err != nil {
 		return nil, atRange{}, err
 	}
-	if rg := geo.ranged; rg != nil && !(rg.w2min+t > 0) {
-		return nil, atRange{}, refuse(422, "the ranges grown by the slider would shrink a device to nothing: raise the range slider first")
+	if rg := geo.ranged; rg != nil {
+		defer rg.persWG.Wait() // the persistence runs beside (buildRanged)
+		if !(rg.w2min+t > 0) {
+			return nil, atRange{}, refuse(422, "the ranges grown by the slider would shrink a device to nothing: raise the range slider first")
+		}
 	}
 	at, err := geo.atRange(r, t)
 	return geo, at, err

@@ -55,6 +55,7 @@
     }
     busy = true;
     e.patch = true;
+    e.later = true; // with own ranges the curve comes after painting (loadCurve)
     const seq = ++editSeq;
     const t0 = performance.now();
     let t1 = 0, t2 = 0;
@@ -79,6 +80,7 @@
           const t5 = performance.now();
           window.review.timing = { seq: seq, op: e.op, totalMs: t5 - t0, fetchMs: t1 - t0, serverMs: s.computeMs,
             parseMs: t2 - t1, setStateMs: t4 - t3, drawMs: window.review.drawMs, frameWaitMs: tf - t4, paintMs: t5 - tf, redrawMs: t5 - t1 };
+          loadCurve();
         }, 0); });
       }).catch((err) => {
         toast(err.message);
@@ -89,6 +91,22 @@
         else window.review.pending = false;
       });
     return seq;
+  }
+
+  // loadCurve fetches the coverage curve an edit's answer left out
+  // (figures.curvePending: own ranges) once the new plan is painted, unless
+  // another edit is on its way (its answer asks again), and draws it if the
+  // plan is still the one it belongs to.
+  function loadCurve() {
+    if (!state.figures.curvePending || busy || queue.length) return;
+    const v = state.version;
+    window.review.curveLoading = true;
+    getJSON("/api/curve").then((c) => {
+      if (c.version !== v || state.version !== v) return;
+      state.figures.curve = c.curve;
+      state.figures.curvePending = false;
+      drawCurve();
+    }).catch((err) => toast(err.message)).finally(() => { window.review.curveLoading = false; });
   }
 
   // withDevices gives an answer its device list: the answer's own, the
@@ -580,7 +598,7 @@
     const lo = +$("range").min || 0;
     if (lo > 0) el("rect", { x: L, y: T, width: X(lo) - L, height: Y(0) - T, class: "curve-out" }, c);
     let d = "";
-    const pts = clipCurve(f.curve, lo);
+    const pts = f.curve ? clipCurve(f.curve, lo) : []; // none while pending (loadCurve)
     if (pts.length && pts[pts.length - 1][0] < curveMax) pts.push([curveMax, 1]);
     pts.forEach((p, i) => { d += (i ? "L" : "M") + X(p[0]).toFixed(1) + " " + Y(p[1]).toFixed(1); });
     el("path", { d: d, class: "curve-line" }, c);
