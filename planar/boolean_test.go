@@ -342,6 +342,15 @@ func TestBooleanOperations(t *testing.T) {
 		// sums of a 6e6-long polygon agree to about 1e-4).
 		{name: "pinch point beside a far-reaching polygon", a: booleanFarPinch,
 			refArea: booleanAbsArea(booleanFarPinch), refTol: farTol, refPolys: 3},
+		// Found by FuzzPolygonUnion (corpus 6beec66662044369): two wedges
+		// 6e6 long overlapping along a line; their rounded crossings
+		// zigzag within ulps of it and the union's boundary closed a loop
+		// a few ulps wide at a pinch point, whose two passages could not
+		// be pulled apart. The loop is dropped as a sliver.
+		{name: "sliver loop at a pinch point on a long overlap", a: orb.MultiPolygon{
+			bPoly(6.340800752941176e+06, 1.060912188235294e+06, 44.01911294327353, 14.332359279753895, 46.17315575352985, 3.319020275798394, 6.340803870926663e+06, 1.060912188235294e+06),
+			bPoly(6.34108939049979e+06, 1.060912188235294e+06, 44.01911294364769, 14.333885158752011, 46.1731557535083, 3.319020272705887, 44.01911294364643, 14.333885158752),
+		}},
 	}
 	for _, c := range cases {
 		t.Run(c.name, func(t *testing.T) {
