@@ -89,6 +89,11 @@ type booleanRings struct {
 	ringStart []int32
 	polyStart []int32
 	pinch     []bool // per arrangement vertex: the boundary passes it more than once
+
+	// Scratch of mergeNearVertices (sliverLoop): per arrangement vertex
+	// its last position on the merging stack, and a loop's coordinates.
+	lastAt []int32
+	loopXY []float64
 }
 
 // extract traces the boundary of the result faces in into rings grouped
@@ -310,9 +315,17 @@ const booleanNearUlps = 4
 // v → a → b → v with a and b an ulp from v) or doubling back (x → y → x).
 // Both are removed too (booleanMergePass), so no ring edge has zero length
 // (pinch opening divides by edge lengths); a ring left with fewer than 3
-// vertices has no area and is dropped by dropSlivers. It returns the
-// number of vertices dropped; the pinch flags are recounted by the caller.
+// vertices has no area and is dropped by dropSlivers. So is, more
+// generally, a loop v → … → v of a ring (between two passes of a pinch
+// vertex v) that is a sliver (booleanSliver): where two long thin
+// polygons overlap along a line, their rounded crossings zigzag within
+// ulps of it and the boundary closes loops a few ulps wide, whose passages
+// through v leave sectors too thin for pinch opening to pull apart. The
+// area changes by the loop's, at most booleanPinchSep ulps times its
+// perimeter (the bound of dropSlivers). It returns the number of vertices
+// dropped; the pinch flags are recounted by the caller.
 func (r *booleanRings) mergeNearVertices() int {
+	r.lastAt = make([]int32, len(r.pinch))
 	xy, vid := r.xy[:0], r.vid[:0]
 	rs := make([]int32, 1, len(r.ringStart))
 	dropped := 0
@@ -358,9 +371,11 @@ func (r *booleanRings) mergeNearVertices() int {
 
 // booleanMergePass appends to st the ring positions of ring (in order)
 // that one merging pass of mergeNearVertices keeps: each vertex close to
-// the last kept one merged into it, then repeated vertices and spikes
-// (x → y → x, by arrangement vertex) popped. Each position is pushed once
-// and popped at most once: linear. The pair (last, first) is not looked at.
+// the last kept one merged into it, then repeated vertices, spikes
+// (x → y → x, by arrangement vertex) and sliver loops (sliverLoop) popped.
+// Each position is pushed once and popped at most once; the sliver test
+// of a loop that stays reads it once more per pass (loops are rare: pinch
+// points). The pair (last, first) is not looked at.
 func (r *booleanRings) booleanMergePass(st, ring []int32) []int32 {
 	same := func(i, j int32) bool { return r.vid[i] == r.vid[j] }
 	for _, i := range ring {
@@ -371,6 +386,7 @@ func (r *booleanRings) booleanMergePass(st, ring []int32) []int32 {
 		case r.pinch[r.vid[i]] && !r.pinch[r.vid[st[n-1]]]:
 			st[n-1] = i
 		}
+		st = r.sliverLoop(st)
 		for {
 			n = len(st)
 			if n >= 2 && same(st[n-2], st[n-1]) {
@@ -382,6 +398,31 @@ func (r *booleanRings) booleanMergePass(st, ring []int32) []int32 {
 			}
 		}
 	}
+	return st
+}
+
+// sliverLoop pops, when the last position of st passes a pinch vertex v
+// that st passed before (at position k, as lastAt records), the loop
+// st[k:] back to v if it is a sliver (booleanSliver). It records the last
+// position of each pinch vertex pushed in lastAt (per arrangement vertex;
+// an entry not naming a position of st with that vertex is stale).
+func (r *booleanRings) sliverLoop(st []int32) []int32 {
+	n := len(st)
+	if n == 0 || !r.pinch[r.vid[st[n-1]]] {
+		return st
+	}
+	w := r.vid[st[n-1]]
+	k := int(r.lastAt[w])
+	if k < n-1 && r.vid[st[k]] == w {
+		r.loopXY = r.loopXY[:0]
+		for _, j := range st[k : n-1] {
+			r.loopXY = append(r.loopXY, r.xy[2*j], r.xy[2*j+1])
+		}
+		if booleanSliver(r.loopXY) {
+			return st[:k+1]
+		}
+	}
+	r.lastAt[w] = int32(n - 1)
 	return st
 }
 

@@ -175,8 +175,17 @@ func (r *booleanRings) pinchClearance(g *regionGrid, prev, group []int32) float6
 }
 
 // booleanPointSegDist returns the distance from p to segment ab (float64,
-// used only to size a pull-back).
+// used only to size a pull-back). It measures from the endpoint nearer to
+// p: from the farther one, p − a − t·(b − a) carries a rounding error of
+// ulps of |b − a|, and for a long edge passing close to p (a polygon
+// reaching a million times farther than the pinch's features) that error
+// exceeds the distance sought, which then comes out 0 and cancels every
+// pull-back at the pinch. From the nearer endpoint the error is ulps of
+// |p − a|, which the distance is at most.
 func booleanPointSegDist(px, py, ax, ay, bx, by float64) float64 {
+	if math.Hypot(bx-px, by-py) < math.Hypot(ax-px, ay-py) {
+		ax, ay, bx, by = bx, by, ax, ay
+	}
 	dx, dy := bx-ax, by-ay
 	t := 0.0
 	if l2 := dx*dx + dy*dy; l2 > 0 {

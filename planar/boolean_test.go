@@ -40,6 +40,16 @@ func booleanArea(mp orb.MultiPolygon) float64 {
 	return s
 }
 
+// booleanAbsArea returns the sum of the absolute areas of the exteriors
+// of mp (polygons without holes, either orientation).
+func booleanAbsArea(mp orb.MultiPolygon) float64 {
+	s := 0.0
+	for _, p := range mp {
+		s += math.Abs(RingArea(FlatRing(p[0])))
+	}
+	return s
+}
+
 // booleanCheckValid fails unless every vertex of mp is finite, mp is
 // accepted by NewRegion and its rings are oriented (exteriors counter-clockwise, holes clockwise): the exact
 // validity check used for every result in these tests.
@@ -269,6 +279,14 @@ func booleanPerimeter(mp orb.MultiPolygon) float64 {
 	return s
 }
 
+// booleanFarPinch is the input of corpus cb5585488b1077ed (see
+// TestBooleanOperations).
+var booleanFarPinch = orb.MultiPolygon{
+	bPoly(6.340800752941176e+06, 1.060912188235294e+06, 44.01911294364769, 14.333885158752004, 46.17285730698529, 8.172242647058823, 1.126448188235294e+06, 16.188235294117646),
+	bPoly(44.0191129436477, 14.33388515875194, 16.188235294117646, 16.188235294117646, 16.188235294117646, 17.188235294117646),
+	bPoly(42.37647058823529, 8.094117647058823, 16.188235294117646, 16.188235294117646, 16.086428653492646, 16.188235294117646, 46.37647058823529, 3.273529411764706, 44.0191129436468, 14.333885158752011),
+}
+
 func TestBooleanOperations(t *testing.T) {
 	// Small integer-ish shapes: the areas are shoelace sums of a few terms
 	// of size ≤ 16, exact to well below 1e-12.
@@ -280,6 +298,11 @@ func TestBooleanOperations(t *testing.T) {
 	// the perimeter; the parts' perimeter bounds the union's and the
 	// slivers'. About 4e-9 here (the result is 2e-13 off).
 	kgapTol := booleanPerimeter(booleanKGapParts) * (booleanKGapSnapMove + (2*booleanNearUlps+booleanPinchSep)*booleanKGapUlp)
+	// The far-pinch polygons: the overlay moves vertices within
+	// 2·booleanNearUlps ulps (merging) and booleanPinchSep ulps (slivers,
+	// pinches) of the largest coordinate, 6.3e6, times the perimeter:
+	// about 1.3 here.
+	farTol := booleanPerimeter(booleanFarPinch) * (2*booleanNearUlps + booleanPinchSep) * 0x1p-52 * 6.340800752941176e+06
 	cases := []struct {
 		name string
 		a, b orb.MultiPolygon
@@ -310,6 +333,24 @@ func TestBooleanOperations(t *testing.T) {
 		}},
 		{name: "k-gap parts split between operands", a: booleanKGapParts[:2], b: booleanKGapParts[2:],
 			refArea: booleanKGapRefArea, refTol: kgapTol, refPolys: 1},
+		// Found by FuzzPolygonUnion (corpus cb5585488b1077ed): three
+		// polygons meeting within 1e-12 of one point, one reaching 6e6
+		// away. Its long edge passes 1e-12 from the pinch point; the
+		// float64 distance to it, measured from its far end, came out 0,
+		// so neither touching passage could be pulled back. The polygons
+		// only touch: the union's area is the sum of theirs (shoelace
+		// sums of a 6e6-long polygon agree to about 1e-4).
+		{name: "pinch point beside a far-reaching polygon", a: booleanFarPinch,
+			refArea: booleanAbsArea(booleanFarPinch), refTol: farTol, refPolys: 3},
+		// Found by FuzzPolygonUnion (corpus 6beec66662044369): two wedges
+		// 6e6 long overlapping along a line; their rounded crossings
+		// zigzag within ulps of it and the union's boundary closed a loop
+		// a few ulps wide at a pinch point, whose two passages could not
+		// be pulled apart. The loop is dropped as a sliver.
+		{name: "sliver loop at a pinch point on a long overlap", a: orb.MultiPolygon{
+			bPoly(6.340800752941176e+06, 1.060912188235294e+06, 44.01911294327353, 14.332359279753895, 46.17315575352985, 3.319020275798394, 6.340803870926663e+06, 1.060912188235294e+06),
+			bPoly(6.34108939049979e+06, 1.060912188235294e+06, 44.01911294364769, 14.333885158752011, 46.1731557535083, 3.319020272705887, 44.01911294364643, 14.333885158752),
+		}},
 	}
 	for _, c := range cases {
 		t.Run(c.name, func(t *testing.T) {
