@@ -65,6 +65,9 @@ func Union(mp orb.MultiPolygon) (orb.MultiPolygon, error) {
 	if err != nil {
 		return nil, fmt.Errorf("planar: Union: %w", err)
 	}
+	if err := checkResult(res); err != nil {
+		return nil, fmt.Errorf("planar: Union: %w", err)
+	}
 	return res, nil
 }
 
@@ -75,6 +78,9 @@ func Intersection(a, b orb.MultiPolygon) (orb.MultiPolygon, error) {
 	if err != nil {
 		return nil, fmt.Errorf("planar: Intersection: %w", err)
 	}
+	if err := checkResult(res); err != nil {
+		return nil, fmt.Errorf("planar: Intersection: %w", err)
+	}
 	return res, nil
 }
 
@@ -83,6 +89,9 @@ func Intersection(a, b orb.MultiPolygon) (orb.MultiPolygon, error) {
 func Difference(a, b orb.MultiPolygon) (orb.MultiPolygon, error) {
 	res, _, err := booleanRun(a, b, booleanDifference, "a: polygon", "b: polygon")
 	if err != nil {
+		return nil, fmt.Errorf("planar: Difference: %w", err)
+	}
+	if err := checkResult(res); err != nil {
 		return nil, fmt.Errorf("planar: Difference: %w", err)
 	}
 	return res, nil
@@ -169,7 +178,7 @@ func SiteArea(area, exclusions orb.MultiPolygon) (*Region, SiteAreaStats, error)
 	}
 	reg, err := NewRegion(res)
 	if err != nil {
-		return nil, st, fmt.Errorf("%s: internal error: result not accepted by NewRegion: %w", where, err)
+		return nil, st, fmt.Errorf("%s: %w", where, checkResult(res))
 	}
 	return reg, st, nil
 }

@@ -35,7 +35,6 @@
 package planar
 
 import (
-	"fmt"
 	"math"
 	"slices"
 )
@@ -98,7 +97,7 @@ func (r *booleanRings) openPinches() (*booleanRings, int, error) {
 			x, y := vx+d*(ux*cs-uy*sn), vy+d*(ux*sn+uy*cs)
 			if !r.pullBackClear(&g, prev, i, x, y) {
 				if kept {
-					return nil, nPinch, fmt.Errorf("internal error: the result's rings touch at (%v, %v) in sectors too thin to pull apart (features within a few ulps of the point)", vx, vy)
+					return nil, nPinch, &NearDegenerateError{X: vx, Y: vy, Detail: "the result's rings touch there in sectors too thin to pull apart"}
 				}
 				kept = true // the other passages leave v: this one may stay
 				continue
