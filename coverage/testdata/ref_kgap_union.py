@@ -50,9 +50,30 @@ def snapped(parts):
     return [[[(round(x / step) * step, round(y / step) * step) for x, y in r] for r in p] for p in parts]
 
 
+def robust_union(parts):
+    """GEOS unary_union of the parts; when GEOS raises a TopologyException
+    (parts meeting within ulps even after snapping), the union of the parts
+    each repaired by buffer(0) (GEOS's usual remedy, which moves nothing on
+    a valid polygon), then the parts added one at a time. Returns the union
+    and how it was obtained."""
+    try:
+        return unary_union(parts), "unary_union"
+    except Exception:
+        pass
+    fixed = [p.buffer(0) for p in parts]
+    try:
+        return unary_union(fixed), "unary_union of buffer(0) parts"
+    except Exception:
+        pass
+    u = fixed[0]
+    for p in fixed[1:]:
+        u = u.union(p).buffer(0)
+    return u, "pairwise union with buffer(0)"
+
+
 def gap_ref(g):
     parts = [Polygon(p[0], p[1:]) for p in snapped(g["parts"])]
-    u = unary_union(parts)
+    u, how = robust_union(parts)
     ps = polys(u)
     holes = 0
     out = []
@@ -64,7 +85,7 @@ def gap_ref(g):
                 holes += 1
                 rings.append(list(h.coords))
         out.append(rings)
-    return dict(scene=g["scene"], k=g["k"], id=g["id"], parts=g["parts"], geos_area=u.area,
+    return dict(scene=g["scene"], k=g["k"], id=g["id"], parts=g["parts"], geos_how=how, geos_area=u.area,
                 geos_polygons=len(ps), geos_holes=holes, geos_union=out)
 
 
