@@ -59,6 +59,7 @@ type kMergeGap struct {
 	GEOSArea  float64          `json:"geos_area"`
 	GEOSPolys int              `json:"geos_polygons"`
 	GEOSHoles int              `json:"geos_holes"`
+	GEOSHow   string           `json:"geos_how"`
 	GEOSUnion orb.MultiPolygon `json:"geos_union"`
 }
 
@@ -216,9 +217,16 @@ func kMergeCheck(t *testing.T, gaps []kMergeGap) {
 		if refused > 0 {
 			t.Logf("%s k=%d gap %d: %d of %d parts left unmerged (non-simple)", g.Scene, g.K, g.ID, refused, len(g.Parts))
 		}
-		if refused > 0 && len(got) > 2*refused+g.GEOSPolys || refused == 0 && (len(got) != g.GEOSPolys || holes != g.GEOSHoles) {
-			t.Errorf("%s k=%d gap %d: %d polygons, %d holes; GEOS %d, %d (from %d parts)",
-				g.Scene, g.K, g.ID, len(got), holes, g.GEOSPolys, g.GEOSHoles, len(g.Parts))
+		// Pinch points: where GEOS keeps parts or a hole touching at a
+		// point as one polygon, planar's union opens the point (its
+		// documented convention), giving one more polygon or one hole
+		// fewer per opened point.
+		pinches := kMergePinches(got)
+		countsAgree := len(got) >= g.GEOSPolys && holes <= g.GEOSHoles &&
+			(len(got)-g.GEOSPolys)+(g.GEOSHoles-holes) <= pinches
+		if refused > 0 && len(got) > 2*refused+g.GEOSPolys || refused == 0 && !countsAgree {
+			t.Errorf("%s k=%d gap %d: %d polygons, %d holes; GEOS %d, %d (from %d parts); area %.12g, GEOS %.12g (%s)",
+				g.Scene, g.K, g.ID, len(got), holes, g.GEOSPolys, g.GEOSHoles, len(g.Parts), coveredPolyArea(got), g.GEOSArea, g.GEOSHow)
 			continue
 		}
 		if a := coveredPolyArea(got); math.Abs(a-g.GEOSArea) > kMergeRefAreaRel*g.GEOSArea {
@@ -228,6 +236,49 @@ func kMergeCheck(t *testing.T, gaps []kMergeGap) {
 			t.Errorf("%s k=%d gap %d: %d sample points on different sides of the outline and GEOS's", g.Scene, g.K, g.ID, bad)
 		}
 	}
+}
+
+// kMergePinchRel is the distance, relative to the coordinates, within
+// which two vertices of different rings of a union are the two sides of an
+// opened pinch point (planar pulls them booleanPinchSep = 64 ulps apart).
+const kMergePinchRel = 0x1p-40
+
+// kMergePinches counts the opened pinch points of mp: pairs of distinct
+// vertices within kMergePinchRel of each other that are not neighbours on
+// one ring (an opened point leaves its sides on different rings, or on one
+// ring when a hole became a bay).
+func kMergePinches(mp orb.MultiPolygon) int {
+	type v struct {
+		p         orb.Point
+		ring, idx int
+		n         int // vertices of the ring, closing one excluded
+	}
+	var vs []v
+	ring := 0
+	for _, pg := range mp {
+		for _, r := range pg {
+			m := len(r) - 1 // closed ring
+			for i := 0; i < m; i++ {
+				vs = append(vs, v{r[i], ring, i, m})
+			}
+			ring++
+		}
+	}
+	n := 0
+	for i := range vs {
+		for j := i + 1; j < len(vs); j++ {
+			a, b := vs[i], vs[j]
+			eps := kMergePinchRel * math.Max(1, math.Max(math.Abs(a.p[0]), math.Abs(a.p[1])))
+			if a.p == b.p || math.Abs(a.p[0]-b.p[0]) > eps || math.Abs(a.p[1]-b.p[1]) > eps {
+				continue
+			}
+			if a.ring == b.ring && (b.idx-a.idx == 1 || a.idx == 0 && b.idx == a.n-1) {
+				continue
+			}
+			n++
+		}
+	}
+	return n
 }
 
 // kMergeSamples returns the number of points of a 40 × 40 grid over the
