@@ -16,7 +16,10 @@
 // and two distinct result vertices lie within nearDegenerateUlps ulps of
 // each other (the evidence: an ordinary overlay never puts distinct
 // vertices that close), or when pinch opening cannot separate the rings at
-// a point; any other invalid result is an internal error.
+// a point, or when noding does not settle (rounded crossings of
+// near-collinear edges that keep landing across each other: the published
+// cure is snap rounding, not done here); any other invalid result is an
+// internal error.
 
 package planar
 

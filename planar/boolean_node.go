@@ -91,6 +91,7 @@ type booleanRingFault struct {
 // nothing is split.
 func booleanNode(xy []float64, ringStart []int32) ([]float64, []int32, *regionGrid, *booleanRingFault, error) {
 	var fresh []bool // edges created by the last round's splits; nil: all
+	var last booleanSplit
 	for round := 0; round < booleanMaxNodeRounds; round++ {
 		g := &regionGrid{}
 		g.buildDensity(xy, ringStart, booleanGridDensity)
@@ -105,6 +106,7 @@ func booleanNode(xy []float64, ringStart []int32) ([]float64, []int32, *regionGr
 		if len(splits) == 0 {
 			return xy, ringStart, g, nil, nil
 		}
+		last = splits[0]
 		exact := booleanSplitsExact(g, splits)
 		xy, ringStart, fresh = booleanApplySplits(xy, ringStart, g.next, splits)
 		if exact {
@@ -114,7 +116,10 @@ func booleanNode(xy []float64, ringStart []int32) ([]float64, []int32, *regionGr
 			return xy, ringStart, nil, nil, nil
 		}
 	}
-	return nil, nil, nil, nil, fmt.Errorf("noding did not settle after %d rounds (crossing points keep creating crossings)", booleanMaxNodeRounds)
+	// Rounded crossing points that keep creating crossings: edges
+	// within ulps of one another near the last split point.
+	return nil, nil, nil, nil, &NearDegenerateError{X: last.x, Y: last.y,
+		Detail: fmt.Sprintf("noding did not settle after %d rounds (rounded crossing points keep creating crossings)", booleanMaxNodeRounds)}
 }
 
 // booleanSplitsExact reports whether every split point lies exactly on

@@ -262,10 +262,44 @@ func booleanOpAreasNear(t testing.TB, a, b orb.MultiPolygon, allowNear bool) (aa
 	return areas[0], areas[1], areas[2], areas[3], areas[4], true
 }
 
+// booleanNearCollinear is the largest angle, in radians, between two
+// operand edges passing within booleanNearRel of a refusal's point that
+// makes them near-collinear: edges that close and that nearly parallel
+// cross at rounded points that land across each other again.
+const booleanNearCollinear = 0x1p-20
+
 // booleanNearPair reports whether two distinct vertices of a and b lie
-// within booleanNearRel of (x, y).
+// within booleanNearRel of (x, y), or two near-collinear operand edges
+// (booleanNearCollinear) pass that close to it.
 func booleanNearPair(a, b orb.MultiPolygon, x, y float64) bool {
 	eps := booleanNearRel * math.Max(1, math.Max(math.Abs(x), math.Abs(y)))
+	var dirs []float64
+	for _, mp := range []orb.MultiPolygon{a, b} {
+		for _, p := range mp {
+			for _, r := range p {
+				for i := 0; i+1 < len(r); i++ {
+					ax, ay, bx, by := r[i][0], r[i][1], r[i+1][0], r[i+1][1]
+					dx, dy := bx-ax, by-ay
+					l2 := dx*dx + dy*dy
+					if l2 == 0 {
+						continue
+					}
+					t := math.Max(0, math.Min(1, ((x-ax)*dx+(y-ay)*dy)/l2))
+					if math.Hypot(ax+t*dx-x, ay+t*dy-y) <= eps {
+						dirs = append(dirs, math.Atan2(dy, dx))
+					}
+				}
+			}
+		}
+	}
+	for i := range dirs {
+		for j := i + 1; j < len(dirs); j++ {
+			d := math.Mod(math.Abs(dirs[i]-dirs[j]), math.Pi)
+			if math.Min(d, math.Pi-d) <= booleanNearCollinear {
+				return true
+			}
+		}
+	}
 	var near []orb.Point
 	for _, mp := range []orb.MultiPolygon{a, b} {
 		for _, p := range mp {
