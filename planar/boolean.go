@@ -243,10 +243,17 @@ func booleanRun(a, b orb.MultiPolygon, op int, nameA, nameB string) (orb.MultiPo
 // crossings on its two sides rounded past each other), leaving a face of
 // winding −1 and ulp-scale width. Such a face is outside the operand (its
 // winding is below 1), as the exact, unfolded ring would have it to within
-// its width.
+// its width. Snapping folds by up to 64 ulps of the snapped edges'
+// coordinates, which may be far larger than the face's own, so the sliver
+// test takes its ulp at the largest coordinate of the noded rings
+// (booleanSliverAt).
 func (gr *booleanGraph) checkNesting(in *booleanInput, rs []int32, xy []float64) error {
 	bad := -1
 	var cyc []float64
+	scale := 0.0
+	for _, c := range xy {
+		scale = math.Max(scale, math.Abs(c))
+	}
 	for f, w := range gr.wind {
 		if w[0] >= 0 && w[1] >= 0 {
 			continue
@@ -259,7 +266,7 @@ func (gr *booleanGraph) checkNesting(in *booleanInput, rs []int32, xy []float64)
 				break
 			}
 		}
-		if !booleanSliver(cyc) {
+		if !booleanSliverAt(cyc, scale) {
 			bad = f
 			break
 		}

@@ -280,12 +280,21 @@ func (r *booleanRings) dropSlivers() int {
 // in the sense of dropSlivers: fewer than 3 vertices, or a mean width
 // below booleanPinchSep ulps (|area| ≤ booleanPinchSep·ulp·perimeter, ulp
 // = 2⁻⁵² times the largest coordinate magnitude of the ring).
-func booleanSliver(xy []float64) bool {
+func booleanSliver(xy []float64) bool { return booleanSliverAt(xy, 0) }
+
+// booleanSliverAt is booleanSliver with the ulp taken at the larger of
+// scale and the ring's largest coordinate magnitude. Noding snaps a
+// crossing point to an endpoint within booleanSnapRel (64 ulps) of the
+// larger coordinates of the two edges (boolean_node.go), so a face bounded
+// by pieces of long edges far from the origin can be folded by up to 64
+// ulps of those edges' coordinates, not of its own vertices': checkNesting
+// passes the largest coordinate of the noded rings as scale.
+func booleanSliverAt(xy []float64, scale float64) bool {
 	n := len(xy) / 2
 	if n < 3 {
 		return true
 	}
-	per, m := 0.0, 0.0
+	per, m := 0.0, scale
 	for i := 0; i < n; i++ {
 		j := (i + 1) % n
 		per += math.Hypot(xy[2*j]-xy[2*i], xy[2*j+1]-xy[2*i+1])
