@@ -274,7 +274,7 @@ func swatchDashed(c *canvas, x, y, w, h float64) {
 
 // placeLabels writes texts beside the points at pixel offset gap from
 // each, placed as labelSites places site labels (maplabels.go).
-func (s *planScene) placeLabels(c *canvas, pts []orb.Point, texts []string, gap, pt float64, bold bool) {
+func (s *scene) placeLabels(c *canvas, pts []orb.Point, texts []string, gap, pt float64, bold bool) {
 	l := s.newLabeler(c)
 	for _, p := range pts {
 		x, y := c.px(p)
