@@ -55,11 +55,10 @@ func (s *scene) reachMap(kc *coverage.KCoverage, width int) ([]byte, error) {
 }
 
 // reachMarks are the planning marks a reach map may carry (suggest
-// --reach): the added devices or picked spots, numbered, and the spots not
-// picked.
+// --reach): the added devices or picked spots (labelled as devices of the
+// layout they join) and the spots not picked.
 type reachMarks struct {
 	added  []orb.Point
-	labels []string
 	label  string // legend of the added marks
 	others []orb.Point
 	title  string // replaces the analysis title when set
@@ -98,6 +97,13 @@ func reachGapTable(K int, gaps []coverage.KGap) [][]string {
 	return t
 }
 
+// colReachNew fills the marks of added devices and picked spots:
+// vermilion (Okabe & Ito's colour-blind-safe set), apart from every
+// YlGnBu class in hue and from the dark ones in lightness.
+var colReachNew = oiVermilion
+
+func swatchReachNew(c *canvas, x, y, w, h float64) { c.newMarkIn(x+w/2, y+h/2, 7*c.u, colReachNew) }
+
 // swatchReachDeepest is the legend swatch of a numbered part's deepest
 // spot: the ring over the lightest band colour.
 func swatchReachDeepest(c *canvas, x, y, w, h float64) {
@@ -131,7 +137,9 @@ func (s *scene) drawReachMap(kc *coverage.KCoverage, width int, mk reachMarks) (
 	cols := reachColours(classes)
 	var items []legendItem
 	for j, b := range bands {
-		items = append(items, legendItem{reachBandLabel(b), swatchFill(cols[j], nil)})
+		if len(b.Outline) > 0 { // the legend lists only the bands on the map
+			items = append(items, legendItem{reachBandLabel(b), swatchFill(cols[j], nil)})
+		}
 	}
 	numbered := min(len(top.Gaps), maxNumbered)
 	gaps := make([]coverage.Gap, numbered)
@@ -143,7 +151,7 @@ func (s *scene) drawReachMap(kc *coverage.KCoverage, width int, mk reachMarks) (
 	}
 	items = append(items, legendItem{"Device site", swatchDot})
 	if len(mk.added) > 0 {
-		items = append(items, legendItem{mk.label, swatchNew})
+		items = append(items, legendItem{mk.label, swatchReachNew})
 	}
 	if len(mk.others) > 0 {
 		items = append(items, legendItem{"Candidate spot not picked", swatchSpot})
@@ -176,12 +184,9 @@ func (s *scene) drawReachMap(kc *coverage.KCoverage, width int, mk reachMarks) (
 	}
 	for _, q := range mk.added {
 		x, y := c.px(q)
-		c.newMark(x, y, 7*c.u)
+		c.newMarkIn(x, y, 7*c.u, colReachNew)
 	}
 	c.gapMarks(gaps)
-	if len(mk.added) <= maxMarked {
-		s.placeLabels(c, mk.added, mk.labels, 9*c.u, 18, true)
-	}
 	c.finish(key)
 	return c, nil
 }

@@ -243,12 +243,15 @@ func (c *canvas) inFrame(draw func()) {
 
 // newMark draws a new device: a blue square with a white halo and a dark
 // edge.
-func (c *canvas) newMark(x, y, r float64) {
+func (c *canvas) newMark(x, y, r float64) { c.newMarkIn(x, y, r, colNew) }
+
+// newMarkIn draws a new device's square filled with fill.
+func (c *canvas) newMarkIn(x, y, r float64, fill color.Color) {
 	c.dc.DrawRectangle(x-r, y-r, 2*r, 2*r)
 	c.dc.SetColor(color.White)
 	c.dc.SetLineWidth(4.5 * c.u)
 	c.dc.StrokePreserve()
-	c.dc.SetColor(colNew)
+	c.dc.SetColor(fill)
 	c.dc.FillPreserve()
 	c.dc.SetColor(colInk)
 	c.dc.SetLineWidth(1.6 * c.u)
@@ -274,7 +277,7 @@ func swatchDashed(c *canvas, x, y, w, h float64) {
 
 // placeLabels writes texts beside the points at pixel offset gap from
 // each, placed as labelSites places site labels (maplabels.go).
-func (s *scene) placeLabels(c *canvas, pts []orb.Point, texts []string, gap, pt float64, bold bool) {
+func (s *planScene) placeLabels(c *canvas, pts []orb.Point, texts []string, gap, pt float64, bold bool) {
 	l := s.newLabeler(c)
 	for _, p := range pts {
 		x, y := c.px(p)
