@@ -124,5 +124,8 @@ func candidatesReach(e *env, f *runFlags, in siteinput.Inputs, r float64, K, pic
 // refuseCandidateRanges refuses candidate spots with their own ranges in
 // a command that counts devices in reach at one common range.
 func refuseCandidateRanges(sc *scene, command string, in siteinput.Inputs) error {
-	return nil
+	if sc.candidates == nil || sc.candidates.Ranges == nil {
+		return nil
+	}
+	return inputErrorf("%s: the candidate spots have their own ranges (range column or type table); %s counts devices in reach at one common range: give only --range", in.Candidates.Name, command)
 }
