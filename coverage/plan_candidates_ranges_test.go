@@ -33,11 +33,7 @@ type planCandRangesRefDoc struct {
 		Ranges     []float64    `json:"ranges"`
 		Candidates [][2]float64 `json:"candidates"`
 		CandRanges []float64    `json:"candidate_ranges"`
-		Subsets    []struct {
-			Mask   int     `json:"mask"`
-			Insc   float64 `json:"inscribed"`
-			Circum float64 `json:"circumscribed"`
-		} `json:"subsets"`
+		Subsets    []refSubset  `json:"subsets"`
 	} `json:"scenes"`
 }
 

@@ -45,11 +45,16 @@ type planReachRefScene struct {
 	Candidates [][2]float64 `json:"candidates"`
 	K          int          `json:"k"`
 	Area       float64      `json:"area"`
-	Subsets    []struct {
-		Mask   int     `json:"mask"`
-		Insc   float64 `json:"inscribed"`
-		Circum float64 `json:"circumscribed"`
-	} `json:"subsets"`
+	Subsets    []refSubset  `json:"subsets"`
+}
+
+// refSubset is one subset of the candidate spots in the GEOS tables of
+// the candidate tests: its bit mask and the area GEOS finds with the
+// disks inscribed and circumscribed.
+type refSubset struct {
+	Mask   int     `json:"mask"`
+	Insc   float64 `json:"inscribed"`
+	Circum float64 `json:"circumscribed"`
 }
 
 func TestPlanReachReference(t *testing.T) {

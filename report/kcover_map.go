@@ -18,10 +18,9 @@
 package report
 
 import (
-	"cmp"
 	"fmt"
 	"image/color"
-	"slices"
+	"strings"
 
 	"github.com/paulmach/orb"
 	"github.com/sitecover/sitecover/coverage"
@@ -79,20 +78,20 @@ func reachBandLabel(b coverage.KBand) string {
 }
 
 // reachGapTable lists the largest parts reached by fewer than K devices
-// (number, area, closing range); nil when there is none.
+// (number, area, closing range) as the coverage map's gap table does;
+// nil when there is none.
 func reachGapTable(K int, gaps []coverage.KGap) [][]string {
-	if len(gaps) == 0 {
+	g := make([]coverage.Gap, len(gaps))
+	for i, kg := range gaps {
+		g[i] = coverage.Gap{ID: kg.ID, Area: kg.Area, ClosingRange: kg.ClosingRange}
+	}
+	t := gapTable(g)
+	if t == nil {
 		return nil
 	}
-	idx := make([]int, len(gaps))
-	for i := range idx {
-		idx[i] = i
-	}
-	slices.SortStableFunc(idx, func(i, j int) int { return cmp.Compare(gaps[j].Area, gaps[i].Area) })
-	t := [][]string{{fmt.Sprintf("Short of %d", K), "Area m²", "Closes at"}}
-	for _, i := range idx[:min(len(idx), maxGapTableRows)] {
-		g := gaps[i]
-		t = append(t, []string{fmt.Sprintf("Part %d", g.ID), fmt.Sprintf("%.0f", g.Area), metres(g.ClosingRange)})
+	t[0][0] = fmt.Sprintf("Short of %d", K)
+	for _, row := range t[1:] {
+		row[0] = "Part " + strings.TrimPrefix(row[0], "Gap ")
 	}
 	return t
 }

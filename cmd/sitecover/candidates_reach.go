@@ -16,6 +16,17 @@ import (
 	"github.com/spf13/cobra"
 )
 
+// candidatesReachHelp is the --reach --candidates paragraph of suggest's
+// help.
+const candidatesReachHelp = `  --reach K --candidates FILE --range R
+                          the fewest candidate spots (or --add N of them) so
+                          that every spot is reached by at least K devices at
+                          R: greedy set cover on the area reached by 1 to K
+                          devices (Johnson 1974, Chvatal 1979, Wolsey 1982),
+                          a lower bound on the spots needed, and what stays
+                          short when the spots cannot do it.
+`
+
 // runCandidatesReach runs suggest --reach K --candidates FILE; K is parsed.
 func runCandidatesReach(e *env, cmd *cobra.Command, f *runFlags, K int) error {
 	fl := cmd.Flags()

@@ -82,7 +82,10 @@ func newSuggestCmd(e *env) *cobra.Command {
                           --sites): K of them (--add K) maximising the area
                           covered at --range, or the fewest that cover
                           everything; says when full cover cannot be reached
-                          and what stays uncovered.
+                          and what stays uncovered. A spot may carry its own
+                          range (a range column or property, or a type with
+                          --type-range/--range-table); one without takes
+                          --range (or --new-type).
 
 Devices with their own ranges (a range column, or a type column with
 --type-range or --range-table): the added devices get the range of --range, or
@@ -93,7 +96,7 @@ repeat that until no gap is left, and candidate spots are chosen by the exact
 area each adds. The full-cover figure is then the range a new device would need
 with every r^2 grown alike until no gap is left. --new-type also adds devices
 of another type to a site whose devices share one range.
-` + suggestReachHelp + `
+` + suggestReachHelp + candidatesReachHelp + `
 The report folder (default sitecover-report/suggest) gets report.txt,
 summary.json, the proposed devices or the candidate spots, the gaps before and
 after as GeoJSON, and a map.
