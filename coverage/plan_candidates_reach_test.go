@@ -168,17 +168,18 @@ func planReachRefCheck(t *testing.T, d *planReachRefDoc) {
 	}
 }
 
-// TestPlanReachPicks checks the fixed-number form and the figures after
-// each pick against a fresh KCover of the same layout.
+// TestPlanReachPicks checks the fixed-number form, a k above the number
+// of devices, and the figures after each pick against a fresh KCover of
+// the same layout.
 func TestPlanReachPicks(t *testing.T) {
 	l := cvLayout(t, []orb.Point{{20, 20}, {80, 60}}, planPolyRegion(t, [][2]float64{{0, 0}, {100, 0}, {100, 80}, {0, 80}}, nil))
 	cands := []orb.Point{{20, 60}, {80, 20}, {50, 40}, {50, 40}, {20, 20}, {5, 75}}
 	for _, c := range []struct {
-		name  string
-		picks int
-	}{{"two", 2}, {"fewest", 0}} {
+		name     string
+		K, picks int
+	}{{"two", 2, 2}, {"fewest", 2, 0}, {"k-above-devices", 3, 0}} {
 		t.Run(c.name, func(t *testing.T) {
-			rc, err := ChooseCandidatesReach(l, cands, 2, 45, c.picks)
+			rc, err := ChooseCandidatesReach(l, cands, c.K, 45, c.picks)
 			if err != nil {
 				t.Fatal(err)
 			}
@@ -193,11 +194,18 @@ func TestPlanReachPicks(t *testing.T) {
 					t.Errorf("pick %d: candidate %d, gain %v", j, p.Candidate, p.Gain)
 				}
 				sites = append(sites, p.Position)
-				kc, err := KCover(cvLayout(t, sites, l.Area), 45, KOptions{MaxK: 2})
+				l2 := cvLayout(t, sites, l.Area)
+				if l2.Tri.NumVertices() < c.K {
+					if !math.IsInf(p.CoverRange, 1) || p.CoveredArea != 0 {
+						t.Errorf("pick %d: %d devices for k = %d, yet range %v, area %v", j, l2.Tri.NumVertices(), c.K, p.CoverRange, p.CoveredArea)
+					}
+					continue
+				}
+				kc, err := KCover(l2, 45, KOptions{MaxK: c.K})
 				if err != nil {
 					t.Fatal(err)
 				}
-				if lv := kc.Levels[1]; lv.CoverRange != p.CoverRange || lv.CoveredArea != p.CoveredArea || lv.Share != p.Share {
+				if lv := kc.Levels[c.K-1]; lv.CoverRange != p.CoverRange || lv.CoveredArea != p.CoveredArea || lv.Share != p.Share {
 					t.Errorf("pick %d: %v %v %v, KCover %v %v %v", j, p.CoverRange, p.CoveredArea, p.Share, lv.CoverRange, lv.CoveredArea, lv.Share)
 				}
 			}

@@ -12,8 +12,9 @@
 // edges blend into a colour of the map rather than the background.
 //
 // Palette: ColorBrewer YlGnBu (Brewer, colorbrewer2.org: sequential,
-// marked colour-blind safe), light for few devices, dark for many; at most
-// seven classes (k beyond 6 joins the last band).
+// marked colour-blind safe), light for few devices, dark for many, spread
+// over eight of its nine classes; at most eight bands (k beyond 7 joins
+// the last).
 
 package report
 
@@ -26,10 +27,13 @@ import (
 	"github.com/sitecover/sitecover/coverage"
 )
 
-// reachPalette is ColorBrewer's 7-class YlGnBu.
+// reachPalette is ColorBrewer's 9-class YlGnBu without its lightest class
+// (near white, too close to the map's background for the band reached by
+// no device).
 var reachPalette = []color.RGBA{
-	{0xFF, 0xFF, 0xCC, 0xFF}, {0xC7, 0xE9, 0xB4, 0xFF}, {0x7F, 0xCD, 0xBB, 0xFF}, {0x41, 0xB6, 0xC4, 0xFF},
-	{0x1D, 0x91, 0xC0, 0xFF}, {0x22, 0x5E, 0xA8, 0xFF}, {0x0C, 0x2C, 0x84, 0xFF},
+	{0xED, 0xF8, 0xB1, 0xFF}, {0xC7, 0xE9, 0xB4, 0xFF}, {0x7F, 0xCD, 0xBB, 0xFF},
+	{0x41, 0xB6, 0xC4, 0xFF}, {0x1D, 0x91, 0xC0, 0xFF}, {0x22, 0x5E, 0xA8, 0xFF}, {0x25, 0x34, 0x94, 0xFF},
+	{0x08, 0x1D, 0x58, 0xFF},
 }
 
 // reachColours returns n colours from the palette, spread over it (light
@@ -74,7 +78,7 @@ func reachBandLabel(b coverage.KBand) string {
 	if b.OrMore {
 		n = fmt.Sprintf("%d or more devices", b.Devices)
 	}
-	return fmt.Sprintf("%s in reach: %.2f %% of the site", n, 100*b.Share)
+	return fmt.Sprintf("%s in reach (%.2f %%)", n, 100*b.Share)
 }
 
 // reachGapTable lists the largest parts reached by fewer than K devices
@@ -157,7 +161,7 @@ func (s *scene) drawReachMap(kc *coverage.KCoverage, width int, mk reachMarks) (
 	}
 	key := mapKey{items: items, notes: []string{
 		s.northNote(),
-		"Bands exact (order-k Voronoi pieces, Lee 1982). Palette: ColorBrewer YlGnBu (sequential, colour-blind safe). Devices at the same spot count once.",
+		"Bands exact (order-k Voronoi pieces, Lee 1982), with their share of the site. Palette: ColorBrewer YlGnBu (sequential, colour-blind safe). Devices at the same spot count once.",
 	}, table: reachGapTable(top.K, top.Gaps)}
 	c, d, err := s.layoutMap(s.extent(), width, &key, "single devices and small parts")
 	if err != nil {

@@ -30,6 +30,9 @@ const candidatesReachHelp = `  --reach K --candidates FILE --range R
 // runCandidatesReach runs suggest --reach K --candidates FILE; K is parsed.
 func runCandidatesReach(e *env, cmd *cobra.Command, f *runFlags, K int) error {
 	fl := cmd.Flags()
+	if fl.Changed("new-type") {
+		return usageErrorf("--reach counts devices in reach at one common range: give --range, not --new-type")
+	}
 	if !fl.Changed("range") {
 		return usageErrorf("--reach with --candidates needs --range: the range at which every spot must be reached by K devices (see '%s --help')", cmd.CommandPath())
 	}

@@ -132,6 +132,7 @@ func TestSuggestReachCandidatesBadUsage(t *testing.T) {
 	for _, c := range []failureCase{
 		{"no-range", append(base, "--reach", "2"), exitUsage, []string{"--reach", "--range"}},
 		{"add-zero", append(base, "--reach", "2", "--range", "10", "--add", "0"), exitInput, []string{"--add 0"}},
+		{"new-type", append(base, "--reach", "2", "--range", "10", "--new-type", "gateway"), exitUsage, []string{"--new-type"}},
 	} {
 		t.Run(c.name, func(t *testing.T) {
 			checkFailure(t, runCLI(t, c.args...), c.code, c.want)
