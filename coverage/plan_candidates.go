@@ -78,7 +78,12 @@ type Choice struct {
 	// figures refer to each device's own range, and FullCoverBefore and
 	// FullCoverAfter are the range a picked device would need when every
 	// r² grows alike until no gap is left (NewRange when none is left).
+	// With a range per candidate (ChooseCandidatesEach) it is the largest
+	// candidate range, the one those figures are stated for.
 	NewRange float64
+	// Ranges[j] is the range of the device at Picked[j] with a range per
+	// candidate (ChooseCandidatesEach; nil otherwise).
+	Ranges []float64
 }
 
 // ChooseCandidates picks k of the candidate spots to add to the layout,

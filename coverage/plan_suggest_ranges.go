@@ -22,7 +22,8 @@
 // every addition whose removal leaves no gap, as plan_suggest.go does; the
 // hexagonal estimate area / ((3√3/2) R²) (Kershner 1939) is the comparison.
 //
-// Candidate spots (ChooseCandidatesRanges). Greedy maximum coverage with
+// Candidate spots (ChooseCandidatesRanges, ChooseCandidatesEach in
+// plan_candidates_ranges.go). Greedy maximum coverage with
 // lazy evaluation, as plan_candidates.go (Nemhauser, Wolsey & Fisher 1978;
 // Minoux 1978), the covered area being submodular whatever the radii. The
 // gain of a spot c with range R is exact: in the current power cell X of
@@ -62,14 +63,15 @@ import (
 )
 
 // rangesPlan is a layout with per-device ranges plus added devices of
-// range r, rebuilt after every change.
+// range r (or of addedR[j] each, when set), rebuilt after every change.
 type rangesPlan struct {
-	base  *Layout
-	r     float64
-	added []orb.Point
-	ix    *planar.RegionIndex
-	cur   *Layout
-	fc    RangesFullCover
+	base   *Layout
+	r      float64
+	added  []orb.Point
+	addedR []float64
+	ix     *planar.RegionIndex
+	cur    *Layout
+	fc     RangesFullCover
 }
 
 // newRangesPlan starts a plan on layout l (per-device ranges) for added
@@ -86,8 +88,12 @@ func (p *rangesPlan) rebuild() error {
 	}
 	sites := append(append([]orb.Point(nil), p.base.Sites...), p.added...)
 	ranges := append([]float64(nil), p.base.InputRanges...)
-	for range p.added {
-		ranges = append(ranges, p.r)
+	for j := range p.added {
+		if p.addedR != nil {
+			ranges = append(ranges, p.addedR[j])
+		} else {
+			ranges = append(ranges, p.r)
+		}
 	}
 	l, err := NewLayoutRanges(sites, ranges, p.base.Area)
 	if err != nil {
@@ -267,75 +273,6 @@ func FewestAdditionsRanges(l *Layout, r float64, opt SuggestOptions) (*Suggestio
 		return s, fmt.Errorf("%s: %w: %d additions leave gaps (raise SuggestOptions.MaxAdditions)", where, ErrAdditionCap, len(s.Added))
 	}
 	return s, nil
-}
-
-// ChooseCandidatesRanges is ChooseCandidates for a layout with per-device
-// ranges, each picked spot getting a device of range r: k spots maximising
-// the covered area, or with k ≤ 0 the fewest that leave no gap (see the
-// file comment for the exact gain). The result's Range is 0 and NewRange
-// r; FullCoverBefore and FullCoverAfter are the range an added device
-// would need with every r² grown alike until no gap is left (r when none
-// is left), and Remaining are the gaps at the planned ranges.
-func ChooseCandidatesRanges(l *Layout, candidates []orb.Point, r float64, k int) (*Choice, error) {
-	const where = "coverage: ChooseCandidatesRanges"
-	if err := checkRangesMove(where, l, r); err != nil {
-		return nil, err
-	}
-	if len(candidates) == 0 {
-		return nil, fmt.Errorf("%s: no candidate spot", where)
-	}
-	for i, q := range candidates {
-		if err := planCheckPoint(q); err != nil {
-			return nil, fmt.Errorf("%s: candidate %d: %w", where, i, err)
-		}
-	}
-	if l.inputRangesEqual() && r == l.InputRanges[0] {
-		ch, err := ChooseCandidates(l, candidates, r, k)
-		if ch != nil {
-			ch.Range, ch.NewRange = 0, r
-			ch.FullCoverBefore, ch.FullCoverAfter = math.Max(r, ch.FullCoverBefore), math.Max(r, ch.FullCoverAfter)
-		}
-		return ch, err
-	}
-	p := newRangesPlan(l, r)
-	ch := &Choice{NewRange: r}
-	area := l.AreaM2
-	_, ch.FullCoverBefore, ch.UncoveredBefore, ch.FractionBefore = p.figures()
-	ch.CoveredBefore = math.Max(0, area-ch.UncoveredBefore)
-	eps := planGainEps(r)
-	g := newGainIndex(p.cur)
-	h := make(planHeap, len(candidates))
-	gains := make([]float64, len(candidates))
-	planar.ParallelFor(len(candidates), 64, func(lo, hi int) {
-		var sc rangesGainScratch
-		for i := lo; i < hi; i++ {
-			gains[i] = g.gain(candidates[i][0], candidates[i][1], r, &sc)
-		}
-	})
-	for i, v := range gains {
-		h[i] = planItem{gain: v, idx: int32(i)}
-	}
-	var sc rangesGainScratch
-	err := planLazyGreedy(ch, h, k, eps, p.covered,
-		func(i int32) float64 { return g.gain(candidates[i][0], candidates[i][1], r, &sc) },
-		func(i int32) error {
-			p.added = append(p.added, candidates[i])
-			if err := p.rebuild(); err != nil {
-				return err
-			}
-			g = newGainIndex(p.cur)
-			return nil
-		})
-	if err != nil {
-		return nil, fmt.Errorf("%s: layout with the picks: %w", where, err)
-	}
-	_, ch.FullCoverAfter, ch.UncoveredAfter, ch.FractionAfter = p.figures()
-	ch.CoveredAfter = math.Max(0, area-ch.UncoveredAfter)
-	ch.Complete = p.covered()
-	if !ch.Complete {
-		ch.Remaining = p.cur.GapsRanges(0, DefaultChordTolerance)
-	}
-	return ch, nil
 }
 
 // suggestionAsRanges restates a common-range suggestion (all ranges r) in

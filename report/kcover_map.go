@@ -1,29 +1,39 @@
 // The "devices in reach" map: the site area coloured by how many devices
-// reach each spot at the planned range (0, 1, …, K−1, K or more), with the
-// K-gaps numbered by closing range.
+// reach each spot at the planned range — the disjoint bands 0, 1, …, K−1
+// and "K or more" of coverage.KCoverage.Bands — with the parts reached by
+// fewer than K devices (the K-gaps) numbered by closing range, their
+// deepest spots ringed, and a table of the largest.
 //
-// The bands come from the k-gap outlines of every k = 1 … K (each the part
-// reached by fewer than k devices; they nest): the area is painted in the
-// "K or more" colour, then the parts reached by fewer than k devices for
-// k = K, K−1, …, 1 in the colours of k−1 devices. Outlines replace arcs by
-// chords (sagitta 0.2 % of the range), far below a pixel on a site map.
+// The bands tile the site area (exact overlays of the k-gap outlines, arcs
+// as chords with sagitta at most 0.2 % of the range: far below a pixel on
+// a site map), so each spot gets exactly one colour; the legend gives each
+// band's exact share (closed forms, KCover). The area is first painted in
+// the "K or more" colour and the other bands over it, so anti-aliased band
+// edges blend into a colour of the map rather than the background.
 //
 // Palette: ColorBrewer YlGnBu (Brewer, colorbrewer2.org: sequential,
-// marked colour-blind safe), light for few devices, dark for many.
+// marked colour-blind safe), light for few devices, dark for many, spread
+// over eight of its nine classes; at most eight bands (k beyond 7 joins
+// the last).
 
 package report
 
 import (
 	"fmt"
 	"image/color"
+	"strings"
 
+	"github.com/paulmach/orb"
 	"github.com/sitecover/sitecover/coverage"
 )
 
-// reachPalette is ColorBrewer's 7-class YlGnBu.
+// reachPalette is ColorBrewer's 9-class YlGnBu without its lightest class
+// (near white, too close to the map's background for the band reached by
+// no device).
 var reachPalette = []color.RGBA{
-	{0xFF, 0xFF, 0xCC, 0xFF}, {0xC7, 0xE9, 0xB4, 0xFF}, {0x7F, 0xCD, 0xBB, 0xFF}, {0x41, 0xB6, 0xC4, 0xFF},
-	{0x1D, 0x91, 0xC0, 0xFF}, {0x22, 0x5E, 0xA8, 0xFF}, {0x0C, 0x2C, 0x84, 0xFF},
+	{0xED, 0xF8, 0xB1, 0xFF}, {0xC7, 0xE9, 0xB4, 0xFF}, {0x7F, 0xCD, 0xBB, 0xFF},
+	{0x41, 0xB6, 0xC4, 0xFF}, {0x1D, 0x91, 0xC0, 0xFF}, {0x22, 0x5E, 0xA8, 0xFF}, {0x25, 0x34, 0x94, 0xFF},
+	{0x08, 0x1D, 0x58, 0xFF},
 }
 
 // reachColours returns n colours from the palette, spread over it (light
@@ -41,59 +51,144 @@ func reachColours(n int) []color.RGBA {
 	return out
 }
 
-// reachMap draws the map as PNG. The bands need every level 1 … K; a
-// level not computed leaves its band merged with the next.
+// reachMap draws the map as PNG. It needs every level 1 … K computed with
+// its gaps (coverage.KCoverage.Bands).
 func (s *scene) reachMap(kc *coverage.KCoverage, width int) ([]byte, error) {
-	return encodeMap(s.drawReachMap(kc, width))
+	return encodeMap(s.drawReachMap(kc, width, reachMarks{}))
 }
 
-func (s *scene) drawReachMap(kc *coverage.KCoverage, width int) (*canvas, error) {
+// reachMarks are the planning marks a reach map may carry (suggest
+// --reach): the added devices or picked spots (labelled as devices of the
+// layout they join) and the spots not picked.
+type reachMarks struct {
+	added  []orb.Point
+	label  string // legend of the added marks
+	others []orb.Point
+	title  string // replaces the analysis title when set
+	sub    string // replaces the analysis subtitle when set
+}
+
+// reachBandLabel is the legend text of band b: the number of devices in
+// reach and the band's exact share of the site.
+func reachBandLabel(b coverage.KBand) string {
+	n := fmt.Sprintf("%d devices", b.Devices)
+	if b.Devices == 1 {
+		n = "1 device"
+	}
+	if b.OrMore {
+		n = fmt.Sprintf("%d or more devices", b.Devices)
+	}
+	return fmt.Sprintf("%s in reach (%.2f %%)", n, 100*b.Share)
+}
+
+// reachGapTable lists the largest parts reached by fewer than K devices
+// (number, area, closing range) as the coverage map's gap table does;
+// nil when there is none.
+func reachGapTable(K int, gaps []coverage.KGap) [][]string {
+	g := make([]coverage.Gap, len(gaps))
+	for i, kg := range gaps {
+		g[i] = coverage.Gap{ID: kg.ID, Area: kg.Area, ClosingRange: kg.ClosingRange}
+	}
+	t := gapTable(g)
+	if t == nil {
+		return nil
+	}
+	t[0][0] = fmt.Sprintf("Short of %d", K)
+	for _, row := range t[1:] {
+		row[0] = "Part " + strings.TrimPrefix(row[0], "Gap ")
+	}
+	return t
+}
+
+// colReachNew fills the marks of added devices and picked spots:
+// vermilion (Okabe & Ito's colour-blind-safe set), apart from every
+// YlGnBu class in hue and from the dark ones in lightness.
+var colReachNew = oiVermilion
+
+func swatchReachNew(c *canvas, x, y, w, h float64) { c.newMarkIn(x+w/2, y+h/2, 7*c.u, colReachNew) }
+
+// swatchReachDeepest is the legend swatch of a numbered part's deepest
+// spot: the ring over the lightest band colour.
+func swatchReachDeepest(c *canvas, x, y, w, h float64) {
+	c.dc.SetColor(reachPalette[0])
+	c.dc.DrawRectangle(x, y, w, h)
+	c.dc.Fill()
+	c.deepestMark(x+w/2, y+h/2)
+}
+
+// drawReachMap draws the bands, the numbered K-gaps, the devices and the
+// planning marks mk.
+func (s *scene) drawReachMap(kc *coverage.KCoverage, width int, mk reachMarks) (*canvas, error) {
+	bands, err := kc.Bands(s.l)
+	if err != nil {
+		return nil, err
+	}
 	top := kc.Levels[len(kc.Levels)-1]
-	K := min(top.K, len(reachPalette)-1)
-	cols := reachColours(K + 1)
-	var items []legendItem
-	for j := 0; j <= K; j++ {
-		label := fmt.Sprintf("%d devices in reach", j)
-		switch {
-		case j == 1:
-			label = "1 device in reach"
-		case j == K:
-			label = fmt.Sprintf("%d or more devices in reach", j)
+	// At most len(reachPalette) classes: the bands from the last class on
+	// join it ("K or more" with K = len(reachPalette) − 1).
+	classes := min(len(bands), len(reachPalette))
+	if classes < len(bands) {
+		last := &bands[classes-1]
+		last.OrMore = true
+		for _, b := range bands[classes:] {
+			last.Area += b.Area
+			last.Share += b.Share
+			last.Outline = append(last.Outline, b.Outline...)
 		}
-		items = append(items, legendItem{label, swatchFill(cols[j], nil)})
+		bands = bands[:classes]
 	}
-	gaps := make([]coverage.Gap, 0, min(len(top.Gaps), maxNumbered))
-	for _, g := range top.Gaps[:min(len(top.Gaps), maxNumbered)] {
-		gaps = append(gaps, coverage.Gap{ID: g.ID, Deepest: g.Deepest})
+	cols := reachColours(classes)
+	var items []legendItem
+	for j, b := range bands {
+		if len(b.Outline) > 0 { // the legend lists only the bands on the map
+			items = append(items, legendItem{reachBandLabel(b), swatchFill(cols[j], nil)})
+		}
 	}
-	items = append(items, legendItem{fmt.Sprintf("Deepest spot of a part reached by fewer than %d devices, numbered by closing range", top.K), swatchDeepest},
-		legendItem{"Device site", swatchDot})
+	numbered := min(len(top.Gaps), maxNumbered)
+	gaps := make([]coverage.Gap, numbered)
+	for i, g := range top.Gaps[:numbered] {
+		gaps[i] = coverage.Gap{ID: g.ID, Deepest: g.Deepest}
+	}
+	if numbered > 0 {
+		items = append(items, legendItem{fmt.Sprintf("Part reached by fewer than %d devices: number (by closing range), ring at its deepest spot", top.K), swatchReachDeepest})
+	}
+	items = append(items, legendItem{"Device site", swatchDot})
+	if len(mk.added) > 0 {
+		items = append(items, legendItem{mk.label, swatchReachNew})
+	}
+	if len(mk.others) > 0 {
+		items = append(items, legendItem{"Candidate spot not picked", swatchSpot})
+	}
 	key := mapKey{items: items, notes: []string{
 		s.northNote(),
-		"Palette: ColorBrewer YlGnBu (sequential, colour-blind safe). Devices at the same spot count once.",
-	}}
+		"Bands exact (order-k Voronoi pieces, Lee 1982), with their share of the site. Palette: ColorBrewer YlGnBu (sequential, colour-blind safe). Devices at the same spot count once.",
+	}, table: reachGapTable(top.K, top.Gaps)}
 	c, d, err := s.layoutMap(s.extent(), width, &key, "single devices and small parts")
 	if err != nil {
 		return nil, err
 	}
-	c.title(s.titled(fmt.Sprintf("Devices in reach at %s", metresShort(kc.Range))),
-		fmt.Sprintf("%.2f %% of %s reached by %d or more devices; all of it at %s", 100*top.Share, haText(s.l.AreaM2), top.K, metresShort(top.CoverRange)))
+	title := s.titled(fmt.Sprintf("Devices in reach at %s", metresShort(kc.Range)))
+	sub := fmt.Sprintf("%.2f %% of %s reached by %d or more devices; all of it at %s", 100*top.Share, haText(s.l.AreaM2), top.K, metresShort(top.CoverRange))
+	if mk.title != "" {
+		title, sub = s.titled(mk.title), mk.sub
+	}
+	c.title(title, sub)
 	areaMask := s.drawArea(c)
-	c.paint(areaMask, color.NRGBA(cols[K]), nil)
-	for li := len(kc.Levels) - 1; li >= 0; li-- {
-		lv := kc.Levels[li]
-		if lv.K > K+1 || len(lv.Gaps) == 0 {
-			continue
-		}
-		band := make([]coverage.Gap, len(lv.Gaps))
-		for i, g := range lv.Gaps {
-			band[i] = coverage.Gap{Outline: g.Outline}
-		}
-		s.fillGaps(c, band, cols[lv.K-1])
+	c.paint(areaMask, color.NRGBA(cols[classes-1]), nil)
+	for j := classes - 2; j >= 0; j-- {
+		s.fillGaps(c, []coverage.Gap{{Outline: bands[j].Outline}}, cols[j])
 	}
 	s.drawZones(c)
 	s.strokeArea(c)
 	s.drawSites(c, d)
+	for _, q := range mk.others {
+		x, y := c.px(q)
+		c.spotMark(x, y, 6*c.u)
+	}
+	for _, q := range mk.added {
+		x, y := c.px(q)
+		c.newMarkIn(x, y, 7*c.u, colReachNew)
+	}
 	c.gapMarks(gaps)
 	c.finish(key)
 	return c, nil

@@ -1,9 +1,13 @@
 // suggest --reach K: the devices added so that every spot of the site is
-// reached by at least K devices (coverage.ReachAdditions), written as
-// report.txt, summary.json, the existing devices, the added devices with
-// the exact figures after each addition, and the k-coverage of the layout
-// with the additions (the bands by number of devices in reach and the
-// k-gaps, as analyze --reach writes them).
+// reached by at least K devices (coverage.ReachAdditions), or the candidate
+// spots picked for it (suggest --reach K --candidates FILE,
+// coverage.ChooseCandidatesReach), written as report.txt, summary.json,
+// the existing devices, the added devices or the candidate spots with the
+// exact figures after each addition or pick, the k-coverage of the layout
+// with them (the bands by number of devices in reach and the k-gaps, as
+// analyze --reach writes them), the "devices in reach" map of that layout
+// with the new devices marked (kcover_map.go) and, with --gpkg, every layer
+// in sitecover.gpkg.
 
 package report
 
@@ -22,12 +26,18 @@ import (
 // FileReachAdded is the layer of the devices suggest --reach adds.
 const FileReachAdded = "reach-added-devices.geojson"
 
-// ReachPlan is the result of suggest --reach to write.
+// ReachPlan is the result of suggest --reach to write: Suggestion (free
+// placement) or Choice (candidate spots).
 type ReachPlan struct {
 	// Layout is the existing layout.
 	Layout *coverage.Layout
 	// Suggestion is the result of coverage.ReachAdditions.
 	Suggestion *coverage.ReachSuggestion
+	// Choice is the result of coverage.ChooseCandidatesReach, Candidates
+	// and CandidateNames the candidate spots (local plane) and their names.
+	Choice         *coverage.ReachChoice
+	Candidates     []orb.Point
+	CandidateNames []string
 	// CapReached tells that the cap on additions stopped the placement.
 	CapReached bool
 	// After is the layout with the additions and AfterReach its
@@ -57,8 +67,53 @@ type ReachPlanDoc struct {
 	CapReached            bool    `json:"cap_reached"`
 	Pruned                int     `json:"pruned"`
 	Method                string  `json:"method"`
+	// Candidates is the choice among candidate spots (suggest --reach
+	// --candidates; Added is then empty).
+	Candidates *ReachCandidatesDoc `json:"candidates,omitempty"`
 	// Reach is the k-coverage of the layout with the additions.
 	Reach *ReachDoc `json:"reach_after"`
+}
+
+// ReachCandidatesDoc is the choice among candidate spots for a k target
+// in summary.json.
+type ReachCandidatesDoc struct {
+	// File is the candidates file; Count the number of spots in it;
+	// Requested the number of picks asked for (0: the fewest).
+	File      string `json:"file"`
+	Count     int    `json:"count"`
+	Requested int    `json:"requested"`
+	// Picked lists the chosen spots in the order picked.
+	Picked []ReachPickDoc `json:"picked"`
+	// Exhausted: no remaining spot adds reach; the target cannot be
+	// reached from these candidates.
+	Exhausted bool `json:"exhausted"`
+	// LowerBound is a lower bound on the number of candidates any choice
+	// needs (0 when Exhausted); Optimal says the picks match it.
+	LowerBound int  `json:"lower_bound"`
+	Optimal    bool `json:"optimal"`
+	// ShortAreaM2 is the area reached by fewer than k devices with the
+	// picks (m²).
+	ShortAreaM2 float64 `json:"short_area_m2"`
+	// Evaluations counts the exact depth evaluations (lazy greedy).
+	Evaluations int `json:"evaluations"`
+}
+
+// ReachPickDoc is one picked candidate spot in summary.json.
+type ReachPickDoc struct {
+	// Order numbers the picks from 1; Candidate is the 0-based index in
+	// the candidates file.
+	Order     int    `json:"order"`
+	Candidate int    `json:"candidate"`
+	Name      string `json:"name"`
+	Point     Point  `json:"position"`
+	// DepthGainM2 is what the pick added to Σ_k (area reached by ≥ k
+	// devices), k = 1 … K, when picked (m²).
+	DepthGainM2 float64 `json:"depth_gain_m2"`
+	// KCoverRangeM, CoveredFraction and CoveredAreaM2 are the figures
+	// with this and the earlier picks.
+	KCoverRangeM    *float64 `json:"k_cover_range_m"`
+	CoveredFraction float64  `json:"covered_fraction"`
+	CoveredAreaM2   float64  `json:"covered_area_m2"`
 }
 
 // ReachAddedDoc is one added device in summary.json.
@@ -73,41 +128,145 @@ type ReachAddedDoc struct {
 // reachMethod names the placement method in the outputs.
 const reachMethod = "farthest-point insertion on the k-th nearest distance (Gonzalez 1985), each device at the spot needing the most range or 0.9 range from it (the larger area reached by k), then redundant additions dropped"
 
-// ReachPlanFiles lists the files WriteReachPlan writes (no map or
-// GeoPackage yet).
+// reachChoiceMethod names the choice method in the outputs.
+const reachChoiceMethod = "greedy submodular set cover on the depth (the sum over k = 1 … K of the area reached by k devices; Wolsey 1982, after Johnson 1974 and Chvátal 1979), lazy re-evaluation, then redundant picks dropped"
+
+// ReachPlanFiles lists the files WriteReachPlan writes for the free
+// placement without map or GeoPackage (ReachPlanOutputs lists them all).
 func ReachPlanFiles(m Meta) []string {
-	return []string{FileReport, FileSummary, LayerFile(FileSites, m.Planar), LayerFile(FileReachAdded, m.Planar),
-		LayerFile(FileReach, m.Planar), LayerFile(FileReachGaps, m.Planar), FileManifest}
+	return ReachPlanOutputs(&ReachPlan{}, m, Options{})
+}
+
+// ReachPlanOutputs lists the files WriteReachPlan writes for p with the
+// given options, in the order they are written.
+func ReachPlanOutputs(p *ReachPlan, m Meta, opt Options) []string {
+	pts := FileReachAdded
+	if p.Choice != nil {
+		pts = FileCandidates
+	}
+	f := []string{FileReport, FileSummary, LayerFile(FileSites, m.Planar), LayerFile(pts, m.Planar),
+		LayerFile(FileReach, m.Planar), LayerFile(FileReachGaps, m.Planar)}
+	if opt.GeoPackage {
+		f = append(f, FileGeoPackage)
+	}
+	if opt.Maps {
+		f = append(f, FileMapReach)
+	}
+	return append(f, FileManifest)
+}
+
+// check reports a plan whose parts are missing.
+func (p *ReachPlan) check() error {
+	if p == nil || p.Layout == nil || (p.Suggestion == nil) == (p.Choice == nil) || p.After == nil || p.AfterReach == nil ||
+		p.Choice != nil && len(p.CandidateNames) != len(p.Candidates) {
+		return errors.New("report: WriteReachPlan: incomplete plan")
+	}
+	return nil
+}
+
+// reachAfterMeta is m for the layout with the additions: the new devices
+// named "+1", "+2", … in placement order, or by their candidate's label.
+func (p *ReachPlan) reachAfterMeta(m Meta) Meta {
+	n := len(p.Layout.Sites)
+	names := make([]string, n, len(p.After.Sites))
+	copy(names, m.SiteNames)
+	if p.Choice != nil {
+		for _, pk := range p.Choice.Picks {
+			names = append(names, ItemLabel(p.CandidateNames[pk.Candidate], "candidate", pk.Candidate))
+		}
+	} else {
+		for j := range p.Suggestion.Added {
+			names = append(names, fmt.Sprintf("+%d", j+1))
+		}
+	}
+	m.SiteNames = names
+	return m
 }
 
 // WriteReachPlan writes the outputs of suggest --reach into dir (staged
 // and swapped in whole, as every output set).
 func WriteReachPlan(dir string, p *ReachPlan, m Meta, opt Options) ([]string, error) {
-	if p == nil || p.Layout == nil || p.Suggestion == nil || p.After == nil || p.AfterReach == nil {
-		return nil, errors.New("report: WriteReachPlan: incomplete plan")
+	if err := p.check(); err != nil {
+		return nil, err
 	}
-	files := ReachPlanFiles(m)
+	files := ReachPlanOutputs(p, m, opt)
 	w, err := newWriter(dir, files, m, opt.Progress)
 	if err != nil {
 		return nil, err
 	}
 	s := newScene(p.Layout, nil, m)
-	after := newScene(p.After, nil, m)
+	after := newScene(p.After, nil, p.reachAfterMeta(m))
+	pts := s.layerStep(FileReachAdded, s.reachAddedLayer(p.Suggestion))
+	if p.Choice != nil {
+		pts = s.layerStep(FileCandidates, s.reachCandidatesLayer(p))
+	}
 	steps := []step{
 		{name: FileReport, write: func(out io.Writer) error { _, err := out.Write(after.reachPlanText(p)); return err }},
 		{name: FileSummary, write: func(out io.Writer) error { return writeDoc(out, after.reachPlanDoc(p)) }},
 		s.layerStep(FileSites, s.sitesLayer()),
-		s.layerStep(FileReachAdded, s.reachAddedLayer(p.Suggestion)),
+		pts,
 		after.layerStep(FileReach, after.reachLayer(p.AfterReach)),
 		after.layerStep(FileReachGaps, after.reachGapsLayer(p.AfterReach)),
+	}
+	if opt.GeoPackage {
+		steps = append(steps, step{name: FileGeoPackage, gpkg: true})
+	}
+	if opt.Maps {
+		width := mapWidth(opt)
+		steps = append(steps, step{name: FileMapReach, write: fromBytes(func() ([]byte, error) {
+			return encodeMap(after.drawReachMap(p.AfterReach, width, p.reachMarks()))
+		})})
 	}
 	err = w.writeAll(s, steps)
 	return w.done, err
 }
 
+// reachMarks are the map marks of the plan: the new devices or picked
+// spots, and the candidate spots not picked.
+func (p *ReachPlan) reachMarks() reachMarks {
+	var mk reachMarks
+	if p.Choice != nil {
+		ch := p.Choice
+		picked := make([]bool, len(p.Candidates))
+		for _, pk := range ch.Picks {
+			picked[pk.Candidate] = true
+			mk.added = append(mk.added, pk.Position)
+		}
+		for i, c := range p.Candidates {
+			if !picked[i] {
+				mk.others = append(mk.others, c)
+			}
+		}
+		mk.label = "Picked spot (named on the map by its candidate label)"
+		mk.title = fmt.Sprintf("%d of %d candidate spots picked for %d devices in reach at %s", len(ch.Picks), len(p.Candidates), ch.K, metresShort(ch.Range))
+		mk.sub = fmt.Sprintf("%d-cover range %s -> %s; reached by %d or more: %.2f %% -> %.2f %%", ch.K,
+			reachRangeShort(ch.CoverRangeBefore), reachRangeShort(ch.CoverRangeAfter), ch.K, 100*ch.ShareBefore, 100*ch.ShareAfter)
+		if ch.Exhausted {
+			mk.sub += "; THESE CANDIDATES CANNOT REACH EVERY SPOT"
+		}
+		return mk
+	}
+	sg := p.Suggestion
+	mk.added = sg.Added
+	mk.label = "Added device (+1, +2, … in placement order)"
+	mk.title = fmt.Sprintf("%s for %d devices in reach at %s", Plural(len(sg.Added), "added device"), sg.K, metresShort(sg.Range))
+	mk.sub = fmt.Sprintf("%d-cover range %s -> %s; reached by %d or more: %.2f %% -> %.2f %%", sg.K,
+		reachRangeShort(sg.CoverRangeBefore), reachRangeShort(sg.CoverRangeAfter), sg.K, 100*sg.ShareBefore, 100*sg.ShareAfter)
+	return mk
+}
+
+// reachRangeShort formats a k-cover range for a map ("none" when
+// infinite).
+func reachRangeShort(v float64) string {
+	if math.IsInf(v, 0) {
+		return "none"
+	}
+	return metresShort(v)
+}
+
 // ReachPlanSummary builds summary.json of suggest --reach.
 func ReachPlanSummary(p *ReachPlan, m Meta) *ReachPlanDoc {
-	return newScene(p.After, nil, m).reachPlanDoc(p)
+	return newScene(p.After, nil, p.reachAfterMeta(m)).reachPlanDoc(p)
 }
 
 // finiteOrNil returns &v, nil for an infinite v (JSON null).
@@ -119,6 +278,9 @@ func finiteOrNil(v float64) *float64 {
 }
 
 func (s *scene) reachPlanDoc(p *ReachPlan) *ReachPlanDoc {
+	if p.Choice != nil {
+		return s.reachChoiceDoc(p)
+	}
 	sg := p.Suggestion
 	d := &ReachPlanDoc{Command: "suggest --reach", K: sg.K, RangeM: sg.Range, Existing: sg.Existing, Added: []ReachAddedDoc{},
 		KCoverRangeBeforeM: finiteOrNil(sg.CoverRangeBefore), KCoverRangeAfterM: finiteOrNil(sg.CoverRangeAfter),
@@ -131,8 +293,29 @@ func (s *scene) reachPlanDoc(p *ReachPlan) *ReachPlanDoc {
 	return d
 }
 
+// reachChoiceDoc is summary.json of suggest --reach --candidates.
+func (s *scene) reachChoiceDoc(p *ReachPlan) *ReachPlanDoc {
+	ch := p.Choice
+	d := &ReachPlanDoc{Command: "suggest --reach --candidates", K: ch.K, RangeM: ch.Range, Existing: ch.Existing, Added: []ReachAddedDoc{},
+		KCoverRangeBeforeM: finiteOrNil(ch.CoverRangeBefore), KCoverRangeAfterM: finiteOrNil(ch.CoverRangeAfter),
+		CoveredFractionBefore: ch.ShareBefore, CoveredFractionAfter: ch.ShareAfter, Reached: ch.Reached,
+		Pruned: ch.Pruned, Method: reachChoiceMethod, Reach: s.reachDoc(p.AfterReach),
+		Candidates: &ReachCandidatesDoc{File: s.m.CandidatesFile, Count: len(p.Candidates), Requested: ch.Requested,
+			Picked: []ReachPickDoc{}, Exhausted: ch.Exhausted, LowerBound: ch.LowerBound, Optimal: ch.Optimal,
+			ShortAreaM2: math.Max(0, p.AfterReach.AreaM2-ch.CoveredAfter), Evaluations: ch.Evaluations}}
+	for j, pk := range ch.Picks {
+		d.Candidates.Picked = append(d.Candidates.Picked, ReachPickDoc{Order: j + 1, Candidate: pk.Candidate,
+			Name: p.CandidateNames[pk.Candidate], Point: s.point(pk.Position), DepthGainM2: pk.Gain,
+			KCoverRangeM: finiteOrNil(pk.CoverRange), CoveredFraction: pk.Share, CoveredAreaM2: pk.CoveredArea})
+	}
+	return d
+}
+
 // reachPlanText is report.txt of suggest --reach.
 func (s *scene) reachPlanText(p *ReachPlan) []byte {
+	if p.Choice != nil {
+		return s.reachChoiceText(p)
+	}
 	sg := p.Suggestion
 	var b strings.Builder
 	if s.m.Title != "" {
@@ -184,6 +367,88 @@ func (s *scene) reachAddedLayer(sg *coverage.ReachSuggestion) *layerDef {
 					rng = math.NaN()
 				}
 				if err := emit(orb.Point(s.point(st.Added)), j+1, sg.K, rng, st.Share, st.CoveredArea, sg.Range); err != nil {
+					return err
+				}
+			}
+			return nil
+		}}
+}
+
+// reachChoiceText is report.txt of suggest --reach --candidates.
+func (s *scene) reachChoiceText(p *ReachPlan) []byte {
+	ch := p.Choice
+	var b strings.Builder
+	if s.m.Title != "" {
+		fmt.Fprintf(&b, "%s\n", s.m.Title)
+	}
+	what := "THE FEWEST CANDIDATE SPOTS"
+	if ch.Requested > 0 {
+		what = fmt.Sprintf("%d CANDIDATE SPOTS", ch.Requested)
+	}
+	fmt.Fprintf(&b, "SUGGEST: %s FOR EVERY SPOT REACHED BY %d DEVICES at the planned range %s m\n", what, ch.K, fmtReach(ch.Range, 2))
+	fmt.Fprintf(&b, "  existing devices        %d\n  candidate spots         %d\n  picked                  %d", ch.Existing, len(p.Candidates), len(ch.Picks))
+	if ch.Pruned > 0 {
+		fmt.Fprintf(&b, " (%d more picked, then dropped as redundant)", ch.Pruned)
+	}
+	fmt.Fprintf(&b, "\n  %d-cover range           %s m before, %s m after\n", ch.K, reachRangeText(ch.CoverRangeBefore), reachRangeText(ch.CoverRangeAfter))
+	fmt.Fprintf(&b, "  reached by %d+ devices   %s %% before, %s %% after\n", ch.K, fmtReach(100*ch.ShareBefore, 3), fmtReach(100*ch.ShareAfter, 3))
+	short := math.Max(0, p.AfterReach.AreaM2-ch.CoveredAfter)
+	switch {
+	case ch.Reached && ch.Optimal:
+		fmt.Fprintf(&b, "  Every spot of the site is reached by at least %d devices, with the fewest\n  candidate spots possible (the lower bound below is met).\n", ch.K)
+	case ch.Reached:
+		fmt.Fprintf(&b, "  Every spot of the site is reached by at least %d devices.\n", ch.K)
+		if ch.Requested == 0 {
+			fmt.Fprintf(&b, "  No choice of fewer than %d of these spots can do it (a lower bound from the\n  greedy's own gains); the choice is greedy and may use more than the fewest.\n", ch.LowerBound)
+		}
+	case ch.Exhausted:
+		fmt.Fprintf(&b, "  THESE CANDIDATES CANNOT REACH EVERY SPOT %d TIMES: no remaining spot adds reach;\n"+
+			"  %s m² stay reached by fewer than %d devices, in %s (listed under k = %d below).\n", ch.K, fmtReach(short, 1), ch.K, Plural(len(ch.Remaining), "part"), ch.K)
+	default:
+		fmt.Fprintf(&b, "  %s m² stay reached by fewer than %d devices, in %s; more picks may reach them.\n", fmtReach(short, 1), ch.K, Plural(len(ch.Remaining), "part"))
+	}
+	if len(ch.Picks) > 0 {
+		fmt.Fprintf(&b, "\n  %4s  %-28s  %14s  %14s  %12s  %s\n", "pick", "position", "depth gain m²", "k-cover m", "reached %", "candidate")
+		for j, pk := range ch.Picks {
+			fmt.Fprintf(&b, "  %4d  %-28s  %14s  %14s  %12s  %s\n", j+1, s.pointText(pk.Position), fmtReach(pk.Gain, 1),
+				reachRangeText(pk.CoverRange), fmtReach(100*pk.Share, 3), ItemLabel(p.CandidateNames[pk.Candidate], "candidate", pk.Candidate))
+		}
+		b.WriteString("  Depth gain: what the pick added to the area reached by 1, 2, … K devices, summed.\n")
+	}
+	b.WriteString("\n  Method: greedy submodular set cover on the depth, the sum over k = 1 … K of the area\n" +
+		"  reached by k devices (Wolsey 1982, after Johnson 1974 and Chvátal 1979), lazy re-evaluation,\n" +
+		"  then redundant picks dropped; every figure exact (order-k Voronoi pieces, Lee 1982).\n" +
+		"  Choices are planning aids for the disk model: a surveyor must confirm that a device can be\n" +
+		"  mounted at each spot and reaches its range.\n")
+	b.Write(s.reachText(p.AfterReach))
+	return []byte(b.String())
+}
+
+// reachCandidatesLayer is every candidate spot with its pick order (−1
+// and null figures for a spot not picked) and the figures after its pick.
+func (s *scene) reachCandidatesLayer(p *ReachPlan) *layerDef {
+	ch := p.Choice
+	return &layerDef{geom: gpkg.Point,
+		fields: fieldList("candidate", gpkg.Integer, "name", gpkg.Text, "picked", gpkg.Boolean, "pick_order", gpkg.Integer,
+			"depth_gain_m2", gpkg.Real, "k", gpkg.Integer, "k_cover_range_m", gpkg.Real, "covered_fraction", gpkg.Real, "range_m", gpkg.Real),
+		each: func(emit emitFunc) error {
+			at := make([]int, len(p.Candidates))
+			for i := range at {
+				at[i] = -1
+			}
+			for j, pk := range ch.Picks {
+				at[pk.Candidate] = j
+			}
+			for i, c := range p.Candidates {
+				order, gain, rng, share := -1, math.NaN(), math.NaN(), math.NaN()
+				if j := at[i]; j >= 0 {
+					pk := ch.Picks[j]
+					order, gain, rng, share = j+1, pk.Gain, pk.CoverRange, pk.Share
+					if math.IsInf(rng, 0) {
+						rng = math.NaN() // null while fewer than K devices stand
+					}
+				}
+				if err := emit(orb.Point(s.point(c)), i, p.CandidateNames[i], order > 0, order, gain, ch.K, rng, share, ch.Range); err != nil {
 					return err
 				}
 			}

@@ -98,6 +98,10 @@ type Plan struct {
 	Choice         *coverage.Choice
 	Candidates     []orb.Point
 	CandidateNames []string
+	// CandidateRanges holds each candidate spot's range when the spots
+	// carry their own (coverage.ChooseCandidatesEach; nil otherwise);
+	// NewRange is then the default of the spots without one.
+	CandidateRanges []float64
 
 	// Failures is the result of MoveFailures.
 	Failures *coverage.FailureReport

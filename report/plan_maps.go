@@ -61,6 +61,7 @@ type beforeAfter struct {
 	newLabel   string
 	closed     string // legend of the closed part of the gaps
 	added      []orb.Point
+	addedR     []float64 // each new device's range (nil: one range)
 	labels     []string
 	others     []orb.Point // candidate spots not picked
 	before     []coverage.Gap
@@ -109,13 +110,17 @@ func (s *planScene) candidateMap(width int) ([]byte, error) {
 		ba.added = append(ba.added, p.Candidates[c])
 		ba.labels = append(ba.labels, fmt.Sprint(j+1))
 	}
+	ba.addedR = ch.Ranges
 	for i, c := range p.Candidates {
 		if !picked[i] {
 			ba.others = append(ba.others, c)
 		}
 	}
 	at := metresShort(ch.Range)
-	if p.own() {
+	switch {
+	case ch.Ranges != nil:
+		at = "their own ranges"
+	case p.own():
 		at = metresShort(p.NewRange) + " (own ranges for the others)"
 	}
 	ba.title = fmt.Sprintf("%d of %d candidate spots picked at %s", len(ch.Picked), len(p.Candidates), at)
@@ -147,7 +152,11 @@ func (s *planScene) drawBeforeAfter(width int, ba beforeAfter) (*canvas, error) 
 		items = append(items, legendItem{"Gap left, numbered by closing range; ring: deepest point", swatchDeepest})
 	}
 	if len(ba.added) > 0 {
-		items = append(items, legendItem{fmt.Sprintf("Reach of a new device (%s)", metresShort(r)), swatchDashed})
+		reach := metresShort(r)
+		if ba.addedR != nil {
+			reach = "its own range"
+		}
+		items = append(items, legendItem{fmt.Sprintf("Reach of a new device (%s)", reach), swatchDashed})
 	}
 	items = append(items, legendItem{"Existing device", swatchDot})
 	if len(ba.added) > 0 {
@@ -184,9 +193,13 @@ func (s *planScene) drawBeforeAfter(width int, ba beforeAfter) (*canvas, error) 
 	if len(ba.added) <= 10*maxMarked && rho >= 2 {
 		c.inFrame(func() {
 			c.setReachDash()
-			for _, q := range ba.added {
+			for j, q := range ba.added {
 				x, y := c.px(q)
-				c.dc.DrawCircle(x, y, rho)
+				if ba.addedR != nil {
+					c.dc.DrawCircle(x, y, ba.addedR[j]*c.k)
+				} else {
+					c.dc.DrawCircle(x, y, rho)
+				}
 				c.dc.Stroke()
 			}
 			c.dc.SetDash()
@@ -243,12 +256,15 @@ func (c *canvas) inFrame(draw func()) {
 
 // newMark draws a new device: a blue square with a white halo and a dark
 // edge.
-func (c *canvas) newMark(x, y, r float64) {
+func (c *canvas) newMark(x, y, r float64) { c.newMarkIn(x, y, r, colNew) }
+
+// newMarkIn draws a new device's square filled with fill.
+func (c *canvas) newMarkIn(x, y, r float64, fill color.Color) {
 	c.dc.DrawRectangle(x-r, y-r, 2*r, 2*r)
 	c.dc.SetColor(color.White)
 	c.dc.SetLineWidth(4.5 * c.u)
 	c.dc.StrokePreserve()
-	c.dc.SetColor(colNew)
+	c.dc.SetColor(fill)
 	c.dc.FillPreserve()
 	c.dc.SetColor(colInk)
 	c.dc.SetLineWidth(1.6 * c.u)

@@ -164,8 +164,16 @@ type CandidatesDoc struct {
 	Requested int     `json:"requested"`
 	RangeM    float64 `json:"range_m"`
 	// NewRangeM and NewType: as in SuggestionsDoc (per-device ranges).
+	// With spots of their own ranges (OwnRanges), NewRangeM is the default
+	// of the spots without one, each pick's range is in Picked, and the
+	// full-cover figures are stated for a device of the largest spot range
+	// (FullCoverRangeForM).
 	NewRangeM float64 `json:"new_range_m,omitempty"`
 	NewType   string  `json:"new_type,omitempty"`
+	OwnRanges bool    `json:"candidate_ranges,omitempty"`
+	// FullCoverRangeForM is the range of the device the full-cover figures
+	// are stated for when the spots carry their own ranges.
+	FullCoverRangeForM float64 `json:"full_cover_range_for_m,omitempty"`
 	// Picked lists the chosen spots in the order picked.
 	Picked []PickedCandidate `json:"picked"`
 	// Area figures without and with the picks.
@@ -206,6 +214,9 @@ type PickedCandidate struct {
 	GainM2               float64 `json:"gain_m2"`
 	CoveredAfterM2       float64 `json:"covered_area_after_m2"`
 	CoveredFractionAfter float64 `json:"covered_fraction_after"`
+	// RangeM is the range of the device at the spot when the spots carry
+	// ranges of their own (omitted otherwise).
+	RangeM float64 `json:"range_m,omitempty"`
 }
 
 // FailureFields are the failures members of summary.json.
@@ -541,6 +552,12 @@ func (s *planScene) candidatesDoc() *CandidatesDoc {
 			CoveredAfterM2:       cum[j],
 			CoveredFractionAfter: math.Max(0, math.Min(1, cum[j]/s.l.AreaM2)),
 		})
+		if ch.Ranges != nil {
+			d.Picked[j].RangeM = ch.Ranges[j]
+		}
+	}
+	if p.Choice.Ranges != nil || p.CandidateRanges != nil {
+		d.OwnRanges, d.NewRangeM, d.FullCoverRangeForM = true, p.NewRange, ch.NewRange
 	}
 	return d
 }

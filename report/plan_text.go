@@ -158,6 +158,9 @@ func (s *planScene) newText() string {
 // fullCoverKey is the label of the full-cover figures of suggest and
 // candidates.
 func (s *planScene) fullCoverKey() string {
+	if s.p.CandidateRanges != nil && s.p.Choice != nil {
+		return "Device of " + metres(s.p.Choice.NewRange) + " needs (r² grown alike)"
+	}
 	if s.p.own() {
 		return "New device needs (r² grown alike)"
 	}
@@ -317,7 +320,12 @@ func (s *planScene) textCandidates(b *textBuf) {
 	} else {
 		section(b, fmt.Sprintf("FEWEST CANDIDATE SPOTS FOR NO GAP AT %s", s.atText(true)))
 	}
-	if p.own() {
+	switch {
+	case p.CandidateRanges != nil:
+		b.WriteString("  At each picked spot a device of the spot's own range (else " + s.newText() + "); gains and\n")
+		b.WriteString("  figures from the power cells (where |x - p|² - r² is smallest), recomputed after each\n")
+		b.WriteString("  pick; the full-cover figure is stated for a device of the largest spot range, " + metres(ch.NewRange) + ".\n")
+	case p.own():
 		b.WriteString("  A device of " + s.newText() + " at each picked spot; gains and figures from the\n")
 		b.WriteString("  power cells (where |x - p|² - r² is smallest), recomputed after each pick.\n")
 	}
@@ -334,13 +342,22 @@ func (s *planScene) textCandidates(b *textBuf) {
 	} else {
 		t := &table{}
 		hx, hy := s.pointHeads()
-		t.head("Pick", hx, hy, "Adds m²", "Covered %", "Candidate")
-		t.left(5)
 		cum := cumulative(ch)
+		if ch.Ranges != nil {
+			t.head("Pick", hx, hy, "Range m", "Adds m²", "Covered %", "Candidate")
+			t.left(6)
+		} else {
+			t.head("Pick", hx, hy, "Adds m²", "Covered %", "Candidate")
+			t.left(5)
+		}
 		for j, c := range ch.Picked {
 			px, py := s.pointCols(p.Candidates[c])
-			t.row(fmt.Sprint(j+1), px, py, fmt.Sprintf("%.1f", ch.Gains[j]),
-				CoveredPercent(cum[j]/s.l.AreaM2, pickUncovered(ch, j), 3), ItemLabel(p.CandidateNames[c], "candidate", c))
+			cells := []string{fmt.Sprint(j + 1), px, py}
+			if ch.Ranges != nil {
+				cells = append(cells, fmt.Sprintf("%.2f", ch.Ranges[j]))
+			}
+			t.row(append(cells, fmt.Sprintf("%.1f", ch.Gains[j]),
+				CoveredPercent(cum[j]/s.l.AreaM2, pickUncovered(ch, j), 3), ItemLabel(p.CandidateNames[c], "candidate", c))...)
 		}
 		t.write(b)
 		b.WriteString("  Candidate: its name, or its position in the candidates file (candidate 1 first).\n")

@@ -17,6 +17,7 @@ import (
 	"io"
 	"math"
 	"path/filepath"
+	"slices"
 	"strings"
 	"time"
 
@@ -81,7 +82,10 @@ func newSuggestCmd(e *env) *cobra.Command {
                           --sites): K of them (--add K) maximising the area
                           covered at --range, or the fewest that cover
                           everything; says when full cover cannot be reached
-                          and what stays uncovered.
+                          and what stays uncovered. A spot may carry its own
+                          range (a range column or property, or a type with
+                          --type-range/--range-table); one without takes
+                          --range (or --new-type).
 
 Devices with their own ranges (a range column, or a type column with
 --type-range or --range-table): the added devices get the range of --range, or
@@ -92,7 +96,7 @@ repeat that until no gap is left, and candidate spots are chosen by the exact
 area each adds. The full-cover figure is then the range a new device would need
 with every r^2 grown alike until no gap is left. --new-type also adds devices
 of another type to a site whose devices share one range.
-` + suggestReachHelp + `
+` + suggestReachHelp + candidatesReachHelp + `
 The report folder (default sitecover-report/suggest) gets report.txt,
 summary.json, the proposed devices or the candidate spots, the gaps before and
 after as GeoJSON, and a map.
@@ -311,6 +315,24 @@ func runPlan(e *env, command string, f *runFlags, in siteinput.Inputs, ps planSp
 			ps.r, ps.rangeGiven = newR, true
 		}
 	}
+	candR, err := candidateRanges(sc, ps, newR)
+	if err != nil {
+		return err
+	}
+	if candR != nil && !own {
+		common := sc.rangeM
+		if common == 0 {
+			common = ps.r
+		}
+		if slices.ContainsFunc(candR, func(r float64) bool { return r != common }) {
+			// Candidate spots of other ranges than the existing devices.
+			own = true
+			sc.ranges = repeatRange(common, len(sc.sites))
+			sc.meta.Ranges = sc.ranges
+		} else {
+			candR = nil // every spot has the devices' one range
+		}
+	}
 	if !own && !ps.rangeGiven && sc.rangeM > 0 {
 		// One range for every device from the sites file (a range column
 		// with one value, or a type table): the range of the figures.
@@ -347,7 +369,7 @@ func runPlan(e *env, command string, f *runFlags, in siteinput.Inputs, ps planSp
 	t0 = time.Now()
 	switch {
 	case own && adding:
-		if err := runOwnAdditions(p, l, sc, ps, newR, pr); err != nil {
+		if err := runOwnAdditions(p, l, sc, ps, newR, candR, pr); err != nil {
 			return fail(err)
 		}
 		timed("suggest", t0)
@@ -502,8 +524,9 @@ func repeatRange(r float64, n int) []float64 {
 }
 
 // runOwnAdditions runs suggest's move when the devices have their own
-// ranges, the added ones range r.
-func runOwnAdditions(p *report.Plan, l *coverage.Layout, sc *scene, ps planSpec, r float64, pr *progress) error {
+// ranges, the added ones range r (candidate spots: candR[i] each, when
+// some carry their own; nil otherwise).
+func runOwnAdditions(p *report.Plan, l *coverage.Layout, sc *scene, ps planSpec, r float64, candR []float64, pr *progress) error {
 	var err error
 	switch ps.move {
 	case report.MoveAdd:
@@ -518,9 +541,35 @@ func runOwnAdditions(p *report.Plan, l *coverage.Layout, sc *scene, ps planSpec,
 	case report.MoveCandidates:
 		pr.set(fmt.Sprintf("choosing among %d candidate spots", len(sc.candidates.Pts)))
 		p.Candidates, p.CandidateNames = sc.candidates.Pts, sc.candidates.Names
-		p.Choice, err = coverage.ChooseCandidatesRanges(l, p.Candidates, r, ps.k)
+		if candR != nil {
+			p.CandidateRanges = candR
+			p.Choice, err = coverage.ChooseCandidatesEach(l, p.Candidates, candR, ps.k)
+		} else {
+			p.Choice, err = coverage.ChooseCandidatesRanges(l, p.Candidates, r, ps.k)
+		}
 	}
 	return err
+}
+
+// candidateRanges returns each candidate spot's range when some spot of
+// suggest --candidates carries its own (a range or type column; nil
+// otherwise): its own, else r, the added devices' range (--range or
+// --new-type).
+func candidateRanges(sc *scene, ps planSpec, r float64) ([]float64, error) {
+	if ps.move != report.MoveCandidates || sc.candidates == nil || sc.candidates.Ranges == nil {
+		return nil, nil
+	}
+	out := make([]float64, len(sc.candidates.Ranges))
+	for i, v := range sc.candidates.Ranges {
+		if v == 0 {
+			if r <= 0 {
+				return nil, usageErrorf("--candidates: %s has no range of its own: give the default with --range LENGTH or --new-type TYPE", report.ItemLabel(sc.candidates.Names[i], "candidate", i))
+			}
+			v = r
+		}
+		out[i] = v
+	}
+	return out, nil
 }
 
 // printPlan prints the headline figures of a planning move.
@@ -598,16 +647,22 @@ func printSuggestions(w io.Writer, line lineFunc, d *report.PlanDoc, m report.Me
 // printCandidates prints the figures of suggest --candidates.
 func printCandidates(w io.Writer, line lineFunc, d *report.PlanDoc, mode printMode) {
 	c := d.Candidates
-	if c.NewRangeM > 0 {
+	switch {
+	case c.OwnRanges:
+		line("candidate spots picked", "%d of %d, each with its own range (else %s)", len(c.Picked), c.Count, newDevices(c.NewRangeM, c.NewType))
+	case c.NewRangeM > 0:
 		line("candidate spots picked", "%d of %d, new devices %s", len(c.Picked), c.Count, newDevices(c.NewRangeM, c.NewType))
-	} else {
+	default:
 		line("candidate spots picked", "%d of %d at %s m", len(c.Picked), c.Count, fmtNum(c.RangeM, 2))
 	}
 	line("covered", "%s %% -> %s %% (%s m² -> %s m² uncovered)",
 		report.CoveredPercent(c.CoveredFractionBefore, c.UncoveredBeforeM2, 2), report.CoveredPercent(c.CoveredFractionAfter, c.UncoveredAfterM2, 2),
 		report.AreaNumber(c.UncoveredBeforeM2, 1), report.AreaNumber(c.UncoveredAfterM2, 1))
 	full := "full-cover range"
-	if c.NewRangeM > 0 {
+	switch {
+	case c.OwnRanges:
+		full = fmt.Sprintf("%s m device needs", fmtNum(c.FullCoverRangeForM, 2))
+	case c.NewRangeM > 0:
 		full = "new device needs"
 	}
 	line(full, "%s m -> %s m", fmtNum(c.FullCoverRangeBeforeM, 2), fmtNum(c.FullCoverRangeAfterM, 2))
@@ -625,7 +680,11 @@ func printCandidates(w io.Writer, line lineFunc, d *report.PlanDoc, mode printMo
 				fmt.Fprintf(w, "  ... and %d more picks (all in report.txt and summary.json)\n", len(c.Picked)-i)
 				break
 			}
-			fmt.Fprintf(w, "  %4d  %s at %s: +%s m²\n", pk.Order, report.ItemLabel(pk.Name, "candidate", pk.Candidate), fmtPoint(pk.Point, d.Coordinates), fmtNum(pk.GainM2, 1))
+			at := ""
+			if pk.RangeM > 0 {
+				at = " (" + fmtNum(pk.RangeM, 2) + " m)"
+			}
+			fmt.Fprintf(w, "  %4d  %s%s at %s: +%s m²\n", pk.Order, report.ItemLabel(pk.Name, "candidate", pk.Candidate), at, fmtPoint(pk.Point, d.Coordinates), fmtNum(pk.GainM2, 1))
 		}
 	}
 }

@@ -53,8 +53,11 @@ func runSuggestReach(e *env, cmd *cobra.Command, f *runFlags) error {
 		return err
 	}
 	fl := cmd.Flags()
-	if fl.Changed("add") || fl.Changed("candidates") {
-		return usageErrorf("--reach places devices freely until every spot is reached by K devices; it does not combine with --add or --candidates")
+	if fl.Changed("candidates") {
+		return runCandidatesReach(e, cmd, f, K)
+	}
+	if fl.Changed("add") {
+		return usageErrorf("--reach places devices freely until every spot is reached by K devices; it does not combine with --add (except with --candidates: that many spots)")
 	}
 	if !fl.Changed("range") {
 		return usageErrorf("--reach needs --range: the range at which every spot must be reached by K devices (see '%s --help')", cmd.CommandPath())

@@ -26,6 +26,7 @@ import (
 	"encoding/json"
 	"fmt"
 	"math"
+	"slices"
 	"strings"
 
 	"github.com/paulmach/orb"
@@ -50,6 +51,11 @@ type Items struct {
 	Weights []float64
 	// NumPolygons counts the polygon items.
 	NumPolygons int
+	// Ranges holds, for candidate spots, each spot's own range (m; 0 for a
+	// spot without one); nil when no spot has one (candidate_ranges.go).
+	Ranges []float64
+
+	rangeSrc candidateRangeSource // range texts and types while reading
 }
 
 // pointKind says what a point file holds, for reading and messages.
@@ -57,12 +63,13 @@ type pointKind struct {
 	// what is the plural noun used in messages ("candidate spots").
 	what string
 	// polygons allows Polygon and MultiPolygon items; weights reads the
-	// weight property or column.
-	polygons, weights bool
+	// weight property or column; ranges reads the range and type
+	// (candidate_ranges.go).
+	polygons, weights, ranges bool
 }
 
 var (
-	candidateKind = pointKind{what: "candidate spots"}
+	candidateKind = pointKind{what: "candidate spots", ranges: true}
 	demandKind    = pointKind{what: "demand points", polygons: true, weights: true}
 	contextKind   = pointKind{what: "context features", polygons: true}
 )
@@ -92,7 +99,10 @@ func loadItems(src Source, planarInput bool, kind pointKind) (*Items, error) {
 			it = &Items{Pts: s.Pts, Names: s.Names, Polys: make([]orb.MultiPolygon, len(s.Pts)), Weights: w}
 			it.Where = make([]string, len(s.Pts))
 			for i := range it.Where {
-				it.Where[i] = fmt.Sprintf("item %d", i)
+				it.Where[i] = fmt.Sprintf("line %d", s.Src[i])
+			}
+			if kind.ranges {
+				it.rangeSrc = candidateRangeSource{ranges: s.Ranges, types: s.Types}
 			}
 		}
 	}
@@ -135,16 +145,35 @@ func pointItemsFromGeoJSON(src Source, planarInput bool, kind pointKind) (*Items
 			}
 			weighted = weighted || ok
 		}
+		rangeText, typ := "", ""
+		if kind.ranges {
+			var ok bool
+			if rangeText, ok = jsonLength(props.Range); !ok {
+				return nil, errorf("%s %s: range %s is not a length (give metres as a number, or a string such as \"150m\")", src.Name, where, shortJSON(props.Range))
+			}
+			typ = jsonText(props.Type)
+		}
 		n0 := len(it.Pts)
 		if err := it.addGeometry(src, where, f.Geometry, name, planarInput, kind); err != nil {
 			return nil, err
 		}
 		for range len(it.Pts) - n0 {
 			it.Weights = append(it.Weights, w)
+			if kind.ranges {
+				it.rangeSrc.ranges = append(it.rangeSrc.ranges, rangeText)
+				it.rangeSrc.types = append(it.rangeSrc.types, typ)
+			}
 		}
 	}
 	if !weighted {
 		it.Weights = nil
+	}
+	// A property counts as a range or type source when some feature has
+	// it (as for sites: addRangeType).
+	for _, p := range []*[]string{&it.rangeSrc.ranges, &it.rangeSrc.types} {
+		if !slices.ContainsFunc(*p, func(v string) bool { return v != "" }) {
+			*p = nil
+		}
 	}
 	return it, nil
 }

@@ -315,6 +315,11 @@ func (sc *Scene) read(in Inputs) (*siteSet, []areaPoly, error) {
 		if *it.dst, err = loadItems(*it.src, metric, it.kind); err != nil {
 			return nil, nil, err
 		}
+		if it.kind.ranges {
+			if err := (*it.dst).resolveCandidateRanges(it.src.Name, (*it.dst).rangeSrc, in.TypeRanges); err != nil {
+				return nil, nil, err
+			}
+		}
 		if c != nil {
 			if err := c.convertItems(it.src.Name, *it.dst); err != nil {
 				return nil, nil, err
