@@ -167,3 +167,53 @@ func TestPlanRangesEqualIsCommon(t *testing.T) {
 		})
 	}
 }
+
+// TestSuggestRangesHistory: the figures recorded as the additions are
+// inserted are, to the last digit, those of the additions replayed from
+// the bare layout (the replay is what the planners did before), for free
+// placement and for the fewest additions (whose pruning replays).
+func TestSuggestRangesHistory(t *testing.T) {
+	for name, l := range planMixedScenes(t) {
+		t.Run(name, func(t *testing.T) {
+			const r = 12.0
+			p := newRangesPlan(l, r)
+			for range 6 {
+				if err := p.insert(); err != nil {
+					t.Fatal(err)
+				}
+			}
+			got, err := p.history()
+			if err != nil {
+				t.Fatal(err)
+			}
+			p.figs = nil
+			want, err := p.history()
+			if err != nil {
+				t.Fatal(err)
+			}
+			if len(got) != 7 || !reflect.DeepEqual(got, want) {
+				t.Errorf("recorded figures %v, replayed %v", got, want)
+			}
+			s, err := SuggestAdditionsRanges(l, 6, r)
+			if err != nil {
+				t.Fatal(err)
+			}
+			if !slices.Equal(s.Added, p.added) || s.Steps[5].UncoveredAfter != want[6].unc || s.FullCoverPowerAfter != want[6].pow {
+				t.Errorf("suggestion %v (uncovered after %v), plan %v (%v)", s.Added, s.UncoveredAfter, p.added, want[6].unc)
+			}
+		})
+	}
+}
+
+// BenchmarkSuggestAdditionsRanges: 200 devices of 100 m added to the mixed
+// 40/60/120/150 m layout of 10 000 devices (mixedLayout).
+func BenchmarkSuggestAdditionsRanges(b *testing.B) {
+	l, _, _ := mixedLayout(b, 10_000, 3)
+	b.Run("mixed-10000-add-200", func(b *testing.B) {
+		for b.Loop() {
+			if _, err := SuggestAdditionsRanges(l, 200, 100); err != nil {
+				b.Fatal(err)
+			}
+		}
+	})
+}
