@@ -93,11 +93,8 @@ const hiddenSlack = 1e-12
 // Each device's entry is the one RangesFailures.Device gives at growth 0,
 // with the whole-layout figures (Uncovered, FullCoverPower) added.
 func FailuresRanges(l *Layout) (*FailureReport, error) {
-	if err := planCheckLayout(l); err != nil {
-		return nil, fmt.Errorf("coverage: FailuresRanges: %w", err)
-	}
-	if !l.weighted() {
-		return nil, fmt.Errorf("coverage: FailuresRanges: the layout has one common range (use Failures)")
+	if err := checkFailuresRanges("coverage: FailuresRanges", l); err != nil {
+		return nil, err
 	}
 	if l.inputRangesEqual() {
 		return failuresEqualRanges(l)
@@ -152,6 +149,18 @@ func FailuresRanges(l *Layout) (*FailureReport, error) {
 	})
 	rep.Devices = devs
 	return rep, nil
+}
+
+// checkFailuresRanges reports a layout the failures with own ranges
+// cannot use (where names the caller).
+func checkFailuresRanges(where string, l *Layout) error {
+	if err := planCheckLayout(l); err != nil {
+		return fmt.Errorf("%s: %w", where, err)
+	}
+	if !l.weighted() {
+		return fmt.Errorf("%s: the layout has one common range (use Failures)", where)
+	}
+	return nil
 }
 
 // survivingRanges returns √(r_i² + t) for each range (the planned range
@@ -297,11 +306,8 @@ type RangesFailures struct {
 // NewRangesFailures prepares the per-device failures of a layout with
 // per-device ranges (NewLayoutRanges).
 func NewRangesFailures(l *Layout) (*RangesFailures, error) {
-	if err := planCheckLayout(l); err != nil {
-		return nil, fmt.Errorf("coverage: NewRangesFailures: %w", err)
-	}
-	if !l.weighted() {
-		return nil, fmt.Errorf("coverage: NewRangesFailures: the layout has one common range (use Failures)")
+	if err := checkFailuresRanges("coverage: NewRangesFailures", l); err != nil {
+		return nil, err
 	}
 	if l.inputRangesEqual() {
 		return &RangesFailures{l: l, equal: true, dups: l.Tri.NumVertices() < len(l.Sites)}, nil

@@ -5,8 +5,6 @@
 package coverage_test
 
 import (
-	"math"
-	"reflect"
 	"testing"
 
 	"github.com/sitecover/sitecover/coverage"
@@ -32,26 +30,5 @@ func TestRangesFailuresDeviceDemo(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	rep, err := coverage.FailuresRanges(l)
-	if err != nil {
-		t.Fatal(err)
-	}
-	rf, err := coverage.NewRangesFailures(l)
-	if err != nil {
-		t.Fatal(err)
-	}
-	for _, want := range rep.Devices {
-		got, err := rf.Device(want.Site, 0)
-		if err != nil {
-			t.Fatal(err)
-		}
-		if !math.IsNaN(got.Uncovered) || !math.IsNaN(got.FullCoverPower) {
-			t.Errorf("device %d: whole-layout figures %v, %v; want NaN", want.Site, got.Uncovered, got.FullCoverPower)
-		}
-		got.Uncovered, got.FullCoverPower = want.Uncovered, want.FullCoverPower
-		got.FullCover, want.FullCover = 0, 0 // NaN with own ranges
-		if !reflect.DeepEqual(got, want) {
-			t.Errorf("device %d:\n got %+v\nwant %+v", want.Site, got, want)
-		}
-	}
+	coverage.CheckDeviceEntries(t, l)
 }

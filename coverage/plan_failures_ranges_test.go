@@ -217,6 +217,10 @@ func hiddenScene(t testing.TB, n int, side float64, seed uint64) *Layout {
 	return l
 }
 
+// CheckDeviceEntries is checkDeviceEntries for the tests of package
+// coverage_test (the demo, loaded through report/siteinput).
+var CheckDeviceEntries = checkDeviceEntries
+
 // checkDeviceEntries checks that RangesFailures.Device at growth 0 gives
 // FailuresRanges' entry of every device, field for field (the whole-layout
 // figures Uncovered and FullCoverPower NaN), and returns the number of
