@@ -13,9 +13,13 @@
 // (Theor. Comp. Sci. 38, 1985) that plan_suggest.go follows for one
 // common range: each new device, of range R, goes to the current worst
 // point, the point of the area that needs the largest growth, moved into
-// the area (planInside) when rounding put it just outside. The layout is
-// rebuilt with the regular triangulation after each addition
-// (NewLayoutRanges), so every figure is the exact power-diagram one; there
+// the area (planInside) when rounding put it just outside. For the fewest
+// additions the layout is rebuilt with the regular triangulation after
+// each addition (NewLayoutRanges), so every figure is the rebuilt
+// layout's to the last digit; SuggestAdditionsRanges updates the clipped
+// power diagram in place instead (plan_suggest_ranges_incr.go: the same
+// cells, figures to the rounding of the measures, O(neighbourhood) per
+// addition); there
 // is no smallest-enclosing-circle refinement (the centre of a power cell's
 // enclosing circle is not where a device of range R serves it best). The
 // fewest additions insert until no gap is left, then drop, latest first,
@@ -43,9 +47,10 @@
 // (SuggestAdditions, FewestAdditions, ChooseCandidates: same positions and
 // picks), their figures restated in these terms.
 //
-// Cost: one regular triangulation and clipping per addition or pick
-// (O(n log n) each); suited to the hundreds of additions a site plan
-// makes, not to the million-device runs of the common-range planners. The
+// Cost: for the fewest additions and the candidate picks, one regular
+// triangulation and clipping per addition or pick (O(n log n) each);
+// suited to the hundreds of additions a site plan makes, not to the
+// million-device runs of the common-range planners. The
 // figures of each step are kept as the additions are made (a layout is a
 // function of its devices, so they are the rebuilt layout's); only the
 // fewest additions, once pruning has dropped one, replay the rest.
@@ -77,6 +82,10 @@ type rangesPlan struct {
 	// len(added) while the additions were only ever appended (insert);
 	// nil once an addition was dropped.
 	figs []planFigures
+	// inc, when set, is the clipped power diagram that insert updates in
+	// place instead of rebuilding the layout (plan_suggest_ranges_incr.go);
+	// cur is then stale.
+	inc *rangesIncr
 }
 
 // planFigures are the figures of one layout (rangesPlan.figures).
@@ -124,6 +133,19 @@ func (p *rangesPlan) insert() error {
 		return fmt.Errorf("no point of the site area found near the worst point (%.6g, %.6g)", w[0], w[1])
 	}
 	p.added = append(p.added, orb.Point{x, y})
+	if p.inc != nil {
+		p.inc.add(x, y, p.r)
+		p.fc = RangesFullCover{Power: p.inc.fcPow, Covered: p.inc.fcPow <= 0}
+		if !math.IsInf(p.inc.fcPow, -1) {
+			p.fc.Worst = []orb.Point{p.inc.fcWorst}
+		}
+		p.cur = nil
+		if p.figs != nil {
+			unc, area := p.inc.uncovered(), p.base.AreaM2
+			p.figs = append(p.figs, planFigures{p.fc.Power, p.grownNew(p.fc.Power), unc, planFrac(area-unc, area)})
+		}
+		return nil
+	}
 	if err := p.rebuild(); err != nil {
 		return err
 	}
@@ -235,6 +257,7 @@ func SuggestAdditionsRanges(l *Layout, k int, r float64) (*Suggestion, error) {
 		return suggestionAsRanges(s, r), err
 	}
 	p := newRangesPlan(l, r)
+	p.inc = newRangesIncr(l)
 	for j := 0; j < k; j++ {
 		if err := p.insert(); err != nil {
 			return nil, fmt.Errorf("%s: addition %d: %w", where, j+1, err)
