@@ -106,7 +106,8 @@ func chooseCandidatesPower(where string, l *Layout, candidates []orb.Point, rang
 	}
 	ch := &Choice{NewRange: r}
 	area := l.AreaM2
-	_, ch.FullCoverBefore, ch.UncoveredBefore, ch.FractionBefore = p.figures()
+	f := p.figures()
+	ch.FullCoverBefore, ch.UncoveredBefore, ch.FractionBefore = f.need, f.unc, f.frac
 	ch.CoveredBefore = math.Max(0, area-ch.UncoveredBefore)
 	eps := planGainEps(r)
 	if ranges != nil {
@@ -142,7 +143,8 @@ func chooseCandidatesPower(where string, l *Layout, candidates []orb.Point, rang
 	if err != nil {
 		return nil, fmt.Errorf("%s: layout with the picks: %w", where, err)
 	}
-	_, ch.FullCoverAfter, ch.UncoveredAfter, ch.FractionAfter = p.figures()
+	f = p.figures()
+	ch.FullCoverAfter, ch.UncoveredAfter, ch.FractionAfter = f.need, f.unc, f.frac
 	ch.CoveredAfter = math.Max(0, area-ch.UncoveredAfter)
 	ch.Complete = p.covered()
 	if !ch.Complete {

@@ -106,6 +106,10 @@ type DeviceFailure struct {
 	// that covers the whole area without this device (+Inf when none
 	// remains); 0 for one common range.
 	FullCoverPower float64
+	// TakeOver lists, with per-device ranges, the input indices (ascending)
+	// of the hidden devices that start serving part of the area when this
+	// device fails; nil when none does.
+	TakeOver []int
 }
 
 // FailureReport ranks the devices by the coverage lost when each is out of

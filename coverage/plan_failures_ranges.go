@@ -35,8 +35,9 @@
 // N(v) alone are built, with M their largest power. A hidden device u can
 // win at x ∈ P_v only if π_u(x) < π_w(x) ≤ M for the owner w of x, so
 // |x − p_u|² < r_u² + M: only hidden devices within √(r_u² + M) of the
-// bounding box of P_v ∩ A are examined (a sweep over the hidden devices
-// sorted by x). On each piece π_u − π_w is affine, so u wins somewhere on
+// bounding box of P_v ∩ A are examined (a bucket grid of the hidden
+// devices lists those near the box, in O(1) buckets for cells of the usual
+// size; they are taken by increasing x, then input index). On each piece π_u − π_w is affine, so u wins somewhere on
 // it exactly when it wins at one of the piece's vertices: those that win
 // at a vertex are added to the candidates and the split is done again.
 // Adding candidates that end up with an empty piece changes nothing, and a
@@ -44,6 +45,16 @@
 // against a larger candidate set, so the second split is the exact
 // diagram. A hidden device's own failure costs nothing: it serves no part
 // of the area.
+//
+// One device at a time (RangesFailures.Device). Everything above reads
+// only v's clipped cell, its neighbours and the hidden devices near the
+// cell, so one device's failure costs O(neighbourhood) on the whole
+// layout; FailuresRanges runs the same routine for every device and adds
+// the whole-layout figures (uncovered area, full-cover growth without v).
+// Growing every range to √(r_i² + t) adds t to every weight: the power
+// lines, the diagram and the hidden devices that win stay the same, the
+// disks grow and every power drops by t, so the figures at growth t are
+// those of the same split measured at the grown ranges.
 //
 // Error bounds: those of plan_failures.go. The power line's offset carries
 // one more rounding than a bisector's (the weights r_w², r_u² and their
@@ -59,7 +70,6 @@ import (
 	"fmt"
 	"math"
 	"slices"
-	"sort"
 
 	"github.com/paulmach/orb"
 	"github.com/sitecover/sitecover/planar"
@@ -80,24 +90,23 @@ const hiddenSlack = 1e-12
 // devices are listed with Hidden set and cost nothing. With all ranges
 // equal it is Failures at that range, with the power fields filled in
 // (ClosingPower = ClosingRange² − r², SurviveRanges all SurviveRange).
+// Each device's entry is the one RangesFailures.Device gives at growth 0,
+// with the whole-layout figures (Uncovered, FullCoverPower) added.
 func FailuresRanges(l *Layout) (*FailureReport, error) {
-	if err := planCheckLayout(l); err != nil {
-		return nil, fmt.Errorf("coverage: FailuresRanges: %w", err)
-	}
-	if !l.weighted() {
-		return nil, fmt.Errorf("coverage: FailuresRanges: the layout has one common range (use Failures)")
+	if err := checkFailuresRanges("coverage: FailuresRanges", l); err != nil {
+		return nil, err
 	}
 	if l.inputRangesEqual() {
 		return failuresEqualRanges(l)
 	}
 	t := l.Tri
 	nv := t.NumVertices()
-	hs := newHiddenSweep(l)
+	rf := newRangesFailures(l)
 	res := make([]planFailRangesVertex, nv)
 	planParallel(nv, func(lo, hi int) {
 		var sc planPowerScratch
 		for v := lo; v < hi; v++ {
-			planFailRangesOne(l, int32(v), hs, &sc, &res[v])
+			rf.vertex(int32(v), 0, &sc, &res[v])
 		}
 	})
 	rep := &FailureReport{Ranges: append([]float64(nil), l.InputRanges...), SurviveSite: -1,
@@ -116,26 +125,21 @@ func FailuresRanges(l *Layout) (*FailureReport, error) {
 	devs := make([]DeviceFailure, len(l.Sites))
 	for i := range devs {
 		v := t.Vertex[i]
-		d := DeviceFailure{Site: i, Uncovered: rep.Uncovered, Backup: -1, FullCover: math.NaN(),
-			ClosingPower: math.Inf(-1), FullCoverPower: rep.FullCoverPower, Deepest: l.Sites[i]}
-		if v < 0 {
-			d.Hidden = true
-			devs[i] = d
-			continue
+		var f *planFailRangesVertex
+		if v >= 0 {
+			f = &res[v]
 		}
-		f := &res[v]
-		d.ServiceArea = l.Cells.Area[v]
-		d.AddedUncovered = f.added
-		d.Uncovered = rep.Uncovered + f.added
-		d.Deepest = orb.Point{f.dx, f.dy}
-		d.ClosingRange, d.ClosingPower, d.Backup = f.closing, f.closingPow, f.backup
-		others := math.Inf(-1)
-		if o := top.other(v); o >= 0 {
-			others = res[o].own
-		}
-		d.FullCoverPower = math.Max(f.closingPow, others)
-		if rep.SurviveSite < 0 || d.ClosingPower > rep.SurvivePower {
-			rep.SurvivePower, rep.SurvivePoint, rep.SurviveSite, rep.SurviveRange = d.ClosingPower, d.Deepest, i, d.ClosingRange
+		d := rf.entry(i, f)
+		d.Uncovered, d.FullCoverPower = rep.Uncovered+d.AddedUncovered, rep.FullCoverPower
+		if v >= 0 {
+			others := math.Inf(-1)
+			if o := top.other(v); o >= 0 {
+				others = res[o].own
+			}
+			d.FullCoverPower = math.Max(f.closingPow, others)
+			if rep.SurviveSite < 0 || d.ClosingPower > rep.SurvivePower {
+				rep.SurvivePower, rep.SurvivePoint, rep.SurviveSite, rep.SurviveRange = d.ClosingPower, d.Deepest, i, d.ClosingRange
+			}
 		}
 		devs[i] = d
 	}
@@ -145,6 +149,18 @@ func FailuresRanges(l *Layout) (*FailureReport, error) {
 	})
 	rep.Devices = devs
 	return rep, nil
+}
+
+// checkFailuresRanges reports a layout the failures with own ranges
+// cannot use (where names the caller).
+func checkFailuresRanges(where string, l *Layout) error {
+	if err := planCheckLayout(l); err != nil {
+		return fmt.Errorf("%s: %w", where, err)
+	}
+	if !l.weighted() {
+		return fmt.Errorf("%s: the layout has one common range (use Failures)", where)
+	}
+	return nil
 }
 
 // survivingRanges returns √(r_i² + t) for each range (the planned range
@@ -189,7 +205,8 @@ type planFailRangesVertex struct {
 	closing        float64 // distance from the deepest point to its backup
 	closingPow     float64
 	dx, dy         float64
-	backup         int // input index of the backup (−1: none)
+	backup         int   // input index of the backup (−1: none)
+	takeOver       []int // hidden devices with a piece (input indices, ascending)
 }
 
 // planPowerCand is one candidate device of a power split.
@@ -208,6 +225,7 @@ type planPowerScratch struct {
 	res       []powerPiece
 	kept      planar.ClipRings
 	verts     []float64
+	found     []int32 // hidden devices near the cell (ranks in Layout.Hidden)
 }
 
 // powerPiece holds the measures of one non-empty piece of powerSplit.
@@ -270,11 +288,138 @@ func powerSplit(valid func(int32, float64, float64) bool, sc *planPowerScratch) 
 	}
 }
 
-// planFailRangesOne computes the failure of vertex v of a layout with
-// per-device ranges.
-func planFailRangesOne(l *Layout, v int32, hs *hiddenSweep, sc *planPowerScratch, out *planFailRangesVertex) {
+// RangesFailures answers single-device failures of one layout with
+// per-device ranges a device at a time: each answer is computed directly on
+// the whole layout from the failing device's power cell, its neighbours in
+// the regular triangulation and the hidden devices near the cell (the file
+// comment's method), so a call costs O(neighbourhood), not O(devices).
+// Preparing it buckets the hidden devices (O(h) for h hidden devices).
+// FailuresRanges runs the same per-device routine for every device. A
+// RangesFailures only reads the layout and is safe for concurrent use.
+type RangesFailures struct {
+	l      *Layout
+	equal  bool // all ranges equal: Failures' method (plan_failures.go)
+	dups   bool // with equal ranges, some devices share a spot
+	hidden *hiddenIndex
+}
+
+// NewRangesFailures prepares the per-device failures of a layout with
+// per-device ranges (NewLayoutRanges).
+func NewRangesFailures(l *Layout) (*RangesFailures, error) {
+	if err := checkFailuresRanges("coverage: NewRangesFailures", l); err != nil {
+		return nil, err
+	}
+	if l.inputRangesEqual() {
+		return &RangesFailures{l: l, equal: true, dups: l.Tri.NumVertices() < len(l.Sites)}, nil
+	}
+	return newRangesFailures(l), nil
+}
+
+// newRangesFailures is NewRangesFailures for a checked layout of unequal
+// ranges.
+func newRangesFailures(l *Layout) *RangesFailures {
+	return &RangesFailures{l: l, hidden: newHiddenIndex(l)}
+}
+
+// Device returns the failure of the device of input index i when every
+// range is grown to √(r_i² + t) (t = 0: the planned ranges; the power
+// diagram does not change with t): FailuresRanges' entry for it at t = 0,
+// except the two whole-layout figures, Uncovered and FullCoverPower, which
+// are NaN here (Uncovered is UncoveredAreaGrown(t) + AddedUncovered).
+// ClosingPower is the further growth, beyond t, at which the remaining
+// devices cover what this one served. With all ranges equal it is Failures'
+// entry at the range √(r² + t), with ClosingPower = ClosingRange² − r² at
+// that range; only then, and only when devices share a spot, does a call
+// scan the device list (for the twin of a shared device).
+func (rf *RangesFailures) Device(i int, t float64) (DeviceFailure, error) {
+	l := rf.l
+	if i < 0 || i >= len(l.Sites) {
+		return DeviceFailure{}, fmt.Errorf("coverage: RangesFailures.Device: no device %d (the layout has %d)", i, len(l.Sites))
+	}
+	if math.IsNaN(t) || math.IsInf(t, 0) {
+		return DeviceFailure{}, fmt.Errorf("coverage: RangesFailures.Device: growth %v m² is not finite", t)
+	}
+	var d DeviceFailure
+	switch v := l.Tri.Vertex[i]; {
+	case rf.equal:
+		d = rf.deviceEqual(i, t)
+	case v < 0:
+		d = rf.entry(i, nil)
+	default:
+		var sc planPowerScratch
+		var f planFailRangesVertex
+		rf.vertex(v, t, &sc, &f)
+		d = rf.entry(i, &f)
+	}
+	d.Uncovered, d.FullCoverPower = math.NaN(), math.NaN()
+	return d, nil
+}
+
+// entry is the failure of input i (vertex failure f; nil: hidden) without
+// the whole-layout figures.
+func (rf *RangesFailures) entry(i int, f *planFailRangesVertex) DeviceFailure {
+	l := rf.l
+	d := DeviceFailure{Site: i, Backup: -1, FullCover: math.NaN(), ClosingPower: math.Inf(-1), Deepest: l.Sites[i]}
+	if f == nil {
+		d.Hidden = true
+		return d
+	}
+	d.ServiceArea = l.Cells.Area[l.Tri.Vertex[i]]
+	d.AddedUncovered = f.added
+	d.Deepest = orb.Point{f.dx, f.dy}
+	d.ClosingRange, d.ClosingPower, d.Backup = f.closing, f.closingPow, f.backup
+	d.TakeOver = f.takeOver
+	return d
+}
+
+// deviceEqual is Device for equal ranges: Failures' entry for input i at
+// the range √(r² + t), planFailOne's computation.
+func (rf *RangesFailures) deviceEqual(i int, t float64) DeviceFailure {
+	l := rf.l
+	r, _ := grownWeight(l.InputRanges[0], t)
+	v := l.Tri.Vertex[i]
+	other := -1 // smallest other input index at v
+	if rf.dups {
+		for j, u := range l.Tri.Vertex {
+			if u == v && j != i {
+				other = j
+				break
+			}
+		}
+	}
+	var sc planFailScratch
+	var f planFailVertex
+	planFailOne(l, v, r, other >= 0, &sc, &f)
+	d := DeviceFailure{Site: i, ServiceArea: l.Cells.Area[v], FullCover: math.NaN(), Backup: -1}
+	if other >= 0 {
+		d.Shared, d.Deepest, d.ClosingRange, d.Backup = true, orb.Point{f.fx, f.fy}, f.rho, other
+	} else {
+		d.AddedUncovered, d.Deepest, d.ClosingRange = f.added, orb.Point{f.dx, f.dy}, f.closing
+		if f.backup >= 0 {
+			d.Backup = int(l.Tri.Source[f.backup])
+		}
+	}
+	d.ClosingPower = d.ClosingRange*d.ClosingRange - r*r
+	return d
+}
+
+// grownWeight returns the range √(b² + t) and the weight b² + t of a
+// device of planned range b after the uniform growth t (the range 0 when
+// the weight is not positive; b and b² themselves when t = 0).
+func grownWeight(b, t float64) (r, w float64) {
+	if t == 0 {
+		return b, b * b
+	}
+	w = b*b + t
+	return math.Sqrt(math.Max(0, w)), w
+}
+
+// vertex computes the failure of vertex v at the growth t.
+func (rf *RangesFailures) vertex(v int32, g float64, sc *planPowerScratch, out *planFailRangesVertex) {
+	l := rf.l
 	t, c := l.Tri, l.Cells
-	vx, vy, rv := t.Coords[2*v], t.Coords[2*v+1], l.Ranges[v]
+	vx, vy := t.Coords[2*v], t.Coords[2*v+1]
+	rv, wv := grownWeight(l.Ranges[v], g)
 	sc.cell.Reset()
 	rs := planCellRings(c, v)
 	for k := 0; k < rs.NumRings(); k++ {
@@ -285,7 +430,7 @@ func planFailRangesOne(l *Layout, v int32, hs *hiddenSweep, sc *planPowerScratch
 	if far < 0 || len(sc.cell.XY) == 0 {
 		return // serves no part of the area
 	}
-	out.own = far*far - rv*rv
+	out.own = far*far - wv
 	var valid func(int32, float64, float64) bool
 	if !planCellConvex(&sc.cell.RingSet) {
 		valid = func(_ int32, x, y float64) bool { return planCellHolds(&sc.cell.RingSet, x, y) }
@@ -293,11 +438,12 @@ func planFailRangesOne(l *Layout, v int32, hs *hiddenSweep, sc *planPowerScratch
 	sc.cand = sc.cand[:0]
 	sc.nbrs = t.Neighbors(v, sc.nbrs[:0])
 	for _, u := range sc.nbrs {
-		r := l.Ranges[u]
-		sc.cand = append(sc.cand, planPowerCand{x: t.Coords[2*u], y: t.Coords[2*u+1], r: r, w: r * r, site: int(t.Source[u])})
+		r, w := grownWeight(l.Ranges[u], g)
+		sc.cand = append(sc.cand, planPowerCand{x: t.Coords[2*u], y: t.Coords[2*u+1], r: r, w: w, site: int(t.Source[u])})
 	}
+	nn := len(sc.cand)
 	powerSplit(valid, sc)
-	if hs.appearing(l, sc) {
+	if rf.hidden.appearing(l, g, sc) {
 		powerSplit(valid, sc)
 	}
 	sum := 0.0
@@ -306,7 +452,11 @@ func planFailRangesOne(l *Layout, v int32, hs *hiddenSweep, sc *planPowerScratch
 		if p.pow > out.closingPow {
 			out.closingPow, out.closing, out.dx, out.dy, out.backup = p.pow, p.far, p.fx, p.fy, sc.cand[p.cand].site
 		}
+		if int(p.cand) >= nn {
+			out.takeOver = append(out.takeOver, sc.cand[p.cand].site)
+		}
 	}
+	slices.Sort(out.takeOver)
 	out.added = math.Max(0, disk-sum)
 	if len(sc.cand) == 0 {
 		// No device remains: everything it covered is lost.
@@ -314,61 +464,74 @@ func planFailRangesOne(l *Layout, v int32, hs *hiddenSweep, sc *planPowerScratch
 	}
 }
 
-// hiddenSweep holds the hidden devices sorted by x for the filter of the
-// file comment.
-type hiddenSweep struct {
-	x    []float64
-	site []int
+// hiddenIndex buckets the hidden devices for the filter of the file
+// comment.
+type hiddenIndex struct {
+	xy   []float64 // positions by rank in Layout.Hidden
+	grid *planar.BucketGrid
 	wmax float64 // largest weight r² of a hidden device
 }
 
-func newHiddenSweep(l *Layout) *hiddenSweep {
-	hs := &hiddenSweep{}
-	ids := append([]int(nil), l.Hidden...)
-	sort.Slice(ids, func(a, b int) bool { return l.Sites[ids[a]][0] < l.Sites[ids[b]][0] })
-	for _, i := range ids {
-		hs.x = append(hs.x, l.Sites[i][0])
-		hs.site = append(hs.site, i)
+func newHiddenIndex(l *Layout) *hiddenIndex {
+	hs := &hiddenIndex{xy: make([]float64, 0, 2*len(l.Hidden))}
+	ids := make([]int32, len(l.Hidden))
+	for k, i := range l.Hidden {
+		ids[k] = int32(k)
+		hs.xy = append(hs.xy, l.Sites[i][0], l.Sites[i][1])
 		hs.wmax = math.Max(hs.wmax, l.InputRanges[i]*l.InputRanges[i])
 	}
+	hs.grid = planBaseGrid(hs.xy, ids, 0)
 	return hs
 }
 
 // appearing appends to sc.cand the hidden devices that beat the current
-// split (sc.res, sc.kept) at some vertex of a piece, or, when there is no
-// candidate, every hidden device (nothing else remains); it reports
-// whether it added any.
-func (hs *hiddenSweep) appearing(l *Layout, sc *planPowerScratch) bool {
-	if len(hs.x) == 0 {
+// split (sc.res, sc.kept) at growth g at some vertex of a piece, or, when
+// there is no candidate, every hidden device (nothing else remains); it
+// reports whether it added any. They are taken by increasing x, then
+// input index.
+func (hs *hiddenIndex) appearing(l *Layout, g float64, sc *planPowerScratch) bool {
+	if hs.grid == nil {
 		return false
 	}
 	m := math.Inf(1)
-	if len(sc.cand) > 0 {
+	none := len(sc.cand) == 0
+	if !none {
 		m = math.Inf(-1)
 		for _, p := range sc.res {
 			m = math.Max(m, p.pow)
 		}
 	}
-	reach2 := (hs.wmax + m) * (1 + hiddenSlack)
+	reach2 := (hs.wmax + g + m) * (1 + hiddenSlack)
 	if !(reach2 >= 0) {
 		return false
 	}
-	reach := math.Sqrt(reach2)
 	minX, minY, maxX, maxY := planar.BoundsXY(sc.cell.XY, nil)
-	lo := sort.SearchFloat64s(hs.x, minX-reach)
-	none, added := len(sc.cand) == 0, false
-	for k := lo; k < len(hs.x) && hs.x[k] <= maxX+reach; k++ {
-		i := hs.site[k]
-		p, r := l.Sites[i], l.InputRanges[i]
+	sc.found = sc.found[:0]
+	if none {
+		for k := range l.Hidden {
+			sc.found = append(sc.found, int32(k))
+		}
+	} else {
+		reach := math.Sqrt(reach2)
+		gr := hs.grid
+		c0, c1 := gr.Col(minX-reach), gr.Col(maxX+reach)
+		for j, j1 := gr.Row(minY-reach), gr.Row(maxY+reach); j <= j1; j++ {
+			// the buckets c0..c1 of row j are one run of Items
+			sc.found = append(sc.found, gr.Items[gr.Start[j*gr.NX+c0]:gr.Start[j*gr.NX+c1+1]]...)
+		}
+	}
+	slices.SortFunc(sc.found, func(a, b int32) int { return cmp.Or(cmp.Compare(hs.xy[2*a], hs.xy[2*b]), cmp.Compare(a, b)) })
+	added := false
+	for _, k := range sc.found {
+		i := l.Hidden[k]
+		p := l.Sites[i]
+		r, w := grownWeight(l.InputRanges[i], g)
 		dx := math.Max(0, math.Max(minX-p[0], p[0]-maxX))
 		dy := math.Max(0, math.Max(minY-p[1], p[1]-maxY))
-		if dx*dx+dy*dy > (r*r+m)*(1+hiddenSlack) {
+		if !none && (dx*dx+dy*dy > (w+m)*(1+hiddenSlack) || !hs.wins(p, w, sc)) {
 			continue
 		}
-		if !none && !hs.wins(p, r*r, sc) {
-			continue
-		}
-		sc.cand = append(sc.cand, planPowerCand{x: p[0], y: p[1], r: r, w: r * r, site: i})
+		sc.cand = append(sc.cand, planPowerCand{x: p[0], y: p[1], r: r, w: w, site: i})
 		added = true
 	}
 	return added
@@ -376,7 +539,7 @@ func (hs *hiddenSweep) appearing(l *Layout, sc *planPowerScratch) bool {
 
 // wins reports whether the device at p of weight w has a smaller power
 // than a piece's owner at some vertex of that piece.
-func (hs *hiddenSweep) wins(p orb.Point, w float64, sc *planPowerScratch) bool {
+func (hs *hiddenIndex) wins(p orb.Point, w float64, sc *planPowerScratch) bool {
 	for _, pc := range sc.res {
 		for k := pc.ring0; k < pc.ring0+pc.nr; k++ {
 			ring := sc.kept.Ring(k)

@@ -13,9 +13,13 @@
 // (Theor. Comp. Sci. 38, 1985) that plan_suggest.go follows for one
 // common range: each new device, of range R, goes to the current worst
 // point, the point of the area that needs the largest growth, moved into
-// the area (planInside) when rounding put it just outside. The layout is
-// rebuilt with the regular triangulation after each addition
-// (NewLayoutRanges), so every figure is the exact power-diagram one; there
+// the area (planInside) when rounding put it just outside. For the fewest
+// additions the layout is rebuilt with the regular triangulation after
+// each addition (NewLayoutRanges), so every figure is the rebuilt
+// layout's to the last digit; SuggestAdditionsRanges updates the clipped
+// power diagram in place instead (plan_suggest_ranges_incr.go: the same
+// cells, figures to the rounding of the measures, O(neighbourhood) per
+// addition); there
 // is no smallest-enclosing-circle refinement (the centre of a power cell's
 // enclosing circle is not where a device of range R serves it best). The
 // fewest additions insert until no gap is left, then drop, latest first,
@@ -44,9 +48,13 @@
 // (SuggestAdditions, FewestAdditions, ChooseCandidates: same positions and
 // picks), their figures restated in these terms.
 //
-// Cost: one regular triangulation and clipping per addition or pick
-// (O(n log n) each); suited to the hundreds of additions a site plan
-// makes, not to the million-device runs of the common-range planners.
+// Cost: for the fewest additions and the candidate picks, one regular
+// triangulation and clipping per addition or pick (O(n log n) each);
+// suited to the hundreds of additions a site plan makes, not to the
+// million-device runs of the common-range planners. The
+// figures of each step are kept as the additions are made (a layout is a
+// function of its devices, so they are the rebuilt layout's); only the
+// fewest additions, once pruning has dropped one, replay the rest.
 //
 // Error bounds: those of NewLayoutRanges and plan_clip.go (relative 1e-14
 // of the cell areas); gains below planGainEps(R) are rounding noise.
@@ -72,12 +80,25 @@ type rangesPlan struct {
 	ix     *planar.RegionIndex
 	cur    *Layout
 	fc     RangesFullCover
+	// figs holds the figures of the layout with added[:j] for j = 0 …
+	// len(added) while the additions were only ever appended (insert);
+	// nil once an addition was dropped.
+	figs []planFigures
+	// inc, when set, is the clipped power diagram that insert updates in
+	// place instead of rebuilding the layout (plan_suggest_ranges_incr.go);
+	// cur is then stale.
+	inc *rangesIncr
 }
+
+// planFigures are the figures of one layout (rangesPlan.figures).
+type planFigures struct{ pow, need, unc, frac float64 }
 
 // newRangesPlan starts a plan on layout l (per-device ranges) for added
 // devices of range r.
 func newRangesPlan(l *Layout, r float64) *rangesPlan {
-	return &rangesPlan{base: l, r: r, ix: l.Area.Index(), cur: l, fc: l.FullCoverRanges()}
+	p := &rangesPlan{base: l, r: r, ix: l.Area.Index(), cur: l, fc: l.FullCoverRanges()}
+	p.figs = []planFigures{p.figures()}
+	return p
 }
 
 // rebuild recomputes the layout with the current additions.
@@ -118,7 +139,26 @@ func (p *rangesPlan) insert() error {
 		return fmt.Errorf("no point of the site area found near the worst point (%.6g, %.6g)", w[0], w[1])
 	}
 	p.added = append(p.added, orb.Point{x, y})
-	return p.rebuild()
+	if p.inc != nil {
+		p.inc.add(x, y, p.r)
+		p.fc = RangesFullCover{Power: p.inc.fcPow, Covered: p.inc.fcPow <= 0}
+		if !math.IsInf(p.inc.fcPow, -1) {
+			p.fc.Worst = []orb.Point{p.inc.fcWorst}
+		}
+		p.cur = nil
+		if p.figs != nil {
+			unc, area := p.inc.uncovered(), p.base.AreaM2
+			p.figs = append(p.figs, planFigures{p.fc.Power, p.grownNew(p.fc.Power), unc, planFrac(area-unc, area)})
+		}
+		return nil
+	}
+	if err := p.rebuild(); err != nil {
+		return err
+	}
+	if p.figs != nil {
+		p.figs = append(p.figs, p.figures())
+	}
+	return nil
 }
 
 // grownNew is the range an added device needs under the uniform growth t:
@@ -133,30 +173,55 @@ func (p *rangesPlan) grownNew(t float64) float64 {
 // figures returns the full-cover growth, the range an added device needs
 // under it, the uncovered area and the covered fraction of the current
 // layout.
-func (p *rangesPlan) figures() (pow, need, unc, frac float64) {
-	unc = p.cur.UncoveredAreaGrown(0)
-	return p.fc.Power, p.grownNew(p.fc.Power), unc, planFrac(p.cur.AreaM2-unc, p.cur.AreaM2)
+func (p *rangesPlan) figures() planFigures {
+	unc := p.cur.UncoveredAreaGrown(0)
+	return planFigures{p.fc.Power, p.grownNew(p.fc.Power), unc, planFrac(p.cur.AreaM2-unc, p.cur.AreaM2)}
 }
 
-// report replays the additions from the bare layout and collects the
-// figures.
-func (p *rangesPlan) report() (*Suggestion, error) {
-	pts := p.added
+// drop removes addition i (FewestAdditionsRanges' pruning): the figures
+// recorded by insert no longer describe the additions.
+func (p *rangesPlan) drop(i int) {
+	p.added = append(append([]orb.Point(nil), p.added[:i]...), p.added[i+1:]...)
+	p.figs = nil
+}
+
+// history returns the figures of the layout with added[:j], j = 0 …
+// len(added): those recorded as the additions were inserted, or, once one
+// was dropped, those of the additions replayed from the bare layout. A
+// layout is a function of its devices, so the recorded figures are the
+// replay's, to the last digit (TestSuggestRangesHistory).
+func (p *rangesPlan) history() ([]planFigures, error) {
+	if len(p.figs) == len(p.added)+1 {
+		return p.figs, nil
+	}
 	q := newRangesPlan(p.base, p.r)
-	s := &Suggestion{NewRange: p.r, Existing: len(p.base.Sites), Added: pts, Steps: make([]Step, len(pts))}
-	pow, need, unc, frac := q.figures()
-	s.FullCoverPowerBefore, s.FullCoverBefore, s.UncoveredBefore, s.CoveredBefore = pow, need, unc, frac
-	for j, a := range pts {
-		st := Step{Added: a, FullCoverPowerBefore: pow, FullCoverBefore: need, UncoveredBefore: unc, CoveredBefore: frac}
+	for _, a := range p.added {
 		q.added = append(q.added, a)
 		if err := q.rebuild(); err != nil {
 			return nil, err
 		}
-		pow, need, unc, frac = q.figures()
-		st.FullCoverPowerAfter, st.FullCoverAfter, st.UncoveredAfter, st.CoveredAfter = pow, need, unc, frac
-		s.Steps[j] = st
+		q.figs = append(q.figs, q.figures())
 	}
-	s.FullCoverPowerAfter, s.FullCoverAfter, s.UncoveredAfter, s.CoveredAfter = pow, need, unc, frac
+	return q.figs, nil
+}
+
+// report collects the figures of every step.
+func (p *rangesPlan) report() (*Suggestion, error) {
+	pts := p.added
+	figs, err := p.history()
+	if err != nil {
+		return nil, err
+	}
+	s := &Suggestion{NewRange: p.r, Existing: len(p.base.Sites), Added: pts, Steps: make([]Step, len(pts))}
+	f := figs[0]
+	s.FullCoverPowerBefore, s.FullCoverBefore, s.UncoveredBefore, s.CoveredBefore = f.pow, f.need, f.unc, f.frac
+	for j, a := range pts {
+		b, f := figs[j], figs[j+1]
+		s.Steps[j] = Step{Added: a, FullCoverPowerBefore: b.pow, FullCoverBefore: b.need, UncoveredBefore: b.unc, CoveredBefore: b.frac,
+			FullCoverPowerAfter: f.pow, FullCoverAfter: f.need, UncoveredAfter: f.unc, CoveredAfter: f.frac}
+	}
+	f = figs[len(pts)]
+	s.FullCoverPowerAfter, s.FullCoverAfter, s.UncoveredAfter, s.CoveredAfter = f.pow, f.need, f.unc, f.frac
 	s.TotalDevices = s.Existing + len(pts)
 	return s, nil
 }
@@ -198,6 +263,7 @@ func SuggestAdditionsRanges(l *Layout, k int, r float64) (*Suggestion, error) {
 		return suggestionAsRanges(s, r), err
 	}
 	p := newRangesPlan(l, r)
+	p.inc = newRangesIncr(l)
 	for j := 0; j < k; j++ {
 		if err := p.insert(); err != nil {
 			return nil, fmt.Errorf("%s: addition %d: %w", where, j+1, err)
@@ -245,13 +311,13 @@ func FewestAdditionsRanges(l *Layout, r float64, opt SuggestOptions) (*Suggestio
 	if !capped {
 		// Drop additions whose removal leaves no gap, latest first.
 		for i := len(p.added) - 1; i >= 0; i-- {
-			keep := p.added
-			p.added = append(append([]orb.Point(nil), keep[:i]...), keep[i+1:]...)
+			keep, figs := p.added, p.figs
+			p.drop(i)
 			if err := p.rebuild(); err != nil {
 				return nil, fmt.Errorf("%s: %w", where, err)
 			}
 			if !p.covered() {
-				p.added = keep
+				p.added, p.figs = keep, figs // kept: the history still holds
 			}
 		}
 		if err := p.rebuild(); err != nil {

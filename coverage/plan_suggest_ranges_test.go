@@ -9,6 +9,7 @@
 package coverage
 
 import (
+	"fmt"
 	"math"
 	"math/rand/v2"
 	"reflect"
@@ -166,4 +167,108 @@ func TestPlanRangesEqualIsCommon(t *testing.T) {
 			}
 		})
 	}
+}
+
+// TestSuggestRangesHistory: the figures recorded as the additions are
+// inserted are, to the last digit, those of the additions replayed from
+// the bare layout (the replay is what the planners did before), for free
+// placement and for the fewest additions (whose pruning replays).
+func TestSuggestRangesHistory(t *testing.T) {
+	for name, l := range planMixedScenes(t) {
+		t.Run(name, func(t *testing.T) {
+			const r = 12.0
+			p := newRangesPlan(l, r)
+			for range 6 {
+				if err := p.insert(); err != nil {
+					t.Fatal(err)
+				}
+			}
+			got, err := p.history()
+			if err != nil {
+				t.Fatal(err)
+			}
+			p.figs = nil
+			want, err := p.history()
+			if err != nil {
+				t.Fatal(err)
+			}
+			if len(got) != 7 || !reflect.DeepEqual(got, want) {
+				t.Errorf("recorded figures %v, replayed %v", got, want)
+			}
+		})
+	}
+}
+
+// TestSuggestRangesIncremental: SuggestAdditionsRanges, which updates the
+// clipped power diagram in place (plan_suggest_ranges_incr.go), places the
+// devices where rebuilding the layout after every addition does, with the
+// same figures at every step, to the rounding of the measures
+// (incrTolerance), on random scenes: mixed 40/60/120/150 m layouts, scenes
+// with many hidden devices (some hidden by the additions), and a
+// non-convex area with a zone. (Scenes with exactly tied worst points,
+// such as the corners of a square, may pick another of the tied points.)
+func TestSuggestRangesIncremental(t *testing.T) {
+	// incrTolerance: cell vertices are crossings of power lines with cell
+	// edges rather than power centres, which moves them by ulps (about
+	// 1e-16 relative measured); 1e-9 leaves a wide margin.
+	const incrTolerance = 1e-9
+	scenes := map[string]*Layout{"L-notch": planMixedScenes(t)["L-notch"], "uniform": planMixedScenes(t)["uniform"]}
+	for _, seed := range []uint64{3, 4} {
+		scenes[fmt.Sprintf("mixed-300-seed-%d", seed)], _, _ = mixedLayout(t, 300, seed)
+		scenes[fmt.Sprintf("hidden-seed-%d", seed)] = hiddenScene(t, 300, 600, seed)
+	}
+	for name, l := range scenes {
+		t.Run(name, func(t *testing.T) {
+			r := 0.25 * math.Sqrt(l.AreaM2/float64(len(l.Sites)))
+			const k = 25
+			s, err := SuggestAdditionsRanges(l, k, r)
+			if err != nil {
+				t.Fatal(err)
+			}
+			p := newRangesPlan(l, r) // rebuilt after every addition
+			var tied [][]orb.Point   // the worst points tied within FullCoverRanges' tolerance
+			for range k {
+				tied = append(tied, p.fc.Worst)
+				if err := p.insert(); err != nil {
+					t.Fatal(err)
+				}
+			}
+			want, err := p.report()
+			if err != nil {
+				t.Fatal(err)
+			}
+			side := math.Sqrt(l.AreaM2)
+			near := func(a, b orb.Point) bool { return math.Hypot(a[0]-b[0], a[1]-b[1]) <= incrTolerance*side }
+			for j, st := range s.Steps {
+				w := want.Steps[j]
+				if !near(st.Added, w.Added) {
+					// Another of the tied worst points: both are right, and
+					// the two runs part here.
+					if !slices.ContainsFunc(tied[j], func(q orb.Point) bool { return near(st.Added, q) }) {
+						t.Fatalf("addition %d at %v, rebuilding places it at %v (tied worst points %v)", j, st.Added, w.Added, tied[j])
+					}
+					t.Logf("addition %d: %v, rebuilding takes %v, tied at the same power", j, st.Added, w.Added)
+					break
+				}
+				if math.Abs(st.UncoveredAfter-w.UncoveredAfter) > incrTolerance*l.AreaM2 ||
+					math.Abs(st.FullCoverPowerAfter-w.FullCoverPowerAfter) > incrTolerance*(r*r+math.Abs(w.FullCoverPowerAfter)) {
+					t.Errorf("step %d: uncovered %v, full-cover growth %v; rebuilding: %v, %v", j,
+						st.UncoveredAfter, st.FullCoverPowerAfter, w.UncoveredAfter, w.FullCoverPowerAfter)
+				}
+			}
+		})
+	}
+}
+
+// BenchmarkSuggestAdditionsRanges: 200 devices of 100 m added to the mixed
+// 40/60/120/150 m layout of 10 000 devices (mixedLayout).
+func BenchmarkSuggestAdditionsRanges(b *testing.B) {
+	l, _, _ := mixedLayout(b, 10_000, 3)
+	b.Run("mixed-10000-add-200", func(b *testing.B) {
+		for b.Loop() {
+			if _, err := SuggestAdditionsRanges(l, 200, 100); err != nil {
+				b.Fatal(err)
+			}
+		}
+	})
 }

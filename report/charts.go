@@ -10,6 +10,8 @@
 // which it appears, range at which it closes) above the diagonal; the
 // farther from the diagonal, the longer the hole lives (persistence
 // diagram; Edelsbrunner & Harer, Computational Topology, AMS 2010, §VII).
+// The chart of devices with their own ranges (ranges_charts.go) draws the
+// same way, in the reference devices' range.
 
 package report
 
@@ -199,34 +201,76 @@ func (s *scene) curvePoints(xmax float64) plotter.XYs {
 
 func (s *scene) holeChart(width int) ([]byte, error) {
 	a := s.a
-	p := plot.New()
-	var holes []struct{ b, d float64 }
-	var marked []bool // holeNote marks (outside site, brief)
+	var holes []lifetime
 	if a.Persistence != nil {
 		for i, h := range a.Persistence.Holes {
-			holes = append(holes, struct{ b, d float64 }{h.Birth, h.Death})
-			marked = append(marked, s.holeNote(i) != "")
+			holes = append(holes, lifetime{h.Birth, h.Death, s.holeNote(i) != ""})
 		}
 	}
 	title := Plural(len(holes), "hole") + " of the union of disks (not gaps): when each appears and closes"
 	if s.m.Title != "" {
 		title = s.m.Title + "\n" + title
 	}
-	p.Title.Text = title
-	p.X.Label.Text = "Range at which the hole appears (m)"
-	p.Y.Label.Text = "Range at which it closes (m)"
+	return lifetimePlot(lifetimeChart{
+		title: title, xLabel: "Range at which the hole appears (m)", yLabel: "Range at which it closes (m)",
+		holes: holes, planned: a.Range,
+		plannedLabel: fmt.Sprintf("planned range %s (holes open there: upper left)", metresShort(a.Range)),
+		markedLabel:  fmt.Sprintf("hole closing outside the site or living < %s (marked in report.txt)", metresShort(briefHoleFraction*a.Range)),
+	}, width)
+}
+
+// lifetime is one hole of a lifetimes chart: the range at which it
+// appears and closes, and whether report.txt marks it.
+type lifetime struct {
+	b, d   float64
+	marked bool
+}
+
+// lifetimeChart is what a hole-lifetimes chart shows: the holes, the
+// planned range (with own ranges, the reference devices', ranges_charts.go)
+// and the texts.
+type lifetimeChart struct {
+	title, xLabel, yLabel     string
+	holes                     []lifetime
+	planned                   float64
+	plannedLabel, markedLabel string
+	// zoom starts both axes at a round value below the earliest
+	// appearance and the planned range instead of at 0 (with own ranges
+	// every hole appears near the reference devices' planned range).
+	zoom bool
+}
+
+// lifetimePlot draws a hole-lifetimes chart: each hole a point (appears,
+// closes) above the diagonal, the planned range as the corner of the
+// upper-left quadrant of the holes open there.
+func lifetimePlot(c lifetimeChart, width int) ([]byte, error) {
+	p := plot.New()
+	p.Title.Text = c.title
+	p.X.Label.Text = c.xLabel
+	p.Y.Label.Text = c.yLabel
 	styleAxes(p)
-	top := math.Max(a.Range, 1e-9)
-	for _, h := range holes {
+	top := math.Max(c.planned, 1e-9)
+	for _, h := range c.holes {
 		top = math.Max(top, h.d)
 	}
-	top *= 1.08
-	p.X.Min, p.X.Max = 0, top
-	p.Y.Min, p.Y.Max = 0, top
+	lo := 0.0
+	if c.zoom {
+		lo = c.planned
+		for _, h := range c.holes {
+			lo = math.Min(lo, h.b)
+		}
+		// a margin of 8 % of the span below, rounded down to a tick step
+		lo -= 0.08 * (top - lo)
+		step := niceLength((1.08*top - lo) / 5)
+		lo = math.Max(0, math.Floor(lo/step)*step)
+	}
+	top = lo + 1.08*(top-lo)
+	p.X.Min, p.X.Max = lo, top
+	p.Y.Min, p.Y.Max = lo, top
 	p.X.Tick.Marker = niceTicks{}
 	p.Y.Tick.Marker = niceTicks{}
 
-	diag, err := plotter.NewLine(plotter.XYs{{X: 0, Y: 0}, {X: top, Y: top}})
+	diag, err := plotter.NewLine(plotter.XYs{{X: lo, Y: lo}, {X: top, Y: top}})
 	if err != nil {
 		return nil, err
 	}
@@ -236,7 +280,8 @@ func (s *scene) holeChart(width int) ([]byte, error) {
 	p.Legend.Add("appears = closes", diag)
 
 	// holes open at the planned range lie left of x = r and above y = r
-	hr, err := plotter.NewLine(plotter.XYs{{X: 0, Y: a.Range}, {X: a.Range, Y: a.Range}, {X: a.Range, Y: top}})
+	r := c.planned
+	hr, err := plotter.NewLine(plotter.XYs{{X: lo, Y: r}, {X: r, Y: r}, {X: r, Y: top}})
 	if err != nil {
 		return nil, err
 	}
@@ -244,15 +289,15 @@ func (s *scene) holeChart(width int) ([]byte, error) {
 	hr.Width = vg.Points(1.4)
 	hr.Dashes = []vg.Length{vg.Points(6), vg.Points(3)}
 	p.Add(hr)
-	p.Legend.Add(fmt.Sprintf("planned range %s (holes open there: upper left)", metresShort(a.Range)), hr)
+	p.Legend.Add(c.plannedLabel, hr)
 
-	if len(holes) == 0 {
+	if len(c.holes) == 0 {
 		p.Legend.Add("no holes at any range")
 	}
 	for _, mk := range []bool{false, true} {
 		var pts plotter.XYs
-		for i, h := range holes {
-			if marked[i] == mk {
+		for _, h := range c.holes {
+			if h.marked == mk {
 				pts = append(pts, plotter.XY{X: h.b, Y: h.d})
 			}
 		}
@@ -270,9 +315,9 @@ func (s *scene) holeChart(width int) ([]byte, error) {
 		if mk {
 			sc.GlyphStyle.Color = colHatch
 			sc.GlyphStyle.Shape = draw.RingGlyph{}
-			label = fmt.Sprintf("hole closing outside the site or living < %s (marked in report.txt)", metresShort(briefHoleFraction*a.Range))
+			label = c.markedLabel
 		}
-		if len(holes) > 2000 {
+		if len(c.holes) > 2000 {
 			// many holes: small squares, far cheaper to draw than circles
 			sc.GlyphStyle.Radius = vg.Points(1.2)
 			sc.GlyphStyle.Shape = draw.BoxGlyph{}

@@ -150,7 +150,7 @@ func RangesFiles(m Meta, opt Options) []string {
 		f = append(f, FileMapCoverage)
 	}
 	if opt.Charts {
-		f = append(f, FileChartCurve)
+		f = append(f, FileChartCurve, FileChartHoles)
 	}
 	f = append(f, gridLayerFiles(m, FileSites, FileServiceAreas, FileGaps)...)
 	return append(f, FileManifest)
@@ -191,7 +191,8 @@ func WriteRangesAnalysis(dir string, a *coverage.RangesAnalysis, m Meta, opt Opt
 	}
 	if opt.Charts {
 		width := mapWidth(opt)
-		steps = append(steps, step{name: FileChartCurve, write: fromBytes(func() ([]byte, error) { return rs.curveChartRanges(width) })})
+		steps = append(steps, step{name: FileChartCurve, write: fromBytes(func() ([]byte, error) { return rs.curveChartRanges(width) })},
+			step{name: FileChartHoles, write: fromBytes(func() ([]byte, error) { return rs.holeChartRanges(width) })})
 	}
 	steps = append(steps, rs.gridCopies(func(g *scene) []step {
 		rg := &rangesScene{scene: g, ra: a}
@@ -381,8 +382,17 @@ func (rs *rangesScene) text() []byte {
 	rs.textGapsRanges(&b, d)
 	rs.textHolesRanges(&b)
 	rs.textDevices(&b, d)
-	rs.textClosing(&b, analysisFileNote)
+	rs.textClosing(&b, rangesFileNote)
 	return b.Bytes()
+}
+
+// rangesFileNote is the FILES note of an output file with own ranges:
+// analysisFileNote's, the hole-lifetimes chart's axes in reference metres.
+func rangesFileNote(f string) string {
+	if f == FileChartHoles {
+		return "chart: hole appearance against closing, reference range"
+	}
+	return analysisFileNote(f)
 }
 
 // labels joins the labels of input devices, or none when there are none.

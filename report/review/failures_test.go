@@ -1,6 +1,6 @@
 // Tests of the loss if a device fails with own ranges (failures.go: one
-// device's failure on a sub-layout, checked against coverage.FailuresRanges
-// on the whole layout) and of a device-range edit on a common-range plan
+// device's failure computed alone, coverage.RangesFailures.Device, checked
+// against coverage.FailuresRanges on the layout at the ranges now) and of a device-range edit on a common-range plan
 // (the session switches to own ranges; undo returns exactly).
 
 package review
@@ -74,9 +74,10 @@ func checkDeviceFailures(t *testing.T, h http.Handler, cfg Config) (hiddenBackup
 		}
 		// The backup owns the deepest point after the failure. Where that
 		// point is a corner of two new pieces (a power vertex) both owners
-		// have the closing power there and either is right: the whole
-		// layout and the sub-layout list their candidates in different
-		// orders, so the check is the backup's power at the deepest point.
+		// have the closing power there and either is right: the layouts at
+		// the planned and at the grown ranges may order their candidates
+		// differently, so the check is the backup's power at the deepest
+		// point.
 		if want.Backup < 0 {
 			continue
 		}

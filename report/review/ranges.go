@@ -55,6 +55,8 @@ type rangedGeo struct {
 	// index, at growth failT; dropped when the growth changes.
 	fails map[int]coverage.DeviceFailure
 	failT float64
+	// failIx answers those failures one device at a time (on first use).
+	failIx *coverage.RangesFailures
 }
 
 // buildRanged lays out the devices in service with their own ranges.
@@ -255,7 +257,7 @@ func (sv *Server) rangedDevice(d *deviceDoc, k int) error {
 	f, ok := rg.fails[k]
 	if !ok {
 		var err error
-		if f, err = g.rangedFailure(k, s.t, &sv.cfg); err != nil {
+		if f, err = g.rangedFailure(k, s.t); err != nil {
 			return err
 		}
 		rg.fails[k] = f
