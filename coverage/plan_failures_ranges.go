@@ -365,7 +365,7 @@ func (hs *hiddenSweep) appearing(l *Layout, sc *planPowerScratch) bool {
 		if dx*dx+dy*dy > (r*r+m)*(1+hiddenSlack) {
 			continue
 		}
-		if !none && !hs.wins(p, r*r, sc) {
+		if !none && !sc.beaten(p, r*r) {
 			continue
 		}
 		sc.cand = append(sc.cand, planPowerCand{x: p[0], y: p[1], r: r, w: r * r, site: i})
@@ -374,9 +374,10 @@ func (hs *hiddenSweep) appearing(l *Layout, sc *planPowerScratch) bool {
 	return added
 }
 
-// wins reports whether the device at p of weight w has a smaller power
-// than a piece's owner at some vertex of that piece.
-func (hs *hiddenSweep) wins(p orb.Point, w float64, sc *planPowerScratch) bool {
+// beaten reports whether the device at p of weight w has a smaller power
+// than a piece's owner at some vertex of that piece (of the last
+// powerSplit).
+func (sc *planPowerScratch) beaten(p orb.Point, w float64) bool {
 	for _, pc := range sc.res {
 		for k := pc.ring0; k < pc.ring0+pc.nr; k++ {
 			ring := sc.kept.Ring(k)
