@@ -608,8 +608,12 @@ func kgRingsHold(st *kStore, i int, x, y float64) bool {
 }
 
 // kgValid returns the test of whether a vertex of piece i is a point of
-// the piece (candidate vertices of a clipped non-convex base cell; see
-// planar/halfplane.go).
+// the piece: as in planMeasures (the piece's farthest vertex, hence the
+// level's cover figure), only the piece's candidate vertices
+// (planar.ProvCandidate) of a clipped non-convex base cell are tested
+// against that cell (planar/halfplane.go); every other vertex is a point
+// of the piece, even where its rounding puts it an ulp outside the cell.
+// Crossings of the circle are never candidates.
 func kgValid(l *Layout, st *kStore, i int) func(x, y float64) bool {
 	v := st.v[i]
 	if v < 0 {
@@ -619,7 +623,24 @@ func kgValid(l *Layout, st *kStore, i int) func(x, y float64) bool {
 	if rs.NumRings() == 1 && planar.RingConvex(rs.Ring(0)) {
 		return func(float64, float64) bool { return true }
 	}
-	return func(x, y float64) bool { return planCellHolds(&rs, x, y) }
+	var cand []float64
+	k0, k1 := st.pieceRings(i)
+	for ri := k0; ri < k1; ri++ {
+		ring, prov := st.rings.Ring(ri), st.rings.RingProv(ri)
+		for j, f := range prov {
+			if f&planar.ProvCandidate != 0 {
+				cand = append(cand, ring[2*j], ring[2*j+1])
+			}
+		}
+	}
+	return func(x, y float64) bool {
+		for j := 0; j+1 < len(cand); j += 2 {
+			if cand[j] == x && cand[j+1] == y {
+				return planCellHolds(&rs, x, y)
+			}
+		}
+		return true
+	}
 }
 
 // kgWholePiece is the fallback: the whole piece as one part (area exact,

@@ -82,13 +82,27 @@ func rangesAnalysis(f *runFlags, sc *scene, pr *progress, in siteinput.Inputs) (
 	if err != nil {
 		return analysisOutput{}, inputErrorf("%s: %v", inputNames(in), err)
 	}
-	doc := sync.OnceValue(func() *report.RangesDoc { return report.RangesSummary(a, sc.meta) }) // one document for warnings and print
+	kc, err := runReachRanges(pr, f, a.Layout)
+	if err != nil {
+		return analysisOutput{}, err
+	}
+	doc := sync.OnceValue(func() *report.RangesDoc { // one document for warnings and print
+		d := report.RangesSummary(a, sc.meta)
+		if kc != nil {
+			d.Reach = report.ReachSummary(kc, a.Layout, sc.meta)
+		}
+		return d
+	})
 	return analysisOutput{
-		write:    func(opt report.Options) ([]string, error) { return report.WriteRangesAnalysis(f.out, a, sc.meta, opt) },
+		write: func(opt report.Options) ([]string, error) {
+			opt.Reach = kc
+			return report.WriteRangesAnalysis(f.out, a, sc.meta, opt)
+		},
 		warnings: func() []string { return doc().Warnings },
 		print: func(w io.Writer, gapTable bool) {
 			d := doc()
 			printRangesAnalysis(w, d, sc.meta)
+			printReachDoc(w, d.Reach)
 			if gapTable {
 				printRangesGapTable(w, d, sc.meta)
 			}
