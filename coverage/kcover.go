@@ -202,12 +202,7 @@ func KCover(l *Layout, r float64, opt KOptions) (*KCoverage, error) {
 	if want[1] {
 		kc.Levels = append(kc.Levels, kLevelOne(l, r))
 	}
-	sets := make([]int32, 0, nv)
-	for v := int32(0); v < int32(nv); v++ {
-		if l.Cells.SiteStart[v] < l.Cells.SiteStart[v+1] {
-			sets = append(sets, v)
-		}
-	}
+	sets := kFirstSets(l)
 	var g *kGraph
 	if K > 2 {
 		g = newKGraph(l.Tri, l.Cells)
@@ -278,6 +273,19 @@ func kCheckOptions(opt KOptions, nv int) ([]bool, int, float64, error) {
 		return nil, 0, 0, fmt.Errorf("chord tolerance %v must be a finite number > 0", opt.ChordTolerance)
 	}
 	return want, K, tol, nil
+}
+
+// kFirstSets returns the order-1 sets: the vertices with a non-empty
+// clipped cell.
+func kFirstSets(l *Layout) []int32 {
+	nv := l.Tri.NumVertices()
+	sets := make([]int32, 0, nv)
+	for v := int32(0); v < int32(nv); v++ {
+		if l.Cells.SiteStart[v] < l.Cells.SiteStart[v+1] {
+			sets = append(sets, v)
+		}
+	}
+	return sets
 }
 
 // kLevelOne is level 1 from the layout's own figures.
@@ -492,24 +500,38 @@ func kLevelBuild(l *Layout, g *kGraph, k int, sets []int32, r float64, keep, wan
 			kSetPieces(l, g, sets[i*m:(i+1)*m], r, keep, sc, ch)
 		}
 	})
-	lv := KLevel{K: k, CoverRange: -1}
-	var next []int32
-	var farSet []int32
+	lv := KLevel{K: k}
+	far, farSet, next := kMergeChunks(l, &lv, chunks, keep)
+	lv.CoverRange = max(0, far)
+	lv.CoverSites = kNearestFirst(l, farSet, lv.CoverPoint)
+	next = kUniqueSets(next, k, l.Tri.NumVertices())
+	lv.Cells = len(next) / k
+	if !wantNext {
+		next = nil
+	}
+	return lv, next
+}
+
+// kMergeChunks adds the chunks' areas, pieces and (with keep) stores to
+// lv in chunk order, clamps the covered area to the site's and sets the
+// share; it returns the largest of the chunks' far measures (−Inf with no
+// chunk) with its point in lv.CoverPoint and its devices, and the next
+// level's sets of every chunk concatenated.
+func kMergeChunks(l *Layout, lv *KLevel, chunks []kChunk, keep bool) (far float64, farSet, next []int32) {
+	far = math.Inf(-1)
+	nn := 0
 	for ci := range chunks {
 		ch := &chunks[ci]
 		lv.CoveredArea += ch.covered
 		lv.PieceArea += ch.pieceArea
 		lv.Pieces += ch.pieces
-		if ch.far > lv.CoverRange {
-			lv.CoverRange, lv.CoverPoint, farSet = ch.far, orb.Point{ch.fx, ch.fy}, ch.farSet
+		if ch.far > far {
+			far, lv.CoverPoint, farSet = ch.far, orb.Point{ch.fx, ch.fy}, ch.farSet
 		}
 		if keep {
 			lv.store = append(lv.store, ch.store)
 		}
-	}
-	nn := 0
-	for ci := range chunks {
-		nn += len(chunks[ci].next)
+		nn += len(ch.next)
 	}
 	next = make([]int32, 0, nn)
 	for ci := range chunks {
@@ -518,16 +540,7 @@ func kLevelBuild(l *Layout, g *kGraph, k int, sets []int32, r float64, keep, wan
 	}
 	lv.CoveredArea = min(l.AreaM2, max(0, lv.CoveredArea))
 	lv.Share = lv.CoveredArea / l.AreaM2
-	if lv.CoverRange < 0 {
-		lv.CoverRange = 0
-	}
-	lv.CoverSites = kNearestFirst(l, farSet, lv.CoverPoint)
-	next = kUniqueSets(next, k, l.Tri.NumVertices())
-	lv.Cells = len(next) / k
-	if !wantNext {
-		next = nil
-	}
-	return lv, next
+	return far, farSet, next
 }
 
 // kLevelEnumerate returns the order-k sets (ascending tuples, sorted,

@@ -115,13 +115,7 @@ func KCoverRanges(l *Layout, opt KOptions) (*KCoverage, error) {
 	if want[1] {
 		kc.Levels = append(kc.Levels, dv.levelOne(l))
 	}
-	nv := l.Tri.NumVertices()
-	sets := make([]int32, 0, nv)
-	for v := int32(0); v < int32(nv); v++ {
-		if l.Cells.SiteStart[v] < l.Cells.SiteStart[v+1] {
-			sets = append(sets, v)
-		}
-	}
+	sets := kFirstSets(l)
 	g := newKGraph(l.Tri, l.Cells)
 	for k := 2; k <= K; k++ {
 		lv, next := dv.level(l, g, k, sets, keep && want[k], k < K)
@@ -396,29 +390,9 @@ func (dv *kDevs) level(l *Layout, g *kGraph, k int, sets []int32, keep, wantNext
 			dv.setPieces(l, g, sets[i*m:(i+1)*m], keep, sc, ch)
 		}
 	})
-	lv := KLevel{K: k, CoverPower: math.Inf(-1)}
-	var farSet []int32
-	nn := 0
-	for ci := range chunks {
-		ch := &chunks[ci]
-		lv.CoveredArea += ch.covered
-		lv.PieceArea += ch.pieceArea
-		lv.Pieces += ch.pieces
-		if ch.far > lv.CoverPower {
-			lv.CoverPower, lv.CoverPoint, farSet = ch.far, orb.Point{ch.fx, ch.fy}, ch.farSet
-		}
-		if keep {
-			lv.store = append(lv.store, ch.store)
-		}
-		nn += len(ch.next)
-	}
-	next := make([]int32, 0, nn)
-	for ci := range chunks {
-		next = append(next, chunks[ci].next...)
-		chunks[ci].next = nil
-	}
-	lv.CoveredArea = min(l.AreaM2, max(0, lv.CoveredArea))
-	lv.Share = lv.CoveredArea / l.AreaM2
+	lv := KLevel{K: k}
+	var farSet, next []int32
+	lv.CoverPower, farSet, next = kMergeChunks(l, &lv, chunks, keep)
 	if len(farSet) > 0 {
 		lv.CoverSites = dv.order(farSet, lv.CoverPoint)
 		q := farSet[len(farSet)-1]

@@ -56,7 +56,7 @@ func TestKCoverRangesReference(t *testing.T) {
 
 func TestKCoverRangesLive(t *testing.T) {
 	var d kRangesRefDoc
-	kLoadJSON(t, liveRefRun(t, "ref_kcover_ranges.py", "NumPy, GEOS via python3-shapely"), &d)
+	kLoadJSON(t, liveRefRun(t, "ref_kcover_ranges.py", "NumPy, GEOS via python3-shapely; python3-scipy for the shared helpers of ref_kcover.py"), &d)
 	kRangesRefCheck(t, &d)
 }
 

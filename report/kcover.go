@@ -236,24 +236,11 @@ func (s *scene) reachText(kc *coverage.KCoverage) []byte {
 			fmtReach(kc.AreaM2-lv.CoveredArea, 1), fmtReach(lv.CoverRange, 2), s.pointText(lv.CoverPoint), s.reachSites(lv.CoverSites))
 	}
 	for _, lv := range kc.Levels {
-		if len(lv.Gaps) == 0 {
-			fmt.Fprintf(&b, "\n  k = %d: every spot is reached by at least %d device(s).\n", lv.K, lv.K)
-			continue
-		}
-		short := fmt.Sprintf("reached by fewer than %d devices", lv.K)
-		if lv.K == 1 {
-			short = "reached by no device"
-		}
-		fmt.Fprintf(&b, "\n  k = %d: %d parts %s, by the range that closes them:\n", lv.K, len(lv.Gaps), short)
-		fmt.Fprintf(&b, "  %4s  %12s  %11s  %s\n", "gap", "area m²", "closing m", "deepest spot (devices nearest first)")
-		for i, g := range lv.Gaps {
-			if i == reachMaxGapRows {
-				fmt.Fprintf(&b, "  ... and %d more (all in summary.json and %s)\n", len(lv.Gaps)-i, LayerFile(FileReachGaps, s.m.Planar))
-				break
-			}
-			fmt.Fprintf(&b, "  %4d  %12s  %11s  %s (%s)\n", g.ID, fmtReach(g.Area, 1), fmtReach(g.ClosingRange, 2),
-				s.pointText(g.Deepest), s.reachSites(g.Sites))
-		}
+		s.reachGapRows(&b, &lv, "range", fmt.Sprintf("  %4s  %12s  %11s  %s\n", "gap", "area m²", "closing m", "deepest spot (devices nearest first)"),
+			func(g *coverage.KGap) string {
+				return fmt.Sprintf("  %4d  %12s  %11s  %s (%s)\n", g.ID, fmtReach(g.Area, 1), fmtReach(g.ClosingRange, 2),
+					s.pointText(g.Deepest), s.reachSites(g.Sites))
+			})
 	}
 	b.WriteString("\n  Method: order-k Voronoi pieces (Lee, IEEE Trans. Computers 31, 1982); areas exact (closed form),\n" +
 		"  the k-cover range is the largest distance from a spot of the area to its k-th nearest device.\n")
@@ -279,30 +266,40 @@ func (s *scene) reachTextOwn(kc *coverage.KCoverage) []byte {
 		fmt.Fprintf(&b, "  k = %d: %s\n", lv.K, s.reachNeededText(lv.CoverPower))
 	}
 	for _, lv := range kc.Levels {
-		if len(lv.Gaps) == 0 {
-			fmt.Fprintf(&b, "\n  k = %d: every spot is reached by at least %d device(s).\n", lv.K, lv.K)
-			continue
-		}
-		short := fmt.Sprintf("reached by fewer than %d devices", lv.K)
-		if lv.K == 1 {
-			short = "reached by no device"
-		}
-		fmt.Fprintf(&b, "\n  k = %d: %d parts %s, by the growth that closes them:\n", lv.K, len(lv.Gaps), short)
-		fmt.Fprintf(&b, "  %4s  %12s  %s; %s\n", "gap", "area m²", "deepest spot (devices)", "closing ranges (all grow together)")
-		for i, g := range lv.Gaps {
-			if i == reachMaxGapRows {
-				fmt.Fprintf(&b, "  ... and %d more (all in summary.json and %s)\n", len(lv.Gaps)-i, LayerFile(FileReachGaps, s.m.Planar))
-				break
-			}
-			fmt.Fprintf(&b, "  %4d  %12s  %s (%s); %s\n", g.ID, fmtReach(g.Area, 1),
-				s.pointText(g.Deepest), s.reachSites(g.Sites), s.reachNeededText(g.ClosingPower))
-		}
+		s.reachGapRows(&b, &lv, "growth", fmt.Sprintf("  %4s  %12s  %s; %s\n", "gap", "area m²", "deepest spot (devices)", "closing ranges (all grow together)"),
+			func(g *coverage.KGap) string {
+				return fmt.Sprintf("  %4d  %12s  %s (%s); %s\n", g.ID, fmtReach(g.Area, 1),
+					s.pointText(g.Deepest), s.reachSites(g.Sites), s.reachNeededText(g.ClosingPower))
+			})
 	}
 	b.WriteString("\n  Method: order-k power diagram (Aurenhammer, SIAM J. Comput. 16, 1987; Lee's construction, IEEE Trans.\n" +
 		"  Computers 31, 1982); areas exact (closed form). A spot is reached by k devices when its k-th smallest\n" +
 		"  power |x − p|² − r² is at most 0; the ranges above are √(r² + t) for the largest such power t over the\n" +
 		"  area (or over the part).\n")
 	return []byte(b.String())
+}
+
+// reachGapRows writes the k-gaps of one level: a line saying there are
+// none, or how many (ordered by the range or growth, how, that closes
+// them), the table head and one row per gap up to reachMaxGapRows.
+func (s *scene) reachGapRows(b *strings.Builder, lv *coverage.KLevel, how, head string, row func(g *coverage.KGap) string) {
+	if len(lv.Gaps) == 0 {
+		fmt.Fprintf(b, "\n  k = %d: every spot is reached by at least %d device(s).\n", lv.K, lv.K)
+		return
+	}
+	short := fmt.Sprintf("reached by fewer than %d devices", lv.K)
+	if lv.K == 1 {
+		short = "reached by no device"
+	}
+	fmt.Fprintf(b, "\n  k = %d: %d parts %s, by the %s that closes them:\n", lv.K, len(lv.Gaps), short, how)
+	b.WriteString(head)
+	for i := range lv.Gaps {
+		if i == reachMaxGapRows {
+			fmt.Fprintf(b, "  ... and %d more (all in summary.json and %s)\n", len(lv.Gaps)-i, LayerFile(FileReachGaps, s.m.Planar))
+			break
+		}
+		b.WriteString(row(&lv.Gaps[i]))
+	}
 }
 
 // reachSites names the devices of input indices v as every output does

@@ -40,24 +40,16 @@ Usage: ref_kcover_ranges.py [--seed S] [--out FILE] [--small]
   --small    smaller samples (for the live test)
 """
 
-import argparse
-import itertools
-import json
-import math
-import os
-
 import numpy as np
 import shapely
 import shapely.geos
-from shapely import affinity, vectorized
-from shapely.geometry import Point, Polygon
-from shapely.ops import unary_union
+from shapely.geometry import Polygon
 
+# The area sample of the planning references; the GEOS k-covered area (one
+# radius per site) and the Monte Carlo points of the common-range k
+# references.
 from ref_plan import samples
-
-RES = 256  # quarter-circle segments: 1024-gons
-NSEG = 4 * RES
-KMAX = 4
+from ref_kcover import KMAX, level_ref, mc_points, run
 
 
 def scenes(rng):
@@ -110,38 +102,6 @@ def kth_powers(pts, sites, ranges, kmax):
     return np.sort(d2, axis=1)[:, :kmax]
 
 
-def disks(sites, ranges, circumscribed):
-    out = []
-    for p, r in zip(sites, ranges):
-        d = Point(p).buffer(r, resolution=RES)
-        if circumscribed:
-            f = 1 / math.cos(math.pi / NSEG)
-            d = affinity.scale(d, xfact=f, yfact=f, origin=Point(p))
-        out.append(d)
-    return out
-
-
-def k_area(poly, sites, ranges, k, circumscribed):
-    ds = disks(sites, ranges, circumscribed)
-    f = 1 / math.cos(math.pi / NSEG)
-    n = len(sites)
-    meet = [[math.dist(sites[i], sites[j]) <= (ranges[i] + ranges[j]) * f for j in range(n)] for i in range(n)]
-    parts = []
-    for sub in itertools.combinations(range(n), k):
-        if any(not meet[a][b] for a, b in itertools.combinations(sub, 2)):
-            continue
-        g = ds[sub[0]]
-        for j in sub[1:]:
-            g = g.intersection(ds[j])
-            if g.is_empty:
-                break
-        if not g.is_empty:
-            parts.append(g)
-    if not parts:
-        return 0.0
-    return unary_union(parts).intersection(poly).area
-
-
 def scene_ref(sc, rng, small):
     poly = Polygon(sc["exterior"], sc["holes"])
     sites, ranges = distinct(sc["sites"], sc["ranges"])
@@ -149,47 +109,17 @@ def scene_ref(sc, rng, small):
     h = 0.5 if small else 0.2
     sp = samples(poly, h)
     pw = np.vstack([kth_powers(sp[i:i + 20000], sites, ranges, kmax) for i in range(0, len(sp), 20000)])
-    minx, miny, maxx, maxy = poly.bounds
-    nmc = 40000 if small else 200000
-    mc = []
-    while sum(len(m) for m in mc) < nmc:
-        q = rng.uniform([minx, miny], [maxx, maxy], size=(nmc, 2))
-        mc.append(q[vectorized.contains(poly, q[:, 0], q[:, 1])])
-    mc = np.vstack(mc)[:nmc]
+    mc = mc_points(poly, rng, 40000 if small else 200000)
     pmc = np.vstack([kth_powers(mc[i:i + 20000], sites, ranges, kmax) for i in range(0, len(mc), 20000)])
-    levels = []
-    for k in range(1, kmax + 1):
-        pk = pw[:, k - 1]
-        i = int(np.argmax(pk))
-        levels.append(dict(
-            k=k,
-            sample_max=float(pk[i]),
-            sample_point=[float(sp[i, 0]), float(sp[i, 1])],
-            mc_share=float(np.mean(pmc[:, k - 1] <= 0)),
-            mc_n=int(len(mc)),
-            geos_inscribed=k_area(poly, sites, ranges, k, False),
-            geos_circumscribed=k_area(poly, sites, ranges, k, True),
-        ))
+    levels = [level_ref(k, pw[:, k - 1], sp, pmc[:, k - 1] <= 0, poly, sites, list(ranges))
+              for k in range(1, kmax + 1)]
     return dict(name=sc["name"], exterior=sc["exterior"], holes=sc["holes"], sites=sc["sites"],
                 ranges=sc["ranges"], sample_spacing=h, levels=levels)
 
 
 def main():
-    ap = argparse.ArgumentParser()
-    ap.add_argument("--seed", type=int, default=20261203)
-    ap.add_argument("--out", default=os.path.join(os.path.dirname(os.path.abspath(__file__)), "kcover_ranges_ref.json"))
-    ap.add_argument("--small", action="store_true")
-    a = ap.parse_args()
-    rng = np.random.default_rng(a.seed)
-    doc = dict(
-        generator="ref_kcover_ranges.py (numpy %s brute force, shapely %s / GEOS %s)" % (
-            np.__version__, shapely.__version__, shapely.geos.geos_version_string),
-        seed=a.seed, small=a.small, buffer_segments=NSEG,
-        scenes=[scene_ref(sc, rng, a.small) for sc in scenes(rng)],
-    )
-    with open(a.out, "w") as f:
-        json.dump(doc, f, indent=1)
-        f.write("\n")
+    run("kcover_ranges_ref.json", "ref_kcover_ranges.py (numpy %s brute force, shapely %s / GEOS %s)" % (
+        np.__version__, shapely.__version__, shapely.geos.geos_version_string), scenes, scene_ref)
 
 
 if __name__ == "__main__":
