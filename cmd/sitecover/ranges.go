@@ -64,14 +64,15 @@ func (f *runFlags) rangesInputs(cmd *cobra.Command) (siteinput.Inputs, error) {
 	return in, nil
 }
 
-// refuseRanges is the answer of the moves that count devices in reach at
-// one common range (suggest --reach) when the sites carry their own ranges:
-// an input error, never a silent common range.
+// refuseRanges is the answer of the moves that place devices for one
+// common range (suggest --reach) when the sites carry their own ranges: an
+// input error, never a silent common range. (analyze --reach takes own
+// ranges: coverage.KCoverRanges.)
 func refuseRanges(sc *scene, command string, in siteinput.Inputs) error {
 	if sc.ranges == nil {
 		return nil
 	}
-	return inputErrorf("%s: the devices have their own ranges (range column or type table); %s counts devices in reach at one common range: give only --range", in.Sites.Name, command)
+	return inputErrorf("%s: the devices have their own ranges (range column or type table); %s places devices for one common range: give only --range (analyze --reach reports the devices in reach at their own ranges)", in.Sites.Name, command)
 }
 
 // rangesAnalysis runs coverage.AnalyzeRanges for devices with their own

@@ -113,3 +113,13 @@ func TestReachEqualOwnRanges(t *testing.T) {
 		}
 	}
 }
+
+// TestSuggestReachOwnRangesRefused: suggest --reach places devices for one
+// common range and says so, pointing to analyze --reach.
+func TestSuggestReachOwnRangesRefused(t *testing.T) {
+	dir := t.TempDir()
+	area := writeFile(t, dir, "a.geojson", `{"type":"Polygon","coordinates":[[[-50,-50],[260,-50],[260,180],[-50,180],[-50,-50]]]}`)
+	mixed := writeFile(t, dir, "mixed.csv", mixedCSV)
+	r := runCLI(t, "suggest", "--planar", "--sites", mixed, "--area", area, "--range", "40", "--reach", "2", "--out", filepath.Join(dir, "o"), "--no-maps")
+	checkFailure(t, r, exitInput, []string{"own ranges", "one common range", "analyze --reach"})
+}
