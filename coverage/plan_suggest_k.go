@@ -137,20 +137,15 @@ func reachMeasure(sites []orb.Point, l0 *Layout, K int, r float64) (reachState, 
 // measure computes the reachState of the sites (the existing devices
 // first, then the additions).
 func (m *reachModel) measure(sites []orb.Point, l0 *Layout, K int) (reachState, error) {
-	if m.ranges != nil {
-		return m.measureRanges(sites, l0, K)
-	}
-	l, err := NewLayout(sites, l0.Area)
-	if err != nil {
-		return reachState{}, err
-	}
-	k := min(K, l.Tri.NumVertices())
-	kc, err := KCover(l, m.r, KOptions{Levels: []int{k}, keepPieces: true})
+	l, kc, k, err := m.cover(sites, l0, K)
 	if err != nil {
 		return reachState{}, err
 	}
 	lv := &kc.Levels[0]
 	st := reachState{rng: lv.CoverRange, share: lv.Share, area: lv.CoveredArea}
+	if m.ranges != nil {
+		st.rng = lv.CoverPower
+	}
 	if k < K {
 		st = reachState{rng: math.Inf(1)}
 	}
@@ -158,16 +153,27 @@ func (m *reachModel) measure(sites []orb.Point, l0 *Layout, K int) (reachState, 
 	return st, nil
 }
 
-// measureRanges is measure with own ranges: the existing devices' ranges,
-// then r for every addition (NewLayoutRanges, KCoverRanges).
-func (m *reachModel) measureRanges(sites []orb.Point, l0 *Layout, K int) (reachState, error) {
+// cover builds the layout of the sites (NewLayout; with own ranges
+// NewLayoutRanges, the existing devices' ranges then r for every
+// addition) and its level k = min(K, distinct devices) with the pieces
+// kept (KCover, KCoverRanges).
+func (m *reachModel) cover(sites []orb.Point, l0 *Layout, K int) (*Layout, *KCoverage, int, error) {
+	if m.ranges == nil {
+		l, err := NewLayout(sites, l0.Area)
+		if err != nil {
+			return nil, nil, 0, err
+		}
+		k := min(K, l.Tri.NumVertices())
+		kc, err := KCover(l, m.r, KOptions{Levels: []int{k}, keepPieces: true})
+		return l, kc, k, err
+	}
 	rs := append([]float64(nil), m.ranges...)
 	for len(rs) < len(sites) {
 		rs = append(rs, m.r)
 	}
 	l, err := NewLayoutRanges(sites, rs, l0.Area)
 	if err != nil {
-		return reachState{}, err
+		return nil, nil, 0, err
 	}
 	distinct := map[orb.Point]bool{}
 	for _, p := range sites {
@@ -175,16 +181,7 @@ func (m *reachModel) measureRanges(sites []orb.Point, l0 *Layout, K int) (reachS
 	}
 	k := min(K, len(distinct))
 	kc, err := KCoverRanges(l, KOptions{Levels: []int{k}, keepPieces: true})
-	if err != nil {
-		return reachState{}, err
-	}
-	lv := &kc.Levels[0]
-	st := reachState{rng: lv.CoverPower, share: lv.Share, area: lv.CoveredArea}
-	if k < K {
-		st = reachState{rng: math.Inf(1)}
-	}
-	st.next, st.ok = reachNext(l, kc, lv)
-	return st, nil
+	return l, kc, k, err
 }
 
 // step returns the figures of one addition at p with state st.
