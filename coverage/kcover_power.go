@@ -331,7 +331,7 @@ func (dv *kDevs) levelOne(l *Layout) KLevel {
 	unc := l.UncoveredAreaGrown(0)
 	fc := l.FullCoverRanges()
 	lv := KLevel{K: 1, CoveredArea: l.AreaM2 - unc, Share: coveredFromUncovered(unc, l.AreaM2),
-		CoverPower: fc.Power, CoverRanges: fc.Needed}
+		CoverPower: fc.Power, CoverRanges: l.GrownRanges(fc.Power)}
 	if len(fc.Worst) > 0 {
 		lv.CoverPoint = fc.Worst[0]
 		lv.CoverSites = []int{fc.WorstSites[0]}
