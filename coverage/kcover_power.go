@@ -275,27 +275,38 @@ func (dv *kDevs) near(minX, minY, maxX, maxY, m float64, fn func(d int32)) {
 }
 
 // kSmallest returns the k devices of smallest power at (x, y), smallest
-// first (ties by device index), in nn's scratch. The search square grows
-// until the k-th power found is at most reach² − max r²: every device
-// outside the square is farther than reach, so its power is larger.
+// first (ties by device index), in nn's scratch. For a bound P, a device of
+// class c with power ≤ P lies within √(P + max r² of c) of (x, y), so the
+// buckets within that reach hold every device of power ≤ P; P doubles
+// until k of them are found (or every bucket was searched).
 func (dv *kDevs) kSmallest(x, y float64, k int, nn *kgNearest) []int32 {
-	reach := dv.step
+	P := dv.step * dv.step
 	for {
 		nn.pairs = nn.pairs[:0]
+		all, within := true, 0
 		for ci := range dv.classes {
-			dv.classes[ci].grid.Near(x, y, reach, func(d int32) {
+			c := &dv.classes[ci]
+			if P+c.wmax < 0 {
+				all = false
+				continue
+			}
+			reach := math.Sqrt(P + c.wmax)
+			c.grid.Near(x, y, reach, func(d int32) {
 				nn.pairs = append(nn.pairs, kByDist{dv.power(d, x, y), d})
 			})
+			all = all && x-reach <= dv.box[0] && y-reach <= dv.box[1] && x+reach >= dv.box[2] && y+reach >= dv.box[3]
 		}
-		all := x-reach <= dv.box[0] && y-reach <= dv.box[1] && x+reach >= dv.box[2] && y+reach >= dv.box[3]
-		if len(nn.pairs) >= k || all {
-			slices.SortFunc(nn.pairs, func(a, b kByDist) int { return cmp.Or(cmp.Compare(a.d2, b.d2), cmp.Compare(a.v, b.v)) })
-			if all || nn.pairs[k-1].d2 <= reach*reach-dv.wmax {
-				break
+		for _, p := range nn.pairs {
+			if p.d2 <= P {
+				within++
 			}
 		}
-		reach *= 2
+		if within >= k || all {
+			break
+		}
+		P *= 2
 	}
+	slices.SortFunc(nn.pairs, func(a, b kByDist) int { return cmp.Or(cmp.Compare(a.d2, b.d2), cmp.Compare(a.v, b.v)) })
 	nn.out = nn.out[:0]
 	for _, p := range nn.pairs[:min(k, len(nn.pairs))] {
 		nn.out = append(nn.out, p.v)

@@ -112,6 +112,42 @@ func TestKCoverRangesBruteForce(t *testing.T) {
 	}
 }
 
+// TestKCoverRangesSkewed: many short ranges and two very long ones (the
+// long ones' class searched with its own reach), k = 1 … 3 against brute
+// force.
+func TestKCoverRangesSkewed(t *testing.T) {
+	rng := rand.New(rand.NewPCG(17, 3))
+	var sites []orb.Point
+	var ranges []float64
+	for range 120 {
+		sites = append(sites, orb.Point{rng.Float64() * 300, rng.Float64() * 300})
+		ranges = append(ranges, 12+6*rng.Float64())
+	}
+	sites = append(sites, orb.Point{60, 240}, orb.Point{250, 80})
+	ranges = append(ranges, 400, 260)
+	reg, err := planar.NewRegion(orb.MultiPolygon{{{{0, 0}, {300, 0}, {300, 300}, {0, 300}}}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	l, err := NewLayoutRanges(sites, ranges, reg)
+	if err != nil {
+		t.Fatal(err)
+	}
+	kc, err := KCoverRanges(l, KOptions{MaxK: 3, Gaps: true})
+	if err != nil {
+		t.Fatal(err)
+	}
+	for i := range kc.Levels {
+		lv := &kc.Levels[i]
+		t.Run(fmt.Sprintf("k=%d", lv.K), func(t *testing.T) {
+			checkKPowerSample(t, l, sites, ranges, lv, 20000, 90+uint64(lv.K))
+			if len(lv.Gaps) > 0 && lv.CoverPower > 0 && math.Abs(lv.Gaps[0].ClosingPower-lv.CoverPower) > 1e-9*lv.CoverPower {
+				t.Errorf("first gap closes at %v, k-cover power %v", lv.Gaps[0].ClosingPower, lv.CoverPower)
+			}
+		})
+	}
+}
+
 // TestKCoverRangesEqualIsCommon: equal ranges give KCover's figures to the
 // last digit, the powers restated.
 func TestKCoverRangesEqualIsCommon(t *testing.T) {
