@@ -4,10 +4,11 @@
 // Math. Device i at p_i with range r_i reaches x when |x − p_i| ≤ r_i, i.e.
 // when its power π_i(x) = |x − p_i|² − r_i² is ≤ 0. So x is reached by at
 // least k devices exactly when the k-th smallest power π_(k)(x) is ≤ 0. The
-// order-k power diagram (Aurenhammer, SIAM J. Comput. 16, 1987, §4, the
-// order-k power diagram; the weighted form of Lee's order-k Voronoi
-// diagram, IEEE Trans. Computers 31, 1982) splits the plane by the set of
-// the k devices of smallest power, and Lee's step carries over: inside the
+// order-k power diagram — the power diagram (Aurenhammer, "Power diagrams:
+// properties, algorithms and applications", SIAM J. Comput. 16, 1987) taken
+// to order k as Lee's order-k Voronoi diagram (IEEE Trans. Computers 31,
+// 1982) takes the Voronoi diagram — splits the plane by the set of the k
+// devices of smallest power, and Lee's step carries over: inside the
 // order-(k−1) cell C_S of a set S of k−1 devices, the k-th smallest power
 // is the smallest power over P \ S, so C_S is split by the power diagram of
 // P \ S into pieces (S, q), on which π_(k) = π_q. Hence, as in kcover.go,
