@@ -101,7 +101,8 @@ type KGap struct {
 	// when every range grows to √(r_i² + ClosingPower).
 	ClosingPower float64
 	// Sites are the input indices of the k devices nearest Deepest,
-	// nearest first.
+	// nearest first (with own ranges: the k of smallest power there,
+	// smallest first).
 	Sites []int
 	// Outline is the gap as polygons, arcs replaced by chords: for k ≥ 2
 	// the union of its parts (one polygon per connected part, with its
