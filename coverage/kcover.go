@@ -116,11 +116,26 @@ type KLevel struct {
 	// every spot of the area is reached by K devices (the largest K-th
 	// nearest distance over the area).
 	CoverRange float64
+	// With own ranges (KCoverRanges, ranges not all equal) CoverRange is
+	// the distance from CoverPoint to the K-th device there; the figure to
+	// plan with is then CoverPower and CoverRanges.
+	//
 	// CoverPoint is a spot that needs CoverRange.
 	CoverPoint orb.Point
 	// CoverSites are the input indices of the K devices nearest
-	// CoverPoint, nearest first.
+	// CoverPoint, nearest first (with own ranges: smallest power first).
 	CoverSites []int
+	// CoverPower is set by KCoverRanges: the largest K-th smallest power
+	// π(x) = |x − p_i|² − r_i² over the area (m²), at CoverPoint. Growing
+	// every range to √(r_i² + CoverPower) reaches every spot by K devices,
+	// and no smaller uniform growth does; ≤ 0 when the planned ranges
+	// already do. With equal ranges r it is CoverRange² − r².
+	CoverPower float64
+	// CoverRanges is set by KCoverRanges: the range each device needs
+	// under that growth, by input index (hidden devices included; 0 where
+	// √(r_i² + CoverPower) is not real). With equal ranges every entry is
+	// CoverRange.
+	CoverRanges []float64
 	// Cells is the number of order-K Voronoi cells meeting the area
 	// (distinct sets of K nearest devices).
 	Cells int
@@ -154,7 +169,13 @@ type KCoverage struct {
 	// Levels holds the levels asked for, by increasing k.
 	Levels []KLevel
 
-	hasGaps bool // the levels' gaps were computed (KOptions.Gaps)
+	// OwnRanges is set by KCoverRanges: the levels carry CoverPower and
+	// CoverRanges, the gaps ClosingPower, and Range is 0 unless the ranges
+	// are all equal (then it is that range and every figure is KCover's).
+	OwnRanges bool
+
+	hasGaps bool   // the levels' gaps were computed (KOptions.Gaps)
+	dev     *kDevs // the devices with their own ranges (nil: one common range)
 }
 
 // ErrKTooLarge is returned (wrapped) when k exceeds the number of distinct
@@ -171,34 +192,17 @@ func KCover(l *Layout, r float64, opt KOptions) (*KCoverage, error) {
 		return nil, fmt.Errorf("coverage: KCover: range %v must be a finite number ≥ 0", r)
 	}
 	nv := l.Tri.NumVertices()
-	want, K, err := kWanted(opt, nv)
+	want, K, tol, err := kCheckOptions(opt, nv)
 	if err != nil {
 		return nil, fmt.Errorf("coverage: KCover: %w", err)
 	}
-	if opt.CurveSamples < 0 {
-		return nil, fmt.Errorf("coverage: KCover: %d curve samples", opt.CurveSamples)
-	}
-	tol := opt.ChordTolerance
-	if tol == 0 {
-		tol = DefaultChordTolerance
-	}
-	if !(tol > 0) || math.IsInf(tol, 0) {
-		return nil, fmt.Errorf("coverage: KCover: chord tolerance %v must be a finite number > 0", opt.ChordTolerance)
-	}
 	kc := &KCoverage{Range: r, AreaM2: l.AreaM2, Devices: nv}
-	if d := len(l.Sites) - nv; d > 0 {
-		kc.Warnings = append(kc.Warnings, fmt.Sprintf("%d devices stand at exactly the same spot as another; each spot counts once", d))
-	}
+	kc.warnDuplicates(len(l.Sites) - nv)
 	keep := opt.CurveSamples > 0 || opt.Gaps || opt.keepPieces
 	if want[1] {
 		kc.Levels = append(kc.Levels, kLevelOne(l, r))
 	}
-	sets := make([]int32, 0, nv)
-	for v := int32(0); v < int32(nv); v++ {
-		if l.Cells.SiteStart[v] < l.Cells.SiteStart[v+1] {
-			sets = append(sets, v)
-		}
-	}
+	sets := kFirstSets(l)
 	var g *kGraph
 	if K > 2 {
 		g = newKGraph(l.Tri, l.Cells)
@@ -228,15 +232,60 @@ func KCover(l *Layout, r float64, opt KOptions) (*KCoverage, error) {
 		}
 	}
 	if opt.Gaps {
-		kc.hasGaps = true
-		for i := range kc.Levels {
-			kc.Levels[i].Gaps = kc.gaps(l, i, tol)
-			if kc.Levels[i].K > 1 {
-				kgMergeOutlines(kc.Levels[i].Gaps)
-			}
-		}
+		kc.allGaps(l, tol)
 	}
 	return kc, nil
+}
+
+// allGaps computes the k-gaps of every level.
+func (kc *KCoverage) allGaps(l *Layout, tol float64) {
+	kc.hasGaps = true
+	for i := range kc.Levels {
+		kc.Levels[i].Gaps = kc.gaps(l, i, tol)
+		if kc.Levels[i].K > 1 {
+			kgMergeOutlines(kc.Levels[i].Gaps)
+		}
+	}
+}
+
+// warnDuplicates notes d devices merged with another at the same spot.
+func (kc *KCoverage) warnDuplicates(d int) {
+	if d > 0 {
+		kc.Warnings = append(kc.Warnings, fmt.Sprintf("%d devices stand at exactly the same spot as another; each spot counts once", d))
+	}
+}
+
+// kCheckOptions checks opt for a layout of nv distinct devices: the
+// levels asked for (kWanted) and the chord tolerance (0: the default).
+func kCheckOptions(opt KOptions, nv int) ([]bool, int, float64, error) {
+	want, K, err := kWanted(opt, nv)
+	if err != nil {
+		return nil, 0, 0, err
+	}
+	if opt.CurveSamples < 0 {
+		return nil, 0, 0, fmt.Errorf("%d curve samples", opt.CurveSamples)
+	}
+	tol := opt.ChordTolerance
+	if tol == 0 {
+		tol = DefaultChordTolerance
+	}
+	if !(tol > 0) || math.IsInf(tol, 0) {
+		return nil, 0, 0, fmt.Errorf("chord tolerance %v must be a finite number > 0", opt.ChordTolerance)
+	}
+	return want, K, tol, nil
+}
+
+// kFirstSets returns the order-1 sets: the vertices with a non-empty
+// clipped cell.
+func kFirstSets(l *Layout) []int32 {
+	nv := l.Tri.NumVertices()
+	sets := make([]int32, 0, nv)
+	for v := int32(0); v < int32(nv); v++ {
+		if l.Cells.SiteStart[v] < l.Cells.SiteStart[v+1] {
+			sets = append(sets, v)
+		}
+	}
+	return sets
 }
 
 // kLevelOne is level 1 from the layout's own figures.
@@ -248,15 +297,23 @@ func kLevelOne(l *Layout, r float64) KLevel {
 		lv.CoverPoint = fc.Worst[0]
 		lv.CoverSites = []int{fc.WorstSites[0]}
 	}
+	lv.Cells, lv.PieceArea = kCellCount(l)
+	lv.Pieces = lv.Cells
+	return lv
+}
+
+// kCellCount returns the number of non-empty clipped cells of the layout
+// and the sum of their areas.
+func kCellCount(l *Layout) (int, float64) {
+	n, a := 0, 0.0
 	nv := l.Tri.NumVertices()
 	for v := 0; v < nv; v++ {
 		if l.Cells.SiteStart[v] < l.Cells.SiteStart[v+1] {
-			lv.Cells++
+			n++
 		}
-		lv.PieceArea += l.Cells.Area[v]
+		a += l.Cells.Area[v]
 	}
-	lv.Pieces = lv.Cells
-	return lv
+	return n, a
 }
 
 // Level returns the computed level k, nil when k was not asked for.
@@ -305,9 +362,16 @@ func kWanted(opt KOptions, nv int) ([]bool, int, error) {
 // SharesAt returns the share of the area reached by at least k devices at
 // each of the ranges, each exact (the sum over the pieces of the piece ∩
 // disk areas). It needs the pieces kept by KCover (CurveSamples > 0 or
-// Gaps); k = 1 uses the layout's coverage curve.
+// Gaps); k = 1 uses the layout's coverage curve. With own ranges (not all
+// equal) there is no common range: NaN.
 func (kc *KCoverage) SharesAt(l *Layout, k int, ranges []float64) []float64 {
 	out := make([]float64, len(ranges))
+	if kc.dev != nil {
+		for i := range out {
+			out[i] = math.NaN()
+		}
+		return out
+	}
 	if k == 1 {
 		cv := l.Curve()
 		for i, r := range ranges {
@@ -436,24 +500,38 @@ func kLevelBuild(l *Layout, g *kGraph, k int, sets []int32, r float64, keep, wan
 			kSetPieces(l, g, sets[i*m:(i+1)*m], r, keep, sc, ch)
 		}
 	})
-	lv := KLevel{K: k, CoverRange: -1}
-	var next []int32
-	var farSet []int32
+	lv := KLevel{K: k}
+	far, farSet, next := kMergeChunks(l, &lv, chunks, keep)
+	lv.CoverRange = max(0, far)
+	lv.CoverSites = kNearestFirst(l, farSet, lv.CoverPoint)
+	next = kUniqueSets(next, k, l.Tri.NumVertices())
+	lv.Cells = len(next) / k
+	if !wantNext {
+		next = nil
+	}
+	return lv, next
+}
+
+// kMergeChunks adds the chunks' areas, pieces and (with keep) stores to
+// lv in chunk order, clamps the covered area to the site's and sets the
+// share; it returns the largest of the chunks' far measures (−Inf with no
+// chunk) with its point in lv.CoverPoint and its devices, and the next
+// level's sets of every chunk concatenated.
+func kMergeChunks(l *Layout, lv *KLevel, chunks []kChunk, keep bool) (far float64, farSet, next []int32) {
+	far = math.Inf(-1)
+	nn := 0
 	for ci := range chunks {
 		ch := &chunks[ci]
 		lv.CoveredArea += ch.covered
 		lv.PieceArea += ch.pieceArea
 		lv.Pieces += ch.pieces
-		if ch.far > lv.CoverRange {
-			lv.CoverRange, lv.CoverPoint, farSet = ch.far, orb.Point{ch.fx, ch.fy}, ch.farSet
+		if ch.far > far {
+			far, lv.CoverPoint, farSet = ch.far, orb.Point{ch.fx, ch.fy}, ch.farSet
 		}
 		if keep {
 			lv.store = append(lv.store, ch.store)
 		}
-	}
-	nn := 0
-	for ci := range chunks {
-		nn += len(chunks[ci].next)
+		nn += len(ch.next)
 	}
 	next = make([]int32, 0, nn)
 	for ci := range chunks {
@@ -462,16 +540,7 @@ func kLevelBuild(l *Layout, g *kGraph, k int, sets []int32, r float64, keep, wan
 	}
 	lv.CoveredArea = min(l.AreaM2, max(0, lv.CoveredArea))
 	lv.Share = lv.CoveredArea / l.AreaM2
-	if lv.CoverRange < 0 {
-		lv.CoverRange = 0
-	}
-	lv.CoverSites = kNearestFirst(l, farSet, lv.CoverPoint)
-	next = kUniqueSets(next, k, l.Tri.NumVertices())
-	lv.Cells = len(next) / k
-	if !wantNext {
-		next = nil
-	}
-	return lv, next
+	return far, farSet, next
 }
 
 // kLevelEnumerate returns the order-k sets (ascending tuples, sorted,
@@ -723,7 +792,9 @@ func kTakePieces(t *planar.Triangulation, S []int32, v int32, keep bool, sc *kSc
 			ch.farSet = append(append(ch.farSet[:0], S...), nb[p.cand])
 		}
 		if keep {
-			kKeep(t, ch.store, &sc.split.kept, pi, v, S, nb[p.cand], p)
+			q := nb[p.cand]
+			kept := &sc.split.kept
+			kKeep(ch.store, kept, 0, kept.NumRings(), int32(pi), v, S, q, t.Coords[2*q], t.Coords[2*q+1], p)
 		}
 	}
 }
@@ -764,12 +835,12 @@ func kRestrict(t *planar.Triangulation, cell *planar.ClipRings, S []int32, v int
 	return cur
 }
 
-// kKeep stores sub-piece pi of kept (base vertex v, devices S and q).
-func kKeep(t *planar.Triangulation, st *kStore, kept *planar.ClipRings, pi int, v int32, S []int32, q int32, p kPiece) {
-	qx, qy := t.Coords[2*q], t.Coords[2*q+1]
+// kKeep stores a sub-piece (base vertex v, devices S and q at (qx, qy)):
+// the rings j0 … j1−1 of kept labelled label (label < 0: all of them).
+func kKeep(st *kStore, kept *planar.ClipRings, j0, j1 int, label int32, v int32, S []int32, q int32, qx, qy float64, p kPiece) {
 	near := math.Inf(1)
-	for j := 0; j < kept.NumRings(); j++ {
-		if kept.Label[j] != int32(pi) {
+	for j := j0; j < j1; j++ {
+		if label >= 0 && kept.Label[j] != label {
 			continue
 		}
 		ring := kept.Ring(j)

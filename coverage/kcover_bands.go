@@ -20,6 +20,16 @@
 // plus any k-gap part whose chord outline the overlay refuses even after
 // repair (see kgUnionSimple; none in the tests): it is left out, and its
 // area goes to the next band.
+//
+// Near-degenerate overlays. Where a k-gap's chord outline and the one of
+// the level below run within a few ulps of each other (arcs of one circle
+// traced by two constructions, as with own ranges, whose level 1 comes
+// from the power-cell gaps), the exact overlay may refuse its operands
+// (planar.NearDegenerateError). The overlay is then retried with both
+// operands snapped to a coarser grid, KBandSnapBits[i] bits below the
+// largest coordinate magnitude (kgCleanRing: exact power-of-two snapping,
+// spikes and repeats removed); a vertex moves by at most that step, far
+// below the chord sagitta, so the outlines stay within the bound above.
 
 package coverage
 
@@ -39,6 +49,12 @@ import (
 // edges in coordinates of up to 1e6 m this stays far below 1e-9 of the
 // area.
 const KBandAreaRel = 1e-9
+
+// KBandSnapBits are the snapping grids of the overlay retries (see the
+// file comment): 2^−32 and 2^−24 of the largest coordinate magnitude
+// (2e-7 and 6e-5 m at 1000 m), coarse enough to merge vertices a few ulps
+// apart, fine against the chord sagitta (DefaultChordTolerance).
+var KBandSnapBits = [...]int{32, 24}
 
 // KBand is the part of the site area reached by exactly Devices devices
 // at the planned range (Devices or more for the last band).
@@ -87,7 +103,7 @@ func (kc *KCoverage) Bands(l *Layout) ([]KBand, error) {
 		if err != nil {
 			return nil, fmt.Errorf("coverage: Bands: k = %d: %w", k, err)
 		}
-		band, err := planar.Difference(u, prev)
+		band, err := kbOverlay(planar.Difference, u, prev)
 		if err != nil {
 			return nil, fmt.Errorf("coverage: Bands: k = %d: %w", k, err)
 		}
@@ -98,7 +114,7 @@ func (kc *KCoverage) Bands(l *Layout) ([]KBand, error) {
 		bands = append(bands, kbBand(kc, k-1, false, hi-kc.Levels[k-1].CoveredArea, band))
 		prev = u
 	}
-	top, err := planar.Difference(site, prev)
+	top, err := kbOverlay(planar.Difference, site, prev)
 	if err != nil {
 		return nil, fmt.Errorf("coverage: Bands: K or more: %w", err)
 	}
@@ -120,5 +136,33 @@ func kbUnion(mp, site orb.MultiPolygon) (orb.MultiPolygon, error) {
 	if err != nil {
 		return nil, err
 	}
-	return planar.Intersection(u, site)
+	return kbOverlay(planar.Intersection, u, site)
+}
+
+// kbOverlay returns op(a, b), retried on operands snapped to the grids of
+// KBandSnapBits when the overlay refuses them as near-degenerate.
+func kbOverlay(op func(a, b orb.MultiPolygon) (orb.MultiPolygon, error), a, b orb.MultiPolygon) (orb.MultiPolygon, error) {
+	out, err := op(a, b)
+	var nd *planar.NearDegenerateError
+	for _, bits := range KBandSnapBits {
+		if err == nil || !errors.As(err, &nd) {
+			break
+		}
+		_, e := math.Frexp(max(kgMaxAbs(a), kgMaxAbs(b)))
+		step := math.Ldexp(1, e-bits)
+		out, err = op(kbSnap(a, step), kbSnap(b, step))
+	}
+	return out, err
+}
+
+// kbSnap returns mp with every polygon cleaned on the grid of the step
+// (kgCleanPolygon); polygons that vanish are dropped.
+func kbSnap(mp orb.MultiPolygon, step float64) orb.MultiPolygon {
+	out := make(orb.MultiPolygon, 0, len(mp))
+	for _, pg := range mp {
+		if q := kgCleanPolygon(pg, step); q != nil {
+			out = append(out, q)
+		}
+	}
+	return out
 }

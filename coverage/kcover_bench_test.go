@@ -2,7 +2,8 @@
 // and 4 up to 100 000, on uniform and grid layouts (the layout, i.e. the
 // triangulation and the clipped order-1 cells, is built before the timer
 // starts; BenchmarkAnalyze times it). Only level k is reported; the levels
-// below it are enumerated.
+// below it are enumerated. And of KCoverRanges (kcover_power.go), k = 2
+// and 3 up to 100 000 devices of their own ranges.
 
 package coverage
 
@@ -59,4 +60,31 @@ func kBenchCPU() float64 {
 		return 0
 	}
 	return float64(ru.Utime.Nano()+ru.Stime.Nano()) / 1e9
+}
+
+// BenchmarkKCoverRanges times KCoverRanges (kcover_power.go) on devices of
+// four ranges (benchDevices: some hidden), k = 2 and 3, levels below built
+// in full; the layout is built before the timer starts.
+func BenchmarkKCoverRanges(b *testing.B) {
+	for _, k := range []int{2, 3} {
+		for _, n := range []int{10_000, 100_000} {
+			b.Run(fmt.Sprintf("k%d/uniform-%d", k, n), func(b *testing.B) {
+				sites, ranges := benchDevices(n)
+				l, err := NewLayoutRanges(sites, ranges, benchArea(b, sites, 50))
+				if err != nil {
+					b.Fatal(err)
+				}
+				var kc *KCoverage
+				cpu0 := kBenchCPU()
+				benchMemory(b, n, "device", func() {
+					if kc, err = KCoverRanges(l, KOptions{Levels: []int{k}}); err != nil {
+						b.Fatal(err)
+					}
+				})
+				b.ReportMetric((kBenchCPU()-cpu0)/float64(b.N), "cpu-s/op")
+				b.ReportMetric(float64(kc.Levels[0].Cells)/float64(n), "cells/site")
+				b.ReportMetric(float64(len(l.Hidden)), "hidden")
+			})
+		}
+	}
 }

@@ -84,18 +84,25 @@ const KGapArcTie = 1e-9
 // KGap is one connected part of the site area reached by fewer than k
 // devices at the planned range.
 type KGap struct {
-	// ID numbers the gaps of one k from 1, by decreasing ClosingRange,
-	// then decreasing Area.
+	// ID numbers the gaps of one k from 1, by decreasing ClosingRange
+	// (with own ranges: decreasing ClosingPower), then decreasing Area.
 	ID int
 	// Area is the gap's area (m²).
 	Area float64
 	// Deepest is the spot of the gap that needs the most range.
 	Deepest orb.Point
 	// ClosingRange is the k-th nearest distance at Deepest: the common
-	// range at which the gap vanishes.
+	// range at which the gap vanishes. With own ranges it is the distance
+	// from Deepest to its k-th device (smallest power first), and the
+	// figure to plan with is ClosingPower.
 	ClosingRange float64
+	// ClosingPower is set with own ranges (KCoverRanges): the largest
+	// k-th smallest power over the gap (m², at Deepest); the gap vanishes
+	// when every range grows to √(r_i² + ClosingPower).
+	ClosingPower float64
 	// Sites are the input indices of the k devices nearest Deepest,
-	// nearest first.
+	// nearest first (with own ranges: the k of smallest power there,
+	// smallest first).
 	Sites []int
 	// Outline is the gap as polygons, arcs replaced by chords: for k ≥ 2
 	// the union of its parts (one polygon per connected part, with its
@@ -109,6 +116,7 @@ type kgPart struct {
 	piece   int32 // global piece index
 	area    float64
 	far     float64
+	pow     float64 // far² − r²: the largest k-th power over the part
 	fx, fy  float64
 	outline orb.Polygon
 }
@@ -134,6 +142,9 @@ func (kc *KCoverage) gaps(l *Layout, li int, tol float64) []KGap {
 	r := kc.Range
 	k := lv.K
 	if k == 1 {
+		if kc.dev != nil {
+			return kc.dev.levelOneGaps(l, tol)
+		}
 		return kGapsFromLayout(l, r, tol)
 	}
 	// Global piece numbering and the lookup by (v, S, q).
@@ -143,7 +154,7 @@ func (kc *KCoverage) gaps(l *Layout, li int, tol float64) []KGap {
 	var kb strings.Builder
 	for si, st := range lv.store {
 		for i := range st.v {
-			if st.far[i] <= r {
+			if _, _, rq := kc.dev.at(l, st.set[i*k+k-1], r); st.far[i] <= rq {
 				continue
 			}
 			index[kgKey(&kb, st.v[i], st.set[i*k:i*k+k])] = int32(len(pieces))
@@ -158,7 +169,7 @@ func (kc *KCoverage) gaps(l *Layout, li int, tol float64) []KGap {
 	planar.ParallelFor(len(pieces), 64, func(lo, hi int) {
 		for p := lo; p < hi; p++ {
 			st, i := lv.store[pieces[p].st], int(pieces[p].i)
-			parts[p], segs[p] = kgPieceParts(l, st, i, int32(p), r, tol)
+			parts[p], segs[p] = kgPieceParts(l, kc.dev, st, i, int32(p), r, tol)
 		}
 	})
 	// Parts numbered globally; joins across chain edges.
@@ -172,7 +183,7 @@ func (kc *KCoverage) gaps(l *Layout, li int, tol float64) []KGap {
 		sg := segs[p]
 		for j := 0; j+4 < len(sg); j += 5 {
 			q := lv.store[pieces[p].st].set[int(pieces[p].i)*k+k-1]
-			qx, qy := l.site(q)
+			qx, qy, rq := kc.dev.at(l, q, r)
 			ax, ay, bx, by := sg[j], sg[j+1], sg[j+2], sg[j+3]
 			mx, my := (ax+bx)/2, (ay+by)/2
 			dx, dy := bx-ax, by-ay
@@ -180,12 +191,17 @@ func (kc *KCoverage) gaps(l *Layout, li int, tol float64) []KGap {
 			if ln == 0 {
 				continue
 			}
-			step := KGapProbe * (math.Hypot(mx-qx, my-qy) + r)
+			step := KGapProbe * (math.Hypot(mx-qx, my-qy) + rq)
 			px, py := mx+dy/ln*step, my-dx/ln*step // right of a→b: outside the piece
 			if !l.Area.Contains(px, py) {
 				continue
 			}
-			ord := nn.kNearest(l, px, py, k)
+			var ord []int32
+			if kc.dev != nil {
+				ord = kc.dev.kSmallest(px, py, k, &nn)
+			} else {
+				ord = nn.kNearest(l, px, py, k)
+			}
 			if len(ord) < k {
 				continue
 			}
@@ -221,14 +237,17 @@ func (kc *KCoverage) gaps(l *Layout, li int, tol float64) []KGap {
 			if !ok {
 				gi = len(out)
 				byRoot[root] = gi
-				out = append(out, KGap{ClosingRange: -1})
+				out = append(out, KGap{ClosingRange: -1, ClosingPower: math.Inf(-1)})
 			}
 			g := &out[gi]
 			g.Area += pt.area
-			if pt.far > g.ClosingRange {
+			if kc.dev == nil && pt.far > g.ClosingRange || kc.dev != nil && pt.pow > g.ClosingPower {
 				g.ClosingRange, g.Deepest = pt.far, orb.Point{pt.fx, pt.fy}
 				st, i := lv.store[pieces[p].st], int(pieces[p].i)
-				g.Sites = kNearestFirst(l, st.set[i*k:i*k+k], g.Deepest)
+				g.Sites = kc.nearestFirst(l, st.set[i*k:i*k+k], g.Deepest)
+				if kc.dev != nil {
+					g.ClosingPower = pt.pow
+				}
 			}
 			if len(pt.outline) > 0 {
 				g.Outline = append(g.Outline, pt.outline)
@@ -237,7 +256,15 @@ func (kc *KCoverage) gaps(l *Layout, li int, tol float64) []KGap {
 	}
 	// Parts of zero area (a chain grazing the circle) make no gap.
 	out = slices.DeleteFunc(out, func(g KGap) bool { return !(g.Area > 0) })
+	for i := range out {
+		if kc.dev == nil {
+			out[i].ClosingPower = 0
+		}
+	}
 	slices.SortFunc(out, func(a, b KGap) int {
+		if c := cmp.Compare(b.ClosingPower, a.ClosingPower); c != 0 {
+			return c
+		}
 		if c := cmp.Compare(b.ClosingRange, a.ClosingRange); c != 0 {
 			return c
 		}
@@ -278,10 +305,10 @@ func kgKey(b *strings.Builder, v int32, set []int32) string {
 // kgPieceParts traces the parts of piece i of st outside D(q, r) (see the
 // file comment) and returns them with their chain edges (ax, ay, bx, by,
 // part index; only edges with a part outside the disk).
-func kgPieceParts(l *Layout, st *kStore, i int, gid int32, r, tol float64) ([]kgPart, []float64) {
+func kgPieceParts(l *Layout, dv *kDevs, st *kStore, i int, gid int32, r, tol float64) ([]kgPart, []float64) {
 	k := st.k
 	q := st.set[i*k+k-1]
-	qx, qy := l.site(q)
+	qx, qy, r := dv.at(l, q, r)
 	k0, k1 := st.pieceRings(i)
 	var chains []kgChain
 	var cross []kgCross
@@ -558,6 +585,7 @@ func kgParts(l *Layout, st *kStore, i int, gid int32, chains []kgChain, loops []
 		if parts[j].far < 0 {
 			parts[j].far, parts[j].fx, parts[j].fy = r, parts[j].outline[0][0][0], parts[j].outline[0][0][1]
 		}
+		parts[j].pow = parts[j].far*parts[j].far - r*r
 	}
 	return parts, segs, true
 }
@@ -581,8 +609,12 @@ func kgRingsHold(st *kStore, i int, x, y float64) bool {
 }
 
 // kgValid returns the test of whether a vertex of piece i is a point of
-// the piece (candidate vertices of a clipped non-convex base cell; see
-// planar/halfplane.go).
+// the piece: as in planMeasures (the piece's farthest vertex, hence the
+// level's cover figure), only the piece's candidate vertices
+// (planar.ProvCandidate) of a clipped non-convex base cell are tested
+// against that cell (planar/halfplane.go); every other vertex is a point
+// of the piece, even where its rounding puts it an ulp outside the cell.
+// Crossings of the circle are never candidates.
 func kgValid(l *Layout, st *kStore, i int) func(x, y float64) bool {
 	v := st.v[i]
 	if v < 0 {
@@ -592,7 +624,24 @@ func kgValid(l *Layout, st *kStore, i int) func(x, y float64) bool {
 	if rs.NumRings() == 1 && planar.RingConvex(rs.Ring(0)) {
 		return func(float64, float64) bool { return true }
 	}
-	return func(x, y float64) bool { return planCellHolds(&rs, x, y) }
+	var cand []float64
+	k0, k1 := st.pieceRings(i)
+	for ri := k0; ri < k1; ri++ {
+		ring, prov := st.rings.Ring(ri), st.rings.RingProv(ri)
+		for j, f := range prov {
+			if f&planar.ProvCandidate != 0 {
+				cand = append(cand, ring[2*j], ring[2*j+1])
+			}
+		}
+	}
+	return func(x, y float64) bool {
+		for j := 0; j+1 < len(cand); j += 2 {
+			if cand[j] == x && cand[j+1] == y {
+				return planCellHolds(&rs, x, y)
+			}
+		}
+		return true
+	}
 }
 
 // kgWholePiece is the fallback: the whole piece as one part (area exact,
@@ -600,7 +649,7 @@ func kgValid(l *Layout, st *kStore, i int) func(x, y float64) bool {
 // chain edge).
 func kgWholePiece(st *kStore, i int, gid int32, qx, qy, r float64) ([]kgPart, []float64) {
 	k0, k1 := st.pieceRings(i)
-	p := kgPart{piece: gid, far: st.far[i], fx: st.fx[i], fy: st.fy[i]}
+	p := kgPart{piece: gid, far: st.far[i], fx: st.fx[i], fy: st.fy[i], pow: st.far[i]*st.far[i] - r*r}
 	var segs []float64
 	disk := 0.0
 	for ri := k0; ri < k1; ri++ {
@@ -625,10 +674,11 @@ func kgWholePiece(st *kStore, i int, gid int32, qx, qy, r float64) ([]kgPart, []
 // kgNearest is scratch space for k-nearest queries by a best-first walk
 // of the Delaunay graph.
 type kgNearest struct {
-	h    kgHeap
-	seen map[int32]bool
-	out  []int32
-	nb   []int32
+	pairs []kByDist // kDevs.kSmallest's scratch
+	h     kgHeap
+	seen  map[int32]bool
+	out   []int32
+	nb    []int32
 }
 
 // kNearest returns the k devices nearest (x, y), nearest first (ties by

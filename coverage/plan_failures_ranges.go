@@ -528,7 +528,7 @@ func (hs *hiddenIndex) appearing(l *Layout, g float64, sc *planPowerScratch) boo
 		r, w := grownWeight(l.InputRanges[i], g)
 		dx := math.Max(0, math.Max(minX-p[0], p[0]-maxX))
 		dy := math.Max(0, math.Max(minY-p[1], p[1]-maxY))
-		if !none && (dx*dx+dy*dy > (w+m)*(1+hiddenSlack) || !hs.wins(p, w, sc)) {
+		if !none && (dx*dx+dy*dy > (w+m)*(1+hiddenSlack) || !sc.beaten(p, w)) {
 			continue
 		}
 		sc.cand = append(sc.cand, planPowerCand{x: p[0], y: p[1], r: r, w: w, site: i})
@@ -537,9 +537,10 @@ func (hs *hiddenIndex) appearing(l *Layout, g float64, sc *planPowerScratch) boo
 	return added
 }
 
-// wins reports whether the device at p of weight w has a smaller power
-// than a piece's owner at some vertex of that piece.
-func (hs *hiddenIndex) wins(p orb.Point, w float64, sc *planPowerScratch) bool {
+// beaten reports whether the device at p of weight w has a smaller power
+// than a piece's owner at some vertex of that piece (of the last
+// powerSplit).
+func (sc *planPowerScratch) beaten(p orb.Point, w float64) bool {
 	for _, pc := range sc.res {
 		for k := pc.ring0; k < pc.ring0+pc.nr; k++ {
 			ring := sc.kept.Ring(k)

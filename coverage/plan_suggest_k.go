@@ -31,6 +31,17 @@
 // devices (closed forms). The cost is nine layouts and level-K analyses
 // per addition and one per pruning test: O(n·K²) each, meant for planning
 // layouts, not millions of devices.
+//
+// Own ranges (ReachAdditionsRanges). With devices of their own ranges and
+// new ones of a given range, the same greedy runs on the K-th smallest
+// power π_(K)(x) = K-th smallest |x − p_i|² − r_i² (kcover_power.go): π_q
+// is convex on the piece (S, q), so the spot needing the most is the
+// piece vertex of largest π_q; a device placed there (of range r) has
+// power −r² there, so π_(K) drops to at most the old (K−1)-th smallest
+// power or −r². Layouts are rebuilt with NewLayoutRanges and measured with
+// KCoverRanges (hidden devices count); every spot is reached by K devices
+// when the K-cover power is at most 0, up to the relative tolerance
+// planRangeTol of the range (power ((1 + planRangeTol)² − 1)·r_max²).
 
 package coverage
 
@@ -52,8 +63,14 @@ type ReachStep struct {
 	// Added is the new device's position.
 	Added orb.Point
 	// CoverRange is the K-cover range with this and the earlier additions
-	// (m); +Inf while fewer than K distinct devices stand.
+	// (m); +Inf while fewer than K distinct devices stand. NaN with own
+	// ranges (ReachAdditionsRanges): see CoverPower.
 	CoverRange float64
+	// CoverPower is set with own ranges: the K-cover power (m², the
+	// largest K-th smallest power over the area; ≤ 0 when every spot is
+	// reached by K devices; +Inf while fewer than K distinct devices
+	// stand).
+	CoverPower float64
 	// Share and CoveredArea are the share and area (m²) reached by at
 	// least K devices at the planned range.
 	Share, CoveredArea float64
@@ -63,8 +80,13 @@ type ReachStep struct {
 type ReachSuggestion struct {
 	// K is the number of devices every spot must be reached by.
 	K int
-	// Range is the planned range (m).
+	// Range is the planned range (m); with own ranges the new devices'
+	// range.
 	Range float64
+	// OwnRanges is set by ReachAdditionsRanges: the K-cover figures are
+	// the powers CoverPowerBefore and CoverPowerAfter (and each step's
+	// CoverPower), the CoverRange fields NaN.
+	OwnRanges bool
 	// Existing is the number of existing devices.
 	Existing int
 	// Added are the new devices' positions, in the order they were
@@ -74,8 +96,11 @@ type ReachSuggestion struct {
 	Steps []ReachStep
 	// CoverRangeBefore and CoverRangeAfter are the K-cover ranges of the
 	// layout alone and with every addition (+Inf with fewer than K
-	// distinct devices).
+	// distinct devices; NaN with own ranges).
 	CoverRangeBefore, CoverRangeAfter float64
+	// CoverPowerBefore and CoverPowerAfter are set with own ranges: the
+	// K-cover powers (m²) before and after.
+	CoverPowerBefore, CoverPowerAfter float64
 	// ShareBefore and ShareAfter are the shares reached by at least K
 	// devices at Range; CoveredBefore and CoveredAfter the areas (m²).
 	ShareBefore, ShareAfter     float64
@@ -86,42 +111,95 @@ type ReachSuggestion struct {
 	Pruned int
 }
 
-// reachState is the K-coverage of one layout: the K-cover range (+Inf
-// with fewer than K distinct devices), the share and area reached by K,
-// and where the next device goes (reachNext).
+// reachState is the K-coverage of one layout: the K-cover figure rng (the
+// range, or with own ranges the power; +Inf with fewer than K distinct
+// devices), the share and area reached by K, and where the next device
+// goes (reachNext).
 type reachState struct {
 	rng, share, area float64
 	next             orb.Point
 	ok               bool // next is set
 }
 
-// reachMeasure computes the reachState of the sites.
+// reachModel is what ReachAdditions measures: devices of one common range
+// r, or (ranges set) devices of their own ranges plus new ones of range r.
+type reachModel struct {
+	r      float64
+	ranges []float64 // the existing devices' own ranges (nil: one common range)
+	target float64   // the largest K-cover figure that counts as reached
+}
+
+// reachMeasure computes the reachState of the sites at the common range r.
 func reachMeasure(sites []orb.Point, l0 *Layout, K int, r float64) (reachState, error) {
-	l, err := NewLayout(sites, l0.Area)
-	if err != nil {
-		return reachState{}, err
-	}
-	k := min(K, l.Tri.NumVertices())
-	kc, err := KCover(l, r, KOptions{Levels: []int{k}, keepPieces: true})
+	return (&reachModel{r: r}).measure(sites, l0, K)
+}
+
+// measure computes the reachState of the sites (the existing devices
+// first, then the additions).
+func (m *reachModel) measure(sites []orb.Point, l0 *Layout, K int) (reachState, error) {
+	l, kc, k, err := m.cover(sites, l0, K)
 	if err != nil {
 		return reachState{}, err
 	}
 	lv := &kc.Levels[0]
 	st := reachState{rng: lv.CoverRange, share: lv.Share, area: lv.CoveredArea}
+	if m.ranges != nil {
+		st.rng = lv.CoverPower
+	}
 	if k < K {
 		st = reachState{rng: math.Inf(1)}
 	}
-	st.next, st.ok = reachNext(l, lv)
+	st.next, st.ok = reachNext(l, kc, lv)
 	return st, nil
 }
 
+// cover builds the layout of the sites (NewLayout; with own ranges
+// NewLayoutRanges, the existing devices' ranges then r for every
+// addition) and its level k = min(K, distinct devices) with the pieces
+// kept (KCover, KCoverRanges).
+func (m *reachModel) cover(sites []orb.Point, l0 *Layout, K int) (*Layout, *KCoverage, int, error) {
+	if m.ranges == nil {
+		l, err := NewLayout(sites, l0.Area)
+		if err != nil {
+			return nil, nil, 0, err
+		}
+		k := min(K, l.Tri.NumVertices())
+		kc, err := KCover(l, m.r, KOptions{Levels: []int{k}, keepPieces: true})
+		return l, kc, k, err
+	}
+	rs := append([]float64(nil), m.ranges...)
+	for len(rs) < len(sites) {
+		rs = append(rs, m.r)
+	}
+	l, err := NewLayoutRanges(sites, rs, l0.Area)
+	if err != nil {
+		return nil, nil, 0, err
+	}
+	distinct := map[orb.Point]bool{}
+	for _, p := range sites {
+		distinct[p] = true
+	}
+	k := min(K, len(distinct))
+	kc, err := KCoverRanges(l, KOptions{Levels: []int{k}, keepPieces: true})
+	return l, kc, k, err
+}
+
+// step returns the figures of one addition at p with state st.
+func (m *reachModel) step(p orb.Point, st reachState) ReachStep {
+	if m.ranges != nil {
+		return ReachStep{Added: p, CoverRange: math.NaN(), CoverPower: st.rng, Share: st.share, CoveredArea: st.area}
+	}
+	return ReachStep{Added: p, CoverRange: st.rng, Share: st.share, CoveredArea: st.area}
+}
+
 // reachNext returns the spot for the next device: the vertex of a clipped
-// order-k piece farthest from its k-th nearest device (each piece's
-// farthest vertex), skipping vertices where a device stands already (a
+// order-k piece where the k-th device is needed most (each piece's
+// farthest vertex from its k-th device; with own ranges the largest power
+// with respect to it), skipping vertices where a device stands already (a
 // device there counts once: it would change nothing); for k = 1 the
 // full-cover worst point (never a device). False when every such vertex
 // holds a device.
-func reachNext(l *Layout, lv *KLevel) (orb.Point, bool) {
+func reachNext(l *Layout, kc *KCoverage, lv *KLevel) (orb.Point, bool) {
 	if lv.K == 1 {
 		return lv.CoverPoint, true
 	}
@@ -129,12 +207,16 @@ func reachNext(l *Layout, lv *KLevel) (orb.Point, bool) {
 	for _, p := range l.Sites {
 		taken[p] = true
 	}
-	best, far, ok := orb.Point{}, -1.0, false
+	best, far, ok := orb.Point{}, math.Inf(-1), false
 	for _, st := range lv.store {
 		for i := range st.far {
 			p := orb.Point{st.fx[i], st.fy[i]}
-			if st.far[i] > far && !taken[p] {
-				best, far, ok = p, st.far[i], true
+			f := st.far[i]
+			if kc.dev != nil {
+				f = f*f - kc.dev.w[st.set[i*st.k+st.k-1]]
+			}
+			if f > far && !taken[p] {
+				best, far, ok = p, f, true
 			}
 		}
 	}
@@ -143,21 +225,22 @@ func reachNext(l *Layout, lv *KLevel) (orb.Point, bool) {
 
 // reachPull is the distance, relative to r, from the spot needing the
 // most range at which the other candidate positions of a new device lie
-// (reachPlace): within r, so the spot is reached by the new device, and
+// (reachModel.place): within r, so the spot is reached by the new device, and
 // far enough to reach into the area around it rather than past its edge.
 const reachPull = 0.9
 
 // reachDirections is the number of candidate directions around the spot.
 const reachDirections = 8
 
-// reachPlace chooses the position of the next device for the spot p: p
+// place chooses the position of the next device for the spot p: p
 // itself or one of reachDirections points at reachPull·r from p (inside
 // the area, not on a device), whichever gives the largest area reached by
 // K devices (exact; p on a tie or while fewer than K devices stand), and
 // returns it with the layout's state after it.
-func reachPlace(sites []orb.Point, l *Layout, K int, r float64, p orb.Point) (orb.Point, reachState, error) {
+func (m *reachModel) place(sites []orb.Point, l *Layout, K int, p orb.Point) (orb.Point, reachState, error) {
+	r := m.r
 	try := append(append([]orb.Point(nil), sites...), p)
-	best, err := reachMeasure(try, l, K, r)
+	best, err := m.measure(try, l, K)
 	if err != nil || math.IsInf(best.rng, 1) {
 		return p, best, err
 	}
@@ -173,7 +256,7 @@ func reachPlace(sites []orb.Point, l *Layout, K int, r float64, p orb.Point) (or
 			continue
 		}
 		try[len(try)-1] = c
-		st, err := reachMeasure(try, l, K, r)
+		st, err := m.measure(try, l, K)
 		if err != nil {
 			return p, best, err
 		}
@@ -195,73 +278,125 @@ func reachPlace(sites []orb.Point, l *Layout, K int, r float64, p orb.Point) (or
 // Suggestions are planning aids, exact for the disk model only.
 func ReachAdditions(l *Layout, K int, r float64, opt SuggestOptions) (*ReachSuggestion, error) {
 	const where = "coverage: ReachAdditions"
-	if err := planCheckLayout(l); err != nil {
+	if err := reachCheck(l, K, r); err != nil {
 		return nil, fmt.Errorf("%s: %w", where, err)
 	}
+	return reachAdd(l, K, opt, &reachModel{r: r, target: r * (1 + planRangeTol)}, where)
+}
+
+// ReachAdditionsRanges is ReachAdditions for a layout with per-device
+// ranges (NewLayoutRanges): new devices of range newRange are added until
+// every spot is reached by at least K devices at the planned ranges (the
+// K-th smallest power is at most 0 everywhere; hidden devices count), with
+// the exact figures (powers; see the file comment) after each addition.
+// The suggestion has OwnRanges set.
+func ReachAdditionsRanges(l *Layout, K int, newRange float64, opt SuggestOptions) (*ReachSuggestion, error) {
+	const where = "coverage: ReachAdditionsRanges"
+	if err := reachCheck(l, K, newRange); err != nil {
+		return nil, fmt.Errorf("%s: %w", where, err)
+	}
+	if !l.weighted() {
+		return nil, fmt.Errorf("%s: the layout has one common range (use ReachAdditions)", where)
+	}
+	wmax := newRange * newRange
+	for _, r := range l.InputRanges {
+		wmax = math.Max(wmax, r*r)
+	}
+	m := &reachModel{r: newRange, ranges: l.InputRanges, target: ((1+planRangeTol)*(1+planRangeTol) - 1) * wmax}
+	return reachAdd(l, K, opt, m, where)
+}
+
+// reachCheck checks the layout, K and the range of ReachAdditions.
+func reachCheck(l *Layout, K int, r float64) error {
+	if err := planCheckLayout(l); err != nil {
+		return err
+	}
 	if K < 1 {
-		return nil, fmt.Errorf("%s: k = %d must be at least 1", where, K)
+		return fmt.Errorf("k = %d must be at least 1", K)
 	}
 	if math.IsNaN(r) || math.IsInf(r, 0) || r <= 0 {
-		return nil, fmt.Errorf("%s: range %v must be a finite number > 0", where, r)
+		return fmt.Errorf("range %v must be a finite number > 0", r)
 	}
+	return nil
+}
+
+// reachAdd is the greedy of the file comment for the model m.
+func reachAdd(l *Layout, K int, opt SuggestOptions, m *reachModel, where string) (*ReachSuggestion, error) {
+	r := m.r
 	limit := opt.MaxAdditions
 	if limit <= 0 {
 		limit = K * (8*int(math.Ceil(l.AreaM2/(1.5*math.Sqrt(3)*r*r))) + 64)
 	}
-	target := r * (1 + planRangeTol)
 	sites := append([]orb.Point(nil), l.Sites...)
-	st, err := reachMeasure(sites, l, K, r)
+	st, err := m.measure(sites, l, K)
 	if err != nil {
 		return nil, fmt.Errorf("%s: %w", where, err)
 	}
-	s := &ReachSuggestion{K: K, Range: r, Existing: len(l.Sites),
-		CoverRangeBefore: st.rng, ShareBefore: st.share, CoveredBefore: st.area}
-	for st.rng > target {
+	s := &ReachSuggestion{K: K, Range: r, Existing: len(l.Sites), OwnRanges: m.ranges != nil}
+	m.setBefore(s, st)
+	for st.rng > m.target {
 		if len(s.Added) >= limit {
-			reachFinish(s, st, target)
+			m.finish(s, st)
 			return s, fmt.Errorf("%s: %d additions: %w", where, limit, ErrReachCap)
 		}
 		if !st.ok {
 			return nil, fmt.Errorf("%s: every spot needing more range holds a device already", where)
 		}
 		var p orb.Point
-		if p, st, err = reachPlace(sites, l, K, r, st.next); err != nil {
+		if p, st, err = m.place(sites, l, K, st.next); err != nil {
 			return nil, fmt.Errorf("%s: %w", where, err)
 		}
 		sites = append(sites, p)
 		s.Added = append(s.Added, p)
-		s.Steps = append(s.Steps, ReachStep{Added: p, CoverRange: st.rng, Share: st.share, CoveredArea: st.area})
+		s.Steps = append(s.Steps, m.step(p, st))
 	}
-	if err := reachPrune(s, l, target); err != nil {
+	if err := m.prune(s, l); err != nil {
 		return nil, fmt.Errorf("%s: %w", where, err)
 	}
 	last := reachState{rng: s.CoverRangeBefore, share: s.ShareBefore, area: s.CoveredBefore}
+	if m.ranges != nil {
+		last.rng = s.CoverPowerBefore
+	}
 	if n := len(s.Steps); n > 0 {
 		t := s.Steps[n-1]
 		last = reachState{rng: t.CoverRange, share: t.Share, area: t.CoveredArea}
+		if m.ranges != nil {
+			last.rng = t.CoverPower
+		}
 	}
-	reachFinish(s, last, target)
+	m.finish(s, last)
 	return s, nil
 }
 
-// reachFinish sets the after figures from the last state.
-func reachFinish(s *ReachSuggestion, st reachState, target float64) {
-	s.CoverRangeAfter, s.ShareAfter, s.CoveredAfter = st.rng, st.share, st.area
-	s.Reached = st.rng <= target
+// setBefore sets the before figures from the layout's state.
+func (m *reachModel) setBefore(s *ReachSuggestion, st reachState) {
+	s.CoverRangeBefore, s.ShareBefore, s.CoveredBefore = st.rng, st.share, st.area
+	if m.ranges != nil {
+		s.CoverRangeBefore, s.CoverPowerBefore = math.NaN(), st.rng
+	}
 }
 
-// reachPrune drops, latest first, every addition whose removal keeps the
-// K-cover range within target, then recomputes the steps of what remains
-// when something was dropped.
-func reachPrune(s *ReachSuggestion, l *Layout, target float64) error {
+// finish sets the after figures from the last state.
+func (m *reachModel) finish(s *ReachSuggestion, st reachState) {
+	s.CoverRangeAfter, s.ShareAfter, s.CoveredAfter = st.rng, st.share, st.area
+	if m.ranges != nil {
+		s.CoverRangeAfter, s.CoverPowerAfter = math.NaN(), st.rng
+	}
+	s.Reached = st.rng <= m.target
+}
+
+// prune drops, latest first, every addition whose removal keeps the
+// K-cover figure within the target, then recomputes the steps of what
+// remains when something was dropped.
+func (m *reachModel) prune(s *ReachSuggestion, l *Layout) error {
 	keep := append([]orb.Point(nil), s.Added...)
 	for i := len(keep) - 1; i >= 0; i-- {
 		try := append(append(append([]orb.Point(nil), l.Sites...), keep[:i]...), keep[i+1:]...)
-		st, err := reachMeasure(try, l, s.K, s.Range)
+		st, err := m.measure(try, l, s.K)
 		if err != nil {
 			return err
 		}
-		if st.rng <= target {
+		if st.rng <= m.target {
 			keep = append(keep[:i], keep[i+1:]...)
 			s.Pruned++
 		}
@@ -273,11 +408,11 @@ func reachPrune(s *ReachSuggestion, l *Layout, target float64) error {
 	sites := append([]orb.Point(nil), l.Sites...)
 	for _, p := range keep {
 		sites = append(sites, p)
-		st, err := reachMeasure(sites, l, s.K, s.Range)
+		st, err := m.measure(sites, l, s.K)
 		if err != nil {
 			return err
 		}
-		s.Steps = append(s.Steps, ReachStep{Added: p, CoverRange: st.rng, Share: st.share, CoveredArea: st.area})
+		s.Steps = append(s.Steps, m.step(p, st))
 	}
 	return nil
 }

@@ -123,6 +123,8 @@ type RangesDoc struct {
 	Coordinates     string       `json:"coordinates"`
 	Warnings        []string     `json:"warnings"`
 	Timings         Timings      `json:"timings"`
+	// Reach is the k-coverage (analyze --reach; absent otherwise).
+	Reach *ReachDoc `json:"reach,omitempty"`
 }
 
 // MarshalIndent returns the document as indented JSON.
@@ -152,6 +154,7 @@ func RangesFiles(m Meta, opt Options) []string {
 	if opt.Charts {
 		f = append(f, FileChartCurve, FileChartHoles)
 	}
+	f = append(f, reachFiles(m, opt)...)
 	f = append(f, gridLayerFiles(m, FileSites, FileServiceAreas, FileGaps)...)
 	return append(f, FileManifest)
 }
@@ -175,8 +178,12 @@ func WriteRangesAnalysis(dir string, a *coverage.RangesAnalysis, m Meta, opt Opt
 	rs := newRangesScene(a, m)
 	rs.files = files
 	steps := []step{
-		{name: FileReport, write: fromBytes(func() ([]byte, error) { return rs.text(), nil })},
-		{name: FileSummary, write: func(out io.Writer) error { return writeDoc(out, rs.summary()) }},
+		{name: FileReport, write: fromBytes(func() ([]byte, error) { return append(rs.text(), rs.reachText(opt.Reach)...), nil })},
+		{name: FileSummary, write: func(out io.Writer) error {
+			d := rs.summary()
+			d.Reach = rs.reachDoc(opt.Reach)
+			return writeDoc(out, d)
+		}},
 		rs.layerStep(FileSites, rs.sitesLayer()),
 		rs.layerStep(FileServiceAreas, rs.serviceAreasLayer()),
 		rs.layerStep(FileGaps, rs.gapsLayer()),
@@ -194,6 +201,7 @@ func WriteRangesAnalysis(dir string, a *coverage.RangesAnalysis, m Meta, opt Opt
 		steps = append(steps, step{name: FileChartCurve, write: fromBytes(func() ([]byte, error) { return rs.curveChartRanges(width) })},
 			step{name: FileChartHoles, write: fromBytes(func() ([]byte, error) { return rs.holeChartRanges(width) })})
 	}
+	steps = append(steps, rs.reachSteps(opt)...)
 	steps = append(steps, rs.gridCopies(func(g *scene) []step {
 		rg := &rangesScene{scene: g, ra: a}
 		return []step{rg.layerStep(FileSites, rg.sitesLayer()), rg.layerStep(FileServiceAreas, rg.serviceAreasLayer()), rg.layerStep(FileGaps, rg.gapsLayer())}

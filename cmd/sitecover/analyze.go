@@ -69,9 +69,6 @@ func runAnalysis(e *env, command string, f *runFlags, in siteinput.Inputs, chart
 	defer pr.end()
 	var out analysisOutput
 	if sc.ranges != nil {
-		if f.reach != "" {
-			return usageErrorf("--reach counts devices at one common range; the sites give their own ranges (devices reached by k with their own ranges is not supported yet)")
-		}
 		out, err = rangesAnalysis(f, sc, pr, in)
 	} else {
 		out, err = commonAnalysis(f, sc, pr, in)

@@ -64,14 +64,15 @@ func (f *runFlags) rangesInputs(cmd *cobra.Command) (siteinput.Inputs, error) {
 	return in, nil
 }
 
-// refuseRanges is the answer of the moves that count devices in reach at
-// one common range (suggest --reach) when the sites carry their own ranges:
-// an input error, never a silent common range.
+// refuseRanges is the answer of the moves that place devices for one
+// common range (suggest --reach) when the sites carry their own ranges: an
+// input error, never a silent common range. (analyze --reach takes own
+// ranges: coverage.KCoverRanges.)
 func refuseRanges(sc *scene, command string, in siteinput.Inputs) error {
 	if sc.ranges == nil {
 		return nil
 	}
-	return inputErrorf("%s: the devices have their own ranges (range column or type table); %s counts devices in reach at one common range: give only --range", in.Sites.Name, command)
+	return inputErrorf("%s: the devices have their own ranges (range column or type table); %s places devices for one common range: give only --range (analyze --reach reports the devices in reach at their own ranges)", in.Sites.Name, command)
 }
 
 // rangesAnalysis runs coverage.AnalyzeRanges for devices with their own
@@ -82,13 +83,27 @@ func rangesAnalysis(f *runFlags, sc *scene, pr *progress, in siteinput.Inputs) (
 	if err != nil {
 		return analysisOutput{}, inputErrorf("%s: %v", inputNames(in), err)
 	}
-	doc := sync.OnceValue(func() *report.RangesDoc { return report.RangesSummary(a, sc.meta) }) // one document for warnings and print
+	kc, err := runReachRanges(pr, f, a.Layout)
+	if err != nil {
+		return analysisOutput{}, err
+	}
+	doc := sync.OnceValue(func() *report.RangesDoc { // one document for warnings and print
+		d := report.RangesSummary(a, sc.meta)
+		if kc != nil {
+			d.Reach = report.ReachSummary(kc, a.Layout, sc.meta)
+		}
+		return d
+	})
 	return analysisOutput{
-		write:    func(opt report.Options) ([]string, error) { return report.WriteRangesAnalysis(f.out, a, sc.meta, opt) },
+		write: func(opt report.Options) ([]string, error) {
+			opt.Reach = kc
+			return report.WriteRangesAnalysis(f.out, a, sc.meta, opt)
+		},
 		warnings: func() []string { return doc().Warnings },
 		print: func(w io.Writer, gapTable bool) {
 			d := doc()
 			printRangesAnalysis(w, d, sc.meta)
+			printReachDoc(w, d.Reach)
 			if gapTable {
 				printRangesGapTable(w, d, sc.meta)
 			}

@@ -43,16 +43,32 @@ func parseReach(s string) ([]int, error) {
 // runReach computes the k-coverage for --reach (nil without it): every k
 // from 1 to the largest listed, so that the map can colour each count.
 func runReach(pr *progress, f *runFlags, a *coverage.Analysis, r float64) (*coverage.KCoverage, error) {
+	return reachLevels(pr, f, a.Layout, func(K int) (*coverage.KCoverage, error) {
+		return coverage.KCover(a.Layout, r, coverage.KOptions{MaxK: K, CurveSamples: reachCurveSamples, Gaps: true})
+	})
+}
+
+// runReachRanges is runReach for devices with their own ranges
+// (coverage.KCoverRanges; hidden devices count, duplicates once).
+func runReachRanges(pr *progress, f *runFlags, l *coverage.Layout) (*coverage.KCoverage, error) {
+	return reachLevels(pr, f, l, func(K int) (*coverage.KCoverage, error) {
+		return coverage.KCoverRanges(l, coverage.KOptions{MaxK: K, CurveSamples: reachCurveSamples, Gaps: true})
+	})
+}
+
+// reachLevels parses --reach and runs compute up to its largest k,
+// turning "k too large" into a usage error.
+func reachLevels(pr *progress, f *runFlags, l *coverage.Layout, compute func(K int) (*coverage.KCoverage, error)) (*coverage.KCoverage, error) {
 	ks, err := parseReach(f.reach)
 	if err != nil || ks == nil {
 		return nil, err
 	}
 	K := slices.Max(ks)
 	pr.set(fmt.Sprintf("k-coverage up to k = %d", K))
-	kc, err := coverage.KCover(a.Layout, r, coverage.KOptions{MaxK: K, CurveSamples: reachCurveSamples, Gaps: true})
+	kc, err := compute(K)
 	if errors.Is(err, coverage.ErrKTooLarge) {
 		return nil, usageErrorf("--reach %s: k = %d but only %d distinct device positions (devices at the same spot count once)",
-			f.reach, K, a.Layout.Tri.NumVertices())
+			f.reach, K, reachDistinct(l))
 	}
 	if err != nil {
 		return nil, inputErrorf("%v", err)
@@ -60,13 +76,33 @@ func runReach(pr *progress, f *runFlags, a *coverage.Analysis, r float64) (*cove
 	return kc, nil
 }
 
+// reachDistinct returns the number of distinct device positions.
+func reachDistinct(l *coverage.Layout) int {
+	seen := make(map[[2]float64]bool, len(l.Sites))
+	for _, p := range l.Sites {
+		seen[[2]float64{p[0], p[1]}] = true
+	}
+	return len(seen)
+}
+
 // printReach prints the k-coverage headline figures.
-func printReach(w io.Writer, d *report.SummaryDoc) {
-	if d.Reach == nil {
+func printReach(w io.Writer, d *report.SummaryDoc) { printReachDoc(w, d.Reach) }
+
+// printReachDoc prints the k-coverage headline figures of a reach
+// document (nil: nothing); with own ranges the ranges each group of
+// devices needs for k devices everywhere.
+func printReachDoc(w io.Writer, d *report.ReachDoc) {
+	if d == nil {
 		return
 	}
-	for _, lv := range d.Reach.Levels {
-		fmt.Fprintf(w, "  %-24s %s %% (k-cover range %s m, %d parts short)\n", fmt.Sprintf("reached by %d+ devices", lv.K),
-			fmtNum(100*lv.CoveredFraction, 2), fmtNum(lv.CoverRangeM, 2), len(lv.Gaps))
+	for _, lv := range d.Levels {
+		name := fmt.Sprintf("reached by %d+ devices", lv.K)
+		if !d.OwnRanges {
+			fmt.Fprintf(w, "  %-24s %s %% (k-cover range %s m, %d parts short)\n", name,
+				fmtNum(100*lv.CoveredFraction, 2), fmtNum(lv.CoverRangeM, 2), len(lv.Gaps))
+			continue
+		}
+		fmt.Fprintf(w, "  %-24s %s %% (%s short; all of it at %s)\n", name,
+			fmtNum(100*lv.CoveredFraction, 2), report.Plural(len(lv.Gaps), "part"), report.ReachNeededText(d.RangeGroups, lv.CoverRanges))
 	}
 }

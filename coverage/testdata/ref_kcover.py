@@ -81,10 +81,17 @@ def scenes(rng):
     return out
 
 
+def radii(sites, r):
+    """One radius per site: r itself when it is a list or array, else r for every site."""
+    if isinstance(r, (list, tuple, np.ndarray)):
+        return list(r)
+    return [r] * len(sites)
+
+
 def disks(sites, r, circumscribed):
     out = []
-    for p in sites:
-        d = Point(p).buffer(r, resolution=RES)
+    for p, rp in zip(sites, radii(sites, r)):
+        d = Point(p).buffer(rp, resolution=RES)
         if circumscribed:
             f = 1 / math.cos(math.pi / NSEG)
             d = affinity.scale(d, xfact=f, yfact=f, origin=Point(p))
@@ -93,10 +100,12 @@ def disks(sites, r, circumscribed):
 
 
 def k_area(poly, sites, r, k, circumscribed):
+    """Area of poly reached by at least k of the disks (r: one radius, or one per site)."""
     ds = disks(sites, r, circumscribed)
-    reach = 2 * r / math.cos(math.pi / NSEG)
+    rs = radii(sites, r)
+    f = 1 / math.cos(math.pi / NSEG)
     n = len(sites)
-    near = [[j for j in range(n) if j != i and math.dist(sites[i], sites[j]) <= reach] for i in range(n)]
+    near = [[j for j in range(n) if j != i and math.dist(sites[i], sites[j]) <= (rs[i] + rs[j]) * f] for i in range(n)]
     parts = []
     for sub in itertools.combinations(range(n), k):
         if any(b not in near[a] for a, b in itertools.combinations(sub, 2)):
@@ -113,6 +122,49 @@ def k_area(poly, sites, r, k, circumscribed):
     return unary_union(parts).intersection(poly).area
 
 
+def mc_points(poly, rng, nmc):
+    """nmc uniform random points of poly (rejection sampling in its bounding box)."""
+    minx, miny, maxx, maxy = poly.bounds
+    mc = []
+    while sum(len(m) for m in mc) < nmc:
+        q = rng.uniform([minx, miny], [maxx, maxy], size=(nmc, 2))
+        mc.append(q[vectorized.contains(poly, q[:, 0], q[:, 1])])
+    return np.vstack(mc)[:nmc]
+
+
+def level_ref(k, vals, sp, reached, poly, sites, r):
+    """The reference values of one k: vals holds the k-th value at each
+    sample point of sp, reached whether each Monte Carlo point is reached by
+    k devices; r the radius (one, or one per site)."""
+    i = int(np.argmax(vals))
+    return dict(
+        k=k,
+        sample_max=float(vals[i]),
+        sample_point=[float(sp[i, 0]), float(sp[i, 1])],
+        mc_share=float(np.mean(reached)),
+        mc_n=int(len(reached)),
+        geos_inscribed=k_area(poly, sites, r, k, False),
+        geos_circumscribed=k_area(poly, sites, r, k, True),
+    )
+
+
+def run(out_name, generator, scenes, scene_ref):
+    """Parses --seed, --out and --small and writes the document of the scenes."""
+    ap = argparse.ArgumentParser()
+    ap.add_argument("--seed", type=int, default=20261203)
+    ap.add_argument("--out", default=os.path.join(os.path.dirname(os.path.abspath(__file__)), out_name))
+    ap.add_argument("--small", action="store_true")
+    a = ap.parse_args()
+    rng = np.random.default_rng(a.seed)
+    doc = dict(
+        generator=generator, seed=a.seed, small=a.small, buffer_segments=NSEG,
+        scenes=[scene_ref(sc, rng, a.small) for sc in scenes(rng)],
+    )
+    with open(a.out, "w") as f:
+        json.dump(doc, f, indent=1)
+        f.write("\n")
+
+
 def scene_ref(sc, rng, small):
     poly = Polygon(sc["exterior"], sc["holes"])
     sites = sorted(set(map(tuple, sc["sites"])))
@@ -120,47 +172,17 @@ def scene_ref(sc, rng, small):
     h = 0.5 if small else 0.2
     sp = samples(poly, h)
     dist, _ = tree.query(sp, k=KMAX)
-    minx, miny, maxx, maxy = poly.bounds
-    nmc = 40000 if small else 200000
-    mc = []
-    while sum(len(m) for m in mc) < nmc:
-        q = rng.uniform([minx, miny], [maxx, maxy], size=(nmc, 2))
-        mc.append(q[vectorized.contains(poly, q[:, 0], q[:, 1])])
-    mc = np.vstack(mc)[:nmc]
+    mc = mc_points(poly, rng, 40000 if small else 200000)
     dmc, _ = tree.query(mc, k=KMAX)
-    levels = []
-    for k in range(1, KMAX + 1):
-        dk = dist[:, k - 1]
-        i = int(np.argmax(dk))
-        levels.append(dict(
-            k=k,
-            sample_max=float(dk[i]),
-            sample_point=[float(sp[i, 0]), float(sp[i, 1])],
-            mc_share=float(np.mean(dmc[:, k - 1] <= sc["range"])),
-            mc_n=int(len(mc)),
-            geos_inscribed=k_area(poly, sites, sc["range"], k, False),
-            geos_circumscribed=k_area(poly, sites, sc["range"], k, True),
-        ))
+    levels = [level_ref(k, dist[:, k - 1], sp, dmc[:, k - 1] <= sc["range"], poly, sites, sc["range"])
+              for k in range(1, KMAX + 1)]
     return dict(name=sc["name"], exterior=sc["exterior"], holes=sc["holes"], sites=sc["sites"],
                 range=sc["range"], sample_spacing=h, levels=levels)
 
 
 def main():
-    ap = argparse.ArgumentParser()
-    ap.add_argument("--seed", type=int, default=20261203)
-    ap.add_argument("--out", default=os.path.join(os.path.dirname(os.path.abspath(__file__)), "kcover_ref.json"))
-    ap.add_argument("--small", action="store_true")
-    a = ap.parse_args()
-    rng = np.random.default_rng(a.seed)
-    doc = dict(
-        generator="ref_kcover.py (scipy %s cKDTree, shapely %s / GEOS %s)" % (
-            scipy.__version__, shapely.__version__, shapely.geos.geos_version_string),
-        seed=a.seed, small=a.small, buffer_segments=NSEG,
-        scenes=[scene_ref(sc, rng, a.small) for sc in scenes(rng)],
-    )
-    with open(a.out, "w") as f:
-        json.dump(doc, f, indent=1)
-        f.write("\n")
+    run("kcover_ref.json", "ref_kcover.py (scipy %s cKDTree, shapely %s / GEOS %s)" % (
+        scipy.__version__, shapely.__version__, shapely.geos.geos_version_string), scenes, scene_ref)
 
 
 if __name__ == "__main__":

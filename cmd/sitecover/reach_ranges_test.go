@@ -1,0 +1,125 @@
+// Tests of analyze --reach with devices of their own ranges
+// (coverage.KCoverRanges): the outputs in metres per group of devices, the
+// first k-gap closing at the k-cover figure, equal ranges giving the
+// common-range answer, and k above the distinct devices (hidden ones
+// included) refused.
+
+package main
+
+import (
+	"encoding/json"
+	"math"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+
+	"github.com/sitecover/sitecover/examplesites"
+	"github.com/sitecover/sitecover/report"
+)
+
+// reachDocOf reads the reach member of the summary.json in dir.
+func reachDocOf(t *testing.T, dir string) *report.ReachDoc {
+	t.Helper()
+	b, err := os.ReadFile(filepath.Join(dir, report.FileSummary))
+	if err != nil {
+		t.Fatal(err)
+	}
+	var doc struct {
+		Reach *report.ReachDoc `json:"reach"`
+	}
+	if err := json.Unmarshal(b, &doc); err != nil || doc.Reach == nil {
+		t.Fatalf("summary.json reach: %v %+v", err, doc.Reach)
+	}
+	return doc.Reach
+}
+
+func TestReachOwnRangesCampus(t *testing.T) {
+	dir := t.TempDir()
+	sites := writeFile(t, dir, "s.geojson", string(examplesites.MixedSitesGeoJSON()))
+	area := writeFile(t, dir, "a.geojson", string(examplesites.AreaGeoJSON()))
+	out := filepath.Join(dir, "out")
+	r := runCLI(t, "analyze", "--sites", sites, "--area", area, "--reach", "3", "--out", out, "--no-maps")
+	if r.code != 0 {
+		t.Fatalf("exit %d: %s", r.code, r.stderr)
+	}
+	d := reachDocOf(t, out)
+	if !d.OwnRanges || len(d.Levels) != 3 || len(d.RangeGroups) != 2 {
+		t.Fatalf("reach: own %v, %d levels, groups %+v", d.OwnRanges, len(d.Levels), d.RangeGroups)
+	}
+	for _, lv := range d.Levels {
+		if lv.CoverPowerM2 == nil || len(lv.CoverRanges) != 2 {
+			t.Fatalf("k = %d: power %v, ranges %+v", lv.K, lv.CoverPowerM2, lv.CoverRanges)
+		}
+		p := *lv.CoverPowerM2
+		for gi, g := range lv.CoverRanges {
+			r0 := d.RangeGroups[gi].RangeM
+			if want := math.Sqrt(r0*r0 + p); math.Abs(g.RangeM-want) > 1e-9*want {
+				t.Errorf("k = %d: %s needs %v m, want √(%v² + %v) = %v", lv.K, g.Type, g.RangeM, r0, p, want)
+			}
+		}
+		// The gap that needs the most closes at the k-cover figure (the
+		// same vertex: gap tracing and the level agree on which vertices
+		// are points of a piece).
+		if len(lv.Gaps) == 0 || lv.Gaps[0].ClosingPowerM2 == nil || math.Abs(*lv.Gaps[0].ClosingPowerM2-p) > 1e-9*math.Abs(p) {
+			t.Errorf("k = %d: first gap %+v, k-cover power %v", lv.K, lv.Gaps, p)
+		}
+	}
+	rep, err := os.ReadFile(filepath.Join(out, report.FileReport))
+	if err != nil || !strings.Contains(string(rep), "each device at its own planned range") || !strings.Contains(string(rep), "gateway (180.00 m) → ") {
+		t.Errorf("report.txt lacks the own-range reach section (%v)", err)
+	}
+	if !strings.Contains(r.stdout, "reached by 3+ devices") || !strings.Contains(r.stdout, "sensor (80.00 m) → ") {
+		t.Errorf("stdout: %s", r.stdout)
+	}
+}
+
+func TestReachOwnRangesPlanar(t *testing.T) {
+	dir := t.TempDir()
+	area := writeFile(t, dir, "a.geojson", `{"type":"Polygon","coordinates":[[[-50,-50],[260,-50],[260,180],[-50,180],[-50,-50]]]}`)
+	mixed := writeFile(t, dir, "mixed.csv", mixedCSV)
+	out := filepath.Join(dir, "out")
+	r := runCLI(t, "analyze", "--planar", "--sites", mixed, "--area", area, "--reach", "2", "--out", out, "--no-maps")
+	if r.code != 0 {
+		t.Fatalf("exit %d: %s", r.code, r.stderr)
+	}
+	// The hidden sensor s3 counts among the devices in reach.
+	if d := reachDocOf(t, out); d.DistinctDevices != 4 {
+		t.Errorf("%d distinct devices, want 4 (the hidden one counts)", d.DistinctDevices)
+	}
+	checkReachBands(t, filepath.Join(out, report.LayerFile(report.FileReach, true)), 2, 3, 310*230)
+	base := []string{"analyze", "--planar", "--sites", mixed, "--area", area, "--out", filepath.Join(dir, "o"), "--no-maps"}
+	checkFailure(t, runCLI(t, append(base, "--reach", "5")...), exitUsage, []string{"k = 5", "4 distinct"})
+}
+
+// TestReachEqualOwnRanges: a range column with one range everywhere gives
+// the --range answer.
+func TestReachEqualOwnRanges(t *testing.T) {
+	dir := t.TempDir()
+	area := writeFile(t, dir, "a.geojson", squareGeoJSON(0, 0, 40))
+	own := writeFile(t, dir, "own.csv", "x,y,range\n10,10,15\n30,12,15\n22,30,15\n5,35,15\n38,38,15\n20,20,15\n")
+	plain := writeFile(t, dir, "plain.csv", "x,y\n10,10\n30,12\n22,30\n5,35\n38,38\n20,20\n")
+	o1, o2 := filepath.Join(dir, "o1"), filepath.Join(dir, "o2")
+	if r := runCLI(t, "analyze", "--planar", "--sites", own, "--area", area, "--reach", "3", "--out", o1, "--no-maps"); r.code != 0 {
+		t.Fatalf("exit %d: %s", r.code, r.stderr)
+	}
+	if r := runCLI(t, "analyze", "--planar", "--sites", plain, "--area", area, "--range", "15", "--reach", "3", "--out", o2, "--no-maps"); r.code != 0 {
+		t.Fatalf("exit %d: %s", r.code, r.stderr)
+	}
+	a, b := reachDocOf(t, o1), reachDocOf(t, o2)
+	for i := range b.Levels {
+		if a.Levels[i].CoveredAreaM2 != b.Levels[i].CoveredAreaM2 || a.Levels[i].CoverRangeM != b.Levels[i].CoverRangeM || a.RangeM != 15 {
+			t.Errorf("k = %d: own ranges %+v, --range %+v", b.Levels[i].K, a.Levels[i], b.Levels[i])
+		}
+	}
+}
+
+// TestSuggestReachOwnRangesRefused: suggest --reach places devices for one
+// common range and says so, pointing to analyze --reach.
+func TestSuggestReachOwnRangesRefused(t *testing.T) {
+	dir := t.TempDir()
+	area := writeFile(t, dir, "a.geojson", `{"type":"Polygon","coordinates":[[[-50,-50],[260,-50],[260,180],[-50,180],[-50,-50]]]}`)
+	mixed := writeFile(t, dir, "mixed.csv", mixedCSV)
+	r := runCLI(t, "suggest", "--planar", "--sites", mixed, "--area", area, "--range", "40", "--reach", "2", "--out", filepath.Join(dir, "o"), "--no-maps")
+	checkFailure(t, r, exitInput, []string{"own ranges", "one common range", "analyze --reach"})
+}
