@@ -76,8 +76,10 @@ const reachMethod = "farthest-point insertion on the k-th nearest distance (Gonz
 // ReachPlanFiles lists the files WriteReachPlan writes (no map or
 // GeoPackage yet).
 func ReachPlanFiles(m Meta) []string {
-	return []string{FileReport, FileSummary, LayerFile(FileSites, m.Planar), LayerFile(FileReachAdded, m.Planar),
-		LayerFile(FileReach, m.Planar), LayerFile(FileReachGaps, m.Planar), FileManifest}
+	f := []string{FileReport, FileSummary, LayerFile(FileSites, m.Planar), LayerFile(FileReachAdded, m.Planar),
+		LayerFile(FileReach, m.Planar), LayerFile(FileReachGaps, m.Planar)}
+	f = append(f, gridLayerFiles(m, FileSites, FileReachAdded, FileReach, FileReachGaps)...)
+	return append(f, FileManifest)
 }
 
 // WriteReachPlan writes the outputs of suggest --reach into dir (staged
@@ -101,6 +103,10 @@ func WriteReachPlan(dir string, p *ReachPlan, m Meta, opt Options) ([]string, er
 		after.layerStep(FileReach, after.reachLayer(p.AfterReach)),
 		after.layerStep(FileReachGaps, after.reachGapsLayer(p.AfterReach)),
 	}
+	steps = append(steps, s.gridCopies(func(g *scene) []step {
+		return []step{g.layerStep(FileSites, g.sitesLayer()), g.layerStep(FileReachAdded, g.reachAddedLayer(p.Suggestion))}
+	})...)
+	steps = append(steps, after.gridCopies(func(g *scene) []step { return g.reachLayerSteps(p.AfterReach) })...)
 	err = w.writeAll(s, steps)
 	return w.done, err
 }
