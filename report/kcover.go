@@ -230,9 +230,10 @@ func (s *scene) reachGapsLayer(kc *coverage.KCoverage) *layerDef {
 	return &layerDef{geom: gpkg.MultiPolygon,
 		fields: fieldList(append(f, "sites", gpkg.Text, "range_m", gpkg.Real)...),
 		each: func(emit emitFunc) error {
+			var buf polyBuf
 			for _, lv := range kc.Levels {
 				for _, g := range lv.Gaps {
-					out := s.multiPolygon(g.Outline)
+					out := s.conservativeInto(&buf, g.Outline, 1)
 					if len(out) == 0 {
 						continue
 					}

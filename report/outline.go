@@ -34,6 +34,10 @@
 // part into another without such a contact on the way. A vertex of one
 // ring on an edge of another (valid in GEOS) is refused too: that feature
 // then keeps more digits, which is never wrong.
+//
+// Gap outlines and covered parts go through conservativeInto, which moves
+// them by the rounding reach first (outline_grow.go) and moves them by a
+// finer reach at each finer level.
 
 package report
 
@@ -70,10 +74,41 @@ func (s *scene) checkRounding(in, out orb.MultiPolygon) orb.MultiPolygon {
 	return s.finer().multiPolygon(in)
 }
 
+// conservativeInto converts the outline in (local plane) as
+// multiPolygonInto does, moved first by the rounding reach so that the
+// written polygon keeps its promise (outline_grow.go): grow > 0 for a
+// gap outline (it contains its gap), grow < 0 for a covered part (it lies
+// in the disks). A feature whose moved outline cannot be formed, or is
+// not valid once rounded (after splitting pinches), is tried with
+// finerDigits more decimals and a reach as much smaller, and at last
+// unrounded and unmoved.
+func (s *scene) conservativeInto(b *polyBuf, in orb.MultiPolygon, grow float64) orb.MultiPolygon {
+	for sc := s; ; sc = sc.finer() {
+		src := in
+		if d := sc.roundingReach(); d > 0 {
+			g, ok := sc.offsetOutline(in, math.Copysign(d, grow))
+			if !ok {
+				continue
+			}
+			src = g
+		}
+		mp := sc.roundInto(b, src)
+		if outlineValid(mp) {
+			return mp
+		}
+		if split, ok := splitPinches(mp); ok && outlineValid(split) {
+			return split
+		}
+		if sc.unrounded {
+			return mp
+		}
+	}
+}
+
 // finer returns a scene converting points as s does with finerDigits more
 // decimals, or unrounded after maxExtraDigits.
 func (s *scene) finer() *scene {
-	f := &scene{l: s.l, a: s.a, m: s.m, grid: s.grid, extraDigits: s.extraDigits + finerDigits}
+	f := &scene{l: s.l, a: s.a, m: s.m, grid: s.grid, extraDigits: s.extraDigits + finerDigits, area: s.area}
 	if s.extraDigits >= maxExtraDigits {
 		f.extraDigits, f.unrounded = s.extraDigits, true
 	}

@@ -1,0 +1,333 @@
+// Tests of the conservative rounding of outlines (outline_grow.go): the
+// written gap polygons (gaps, own-range gaps, k-gaps) contain the exact
+// gaps and the written covered parts claim no uncovered point, in planar
+// and geographic output, away from the area's boundary (what the file
+// comment leaves out there).
+
+package report
+
+import (
+	"math"
+	"math/rand/v2"
+	"testing"
+
+	"github.com/paulmach/orb"
+	"github.com/sitecover/sitecover/coverage"
+	"github.com/sitecover/sitecover/planar"
+)
+
+// growScene is a layout to check: sites with their ranges, the area, and
+// the conversion of a local point to unrounded output coordinates.
+type growScene struct {
+	sites  []orb.Point
+	ranges []float64
+	area   *planar.Region
+	out    func(orb.Point) orb.Point
+	back   func(orb.Point) orb.Point // output coordinates to the local plane
+	reach  float64                   // the scene's rounding reach ε
+}
+
+// collect returns every multipolygon a layer emits.
+func collect(t *testing.T, def *layerDef) []orb.MultiPolygon {
+	t.Helper()
+	var out []orb.MultiPolygon
+	err := def.each(func(g orb.Geometry, _ ...any) error {
+		out = append(out, g.(orb.MultiPolygon).Clone())
+		return nil
+	})
+	if err != nil {
+		t.Fatal(err)
+	}
+	return out
+}
+
+// inside reports whether p lies in mp or on its boundary (strict: not on
+// the boundary).
+func inside(mp orb.MultiPolygon, p orb.Point, strict bool) bool {
+	for _, poly := range mp {
+		w := planar.PointInRing(planar.FlatRing(poly[0]), p[0], p[1])
+		if w < 0 || (strict && w == 0) {
+			continue
+		}
+		in := true
+		for _, h := range poly[1:] {
+			if v := planar.PointInRing(planar.FlatRing(h), p[0], p[1]); v > 0 || (strict && v == 0) {
+				in = false
+				break
+			}
+		}
+		if in {
+			return true
+		}
+	}
+	return false
+}
+
+// nearBoundary reports whether p lies within d of an edge of the area.
+func (g *growScene) nearBoundary(p orb.Point, d float64) bool {
+	a := g.area
+	for k := 0; k+1 < len(a.RingStart); k++ {
+		s, e := int(a.RingStart[k]), int(a.RingStart[k+1])
+		for i := s; i < e; i++ {
+			j := i + 1
+			if j == e {
+				j = s
+			}
+			if segDist(p, orb.Point{a.XY[2*i], a.XY[2*i+1]}, orb.Point{a.XY[2*j], a.XY[2*j+1]}) <= d {
+				return true
+			}
+		}
+	}
+	return false
+}
+
+// segDist is the distance from p to the segment ab.
+func segDist(p, a, b orb.Point) float64 {
+	dx, dy := b[0]-a[0], b[1]-a[1]
+	t := 0.0
+	if l2 := dx*dx + dy*dy; l2 > 0 {
+		t = max(0, min(1, ((p[0]-a[0])*dx+(p[1]-a[1])*dy)/l2))
+	}
+	return math.Hypot(p[0]-a[0]-t*dx, p[1]-a[1]-t*dy)
+}
+
+// reachedBy counts the disks containing p.
+func (g *growScene) reachedBy(p orb.Point) int {
+	n := 0
+	for i, s := range g.sites {
+		if math.Hypot(p[0]-s[0], p[1]-s[1]) <= g.ranges[i] {
+			n++
+		}
+	}
+	return n
+}
+
+// gapSamples returns points of the exact k-gaps close to the circles:
+// around every site at its range plus each of the offsets, reached by
+// fewer than k disks, in the area and farther than 2ε from its boundary.
+func (g *growScene) gapSamples(k int, offsets ...float64) []orb.Point {
+	var pts []orb.Point
+	for i, s := range g.sites {
+		for a := range 720 {
+			phi := 2 * math.Pi * (float64(a) + 0.5) / 720
+			for _, off := range offsets {
+				rr := g.ranges[i] + off
+				p := orb.Point{s[0] + rr*math.Cos(phi), s[1] + rr*math.Sin(phi)}
+				if g.area.Contains(p[0], p[1]) && g.reachedBy(p) < k && !g.nearBoundary(p, 2*g.reach) {
+					pts = append(pts, p)
+				}
+			}
+		}
+	}
+	return pts
+}
+
+// checkContain checks that each sample lies in one of the written
+// polygons, and that each written polygon's area is at least its exact
+// area.
+func (g *growScene) checkContain(t *testing.T, what string, written []orb.MultiPolygon, exact []float64, samples []orb.Point) {
+	t.Helper()
+	if len(samples) == 0 {
+		t.Fatalf("%s: no samples", what)
+	}
+	missed := 0
+	for _, p := range samples {
+		q := g.out(p)
+		found := false
+		for _, mp := range written {
+			if mp.Bound().Pad(1e-12).Contains(q) && inside(mp, q, false) {
+				found = true
+				break
+			}
+		}
+		if !found {
+			if missed < 3 {
+				t.Errorf("%s: exact gap point %v (output %v) outside every written polygon", what, p, q)
+			}
+			missed++
+		}
+	}
+	if missed > 0 {
+		t.Errorf("%s: %d of %d samples missed", what, missed, len(samples))
+	}
+	for i, mp := range written {
+		a := 0.0
+		for _, poly := range mp {
+			for _, r := range poly {
+				loc := make(orb.Ring, len(r))
+				for k, q := range r {
+					loc[k] = g.back(q)
+				}
+				a += planar.RingArea(planar.FlatRing(loc))
+			}
+		}
+		if i < len(exact) && a < exact[i] {
+			t.Errorf("%s %d: written area %.9g m² below the exact %.9g m²", what, i, a, exact[i])
+		}
+	}
+}
+
+// checkCovered checks that no sample (a point of the exact gaps) lies
+// strictly inside a written covered part, and that every vertex of a
+// covered part is in a disk or is a vertex of the area.
+func (g *growScene) checkCovered(t *testing.T, written []orb.MultiPolygon, samples []orb.Point) {
+	t.Helper()
+	corners := map[orb.Point]bool{}
+	for i := 0; i+1 < len(g.area.XY); i += 2 {
+		corners[g.out(orb.Point{g.area.XY[i], g.area.XY[i+1]})] = true
+	}
+	for _, p := range samples {
+		q := g.out(p)
+		for _, mp := range written {
+			if inside(mp, q, true) {
+				t.Fatalf("covered part claims the uncovered point %v", p)
+			}
+		}
+	}
+	bad := 0
+	for _, mp := range written {
+		for _, poly := range mp {
+			for _, r := range poly {
+				for _, q := range r {
+					p := g.back(q)
+					if g.reachedBy(p) == 0 && !corners[q] && !g.nearBoundary(p, 2*g.reach) {
+						if bad < 3 {
+							t.Errorf("covered vertex %v (local %v) in no disk", q, p)
+						}
+						bad++
+					}
+				}
+			}
+		}
+	}
+}
+
+// growScenes are a planar and a geographic version of random sites in a
+// 200 m square with an exclusion, each range 17 m.
+func growScenes(t *testing.T, ranges bool) map[string]*growScene {
+	t.Helper()
+	rng := rand.New(rand.NewPCG(11, 12))
+	var sites []orb.Point
+	var rs []float64
+	for range 60 {
+		sites = append(sites, orb.Point{200 * rng.Float64(), 200 * rng.Float64()})
+		r := 17.0
+		if ranges {
+			r = 12 + 10*rng.Float64()
+		}
+		rs = append(rs, r)
+	}
+	area := region(t, square(200), []float64{80, 80, 80, 120, 120, 120, 120, 80})
+	tm, err := planar.NewLocalPlane([]orb.Point{{8, 47}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	id := func(p orb.Point) orb.Point { return p }
+	return map[string]*growScene{
+		"planar": {sites: sites, ranges: rs, area: area, out: id, back: id},
+		"geographic": {sites: sites, ranges: rs, area: area,
+			out:  func(p orb.Point) orb.Point { lon, lat := tm.Inverse(p[0], p[1]); return orb.Point{lon, lat} },
+			back: func(q orb.Point) orb.Point { x, y := tm.Forward(q[0], q[1]); return orb.Point{x, y} }},
+	}
+}
+
+// meta returns the Meta of a scene's output.
+func (g *growScene) meta(name string) Meta {
+	if name == "planar" {
+		return Meta{Planar: true}
+	}
+	return Meta{ToLonLat: func(x, y float64) (float64, float64) { q := g.out(orb.Point{x, y}); return q[0], q[1] }}
+}
+
+// sampleOffsets are the distances beyond the circles at which the gaps
+// are sampled: far below the rounding (where rounding unmoved outlines
+// loses gap) and about it.
+var sampleOffsets = []float64{1e-7, 1e-5, 3e-4, 2e-3}
+
+func TestWrittenGapsContainExactGaps(t *testing.T) {
+	for name, g := range growScenes(t, false) {
+		t.Run(name, func(t *testing.T) {
+			an := analyze(t, g.sites, g.area, g.ranges[0])
+			if len(an.Gaps) < 3 {
+				t.Fatalf("only %d gaps", len(an.Gaps))
+			}
+			s := newScene(an.Layout, an, g.meta(name))
+			g.reach = s.roundingReach()
+			samples := g.gapSamples(1, sampleOffsets...)
+			exact := make([]float64, len(an.Gaps))
+			for i, gp := range an.Gaps {
+				exact[i] = gp.Area
+			}
+			g.checkContain(t, "gaps", collect(t, s.gapsLayer()), exact, samples)
+			g.checkCovered(t, collect(t, s.coveredLayer()), samples)
+
+			kc, err := coverage.KCover(an.Layout, g.ranges[0], coverage.KOptions{MaxK: 2, Gaps: true})
+			if err != nil {
+				t.Fatal(err)
+			}
+			written := collect(t, s.reachGapsLayer(kc))
+			var kexact []float64
+			for _, lv := range kc.Levels {
+				for _, gp := range lv.Gaps {
+					kexact = append(kexact, gp.Area)
+				}
+			}
+			g.checkContain(t, "k-gaps", written[len(kc.Levels[0].Gaps):], kexact[len(kc.Levels[0].Gaps):], g.gapSamples(2, sampleOffsets...))
+		})
+	}
+}
+
+func TestWrittenRangesGapsContainExactGaps(t *testing.T) {
+	for name, g := range growScenes(t, true) {
+		t.Run(name, func(t *testing.T) {
+			ra, err := coverage.AnalyzeRanges(g.sites, g.ranges, g.area, coverage.Options{})
+			if err != nil {
+				t.Fatal(err)
+			}
+			rs := newRangesScene(ra, g.meta(name))
+			g.reach = rs.roundingReach()
+			exact := make([]float64, len(ra.Gaps))
+			for i, gp := range ra.Gaps {
+				exact[i] = gp.Area
+			}
+			g.checkContain(t, "own-range gaps", collect(t, rs.gapsLayer()), exact, g.gapSamples(1, sampleOffsets...))
+		})
+	}
+}
+
+func TestRoundingReach(t *testing.T) {
+	// The reach covers the largest move of rounding: a point at the
+	// centre of a rounding cell, in each output.
+	tm, err := planar.NewLocalPlane([]orb.Point{{8, 47}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, c := range []struct {
+		name string
+		m    Meta
+	}{
+		{"planar", Meta{Planar: true}},
+		{"geographic", Meta{ToLonLat: tm.Inverse}},
+	} {
+		t.Run(c.name, func(t *testing.T) {
+			s := newScene(nil, nil, c.m)
+			worst := 0.0
+			for i := range 400 {
+				p := orb.Point{1234.5678 + 0.0137*float64(i), -876.54321 + 0.0071*float64(i)}
+				q := s.point(p)
+				back := orb.Point{q[0], q[1]}
+				if !c.m.Planar {
+					x, y := tm.Forward(q[0], q[1])
+					back = orb.Point{x, y}
+				}
+				worst = max(worst, math.Hypot(back[0]-p[0], back[1]-p[1]))
+			}
+			if r := s.roundingReach(); worst > r || worst < r/2 {
+				t.Errorf("largest rounding move %.4g m against the reach %.4g m", worst, r)
+			}
+			if f := s.finer(); math.Abs(f.roundingReach()-s.roundingReach()/100) > 1e-12*s.roundingReach() {
+				t.Errorf("finer reach %g, want %g", f.roundingReach(), s.roundingReach()/100)
+			}
+		})
+	}
+}
