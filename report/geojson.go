@@ -477,6 +477,7 @@ type polyBuf struct {
 	pts   []orb.Point   // the rings' positions, ring after ring
 	rings []orb.Ring    // the kept rings, slices of pts
 	polys []orb.Polygon // the kept polygons, slices of rings
+	off   offsetScratch // conservativeInto's moved outline
 }
 
 // reset empties b for the next feature; the multipolygon it held is

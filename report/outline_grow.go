@@ -62,6 +62,7 @@ package report
 import (
 	"fmt"
 	"math"
+	"slices"
 	"sync"
 
 	"github.com/paulmach/orb"
@@ -229,22 +230,39 @@ const (
 	maxSlide     = 64
 )
 
+// offsetScratch is the memory of offsetOutline, reused from feature to
+// feature by a layer (in its polyBuf): the per-edge arrays of one ring
+// and the moved multipolygon (valid until the next offsetOutline).
+type offsetScratch struct {
+	pts         []orb.Point
+	ux, uy      []float64
+	area, first []int32
+	out         []orb.Point
+	rings       []orb.Ring
+	polys       orb.MultiPolygon
+}
+
 // offsetOutline returns mp with each ring moved by d (offsetRing; d > 0
-// grows, d < 0 shrinks), or false when a ring cannot be moved.
-func (s *scene) offsetOutline(mp orb.MultiPolygon, d float64) (orb.MultiPolygon, bool) {
+// grows, d < 0 shrinks), in the memory of sc, or false when a ring cannot
+// be moved.
+func (s *scene) offsetOutline(sc *offsetScratch, mp orb.MultiPolygon, d float64) (orb.MultiPolygon, bool) {
 	ae := s.areaIndex()
-	out := make(orb.MultiPolygon, len(mp))
-	for i, p := range mp {
-		out[i] = make(orb.Polygon, len(p))
-		for k, r := range p {
-			g, ok := offsetRing(r, d, ae)
-			if !ok {
+	sc.out, sc.rings, sc.polys = sc.out[:0], sc.rings[:0], sc.polys[:0]
+	for _, p := range mp {
+		r0 := len(sc.rings)
+		for _, r := range p {
+			start := len(sc.out)
+			ok := false
+			if sc.out, ok = sc.offsetRing(r, d, ae); !ok {
 				return nil, false
 			}
-			out[i][k] = g
+			end := len(sc.out)
+			sc.rings = append(sc.rings, sc.out[start:end:end])
 		}
+		n := len(sc.rings)
+		sc.polys = append(sc.polys, sc.rings[r0:n:n])
 	}
-	return out, true
+	return sc.polys, true
 }
 
 // offsetRing moves every edge of the closed ring r that is not on an area
@@ -253,31 +271,34 @@ func (s *scene) offsetOutline(mp orb.MultiPolygon, d float64) (orb.MultiPolygon,
 // corner exceeds the shape limits. A ring of fewer than three distinct
 // vertices is returned as it is. Its length (about 100 lines) is the
 // corner cases of one loop, kept together.
-func offsetRing(r orb.Ring, d float64, ae *areaEdges) (orb.Ring, bool) {
-	pts := planar.DropRepeats(append([]orb.Point(nil), r...))
+func (sc *offsetScratch) offsetRing(r orb.Ring, d float64, ae *areaEdges) (orb.Ring, bool) {
+	pts := planar.DropRepeats(append(sc.pts[:0], r...))
+	sc.pts = pts[:0]
 	if len(pts) > 1 && pts[len(pts)-1] == pts[0] {
 		pts = pts[:len(pts)-1]
 	}
 	n := len(pts)
+	out := sc.out
 	if n < 3 {
-		return r, true
+		return append(out, r...), true
 	}
+	start := len(out)
 	rev := d < 0
 	if rev {
 		reverse(pts)
 		d = -d
 	}
 	// Unit direction and area edge (or −1) of edge i from pts[i].
-	ux, uy := make([]float64, n), make([]float64, n)
-	area := make([]int32, n)
+	sc.ux, sc.uy = slices.Grow(sc.ux[:0], n)[:n], slices.Grow(sc.uy[:0], n)[:n]
+	sc.area, sc.first = slices.Grow(sc.area[:0], n)[:n], slices.Grow(sc.first[:0], n+1)[:n+1]
+	ux, uy, area, first := sc.ux, sc.uy, sc.area, sc.first
 	for i := range n {
 		a, b := pts[i], pts[(i+1)%n]
 		l := math.Hypot(b[0]-a[0], b[1]-a[1])
 		ux[i], uy[i] = (b[0]-a[0])/l, (b[1]-a[1])/l
 		area[i] = ae.edgeOf(a[0], a[1], b[0], b[1])
 	}
-	out := make(orb.Ring, 0, n+n/8+1)
-	first := make([]int32, n+1) // out[first[i]] .. out[first[i+1]-1]: vertex i's points
+	// out[first[i]] .. out[first[i+1]-1] are vertex i's points.
 	for i := range n {
 		first[i] = int32(len(out))
 		p := (i + n - 1) % n
@@ -292,14 +313,14 @@ func offsetRing(r orb.Ring, d float64, ae *areaEdges) (orb.Ring, bool) {
 			den := ux[i]*npx + uy[i]*npy
 			w, ok := slide(v, ux[i], uy[i], d, den, area[i], ae)
 			if !ok {
-				return nil, false
+				return out[:start], false
 			}
 			out = append(out, w)
 		case onP: // area edge p, then moved edge i: slide back along p
 			den := ux[p]*nix + uy[p]*niy
 			w, ok := slide(v, ux[p], uy[p], d, den, area[p], ae)
 			if !ok {
-				return nil, false
+				return out[:start], false
 			}
 			out = append(out, w)
 		default:
@@ -314,7 +335,7 @@ func offsetRing(r orb.Ring, d float64, ae *areaEdges) (orb.Ring, bool) {
 				break
 			}
 			if 1+dot < minTurnSlack {
-				return nil, false
+				return out[:start], false
 			}
 			k := d / (1 + dot)
 			out = append(out, orb.Point{v[0] + k*(npx+nix), v[1] + k*(npy+niy)})
@@ -327,13 +348,13 @@ func offsetRing(r orb.Ring, d float64, ae *areaEdges) (orb.Ring, bool) {
 		a := out[first[i+1]-1]
 		b := out[first[(i+1)%n]]
 		if (b[0]-a[0])*ux[i]+(b[1]-a[1])*uy[i] <= 0 {
-			return nil, false
+			return out[:start], false
 		}
 	}
 	if rev {
-		reverse(out)
+		reverse(out[start:])
 	}
-	return append(out, out[0]), true
+	return append(out, out[start]), true
 }
 
 // slide returns v moved along the unit direction (ux, uy) of area edge e

@@ -331,3 +331,47 @@ func TestRoundingReach(t *testing.T) {
 		})
 	}
 }
+
+func TestTinyGapsWritten(t *testing.T) {
+	// A gap of about 1e-12 m² (three disks all but meeting at the
+	// circumcentre of their sites) is smaller than a rounding cell; grown
+	// by the rounding reach it is written, holding its deepest point,
+	// instead of vanishing from the layer while summary.json lists it.
+	side := 10.0
+	R := side / math.Sqrt(3)
+	sites := []orb.Point{{0, 0}, {side, 0}, {side / 2, side * math.Sqrt(3) / 2}}
+	area := region(t, []float64{-1, -1, side + 1, -1, side + 1, side, -1, side})
+	for name, m := range map[string]Meta{
+		"planar":     {Planar: true},
+		"geographic": {ToLonLat: func(x, y float64) (float64, float64) { return 8 + x/76000, 47 + y/111000 }},
+	} {
+		t.Run(name, func(t *testing.T) {
+			an := analyze(t, sites, area, R-1e-6)
+			var tiny *coverage.Gap
+			for i := range an.Gaps {
+				if g := &an.Gaps[i]; !g.TouchesBoundary {
+					tiny = g
+				}
+			}
+			if tiny == nil || tiny.Area > 1e-9 {
+				t.Fatalf("no tiny inner gap: %+v", an.Gaps)
+			}
+			s := newScene(an.Layout, an, m)
+			written := collect(t, s.gapsLayer())
+			if len(written) != len(an.Gaps) {
+				t.Fatalf("%d gaps written, %d found", len(written), len(an.Gaps))
+			}
+			lon, lat := tiny.Deepest[0], tiny.Deepest[1]
+			if m.ToLonLat != nil {
+				lon, lat = m.ToLonLat(lon, lat)
+			}
+			ok := false
+			for _, mp := range written {
+				ok = ok || inside(mp, orb.Point{lon, lat}, true)
+			}
+			if !ok {
+				t.Errorf("the tiny gap's deepest point %v is in no written gap", tiny.Deepest)
+			}
+		})
+	}
+}
