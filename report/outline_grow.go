@@ -283,6 +283,7 @@ func (sc *offsetScratch) offsetRing(r orb.Ring, d float64, ae *areaEdges) (orb.R
 		return append(out, r...), true
 	}
 	start := len(out)
+	out = slices.Grow(out, n+n/4+1)
 	rev := d < 0
 	if rev {
 		reverse(pts)
@@ -294,8 +295,9 @@ func (sc *offsetScratch) offsetRing(r orb.Ring, d float64, ae *areaEdges) (orb.R
 	ux, uy, area, first := sc.ux, sc.uy, sc.area, sc.first
 	for i := range n {
 		a, b := pts[i], pts[(i+1)%n]
-		l := math.Hypot(b[0]-a[0], b[1]-a[1])
-		ux[i], uy[i] = (b[0]-a[0])/l, (b[1]-a[1])/l
+		dx, dy := b[0]-a[0], b[1]-a[1]
+		l := math.Sqrt(dx*dx + dy*dy) // coordinates are far from overflow
+		ux[i], uy[i] = dx/l, dy/l
 		area[i] = ae.edgeOf(a[0], a[1], b[0], b[1])
 	}
 	// out[first[i]] .. out[first[i+1]-1] are vertex i's points.
@@ -327,8 +329,14 @@ func (sc *offsetScratch) offsetRing(r orb.Ring, d float64, ae *areaEdges) (orb.R
 			cross := ux[p]*uy[i] - uy[p]*ux[i]
 			dot := ux[p]*ux[i] + uy[p]*uy[i]
 			if cross > 0 && dot < capTurnCos {
-				// Square cap: t = d·tan(turn/4) along each moved line.
-				t := d * math.Tan(math.Atan2(cross, dot)/4)
+				// Square cap: t = d·tan(turn/4) along each moved line,
+				// tan(α/4) = sin α / (1 + cos α + √((1 + cos α)² + sin² α)).
+				c1 := 1 + dot
+				den := c1 + math.Sqrt(c1*c1+cross*cross)
+				if den < minTurnSlack {
+					return out[:start], false // a spike turning back on itself
+				}
+				t := d * cross / den
 				out = append(out,
 					orb.Point{v[0] + d*npx + t*ux[p], v[1] + d*npy + t*uy[p]},
 					orb.Point{v[0] + d*nix - t*ux[i], v[1] + d*niy - t*uy[i]})

@@ -375,3 +375,62 @@ func TestTinyGapsWritten(t *testing.T) {
 		})
 	}
 }
+
+func TestOffsetRing(t *testing.T) {
+	// Hand-made rings: a square grows and shrinks by d on every side
+	// (mitres at right angles), a thin triangle gets square caps at its
+	// sharp corners, edges on the area's boundary stay, and a ring too
+	// small to shrink is refused.
+	area := region(t, square(10))
+	ae := newAreaEdges(area)
+	var sc offsetScratch
+	ringArea := func(r orb.Ring) float64 { return planar.RingArea(planar.FlatRing(r)) }
+	for _, c := range []struct {
+		name     string
+		r        orb.Ring
+		d, want  float64 // want: the moved ring's area (NaN: refused)
+		tol      float64
+		distFrom float64 // every vertex at least this far from r (0: unchecked)
+	}{
+		{"square grows", closed(2, 2, 4, 2, 4, 4, 2, 4), 0.1, 2.2 * 2.2, 1e-12, 0.1},
+		{"square shrinks", closed(2, 2, 4, 2, 4, 4, 2, 4), -0.1, 1.8 * 1.8, 1e-12, 0},
+		{"on the area's edge", closed(0, 0, 4, 0, 4, 2, 0, 2), 0.1, 4.1 * 2.1, 1e-12, 0},
+		{"area corner", closed(0, 0, 4, 0, 4, 2, 0, 2), -0.1, 3.9 * 1.9, 1e-12, 0},
+		{"thin triangle capped", closed(2, 2, 6, 2.5, 2, 3), 0.01, math.NaN(), 0, 0.01},
+		{"too small to shrink", closed(2, 2, 2.1, 2, 2.1, 2.1, 2, 2.1), -0.1, math.NaN(), 0, 0},
+	} {
+		t.Run(c.name, func(t *testing.T) {
+			sc.out = sc.out[:0]
+			g, ok := sc.offsetRing(c.r, c.d, ae)
+			if c.name == "too small to shrink" {
+				if ok {
+					t.Errorf("moved to %v", g)
+				}
+				return
+			}
+			if !ok {
+				t.Fatal("refused")
+			}
+			if g[0] != g[len(g)-1] {
+				t.Error("not closed")
+			}
+			if a := ringArea(g); !math.IsNaN(c.want) && math.Abs(a-c.want) > c.tol {
+				t.Errorf("area %.12g, want %.12g", a, c.want)
+			}
+			if c.distFrom > 0 {
+				for _, v := range g[:len(g)-1] {
+					dmin := math.Inf(1)
+					for i := 0; i+1 < len(c.r); i++ {
+						dmin = min(dmin, segDist(v, c.r[i], c.r[i+1]))
+					}
+					if dmin < c.distFrom*(1-1e-9) {
+						t.Errorf("vertex %v only %g from the ring", v, dmin)
+					}
+				}
+				if c.name == "thin triangle capped" && len(g) != 2*3+1 {
+					t.Errorf("%d vertices, want a cap (2) at each sharp corner", len(g)-1)
+				}
+			}
+		})
+	}
+}
