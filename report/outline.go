@@ -62,16 +62,23 @@ const (
 // valid outline, else the conversion of in with more decimals (see the
 // file comment).
 func (s *scene) checkRounding(in, out orb.MultiPolygon) orb.MultiPolygon {
-	if outlineValid(out) {
-		return out
-	}
-	if split, ok := splitPinches(out); ok && outlineValid(split) {
-		return split
-	}
-	if s.unrounded {
-		return out
+	if mp, ok := s.validRounded(out); ok {
+		return mp
 	}
 	return s.finer().multiPolygon(in)
+}
+
+// validRounded returns out, or out split at its pinches, when that is a
+// valid outline, or out itself from an unrounded scene (nothing finer to
+// try); false otherwise.
+func (s *scene) validRounded(out orb.MultiPolygon) (orb.MultiPolygon, bool) {
+	if outlineValid(out) {
+		return out, true
+	}
+	if split, ok := splitPinches(out); ok && outlineValid(split) {
+		return split, true
+	}
+	return out, s.unrounded
 }
 
 // conservativeInto converts the outline in (local plane) as
@@ -92,14 +99,7 @@ func (s *scene) conservativeInto(b *polyBuf, in orb.MultiPolygon, grow float64) 
 			}
 			src = g
 		}
-		mp := sc.roundInto(b, src)
-		if outlineValid(mp) {
-			return mp
-		}
-		if split, ok := splitPinches(mp); ok && outlineValid(split) {
-			return split
-		}
-		if sc.unrounded {
+		if mp, ok := sc.validRounded(sc.roundInto(b, src)); ok {
 			return mp
 		}
 	}

@@ -151,16 +151,7 @@ func newAreaEdges(r *planar.Region) *areaEdges {
 	b := r.Bound()
 	mag := max(math.Abs(b.Min[0]), math.Abs(b.Max[0]), math.Abs(b.Min[1]), math.Abs(b.Max[1]))
 	ae.tol = onAreaRel * (mag + max(b.Max[0]-b.Min[0], b.Max[1]-b.Min[1]))
-	for k := 0; k+1 < len(r.RingStart); k++ {
-		s, e := int(r.RingStart[k]), int(r.RingStart[k+1])
-		for i := s; i < e; i++ {
-			j := i + 1
-			if j == e {
-				j = s
-			}
-			ae.xy = append(ae.xy, r.XY[2*i], r.XY[2*i+1], r.XY[2*j], r.XY[2*j+1])
-		}
-	}
+	regionEdges(r, func(ax, ay, bx, by float64) { ae.xy = append(ae.xy, ax, ay, bx, by) })
 	t := ae.tol
 	n := len(ae.xy) / 4
 	ae.grid = planar.GridOfCells(b.Min[0]-t, b.Min[1]-t, b.Max[0]+t, b.Max[1]+t, n)
@@ -188,6 +179,20 @@ func newAreaEdges(r *planar.Region) *areaEdges {
 		cells(e, func(c int) { ae.list[fill[c]] = int32(e); fill[c]++ })
 	}
 	return ae
+}
+
+// regionEdges calls f with each edge of the region's rings.
+func regionEdges(r *planar.Region, f func(ax, ay, bx, by float64)) {
+	for k := 0; k+1 < len(r.RingStart); k++ {
+		s, e := int(r.RingStart[k]), int(r.RingStart[k+1])
+		for i := s; i < e; i++ {
+			j := i + 1
+			if j == e {
+				j = s
+			}
+			f(r.XY[2*i], r.XY[2*i+1], r.XY[2*j], r.XY[2*j+1])
+		}
+	}
 }
 
 // near reports whether (x, y) lies within tol of area edge e.

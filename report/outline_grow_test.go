@@ -65,20 +65,11 @@ func inside(mp orb.MultiPolygon, p orb.Point, strict bool) bool {
 
 // nearBoundary reports whether p lies within d of an edge of the area.
 func (g *growScene) nearBoundary(p orb.Point, d float64) bool {
-	a := g.area
-	for k := 0; k+1 < len(a.RingStart); k++ {
-		s, e := int(a.RingStart[k]), int(a.RingStart[k+1])
-		for i := s; i < e; i++ {
-			j := i + 1
-			if j == e {
-				j = s
-			}
-			if segDist(p, orb.Point{a.XY[2*i], a.XY[2*i+1]}, orb.Point{a.XY[2*j], a.XY[2*j+1]}) <= d {
-				return true
-			}
-		}
-	}
-	return false
+	near := false
+	regionEdges(g.area, func(ax, ay, bx, by float64) {
+		near = near || segDist(p, orb.Point{ax, ay}, orb.Point{bx, by}) <= d
+	})
+	return near
 }
 
 // segDist is the distance from p to the segment ab.
