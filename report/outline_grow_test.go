@@ -14,6 +14,7 @@ import (
 	"github.com/paulmach/orb"
 	"github.com/sitecover/sitecover/coverage"
 	"github.com/sitecover/sitecover/planar"
+	"github.com/sitecover/sitecover/report/siteinput"
 )
 
 // growScene is a layout to check: sites with their ranges, the area, and
@@ -293,23 +294,34 @@ func TestRoundingReach(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
+	crs, err := siteinput.ParseCRS("EPSG:32632")
+	if err != nil {
+		t.Fatal(err)
+	}
 	for _, c := range []struct {
 		name string
 		m    Meta
+		grid bool
 	}{
-		{"planar", Meta{Planar: true}},
-		{"geographic", Meta{ToLonLat: tm.Inverse}},
+		{"planar", Meta{Planar: true}, false},
+		{"geographic", Meta{ToLonLat: tm.Inverse}, false},
+		{"projected copy", Meta{ToLonLat: tm.Inverse, OutCRS: crs}, true},
 	} {
 		t.Run(c.name, func(t *testing.T) {
 			s := newScene(nil, nil, c.m)
+			if c.grid {
+				s.grid = &gridOutput{crs: crs, toLonLat: tm.Inverse}
+			}
 			worst := 0.0
 			for i := range 400 {
 				p := orb.Point{1234.5678 + 0.0137*float64(i), -876.54321 + 0.0071*float64(i)}
 				q := s.point(p)
 				back := orb.Point{q[0], q[1]}
+				if c.grid {
+					back[0], back[1] = crs.TM.Inverse(q[0], q[1])
+				}
 				if !c.m.Planar {
-					x, y := tm.Forward(q[0], q[1])
-					back = orb.Point{x, y}
+					back[0], back[1] = tm.Forward(back[0], back[1])
 				}
 				worst = max(worst, math.Hypot(back[0]-p[0], back[1]-p[1]))
 			}
