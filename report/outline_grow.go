@@ -207,6 +207,22 @@ func (ae *areaEdges) near(e int32, x, y float64) bool {
 	return along >= -ae.tol && along <= l+ae.tol && math.Abs((x-ax)*dy-(y-ay)*dx)/l <= ae.tol
 }
 
+// nearBox reports whether a grid cell the box b covers lists an area
+// edge (if none does, no point of b is within tol of the boundary).
+func (ae *areaEdges) nearBox(b orb.Bound) bool {
+	if len(ae.list) == 0 {
+		return false
+	}
+	g := &ae.grid
+	c0, r0, c1, r1 := g.Col(b.Min[0]), g.Row(b.Min[1]), g.Col(b.Max[0]), g.Row(b.Max[1])
+	for y := r0; y <= r1; y++ {
+		if ae.start[y*g.NX+c0] != ae.start[y*g.NX+c1+1] {
+			return true
+		}
+	}
+	return false
+}
+
 // edgeOf returns the area edge the segment (a, b) lies on (both ends
 // within tol of it), or −1.
 func (ae *areaEdges) edgeOf(ax, ay, bx, by float64) int32 {
@@ -277,9 +293,16 @@ func (s *scene) offsetOutline(sc *offsetScratch, mp orb.MultiPolygon, d float64)
 // vertices is returned as it is. Its length (about 100 lines) is the
 // corner cases of one loop, kept together.
 func (sc *offsetScratch) offsetRing(r orb.Ring, d float64, ae *areaEdges) (orb.Ring, bool) {
-	pts := planar.DropRepeats(append(sc.pts[:0], r...))
+	pts := sc.pts[:0]
+	b := orb.Bound{Min: r[0], Max: r[0]}
+	for _, q := range r {
+		if len(pts) == 0 || q != pts[len(pts)-1] {
+			pts = append(pts, q)
+			b = b.Extend(q)
+		}
+	}
 	sc.pts = pts[:0]
-	if len(pts) > 1 && pts[len(pts)-1] == pts[0] {
+	for len(pts) > 1 && pts[len(pts)-1] == pts[0] {
 		pts = pts[:len(pts)-1]
 	}
 	n := len(pts)
@@ -298,12 +321,16 @@ func (sc *offsetScratch) offsetRing(r orb.Ring, d float64, ae *areaEdges) (orb.R
 	sc.ux, sc.uy = slices.Grow(sc.ux[:0], n)[:n], slices.Grow(sc.uy[:0], n)[:n]
 	sc.area, sc.first = slices.Grow(sc.area[:0], n)[:n], slices.Grow(sc.first[:0], n+1)[:n+1]
 	ux, uy, area, first := sc.ux, sc.uy, sc.area, sc.first
+	near := ae.nearBox(b) // most rings lie far from the area's boundary
 	for i := range n {
 		a, b := pts[i], pts[(i+1)%n]
 		dx, dy := b[0]-a[0], b[1]-a[1]
 		l := math.Sqrt(dx*dx + dy*dy) // coordinates are far from overflow
 		ux[i], uy[i] = dx/l, dy/l
-		area[i] = ae.edgeOf(a[0], a[1], b[0], b[1])
+		area[i] = -1
+		if near {
+			area[i] = ae.edgeOf(a[0], a[1], b[0], b[1])
+		}
 	}
 	// out[first[i]] .. out[first[i+1]-1] are vertex i's points.
 	for i := range n {
