@@ -154,15 +154,29 @@ func newAreaEdges(r *planar.Region) *areaEdges {
 	regionEdges(r, func(ax, ay, bx, by float64) { ae.xy = append(ae.xy, ax, ay, bx, by) })
 	t := ae.tol
 	n := len(ae.xy) / 4
-	ae.grid = planar.GridOfCells(b.Min[0]-t, b.Min[1]-t, b.Max[0]+t, b.Max[1]+t, n)
+	ae.grid = planar.GridOfCells(b.Min[0]-t, b.Min[1]-t, b.Max[0]+t, b.Max[1]+t, max(areaCellsPerEdge*n, areaMinCells))
 	g := &ae.grid
 	ae.start = make([]int32, g.NumCells()+1)
 	cells := func(e int, f func(c int)) {
 		ax, ay, bx, by := ae.xy[4*e], ae.xy[4*e+1], ae.xy[4*e+2], ae.xy[4*e+3]
-		c0, r0 := g.Col(min(ax, bx)-t), g.Row(min(ay, by)-t)
-		c1, r1 := g.Col(max(ax, bx)+t), g.Row(max(ay, by)+t)
+		r0, r1 := g.Row(min(ay, by)-t), g.Row(max(ay, by)+t)
 		for y := r0; y <= r1; y++ {
-			for x := c0; x <= c1; x++ {
+			// The edge's x extent within the row's band (grown by
+			// tol; the border rows reach to infinity).
+			lo, hi := math.Inf(-1), math.Inf(1)
+			if g.SY > 0 && y > 0 {
+				lo = g.Y0 + float64(y)/g.SY - t
+			}
+			if g.SY > 0 && y < g.NY-1 {
+				hi = g.Y0 + float64(y+1)/g.SY + t
+			}
+			x0, x1 := min(ax, bx), max(ax, bx)
+			if ay != by {
+				y0, y1 := max(lo, min(ay, by)), min(hi, max(ay, by))
+				xa, xb := ax+(y0-ay)*(bx-ax)/(by-ay), ax+(y1-ay)*(bx-ax)/(by-ay)
+				x0, x1 = max(x0, min(xa, xb)), min(x1, max(xa, xb))
+			}
+			for x := g.Col(x0 - t); x <= g.Col(x1+t); x++ {
 				f(y*g.NX + x)
 			}
 		}
@@ -194,6 +208,14 @@ func regionEdges(r *planar.Region, f func(ax, ay, bx, by float64)) {
 		}
 	}
 }
+
+// The area edge grid has about areaCellsPerEdge cells per edge, at least
+// areaMinCells: fine enough that most outline rings, away from the
+// boundary, find their cells empty (nearBox).
+const (
+	areaCellsPerEdge = 4
+	areaMinCells     = 4096
+)
 
 // near reports whether (x, y) lies within tol of area edge e.
 func (ae *areaEdges) near(e int32, x, y float64) bool {

@@ -437,3 +437,38 @@ func TestOffsetRing(t *testing.T) {
 		})
 	}
 }
+
+func TestAreaEdgesFindEveryEdge(t *testing.T) {
+	// Two points on an edge of a many-sided area (with a hole) find that
+	// edge; a segment off the boundary finds none.
+	var outer, hole []float64
+	for k := range 37 {
+		a := 2 * math.Pi * float64(k) / 37
+		rr := 100 + 30*math.Sin(5*a)
+		outer = append(outer, rr*math.Cos(a), rr*math.Sin(a))
+		hole = append(hole, 10*math.Cos(-a), 10*math.Sin(-a))
+	}
+	area := region(t, outer, hole)
+	ae := newAreaEdges(area)
+	rng := rand.New(rand.NewPCG(3, 4))
+	found := 0
+	regionEdges(area, func(ax, ay, bx, by float64) {
+		for range 20 {
+			s, u := rng.Float64(), rng.Float64()
+			e := ae.edgeOf(ax+s*(bx-ax), ay+s*(by-ay), ax+u*(bx-ax), ay+u*(by-ay))
+			if e < 0 {
+				t.Fatalf("no edge found for points on (%g, %g)-(%g, %g)", ax, ay, bx, by)
+			}
+			found++
+		}
+	})
+	if e := ae.edgeOf(20, 20, 30, 25); e >= 0 {
+		t.Errorf("a segment inside the area lies on edge %d", e)
+	}
+	if !ae.nearBox(orb.Bound{Min: orb.Point{95, -1}, Max: orb.Point{101, 1}}) || ae.nearBox(orb.Bound{Min: orb.Point{40, 40}, Max: orb.Point{41, 41}}) {
+		t.Error("nearBox wrong beside the boundary or far from it")
+	}
+	if found != 74*20 {
+		t.Errorf("%d segments checked", found)
+	}
+}
