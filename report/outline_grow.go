@@ -264,7 +264,7 @@ func (ae *areaEdges) edgeOf(ax, ay, bx, by float64) int32 {
 // than 90° (cosine of the turn below 0) gets a square cap instead of a
 // mitre, whose length ε/cos(turn/2) would exceed √2·ε. minTurnSlack: a
 // mitre at a reflex corner is refused when 1 + cos(turn) is below it (a
-// turn within 1.6° of 180°, mitre longer than 90·ε), as is a slide along
+// turn within 1.3° of 180°, mitre longer than 89·ε), as is a slide along
 // an area edge longer than maxSlide·ε: such shapes go to the next level
 // (finer rounding, 100 times smaller ε).
 const (
