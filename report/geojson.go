@@ -12,7 +12,9 @@
 // it), and every ring is oriented by the sign of its shoelace area in the
 // output coordinates — exterior rings counter-clockwise, holes clockwise
 // (RFC 7946 §3.1.6); a polygon that rounding would make invalid is split
-// at repeated points or written with more digits (outline.go). No "crs"
+// at repeated points or written with more digits (outline.go); gap
+// outlines are grown and covered parts shrunk by the largest move of
+// rounding first, so that they keep their promise (outline_grow.go). No "crs"
 // member is written (§4), except in the projected copies (outcrs.go).
 //
 // With Meta.Planar the same layers hold local x/y metres rounded to 1 mm
@@ -377,13 +379,15 @@ func (s *scene) gapFields() []gpkg.Field {
 }
 
 // gapLayer is a gaps layer for gaps at range r; deepest gives gap i's
-// deepest point in output coordinates.
+// deepest point in output coordinates. Outlines are grown by the rounding
+// reach before rounding, so each written one contains its gap
+// (outline_grow.go).
 func (s *scene) gapLayer(gaps []coverage.Gap, r float64, deepest func(i int) Point) *layerDef {
 	return &layerDef{geom: gpkg.MultiPolygon, fields: s.gapFields(),
 		each: func(emit emitFunc) error {
 			var buf polyBuf
 			for gi, g := range gaps {
-				mp := s.multiPolygonInto(&buf, g.Outline)
+				mp := s.conservativeInto(&buf, g.Outline, 1)
 				if len(mp) == 0 {
 					continue
 				}
@@ -418,8 +422,9 @@ func (s *scene) holesLayer() *layerDef {
 
 // coveredLayer is the covered part of the area at the planned range
 // (coverage.Layout.Covered: the area less the gap outlines, so inside the
-// true covered part by at most the chord tolerance), one feature per
-// connected covered part, largest first by outline area.
+// true covered part by at most the chord tolerance; shrunk by the rounding
+// reach before rounding, outline_grow.go), one feature per connected
+// covered part, largest first by outline area (before the shrinking).
 func (s *scene) coveredLayer() *layerDef {
 	return &layerDef{geom: gpkg.MultiPolygon,
 		fields: fieldList("part", gpkg.Integer, "outline_area_m2", gpkg.Real, "range_m", gpkg.Real),
@@ -439,7 +444,7 @@ func (s *scene) coveredLayer() *layerDef {
 			n := 0
 			var buf polyBuf
 			for _, i := range order {
-				mp := s.multiPolygonInto(&buf, orb.MultiPolygon{parts[i]})
+				mp := s.conservativeInto(&buf, orb.MultiPolygon{parts[i]}, -1)
 				if len(mp) == 0 {
 					continue
 				}
@@ -472,6 +477,7 @@ type polyBuf struct {
 	pts   []orb.Point   // the rings' positions, ring after ring
 	rings []orb.Ring    // the kept rings, slices of pts
 	polys []orb.Polygon // the kept polygons, slices of rings
+	off   offsetScratch // conservativeInto's moved outline
 }
 
 // reset empties b for the next feature; the multipolygon it held is
@@ -483,6 +489,12 @@ func (b *polyBuf) reset() {
 // multiPolygonInto is multiPolygon into the memory of b (valid until b is
 // used again).
 func (s *scene) multiPolygonInto(b *polyBuf, in orb.MultiPolygon) orb.MultiPolygon {
+	return s.checkRounding(in, s.roundInto(b, in))
+}
+
+// roundInto converts a local-plane multipolygon to output coordinates,
+// rounded, repaired and oriented, into the memory of b, unchecked.
+func (s *scene) roundInto(b *polyBuf, in orb.MultiPolygon) orb.MultiPolygon {
 	b.reset()
 	for _, poly := range in {
 		r0 := len(b.rings)
@@ -493,7 +505,7 @@ func (s *scene) multiPolygonInto(b *polyBuf, in orb.MultiPolygon) orb.MultiPolyg
 		}
 		b.endPolygon(r0)
 	}
-	return s.checkRounding(in, b.polys)
+	return b.polys
 }
 
 // cellPolygons is multiPolygon of the clipped cell of vertex v, read from

@@ -174,15 +174,24 @@ func (s *scene) reachSteps(opt Options) []step {
 	if kc == nil {
 		return nil
 	}
-	st := []step{
-		s.layerStep(FileReach, s.reachLayer(kc)),
-		s.layerStep(FileReachGaps, s.reachGapsLayer(kc)),
-	}
+	st := s.reachLayerSteps(kc)
 	if opt.Maps && !reachOwn(kc) {
 		width := mapWidth(opt)
 		st = append(st, step{name: FileMapReach, write: fromBytes(func() ([]byte, error) { return s.reachMap(kc, width) })})
 	}
 	return st
+}
+
+// reachLayerSteps are the steps writing the two k-coverage layers (none
+// without kc); the projected copies (outcrs.go) repeat them.
+func (s *scene) reachLayerSteps(kc *coverage.KCoverage) []step {
+	if kc == nil {
+		return nil
+	}
+	return []step{
+		s.layerStep(FileReach, s.reachLayer(kc)),
+		s.layerStep(FileReachGaps, s.reachGapsLayer(kc)),
+	}
 }
 
 func (s *scene) reachDoc(kc *coverage.KCoverage) *ReachDoc {
@@ -368,9 +377,10 @@ func (s *scene) reachGapsLayer(kc *coverage.KCoverage) *layerDef {
 	return &layerDef{geom: gpkg.MultiPolygon,
 		fields: fieldList(f...),
 		each: func(emit emitFunc) error {
+			var buf polyBuf
 			for _, lv := range kc.Levels {
 				for _, g := range lv.Gaps {
-					out := s.multiPolygon(g.Outline)
+					out := s.conservativeInto(&buf, g.Outline, 1)
 					if len(out) == 0 {
 						continue
 					}

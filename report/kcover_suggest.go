@@ -146,6 +146,7 @@ func ReachPlanOutputs(p *ReachPlan, m Meta, opt Options) []string {
 	}
 	f := []string{FileReport, FileSummary, LayerFile(FileSites, m.Planar), LayerFile(pts, m.Planar),
 		LayerFile(FileReach, m.Planar), LayerFile(FileReachGaps, m.Planar)}
+	f = append(f, gridLayerFiles(m, FileSites, pts, FileReach, FileReachGaps)...)
 	if opt.GeoPackage {
 		f = append(f, FileGeoPackage)
 	}
@@ -208,6 +209,14 @@ func WriteReachPlan(dir string, p *ReachPlan, m Meta, opt Options) ([]string, er
 		after.layerStep(FileReach, after.reachLayer(p.AfterReach)),
 		after.layerStep(FileReachGaps, after.reachGapsLayer(p.AfterReach)),
 	}
+	steps = append(steps, s.gridCopies(func(g *scene) []step {
+		gp := g.layerStep(FileReachAdded, g.reachAddedLayer(p.Suggestion))
+		if p.Choice != nil {
+			gp = g.layerStep(FileCandidates, g.reachCandidatesLayer(p))
+		}
+		return []step{g.layerStep(FileSites, g.sitesLayer()), gp}
+	})...)
+	steps = append(steps, after.gridCopies(func(g *scene) []step { return g.reachLayerSteps(p.AfterReach) })...)
 	if opt.GeoPackage {
 		steps = append(steps, step{name: FileGeoPackage, gpkg: true})
 	}

@@ -1,6 +1,7 @@
 // The layers in a projected system on request (Meta.OutCRS; the CLI's
 // --out-crs): besides the RFC 7946 layers in WGS84 longitude/latitude,
-// each layer of WriteAnalysis, WriteCells and WriteRangesAnalysis is
+// each layer of WriteAnalysis (with the k-coverage layers of --reach),
+// WriteCells, WriteRangesAnalysis, WritePlan and WriteReachPlan is
 // written once more as
 // "<layer>-epsg<code>.geojson" (e.g. sites-epsg32632.geojson), in the
 // system's easting/northing rounded to 1 mm, with the GeoJSON 2008 "crs"

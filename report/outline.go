@@ -34,6 +34,10 @@
 // part into another without such a contact on the way. A vertex of one
 // ring on an edge of another (valid in GEOS) is refused too: that feature
 // then keeps more digits, which is never wrong.
+//
+// Gap outlines and covered parts go through conservativeInto, which moves
+// them by the rounding reach first (outline_grow.go) and moves them by a
+// finer reach at each finer level.
 
 package report
 
@@ -58,22 +62,53 @@ const (
 // valid outline, else the conversion of in with more decimals (see the
 // file comment).
 func (s *scene) checkRounding(in, out orb.MultiPolygon) orb.MultiPolygon {
-	if outlineValid(out) {
-		return out
-	}
-	if split, ok := splitPinches(out); ok && outlineValid(split) {
-		return split
-	}
-	if s.unrounded {
-		return out
+	if mp, ok := s.validRounded(out); ok {
+		return mp
 	}
 	return s.finer().multiPolygon(in)
+}
+
+// validRounded returns out, or out split at its pinches, when that is a
+// valid outline, or out itself from an unrounded scene (nothing finer to
+// try); false otherwise.
+func (s *scene) validRounded(out orb.MultiPolygon) (orb.MultiPolygon, bool) {
+	if outlineValid(out) {
+		return out, true
+	}
+	if split, ok := splitPinches(out); ok && outlineValid(split) {
+		return split, true
+	}
+	return out, s.unrounded
+}
+
+// conservativeInto converts the outline in (local plane) as
+// multiPolygonInto does, moved first by the rounding reach so that the
+// written polygon keeps its promise (outline_grow.go): grow > 0 for a
+// gap outline (it contains its gap), grow < 0 for a covered part (it lies
+// in the disks). A feature whose moved outline cannot be formed, or is
+// not valid once rounded (after splitting pinches), is tried with
+// finerDigits more decimals and a reach as much smaller, and at last
+// unrounded and unmoved.
+func (s *scene) conservativeInto(b *polyBuf, in orb.MultiPolygon, grow float64) orb.MultiPolygon {
+	for sc := s; ; sc = sc.finer() {
+		src := in
+		if d := sc.roundingReach(); d > 0 {
+			g, ok := sc.offsetOutline(&b.off, in, math.Copysign(d, grow))
+			if !ok {
+				continue
+			}
+			src = g
+		}
+		if mp, ok := sc.validRounded(sc.roundInto(b, src)); ok {
+			return mp
+		}
+	}
 }
 
 // finer returns a scene converting points as s does with finerDigits more
 // decimals, or unrounded after maxExtraDigits.
 func (s *scene) finer() *scene {
-	f := &scene{l: s.l, a: s.a, m: s.m, grid: s.grid, extraDigits: s.extraDigits + finerDigits}
+	f := &scene{l: s.l, a: s.a, m: s.m, grid: s.grid, extraDigits: s.extraDigits + finerDigits, area: s.area}
 	if s.extraDigits >= maxExtraDigits {
 		f.extraDigits, f.unrounded = s.extraDigits, true
 	}
@@ -109,11 +144,21 @@ const edgesPerCell = 4
 
 // outlineValid reports whether the closed rings of mp make the contacts
 // the file comment allows, and only those. Exact: orientation and dot
-// signs of the written coordinates. Two edges can meet only where their
-// bounding boxes overlap, so beyond bruteForceEdges each edge is listed in
-// the grid cells its box covers and a pair is compared in one cell only,
-// the one holding the lower-left corner of the overlap of their boxes.
+// signs of the written coordinates. A feature of one convex ring (most
+// service areas) passes at once (convexRing); others go to pairsValid.
 func outlineValid(mp orb.MultiPolygon) bool {
+	if len(mp) == 1 && len(mp[0]) == 1 && convexRing(mp[0][0]) {
+		return true // most service areas: one convex ring
+	}
+	return pairsValid(mp)
+}
+
+// pairsValid is outlineValid without the convex pre-filter, comparing
+// pairs of edges. Two edges can meet only where their bounding boxes
+// overlap, so beyond bruteForceEdges each edge is listed in the grid cells
+// its box covers and a pair is compared in one cell only, the one holding
+// the lower-left corner of the overlap of their boxes.
+func pairsValid(mp orb.MultiPolygon) bool {
 	total := 0
 	for _, p := range mp {
 		for _, r := range p {
@@ -203,6 +248,43 @@ func outlineValid(mp orb.MultiPolygon) bool {
 		}
 	}
 	return true
+}
+
+// convexRing reports whether the closed ring r turns left at every
+// vertex and its edges' x direction changes sign exactly twice: then its
+// direction turns once round (the turn at each vertex is below π, so each
+// turn round changes the sign twice), and a ring turning left everywhere
+// and once round is a convex polygon, simple: outlineValid's pre-filter,
+// n exact orientation signs instead of the pairs of edges. Exact: the
+// sign of a difference of doubles is that of the exact difference.
+func convexRing(r orb.Ring) bool {
+	n := len(r) - 1
+	if n < 3 || r[0] != r[n] {
+		return false
+	}
+	changes, last := 0, 0.0
+	for i := range n {
+		a, b, c := r[(i+n-1)%n], r[i], r[i+1]
+		if planar.Orient2D(a[0], a[1], b[0], b[1], c[0], c[1]) <= 0 {
+			return false
+		}
+		if dx := c[0] - b[0]; dx != 0 {
+			if last != 0 && (dx > 0) != (last > 0) {
+				changes++
+			}
+			last = dx
+		}
+	}
+	// The wrap from the last edge with dx ≠ 0 to the first.
+	for i := range n {
+		if dx := r[i+1][0] - r[i][0]; dx != 0 {
+			if (dx > 0) != (last > 0) {
+				changes++
+			}
+			break
+		}
+	}
+	return changes == 2
 }
 
 // outlineGrid is the uniform grid of outlineValid: g × g cells over the

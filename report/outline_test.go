@@ -4,6 +4,8 @@
 package report
 
 import (
+	"math"
+	"math/rand/v2"
 	"testing"
 
 	"github.com/paulmach/orb"
@@ -107,5 +109,60 @@ func TestSplitPinches(t *testing.T) {
 				t.Errorf("split outline still invalid: %v", out)
 			}
 		})
+	}
+}
+
+func TestConvexRing(t *testing.T) {
+	for _, c := range []struct {
+		name string
+		r    orb.Ring
+		want bool
+	}{
+		{"square", closed(0, 0, 1, 0, 1, 1, 0, 1), true},
+		{"triangle", closed(0, 0, 2, 0, 1, 1e-3), true},
+		{"clockwise", closed(0, 0, 0, 1, 1, 1, 1, 0), false},
+		{"collinear vertex", closed(0, 0, 1, 0, 2, 0, 2, 2), false},
+		{"pentagram: left turns, twice round", closed(0, 1, -0.951, -0.309, 0.588, -0.809, 0.588, 0.809, -0.951, 0.309), false},
+		{"non-convex", closed(0, 0, 2, 0, 1, 0.5, 2, 2, 0, 2), false},
+		{"vertical edges", closed(0, 0, 1, 0, 1, 1, 0, 1, 0, 0.5), false},
+		{"hexagon with vertical sides", closed(0, 0, 1, -1, 2, 0, 2, 1, 1, 2, 0, 1), true},
+	} {
+		t.Run(c.name, func(t *testing.T) {
+			if got := convexRing(c.r); got != c.want {
+				t.Errorf("convexRing = %v, want %v", got, c.want)
+			}
+			if c.want && !outlineValid(orb.MultiPolygon{{c.r}}) {
+				t.Error("a convex ring outlineValid refuses")
+			}
+		})
+	}
+}
+
+func TestConvexRingAgreesWithPairs(t *testing.T) {
+	// On rounded random rings (convex or not) the pre-filter never
+	// accepts one the pairwise check refuses.
+	rng := rand.New(rand.NewPCG(5, 6))
+	accepted := 0
+	for range 20000 {
+		n := 3 + rng.IntN(6)
+		var pts []float64
+		for k := range n {
+			a := 2 * math.Pi * (float64(k) + 0.8*rng.Float64()) / float64(n)
+			if rng.IntN(4) == 0 {
+				a = 2 * math.Pi * rng.Float64() // sometimes out of order
+			}
+			rad := 1e-3 * (1 + rng.Float64())
+			pts = append(pts, round(rad*math.Cos(a), 3+rng.IntN(2)), round(rad*math.Sin(a), 3+rng.IntN(2)))
+		}
+		r := closed(pts...)
+		if convexRing(r) {
+			accepted++
+			if !pairsValid(orb.MultiPolygon{{r}}) {
+				t.Fatalf("convexRing accepts %v, the pairwise check refuses it", r)
+			}
+		}
+	}
+	if accepted < 1000 {
+		t.Errorf("only %d rings accepted", accepted)
 	}
 }

@@ -143,20 +143,22 @@ const (
 // PlanFiles returns the names of the files WritePlan writes for move with
 // the given Meta and Options, in the order they are written.
 func PlanFiles(move Move, m Meta, opt Options) []string {
-	f := []string{FileReport, FileSummary, LayerFile(FileSites, m.Planar)}
+	f := []string{FileReport, FileSummary}
+	layers := planLayerFiles(move)
+	for _, l := range layers {
+		f = append(f, LayerFile(l, m.Planar))
+	}
 	var png string
 	switch move {
 	case MoveAdd, MoveFewest:
-		f = append(f, LayerFile(FileProposed, m.Planar), LayerFile(FileGapsBefore, m.Planar), LayerFile(FileGapsAfter, m.Planar))
 		png = FileMapSuggest
 	case MoveCandidates:
-		f = append(f, LayerFile(FileCandidates, m.Planar), LayerFile(FileGapsBefore, m.Planar), LayerFile(FileGapsAfter, m.Planar))
 		png = FileMapCandidates
 	case MoveFailures:
-		f = append(f, LayerFile(FileFailures, m.Planar), FileFailuresCSV)
+		f = append(f, FileFailuresCSV)
 		png = FileMapFailures
 	case MoveAssign:
-		f = append(f, LayerFile(FileAssignment, m.Planar), LayerFile(FileDeviceLoad, m.Planar), FileAssignmentCSV, FileDeviceLoadCSV)
+		f = append(f, FileAssignmentCSV, FileDeviceLoadCSV)
 		png = FileMapAssignment
 	}
 	if opt.GeoPackage {
@@ -165,7 +167,25 @@ func PlanFiles(move Move, m Meta, opt Options) []string {
 	if opt.Maps && png != "" {
 		f = append(f, png)
 	}
+	f = append(f, gridLayerFiles(m, layers...)...)
 	return append(f, FileManifest)
+}
+
+// planLayerFiles are the GeoJSON layers of move, in the order written
+// (before the "-xy" of LayerFile).
+func planLayerFiles(move Move) []string {
+	f := []string{FileSites}
+	switch move {
+	case MoveAdd, MoveFewest:
+		f = append(f, FileProposed, FileGapsBefore, FileGapsAfter)
+	case MoveCandidates:
+		f = append(f, FileCandidates, FileGapsBefore, FileGapsAfter)
+	case MoveFailures:
+		f = append(f, FileFailures)
+	case MoveAssign:
+		f = append(f, FileAssignment, FileDeviceLoad)
+	}
+	return f
 }
 
 // planScene is a scene with the plan it reports.
@@ -227,44 +247,60 @@ func WritePlan(dir string, p *Plan, m Meta, opt Options) ([]string, error) {
 	steps := []step{
 		{name: FileReport, write: s.writePlanTextTo},
 		{name: FileSummary, write: func(out io.Writer) error { return writeDoc(out, s.planSummary()) }},
-		s.layerStep(FileSites, s.sitesLayer()),
 	}
+	steps = append(steps, s.planLayers()...)
 	width := mapWidth(opt)
 	var drawMap func(int) ([]byte, error)
+	png := ""
+	switch p.Move {
+	case MoveAdd, MoveFewest:
+		drawMap, png = s.suggestionMap, FileMapSuggest
+	case MoveCandidates:
+		drawMap, png = s.candidateMap, FileMapCandidates
+	case MoveFailures:
+		steps = append(steps, step{name: FileFailuresCSV, write: s.failuresCSV})
+		drawMap, png = s.failureMap, FileMapFailures
+	case MoveAssign:
+		steps = append(steps,
+			step{name: FileAssignmentCSV, write: s.assignmentCSV},
+			step{name: FileDeviceLoadCSV, write: s.loadCSV})
+		drawMap, png = s.assignmentMap, FileMapAssignment
+	}
+	if opt.GeoPackage {
+		steps = append(steps, step{name: FileGeoPackage, gpkg: true})
+	}
+	if opt.Maps {
+		steps = append(steps, step{name: png, write: fromBytes(func() ([]byte, error) { return drawMap(width) })})
+	}
+	steps = append(steps, s.gridCopies(func(g *scene) []step { return (&planScene{scene: g, p: p}).planLayers() })...)
+	err = w.writeAll(s.scene, steps)
+	return w.done, err
+}
+
+// planLayers are the layer steps of the plan's move, in the order of
+// planLayerFiles.
+func (s *planScene) planLayers() []step {
+	p := s.p
+	steps := []step{s.layerStep(FileSites, s.sitesLayer())}
 	switch p.Move {
 	case MoveAdd, MoveFewest:
 		steps = append(steps,
 			s.layerStep(FileProposed, s.proposedLayer()),
 			s.layerStep(FileGapsBefore, s.planGapLayer(p.GapsBefore)),
 			s.layerStep(FileGapsAfter, s.planGapLayer(p.GapsAfter)))
-		drawMap = s.suggestionMap
 	case MoveCandidates:
 		steps = append(steps,
 			s.layerStep(FileCandidates, s.candidatesLayer()),
 			s.layerStep(FileGapsBefore, s.planGapLayer(p.GapsBefore)),
 			s.layerStep(FileGapsAfter, s.planGapLayer(p.Choice.Remaining)))
-		drawMap = s.candidateMap
 	case MoveFailures:
-		steps = append(steps,
-			s.layerStep(FileFailures, s.failuresLayer()),
-			step{name: FileFailuresCSV, write: s.failuresCSV})
-		drawMap = s.failureMap
+		steps = append(steps, s.layerStep(FileFailures, s.failuresLayer()))
 	case MoveAssign:
 		steps = append(steps,
 			s.layerStep(FileAssignment, s.assignmentLayer()),
-			s.layerStep(FileDeviceLoad, s.loadLayer()),
-			step{name: FileAssignmentCSV, write: s.assignmentCSV},
-			step{name: FileDeviceLoadCSV, write: s.loadCSV})
-		drawMap = s.assignmentMap
+			s.layerStep(FileDeviceLoad, s.loadLayer()))
 	}
-	if opt.GeoPackage {
-		steps = append(steps, step{name: FileGeoPackage, gpkg: true})
-	}
-	if opt.Maps {
-		steps = append(steps, step{name: files[len(files)-2], write: fromBytes(func() ([]byte, error) { return drawMap(width) })}) // the map, before manifest.json
-	}
-	err = w.writeAll(s.scene, steps)
-	return w.done, err
+	return steps
 }
 
 // PlanSummary builds the summary.json document of a planning move.

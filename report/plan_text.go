@@ -628,7 +628,9 @@ func (s *planScene) textPlanNotes(b *textBuf) {
 			"disk model (polygon-disk intersections, Voronoi vertices), exact up to",
 			"floating-point rounding; printed rounded to 0.1 m², 0.001 % and 0.01 m.",
 			"Gap outlines in the GeoJSON layers replace arcs by chords inside the disks",
-			"(sagitta at most 0.2 % of the range); gap areas are exact.",
+			"(sagitta at most 0.2 % of the range); gap areas are exact.")
+		lines = append(lines, s.roundingNote()...)
+		lines = append(lines,
 			"Positions are proposals for the disk model: check on site that a device can",
 			"be mounted there and reaches its range before committing.")
 	case MoveFailures:

@@ -503,9 +503,10 @@ func (rs *rangesScene) gapsLayer() *layerDef {
 		fields: fieldList("id", gpkg.Integer, "area_m2", gpkg.Real, "touches_boundary", gpkg.Boolean, "sites", gpkg.Text,
 			"fix_site", gpkg.Integer, "fix_label", gpkg.Text, "fix_range_m", gpkg.Real),
 		each: func(emit emitFunc) error {
+			var buf polyBuf
 			for gi := range rs.ra.Gaps {
 				g := &rs.ra.Gaps[gi]
-				mp := rs.multiPolygon(g.Outline)
+				mp := rs.conservativeInto(&buf, g.Outline, 1)
 				if len(mp) == 0 {
 					continue
 				}

@@ -193,6 +193,9 @@ func Files(cells bool, m Meta, opt Options) []string {
 		f = append(f, gridLayerFiles(m, FileSites, FileServiceAreas)...)
 	} else {
 		f = append(f, gridLayerFiles(m, FileSites, FileServiceAreas, FileGaps, FileHoleClosings, FileCovered)...)
+		if opt.Reach != nil {
+			f = append(f, gridLayerFiles(m, FileReach, FileReachGaps)...)
+		}
 	}
 	return append(f, FileManifest)
 }
@@ -242,7 +245,9 @@ func WriteAnalysis(dir string, a *coverage.Analysis, m Meta, opt Options) (writt
 			step{name: FileChartHoles, write: fromBytes(func() ([]byte, error) { return s.holeChart(width) })})
 	}
 	steps = append(steps, s.reachSteps(opt)...)
-	steps = append(steps, s.gridCopies(analysisLayers)...)
+	steps = append(steps, s.gridCopies(func(g *scene) []step {
+		return append(analysisLayers(g), g.reachLayerSteps(opt.Reach)...)
+	})...)
 	err = w.writeAll(s, steps)
 	return w.done, err
 }

@@ -52,10 +52,14 @@ type scene struct {
 	grid        *gridOutput
 	extraDigits int
 	unrounded   bool
+
+	// area indexes the site area's edges for the conservative outlines
+	// (outline_grow.go), shared with the scenes finer makes.
+	area *areaEdgesOnce
 }
 
 func newScene(l *coverage.Layout, a *coverage.Analysis, m Meta) *scene {
-	s := &scene{l: l, a: a, m: m}
+	s := &scene{l: l, a: a, m: m, area: new(areaEdgesOnce)}
 	if l != nil {
 		s.cells = l.ServiceAreas()
 	}

@@ -525,6 +525,9 @@ func (s *scene) textAccuracy(b *textBuf) {
 		"the planned range): each outline contains its true gap. Gap areas are exact.",
 		"Service-area outlines are exact (straight cell edges).",
 	}
+	if s.a != nil {
+		lines = append(lines, s.roundingNote()...)
+	}
 	if s.geographic() {
 		lines = append(lines,
 			"Points are WGS84 latitude and longitude in degrees with hemisphere letters,",

@@ -153,6 +153,7 @@ after as GeoJSON, and a map.
 	cmd.Flags().Var(newOnceString(&pf.newType, ""), "new-type", "device type of the added devices: their range is that type's in --type-range or --range-table (instead of --range)")
 	f.addRangeFlag(cmd.Flags(), "", "planned range of every device, e.g. 150m, 0.2km, 500ft, 0.1mi")
 	f.addPlanOutputFlags(cmd.Flags(), "suggest")
+	f.addOutCRSFlag(cmd.Flags())
 	addSuggestReachFlag(cmd.Flags(), f)
 	return cmd
 }
@@ -198,6 +199,7 @@ devices coloured by loss.
 	f.addInputFlags(cmd.Flags())
 	f.addRangeFlag(cmd.Flags(), "", "planned range of every device, e.g. 150m, 0.2km, 500ft, 0.1mi (required)")
 	f.addPlanOutputFlags(cmd.Flags(), "failures")
+	f.addOutCRSFlag(cmd.Flags())
 	return cmd
 }
 
@@ -253,6 +255,7 @@ line from each item to its device), device-load.geojson and a map.
 	cmd.Flags().Var(newOnceString(&pf.points, ""), "points", "demand points or polygons: GeoJSON (optional \"weight\" property) or CSV like --sites (optional weight column) (required)")
 	f.addRangeFlag(cmd.Flags(), "", "range of every device, e.g. 150m, 0.2km, 500ft, 0.1mi (default: distances only)")
 	f.addPlanOutputFlags(cmd.Flags(), "assign")
+	f.addOutCRSFlag(cmd.Flags())
 	return cmd
 }
 

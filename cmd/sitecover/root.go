@@ -196,7 +196,8 @@ func (f *runFlags) addInputFlags(fs *pflag.FlagSet) {
 	fs.Var(newOnceString(&f.crs, ""), "crs", "coordinate reference system of CSV x/y (Easting/Northing) columns and of GeoJSON without a \"crs\" member, e.g. EPSG:32632 (UTM zones of WGS 84 and ETRS89, SWEREF99 TM, ETRS-TM35FIN, NZTM2000, Poland CS92, Portugal TM06; EPSG:4326 reads x/y as longitude/latitude); outputs stay WGS84")
 }
 
-// addOutCRSFlag registers --out-crs (analyze, gaps, cells).
+// addOutCRSFlag registers --out-crs (analyze, gaps, cells and the planning
+// commands suggest, failures, assign).
 func (f *runFlags) addOutCRSFlag(fs *pflag.FlagSet) {
 	fs.Var(newOnceString(&f.outCRS, ""), "out-crs", "also write each layer in a projected system, as LAYER-epsgNNNN.geojson with a \"crs\" member: \"input\" for the inputs' own (from --crs or a file's \"crs\" member) or an EPSG code of --crs's list")
 }
