@@ -62,23 +62,48 @@ const (
 // valid outline, else the conversion of in with more decimals (see the
 // file comment).
 func (s *scene) checkRounding(in, out orb.MultiPolygon) orb.MultiPolygon {
-	if mp, ok := s.validRounded(out); ok {
+	if mp, ok := s.validRounded(in, out); ok {
 		return mp
 	}
 	return s.finer().multiPolygon(in)
 }
 
-// validRounded returns out, or out split at its pinches, when that is a
-// valid outline, or out itself from an unrounded scene (nothing finer to
-// try); false otherwise.
-func (s *scene) validRounded(out orb.MultiPolygon) (orb.MultiPolygon, bool) {
-	if outlineValid(out) {
-		return out, true
+// validRounded returns out (the conversion of in), or out split at its
+// pinches, when that is a valid outline; false otherwise. An unrounded
+// scene has nothing finer to try: it returns the conversion of in
+// without its thin folds (dropFolds) when that is valid, else out.
+func (s *scene) validRounded(in, out orb.MultiPolygon) (orb.MultiPolygon, bool) {
+	if mp, ok := validOrSplit(out); ok {
+		return mp, true
 	}
-	if split, ok := splitPinches(out); ok && outlineValid(split) {
+	if !s.unrounded {
+		return out, false
+	}
+	if folded, ok := dropFolds(in, foldWidth); ok {
+		var b polyBuf
+		out = s.roundInto(&b, folded)
+		if mp, ok := validOrSplit(out); ok {
+			return mp, true
+		}
+	}
+	if folded, ok := dropFolds(out, foldWidth*s.outUnitsPerMetre()); ok {
+		if mp, ok := validOrSplit(folded); ok {
+			return mp, true
+		}
+	}
+	return out, true
+}
+
+// validOrSplit returns mp, or mp split at its pinches, when that is a
+// valid outline.
+func validOrSplit(mp orb.MultiPolygon) (orb.MultiPolygon, bool) {
+	if outlineValid(mp) {
+		return mp, true
+	}
+	if split, ok := splitPinches(mp); ok && outlineValid(split) {
 		return split, true
 	}
-	return out, s.unrounded
+	return mp, false
 }
 
 // conservativeInto converts the outline in (local plane) as
@@ -99,7 +124,7 @@ func (s *scene) conservativeInto(b *polyBuf, in orb.MultiPolygon, grow float64) 
 			}
 			src = g
 		}
-		if mp, ok := sc.validRounded(sc.roundInto(b, src)); ok {
+		if mp, ok := sc.validRounded(src, sc.roundInto(b, src)); ok {
 			return mp
 		}
 	}

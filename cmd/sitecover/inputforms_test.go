@@ -493,15 +493,20 @@ func TestWrittenOutlinesValidGEOSLive(t *testing.T) {
 		mustRun(t, args...)
 	}
 	mustRun(t, "demo", "--out", filepath.Join(dir, "out", "demo"))
-	// Not checked: the reach bands (reach.geojson) of the geographic
-	// scenes, whose outlines from coverage.KCoverage.Bands fold back along
-	// the area's edge at the neck and the touching corners before any
-	// rounding (a known problem of the band construction, not of the
-	// writing); the k-gaps beside them are.
-	bands, _ := filepath.Glob(filepath.Join(dir, "out", "*-geo-reach-*", "reach*.geojson"))
-	for _, b := range bands {
-		if base := filepath.Base(b); strings.HasPrefix(base, "reach.") || strings.HasPrefix(base, "reach-epsg") {
-			os.Remove(b)
+	// Not checked: the reach bands (reach.geojson) of two geographic
+	// scenes. Their outlines from coverage.KCoverage.Bands carry, before
+	// any rounding, a hole that runs within ulps of an area edge of its
+	// own exterior ring at an area corner (neck, 12 m; touching, 30 m), a
+	// fault of the band construction, not of the writing. The thin folds
+	// along area edges of the other scenes' bands are dropped by the
+	// writer (report/outline_fold.go) and checked here; the k-gaps beside
+	// all of them are.
+	for _, run := range []string{"neck-geo-reach-12m", "touching-geo-reach-30m"} {
+		bands, _ := filepath.Glob(filepath.Join(dir, "out", run, "reach*.geojson"))
+		for _, b := range bands {
+			if base := filepath.Base(b); strings.HasPrefix(base, "reach.") || strings.HasPrefix(base, "reach-epsg") {
+				os.Remove(b)
+			}
 		}
 	}
 	out, err := exec.Command("/usr/bin/python3", "testdata/ref_valid.py", filepath.Join(dir, "out")).CombinedOutput()
