@@ -328,6 +328,7 @@ func (s *scene) sitesLayer() *layerDef {
 		fields: fieldList("site", gpkg.Integer, "name", gpkg.Text, "range_m", gpkg.Real, "type", gpkg.Text, "duplicate_of", gpkg.Integer),
 		each: func(emit emitFunc) error {
 			tri := s.l.Tri
+			vals := make([]any, 5) // reused: emit encodes a feature before it returns
 			for i, p := range s.l.Sites {
 				dup := -1
 				if tri != nil && i < len(tri.Vertex) && tri.Vertex[i] >= 0 {
@@ -339,7 +340,8 @@ func (s *scene) sitesLayer() *layerDef {
 				if v := s.rangeOf(i); v > 0 {
 					r = v
 				}
-				if err := emit(orb.Point(s.point(p)), i, s.name(i), r, s.typeOf(i), dup); err != nil {
+				vals[0], vals[1], vals[2], vals[3], vals[4] = i, s.name(i), r, s.typeOf(i), dup
+				if err := emit(orb.Point(s.point(p)), vals...); err != nil {
 					return err
 				}
 			}
@@ -356,13 +358,16 @@ func (s *scene) serviceAreasLayer() *layerDef {
 		fields: fieldList(append(f, "merged", gpkg.Text)...),
 		each: func(emit emitFunc) error {
 			var buf polyBuf
+			vals := make([]any, 8) // reused: emit encodes a feature before it returns
 			for i, c := range s.cells {
 				mp := s.cellPolygons(&buf, c.Vertex)
 				if len(mp) == 0 {
 					continue
 				}
 				far := s.farthestOut(i)
-				if err := emit(mp, c.Site, s.name(c.Site), c.Area, c.Share, c.Farthest, far[0], far[1], joinInts(c.Merged)); err != nil {
+				vals[0], vals[1], vals[2], vals[3], vals[4] = c.Site, s.name(c.Site), c.Area, c.Share, c.Farthest
+				vals[5], vals[6], vals[7] = far[0], far[1], joinInts(c.Merged)
+				if err := emit(mp, vals...); err != nil {
 					return err
 				}
 			}
@@ -407,8 +412,10 @@ func (s *scene) holesLayer() *layerDef {
 			if p == nil {
 				return nil
 			}
+			vals := make([]any, 5) // reused: emit encodes a feature before it returns
 			for i, h := range p.Holes {
-				if err := emit(orb.Point(s.closingOut(i)), h.Birth, h.Death, h.Death-h.Birth, s.holeNote(i), joinInts(h.BirthSites[:])); err != nil {
+				vals[0], vals[1], vals[2], vals[3], vals[4] = h.Birth, h.Death, h.Death-h.Birth, s.holeNote(i), joinInts(h.BirthSites[:])
+				if err := emit(orb.Point(s.closingOut(i)), vals...); err != nil {
 					return err
 				}
 			}
