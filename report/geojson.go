@@ -254,9 +254,9 @@ func appendNum(b []byte, v float64) []byte {
 }
 
 // appendDecimal7 appends n/10⁷ in plain decimal without trailing zeros.
-// The digits are produced right to left into a local array: the integer
-// part of |n|/10⁷ < 10¹² has at most 12 digits, with sign, point and 7
-// decimals at most 21 bytes.
+// The digits are produced right to left into a local array, two at a
+// time from digitPairs: the integer part of |n|/10⁷ < 10¹² has at most 12
+// digits, with sign, point and 7 decimals at most 21 bytes.
 func appendDecimal7(b []byte, n int64) []byte {
 	if n < 0 {
 		b = append(b, '-')
@@ -267,29 +267,53 @@ func appendDecimal7(b []byte, n int64) []byte {
 	u := uint64(n)
 	ip, frac := u/1e7, u%1e7
 	if frac != 0 {
-		k := 7
+		k := 7 // decimals left to write, leading zeros included
 		for frac%10 == 0 {
 			frac /= 10
 			k--
 		}
-		for ; k > 0; k-- {
+		for ; k >= 2; k -= 2 {
+			q := frac / 100
+			r := 2 * (frac - 100*q)
+			i -= 2
+			d[i], d[i+1] = digitPairs[r], digitPairs[r+1]
+			frac = q
+		}
+		if k == 1 {
 			i--
-			d[i] = byte('0' + frac%10)
-			frac /= 10
+			d[i] = byte('0' + frac)
 		}
 		i--
 		d[i] = '.'
 	}
-	for {
+	for ip >= 100 {
+		q := ip / 100
+		r := 2 * (ip - 100*q)
+		i -= 2
+		d[i], d[i+1] = digitPairs[r], digitPairs[r+1]
+		ip = q
+	}
+	if ip >= 10 {
+		i -= 2
+		d[i], d[i+1] = digitPairs[2*ip], digitPairs[2*ip+1]
+	} else {
 		i--
-		d[i] = byte('0' + ip%10)
-		ip /= 10
-		if ip == 0 {
-			break
-		}
+		d[i] = byte('0' + ip)
 	}
 	return append(b, d[i:]...)
 }
+
+// digitPairs holds "00" to "99": digitPairs[2k:2k+2] is k in two digits.
+const digitPairs = "00010203040506070809" +
+	"10111213141516171819" +
+	"20212223242526272829" +
+	"30313233343536373839" +
+	"40414243444546474849" +
+	"50515253545556575859" +
+	"60616263646566676869" +
+	"70717273747576777879" +
+	"80818283848586878889" +
+	"90919293949596979899"
 
 // appendStr appends s as a JSON string (invalid UTF-8 replaced by U+FFFD).
 func appendStr(b []byte, s string) []byte {
