@@ -383,20 +383,55 @@ func (s *scene) serviceAreasLayer() *layerDef {
 		each: func(emit emitFunc) error {
 			var buf polyBuf
 			vals := make([]any, 8) // reused: emit encodes a feature before it returns
-			for i, c := range s.cells {
+			return s.forCells(func(c *coverage.ServiceArea, far Point) error {
 				mp := s.cellPolygons(&buf, c.Vertex)
 				if len(mp) == 0 {
-					continue
+					return nil
 				}
-				far := s.farthestOut(i)
 				vals[0], vals[1], vals[2], vals[3], vals[4] = c.Site, s.name(c.Site), c.Area, c.Share, c.Farthest
 				vals[5], vals[6], vals[7] = far[0], far[1], joinInts(c.Merged)
-				if err := emit(mp, vals...); err != nil {
-					return err
-				}
-			}
-			return nil
+				return emit(mp, vals...)
+			})
 		}}, 0)
+}
+
+// forCells calls f with each service area in the order of s.cells and its
+// farthest point in output coordinates. A scene without s.cells (the
+// early scene of an AnalysisWriter, which runs beside the analysis) derives
+// each from the layout in turn, holding no list of them: the inputs in
+// order, each first input at a vertex giving that vertex's entry, its
+// Merged the other inputs at the vertex (Triangulation.Duplicates).
+func (s *scene) forCells(f func(c *coverage.ServiceArea, far Point) error) error {
+	if s.cells != nil {
+		for i := range s.cells {
+			if err := f(&s.cells[i], s.farthestOut(i)); err != nil {
+				return err
+			}
+		}
+		return nil
+	}
+	tri := s.l.Tri
+	merged := map[int32][]int{} // vertex → its inputs after the first
+	for _, g := range tri.Duplicates() {
+		m := make([]int, 0, len(g)-1)
+		for _, i := range g {
+			if i != tri.Source[tri.Vertex[i]] {
+				m = append(m, int(i))
+			}
+		}
+		merged[tri.Vertex[g[0]]] = m
+	}
+	for i, v := range tri.Vertex {
+		if v < 0 || int(tri.Source[v]) != i {
+			continue
+		}
+		c := s.l.ServiceArea(v)
+		c.Merged = merged[v]
+		if err := f(&c, s.point(c.FarthestPoint)); err != nil {
+			return err
+		}
+	}
+	return nil
 }
 
 // gapFields are the fields of a gaps layer.

@@ -246,7 +246,9 @@ func StartAnalysis(dir string, l *coverage.Layout, r float64, m Meta, opt Option
 		return nil, err
 	}
 	aw := &AnalysisWriter{w: w, m: m, opt: opt}
-	aw.early = newScene(l, &coverage.Analysis{Layout: l, Range: r}, m)
+	// The early scene holds no service-area list (forCells): Finish's scene
+	// gathers it once the analysis is done and its memory free again.
+	aw.early = &scene{l: l, a: &coverage.Analysis{Layout: l, Range: r}, m: m}
 	if !opt.GeoPackage {
 		for _, st := range cellLayers(aw.early) {
 			aw.steps = append(aw.steps, w.start(aw.early, st, &aw.stop))
@@ -264,7 +266,7 @@ func (aw *AnalysisWriter) Finish(a *coverage.Analysis) (written []string, err er
 		return nil, fmt.Errorf("report: the analysis is not the one the report was started for")
 	}
 	m, opt, w := aw.m, aw.opt, aw.w
-	s := &scene{l: a.Layout, a: a, m: m, cells: aw.early.cells, far: aw.early.far}
+	s := newScene(a.Layout, a, m)
 	s.files = Files(false, m, opt)
 	s.listMax = SummaryListMax
 	steps := []step{

@@ -35,13 +35,11 @@ type scene struct {
 
 	// The output points that several files print (report.txt,
 	// summary.json and a GeoJSON layer each), converted once on first use:
-	// the farthest point of each service area (far, which the scenes of one
-	// report share, see AnalysisWriter), the deepest point of each gap and
-	// the closing point of each hole, in the orders of s.cells, s.a.Gaps
-	// and s.a.Persistence.Holes.
-	far               *farPoints
-	keyOnce           sync.Once
-	deepOut, closeOut []Point
+	// the farthest point of each service area, the deepest point of each
+	// gap and the closing point of each hole, in the orders of s.cells,
+	// s.a.Gaps and s.a.Persistence.Holes.
+	keyOnce                   sync.Once
+	farOut, deepOut, closeOut []Point
 
 	// holeNotes marks each hole of s.a.Persistence.Holes (holeNote),
 	// computed once.
@@ -57,18 +55,11 @@ type scene struct {
 }
 
 func newScene(l *coverage.Layout, a *coverage.Analysis, m Meta) *scene {
-	s := &scene{l: l, a: a, m: m, far: &farPoints{}}
+	s := &scene{l: l, a: a, m: m}
 	if l != nil {
 		s.cells = l.ServiceAreas()
 	}
 	return s
-}
-
-// farPoints are the farthest points of the service areas in output
-// coordinates, converted once on first use.
-type farPoints struct {
-	once sync.Once
-	out  []Point
 }
 
 // listed returns how many of n list entries summary.json holds.
@@ -96,10 +87,11 @@ func (s *scene) point(p orb.Point) Point {
 	return Point{s.roundOut(p[0], 3), s.roundOut(p[1], 3)}
 }
 
-// convertKeyPoints fills deepOut and closeOut (in parallel: with
+// convertKeyPoints fills farOut, deepOut and closeOut (in parallel: with
 // geographic output each is an inverse projection).
 func (s *scene) convertKeyPoints() {
 	s.keyOnce.Do(func() {
+		s.farOut = s.points(len(s.cells), func(i int) orb.Point { return s.cells[i].FarthestPoint })
 		if s.a == nil {
 			return
 		}
@@ -130,17 +122,9 @@ func (s *scene) points(n int, at func(int) orb.Point) []Point {
 // farthestOut, deepestOut and closingOut return the converted farthest
 // point of service area i (index into s.cells), deepest point of gap i
 // and closing point of hole i.
-func (s *scene) farthestOut(i int) Point {
-	if s.far == nil { // a scene made for one layer only (kcover.go, outline.go)
-		return s.point(s.cells[i].FarthestPoint)
-	}
-	s.far.once.Do(func() {
-		s.far.out = s.points(len(s.cells), func(i int) orb.Point { return s.cells[i].FarthestPoint })
-	})
-	return s.far.out[i]
-}
-func (s *scene) deepestOut(i int) Point { s.convertKeyPoints(); return s.deepOut[i] }
-func (s *scene) closingOut(i int) Point { s.convertKeyPoints(); return s.closeOut[i] }
+func (s *scene) farthestOut(i int) Point { s.convertKeyPoints(); return s.farOut[i] }
+func (s *scene) deepestOut(i int) Point  { s.convertKeyPoints(); return s.deepOut[i] }
+func (s *scene) closingOut(i int) Point  { s.convertKeyPoints(); return s.closeOut[i] }
 
 // round rounds v to d decimals (half away from zero). Values too large to
 // scale are returned unchanged.

@@ -14,10 +14,12 @@ import (
 // TestAnalysisWriter checks the two-part write of an analysis: the layers
 // started from the layout alone (StartAnalysis, while the analysis would
 // still runs) and the rest written by Finish give the same files, byte
-// for byte, as WriteAnalysis of the completed analysis; Abort leaves the previous set and no staging folder; Finish refuses an
+// for byte, as WriteAnalysis of the completed analysis, the service areas
+// as WriteCells writes them from the layout's list; Abort leaves the previous set and no staging folder; Finish refuses an
 // analysis of another layout.
 func TestAnalysisWriter(t *testing.T) {
 	sites := sitegen.Uniform(3000, 5)
+	sites = append(sites, sites[7], sites[100], sites[7]) // merged duplicates
 	area := region(t, square(550))
 	m := Meta{Planar: true, Command: "analyze"}
 	whole := filepath.Join(t.TempDir(), "whole")
@@ -53,6 +55,23 @@ func TestAnalysisWriter(t *testing.T) {
 			if err1 != nil || err2 != nil || !bytes.Equal(got, want) {
 				t.Errorf("%s differs from the whole write (%v, %v)", f, err1, err2)
 			}
+		}
+	})
+	t.Run("service areas as the cells report lists them", func(t *testing.T) {
+		// Reference: WriteCells, whose layer reads the service-area list
+		// (Layout.ServiceAreas) instead of deriving each from the layout.
+		dir := filepath.Join(t.TempDir(), "cells")
+		if _, err := WriteCells(dir, an.Layout, m, Options{}); err != nil {
+			t.Fatal(err)
+		}
+		f := LayerFile(FileServiceAreas, true)
+		got, err1 := os.ReadFile(filepath.Join(whole, f))
+		want, err2 := os.ReadFile(filepath.Join(dir, f))
+		if err1 != nil || err2 != nil || !bytes.Equal(got, want) {
+			t.Errorf("%s differs from the cells report's (%v, %v)", f, err1, err2)
+		}
+		if !bytes.Contains(got, []byte(`"merged":"3000;3002"`)) {
+			t.Errorf("%s lacks the merged duplicates", f)
 		}
 	})
 	t.Run("abort keeps the previous set", func(t *testing.T) {
