@@ -34,6 +34,12 @@ type Options struct {
 	// Percentiles are the covered fractions, each in [0, 1], for which the
 	// smallest sufficient range is reported (nil: DefaultPercentiles).
 	Percentiles []float64
+	// LayoutReady, when not nil, is called with the layout as soon as it
+	// is built (triangulated and clipped), before the rest of the
+	// analysis. The rest only reads the layout, so the callee may go on
+	// reading it concurrently, e.g. to start writing the outputs that need
+	// nothing else.
+	LayoutReady func(*Layout)
 }
 
 // percentiles checks the options and returns the percentiles asked for
@@ -111,6 +117,9 @@ func Analyze(sites []orb.Point, area *planar.Region, r float64, opt Options) (*A
 	l, tTri, tClip, err := newLayoutTimed(sites, area)
 	if err != nil {
 		return nil, err
+	}
+	if opt.LayoutReady != nil {
+		opt.LayoutReady(l)
 	}
 	a := &Analysis{Layout: l, Range: r}
 	a.Timings = append(a.Timings, Timing{"triangulate", tTri}, Timing{"clip", tClip})

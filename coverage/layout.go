@@ -100,6 +100,23 @@ func (l *Layout) vertexFarthest(v int32) (d, x, y float64) {
 	return d, x, y
 }
 
+// ServiceArea returns the entry of ServiceAreas for triangulation vertex
+// v, without Merged (the duplicates, which only the whole list gathers).
+func (l *Layout) ServiceArea(v int32) ServiceArea {
+	d, x, y := l.vertexFarthest(v)
+	if d < 0 {
+		d = 0
+	}
+	return ServiceArea{
+		Site:          int(l.Tri.Source[v]),
+		Vertex:        v,
+		Area:          l.Cells.Area[v],
+		Share:         l.Cells.Area[v] / l.AreaM2,
+		Farthest:      d,
+		FarthestPoint: orb.Point{x, y},
+	}
+}
+
 // UncoveredArea returns the area (m²) of the part of the site area farther
 // than r from every site, by the exact closed form summed over cells. r <= 0
 // gives the whole area; NaN gives NaN.
@@ -217,18 +234,7 @@ func (l *Layout) ServiceAreas() []ServiceArea {
 	out := make([]ServiceArea, nv)
 	planar.ParallelChunks(nv, 4096, 0, func(_, lo, hi int) {
 		for v := int32(lo); v < int32(hi); v++ {
-			d, x, y := l.vertexFarthest(v)
-			if d < 0 {
-				d = 0
-			}
-			out[v] = ServiceArea{
-				Site:          int(l.Tri.Source[v]),
-				Vertex:        v,
-				Area:          l.Cells.Area[v],
-				Share:         l.Cells.Area[v] / l.AreaM2,
-				Farthest:      d,
-				FarthestPoint: orb.Point{x, y},
-			}
+			out[v] = l.ServiceArea(v)
 		}
 	})
 	for i, v := range l.Tri.Vertex {

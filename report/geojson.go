@@ -256,9 +256,9 @@ func appendNum(b []byte, v float64) []byte {
 }
 
 // appendDecimal7 appends n/10⁷ in plain decimal without trailing zeros.
-// The digits are produced right to left into a local array: the integer
-// part of |n|/10⁷ < 10¹² has at most 12 digits, with sign, point and 7
-// decimals at most 21 bytes.
+// The digits are produced right to left into a local array, two at a
+// time from digitPairs: the integer part of |n|/10⁷ < 10¹² has at most 12
+// digits, with sign, point and 7 decimals at most 21 bytes.
 func appendDecimal7(b []byte, n int64) []byte {
 	if n < 0 {
 		b = append(b, '-')
@@ -269,29 +269,53 @@ func appendDecimal7(b []byte, n int64) []byte {
 	u := uint64(n)
 	ip, frac := u/1e7, u%1e7
 	if frac != 0 {
-		k := 7
+		k := 7 // decimals left to write, leading zeros included
 		for frac%10 == 0 {
 			frac /= 10
 			k--
 		}
-		for ; k > 0; k-- {
+		for ; k >= 2; k -= 2 {
+			q := frac / 100
+			r := 2 * (frac - 100*q)
+			i -= 2
+			d[i], d[i+1] = digitPairs[r], digitPairs[r+1]
+			frac = q
+		}
+		if k == 1 {
 			i--
-			d[i] = byte('0' + frac%10)
-			frac /= 10
+			d[i] = byte('0' + frac)
 		}
 		i--
 		d[i] = '.'
 	}
-	for {
+	for ip >= 100 {
+		q := ip / 100
+		r := 2 * (ip - 100*q)
+		i -= 2
+		d[i], d[i+1] = digitPairs[r], digitPairs[r+1]
+		ip = q
+	}
+	if ip >= 10 {
+		i -= 2
+		d[i], d[i+1] = digitPairs[2*ip], digitPairs[2*ip+1]
+	} else {
 		i--
-		d[i] = byte('0' + ip%10)
-		ip /= 10
-		if ip == 0 {
-			break
-		}
+		d[i] = byte('0' + ip)
 	}
 	return append(b, d[i:]...)
 }
+
+// digitPairs holds "00" to "99": digitPairs[2k:2k+2] is k in two digits.
+const digitPairs = "00010203040506070809" +
+	"10111213141516171819" +
+	"20212223242526272829" +
+	"30313233343536373839" +
+	"40414243444546474849" +
+	"50515253545556575859" +
+	"60616263646566676869" +
+	"70717273747576777879" +
+	"80818283848586878889" +
+	"90919293949596979899"
 
 // appendStr appends s as a JSON string (invalid UTF-8 replaced by U+FFFD).
 func appendStr(b []byte, s string) []byte {
@@ -330,6 +354,7 @@ func (s *scene) sitesLayer() *layerDef {
 		fields: fieldList("site", gpkg.Integer, "name", gpkg.Text, "range_m", gpkg.Real, "type", gpkg.Text, "duplicate_of", gpkg.Integer),
 		each: func(emit emitFunc) error {
 			tri := s.l.Tri
+			vals := make([]any, 5) // reused: emit encodes a feature before it returns
 			for i, p := range s.l.Sites {
 				dup := -1
 				if tri != nil && i < len(tri.Vertex) && tri.Vertex[i] >= 0 {
@@ -341,7 +366,8 @@ func (s *scene) sitesLayer() *layerDef {
 				if v := s.rangeOf(i); v > 0 {
 					r = v
 				}
-				if err := emit(orb.Point(s.point(p)), i, s.name(i), r, s.typeOf(i), dup); err != nil {
+				vals[0], vals[1], vals[2], vals[3], vals[4] = i, s.name(i), r, s.typeOf(i), dup
+				if err := emit(orb.Point(s.point(p)), vals...); err != nil {
 					return err
 				}
 			}
@@ -358,18 +384,56 @@ func (s *scene) serviceAreasLayer() *layerDef {
 		fields: fieldList(append(f, "merged", gpkg.Text)...),
 		each: func(emit emitFunc) error {
 			var buf polyBuf
-			for i, c := range s.cells {
+			vals := make([]any, 8) // reused: emit encodes a feature before it returns
+			return s.forCells(func(c *coverage.ServiceArea, far Point) error {
 				mp := s.cellPolygons(&buf, c.Vertex)
 				if len(mp) == 0 {
-					continue
+					return nil
 				}
-				far := s.farthestOut(i)
-				if err := emit(mp, c.Site, s.name(c.Site), c.Area, c.Share, c.Farthest, far[0], far[1], joinInts(c.Merged)); err != nil {
-					return err
-				}
-			}
-			return nil
+				vals[0], vals[1], vals[2], vals[3], vals[4] = c.Site, s.name(c.Site), c.Area, c.Share, c.Farthest
+				vals[5], vals[6], vals[7] = far[0], far[1], joinInts(c.Merged)
+				return emit(mp, vals...)
+			})
 		}}, 0)
+}
+
+// forCells calls f with each service area in the order of s.cells and its
+// farthest point in output coordinates. A scene without s.cells (the
+// early scene of an AnalysisWriter, which runs beside the analysis) derives
+// each from the layout in turn, holding no list of them: the inputs in
+// order, each first input at a vertex giving that vertex's entry, its
+// Merged the other inputs at the vertex (Triangulation.Duplicates).
+func (s *scene) forCells(f func(c *coverage.ServiceArea, far Point) error) error {
+	if s.cells != nil {
+		for i := range s.cells {
+			if err := f(&s.cells[i], s.farthestOut(i)); err != nil {
+				return err
+			}
+		}
+		return nil
+	}
+	tri := s.l.Tri
+	merged := map[int32][]int{} // vertex → its inputs after the first
+	for _, g := range tri.Duplicates() {
+		m := make([]int, 0, len(g)-1)
+		for _, i := range g {
+			if i != tri.Source[tri.Vertex[i]] {
+				m = append(m, int(i))
+			}
+		}
+		merged[tri.Vertex[g[0]]] = m
+	}
+	for i, v := range tri.Vertex {
+		if v < 0 || int(tri.Source[v]) != i {
+			continue
+		}
+		c := s.l.ServiceArea(v)
+		c.Merged = merged[v]
+		if err := f(&c, s.point(c.FarthestPoint)); err != nil {
+			return err
+		}
+	}
+	return nil
 }
 
 // gapFields are the fields of a gaps layer.
@@ -411,8 +475,10 @@ func (s *scene) holesLayer() *layerDef {
 			if p == nil {
 				return nil
 			}
+			vals := make([]any, 5) // reused: emit encodes a feature before it returns
 			for i, h := range p.Holes {
-				if err := emit(orb.Point(s.closingOut(i)), h.Birth, h.Death, h.Death-h.Birth, s.holeNote(i), joinInts(h.BirthSites[:])); err != nil {
+				vals[0], vals[1], vals[2], vals[3], vals[4] = h.Birth, h.Death, h.Death-h.Birth, s.holeNote(i), joinInts(h.BirthSites[:])
+				if err := emit(orb.Point(s.closingOut(i)), vals...); err != nil {
 					return err
 				}
 			}

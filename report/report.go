@@ -25,7 +25,9 @@ package report
 import (
 	"fmt"
 	"io"
+	"slices"
 	"strings"
+	"sync/atomic"
 
 	"github.com/paulmach/orb"
 	"github.com/sitecover/sitecover/coverage"
@@ -208,10 +210,65 @@ func WriteAnalysis(dir string, a *coverage.Analysis, m Meta, opt Options) (writt
 	if a == nil || a.Layout == nil {
 		return nil, fmt.Errorf("report: no analysis to write")
 	}
+	aw, err := StartAnalysis(dir, a.Layout, a.Range, m, opt)
+	if err != nil {
+		return nil, err
+	}
+	return aw.Finish(a)
+}
+
+// AnalysisWriter writes the report of an analysis in two parts, so that
+// the files needing only the layout and the range stream to disk while
+// the rest of the analysis is computed (coverage.Options.LayoutReady):
+// StartAnalysis opens the output set and starts the sites and
+// service-area layers (unless opt.GeoPackage, whose tables are filled
+// together at the end); Finish writes the other files and swaps the set
+// in; Abort drops it. The files are byte for byte those of WriteAnalysis,
+// which is StartAnalysis followed by Finish.
+type AnalysisWriter struct {
+	w     *writer
+	early *scene // the layout and the range only (its analysis a stub)
+	m     Meta
+	opt   Options
+	steps []step // the steps started, by file name order of Files
+	stop  atomic.Bool
+}
+
+// StartAnalysis checks and opens dir for the report of an analysis of
+// layout l at range r (metres) with m and opt, as WriteAnalysis would,
+// and starts writing the layers that need nothing more. opt is that of
+// the whole report (with opt.Reach, the k-coverage of the analysis to
+// come). The caller must end with Finish or Abort; l must not change in
+// between.
+func StartAnalysis(dir string, l *coverage.Layout, r float64, m Meta, opt Options) (*AnalysisWriter, error) {
+	if l == nil {
+		return nil, fmt.Errorf("report: no layout to write")
+	}
 	w, err := newWriter(dir, Files(false, m, opt), m, opt.Progress)
 	if err != nil {
 		return nil, err
 	}
+	aw := &AnalysisWriter{w: w, m: m, opt: opt}
+	// The early scene holds no service-area list (forCells): Finish's scene
+	// gathers it once the analysis is done and its memory free again.
+	aw.early = &scene{l: l, a: &coverage.Analysis{Layout: l, Range: r}, m: m}
+	if !opt.GeoPackage {
+		for _, st := range cellLayers(aw.early) {
+			aw.steps = append(aw.steps, w.start(aw.early, st, &aw.stop))
+		}
+	}
+	return aw, nil
+}
+
+// Finish writes the rest of the report of a (the analysis of the layout
+// and range given to StartAnalysis), waits for the layers started, and
+// swaps the set in. It returns the paths written.
+func (aw *AnalysisWriter) Finish(a *coverage.Analysis) (written []string, err error) {
+	if a == nil || a.Layout != aw.early.l || a.Range != aw.early.a.Range {
+		aw.Abort()
+		return nil, fmt.Errorf("report: the analysis is not the one the report was started for")
+	}
+	m, opt, w := aw.m, aw.opt, aw.w
 	s := newScene(a.Layout, a, m)
 	s.files = Files(false, m, opt)
 	s.listMax = SummaryListMax
@@ -229,7 +286,12 @@ func WriteAnalysis(dir string, a *coverage.Analysis, m Meta, opt Options) (writt
 			return writeDoc(out, d)
 		}},
 	}
-	steps = append(steps, analysisLayers(s)...)
+	for _, st := range analysisLayers(s) {
+		if k := slices.IndexFunc(aw.steps, func(r step) bool { return r.name == st.name }); k >= 0 {
+			st = aw.steps[k] // already being written
+		}
+		steps = append(steps, st)
+	}
 	if opt.GeoPackage {
 		steps = append(steps, step{name: FileGeoPackage, gpkg: true})
 	}
@@ -250,6 +312,14 @@ func WriteAnalysis(dir string, a *coverage.Analysis, m Meta, opt Options) (writt
 	})...)
 	err = w.writeAll(s, steps)
 	return w.done, err
+}
+
+// Abort stops the layers started, waits for them and removes the staging
+// folder: the output folder keeps its previous set.
+func (aw *AnalysisWriter) Abort() {
+	aw.stop.Store(true)
+	waitRunning(aw.steps)
+	aw.w.set.abort()
 }
 
 // WriteCells writes the service-area report of l (the files listed by

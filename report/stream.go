@@ -158,9 +158,14 @@ func (s *scene) coordFields(prefix string) []any {
 	return []any{prefix + "_x", gpkg.Real, prefix + "_y", gpkg.Real}
 }
 
-// joinInts writes a list of input indices as one text value.
+// joinInts writes a list of input indices as one text value (gathered in
+// a buffer on the stack for short lists: one allocation, the string).
 func joinInts(v []int) string {
-	var b []byte
+	if len(v) == 0 {
+		return ""
+	}
+	var buf [64]byte
+	b := buf[:0]
 	for i, x := range v {
 		if i > 0 {
 			b = append(b, ListSeparator...)

@@ -3,16 +3,20 @@
 // Every number carries its unit. Figures are printed as computed by
 // package coverage, rounded for display only: lengths to 0.01 m, areas to
 // 0.1 m², shares to 0.001 %, degrees to 7 decimals (about 1 cm). Tables
-// show every row; free-text columns (names, site lists) come last so the
+// show every row, except that the per-site and per-hole tables stop at
+// textTableMax rows (the most relevant ones, the rest in the layers);
+// free-text columns (names, site lists) come last so the
 // numeric columns stay aligned whatever the names are.
 
 package report
 
 import (
 	"bytes"
+	"cmp"
 	"fmt"
 	"io"
 	"math"
+	"slices"
 	"strconv"
 	"strings"
 	"unicode/utf8"
@@ -93,7 +97,7 @@ func (s *scene) writeText(b *textBuf) {
 		s.textHoles(b)
 	}
 	s.textAccuracy(b)
-	s.textClosing(b, analysisFileNote)
+	s.textClosing(b, reportFileNote)
 }
 
 // textClosing writes the sections that close every report: the warnings,
@@ -123,6 +127,20 @@ func (s *scene) textClosing(b *textBuf, note func(f string) string) {
 func analysisFileNote(f string) string {
 	return fileNote[strings.Replace(f, "-xy.geojson", ".geojson", 1)]
 }
+
+// reportFileNote is analysisFileNote with report.txt's own note stating
+// the row limit of its long tables (textTableMax).
+func reportFileNote(f string) string {
+	if f == FileReport {
+		return reportNote
+	}
+	return analysisFileNote(f)
+}
+
+// reportNote is the FILES note of report.txt in an analysis or cells
+// report.
+var reportNote = "this report; the service-area and hole tables print at most " + strconv.Itoa(textTableMax) +
+	" rows (largest areas, longest-lived holes; every row is in the layers), the gaps table all"
 
 // noteLines writes each line of a notes section, indented.
 func noteLines(b *textBuf, lines []string) {
@@ -321,12 +339,25 @@ func (s *scene) textCells(b *textBuf) {
 		return
 	}
 	b.WriteString("  Share: of the whole area. Farthest: the point of the service area farthest\n")
-	b.WriteString("  from its site; the site's disk covers its service area at that range.\n\n")
+	b.WriteString("  from its site; the site's disk covers its service area at that range.\n")
+	order := s.largestCells(textTableMax)
+	if order != nil {
+		fmt.Fprintf(b, "  The %d largest of the %d service areas, largest first (the rest below).\n", len(order), len(s.cells))
+	}
+	b.WriteString("\n")
 	t := &table{}
 	hx, hy := s.pointHeads()
 	t.head("Area m²", "Share %", "Farthest m", hx, hy, "Device", "Merged duplicates")
 	t.left(5, 6)
-	t.rows(len(s.cells), func(ci int) {
+	n := len(s.cells)
+	if order != nil {
+		n = len(order)
+	}
+	t.rows(n, func(k int) {
+		ci := k
+		if order != nil {
+			ci = int(order[k])
+		}
 		c := s.cells[ci]
 		t.num(c.Area, 1)
 		t.num(100*c.Share, 3)
@@ -346,6 +377,60 @@ func (s *scene) textCells(b *textBuf) {
 		t.cell()
 	})
 	t.write(b)
+	if order != nil {
+		s.leftOut(b, len(s.cells)-len(order), "smaller service area", FileServiceAreas, len(s.cells))
+	}
+}
+
+// textTableMax is the most rows report.txt prints of a table with a row
+// per service area or per hole, a table meant to be read by people: a
+// longer one prints the textTableMax most relevant rows (the largest
+// service areas, the longest-lived holes) and says in one line how many
+// it left out and which layer holds them all (the GeoJSON layers hold
+// every row's figures; summary.json the totals). The gaps table, the
+// list of places to act on, is always complete.
+const textTableMax = 10000
+
+// largestCells returns the indices into s.cells of the k service areas
+// of largest area, largest first (ties in s.cells order), or nil when
+// there are no more than k, which are then all printed in their order.
+// The k-th largest area is found by sorting a copy of the areas; the
+// cells at or above it are then ordered, so the cost is one sort of
+// floats and one of max indices.
+func (s *scene) largestCells(k int) []int32 {
+	n := len(s.cells)
+	if n <= k {
+		return nil
+	}
+	areas := make([]float64, n)
+	for i, c := range s.cells {
+		areas[i] = c.Area
+	}
+	slices.Sort(areas)
+	cut := areas[n-k] // the k-th largest
+	order := make([]int32, 0, k)
+	for i, c := range s.cells {
+		if c.Area > cut {
+			order = append(order, int32(i))
+		}
+	}
+	for i, c := range s.cells { // ties at the cut, in order, up to k
+		if len(order) == k {
+			break
+		}
+		if c.Area == cut {
+			order = append(order, int32(i))
+		}
+	}
+	slices.SortStableFunc(order, func(a, b int32) int { return cmp.Compare(s.cells[b].Area, s.cells[a].Area) })
+	return order
+}
+
+// leftOut writes the line ending a table cut at textTableMax rows: n rows
+// (what, singular noun) left out, and the layer (file, by its GeoJSON
+// name) holding all total of them.
+func (s *scene) leftOut(b *textBuf, n int, what, file string, total int) {
+	fmt.Fprintf(b, "  ... and %s left out here; %s holds all %d.\n", Plural(n, what), LayerFile(file, s.m.Planar), total)
 }
 
 func (s *scene) textHoles(b *textBuf) {
@@ -372,12 +457,17 @@ func (s *scene) textHoles(b *textBuf) {
 			}
 		}
 	}
-	fmt.Fprintf(b, "  At the planned range %s, %d of %s listed %s open (%d of them marked).\n\n", metres(r), open, Plural(len(p.Holes), "hole"), isAre(open), marked)
+	fmt.Fprintf(b, "  At the planned range %s, %d of %s listed %s open (%d of them marked).\n", metres(r), open, Plural(len(p.Holes), "hole"), isAre(open), marked)
+	rows := min(len(p.Holes), textTableMax)
+	if rows < len(p.Holes) {
+		fmt.Fprintf(b, "  The %d longest-lived are printed (the rest below).\n", rows)
+	}
+	b.WriteString("\n")
 	t := &table{}
 	hx, hy := s.pointHeads()
 	t.head("No", "Appears m", "Closes m", "Lifetime m", hx, hy, "At "+metresShort(r), "Note", "Ringed at appearance by")
 	t.left(6, 7, 8)
-	t.rows(len(p.Holes), func(i int) {
+	t.rows(rows, func(i int) {
 		h := p.Holes[i]
 		state := "open"
 		switch {
@@ -401,6 +491,9 @@ func (s *scene) textHoles(b *textBuf) {
 		t.cell()
 	})
 	t.write(b)
+	if rows < len(p.Holes) {
+		s.leftOut(b, len(p.Holes)-rows, "shorter-lived hole", FileHoleClosings, len(p.Holes))
+	}
 }
 
 // briefHoleFraction is the lifetime, as a fraction of the planned range,

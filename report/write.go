@@ -16,6 +16,9 @@ import (
 	"runtime"
 	"slices"
 	"sync"
+	"sync/atomic"
+
+	"github.com/paulmach/orb"
 )
 
 // writer writes the files of one report into a staging folder and swaps
@@ -66,10 +69,59 @@ type step struct {
 	write func(io.Writer) error
 	layer *layerDef
 	gpkg  bool
+	// running, when set, is the step already being produced by start;
+	// writeAll only collects its result.
+	running *running
+}
+
+// running is a step producing in the background (start): done is closed
+// when it has finished, with its manifest entry or error.
+type running struct {
+	done  chan struct{}
+	entry ManifestEntry
+	err   error
+}
+
+// start begins producing the GeoJSON layer step st (no GeoPackage) of
+// scene s in a goroutine of its own, and returns st to pass to writeAll
+// in its place. The layer stops at its next feature, failing, once stop
+// is set (AnalysisWriter.Abort).
+func (w *writer) start(s *scene, st step, stop *atomic.Bool) step {
+	r := &running{done: make(chan struct{})}
+	def := *st.layer
+	each := def.each
+	def.each = func(emit emitFunc) error {
+		return each(func(g orb.Geometry, vals ...any) error {
+			if stop.Load() {
+				return errAborted
+			}
+			return emit(g, vals...)
+		})
+	}
+	go func() {
+		defer close(r.done)
+		n, sum, err := storeStream(w.set.path(st.name), func(out io.Writer) error { return s.writeLayer(out, &def, nil) })
+		if err != nil {
+			r.err = fmt.Errorf("%s: %v", w.set.finalPath(st.name), err)
+			return
+		}
+		r.entry = ManifestEntry{Path: st.name, Bytes: n, SHA256: sum}
+	}()
+	return step{name: st.name, running: r}
+}
+
+// waitRunning waits for the steps started by start among steps.
+func waitRunning(steps []step) {
+	for _, st := range steps {
+		if st.running != nil {
+			<-st.running.done
+		}
+	}
 }
 
 // writeAll produces and stores the files of steps, then swaps the set in.
-// Up to GOMAXPROCS steps run at a time (a step only reads the scene), each
+// Up to GOMAXPROCS steps run at a time (a step only reads the scene), besides
+// those already running (start), each
 // streaming its file into the staging folder (storeStream: buffered,
 // hashed and counted as it goes, synced at the end); the layer steps also
 // insert their features into the GeoPackage, which is completed when every
@@ -108,7 +160,7 @@ func (w *writer) writeAll(s *scene, steps []step) error {
 				mu.Lock()
 				i := next
 				next++
-				if i < len(steps) && w.progress != nil && !steps[i].gpkg {
+				if i < len(steps) && w.progress != nil && !steps[i].gpkg && steps[i].running == nil {
 					w.progress(steps[i].name)
 				}
 				mu.Unlock()
@@ -116,7 +168,7 @@ func (w *writer) writeAll(s *scene, steps []step) error {
 					return
 				}
 				st := steps[i]
-				if st.gpkg {
+				if st.gpkg || st.running != nil {
 					continue
 				}
 				write := st.write
@@ -133,6 +185,12 @@ func (w *writer) writeAll(s *scene, steps []step) error {
 		})
 	}
 	producing.Wait()
+	waitRunning(steps)
+	for i, st := range steps {
+		if r := st.running; r != nil {
+			entries[i], errs[i] = r.entry, r.err
+		}
+	}
 	failed := slices.IndexFunc(errs, func(e error) bool { return e != nil })
 	if gp != nil {
 		if failed >= 0 {

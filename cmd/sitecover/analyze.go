@@ -71,7 +71,7 @@ func runAnalysis(e *env, command string, f *runFlags, in siteinput.Inputs, chart
 	if sc.ranges != nil {
 		out, err = rangesAnalysis(f, sc, pr, in)
 	} else {
-		out, err = commonAnalysis(f, sc, pr, in)
+		out, err = commonAnalysis(f, sc, pr, in, charts)
 	}
 	if err != nil {
 		return err
@@ -97,12 +97,30 @@ type analysisOutput struct {
 	print    func(w io.Writer, gapTable bool)
 }
 
-// commonAnalysis runs coverage.Analyze at the common range.
-func commonAnalysis(f *runFlags, sc *scene, pr *progress, in siteinput.Inputs) (analysisOutput, error) {
+// commonAnalysis runs coverage.Analyze at the common range. Without
+// --reach (whose outputs are known only after the analysis) the report
+// is started as soon as the layout is built (report.StartAnalysis), so
+// the sites and service-area layers stream to disk while the rest of the
+// analysis runs; its write then finishes that report.
+func commonAnalysis(f *runFlags, sc *scene, pr *progress, in siteinput.Inputs, charts bool) (analysisOutput, error) {
 	pr.set(fmt.Sprintf("analysing %d sites", len(sc.sites)))
-	a, err := coverage.Analyze(sc.sites, sc.region, sc.rangeM, coverage.Options{})
+	var aw *report.AnalysisWriter
+	var startErr error
+	var opt coverage.Options
+	if f.reach == "" {
+		opt.LayoutReady = func(l *coverage.Layout) {
+			aw, startErr = report.StartAnalysis(f.out, l, sc.rangeM, sc.meta, f.reportOptions(pr, charts))
+		}
+	}
+	a, err := coverage.Analyze(sc.sites, sc.region, sc.rangeM, opt)
 	if err != nil {
+		if aw != nil {
+			aw.Abort()
+		}
 		return analysisOutput{}, inputErrorf("%s: %v", inputNames(in), err)
+	}
+	if startErr != nil {
+		return analysisOutput{}, inputErrorf("%v", startErr)
 	}
 	kc, err := runReach(pr, f, a, sc.rangeM)
 	if err != nil {
@@ -117,6 +135,9 @@ func commonAnalysis(f *runFlags, sc *scene, pr *progress, in siteinput.Inputs) (
 	})
 	return analysisOutput{
 		write: func(opt report.Options) ([]string, error) {
+			if aw != nil {
+				return aw.Finish(a)
+			}
 			opt.Reach = kc
 			return report.WriteAnalysis(f.out, a, sc.meta, opt)
 		},

@@ -84,19 +84,25 @@ func startRun(e *env, command string, f *runFlags, in siteinput.Inputs) (*scene,
 // file on the progress line, then ends the line. It returns the files
 // written; a failure is an input error.
 func writeReport(f *runFlags, pr *progress, charts bool, write func(report.Options) ([]string, error)) ([]string, error) {
-	opt := report.Options{
+	written, err := write(f.reportOptions(pr, charts))
+	pr.end()
+	if err != nil {
+		return nil, inputErrorf("%v", err)
+	}
+	return written, nil
+}
+
+// reportOptions are the report options of the output flags: the charts
+// only when charts is true and maps are wanted, each file reported on the
+// progress line.
+func (f *runFlags) reportOptions(pr *progress, charts bool) report.Options {
+	return report.Options{
 		GeoPackage: f.gpkg,
 		Maps:       !f.noMaps,
 		Charts:     !f.noMaps && charts,
 		MapWidth:   f.mapWidth,
 		Progress:   func(file string) { pr.set("writing " + file) },
 	}
-	written, err := write(opt)
-	pr.end()
-	if err != nil {
-		return nil, inputErrorf("%v", err)
-	}
-	return written, nil
 }
 
 // printHead repeats the report's warnings on stderr and, with --json,

@@ -501,23 +501,18 @@ func siteWarnings(sites []orb.Point, names []string, region *planar.Region) []st
 		warn = append(warn, fmt.Sprintf("%d of %d sites lie outside the area (their disks still count where they reach in): %s",
 			nOut, len(sites), list(outside, nOut)))
 	}
-	first := make(map[orb.Point]int, len(sites))
 	var dups []string
 	nDup := 0
-	for i, p := range sites {
-		if j, ok := first[p]; ok {
-			nDup++
-			if len(dups) < 5 {
-				a, b := label(i), label(j)
-				if a == b { // two devices of one name: tell them apart by input position
-					a, b = fmt.Sprintf("%s (#%d)", a, i+1), fmt.Sprintf("%s (#%d)", b, j+1)
-				}
-				dups = append(dups, a+" = "+b)
+	planar.Repeats(sites, func(i, j int) {
+		nDup++
+		if len(dups) < 5 {
+			a, b := label(i), label(j)
+			if a == b { // two devices of one name: tell them apart by input position
+				a, b = fmt.Sprintf("%s (#%d)", a, i+1), fmt.Sprintf("%s (#%d)", b, j+1)
 			}
-			continue
+			dups = append(dups, a+" = "+b)
 		}
-		first[p] = i
-	}
+	})
 	if nDup > 0 {
 		what := "sites repeat the exact position of an earlier site and share its service area"
 		if nDup == 1 {
