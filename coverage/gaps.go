@@ -109,7 +109,11 @@ func (l *Layout) gapsAt(gp gapParams, chordTol float64, selfCheck bool) ([]Gap, 
 	planar.ParallelChunks(nv, chunk, 0, func(ci, lo, hi int) {
 		t := gapTracerPool.Get().(*gapTracer)
 		t.l, t.r, t.r2, t.selfCheck, t.keep = l, r, r*r, selfCheck, chordTol > 0 || gp.closing
-		ch := &chunks[ci]
+		// Trace into the tracer's reused buffers, then keep an exact-size
+		// copy: appending to fresh slices would leave about twice the
+		// result in discarded backing arrays.
+		ch := &t.chunk
+		ch.reset()
 		for v := int32(lo); v < int32(hi); v++ {
 			if c.SiteStart[v] == c.SiteStart[v+1] {
 				continue
@@ -125,6 +129,7 @@ func (l *Layout) gapsAt(gp gapParams, chordTol float64, selfCheck bool) ([]Gap, 
 				t.piece(p, v, ch)
 			}
 		}
+		chunks[ci] = ch.clone()
 		t.l = nil
 		gapTracerPool.Put(t)
 	})

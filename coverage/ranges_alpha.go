@@ -291,7 +291,7 @@ func (l *Layout) PersistenceRanges() *PowerPersistence {
 func (l *Layout) persistenceRanges() (*PowerPersistence, *PowerFiltration) {
 	ranges := l.Ranges
 	if ranges == nil {
-		ranges = make([]float64, l.numVertices())
+		ranges = make([]float64, l.Tri.NumVertices())
 	}
 	f := NewPowerFiltration(l.Tri, ranges)
 	return ComputePowerPersistence(l.Tri, f), f

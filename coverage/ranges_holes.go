@@ -115,7 +115,7 @@ func (l *Layout) holeClosings(p *PowerPersistence, f *PowerFiltration) []*HoleCl
 			fill[k]++
 		}
 	}
-	gp := gapParams{t: growth, radii: make([]float64, l.numVertices())}
+	gp := gapParams{t: growth, radii: make([]float64, t.NumVertices())}
 	for v := range gp.radii {
 		gp.radii[v] = l.grownRadius(int32(v), growth)
 	}
