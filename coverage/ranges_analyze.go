@@ -97,12 +97,13 @@ func AnalyzeRanges(sites []orb.Point, ranges []float64, area *planar.Region, opt
 	}
 	a := &RangesAnalysis{}
 	links := a.startLinks(sites, ranges)
-	l, tTri, tClip, err := newLayoutRangesTimed(sites, ranges, area, nil)
+	var pers *phaseRun
+	l, tTri, tClip, err := newLayoutRangesTimed(sites, ranges, area, func(l *Layout) { pers = a.startPersistence(l) })
 	if err != nil {
+		pers.wait()
 		links.wait()
 		return nil, err
 	}
-	pers := a.startPersistence(l)
 	a.Layout, a.Hidden = l, l.Hidden
 	a.Timings = append(a.Timings, Timing{"triangulate", tTri}, Timing{"clip", tClip})
 
