@@ -79,9 +79,10 @@ type RangesAnalysis struct {
 // name the offending input.
 //
 // The links read only the sites and ranges, and the persistence only the
-// triangulation, so they run on their own goroutines beside the
-// triangulation and the clipping, the full cover, the curve and the gaps
-// (whose serial parts leave a core free): each Timing is then that phase's
+// triangulation, so they run on their own goroutines: the links beside the
+// triangulation (which is serial), the persistence, once the triangulation
+// is built, beside the clipping, the full cover, the curve and the gaps
+// (whose serial parts leave a core free). Each Timing is then that phase's
 // own elapsed time, the phases overlapping. The results are those of
 // running the phases in turn.
 func AnalyzeRanges(sites []orb.Point, ranges []float64, area *planar.Region, opt Options) (*RangesAnalysis, error) {

@@ -225,7 +225,7 @@ func (l *Layout) holeBoundary(f *PowerFiltration, comp []int32, edges []int32, g
 		if sweep == 0 && n == he[e] {
 			sweep = 2 * math.Pi // the whole circle between two tangencies
 		}
-		hb.arcs = append(hb.arcs, gapArcRef{bx, by, gp.radius(b), sx, sy, sweep})
+		hb.arcs = append(hb.arcs, gapArcRef{cx: bx, cy: by, r: gp.radius(b), sx: sx, sy: sy, phi: sweep})
 	}
 }
 
