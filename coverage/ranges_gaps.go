@@ -189,14 +189,24 @@ func (l *Layout) singleClosing(sites []int, hull orb.Ring, arcs []gapArcRef, gp 
 		for _, q := range hull {
 			far = math.Max(far, math.Hypot(q[0]-px, q[1]-py))
 		}
+		// Arcs come grouped by centre (a cell's arcs are consecutive): the
+		// distance and direction to a centre are computed once per group.
+		cx, cy := math.NaN(), math.NaN()
+		var dc, ang float64
+		hasAng := false
 		for k := range arcs {
 			a := &arcs[k]
-			dc := math.Hypot(a.cx-px, a.cy-py)
+			if a.cx != cx || a.cy != cy {
+				cx, cy = a.cx, a.cy
+				dc, hasAng = math.Hypot(a.cx-px, a.cy-py), false
+			}
 			if dc+a.r <= far || dc == 0 {
 				continue
 			}
 			// The farthest point of the circle from p, if on the arc.
-			ang := math.Atan2(a.cy-py, a.cx-px)
+			if !hasAng {
+				ang, hasAng = math.Atan2(a.cy-py, a.cx-px), true
+			}
 			if d := math.Mod(a.startAngle()-ang, 2*math.Pi); d < 0 && d+2*math.Pi <= a.phi || d >= 0 && d <= a.phi {
 				far = dc + a.r
 			}
