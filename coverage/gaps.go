@@ -109,7 +109,11 @@ func (l *Layout) gapsAt(gp gapParams, chordTol float64, selfCheck bool) ([]Gap, 
 	planar.ParallelChunks(nv, chunk, 0, func(ci, lo, hi int) {
 		t := gapTracerPool.Get().(*gapTracer)
 		t.l, t.r, t.r2, t.selfCheck, t.keep = l, r, r*r, selfCheck, chordTol > 0 || gp.closing
-		ch := &chunks[ci]
+		// Trace into the tracer's reused buffers, then keep an exact-size
+		// copy: appending to fresh slices would leave about twice the
+		// result in discarded backing arrays.
+		ch := &t.chunk
+		ch.reset()
 		for v := int32(lo); v < int32(hi); v++ {
 			if c.SiteStart[v] == c.SiteStart[v+1] {
 				continue
@@ -125,6 +129,7 @@ func (l *Layout) gapsAt(gp gapParams, chordTol float64, selfCheck bool) ([]Gap, 
 				t.piece(p, v, ch)
 			}
 		}
+		chunks[ci] = ch.clone()
 		t.l = nil
 		gapTracerPool.Put(t)
 	})
@@ -148,45 +153,48 @@ func (l *Layout) gapsAt(gp gapParams, chordTol float64, selfCheck bool) ([]Gap, 
 // above that and far below any real overlap of two different cells' pieces.
 const gapPortionUlps = 64 * 0x1p-52
 
-// gapMerge concatenates the chunks, converting to global indices.
+// gapMerge concatenates the chunks, converting to global indices; the
+// chunks are copied into place at once, each freed once copied.
 func gapMerge(chunks []gapChunk) (*gapMerged, int) {
-	var nn, nl, ne, np, an int
+	// Offsets of each chunk's nodes, loops, elements and portions.
+	off := make([][4]int, len(chunks)+1)
+	an := 0
 	for i := range chunks {
 		ch := &chunks[i]
-		nn += len(ch.nodes)
-		nl += len(ch.loopElem)
-		ne += len(ch.elems)
-		np += len(ch.portions)
+		o := off[i]
+		off[i+1] = [4]int{o[0] + len(ch.nodes), o[1] + len(ch.loopElem), o[2] + len(ch.elems), o[3] + len(ch.portions)}
 		an += ch.anomalies
 	}
+	tot := off[len(chunks)]
 	m := &gapMerged{
-		nodes:    make([]gapNode, 0, nn),
-		loopElem: make([]int32, 0, nl+1),
-		elems:    make([]gapElem, 0, ne),
-		portions: make([]gapPortion, 0, np),
+		nodes:    make([]gapNode, tot[0]),
+		loopElem: make([]int32, tot[1]+1),
+		elems:    make([]gapElem, tot[2]),
+		portions: make([]gapPortion, tot[3]),
 	}
-	for i := range chunks {
+	planar.ParallelChunks(len(chunks), 1, 0, func(i, _, _ int) {
 		ch := &chunks[i]
-		n0, l0, e0 := int32(len(m.nodes)), int32(len(m.loopElem)), int32(len(m.elems))
-		for _, nd := range ch.nodes {
+		o := off[i]
+		n0, l0, e0 := int32(o[0]), int32(o[1]), int32(o[2])
+		for k, nd := range ch.nodes {
 			nd.loop0 += l0
 			nd.loop1 += l0
-			m.nodes = append(m.nodes, nd)
+			m.nodes[o[0]+k] = nd
 		}
-		for _, le := range ch.loopElem {
-			m.loopElem = append(m.loopElem, le+e0)
+		for k, le := range ch.loopElem {
+			m.loopElem[o[1]+k] = le + e0
 		}
-		m.elems = append(m.elems, ch.elems...)
-		for _, p := range ch.portions {
+		copy(m.elems[o[2]:], ch.elems)
+		for k, p := range ch.portions {
 			if p.elem >= 0 {
 				p.elem += e0
 			}
 			p.node += n0
-			m.portions = append(m.portions, p)
+			m.portions[o[3]+k] = p
 		}
 		*ch = gapChunk{}
-	}
-	m.loopElem = append(m.loopElem, int32(len(m.elems)))
+	})
+	m.loopElem[tot[1]] = int32(tot[2])
 	m.matched = make([]bool, len(m.elems))
 	return m, an
 }
@@ -196,7 +204,9 @@ func gapMerge(chunks []gapChunk) (*gapMerged, int) {
 func (m *gapMerged) union(tolLen float64) []int32 {
 	uf := planar.NewUnionFind(len(m.nodes))
 	ps := m.portions
-	slices.SortFunc(ps, func(a, b gapPortion) int {
+	// Any order by (key, lo) gives the same unions: ties are tested both
+	// ways round.
+	planar.ParallelSortFunc(ps, func(a, b gapPortion) int {
 		if a.key != b.key {
 			if a.key < b.key {
 				return -1
@@ -240,17 +250,17 @@ func (m *gapMerged) union(tolLen float64) []int32 {
 // gapAssemble builds the Gap values from the components and their roots.
 func (l *Layout) gapAssemble(m *gapMerged, root []int32, gp *gapParams, chordTol float64) []Gap {
 	gapOf := make([]int32, len(m.nodes))
-	index := make(map[int32]int32)
+	index := make([]int32, len(m.nodes)) // per root node: its gap + 1
 	var gs []Gap
 	type acc struct{ mx, my float64 }
 	var accs []acc
 	var pow []float64 // per gap, with radii: the largest power of a deepest point
 	for i := range m.nodes {
 		rt := root[i]
-		g, ok := index[rt]
-		if !ok {
+		g := index[rt] - 1
+		if g < 0 {
 			g = int32(len(gs))
-			index[rt] = g
+			index[rt] = g + 1
 			gs = append(gs, Gap{
 				Bound:        orb.Bound{Min: orb.Point{math.Inf(1), math.Inf(1)}, Max: orb.Point{math.Inf(-1), math.Inf(-1)}},
 				ClosingRange: -1,
@@ -284,24 +294,20 @@ func (l *Layout) gapAssemble(m *gapMerged, root []int32, gp *gapParams, chordTol
 			G.Deepest = orb.Point{nd.deepX, nd.deepY}
 		}
 	}
-	// Sites per gap, ascending and unique.
-	type gs2 struct{ g, s int32 }
-	pairs := make([]gs2, len(m.nodes))
+	index = nil
+	// Sites per gap, ascending and unique: pairs gap << 32 | site sorted.
+	pairs := make([]uint64, len(m.nodes))
 	for i := range m.nodes {
-		pairs[i] = gs2{gapOf[i], l.Tri.Source[m.nodes[i].v]}
+		pairs[i] = uint64(gapOf[i])<<32 | uint64(l.Tri.Source[m.nodes[i].v])
 	}
-	slices.SortFunc(pairs, func(a, b gs2) int {
-		if a.g != b.g {
-			return cmp.Compare(a.g, b.g)
-		}
-		return cmp.Compare(a.s, b.s)
-	})
+	planar.ParallelSortFunc(pairs, cmp.Compare[uint64])
 	for i, p := range pairs {
 		if i > 0 && pairs[i-1] == p {
 			continue
 		}
-		gs[p.g].Sites = append(gs[p.g].Sites, int(p.s))
+		gs[p>>32].Sites = append(gs[p>>32].Sites, int(uint32(p)))
 	}
+	pairs = nil
 	for g := range gs {
 		if gs[g].Area > 0 {
 			gs[g].Centroid = orb.Point{accs[g].mx / gs[g].Area, accs[g].my / gs[g].Area}

@@ -38,6 +38,7 @@ type gapChain struct {
 	ex, ey     float64 // end point (start of the removed element after it)
 	next       int32
 	seen       bool
+	used       bool // another chain's end links to this chain's start
 }
 
 // gapBisector returns the canonical key of the pair (v, j) and the
@@ -62,14 +63,14 @@ func gapTau(l *Layout, v, j int32, x, y float64) (uint64, float64) {
 	return key, ux*(y-my) - uy*(x-mx)
 }
 
-// countChains returns the number of chains outlines cuts the loops into:
-// one per loop with no element removed, else one per maximal run of kept
-// elements (cyclically, a kept element after a removed one starts a run).
-// Counting first lets the chains, about 100 bytes each and millions at 10⁶
-// sites, be allocated once instead of grown by copying.
-func (m *gapMerged) countChains() int {
+// countChains returns the number of chains outlines cuts loops [lp0, lp1)
+// into: one per loop with no element removed, else one per maximal run of
+// kept elements (cyclically, a kept element after a removed one starts a
+// run). Counting first lets the chains, about 100 bytes each and millions
+// at 10⁶ sites, be allocated once instead of grown by copying.
+func (m *gapMerged) countChains(lp0, lp1 int) int {
 	count := 0
-	for lp := 0; lp+1 < len(m.loopElem); lp++ {
+	for lp := lp0; lp < lp1; lp++ {
 		e0, e1 := m.loopElem[lp], m.loopElem[lp+1]
 		runs, nRem := 0, 0
 		for e := e0; e < e1; e++ {
@@ -92,7 +93,21 @@ func (m *gapMerged) countChains() int {
 	return count
 }
 
+// gapOutlineLoopChunk is the number of loops per parallel chunk when the
+// loops are cut into chains, and gapOutlineGapChunk the number of gaps per
+// parallel chunk when chains are linked into rings (most gaps have a
+// handful of chains).
+const (
+	gapOutlineLoopChunk = 1 << 14
+	gapOutlineGapChunk  = 64
+)
+
 // outlines returns the outline of each of the ng gaps.
+//
+// Chains are cut from the loops in parallel chunks of loops, written in
+// loop order; chains link only to chains of their own gap, so each gap's
+// chains (in chain order) are linked and followed into rings on their own,
+// gaps in parallel: the rings are those of linking all chains in order.
 func (m *gapMerged) outlines(l *Layout, gapOf []int32, ng int, gp *gapParams, tol float64) []orb.MultiPolygon {
 	nLoops := len(m.loopElem) - 1
 	loopNode := make([]int32, nLoops)
@@ -102,8 +117,83 @@ func (m *gapMerged) outlines(l *Layout, gapOf []int32, ng int, gp *gapParams, to
 			loopNode[lp] = int32(i)
 		}
 	}
-	chains := make([]gapChain, 0, m.countChains())
-	for lp := 0; lp < nLoops; lp++ {
+	nc := (nLoops + gapOutlineLoopChunk - 1) / gapOutlineLoopChunk
+	start := make([]int, nc+1)
+	planar.ParallelChunks(nLoops, gapOutlineLoopChunk, 0, func(ci, lo, hi int) {
+		start[ci+1] = m.countChains(lo, hi)
+	})
+	for ci := range nc {
+		start[ci+1] += start[ci]
+	}
+	chains := make([]gapChain, start[nc])
+	planar.ParallelChunks(nLoops, gapOutlineLoopChunk, 0, func(ci, lo, hi int) {
+		m.cutChains(l, gapOf, lo, hi, chains[start[ci]:start[ci]:start[ci+1]])
+	})
+	// The chains of each gap in chain order, in rows (CSR).
+	gStart := make([]int32, ng+1)
+	for i := range chains {
+		gStart[chains[i].gap+1]++
+	}
+	for g := range ng {
+		gStart[g+1] += gStart[g]
+	}
+	byGap := make([]int32, len(chains))
+	fill := slices.Clone(gStart[:ng])
+	for i := range chains {
+		g := chains[i].gap
+		byGap[fill[g]] = int32(i)
+		fill[g]++
+	}
+	fill = nil
+	b := l.Area.Bound()
+	ext := math.Max(math.Max(math.Abs(b.Min[0]), math.Abs(b.Max[0])), math.Max(math.Abs(b.Min[1]), math.Abs(b.Max[1])))
+	linkTol := gapLinkTolR*gp.r + gapLinkTolExt*ext
+	if !(linkTol > 0) {
+		linkTol = math.SmallestNonzeroFloat64
+	}
+	alpha := 2 * math.Acos(1-math.Min(tol, 1))
+	out := make([]orb.MultiPolygon, ng)
+	planar.ParallelChunks(ng, gapOutlineGapChunk, 0, func(_, lo, hi int) {
+		var lk gapLinker
+		var buf []orb.Point
+		var rings []orb.Ring
+		for g := lo; g < hi; g++ {
+			cs := byGap[gStart[g]:gStart[g+1]]
+			lk.link(m, l, chains, cs, linkTol)
+			// Follow the links into rings.
+			rings = rings[:0]
+			for _, i := range cs {
+				if chains[i].seen {
+					continue
+				}
+				buf = buf[:0]
+				cur := i
+				for cur >= 0 && !chains[cur].seen {
+					c := &chains[cur]
+					c.seen = true
+					buf = m.chainPoints(l, c, loopNode, gp, alpha, buf)
+					if c.closed {
+						break
+					}
+					cur = c.next
+				}
+				if ring := gapCloseRing(buf); ring != nil {
+					rings = append(rings, ring)
+				}
+			}
+			out[g] = gapPolygons(rings)
+		}
+	})
+	return out
+}
+
+// cutChains appends to chains (its capacity exactly enough) the chains of
+// loops [lp0, lp1) in loop order: a loop with nothing removed whole, else
+// each maximal run of kept elements, from the first kept element after a
+// removed one, with its ends' canonical bisector coordinates.
+func (m *gapMerged) cutChains(l *Layout, gapOf []int32, lp0, lp1 int, chains []gapChain) {
+	loopNode := m.loopNode
+	for lp := lp0; lp < lp1; lp++ {
 		e0, e1 := m.loopElem[lp], m.loopElem[lp+1]
 		n := e1 - e0
 		if n == 0 {
@@ -150,44 +240,13 @@ func (m *gapMerged) outlines(l *Layout, gapOf []int32, ng int, gp *gapParams, to
 			chains = append(chains, ch)
 		}
 	}
-	m.linkChains(l, chains, gp.r)
-	// Follow the links into rings.
-	alpha := 2 * math.Acos(1-math.Min(tol, 1))
-	rings := make([][]orb.Ring, ng)
-	var buf []orb.Point
-	for i := range chains {
-		if chains[i].seen {
-			continue
-		}
-		buf = buf[:0]
-		cur := int32(i)
-		for cur >= 0 && !chains[cur].seen {
-			c := &chains[cur]
-			c.seen = true
-			buf = m.chainPoints(l, c, loopNode, gp, alpha, buf)
-			if c.closed {
-				break
-			}
-			cur = c.next
-		}
-		ring := gapCloseRing(buf)
-		if ring != nil {
-			g := chains[i].gap
-			rings[g] = append(rings[g], ring)
-		}
-	}
-	out := make([]orb.MultiPolygon, ng)
-	for g := range rings {
-		out[g] = gapPolygons(rings[g])
-	}
-	return out
 }
 
-// Link tolerance of linkChains: a chain end and the start that continues it
-// are the same point computed in two cells, so they differ by rounding.
-// A point computed from coordinates of magnitude E by a few dozen correctly
-// rounded operations is within a few hundred ulps, under 1e-13·E; a
-// crossing of a circle of radius r with a nearly tangent line is
+// Link tolerance of linking chains: a chain end and the start that
+// continues it are the same point computed in two cells, so they differ by
+// rounding. A point computed from coordinates of magnitude E by a few dozen
+// correctly rounded operations is within a few hundred ulps, under
+// 1e-13·E; a crossing of a circle of radius r with a nearly tangent line is
 // ill-conditioned, its error growing like √(2ε)·r ≈ 1.5e-8·r (ε = 2⁻⁵³).
 // The tolerance gapLinkTolR·r + gapLinkTolExt·E covers both with a margin
 // of about ten, and stays far below the distance between distinct chain
@@ -197,87 +256,87 @@ const (
 	gapLinkTolExt = 1e-12
 )
 
-// linkChains links each chain end to the chain start at the same point of
-// the same gap: among the unused starts within the link tolerance (above)
-// the one on the same bisector first, then the nearest. Where none is that
-// close (a crossing of a circle with a nearly tangent bisector is computed
-// less precisely), the nearest start along the same bisector is taken.
-func (m *gapMerged) linkChains(l *Layout, chains []gapChain, r float64) {
-	b := l.Area.Bound()
-	ext := math.Max(math.Max(math.Abs(b.Min[0]), math.Abs(b.Max[0])), math.Max(math.Abs(b.Min[1]), math.Abs(b.Max[1])))
-	tol := gapLinkTolR*r + gapLinkTolExt*ext
-	if !(tol > 0) {
-		tol = math.SmallestNonzeroFloat64
-	}
-	// Starts sorted by (gap, x cell of side tol, y): the starts within tol of
-	// a point are in three x cells, each searched by y.
-	type startPos struct {
-		gap   int32
-		chain int32
-		qx    int64
-		y     float64
-	}
-	cmpPos := func(a, b startPos) int {
+// gapStartPos is a chain start placed by x cell of side tol, then y.
+type gapStartPos struct {
+	chain int32
+	qx    int64
+	y     float64
+}
+
+// gapStartRec is a chain start placed by bisector and canonical coordinate.
+type gapStartRec struct {
+	chain int32
+	key   uint64
+	tau   float64
+}
+
+// gapLinker links the chains of one gap; its buffers are reused from gap
+// to gap.
+type gapLinker struct {
+	pos    []gapStartPos
+	starts []gapStartRec
+	cand   []int32
+}
+
+// link links each chain end among cs (one gap's chains, ascending) to the
+// chain start at the same point, taking the ends in chain order: among the
+// unused starts within tol the one on the same bisector first, then the
+// nearest. Where none is that close (a crossing of a circle with a nearly
+// tangent bisector is computed less precisely), the nearest start along the
+// same bisector is taken. Ties in position go to the smaller chain index.
+func (lk *gapLinker) link(m *gapMerged, l *Layout, chains []gapChain, cs []int32, tol float64) {
+	// Starts sorted by (x cell of side tol, y): the starts within tol of a
+	// point are in three x cells, each searched by y. A start is used once
+	// linked to (next of another chain being set).
+	cmpPos := func(a, b gapStartPos) int {
 		switch {
-		case a.gap != b.gap:
-			return cmp.Compare(a.gap, b.gap)
 		case a.qx != b.qx:
 			return cmp.Compare(a.qx, b.qx)
+		case a.y != b.y:
+			return cmp.Compare(a.y, b.y)
 		}
-		return cmp.Compare(a.y, b.y)
+		return cmp.Compare(a.chain, b.chain)
 	}
-	pos := make([]startPos, 0, len(chains))
-	for i := range chains {
-		if c := &chains[i]; !c.closed {
-			pos = append(pos, startPos{c.gap, int32(i), int64(math.Floor(c.sx / tol)), c.sy})
-		}
-	}
-	slices.SortFunc(pos, cmpPos)
-	type startRec struct {
-		gap   int32
-		chain int32
-		key   uint64
-		tau   float64
-	}
-	cmpRec := func(a, b startRec) int {
+	cmpRec := func(a, b gapStartRec) int {
 		switch {
-		case a.gap != b.gap:
-			return cmp.Compare(a.gap, b.gap)
 		case a.key != b.key:
 			return cmp.Compare(a.key, b.key)
+		case a.tau != b.tau:
+			return cmp.Compare(a.tau, b.tau)
 		}
-		return cmp.Compare(a.tau, b.tau)
+		return cmp.Compare(a.chain, b.chain)
 	}
-	var starts []startRec // by bisector, built when first needed
-	used := make([]bool, len(chains))
-	var cand []int32
-	for i := range chains {
+	lk.pos = lk.pos[:0]
+	built := false // lk.starts holds this gap's starts
+	for _, i := range cs {
+		if c := &chains[i]; !c.closed {
+			lk.pos = append(lk.pos, gapStartPos{i, int64(math.Floor(c.sx / tol)), c.sy})
+		}
+	}
+	if len(lk.pos) == 0 {
+		return
+	}
+	slices.SortFunc(lk.pos, cmpPos)
+	pos := lk.pos
+	for _, i := range cs {
 		c := &chains[i]
 		if c.closed {
 			continue
 		}
 		best, bestD := int32(-1), math.Inf(1)
-		cand = cand[:0]
+		cand := lk.cand[:0]
 		qx := int64(math.Floor(c.ex / tol))
 		for ix := qx - 1; ix <= qx+1; ix++ {
-			// First start not before (gap, ix, ey − tol).
-			k, hi := 0, len(pos)
-			for k < hi {
-				h := int(uint(k+hi) >> 1)
-				p := &pos[h]
-				if p.gap < c.gap || p.gap == c.gap && (p.qx < ix || p.qx == ix && p.y < c.ey-tol) {
-					k = h + 1
-				} else {
-					hi = h
-				}
-			}
-			for ; k < len(pos) && pos[k].gap == c.gap && pos[k].qx == ix && pos[k].y <= c.ey+tol; k++ {
+			// First start not before (ix, ey − tol).
+			k, _ := slices.BinarySearchFunc(pos, gapStartPos{chain: math.MinInt32, qx: ix, y: c.ey - tol}, cmpPos)
+			for ; k < len(pos) && pos[k].qx == ix && pos[k].y <= c.ey+tol; k++ {
 				j := pos[k].chain
-				if !used[j] && math.Abs(chains[j].sx-c.ex) <= tol {
+				if !chains[j].used && math.Abs(chains[j].sx-c.ex) <= tol {
 					cand = append(cand, j)
 				}
 			}
 		}
+		lk.cand = cand
 		switch len(cand) {
 		case 0:
 		case 1:
@@ -296,25 +355,28 @@ func (m *gapMerged) linkChains(l *Layout, chains []gapChain, r float64) {
 			}
 		}
 		if best < 0 {
-			if starts == nil {
-				starts = make([]startRec, 0, len(chains))
-				for q := range chains {
+			if !built {
+				// Built only when a chain end finds no start within tol.
+				lk.starts = lk.starts[:0]
+				for _, q := range cs {
 					if s := &chains[q]; !s.closed {
-						starts = append(starts, startRec{s.gap, int32(q), s.sKey, s.sTau})
+						lk.starts = append(lk.starts, gapStartRec{q, s.sKey, s.sTau})
 					}
 				}
-				slices.SortFunc(starts, cmpRec)
+				slices.SortFunc(lk.starts, cmpRec)
+				built = true
 			}
-			want := startRec{gap: c.gap, key: c.eKey, tau: c.eTau}
+			starts := lk.starts
+			want := gapStartRec{chain: math.MinInt32, key: c.eKey, tau: c.eTau}
 			at, _ := slices.BinarySearchFunc(starts, want, cmpRec)
-			for q := at; q < len(starts) && starts[q].gap == c.gap && starts[q].key == c.eKey; q++ {
-				if !used[starts[q].chain] {
+			for q := at; q < len(starts) && starts[q].key == c.eKey; q++ {
+				if !chains[starts[q].chain].used {
 					best, bestD = starts[q].chain, math.Abs(starts[q].tau-c.eTau)
 					break
 				}
 			}
-			for q := at - 1; q >= 0 && starts[q].gap == c.gap && starts[q].key == c.eKey; q-- {
-				if !used[starts[q].chain] {
+			for q := at - 1; q >= 0 && starts[q].key == c.eKey; q-- {
+				if !chains[starts[q].chain].used {
 					if d := math.Abs(starts[q].tau - c.eTau); d < bestD {
 						best = starts[q].chain
 					}
@@ -323,7 +385,7 @@ func (m *gapMerged) linkChains(l *Layout, chains []gapChain, r float64) {
 			}
 		}
 		if best >= 0 {
-			used[best] = true
+			chains[best].used = true
 			c.next = best
 		}
 	}

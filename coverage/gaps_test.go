@@ -25,12 +25,15 @@ import (
 	"os"
 	"os/exec"
 	"path/filepath"
+	"reflect"
+	"runtime"
 	"sort"
 	"testing"
 	"time"
 
 	"github.com/paulmach/orb"
 	"github.com/sitecover/sitecover/planar"
+	"github.com/sitecover/sitecover/planar/sitegen"
 )
 
 // gapsRefDoc is the layout of testdata/gaps_ref.json.
@@ -657,6 +660,61 @@ func TestGapPolygonsTouchingHole(t *testing.T) {
 			}
 			if got := planar.PointInRing(planar.FlatRing(e1), c.hole[0][0], c.hole[0][1]); (got == 0) != c.inside {
 				t.Errorf("first hole vertex on E1: %v, want %v", got == 0, c.inside)
+			}
+		})
+	}
+}
+
+// TestGapsParallelEqualsSerial checks that the gaps found on four
+// goroutines equal, field for field, those found on one: the chunked
+// tracing, the parallel merge and sorts and the per-gap linking of outline
+// chains must not depend on the schedule. The scenes are large enough for
+// several chunks of every parallel step; the grid has gaps that tie
+// exactly (symmetric cell centres).
+func TestGapsParallelEqualsSerial(t *testing.T) {
+	mixed, ranges := benchDevices(30_000)
+	scenes := []struct {
+		name   string
+		sites  []orb.Point
+		ranges []float64 // nil: common range r
+		r      float64
+	}{
+		{"uniform", sitegen.Uniform(40_000, 7), nil, 6},
+		{"clustered", sitegen.Clustered(30_000, 3), nil, 4},
+		{"grid", sitegen.Grid(40_000), nil, 7},
+		{"mixed-ranges", mixed, ranges, 0},
+	}
+	for _, sc := range scenes {
+		t.Run(sc.name, func(t *testing.T) {
+			area := benchArea(t, sc.sites, 5)
+			var l *Layout
+			var err error
+			if sc.ranges != nil {
+				l, err = NewLayoutRanges(sc.sites, sc.ranges, area)
+			} else {
+				l, err = NewLayout(sc.sites, area)
+			}
+			if err != nil {
+				t.Fatal(err)
+			}
+			find := func(procs int) []Gap {
+				defer runtime.GOMAXPROCS(runtime.GOMAXPROCS(procs))
+				if sc.ranges != nil {
+					return l.GapsRanges(0, 0)
+				}
+				return l.Gaps(sc.r, 0)
+			}
+			serial, par := find(1), find(4)
+			if len(serial) < 100 {
+				t.Fatalf("%d gaps: the scene should have many", len(serial))
+			}
+			if len(par) != len(serial) {
+				t.Fatalf("%d gaps in parallel, %d serially", len(par), len(serial))
+			}
+			for i := range serial {
+				if !reflect.DeepEqual(serial[i], par[i]) {
+					t.Fatalf("gap %d differs:\nserial   %+v\nparallel %+v", i+1, serial[i], par[i])
+				}
 			}
 		})
 	}

@@ -50,24 +50,35 @@ import (
 // Ranges set, so every figure equals the common-range one. Hidden devices
 // (empty power cell) are listed in Hidden and have Tri.Vertex −1.
 func NewLayoutRanges(sites []orb.Point, ranges []float64, area *planar.Region) (*Layout, error) {
-	l, _, _, err := newLayoutRangesTimed(sites, ranges, area)
+	l, _, _, err := newLayoutRangesTimed(sites, ranges, area, nil)
 	return l, err
 }
 
-// newLayoutRangesTimed is NewLayoutRanges returning the seconds spent
-// triangulating and clipping.
-func newLayoutRangesTimed(sites []orb.Point, ranges []float64, area *planar.Region) (*Layout, float64, float64, error) {
+// checkRanges returns an error naming the first site whose range is not a
+// positive finite number, or a count mismatch.
+func checkRanges(sites []orb.Point, ranges []float64) error {
 	if len(ranges) != len(sites) {
-		return nil, 0, 0, fmt.Errorf("coverage: %d sites but %d ranges", len(sites), len(ranges))
+		return fmt.Errorf("coverage: %d sites but %d ranges", len(sites), len(ranges))
 	}
-	equal := true
 	for i, r := range ranges {
 		if math.IsNaN(r) || math.IsInf(r, 0) || !(r > 0) {
-			return nil, 0, 0, fmt.Errorf("coverage: site %d has range %v m; a range must be a positive finite number", i, r)
+			return fmt.Errorf("coverage: site %d has range %v m; a range must be a positive finite number", i, r)
 		}
-		equal = equal && r == ranges[0]
 	}
-	if equal {
+	return nil
+}
+
+// newLayoutRangesTimed is NewLayoutRanges returning the seconds spent
+// triangulating and clipping. When afterTri is not nil it is called once
+// the triangulation is built, with the layout complete but for Cells (set
+// once clipped; afterTri may start work that reads everything else while
+// the cells are clipped). With equal ranges it is called with the whole
+// layout.
+func newLayoutRangesTimed(sites []orb.Point, ranges []float64, area *planar.Region, afterTri func(*Layout)) (*Layout, float64, float64, error) {
+	if err := checkRanges(sites, ranges); err != nil {
+		return nil, 0, 0, err
+	}
+	if rangesEqual(ranges) {
 		l, t1, t2, err := newLayoutTimed(sites, area)
 		if err != nil {
 			return nil, 0, 0, err
@@ -78,6 +89,9 @@ func newLayoutRangesTimed(sites []orb.Point, ranges []float64, area *planar.Regi
 		}
 		l.Hidden = []int{}
 		l.InputRanges = append([]float64(nil), ranges...)
+		if afterTri != nil {
+			afterTri(l)
+		}
 		return l, t1, t2, nil
 	}
 	if len(sites) == 0 {
@@ -100,12 +114,7 @@ func newLayoutRangesTimed(sites []orb.Point, ranges []float64, area *planar.Regi
 		return nil, 0, 0, fmt.Errorf("coverage: triangulating %d devices with their ranges: %w", len(sites), err)
 	}
 	t1 := time.Now()
-	cells, err := rt.PowerCells(area)
-	if err != nil {
-		return nil, 0, 0, fmt.Errorf("coverage: clipping power cells to the site area: %w", err)
-	}
-	t2 := time.Now()
-	l := &Layout{Sites: sites, Area: area, Tri: &rt.Triangulation, Cells: cells, AreaM2: am}
+	l := &Layout{Sites: sites, Area: area, Tri: &rt.Triangulation, AreaM2: am}
 	l.Ranges = make([]float64, rt.NumVertices())
 	for v, i := range rt.Source {
 		l.Ranges[v] = ranges[i]
@@ -115,7 +124,16 @@ func newLayoutRangesTimed(sites []orb.Point, ranges []float64, area *planar.Regi
 	for k, i := range rt.Hidden {
 		l.Hidden[k] = int(i)
 	}
-	return l, t1.Sub(t0).Seconds(), t2.Sub(t1).Seconds(), nil
+	if afterTri != nil {
+		afterTri(l)
+	}
+	t1c := time.Now()
+	cells, err := rt.PowerCells(area)
+	if err != nil {
+		return nil, 0, 0, fmt.Errorf("coverage: clipping power cells to the site area: %w", err)
+	}
+	l.Cells = cells
+	return l, t1.Sub(t0).Seconds(), time.Since(t1c).Seconds(), nil
 }
 
 // weighted reports whether the layout has per-device ranges.

@@ -291,7 +291,7 @@ func (l *Layout) PersistenceRanges() *PowerPersistence {
 func (l *Layout) persistenceRanges() (*PowerPersistence, *PowerFiltration) {
 	ranges := l.Ranges
 	if ranges == nil {
-		ranges = make([]float64, l.numVertices())
+		ranges = make([]float64, l.Tri.NumVertices())
 	}
 	f := NewPowerFiltration(l.Tri, ranges)
 	return ComputePowerPersistence(l.Tri, f), f
@@ -312,7 +312,7 @@ func ComputePowerPersistence(t *planar.Triangulation, f *PowerFiltration) *Power
 	nt := t.NumTriangles()
 	if nt == 0 {
 		ends := make([]uint64, 0, len(f.Line))
-		vals := make([]float64, 0, len(f.Line))
+		vals := make([]uint64, 0, len(f.Line))
 		order := make([]int32, len(f.Line))
 		for i := range order {
 			order[i] = int32(i)
@@ -321,7 +321,7 @@ func ComputePowerPersistence(t *planar.Triangulation, f *PowerFiltration) *Power
 		for _, i := range order {
 			a, b := t.Hull[i], t.Hull[i+1]
 			ends = append(ends, uint64(uint32(a))|uint64(uint32(b))<<32)
-			vals = append(vals, f.Line[i])
+			vals = append(vals, math.Float64bits(f.Line[i]))
 		}
 		p.Merges = powerKruskal(t, f, ends, vals)
 		return p
@@ -338,8 +338,13 @@ func ComputePowerPersistence(t *planar.Triangulation, f *PowerFiltration) *Power
 			tids[i] = int32(i)
 		}
 	})
+	sorted := make(chan struct{})
+	go func() {
+		persistRadixSort(tkeys, tids)
+		close(sorted)
+	}()
 	persistRadixSort(keys, ids)
-	persistRadixSort(tkeys, tids)
+	<-sorted
 	planar.ParallelFor(nt, alphaGrain, func(lo, hi int) {
 		for r := lo; r < hi; r++ {
 			rank[tids[r]] = int32(r)
@@ -351,7 +356,6 @@ func ComputePowerPersistence(t *planar.Triangulation, f *PowerFiltration) *Power
 	vends := make([]uint64, ne) // vertex a | vertex b << 32
 	ends := make([]uint64, ne)  // input a | input b << 32, a < b
 	sides := make([]uint64, ne)
-	vals := make([]float64, ne)
 	planar.ParallelFor(ne, alphaGrain, func(lo, hi int) {
 		for i := lo; i < hi; i++ {
 			e := ids[i]
@@ -364,13 +368,18 @@ func ComputePowerPersistence(t *planar.Triangulation, f *PowerFiltration) *Power
 				s2 = rank[o/3]
 			}
 			sides[i] = uint64(uint32(rank[e/3])) | uint64(uint32(s2))<<32
-			vals[i] = fromOrderedBits(keys[i])
-			keys[i] = math.Float64bits(vals[i])
+			keys[i] = math.Float64bits(fromOrderedBits(keys[i]))
 		}
 	})
-	p.Merges = powerKruskal(t, f, vends, vals)
+	// The two union-find passes are independent: side by side.
+	merged := make(chan struct{})
+	go func() {
+		p.Merges = powerKruskal(t, f, vends, keys)
+		close(merged)
+	}()
 	recs := persistDual(nt, tkeys, keys, ends, sides)
 	order := persistHoleOrder(recs)
+	<-merged
 	holes := persistHoleList(t, &Filtration{centre: f.centre}, recs, order, tids)
 	p.Holes = make([]PowerHole, len(holes))
 	for i, h := range holes {
@@ -413,8 +422,9 @@ func powerEdgeKeys(he []int32, edge []float64) ([]int32, []uint64) {
 }
 
 // powerKruskal runs the elder-rule union-find over the vertices along the
-// edges (vertex pairs packed in vends, values in filtration order).
-func powerKruskal(t *planar.Triangulation, f *PowerFiltration, vends []uint64, vals []float64) []PowerMerge {
+// edges (vertex pairs packed in vends, the bits of their values in vals,
+// in filtration order).
+func powerKruskal(t *planar.Triangulation, f *PowerFiltration, vends, vals []uint64) []PowerMerge {
 	nv := t.NumVertices()
 	uf := planar.NewUnionFind(nv)
 	birth := slices.Clone(f.Vertex)
@@ -429,7 +439,7 @@ func powerKruskal(t *planar.Triangulation, f *PowerFiltration, vends []uint64, v
 		if birth[a] < birth[b] || birth[a] == birth[b] && a < b {
 			young, old = b, a
 		}
-		out = append(out, PowerMerge{Birth: birth[young], Death: vals[i],
+		out = append(out, PowerMerge{Birth: birth[young], Death: math.Float64frombits(vals[i]),
 			Sites: persistSitePair(t.Source[int32(uint32(ab))], t.Source[int32(ab>>32)])})
 		uf.Parent[young] = old
 	}

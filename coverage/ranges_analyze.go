@@ -77,6 +77,14 @@ type RangesAnalysis struct {
 // ranges (metres, one per site, positive and finite) over area. opt is as
 // for Analyze (ChordTolerance relative to each arc's own radius). Errors
 // name the offending input.
+//
+// The links read only the sites and ranges, and the persistence only the
+// triangulation, so they run on their own goroutines: the links beside the
+// triangulation (which is serial), the persistence, once the triangulation
+// is built, beside the clipping, the full cover and the curve (not beside
+// the gaps, whose working set is the largest). Each Timing is then that phase's
+// own elapsed time, the phases overlapping. The results are those of
+// running the phases in turn.
 func AnalyzeRanges(sites []orb.Point, ranges []float64, area *planar.Region, opt Options) (*RangesAnalysis, error) {
 	pct, err := opt.percentiles()
 	if err != nil {
@@ -85,11 +93,19 @@ func AnalyzeRanges(sites []orb.Point, ranges []float64, area *planar.Region, opt
 	if len(ranges) == len(sites) && len(ranges) > 0 && rangesEqual(ranges) {
 		return analyzeEqualRanges(sites, ranges, area, opt, pct)
 	}
-	l, tTri, tClip, err := newLayoutRangesTimed(sites, ranges, area)
-	if err != nil {
+	if err := checkRanges(sites, ranges); err != nil {
 		return nil, err
 	}
-	a := &RangesAnalysis{Layout: l, Hidden: l.Hidden}
+	a := &RangesAnalysis{}
+	links := a.startLinks(sites, ranges)
+	var pers *phaseRun
+	l, tTri, tClip, err := newLayoutRangesTimed(sites, ranges, area, func(l *Layout) { pers = a.startPersistence(l) })
+	if err != nil {
+		pers.wait()
+		links.wait()
+		return nil, err
+	}
+	a.Layout, a.Hidden = l, l.Hidden
 	a.Timings = append(a.Timings, Timing{"triangulate", tTri}, Timing{"clip", tClip})
 
 	t0 := time.Now()
@@ -104,7 +120,10 @@ func AnalyzeRanges(sites []orb.Point, ranges []float64, area *planar.Region, opt
 		a.Percentiles[i] = PowerAt{Fraction: pct[i], Power: t}
 	}
 	a.Timings = append(a.Timings, Timing{"curve", time.Since(t0).Seconds()})
-	a.finish(sites, ranges, opt)
+	// The gaps' working set is the largest of all phases: the persistence
+	// ends before they start, so that the two do not add up at the peak.
+	pers.wait()
+	a.finish(opt, pers, links)
 	return a, nil
 }
 
@@ -126,8 +145,11 @@ func analyzeEqualRanges(sites []orb.Point, ranges []float64, area *planar.Region
 	if math.IsNaN(r0) || math.IsInf(r0, 0) || !(r0 > 0) {
 		return nil, fmt.Errorf("coverage: site 0 has range %v m; a range must be a positive finite number", r0)
 	}
+	a := &RangesAnalysis{}
+	links := a.startLinks(sites, ranges)
 	c, err := Analyze(sites, area, r0, Options{ChordTolerance: opt.ChordTolerance, Percentiles: pct})
 	if err != nil {
+		links.wait()
 		return nil, err
 	}
 	l := c.Layout
@@ -136,48 +158,72 @@ func analyzeEqualRanges(sites []orb.Point, ranges []float64, area *planar.Region
 		l.Ranges[v] = r0
 	}
 	l.InputRanges, l.Hidden = append([]float64(nil), ranges...), []int{}
-	a := &RangesAnalysis{Layout: l, Hidden: l.Hidden, Common: c, Timings: c.Timings[:4:4],
-		UncoveredArea: c.UncoveredArea, CoveredFraction: c.CoveredFraction}
+	a.Layout, a.Hidden, a.Common, a.Timings = l, l.Hidden, c, c.Timings[:4:4]
+	a.UncoveredArea, a.CoveredFraction = c.UncoveredArea, c.CoveredFraction
 	a.FullCover = l.FullCoverRanges()
 	a.Percentiles = make([]PowerAt, len(pct))
 	for i, p := range c.Percentiles {
 		a.Percentiles[i] = PowerAt{Fraction: p.Fraction, Power: p.Range*p.Range - r0*r0}
 	}
-	a.finish(sites, ranges, opt)
+	a.finish(opt, a.startPersistence(l), links)
 	return a, nil
 }
 
-// finish adds the gaps, persistence and links to a. The links read the
-// sites and ranges only and need little memory, so they are found beside
-// the gaps and the persistence (whose merging, outlines and union-find are
-// serial: the second core works meanwhile); the links Timing is then its
-// own elapsed time, overlapping the others. The results are those of
-// running the phases in turn.
-func (a *RangesAnalysis) finish(sites []orb.Point, ranges []float64, opt Options) {
-	l := a.Layout
-	var tLinks float64
-	linksDone := make(chan struct{})
+// phaseRun is a phase running on its own goroutine.
+type phaseRun struct {
+	done chan struct{}
+	secs float64
+}
+
+// startPhase runs f on a new goroutine, timing it.
+func startPhase(f func()) *phaseRun {
+	p := &phaseRun{done: make(chan struct{})}
 	go func() {
-		defer close(linksDone)
+		defer close(p.done)
 		t0 := time.Now()
-		a.Links = LinksRanges(sites, ranges)
-		tLinks = time.Since(t0).Seconds()
+		f()
+		p.secs = time.Since(t0).Seconds()
 	}()
-	t0 := time.Now()
-	a.Gaps = l.GapsRanges(0, opt.ChordTolerance)
-	a.Timings = append(a.Timings, Timing{"gaps", time.Since(t0).Seconds()})
+	return p
+}
 
-	t0 = time.Now()
-	var f *PowerFiltration
-	a.Persistence, f = l.persistenceRanges()
-	a.HoleClosings = l.holeClosings(a.Persistence, f)
-	a.Pieces, a.EnclosedHoles = a.Persistence.Betti(0)
-	a.ConnectPower = a.Persistence.Births[0]
-	for _, m := range a.Persistence.Merges {
-		a.ConnectPower = math.Max(a.ConnectPower, m.Death)
+// wait waits for the phase to end and returns its elapsed seconds (0 for
+// nil: no phase was started).
+func (p *phaseRun) wait() float64 {
+	if p == nil {
+		return 0
 	}
-	a.Timings = append(a.Timings, Timing{"persistence", time.Since(t0).Seconds()})
+	<-p.done
+	return p.secs
+}
 
-	<-linksDone
-	a.Timings = append(a.Timings, Timing{"links", tLinks})
+// startLinks finds the links of the devices into a.Links on a goroutine.
+func (a *RangesAnalysis) startLinks(sites []orb.Point, ranges []float64) *phaseRun {
+	return startPhase(func() { a.Links = LinksRanges(sites, ranges) })
+}
+
+// startPersistence computes, on a goroutine, the persistence of l's
+// weighted alpha filtration into a with the hole closings and the union's
+// Betti numbers at the planned ranges. It reads l's triangulation and
+// ranges only, never its cells.
+func (a *RangesAnalysis) startPersistence(l *Layout) *phaseRun {
+	return startPhase(func() {
+		p, f := l.persistenceRanges()
+		a.Persistence = p
+		a.HoleClosings = l.holeClosings(p, f)
+		a.Pieces, a.EnclosedHoles = p.Betti(0)
+		a.ConnectPower = p.Births[0]
+		for _, m := range p.Merges {
+			a.ConnectPower = math.Max(a.ConnectPower, m.Death)
+		}
+	})
+}
+
+// finish adds the gaps to a while the persistence and the links (started
+// by the caller) run, and the phases' timings in order.
+func (a *RangesAnalysis) finish(opt Options, pers, links *phaseRun) {
+	t0 := time.Now()
+	a.Gaps = a.Layout.GapsRanges(0, opt.ChordTolerance)
+	a.Timings = append(a.Timings, Timing{"gaps", time.Since(t0).Seconds()})
+	a.Timings = append(a.Timings, Timing{"persistence", pers.wait()}, Timing{"links", links.wait()})
 }

@@ -143,13 +143,20 @@ func (l *Layout) gapClosings(m *gapMerged, gapOf []int32, gs []Gap, pow []float6
 
 // gapArcRef is a circle arc of a gap's boundary: centre, radius, start
 // point and clockwise sweep. The start angle, atan2(sy − cy, sx − cx), is
-// computed only where needed (startAngle).
+// computed only where needed, once (startAngle).
 type gapArcRef struct {
 	cx, cy, r, sx, sy, phi float64
+	th                     float64 // the start angle, once hasTh
+	hasTh                  bool
 }
 
-// startAngle returns the arc's start angle.
-func (a *gapArcRef) startAngle() float64 { return math.Atan2(a.sy-a.cy, a.sx-a.cx) }
+// startAngle returns the arc's start angle, computed on the first call.
+func (a *gapArcRef) startAngle() float64 {
+	if !a.hasTh {
+		a.th, a.hasTh = math.Atan2(a.sy-a.cy, a.sx-a.cx), true
+	}
+	return a.th
+}
 
 // gapBoundary appends the boundary vertices and arcs of the given nodes'
 // loops.
@@ -163,7 +170,7 @@ func (m *gapMerged) gapBoundary(l *Layout, nodes []int32, gp *gapParams, pts []o
 				el := &m.elems[e]
 				pts = append(pts, orb.Point{el.x, el.y})
 				if el.kind == gapArc {
-					arcs = append(arcs, gapArcRef{cx, cy, r, el.x, el.y, float64(el.phi)})
+					arcs = append(arcs, gapArcRef{cx: cx, cy: cy, r: r, sx: el.x, sy: el.y, phi: float64(el.phi)})
 				}
 			}
 		}
@@ -182,14 +189,24 @@ func (l *Layout) singleClosing(sites []int, hull orb.Ring, arcs []gapArcRef, gp 
 		for _, q := range hull {
 			far = math.Max(far, math.Hypot(q[0]-px, q[1]-py))
 		}
+		// Arcs come grouped by centre (a cell's arcs are consecutive): the
+		// distance and direction to a centre are computed once per group.
+		cx, cy := math.NaN(), math.NaN()
+		var dc, ang float64
+		hasAng := false
 		for k := range arcs {
 			a := &arcs[k]
-			dc := math.Hypot(a.cx-px, a.cy-py)
+			if a.cx != cx || a.cy != cy {
+				cx, cy = a.cx, a.cy
+				dc, hasAng = math.Hypot(a.cx-px, a.cy-py), false
+			}
 			if dc+a.r <= far || dc == 0 {
 				continue
 			}
 			// The farthest point of the circle from p, if on the arc.
-			ang := math.Atan2(a.cy-py, a.cx-px)
+			if !hasAng {
+				ang, hasAng = math.Atan2(a.cy-py, a.cx-px), true
+			}
 			if d := math.Mod(a.startAngle()-ang, 2*math.Pi); d < 0 && d+2*math.Pi <= a.phi || d >= 0 && d <= a.phi {
 				far = dc + a.r
 			}

@@ -115,7 +115,7 @@ func (l *Layout) holeClosings(p *PowerPersistence, f *PowerFiltration) []*HoleCl
 			fill[k]++
 		}
 	}
-	gp := gapParams{t: growth, radii: make([]float64, l.numVertices())}
+	gp := gapParams{t: growth, radii: make([]float64, t.NumVertices())}
 	for v := range gp.radii {
 		gp.radii[v] = l.grownRadius(int32(v), growth)
 	}
@@ -225,7 +225,7 @@ func (l *Layout) holeBoundary(f *PowerFiltration, comp []int32, edges []int32, g
 		if sweep == 0 && n == he[e] {
 			sweep = 2 * math.Pi // the whole circle between two tangencies
 		}
-		hb.arcs = append(hb.arcs, gapArcRef{bx, by, gp.radius(b), sx, sy, sweep})
+		hb.arcs = append(hb.arcs, gapArcRef{cx: bx, cy: by, r: gp.radius(b), sx: sx, sy: sy, phi: sweep})
 	}
 }
 

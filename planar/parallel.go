@@ -14,6 +14,9 @@
 //     result per chunk index and combines them in index order gets the same
 //     answer whatever the number of goroutines.
 //
+// ParallelSortFunc sorts a slice as slices.SortFunc does, partitioning it
+// around sampled pivots into up to GOMAXPROCS parts sorted at once.
+//
 // f must be safe to call concurrently on disjoint ranges. Both return after
 // every call of f has returned.
 
@@ -21,6 +24,7 @@ package planar
 
 import (
 	"runtime"
+	"slices"
 	"sync"
 	"sync/atomic"
 )
@@ -85,5 +89,68 @@ func ParallelChunks(n, chunk, workers int, f func(ci, lo, hi int)) {
 			}
 		}()
 	}
+	wg.Wait()
+}
+
+// parallelSortMin is the length below which ParallelSortFunc sorts on the
+// calling goroutine: a partition pass and a goroutine cost more than they
+// save on shorter slices.
+const parallelSortMin = 1 << 14
+
+// parallelSortSamples is the number of evenly spaced elements whose median
+// is the pivot of a partition (odd): enough that each side holds about
+// half the elements unless many are equal.
+const parallelSortSamples = 31
+
+// ParallelSortFunc sorts s in ascending order by cmp, as slices.SortFunc
+// (not stable: elements equal under cmp end in an unspecified order). The
+// slice is partitioned in place around the median of evenly spaced samples
+// and the parts are sorted at once, recursively, on up to GOMAXPROCS
+// goroutines; a partition that leaves one side empty (many equal elements)
+// is sorted on the calling goroutine.
+func ParallelSortFunc[S ~[]E, E any](s S, cmp func(a, b E) int) {
+	parallelSort(s, cmp, runtime.GOMAXPROCS(0))
+}
+
+// parallelSort sorts s on up to w goroutines.
+func parallelSort[S ~[]E, E any](s S, cmp func(a, b E) int, w int) {
+	n := len(s)
+	if w < 2 || n < parallelSortMin {
+		slices.SortFunc(s, cmp)
+		return
+	}
+	var smp [parallelSortSamples]E
+	for k := range smp {
+		smp[k] = s[(2*k+1)*n/(2*parallelSortSamples)]
+	}
+	slices.SortFunc(smp[:], cmp)
+	p := smp[parallelSortSamples/2]
+	// Hoare partition: s[:i] < p <= s[i:].
+	i, j := 0, n-1
+	for {
+		for i <= j && cmp(s[i], p) < 0 {
+			i++
+		}
+		for i <= j && cmp(s[j], p) >= 0 {
+			j--
+		}
+		if i >= j {
+			break
+		}
+		s[i], s[j] = s[j], s[i]
+		i++
+		j--
+	}
+	if i == 0 || i == n {
+		slices.SortFunc(s, cmp)
+		return
+	}
+	var wg sync.WaitGroup
+	wg.Add(1)
+	go func() {
+		defer wg.Done()
+		parallelSort(s[:i], cmp, w/2)
+	}()
+	parallelSort(s[i:], cmp, w-w/2)
 	wg.Wait()
 }

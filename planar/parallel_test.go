@@ -1,8 +1,13 @@
-// Tests of the parallel loop helpers (parallel.go): every index visited once.
+// Tests of the parallel loop helpers (parallel.go): every index visited
+// once; ParallelSortFunc sorts as slices.Sort.
 
 package planar
 
 import (
+	"cmp"
+	"math/rand/v2"
+	"runtime"
+	"slices"
 	"sync"
 	"testing"
 )
@@ -45,6 +50,42 @@ func TestParallelCovers(t *testing.T) {
 				if k != 2 {
 					t.Fatalf("index %d visited %d times, want 2", i, k)
 				}
+			}
+		})
+	}
+}
+
+// TestParallelSortFunc checks ParallelSortFunc against slices.Sort on four
+// workers, with distinct values, few values, one value and sorted input.
+func TestParallelSortFunc(t *testing.T) {
+	prev := runtime.GOMAXPROCS(4)
+	defer runtime.GOMAXPROCS(prev)
+	cases := []struct {
+		name    string
+		n, vals int
+		presort bool
+	}{
+		{"short", 100, 1000, false},
+		{"distinct", 200_000, 1 << 30, false},
+		{"few-values", 200_000, 7, false},
+		{"all-equal", 100_000, 1, false},
+		{"sorted", 100_000, 1 << 30, true},
+	}
+	for _, tc := range cases {
+		t.Run(tc.name, func(t *testing.T) {
+			r := rand.New(rand.NewPCG(uint64(tc.n), uint64(tc.vals)))
+			s := make([]int, tc.n)
+			for i := range s {
+				s[i] = r.IntN(tc.vals)
+			}
+			if tc.presort {
+				slices.Sort(s)
+			}
+			want := slices.Clone(s)
+			slices.Sort(want)
+			ParallelSortFunc(s, cmp.Compare[int])
+			if !slices.Equal(s, want) {
+				t.Fatalf("not sorted like slices.Sort")
 			}
 		})
 	}
