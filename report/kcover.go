@@ -13,7 +13,7 @@
 // uniform power growth t, reported in metres as the range each group of
 // devices (type and planned range) would need, √(r² + t), as the
 // full-cover figure of the own-range report is; the "devices in reach" map
-// is not drawn (its legend is one range).
+// is titled "at their own ranges" and gives those ranges (kcover_map.go).
 
 package report
 
@@ -162,7 +162,7 @@ func reachFiles(m Meta, opt Options) []string {
 		return nil
 	}
 	f := []string{LayerFile(FileReach, m.Planar), LayerFile(FileReachGaps, m.Planar)}
-	if opt.Maps && !reachOwn(opt.Reach) {
+	if opt.Maps {
 		f = append(f, FileMapReach)
 	}
 	return f
@@ -178,7 +178,7 @@ func (s *scene) reachSteps(opt Options) []step {
 		s.layerStep(FileReach, s.reachLayer(kc)),
 		s.layerStep(FileReachGaps, s.reachGapsLayer(kc)),
 	}
-	if opt.Maps && !reachOwn(kc) {
+	if opt.Maps {
 		width := mapWidth(opt)
 		st = append(st, step{name: FileMapReach, write: fromBytes(func() ([]byte, error) { return s.reachMap(kc, width) })})
 	}
