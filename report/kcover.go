@@ -12,8 +12,10 @@
 // no common range: the k-cover figure and each k-gap's closing are a
 // uniform power growth t, reported in metres as the range each group of
 // devices (type and planned range) would need, √(r² + t), as the
-// full-cover figure of the own-range report is; the "devices in reach" map
-// is titled "at their own ranges" and gives those ranges (kcover_map.go).
+// full-cover figure of the own-range report is; the coverage-depth curves
+// are sampled against the longest-range devices' range under that growth
+// (coverage.KCoverRanges); the "devices in reach" map is titled "at their
+// own ranges" and gives those ranges (kcover_map.go).
 
 package report
 
@@ -51,6 +53,9 @@ type ReachDoc struct {
 	// Levels holds one entry per k asked for, by increasing k.
 	Levels []ReachLevel `json:"levels"`
 	// CurveRangesM are the ranges of every level's CoverageCurve (m).
+	// With own ranges: the range R of the longest-range devices (the
+	// largest planned range of RangeGroups, r_max) when every r² grows
+	// alike by t = R² − r_max², every other group then at √(r² + t).
 	CurveRangesM []float64 `json:"curve_ranges_m,omitempty"`
 	// OwnRanges is set when the devices have their own ranges, not all
 	// equal: RangeM is then 0 and each level and gap gives the ranges

@@ -48,9 +48,17 @@ func TestReachOwnRangesCampus(t *testing.T) {
 	if !d.OwnRanges || len(d.Levels) != 3 || len(d.RangeGroups) != 2 {
 		t.Fatalf("reach: own %v, %d levels, groups %+v", d.OwnRanges, len(d.Levels), d.RangeGroups)
 	}
+	// The coverage-depth curves, against the gateways' range (the longest)
+	// grown with every other: from 0 to every spot reached.
+	if n := len(d.CurveRangesM); n != reachCurveSamples || d.CurveRangesM[0] != 0 {
+		t.Fatalf("curve ranges %v", d.CurveRangesM)
+	}
 	for _, lv := range d.Levels {
 		if lv.CoverPowerM2 == nil || len(lv.CoverRanges) != 2 {
 			t.Fatalf("k = %d: power %v, ranges %+v", lv.K, lv.CoverPowerM2, lv.CoverRanges)
+		}
+		if c := lv.CoverageCurve; len(c) != reachCurveSamples || c[0] != 0 || math.Abs(c[len(c)-1]-1) > 1e-9 {
+			t.Errorf("k = %d: curve %v", lv.K, c)
 		}
 		p := *lv.CoverPowerM2
 		for gi, g := range lv.CoverRanges {
@@ -80,9 +88,13 @@ func TestReachOwnRangesPlanar(t *testing.T) {
 	area := writeFile(t, dir, "a.geojson", `{"type":"Polygon","coordinates":[[[-50,-50],[260,-50],[260,180],[-50,180],[-50,-50]]]}`)
 	mixed := writeFile(t, dir, "mixed.csv", mixedCSV)
 	out := filepath.Join(dir, "out")
-	r := runCLI(t, "analyze", "--planar", "--sites", mixed, "--area", area, "--reach", "2", "--out", out, "--no-maps")
+	r := runCLI(t, "analyze", "--planar", "--sites", mixed, "--area", area, "--reach", "2", "--out", out, "--map-width", "600")
 	if r.code != 0 {
 		t.Fatalf("exit %d: %s", r.code, r.stderr)
+	}
+	// The map is drawn with own ranges, titled for them.
+	if _, err := os.Stat(filepath.Join(out, report.FileMapReach)); err != nil {
+		t.Errorf("map: %v", err)
 	}
 	// The hidden sensor s3 counts among the devices in reach.
 	if d := reachDocOf(t, out); d.DistinctDevices != 4 {
