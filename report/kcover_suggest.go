@@ -147,7 +147,8 @@ type ReachAddedDoc struct {
 	CoveredAreaM2   float64  `json:"covered_area_m2"`
 	// KCoverPowerM2 and KCoverRanges (own ranges) are the K-cover power
 	// growth (m²) with this and the earlier additions and the range each
-	// group of devices needs for it (m).
+	// group of devices needs for it (m), the groups (and their device
+	// counts) those of the layout with every addition.
 	KCoverPowerM2 *float64     `json:"k_cover_power_m2,omitempty"`
 	KCoverRanges  []RangeGroup `json:"k_cover_ranges,omitempty"`
 }
