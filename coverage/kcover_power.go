@@ -67,6 +67,18 @@
 // for power diagrams: a device of small range deep inside a large disk has
 // an island of a piece), without keeping the pieces.
 //
+// Coverage-depth curve. Under uniform growth t the pieces do not change,
+// so the area reached by k devices at growth t is Σ area((S,q) ∩ A ∩
+// D(p_q, √(r_q² + t))) over the same pieces, each term closed form
+// (SharesGrown; k = 1 is the own-range coverage curve, Layout.CurveRanges).
+// With opt.CurveSamples the curve is sampled as the common-range one is,
+// against the range R of the longest-range devices (as the own-range
+// coverage curve is reported): R from 0 to √(r_max² + max_k t_k), t =
+// R² − r_max²; KCoverage.CurveRanges holds those R. Unlike the common
+// range, the owner q may lie inside its own piece (a device of small range
+// inside a large disk is the k-th at its own spot), so only the "radius
+// beyond the farthest vertex: the whole piece" shortcut is taken.
+//
 // Error bounds: those of planar/halfplane.go for the clips (the power line
 // carries one more rounding than a bisector; plan_failures_ranges.go),
 // planar.RingDiskArea for the areas (relative 1e-14 of the piece area), and
@@ -91,9 +103,12 @@ import (
 // k-cover figure as the uniform growth CoverPower with the ranges it needs
 // (CoverRanges), and with opt.Gaps the k-gaps (ClosingPower) and Bands.
 // With all ranges equal it is KCover at that range with the power fields
-// filled in. With unequal ranges there is no common range: opt.CurveSamples
-// is ignored and SharesAt gives NaN. Hidden devices (empty power cell)
-// count: they may be among the k devices reaching a spot.
+// filled in. With unequal ranges there is no common range: SharesAt gives
+// NaN; opt.CurveSamples samples each level's Curve against the range of
+// the longest-range devices under uniform growth (CurveRanges; see the
+// file comment), and SharesGrown gives the share at any growth. Hidden
+// devices (empty power cell) count: they may be among the k devices
+// reaching a spot.
 func KCoverRanges(l *Layout, opt KOptions) (*KCoverage, error) {
 	if err := planCheckLayout(l); err != nil {
 		return nil, fmt.Errorf("coverage: KCoverRanges: %w", err)
@@ -112,7 +127,7 @@ func KCoverRanges(l *Layout, opt KOptions) (*KCoverage, error) {
 	}
 	kc := &KCoverage{AreaM2: l.AreaM2, Devices: nd, OwnRanges: true, dev: dv}
 	kc.warnDuplicates(len(l.Sites) - nd)
-	keep := opt.Gaps || opt.keepPieces
+	keep := opt.Gaps || opt.keepPieces || opt.CurveSamples > 0
 	if want[1] {
 		kc.Levels = append(kc.Levels, dv.levelOne(l))
 	}
@@ -126,10 +141,95 @@ func KCoverRanges(l *Layout, opt KOptions) (*KCoverage, error) {
 		}
 		sets = next
 	}
+	if opt.CurveSamples > 0 {
+		kc.curveGrown(l, opt.CurveSamples)
+	}
 	if opt.Gaps {
 		kc.allGaps(l, tol)
 	}
 	return kc, nil
+}
+
+// curveGrown samples every level's coverage-depth curve at n ranges of
+// the longest-range devices, from 0 to the one at which every level is
+// reached everywhere (file comment).
+func (kc *KCoverage) curveGrown(l *Layout, n int) {
+	wmax, top := kc.dev.wmax, math.Inf(-1)
+	for _, lv := range kc.Levels {
+		top = math.Max(top, lv.CoverPower)
+	}
+	rtop := math.Sqrt(math.Max(0, wmax+top))
+	kc.CurveRanges = make([]float64, n)
+	ts := make([]float64, n)
+	for i := range kc.CurveRanges {
+		if n > 1 {
+			kc.CurveRanges[i] = rtop * float64(i) / float64(n-1)
+		}
+		ts[i] = kc.CurveRanges[i]*kc.CurveRanges[i] - wmax
+	}
+	for i := range kc.Levels {
+		kc.Levels[i].Curve = kc.SharesGrown(l, kc.Levels[i].K, ts)
+	}
+}
+
+// SharesGrown returns, for a k-coverage with own ranges (KCoverRanges,
+// ranges not all equal), the share of the area reached by at least k
+// devices when every r_i² grows by t, for each t of growths (m²; −r_i² …),
+// each exact (file comment). It needs level k computed with its pieces
+// (KOptions.Gaps or CurveSamples); NaN otherwise, and for a common-range
+// k-coverage (use SharesAt).
+func (kc *KCoverage) SharesGrown(l *Layout, k int, growths []float64) []float64 {
+	out := make([]float64, len(growths))
+	lv := kc.Level(k)
+	switch {
+	case kc.dev == nil || lv == nil || (k > 1 && lv.store == nil):
+		for i := range out {
+			out[i] = math.NaN()
+		}
+	case k == 1:
+		cv := l.CurveRanges()
+		for i, t := range growths {
+			out[i] = cv.CoveredFraction(t)
+		}
+	default:
+		part := make([][]float64, len(lv.store))
+		planar.ParallelChunks(len(lv.store), 1, 0, func(ci, _, _ int) {
+			part[ci] = kc.dev.grownAreas(lv.store[ci], growths)
+		})
+		for _, p := range part {
+			for i, a := range p {
+				out[i] += a
+			}
+		}
+		for i, a := range out {
+			out[i] = min(1, max(0, a/kc.AreaM2))
+		}
+	}
+	return out
+}
+
+// grownAreas returns the area of the pieces of st within their owner's
+// grown range √(r_q² + t), for each growth t.
+func (dv *kDevs) grownAreas(st *kStore, growths []float64) []float64 {
+	out := make([]float64, len(growths))
+	for i := range st.v {
+		q := st.set[i*st.k+st.k-1]
+		qx, qy, w := dv.xy[2*q], dv.xy[2*q+1], dv.w[q]
+		k0, k1 := st.pieceRings(i)
+		for j, t := range growths {
+			switch {
+			case w+t <= 0: // the disk has vanished
+			case w+t >= st.far[i]*st.far[i]:
+				out[j] += st.area[i]
+			default:
+				r := math.Sqrt(w + t)
+				for k := k0; k < k1; k++ {
+					out[j] += planar.RingDiskArea(st.rings.Ring(k), qx, qy, r)
+				}
+			}
+		}
+	}
+	return out
 }
 
 // kCoverEqualRanges is KCoverRanges for equal ranges r: KCover at r with

@@ -12,8 +12,10 @@
 // no common range: the k-cover figure and each k-gap's closing are a
 // uniform power growth t, reported in metres as the range each group of
 // devices (type and planned range) would need, √(r² + t), as the
-// full-cover figure of the own-range report is; the "devices in reach" map
-// is not drawn (its legend is one range).
+// full-cover figure of the own-range report is; the coverage-depth curves
+// are sampled against the longest-range devices' range under that growth
+// (coverage.KCoverRanges); the "devices in reach" map is titled "at their
+// own ranges" and gives those ranges (kcover_map.go).
 
 package report
 
@@ -51,6 +53,9 @@ type ReachDoc struct {
 	// Levels holds one entry per k asked for, by increasing k.
 	Levels []ReachLevel `json:"levels"`
 	// CurveRangesM are the ranges of every level's CoverageCurve (m).
+	// With own ranges: the range R of the longest-range devices (the
+	// largest planned range of RangeGroups, r_max) when every r² grows
+	// alike by t = R² − r_max², every other group then at √(r² + t).
 	CurveRangesM []float64 `json:"curve_ranges_m,omitempty"`
 	// OwnRanges is set when the devices have their own ranges, not all
 	// equal: RangeM is then 0 and each level and gap gives the ranges
@@ -162,7 +167,7 @@ func reachFiles(m Meta, opt Options) []string {
 		return nil
 	}
 	f := []string{LayerFile(FileReach, m.Planar), LayerFile(FileReachGaps, m.Planar)}
-	if opt.Maps && !reachOwn(opt.Reach) {
+	if opt.Maps {
 		f = append(f, FileMapReach)
 	}
 	return f
@@ -175,7 +180,7 @@ func (s *scene) reachSteps(opt Options) []step {
 		return nil
 	}
 	st := s.reachLayerSteps(kc)
-	if opt.Maps && !reachOwn(kc) {
+	if opt.Maps {
 		width := mapWidth(opt)
 		st = append(st, step{name: FileMapReach, write: fromBytes(func() ([]byte, error) { return s.reachMap(kc, width) })})
 	}

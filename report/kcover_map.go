@@ -1,5 +1,6 @@
 // The "devices in reach" map: the site area coloured by how many devices
-// reach each spot at the planned range — the disjoint bands 0, 1, …, K−1
+// reach each spot at the planned range (with own ranges, each device at
+// its own: the order-k power diagram) — the disjoint bands 0, 1, …, K−1
 // and "K or more" of coverage.KCoverage.Bands — with the parts reached by
 // fewer than K devices (the K-gaps) numbered by closing range, their
 // deepest spots ringed, and a table of the largest.
@@ -21,6 +22,7 @@ package report
 import (
 	"fmt"
 	"image/color"
+	"math"
 	"strings"
 
 	"github.com/paulmach/orb"
@@ -83,21 +85,64 @@ func reachBandLabel(b coverage.KBand) string {
 
 // reachGapTable lists the largest parts reached by fewer than K devices
 // (number, area, closing range) as the coverage map's gap table does;
-// nil when there is none.
-func reachGapTable(K int, gaps []coverage.KGap) [][]string {
+// nil when there is none. With own ranges (own set) the closing figure is
+// the range the longest-range devices need when all ranges grow together,
+// √(r_max² + t) for the part's closing growth t.
+func (s *scene) reachGapTable(K int, gaps []coverage.KGap, own bool) [][]string {
 	g := make([]coverage.Gap, len(gaps))
+	ref := ""
 	for i, kg := range gaps {
 		g[i] = coverage.Gap{ID: kg.ID, Area: kg.Area, ClosingRange: kg.ClosingRange}
+		if own {
+			var r float64
+			ref, r = s.reachLongest(kg.ClosingPower)
+			g[i].ClosingRange = r
+		}
 	}
 	t := gapTable(g)
 	if t == nil {
 		return nil
+	}
+	if own {
+		t[0][2] = ref + " at"
 	}
 	t[0][0] = fmt.Sprintf("Short of %d", K)
 	for _, row := range t[1:] {
 		row[0] = "Part " + strings.TrimPrefix(row[0], "Gap ")
 	}
 	return t
+}
+
+// reachLongest returns the name of the group of devices with the longest
+// planned range (its type, else "longest range") and the range it needs
+// under the uniform power growth t, √(r_max² + t).
+func (s *scene) reachLongest(t float64) (string, float64) {
+	name, rmax := "", 0.0
+	for _, g := range (&rangesScene{scene: s}).groups(nil) {
+		if g.RangeM > rmax {
+			name, rmax = g.Type, g.RangeM
+		}
+	}
+	if name == "" {
+		name = "longest range"
+	}
+	return name, math.Sqrt(math.Max(0, rmax*rmax+t))
+}
+
+// reachNeededShort is the map's short form of the ranges each group of
+// devices needs under the growth t: "TYPE X m" per group (the planned
+// range for devices without a type, "r -> X m").
+func (s *scene) reachNeededShort(t float64) string {
+	planned := (&rangesScene{scene: s}).groups(nil)
+	var p []string
+	for k, g := range s.reachNeeded(t) {
+		head := metresShort(planned[k].RangeM) + " ->"
+		if g.Type != "" {
+			head = g.Type
+		}
+		p = append(p, head+" "+metresShort(g.RangeM))
+	}
+	return strings.Join(p, ", ")
 }
 
 // colReachNew fills the marks of added devices and picked spots:
@@ -159,16 +204,25 @@ func (s *scene) drawReachMap(kc *coverage.KCoverage, width int, mk reachMarks) (
 	if len(mk.others) > 0 {
 		items = append(items, legendItem{"Candidate spot not picked", swatchSpot})
 	}
+	own := reachOwn(kc)
+	method := "order-k Voronoi pieces, Lee 1982"
+	if own {
+		method = "order-k power diagram, Aurenhammer 1987, Lee 1982; each device at its own planned range, all ranges grown together for the closing figures"
+	}
 	key := mapKey{items: items, notes: []string{
 		s.northNote(),
-		"Bands exact (order-k Voronoi pieces, Lee 1982), with their share of the site. Palette: ColorBrewer YlGnBu (sequential, colour-blind safe). Devices at the same spot count once.",
-	}, table: reachGapTable(top.K, top.Gaps)}
+		"Bands exact (" + method + "), with their share of the site. Palette: ColorBrewer YlGnBu (sequential, colour-blind safe). Devices at the same spot count once.",
+	}, table: s.reachGapTable(top.K, top.Gaps, own)}
 	c, d, err := s.layoutMap(s.extent(), width, &key, "single devices and small parts")
 	if err != nil {
 		return nil, err
 	}
 	title := s.titled(fmt.Sprintf("Devices in reach at %s", metresShort(kc.Range)))
 	sub := fmt.Sprintf("%.2f %% of %s reached by %d or more devices; all of it at %s", 100*top.Share, haText(s.l.AreaM2), top.K, metresShort(top.CoverRange))
+	if own {
+		title = s.titled("Devices in reach at their own ranges")
+		sub = fmt.Sprintf("%.2f %% of %s reached by %d or more devices; all of it at %s", 100*top.Share, haText(s.l.AreaM2), top.K, s.reachNeededShort(top.CoverPower))
+	}
 	if mk.title != "" {
 		title, sub = s.titled(mk.title), mk.sub
 	}

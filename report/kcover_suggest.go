@@ -8,6 +8,13 @@
 // analyze --reach writes them), the "devices in reach" map of that layout
 // with the new devices marked (kcover_map.go) and, with --gpkg, every layer
 // in sitecover.gpkg.
+//
+// With own ranges (coverage.ReachAdditionsRanges; free placement only) the
+// K-cover figures are uniform power growths t, written as analyze --reach
+// writes them (kcover.go): the range each group of devices (type and
+// planned range) needs, √(r² + t) — before for the existing devices, after
+// and at each step for the layout with every addition, the new devices a
+// group of their own (the --new-type type, or their range).
 
 package report
 
@@ -40,6 +47,9 @@ type ReachPlan struct {
 	CandidateNames []string
 	// CapReached tells that the cap on additions stopped the placement.
 	CapReached bool
+	// NewType is the type of the added devices with own ranges
+	// (Suggestion.OwnRanges; suggest --new-type), "" for none.
+	NewType string
 	// After is the layout with the additions and AfterReach its
 	// k-coverage at the planned range (every level 1 … K, with gaps).
 	After      *coverage.Layout
@@ -67,6 +77,18 @@ type ReachPlanDoc struct {
 	CapReached            bool    `json:"cap_reached"`
 	Pruned                int     `json:"pruned"`
 	Method                string  `json:"method"`
+	// OwnRanges is set when the devices have their own ranges: RangeM is
+	// then the new devices' range (of type NewType), the K-cover ranges
+	// null and the K-cover figures the uniform power growths
+	// KCoverPower*M2 with the ranges each group of devices (type and
+	// planned range; before: the existing devices, after: with the new
+	// ones) needs for them, √(r² + t), in KCoverRanges*.
+	OwnRanges           bool         `json:"own_ranges,omitempty"`
+	NewType             string       `json:"new_type,omitempty"`
+	KCoverPowerBeforeM2 *float64     `json:"k_cover_power_before_m2,omitempty"`
+	KCoverPowerAfterM2  *float64     `json:"k_cover_power_after_m2,omitempty"`
+	KCoverRangesBefore  []RangeGroup `json:"k_cover_ranges_before,omitempty"`
+	KCoverRangesAfter   []RangeGroup `json:"k_cover_ranges_after,omitempty"`
 	// Candidates is the choice among candidate spots (suggest --reach
 	// --candidates; Added is then empty).
 	Candidates *ReachCandidatesDoc `json:"candidates,omitempty"`
@@ -123,10 +145,19 @@ type ReachAddedDoc struct {
 	KCoverRangeM    *float64 `json:"k_cover_range_m"`
 	CoveredFraction float64  `json:"covered_fraction"`
 	CoveredAreaM2   float64  `json:"covered_area_m2"`
+	// KCoverPowerM2 and KCoverRanges (own ranges) are the K-cover power
+	// growth (m²) with this and the earlier additions and the range each
+	// group of devices needs for it (m), the groups (and their device
+	// counts) those of the layout with every addition.
+	KCoverPowerM2 *float64     `json:"k_cover_power_m2,omitempty"`
+	KCoverRanges  []RangeGroup `json:"k_cover_ranges,omitempty"`
 }
 
 // reachMethod names the placement method in the outputs.
 const reachMethod = "farthest-point insertion on the k-th nearest distance (Gonzalez 1985), each device at the spot needing the most range or 0.9 range from it (the larger area reached by k), then redundant additions dropped"
+
+// reachMethodOwn names the placement method with own ranges.
+const reachMethodOwn = "farthest-point insertion on the k-th smallest power |x − p|² − r² (Gonzalez 1985), each new device at the spot needing the most growth or 0.9 of the new devices' range from it (the larger area reached by k), then redundant additions dropped"
 
 // reachChoiceMethod names the choice method in the outputs.
 const reachChoiceMethod = "greedy submodular set cover on the depth (the sum over k = 1 … K of the area reached by k devices; Wolsey 1982, after Johnson 1974 and Chvátal 1979), lazy re-evaluation, then redundant picks dropped"
@@ -181,7 +212,40 @@ func (p *ReachPlan) reachAfterMeta(m Meta) Meta {
 		}
 	}
 	m.SiteNames = names
+	if p.own() {
+		m.Ranges = append(append([]float64(nil), p.Layout.InputRanges...), repeatFloat(p.Suggestion.Range, len(p.Suggestion.Added))...)
+		if m.Types != nil || p.NewType != "" {
+			types := make([]string, n, len(p.After.Sites))
+			copy(types, m.Types)
+			for range p.Suggestion.Added {
+				types = append(types, p.NewType)
+			}
+			m.Types = types
+		}
+	}
 	return m
+}
+
+// reachBeforeMeta is m for the existing layout: with own ranges each
+// device's planned range.
+func (p *ReachPlan) reachBeforeMeta(m Meta) Meta {
+	if p.own() {
+		m.Ranges = p.Layout.InputRanges
+	}
+	return m
+}
+
+// own reports whether the plan is for devices with their own ranges
+// (coverage.ReachAdditionsRanges).
+func (p *ReachPlan) own() bool { return p.Suggestion != nil && p.Suggestion.OwnRanges }
+
+// repeatFloat returns n copies of v.
+func repeatFloat(v float64, n int) []float64 {
+	out := make([]float64, n)
+	for i := range out {
+		out[i] = v
+	}
+	return out
 }
 
 // WriteReachPlan writes the outputs of suggest --reach into dir (staged
@@ -195,11 +259,13 @@ func WriteReachPlan(dir string, p *ReachPlan, m Meta, opt Options) ([]string, er
 	if err != nil {
 		return nil, err
 	}
-	s := newScene(p.Layout, nil, m)
+	s := newScene(p.Layout, nil, p.reachBeforeMeta(m))
 	after := newScene(p.After, nil, p.reachAfterMeta(m))
-	pts := s.layerStep(FileReachAdded, s.reachAddedLayer(p.Suggestion))
+	var pts step
 	if p.Choice != nil {
 		pts = s.layerStep(FileCandidates, s.reachCandidatesLayer(p))
+	} else {
+		pts = s.layerStep(FileReachAdded, s.reachAddedLayer(p.Suggestion, after))
 	}
 	steps := []step{
 		{name: FileReport, write: func(out io.Writer) error { _, err := out.Write(after.reachPlanText(p)); return err }},
@@ -210,7 +276,7 @@ func WriteReachPlan(dir string, p *ReachPlan, m Meta, opt Options) ([]string, er
 		after.layerStep(FileReachGaps, after.reachGapsLayer(p.AfterReach)),
 	}
 	steps = append(steps, s.gridCopies(func(g *scene) []step {
-		gp := g.layerStep(FileReachAdded, g.reachAddedLayer(p.Suggestion))
+		gp := g.layerStep(FileReachAdded, g.reachAddedLayer(p.Suggestion, after))
 		if p.Choice != nil {
 			gp = g.layerStep(FileCandidates, g.reachCandidatesLayer(p))
 		}
@@ -223,7 +289,7 @@ func WriteReachPlan(dir string, p *ReachPlan, m Meta, opt Options) ([]string, er
 	if opt.Maps {
 		width := mapWidth(opt)
 		steps = append(steps, step{name: FileMapReach, write: fromBytes(func() ([]byte, error) {
-			return encodeMap(after.drawReachMap(p.AfterReach, width, p.reachMarks()))
+			return encodeMap(after.drawReachMap(p.AfterReach, width, p.reachMarks(after)))
 		})})
 	}
 	err = w.writeAll(s, steps)
@@ -231,8 +297,9 @@ func WriteReachPlan(dir string, p *ReachPlan, m Meta, opt Options) ([]string, er
 }
 
 // reachMarks are the map marks of the plan: the new devices or picked
-// spots, and the candidate spots not picked.
-func (p *ReachPlan) reachMarks() reachMarks {
+// spots, and the candidate spots not picked; after is the scene of the
+// layout with them (own ranges: the ranges per group of devices).
+func (p *ReachPlan) reachMarks(after *scene) reachMarks {
 	var mk reachMarks
 	if p.Choice != nil {
 		ch := p.Choice
@@ -258,6 +325,14 @@ func (p *ReachPlan) reachMarks() reachMarks {
 	sg := p.Suggestion
 	mk.added = sg.Added
 	mk.label = "Added device (+1, +2, … in placement order)"
+	if sg.OwnRanges {
+		mk.title = fmt.Sprintf("%s (%s) for %d devices in reach at their own ranges", Plural(len(sg.Added), "added device"), after.reachNewShort(p), sg.K)
+		mk.sub = fmt.Sprintf("Reached by %d or more: %.2f %% -> %.2f %%", sg.K, 100*sg.ShareBefore, 100*sg.ShareAfter)
+		if !math.IsInf(sg.CoverPowerAfter, 0) {
+			mk.sub += "; all of it at " + after.reachNeededShort(sg.CoverPowerAfter)
+		}
+		return mk
+	}
 	mk.title = fmt.Sprintf("%s for %d devices in reach at %s", Plural(len(sg.Added), "added device"), sg.K, metresShort(sg.Range))
 	mk.sub = fmt.Sprintf("%d-cover range %s -> %s; reached by %d or more: %.2f %% -> %.2f %%", sg.K,
 		reachRangeShort(sg.CoverRangeBefore), reachRangeShort(sg.CoverRangeAfter), sg.K, 100*sg.ShareBefore, 100*sg.ShareAfter)
@@ -296,10 +371,63 @@ func (s *scene) reachPlanDoc(p *ReachPlan) *ReachPlanDoc {
 		CoveredFractionBefore: sg.ShareBefore, CoveredFractionAfter: sg.ShareAfter, Reached: sg.Reached,
 		CapReached: p.CapReached, Pruned: sg.Pruned, Method: reachMethod, Reach: s.reachDoc(p.AfterReach)}
 	for j, st := range sg.Steps {
-		d.Added = append(d.Added, ReachAddedDoc{N: j + 1, Position: s.point(st.Added), KCoverRangeM: finiteOrNil(st.CoverRange),
-			CoveredFraction: st.Share, CoveredAreaM2: st.CoveredArea})
+		a := ReachAddedDoc{N: j + 1, Position: s.point(st.Added), KCoverRangeM: finiteOrNil(st.CoverRange),
+			CoveredFraction: st.Share, CoveredAreaM2: st.CoveredArea}
+		if sg.OwnRanges {
+			a.KCoverPowerM2, a.KCoverRanges = finiteOrNil(st.CoverPower), s.reachNeededFinite(st.CoverPower)
+		}
+		d.Added = append(d.Added, a)
+	}
+	if sg.OwnRanges {
+		d.OwnRanges, d.NewType, d.Method = true, p.NewType, reachMethodOwn
+		d.KCoverPowerBeforeM2, d.KCoverPowerAfterM2 = finiteOrNil(sg.CoverPowerBefore), finiteOrNil(sg.CoverPowerAfter)
+		d.KCoverRangesBefore, d.KCoverRangesAfter = s.reachBefore(p).reachNeededFinite(sg.CoverPowerBefore), s.reachNeededFinite(sg.CoverPowerAfter)
 	}
 	return d
+}
+
+// reachBefore is the scene of the existing layout for s, the scene of the
+// layout with the additions (its metadata cut to the existing devices).
+func (s *scene) reachBefore(p *ReachPlan) *scene {
+	n := len(p.Layout.Sites)
+	m := s.m
+	m.SiteNames = m.SiteNames[:min(n, len(m.SiteNames))]
+	m.Ranges = m.Ranges[:min(n, len(m.Ranges))]
+	if m.Types != nil {
+		m.Types = m.Types[:min(n, len(m.Types))]
+	}
+	return &scene{l: p.Layout, m: m}
+}
+
+// reachNeededFinite is reachNeeded for a K-cover power that may be +Inf
+// (fewer than K distinct devices): nil then.
+func (s *scene) reachNeededFinite(t float64) []RangeGroup {
+	if math.IsInf(t, 0) || math.IsNaN(t) {
+		return nil
+	}
+	return s.reachNeeded(t)
+}
+
+// reachNeededOrNone is reachNeededText for a K-cover power that may be
+// +Inf: "none (fewer than K distinct devices)" then.
+func (s *scene) reachNeededOrNone(t float64, K int) string {
+	if math.IsInf(t, 0) || math.IsNaN(t) {
+		return fmt.Sprintf("none (fewer than %d distinct devices)", K)
+	}
+	return s.reachNeededText(t)
+}
+
+// ReachPlanNeeded returns, for suggest --reach with own ranges, the
+// ranges per group of devices at which every spot is reached by K devices
+// before and after the additions, as text (ReachNeededText; "none" while
+// fewer than K distinct devices stand); "" for one common range.
+func ReachPlanNeeded(p *ReachPlan, m Meta) (before, after string) {
+	if !p.own() {
+		return "", ""
+	}
+	s := newScene(p.After, nil, p.reachAfterMeta(m))
+	sg := p.Suggestion
+	return s.reachBefore(p).reachNeededOrNone(sg.CoverPowerBefore, sg.K), s.reachNeededOrNone(sg.CoverPowerAfter, sg.K)
 }
 
 // reachChoiceDoc is summary.json of suggest --reach --candidates.
@@ -325,34 +453,82 @@ func (s *scene) reachPlanText(p *ReachPlan) []byte {
 	if p.Choice != nil {
 		return s.reachChoiceText(p)
 	}
-	sg := p.Suggestion
+	// With own ranges the K-cover figures are the ranges each group of
+	// devices needs (all ranges grow together), as analyze --reach words
+	// them.
+	sg, own := p.Suggestion, p.own()
 	var b strings.Builder
 	if s.m.Title != "" {
 		fmt.Fprintf(&b, "%s\n", s.m.Title)
 	}
-	fmt.Fprintf(&b, "SUGGEST: EVERY SPOT REACHED BY %d DEVICES at the planned range %s m\n", sg.K, fmtReach(sg.Range, 2))
+	if own {
+		fmt.Fprintf(&b, "SUGGEST: EVERY SPOT REACHED BY %d DEVICES, each device at its own planned range;\n  new devices: %s\n", sg.K, s.reachNewDevices(p))
+	} else {
+		fmt.Fprintf(&b, "SUGGEST: EVERY SPOT REACHED BY %d DEVICES at the planned range %s m\n", sg.K, fmtReach(sg.Range, 2))
+	}
 	fmt.Fprintf(&b, "  existing devices        %d\n  added devices           %d", sg.Existing, len(sg.Added))
 	if sg.Pruned > 0 {
 		fmt.Fprintf(&b, " (%d more placed, then dropped as redundant)", sg.Pruned)
 	}
-	fmt.Fprintf(&b, "\n  %d-cover range           %s m before, %s m after\n", sg.K, reachRangeText(sg.CoverRangeBefore), reachRangeText(sg.CoverRangeAfter))
+	b.WriteString("\n")
+	if !own {
+		fmt.Fprintf(&b, "  %d-cover range           %s m before, %s m after\n", sg.K, reachRangeText(sg.CoverRangeBefore), reachRangeText(sg.CoverRangeAfter))
+	}
 	fmt.Fprintf(&b, "  reached by %d+ devices   %s %% before, %s %% after\n", sg.K, fmtReach(100*sg.ShareBefore, 3), fmtReach(100*sg.ShareAfter, 3))
+	at := ""
+	if own {
+		fmt.Fprintf(&b, "  Ranges at which every spot is reached by %d devices (all ranges grow together):\n", sg.K)
+		fmt.Fprintf(&b, "    before  %s\n    after   %s\n", s.reachBefore(p).reachNeededOrNone(sg.CoverPowerBefore, sg.K), s.reachNeededOrNone(sg.CoverPowerAfter, sg.K))
+		at = " at their planned ranges"
+	}
 	switch {
 	case p.CapReached:
 		b.WriteString("  The cap on additions was reached first: some spots are still reached by fewer devices.\n")
 	case sg.Reached:
-		fmt.Fprintf(&b, "  Every spot of the site is reached by at least %d devices.\n", sg.K)
+		fmt.Fprintf(&b, "  Every spot of the site is reached by at least %d devices%s.\n", sg.K, at)
 	}
-	if len(sg.Steps) > 0 {
+	if len(sg.Steps) > 0 && own {
+		fmt.Fprintf(&b, "\n  %4s  %-28s  %12s  %s\n", "n", "position", "reached %", "ranges for every spot (all grow together)")
+		for j, st := range sg.Steps {
+			fmt.Fprintf(&b, "  %4d  %-28s  %12s  %s\n", j+1, s.pointText(st.Added), fmtReach(100*st.Share, 3), s.reachNeededOrNone(st.CoverPower, sg.K))
+		}
+	} else if len(sg.Steps) > 0 {
 		fmt.Fprintf(&b, "\n  %4s  %-28s  %14s  %12s\n", "n", "position", "k-cover m", "reached %")
 		for j, st := range sg.Steps {
 			fmt.Fprintf(&b, "  %4d  %-28s  %14s  %12s\n", j+1, s.pointText(st.Added), reachRangeText(st.CoverRange), fmtReach(100*st.Share, 3))
 		}
 	}
-	fmt.Fprintf(&b, "\n  Method: %s; every figure exact\n  (order-k Voronoi pieces, Lee 1982). Suggestions are planning aids for the disk model:\n"+
-		"  a surveyor must confirm that a device can be mounted at each spot and reaches its range.\n", reachMethod)
+	if own {
+		b.WriteString("\n  Method: farthest-point insertion on the k-th smallest power |x − p|² − r² (Gonzalez 1985), each\n" +
+			"  new device at the spot needing the most growth or 0.9 of the new devices' range from it (the\n" +
+			"  larger area reached by k), then redundant additions dropped; every figure exact (order-k power\n" +
+			"  diagram, Aurenhammer 1987, Lee 1982). Suggestions are planning aids for the disk model: a surveyor\n" +
+			"  must confirm that a device can be mounted at each spot and reaches its range.\n")
+	} else {
+		fmt.Fprintf(&b, "\n  Method: %s; every figure exact\n  (order-k Voronoi pieces, Lee 1982). Suggestions are planning aids for the disk model:\n"+
+			"  a surveyor must confirm that a device can be mounted at each spot and reaches its range.\n", reachMethod)
+	}
 	b.Write(s.reachText(p.AfterReach))
 	return []byte(b.String())
+}
+
+// reachNewShort names the new devices of an own-range plan on a map:
+// "TYPE X m" or "X m".
+func (s *scene) reachNewShort(p *ReachPlan) string {
+	if p.NewType != "" {
+		return p.NewType + " " + metresShort(p.Suggestion.Range)
+	}
+	return metresShort(p.Suggestion.Range)
+}
+
+// reachNewDevices names the new devices of an own-range plan: "TYPE at X
+// m" or "X m".
+func (s *scene) reachNewDevices(p *ReachPlan) string {
+	r := fmtReach(p.Suggestion.Range, 2) + " m"
+	if p.NewType != "" {
+		return p.NewType + " at " + r
+	}
+	return r
 }
 
 // reachRangeText formats a k-cover range ("none" when infinite: fewer
@@ -365,22 +541,44 @@ func reachRangeText(v float64) string {
 }
 
 // reachAddedLayer is one point per added device with the figures after it.
-func (s *scene) reachAddedLayer(sg *coverage.ReachSuggestion) *layerDef {
+// With own ranges (after, the scene of the layout with the additions, for
+// the ranges per group) the K-cover range gives way to k_cover_power_m2
+// and k_cover_ranges (the ranges each group of devices needs, as text),
+// and range_m is the new devices' range.
+func (s *scene) reachAddedLayer(sg *coverage.ReachSuggestion, after *scene) *layerDef {
+	f := []any{"n", gpkg.Integer, "k", gpkg.Integer}
+	if sg.OwnRanges {
+		f = append(f, "k_cover_power_m2", gpkg.Real, "k_cover_ranges", gpkg.Text)
+	} else {
+		f = append(f, "k_cover_range_m", gpkg.Real)
+	}
+	f = append(f, "covered_fraction", gpkg.Real, "covered_area_m2", gpkg.Real, "range_m", gpkg.Real)
 	return &layerDef{geom: gpkg.Point,
-		fields: fieldList("n", gpkg.Integer, "k", gpkg.Integer, "k_cover_range_m", gpkg.Real, "covered_fraction", gpkg.Real,
-			"covered_area_m2", gpkg.Real, "range_m", gpkg.Real),
+		fields: fieldList(f...),
 		each: func(emit emitFunc) error {
 			for j, st := range sg.Steps {
-				rng := st.CoverRange // null while fewer than K devices stand
-				if math.IsInf(rng, 0) {
-					rng = math.NaN()
+				v := []any{j + 1, sg.K}
+				if sg.OwnRanges {
+					v = append(v, nullInf(st.CoverPower), after.reachNeededOrNone(st.CoverPower, sg.K))
+				} else {
+					v = append(v, nullInf(st.CoverRange))
 				}
-				if err := emit(orb.Point(s.point(st.Added)), j+1, sg.K, rng, st.Share, st.CoveredArea, sg.Range); err != nil {
+				v = append(v, st.Share, st.CoveredArea, sg.Range)
+				if err := emit(orb.Point(s.point(st.Added)), v...); err != nil {
 					return err
 				}
 			}
 			return nil
 		}}
+}
+
+// nullInf is v with +Inf (fewer than K devices stand) as NaN, written as
+// null.
+func nullInf(v float64) float64 {
+	if math.IsInf(v, 0) {
+		return math.NaN()
+	}
+	return v
 }
 
 // reachChoiceText is report.txt of suggest --reach --candidates.
@@ -452,10 +650,7 @@ func (s *scene) reachCandidatesLayer(p *ReachPlan) *layerDef {
 				order, gain, rng, share := -1, math.NaN(), math.NaN(), math.NaN()
 				if j := at[i]; j >= 0 {
 					pk := ch.Picks[j]
-					order, gain, rng, share = j+1, pk.Gain, pk.CoverRange, pk.Share
-					if math.IsInf(rng, 0) {
-						rng = math.NaN() // null while fewer than K devices stand
-					}
+					order, gain, rng, share = j+1, pk.Gain, nullInf(pk.CoverRange), pk.Share
 				}
 				if err := emit(orb.Point(s.point(c)), i, p.CandidateNames[i], order > 0, order, gain, ch.K, rng, share, ch.Range); err != nil {
 					return err

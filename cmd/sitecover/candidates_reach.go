@@ -7,7 +7,7 @@ package main
 
 import (
 	"fmt"
-	"strings"
+	"io"
 
 	"github.com/paulmach/orb"
 	"github.com/sitecover/sitecover/coverage"
@@ -62,17 +62,14 @@ func candidatesReach(e *env, f *runFlags, in siteinput.Inputs, r float64, K, pic
 		return err
 	}
 	defer pr.end()
-	if err := refuseRanges(sc, "suggest --reach", in); err != nil {
+	if err := refuseRanges(sc, "suggest --reach --candidates", in); err != nil {
 		return err
 	}
-	if err := refuseCandidateRanges(sc, "suggest --reach", in); err != nil {
+	if err := refuseCandidateRanges(sc, "suggest --reach --candidates", in); err != nil {
 		return err
 	}
-	fail := func(err error) error {
-		return inputErrorf("%s: %v", inputNames(in), strings.TrimPrefix(err.Error(), "coverage: "))
-	}
-	pr.set(fmt.Sprintf("service areas of %d sites", len(sc.sites)))
-	l, err := coverage.NewLayout(sc.sites, sc.region)
+	fail := reachFail(in)
+	l, err := reachLayout(pr, sc, nil)
 	if err != nil {
 		return fail(err)
 	}
@@ -82,57 +79,40 @@ func candidatesReach(e *env, f *runFlags, in siteinput.Inputs, r float64, K, pic
 	if p.Choice, err = coverage.ChooseCandidatesReach(l, cands.Pts, K, r, picks); err != nil {
 		return fail(err)
 	}
-	pr.set("k-coverage with the picks")
-	sites := append([]orb.Point(nil), sc.sites...)
+	var added []orb.Point
 	for _, pk := range p.Choice.Picks {
-		sites = append(sites, pk.Position)
+		added = append(added, pk.Position)
 	}
-	if p.After, err = coverage.NewLayout(sites, sc.region); err != nil {
-		return fail(err)
-	}
-	kmax := min(K, p.After.Tri.NumVertices())
-	if p.AfterReach, err = coverage.KCover(p.After, r, coverage.KOptions{MaxK: kmax, CurveSamples: reachCurveSamples, Gaps: true}); err != nil {
-		return fail(err)
-	}
-	written, err := writeReport(f, pr, false, func(opt report.Options) ([]string, error) {
-		return report.WriteReachPlan(f.out, p, sc.meta, opt)
-	})
-	if err != nil {
-		return err
-	}
-	if done, err := printHead(e, f, nil); done {
-		return err
-	}
-	if sc.meta.Title != "" {
-		fmt.Fprintln(e.stdout, sc.meta.Title)
-	}
+	return finishReach(e, f, pr, sc, fail, p, added, K, r, nil, func(w io.Writer) { printReachChoice(w, p, K, picks) })
+}
+
+// printReachChoice prints the figures of suggest --reach --candidates.
+func printReachChoice(w io.Writer, p *report.ReachPlan, K, picks int) {
 	ch := p.Choice
-	fmt.Fprintf(e.stdout, "  %-24s %d of %d\n", "candidate spots picked", len(ch.Picks), len(cands.Pts))
-	fmt.Fprintf(e.stdout, "  %-24s %s m before, %s m after\n", fmt.Sprintf("%d-cover range", K), reachRangeOut(ch.CoverRangeBefore), reachRangeOut(ch.CoverRangeAfter))
-	fmt.Fprintf(e.stdout, "  %-24s %s %% before, %s %% after\n", fmt.Sprintf("reached by %d+ devices", K), fmtNum(100*ch.ShareBefore, 2), fmtNum(100*ch.ShareAfter, 2))
+	fmt.Fprintf(w, "  %-24s %d of %d\n", "candidate spots picked", len(ch.Picks), len(p.Candidates))
+	fmt.Fprintf(w, "  %-24s %s m before, %s m after\n", fmt.Sprintf("%d-cover range", K), reachRangeOut(ch.CoverRangeBefore), reachRangeOut(ch.CoverRangeAfter))
+	fmt.Fprintf(w, "  %-24s %s %% before, %s %% after\n", fmt.Sprintf("reached by %d+ devices", K), fmtNum(100*ch.ShareBefore, 2), fmtNum(100*ch.ShareAfter, 2))
 	switch {
 	case ch.Reached && ch.Optimal:
-		fmt.Fprintf(e.stdout, "  %-24s every spot reached by %d devices, with the fewest spots possible\n", "result", K)
+		fmt.Fprintf(w, "  %-24s every spot reached by %d devices, with the fewest spots possible\n", "result", K)
 	case ch.Reached && picks == 0:
-		fmt.Fprintf(e.stdout, "  %-24s every spot reached by %d devices (greedy; no choice of fewer than %d spots can)\n", "result", K, ch.LowerBound)
+		fmt.Fprintf(w, "  %-24s every spot reached by %d devices (greedy; no choice of fewer than %d spots can)\n", "result", K, ch.LowerBound)
 	case ch.Reached:
-		fmt.Fprintf(e.stdout, "  %-24s every spot reached by %d devices\n", "result", K)
+		fmt.Fprintf(w, "  %-24s every spot reached by %d devices\n", "result", K)
 	case ch.Exhausted:
-		fmt.Fprintf(e.stdout, "  %-24s THESE CANDIDATES CANNOT REACH EVERY SPOT %d TIMES: %s m² stay short in %s\n", "result", K,
+		fmt.Fprintf(w, "  %-24s THESE CANDIDATES CANNOT REACH EVERY SPOT %d TIMES: %s m² stay short in %s\n", "result", K,
 			report.AreaNumber(p.AfterReach.AreaM2-ch.CoveredAfter, 1), report.Plural(len(ch.Remaining), "part"))
 	default:
-		fmt.Fprintf(e.stdout, "  %-24s %s m² stay reached by fewer than %d devices\n", "result", report.AreaNumber(p.AfterReach.AreaM2-ch.CoveredAfter, 1), K)
+		fmt.Fprintf(w, "  %-24s %s m² stay reached by fewer than %d devices\n", "result", report.AreaNumber(p.AfterReach.AreaM2-ch.CoveredAfter, 1), K)
 	}
 	for j, pk := range ch.Picks {
 		if j == maxGapRows {
-			fmt.Fprintf(e.stdout, "  ... and %d more picks (all in report.txt and summary.json)\n", len(ch.Picks)-j)
+			fmt.Fprintf(w, "  ... and %d more picks (all in report.txt and summary.json)\n", len(ch.Picks)-j)
 			break
 		}
-		fmt.Fprintf(e.stdout, "  %4d  %s: %s-cover range %s m, reached by %d+ %s %%\n", j+1, report.ItemLabel(cands.Names[pk.Candidate], "candidate", pk.Candidate),
+		fmt.Fprintf(w, "  %4d  %s: %s-cover range %s m, reached by %d+ %s %%\n", j+1, report.ItemLabel(p.CandidateNames[pk.Candidate], "candidate", pk.Candidate),
 			fmt.Sprint(K), reachRangeOut(pk.CoverRange), K, fmtNum(100*pk.Share, 2))
 	}
-	printWritten(e.stdout, f.out, written)
-	return nil
 }
 
 // refuseCandidateRanges refuses candidate spots with their own ranges in

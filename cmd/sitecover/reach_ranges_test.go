@@ -1,8 +1,9 @@
-// Tests of analyze --reach with devices of their own ranges
-// (coverage.KCoverRanges): the outputs in metres per group of devices, the
-// first k-gap closing at the k-cover figure, equal ranges giving the
-// common-range answer, and k above the distinct devices (hidden ones
-// included) refused.
+// Tests of analyze --reach and suggest --reach with devices of their own
+// ranges (coverage.KCoverRanges, coverage.ReachAdditionsRanges): the
+// outputs in metres per group of devices, the first k-gap closing at the
+// k-cover figure, equal ranges giving the common-range answer, k above the
+// distinct devices (hidden ones included) refused, the additions reaching
+// every spot K times, and --candidates with own ranges refused.
 
 package main
 
@@ -47,9 +48,17 @@ func TestReachOwnRangesCampus(t *testing.T) {
 	if !d.OwnRanges || len(d.Levels) != 3 || len(d.RangeGroups) != 2 {
 		t.Fatalf("reach: own %v, %d levels, groups %+v", d.OwnRanges, len(d.Levels), d.RangeGroups)
 	}
+	// The coverage-depth curves, against the gateways' range (the longest)
+	// grown with every other: from 0 to every spot reached.
+	if n := len(d.CurveRangesM); n != reachCurveSamples || d.CurveRangesM[0] != 0 {
+		t.Fatalf("curve ranges %v", d.CurveRangesM)
+	}
 	for _, lv := range d.Levels {
 		if lv.CoverPowerM2 == nil || len(lv.CoverRanges) != 2 {
 			t.Fatalf("k = %d: power %v, ranges %+v", lv.K, lv.CoverPowerM2, lv.CoverRanges)
+		}
+		if c := lv.CoverageCurve; len(c) != reachCurveSamples || c[0] != 0 || math.Abs(c[len(c)-1]-1) > 1e-9 {
+			t.Errorf("k = %d: curve %v", lv.K, c)
 		}
 		p := *lv.CoverPowerM2
 		for gi, g := range lv.CoverRanges {
@@ -79,9 +88,13 @@ func TestReachOwnRangesPlanar(t *testing.T) {
 	area := writeFile(t, dir, "a.geojson", `{"type":"Polygon","coordinates":[[[-50,-50],[260,-50],[260,180],[-50,180],[-50,-50]]]}`)
 	mixed := writeFile(t, dir, "mixed.csv", mixedCSV)
 	out := filepath.Join(dir, "out")
-	r := runCLI(t, "analyze", "--planar", "--sites", mixed, "--area", area, "--reach", "2", "--out", out, "--no-maps")
+	r := runCLI(t, "analyze", "--planar", "--sites", mixed, "--area", area, "--reach", "2", "--out", out, "--map-width", "600")
 	if r.code != 0 {
 		t.Fatalf("exit %d: %s", r.code, r.stderr)
+	}
+	// The map is drawn with own ranges, titled for them.
+	if _, err := os.Stat(filepath.Join(out, report.FileMapReach)); err != nil {
+		t.Errorf("map: %v", err)
 	}
 	// The hidden sensor s3 counts among the devices in reach.
 	if d := reachDocOf(t, out); d.DistinctDevices != 4 {
@@ -114,12 +127,98 @@ func TestReachEqualOwnRanges(t *testing.T) {
 	}
 }
 
-// TestSuggestReachOwnRangesRefused: suggest --reach places devices for one
-// common range and says so, pointing to analyze --reach.
-func TestSuggestReachOwnRangesRefused(t *testing.T) {
+// TestSuggestReachOwnRanges: suggest --reach adds devices of --range or
+// --new-type to devices of their own ranges until every spot is reached by
+// K at those ranges; the figures are ranges per group of devices, the
+// k-coverage after (computed anew by the report, KCoverRanges) agrees with
+// the suggestion's, and the map is drawn.
+func TestSuggestReachOwnRanges(t *testing.T) {
 	dir := t.TempDir()
 	area := writeFile(t, dir, "a.geojson", `{"type":"Polygon","coordinates":[[[-50,-50],[260,-50],[260,180],[-50,180],[-50,-50]]]}`)
 	mixed := writeFile(t, dir, "mixed.csv", mixedCSV)
-	r := runCLI(t, "suggest", "--planar", "--sites", mixed, "--area", area, "--range", "40", "--reach", "2", "--out", filepath.Join(dir, "o"), "--no-maps")
-	checkFailure(t, r, exitInput, []string{"own ranges", "one common range", "analyze --reach"})
+	typed := writeFile(t, dir, "typed.csv", "name,x,y,type\ng1,0,0,gateway\ns1,200,0,sensor\ns2,100,120,sensor\n")
+	type plan struct {
+		OwnRanges  bool                   `json:"own_ranges"`
+		NewType    string                 `json:"new_type"`
+		RangeM     float64                `json:"range_m"`
+		Reached    bool                   `json:"reached"`
+		Added      []report.ReachAddedDoc `json:"added"`
+		PowerAfter *float64               `json:"k_cover_power_after_m2"`
+		RangeAfter *float64               `json:"k_cover_range_after_m"`
+		Before     []report.RangeGroup    `json:"k_cover_ranges_before"`
+		After      []report.RangeGroup    `json:"k_cover_ranges_after"`
+		ShareAfter float64                `json:"covered_fraction_after"`
+		Reach      *report.ReachDoc       `json:"reach_after"`
+	}
+	for _, c := range []struct {
+		name, newType string
+		args          []string
+		groups        int // groups of devices after (type and planned range)
+		stdout        string
+	}{
+		{"range", "", []string{"--sites", mixed, "--range", "60"}, 3, "gateway (150.00 m) → "},
+		{"new-type", "sensor", []string{"--sites", typed, "--type-range", "gateway=150m", "--type-range", "sensor=40m", "--new-type", "sensor"}, 2, "sensor (40.00 m) → "},
+	} {
+		t.Run(c.name, func(t *testing.T) {
+			out := filepath.Join(dir, c.name)
+			args := append([]string{"suggest", "--planar", "--area", area, "--reach", "2", "--out", out, "--map-width", "600"}, c.args...)
+			r := runCLI(t, args...)
+			if r.code != 0 {
+				t.Fatalf("exit %d: %s", r.code, r.stderr)
+			}
+			b, err := os.ReadFile(filepath.Join(out, report.FileSummary))
+			if err != nil {
+				t.Fatal(err)
+			}
+			var d plan
+			if err := json.Unmarshal(b, &d); err != nil {
+				t.Fatal(err)
+			}
+			if !d.OwnRanges || d.NewType != c.newType || !d.Reached || len(d.Added) == 0 || d.RangeAfter != nil || d.PowerAfter == nil || *d.PowerAfter > 0 {
+				t.Fatalf("summary: %+v", d)
+			}
+			if len(d.After) != c.groups || len(d.Before) != 2 || d.Reach == nil || !d.Reach.OwnRanges || len(d.Reach.RangeGroups) != c.groups {
+				t.Fatalf("groups: before %+v, after %+v, reach %+v", d.Before, d.After, d.Reach)
+			}
+			// Every group needs at most its planned range after, more before.
+			for gi, g := range d.After {
+				if planned := d.Reach.RangeGroups[gi].RangeM; g.RangeM > planned*(1+1e-9) {
+					t.Errorf("after: %s needs %v m, planned %v m", g.Type, g.RangeM, planned)
+				}
+			}
+			lv := d.Reach.Levels[len(d.Reach.Levels)-1]
+			if lv.K != 2 || lv.CoveredFraction != d.ShareAfter || d.ShareAfter < 1-1e-12 || len(lv.Gaps) != 0 {
+				t.Errorf("reach after: level %+v, share after %v", lv, d.ShareAfter)
+			}
+			last := d.Added[len(d.Added)-1]
+			if last.KCoverPowerM2 == nil || *last.KCoverPowerM2 != *d.PowerAfter || len(last.KCoverRanges) != c.groups {
+				t.Errorf("last step %+v, power after %v", last, *d.PowerAfter)
+			}
+			rep, err := os.ReadFile(filepath.Join(out, report.FileReport))
+			if err != nil || !strings.Contains(string(rep), "each device at its own planned range") || !strings.Contains(string(rep), "all ranges grow together") {
+				t.Errorf("report.txt: %v\n%s", err, rep)
+			}
+			if _, err := os.Stat(filepath.Join(out, report.FileMapReach)); err != nil {
+				t.Errorf("map: %v", err)
+			}
+			if !strings.Contains(r.stdout, "2-cover ranges") || !strings.Contains(r.stdout, c.stdout) {
+				t.Errorf("stdout: %s", r.stdout)
+			}
+		})
+	}
+}
+
+// TestSuggestReachCandidatesOwnRangesRefused: suggest --reach --candidates
+// chooses spots for one common range and says so, pointing to suggest
+// --reach without candidates; own ranges without --range or --new-type is
+// bad usage.
+func TestSuggestReachCandidatesOwnRangesRefused(t *testing.T) {
+	dir := t.TempDir()
+	area := writeFile(t, dir, "a.geojson", `{"type":"Polygon","coordinates":[[[-50,-50],[260,-50],[260,180],[-50,180],[-50,-50]]]}`)
+	mixed := writeFile(t, dir, "mixed.csv", mixedCSV)
+	cands := writeFile(t, dir, "c.csv", "x,y\n50,50\n150,50\n")
+	r := runCLI(t, "suggest", "--planar", "--sites", mixed, "--area", area, "--range", "40", "--reach", "2", "--candidates", cands, "--out", filepath.Join(dir, "o"), "--no-maps")
+	checkFailure(t, r, exitInput, []string{"own ranges", "one common range", "without --candidates"})
+	r = runCLI(t, "suggest", "--planar", "--sites", mixed, "--area", area, "--reach", "2", "--out", filepath.Join(dir, "o"), "--no-maps")
+	checkFailure(t, r, exitUsage, []string{"--range", "--new-type"})
 }
