@@ -7,9 +7,11 @@
 package report
 
 import (
+	"cmp"
 	"fmt"
 	"io"
 	"math"
+	"slices"
 	"strings"
 
 	"github.com/sitecover/sitecover/coverage"
@@ -423,7 +425,8 @@ func (s *planScene) textFailureTable(b *textBuf) {
 	hx, hy := s.pointHeads()
 	t.head("Rank", "Loss m²", "Uncovered m²", "Closing m", hx, hy, last, "Device", "Backup")
 	t.left(7, 8)
-	t.rows(len(fr.Devices), func(k int) {
+	rows := min(len(fr.Devices), textTableMax) // ranked: the first are the ones that matter
+	t.rows(rows, func(k int) {
 		d := fr.Devices[k]
 		px, py := s.pointCols(d.Deepest)
 		name := s.label(d.Site)
@@ -448,6 +451,9 @@ func (s *planScene) textFailureTable(b *textBuf) {
 			closing, px, py, lastCol, name, backup)
 	})
 	t.write(b)
+	if rows < len(fr.Devices) {
+		s.leftOut(b, len(fr.Devices)-rows, "lower-ranked device", FileFailures, len(fr.Devices))
+	}
 }
 
 // survivesMeaning is the one sentence report.txt gives on the
@@ -565,7 +571,16 @@ func (s *planScene) textAssignment(b *textBuf) {
 		t.head("Items", "Weight", "Device")
 		t.left(2)
 	}
-	t.rows(len(a.Load), func(i int) {
+	order := largestLoads(a.Load, textTableMax)
+	rows := len(a.Load)
+	if order != nil {
+		rows = len(order)
+		fmt.Fprintf(b, "  The %d devices with the largest weight served are printed, largest first.\n", rows)
+	}
+	t.rows(rows, func(i int) {
+		if order != nil {
+			i = int(order[i])
+		}
 		ld := a.Load[i]
 		if ranged {
 			name := s.label(i)
@@ -578,6 +593,10 @@ func (s *planScene) textAssignment(b *textBuf) {
 		}
 	})
 	t.write(b)
+	if order != nil {
+		fmt.Fprintf(b, "  ... and %s left out here; %s and %s hold all %d.\n", Plural(len(a.Load)-rows, "device"),
+			FileDeviceLoadCSV, LayerFile(FileDeviceLoad, s.m.Planar), len(a.Load))
+	}
 
 	all := len(p.Demand) <= maxDemandRows
 	if all {
@@ -694,4 +713,19 @@ func planFileNote(f string) string {
 		return "existing device sites (points)"
 	}
 	return fileNote[f]
+}
+
+// largestLoads returns the indices of the k devices serving the largest
+// weight, largest first (ties by index), or nil when there are no more
+// than k, which are then all printed in device order (textTableMax).
+func largestLoads(load []coverage.DeviceLoad, k int) []int32 {
+	if len(load) <= k {
+		return nil
+	}
+	order := make([]int32, len(load))
+	for i := range order {
+		order[i] = int32(i)
+	}
+	slices.SortStableFunc(order, func(a, b int32) int { return cmp.Compare(load[b].Weight, load[a].Weight) })
+	return order[:k]
 }
