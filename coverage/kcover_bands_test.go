@@ -11,7 +11,10 @@ import (
 	"math"
 	"testing"
 
+	"slices"
+
 	"github.com/paulmach/orb"
+	"github.com/sitecover/sitecover/planar/sitegen"
 )
 
 // kBandChordArea bounds, relative to r times the outline's perimeter, the
@@ -124,5 +127,73 @@ func TestKCoverBandsNeedLevels(t *testing.T) {
 				t.Errorf("err %v, want ErrBandsNeedLevels", err)
 			}
 		})
+	}
+}
+
+// kBandSameTol is the distance (metres) from the nearest outline edge
+// within which a sample may fall in different bands of kbDirect and
+// kbCumulative: their crossing points are rounded in different overlays,
+// a few ulps (about 1e-13 m at 100 m) apart; 1e-9 m leaves a wide margin.
+const kBandSameTol = 1e-9
+
+// TestKCoverBandsDirectIsCumulative checks that the one-overlay-per-band
+// construction (kbDirect) gives the bands of the cumulative unions
+// (kbCumulative): each band's outline area agrees to KBandAreaRel of the
+// site area, and every sample farther than kBandSameTol from both
+// constructions' edges lies in the same band of each.
+func TestKCoverBandsDirectIsCumulative(t *testing.T) {
+	scenes := kTestScenes(t)
+	u := sitegen.Uniform(400, 5)
+	scenes = append(scenes, kTestScene{"uniform-400", cvLayout(t, u, benchArea(t, u, 0))})
+	for _, sc := range scenes {
+		for _, r := range []float64{9, 14} {
+			t.Run(fmt.Sprintf("%s/r%v", sc.name, r), func(t *testing.T) {
+				K := min(3, len(kDistinct(sc.l)))
+				kc, err := KCover(sc.l, r, KOptions{MaxK: K, Gaps: true})
+				if err != nil {
+					t.Fatal(err)
+				}
+				site := sc.l.Area.MultiPolygon()
+				direct, err := kbDirect(kc, site)
+				if err != nil {
+					t.Fatal(err)
+				}
+				cum, err := kbCumulative(kc, site)
+				if err != nil {
+					t.Fatal(err)
+				}
+				for j := range direct {
+					if a, b := coveredPolyArea(direct[j]), coveredPolyArea(cum[j]); math.Abs(a-b) > KBandAreaRel*sc.l.AreaM2 {
+						t.Errorf("band %d: area %.12g direct, %.12g cumulative", j, a, b)
+					}
+				}
+				var edges []float64
+				for _, mp := range append(slices.Clone(direct), cum...) {
+					for _, pg := range mp {
+						for _, ring := range pg {
+							for i := 1; i < len(ring); i++ {
+								edges = append(edges, ring[i-1][0], ring[i-1][1], ring[i][0], ring[i][1])
+							}
+						}
+					}
+				}
+				bad := 0
+				// About 2000 samples, each checked against every edge.
+				kForSamples(sc.l, math.Sqrt(sc.l.AreaM2/2000), func(x, y float64) {
+					for e := 0; e < len(edges); e += 4 {
+						if kSegDist(edges[e], edges[e+1], edges[e+2], edges[e+3], x, y) < kBandSameTol {
+							return
+						}
+					}
+					for j := range direct {
+						if a, b := gapsOutlineContains(direct[j], orb.Point{x, y}), gapsOutlineContains(cum[j], orb.Point{x, y}); a != b {
+							if bad++; bad <= 3 {
+								t.Errorf("(%v, %v): in band %d: direct %v, cumulative %v", x, y, j, a, b)
+							}
+						}
+					}
+				})
+			})
+		}
 	}
 }
