@@ -10,17 +10,13 @@
 //	area(band K+) = covered(K).
 //
 // Outlines. The k-gap outlines replace arcs by chords (sagitta at most
-// chordTol·r), so they nest only up to that; the bands are therefore
-// those of the cumulative unions, U_k = A ∩ (G_1 ∪ … ∪ G_k), band j =
-// U_{j+1} \ U_j and band K+ = A \ U_K. Each is one overlay
-// (planar.Difference, exact), independent of the others (kbDirect): band
-// j = G_{j+1} \ (G_1 ∪ … ∪ G_j ∪ (B \ A)), B a box around everything,
-// band K+ = A \ (G_1 ∪ … ∪ G_K). Should one of them fail, the chain
-// U_k = (U_{k−1} ∪ G_k) ∩ A (planar.Union, planar.Intersection), band j =
-// U_{j+1} \ U_j is built instead (kbCumulative), with the repairs and
-// retries below. The bands are disjoint and their areas add up to area(A)
-// up to the rounded crossing points of the overlay (a few ulps of the
-// coordinates times the perimeters; KBandAreaRel). A band outline
+// chordTol·r), so they nest only up to that; the bands are therefore built
+// from cumulative unions, U_k = (U_{k−1} ∪ G_k) ∩ A (planar.Union and
+// planar.Intersection, exact overlay), band j = U_{j+1} \ U_j and band K+ =
+// A \ U_K (planar.Difference; each band's difference runs in parallel with
+// the next union). They are disjoint and their areas add up to
+// area(A) up to the rounded crossing points of the overlay (a few ulps of
+// the coordinates times the perimeters; KBandAreaRel). A band outline
 // differs from the exact band by at most the chord sagitta along its arcs,
 // plus any k-gap part whose chord outline the overlay refuses even after
 // repair (see kgUnionSimple; none in the tests): it is left out, and its
@@ -42,7 +38,7 @@ import (
 	"errors"
 	"fmt"
 	"math"
-	"slices"
+	"sync"
 
 	"github.com/paulmach/orb"
 	"github.com/sitecover/sitecover/planar"
@@ -98,11 +94,9 @@ func (kc *KCoverage) Bands(l *Layout) ([]KBand, error) {
 		}
 	}
 	site := l.Area.MultiPolygon()
-	outlines, err := kbDirect(kc, site)
+	outlines, err := kbCumulative(kc, site)
 	if err != nil {
-		if outlines, err = kbCumulative(kc, site); err != nil {
-			return nil, err
-		}
+		return nil, err
 	}
 	bands := make([]KBand, 0, K+1)
 	for k := 1; k <= K; k++ {
@@ -126,76 +120,57 @@ func kbLevelGaps(kc *KCoverage) []orb.MultiPolygon {
 	return gs
 }
 
-// kbDirect returns the band outlines, band j < K as G_{j+1} \ (G_1 ∪ … ∪
-// G_j ∪ O) and band K+ as A \ (G_1 ∪ … ∪ G_K), O = B \ A the outside of
-// the site area in a box B holding every operand: the same sets as the
-// cumulative unions' (U_j = A ∩ (G_1 ∪ … ∪ G_j), so U_{j+1} \ U_j = (G_{j+1}
-// ∩ A) \ (G_1 ∪ … ∪ G_j)), each one overlay (planar.Difference takes the
-// union of each operand's polygons) and the K+1 of them independent, so
-// they run in parallel: about half the overlay work of kbCumulative's
-// 3K+1 chained overlays. Any error (an operand refused, a near-degenerate
-// overlay) is returned; Bands then falls back to kbCumulative with its
-// repairs and retries.
-func kbDirect(kc *KCoverage, site orb.MultiPolygon) ([]orb.MultiPolygon, error) {
-	K := len(kc.Levels)
-	gs := kbLevelGaps(kc)
-	b := orb.MultiPolygon(site).Bound()
-	for _, g := range gs {
-		b = b.Union(g.Bound())
-	}
-	// Any margin will do: O only needs to hold the parts of the gaps'
-	// chord outlines outside A.
-	m := max(1, b.Max[0]-b.Min[0], b.Max[1]-b.Min[1])
-	x0, y0, x1, y1 := b.Min[0]-m, b.Min[1]-m, b.Max[0]+m, b.Max[1]+m
-	box := orb.MultiPolygon{{{{x0, y0}, {x1, y0}, {x1, y1}, {x0, y1}, {x0, y0}}}}
-	outside, err := planar.Difference(box, site)
-	if err != nil {
-		return nil, err
-	}
-	out := make([]orb.MultiPolygon, K+1)
-	errs := make([]error, K+1)
-	// The largest overlays (the top bands, whose operands hold the most
-	// levels) are taken first.
-	planar.ParallelChunks(K+1, 1, 0, func(ci, _, _ int) {
-		j := K - ci
-		a, sub := site, orb.MultiPolygon(nil)
-		if j < K {
-			a, sub = gs[j], slices.Clip(outside)
-		}
-		for _, g := range gs[:j] {
-			sub = append(sub, g...)
-		}
-		out[j], errs[j] = planar.Difference(a, sub)
-	})
-	return out, errors.Join(errs...)
-}
-
 // kbCumulative returns the band outlines from the cumulative unions (see
 // the file comment): U_k = (U_{k−1} ∪ G_k) ∩ A, band j = U_{j+1} \ U_j,
 // band K+ = A \ U_K, with kgUnionSimple's repairs and kbOverlay's retries
-// on snapped operands.
+// on snapped operands. Only the chain of unions is sequential: each band's
+// difference runs beside the next union (the same overlays on the same
+// operands as one after the other, so the same outlines).
 func kbCumulative(kc *KCoverage, site orb.MultiPolygon) ([]orb.MultiPolygon, error) {
 	K := len(kc.Levels)
 	gs := kbLevelGaps(kc)
-	out := make([]orb.MultiPolygon, 0, K+1)
+	out := make([]orb.MultiPolygon, K+1)
+	errs := make([]error, K+1) // of the differences
+	var wg sync.WaitGroup
 	var prev orb.MultiPolygon // U_{k−1}
 	for k := 1; k <= K; k++ {
 		u, err := kbUnion(append(prev[:len(prev):len(prev)], gs[k-1]...), site)
 		if err != nil {
+			wg.Wait()
+			// A band before k that failed came first.
+			if e := kbFirstError(errs[:k-1]); e != nil {
+				return nil, e
+			}
 			return nil, fmt.Errorf("coverage: Bands: k = %d: %w", k, err)
 		}
-		band, err := kbOverlay(planar.Difference, u, prev)
-		if err != nil {
-			return nil, fmt.Errorf("coverage: Bands: k = %d: %w", k, err)
-		}
-		out = append(out, band)
+		lower := prev
+		wg.Go(func() {
+			if out[k-1], errs[k-1] = kbOverlay(planar.Difference, u, lower); errs[k-1] != nil {
+				errs[k-1] = fmt.Errorf("coverage: Bands: k = %d: %w", k, errs[k-1])
+			}
+		})
 		prev = u
 	}
 	top, err := kbOverlay(planar.Difference, site, prev)
+	wg.Wait()
 	if err != nil {
-		return nil, fmt.Errorf("coverage: Bands: K or more: %w", err)
+		errs[K] = fmt.Errorf("coverage: Bands: K or more: %w", err)
 	}
-	return append(out, top), nil
+	if e := kbFirstError(errs); e != nil {
+		return nil, e
+	}
+	out[K] = top
+	return out, nil
+}
+
+// kbFirstError returns the first non-nil error of errs (nil if none).
+func kbFirstError(errs []error) error {
+	for _, e := range errs {
+		if e != nil {
+			return e
+		}
+	}
+	return nil
 }
 
 // kbBand makes one band; the exact area is clamped at 0 (the difference
