@@ -15,7 +15,6 @@ import (
 
 	"github.com/paulmach/orb"
 	"github.com/sitecover/sitecover/planar"
-	"github.com/sitecover/sitecover/planar/sitegen"
 )
 
 // kBandChordArea bounds, relative to r times the outline's perimeter, the
@@ -65,6 +64,7 @@ func TestKCoverBands(t *testing.T) {
 					t.Errorf("exact band areas sum to %.12g, site area %.12g", exact, sc.l.AreaM2)
 				}
 				kBandSamples(t, sc.l, r, bands)
+				kBandsSerialCheck(t, kc, sc.l, bands)
 			})
 		}
 	}
@@ -131,51 +131,34 @@ func TestKCoverBandsNeedLevels(t *testing.T) {
 	}
 }
 
-// TestKCoverBandsSameAsSerial checks that Bands, whose differences run
-// beside the chain of unions, gives exactly the outlines of the same
-// overlays run one after the other (kcover_bands.go before that change).
-func TestKCoverBandsSameAsSerial(t *testing.T) {
-	scenes := kTestScenes(t)
-	u := sitegen.Uniform(400, 5)
-	scenes = append(scenes, kTestScene{"uniform-400", cvLayout(t, u, benchArea(t, u, 0))})
-	for _, sc := range scenes {
-		for _, r := range []float64{9, 14} {
-			t.Run(fmt.Sprintf("%s/r%v", sc.name, r), func(t *testing.T) {
-				K := min(3, len(kDistinct(sc.l)))
-				kc, err := KCover(sc.l, r, KOptions{MaxK: K, Gaps: true})
-				if err != nil {
-					t.Fatal(err)
-				}
-				bands, err := kc.Bands(sc.l)
-				if err != nil {
-					t.Fatal(err)
-				}
-				site := sc.l.Area.MultiPolygon()
-				var want []orb.MultiPolygon
-				var prev orb.MultiPolygon
-				for _, g := range kbLevelGaps(kc) {
-					u, err := kbUnion(append(prev[:len(prev):len(prev)], g...), site)
-					if err != nil {
-						t.Fatal(err)
-					}
-					band, err := kbOverlay(planar.Difference, u, prev)
-					if err != nil {
-						t.Fatal(err)
-					}
-					want = append(want, band)
-					prev = u
-				}
-				top, err := kbOverlay(planar.Difference, site, prev)
-				if err != nil {
-					t.Fatal(err)
-				}
-				want = append(want, top)
-				for j, b := range bands {
-					if !reflect.DeepEqual(b.Outline, want[j]) {
-						t.Errorf("band %d: outline differs from the serial overlays'", j)
-					}
-				}
-			})
+// kBandsSerialCheck checks that the bands' outlines are exactly those of
+// the same overlays run one after the other (Bands runs each band's
+// difference beside the next union; kcover_bands.go before that change).
+func kBandsSerialCheck(t *testing.T, kc *KCoverage, l *Layout, bands []KBand) {
+	t.Helper()
+	site := l.Area.MultiPolygon()
+	var want []orb.MultiPolygon
+	var prev orb.MultiPolygon
+	for _, g := range kbLevelGaps(kc) {
+		u, err := kbUnion(append(prev[:len(prev):len(prev)], g...), site)
+		if err != nil {
+			t.Fatal(err)
+		}
+		band, err := kbOverlay(planar.Difference, u, prev)
+		if err != nil {
+			t.Fatal(err)
+		}
+		want = append(want, band)
+		prev = u
+	}
+	top, err := kbOverlay(planar.Difference, site, prev)
+	if err != nil {
+		t.Fatal(err)
+	}
+	want = append(want, top)
+	for j, b := range bands {
+		if !reflect.DeepEqual(b.Outline, want[j]) {
+			t.Errorf("band %d: outline differs from the serial overlays'", j)
 		}
 	}
 }
