@@ -237,15 +237,19 @@ func KCover(l *Layout, r float64, opt KOptions) (*KCoverage, error) {
 	return kc, nil
 }
 
-// allGaps computes the k-gaps of every level.
+// allGaps computes the k-gaps of every level. The levels are independent
+// and run in parallel (the serial overlay of each level's merge then
+// overlaps with the others' work), the largest (highest k) first.
 func (kc *KCoverage) allGaps(l *Layout, tol float64) {
 	kc.hasGaps = true
-	for i := range kc.Levels {
+	n := len(kc.Levels)
+	planar.ParallelChunks(n, 1, 0, func(ci, _, _ int) {
+		i := n - 1 - ci
 		kc.Levels[i].Gaps = kc.gaps(l, i, tol)
 		if kc.Levels[i].K > 1 {
 			kgMergeOutlines(kc.Levels[i].Gaps)
 		}
-	}
+	})
 }
 
 // warnDuplicates notes d devices merged with another at the same spot.

@@ -13,7 +13,8 @@
 // chordTol·r), so they nest only up to that; the bands are therefore built
 // from cumulative unions, U_k = (U_{k−1} ∪ G_k) ∩ A (planar.Union and
 // planar.Intersection, exact overlay), band j = U_{j+1} \ U_j and band K+ =
-// A \ U_K (planar.Difference). They are disjoint and their areas add up to
+// A \ U_K (planar.Difference; each band's difference runs in parallel with
+// the next union). They are disjoint and their areas add up to
 // area(A) up to the rounded crossing points of the overlay (a few ulps of
 // the coordinates times the perimeters; KBandAreaRel). A band outline
 // differs from the exact band by at most the chord sagitta along its arcs,
@@ -37,6 +38,7 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"sync"
 
 	"github.com/paulmach/orb"
 	"github.com/sitecover/sitecover/planar"
@@ -92,34 +94,83 @@ func (kc *KCoverage) Bands(l *Layout) ([]KBand, error) {
 		}
 	}
 	site := l.Area.MultiPolygon()
+	outlines, err := kbCumulative(kc, site)
+	if err != nil {
+		return nil, err
+	}
 	bands := make([]KBand, 0, K+1)
-	var prev orb.MultiPolygon // U_{k−1}
 	for k := 1; k <= K; k++ {
-		var g orb.MultiPolygon
-		for _, gp := range kc.Levels[k-1].Gaps {
-			g = append(g, gp.Outline...)
-		}
-		u, err := kbUnion(append(prev[:len(prev):len(prev)], g...), site)
-		if err != nil {
-			return nil, fmt.Errorf("coverage: Bands: k = %d: %w", k, err)
-		}
-		band, err := kbOverlay(planar.Difference, u, prev)
-		if err != nil {
-			return nil, fmt.Errorf("coverage: Bands: k = %d: %w", k, err)
-		}
 		hi := kc.AreaM2
 		if k > 1 {
 			hi = kc.Levels[k-2].CoveredArea
 		}
-		bands = append(bands, kbBand(kc, k-1, false, hi-kc.Levels[k-1].CoveredArea, band))
+		bands = append(bands, kbBand(kc, k-1, false, hi-kc.Levels[k-1].CoveredArea, outlines[k-1]))
+	}
+	return append(bands, kbBand(kc, K, true, kc.Levels[K-1].CoveredArea, outlines[K])), nil
+}
+
+// kbLevelGaps returns the outlines of the k-gaps of every level, by level.
+func kbLevelGaps(kc *KCoverage) []orb.MultiPolygon {
+	gs := make([]orb.MultiPolygon, len(kc.Levels))
+	for i, lv := range kc.Levels {
+		for _, gp := range lv.Gaps {
+			gs[i] = append(gs[i], gp.Outline...)
+		}
+	}
+	return gs
+}
+
+// kbCumulative returns the band outlines from the cumulative unions (see
+// the file comment): U_k = (U_{k−1} ∪ G_k) ∩ A, band j = U_{j+1} \ U_j,
+// band K+ = A \ U_K, with kgUnionSimple's repairs and kbOverlay's retries
+// on snapped operands. Only the chain of unions is sequential: each band's
+// difference runs beside the next union (the same overlays on the same
+// operands as one after the other, so the same outlines).
+func kbCumulative(kc *KCoverage, site orb.MultiPolygon) ([]orb.MultiPolygon, error) {
+	K := len(kc.Levels)
+	gs := kbLevelGaps(kc)
+	out := make([]orb.MultiPolygon, K+1)
+	errs := make([]error, K+1) // of the differences
+	var wg sync.WaitGroup
+	var prev orb.MultiPolygon // U_{k−1}
+	for k := 1; k <= K; k++ {
+		u, err := kbUnion(append(prev[:len(prev):len(prev)], gs[k-1]...), site)
+		if err != nil {
+			wg.Wait()
+			// A band before k that failed came first.
+			if e := kbFirstError(errs[:k-1]); e != nil {
+				return nil, e
+			}
+			return nil, fmt.Errorf("coverage: Bands: k = %d: %w", k, err)
+		}
+		lower := prev
+		wg.Go(func() {
+			if out[k-1], errs[k-1] = kbOverlay(planar.Difference, u, lower); errs[k-1] != nil {
+				errs[k-1] = fmt.Errorf("coverage: Bands: k = %d: %w", k, errs[k-1])
+			}
+		})
 		prev = u
 	}
 	top, err := kbOverlay(planar.Difference, site, prev)
+	wg.Wait()
 	if err != nil {
-		return nil, fmt.Errorf("coverage: Bands: K or more: %w", err)
+		errs[K] = fmt.Errorf("coverage: Bands: K or more: %w", err)
 	}
-	bands = append(bands, kbBand(kc, K, true, kc.Levels[K-1].CoveredArea, top))
-	return bands, nil
+	if e := kbFirstError(errs); e != nil {
+		return nil, e
+	}
+	out[K] = top
+	return out, nil
+}
+
+// kbFirstError returns the first non-nil error of errs (nil if none).
+func kbFirstError(errs []error) error {
+	for _, e := range errs {
+		if e != nil {
+			return e
+		}
+	}
+	return nil
 }
 
 // kbBand makes one band; the exact area is clamped at 0 (the difference

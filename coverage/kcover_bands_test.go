@@ -11,7 +11,10 @@ import (
 	"math"
 	"testing"
 
+	"reflect"
+
 	"github.com/paulmach/orb"
+	"github.com/sitecover/sitecover/planar"
 )
 
 // kBandChordArea bounds, relative to r times the outline's perimeter, the
@@ -61,6 +64,7 @@ func TestKCoverBands(t *testing.T) {
 					t.Errorf("exact band areas sum to %.12g, site area %.12g", exact, sc.l.AreaM2)
 				}
 				kBandSamples(t, sc.l, r, bands)
+				kBandsSerialCheck(t, kc, sc.l, bands)
 			})
 		}
 	}
@@ -124,5 +128,37 @@ func TestKCoverBandsNeedLevels(t *testing.T) {
 				t.Errorf("err %v, want ErrBandsNeedLevels", err)
 			}
 		})
+	}
+}
+
+// kBandsSerialCheck checks that the bands' outlines are exactly those of
+// the same overlays run one after the other (Bands runs each band's
+// difference beside the next union; kcover_bands.go before that change).
+func kBandsSerialCheck(t *testing.T, kc *KCoverage, l *Layout, bands []KBand) {
+	t.Helper()
+	site := l.Area.MultiPolygon()
+	var want []orb.MultiPolygon
+	var prev orb.MultiPolygon
+	for _, g := range kbLevelGaps(kc) {
+		u, err := kbUnion(append(prev[:len(prev):len(prev)], g...), site)
+		if err != nil {
+			t.Fatal(err)
+		}
+		band, err := kbOverlay(planar.Difference, u, prev)
+		if err != nil {
+			t.Fatal(err)
+		}
+		want = append(want, band)
+		prev = u
+	}
+	top, err := kbOverlay(planar.Difference, site, prev)
+	if err != nil {
+		t.Fatal(err)
+	}
+	want = append(want, top)
+	for j, b := range bands {
+		if !reflect.DeepEqual(b.Outline, want[j]) {
+			t.Errorf("band %d: outline differs from the serial overlays'", j)
+		}
 	}
 }

@@ -9,6 +9,7 @@ package coverage
 
 import (
 	"fmt"
+	"math"
 	"syscall"
 	"testing"
 
@@ -87,4 +88,27 @@ func BenchmarkKCoverRanges(b *testing.B) {
 			})
 		}
 	}
+}
+
+// BenchmarkKCoverReach times what analyze --reach 3 computes in coverage:
+// KCover with levels 1 … 3, the curve and the gaps (their outlines
+// merged), then the bands, on 20 000 uniform devices at a range covering
+// about 95 % of the area (the layout is built before the timer starts).
+func BenchmarkKCoverReach(b *testing.B) {
+	const n = 20_000
+	sites := sitegen.Uniform(n, 1)
+	l := planBenchLayout(b, sites)
+	// λπr² = 3 devices in a disk on average: 1 − e^−3 ≈ 95 % covered.
+	r := math.Sqrt(3 * l.AreaM2 / (float64(n) * math.Pi))
+	cpu0 := kBenchCPU()
+	for b.Loop() {
+		kc, err := KCover(l, r, KOptions{MaxK: 3, CurveSamples: 65, Gaps: true})
+		if err != nil {
+			b.Fatal(err)
+		}
+		if _, err := kc.Bands(l); err != nil {
+			b.Fatal(err)
+		}
+	}
+	b.ReportMetric((kBenchCPU()-cpu0)/float64(b.N), "cpu-s/op")
 }

@@ -57,7 +57,6 @@ package coverage
 
 import (
 	"cmp"
-	"container/heap"
 	"math"
 	"slices"
 	"strconv"
@@ -178,53 +177,20 @@ func (kc *KCoverage) gaps(l *Layout, li int, tol float64) []KGap {
 		first[p+1] = first[p] + int32(len(parts[p]))
 	}
 	uf := planar.NewUnionFind(int(first[len(pieces)]))
-	var nn kgNearest
-	for p := range pieces {
-		sg := segs[p]
-		for j := 0; j+4 < len(sg); j += 5 {
-			q := lv.store[pieces[p].st].set[int(pieces[p].i)*k+k-1]
-			qx, qy, rq := kc.dev.at(l, q, r)
-			ax, ay, bx, by := sg[j], sg[j+1], sg[j+2], sg[j+3]
-			mx, my := (ax+bx)/2, (ay+by)/2
-			dx, dy := bx-ax, by-ay
-			ln := math.Hypot(dx, dy)
-			if ln == 0 {
-				continue
-			}
-			step := KGapProbe * (math.Hypot(mx-qx, my-qy) + rq)
-			px, py := mx+dy/ln*step, my-dx/ln*step // right of a→b: outside the piece
-			if !l.Area.Contains(px, py) {
-				continue
-			}
-			var ord []int32
-			if kc.dev != nil {
-				ord = kc.dev.kSmallest(px, py, k, &nn)
-			} else {
-				ord = nn.kNearest(l, px, py, k)
-			}
-			if len(ord) < k {
-				continue
-			}
-			S := slices.Clone(ord[:k-1])
-			slices.Sort(S)
-			key := append(S, ord[k-1])
-			other, ok := index[kgKey(&kb, ord[0], key)]
-			if !ok {
-				other, ok = index[kgKey(&kb, -1, key)]
-			}
-			if !ok {
-				continue
-			}
-			best, bd := int32(-1), math.Inf(1)
-			osg := segs[other]
-			for j2 := 0; j2+4 < len(osg); j2 += 5 {
-				if d := kSegDist(osg[j2], osg[j2+1], osg[j2+2], osg[j2+3], mx, my); d < bd {
-					bd, best = d, int32(osg[j2+4])
-				}
-			}
-			if best >= 0 {
-				uf.Union(first[p]+int32(sg[j+4]), first[other]+best)
-			}
+	// The joins are found in parallel chunks of pieces and applied in
+	// piece order, so the components (and their numbering) do not depend
+	// on the chunking.
+	joins := make([][]int32, (len(pieces)+kgJoinChunk-1)/kgJoinChunk)
+	planar.ParallelChunks(len(pieces), kgJoinChunk, 0, func(ci, lo, hi int) {
+		var nn kgNearest
+		var kb strings.Builder
+		for p := lo; p < hi; p++ {
+			joins[ci] = kc.pieceJoins(l, lv, pieces[p].st, pieces[p].i, segs, index, first, p, &nn, &kb, joins[ci])
+		}
+	})
+	for _, js := range joins {
+		for j := 0; j+1 < len(js); j += 2 {
+			uf.Union(js[j], js[j+1])
 		}
 	}
 	// Components.
@@ -274,6 +240,67 @@ func (kc *KCoverage) gaps(l *Layout, li int, tol float64) []KGap {
 		out[i].ID = i + 1
 	}
 	return out
+}
+
+// kgJoinChunk is the number of pieces per parallel chunk of the joins in
+// gaps (a few hundred k-nearest queries: large against the scheduling).
+const kgJoinChunk = 256
+
+// pieceJoins appends to dst the pairs of global part numbers (first[p] +
+// part) that meet across the chain edges of piece p (store st, index i):
+// a probe point just outside each edge finds the piece on the other side
+// by its k nearest devices (index), and the nearest of that piece's edges
+// names its part.
+func (kc *KCoverage) pieceJoins(l *Layout, lv *KLevel, st, i int32, segs [][]float64, index map[string]int32, first []int32,
+	p int, nn *kgNearest, kb *strings.Builder, dst []int32) []int32 {
+	k := lv.K
+	sg := segs[p]
+	q := lv.store[st].set[int(i)*k+k-1]
+	qx, qy, rq := kc.dev.at(l, q, kc.Range)
+	for j := 0; j+4 < len(sg); j += 5 {
+		ax, ay, bx, by := sg[j], sg[j+1], sg[j+2], sg[j+3]
+		mx, my := (ax+bx)/2, (ay+by)/2
+		dx, dy := bx-ax, by-ay
+		ln := math.Hypot(dx, dy)
+		if ln == 0 {
+			continue
+		}
+		step := KGapProbe * (math.Hypot(mx-qx, my-qy) + rq)
+		px, py := mx+dy/ln*step, my-dx/ln*step // right of a→b: outside the piece
+		if !l.Area.Contains(px, py) {
+			continue
+		}
+		var ord []int32
+		if kc.dev != nil {
+			ord = kc.dev.kSmallest(px, py, k, nn)
+		} else {
+			ord = nn.kNearest(l, px, py, k, q)
+		}
+		if len(ord) < k {
+			continue
+		}
+		S := slices.Clone(ord[:k-1])
+		slices.Sort(S)
+		key := append(S, ord[k-1])
+		other, ok := index[kgKey(kb, ord[0], key)]
+		if !ok {
+			other, ok = index[kgKey(kb, -1, key)]
+		}
+		if !ok {
+			continue
+		}
+		best, bd := int32(-1), math.Inf(1)
+		osg := segs[other]
+		for j2 := 0; j2+4 < len(osg); j2 += 5 {
+			if d := kSegDist(osg[j2], osg[j2+1], osg[j2+2], osg[j2+3], mx, my); d < bd {
+				bd, best = d, int32(osg[j2+4])
+			}
+		}
+		if best >= 0 {
+			dst = append(dst, first[p]+int32(sg[j+4]), first[other]+best)
+		}
+	}
+	return dst
 }
 
 // kGapsFromLayout returns the layout's own gaps (k = 1) as k-gaps.
@@ -675,64 +702,50 @@ func kgWholePiece(st *kStore, i int, gid int32, qx, qy, r float64) ([]kgPart, []
 // of the Delaunay graph.
 type kgNearest struct {
 	pairs []kByDist // kDevs.kSmallest's scratch
-	h     kgHeap
-	seen  map[int32]bool
+	front []kByDist // the walk's frontier: devices seen, not yet taken
+	seen  []int32   // every device seen (frontier and taken)
 	out   []int32
 	nb    []int32
 }
 
 // kNearest returns the k devices nearest (x, y), nearest first (ties by
 // vertex index). The k nearest devices of a point are connected in the
-// Delaunay graph (the sites in a closed disk are), so popping the nearest
+// Delaunay graph (the sites in a closed disk are), so taking the nearest
 // unvisited neighbour of the devices found so far k times finds them.
-func (s *kgNearest) kNearest(l *Layout, x, y float64, k int) []int32 {
+// The search for the nearest device starts at vertex hint (−1: anywhere;
+// planar.Triangulation.Nearest's answer does not depend on it). The
+// frontier and the seen set hold O(k·degree) devices, so they are plain
+// slices scanned linearly: cheaper than a heap and a map at the small k
+// asked for (and no allocation per query).
+func (s *kgNearest) kNearest(l *Layout, x, y float64, k int, hint int32) []int32 {
 	t := l.Tri
 	s.out = s.out[:0]
-	v := t.Nearest(x, y, -1)
+	v := t.Nearest(x, y, hint)
 	if v < 0 {
 		return s.out
 	}
-	clear(s.seen)
-	if s.seen == nil {
-		s.seen = map[int32]bool{}
-	}
-	s.h = s.h[:0]
-	push := func(u int32) {
-		if s.seen[u] {
-			return
+	s.seen = append(s.seen[:0], v)
+	vx, vy := l.site(v)
+	s.front = append(s.front[:0], kByDist{(vx-x)*(vx-x) + (vy-y)*(vy-y), v})
+	for len(s.out) < k && len(s.front) > 0 {
+		bi := 0
+		for i, c := range s.front[1:] {
+			if b := s.front[bi]; c.d2 < b.d2 || c.d2 == b.d2 && c.v < b.v {
+				bi = i + 1
+			}
 		}
-		s.seen[u] = true
-		ux, uy := l.site(u)
-		heap.Push(&s.h, kByDist{(ux-x)*(ux-x) + (uy-y)*(uy-y), u})
-	}
-	push(v)
-	for len(s.out) < k && len(s.h) > 0 {
-		e := heap.Pop(&s.h).(kByDist)
+		e := s.front[bi]
+		s.front[bi] = s.front[len(s.front)-1]
+		s.front = s.front[:len(s.front)-1]
 		s.out = append(s.out, e.v)
 		s.nb = t.Neighbors(e.v, s.nb)
 		for _, u := range s.nb {
-			push(u)
+			if !slices.Contains(s.seen, u) {
+				s.seen = append(s.seen, u)
+				ux, uy := l.site(u)
+				s.front = append(s.front, kByDist{(ux-x)*(ux-x) + (uy-y)*(uy-y), u})
+			}
 		}
 	}
 	return s.out
-}
-
-// kgHeap is a min-heap of devices by distance.
-type kgHeap []kByDist
-
-func (h kgHeap) Len() int { return len(h) }
-func (h kgHeap) Less(i, j int) bool {
-	return h[i].d2 < h[j].d2 || h[i].d2 == h[j].d2 && h[i].v < h[j].v
-}
-func (h kgHeap) Swap(i, j int) { h[i], h[j] = h[j], h[i] }
-
-// Push appends x (heap.Interface).
-func (h *kgHeap) Push(x any) { *h = append(*h, x.(kByDist)) }
-
-// Pop removes the last element (heap.Interface).
-func (h *kgHeap) Pop() any {
-	old := *h
-	x := old[len(old)-1]
-	*h = old[:len(old)-1]
-	return x
 }
