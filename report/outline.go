@@ -71,7 +71,8 @@ func (s *scene) checkRounding(in, out orb.MultiPolygon) orb.MultiPolygon {
 // validRounded returns out (the conversion of in), or out split at its
 // pinches, when that is a valid outline; false otherwise. An unrounded
 // scene has nothing finer to try: it returns the conversion of in
-// without its thin folds (dropFolds) when that is valid, else out.
+// without its thin folds (dropFolds) when that is valid, else the union
+// of the converted polygons (planar.Union) when that is valid, else out.
 func (s *scene) validRounded(in, out orb.MultiPolygon) (orb.MultiPolygon, bool) {
 	if mp, ok := validOrSplit(out); ok {
 		return mp, true
@@ -88,6 +89,17 @@ func (s *scene) validRounded(in, out orb.MultiPolygon) (orb.MultiPolygon, bool) 
 	}
 	if folded, ok := dropFolds(out, foldWidth*s.outUnitsPerMetre()); ok {
 		if mp, ok := validOrSplit(folded); ok {
+			return mp, true
+		}
+		out = folded
+	}
+	// The last resort: the union of the converted polygons, taken as
+	// plane figures in the output coordinates (planar.Union, exact:
+	// edges that conversion made coincide are merged, a hole that came to
+	// share an edge with its exterior becomes a notch of it, pinch points
+	// are opened by a few ulps).
+	if u, err := planar.Union(out); err == nil {
+		if mp, ok := validOrSplit(u); ok {
 			return mp, true
 		}
 	}

@@ -493,15 +493,16 @@ func TestWrittenOutlinesValidGEOSLive(t *testing.T) {
 		mustRun(t, args...)
 	}
 	mustRun(t, "demo", "--out", filepath.Join(dir, "out", "demo"))
-	// Not checked: the reach bands (reach.geojson) of two geographic
-	// scenes. Their outlines from coverage.KCoverage.Bands carry, before
-	// any rounding, a hole that runs within ulps of an area edge of its
-	// own exterior ring at an area corner (neck, 12 m; touching, 30 m), a
-	// fault of the band construction, not of the writing. The thin folds
-	// along area edges of the other scenes' bands are dropped by the
-	// writer (report/outline_fold.go) and checked here; the k-gaps beside
-	// all of them are.
-	for _, run := range []string{"neck-geo-reach-12m", "touching-geo-reach-30m"} {
+	// Not checked: the reach bands (reach.geojson) of one geographic
+	// scene (touching, 30 m). Its band of one device, valid in the plane,
+	// carries a sliver along an area edge thinner than the conversion to
+	// longitude and latitude resolves, and the converted ring crosses
+	// itself (planar.Union refuses it as a bow-tie), a fault of the band
+	// construction, not of the writing. The other scenes' bands, whose
+	// thin folds the writer drops and whose holes along their exterior
+	// it merges (report/outline.go validRounded, outline_fold.go), are
+	// checked here; the k-gaps beside all of them are.
+	for _, run := range []string{"touching-geo-reach-30m"} {
 		bands, _ := filepath.Glob(filepath.Join(dir, "out", run, "reach*.geojson"))
 		for _, b := range bands {
 			if base := filepath.Base(b); strings.HasPrefix(base, "reach.") || strings.HasPrefix(base, "reach-epsg") {
