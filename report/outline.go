@@ -97,10 +97,22 @@ func (s *scene) validRounded(in, out orb.MultiPolygon) (orb.MultiPolygon, bool) 
 	// plane figures in the output coordinates (planar.Union, exact:
 	// edges that conversion made coincide are merged, a hole that came to
 	// share an edge with its exterior becomes a notch of it, pinch points
-	// are opened by a few ulps).
-	if u, err := planar.Union(out); err == nil {
-		if mp, ok := validOrSplit(u); ok {
-			return mp, true
+	// are opened by a few ulps), first as converted, then snapped to a
+	// grid of snapWidth (a pinch point the plane opened by a few ulps can
+	// come out of the conversion as two vertices an ulp apart whose edges
+	// cross; snapped, they are one point again).
+	for _, g := range []float64{0, snapWidth * s.outUnitsPerMetre()} {
+		src := out
+		if g > 0 {
+			src = snapOutline(out, g)
+			if mp, ok := validOrSplit(src); ok {
+				return mp, true
+			}
+		}
+		if u, err := planar.Union(src); err == nil {
+			if mp, ok := validOrSplit(u); ok {
+				return mp, true
+			}
 		}
 	}
 	return out, true

@@ -135,3 +135,30 @@ func (s *scene) outUnitsPerMetre() float64 {
 	}
 	return 1
 }
+
+// snapWidth is the grid (metres, converted to output units by
+// outUnitsPerMetre) the unrounded output is snapped to as a last resort:
+// 10 nm, ten times foldWidth, far below the 1 mm of rounded output.
+const snapWidth = 1e-8
+
+// snapOutline returns a copy of mp with every coordinate rounded to a
+// multiple of g; rings reduced to fewer than 4 positions stay as they
+// are (outlineValid then refuses them).
+func snapOutline(mp orb.MultiPolygon, g float64) orb.MultiPolygon {
+	out := make(orb.MultiPolygon, len(mp))
+	for i, p := range mp {
+		out[i] = make(orb.Polygon, len(p))
+		for j, r := range p {
+			q := make(orb.Ring, 0, len(r))
+			for _, v := range r {
+				w := orb.Point{math.Round(v[0]/g) * g, math.Round(v[1]/g) * g}
+				if len(q) > 0 && q[len(q)-1] == w {
+					continue // a repeat made by snapping
+				}
+				q = append(q, w)
+			}
+			out[i][j] = q
+		}
+	}
+	return out
+}

@@ -41,3 +41,25 @@ func TestDropFolds(t *testing.T) {
 		}
 	})
 }
+
+func TestSnapOutline(t *testing.T) {
+	cases := []struct {
+		name string
+		in   orb.Ring
+		want orb.Ring
+	}{
+		{"on the grid", orb.Ring{{0, 0}, {1, 0}, {1, 1}, {0, 0}}, orb.Ring{{0, 0}, {1, 0}, {1, 1}, {0, 0}}},
+		// two vertices an ulp apart (a pinch point the conversion split)
+		// become one; the repeat it makes is dropped
+		{"twins merged", orb.Ring{{0, 0}, {1, 0}, {1, 1e-17}, {1, 1}, {0, 0}}, orb.Ring{{0, 0}, {1, 0}, {1, 1}, {0, 0}}},
+		{"rounded to the grid", orb.Ring{{0.3e-8, 0}, {1, 0.7e-8}, {0.3e-8, 1}, {0.3e-8, 0}}, orb.Ring{{0, 0}, {1, 1e-8}, {0, 1}, {0, 0}}},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			got := snapOutline(orb.MultiPolygon{{c.in}}, 1e-8)[0][0]
+			if !got.Equal(c.want) {
+				t.Errorf("snapOutline = %v, want %v", got, c.want)
+			}
+		})
+	}
+}
