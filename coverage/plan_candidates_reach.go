@@ -41,6 +41,15 @@
 // favour) is at most the fewest candidates any choice needs; when the
 // picks number LowerBound the choice is optimal (Optimal).
 //
+// Own ranges (ChooseCandidatesReachRanges). With devices of their own
+// ranges r_i and a range for each candidate, n_S(x) counts the devices
+// whose own disk holds x: still modular in the set of picks, so D is
+// submodular and monotone as above, and the same greedy, pruning and bound
+// apply. Each D is exact from KCoverRanges (order-k power diagram,
+// kcover_power.go), the layout rebuilt with NewLayoutRanges; the K-cover
+// figure is the K-cover power (plan_suggest_k.go), reached when at most
+// ((1 + planRangeTol)² − 1)·r_max², r_max the largest range present.
+//
 // Cost: one layout and k-coverage of levels 1 … K per gain evaluation
 // (O(n·K²) each, n the devices), in parallel for the first gains; meant
 // for the tens to hundreds of candidates of a site plan.
@@ -50,6 +59,7 @@ package coverage
 import (
 	"fmt"
 	"math"
+	"slices"
 
 	"github.com/paulmach/orb"
 	"github.com/sitecover/sitecover/planar"
@@ -71,8 +81,12 @@ type ReachPick struct {
 	// k = 1 … K of the area it brought to k devices in reach.
 	Gain float64
 	// CoverRange is the K-cover range with this and the earlier picks (m;
-	// +Inf while fewer than K distinct devices stand).
+	// +Inf while fewer than K distinct devices stand; NaN with own ranges).
 	CoverRange float64
+	// CoverPower is set with own ranges: the K-cover power (m²; ≤ 0 when
+	// every spot is reached by K devices; +Inf while fewer than K distinct
+	// devices stand). Range is then the pick's own range (m).
+	CoverPower, Range float64
 	// Share and CoveredArea are the share and area (m²) reached by at
 	// least K devices at the planned range.
 	Share, CoveredArea float64
@@ -81,11 +95,20 @@ type ReachPick struct {
 // ReachChoice is the result of ChooseCandidatesReach.
 type ReachChoice struct {
 	// K is the number of devices every spot must be reached by; Range the
-	// planned range (m); Requested the number of picks asked for (0: the
+	// planned range (m; with own ranges the largest candidate range);
+	// Requested the number of picks asked for (0: the
 	// fewest that reach the target).
 	K         int
 	Range     float64
 	Requested int
+	// OwnRanges is set by ChooseCandidatesReachRanges when the ranges
+	// differ: the K-cover figures are the powers CoverPowerBefore and
+	// CoverPowerAfter (and each pick's CoverPower), the CoverRange fields
+	// NaN.
+	OwnRanges bool
+	// CoverPowerBefore and CoverPowerAfter are set with own ranges: the
+	// K-cover powers (m²) without and with the picks.
+	CoverPowerBefore, CoverPowerAfter float64
 	// Existing is the number of existing devices; Candidates the number
 	// of candidate spots.
 	Existing, Candidates int
@@ -123,21 +146,79 @@ type ReachChoice struct {
 	Evaluations int
 }
 
-// reachDepth is the k-coverage of one layout for ChooseCandidatesReach.
+// reachDepth is the k-coverage of one layout for ChooseCandidatesReach:
+// the depth, the K-cover figure rng (range, or with own ranges power;
+// +Inf while fewer than K distinct devices stand) and the K-covered share
+// and area.
 type reachDepth struct {
 	depth, rng, share, area float64
 }
 
-// measureReachDepth computes the depth (levels 1 … K; levels beyond the
-// number of distinct devices add nothing), the K-cover range and the
-// K-covered share and area of the sites over l's area.
-func measureReachDepth(sites []orb.Point, l *Layout, K int, r float64) (reachDepth, error) {
-	l2, err := NewLayout(sites, l.Area)
-	if err != nil {
-		return reachDepth{}, err
+// reachCands is what ChooseCandidatesReach measures: the existing layout,
+// the candidate spots, K and the common range r, or (ranges set) each
+// existing device's own range and each candidate's (candR).
+type reachCands struct {
+	l             *Layout
+	cands         []orb.Point
+	ranges, candR []float64 // nil: one common range r
+	K             int
+	r             float64
+}
+
+// with returns the existing sites followed by the candidates of order
+// (and extra, when ≥ 0), and with own ranges their ranges.
+func (rc *reachCands) with(order []int, extra int) ([]orb.Point, []float64) {
+	sites := append([]orb.Point(nil), rc.l.Sites...)
+	var rs []float64
+	if rc.ranges != nil {
+		rs = append([]float64(nil), rc.ranges...)
 	}
-	k := min(K, l2.Tri.NumVertices())
-	kc, err := KCover(l2, r, KOptions{MaxK: k})
+	add := func(c int) {
+		sites = append(sites, rc.cands[c])
+		if rs != nil {
+			rs = append(rs, rc.candR[c])
+		}
+	}
+	for _, c := range order {
+		add(c)
+	}
+	if extra >= 0 {
+		add(extra)
+	}
+	return sites, rs
+}
+
+// cover builds the layout of the sites (NewLayout, or with own ranges
+// NewLayoutRanges) and its k-coverage with opt (KCover at r, or
+// KCoverRanges) for k ≤ min(K, distinct devices), returned as kmax.
+func (rc *reachCands) cover(sites []orb.Point, rs []float64, opt func(kmax int) KOptions) (*KCoverage, int, error) {
+	if rs == nil {
+		l2, err := NewLayout(sites, rc.l.Area)
+		if err != nil {
+			return nil, 0, err
+		}
+		k := min(rc.K, l2.Tri.NumVertices())
+		kc, err := KCover(l2, rc.r, opt(k))
+		return kc, k, err
+	}
+	l2, err := NewLayoutRanges(sites, rs, rc.l.Area)
+	if err != nil {
+		return nil, 0, err
+	}
+	distinct := map[orb.Point]bool{}
+	for _, p := range sites {
+		distinct[p] = true
+	}
+	k := min(rc.K, len(distinct))
+	kc, err := KCoverRanges(l2, opt(k))
+	return kc, k, err
+}
+
+// measure computes the depth (levels 1 … K; levels beyond the number of
+// distinct devices add nothing), the K-cover figure and the K-covered
+// share and area of the sites over l's area.
+func (rc *reachCands) measure(sites []orb.Point, rs []float64) (reachDepth, error) {
+	kc, k, err := rc.cover(sites, rs, func(k int) KOptions { return KOptions{MaxK: k} })
 	if err != nil {
 		return reachDepth{}, err
 	}
@@ -146,9 +227,12 @@ func measureReachDepth(sites []orb.Point, l *Layout, K int, r float64) (reachDep
 		d.depth += lv.CoveredArea
 	}
 	d.rng = math.Inf(1)
-	if k == K {
+	if k == rc.K {
 		top := kc.Levels[k-1]
 		d.rng, d.share, d.area = top.CoverRange, top.Share, top.CoveredArea
+		if rs != nil {
+			d.rng = top.CoverPower
+		}
 	}
 	return d, nil
 }
@@ -190,22 +274,65 @@ func ChooseCandidatesReach(l *Layout, candidates []orb.Point, K int, r float64, 
 	if err := checkReachChoice(l, candidates, K, r); err != nil {
 		return nil, fmt.Errorf("%s: %w", where, err)
 	}
+	return chooseReach(&reachCands{l: l, cands: candidates, K: K, r: r}, r*(1+planRangeTol), picks, where)
+}
+
+// ChooseCandidatesReachRanges is ChooseCandidatesReach for a layout with
+// per-device ranges (NewLayoutRanges) and a range for each candidate spot
+// (ranges[i], finite, > 0): every spot must be reached by at least K
+// devices at their own ranges (the K-cover power at most 0; see the file
+// comment). The result has OwnRanges set, Range the largest candidate
+// range and each pick's Range its own. When every range, existing and
+// candidate, is the same it is ChooseCandidatesReach at that range.
+func ChooseCandidatesReachRanges(l *Layout, candidates []orb.Point, ranges []float64, K int, picks int) (*ReachChoice, error) {
+	const where = "coverage: ChooseCandidatesReachRanges"
+	if len(ranges) != len(candidates) {
+		return nil, fmt.Errorf("%s: %d ranges for %d candidate spots", where, len(ranges), len(candidates))
+	}
+	if err := planCheckLayout(l); err != nil {
+		return nil, fmt.Errorf("%s: %w", where, err)
+	}
+	if !l.weighted() {
+		return nil, fmt.Errorf("%s: the layout has one common range (use ChooseCandidatesReach)", where)
+	}
+	for i, r := range ranges {
+		if math.IsNaN(r) || math.IsInf(r, 0) || r <= 0 {
+			return nil, fmt.Errorf("%s: candidate %d: range %v must be a finite number > 0", where, i, r)
+		}
+	}
+	all := append(append([]float64(nil), ranges...), l.InputRanges...)
+	lo, hi := slices.Min(all), slices.Max(all)
+	if lo == hi {
+		return ChooseCandidatesReach(l, candidates, K, lo, picks)
+	}
+	if err := checkReachChoice(l, candidates, K, slices.Max(ranges)); err != nil {
+		return nil, fmt.Errorf("%s: %w", where, err)
+	}
+	rc := &reachCands{l: l, cands: candidates, ranges: l.InputRanges, candR: ranges, K: K, r: slices.Max(ranges)}
+	return chooseReach(rc, ((1+planRangeTol)*(1+planRangeTol)-1)*hi*hi, picks, where)
+}
+
+// chooseReach is the greedy of the file comment for rc: target is the
+// largest K-cover figure that counts as reached.
+func chooseReach(m *reachCands, target float64, picks int, where string) (*ReachChoice, error) {
+	l, candidates, K := m.l, m.cands, m.K
 	full := float64(K) * l.AreaM2
 	eps := reachDepthNoise * full
-	target := r * (1 + planRangeTol)
-	sites := append([]orb.Point(nil), l.Sites...)
-	cur, err := measureReachDepth(sites, l, K, r)
+	var order []int
+	cur, err := m.measure(m.with(nil, -1))
 	if err != nil {
 		return nil, fmt.Errorf("%s: %w", where, err)
 	}
-	rc := &ReachChoice{K: K, Range: r, Requested: max(picks, 0), Existing: len(l.Sites), Candidates: len(candidates),
-		CoverRangeBefore: cur.rng, ShareBefore: cur.share, CoveredBefore: cur.area}
-	// gainAt is the depth candidate i adds to sites; errors are kept for
-	// the caller (the greedy's callbacks return values only).
+	rc := &ReachChoice{K: K, Range: m.r, Requested: max(picks, 0), Existing: len(l.Sites), Candidates: len(candidates),
+		OwnRanges: m.ranges != nil, CoverRangeBefore: cur.rng, ShareBefore: cur.share, CoveredBefore: cur.area}
+	if rc.OwnRanges {
+		rc.CoverRangeBefore, rc.CoverPowerBefore = math.NaN(), cur.rng
+	}
+	// gainAt is the depth candidate i adds to the picks; errors are kept
+	// for the caller (the greedy's callbacks return values only).
 	var evalErr error
-	gainAt := func(sites []orb.Point, i int32, base float64) float64 {
-		try := append(sites[:len(sites):len(sites)], candidates[i])
-		d, err := measureReachDepth(try, l, K, r)
+	gainAt := func(i int32, base float64) float64 {
+		d, err := m.measure(m.with(order, int(i)))
 		if err != nil {
 			evalErr = err
 			return 0
@@ -217,7 +344,7 @@ func ChooseCandidatesReach(l *Layout, candidates []orb.Point, K int, r float64, 
 	errs := make([]error, len(candidates))
 	planar.ParallelFor(len(candidates), 1, func(lo, hi int) {
 		for i := lo; i < hi; i++ {
-			d, err := measureReachDepth(append(sites[:len(sites):len(sites)], candidates[i]), l, K, r)
+			d, err := m.measure(m.with(nil, i))
 			gains[i], errs[i] = d.depth-cur.depth, err
 		}
 	})
@@ -234,11 +361,11 @@ func ChooseCandidatesReach(l *Layout, candidates []orb.Point, K int, r float64, 
 	}
 	ch := &Choice{}
 	err = planLazyGreedy(ch, h, picks, eps, func() bool { return cur.rng <= target },
-		func(i int32) float64 { return gainAt(sites, i, cur.depth) },
+		func(i int32) float64 { return gainAt(i, cur.depth) },
 		func(i int32) error {
 			bound(h0gain(ch))
-			sites = append(sites, candidates[i])
-			cur, err = measureReachDepth(sites, l, K, r)
+			order = append(order, int(i))
+			cur, err = m.measure(m.with(order, -1))
 			return err
 		})
 	if err == nil {
@@ -248,17 +375,18 @@ func ChooseCandidatesReach(l *Layout, candidates []orb.Point, K int, r float64, 
 		return nil, fmt.Errorf("%s: %w", where, err)
 	}
 	rc.Evaluations, rc.Exhausted = ch.Evaluations, ch.Exhausted
-	order := ch.Picked
+	order = ch.Picked
 	if picks <= 0 && cur.rng <= target {
-		if order, err = pruneReachPicks(l, candidates, order, K, r, target); err != nil {
+		if order, err = m.prune(order, target); err != nil {
 			return nil, fmt.Errorf("%s: %w", where, err)
 		}
 		rc.Pruned = len(ch.Picked) - len(order)
 	}
-	if err := rc.replay(l, candidates, order); err != nil {
+	after, err := rc.replay(m, order)
+	if err != nil {
 		return nil, fmt.Errorf("%s: %w", where, err)
 	}
-	rc.Reached = rc.CoverRangeAfter <= target
+	rc.Reached = after <= target
 	rc.Exhausted = rc.Exhausted && !rc.Reached
 	if rc.Exhausted {
 		rc.LowerBound = 0 // the target cannot be reached: no bound to state
@@ -267,7 +395,7 @@ func ChooseCandidatesReach(l *Layout, candidates []orb.Point, K int, r float64, 
 		rc.Optimal = true
 	}
 	if !rc.Reached {
-		if rc.Remaining, err = remainingReach(l, candidates, order, K, r); err != nil {
+		if rc.Remaining, err = m.remaining(order); err != nil {
 			return nil, fmt.Errorf("%s: %w", where, err)
 		}
 	}
@@ -278,66 +406,59 @@ func ChooseCandidatesReach(l *Layout, candidates []orb.Point, K int, r float64, 
 // of ch.Gains (appended before the pick callback runs).
 func h0gain(ch *Choice) float64 { return ch.Gains[len(ch.Gains)-1] }
 
-// pruneReachPicks drops, latest first, every pick whose removal keeps the
-// K-cover range within target.
-func pruneReachPicks(l *Layout, candidates []orb.Point, order []int, K int, r, target float64) ([]int, error) {
+// prune drops, latest first, every pick whose removal keeps the K-cover
+// figure within target.
+func (m *reachCands) prune(order []int, target float64) ([]int, error) {
 	keep := append([]int(nil), order...)
 	for i := len(keep) - 1; i >= 0; i-- {
-		try := append([]orb.Point(nil), l.Sites...)
-		for j, c := range keep {
-			if j != i {
-				try = append(try, candidates[c])
-			}
-		}
-		d, err := measureReachDepth(try, l, K, r)
+		try := append(append([]int(nil), keep[:i]...), keep[i+1:]...)
+		d, err := m.measure(m.with(try, -1))
 		if err != nil {
 			return nil, err
 		}
 		if d.rng <= target {
-			keep = append(keep[:i], keep[i+1:]...)
+			keep = try
 		}
 	}
 	return keep, nil
 }
 
 // replay adds the picks in order to the existing layout and records the
-// exact figures after each, and the after figures.
-func (rc *ReachChoice) replay(l *Layout, candidates []orb.Point, order []int) error {
-	sites := append([]orb.Point(nil), l.Sites...)
-	d0, err := measureReachDepth(sites, l, rc.K, rc.Range)
+// exact figures after each, and the after figures; it returns the K-cover
+// figure after (range, or with own ranges power).
+func (rc *ReachChoice) replay(m *reachCands, order []int) (float64, error) {
+	d0, err := m.measure(m.with(nil, -1))
 	if err != nil {
-		return err
+		return 0, err
 	}
-	prev := d0.depth
-	rc.CoverRangeAfter, rc.ShareAfter, rc.CoveredAfter = rc.CoverRangeBefore, rc.ShareBefore, rc.CoveredBefore
+	prev, after := d0.depth, d0.rng
+	rc.CoverRangeAfter, rc.CoverPowerAfter = rc.CoverRangeBefore, rc.CoverPowerBefore
+	rc.ShareAfter, rc.CoveredAfter = rc.ShareBefore, rc.CoveredBefore
 	rc.Picks = rc.Picks[:0]
-	for _, c := range order {
-		sites = append(sites, candidates[c])
-		d, err := measureReachDepth(sites, l, rc.K, rc.Range)
+	for j, c := range order {
+		d, err := m.measure(m.with(order[:j+1], -1))
 		if err != nil {
-			return err
+			return 0, err
 		}
-		rc.Picks = append(rc.Picks, ReachPick{Candidate: c, Position: candidates[c], Gain: d.depth - prev,
-			CoverRange: d.rng, Share: d.share, CoveredArea: d.area})
-		rc.CoverRangeAfter, rc.ShareAfter, rc.CoveredAfter = d.rng, d.share, d.area
-		prev = d.depth
+		pk := ReachPick{Candidate: c, Position: m.cands[c], Gain: d.depth - prev, CoverRange: d.rng, Range: m.r,
+			Share: d.share, CoveredArea: d.area}
+		rc.CoverRangeAfter = d.rng
+		if rc.OwnRanges {
+			pk.CoverRange, pk.CoverPower, pk.Range = math.NaN(), d.rng, m.candR[c]
+			rc.CoverRangeAfter, rc.CoverPowerAfter = math.NaN(), d.rng
+		}
+		rc.Picks = append(rc.Picks, pk)
+		rc.ShareAfter, rc.CoveredAfter = d.share, d.area
+		prev, after = d.depth, d.rng
 	}
-	return nil
+	return after, nil
 }
 
-// remainingReach returns the K-gaps of the layout with the picks (the
-// largest k the distinct devices allow when fewer than K stand).
-func remainingReach(l *Layout, candidates []orb.Point, order []int, K int, r float64) ([]KGap, error) {
-	sites := append([]orb.Point(nil), l.Sites...)
-	for _, c := range order {
-		sites = append(sites, candidates[c])
-	}
-	l2, err := NewLayout(sites, l.Area)
-	if err != nil {
-		return nil, err
-	}
-	k := min(K, l2.Tri.NumVertices())
-	kc, err := KCover(l2, r, KOptions{Levels: []int{k}, Gaps: true})
+// remaining returns the K-gaps of the layout with the picks (the largest
+// k the distinct devices allow when fewer than K stand).
+func (m *reachCands) remaining(order []int) ([]KGap, error) {
+	sites, rs := m.with(order, -1)
+	kc, _, err := m.cover(sites, rs, func(k int) KOptions { return KOptions{Levels: []int{k}, Gaps: true} })
 	if err != nil {
 		return nil, err
 	}

@@ -106,7 +106,7 @@ func planReachRefCheck(t *testing.T, d *planReachRefDoc) {
 						sites = append(sites, cands[i])
 					}
 				}
-				got, err := measureReachDepth(sites, l, sc.K, sc.Range)
+				got, err := (&reachCands{l: l, K: sc.K, r: sc.Range}).measure(sites, nil)
 				if err != nil {
 					t.Fatal(err)
 				}

@@ -23,6 +23,7 @@ import (
 	"fmt"
 	"io"
 	"math"
+	"slices"
 	"strings"
 
 	"github.com/paulmach/orb"
@@ -45,10 +46,16 @@ type ReachPlan struct {
 	Choice         *coverage.ReachChoice
 	Candidates     []orb.Point
 	CandidateNames []string
+	// CandidateRanges and CandidateTypes are, with own ranges
+	// (Choice.OwnRanges), each candidate spot's range (m) and type (""
+	// for none; nil when no spot has one).
+	CandidateRanges []float64
+	CandidateTypes  []string
 	// CapReached tells that the cap on additions stopped the placement.
 	CapReached bool
 	// NewType is the type of the added devices with own ranges
-	// (Suggestion.OwnRanges; suggest --new-type), "" for none.
+	// (Suggestion.OwnRanges, or the default of candidate spots without a
+	// range of their own; suggest --new-type), "" for none.
 	NewType string
 	// After is the layout with the additions and AfterReach its
 	// k-coverage at the planned range (every level 1 … K, with gaps).
@@ -136,6 +143,13 @@ type ReachPickDoc struct {
 	KCoverRangeM    *float64 `json:"k_cover_range_m"`
 	CoveredFraction float64  `json:"covered_fraction"`
 	CoveredAreaM2   float64  `json:"covered_area_m2"`
+	// RangeM, KCoverPowerM2 and KCoverRanges are set with own ranges: the
+	// spot's range (m), the K-cover power growth (m²) with this and the
+	// earlier picks and the range each group of devices needs for it (m),
+	// the groups those of the layout with every pick.
+	RangeM        float64      `json:"range_m,omitempty"`
+	KCoverPowerM2 *float64     `json:"k_cover_power_m2,omitempty"`
+	KCoverRanges  []RangeGroup `json:"k_cover_ranges,omitempty"`
 }
 
 // ReachAddedDoc is one added device in summary.json.
@@ -161,6 +175,9 @@ const reachMethodOwn = "farthest-point insertion on the k-th smallest power |x �
 
 // reachChoiceMethod names the choice method in the outputs.
 const reachChoiceMethod = "greedy submodular set cover on the depth (the sum over k = 1 … K of the area reached by k devices; Wolsey 1982, after Johnson 1974 and Chvátal 1979), lazy re-evaluation, then redundant picks dropped"
+
+// reachChoiceMethodOwn names the choice method with own ranges.
+const reachChoiceMethodOwn = reachChoiceMethod + "; each device at its own range (order-k power diagram, Aurenhammer 1987)"
 
 // ReachPlanFiles lists the files WriteReachPlan writes for the free
 // placement without map or GeoPackage (ReachPlanOutputs lists them all).
@@ -190,7 +207,9 @@ func ReachPlanOutputs(p *ReachPlan, m Meta, opt Options) []string {
 // check reports a plan whose parts are missing.
 func (p *ReachPlan) check() error {
 	if p == nil || p.Layout == nil || (p.Suggestion == nil) == (p.Choice == nil) || p.After == nil || p.AfterReach == nil ||
-		p.Choice != nil && len(p.CandidateNames) != len(p.Candidates) {
+		p.Choice != nil && len(p.CandidateNames) != len(p.Candidates) ||
+		p.Choice != nil && p.Choice.OwnRanges && len(p.CandidateRanges) != len(p.Candidates) ||
+		p.CandidateTypes != nil && len(p.CandidateTypes) != len(p.Candidates) {
 		return errors.New("report: WriteReachPlan: incomplete plan")
 	}
 	return nil
@@ -206,10 +225,14 @@ func (p *ReachPlan) reachAfterMeta(m Meta) Meta {
 		for _, pk := range p.Choice.Picks {
 			names = append(names, ItemLabel(p.CandidateNames[pk.Candidate], "candidate", pk.Candidate))
 		}
-	} else {
-		for j := range p.Suggestion.Added {
-			names = append(names, fmt.Sprintf("+%d", j+1))
+		if p.own() {
+			m = p.reachChoiceMeta(m, names)
 		}
+		m.SiteNames = names
+		return m
+	}
+	for j := range p.Suggestion.Added {
+		names = append(names, fmt.Sprintf("+%d", j+1))
 	}
 	m.SiteNames = names
 	if p.own() {
@@ -226,6 +249,29 @@ func (p *ReachPlan) reachAfterMeta(m Meta) Meta {
 	return m
 }
 
+// reachChoiceMeta is m for the layout with the picks with own ranges:
+// each pick's range and, when some device or spot has a type, its type.
+func (p *ReachPlan) reachChoiceMeta(m Meta, names []string) Meta {
+	n := len(p.Layout.Sites)
+	m.Ranges = slices.Clone(p.Layout.InputRanges)
+	for _, pk := range p.Choice.Picks {
+		m.Ranges = append(m.Ranges, pk.Range)
+	}
+	if m.Types != nil || p.CandidateTypes != nil {
+		types := make([]string, n, len(names))
+		copy(types, m.Types)
+		for _, pk := range p.Choice.Picks {
+			t := ""
+			if p.CandidateTypes != nil {
+				t = p.CandidateTypes[pk.Candidate]
+			}
+			types = append(types, t)
+		}
+		m.Types = types
+	}
+	return m
+}
+
 // reachBeforeMeta is m for the existing layout: with own ranges each
 // device's planned range.
 func (p *ReachPlan) reachBeforeMeta(m Meta) Meta {
@@ -236,8 +282,19 @@ func (p *ReachPlan) reachBeforeMeta(m Meta) Meta {
 }
 
 // own reports whether the plan is for devices with their own ranges
-// (coverage.ReachAdditionsRanges).
-func (p *ReachPlan) own() bool { return p.Suggestion != nil && p.Suggestion.OwnRanges }
+// (coverage.ReachAdditionsRanges, coverage.ChooseCandidatesReachRanges).
+func (p *ReachPlan) own() bool {
+	return p.Suggestion != nil && p.Suggestion.OwnRanges || p.Choice != nil && p.Choice.OwnRanges
+}
+
+// coverPowers returns the K-cover powers before and after and K of an
+// own-range plan.
+func (p *ReachPlan) coverPowers() (before, after float64, K int) {
+	if p.Choice != nil {
+		return p.Choice.CoverPowerBefore, p.Choice.CoverPowerAfter, p.Choice.K
+	}
+	return p.Suggestion.CoverPowerBefore, p.Suggestion.CoverPowerAfter, p.Suggestion.K
+}
 
 // repeatFloat returns n copies of v.
 func repeatFloat(v float64, n int) []float64 {
@@ -263,7 +320,7 @@ func WriteReachPlan(dir string, p *ReachPlan, m Meta, opt Options) ([]string, er
 	after := newScene(p.After, nil, p.reachAfterMeta(m))
 	var pts step
 	if p.Choice != nil {
-		pts = s.layerStep(FileCandidates, s.reachCandidatesLayer(p))
+		pts = s.layerStep(FileCandidates, s.reachCandidatesLayer(p, after))
 	} else {
 		pts = s.layerStep(FileReachAdded, s.reachAddedLayer(p.Suggestion, after))
 	}
@@ -278,7 +335,7 @@ func WriteReachPlan(dir string, p *ReachPlan, m Meta, opt Options) ([]string, er
 	steps = append(steps, s.gridCopies(func(g *scene) []step {
 		gp := g.layerStep(FileReachAdded, g.reachAddedLayer(p.Suggestion, after))
 		if p.Choice != nil {
-			gp = g.layerStep(FileCandidates, g.reachCandidatesLayer(p))
+			gp = g.layerStep(FileCandidates, g.reachCandidatesLayer(p, after))
 		}
 		return []step{g.layerStep(FileSites, g.sitesLayer()), gp}
 	})...)
@@ -314,6 +371,17 @@ func (p *ReachPlan) reachMarks(after *scene) reachMarks {
 			}
 		}
 		mk.label = "Picked spot (named on the map by its candidate label)"
+		if ch.OwnRanges {
+			mk.title = fmt.Sprintf("%d of %d candidate spots picked for %d devices in reach at their own ranges", len(ch.Picks), len(p.Candidates), ch.K)
+			mk.sub = fmt.Sprintf("Reached by %d or more: %.2f %% -> %.2f %%", ch.K, 100*ch.ShareBefore, 100*ch.ShareAfter)
+			if !math.IsInf(ch.CoverPowerAfter, 0) {
+				mk.sub += "; all of it at " + after.reachNeededShort(ch.CoverPowerAfter)
+			}
+			if ch.Exhausted {
+				mk.sub += "; THESE CANDIDATES CANNOT REACH EVERY SPOT"
+			}
+			return mk
+		}
 		mk.title = fmt.Sprintf("%d of %d candidate spots picked for %d devices in reach at %s", len(ch.Picks), len(p.Candidates), ch.K, metresShort(ch.Range))
 		mk.sub = fmt.Sprintf("%d-cover range %s -> %s; reached by %d or more: %.2f %% -> %.2f %%", ch.K,
 			reachRangeShort(ch.CoverRangeBefore), reachRangeShort(ch.CoverRangeAfter), ch.K, 100*ch.ShareBefore, 100*ch.ShareAfter)
@@ -426,8 +494,8 @@ func ReachPlanNeeded(p *ReachPlan, m Meta) (before, after string) {
 		return "", ""
 	}
 	s := newScene(p.After, nil, p.reachAfterMeta(m))
-	sg := p.Suggestion
-	return s.reachBefore(p).reachNeededOrNone(sg.CoverPowerBefore, sg.K), s.reachNeededOrNone(sg.CoverPowerAfter, sg.K)
+	pb, pa, K := p.coverPowers()
+	return s.reachBefore(p).reachNeededOrNone(pb, K), s.reachNeededOrNone(pa, K)
 }
 
 // reachChoiceDoc is summary.json of suggest --reach --candidates.
@@ -441,9 +509,18 @@ func (s *scene) reachChoiceDoc(p *ReachPlan) *ReachPlanDoc {
 			Picked: []ReachPickDoc{}, Exhausted: ch.Exhausted, LowerBound: ch.LowerBound, Optimal: ch.Optimal,
 			ShortAreaM2: math.Max(0, p.AfterReach.AreaM2-ch.CoveredAfter), Evaluations: ch.Evaluations}}
 	for j, pk := range ch.Picks {
-		d.Candidates.Picked = append(d.Candidates.Picked, ReachPickDoc{Order: j + 1, Candidate: pk.Candidate,
+		pd := ReachPickDoc{Order: j + 1, Candidate: pk.Candidate,
 			Name: p.CandidateNames[pk.Candidate], Point: s.point(pk.Position), DepthGainM2: pk.Gain,
-			KCoverRangeM: finiteOrNil(pk.CoverRange), CoveredFraction: pk.Share, CoveredAreaM2: pk.CoveredArea})
+			KCoverRangeM: finiteOrNil(pk.CoverRange), CoveredFraction: pk.Share, CoveredAreaM2: pk.CoveredArea}
+		if ch.OwnRanges {
+			pd.RangeM, pd.KCoverPowerM2, pd.KCoverRanges = pk.Range, finiteOrNil(pk.CoverPower), s.reachNeededFinite(pk.CoverPower)
+		}
+		d.Candidates.Picked = append(d.Candidates.Picked, pd)
+	}
+	if ch.OwnRanges {
+		d.OwnRanges, d.NewType, d.Method = true, p.NewType, reachChoiceMethodOwn
+		d.KCoverPowerBeforeM2, d.KCoverPowerAfterM2 = finiteOrNil(ch.CoverPowerBefore), finiteOrNil(ch.CoverPowerAfter)
+		d.KCoverRangesBefore, d.KCoverRangesAfter = s.reachBefore(p).reachNeededFinite(ch.CoverPowerBefore), s.reachNeededFinite(ch.CoverPowerAfter)
 	}
 	return d
 }
@@ -592,19 +669,33 @@ func (s *scene) reachChoiceText(p *ReachPlan) []byte {
 	if ch.Requested > 0 {
 		what = fmt.Sprintf("%d CANDIDATE SPOTS", ch.Requested)
 	}
-	fmt.Fprintf(&b, "SUGGEST: %s FOR EVERY SPOT REACHED BY %d DEVICES at the planned range %s m\n", what, ch.K, fmtReach(ch.Range, 2))
+	if ch.OwnRanges {
+		fmt.Fprintf(&b, "SUGGEST: %s FOR EVERY SPOT REACHED BY %d DEVICES, each device at its own planned range\n", what, ch.K)
+	} else {
+		fmt.Fprintf(&b, "SUGGEST: %s FOR EVERY SPOT REACHED BY %d DEVICES at the planned range %s m\n", what, ch.K, fmtReach(ch.Range, 2))
+	}
 	fmt.Fprintf(&b, "  existing devices        %d\n  candidate spots         %d\n  picked                  %d", ch.Existing, len(p.Candidates), len(ch.Picks))
 	if ch.Pruned > 0 {
 		fmt.Fprintf(&b, " (%d more picked, then dropped as redundant)", ch.Pruned)
 	}
-	fmt.Fprintf(&b, "\n  %d-cover range           %s m before, %s m after\n", ch.K, reachRangeText(ch.CoverRangeBefore), reachRangeText(ch.CoverRangeAfter))
+	b.WriteString("\n")
+	at := ""
+	if ch.OwnRanges {
+		at = " at their planned ranges"
+	} else {
+		fmt.Fprintf(&b, "  %d-cover range           %s m before, %s m after\n", ch.K, reachRangeText(ch.CoverRangeBefore), reachRangeText(ch.CoverRangeAfter))
+	}
 	fmt.Fprintf(&b, "  reached by %d+ devices   %s %% before, %s %% after\n", ch.K, fmtReach(100*ch.ShareBefore, 3), fmtReach(100*ch.ShareAfter, 3))
+	if ch.OwnRanges {
+		fmt.Fprintf(&b, "  Ranges at which every spot is reached by %d devices (all ranges grow together):\n", ch.K)
+		fmt.Fprintf(&b, "    before  %s\n    after   %s\n", s.reachBefore(p).reachNeededOrNone(ch.CoverPowerBefore, ch.K), s.reachNeededOrNone(ch.CoverPowerAfter, ch.K))
+	}
 	short := math.Max(0, p.AfterReach.AreaM2-ch.CoveredAfter)
 	switch {
 	case ch.Reached && ch.Optimal:
-		fmt.Fprintf(&b, "  Every spot of the site is reached by at least %d devices, with the fewest\n  candidate spots possible (the lower bound below is met).\n", ch.K)
+		fmt.Fprintf(&b, "  Every spot of the site is reached by at least %d devices%s, with the fewest\n  candidate spots possible (the lower bound below is met).\n", ch.K, at)
 	case ch.Reached:
-		fmt.Fprintf(&b, "  Every spot of the site is reached by at least %d devices.\n", ch.K)
+		fmt.Fprintf(&b, "  Every spot of the site is reached by at least %d devices%s.\n", ch.K, at)
 		if ch.Requested == 0 {
 			fmt.Fprintf(&b, "  No choice of fewer than %d of these spots can do it (a lower bound from the\n  greedy's own gains); the choice is greedy and may use more than the fewest.\n", ch.LowerBound)
 		}
@@ -614,7 +705,14 @@ func (s *scene) reachChoiceText(p *ReachPlan) []byte {
 	default:
 		fmt.Fprintf(&b, "  %s m² stay reached by fewer than %d devices, in %s; more picks may reach them.\n", fmtReach(short, 1), ch.K, Plural(len(ch.Remaining), "part"))
 	}
-	if len(ch.Picks) > 0 {
+	if len(ch.Picks) > 0 && ch.OwnRanges {
+		fmt.Fprintf(&b, "\n  %4s  %-28s  %14s  %10s  %12s  %-16s  %s\n", "pick", "position", "depth gain m²", "range m", "reached %", "candidate", "ranges for every spot (all grow together)")
+		for j, pk := range ch.Picks {
+			fmt.Fprintf(&b, "  %4d  %-28s  %14s  %10s  %12s  %-16s  %s\n", j+1, s.pointText(pk.Position), fmtReach(pk.Gain, 1), fmtReach(pk.Range, 2),
+				fmtReach(100*pk.Share, 3), ItemLabel(p.CandidateNames[pk.Candidate], "candidate", pk.Candidate), s.reachNeededOrNone(pk.CoverPower, ch.K))
+		}
+		b.WriteString("  Depth gain: what the pick added to the area reached by 1, 2, … K devices, summed.\n")
+	} else if len(ch.Picks) > 0 {
 		fmt.Fprintf(&b, "\n  %4s  %-28s  %14s  %14s  %12s  %s\n", "pick", "position", "depth gain m²", "k-cover m", "reached %", "candidate")
 		for j, pk := range ch.Picks {
 			fmt.Fprintf(&b, "  %4d  %-28s  %14s  %14s  %12s  %s\n", j+1, s.pointText(pk.Position), fmtReach(pk.Gain, 1),
@@ -624,20 +722,38 @@ func (s *scene) reachChoiceText(p *ReachPlan) []byte {
 	}
 	b.WriteString("\n  Method: greedy submodular set cover on the depth, the sum over k = 1 … K of the area\n" +
 		"  reached by k devices (Wolsey 1982, after Johnson 1974 and Chvátal 1979), lazy re-evaluation,\n" +
-		"  then redundant picks dropped; every figure exact (order-k Voronoi pieces, Lee 1982).\n" +
+		"  then redundant picks dropped; every figure exact (order-k " + reachChoicePieces(ch.OwnRanges) + ").\n" +
 		"  Choices are planning aids for the disk model: a surveyor must confirm that a device can be\n" +
 		"  mounted at each spot and reaches its range.\n")
 	b.Write(s.reachText(p.AfterReach))
 	return []byte(b.String())
 }
 
+// reachChoicePieces names the pieces the figures come from.
+func reachChoicePieces(own bool) string {
+	if own {
+		return "power diagram pieces, Aurenhammer 1987, Lee 1982"
+	}
+	return "Voronoi pieces, Lee 1982"
+}
+
 // reachCandidatesLayer is every candidate spot with its pick order (−1
 // and null figures for a spot not picked) and the figures after its pick.
-func (s *scene) reachCandidatesLayer(p *ReachPlan) *layerDef {
+// With own ranges (after, the scene of the layout with the picks, for the
+// ranges per group) the K-cover range gives way to k_cover_power_m2 and
+// k_cover_ranges (as text), and range_m is each spot's own range.
+func (s *scene) reachCandidatesLayer(p *ReachPlan, after *scene) *layerDef {
 	ch := p.Choice
+	f := []any{"candidate", gpkg.Integer, "name", gpkg.Text, "picked", gpkg.Boolean, "pick_order", gpkg.Integer,
+		"depth_gain_m2", gpkg.Real, "k", gpkg.Integer}
+	if ch.OwnRanges {
+		f = append(f, "k_cover_power_m2", gpkg.Real, "k_cover_ranges", gpkg.Text)
+	} else {
+		f = append(f, "k_cover_range_m", gpkg.Real)
+	}
+	f = append(f, "covered_fraction", gpkg.Real, "range_m", gpkg.Real)
 	return &layerDef{geom: gpkg.Point,
-		fields: fieldList("candidate", gpkg.Integer, "name", gpkg.Text, "picked", gpkg.Boolean, "pick_order", gpkg.Integer,
-			"depth_gain_m2", gpkg.Real, "k", gpkg.Integer, "k_cover_range_m", gpkg.Real, "covered_fraction", gpkg.Real, "range_m", gpkg.Real),
+		fields: fieldList(f...),
 		each: func(emit emitFunc) error {
 			at := make([]int, len(p.Candidates))
 			for i := range at {
@@ -648,11 +764,23 @@ func (s *scene) reachCandidatesLayer(p *ReachPlan) *layerDef {
 			}
 			for i, c := range p.Candidates {
 				order, gain, rng, share := -1, math.NaN(), math.NaN(), math.NaN()
+				var needed any
 				if j := at[i]; j >= 0 {
 					pk := ch.Picks[j]
 					order, gain, rng, share = j+1, pk.Gain, nullInf(pk.CoverRange), pk.Share
+					if ch.OwnRanges {
+						rng, needed = nullInf(pk.CoverPower), after.reachNeededOrNone(pk.CoverPower, ch.K)
+					}
 				}
-				if err := emit(orb.Point(s.point(c)), i, p.CandidateNames[i], order > 0, order, gain, ch.K, rng, share, ch.Range); err != nil {
+				v := []any{i, p.CandidateNames[i], order > 0, order, gain, ch.K, rng}
+				if ch.OwnRanges {
+					v = append(v, needed)
+				}
+				v = append(v, share, ch.Range)
+				if ch.OwnRanges {
+					v[len(v)-1] = p.CandidateRanges[i]
+				}
+				if err := emit(orb.Point(s.point(c)), v...); err != nil {
 					return err
 				}
 			}

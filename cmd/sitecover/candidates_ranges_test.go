@@ -63,12 +63,10 @@ func TestSuggestCandidatesOwnRangesRefused(t *testing.T) {
 	dir := t.TempDir()
 	sites := writeFile(t, dir, "s.csv", "x,y\n10,10\n30,12\n22,30\n")
 	bad := writeFile(t, dir, "bad.csv", "x,y,range\n5,35,12\n35,35,-3\n")
-	ranged := writeFile(t, dir, "r.csv", "x,y,range\n5,35,12\n")
 	area := writeFile(t, dir, "a.geojson", squareGeoJSON(0, 0, 40))
 	base := []string{"suggest", "--planar", "--sites", sites, "--area", area, "--out", filepath.Join(dir, "o"), "--no-maps", "--range", "9"}
 	for _, c := range []failureCase{
 		{"bad-range", append(base, "--candidates", bad), exitInput, []string{`bad.csv line 3: range "-3": must be greater than 0`}},
-		{"reach", append(base, "--candidates", ranged, "--reach", "2"), exitInput, []string{"r.csv", "own ranges", "one common range"}},
 	} {
 		t.Run(c.name, func(t *testing.T) {
 			checkFailure(t, runCLI(t, c.args...), c.code, c.want)

@@ -1,7 +1,10 @@
 // suggest --reach K --candidates FILE [--add N]: the fewest candidate
 // spots (or N of them) so that every spot of the site is reached by at
-// least K devices at --range (coverage.ChooseCandidatesReach), written by
-// report.WriteReachPlan like the free placement of suggest --reach.
+// least K devices at --range (coverage.ChooseCandidatesReach), or with
+// devices or spots of their own ranges at those ranges, a spot without one
+// at --range or of --new-type (coverage.ChooseCandidatesReachRanges),
+// written by report.WriteReachPlan like the free placement of suggest
+// --reach.
 
 package main
 
@@ -24,18 +27,15 @@ const candidatesReachHelp = `  --reach K --candidates FILE --range R
                           R: greedy set cover on the area reached by 1 to K
                           devices (Johnson 1974, Chvatal 1979, Wolsey 1982),
                           a lower bound on the spots needed, and what stays
-                          short when the spots cannot do it.
+                          short when the spots cannot do it. With devices or
+                          spots of their own ranges (range or type column)
+                          every spot is reached by K at those ranges, a spot
+                          without one at --range or of --new-type.
 `
 
 // runCandidatesReach runs suggest --reach K --candidates FILE; K is parsed.
 func runCandidatesReach(e *env, cmd *cobra.Command, f *runFlags, K int) error {
 	fl := cmd.Flags()
-	if fl.Changed("new-type") {
-		return usageErrorf("--reach counts devices in reach at one common range: give --range, not --new-type")
-	}
-	if !fl.Changed("range") {
-		return usageErrorf("--reach with --candidates needs --range: the range at which every spot must be reached by K devices (see '%s --help')", cmd.CommandPath())
-	}
 	picks := 0
 	if fl.Changed("add") {
 		n, err := fl.GetInt("add")
@@ -44,7 +44,10 @@ func runCandidatesReach(e *env, cmd *cobra.Command, f *runFlags, K int) error {
 		}
 		picks = n
 	}
-	ps := planSpec{}
+	ps := planSpec{move: report.MoveCandidates}
+	if fl.Changed("new-type") {
+		ps.newType = fl.Lookup("new-type").Value.String()
+	}
 	in, err := f.planInputs(cmd, &ps)
 	if err != nil {
 		return err
@@ -52,45 +55,112 @@ func runCandidatesReach(e *env, cmd *cobra.Command, f *runFlags, K int) error {
 	if in.Candidates, err = openSource(fl.Lookup("candidates").Value.String(), "--candidates"); err != nil {
 		return err
 	}
-	return asInput(candidatesReach(e, f, in, ps.r, K, picks))
+	return asInput(candidatesReach(e, cmd, f, in, ps, K, picks))
 }
 
-// candidatesReach computes and writes the choice.
-func candidatesReach(e *env, f *runFlags, in siteinput.Inputs, r float64, K, picks int) error {
+// candidatesReach computes and writes the choice: at one common range
+// (coverage.ChooseCandidatesReach), or with devices or spots of their own
+// ranges (coverage.ChooseCandidatesReachRanges).
+func candidatesReach(e *env, cmd *cobra.Command, f *runFlags, in siteinput.Inputs, ps planSpec, K, picks int) error {
 	sc, pr, err := startRun(e, "suggest", f, in)
 	if err != nil {
 		return err
 	}
 	defer pr.end()
-	if err := refuseRanges(sc, "suggest --reach --candidates", in); err != nil {
-		return err
-	}
-	if err := refuseCandidateRanges(sc, "suggest --reach --candidates", in); err != nil {
-		return err
+	cands := sc.candidates
+	r, ranges, candR := ps.r, sc.ranges, []float64(nil)
+	own := ranges != nil || ps.newType != "" || cands.Ranges != nil
+	switch {
+	case !own && !ps.rangeGiven:
+		return usageErrorf("--reach with --candidates needs --range: the range at which every spot must be reached by K devices (see '%s --help')", cmd.CommandPath())
+	case own:
+		if r, candR, ranges, err = reachCandidateRanges(sc, in, ps); err != nil {
+			return err
+		}
 	}
 	fail := reachFail(in)
-	l, err := reachLayout(pr, sc, nil)
+	l, err := reachLayout(pr, sc, ranges)
 	if err != nil {
 		return fail(err)
 	}
-	cands := sc.candidates
 	pr.set(fmt.Sprintf("choosing among %d candidate spots for %d devices in reach", len(cands.Pts), K))
 	p := &report.ReachPlan{Layout: l, Candidates: cands.Pts, CandidateNames: cands.Names}
-	if p.Choice, err = coverage.ChooseCandidatesReach(l, cands.Pts, K, r, picks); err != nil {
+	if own {
+		p.Choice, err = coverage.ChooseCandidatesReachRanges(l, cands.Pts, candR, K, picks)
+	} else {
+		p.Choice, err = coverage.ChooseCandidatesReach(l, cands.Pts, K, r, picks)
+	}
+	if err != nil {
 		return fail(err)
 	}
+	if !p.Choice.OwnRanges && own {
+		// Every range equal: the common-range choice, written as one.
+		r, ranges, candR, own, sc.meta.Ranges = p.Choice.Range, nil, nil, false, nil
+	}
+	if own {
+		p.CandidateRanges, p.NewType = candR, ps.newType
+		if ps.newType != "" {
+			// The spots without a range of their own are of --new-type.
+			p.CandidateTypes = make([]string, len(candR))
+			for i := range candR {
+				if cands.Ranges == nil || cands.Ranges[i] == 0 {
+					p.CandidateTypes[i] = ps.newType
+				}
+			}
+		}
+	}
 	var added []orb.Point
+	var addedR []float64
 	for _, pk := range p.Choice.Picks {
 		added = append(added, pk.Position)
+		if own {
+			addedR = append(addedR, candR[pk.Candidate])
+		}
 	}
-	return finishReach(e, f, pr, sc, fail, p, added, K, r, nil, func(w io.Writer) { printReachChoice(w, p, K, picks) })
+	return finishReach(e, f, pr, sc, fail, p, added, addedR, K, r, ranges, func(w io.Writer) { printReachChoice(w, p, sc.meta, K, picks) })
 }
 
-// printReachChoice prints the figures of suggest --reach --candidates.
-func printReachChoice(w io.Writer, p *report.ReachPlan, K, picks int) {
+// reachCandidateRanges returns, for suggest --reach --candidates with
+// devices or spots of their own ranges, the default range of a spot (r:
+// --range or --new-type; 0 when neither is given), each spot's range and
+// each existing device's (a common --range repeated; sc.meta.Ranges set
+// to them).
+func reachCandidateRanges(sc *scene, in siteinput.Inputs, ps planSpec) (r float64, candR, ranges []float64, err error) {
+	if ps.rangeGiven || ps.newType != "" {
+		if r, err = newDeviceRange(sc, in, ps); err != nil {
+			return 0, nil, nil, err
+		}
+	}
+	if ranges = sc.ranges; ranges == nil {
+		if sc.rangeM <= 0 {
+			return 0, nil, nil, usageErrorf("the existing devices have no range: give --range, a range column or a type column")
+		}
+		ranges = repeatRange(sc.rangeM, len(sc.sites))
+		sc.meta.Ranges = ranges
+	}
+	if candR, err = fillCandidateRanges(sc, r); err != nil {
+		return 0, nil, nil, err
+	}
+	if candR == nil {
+		if r <= 0 {
+			return 0, nil, nil, usageErrorf("the devices have their own ranges: give the candidate spots' range with --range LENGTH or --new-type TYPE")
+		}
+		candR = repeatRange(r, len(sc.candidates.Pts))
+	}
+	return r, candR, ranges, nil
+}
+
+// printReachChoice prints the figures of suggest --reach --candidates (m
+// the metadata of the existing devices).
+func printReachChoice(w io.Writer, p *report.ReachPlan, m report.Meta, K, picks int) {
 	ch := p.Choice
 	fmt.Fprintf(w, "  %-24s %d of %d\n", "candidate spots picked", len(ch.Picks), len(p.Candidates))
-	fmt.Fprintf(w, "  %-24s %s m before, %s m after\n", fmt.Sprintf("%d-cover range", K), reachRangeOut(ch.CoverRangeBefore), reachRangeOut(ch.CoverRangeAfter))
+	if ch.OwnRanges {
+		before, after := report.ReachPlanNeeded(p, m)
+		fmt.Fprintf(w, "  %-24s before: %s\n  %-24s after:  %s\n", fmt.Sprintf("%d-cover ranges", K), before, "", after)
+	} else {
+		fmt.Fprintf(w, "  %-24s %s m before, %s m after\n", fmt.Sprintf("%d-cover range", K), reachRangeOut(ch.CoverRangeBefore), reachRangeOut(ch.CoverRangeAfter))
+	}
 	fmt.Fprintf(w, "  %-24s %s %% before, %s %% after\n", fmt.Sprintf("reached by %d+ devices", K), fmtNum(100*ch.ShareBefore, 2), fmtNum(100*ch.ShareAfter, 2))
 	switch {
 	case ch.Reached && ch.Optimal:
@@ -110,16 +180,12 @@ func printReachChoice(w io.Writer, p *report.ReachPlan, K, picks int) {
 			fmt.Fprintf(w, "  ... and %d more picks (all in report.txt and summary.json)\n", len(ch.Picks)-j)
 			break
 		}
+		if ch.OwnRanges {
+			fmt.Fprintf(w, "  %4d  %s (%s m): reached by %d+ %s %%\n", j+1, report.ItemLabel(p.CandidateNames[pk.Candidate], "candidate", pk.Candidate),
+				fmtNum(pk.Range, 2), K, fmtNum(100*pk.Share, 2))
+			continue
+		}
 		fmt.Fprintf(w, "  %4d  %s: %s-cover range %s m, reached by %d+ %s %%\n", j+1, report.ItemLabel(p.CandidateNames[pk.Candidate], "candidate", pk.Candidate),
 			fmt.Sprint(K), reachRangeOut(pk.CoverRange), K, fmtNum(100*pk.Share, 2))
 	}
-}
-
-// refuseCandidateRanges refuses candidate spots with their own ranges in
-// a command that counts devices in reach at one common range.
-func refuseCandidateRanges(sc *scene, command string, in siteinput.Inputs) error {
-	if sc.candidates == nil || sc.candidates.Ranges == nil {
-		return nil
-	}
-	return inputErrorf("%s: the candidate spots have their own ranges (range column or type table); %s counts devices in reach at one common range: give only --range", in.Candidates.Name, command)
 }

@@ -559,7 +559,16 @@ func runOwnAdditions(p *report.Plan, l *coverage.Layout, sc *scene, ps planSpec,
 // otherwise): its own, else r, the added devices' range (--range or
 // --new-type).
 func candidateRanges(sc *scene, ps planSpec, r float64) ([]float64, error) {
-	if ps.move != report.MoveCandidates || sc.candidates == nil || sc.candidates.Ranges == nil {
+	if ps.move != report.MoveCandidates {
+		return nil, nil
+	}
+	return fillCandidateRanges(sc, r)
+}
+
+// fillCandidateRanges returns each candidate spot's range when some spot
+// carries its own (nil otherwise): its own, else r (an error when r ≤ 0).
+func fillCandidateRanges(sc *scene, r float64) ([]float64, error) {
+	if sc.candidates == nil || sc.candidates.Ranges == nil {
 		return nil, nil
 	}
 	out := make([]float64, len(sc.candidates.Ranges))

@@ -3,7 +3,8 @@
 // outputs in metres per group of devices, the first k-gap closing at the
 // k-cover figure, equal ranges giving the common-range answer, k above the
 // distinct devices (hidden ones included) refused, the additions reaching
-// every spot K times, and --candidates with own ranges refused.
+// every spot K times, and the choice among candidate spots with own
+// ranges.
 
 package main
 
@@ -208,17 +209,123 @@ func TestSuggestReachOwnRanges(t *testing.T) {
 	}
 }
 
-// TestSuggestReachCandidatesOwnRangesRefused: suggest --reach --candidates
-// chooses spots for one common range and says so, pointing to suggest
-// --reach without candidates; own ranges without --range or --new-type is
-// bad usage.
-func TestSuggestReachCandidatesOwnRangesRefused(t *testing.T) {
+// TestSuggestReachCandidatesOwnRanges: suggest --reach --candidates with
+// devices or spots of their own ranges picks what
+// coverage.ChooseCandidatesReachRanges picks (a spot without a range at
+// --range or of --new-type), words the figures as ranges per group of
+// devices in every output, and the k-coverage after (computed anew,
+// KCoverRanges) agrees with the choice's; own ranges without --range or
+// --new-type for spots without one is bad usage.
+func TestSuggestReachCandidatesOwnRanges(t *testing.T) {
 	dir := t.TempDir()
 	area := writeFile(t, dir, "a.geojson", `{"type":"Polygon","coordinates":[[[-50,-50],[260,-50],[260,180],[-50,180],[-50,-50]]]}`)
 	mixed := writeFile(t, dir, "mixed.csv", mixedCSV)
-	cands := writeFile(t, dir, "c.csv", "x,y\n50,50\n150,50\n")
-	r := runCLI(t, "suggest", "--planar", "--sites", mixed, "--area", area, "--range", "40", "--reach", "2", "--candidates", cands, "--out", filepath.Join(dir, "o"), "--no-maps")
-	checkFailure(t, r, exitInput, []string{"own ranges", "one common range", "without --candidates"})
+	typed := writeFile(t, dir, "typed.csv", "name,x,y,type\ng1,0,0,gateway\ns1,200,0,sensor\ns2,100,120,sensor\n")
+	plain := writeFile(t, dir, "plain.csv", "x,y\n0,0\n200,0\n100,120\n")
+	candsCSV := "name,x,y,range\nc1,100,60,200\nc2,200,120,\nc3,0,150,180\nc4,220,-20,160\nc5,100,-40,120\nc6,-40,60,\n"
+	cands := writeFile(t, dir, "c.csv", candsCSV)
+	type pick struct {
+		Candidate     int                 `json:"candidate"`
+		RangeM        float64             `json:"range_m"`
+		KCoverPowerM2 *float64            `json:"k_cover_power_m2"`
+		KCoverRanges  []report.RangeGroup `json:"k_cover_ranges"`
+		RangeNull     *float64            `json:"k_cover_range_m"`
+	}
+	type plan struct {
+		OwnRanges  bool                `json:"own_ranges"`
+		NewType    string              `json:"new_type"`
+		Reached    bool                `json:"reached"`
+		PowerAfter *float64            `json:"k_cover_power_after_m2"`
+		RangeAfter *float64            `json:"k_cover_range_after_m"`
+		Before     []report.RangeGroup `json:"k_cover_ranges_before"`
+		After      []report.RangeGroup `json:"k_cover_ranges_after"`
+		ShareAfter float64             `json:"covered_fraction_after"`
+		Candidates struct {
+			Picked []pick `json:"picked"`
+		} `json:"candidates"`
+		Reach *report.ReachDoc `json:"reach_after"`
+	}
+	for _, c := range []struct {
+		name, newType string
+		args          []string
+		defaultR      float64 // range of a spot without its own
+	}{
+		{"range", "", []string{"--sites", mixed, "--range", "60"}, 60},
+		{"new-type", "sensor", []string{"--sites", typed, "--type-range", "gateway=150m", "--type-range", "sensor=40m", "--new-type", "sensor"}, 40},
+		{"common-sites", "", []string{"--sites", plain, "--range", "90"}, 90},
+	} {
+		t.Run(c.name, func(t *testing.T) {
+			out := filepath.Join(dir, c.name)
+			args := append([]string{"suggest", "--planar", "--area", area, "--reach", "2", "--candidates", cands, "--out", out, "--map-width", "600"}, c.args...)
+			r := runCLI(t, args...)
+			if r.code != 0 {
+				t.Fatalf("exit %d: %s", r.code, r.stderr)
+			}
+			b, err := os.ReadFile(filepath.Join(out, report.FileSummary))
+			if err != nil {
+				t.Fatal(err)
+			}
+			var d plan
+			if err := json.Unmarshal(b, &d); err != nil {
+				t.Fatal(err)
+			}
+			if !d.OwnRanges || d.NewType != c.newType || d.RangeAfter != nil || d.PowerAfter == nil || len(d.After) == 0 || len(d.Before) == 0 || d.Reach == nil || !d.Reach.OwnRanges {
+				t.Fatalf("summary: %+v", d)
+			}
+			if d.Reached != (*d.PowerAfter <= 0) || len(d.Candidates.Picked) == 0 {
+				t.Fatalf("reached %v, power after %v, %d picks", d.Reached, *d.PowerAfter, len(d.Candidates.Picked))
+			}
+			own := []float64{200, c.defaultR, 180, 160, 120, c.defaultR}
+			for j, pk := range d.Candidates.Picked {
+				if pk.RangeM != own[pk.Candidate] || pk.KCoverPowerM2 == nil || pk.RangeNull != nil || len(pk.KCoverRanges) == 0 {
+					t.Errorf("pick %d: %+v, own range %v", j+1, pk, own[pk.Candidate])
+				}
+			}
+			if last := d.Candidates.Picked[len(d.Candidates.Picked)-1]; *last.KCoverPowerM2 != *d.PowerAfter {
+				t.Errorf("last pick power %v, after %v", *last.KCoverPowerM2, *d.PowerAfter)
+			}
+			lv := d.Reach.Levels[len(d.Reach.Levels)-1]
+			if lv.K != 2 || math.Abs(lv.CoveredFraction-d.ShareAfter) > 1e-12 {
+				t.Errorf("reach after: level %+v, share after %v", lv, d.ShareAfter)
+			}
+			rep, err := os.ReadFile(filepath.Join(out, report.FileReport))
+			if err != nil || !strings.Contains(string(rep), "each device at its own planned range") || !strings.Contains(string(rep), "all ranges grow together") {
+				t.Errorf("report.txt: %v\n%s", err, rep)
+			}
+			layer, err := os.ReadFile(filepath.Join(out, report.LayerFile(report.FileCandidates, true)))
+			if err != nil || !strings.Contains(string(layer), `"k_cover_ranges"`) || strings.Contains(string(layer), `"k_cover_range_m"`) {
+				t.Errorf("candidates layer: %v\n%s", err, layer)
+			}
+			if _, err := os.Stat(filepath.Join(out, report.FileMapReach)); err != nil {
+				t.Errorf("map: %v", err)
+			}
+			if !strings.Contains(r.stdout, "2-cover ranges") {
+				t.Errorf("stdout: %s", r.stdout)
+			}
+		})
+	}
+	t.Run("equal-ranges", func(t *testing.T) {
+		// Every range 90: the common-range choice and wording.
+		eq := writeFile(t, dir, "eq.csv", "x,y,range\n100,60,90\n200,120,\n0,150,90\n")
+		res := map[string]string{}
+		for _, cf := range []string{eq, writeFile(t, dir, "eq0.csv", "x,y\n100,60\n200,120\n0,150\n")} {
+			out := filepath.Join(dir, filepath.Base(cf)+".out")
+			r := runCLI(t, "suggest", "--planar", "--area", area, "--reach", "2", "--candidates", cf, "--out", out, "--no-maps", "--sites", plain, "--range", "90")
+			if r.code != 0 {
+				t.Fatalf("exit %d: %s", r.code, r.stderr)
+			}
+			b, err := os.ReadFile(filepath.Join(out, report.FileSummary))
+			if err != nil {
+				t.Fatal(err)
+			}
+			res[cf] = strings.ReplaceAll(string(b), filepath.Base(cf), "")
+		}
+		if a, b := res[eq], res[filepath.Join(dir, "eq0.csv")]; a != b || strings.Contains(a, "own_ranges") {
+			t.Errorf("equal ranges:\n%s\ncommon range:\n%s", a, b)
+		}
+	})
+	r := runCLI(t, "suggest", "--planar", "--sites", mixed, "--area", area, "--reach", "2", "--candidates", writeFile(t, dir, "bare.csv", "x,y\n50,50\n"), "--out", filepath.Join(dir, "o"), "--no-maps")
+	checkFailure(t, r, exitUsage, []string{"--range", "--new-type"})
 	r = runCLI(t, "suggest", "--planar", "--sites", mixed, "--area", area, "--reach", "2", "--out", filepath.Join(dir, "o"), "--no-maps")
 	checkFailure(t, r, exitUsage, []string{"--range", "--new-type"})
 }

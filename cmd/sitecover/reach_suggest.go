@@ -119,7 +119,7 @@ func suggestReach(e *env, f *runFlags, in siteinput.Inputs, ps planSpec, K int) 
 	} else if err != nil {
 		return fail(err)
 	}
-	return finishReach(e, f, pr, sc, fail, p, p.Suggestion.Added, K, r, ranges, func(w io.Writer) {
+	return finishReach(e, f, pr, sc, fail, p, p.Suggestion.Added, repeatRange(r, len(p.Suggestion.Added)), K, r, ranges, func(w io.Writer) {
 		sg := p.Suggestion
 		fmt.Fprintf(w, "  %-24s %d new + %d existing\n", "suggested devices", len(sg.Added), sg.Existing)
 		if ranges != nil {
@@ -155,16 +155,16 @@ func reachLayout(pr *progress, sc *scene, ranges []float64) (*coverage.Layout, e
 
 // finishReach completes a suggest --reach run with the plan p: the layout
 // with the added devices (p.After; with own ranges, ranges set, the
-// existing devices' ranges and r for each new one) and its k-coverage up to
+// existing devices' ranges and addedR for the new ones) and its k-coverage up to
 // K at r or at the own ranges (p.AfterReach), then writes the report
 // folder and prints the title, the figures (print) and the files written.
 func finishReach(e *env, f *runFlags, pr *progress, sc *scene, fail func(error) error, p *report.ReachPlan,
-	added []orb.Point, K int, r float64, ranges []float64, print func(w io.Writer)) error {
+	added []orb.Point, addedR []float64, K int, r float64, ranges []float64, print func(w io.Writer)) error {
 	pr.set("k-coverage with the additions")
 	sites := append(append([]orb.Point(nil), sc.sites...), added...)
 	var err error
 	if ranges != nil {
-		rs := append(append([]float64(nil), ranges...), repeatRange(r, len(added))...)
+		rs := append(append([]float64(nil), ranges...), addedR...)
 		if p.After, err = coverage.NewLayoutRanges(sites, rs, sc.region); err != nil {
 			return fail(err)
 		}
