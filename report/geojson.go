@@ -552,6 +552,22 @@ func (b *polyBuf) reset() {
 	b.pts, b.rings, b.polys = b.pts[:0], b.rings[:0], b.polys[:0]
 }
 
+// reserve sizes b for the conversion of in at once: one allocation for a
+// feature of 10⁵ rings instead of a doubling slice copied some twenty
+// times.
+func (b *polyBuf) reserve(in orb.MultiPolygon) {
+	pts, rings := 0, 0
+	for _, poly := range in {
+		rings += len(poly)
+		for _, r := range poly {
+			pts += len(r) + 1
+		}
+	}
+	b.pts = slices.Grow(b.pts, pts)
+	b.rings = slices.Grow(b.rings, rings)
+	b.polys = slices.Grow(b.polys, len(in))
+}
+
 // multiPolygonInto is multiPolygon into the memory of b (valid until b is
 // used again).
 func (s *scene) multiPolygonInto(b *polyBuf, in orb.MultiPolygon) orb.MultiPolygon {
@@ -562,6 +578,7 @@ func (s *scene) multiPolygonInto(b *polyBuf, in orb.MultiPolygon) orb.MultiPolyg
 // rounded, repaired and oriented, into the memory of b, unchecked.
 func (s *scene) roundInto(b *polyBuf, in orb.MultiPolygon) orb.MultiPolygon {
 	b.reset()
+	b.reserve(in)
 	for _, poly := range in {
 		r0 := len(b.rings)
 		for k, ring := range poly {
