@@ -65,7 +65,7 @@ func Union(mp orb.MultiPolygon) (orb.MultiPolygon, error) {
 	if err != nil {
 		return nil, fmt.Errorf("planar: Union: %w", err)
 	}
-	if err := checkResult(res); err != nil {
+	if err := checkResult(res, booleanScale(mp)); err != nil {
 		return nil, fmt.Errorf("planar: Union: %w", err)
 	}
 	return res, nil
@@ -78,7 +78,7 @@ func Intersection(a, b orb.MultiPolygon) (orb.MultiPolygon, error) {
 	if err != nil {
 		return nil, fmt.Errorf("planar: Intersection: %w", err)
 	}
-	if err := checkResult(res); err != nil {
+	if err := checkResult(res, booleanScale(a, b)); err != nil {
 		return nil, fmt.Errorf("planar: Intersection: %w", err)
 	}
 	return res, nil
@@ -91,7 +91,7 @@ func Difference(a, b orb.MultiPolygon) (orb.MultiPolygon, error) {
 	if err != nil {
 		return nil, fmt.Errorf("planar: Difference: %w", err)
 	}
-	if err := checkResult(res); err != nil {
+	if err := checkResult(res, booleanScale(a, b)); err != nil {
 		return nil, fmt.Errorf("planar: Difference: %w", err)
 	}
 	return res, nil
@@ -176,9 +176,12 @@ func SiteArea(area, exclusions orb.MultiPolygon) (*Region, SiteAreaStats, error)
 	if len(res) == 0 {
 		return nil, st, fmt.Errorf("%s: %w", where, ErrEmptySite)
 	}
+	if err := checkResult(res, booleanScale(area, exclusions)); err != nil {
+		return nil, st, fmt.Errorf("%s: %w", where, err)
+	}
 	reg, err := NewRegion(res)
 	if err != nil {
-		return nil, st, fmt.Errorf("%s: %w", where, checkResult(res))
+		return nil, st, fmt.Errorf("%s: internal error: %w", where, err)
 	}
 	return reg, st, nil
 }

@@ -51,27 +51,68 @@ func (e *NearDegenerateError) Error() string {
 // pairs left in a result are ones the repairs could not reach.
 const nearDegenerateUlps = 4 * booleanPinchSep
 
-// checkResult runs NewRegion's exact validity check on an overlay result
-// and turns a failure into a *NearDegenerateError when two distinct
-// vertices of res lie within nearDegenerateUlps ulps, else into an
-// internal error. O(n log n).
-func checkResult(res orb.MultiPolygon) error {
+// checkResult runs NewRegion's exact validity check on an overlay result,
+// and checks that every exterior runs counter-clockwise and every hole
+// clockwise (exact turn, regionRingCCW; NewRegion itself would silently
+// reorient a ring traced the wrong way round, which only a rounding fault
+// produces), and turns a failure into a *NearDegenerateError when two
+// distinct vertices of res lie within nearDegenerateUlps ulps of scale
+// (the largest coordinate magnitude of the operands, which bounds the
+// rounding of every crossing point), else into an internal error.
+// O(n log n).
+func checkResult(res orb.MultiPolygon, scale float64) error {
 	if len(res) == 0 {
 		return nil
 	}
 	_, err := NewRegion(res)
 	if err == nil {
+		err = checkOrientation(res)
+	}
+	if err == nil {
 		return nil
 	}
-	if x, y, ok := closeVertexPair(res); ok {
+	if x, y, ok := closeVertexPair(res, scale); ok {
 		return &NearDegenerateError{X: x, Y: y, Detail: fmt.Sprintf("the result's rings touch or cross after rounding (%v)", err)}
 	}
 	return fmt.Errorf("internal error: result not accepted by NewRegion: %w", err)
 }
 
+// checkOrientation reports the first ring of res that runs the wrong way:
+// an exterior clockwise or a hole counter-clockwise. O(n).
+func checkOrientation(res orb.MultiPolygon) error {
+	for p, poly := range res {
+		for k, r := range poly {
+			if len(r) > 1 && r[0] == r[len(r)-1] {
+				r = r[:len(r)-1]
+			}
+			if regionRingCCW(FlatRing(r)) != (k == 0) {
+				return fmt.Errorf("polygon %d, ring %d: runs the wrong way round", p, k)
+			}
+		}
+	}
+	return nil
+}
+
+// booleanScale is the largest coordinate magnitude of the operands (at
+// least 1).
+func booleanScale(ops ...orb.MultiPolygon) float64 {
+	m := 1.0
+	for _, mp := range ops {
+		for _, p := range mp {
+			for _, r := range p {
+				for _, q := range r {
+					m = max(m, math.Abs(q[0]), math.Abs(q[1]))
+				}
+			}
+		}
+	}
+	return m
+}
+
 // closeVertexPair returns a vertex of res that has a distinct vertex of
-// res within nearDegenerateUlps ulps in both coordinates. O(n log n).
-func closeVertexPair(res orb.MultiPolygon) (float64, float64, bool) {
+// res within nearDegenerateUlps ulps in both coordinates, ulps of the
+// larger of the vertex's magnitude and scale. O(n log n).
+func closeVertexPair(res orb.MultiPolygon, scale float64) (float64, float64, bool) {
 	var pts []orb.Point
 	for _, p := range res {
 		for _, r := range p {
@@ -94,7 +135,7 @@ func closeVertexPair(res orb.MultiPolygon) (float64, float64, bool) {
 		return 0
 	})
 	for i := range pts {
-		eps := nearDegenerateUlps * 0x1p-52 * math.Max(math.Abs(pts[i][0]), math.Abs(pts[i][1]))
+		eps := nearDegenerateUlps * 0x1p-52 * max(scale, math.Abs(pts[i][0]), math.Abs(pts[i][1]))
 		for j := i + 1; j < len(pts) && pts[j][0]-pts[i][0] <= eps; j++ {
 			if pts[j] != pts[i] && math.Abs(pts[j][1]-pts[i][1]) <= eps {
 				return pts[i][0], pts[i][1], true

@@ -270,7 +270,9 @@ const booleanNearCollinear = 0x1p-20
 
 // booleanNearPair reports whether two distinct vertices of a and b lie
 // within booleanNearRel of (x, y), or two near-collinear operand edges
-// (booleanNearCollinear) pass that close to it.
+// (booleanNearCollinear) pass that close to it (relative to the larger of
+// the point's and the edge's endpoints' magnitudes: a long edge reaching
+// far out is cut at crossings rounded at its own scale).
 func booleanNearPair(a, b orb.MultiPolygon, x, y float64) bool {
 	eps := booleanNearRel * math.Max(1, math.Max(math.Abs(x), math.Abs(y)))
 	var dirs []float64
@@ -285,7 +287,10 @@ func booleanNearPair(a, b orb.MultiPolygon, x, y float64) bool {
 						continue
 					}
 					t := math.Max(0, math.Min(1, ((x-ax)*dx+(y-ay)*dy)/l2))
-					if math.Hypot(ax+t*dx-x, ay+t*dy-y) <= eps {
+					// A crossing on this edge is rounded at the ulps of its
+					// endpoints' magnitude, however small the point's own.
+					edgeEps := max(eps, booleanNearRel*max(math.Abs(ax), math.Abs(ay), math.Abs(bx), math.Abs(by)))
+					if math.Hypot(ax+t*dx-x, ay+t*dy-y) <= edgeEps {
 						dirs = append(dirs, math.Atan2(dy, dx))
 					}
 				}
