@@ -492,7 +492,7 @@ func (s *scene) holesLayer() *layerDef {
 // reach before rounding, outline_grow.go), one feature per connected
 // covered part, largest first by outline area (before the shrinking).
 func (s *scene) coveredLayer() *layerDef {
-	return &layerDef{geom: gpkg.MultiPolygon,
+	return &layerDef{geom: gpkg.MultiPolygon, lead: true,
 		fields: fieldList("part", gpkg.Integer, "outline_area_m2", gpkg.Real, "range_m", gpkg.Real),
 		each: func(emit emitFunc) error {
 			parts := s.l.Covered(s.a.Gaps)

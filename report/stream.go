@@ -125,6 +125,9 @@ type layerDef struct {
 	geom   gpkg.GeometryType // declared geometry type
 	fields []gpkg.Field      // property names and types, in order
 	each   func(emit emitFunc) error
+	// lead marks a layer whose features take long to produce (one huge
+	// feature): writeAll starts it before the other steps.
+	lead bool
 }
 
 // tableName returns the GeoPackage table of a GeoJSON layer file name.
