@@ -543,7 +543,12 @@ type polyBuf struct {
 	pts   []orb.Point   // the rings' positions, ring after ring
 	rings []orb.Ring    // the kept rings, slices of pts
 	polys []orb.Polygon // the kept polygons, slices of rings
-	off   offsetScratch // conservativeInto's moved outline
+	off   offsetScratch // conservativeInto's moved ring
+	// offsetRoundChunks' memory: the feature's rings, the index of each
+	// polygon's first, and the chunks' conversions.
+	all    []orb.Ring
+	first  []int
+	chunks []*ringChunk
 }
 
 // reset empties b for the next feature; the multipolygon it held is

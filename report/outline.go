@@ -142,15 +142,20 @@ func validOrSplit(mp orb.MultiPolygon) (orb.MultiPolygon, bool) {
 // unrounded and unmoved.
 func (s *scene) conservativeInto(b *polyBuf, in orb.MultiPolygon, grow float64) orb.MultiPolygon {
 	for sc := s; ; sc = sc.finer() {
-		src := in
-		if d := sc.roundingReach(); d > 0 {
-			g, ok := sc.offsetOutline(&b.off, in, math.Copysign(d, grow))
-			if !ok {
-				continue
+		d := sc.roundingReach()
+		if d == 0 { // unrounded: unmoved
+			if mp, ok := sc.validRounded(in, sc.roundInto(b, in)); ok {
+				return mp
 			}
-			src = g
+			continue
 		}
-		if mp, ok := sc.validRounded(src, sc.roundInto(b, src)); ok {
+		out, ok := sc.offsetRoundInto(b, in, math.Copysign(d, grow))
+		if !ok {
+			continue
+		}
+		// validRounded of a rounded scene: the moved outline itself is
+		// not needed (offsetRoundInto never holds it whole).
+		if mp, ok := validOrSplit(out); ok {
 			return mp
 		}
 	}
