@@ -55,9 +55,8 @@ type geoJSON struct {
 	err error // the first write error
 }
 
-// geoJSONFlush is the buffered size at which a layer's text is written on:
-// the size of the stream's buffer (streamBuffer), so that bufio hands each
-// chunk straight to the file instead of copying it once more.
+// geoJSONFlush is the buffered size at which a layer's text is written on
+// (the stream's buffer size, streamBuffer).
 const geoJSONFlush = streamBuffer
 
 func (s *scene) newGeoJSON(w io.Writer) *geoJSON {
