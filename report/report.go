@@ -222,8 +222,9 @@ func WriteAnalysis(dir string, a *coverage.Analysis, m Meta, opt Options) (writt
 // the rest of the analysis is computed (coverage.Options.LayoutReady):
 // StartAnalysis opens the output set and starts the sites and
 // service-area layers (unless opt.GeoPackage, whose tables are filled
-// together at the end); Finish writes the other files and swaps the set
-// in; Abort drops it. The files are byte for byte those of WriteAnalysis,
+// together at the end); Finish starts the covered layer (the same
+// exception) before it gathers the service-area list, writes the other
+// files and swaps the set in; Abort drops it. The files are byte for byte those of WriteAnalysis,
 // which is StartAnalysis followed by Finish.
 type AnalysisWriter struct {
 	w     *writer
@@ -269,6 +270,12 @@ func (aw *AnalysisWriter) Finish(a *coverage.Analysis) (written []string, err er
 		return nil, fmt.Errorf("report: the analysis is not the one the report was started for")
 	}
 	m, opt, w := aw.m, aw.opt, aw.w
+	if !opt.GeoPackage {
+		// The covered layer, the longest step, needs no service-area list:
+		// it starts before newScene gathers that list.
+		lead := &scene{l: a.Layout, a: a, m: m, area: new(areaEdgesOnce)}
+		aw.steps = append(aw.steps, w.start(lead, lead.layerStep(FileCovered, lead.coveredLayer()), &aw.stop))
+	}
 	s := newScene(a.Layout, a, m)
 	s.files = Files(false, m, opt)
 	s.listMax = SummaryListMax
