@@ -242,14 +242,25 @@ func appendPos(b []byte, p orb.Point) []byte {
 // to v lies within half an ulp (< 10⁻⁸) of it, so on the 10⁻⁷ grid it is
 // n/10⁷ itself. Those values are written from n with integer arithmetic;
 // all others go through strconv.
+//
+// The integer n is v·10⁷ rounded half away from zero (as math.Round, by
+// truncation and the exact fractional part: |v·10⁷| < 10¹⁵); the
+// comparison comes first, as NaN and infinities fail it.
 func appendNum(b []byte, v float64) []byte {
-	if math.IsNaN(v) || math.IsInf(v, 0) {
-		return append(b, "null"...)
-	}
 	if math.Abs(v) < 1e8 && v != 0 {
-		if n := math.Round(v * 1e7); n/1e7 == v {
+		x := v * 1e7
+		n := float64(int64(x))
+		if f := x - n; f >= 0.5 {
+			n++
+		} else if f <= -0.5 {
+			n--
+		}
+		if n/1e7 == v {
 			return appendDecimal7(b, int64(n))
 		}
+	}
+	if math.IsNaN(v) || math.IsInf(v, 0) {
+		return append(b, "null"...)
 	}
 	return strconv.AppendFloat(b, v, 'f', -1, 64)
 }
@@ -268,7 +279,13 @@ func appendDecimal7(b []byte, n int64) []byte {
 	u := uint64(n)
 	ip, frac := u/1e7, u%1e7
 	if frac != 0 {
-		k := 7 // decimals left to write, leading zeros included
+		// k: decimals left to write, leading zeros included; four
+		// trailing zeros (millimetres in the plane) go at once.
+		k := 7
+		if frac%10000 == 0 {
+			frac /= 10000
+			k -= 4
+		}
 		for frac%10 == 0 {
 			frac /= 10
 			k--
