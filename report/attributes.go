@@ -97,7 +97,7 @@ func (s *scene) withAttributes(d *layerDef, siteAt int) *layerDef {
 	extra := s.attributeFields(d.fields)
 	each := d.each
 	fields := append(d.fields[:len(d.fields):len(d.fields)], extra...)
-	return &layerDef{table: d.table, geom: d.geom, fields: fields,
+	return &layerDef{table: d.table, geom: d.geom, fields: fields, lead: d.lead,
 		each: func(emit emitFunc) error {
 			return each(func(g orb.Geometry, vals ...any) error {
 				site := -1

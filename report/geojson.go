@@ -55,9 +55,8 @@ type geoJSON struct {
 	err error // the first write error
 }
 
-// geoJSONFlush is the buffered size at which a layer's text is written on:
-// the size of the stream's buffer (streamBuffer), so that bufio hands each
-// chunk straight to the file instead of copying it once more.
+// geoJSONFlush is the buffered size at which a layer's text is written on
+// (the stream's buffer size, streamBuffer).
 const geoJSONFlush = streamBuffer
 
 func (s *scene) newGeoJSON(w io.Writer) *geoJSON {
@@ -243,14 +242,25 @@ func appendPos(b []byte, p orb.Point) []byte {
 // to v lies within half an ulp (< 10⁻⁸) of it, so on the 10⁻⁷ grid it is
 // n/10⁷ itself. Those values are written from n with integer arithmetic;
 // all others go through strconv.
+//
+// The integer n is v·10⁷ rounded half away from zero (as math.Round, by
+// truncation and the exact fractional part: |v·10⁷| < 10¹⁵); the
+// comparison comes first, as NaN and infinities fail it.
 func appendNum(b []byte, v float64) []byte {
-	if math.IsNaN(v) || math.IsInf(v, 0) {
-		return append(b, "null"...)
-	}
 	if math.Abs(v) < 1e8 && v != 0 {
-		if n := math.Round(v * 1e7); n/1e7 == v {
+		x := v * 1e7
+		n := float64(int64(x))
+		if f := x - n; f >= 0.5 {
+			n++
+		} else if f <= -0.5 {
+			n--
+		}
+		if n/1e7 == v {
 			return appendDecimal7(b, int64(n))
 		}
+	}
+	if math.IsNaN(v) || math.IsInf(v, 0) {
+		return append(b, "null"...)
 	}
 	return strconv.AppendFloat(b, v, 'f', -1, 64)
 }
@@ -269,7 +279,13 @@ func appendDecimal7(b []byte, n int64) []byte {
 	u := uint64(n)
 	ip, frac := u/1e7, u%1e7
 	if frac != 0 {
-		k := 7 // decimals left to write, leading zeros included
+		// k: decimals left to write, leading zeros included; four
+		// trailing zeros (millimetres in the plane) go at once.
+		k := 7
+		if frac%10000 == 0 {
+			frac /= 10000
+			k -= 4
+		}
 		for frac%10 == 0 {
 			frac /= 10
 			k--
@@ -492,7 +508,7 @@ func (s *scene) holesLayer() *layerDef {
 // reach before rounding, outline_grow.go), one feature per connected
 // covered part, largest first by outline area (before the shrinking).
 func (s *scene) coveredLayer() *layerDef {
-	return &layerDef{geom: gpkg.MultiPolygon,
+	return &layerDef{geom: gpkg.MultiPolygon, lead: true,
 		fields: fieldList("part", gpkg.Integer, "outline_area_m2", gpkg.Real, "range_m", gpkg.Real),
 		each: func(emit emitFunc) error {
 			parts := s.l.Covered(s.a.Gaps)
@@ -543,7 +559,12 @@ type polyBuf struct {
 	pts   []orb.Point   // the rings' positions, ring after ring
 	rings []orb.Ring    // the kept rings, slices of pts
 	polys []orb.Polygon // the kept polygons, slices of rings
-	off   offsetScratch // conservativeInto's moved outline
+	off   offsetScratch // conservativeInto's moved ring
+	// offsetRoundChunks' memory: the feature's rings, the index of each
+	// polygon's first, and the chunks' conversions.
+	all    []orb.Ring
+	first  []int
+	chunks []*ringChunk
 }
 
 // reset empties b for the next feature; the multipolygon it held is

@@ -43,8 +43,10 @@ package report
 
 import (
 	"math"
+	"runtime"
 	"slices"
 	"sync"
+	"sync/atomic"
 
 	"github.com/paulmach/orb"
 	"github.com/sitecover/sitecover/planar"
@@ -140,15 +142,20 @@ func validOrSplit(mp orb.MultiPolygon) (orb.MultiPolygon, bool) {
 // unrounded and unmoved.
 func (s *scene) conservativeInto(b *polyBuf, in orb.MultiPolygon, grow float64) orb.MultiPolygon {
 	for sc := s; ; sc = sc.finer() {
-		src := in
-		if d := sc.roundingReach(); d > 0 {
-			g, ok := sc.offsetOutline(&b.off, in, math.Copysign(d, grow))
-			if !ok {
-				continue
+		d := sc.roundingReach()
+		if d == 0 { // unrounded: unmoved
+			if mp, ok := sc.validRounded(in, sc.roundInto(b, in)); ok {
+				return mp
 			}
-			src = g
+			continue
 		}
-		if mp, ok := sc.validRounded(src, sc.roundInto(b, src)); ok {
+		out, ok := sc.offsetRoundInto(b, in, math.Copysign(d, grow))
+		if !ok {
+			continue
+		}
+		// validRounded of a rounded scene: the moved outline itself is
+		// not needed (offsetRoundInto never holds it whole).
+		if mp, ok := validOrSplit(out); ok {
 			return mp
 		}
 	}
@@ -206,7 +213,11 @@ func outlineValid(mp orb.MultiPolygon) bool {
 // pairs of edges. Two edges can meet only where their bounding boxes
 // overlap, so beyond bruteForceEdges each edge is listed in the grid cells
 // its box covers and a pair is compared in one cell only, the one holding
-// the lower-left corner of the overlap of their boxes.
+// the lower-left corner of the overlap of their boxes. The edges are kept
+// compact (outlineEdges: the positions once, 20 bytes an edge), and the
+// cells of an outline of more than parallelEdges edges are compared in
+// bands of rows on all processors; the answer does not depend on the grid
+// (every pair whose boxes meet is compared once).
 func pairsValid(mp orb.MultiPolygon) bool {
 	total := 0
 	for _, p := range mp {
@@ -214,39 +225,15 @@ func pairsValid(mp orb.MultiPolygon) bool {
 			total += len(r) - 1
 		}
 	}
-	var small [bruteForceEdges]outlineEdge // no allocation for small outlines
-	edges := small[:0]
-	var sc *outlineScratch
-	if total > bruteForceEdges {
-		sc = outlineScratchPool.Get().(*outlineScratch)
-		defer outlineScratchPool.Put(sc)
-		edges = slices.Grow(sc.edges[:0], total)
-		defer func() { sc.edges = edges[:0] }()
+	if total <= bruteForceEdges {
+		return smallValid(mp)
 	}
-	ring := int32(0)
-	b := orb.Bound{Min: orb.Point{math.Inf(1), math.Inf(1)}, Max: orb.Point{math.Inf(-1), math.Inf(-1)}}
-	for _, p := range mp {
-		for _, r := range p {
-			n := int32(len(r) - 1)
-			for i := int32(0); i < n; i++ {
-				edges = append(edges, outlineEdge{r[i][0], r[i][1], r[i+1][0], r[i+1][1], ring, i, n})
-				b = b.Extend(r[i])
-			}
-			ring++
-		}
-	}
-	if len(edges) <= bruteForceEdges {
-		for i := range edges {
-			for j := i + 1; j < len(edges); j++ {
-				if !edgePairValid(&edges[i], &edges[j]) {
-					return false
-				}
-			}
-		}
-		return true
-	}
-	gr := outlineGrid{g: max(1, int(math.Sqrt(float64(len(edges)/edgesPerCell)))), b: b}
-	g := gr.g
+	sc := outlineScratchPool.Get().(*outlineScratch)
+	defer outlineScratchPool.Put(sc)
+	o := &sc.edges
+	b := o.fill(mp, total)
+	g := max(1, int(math.Sqrt(float64(total/edgesPerCell))))
+	gr := outlineGrid{g: g, b: b}
 	if w := b.Max[0] - b.Min[0]; w > 0 {
 		gr.sx = float64(g) / w
 	}
@@ -256,47 +243,167 @@ func pairsValid(mp orb.MultiPolygon) bool {
 
 	// Cell lists in compressed rows: start[c] .. start[c+1] in list.
 	start := grownZero(&sc.start, g*g+1)
-	for i := range edges {
-		x0, y0, x1, y1 := gr.box(&edges[i])
+	o.edges(func(p int32) {
+		x0, y0, x1, y1 := gr.box(o, p)
 		for y := y0; y <= y1; y++ {
 			for x := x0; x <= x1; x++ {
 				start[y*g+x+1]++
 			}
 		}
-	}
+	})
 	for c := 1; c <= g*g; c++ {
 		start[c] += start[c-1]
 	}
 	list := grownZero(&sc.list, int(start[g*g]))
 	fill := append(grownZero(&sc.fill, 0), start[:g*g]...)
 	sc.fill = fill
-	for i := range edges {
-		x0, y0, x1, y1 := gr.box(&edges[i])
+	o.edges(func(p int32) {
+		x0, y0, x1, y1 := gr.box(o, p)
 		for y := y0; y <= y1; y++ {
 			for x := x0; x <= x1; x++ {
-				list[fill[y*g+x]] = int32(i)
+				list[fill[y*g+x]] = p
 				fill[y*g+x]++
 			}
 		}
-	}
-	for c := range g * g {
-		in := list[start[c]:start[c+1]]
-		for k, i := range in {
-			e := &edges[i]
-			for _, j := range in[k+1:] {
-				f := &edges[j]
-				lx := max(min(e.ax, e.bx), min(f.ax, f.bx))
-				ly := max(min(e.ay, e.by), min(f.ay, f.by))
-				if gr.cell(ly, b.Min[1], gr.sy)*g+gr.cell(lx, b.Min[0], gr.sx) != c {
-					continue // compared in another cell, or the boxes are apart
-				}
-				if !edgePairValid(e, f) {
+	})
+	rows := func(y0, y1 int, stop *atomic.Bool) bool {
+		for y := y0; y < y1; y++ {
+			if stop != nil && stop.Load() {
+				return false
+			}
+			for c := y * g; c < (y+1)*g; c++ {
+				if !gr.cellValid(o, c, list[start[c]:start[c+1]]) {
 					return false
 				}
 			}
 		}
+		return true
+	}
+	if total <= parallelEdges {
+		return rows(0, g, nil)
+	}
+	var failed atomic.Bool
+	planar.ParallelChunks(g, max(1, g/(8*runtime.GOMAXPROCS(0))), 0, func(_, y0, y1 int) {
+		if !rows(y0, y1, &failed) {
+			failed.Store(true)
+		}
+	})
+	return !failed.Load()
+}
+
+// parallelEdges is the edge count beyond which pairsValid compares the
+// grid's cells on all processors (the covered area of a large site).
+const parallelEdges = 1 << 16
+
+// cellValid compares the pairs of edges listed in cell c (in) whose box
+// overlap has its lower-left corner in c.
+func (gr *outlineGrid) cellValid(o *outlineEdges, c int, in []int32) bool {
+	xy := o.xy
+	for k, i := range in {
+		ex0, ex1 := min(xy[2*i], xy[2*i+2]), max(xy[2*i], xy[2*i+2])
+		ey0, ey1 := min(xy[2*i+1], xy[2*i+3]), max(xy[2*i+1], xy[2*i+3])
+		var e outlineEdge
+		built := false
+		for _, j := range in[k+1:] {
+			fx0, fx1 := min(xy[2*j], xy[2*j+2]), max(xy[2*j], xy[2*j+2])
+			fy0, fy1 := min(xy[2*j+1], xy[2*j+3]), max(xy[2*j+1], xy[2*j+3])
+			if ex1 < fx0 || fx1 < ex0 || ey1 < fy0 || fy1 < ey0 {
+				continue // the boxes are apart: nothing to compare
+			}
+			lx, ly := max(ex0, fx0), max(ey0, fy0)
+			if gr.cell(ly, gr.b.Min[1], gr.sy)*gr.g+gr.cell(lx, gr.b.Min[0], gr.sx) != c {
+				continue // compared in another cell
+			}
+			if !built {
+				e, built = o.edge(i), true
+			}
+			f := o.edge(j)
+			if !edgePairValid(&e, &f) {
+				return false
+			}
+		}
 	}
 	return true
+}
+
+// smallValid is pairsValid for an outline of at most bruteForceEdges
+// edges: all pairs, without allocation.
+func smallValid(mp orb.MultiPolygon) bool {
+	var small [bruteForceEdges]outlineEdge
+	edges := small[:0]
+	ring := int32(0)
+	for _, p := range mp {
+		for _, r := range p {
+			n := int32(len(r) - 1)
+			for i := int32(0); i < n; i++ {
+				edges = append(edges, outlineEdge{r[i][0], r[i][1], r[i+1][0], r[i+1][1], ring, i, n})
+			}
+			ring++
+		}
+	}
+	for i := range edges {
+		for j := i + 1; j < len(edges); j++ {
+			if !edgePairValid(&edges[i], &edges[j]) {
+				return false
+			}
+		}
+	}
+	return true
+}
+
+// outlineEdges holds the edges of an outline for pairsValid compactly:
+// the positions of its rings, ring after ring, each ring's positions as
+// given (closed); edge p runs from position p to position p+1, for every
+// position p but the last of its ring.
+type outlineEdges struct {
+	xy        []float64 // x, y of each position
+	ring      []int32   // the ring of each position
+	ringStart []int32   // the first position of each ring, then the end
+}
+
+// fill loads the rings of mp (total edges in all) into o and returns the
+// bounding box of the edges' first ends.
+func (o *outlineEdges) fill(mp orb.MultiPolygon, total int) orb.Bound {
+	rings := 0
+	for _, p := range mp {
+		rings += len(p)
+	}
+	o.xy = slices.Grow(o.xy[:0], 2*(total+rings))
+	o.ring = slices.Grow(o.ring[:0], total+rings)
+	o.ringStart = slices.Grow(o.ringStart[:0], rings+1)
+	b := orb.Bound{Min: orb.Point{math.Inf(1), math.Inf(1)}, Max: orb.Point{math.Inf(-1), math.Inf(-1)}}
+	k := int32(0)
+	for _, p := range mp {
+		for _, r := range p {
+			o.ringStart = append(o.ringStart, int32(len(o.ring)))
+			for i, q := range r {
+				o.xy = append(o.xy, q[0], q[1])
+				o.ring = append(o.ring, k)
+				if i < len(r)-1 {
+					b = b.Extend(q)
+				}
+			}
+			k++
+		}
+	}
+	o.ringStart = append(o.ringStart, int32(len(o.ring)))
+	return b
+}
+
+// edges calls f with each edge (its first position) in order.
+func (o *outlineEdges) edges(f func(p int32)) {
+	for k := 0; k+1 < len(o.ringStart); k++ {
+		for p := o.ringStart[k]; p < o.ringStart[k+1]-1; p++ {
+			f(p)
+		}
+	}
+}
+
+// edge returns edge p as an outlineEdge.
+func (o *outlineEdges) edge(p int32) outlineEdge {
+	k := o.ring[p]
+	s := o.ringStart[k]
+	return outlineEdge{o.xy[2*p], o.xy[2*p+1], o.xy[2*p+2], o.xy[2*p+3], k, p - s, o.ringStart[k+1] - s - 1}
 }
 
 // convexRing reports whether the closed ring r turns left at every
@@ -350,16 +457,18 @@ func (gr *outlineGrid) cell(v, lo, s float64) int {
 	return min(gr.g-1, max(0, int((v-lo)*s)))
 }
 
-// box returns the columns and rows of the cells an edge's box covers.
-func (gr *outlineGrid) box(e *outlineEdge) (x0, y0, x1, y1 int) {
-	return gr.cell(min(e.ax, e.bx), gr.b.Min[0], gr.sx), gr.cell(min(e.ay, e.by), gr.b.Min[1], gr.sy),
-		gr.cell(max(e.ax, e.bx), gr.b.Min[0], gr.sx), gr.cell(max(e.ay, e.by), gr.b.Min[1], gr.sy)
+// box returns the columns and rows of the cells the box of edge p of o
+// covers.
+func (gr *outlineGrid) box(o *outlineEdges, p int32) (x0, y0, x1, y1 int) {
+	ax, ay, bx, by := o.xy[2*p], o.xy[2*p+1], o.xy[2*p+2], o.xy[2*p+3]
+	return gr.cell(min(ax, bx), gr.b.Min[0], gr.sx), gr.cell(min(ay, by), gr.b.Min[1], gr.sy),
+		gr.cell(max(ax, bx), gr.b.Min[0], gr.sx), gr.cell(max(ay, by), gr.b.Min[1], gr.sy)
 }
 
 // outlineScratch holds outlineValid's buffers for large outlines, reused
 // through outlineScratchPool (a layer checks one outline after another).
 type outlineScratch struct {
-	edges             []outlineEdge
+	edges             outlineEdges
 	start, list, fill []int32
 }
 

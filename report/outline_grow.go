@@ -62,8 +62,10 @@ package report
 import (
 	"fmt"
 	"math"
+	"runtime"
 	"slices"
 	"sync"
+	"sync/atomic"
 
 	"github.com/paulmach/orb"
 	"github.com/sitecover/sitecover/planar"
@@ -273,39 +275,154 @@ const (
 	maxSlide     = 64
 )
 
-// offsetScratch is the memory of offsetOutline, reused from feature to
-// feature by a layer (in its polyBuf): the per-edge arrays of one ring
-// and the moved multipolygon (valid until the next offsetOutline).
+// offsetScratch is the memory of offsetRing, reused from ring to ring and
+// from feature to feature by a layer (in its polyBuf): the per-edge arrays
+// of one ring and the moved ring.
 type offsetScratch struct {
 	pts         []orb.Point
 	ux, uy      []float64
 	area, first []int32
 	out         []orb.Point
-	rings       []orb.Ring
-	polys       orb.MultiPolygon
 }
 
-// offsetOutline returns mp with each ring moved by d (offsetRing; d > 0
-// grows, d < 0 shrinks), in the memory of sc, or false when a ring cannot
-// be moved.
-func (s *scene) offsetOutline(sc *offsetScratch, mp orb.MultiPolygon, d float64) (orb.MultiPolygon, bool) {
+// moveRing returns the ring r moved by d (offsetRing) in the memory of
+// sc, valid until its next use; false when it cannot be moved.
+func (sc *offsetScratch) moveRing(r orb.Ring, d float64, ae *areaEdges) (orb.Ring, bool) {
+	out, ok := sc.offsetRing(r, d, ae)
+	sc.out = out[:0]
+	return out, ok
+}
+
+// offsetRoundInto is roundInto of mp with each ring first moved by d
+// (offsetRing; d > 0 grows, d < 0 shrinks), into the memory of b; false
+// when a ring cannot be moved. Each ring is moved and at once converted,
+// so the moved outline is never held whole; the rings of a feature of
+// more than parallelPoints positions (the covered area of a large site,
+// one part with a hole per gap) are moved and converted in chunks on all
+// processors (offsetRoundChunks), with the same result.
+func (s *scene) offsetRoundInto(b *polyBuf, mp orb.MultiPolygon, d float64) (orb.MultiPolygon, bool) {
 	ae := s.areaIndex()
-	sc.out, sc.rings, sc.polys = sc.out[:0], sc.rings[:0], sc.polys[:0]
-	for _, p := range mp {
-		r0 := len(sc.rings)
-		for _, r := range p {
-			start := len(sc.out)
-			ok := false
-			if sc.out, ok = sc.offsetRing(r, d, ae); !ok {
+	if n := outlinePoints(mp); n > parallelPoints && runtime.GOMAXPROCS(0) > 1 {
+		return s.offsetRoundChunks(b, mp, d, ae)
+	}
+	return s.offsetRoundRings(b, mp, d, ae)
+}
+
+// offsetRoundRings is offsetRoundInto ring after ring.
+func (s *scene) offsetRoundRings(b *polyBuf, mp orb.MultiPolygon, d float64, ae *areaEdges) (orb.MultiPolygon, bool) {
+	b.reset()
+	b.reserve(mp)
+	for _, poly := range mp {
+		r0 := len(b.rings)
+		dropped := false
+		for k, r := range poly {
+			moved, ok := b.off.moveRing(r, d, ae)
+			if !ok {
 				return nil, false
 			}
-			end := len(sc.out)
-			sc.rings = append(sc.rings, sc.out[start:end:end])
+			// As roundInto: a polygon whose exterior degenerates keeps
+			// none of its rings (the others are still moved: one that
+			// cannot be fails the feature).
+			if !dropped && !s.addRing(b, planar.FlatRing(moved), k == 0) && k == 0 {
+				dropped = true
+			}
 		}
-		n := len(sc.rings)
-		sc.polys = append(sc.polys, sc.rings[r0:n:n])
+		b.endPolygon(r0)
 	}
-	return sc.polys, true
+	return b.polys, true
+}
+
+// parallelPoints is the number of positions beyond which offsetRoundInto
+// works in chunks of rings on all processors.
+const parallelPoints = 1 << 16
+
+// outlinePoints returns the number of positions of mp's rings.
+func outlinePoints(mp orb.MultiPolygon) int {
+	n := 0
+	for _, p := range mp {
+		for _, r := range p {
+			n += len(r)
+		}
+	}
+	return n
+}
+
+// ringChunk is the conversion of a run of consecutive rings of one
+// feature (offsetRoundChunks): the kept rings in buf, and for each ring of
+// the run its index in buf.rings, or −1 when it degenerated.
+type ringChunk struct {
+	buf  polyBuf
+	slot []int32
+}
+
+// offsetRoundChunks is offsetRoundInto working on chunks of consecutive
+// rings in parallel, each moved and converted into a ringChunk of b; the
+// polygons are then put together in order from the kept rings (a polygon
+// whose exterior degenerated keeps none, as in roundInto).
+func (s *scene) offsetRoundChunks(b *polyBuf, mp orb.MultiPolygon, d float64, ae *areaEdges) (orb.MultiPolygon, bool) {
+	b.reset()
+	all := b.all[:0]
+	first := b.first[:0] // the index in all of each polygon's exterior
+	for _, p := range mp {
+		first = append(first, len(all))
+		all = append(all, p...)
+	}
+	b.all, b.first = all, first
+	exterior := func(g int) bool {
+		_, found := slices.BinarySearch(first, g)
+		return found
+	}
+	chunk := max(256, len(all)/(16*runtime.GOMAXPROCS(0)))
+	nc := (len(all) + chunk - 1) / chunk
+	for len(b.chunks) < nc {
+		b.chunks = append(b.chunks, new(ringChunk))
+	}
+	var failed atomic.Bool
+	planar.ParallelChunks(len(all), chunk, 0, func(ci, lo, hi int) {
+		c := b.chunks[ci]
+		c.buf.reset()
+		c.buf.reserve(orb.MultiPolygon{all[lo:hi]})
+		c.slot = slices.Grow(c.slot[:0], hi-lo)
+		for g := lo; g < hi; g++ {
+			if failed.Load() {
+				return
+			}
+			moved, ok := c.buf.off.moveRing(all[g], d, ae)
+			if !ok {
+				failed.Store(true)
+				return
+			}
+			slot := int32(-1)
+			if s.addRing(&c.buf, planar.FlatRing(moved), exterior(g)) {
+				slot = int32(len(c.buf.rings) - 1)
+			}
+			c.slot = append(c.slot, slot)
+		}
+	})
+	if failed.Load() {
+		return nil, false
+	}
+	b.rings = slices.Grow(b.rings[:0], len(all))
+	for p, g0 := range first {
+		g1 := len(all)
+		if p+1 < len(first) {
+			g1 = first[p+1]
+		}
+		r0 := len(b.rings)
+		for g := g0; g < g1; g++ {
+			c := b.chunks[g/chunk]
+			slot := c.slot[g%chunk]
+			if slot < 0 {
+				if g == g0 {
+					break // the exterior degenerated: the polygon goes
+				}
+				continue
+			}
+			b.rings = append(b.rings, c.buf.rings[slot])
+		}
+		b.endPolygon(r0)
+	}
+	return b.polys, true
 }
 
 // offsetRing moves every edge of the closed ring r that is not on an area

@@ -166,3 +166,104 @@ func TestConvexRingAgreesWithPairs(t *testing.T) {
 		t.Errorf("only %d rings accepted", accepted)
 	}
 }
+
+// TestOutlineValidParallel checks outlines beyond parallelEdges, whose
+// grid cells pairsValid compares in bands on all processors: a square with
+// a lattice of square holes is valid, and a single bad contact anywhere
+// (a hole crossing its neighbour, or the exterior) makes it invalid.
+func TestOutlineValidParallel(t *testing.T) {
+	// 150 holes per row: 4·150² = 90 000 hole edges.
+	const per = 150
+	hole := func(x, y, w float64) orb.Ring { // clockwise
+		return closed(x, y, x, y+w, x+w, y+w, x+w, y)
+	}
+	lattice := func(bad func(i, j int) (float64, float64, float64)) orb.MultiPolygon {
+		p := orb.Polygon{bigSquare(float64(per+1), 64)}
+		for i := range per {
+			for j := range per {
+				x, y, w := float64(i)+0.5, float64(j)+0.5, 0.5
+				if bad != nil {
+					x, y, w = bad(i, j)
+				}
+				p = append(p, hole(x, y, w))
+			}
+		}
+		return orb.MultiPolygon{p}
+	}
+	if !outlineValid(lattice(nil)) {
+		t.Fatal("a lattice of separate holes is refused")
+	}
+	for _, at := range [][2]int{{0, 0}, {per / 2, per / 3}, {per - 1, per - 1}, {per - 1, 0}} {
+		cross := func(i, j int) (float64, float64, float64) {
+			if i == at[0] && j == at[1] {
+				return float64(i) + 0.5, float64(j) + 0.5, 1.2 // reaches into its neighbours
+			}
+			return float64(i) + 0.5, float64(j) + 0.5, 0.5
+		}
+		if at[0] == per-1 && at[1] == per-1 {
+			// The last hole reaches out of the exterior instead.
+			cross = func(i, j int) (float64, float64, float64) {
+				if i == at[0] && j == at[1] {
+					return float64(i) + 0.5, float64(j) + 0.5, 1.6
+				}
+				return float64(i) + 0.5, float64(j) + 0.5, 0.4
+			}
+		}
+		if outlineValid(lattice(cross)) {
+			t.Errorf("a lattice with a bad hole at %v is accepted", at)
+		}
+	}
+}
+
+// TestPairsValidAgreesWithAllPairs compares the grid check with the
+// comparison of every pair of edges on random outlines of a few rings on
+// a coarse grid (so that contacts of every kind occur).
+func TestPairsValidAgreesWithAllPairs(t *testing.T) {
+	rng := rand.New(rand.NewPCG(11, 12))
+	valid := 0
+	for range 3000 {
+		var mp orb.MultiPolygon
+		for range 1 + rng.IntN(3) {
+			var p orb.Polygon
+			for range 1 + rng.IntN(3) {
+				n := 4 + rng.IntN(20)
+				cx, cy := float64(rng.IntN(20)), float64(rng.IntN(20))
+				var pts []float64
+				for k := range n {
+					a := 2 * math.Pi * (float64(k) + 0.5*rng.Float64()) / float64(n)
+					rad := 2 + 6*rng.Float64()
+					pts = append(pts, math.Round(cx+rad*math.Cos(a)), math.Round(cy+rad*math.Sin(a)))
+				}
+				p = append(p, closed(pts...))
+			}
+			mp = append(mp, p)
+		}
+		var o outlineEdges
+		total := 0
+		for _, p := range mp {
+			for _, r := range p {
+				total += len(r) - 1
+			}
+		}
+		o.fill(mp, total)
+		want := true
+		for i := range int32(len(o.ring)) {
+			for j := i + 1; j < int32(len(o.ring)) && want; j++ {
+				if i+1 == o.ringStart[o.ring[i]+1] || j+1 == o.ringStart[o.ring[j]+1] {
+					continue // a ring's last position starts no edge
+				}
+				e, f := o.edge(i), o.edge(j)
+				want = edgePairValid(&e, &f)
+			}
+		}
+		if want {
+			valid++
+		}
+		if got := pairsValid(mp); got != want {
+			t.Fatalf("pairsValid = %v, every pair says %v, on %v", got, want, mp)
+		}
+	}
+	if valid < 100 {
+		t.Errorf("only %d valid outlines", valid)
+	}
+}

@@ -1086,11 +1086,13 @@ func TestLiveLayersAgainstGEOS(t *testing.T) {
 }
 
 // appendNum's integer path must print exactly what strconv's shortest
-// round-trip formatting prints (reference: strconv.AppendFloat 'f', -1).
+// round-trip formatting prints (reference: strconv.AppendFloat 'f', -1),
+// and null for what is not finite.
 func TestAppendNumMatchesStrconv(t *testing.T) {
 	rng := rand.New(rand.NewPCG(3, 4))
 	vals := []float64{0, 1, -1, 0.5, -0.5, 1e-7, -1e-7, 12.3456789, -98.9833163, 44.0761164, 179.9999999, -180, 89.9999999,
-		99999999.9999999, 1e8, 1e8 + 0.5, 4484124.434, 127106.467, 0.1 + 0.2, math.Pi, 1e300, 5e-324}
+		99999999.9999999, 1e8, 1e8 + 0.5, 4484124.434, 127106.467, 0.1 + 0.2, math.Pi, 1e300, 5e-324,
+		5e-8, -5e-8, 1.5e-7, -2.5e-7, 0.12345675, -0.12345665, math.NaN(), math.Inf(1), math.Inf(-1)}
 	for range 200000 {
 		v := (rng.Float64()*2 - 1) * math.Pow(10, float64(rng.IntN(10)))
 		vals = append(vals, v, round(v, 7), round(v, 3), round(v, rng.IntN(8)))
@@ -1098,6 +1100,9 @@ func TestAppendNumMatchesStrconv(t *testing.T) {
 	for _, v := range vals {
 		got := string(appendNum(nil, v))
 		want := strconv.FormatFloat(v, 'f', -1, 64)
+		if math.IsNaN(v) || math.IsInf(v, 0) {
+			want = "null"
+		}
 		if got != want {
 			t.Fatalf("appendNum(%v) = %s, strconv %s", v, got, want)
 		}

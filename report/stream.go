@@ -1,7 +1,7 @@
 // Streamed output files: every file of a report is written through a
 // buffered writer straight into its staging file, and hashed (SHA-256) and
 // counted on the way for the manifest, so no file is ever held whole in
-// memory.
+// memory; the writing and hashing run beside the producer (pipeWriter).
 //
 // Layers: one feature stream, two encoders. A layer is described once
 // (layerDef: its GeoPackage table name, geometry type, fields and the
@@ -15,7 +15,6 @@
 package report
 
 import (
-	"bufio"
 	"crypto/sha256"
 	"encoding/hex"
 	"hash"
@@ -25,42 +24,108 @@ import (
 	"strconv"
 	"strings"
 	"sync"
+	"sync/atomic"
 
 	"github.com/paulmach/orb"
 	"github.com/sitecover/sitecover/report/gpkg"
 )
 
-// streamBuffer is the size of the buffer between a producer and its file:
-// large enough that writes are few, small against any output.
+// streamBuffer is the size of the text a layer gathers before handing it
+// on to its file (geoJSONFlush).
 const streamBuffer = 256 << 10
 
-// hashingFile counts and hashes what is written to its file.
-type hashingFile struct {
-	f *os.File
-	h hash.Hash
-	n int64
+// streamChunk is the size of the chunks pipeWriter hands to its writing
+// goroutine.
+const streamChunk = 1 << 20
+
+// pipeWriter gathers what a producer writes into chunks of streamChunk
+// bytes and hands each full one to a goroutine of its own, which writes
+// it to the file and hashes and counts it, while the producer fills the
+// other chunk: the encoding of a layer does not wait for the file system
+// or the checksum. Two chunks in all, so a file holds at most 2 MiB in
+// memory.
+type pipeWriter struct {
+	cur    []byte      // the chunk being filled
+	full   chan []byte // chunks to write
+	free   chan []byte // chunks written, to fill again
+	done   chan struct{}
+	failed atomic.Bool // set once err is
+	// Owned by the writing goroutine until done is closed (err also
+	// once failed is set).
+	f   *os.File
+	h   hash.Hash
+	n   int64
+	err error
 }
 
-func (w *hashingFile) Write(p []byte) (int, error) {
-	n, err := w.f.Write(p)
-	w.h.Write(p[:n])
-	w.n += int64(n)
-	return n, err
+func newPipeWriter(f *os.File) *pipeWriter {
+	w := &pipeWriter{full: make(chan []byte, 2), free: make(chan []byte, 2), done: make(chan struct{}), f: f, h: sha256.New()}
+	w.cur = make([]byte, 0, streamChunk)
+	w.free <- make([]byte, 0, streamChunk)
+	go w.run()
+	return w
+}
+
+// run writes and hashes the chunks handed on, in order; after a write
+// error it only hands them back.
+func (w *pipeWriter) run() {
+	defer close(w.done)
+	for b := range w.full {
+		if w.err == nil {
+			n, err := w.f.Write(b)
+			w.h.Write(b[:n])
+			w.n += int64(n)
+			if err != nil {
+				w.err = err
+				w.failed.Store(true)
+			}
+		}
+		w.free <- b[:0]
+	}
+}
+
+// Write copies p into the chunks, handing each on as it fills; it fails
+// with the file's first write error once that is known.
+func (w *pipeWriter) Write(p []byte) (int, error) {
+	if w.failed.Load() {
+		return 0, w.err
+	}
+	n := len(p)
+	for len(p) > 0 {
+		if len(w.cur) == cap(w.cur) {
+			w.full <- w.cur
+			w.cur = <-w.free
+		}
+		k := copy(w.cur[len(w.cur):cap(w.cur)], p)
+		w.cur = w.cur[:len(w.cur)+k]
+		p = p[k:]
+	}
+	return n, nil
+}
+
+// close hands on what is left, waits for the writing goroutine and
+// returns its first write error.
+func (w *pipeWriter) close() error {
+	if len(w.cur) > 0 {
+		w.full <- w.cur
+	}
+	close(w.full)
+	<-w.done
+	return w.err
 }
 
 // storeStream creates path (a new file in the staging folder), lets write
-// fill it through a buffer, syncs it and returns its size and SHA-256
+// fill it through a pipeWriter, syncs it and returns its size and SHA-256
 // checksum.
 func storeStream(path string, write func(io.Writer) error) (int64, string, error) {
 	f, err := os.OpenFile(path, os.O_WRONLY|os.O_CREATE|os.O_EXCL, 0o644)
 	if err != nil {
 		return 0, "", unwrapPath(err)
 	}
-	hf := &hashingFile{f: f, h: sha256.New()}
-	bw := bufio.NewWriterSize(hf, streamBuffer)
-	err = write(bw)
-	if err == nil {
-		err = bw.Flush()
+	pw := newPipeWriter(f)
+	err = write(pw)
+	if cerr := pw.close(); err == nil {
+		err = cerr
 	}
 	if err == nil {
 		err = f.Sync()
@@ -71,7 +136,7 @@ func storeStream(path string, write func(io.Writer) error) (int64, string, error
 	if err != nil {
 		return 0, "", unwrapPath(err)
 	}
-	return hf.n, hex.EncodeToString(hf.h.Sum(nil)), nil
+	return pw.n, hex.EncodeToString(pw.h.Sum(nil)), nil
 }
 
 // hashFile returns the size and SHA-256 checksum of a finished file (the
@@ -125,6 +190,9 @@ type layerDef struct {
 	geom   gpkg.GeometryType // declared geometry type
 	fields []gpkg.Field      // property names and types, in order
 	each   func(emit emitFunc) error
+	// lead marks a layer whose features take long to produce (one huge
+	// feature): writeAll starts it before the other steps.
+	lead bool
 }
 
 // tableName returns the GeoPackage table of a GeoJSON layer file name.

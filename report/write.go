@@ -150,6 +150,7 @@ func (w *writer) writeAll(s *scene, steps []step) error {
 			return fmt.Errorf("%s: cannot write: %v", w.set.finalPath(steps[gpAt].name), err)
 		}
 	}
+	order := leadFirst(steps)
 	workers := min(runtime.GOMAXPROCS(0), len(steps))
 	var next int
 	var mu sync.Mutex // guards next and the progress callback
@@ -158,15 +159,16 @@ func (w *writer) writeAll(s *scene, steps []step) error {
 		producing.Go(func() {
 			for {
 				mu.Lock()
-				i := next
+				if next >= len(order) {
+					mu.Unlock()
+					return
+				}
+				i := order[next]
 				next++
-				if i < len(steps) && w.progress != nil && !steps[i].gpkg && steps[i].running == nil {
+				if w.progress != nil && !steps[i].gpkg && steps[i].running == nil {
 					w.progress(steps[i].name)
 				}
 				mu.Unlock()
-				if i >= len(steps) {
-					return
-				}
 				st := steps[i]
 				if st.gpkg || st.running != nil {
 					continue
@@ -222,6 +224,25 @@ func (w *writer) writeAll(s *scene, steps []step) error {
 	}
 	w.done = append(w.done, w.set.finalPath(FileManifest))
 	return nil
+}
+
+// leadFirst returns the order in which writeAll starts steps: the layer
+// steps marked lead (a layer of one huge feature, converted and checked
+// in one piece: the covered area) first, so that the longest step is not
+// the last to begin, then the others in step order.
+func leadFirst(steps []step) []int {
+	order := make([]int, 0, len(steps))
+	for i, st := range steps {
+		if st.layer != nil && st.layer.lead {
+			order = append(order, i)
+		}
+	}
+	for i, st := range steps {
+		if st.layer == nil || !st.layer.lead {
+			order = append(order, i)
+		}
+	}
+	return order
 }
 
 // closeGeoPackage completes the GeoPackage (its R-trees and bounding
