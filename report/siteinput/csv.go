@@ -166,6 +166,12 @@ func numericLine(fields []string) bool {
 	return false
 }
 
+// csvPresize is the most rows pointsFromCSV reserves room for before
+// reading: 2²⁴ (about 17 million rows, 600 MB of slices, whose fresh
+// pages the operating system provides only as they fill); beyond it the
+// slices grow as they fill.
+const csvPresize = 1 << 24
+
 // pointsFromCSV reads points from CSV as described in the file comment.
 // With withWeight a "weight" column is recognised too: weights then holds
 // one finite weight ≥ 0 per point (nil when the header has no weight
@@ -189,6 +195,10 @@ func pointsFromCSV(src Source, planarInput, withWeight bool) (s *siteSet, weight
 	decimalComma := comma != ','
 	need := max(l.xi, l.yi, l.wkt, l.weight) + 1
 	s = &siteSet{Lines: true}
+	// One row per line at most: sized once from the line count (capped at
+	// csvPresize rows), the per-site slices are not copied as they grow.
+	rows := min(bytes.Count(data, []byte{'\n'})+1, csvPresize)
+	s.Pts, s.Names, s.Src = make([]orb.Point, 0, rows), make([]string, 0, rows), make([]int32, 0, rows)
 	if l.rng >= 0 {
 		s.Ranges = []string{} // a range column is a range source even when empty
 	}
