@@ -79,7 +79,7 @@ func newLayoutRangesTimed(sites []orb.Point, ranges []float64, area *planar.Regi
 		return nil, 0, 0, err
 	}
 	if rangesEqual(ranges) {
-		l, t1, t2, err := newLayoutTimed(sites, area)
+		l, t1, t2, err := newLayoutTimed(sites, area, nil)
 		if err != nil {
 			return nil, 0, 0, err
 		}
