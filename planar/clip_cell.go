@@ -75,6 +75,7 @@ type clipRing struct {
 type clipWork struct {
 	c        *clipper
 	nb, tri  []int32
+	ab       aroundBuf // the chunk's whole cells' lists (aroundBatch)
 	cnx, cny []float64 // constraint normals p_j − p_v
 	ch       []float64 // |n|²/2
 	// Ring-vertex cache for the current cell.
@@ -114,8 +115,11 @@ func newClipWork(c *clipper) *clipWork {
 // wholeCell emits the complete (bounded) cell of v.
 func (w *clipWork) wholeCell(v int32, out *clipOut) {
 	c := w.c
-	w.nb, w.tri, _ = c.around(v, w.nb, w.tri)
-	nb, tri := w.nb, w.tri
+	nb, tri, ok := w.ab.lists(v)
+	if !ok {
+		w.nb, w.tri, _ = c.around(v, w.nb, w.tri)
+		nb, tri = w.nb, w.tri
+	}
 	m := len(tri)
 	px, py := c.xy[2*v], c.xy[2*v+1]
 	start := len(out.src)
