@@ -6,7 +6,8 @@
 // every step misses the cache. aroundBatch walks the cells of many
 // vertices in lock-step, one step of each per round: the loads of
 // different walks are independent, so the processor overlaps their misses.
-// The lists are those around gives, element for element.
+// The lists are those around gives, element for element. The cells'
+// corners are then gathered the same way, in a loop of independent loads.
 
 package planar
 
@@ -99,21 +100,34 @@ func (c *clipper) aroundBatch(lo, hi int32, b *aroundBuf) {
 			}
 		}
 	}
+	// The corners (circumcentres of the triangles), gathered in a loop of
+	// independent loads.
+	if cap(b.cc) < 2*len(b.tri) {
+		b.cc = make([]float64, 2*len(b.tri), 2*cap(b.tri))
+	}
+	b.cc = b.cc[:2*len(b.tri)]
+	cc := c.cc
+	for i, t := range b.tri {
+		b.cc[2*i], b.cc[2*i+1] = cc[2*t], cc[2*t+1]
+	}
 }
 
-// aroundBuf holds aroundBatch's lists for the vertices from lo on.
+// aroundBuf holds aroundBatch's lists for the vertices from lo on, and
+// the corner of each listed triangle (cc interleaved, like tri).
 type aroundBuf struct {
 	lo      int32
 	off, n  []int32
 	nb, tri []int32
+	cc      []float64
 }
 
-// lists returns the lists of v held in b, ok false when b has none.
-func (b *aroundBuf) lists(v int32) (nb, tri []int32, ok bool) {
+// lists returns the lists of v held in b and the corners of its
+// triangles, ok false when b has none.
+func (b *aroundBuf) lists(v int32) (nb, tri []int32, cc []float64, ok bool) {
 	i := int(v - b.lo)
 	if i < 0 || i >= len(b.n) || b.n[i] < 0 {
-		return nil, nil, false
+		return nil, nil, nil, false
 	}
 	o, k := b.off[i], b.n[i]
-	return b.nb[o : o+k], b.tri[o : o+k], true
+	return b.nb[o : o+k], b.tri[o : o+k], b.cc[2*o : 2*(o+k)], true
 }

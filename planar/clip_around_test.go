@@ -37,6 +37,7 @@ func TestAroundBatchMatchesAround(t *testing.T) {
 		}
 		nv := tri.NumVertices()
 		c := &clipper{t: tri, nv: nv, xy: tri.Coords, state: make([]uint8, nv)}
+		c.circumcentres()
 		for v := range c.state {
 			c.state[v] = clipInside
 			if v%7 == 3 {
@@ -53,7 +54,7 @@ func TestAroundBatchMatchesAround(t *testing.T) {
 				for v := lo; v < hi; v++ {
 					var bounded bool
 					nb, tr, bounded = c.around(v, nb, tr)
-					gnb, gtr, ok := b.lists(v)
+					gnb, gtr, gcc, ok := b.lists(v)
 					want := c.state[v] == clipInside && bounded && len(tr) <= aroundLaneCap
 					if ok != want {
 						t.Fatalf("%s: vertex %d (chunk %d): batched %v, want %v (bounded %v, degree %d)", name, v, chunk, ok, want, bounded, len(tr))
@@ -65,6 +66,11 @@ func TestAroundBatchMatchesAround(t *testing.T) {
 					kept++
 					if !slices.Equal(gnb, nb) || !slices.Equal(gtr, tr) {
 						t.Fatalf("%s: vertex %d: batched %v %v, around %v %v", name, v, gnb, gtr, nb, tr)
+					}
+					for k, q := range tr {
+						if gcc[2*k] != c.cc[2*q] || gcc[2*k+1] != c.cc[2*q+1] {
+							t.Fatalf("%s: vertex %d: corner %d is (%v, %v), want (%v, %v)", name, v, k, gcc[2*k], gcc[2*k+1], c.cc[2*q], c.cc[2*q+1])
+						}
 					}
 				}
 			}
