@@ -92,8 +92,7 @@ type Analysis struct {
 	// disks of radius Range (in the whole plane, not clipped to the area).
 	Pieces, EnclosedHoles int
 	// Timings lists the phases in order, each with its own elapsed time
-	// (the persistence overlaps the clipping, the full cover and the
-	// curve).
+	// (the persistence overlaps the full cover and the curve).
 	Timings []Timing
 }
 
@@ -116,27 +115,25 @@ func Analyze(sites []orb.Point, area *planar.Region, r float64, opt Options) (*A
 		tol = DefaultChordTolerance
 	}
 
-	// The persistence reads the triangulation only: it runs on its own
-	// goroutine beside the clipping, the full cover and the curve, and
-	// ends before the gaps start (their working set is the largest, and
-	// the two would add up at the peak). Each Timing is that phase's own
-	// elapsed time; the results are those of running the phases in turn.
-	a := &Analysis{Range: r}
-	var pers *phaseRun
-	l, tTri, tClip, err := newLayoutTimed(sites, area, func(t *planar.Triangulation) {
-		pers = startPhase(func() {
-			a.Persistence = ComputePersistence(t, NewFiltration(t))
-			a.Pieces, a.EnclosedHoles = a.Persistence.Betti(r)
-		})
-	})
+	l, tTri, tClip, err := newLayoutTimed(sites, area)
 	if err != nil {
-		pers.wait()
 		return nil, err
 	}
+	// The persistence reads the triangulation only: it runs on its own
+	// goroutine beside the full cover and the curve, filling the time a
+	// core would idle through the serial parts of either, and ends before
+	// the gaps start (their working set is the largest, and the two would
+	// add up at the peak; so would the clipping's, whence it starts after
+	// the clipping). Each Timing is that phase's own elapsed time; the
+	// results are those of running the phases in turn.
+	a := &Analysis{Layout: l, Range: r}
+	pers := startPhase(func() {
+		a.Persistence = ComputePersistence(l.Tri, NewFiltration(l.Tri))
+		a.Pieces, a.EnclosedHoles = a.Persistence.Betti(r)
+	})
 	if opt.LayoutReady != nil {
 		opt.LayoutReady(l)
 	}
-	a.Layout = l
 	a.Timings = append(a.Timings, Timing{"triangulate", tTri}, Timing{"clip", tClip})
 
 	t0 := time.Now()

@@ -32,14 +32,13 @@ import (
 // finite, the area is nil or has no area, or the geometry kernel rejects the
 // input.
 func NewLayout(sites []orb.Point, area *planar.Region) (*Layout, error) {
-	l, _, _, err := newLayoutTimed(sites, area, nil)
+	l, _, _, err := newLayoutTimed(sites, area)
 	return l, err
 }
 
 // newLayoutTimed is NewLayout returning the seconds spent triangulating and
-// clipping. afterTri, when not nil, is called with the triangulation as
-// soon as it is built, before the clipping (which only reads it).
-func newLayoutTimed(sites []orb.Point, area *planar.Region, afterTri func(*planar.Triangulation)) (*Layout, float64, float64, error) {
+// clipping.
+func newLayoutTimed(sites []orb.Point, area *planar.Region) (*Layout, float64, float64, error) {
 	if len(sites) == 0 {
 		return nil, 0, 0, errors.New("coverage: no sites")
 	}
@@ -61,9 +60,6 @@ func newLayoutTimed(sites []orb.Point, area *planar.Region, afterTri func(*plana
 		return nil, 0, 0, fmt.Errorf("coverage: triangulating %d sites: %w", len(sites), err)
 	}
 	t1 := time.Now()
-	if afterTri != nil {
-		afterTri(tri)
-	}
 	cells, err := planar.ClipCells(tri, area)
 	if err != nil {
 		return nil, 0, 0, fmt.Errorf("coverage: clipping Voronoi cells to the site area: %w", err)

@@ -79,7 +79,7 @@ func newLayoutRangesTimed(sites []orb.Point, ranges []float64, area *planar.Regi
 		return nil, 0, 0, err
 	}
 	if rangesEqual(ranges) {
-		l, t1, t2, err := newLayoutTimed(sites, area, nil)
+		l, t1, t2, err := newLayoutTimed(sites, area)
 		if err != nil {
 			return nil, 0, 0, err
 		}
