@@ -109,6 +109,7 @@ import (
 	"fmt"
 	"runtime"
 	"slices"
+	"sync"
 	"sync/atomic"
 
 	"github.com/paulmach/orb"
@@ -313,27 +314,31 @@ type clipOut struct {
 	area      []float64
 }
 
-// assemble produces the output for all sites in parallel chunks.
+// assemble produces the output for all sites in parallel chunks. Each
+// chunk is emitted into its worker's reused buffers, then appended to the
+// output arrays in chunk order (a chunk waits for the ones before it), so
+// that the output is written once and no copy of a chunk is held.
 func (c *clipper) assemble(st *clipStats) *Cells {
 	const chunk = 1 << 13
 	nchunks := (c.nv + chunk - 1) / chunk
-	outs := make([]clipOut, nchunks)
 	works := make(chan *clipWork, c.workers)
 	for i := 0; i < c.workers; i++ {
 		works <- newClipWork(c)
 	}
+	cells := &Cells{
+		SiteStart: make([]int32, c.nv+1),
+		Area:      make([]float64, c.nv),
+	}
+	cm := &clipCommit{cells: cells, nchunks: nchunks}
+	cm.turn = sync.NewCond(&cm.mu)
 	var crossed, inside atomic.Int64
 	ParallelChunks(c.nv, chunk, c.workers, func(ci, lo, hi int) {
 		w := <-works
 		defer func() { works <- w }()
-		out := &outs[ci]
-		n := hi - lo
-		out.sitePolys = make([]int32, 0, n)
-		out.area = make([]float64, 0, n)
-		out.polyRings = make([]int32, 0, n+16)
-		out.ringPts = make([]int32, 0, n+16)
-		out.xy = make([]float64, 0, 14*n)
-		out.src = make([]int32, 0, 7*n)
+		out := &w.out
+		out.sitePolys, out.area = out.sitePolys[:0], out.area[:0]
+		out.polyRings, out.ringPts = out.polyRings[:0], out.ringPts[:0]
+		out.xy, out.src = out.xy[:0], out.src[:0]
 		if !c.collinear {
 			c.aroundBatch(int32(lo), int32(hi), &w.ab)
 		}
@@ -357,53 +362,75 @@ func (c *clipper) assemble(st *clipStats) *Cells {
 			}
 			pi = pj
 		}
+		cm.commit(ci, lo, out)
 	})
 	st.crossed, st.inside = int(crossed.Load()), int(inside.Load())
-
-	// Concatenate chunk outputs in site order.
-	type offs struct{ poly, ring, pt int }
-	starts := make([]offs, nchunks+1)
-	for i := range outs {
-		o := &outs[i]
-		starts[i+1] = offs{starts[i].poly + len(o.polyRings), starts[i].ring + len(o.ringPts), starts[i].pt + len(o.src)}
+	cells.SiteStart[c.nv] = int32(len(cells.PolyStart))
+	cells.PolyStart = append(cells.PolyStart, int32(len(cells.RingStart)))
+	cells.RingStart = append(cells.RingStart, int32(len(cells.EdgeSource)))
+	if cells.XY == nil {
+		cells.XY, cells.EdgeSource = []float64{}, []int32{}
 	}
-	tot := starts[nchunks]
-	cells := &Cells{
-		SiteStart:  make([]int32, c.nv+1),
-		PolyStart:  make([]int32, tot.poly+1),
-		RingStart:  make([]int32, tot.ring+1),
-		XY:         make([]float64, 2*tot.pt),
-		EdgeSource: make([]int32, tot.pt),
-		Area:       make([]float64, c.nv),
-	}
-	ParallelChunks(nchunks, 1, c.workers, func(_, lo, hi int) {
-		for i := lo; i < hi; i++ {
-			o, s := &outs[i], starts[i]
-			v0 := i * chunk
-			p := int32(s.poly)
-			for k, n := range o.sitePolys {
-				cells.SiteStart[v0+k] = p
-				p += n
-			}
-			rg := int32(s.ring)
-			for k, n := range o.polyRings {
-				cells.PolyStart[s.poly+k] = rg
-				rg += n
-			}
-			pt := int32(s.pt)
-			for k, n := range o.ringPts {
-				cells.RingStart[s.ring+k] = pt
-				pt += n
-			}
-			copy(cells.XY[2*s.pt:], o.xy)
-			copy(cells.EdgeSource[s.pt:], o.src)
-			copy(cells.Area[v0:], o.area)
-		}
-	})
-	cells.SiteStart[c.nv] = int32(tot.poly)
-	cells.PolyStart[tot.poly] = int32(tot.ring)
-	cells.RingStart[tot.ring] = int32(tot.pt)
 	return cells
+}
+
+// clipCommit appends the chunks' outputs to cells in chunk order.
+type clipCommit struct {
+	mu      sync.Mutex
+	turn    *sync.Cond
+	next    int // the chunk to append next
+	nchunks int
+	cells   *Cells
+}
+
+// commit appends out, the output of chunk ci (sites from v0 on), once
+// chunks 0..ci-1 are appended: the sites' polygon starts, the polygons'
+// ring starts and the rings' point starts offset to the arrays so far,
+// the points and labels, and the areas.
+func (cm *clipCommit) commit(ci, v0 int, out *clipOut) {
+	cm.mu.Lock()
+	defer cm.mu.Unlock()
+	for cm.next != ci {
+		cm.turn.Wait()
+	}
+	cells := cm.cells
+	p := int32(len(cells.PolyStart))
+	for k, n := range out.sitePolys {
+		cells.SiteStart[v0+k] = p
+		p += n
+	}
+	cells.PolyStart = clipReserve(cells.PolyStart, len(out.polyRings)+1, ci, cm.nchunks)
+	rg := int32(len(cells.RingStart))
+	for _, n := range out.polyRings {
+		cells.PolyStart = append(cells.PolyStart, rg)
+		rg += n
+	}
+	cells.RingStart = clipReserve(cells.RingStart, len(out.ringPts)+1, ci, cm.nchunks)
+	pt := int32(len(cells.EdgeSource))
+	for _, n := range out.ringPts {
+		cells.RingStart = append(cells.RingStart, pt)
+		pt += n
+	}
+	cells.XY = append(clipReserve(cells.XY, len(out.xy)+2, ci, cm.nchunks), out.xy...)
+	cells.EdgeSource = append(clipReserve(cells.EdgeSource, len(out.src)+1, ci, cm.nchunks), out.src...)
+	copy(cells.Area[v0:], out.area)
+	cm.next++
+	cm.turn.Broadcast()
+}
+
+// clipReserve makes room in s for k more items appended by chunk ci of
+// nchunks: when it must grow, to the size the chunks so far project for
+// all of them (a sixteenth more), so that it rarely grows twice.
+func clipReserve[S ~[]E, E any](s S, k, ci, nchunks int) S {
+	need := len(s) + k
+	if need <= cap(s) {
+		return s
+	}
+	want := need + need/16
+	if ci+1 < nchunks {
+		want = max(want, int(int64(need)*int64(nchunks)/int64(ci+1)*17/16))
+	}
+	return slices.Grow(s, want-len(s))
 }
 
 // sortSearchInt32 returns the first index i with a[i] >= x (a sorted).
