@@ -325,9 +325,28 @@ func (c *clipper) assemble(st *clipStats) *Cells {
 	for i := 0; i < c.workers; i++ {
 		works <- newClipWork(c)
 	}
+	// The output sized at once for about what it holds: a cell's corners
+	// number at most its degree (the degrees average (len(Triangles) +
+	// len(Hull))/nv; the cells outside the area have none), a convex cell
+	// meets a ring edge in at most two points, and the area's vertices lie
+	// in a cell each (a few in several, on their boundaries). Beyond that
+	// the arrays grow (clipReserve).
+	nIn := 0
+	for _, s := range c.state {
+		if s == clipInside || s == clipCrossed {
+			nIn++
+		}
+	}
+	deg := int64(len(c.t.Triangles) + len(c.t.Hull))
+	nPts := int(int64(nIn)*deg/int64(c.nv)*51/50) + 2*len(c.pairSite) + 4*len(c.r.XY)/2 + 16
+	nRings := nIn + len(c.pairSite) + c.r.NumRings() + 1
 	cells := &Cells{
-		SiteStart: make([]int32, c.nv+1),
-		Area:      make([]float64, c.nv),
+		SiteStart:  make([]int32, c.nv+1),
+		PolyStart:  make([]int32, 0, nRings),
+		RingStart:  make([]int32, 0, nRings),
+		XY:         make([]float64, 0, 2*nPts),
+		EdgeSource: make([]int32, 0, nPts),
+		Area:       make([]float64, c.nv),
 	}
 	cm := &clipCommit{cells: cells, nchunks: nchunks}
 	cm.turn = sync.NewCond(&cm.mu)
@@ -368,9 +387,6 @@ func (c *clipper) assemble(st *clipStats) *Cells {
 	cells.SiteStart[c.nv] = int32(len(cells.PolyStart))
 	cells.PolyStart = append(cells.PolyStart, int32(len(cells.RingStart)))
 	cells.RingStart = append(cells.RingStart, int32(len(cells.EdgeSource)))
-	if cells.XY == nil {
-		cells.XY, cells.EdgeSource = []float64{}, []int32{}
-	}
 	return cells
 }
 
