@@ -91,8 +91,7 @@ type Analysis struct {
 	// Pieces and EnclosedHoles are the Betti numbers of the union of the
 	// disks of radius Range (in the whole plane, not clipped to the area).
 	Pieces, EnclosedHoles int
-	// Timings lists the phases in order, each with its own elapsed time
-	// (the persistence overlaps the full cover and the curve).
+	// Timings lists the phases in order.
 	Timings []Timing
 }
 
@@ -119,21 +118,10 @@ func Analyze(sites []orb.Point, area *planar.Region, r float64, opt Options) (*A
 	if err != nil {
 		return nil, err
 	}
-	// The persistence reads the triangulation only: it runs on its own
-	// goroutine beside the full cover and the curve, filling the time a
-	// core would idle through the serial parts of either, and ends before
-	// the gaps start (their working set is the largest, and the two would
-	// add up at the peak; so would the clipping's, whence it starts after
-	// the clipping). Each Timing is that phase's own elapsed time; the
-	// results are those of running the phases in turn.
-	a := &Analysis{Layout: l, Range: r}
-	pers := startPhase(func() {
-		a.Persistence = ComputePersistence(l.Tri, NewFiltration(l.Tri))
-		a.Pieces, a.EnclosedHoles = a.Persistence.Betti(r)
-	})
 	if opt.LayoutReady != nil {
 		opt.LayoutReady(l)
 	}
+	a := &Analysis{Layout: l, Range: r}
 	a.Timings = append(a.Timings, Timing{"triangulate", tTri}, Timing{"clip", tClip})
 
 	t0 := time.Now()
@@ -151,9 +139,14 @@ func Analyze(sites []orb.Point, area *planar.Region, r float64, opt Options) (*A
 	}
 	a.Timings = append(a.Timings, Timing{"curve", time.Since(t0).Seconds()})
 
-	tPers := pers.wait()
 	t0 = time.Now()
 	a.Gaps = l.Gaps(r, tol)
-	a.Timings = append(a.Timings, Timing{"gaps", time.Since(t0).Seconds()}, Timing{"persistence", tPers})
+	a.Timings = append(a.Timings, Timing{"gaps", time.Since(t0).Seconds()})
+
+	t0 = time.Now()
+	f := NewFiltration(l.Tri)
+	a.Persistence = ComputePersistence(l.Tri, f)
+	a.Pieces, a.EnclosedHoles = a.Persistence.Betti(r)
+	a.Timings = append(a.Timings, Timing{"persistence", time.Since(t0).Seconds()})
 	return a, nil
 }
