@@ -127,9 +127,10 @@ func (l *Layout) gapsAt(gp gapParams, chordTol float64, selfCheck bool) ([]Gap, 
 				t.piece(p, v, ch)
 			}
 		}
-		mg.commit(ci, ch)
 		t.l = nil
-		gapTracerPool.Put(t)
+		for _, done := range mg.commit(ci, t) {
+			gapTracerPool.Put(done)
+		}
 	})
 	m, anomalies := mg.finish()
 	// Portions overlapping by more than the rounding of the canonical
@@ -152,48 +153,58 @@ const gapPortionUlps = 64 * 0x1p-52
 
 // gapMerger concatenates the traced chunks into one gapMerged, converting
 // to global indices, in chunk order whatever order the chunks end in: a
-// chunk waits for the ones before it to be appended, then is appended
-// straight from the tracer's buffers, which are then free for the next
-// chunk. (Keeping an exact-size copy of every chunk until all were traced,
-// then concatenating, copied everything twice and held both copies at
-// once.)
+// chunk is appended straight from its tracer's buffers once the ones
+// before it are, its tracer parked meanwhile (the worker goes on with
+// another), then the tracer is free for the next chunk. (Keeping an
+// exact-size copy of every chunk until all were traced, then
+// concatenating, copied everything twice and held both copies at once.)
 type gapMerger struct {
 	mu        sync.Mutex
-	turn      *sync.Cond
-	next      int // the chunk to append next
-	nc        int // number of chunks
+	next      int          // the chunk to append next
+	parked    []*gapTracer // per chunk: traced, waiting for its turn
 	m         gapMerged
 	anomalies int
 }
 
 // newGapMerger returns a merger of nc chunks.
 func newGapMerger(nc int) *gapMerger {
-	g := &gapMerger{nc: nc}
-	g.turn = sync.NewCond(&g.mu)
-	return g
+	return &gapMerger{parked: make([]*gapTracer, nc)}
 }
 
-// commit appends chunk ci once chunks 0..ci-1 are appended.
-func (g *gapMerger) commit(ci int, ch *gapChunk) {
+// commit hands over chunk ci, traced in t.chunk, and appends every chunk
+// whose turn has come; it returns the tracers of the chunks appended, free
+// again.
+func (g *gapMerger) commit(ci int, t *gapTracer) (free []*gapTracer) {
 	g.mu.Lock()
 	defer g.mu.Unlock()
-	for g.next != ci {
-		g.turn.Wait()
+	g.parked[ci] = t
+	for g.next < len(g.parked) && g.parked[g.next] != nil {
+		t := g.parked[g.next]
+		g.parked[g.next] = nil
+		g.append(g.next, &t.chunk)
+		g.next++
+		free = append(free, t)
 	}
+	return free
+}
+
+// append appends chunk ci.
+func (g *gapMerger) append(ci int, ch *gapChunk) {
+	nc := len(g.parked)
 	m := &g.m
 	n0, l0, e0 := int32(len(m.nodes)), int32(len(m.loopElem)), int32(len(m.elems))
-	m.nodes = gapReserve(m.nodes, len(ch.nodes), ci, g.nc)
+	m.nodes = gapReserve(m.nodes, len(ch.nodes), ci, nc)
 	for _, nd := range ch.nodes {
 		nd.loop0 += l0
 		nd.loop1 += l0
 		m.nodes = append(m.nodes, nd)
 	}
-	m.loopElem = gapReserve(m.loopElem, len(ch.loopElem), ci, g.nc)
+	m.loopElem = gapReserve(m.loopElem, len(ch.loopElem), ci, nc)
 	for _, le := range ch.loopElem {
 		m.loopElem = append(m.loopElem, le+e0)
 	}
-	m.elems = append(gapReserve(m.elems, len(ch.elems), ci, g.nc), ch.elems...)
-	m.portions = gapReserve(m.portions, len(ch.portions), ci, g.nc)
+	m.elems = append(gapReserve(m.elems, len(ch.elems), ci, nc), ch.elems...)
+	m.portions = gapReserve(m.portions, len(ch.portions), ci, nc)
 	for _, p := range ch.portions {
 		if p.elem >= 0 {
 			p.elem += e0
@@ -202,8 +213,6 @@ func (g *gapMerger) commit(ci int, ch *gapChunk) {
 		m.portions = append(m.portions, p)
 	}
 	g.anomalies += ch.anomalies
-	g.next++
-	g.turn.Broadcast()
 }
 
 // gapReserve makes room in s for k more items appended by chunk ci of nc:

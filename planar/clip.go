@@ -315,9 +315,9 @@ type clipOut struct {
 }
 
 // assemble produces the output for all sites in parallel chunks. Each
-// chunk is emitted into its worker's reused buffers, then appended to the
-// output arrays in chunk order (a chunk waits for the ones before it), so
-// that the output is written once and no copy of a chunk is held.
+// chunk is emitted into a reused buffer, then appended to the output
+// arrays in chunk order (clipCommit), so that the output is written once
+// and no copy of it is held.
 func (c *clipper) assemble(st *clipStats) *Cells {
 	const chunk = 1 << 13
 	nchunks := (c.nv + chunk - 1) / chunk
@@ -348,13 +348,12 @@ func (c *clipper) assemble(st *clipStats) *Cells {
 		EdgeSource: make([]int32, 0, nPts),
 		Area:       make([]float64, c.nv),
 	}
-	cm := &clipCommit{cells: cells, nchunks: nchunks}
-	cm.turn = sync.NewCond(&cm.mu)
+	cm := &clipCommit{cells: cells, parked: make([]*clipOut, nchunks), chunk: chunk}
 	var crossed, inside atomic.Int64
 	ParallelChunks(c.nv, chunk, c.workers, func(ci, lo, hi int) {
 		w := <-works
 		defer func() { works <- w }()
-		out := &w.out
+		out := cm.buffer()
 		out.sitePolys, out.area = out.sitePolys[:0], out.area[:0]
 		out.polyRings, out.ringPts = out.polyRings[:0], out.ringPts[:0]
 		out.xy, out.src = out.xy[:0], out.src[:0]
@@ -381,7 +380,7 @@ func (c *clipper) assemble(st *clipStats) *Cells {
 			}
 			pi = pj
 		}
-		cm.commit(ci, lo, out)
+		cm.commit(ci, out)
 	})
 	st.crossed, st.inside = int(crossed.Load()), int(inside.Load())
 	cells.SiteStart[c.nv] = int32(len(cells.PolyStart))
@@ -390,48 +389,70 @@ func (c *clipper) assemble(st *clipStats) *Cells {
 	return cells
 }
 
-// clipCommit appends the chunks' outputs to cells in chunk order.
+// clipCommit appends the chunks' outputs to cells in chunk order: a
+// chunk's output buffer is parked until the chunks before it are appended
+// (its worker going on with another buffer), then appended and reused.
 type clipCommit struct {
-	mu      sync.Mutex
-	turn    *sync.Cond
-	next    int // the chunk to append next
-	nchunks int
-	cells   *Cells
+	mu     sync.Mutex
+	next   int        // the chunk to append next
+	parked []*clipOut // per chunk: emitted, waiting for its turn
+	free   []*clipOut // buffers appended, to reuse
+	chunk  int        // sites per chunk
+	cells  *Cells
 }
 
-// commit appends out, the output of chunk ci (sites from v0 on), once
-// chunks 0..ci-1 are appended: the sites' polygon starts, the polygons'
-// ring starts and the rings' point starts offset to the arrays so far,
-// the points and labels, and the areas.
-func (cm *clipCommit) commit(ci, v0 int, out *clipOut) {
+// buffer returns an output buffer to emit a chunk into.
+func (cm *clipCommit) buffer() *clipOut {
 	cm.mu.Lock()
 	defer cm.mu.Unlock()
-	for cm.next != ci {
-		cm.turn.Wait()
+	if n := len(cm.free); n > 0 {
+		out := cm.free[n-1]
+		cm.free = cm.free[:n-1]
+		return out
 	}
-	cells := cm.cells
+	return new(clipOut)
+}
+
+// commit hands over out, the output of chunk ci, and appends every chunk
+// whose turn has come.
+func (cm *clipCommit) commit(ci int, out *clipOut) {
+	cm.mu.Lock()
+	defer cm.mu.Unlock()
+	cm.parked[ci] = out
+	for cm.next < len(cm.parked) && cm.parked[cm.next] != nil {
+		o := cm.parked[cm.next]
+		cm.parked[cm.next] = nil
+		cm.append(cm.next, o)
+		cm.next++
+		cm.free = append(cm.free, o)
+	}
+}
+
+// append appends out, the output of chunk ci: the sites' polygon starts,
+// the polygons' ring starts and the rings' point starts offset to the
+// arrays so far, the points and labels, and the areas.
+func (cm *clipCommit) append(ci int, out *clipOut) {
+	cells, v0, nchunks := cm.cells, ci*cm.chunk, len(cm.parked)
 	p := int32(len(cells.PolyStart))
 	for k, n := range out.sitePolys {
 		cells.SiteStart[v0+k] = p
 		p += n
 	}
-	cells.PolyStart = clipReserve(cells.PolyStart, len(out.polyRings)+1, ci, cm.nchunks)
+	cells.PolyStart = clipReserve(cells.PolyStart, len(out.polyRings)+1, ci, nchunks)
 	rg := int32(len(cells.RingStart))
 	for _, n := range out.polyRings {
 		cells.PolyStart = append(cells.PolyStart, rg)
 		rg += n
 	}
-	cells.RingStart = clipReserve(cells.RingStart, len(out.ringPts)+1, ci, cm.nchunks)
+	cells.RingStart = clipReserve(cells.RingStart, len(out.ringPts)+1, ci, nchunks)
 	pt := int32(len(cells.EdgeSource))
 	for _, n := range out.ringPts {
 		cells.RingStart = append(cells.RingStart, pt)
 		pt += n
 	}
-	cells.XY = append(clipReserve(cells.XY, len(out.xy)+2, ci, cm.nchunks), out.xy...)
-	cells.EdgeSource = append(clipReserve(cells.EdgeSource, len(out.src)+1, ci, cm.nchunks), out.src...)
+	cells.XY = append(clipReserve(cells.XY, len(out.xy)+2, ci, nchunks), out.xy...)
+	cells.EdgeSource = append(clipReserve(cells.EdgeSource, len(out.src)+1, ci, nchunks), out.src...)
 	copy(cells.Area[v0:], out.area)
-	cm.next++
-	cm.turn.Broadcast()
 }
 
 // clipReserve makes room in s for k more items appended by chunk ci of

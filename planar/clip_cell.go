@@ -76,7 +76,6 @@ type clipWork struct {
 	c        *clipper
 	nb, tri  []int32
 	ab       aroundBuf // the chunk's whole cells' lists (aroundBatch)
-	out      clipOut   // the chunk's output, appended to the result in order
 	corners  []float64 // a cell's corners when ab has none
 	cnx, cny []float64 // constraint normals p_j − p_v
 	ch       []float64 // |n|²/2
