@@ -104,12 +104,14 @@ func (l *Layout) gapsAt(gp gapParams, chordTol float64, selfCheck bool) ([]Gap, 
 	c := l.Cells
 	nv := l.numVertices()
 	const chunk = 1024
-	mg := newGapMerger((nv + chunk - 1) / chunk)
+	nc := (nv + chunk - 1) / chunk
+	chunks := make([]gapChunk, nc)
 	planar.ParallelChunks(nv, chunk, 0, func(ci, lo, hi int) {
 		t := gapTracerPool.Get().(*gapTracer)
 		t.l, t.r, t.r2, t.selfCheck, t.keep = l, r, r*r, selfCheck, chordTol > 0 || gp.closing
-		// Trace into the tracer's reused buffers, then append them to the
-		// merged arrays in chunk order (mg.commit).
+		// Trace into the tracer's reused buffers, then keep an exact-size
+		// copy: appending to fresh slices would leave about twice the
+		// result in discarded backing arrays.
 		ch := &t.chunk
 		ch.reset()
 		for v := int32(lo); v < int32(hi); v++ {
@@ -127,12 +129,12 @@ func (l *Layout) gapsAt(gp gapParams, chordTol float64, selfCheck bool) ([]Gap, 
 				t.piece(p, v, ch)
 			}
 		}
+		chunks[ci] = ch.clone()
 		t.l = nil
-		for _, done := range mg.commit(ci, t) {
-			gapTracerPool.Put(done)
-		}
+		gapTracerPool.Put(t)
 	})
-	m, anomalies := mg.finish()
+	m, anomalies := gapMerge(chunks)
+	chunks = nil
 	// Portions overlapping by more than the rounding of the canonical
 	// coordinate (gapPortionUlps of the coordinates) are the same piece of
 	// bisector.
@@ -151,92 +153,50 @@ func (l *Layout) gapsAt(gp gapParams, chordTol float64, selfCheck bool) ([]Gap, 
 // above that and far below any real overlap of two different cells' pieces.
 const gapPortionUlps = 64 * 0x1p-52
 
-// gapMerger concatenates the traced chunks into one gapMerged, converting
-// to global indices, in chunk order whatever order the chunks end in: a
-// chunk is appended straight from its tracer's buffers once the ones
-// before it are, its tracer parked meanwhile (the worker goes on with
-// another), then the tracer is free for the next chunk. (Keeping an
-// exact-size copy of every chunk until all were traced, then
-// concatenating, copied everything twice and held both copies at once.)
-type gapMerger struct {
-	mu        sync.Mutex
-	next      int          // the chunk to append next
-	parked    []*gapTracer // per chunk: traced, waiting for its turn
-	m         gapMerged
-	anomalies int
-}
-
-// newGapMerger returns a merger of nc chunks.
-func newGapMerger(nc int) *gapMerger {
-	return &gapMerger{parked: make([]*gapTracer, nc)}
-}
-
-// commit hands over chunk ci, traced in t.chunk, and appends every chunk
-// whose turn has come; it returns the tracers of the chunks appended, free
-// again.
-func (g *gapMerger) commit(ci int, t *gapTracer) (free []*gapTracer) {
-	g.mu.Lock()
-	defer g.mu.Unlock()
-	g.parked[ci] = t
-	for g.next < len(g.parked) && g.parked[g.next] != nil {
-		t := g.parked[g.next]
-		g.parked[g.next] = nil
-		g.append(g.next, &t.chunk)
-		g.next++
-		free = append(free, t)
+// gapMerge concatenates the chunks, converting to global indices; the
+// chunks are copied into place at once, each freed once copied.
+func gapMerge(chunks []gapChunk) (*gapMerged, int) {
+	// Offsets of each chunk's nodes, loops, elements and portions.
+	off := make([][4]int, len(chunks)+1)
+	an := 0
+	for i := range chunks {
+		ch := &chunks[i]
+		o := off[i]
+		off[i+1] = [4]int{o[0] + len(ch.nodes), o[1] + len(ch.loopElem), o[2] + len(ch.elems), o[3] + len(ch.portions)}
+		an += ch.anomalies
 	}
-	return free
-}
-
-// append appends chunk ci.
-func (g *gapMerger) append(ci int, ch *gapChunk) {
-	nc := len(g.parked)
-	m := &g.m
-	n0, l0, e0 := int32(len(m.nodes)), int32(len(m.loopElem)), int32(len(m.elems))
-	m.nodes = gapReserve(m.nodes, len(ch.nodes), ci, nc)
-	for _, nd := range ch.nodes {
-		nd.loop0 += l0
-		nd.loop1 += l0
-		m.nodes = append(m.nodes, nd)
+	tot := off[len(chunks)]
+	m := &gapMerged{
+		nodes:    make([]gapNode, tot[0]),
+		loopElem: make([]int32, tot[1]+1),
+		elems:    make([]gapElem, tot[2]),
+		portions: make([]gapPortion, tot[3]),
 	}
-	m.loopElem = gapReserve(m.loopElem, len(ch.loopElem), ci, nc)
-	for _, le := range ch.loopElem {
-		m.loopElem = append(m.loopElem, le+e0)
-	}
-	m.elems = append(gapReserve(m.elems, len(ch.elems), ci, nc), ch.elems...)
-	m.portions = gapReserve(m.portions, len(ch.portions), ci, nc)
-	for _, p := range ch.portions {
-		if p.elem >= 0 {
-			p.elem += e0
+	planar.ParallelChunks(len(chunks), 1, 0, func(i, _, _ int) {
+		ch := &chunks[i]
+		o := off[i]
+		n0, l0, e0 := int32(o[0]), int32(o[1]), int32(o[2])
+		for k, nd := range ch.nodes {
+			nd.loop0 += l0
+			nd.loop1 += l0
+			m.nodes[o[0]+k] = nd
 		}
-		p.node += n0
-		m.portions = append(m.portions, p)
-	}
-	g.anomalies += ch.anomalies
-}
-
-// gapReserve makes room in s for k more items appended by chunk ci of nc:
-// when it must grow, to the size the chunks so far project for all nc
-// (an eighth more), so that it rarely grows twice.
-func gapReserve[S ~[]E, E any](s S, k, ci, nc int) S {
-	need := len(s) + k
-	if need <= cap(s) {
-		return s
-	}
-	want := need + need/8
-	if ci+1 < nc {
-		want = max(want, int(int64(need)*int64(nc)/int64(ci+1)*9/8))
-	}
-	return slices.Grow(s, want-len(s))
-}
-
-// finish returns the merged chunks (every chunk committed) and the number
-// of pieces that needed the fallback or failed the self-check.
-func (g *gapMerger) finish() (*gapMerged, int) {
-	m := &g.m
-	m.loopElem = append(m.loopElem, int32(len(m.elems)))
+		for k, le := range ch.loopElem {
+			m.loopElem[o[1]+k] = le + e0
+		}
+		copy(m.elems[o[2]:], ch.elems)
+		for k, p := range ch.portions {
+			if p.elem >= 0 {
+				p.elem += e0
+			}
+			p.node += n0
+			m.portions[o[3]+k] = p
+		}
+		*ch = gapChunk{}
+	})
+	m.loopElem[tot[1]] = int32(tot[2])
 	m.matched = make([]bool, len(m.elems))
-	return m, g.anomalies
+	return m, an
 }
 
 // union joins the components sharing bisector portions and returns the

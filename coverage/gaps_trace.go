@@ -50,6 +50,7 @@ package coverage
 
 import (
 	"math"
+	"slices"
 )
 
 // gapArc is the element kind of a circle arc.
@@ -116,6 +117,12 @@ type gapChunk struct {
 // reset empties c, keeping its buffers.
 func (c *gapChunk) reset() {
 	c.nodes, c.loopElem, c.elems, c.portions, c.anomalies = c.nodes[:0], c.loopElem[:0], c.elems[:0], c.portions[:0], 0
+}
+
+// clone returns a copy of c in exact-size slices (nil when empty).
+func (c *gapChunk) clone() gapChunk {
+	return gapChunk{nodes: slices.Clone(c.nodes), loopElem: slices.Clone(c.loopElem),
+		elems: slices.Clone(c.elems), portions: slices.Clone(c.portions), anomalies: c.anomalies}
 }
 
 // gapCross is a crossing of a ring edge with the circle.
