@@ -109,7 +109,6 @@ import (
 	"fmt"
 	"runtime"
 	"slices"
-	"sync"
 	"sync/atomic"
 
 	"github.com/paulmach/orb"
@@ -314,49 +313,27 @@ type clipOut struct {
 	area      []float64
 }
 
-// assemble produces the output for all sites in parallel chunks. Each
-// chunk is emitted into a reused buffer, then appended to the output
-// arrays in chunk order (clipCommit), so that the output is written once
-// and no copy of it is held.
+// assemble produces the output for all sites in parallel chunks.
 func (c *clipper) assemble(st *clipStats) *Cells {
 	const chunk = 1 << 13
 	nchunks := (c.nv + chunk - 1) / chunk
+	outs := make([]clipOut, nchunks)
 	works := make(chan *clipWork, c.workers)
 	for i := 0; i < c.workers; i++ {
 		works <- newClipWork(c)
 	}
-	// The output sized at once for about what it holds: a cell's corners
-	// number at most its degree (the degrees average (len(Triangles) +
-	// len(Hull))/nv; the cells outside the area have none), a convex cell
-	// meets a ring edge in at most two points, and the area's vertices lie
-	// in a cell each (a few in several, on their boundaries). Beyond that
-	// the arrays grow (clipReserve).
-	nIn := 0
-	for _, s := range c.state {
-		if s == clipInside || s == clipCrossed {
-			nIn++
-		}
-	}
-	deg := int64(len(c.t.Triangles) + len(c.t.Hull))
-	nPts := int(int64(nIn)*deg/int64(c.nv)*51/50) + 2*len(c.pairSite) + 4*len(c.r.XY)/2 + 16
-	nRings := nIn + len(c.pairSite) + c.r.NumRings() + 1
-	cells := &Cells{
-		SiteStart:  make([]int32, c.nv+1),
-		PolyStart:  make([]int32, 0, nRings),
-		RingStart:  make([]int32, 0, nRings),
-		XY:         make([]float64, 0, 2*nPts),
-		EdgeSource: make([]int32, 0, nPts),
-		Area:       make([]float64, c.nv),
-	}
-	cm := &clipCommit{cells: cells, parked: make([]*clipOut, nchunks), chunk: chunk}
 	var crossed, inside atomic.Int64
 	ParallelChunks(c.nv, chunk, c.workers, func(ci, lo, hi int) {
 		w := <-works
 		defer func() { works <- w }()
-		out := cm.buffer()
-		out.sitePolys, out.area = out.sitePolys[:0], out.area[:0]
-		out.polyRings, out.ringPts = out.polyRings[:0], out.ringPts[:0]
-		out.xy, out.src = out.xy[:0], out.src[:0]
+		out := &outs[ci]
+		n := hi - lo
+		out.sitePolys = make([]int32, 0, n)
+		out.area = make([]float64, 0, n)
+		out.polyRings = make([]int32, 0, n+16)
+		out.ringPts = make([]int32, 0, n+16)
+		out.xy = make([]float64, 0, 14*n)
+		out.src = make([]int32, 0, 7*n)
 		if !c.collinear {
 			c.aroundBatch(int32(lo), int32(hi), &w.ab)
 		}
@@ -380,94 +357,53 @@ func (c *clipper) assemble(st *clipStats) *Cells {
 			}
 			pi = pj
 		}
-		cm.commit(ci, out)
 	})
 	st.crossed, st.inside = int(crossed.Load()), int(inside.Load())
-	cells.SiteStart[c.nv] = int32(len(cells.PolyStart))
-	cells.PolyStart = append(cells.PolyStart, int32(len(cells.RingStart)))
-	cells.RingStart = append(cells.RingStart, int32(len(cells.EdgeSource)))
+
+	// Concatenate chunk outputs in site order.
+	type offs struct{ poly, ring, pt int }
+	starts := make([]offs, nchunks+1)
+	for i := range outs {
+		o := &outs[i]
+		starts[i+1] = offs{starts[i].poly + len(o.polyRings), starts[i].ring + len(o.ringPts), starts[i].pt + len(o.src)}
+	}
+	tot := starts[nchunks]
+	cells := &Cells{
+		SiteStart:  make([]int32, c.nv+1),
+		PolyStart:  make([]int32, tot.poly+1),
+		RingStart:  make([]int32, tot.ring+1),
+		XY:         make([]float64, 2*tot.pt),
+		EdgeSource: make([]int32, tot.pt),
+		Area:       make([]float64, c.nv),
+	}
+	ParallelChunks(nchunks, 1, c.workers, func(_, lo, hi int) {
+		for i := lo; i < hi; i++ {
+			o, s := &outs[i], starts[i]
+			v0 := i * chunk
+			p := int32(s.poly)
+			for k, n := range o.sitePolys {
+				cells.SiteStart[v0+k] = p
+				p += n
+			}
+			rg := int32(s.ring)
+			for k, n := range o.polyRings {
+				cells.PolyStart[s.poly+k] = rg
+				rg += n
+			}
+			pt := int32(s.pt)
+			for k, n := range o.ringPts {
+				cells.RingStart[s.ring+k] = pt
+				pt += n
+			}
+			copy(cells.XY[2*s.pt:], o.xy)
+			copy(cells.EdgeSource[s.pt:], o.src)
+			copy(cells.Area[v0:], o.area)
+		}
+	})
+	cells.SiteStart[c.nv] = int32(tot.poly)
+	cells.PolyStart[tot.poly] = int32(tot.ring)
+	cells.RingStart[tot.ring] = int32(tot.pt)
 	return cells
-}
-
-// clipCommit appends the chunks' outputs to cells in chunk order: a
-// chunk's output buffer is parked until the chunks before it are appended
-// (its worker going on with another buffer), then appended and reused.
-type clipCommit struct {
-	mu     sync.Mutex
-	next   int        // the chunk to append next
-	parked []*clipOut // per chunk: emitted, waiting for its turn
-	free   []*clipOut // buffers appended, to reuse
-	chunk  int        // sites per chunk
-	cells  *Cells
-}
-
-// buffer returns an output buffer to emit a chunk into.
-func (cm *clipCommit) buffer() *clipOut {
-	cm.mu.Lock()
-	defer cm.mu.Unlock()
-	if n := len(cm.free); n > 0 {
-		out := cm.free[n-1]
-		cm.free = cm.free[:n-1]
-		return out
-	}
-	return new(clipOut)
-}
-
-// commit hands over out, the output of chunk ci, and appends every chunk
-// whose turn has come.
-func (cm *clipCommit) commit(ci int, out *clipOut) {
-	cm.mu.Lock()
-	defer cm.mu.Unlock()
-	cm.parked[ci] = out
-	for cm.next < len(cm.parked) && cm.parked[cm.next] != nil {
-		o := cm.parked[cm.next]
-		cm.parked[cm.next] = nil
-		cm.append(cm.next, o)
-		cm.next++
-		cm.free = append(cm.free, o)
-	}
-}
-
-// append appends out, the output of chunk ci: the sites' polygon starts,
-// the polygons' ring starts and the rings' point starts offset to the
-// arrays so far, the points and labels, and the areas.
-func (cm *clipCommit) append(ci int, out *clipOut) {
-	cells, v0, nchunks := cm.cells, ci*cm.chunk, len(cm.parked)
-	p := int32(len(cells.PolyStart))
-	for k, n := range out.sitePolys {
-		cells.SiteStart[v0+k] = p
-		p += n
-	}
-	cells.PolyStart = clipReserve(cells.PolyStart, len(out.polyRings)+1, ci, nchunks)
-	rg := int32(len(cells.RingStart))
-	for _, n := range out.polyRings {
-		cells.PolyStart = append(cells.PolyStart, rg)
-		rg += n
-	}
-	cells.RingStart = clipReserve(cells.RingStart, len(out.ringPts)+1, ci, nchunks)
-	pt := int32(len(cells.EdgeSource))
-	for _, n := range out.ringPts {
-		cells.RingStart = append(cells.RingStart, pt)
-		pt += n
-	}
-	cells.XY = append(clipReserve(cells.XY, len(out.xy)+2, ci, nchunks), out.xy...)
-	cells.EdgeSource = append(clipReserve(cells.EdgeSource, len(out.src)+1, ci, nchunks), out.src...)
-	copy(cells.Area[v0:], out.area)
-}
-
-// clipReserve makes room in s for k more items appended by chunk ci of
-// nchunks: when it must grow, to the size the chunks so far project for
-// all of them (a sixteenth more), so that it rarely grows twice.
-func clipReserve[S ~[]E, E any](s S, k, ci, nchunks int) S {
-	need := len(s) + k
-	if need <= cap(s) {
-		return s
-	}
-	want := need + need/16
-	if ci+1 < nchunks {
-		want = max(want, int(int64(need)*int64(nchunks)/int64(ci+1)*17/16))
-	}
-	return slices.Grow(s, want-len(s))
 }
 
 // sortSearchInt32 returns the first index i with a[i] >= x (a sorted).
