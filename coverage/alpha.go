@@ -106,11 +106,20 @@ func NewFiltration(t *planar.Triangulation) *Filtration {
 	// an acute angle.
 	planar.ParallelFor(nt, alphaGrain, func(lo, hi int) {
 		xy, tr := t.Coords, t.Triangles
+		// The vertices' coordinates are gathered a block of triangles at
+		// a time: vertices are numbered in input order, so the loads miss
+		// the cache, and a loop of loads alone keeps many in flight.
+		var g [alphaGather * 6]float64
 		for i := lo; i < hi; i++ {
-			a, b, c := tr[3*i], tr[3*i+1], tr[3*i+2]
-			ax, ay := xy[2*a], xy[2*a+1]
-			bx, by := xy[2*b], xy[2*b+1]
-			cx, cy := xy[2*c], xy[2*c+1]
+			j := (i - lo) % alphaGather
+			if j == 0 {
+				for k, q := range tr[3*i : 3*min(hi, i+alphaGather)] {
+					g[2*k], g[2*k+1] = xy[2*q], xy[2*q+1]
+				}
+			}
+			ax, ay := g[6*j], g[6*j+1]
+			bx, by := g[6*j+2], g[6*j+3]
+			cx, cy := g[6*j+4], g[6*j+5]
 			r, ox, oy, hab, hbc, hca := alphaTriangle(ax, ay, bx, by, cx, cy)
 			f.Triangle[i] = r
 			f.centre[2*i], f.centre[2*i+1] = ox, oy
@@ -155,6 +164,10 @@ func NewFiltration(t *planar.Triangulation) *Filtration {
 	})
 	return f
 }
+
+// alphaGather is the number of triangles whose vertex coordinates
+// NewFiltration loads at once.
+const alphaGather = 256
 
 // alphaGrain is the least number of simplices per goroutine in the passes
 // of NewFiltration and ComputePersistence: below 2·alphaGrain = 2¹⁵ items

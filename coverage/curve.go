@@ -312,18 +312,22 @@ func crvEdgesDisk(edges []crvEdge, r float64) (area, angle float64) {
 // crvCoarseAtan2 approximates atan2(y, x) to within 0.005 rad
 // (atan t ≈ t/(1 + 0.28 t²) on [0, 1], a classical rational approximation;
 // common practice), with atan2's treatment of signed zeros.
+//
+// Written to be inlined (it is called once per chord of every evaluation):
+// t is the smaller of |x|, |y| over the larger.
 func crvCoarseAtan2(y, x float64) float64 {
 	ax, ay := math.Abs(x), math.Abs(y)
-	var a float64
-	switch {
-	case ax == 0 && ay == 0:
-		a = 0
-	case ax >= ay:
-		t := ay / ax
+	n, d := ay, ax
+	if ay > ax {
+		n, d = ax, ay
+	}
+	a := 0.0
+	if d != 0 { // both zero otherwise
+		t := n / d
 		a = t / (1 + 0.28*t*t)
-	default:
-		t := ax / ay
-		a = math.Pi/2 - t/(1+0.28*t*t)
+	}
+	if ay > ax {
+		a = math.Pi/2 - a
 	}
 	if math.Signbit(x) {
 		a = math.Pi - a

@@ -167,3 +167,30 @@ func TestCurveSamples(t *testing.T) {
 		}
 	}
 }
+
+// TestCrvCoarseAtan2 checks the coarse angle against math.Atan2: within
+// 0.005 rad on a grid of directions around the circle (both octants of
+// each quadrant, the axes and the diagonals, at scales from 1e-300 to 1),
+// and exactly equal, signed zeros included, on the axes.
+func TestCrvCoarseAtan2(t *testing.T) {
+	for _, s := range []float64{1e-300, 1e-9, 1} {
+		for k := 0; k < 4096; k++ {
+			th := 2*math.Pi*float64(k)/4096 - math.Pi
+			y, x := s*math.Sin(th), s*math.Cos(th)
+			if got, want := crvCoarseAtan2(y, x), math.Atan2(y, x); math.Abs(got-want) > 0.005 && math.Abs(math.Abs(got-want)-2*math.Pi) > 0.005 {
+				t.Fatalf("crvCoarseAtan2(%v, %v) = %v, atan2 %v", y, x, got, want)
+			}
+		}
+	}
+	z := math.Copysign(0, -1)
+	for _, c := range [][2]float64{{0, 0}, {z, 0}, {0, z}, {z, z}, {0, 1}, {z, 1}, {0, -1}, {z, -1}, {1, 0}, {-1, 0}, {1, z}, {-1, z}, {1, 1}, {-1, -1}} {
+		got, want := crvCoarseAtan2(c[0], c[1]), math.Atan2(c[0], c[1])
+		if c[0] == 0 || c[1] == 0 {
+			if got != want || math.Signbit(got) != math.Signbit(want) {
+				t.Fatalf("crvCoarseAtan2(%v, %v) = %v, want %v", c[0], c[1], got, want)
+			}
+		} else if math.Abs(got-want) > 0.005 {
+			t.Fatalf("crvCoarseAtan2(%v, %v) = %v, atan2 %v", c[0], c[1], got, want)
+		}
+	}
+}

@@ -31,6 +31,7 @@ type gapChain struct {
 	gap        int32
 	loop       int32
 	first, n   int32 // first element (global) and element count (wrapping within the loop)
+	v          int32 // the vertex of the loop's cell
 	closed     bool  // the whole loop, nothing removed
 	sKey, eKey uint64
 	sTau, eTau float64
@@ -171,7 +172,7 @@ func (m *gapMerged) outlines(l *Layout, gapOf []int32, ng int, gp *gapParams, to
 				for cur >= 0 && !chains[cur].seen {
 					c := &chains[cur]
 					c.seen = true
-					buf = m.chainPoints(l, c, loopNode, gp, alpha, buf)
+					buf = m.chainPoints(l, c, gp, alpha, buf)
 					if c.closed {
 						break
 					}
@@ -212,7 +213,7 @@ func (m *gapMerged) cutChains(l *Layout, gapOf []int32, lp0, lp1 int, chains []g
 			continue
 		}
 		if nRem == 0 {
-			chains = append(chains, gapChain{gap: g, loop: int32(lp), first: e0, n: n, closed: true, next: -1})
+			chains = append(chains, gapChain{gap: g, loop: int32(lp), first: e0, n: n, v: nd.v, closed: true, next: -1})
 			continue
 		}
 		// Start at the first kept element following a removed one.
@@ -233,7 +234,7 @@ func (m *gapMerged) cutChains(l *Layout, gapOf []int32, lp0, lp1 int, chains []g
 			pe := &m.elems[e0+((s-1)%n+n)%n]
 			fe := &m.elems[e0+s%n]
 			ge := &m.elems[e0+k%n]
-			ch := gapChain{gap: g, loop: int32(lp), first: e0 + s%n, n: k - s, next: -1,
+			ch := gapChain{gap: g, loop: int32(lp), first: e0 + s%n, n: k - s, v: nd.v, next: -1,
 				sx: fe.x, sy: fe.y, ex: ge.x, ey: ge.y}
 			ch.sKey, ch.sTau = gapTau(l, nd.v, pe.kind, fe.x, fe.y)
 			ch.eKey, ch.eTau = gapTau(l, nd.v, ge.kind, ge.x, ge.y)
@@ -406,7 +407,7 @@ func (m *gapMerged) chainDir(l *Layout, c *gapChain, start bool) (float64, float
 	if el.kind != gapArc {
 		return nx.x - el.x, nx.y - el.y
 	}
-	cx, cy := l.site(m.nodes[m.loopNode[c.loop]].v)
+	cx, cy := l.site(c.v)
 	px, py := el.x, el.y
 	if !start {
 		px, py = nx.x, nx.y
@@ -416,11 +417,11 @@ func (m *gapMerged) chainDir(l *Layout, c *gapChain, start bool) (float64, float
 
 // chainPoints appends the points of chain c: each element's start, and the
 // chord points inside each arc.
-func (m *gapMerged) chainPoints(l *Layout, c *gapChain, loopNode []int32, gp *gapParams, alpha float64, buf []orb.Point) []orb.Point {
+func (m *gapMerged) chainPoints(l *Layout, c *gapChain, gp *gapParams, alpha float64, buf []orb.Point) []orb.Point {
 	e0, e1 := m.loopElem[c.loop], m.loopElem[c.loop+1]
 	n := e1 - e0
 	off := c.first - e0
-	v := m.nodes[loopNode[c.loop]].v
+	v := c.v
 	cx, cy := l.site(v)
 	r := gp.radius(v)
 	for k := int32(0); k < c.n; k++ {

@@ -334,6 +334,9 @@ func (c *clipper) assemble(st *clipStats) *Cells {
 		out.ringPts = make([]int32, 0, n+16)
 		out.xy = make([]float64, 0, 14*n)
 		out.src = make([]int32, 0, 7*n)
+		if !c.collinear {
+			c.aroundBatch(int32(lo), int32(hi), &w.ab)
+		}
 		// Pairs for this chunk.
 		pi := sortSearchInt32(c.pairSite, int32(lo))
 		for v := int32(lo); v < int32(hi); v++ {

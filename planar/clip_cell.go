@@ -75,6 +75,8 @@ type clipRing struct {
 type clipWork struct {
 	c        *clipper
 	nb, tri  []int32
+	ab       aroundBuf // the chunk's whole cells' lists (aroundBatch)
+	corners  []float64 // a cell's corners when ab has none
 	cnx, cny []float64 // constraint normals p_j − p_v
 	ch       []float64 // |n|²/2
 	// Ring-vertex cache for the current cell.
@@ -114,15 +116,23 @@ func newClipWork(c *clipper) *clipWork {
 // wholeCell emits the complete (bounded) cell of v.
 func (w *clipWork) wholeCell(v int32, out *clipOut) {
 	c := w.c
-	w.nb, w.tri, _ = c.around(v, w.nb, w.tri)
-	nb, tri := w.nb, w.tri
-	m := len(tri)
+	nb, _, cc, ok := w.ab.lists(v)
+	if !ok {
+		w.nb, w.tri, _ = c.around(v, w.nb, w.tri)
+		nb = w.nb
+		w.corners = w.corners[:0]
+		for _, t := range w.tri {
+			w.corners = append(w.corners, c.cc[2*t], c.cc[2*t+1])
+		}
+		cc = w.corners
+	}
+	m := len(cc) / 2
 	px, py := c.xy[2*v], c.xy[2*v+1]
 	start := len(out.src)
 	for k := 0; k < m; k++ {
-		t0, t1 := tri[k], tri[(k+1)%m]
-		x, y := c.cc[2*t0], c.cc[2*t0+1]
-		if x == c.cc[2*t1] && y == c.cc[2*t1+1] {
+		k1 := (k + 1) % m
+		x, y := cc[2*k], cc[2*k+1]
+		if x == cc[2*k1] && y == cc[2*k1+1] {
 			continue // zero-length edge
 		}
 		out.xy = append(out.xy, x, y)
