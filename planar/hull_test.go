@@ -1,6 +1,8 @@
 package planar
 
 import (
+	"math"
+	"math/rand/v2"
 	"slices"
 	"testing"
 
@@ -47,6 +49,45 @@ func TestConvexHull(t *testing.T) {
 			}
 			if got != nil && RingArea(FlatRing(got)) <= 0 {
 				t.Errorf("hull %v is not counter-clockwise", got)
+			}
+		})
+	}
+}
+
+// TestConvexHullFilter: the octagon filter of ConvexHull (Akl and
+// Toussaint 1978) changes nothing: the hull equals the monotone chain over
+// every point, on random, clustered, gridded (collinear runs and repeats),
+// circular and near-degenerate sets.
+func TestConvexHullFilter(t *testing.T) {
+	rng := rand.New(rand.NewPCG(7, 11))
+	sets := map[string][]orb.Point{}
+	var uni, grid, circ, thin, dup []orb.Point
+	for i := 0; i < 5000; i++ {
+		uni = append(uni, orb.Point{rng.Float64() * 1e4, rng.Float64() * 1e4})
+		a := rng.Float64() * 2 * math.Pi
+		circ = append(circ, orb.Point{1e3 * math.Cos(a), 1e3 * math.Sin(a)})
+		thin = append(thin, orb.Point{rng.Float64() * 1e6, 1e-9 * rng.Float64()})
+		dup = append(dup, orb.Point{float64(rng.IntN(3)), float64(rng.IntN(3))})
+	}
+	for x := 0; x < 40; x++ {
+		for y := 0; y < 40; y++ {
+			grid = append(grid, orb.Point{float64(x), float64(y)}, orb.Point{float64(x), float64(y)})
+		}
+	}
+	sets["uniform"], sets["grid"], sets["circle"], sets["thin"], sets["repeats"] = uni, grid, circ, thin, dup
+	sets["diamond"] = nil
+	for i := 0; i <= 100; i++ { // points on the edges of a diamond: the octagon is it
+		f := float64(i) / 100
+		sets["diamond"] = append(sets["diamond"], orb.Point{f, 1 - f}, orb.Point{-f, 1 - f}, orb.Point{f, f - 1}, orb.Point{-f, f - 1})
+	}
+	for name, pts := range sets {
+		t.Run(name, func(t *testing.T) {
+			got, want := ConvexHull(pts), hullChain(slices.Clone(pts))
+			if !slices.Equal(got, want) {
+				t.Fatalf("filtered hull %d vertices, unfiltered %d:\n%v\n%v", len(got), len(want), got, want)
+			}
+			if kept := hullCandidates(pts); name == "uniform" && len(kept) > len(pts)/10 {
+				t.Errorf("the filter kept %d of %d uniform points", len(kept), len(pts))
 			}
 		})
 	}
