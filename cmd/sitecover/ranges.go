@@ -64,18 +64,6 @@ func (f *runFlags) rangesInputs(cmd *cobra.Command) (siteinput.Inputs, error) {
 	return in, nil
 }
 
-// refuseRanges is the answer of the moves that choose devices for one
-// common range (suggest --reach --candidates) when the sites carry their
-// own ranges: an input error, never a silent common range. (analyze
-// --reach and suggest --reach without --candidates take own ranges:
-// coverage.KCoverRanges, coverage.ReachAdditionsRanges.)
-func refuseRanges(sc *scene, command string, in siteinput.Inputs) error {
-	if sc.ranges == nil {
-		return nil
-	}
-	return inputErrorf("%s: the devices have their own ranges (range column or type table); %s chooses spots for one common range: give only --range (suggest --reach without --candidates adds devices to devices of their own ranges)", in.Sites.Name, command)
-}
-
 // rangesAnalysis runs coverage.AnalyzeRanges for devices with their own
 // ranges (runAnalysis writes and prints it).
 func rangesAnalysis(f *runFlags, sc *scene, pr *progress, in siteinput.Inputs) (analysisOutput, error) {
