@@ -222,11 +222,9 @@ func WriteAnalysis(dir string, a *coverage.Analysis, m Meta, opt Options) (writt
 // rest of the analysis is computed (coverage.Options.LayoutReady):
 // StartAnalysis opens the output set and starts the sites and
 // service-area layers (unless opt.GeoPackage, whose tables are filled
-// together at the end); StartGaps, optional, starts the gaps and covered
-// layers (the same exception) once the gaps are known, while the hole
-// persistence is computed; Finish starts the covered layer if StartGaps
-// did not (before it gathers the service-area list), writes the other
-// files and swaps the set in; Abort drops it. The files are byte for byte
+// together at the end); Finish starts the covered layer (before it
+// gathers the service-area list), writes the other files and swaps the
+// set in; Abort drops it. The files are byte for byte
 // those of WriteAnalysis, which is StartAnalysis followed by Finish.
 type AnalysisWriter struct {
 	w     *writer
@@ -235,9 +233,6 @@ type AnalysisWriter struct {
 	opt   Options
 	steps []step // the steps started
 	stop  atomic.Bool
-	// gaps, when gapsStarted, are those StartGaps was given.
-	gaps        []coverage.Gap
-	gapsStarted bool
 }
 
 // StartAnalysis checks and opens dir for the report of an analysis of
@@ -266,43 +261,16 @@ func StartAnalysis(dir string, l *coverage.Layout, r float64, m Meta, opt Option
 	return aw, nil
 }
 
-// StartGaps starts writing the gaps and covered layers (unless
-// opt.GeoPackage), which need only the layout, the range and the gaps,
-// while the rest of the analysis is computed: gaps are the gaps of the
-// analysis at the range (coverage.Analysis.Gaps, the very slice Finish
-// will be given; Finish refuses an analysis holding others). Only the
-// first call counts.
-func (aw *AnalysisWriter) StartGaps(gaps []coverage.Gap) {
-	if aw.gapsStarted {
-		return
-	}
-	aw.gaps, aw.gapsStarted = gaps, true
-	if aw.opt.GeoPackage {
-		return
-	}
-	l := aw.early.l
-	s := &scene{l: l, a: &coverage.Analysis{Layout: l, Range: aw.early.a.Range, Gaps: gaps}, m: aw.m, area: new(areaEdgesOnce)}
-	for _, st := range []step{s.layerStep(FileCovered, s.coveredLayer()), s.layerStep(FileGaps, s.gapsLayer())} {
-		aw.steps = append(aw.steps, aw.w.start(s, st, &aw.stop))
-	}
-}
-
-// sameGaps reports whether a and b are the same slice.
-func sameGaps(a, b []coverage.Gap) bool {
-	return len(a) == len(b) && (len(a) == 0 || &a[0] == &b[0])
-}
-
 // Finish writes the rest of the report of a (the analysis of the layout
-// and range given to StartAnalysis, and of the gaps given to StartGaps),
-// waits for the layers started, and swaps the set in. It returns the
-// paths written.
+// and range given to StartAnalysis), waits for the layers started, and
+// swaps the set in. It returns the paths written.
 func (aw *AnalysisWriter) Finish(a *coverage.Analysis) (written []string, err error) {
-	if a == nil || a.Layout != aw.early.l || a.Range != aw.early.a.Range || (aw.gapsStarted && !sameGaps(a.Gaps, aw.gaps)) {
+	if a == nil || a.Layout != aw.early.l || a.Range != aw.early.a.Range {
 		aw.Abort()
 		return nil, fmt.Errorf("report: the analysis is not the one the report was started for")
 	}
 	m, opt, w := aw.m, aw.opt, aw.w
-	if !opt.GeoPackage && !aw.gapsStarted {
+	if !opt.GeoPackage {
 		// The covered layer, the longest step, needs no service-area list:
 		// it starts before newScene gathers that list.
 		lead := &scene{l: a.Layout, a: a, m: m, area: new(areaEdgesOnce)}

@@ -13,12 +13,10 @@ import (
 
 // TestAnalysisWriter checks the two-part write of an analysis: the layers
 // started from the layout alone (StartAnalysis, while the analysis would
-// still runs) and the rest written by Finish, with or without the gaps
-// and covered layers started from the gaps (StartGaps), give the same
-// files, byte for byte, as WriteAnalysis of the completed analysis, the
+// still runs) and the rest written by Finish give the same files, byte for byte, as WriteAnalysis of the completed analysis, the
 // service areas as WriteCells writes them from the layout's list; Abort
 // leaves the previous set and no staging folder; Finish refuses an
-// analysis of another layout or other gaps.
+// analysis of another layout.
 func TestAnalysisWriter(t *testing.T) {
 	sites := sitegen.Uniform(3000, 5)
 	sites = append(sites, sites[7], sites[100], sites[7]) // merged duplicates
@@ -58,49 +56,6 @@ func TestAnalysisWriter(t *testing.T) {
 				t.Errorf("%s differs from the whole write (%v, %v)", f, err1, err2)
 			}
 		}
-	})
-	t.Run("start, gaps, then finish", func(t *testing.T) {
-		// StartGaps as the analysis would call it between its gaps and
-		// its hole persistence.
-		dir := filepath.Join(t.TempDir(), "gaps")
-		var aw *AnalysisWriter
-		var startErr error
-		a, err := coverage.Analyze(sites, area, 8, coverage.Options{LayoutReady: func(l *coverage.Layout) {
-			aw, startErr = StartAnalysis(dir, l, 8, m, Options{})
-		}})
-		if err != nil || startErr != nil {
-			t.Fatal(err, startErr)
-		}
-		if len(a.Gaps) < 10 {
-			t.Fatalf("%d gaps: not a test", len(a.Gaps))
-		}
-		aw.StartGaps(a.Gaps)
-		aw.StartGaps(a.Gaps) // only the first call counts
-		if _, err := aw.Finish(a); err != nil {
-			t.Fatal(err)
-		}
-		for _, f := range Files(false, m, Options{}) {
-			if f == FileManifest || f == FileSummary {
-				continue
-			}
-			got, err1 := os.ReadFile(filepath.Join(dir, f))
-			want, err2 := os.ReadFile(filepath.Join(whole, f))
-			if err1 != nil || err2 != nil || !bytes.Equal(got, want) {
-				t.Errorf("%s differs from the whole write (%v, %v)", f, err1, err2)
-			}
-		}
-	})
-	t.Run("finish refuses other gaps", func(t *testing.T) {
-		dir := filepath.Join(t.TempDir(), "othergaps")
-		aw, err := StartAnalysis(dir, an.Layout, an.Range, m, Options{})
-		if err != nil {
-			t.Fatal(err)
-		}
-		aw.StartGaps(slices.Clone(an.Gaps))
-		if _, err := aw.Finish(an); err == nil {
-			t.Errorf("Finish accepted an analysis of other gaps")
-		}
-		listDir(t, dir) // no staging debris
 	})
 	t.Run("service areas as the cells report lists them", func(t *testing.T) {
 		// Reference: WriteCells, whose layer reads the service-area list
