@@ -167,14 +167,8 @@ func TestSuggestReachOwnRanges(t *testing.T) {
 			if r.code != 0 {
 				t.Fatalf("exit %d: %s", r.code, r.stderr)
 			}
-			b, err := os.ReadFile(filepath.Join(out, report.FileSummary))
-			if err != nil {
-				t.Fatal(err)
-			}
 			var d plan
-			if err := json.Unmarshal(b, &d); err != nil {
-				t.Fatal(err)
-			}
+			loadJSON(t, filepath.Join(out, report.FileSummary), &d)
 			if !d.OwnRanges || d.NewType != c.newType || !d.Reached || len(d.Added) == 0 || d.RangeAfter != nil || d.PowerAfter == nil || *d.PowerAfter > 0 {
 				t.Fatalf("summary: %+v", d)
 			}
@@ -261,14 +255,8 @@ func TestSuggestReachCandidatesOwnRanges(t *testing.T) {
 			if r.code != 0 {
 				t.Fatalf("exit %d: %s", r.code, r.stderr)
 			}
-			b, err := os.ReadFile(filepath.Join(out, report.FileSummary))
-			if err != nil {
-				t.Fatal(err)
-			}
 			var d plan
-			if err := json.Unmarshal(b, &d); err != nil {
-				t.Fatal(err)
-			}
+			loadJSON(t, filepath.Join(out, report.FileSummary), &d)
 			if !d.OwnRanges || d.NewType != c.newType || d.RangeAfter != nil || d.PowerAfter == nil || len(d.After) == 0 || len(d.Before) == 0 || d.Reach == nil || !d.Reach.OwnRanges {
 				t.Fatalf("summary: %+v", d)
 			}
