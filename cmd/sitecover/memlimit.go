@@ -26,10 +26,12 @@ const (
 )
 
 // setMemoryLimit sets the soft memory limit for a run on the given number
-// of sites, unless GOMEMLIMIT is set.
+// of sites, unless GOMEMLIMIT is set, and prepares the heap for huge pages
+// (hugepages_linux.go).
 func setMemoryLimit(sites int) {
-	if _, set := os.LookupEnv("GOMEMLIMIT"); set {
-		return
+	limit := max(int64(sites)*memLimitPerSite, memLimitFloor)
+	if _, set := os.LookupEnv("GOMEMLIMIT"); !set {
+		debug.SetMemoryLimit(limit)
 	}
-	debug.SetMemoryLimit(max(int64(sites)*memLimitPerSite, memLimitFloor))
+	adviseHugePages(sites, limit)
 }

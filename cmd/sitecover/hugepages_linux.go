@@ -1,0 +1,120 @@
+// Huge pages for large runs (Linux).
+//
+// At 10⁶–10⁷ sites the analysis reads and writes flat arrays of hundreds
+// of megabytes in an order set by the geometry, not by the memory layout,
+// so most accesses miss the processor's address-translation cache when
+// memory is mapped in 4 KiB pages; on a virtual machine each miss walks
+// two page tables. With the kernel's transparent huge pages in their
+// common "madvise" mode, only memory advised with madvise(MADV_HUGEPAGE)
+// is backed by 2 MiB pages, and the Go runtime does not advise its heap.
+//
+// A large run therefore (1) asks the runtime, once the number of sites is
+// known, for the heap it will need (the soft memory limit, memlimit.go) in
+// one untouched block — fresh memory from the kernel is known to be zero,
+// so the runtime maps it without touching a page — advises every large
+// private anonymous mapping of the process, then frees the block, so the
+// heap the analysis grows into is advised before its first page fault;
+// and (2) re-advises new large mappings every hugeAdviseEvery while it
+// runs (the runtime maps heap growth with mmap(MAP_FIXED), which starts a
+// new, unadvised mapping). The advice changes only how memory is paged:
+// no result depends on it, and where the kernel has huge pages off
+// ("never") or the call fails, nothing changes. Measured with uniform
+// planar sites, analyze without maps (user+system CPU, 2-core machine):
+// 10⁶ sites 14.0 → 12.1 s, 10⁷ sites 175 → 144 s, peak RSS unchanged
+// (1.06 GB, 10.1 GB). SITECOVER_HUGEPAGES=off turns it off.
+
+package main
+
+import (
+	"bytes"
+	"os"
+	"runtime"
+	"strconv"
+	"sync"
+	"syscall"
+	"time"
+)
+
+const (
+	// hugeAdviseMinSites: smaller runs keep a heap the address-translation
+	// cache covers, and are not advised.
+	hugeAdviseMinSites = 100_000
+	// hugeAdviseMinBytes: mappings smaller than this are not advised
+	// (they cannot hold many 2 MiB pages).
+	hugeAdviseMinBytes = 8 << 20
+	// hugeAdviseEvery is the period of the re-advice of new mappings.
+	hugeAdviseEvery = 20 * time.Millisecond
+)
+
+var hugeAdviseOnce sync.Once
+
+// adviseHugePages prepares the heap of a run on the given number of sites
+// whose soft memory limit is limit bytes (see the file comment).
+func adviseHugePages(sites int, limit int64) {
+	if sites < hugeAdviseMinSites || os.Getenv("SITECOVER_HUGEPAGES") == "off" {
+		return
+	}
+	if total := memTotal(); total > 0 && limit > total/2 {
+		limit = total / 2 // never ask for more than half the machine
+	}
+	block := make([]byte, limit)
+	adviseMappings()
+	runtime.KeepAlive(block)
+	block = nil
+	runtime.GC() // free the block now: its pages were never touched
+	hugeAdviseOnce.Do(func() {
+		go func() {
+			for {
+				time.Sleep(hugeAdviseEvery)
+				adviseMappings()
+			}
+		}()
+	})
+}
+
+// adviseMappings advises every private, writable, anonymous mapping of at
+// least hugeAdviseMinBytes listed in /proc/self/maps.
+func adviseMappings() {
+	maps, err := os.ReadFile("/proc/self/maps")
+	if err != nil {
+		return
+	}
+	for line := range bytes.Lines(maps) {
+		// start-end perms offset dev inode [path]: anonymous has no path.
+		f := bytes.Fields(line)
+		if len(f) != 5 || string(f[1]) != "rw-p" {
+			continue
+		}
+		lo, hi, ok := bytes.Cut(f[0], []byte{'-'})
+		if !ok {
+			continue
+		}
+		start, err1 := strconv.ParseUint(string(lo), 16, 64)
+		end, err2 := strconv.ParseUint(string(hi), 16, 64)
+		if err1 != nil || err2 != nil || end < start+hugeAdviseMinBytes {
+			continue
+		}
+		// Advice only: an error (huge pages unsupported) changes nothing.
+		syscall.Syscall(syscall.SYS_MADVISE, uintptr(start), uintptr(end-start), syscall.MADV_HUGEPAGE)
+	}
+}
+
+// memTotal returns the machine's memory in bytes from /proc/meminfo, or 0.
+func memTotal() int64 {
+	b, err := os.ReadFile("/proc/meminfo")
+	if err != nil {
+		return 0
+	}
+	for line := range bytes.Lines(b) {
+		if rest, ok := bytes.CutPrefix(line, []byte("MemTotal:")); ok {
+			f := bytes.Fields(rest)
+			if len(f) == 2 && string(f[1]) == "kB" {
+				kb, err := strconv.ParseInt(string(f[0]), 10, 64)
+				if err == nil {
+					return kb << 10
+				}
+			}
+		}
+	}
+	return 0
+}
