@@ -14,6 +14,7 @@ import (
 	"path/filepath"
 	"runtime/metrics"
 	"runtime/pprof"
+	"slices"
 	"strings"
 	"testing"
 	"time"
@@ -76,7 +77,9 @@ func BenchmarkAnalyze100kCSVPlanarNoMaps(b *testing.B) {
 
 // BenchmarkAnalyzeFilePlanarNoMaps runs analyze --planar --no-maps on the
 // CSV file named by SITECOVER_BENCH_SITES at the range SITECOVER_BENCH_RANGE
-// (default 100), for profiling whole runs on large generated layouts, e.g.
+// (default 100), for profiling whole runs on large generated layouts (with
+// SITECOVER_BENCH_LONLAT set, the file holds longitude/latitude and the run
+// projects it), e.g.
 //
 //	SITECOVER_BENCH_SITES=/tmp/s1e6.csv go test -run XXX -bench AnalyzeFile -benchtime 1x -cpuprofile cpu.out ./cmd/sitecover
 func BenchmarkAnalyzeFilePlanarNoMaps(b *testing.B) {
@@ -93,8 +96,12 @@ func BenchmarkAnalyzeFilePlanarNoMaps(b *testing.B) {
 		stop := peakHeapProfiles(b, path)
 		defer stop()
 	}
+	args := []string{"analyze", "--planar", "--sites", sites, "--range", rng, "--out", out, "--no-maps"}
+	if os.Getenv("SITECOVER_BENCH_LONLAT") != "" {
+		args = slices.Delete(args, 1, 2) // longitude/latitude sites: projected
+	}
 	b.ResetTimer()
-	benchRun(b, "analyze", "--planar", "--sites", sites, "--range", rng, "--out", out, "--no-maps")
+	benchRun(b, args...)
 }
 
 // peakHeapProfiles writes a heap profile to path whenever the live heap
