@@ -260,6 +260,18 @@ func position(p []float64) (x, y float64, problem string) {
 	return p[0], p[1], ""
 }
 
+// lonLatHint returns what a longitude/latitude pair (x, y) out of range
+// probably is, for the error message, or "".
+func lonLatHint(x, y float64) string {
+	switch {
+	case math.Abs(x) > 1000 || math.Abs(y) > 1000:
+		return " (local metres? add --planar; a projected grid? give --crs EPSG:NNNN)"
+	case math.Abs(x) <= 90 && math.Abs(y) <= 180:
+		return fmt.Sprintf(" (latitude and longitude swapped? read the other way round, latitude %s and longitude %s are valid; GeoJSON positions are [longitude, latitude])", fmtCoord(x), fmtCoord(y))
+	}
+	return ""
+}
+
 // coordProblem checks one coordinate pair: with geographic input a WGS84
 // longitude and latitude, with planar input finite local metres. It
 // returns "" when the pair is usable, else the problem.
@@ -292,18 +304,11 @@ func coordProblem(planarInput bool, x, y float64) string {
 	case math.IsInf(y, 0):
 		return "latitude is infinite"
 	}
-	hint := ""
-	switch {
-	case math.Abs(x) > 1000 || math.Abs(y) > 1000:
-		hint = " (local metres? add --planar; a projected grid? give --crs EPSG:NNNN)"
-	case math.Abs(x) <= 90 && math.Abs(y) <= 180:
-		hint = fmt.Sprintf(" (latitude and longitude swapped? read the other way round, latitude %s and longitude %s are valid; GeoJSON positions are [longitude, latitude])", fmtCoord(x), fmtCoord(y))
-	}
 	if x < -180 || x > 180 {
-		return fmt.Sprintf("longitude %s is outside -180..180%s", fmtCoord(x), hint)
+		return fmt.Sprintf("longitude %s is outside -180..180%s", fmtCoord(x), lonLatHint(x, y))
 	}
 	if y < -90 || y > 90 {
-		return fmt.Sprintf("latitude %s is outside -90..90%s", fmtCoord(y), hint)
+		return fmt.Sprintf("latitude %s is outside -90..90%s", fmtCoord(y), lonLatHint(x, y))
 	}
 	if err := planar.ValidLonLat(x, y); err != nil {
 		return err.Error()
