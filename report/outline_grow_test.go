@@ -33,7 +33,7 @@ type growScene struct {
 func collect(t *testing.T, def *layerDef) []orb.MultiPolygon {
 	t.Helper()
 	var out []orb.MultiPolygon
-	err := def.each(func(g orb.Geometry, _ ...any) error {
+	err := def.each(func(g orb.Geometry, _ ...value) error {
 		out = append(out, g.(orb.MultiPolygon).Clone())
 		return nil
 	})
