@@ -126,13 +126,34 @@ func (l *geoJSON) geometry(g orb.Geometry) {
 			if k > 0 {
 				l.b = append(l.b, ',')
 			}
-			l.b = appendRing(l.b, r)
+			l.ring(r)
 			l.spill()
 		}
 		l.b = append(l.b, ']')
 	}
 	l.b = append(l.b, "]}"...)
 }
+
+// ring appends the positions of r as appendRing does, writing on every
+// ringSpill positions, so that the buffer never grows past its capacity
+// for a ring of 10⁶ positions (the outline of a gap spanning the site).
+func (l *geoJSON) ring(r orb.Ring) {
+	l.b = append(l.b, '[')
+	for j, q := range r {
+		if j > 0 {
+			l.b = append(l.b, ',')
+		}
+		l.b = appendPos(l.b, q)
+		if j%ringSpill == ringSpill-1 {
+			l.spill()
+		}
+	}
+	l.b = append(l.b, ']')
+}
+
+// ringSpill is how many positions ring writes between spills: at most
+// some 50 bytes each, far below the buffer's spare geoJSONFlush bytes.
+const ringSpill = 1024
 
 // hasDecimalMark reports whether a written number has a decimal point or
 // an exponent, or is the word null (the bytes '.', 'e', 'n').
@@ -417,11 +438,12 @@ func (s *scene) serviceAreasLayer() *layerDef {
 }
 
 // forCells calls f with each service area in the order of s.cells and its
-// farthest point in output coordinates. A scene without s.cells (the
-// early scene of an AnalysisWriter, which runs beside the analysis) derives
-// each from the layout in turn, holding no list of them: the inputs in
-// order, each first input at a vertex giving that vertex's entry, its
-// Merged the other inputs at the vertex (Triangulation.Duplicates).
+// farthest point in output coordinates (c is valid during the call
+// only). A scene without s.cells (the early scene of an AnalysisWriter,
+// which runs beside the analysis) derives each from the layout in turn,
+// into one variable, holding no list of them: the inputs in order, each
+// first input at a vertex giving that vertex's entry, its Merged the
+// other inputs at the vertex (Triangulation.Duplicates).
 func (s *scene) forCells(f func(c *coverage.ServiceArea, far Point) error) error {
 	if s.cells != nil {
 		for i := range s.cells {
@@ -442,11 +464,12 @@ func (s *scene) forCells(f func(c *coverage.ServiceArea, far Point) error) error
 		}
 		merged[tri.Vertex[g[0]]] = m
 	}
+	var c coverage.ServiceArea // one for all: f may keep no reference to it
 	for i, v := range tri.Vertex {
 		if v < 0 || int(tri.Source[v]) != i {
 			continue
 		}
-		c := s.l.ServiceArea(v)
+		c = s.l.ServiceArea(v)
 		c.Merged = merged[v]
 		if err := f(&c, s.point(c.FarthestPoint)); err != nil {
 			return err
