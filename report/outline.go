@@ -201,10 +201,12 @@ const edgesPerCell = 4
 // outlineValid reports whether the closed rings of mp make the contacts
 // the file comment allows, and only those. Exact: orientation and dot
 // signs of the written coordinates. A feature of one convex ring (most
-// service areas) passes at once (convexRing); others go to pairsValid.
+// service areas) or one ring star-shaped about its vertex mean (most gap
+// outlines) passes at once (convexRing, starRing); others go to
+// pairsValid.
 func outlineValid(mp orb.MultiPolygon) bool {
-	if len(mp) == 1 && len(mp[0]) == 1 && convexRing(mp[0][0]) {
-		return true // most service areas: one convex ring
+	if len(mp) == 1 && len(mp[0]) == 1 && (convexRing(mp[0][0]) || starRing(mp[0][0])) {
+		return true // most service areas and gaps: one convex or star-shaped ring
 	}
 	return pairsValid(mp)
 }
@@ -441,6 +443,47 @@ func convexRing(r orb.Ring) bool {
 		}
 	}
 	return changes == 2
+}
+
+// starRing reports whether the closed ring r winds once counter-clockwise
+// round the mean p of its vertices with every edge turning strictly left
+// as seen from p: Orient2D(p, a, b) > 0 for each edge ab, and the
+// direction from p passes angle 0 exactly once (a vertex below the ray
+// from p along +x followed by one on or above it). Then each ray from p
+// meets the ring once, the edges fill disjoint angular sectors about p
+// in order (adjacent ones sharing only the ray through their common
+// vertex, which each meets only there), so the ring is simple and makes
+// no contact outlineValid refuses: outlineValid's pre-filter for a
+// non-convex ring, n exact orientation signs and comparisons instead of
+// the pairs of edges. p is any point (its rounding does not matter); when
+// it is not in the ring's kernel the test fails and the pairs decide.
+func starRing(r orb.Ring) bool {
+	n := len(r) - 1
+	if n < 3 || r[0] != r[n] {
+		return false
+	}
+	var px, py float64
+	for _, q := range r[:n] {
+		px += q[0]
+		py += q[1]
+	}
+	px, py = px/float64(n), py/float64(n)
+	// lower: the direction from p to q has angle in [π, 2π).
+	lower := func(q orb.Point) bool { return q[1] < py || (q[1] == py && q[0] <= px) }
+	wraps := 0
+	low := lower(r[0])
+	for i := range n {
+		a, b := r[i], r[i+1]
+		if !(planar.Orient2D(px, py, a[0], a[1], b[0], b[1]) > 0) { // also NaN
+			return false
+		}
+		bl := lower(b)
+		if low && !bl {
+			wraps++
+		}
+		low = bl
+	}
+	return wraps == 1
 }
 
 // outlineGrid is the uniform grid of outlineValid: g × g cells over the

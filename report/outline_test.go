@@ -167,6 +167,76 @@ func TestConvexRingAgreesWithPairs(t *testing.T) {
 	}
 }
 
+func TestStarRing(t *testing.T) {
+	// A five-pointed star outline (10 vertices, concave), as a gap
+	// between disks is: star-shaped about its centre.
+	var star []float64
+	for k := range 10 {
+		a, rad := math.Pi/2+2*math.Pi*float64(k)/10, 1.0
+		if k%2 == 1 {
+			rad = 0.4
+		}
+		star = append(star, rad*math.Cos(a), rad*math.Sin(a))
+	}
+	for _, c := range []struct {
+		name string
+		r    orb.Ring
+		want bool
+	}{
+		{"square", closed(0, 0, 1, 0, 1, 1, 0, 1), true},
+		{"star outline", closed(star...), true},
+		{"concave triangle", closed(0, 0, 1, 0.3, 2, 0, 1.3, 1, 1, 2, 0.7, 1), true},
+		{"clockwise", closed(0, 0, 0, 1, 1, 1, 1, 0), false},
+		{"pentagram: left turns about the centre, twice round", closed(0, 1, -0.951, -0.309, 0.588, -0.809, 0.588, 0.809, -0.951, 0.309), false},
+		{"spike back along an edge", closed(0, 0, 2, 0, 2, 2, 1, 2, 1.5, 2, 0, 2), false},
+		{"vertex mean outside the kernel", closed(0, 0, 10, 0, 10, 1, 1, 1, 1, 10, 0, 10), false},
+		{"repeated vertex", closed(0, 0, 1, 0, 1, 0, 1, 1, 0, 1), false},
+	} {
+		t.Run(c.name, func(t *testing.T) {
+			if got := starRing(c.r); got != c.want {
+				t.Errorf("starRing = %v, want %v", got, c.want)
+			}
+			if c.want && !pairsValid(orb.MultiPolygon{{c.r}}) {
+				t.Error("a star-shaped ring pairsValid refuses")
+			}
+		})
+	}
+}
+
+func TestStarRingAgreesWithPairs(t *testing.T) {
+	// On rounded random radial rings (star-shaped or not, some with
+	// vertices out of angular order, some with spikes and near contacts
+	// that rounding makes) the pre-filter never accepts one the pairwise
+	// check refuses, and it accepts most of the star-shaped ones.
+	rng := rand.New(rand.NewPCG(7, 8))
+	accepted, nonConvex := 0, 0
+	for range 20000 {
+		n := 3 + rng.IntN(40)
+		var pts []float64
+		for k := range n {
+			a := 2 * math.Pi * (float64(k) + 0.9*rng.Float64()) / float64(n)
+			if rng.IntN(30) == 0 {
+				a = 2 * math.Pi * rng.Float64() // sometimes out of order
+			}
+			rad := 1e-3 * (0.05 + rng.Float64())
+			pts = append(pts, round(rad*math.Cos(a), 3+rng.IntN(3)), round(rad*math.Sin(a), 3+rng.IntN(3)))
+		}
+		r := closed(pts...)
+		if starRing(r) {
+			accepted++
+			if !convexRing(r) {
+				nonConvex++
+			}
+			if !pairsValid(orb.MultiPolygon{{r}}) {
+				t.Fatalf("starRing accepts %v, the pairwise check refuses it", r)
+			}
+		}
+	}
+	if accepted < 1000 || nonConvex < 500 {
+		t.Errorf("only %d rings accepted, %d of them not convex", accepted, nonConvex)
+	}
+}
+
 // TestOutlineValidParallel checks outlines beyond parallelEdges, whose
 // grid cells pairsValid compares in bands on all processors: a square with
 // a lattice of square holes is valid, and a single bad contact anywhere
