@@ -107,15 +107,34 @@ func (l *geoJSON) spill() {
 	l.b = l.b[:0]
 }
 
-// geometry appends g as appendGeometry does, writing on between the rings
-// of a multipolygon, so that a single huge feature (the covered area of a
+// geometry appends g (or the point or multipolygon it points to, see
+// emitFunc) as appendGeometry does, writing on between the rings of a
+// multipolygon, so that a single huge feature (the covered area of a
 // large site is one polygon with a hole per gap) never gathers whole.
 func (l *geoJSON) geometry(g orb.Geometry) {
-	mp, ok := g.(orb.MultiPolygon)
-	if !ok {
+	switch g := g.(type) {
+	case *orb.Point:
+		l.point(*g)
+	case orb.Point:
+		l.point(g)
+	case *orb.MultiPolygon:
+		l.multiPolygon(*g)
+	case orb.MultiPolygon:
+		l.multiPolygon(g)
+	default:
 		l.b = appendGeometry(l.b, g)
-		return
 	}
+}
+
+// point appends a Point geometry (as appendGeometry does).
+func (l *geoJSON) point(p orb.Point) {
+	l.b = append(l.b, `{"type":"Point","coordinates":`...)
+	l.b = appendPos(l.b, p)
+	l.b = append(l.b, '}')
+}
+
+// multiPolygon appends a MultiPolygon geometry, writing on between rings.
+func (l *geoJSON) multiPolygon(mp orb.MultiPolygon) {
 	l.b = append(l.b, `{"type":"MultiPolygon","coordinates":[`...)
 	for i, p := range mp {
 		if i > 0 {
@@ -395,6 +414,7 @@ func (s *scene) sitesLayer() *layerDef {
 		each: func(emit emitFunc) error {
 			tri := s.l.Tri
 			vals := make([]value, 5) // reused: emit encodes a feature before it returns
+			pt := new(orb.Point)     // reused likewise (emitFunc)
 			for i, p := range s.l.Sites {
 				dup := -1
 				if tri != nil && i < len(tri.Vertex) && tri.Vertex[i] >= 0 {
@@ -407,7 +427,8 @@ func (s *scene) sitesLayer() *layerDef {
 					r = vReal(v)
 				}
 				vals[0], vals[1], vals[2], vals[3], vals[4] = vInt(i), vText(s.name(i)), r, vText(s.typeOf(i)), vInt(dup)
-				if err := emit(orb.Point(s.point(p)), vals...); err != nil {
+				*pt = orb.Point(s.point(p))
+				if err := emit(pt, vals...); err != nil {
 					return err
 				}
 			}
@@ -424,7 +445,8 @@ func (s *scene) serviceAreasLayer() *layerDef {
 		fields: fieldList(append(f, "merged", gpkg.Text)...),
 		each: func(emit emitFunc) error {
 			var buf polyBuf
-			vals := make([]value, 8) // reused: emit encodes a feature before it returns
+			vals := make([]value, 8)     // reused: emit encodes a feature before it returns
+			mpv := new(orb.MultiPolygon) // reused likewise (emitFunc)
 			return s.forCells(func(c *coverage.ServiceArea, far Point) error {
 				mp := s.cellPolygons(&buf, c.Vertex)
 				if len(mp) == 0 {
@@ -432,7 +454,8 @@ func (s *scene) serviceAreasLayer() *layerDef {
 				}
 				vals[0], vals[1], vals[2], vals[3], vals[4] = vInt(c.Site), vText(s.name(c.Site)), vReal(c.Area), vReal(c.Share), vReal(c.Farthest)
 				vals[5], vals[6], vals[7] = vReal(far[0]), vReal(far[1]), vInts(c.Merged)
-				return emit(mp, vals...)
+				*mpv = mp
+				return emit(mpv, vals...)
 			})
 		}}, 0)
 }
@@ -492,7 +515,8 @@ func (s *scene) gapLayer(gaps []coverage.Gap, r float64, deepest func(i int) Poi
 	return &layerDef{geom: gpkg.MultiPolygon, fields: s.gapFields(),
 		each: func(emit emitFunc) error {
 			var buf polyBuf
-			vals := make([]value, 8) // reused: emit encodes a feature before it returns
+			vals := make([]value, 8)     // reused: emit encodes a feature before it returns
+			mpv := new(orb.MultiPolygon) // reused likewise (emitFunc)
 			for gi := range gaps {
 				g := &gaps[gi]
 				mp := s.conservativeInto(&buf, g.Outline, 1)
@@ -502,7 +526,8 @@ func (s *scene) gapLayer(gaps []coverage.Gap, r float64, deepest func(i int) Poi
 				d := deepest(gi)
 				vals[0], vals[1], vals[2], vals[3], vals[4] = vInt(g.ID), vReal(g.Area), vReal(g.ClosingRange), vReal(d[0]), vReal(d[1])
 				vals[5], vals[6], vals[7] = vBool(g.TouchesBoundary), vInts(g.Sites), vReal(r)
-				if err := emit(mp, vals...); err != nil {
+				*mpv = mp
+				if err := emit(mpv, vals...); err != nil {
 					return err
 				}
 			}
@@ -522,10 +547,12 @@ func (s *scene) holesLayer() *layerDef {
 				return nil
 			}
 			vals := make([]value, 5) // reused: emit encodes a feature before it returns
+			pt := new(orb.Point)     // reused likewise (emitFunc)
 			for i := range p.Holes {
 				h := &p.Holes[i]
 				vals[0], vals[1], vals[2], vals[3], vals[4] = vReal(h.Birth), vReal(h.Death), vReal(h.Death-h.Birth), vText(s.holeNote(i)), vInts(h.BirthSites[:])
-				if err := emit(orb.Point(s.closingOut(i)), vals...); err != nil {
+				*pt = orb.Point(s.closingOut(i))
+				if err := emit(pt, vals...); err != nil {
 					return err
 				}
 			}

@@ -34,7 +34,7 @@ func collect(t *testing.T, def *layerDef) []orb.MultiPolygon {
 	t.Helper()
 	var out []orb.MultiPolygon
 	err := def.each(func(g orb.Geometry, _ ...value) error {
-		out = append(out, g.(orb.MultiPolygon).Clone())
+		out = append(out, plainGeometry(g).(orb.MultiPolygon).Clone())
 		return nil
 	})
 	if err != nil {

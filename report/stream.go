@@ -183,8 +183,24 @@ const ListSeparator = ";"
 
 // emitFunc receives one feature of a layer: its geometry in output
 // coordinates and one value per field of the layer (null for none). The
+// geometry is an orb geometry or a pointer to an orb.Point or
+// orb.MultiPolygon (plainGeometry): a producer of many features passes a
+// pointer to a variable of its own, which boxes nothing (an orb.Point or
+// a slice header made an interface value is an allocation). Geometry and
 // values are read before it returns, so a producer may reuse them.
 type emitFunc func(g orb.Geometry, vals ...value) error
+
+// plainGeometry returns g, or the orb.Point or orb.MultiPolygon g points
+// to (emitFunc).
+func plainGeometry(g orb.Geometry) orb.Geometry {
+	switch g := g.(type) {
+	case *orb.Point:
+		return *g
+	case *orb.MultiPolygon:
+		return *g
+	}
+	return g
+}
 
 // value is one property value of a feature, held typed so that producing
 // a feature boxes nothing (a layer of 10⁶ features would otherwise
@@ -389,7 +405,7 @@ func (s *scene) writeLayer(out io.Writer, d *layerDef, g *gpkgSet) error {
 		}
 		g.mu.Lock()
 		defer g.mu.Unlock()
-		return gl.Insert(geom, boxed...)
+		return gl.Insert(plainGeometry(geom), boxed...)
 	})
 	if err != nil {
 		return err
