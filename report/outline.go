@@ -373,7 +373,7 @@ func (o *outlineEdges) fill(mp orb.MultiPolygon, total int) orb.Bound {
 	o.xy = slices.Grow(o.xy[:0], 2*(total+rings))
 	o.ring = slices.Grow(o.ring[:0], total+rings)
 	o.ringStart = slices.Grow(o.ringStart[:0], rings+1)
-	b := orb.Bound{Min: orb.Point{math.Inf(1), math.Inf(1)}, Max: orb.Point{math.Inf(-1), math.Inf(-1)}}
+	x0, y0, x1, y1 := math.Inf(1), math.Inf(1), math.Inf(-1), math.Inf(-1)
 	k := int32(0)
 	for _, p := range mp {
 		for _, r := range p {
@@ -382,14 +382,14 @@ func (o *outlineEdges) fill(mp orb.MultiPolygon, total int) orb.Bound {
 				o.xy = append(o.xy, q[0], q[1])
 				o.ring = append(o.ring, k)
 				if i < len(r)-1 {
-					b = b.Extend(q)
+					x0, y0, x1, y1 = min(x0, q[0]), min(y0, q[1]), max(x1, q[0]), max(y1, q[1])
 				}
 			}
 			k++
 		}
 	}
 	o.ringStart = append(o.ringStart, int32(len(o.ring)))
-	return b
+	return orb.Bound{Min: orb.Point{x0, y0}, Max: orb.Point{x1, y1}}
 }
 
 // edges calls f with each edge (its first position) in order.
