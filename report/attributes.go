@@ -99,22 +99,17 @@ func (s *scene) withAttributes(d *layerDef, siteAt int) *layerDef {
 	fields := append(d.fields[:len(d.fields):len(d.fields)], extra...)
 	return &layerDef{table: d.table, geom: d.geom, fields: fields, lead: d.lead,
 		each: func(emit emitFunc) error {
-			return each(func(g orb.Geometry, vals ...any) error {
+			var all []value // reused: emit reads the values before it returns
+			return each(func(g orb.Geometry, vals ...value) error {
 				site := -1
-				switch v := vals[siteAt].(type) {
-				case int:
-					site = v
-				case int32:
-					site = int(v)
-				case int64:
-					site = int(v)
+				if v := vals[siteAt]; v.kind == intValue {
+					site = int(v.n)
 				}
-				all := make([]any, len(vals), len(vals)+len(attrs))
-				copy(all, vals)
+				all = append(all[:0], vals...)
 				for _, a := range attrs {
-					var v any
+					var v value
 					if site >= 0 && site < len(a.Values) {
-						v = a.Values[site]
+						v = vAny(a.Values[site])
 					}
 					all = append(all, v)
 				}

@@ -71,9 +71,8 @@ func (s *scene) newGeoJSON(w io.Writer) *geoJSON {
 	return l
 }
 
-// feature writes one feature with the given fields and values (nil,
-// string, bool, float64 or an integer type).
-func (l *geoJSON) feature(g orb.Geometry, fields []gpkg.Field, vals []any) error {
+// feature writes one feature with the given fields and values.
+func (l *geoJSON) feature(g orb.Geometry, fields []gpkg.Field, vals []value) error {
 	if l.n > 0 {
 		l.b = append(l.b, ',')
 	}
@@ -85,7 +84,7 @@ func (l *geoJSON) feature(g orb.Geometry, fields []gpkg.Field, vals []any) error
 		l.b = kv(l.b, f.Name, i == 0)
 		n := len(l.b)
 		l.b = appendValue(l.b, vals[i])
-		if f.Type == gpkg.Real && vals[i] != nil && !hasDecimalMark(l.b[n:]) {
+		if f.Type == gpkg.Real && vals[i].kind != nullValue && !hasDecimalMark(l.b[n:]) {
 			// A whole number in a REAL field keeps a decimal point, so a
 			// reader that guesses types (GDAL) makes the field real, as in
 			// the GeoPackage, whatever the values.
@@ -108,15 +107,34 @@ func (l *geoJSON) spill() {
 	l.b = l.b[:0]
 }
 
-// geometry appends g as appendGeometry does, writing on between the rings
-// of a multipolygon, so that a single huge feature (the covered area of a
+// geometry appends g (or the point or multipolygon it points to, see
+// emitFunc) as appendGeometry does, writing on between the rings of a
+// multipolygon, so that a single huge feature (the covered area of a
 // large site is one polygon with a hole per gap) never gathers whole.
 func (l *geoJSON) geometry(g orb.Geometry) {
-	mp, ok := g.(orb.MultiPolygon)
-	if !ok {
+	switch g := g.(type) {
+	case *orb.Point:
+		l.point(*g)
+	case orb.Point:
+		l.point(g)
+	case *orb.MultiPolygon:
+		l.multiPolygon(*g)
+	case orb.MultiPolygon:
+		l.multiPolygon(g)
+	default:
 		l.b = appendGeometry(l.b, g)
-		return
 	}
+}
+
+// point appends a Point geometry (as appendGeometry does).
+func (l *geoJSON) point(p orb.Point) {
+	l.b = append(l.b, `{"type":"Point","coordinates":`...)
+	l.b = appendPos(l.b, p)
+	l.b = append(l.b, '}')
+}
+
+// multiPolygon appends a MultiPolygon geometry, writing on between rings.
+func (l *geoJSON) multiPolygon(mp orb.MultiPolygon) {
 	l.b = append(l.b, `{"type":"MultiPolygon","coordinates":[`...)
 	for i, p := range mp {
 		if i > 0 {
@@ -127,13 +145,34 @@ func (l *geoJSON) geometry(g orb.Geometry) {
 			if k > 0 {
 				l.b = append(l.b, ',')
 			}
-			l.b = appendRing(l.b, r)
+			l.ring(r)
 			l.spill()
 		}
 		l.b = append(l.b, ']')
 	}
 	l.b = append(l.b, "]}"...)
 }
+
+// ring appends the positions of r as appendRing does, writing on every
+// ringSpill positions, so that the buffer never grows past its capacity
+// for a ring of 10⁶ positions (the outline of a gap spanning the site).
+func (l *geoJSON) ring(r orb.Ring) {
+	l.b = append(l.b, '[')
+	for j, q := range r {
+		if j > 0 {
+			l.b = append(l.b, ',')
+		}
+		l.b = appendPos(l.b, q)
+		if j%ringSpill == ringSpill-1 {
+			l.spill()
+		}
+	}
+	l.b = append(l.b, ']')
+}
+
+// ringSpill is how many positions ring writes between spills: at most
+// some 50 bytes each, far below the buffer's spare geoJSONFlush bytes.
+const ringSpill = 1024
 
 // hasDecimalMark reports whether a written number has a decimal point or
 // an exponent, or is the word null (the bytes '.', 'e', 'n').
@@ -156,25 +195,29 @@ func (l *geoJSON) close() error {
 	return l.err
 }
 
-// appendValue appends one property value.
-func appendValue(b []byte, v any) []byte {
-	switch v := v.(type) {
-	case nil:
-		return append(b, "null"...)
-	case string:
-		return appendStr(b, v)
-	case bool:
-		return strconv.AppendBool(b, v)
-	case float64:
-		return appendNum(b, v)
-	case int:
-		return strconv.AppendInt(b, int64(v), 10)
-	case int32:
-		return strconv.AppendInt(b, int64(v), 10)
-	case int64:
-		return strconv.AppendInt(b, v, 10)
+// appendValue appends one property value (a real that is not finite as
+// null, an index list as joinInts writes it).
+func appendValue(b []byte, v value) []byte {
+	switch v.kind {
+	case textValue:
+		return appendStr(b, v.s)
+	case intValue:
+		return strconv.AppendInt(b, v.n, 10)
+	case realValue:
+		return appendNum(b, v.f)
+	case boolValue:
+		return strconv.AppendBool(b, v.n != 0)
+	case intsValue:
+		b = append(b, '"')
+		for i, x := range v.ints {
+			if i > 0 {
+				b = append(b, ListSeparator...)
+			}
+			b = strconv.AppendInt(b, int64(x), 10)
+		}
+		return append(b, '"')
 	}
-	panic(fmt.Sprintf("report: layer property of type %T", v)) // a programming error: every producer passes the types above
+	return append(b, "null"...)
 }
 
 func appendGeometry(b []byte, g orb.Geometry) []byte {
@@ -370,7 +413,8 @@ func (s *scene) sitesLayer() *layerDef {
 		fields: fieldList("site", gpkg.Integer, "name", gpkg.Text, "range_m", gpkg.Real, "type", gpkg.Text, "duplicate_of", gpkg.Integer),
 		each: func(emit emitFunc) error {
 			tri := s.l.Tri
-			vals := make([]any, 5) // reused: emit encodes a feature before it returns
+			vals := make([]value, 5) // reused: emit encodes a feature before it returns
+			pt := new(orb.Point)     // reused likewise (emitFunc)
 			for i, p := range s.l.Sites {
 				dup := -1
 				if tri != nil && i < len(tri.Vertex) && tri.Vertex[i] >= 0 {
@@ -378,12 +422,13 @@ func (s *scene) sitesLayer() *layerDef {
 						dup = src
 					}
 				}
-				var r any
+				var r value
 				if v := s.rangeOf(i); v > 0 {
-					r = v
+					r = vReal(v)
 				}
-				vals[0], vals[1], vals[2], vals[3], vals[4] = i, s.name(i), r, s.typeOf(i), dup
-				if err := emit(orb.Point(s.point(p)), vals...); err != nil {
+				vals[0], vals[1], vals[2], vals[3], vals[4] = vInt(i), vText(s.name(i)), r, vText(s.typeOf(i)), vInt(dup)
+				*pt = orb.Point(s.point(p))
+				if err := emit(pt, vals...); err != nil {
 					return err
 				}
 			}
@@ -400,25 +445,28 @@ func (s *scene) serviceAreasLayer() *layerDef {
 		fields: fieldList(append(f, "merged", gpkg.Text)...),
 		each: func(emit emitFunc) error {
 			var buf polyBuf
-			vals := make([]any, 8) // reused: emit encodes a feature before it returns
+			vals := make([]value, 8)     // reused: emit encodes a feature before it returns
+			mpv := new(orb.MultiPolygon) // reused likewise (emitFunc)
 			return s.forCells(func(c *coverage.ServiceArea, far Point) error {
 				mp := s.cellPolygons(&buf, c.Vertex)
 				if len(mp) == 0 {
 					return nil
 				}
-				vals[0], vals[1], vals[2], vals[3], vals[4] = c.Site, s.name(c.Site), c.Area, c.Share, c.Farthest
-				vals[5], vals[6], vals[7] = far[0], far[1], joinInts(c.Merged)
-				return emit(mp, vals...)
+				vals[0], vals[1], vals[2], vals[3], vals[4] = vInt(c.Site), vText(s.name(c.Site)), vReal(c.Area), vReal(c.Share), vReal(c.Farthest)
+				vals[5], vals[6], vals[7] = vReal(far[0]), vReal(far[1]), vInts(c.Merged)
+				*mpv = mp
+				return emit(mpv, vals...)
 			})
 		}}, 0)
 }
 
 // forCells calls f with each service area in the order of s.cells and its
-// farthest point in output coordinates. A scene without s.cells (the
-// early scene of an AnalysisWriter, which runs beside the analysis) derives
-// each from the layout in turn, holding no list of them: the inputs in
-// order, each first input at a vertex giving that vertex's entry, its
-// Merged the other inputs at the vertex (Triangulation.Duplicates).
+// farthest point in output coordinates (c is valid during the call
+// only). A scene without s.cells (the early scene of an AnalysisWriter,
+// which runs beside the analysis) derives each from the layout in turn,
+// into one variable, holding no list of them: the inputs in order, each
+// first input at a vertex giving that vertex's entry, its Merged the
+// other inputs at the vertex (Triangulation.Duplicates).
 func (s *scene) forCells(f func(c *coverage.ServiceArea, far Point) error) error {
 	if s.cells != nil {
 		for i := range s.cells {
@@ -439,11 +487,12 @@ func (s *scene) forCells(f func(c *coverage.ServiceArea, far Point) error) error
 		}
 		merged[tri.Vertex[g[0]]] = m
 	}
+	var c coverage.ServiceArea // one for all: f may keep no reference to it
 	for i, v := range tri.Vertex {
 		if v < 0 || int(tri.Source[v]) != i {
 			continue
 		}
-		c := s.l.ServiceArea(v)
+		c = s.l.ServiceArea(v)
 		c.Merged = merged[v]
 		if err := f(&c, s.point(c.FarthestPoint)); err != nil {
 			return err
@@ -466,13 +515,19 @@ func (s *scene) gapLayer(gaps []coverage.Gap, r float64, deepest func(i int) Poi
 	return &layerDef{geom: gpkg.MultiPolygon, fields: s.gapFields(),
 		each: func(emit emitFunc) error {
 			var buf polyBuf
-			for gi, g := range gaps {
+			vals := make([]value, 8)     // reused: emit encodes a feature before it returns
+			mpv := new(orb.MultiPolygon) // reused likewise (emitFunc)
+			for gi := range gaps {
+				g := &gaps[gi]
 				mp := s.conservativeInto(&buf, g.Outline, 1)
 				if len(mp) == 0 {
 					continue
 				}
 				d := deepest(gi)
-				if err := emit(mp, g.ID, g.Area, g.ClosingRange, d[0], d[1], g.TouchesBoundary, joinInts(g.Sites), r); err != nil {
+				vals[0], vals[1], vals[2], vals[3], vals[4] = vInt(g.ID), vReal(g.Area), vReal(g.ClosingRange), vReal(d[0]), vReal(d[1])
+				vals[5], vals[6], vals[7] = vBool(g.TouchesBoundary), vInts(g.Sites), vReal(r)
+				*mpv = mp
+				if err := emit(mpv, vals...); err != nil {
 					return err
 				}
 			}
@@ -491,10 +546,13 @@ func (s *scene) holesLayer() *layerDef {
 			if p == nil {
 				return nil
 			}
-			vals := make([]any, 5) // reused: emit encodes a feature before it returns
-			for i, h := range p.Holes {
-				vals[0], vals[1], vals[2], vals[3], vals[4] = h.Birth, h.Death, h.Death-h.Birth, s.holeNote(i), joinInts(h.BirthSites[:])
-				if err := emit(orb.Point(s.closingOut(i)), vals...); err != nil {
+			vals := make([]value, 5) // reused: emit encodes a feature before it returns
+			pt := new(orb.Point)     // reused likewise (emitFunc)
+			for i := range p.Holes {
+				h := &p.Holes[i]
+				vals[0], vals[1], vals[2], vals[3], vals[4] = vReal(h.Birth), vReal(h.Death), vReal(h.Death-h.Birth), vText(s.holeNote(i)), vInts(h.BirthSites[:])
+				*pt = orb.Point(s.closingOut(i))
+				if err := emit(pt, vals...); err != nil {
 					return err
 				}
 			}
@@ -531,7 +589,7 @@ func (s *scene) coveredLayer() *layerDef {
 					continue
 				}
 				n++
-				if err := emit(mp, n, area[i], s.a.Range); err != nil {
+				if err := emit(mp, vInt(n), vReal(area[i]), vReal(s.a.Range)); err != nil {
 					return err
 				}
 			}

@@ -359,7 +359,7 @@ func (s *scene) reachLayer(kc *coverage.KCoverage) *layerDef {
 				if !own {
 					v = append(v, kc.Range)
 				}
-				if err := emit(out, v...); err != nil {
+				if err := emit(out, values(v...)...); err != nil {
 					return err
 				}
 			}
@@ -396,7 +396,7 @@ func (s *scene) reachGapsLayer(kc *coverage.KCoverage) *layerDef {
 					} else {
 						v = append(v, kc.Range)
 					}
-					if err := emit(out, v...); err != nil {
+					if err := emit(out, values(v...)...); err != nil {
 						return err
 					}
 				}

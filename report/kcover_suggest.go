@@ -641,7 +641,7 @@ func (s *scene) reachAddedLayer(sg *coverage.ReachSuggestion, after *scene) *lay
 					v = append(v, nullInf(st.CoverRange))
 				}
 				v = append(v, st.Share, st.CoveredArea, sg.Range)
-				if err := emit(orb.Point(s.point(st.Added)), v...); err != nil {
+				if err := emit(orb.Point(s.point(st.Added)), values(v...)...); err != nil {
 					return err
 				}
 			}
@@ -780,7 +780,7 @@ func (s *scene) reachCandidatesLayer(p *ReachPlan, after *scene) *layerDef {
 				if ch.OwnRanges {
 					v[len(v)-1] = p.CandidateRanges[i]
 				}
-				if err := emit(orb.Point(s.point(c)), v...); err != nil {
+				if err := emit(orb.Point(s.point(c)), values(v...)...); err != nil {
 					return err
 				}
 			}

@@ -201,10 +201,12 @@ const edgesPerCell = 4
 // outlineValid reports whether the closed rings of mp make the contacts
 // the file comment allows, and only those. Exact: orientation and dot
 // signs of the written coordinates. A feature of one convex ring (most
-// service areas) passes at once (convexRing); others go to pairsValid.
+// service areas), or one ring star-shaped about its vertex mean or
+// monotone in x or y (most gap outlines), passes at once (convexRing,
+// starRing, monotoneRing); others go to pairsValid.
 func outlineValid(mp orb.MultiPolygon) bool {
-	if len(mp) == 1 && len(mp[0]) == 1 && convexRing(mp[0][0]) {
-		return true // most service areas: one convex ring
+	if len(mp) == 1 && len(mp[0]) == 1 && (convexRing(mp[0][0]) || starRing(mp[0][0]) || monotoneRing(mp[0][0])) {
+		return true // most service areas and gaps: one convex, star-shaped or monotone ring
 	}
 	return pairsValid(mp)
 }
@@ -371,7 +373,7 @@ func (o *outlineEdges) fill(mp orb.MultiPolygon, total int) orb.Bound {
 	o.xy = slices.Grow(o.xy[:0], 2*(total+rings))
 	o.ring = slices.Grow(o.ring[:0], total+rings)
 	o.ringStart = slices.Grow(o.ringStart[:0], rings+1)
-	b := orb.Bound{Min: orb.Point{math.Inf(1), math.Inf(1)}, Max: orb.Point{math.Inf(-1), math.Inf(-1)}}
+	x0, y0, x1, y1 := math.Inf(1), math.Inf(1), math.Inf(-1), math.Inf(-1)
 	k := int32(0)
 	for _, p := range mp {
 		for _, r := range p {
@@ -380,14 +382,14 @@ func (o *outlineEdges) fill(mp orb.MultiPolygon, total int) orb.Bound {
 				o.xy = append(o.xy, q[0], q[1])
 				o.ring = append(o.ring, k)
 				if i < len(r)-1 {
-					b = b.Extend(q)
+					x0, y0, x1, y1 = min(x0, q[0]), min(y0, q[1]), max(x1, q[0]), max(y1, q[1])
 				}
 			}
 			k++
 		}
 	}
 	o.ringStart = append(o.ringStart, int32(len(o.ring)))
-	return b
+	return orb.Bound{Min: orb.Point{x0, y0}, Max: orb.Point{x1, y1}}
 }
 
 // edges calls f with each edge (its first position) in order.
@@ -441,6 +443,148 @@ func convexRing(r orb.Ring) bool {
 		}
 	}
 	return changes == 2
+}
+
+// starRing reports whether the closed ring r winds once counter-clockwise
+// round the mean p of its vertices with every edge turning strictly left
+// as seen from p: Orient2D(p, a, b) > 0 for each edge ab, and the
+// direction from p passes angle 0 exactly once (a vertex below the ray
+// from p along +x followed by one on or above it). Then each ray from p
+// meets the ring once, the edges fill disjoint angular sectors about p
+// in order (adjacent ones sharing only the ray through their common
+// vertex, which each meets only there), so the ring is simple and makes
+// no contact outlineValid refuses: outlineValid's pre-filter for a
+// non-convex ring, n exact orientation signs and comparisons instead of
+// the pairs of edges. p is any point (its rounding does not matter); when
+// it is not in the ring's kernel the test fails and the pairs decide.
+func starRing(r orb.Ring) bool {
+	n := len(r) - 1
+	if n < 3 || r[0] != r[n] {
+		return false
+	}
+	var px, py float64
+	for _, q := range r[:n] {
+		px += q[0]
+		py += q[1]
+	}
+	px, py = px/float64(n), py/float64(n)
+	// lower: the direction from p to q has angle in [π, 2π).
+	lower := func(q orb.Point) bool { return q[1] < py || (q[1] == py && q[0] <= px) }
+	wraps := 0
+	low := lower(r[0])
+	for i := range n {
+		a, b := r[i], r[i+1]
+		if !(planar.Orient2D(px, py, a[0], a[1], b[0], b[1]) > 0) { // also NaN
+			return false
+		}
+		bl := lower(b)
+		if low && !bl {
+			wraps++
+		}
+		low = bl
+	}
+	return wraps == 1
+}
+
+// monotoneRing reports whether the closed ring r is strictly monotone
+// along x or along y with its two chains strictly apart (monotoneAlong):
+// outlineValid's pre-filter for a thin crescent (a gap between two disks
+// almost touching), which no point sees whole, in one pass over the ring.
+func monotoneRing(r orb.Ring) bool {
+	n := len(r) - 1
+	if n < 3 || r[0] != r[n] {
+		return false
+	}
+	return monotoneAlong(r[:n], 0) || monotoneAlong(r[:n], 1)
+}
+
+// monotoneAlong reports, for the positions pts of a ring (not repeated at
+// the end) and the coordinate u = q[k] (v the other one), whether
+//   - from the vertex of least u the ring rises strictly in u to the vertex
+//     of greatest u both ways round (two chains a and b), except that one
+//     of the two chains may have a level edge at either end, and
+//   - at every vertex of either chain other than those two ends, the other
+//     chain (its edge spanning that u) lies strictly on one side, below for
+//     the vertices of one chain and above for those of the other (exact
+//     orientation signs in the u, v plane; for a vertex at the u of an
+//     end, the sign of its v against that end).
+//
+// Then the v-distance of the chains is linear between consecutive vertex
+// positions in u and nonzero at each: the chains meet only at their
+// common ends (a level end edge lies on the line u = const, which the
+// other chain meets only at the end vertex), each chain is simple
+// (monotone), and the ring is a simple polygon making none of the
+// contacts outlineValid refuses.
+func monotoneAlong(pts []orb.Point, k int) bool {
+	n := len(pts)
+	lo, hi := 0, 0
+	for i, q := range pts {
+		if q[k] < pts[lo][k] {
+			lo = i
+		}
+		if q[k] > pts[hi][k] {
+			hi = i
+		}
+	}
+	// a: lo, lo+1, …, hi; b: lo, lo−1, …, hi (indices mod n), both rising.
+	na := (hi - lo + n) % n
+	nb := n - na
+	a := func(i int) orb.Point { return pts[(lo+i)%n] }
+	b := func(i int) orb.Point { return pts[(lo-i+n)%n] }
+	// rising checks that chain c of m edges rises strictly, except that
+	// its first and last edges may be level (a rounded cusp: an edge of
+	// 1 mm across u at an end); it reports which ends are level.
+	rising := func(c func(int) orb.Point, m int) (ok, first, last bool) {
+		for i := range m {
+			if u0, u1 := c(i)[k], c(i + 1)[k]; !(u0 < u1) {
+				if u0 != u1 || (i != 0 && i != m-1) {
+					return false, false, false
+				}
+				first, last = first || i == 0, last || i == m-1
+			}
+		}
+		return true, first, last
+	}
+	okA, firstA, lastA := rising(a, na)
+	okB, firstB, lastB := rising(b, nb)
+	if !okA || !okB || (firstA && firstB) || (lastA && lastB) {
+		return false // level ends on both chains could fold back
+	}
+	// side: the sign the vertices of a must have against b (those of b
+	// have the opposite one against a); 0 until the first is found.
+	side := 0
+	check := func(p func(int) orb.Point, np int, c func(int) orb.Point, nc int, want int) bool {
+		j := 0 // the edge c(j)–c(j+1) spans the u of the vertex
+		for i := 1; i < np; i++ {
+			q := p(i)
+			for c(j + 1)[k] < q[k] {
+				j++
+			}
+			e0, e1 := c(j), c(j+1)
+			o := planar.Orient2D(e0[k], e0[1-k], e1[k], e1[1-k], q[k], q[1-k])
+			s := 0
+			if o > 0 {
+				s = 1
+			} else if o < 0 {
+				s = -1
+			}
+			if s == 0 {
+				return false // on the other chain, or NaN
+			}
+			if want == 0 {
+				want = s
+				side = s
+			}
+			if s != want {
+				return false
+			}
+		}
+		return true
+	}
+	if !check(a, na, b, nb, 0) {
+		return false
+	}
+	return check(b, nb, a, na, -side)
 }
 
 // outlineGrid is the uniform grid of outlineValid: g × g cells over the

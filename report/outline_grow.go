@@ -433,13 +433,14 @@ func (s *scene) offsetRoundChunks(b *polyBuf, mp orb.MultiPolygon, d float64, ae
 // corner cases of one loop, kept together.
 func (sc *offsetScratch) offsetRing(r orb.Ring, d float64, ae *areaEdges) (orb.Ring, bool) {
 	pts := sc.pts[:0]
-	b := orb.Bound{Min: r[0], Max: r[0]}
+	x0, y0, x1, y1 := r[0][0], r[0][1], r[0][0], r[0][1] // the ring's box
 	for _, q := range r {
 		if len(pts) == 0 || q != pts[len(pts)-1] {
 			pts = append(pts, q)
-			b = b.Extend(q)
+			x0, y0, x1, y1 = min(x0, q[0]), min(y0, q[1]), max(x1, q[0]), max(y1, q[1])
 		}
 	}
+	b := orb.Bound{Min: orb.Point{x0, y0}, Max: orb.Point{x1, y1}}
 	sc.pts = pts[:0]
 	for len(pts) > 1 && pts[len(pts)-1] == pts[0] {
 		pts = pts[:len(pts)-1]

@@ -33,8 +33,8 @@ type growScene struct {
 func collect(t *testing.T, def *layerDef) []orb.MultiPolygon {
 	t.Helper()
 	var out []orb.MultiPolygon
-	err := def.each(func(g orb.Geometry, _ ...any) error {
-		out = append(out, g.(orb.MultiPolygon).Clone())
+	err := def.each(func(g orb.Geometry, _ ...value) error {
+		out = append(out, plainGeometry(g).(orb.MultiPolygon).Clone())
 		return nil
 	})
 	if err != nil {

@@ -6,9 +6,11 @@ package report
 import (
 	"math"
 	"math/rand/v2"
+	"slices"
 	"testing"
 
 	"github.com/paulmach/orb"
+	"github.com/sitecover/sitecover/planar"
 )
 
 // closed returns the ring through pts, closed.
@@ -164,6 +166,190 @@ func TestConvexRingAgreesWithPairs(t *testing.T) {
 	}
 	if accepted < 1000 {
 		t.Errorf("only %d rings accepted", accepted)
+	}
+}
+
+func TestStarRing(t *testing.T) {
+	// A five-pointed star outline (10 vertices, concave), as a gap
+	// between disks is: star-shaped about its centre.
+	var star []float64
+	for k := range 10 {
+		a, rad := math.Pi/2+2*math.Pi*float64(k)/10, 1.0
+		if k%2 == 1 {
+			rad = 0.4
+		}
+		star = append(star, rad*math.Cos(a), rad*math.Sin(a))
+	}
+	for _, c := range []struct {
+		name string
+		r    orb.Ring
+		want bool
+	}{
+		{"square", closed(0, 0, 1, 0, 1, 1, 0, 1), true},
+		{"star outline", closed(star...), true},
+		{"concave triangle", closed(0, 0, 1, 0.3, 2, 0, 1.3, 1, 1, 2, 0.7, 1), true},
+		{"clockwise", closed(0, 0, 0, 1, 1, 1, 1, 0), false},
+		{"pentagram: left turns about the centre, twice round", closed(0, 1, -0.951, -0.309, 0.588, -0.809, 0.588, 0.809, -0.951, 0.309), false},
+		{"spike back along an edge", closed(0, 0, 2, 0, 2, 2, 1, 2, 1.5, 2, 0, 2), false},
+		{"vertex mean outside the kernel", closed(0, 0, 10, 0, 10, 1, 1, 1, 1, 10, 0, 10), false},
+		{"repeated vertex", closed(0, 0, 1, 0, 1, 0, 1, 1, 0, 1), false},
+	} {
+		t.Run(c.name, func(t *testing.T) {
+			if got := starRing(c.r); got != c.want {
+				t.Errorf("starRing = %v, want %v", got, c.want)
+			}
+			if c.want && !pairsValid(orb.MultiPolygon{{c.r}}) {
+				t.Error("a star-shaped ring pairsValid refuses")
+			}
+		})
+	}
+}
+
+func TestStarRingAgreesWithPairs(t *testing.T) {
+	// On rounded random radial rings (star-shaped or not, some with
+	// vertices out of angular order, some with spikes and near contacts
+	// that rounding makes) the pre-filter never accepts one the pairwise
+	// check refuses, and it accepts most of the star-shaped ones.
+	rng := rand.New(rand.NewPCG(7, 8))
+	accepted, nonConvex := 0, 0
+	for range 20000 {
+		n := 3 + rng.IntN(40)
+		var pts []float64
+		for k := range n {
+			a := 2 * math.Pi * (float64(k) + 0.9*rng.Float64()) / float64(n)
+			if rng.IntN(30) == 0 {
+				a = 2 * math.Pi * rng.Float64() // sometimes out of order
+			}
+			rad := 1e-3 * (0.05 + rng.Float64())
+			pts = append(pts, round(rad*math.Cos(a), 3+rng.IntN(3)), round(rad*math.Sin(a), 3+rng.IntN(3)))
+		}
+		r := closed(pts...)
+		if starRing(r) {
+			accepted++
+			if !convexRing(r) {
+				nonConvex++
+			}
+			if !pairsValid(orb.MultiPolygon{{r}}) {
+				t.Fatalf("starRing accepts %v, the pairwise check refuses it", r)
+			}
+		}
+	}
+	if accepted < 1000 || nonConvex < 500 {
+		t.Errorf("only %d rings accepted, %d of them not convex", accepted, nonConvex)
+	}
+}
+
+func TestMonotoneRing(t *testing.T) {
+	// A crescent between two arcs bulging the same way (a gap between
+	// two disks almost touching), seen by no single point.
+	var crescent []float64
+	for k := range 9 {
+		a := math.Pi * float64(k) / 8
+		crescent = append(crescent, -math.Cos(a), 0.5*math.Sin(a))
+	}
+	for k := 7; k >= 1; k-- {
+		a := math.Pi * float64(k) / 8
+		crescent = append(crescent, -0.98*math.Cos(a), 0.4*math.Sin(a))
+	}
+	for _, c := range []struct {
+		name string
+		r    orb.Ring
+		want bool
+	}{
+		{"crescent", closed(crescent...), true},
+		{"crescent along y", closed(swapXY(crescent)...), true},
+		{"level end (a rounded cusp)", closed(0, 0, 1, -0.1, 2, 0, 2, 0.001, 1, -0.09), true},
+		{"level ends on both chains: a spike", closed(0, 0, 1, -0.1, 2, -0.05, 2, 0.001, 2, -0.04, 1, -0.09), false},
+		{"diamond", closed(0, 0, 1, 1, 2, 0, 1, -1), true},
+		{"chains crossing", closed(0, 0, 1, 1, 2, 0, 3, 1, 4, 0, 3, 2, 2, -1, 1, 2), false},
+		{"chains touching at a vertex", closed(0, 0, 1, 0.5, 2, 0, 1, 0.5), false},
+		{"vertex of one chain on the other's edge", closed(0, 0, 1, 1, 2, 0, 1, 0.5, 1.5, 0.5), false},
+		{"notched, monotone in y", closed(0, 0, 2, 0, 1, 1, 2, 2, 0, 2, 0.5, 1), true},
+		{"not monotone", closed(0, 0, 3, 0, 3, 3, 0, 3, 0, 2, 2, 2, 2, 1, 0, 1), false},
+	} {
+		t.Run(c.name, func(t *testing.T) {
+			if got := monotoneRing(c.r); got != c.want {
+				t.Errorf("monotoneRing = %v, want %v", got, c.want)
+			}
+			if c.want && !pairsValid(orb.MultiPolygon{{c.r}}) {
+				t.Error("a monotone ring pairsValid refuses")
+			}
+		})
+	}
+}
+
+// swapXY swaps the coordinates of interleaved x, y values.
+func swapXY(xy []float64) []float64 {
+	out := make([]float64, len(xy))
+	for i := 0; i+1 < len(xy); i += 2 {
+		out[i], out[i+1] = xy[i+1], xy[i]
+	}
+	return out
+}
+
+func TestMonotoneRingAgreesWithPairs(t *testing.T) {
+	// On rounded random two-chain rings (thin crescents whose chains come
+	// within the rounding of each other, cross, or end in level edges)
+	// the pre-filter never accepts one the pairwise check refuses (most
+	// are invalid), and it accepts many that are neither convex nor
+	// star-shaped.
+	rng := rand.New(rand.NewPCG(9, 10))
+	accepted, other, valid := 0, 0, 0
+	for range 20000 {
+		chain := func(m int, bulge float64) []orb.Point {
+			xs := make([]float64, m)
+			for i := range xs {
+				xs[i] = rng.Float64()
+			}
+			slices.Sort(xs)
+			pts := make([]orb.Point, m)
+			for i, x := range xs {
+				pts[i] = orb.Point{x, bulge*math.Sin(math.Pi*x) + 2e-4*(rng.Float64()-0.5)}
+			}
+			return pts
+		}
+		gap := 0.02 * rng.Float64() * rng.Float64()
+		lower, upper := chain(1+rng.IntN(15), 0.2), chain(1+rng.IntN(15), 0.2+gap)
+		pts := []float64{0, 0}
+		for _, q := range lower {
+			pts = append(pts, q[0], q[1])
+		}
+		end := orb.Point{1, 0}
+		if rng.IntN(4) == 0 {
+			pts = append(pts, 1, -1e-3) // a level edge at the end
+		}
+		pts = append(pts, end[0], end[1])
+		if rng.IntN(8) == 0 {
+			pts = append(pts, 1, -5e-4) // sometimes on both chains
+		}
+		for i := len(upper) - 1; i >= 0; i-- {
+			pts = append(pts, upper[i][0], upper[i][1])
+		}
+		d := 3 + rng.IntN(2)
+		for i := range pts {
+			pts[i] = round(pts[i], d)
+		}
+		r := closed(pts...)
+		r = orb.Ring(planar.DropRepeats(r[:len(r)-1]))
+		if len(r) < 3 {
+			continue
+		}
+		r = append(r, r[0])
+		if pairsValid(orb.MultiPolygon{{r}}) {
+			valid++
+		}
+		if monotoneRing(r) {
+			accepted++
+			if !convexRing(r) && !starRing(r) {
+				other++
+			}
+			if !pairsValid(orb.MultiPolygon{{r}}) {
+				t.Fatalf("monotoneRing accepts %v, the pairwise check refuses it", r)
+			}
+		}
+	}
+	if accepted < 1500 || other < 1000 || valid > 19000 {
+		t.Errorf("%d rings accepted of %d valid, %d of them neither convex nor star-shaped", accepted, valid, other)
 	}
 }
 

@@ -43,8 +43,8 @@ func (s *planScene) proposedLayer() *layerDef {
 			"uncovered_before_m2", gpkg.Real, "uncovered_after_m2", gpkg.Real, "range_m", gpkg.Real),
 		each: func(emit emitFunc) error {
 			for j, st := range sg.Steps {
-				if err := emit(orb.Point(s.point(st.Added)), j+1, st.FullCoverBefore, st.FullCoverAfter,
-					st.CoveredBefore, st.CoveredAfter, st.UncoveredBefore, st.UncoveredAfter, sg.Range); err != nil {
+				if err := emit(orb.Point(s.point(st.Added)), values(j+1, st.FullCoverBefore, st.FullCoverAfter,
+					st.CoveredBefore, st.CoveredAfter, st.UncoveredBefore, st.UncoveredAfter, sg.Range)...); err != nil {
 					return err
 				}
 			}
@@ -69,7 +69,7 @@ func (s *planScene) candidatesLayer() *layerDef {
 				order[c], gain[c] = j+1, ch.Gains[j]
 			}
 			for i, c := range p.Candidates {
-				if err := emit(orb.Point(s.point(c)), i, p.CandidateNames[i], order[i] > 0, order[i], gain[i], ch.Range); err != nil {
+				if err := emit(orb.Point(s.point(c)), values(i, p.CandidateNames[i], order[i] > 0, order[i], gain[i], ch.Range)...); err != nil {
 					return err
 				}
 			}
@@ -99,7 +99,7 @@ func (s *planScene) failuresLayer() *layerDef {
 				if own {
 					vals = append(vals, d.Hidden)
 				}
-				if err := emit(orb.Point(s.point(s.l.Sites[d.Site])), vals...); err != nil {
+				if err := emit(orb.Point(s.point(s.l.Sites[d.Site])), values(vals...)...); err != nil {
 					return err
 				}
 			}
@@ -131,7 +131,7 @@ func (s *planScene) assignmentLayer() *layerDef {
 				if ranged {
 					within = a.Within[i]
 				}
-				if err := emit(line, i, s.demandName(i), a.Device[i], s.name(a.Device[i]), a.Distance[i], within, a.Weight[i]); err != nil {
+				if err := emit(line, values(i, s.demandName(i), a.Device[i], s.name(a.Device[i]), a.Distance[i], within, a.Weight[i])...); err != nil {
 					return err
 				}
 			}
@@ -160,7 +160,7 @@ func (s *planScene) loadLayer() *layerDef {
 				if own {
 					vals = append(vals, s.rangeOf(i), s.hidden(i))
 				}
-				if err := emit(orb.Point(s.point(s.l.Sites[i])), vals...); err != nil {
+				if err := emit(orb.Point(s.point(s.l.Sites[i])), values(vals...)...); err != nil {
 					return err
 				}
 			}

@@ -466,7 +466,7 @@ func (rs *rangesScene) sitesLayer() *layerDef {
 				hidden[i] = true
 			}
 			for i, p := range rs.l.Sites {
-				if err := emit(orb.Point(rs.point(p)), i, rs.name(i), rs.rangeOf(i), rs.typeOf(i), rs.needed(i), hidden[i]); err != nil {
+				if err := emit(orb.Point(rs.point(p)), vInt(i), vText(rs.name(i)), vReal(rs.rangeOf(i)), vText(rs.typeOf(i)), vReal(rs.needed(i)), vBool(hidden[i])); err != nil {
 					return err
 				}
 			}
@@ -488,7 +488,7 @@ func (rs *rangesScene) serviceAreasLayer() *layerDef {
 				if len(mp) == 0 {
 					continue
 				}
-				if err := emit(mp, c.Site, rs.name(c.Site), rs.rangeOf(c.Site), rs.typeOf(c.Site), c.Area, c.Share, c.Served, c.Farthest, joinInts(c.Merged)); err != nil {
+				if err := emit(mp, vInt(c.Site), vText(rs.name(c.Site)), vReal(rs.rangeOf(c.Site)), vText(rs.typeOf(c.Site)), vReal(c.Area), vReal(c.Share), vReal(c.Served), vReal(c.Farthest), vInts(c.Merged)); err != nil {
 					return err
 				}
 			}
@@ -511,7 +511,7 @@ func (rs *rangesScene) gapsLayer() *layerDef {
 					continue
 				}
 				sg := rs.summaryGap(g)
-				if err := emit(mp, g.ID, g.Area, g.TouchesBoundary, joinInts(g.Sites), sg.FixSite, sg.FixLabel, sg.FixRangeM); err != nil {
+				if err := emit(mp, values(g.ID, g.Area, g.TouchesBoundary, joinInts(g.Sites), sg.FixSite, sg.FixLabel, sg.FixRangeM)...); err != nil {
 					return err
 				}
 			}

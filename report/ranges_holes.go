@@ -233,8 +233,8 @@ func (rs *rangesScene) holesLayerRanges() *layerDef {
 			notes := rs.rangesHoleNotes()
 			for _, k := range rs.holeOrder() {
 				h := rs.summaryHole(k, notes[k])
-				if err := emit(orb.Point(h.ClosingPoint), h.AppearsRefM, h.ClosesRefM, h.AppearsM2, h.ClosesM2, h.Open, h.Note,
-					joinInts(h.Sites), h.FixSite, h.FixLabel, h.FixRangeM); err != nil {
+				if err := emit(orb.Point(h.ClosingPoint), values(h.AppearsRefM, h.ClosesRefM, h.AppearsM2, h.ClosesM2, h.Open, h.Note,
+					joinInts(h.Sites), h.FixSite, h.FixLabel, h.FixRangeM)...); err != nil {
 					return err
 				}
 			}

@@ -17,6 +17,7 @@ package report
 import (
 	"crypto/sha256"
 	"encoding/hex"
+	"fmt"
 	"hash"
 	"io"
 	"math"
@@ -181,8 +182,117 @@ const FileGeoPackage = "sitecover.gpkg"
 const ListSeparator = ";"
 
 // emitFunc receives one feature of a layer: its geometry in output
-// coordinates and one value per field of the layer (nil for none).
-type emitFunc func(g orb.Geometry, vals ...any) error
+// coordinates and one value per field of the layer (null for none). The
+// geometry is an orb geometry or a pointer to an orb.Point or
+// orb.MultiPolygon (plainGeometry): a producer of many features passes a
+// pointer to a variable of its own, which boxes nothing (an orb.Point or
+// a slice header made an interface value is an allocation). Geometry and
+// values are read before it returns, so a producer may reuse them.
+type emitFunc func(g orb.Geometry, vals ...value) error
+
+// plainGeometry returns g, or the orb.Point or orb.MultiPolygon g points
+// to (emitFunc).
+func plainGeometry(g orb.Geometry) orb.Geometry {
+	switch g := g.(type) {
+	case *orb.Point:
+		return *g
+	case *orb.MultiPolygon:
+		return *g
+	}
+	return g
+}
+
+// value is one property value of a feature, held typed so that producing
+// a feature boxes nothing (a layer of 10⁶ features would otherwise
+// allocate several boxes for each): null, text, an integer, a real, a
+// boolean, or a list of input indices written as one text (joinInts).
+// The zero value is null. A real that is not finite is written as null.
+type value struct {
+	kind valueKind
+	n    int64   // integer; boolean (0 or 1)
+	f    float64 // real
+	s    string  // text
+	ints []int   // index list
+}
+
+// valueKind is the type of a value.
+type valueKind uint8
+
+const (
+	nullValue valueKind = iota
+	textValue
+	intValue
+	realValue
+	boolValue
+	intsValue
+)
+
+// Typed values: integer, real, text, boolean and index list (written as
+// joinInts writes it).
+func vInt[T ~int | ~int32 | ~int64](n T) value { return value{kind: intValue, n: int64(n)} }
+func vReal(f float64) value                    { return value{kind: realValue, f: f} }
+func vText(s string) value                     { return value{kind: textValue, s: s} }
+func vBool(b bool) value {
+	if b {
+		return value{kind: boolValue, n: 1}
+	}
+	return value{kind: boolValue}
+}
+func vInts(v []int) value { return value{kind: intsValue, ints: v} }
+
+// vAny converts a plain Go value (nil, string, bool, float64 or an
+// integer type: a site attribute, or a field of a layer of few features)
+// to a value.
+func vAny(v any) value {
+	switch v := v.(type) {
+	case nil:
+		return value{}
+	case string:
+		return vText(v)
+	case bool:
+		return vBool(v)
+	case float64:
+		return vReal(v)
+	case int:
+		return vInt(v)
+	case int32:
+		return vInt(v)
+	case int64:
+		return vInt(v)
+	}
+	panic(fmt.Sprintf("report: layer property of type %T", v)) // a programming error: every producer passes the types above
+}
+
+// values converts plain Go values as vAny does (for the layers of few
+// features, whose producers list their fields as plain values).
+func values(vs ...any) []value {
+	out := make([]value, len(vs))
+	for i, v := range vs {
+		out[i] = vAny(v)
+	}
+	return out
+}
+
+// boxed returns v as the plain Go value the GeoPackage writer takes: nil
+// for null and for a real that is not finite, the index list joined.
+func (v value) boxed() any {
+	switch v.kind {
+	case textValue:
+		return v.s
+	case intValue:
+		return v.n
+	case realValue:
+		if math.IsNaN(v.f) || math.IsInf(v.f, 0) {
+			return nil
+		}
+		return v.f
+	case boolValue:
+		return v.n != 0
+	case intsValue:
+		return joinInts(v.ints)
+	}
+	return nil
+}
 
 // layerDef is one output layer.
 type layerDef struct {
@@ -281,21 +391,21 @@ func (s *scene) writeLayer(out io.Writer, d *layerDef, g *gpkgSet) error {
 	if g != nil {
 		gl = g.layers[d]
 	}
-	err := d.each(func(geom orb.Geometry, vals ...any) error {
-		for i, v := range vals {
-			if f, ok := v.(float64); ok && (math.IsNaN(f) || math.IsInf(f, 0)) {
-				vals[i] = nil
-			}
-		}
+	var boxed []any // the values for the GeoPackage, reused
+	err := d.each(func(geom orb.Geometry, vals ...value) error {
 		if err := gj.feature(geom, d.fields, vals); err != nil {
 			return err
 		}
 		if gl == nil {
 			return nil
 		}
+		boxed = boxed[:0]
+		for _, v := range vals {
+			boxed = append(boxed, v.boxed())
+		}
 		g.mu.Lock()
 		defer g.mu.Unlock()
-		return gl.Insert(geom, vals...)
+		return gl.Insert(plainGeometry(geom), boxed...)
 	})
 	if err != nil {
 		return err

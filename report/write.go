@@ -91,7 +91,7 @@ func (w *writer) start(s *scene, st step, stop *atomic.Bool) step {
 	def := *st.layer
 	each := def.each
 	def.each = func(emit emitFunc) error {
-		return each(func(g orb.Geometry, vals ...any) error {
+		return each(func(g orb.Geometry, vals ...value) error {
 			if stop.Load() {
 				return errAborted
 			}
