@@ -198,17 +198,22 @@ func persistOrder(t *planar.Triangulation, f *Filtration) (ne int, ids []int32, 
 // place to increasing birth position; the result indexes it).
 func persistHoleOrder(recs []persistHoleRec) []int32 {
 	// Holes by decreasing persistence, then increasing filtration position
-	// of the birth edge: a stable radix sort on the complemented bits
-	// (descending order), starting from increasing birth position.
+	// of the birth edge: complemented bits (descending order), ties by
+	// position after reversing recs to increasing birth position.
 	nh := len(recs)
 	slices.Reverse(recs)
 	hk := make([]uint64, nh)
-	order := make([]int32, nh)
-	for k, r := range recs {
-		order[k] = int32(k)
-		hk[k] = ^math.Float64bits(r.death - r.birth)
+	tmp := make([]uint64, nh)
+	key := func(k uint32) uint64 { return ^math.Float64bits(recs[k].death - recs[k].birth) }
+	for k := range recs {
+		hk[k] = key(uint32(k))>>32<<32 | uint64(k)
 	}
-	persistRadixSort(hk, order)
+	hk, _ = persistSortPacked(hk, tmp)
+	persistFixTies(hk, key)
+	order := make([]int32, nh)
+	for k, x := range hk {
+		order[k] = int32(uint32(x))
+	}
 	return order
 }
 
@@ -405,6 +410,104 @@ func persistRadixSort(keys []uint64, ids []int32) {
 	if &src[0] != &keys[0] {
 		copy(keys, src)
 		copy(ids, isrc)
+	}
+}
+
+// persistSortPacked sorts words packed as key<<32 | index ascending by
+// their upper 32 bits, a stable least-significant-digit radix sort with
+// 11-bit digits (digits equal across all words skipped), so that words
+// with equal keys stay in input order; tmp is scratch of the same length.
+// It returns the sorted slice (a or tmp) and the other one.
+func persistSortPacked(a, tmp []uint64) (sorted, free []uint64) {
+	return persistRadixSortFrom(a, tmp, 32)
+}
+
+// persistRadixSortFrom sorts a by bits from and up (a stable LSD radix
+// sort of 11-bit digits; digits equal across all words are skipped) using
+// tmp, of the same length, as scratch. It returns the sorted slice (a or
+// tmp) and the other one.
+func persistRadixSortFrom(a, tmp []uint64, from uint) (sorted, free []uint64) {
+	const bits = 11
+	const nb = 1 << bits
+	const maxPasses = (64 + bits - 1) / bits
+	n := len(a)
+	if n < 2 {
+		return a, tmp
+	}
+	passes := int((64 - from + bits - 1) / bits)
+	var hist [maxPasses][nb]int32
+	switch passes {
+	case 3:
+		for _, k := range a {
+			hist[0][(k>>from)&(nb-1)]++
+			hist[1][(k>>(from+bits))&(nb-1)]++
+			hist[2][(k>>(from+2*bits))&(nb-1)]++
+		}
+	default:
+		for _, k := range a {
+			for d := 0; d < passes; d++ {
+				hist[d][(k>>(from+uint(d)*bits))&(nb-1)]++
+			}
+		}
+	}
+	src, dst := a, tmp
+	for d := 0; d < passes; d++ {
+		shift := from + uint(d)*bits
+		h := &hist[d]
+		if h[(a[0]>>shift)&(nb-1)] == int32(n) {
+			continue // all words share this digit
+		}
+		var sum int32
+		for b := range h {
+			c := h[b]
+			h[b] = sum
+			sum += c
+		}
+		for _, k := range src {
+			b := (k >> shift) & (nb - 1)
+			j := h[b]
+			h[b] = j + 1
+			dst[j] = k
+		}
+		src, dst = dst, src
+	}
+	return src, dst
+}
+
+// persistFixTies orders each run of words of s (sorted by persistSortPacked)
+// with equal upper 32 bits by full(index), then index: the key in the upper
+// bits being a prefix of full, s is then ordered by (full, index).
+func persistFixTies(s []uint64, full func(i uint32) uint64) {
+	n := len(s)
+	for i := 1; i < n; i++ {
+		if s[i]>>32 != s[i-1]>>32 {
+			continue
+		}
+		lo := i - 1
+		j := i + 1
+		for j < n && s[j]>>32 == s[lo]>>32 {
+			j++
+		}
+		run := s[lo:j]
+		sorted := true
+		prev := full(uint32(run[0]))
+		for _, x := range run[1:] {
+			k := full(uint32(x))
+			if k < prev {
+				sorted = false
+				break
+			}
+			prev = k
+		}
+		if !sorted {
+			slices.SortFunc(run, func(x, y uint64) int {
+				if c := cmp.Compare(full(uint32(x)), full(uint32(y))); c != 0 {
+					return c
+				}
+				return cmp.Compare(uint32(x), uint32(y))
+			})
+		}
+		i = j
 	}
 }
 

@@ -32,10 +32,18 @@
 // the edge's value); pairs of zero length (a piece that joins at the
 // moment it appears) are kept in Merges for counting, and PowerPersistence
 // .Diagram0 leaves them out as GUDHI does. H1 by Alexander duality over
-// the triangles (persistDual). Edges are ordered by value (ties by
-// half-edge), triangles by (value, index); radix sorts on an
-// order-preserving transform of the float bits, since values may be
-// negative.
+// the triangles (persistDual's method). Edges are ordered by value (ties
+// by half-edge), triangles by (value, index); values may be negative, so
+// orders are taken on an order-preserving transform of the float bits
+// (orderedBits).
+//
+// Cost: one pass per triangle (its vertices gathered a block at a time)
+// and one per edge for the filtration; the edges sorted by a radix sort of
+// the upper 32 bits of their keys packed above the half-edge, runs of
+// equal upper bits then ordered by the full key; the dual union-find
+// compares triangles by (value, index) directly, so they need no sort;
+// Kruskal and the dual pass run side by side. All passes but the two
+// union-finds and the sort run in parallel chunks.
 //
 // Error bounds: a triangle's value is computed from its power centre
 // relative to a vertex, |q|² − w_a, with an absolute error of a few u
@@ -50,6 +58,7 @@ import (
 	"math"
 	"slices"
 	"sort"
+	"sync"
 
 	"github.com/paulmach/orb"
 	"github.com/sitecover/sitecover/planar"
@@ -83,10 +92,12 @@ func NewPowerFiltration(t *planar.Triangulation, ranges []float64) *PowerFiltrat
 	nv := t.NumVertices()
 	w := make([]float64, nv)
 	f.Vertex = make([]float64, nv)
-	for v := range w {
-		w[v] = ranges[v] * ranges[v]
-		f.Vertex[v] = -w[v]
-	}
+	planar.ParallelFor(nv, alphaGrain, func(lo, hi int) {
+		for v := lo; v < hi; v++ {
+			w[v] = ranges[v] * ranges[v]
+			f.Vertex[v] = -w[v]
+		}
+	})
 	xy := t.Coords
 	nt := t.NumTriangles()
 	if nt == 0 {
@@ -103,21 +114,68 @@ func NewPowerFiltration(t *planar.Triangulation, ranges []float64) *PowerFiltrat
 	f.Triangle = make([]float64, nt)
 	f.Edge = make([]float64, len(t.Triangles))
 	f.centre = make([]float64, 2*nt)
-	attached := make([]bool, len(t.Triangles))
-	// Pass 1, per triangle: power centre and value; per half-edge the
-	// edge's own value and whether the opposite vertex attaches it.
+	// Pass 1, per triangle (its vertices' coordinates and weights gathered
+	// a block of triangles at a time, as NewFiltration does): power centre
+	// and value, and per half-edge what pass 2 needs, packed in f.Edge:
+	//   - the half-edge that owns its edge (the smaller index of an
+	//     interior pair, or a hull half-edge) holds the edge's own value,
+	//     or +Inf when this triangle's opposite vertex attaches the edge;
+	//   - the other half of an interior pair holds the larger of its
+	//     vertices' −w (≤ 0, sign bit set), with the sign bit cleared when
+	//     its opposite vertex attaches the edge.
+	// Vertices lying outside their own power cell are listed on the way.
+	var mu sync.Mutex
+	var outside []int32
 	planar.ParallelFor(nt, alphaGrain, func(lo, hi int) {
-		tr := t.Triangles
+		tr, he := t.Triangles, t.Halfedges
+		var g [alphaGather * 9]float64
+		var out []int32
 		for i := lo; i < hi; i++ {
-			a, b, c := tr[3*i], tr[3*i+1], tr[3*i+2]
-			f.Triangle[i], f.centre[2*i], f.centre[2*i+1] = powerTriangle(xy, w, a, b, c)
-			for k, opp := range [3]int32{c, a, b} {
-				e := 3*i + k
-				p, q := tr[e], tr[planar.NextHalfedge(int32(e))]
-				te, x, y := powerEdge(xy, w, p, q)
-				f.Edge[e] = te
-				attached[e] = dist2(xy, opp, x, y)-w[opp] < te
+			j := (i - lo) % alphaGather
+			if j == 0 {
+				for k, q := range tr[3*i : 3*min(hi, i+alphaGather)] {
+					g[3*k], g[3*k+1], g[3*k+2] = xy[2*q], xy[2*q+1], w[q]
+				}
 			}
+			v := g[9*j : 9*j+9 : 9*j+9]
+			f.Triangle[i], f.centre[2*i], f.centre[2*i+1] = powerTriangleAt(v[0], v[1], v[2], v[3], v[4], v[5], v[6], v[7], v[8])
+			for k := range 3 {
+				e := 3*i + k
+				p, q, o := v[3*k:3*k+3], v[3*((k+1)%3):3*((k+1)%3)+3], v[3*((k+2)%3):3*((k+2)%3)+3]
+				// The edge's own value and point (powerEdge), and the
+				// opposite vertex's power there.
+				dx, dy := q[0]-p[0], q[1]-p[1]
+				d2 := dx*dx + dy*dy
+				s := (d2 + p[2] - q[2]) / (2 * d2)
+				te := s*s*d2 - p[2]
+				ox, oy := o[0]-(p[0]+s*dx), o[1]-(p[1]+s*dy)
+				attached := ox*ox+oy*oy-o[2] < te
+				opp := he[e]
+				switch {
+				case opp < 0 || opp > int32(e):
+					if attached {
+						te = math.Inf(1)
+					}
+					f.Edge[e] = te
+				case attached:
+					f.Edge[e] = math.Abs(math.Max(-q[2], -p[2]))
+				default:
+					f.Edge[e] = math.Max(-q[2], -p[2])
+				}
+				// Is the site of p (or, on the hull, of q) outside its
+				// power cell, beyond the power line with the other?
+				if d2-q[2] < -p[2] {
+					out = append(out, tr[e])
+				}
+				if opp < 0 && d2-p[2] < -q[2] {
+					out = append(out, tr[planar.NextHalfedge(int32(e))])
+				}
+			}
+		}
+		if len(out) > 0 {
+			mu.Lock()
+			outside = append(outside, out...)
+			mu.Unlock()
 		}
 	})
 	// Pass 2, per edge: the own value when neither side attaches it,
@@ -132,71 +190,95 @@ func NewPowerFiltration(t *planar.Triangulation, ranges []float64) *PowerFiltrat
 				continue
 			}
 			own := f.Edge[e]
-			gabriel := !attached[e]
+			gabriel := own != math.Inf(1)
 			v := f.Triangle[e/3]
+			var floor float64
 			if opp >= 0 {
-				gabriel = gabriel && !attached[opp]
+				o := f.Edge[opp]
+				gabriel = gabriel && math.Signbit(o)
+				floor = -math.Abs(o)
 				v = math.Min(v, f.Triangle[opp/3])
+			} else {
+				floor = math.Max(f.Vertex[tr[e]], f.Vertex[tr[planar.NextHalfedge(e)]])
 			}
 			if gabriel {
 				v = math.Min(v, own)
 			}
-			v = math.Max(v, math.Max(f.Vertex[tr[e]], f.Vertex[tr[planar.NextHalfedge(e)]]))
+			v = math.Max(v, floor)
 			f.Edge[e] = v
 			if opp >= 0 {
 				f.Edge[opp] = v
 			}
 		}
 	})
-	// A vertex whose site lies outside its own power cell (some neighbour
-	// u has π_u(p_v) < −w_v) is attached: its restricted disk first
-	// appears on the cell's boundary, at the smallest value of its edges.
-	powerAttachVertices(t, w, f)
 	// Triangles follow their edges (only rounding can reverse that).
 	planar.ParallelFor(nt, alphaGrain, func(lo, hi int) {
 		for i := lo; i < hi; i++ {
 			f.Triangle[i] = max(f.Triangle[i], f.Edge[3*i], f.Edge[3*i+1], f.Edge[3*i+2])
 		}
 	})
+	powerAttachVertices(t, f, outside)
 	return f
 }
 
-// powerAttachVertices raises each attached vertex to the smallest value of
-// its edges (the edge values being final, and never below −w).
-func powerAttachVertices(t *planar.Triangulation, w []float64, f *PowerFiltration) {
-	xy, tr, he := t.Coords, t.Triangles, t.Halfedges
-	att := make([]float64, len(f.Vertex))
-	for v := range att {
-		att[v] = math.Inf(1)
-	}
-	attached := false
-	for e := range tr {
-		if o := he[e]; o >= 0 && o < int32(e) {
-			continue
-		}
-		// Edge a–b, once: does it attach a, or b? And the smallest edge
-		// value at each vertex.
-		a, b := tr[e], tr[planar.NextHalfedge(int32(e))]
-		d := dist2(xy, a, xy[2*b], xy[2*b+1])
-		if d-w[b] < -w[a] {
-			f.Vertex[a] = math.NaN()
-			attached = true
-		}
-		if d-w[a] < -w[b] {
-			f.Vertex[b] = math.NaN()
-			attached = true
-		}
-		att[a] = math.Min(att[a], f.Edge[e])
-		att[b] = math.Min(att[b], f.Edge[e])
-	}
-	if !attached {
+// powerAttachVertices raises each vertex listed in outside (its site lies
+// outside its own power cell: some neighbour u has π_u(p_v) < −w_v; the
+// list may repeat vertices) to the smallest value of its edges, the edge
+// values being final: its restricted disk first appears on the cell's
+// boundary. The edges of each are found by walking around it from Inedge.
+func powerAttachVertices(t *planar.Triangulation, f *PowerFiltration, outside []int32) {
+	if len(outside) == 0 {
 		return
 	}
-	for v, x := range f.Vertex {
-		if math.IsNaN(x) {
-			f.Vertex[v] = att[v]
+	nv := len(f.Vertex)
+	tr, he := t.Triangles, t.Halfedges
+	if len(t.Inedge) != nv {
+		// No stars to walk: one pass over the edges.
+		att := make([]bool, nv)
+		for _, v := range outside {
+			att[v] = true
+			f.Vertex[v] = math.Inf(1)
+		}
+		for e := range tr {
+			if o := he[e]; o >= 0 && o < int32(e) {
+				continue
+			}
+			for _, v := range [2]int32{tr[e], tr[planar.NextHalfedge(int32(e))]} {
+				if att[v] {
+					f.Vertex[v] = math.Min(f.Vertex[v], f.Edge[e])
+				}
+			}
+		}
+		return
+	}
+	// Each vertex once, then the walks in parallel.
+	mark := make([]uint64, (nv+63)/64)
+	verts := outside[:0:0]
+	for _, v := range outside {
+		if mark[v/64]&(1<<(v%64)) == 0 {
+			mark[v/64] |= 1 << (v % 64)
+			verts = append(verts, v)
 		}
 	}
+	planar.ParallelFor(len(verts), alphaGrain/8, func(lo, hi int) {
+		for _, v := range verts[lo:hi] {
+			start := t.Inedge[v]
+			m := math.Inf(1)
+			for in := start; in >= 0; {
+				m = math.Min(m, f.Edge[in])
+				out := planar.NextHalfedge(in)
+				in = he[out]
+				if in < 0 {
+					m = math.Min(m, f.Edge[out]) // the hull edge leaving v
+					break
+				}
+				if in == start {
+					break
+				}
+			}
+			f.Vertex[v] = m
+		}
+	})
 }
 
 // dist2 returns the squared distance from vertex v to (x, y).
@@ -215,30 +297,36 @@ func powerEdge(xy, w []float64, p, q int32) (t, x, y float64) {
 }
 
 // powerTriangle returns the value of triangle abc (the power of its power
+// centre) and the centre (powerTriangleAt).
+func powerTriangle(xy, w []float64, a, b, c int32) (t, x, y float64) {
+	return powerTriangleAt(xy[2*a], xy[2*a+1], w[a], xy[2*b], xy[2*b+1], w[b], xy[2*c], xy[2*c+1], w[c])
+}
+
+// powerTriangleAt returns the value of the triangle of the points (ax,
+// ay), (bx, by), (cx, cy) of weights wa, wb, wc (the power of its power
 // centre) and the centre, computed relative to the vertex of the largest
 // angle (opposite the longest edge) as planar's circumcentre.
-func powerTriangle(xy, w []float64, a, b, c int32) (t, x, y float64) {
-	lab := dist2(xy, a, xy[2*b], xy[2*b+1])
-	lbc := dist2(xy, b, xy[2*c], xy[2*c+1])
-	lca := dist2(xy, c, xy[2*a], xy[2*a+1])
+func powerTriangleAt(ax, ay, wa, bx, by, wb, cx, cy, wc float64) (t, x, y float64) {
+	lab := (ax-bx)*(ax-bx) + (ay-by)*(ay-by)
+	lbc := (bx-cx)*(bx-cx) + (by-cy)*(by-cy)
+	lca := (cx-ax)*(cx-ax) + (cy-ay)*(cy-ay)
 	switch {
 	case lca >= lab && lca >= lbc:
-		a, b, c = b, c, a
+		ax, ay, wa, bx, by, wb, cx, cy, wc = bx, by, wb, cx, cy, wc, ax, ay, wa
 	case lab >= lbc && lab >= lca:
-		a, b, c = c, a, b
+		ax, ay, wa, bx, by, wb, cx, cy, wc = cx, cy, wc, ax, ay, wa, bx, by, wb
 	}
-	ax, ay := xy[2*a], xy[2*a+1]
-	bx, by := xy[2*b]-ax, xy[2*b+1]-ay
-	cx, cy := xy[2*c]-ax, xy[2*c+1]-ay
-	b2 := bx*bx + by*by + (w[a] - w[b])
-	c2 := cx*cx + cy*cy + (w[a] - w[c])
+	bx, by = bx-ax, by-ay
+	cx, cy = cx-ax, cy-ay
+	b2 := bx*bx + by*by + (wa - wb)
+	c2 := cx*cx + cy*cy + (wa - wc)
 	d := 2 * (bx*cy - by*cx)
 	if d == 0 {
 		return math.Inf(1), math.NaN(), math.NaN()
 	}
 	qx := (cy*b2 - by*c2) / d
 	qy := (bx*c2 - cx*b2) / d
-	return qx*qx + qy*qy - w[a], ax + qx, ay + qy
+	return qx*qx + qy*qy - wa, ax + qx, ay + qy
 }
 
 // PowerMerge is an H0 pair of the weighted alpha filtration: a piece of
@@ -307,10 +395,9 @@ func ComputePowerPersistence(t *planar.Triangulation, f *PowerFiltration) *Power
 	}
 	nv := t.NumVertices()
 	p.Vertices = nv
-	p.Births = slices.Clone(f.Vertex)
-	slices.Sort(p.Births)
 	nt := t.NumTriangles()
 	if nt == 0 {
+		p.Births = powerSortedBirths(f.Vertex)
 		ends := make([]uint64, 0, len(f.Line))
 		vals := make([]uint64, 0, len(f.Line))
 		order := make([]int32, len(f.Line))
@@ -326,74 +413,118 @@ func ComputePowerPersistence(t *planar.Triangulation, f *PowerFiltration) *Power
 		p.Merges = powerKruskal(t, f, ends, vals)
 		return p
 	}
-	he := t.Halfedges
-	ids, keys := powerEdgeKeys(he, f.Edge)
-	ne := len(ids)
-	tkeys := make([]uint64, nt)
-	tids := make([]int32, nt)
-	rank := make([]int32, nt)
-	planar.ParallelFor(nt, alphaGrain, func(lo, hi int) {
-		for i := lo; i < hi; i++ {
-			tkeys[i] = orderedBits(f.Triangle[i])
-			tids[i] = int32(i)
-		}
-	})
-	sorted := make(chan struct{})
+	// Vertex births on a second goroutine, the edge order here (a radix
+	// sort of words packed as the upper 32 bits of the value's orderedBits
+	// above the half-edge, so ties stay in half-edge order, then the runs
+	// of equal upper bits ordered by the full value).
+	tr, he, src := t.Triangles, t.Halfedges, t.Source
+	born := make(chan struct{})
 	go func() {
-		persistRadixSort(tkeys, tids)
-		close(sorted)
+		p.Births = powerSortedBirths(f.Vertex)
+		close(born)
 	}()
-	persistRadixSort(keys, ids)
-	<-sorted
-	planar.ParallelFor(nt, alphaGrain, func(lo, hi int) {
-		for r := lo; r < hi; r++ {
-			rank[tids[r]] = int32(r)
-			tkeys[r] = math.Float64bits(fromOrderedBits(tkeys[r]))
-		}
-	})
-	tr := t.Triangles
-	outside := int32(nt)
-	vends := make([]uint64, ne) // vertex a | vertex b << 32
-	ends := make([]uint64, ne)  // input a | input b << 32, a < b
-	sides := make([]uint64, ne)
+	keys, sides := powerEdgeOrder(he, f.Edge)
+	ne := len(keys)
+	// Gather, in filtration order, each edge's value, endpoints (vertex
+	// indices, smaller first) and two sides (triangles; nt stands for the
+	// outside), so that both passes below read memory sequentially.
+	outside := uint64(nt)
+	ends := make([]uint64, ne)
 	planar.ParallelFor(ne, alphaGrain, func(lo, hi int) {
 		for i := lo; i < hi; i++ {
-			e := ids[i]
+			e := int32(uint32(keys[i]))
 			a, b := tr[e], tr[planar.NextHalfedge(e)]
-			vends[i] = uint64(uint32(a)) | uint64(uint32(b))<<32
-			sa, sb := t.Source[a], t.Source[b]
-			ends[i] = uint64(uint32(min(sa, sb))) | uint64(uint32(max(sa, sb)))<<32
+			ends[i] = uint64(uint32(min(a, b))) | uint64(uint32(max(a, b)))<<32
 			s2 := outside
 			if o := he[e]; o >= 0 {
-				s2 = rank[o/3]
+				s2 = uint64(o / 3)
 			}
-			sides[i] = uint64(uint32(rank[e/3])) | uint64(uint32(s2))<<32
-			keys[i] = math.Float64bits(fromOrderedBits(keys[i]))
+			sides[i] = uint64(e/3) | s2<<32
+			keys[i] = math.Float64bits(f.Edge[e])
 		}
 	})
+	<-born
 	// The two union-find passes are independent: side by side.
 	merged := make(chan struct{})
 	go func() {
-		p.Merges = powerKruskal(t, f, vends, keys)
+		p.Merges = powerKruskal(t, f, ends, keys)
 		close(merged)
 	}()
-	recs := persistDual(nt, tkeys, keys, ends, sides)
+	recs := powerDual(f.Triangle, keys, ends, sides)
 	order := persistHoleOrder(recs)
+	p.Holes = make([]PowerHole, len(recs))
+	planar.ParallelFor(len(recs), alphaGrain, func(lo, hi int) {
+		for j := lo; j < hi; j++ {
+			r := &recs[order[j]]
+			y := r.rank
+			p.Holes[j] = PowerHole{Birth: r.birth, Death: r.death,
+				DeathPoint: orb.Point{f.centre[2*y], f.centre[2*y+1]},
+				BirthSites: persistSitePair(src[uint32(r.sites)], src[r.sites>>32]),
+				deathTri:   y}
+		}
+	})
 	<-merged
-	holes := persistHoleList(t, &Filtration{centre: f.centre}, recs, order, tids)
-	p.Holes = make([]PowerHole, len(holes))
-	for i, h := range holes {
-		p.Holes[i] = PowerHole{Birth: h.Birth, Death: h.Death, DeathPoint: h.DeathPoint, BirthSites: h.BirthSites,
-			deathTri: tids[recs[order[i]].rank]}
-	}
 	return p
 }
 
-// powerEdgeKeys returns the first half-edge of every edge (the one with
-// the larger index, or the only one on the hull), in half-edge order, and
-// the edge's value as orderedBits; chunks of half-edges are counted and
-// filled in parallel.
-func powerEdgeKeys(he []int32, edge []float64) ([]int32, []uint64) {
+// powerSortedBirths returns the values v ascending (radix sort on their
+// orderedBits).
+func powerSortedBirths(v []float64) []float64 {
+	k := make([]uint64, len(v))
+	for i, x := range v {
+		k[i] = orderedBits(x)
+	}
+	k, _ = persistRadixSortFrom(k, make([]uint64, len(v)), 0)
+	out := make([]float64, len(v))
+	for i, x := range k {
+		out[i] = fromOrderedBits(x)
+	}
+	return out
+}
+
+// powerDual is persistDual with the triangles numbered by index, an order
+// between two of them being that of (value, index) (orderedBits of the
+// values tv), the outside (node len(tv)) after all: the root of each dual
+// component is its latest triangle in the filtration, and a hole record's
+// rank field holds the index of the triangle that fills it.
+func powerDual(tv []float64, keys, ends, sides []uint64) []persistHoleRec {
+	nt := len(tv)
+	uf := planar.NewUnionFind(nt + 1)
+	par := uf.Parent
+	out := make([]persistHoleRec, 0, nt/2+16)
+	// later reports whether node a comes after node b.
+	later := func(a, b int32) bool {
+		if a == int32(nt) || b == int32(nt) {
+			return a == int32(nt)
+		}
+		ka, kb := orderedBits(tv[a]), orderedBits(tv[b])
+		return ka > kb || ka == kb && a > b
+	}
+	for i := len(sides) - 1; i >= 0; i-- {
+		s := sides[i]
+		ra, rb := uf.Find(int32(uint32(s))), uf.Find(int32(s>>32))
+		if ra == rb {
+			continue // negative edge: a merge, found by Kruskal
+		}
+		young, old := ra, rb
+		if later(ra, rb) {
+			young, old = rb, ra
+		}
+		par[young] = old
+		birth, death := math.Float64frombits(keys[i]), tv[young]
+		if death-birth > HoleResolution*math.Max(math.Abs(death), math.Abs(birth)) {
+			out = append(out, persistHoleRec{birth, death, ends[i], young})
+		}
+	}
+	return out
+}
+
+// powerEdgeOrder orders the edges (one half-edge each: the larger index of
+// an interior pair, or the hull half-edge) by (value, half-edge): it
+// returns the words value<<32 | half-edge in that order (the upper 32 bits
+// of the value's orderedBits) and a free slice of the same length. Chunks
+// of half-edges are counted and filled in parallel.
+func powerEdgeOrder(he []int32, edge []float64) (sorted, free []uint64) {
 	const chunk = 1 << 16
 	nc := (len(he) + chunk - 1) / chunk
 	start := make([]int, nc+1)
@@ -407,18 +538,19 @@ func powerEdgeKeys(he []int32, edge []float64) ([]int32, []uint64) {
 	for ci := range nc {
 		start[ci+1] += start[ci]
 	}
-	ids := make([]int32, start[nc])
-	keys := make([]uint64, start[nc])
+	a := make([]uint64, start[nc])
 	planar.ParallelChunks(len(he), chunk, 0, func(ci, lo, hi int) {
 		k := start[ci]
 		for e := lo; e < hi; e++ {
 			if he[e] < int32(e) {
-				ids[k], keys[k] = int32(e), orderedBits(edge[e])
+				a[k] = orderedBits(edge[e])>>32<<32 | uint64(e)
 				k++
 			}
 		}
 	})
-	return ids, keys
+	sorted, free = persistSortPacked(a, make([]uint64, len(a)))
+	persistFixTies(sorted, func(e uint32) uint64 { return orderedBits(edge[e]) })
+	return sorted, free
 }
 
 // powerKruskal runs the elder-rule union-find over the vertices along the
@@ -427,7 +559,7 @@ func powerEdgeKeys(he []int32, edge []float64) ([]int32, []uint64) {
 func powerKruskal(t *planar.Triangulation, f *PowerFiltration, vends, vals []uint64) []PowerMerge {
 	nv := t.NumVertices()
 	uf := planar.NewUnionFind(nv)
-	birth := slices.Clone(f.Vertex)
+	birth := f.Vertex
 	out := make([]PowerMerge, 0, max(nv-1, 0))
 	for i, ab := range vends {
 		a, b := uf.Find(int32(uint32(ab))), uf.Find(int32(ab>>32))
