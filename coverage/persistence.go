@@ -52,8 +52,10 @@ package coverage
 import (
 	"cmp"
 	"math"
+	"runtime"
 	"slices"
 	"sort"
+	"sync"
 
 	"github.com/paulmach/orb"
 	"github.com/sitecover/sitecover/planar"
@@ -126,9 +128,9 @@ func ComputePersistence(t *planar.Triangulation, f *Filtration) *Persistence {
 		close(done)
 	}()
 	recs := persistDual(nt, tkeys, keys, ends, sides)
-	sides = nil
 
-	order := persistHoleOrder(recs)
+	order := persistHoleOrder(recs, sides)
+	sides = nil
 	<-done
 	p.Holes = persistHoleList(t, f, recs, order, tids)
 
@@ -195,31 +197,29 @@ func persistOrder(t *planar.Triangulation, f *Filtration) (ne int, ids []int32, 
 
 // persistHoleOrder orders the holes by decreasing persistence, then
 // increasing filtration position of the birth edge (recs is reversed in
-// place to increasing birth position; the result indexes it).
-func persistHoleOrder(recs []persistHoleRec) []int32 {
-	// Holes by decreasing persistence, then increasing filtration position
-	// of the birth edge: complemented bits (descending order), ties by
-	// position after reversing recs to increasing birth position.
+// place to increasing birth position; the low 32 bits of each returned
+// word index it). buf is used as scratch when it holds 2·len(recs) words.
+func persistHoleOrder(recs []persistHoleRec, buf []uint64) []uint64 {
+	// Complemented bits (descending order) packed above the position in
+	// recs after reversing it: ties in increasing birth position.
 	nh := len(recs)
 	slices.Reverse(recs)
-	hk := make([]uint64, nh)
-	tmp := make([]uint64, nh)
+	if len(buf) < 2*nh {
+		buf = make([]uint64, 2*nh)
+	}
+	hk := buf[:nh]
 	key := func(k uint32) uint64 { return ^math.Float64bits(recs[k].death - recs[k].birth) }
 	for k := range recs {
 		hk[k] = key(uint32(k))>>32<<32 | uint64(k)
 	}
-	hk, _ = persistSortPacked(hk, tmp)
+	hk, _ = persistSortPacked(hk, buf[nh:2*nh])
 	persistFixTies(hk, key)
-	order := make([]int32, nh)
-	for k, x := range hk {
-		order[k] = int32(uint32(x))
-	}
-	return order
+	return hk
 }
 
 // persistHoleList writes the holes in the given order, each with its death
 // point (the circumcentre of the triangle that fills it).
-func persistHoleList(t *planar.Triangulation, f *Filtration, recs []persistHoleRec, order, tids []int32) []Hole {
+func persistHoleList(t *planar.Triangulation, f *Filtration, recs []persistHoleRec, order []uint64, tids []int32) []Hole {
 	nt, nh, tr := t.NumTriangles(), len(recs), t.Triangles
 	xy := t.Coords
 	holes := make([]Hole, nh)
@@ -229,7 +229,7 @@ func persistHoleList(t *planar.Triangulation, f *Filtration, recs []persistHoleR
 	}
 	planar.ParallelFor(nh, alphaGrain, func(lo, hi int) {
 		for j := lo; j < hi; j++ {
-			r := &recs[order[j]]
+			r := &recs[uint32(order[j])]
 			y := tids[r.rank]
 			var cx, cy float64
 			if centre != nil {
@@ -417,10 +417,76 @@ func persistRadixSort(keys []uint64, ids []int32) {
 // their upper 32 bits, a stable least-significant-digit radix sort with
 // 11-bit digits (digits equal across all words skipped), so that words
 // with equal keys stay in input order; tmp is scratch of the same length.
-// It returns the sorted slice (a or tmp) and the other one.
+// It returns the sorted slice (a or tmp) and the other one. Long slices
+// are cut in GOMAXPROCS parts (at most persistSortParts) that count and
+// scatter at once, each pass placing the parts' words of a digit one
+// after the other (so the sort stays stable).
 func persistSortPacked(a, tmp []uint64) (sorted, free []uint64) {
-	return persistRadixSortFrom(a, tmp, 32)
+	n := len(a)
+	w := min(runtime.GOMAXPROCS(0), persistSortParts, n/persistSortGrain)
+	if w < 2 {
+		return persistRadixSortFrom(a, tmp, 32)
+	}
+	const bits = 11
+	const nb = 1 << bits
+	var hist [persistSortParts][nb]int32
+	src, dst := a, tmp
+	run := func(f func(k, lo, hi int)) {
+		var wg sync.WaitGroup
+		for k := 1; k < w; k++ {
+			wg.Add(1)
+			go func() {
+				defer wg.Done()
+				f(k, n*k/w, n*(k+1)/w)
+			}()
+		}
+		f(0, 0, n/w)
+		wg.Wait()
+	}
+	for shift := uint(32); shift < 64; shift += bits {
+		run(func(k, lo, hi int) {
+			h := &hist[k]
+			*h = [nb]int32{}
+			for _, x := range src[lo:hi] {
+				h[(x>>shift)&(nb-1)]++
+			}
+		})
+		d0 := (src[0] >> shift) & (nb - 1)
+		total := int32(0)
+		for k := range w {
+			total += hist[k][d0]
+		}
+		if total == int32(n) {
+			continue // all words share this digit
+		}
+		var sum int32
+		for b := range nb {
+			for k := range w {
+				c := hist[k][b]
+				hist[k][b] = sum
+				sum += c
+			}
+		}
+		run(func(k, lo, hi int) {
+			h := &hist[k]
+			for _, x := range src[lo:hi] {
+				b := (x >> shift) & (nb - 1)
+				j := h[b]
+				h[b] = j + 1
+				dst[j] = x
+			}
+		})
+		src, dst = dst, src
+	}
+	return src, dst
 }
+
+// persistSortParts is the most parts persistSortPacked sorts at once, and
+// persistSortGrain the least number of words per part.
+const (
+	persistSortParts = 4
+	persistSortGrain = 1 << 14
+)
 
 // persistRadixSortFrom sorts a by bits from and up (a stable LSD radix
 // sort of 11-bit digits; digits equal across all words are skipped) using
@@ -478,36 +544,47 @@ func persistRadixSortFrom(a, tmp []uint64, from uint) (sorted, free []uint64) {
 // with equal upper 32 bits by full(index), then index: the key in the upper
 // bits being a prefix of full, s is then ordered by (full, index).
 func persistFixTies(s []uint64, full func(i uint32) uint64) {
+	// Each part orders the runs that start in it.
+	planar.ParallelFor(len(s), persistSortGrain, func(lo, hi int) {
+		persistFixTiesIn(s, lo, hi, full)
+	})
+}
+
+// persistFixTiesIn is persistFixTies for the runs starting in s[from:to].
+func persistFixTiesIn(s []uint64, from, to int, full func(i uint32) uint64) {
 	n := len(s)
-	for i := 1; i < n; i++ {
-		if s[i]>>32 != s[i-1]>>32 {
-			continue
-		}
-		lo := i - 1
+	i := from
+	for i > 0 && i < n && s[i]>>32 == s[i-1]>>32 {
+		i++ // a run started before from
+	}
+	for i < to {
 		j := i + 1
-		for j < n && s[j]>>32 == s[lo]>>32 {
+		for j < n && s[j]>>32 == s[i]>>32 {
 			j++
 		}
-		run := s[lo:j]
-		sorted := true
-		prev := full(uint32(run[0]))
-		for _, x := range run[1:] {
-			k := full(uint32(x))
-			if k < prev {
-				sorted = false
-				break
-			}
-			prev = k
+		if j-i > 1 {
+			persistFixRun(s[i:j], full)
 		}
-		if !sorted {
+		i = j
+	}
+}
+
+// persistFixRun orders a run of words with equal upper bits by (full key,
+// index), unless it is in that order already.
+func persistFixRun(run []uint64, full func(i uint32) uint64) {
+	prev := full(uint32(run[0]))
+	for _, x := range run[1:] {
+		k := full(uint32(x))
+		if k < prev {
 			slices.SortFunc(run, func(x, y uint64) int {
 				if c := cmp.Compare(full(uint32(x)), full(uint32(y))); c != 0 {
 					return c
 				}
 				return cmp.Compare(uint32(x), uint32(y))
 			})
+			return
 		}
-		i = j
+		prev = k
 	}
 }
 

@@ -90,12 +90,10 @@ func NewPowerFiltration(t *planar.Triangulation, ranges []float64) *PowerFiltrat
 		return f
 	}
 	nv := t.NumVertices()
-	w := make([]float64, nv)
 	f.Vertex = make([]float64, nv)
 	planar.ParallelFor(nv, alphaGrain, func(lo, hi int) {
 		for v := lo; v < hi; v++ {
-			w[v] = ranges[v] * ranges[v]
-			f.Vertex[v] = -w[v]
+			f.Vertex[v] = -(ranges[v] * ranges[v])
 		}
 	})
 	xy := t.Coords
@@ -105,7 +103,7 @@ func NewPowerFiltration(t *planar.Triangulation, ranges []float64) *PowerFiltrat
 			f.Line = make([]float64, len(t.Hull)-1)
 			for i := range f.Line {
 				a, b := t.Hull[i], t.Hull[i+1]
-				f.Line[i], _, _ = powerEdge(xy, w, a, b)
+				f.Line[i] = powerEdge(xy, ranges, a, b)
 			}
 		}
 		f.Edge = make([]float64, len(t.Halfedges))
@@ -114,7 +112,7 @@ func NewPowerFiltration(t *planar.Triangulation, ranges []float64) *PowerFiltrat
 	f.Triangle = make([]float64, nt)
 	f.Edge = make([]float64, len(t.Triangles))
 	f.centre = make([]float64, 2*nt)
-	// Pass 1, per triangle (its vertices' coordinates and weights gathered
+	// Pass 1, per triangle (its vertices' coordinates and weights r² gathered
 	// a block of triangles at a time, as NewFiltration does): power centre
 	// and value, and per half-edge what pass 2 needs, packed in f.Edge:
 	//   - the half-edge that owns its edge (the smaller index of an
@@ -134,7 +132,7 @@ func NewPowerFiltration(t *planar.Triangulation, ranges []float64) *PowerFiltrat
 			j := (i - lo) % alphaGather
 			if j == 0 {
 				for k, q := range tr[3*i : 3*min(hi, i+alphaGather)] {
-					g[3*k], g[3*k+1], g[3*k+2] = xy[2*q], xy[2*q+1], w[q]
+					g[3*k], g[3*k+1], g[3*k+2] = xy[2*q], xy[2*q+1], ranges[q]*ranges[q]
 				}
 			}
 			v := g[9*j : 9*j+9 : 9*j+9]
@@ -281,25 +279,14 @@ func powerAttachVertices(t *planar.Triangulation, f *PowerFiltration, outside []
 	})
 }
 
-// dist2 returns the squared distance from vertex v to (x, y).
-func dist2(xy []float64, v int32, x, y float64) float64 {
-	dx, dy := xy[2*v]-x, xy[2*v+1]-y
-	return dx*dx + dy*dy
-}
-
-// powerEdge returns the value of edge pq (the power at the point of its
-// line with π_p = π_q) and that point.
-func powerEdge(xy, w []float64, p, q int32) (t, x, y float64) {
+// powerEdge returns the value of edge pq for ranges r (the power at the
+// point of its line with π_p = π_q; weights w = r²).
+func powerEdge(xy, r []float64, p, q int32) float64 {
+	wp, wq := r[p]*r[p], r[q]*r[q]
 	dx, dy := xy[2*q]-xy[2*p], xy[2*q+1]-xy[2*p+1]
 	d2 := dx*dx + dy*dy
-	s := (d2 + w[p] - w[q]) / (2 * d2)
-	return s*s*d2 - w[p], xy[2*p] + s*dx, xy[2*p+1] + s*dy
-}
-
-// powerTriangle returns the value of triangle abc (the power of its power
-// centre) and the centre (powerTriangleAt).
-func powerTriangle(xy, w []float64, a, b, c int32) (t, x, y float64) {
-	return powerTriangleAt(xy[2*a], xy[2*a+1], w[a], xy[2*b], xy[2*b+1], w[b], xy[2*c], xy[2*c+1], w[c])
+	s := (d2 + wp - wq) / (2 * d2)
+	return s*s*d2 - wp
 }
 
 // powerTriangleAt returns the value of the triangle of the points (ax,
@@ -397,7 +384,7 @@ func ComputePowerPersistence(t *planar.Triangulation, f *PowerFiltration) *Power
 	p.Vertices = nv
 	nt := t.NumTriangles()
 	if nt == 0 {
-		p.Births = powerSortedBirths(f.Vertex)
+		p.Births = powerSortedBirths(f.Vertex, nil)
 		ends := make([]uint64, 0, len(f.Line))
 		vals := make([]uint64, 0, len(f.Line))
 		order := make([]int32, len(f.Line))
@@ -418,18 +405,23 @@ func ComputePowerPersistence(t *planar.Triangulation, f *PowerFiltration) *Power
 	// above the half-edge, so ties stay in half-edge order, then the runs
 	// of equal upper bits ordered by the full value).
 	tr, he, src := t.Triangles, t.Halfedges, t.Source
+	// The edges are the hull half-edges and half the others.
+	ends := make([]uint64, (len(he)+len(t.Hull))/2) // scratch for the births' sort first
 	born := make(chan struct{})
 	go func() {
-		p.Births = powerSortedBirths(f.Vertex)
+		p.Births = powerSortedBirths(f.Vertex, ends)
 		close(born)
 	}()
 	keys, sides := powerEdgeOrder(he, f.Edge)
 	ne := len(keys)
+	<-born
+	if len(ends) != ne {
+		ends = make([]uint64, ne) // Hull does not list the hull
+	}
 	// Gather, in filtration order, each edge's value, endpoints (vertex
 	// indices, smaller first) and two sides (triangles; nt stands for the
 	// outside), so that both passes below read memory sequentially.
 	outside := uint64(nt)
-	ends := make([]uint64, ne)
 	planar.ParallelFor(ne, alphaGrain, func(lo, hi int) {
 		for i := lo; i < hi; i++ {
 			e := int32(uint32(keys[i]))
@@ -443,7 +435,6 @@ func ComputePowerPersistence(t *planar.Triangulation, f *PowerFiltration) *Power
 			keys[i] = math.Float64bits(f.Edge[e])
 		}
 	})
-	<-born
 	// The two union-find passes are independent: side by side.
 	merged := make(chan struct{})
 	go func() {
@@ -451,11 +442,11 @@ func ComputePowerPersistence(t *planar.Triangulation, f *PowerFiltration) *Power
 		close(merged)
 	}()
 	recs := powerDual(f.Triangle, keys, ends, sides)
-	order := persistHoleOrder(recs)
+	order := persistHoleOrder(recs, sides)
 	p.Holes = make([]PowerHole, len(recs))
 	planar.ParallelFor(len(recs), alphaGrain, func(lo, hi int) {
 		for j := lo; j < hi; j++ {
-			r := &recs[order[j]]
+			r := &recs[uint32(order[j])]
 			y := r.rank
 			p.Holes[j] = PowerHole{Birth: r.birth, Death: r.death,
 				DeathPoint: orb.Point{f.centre[2*y], f.centre[2*y+1]},
@@ -468,14 +459,18 @@ func ComputePowerPersistence(t *planar.Triangulation, f *PowerFiltration) *Power
 }
 
 // powerSortedBirths returns the values v ascending (radix sort on their
-// orderedBits).
-func powerSortedBirths(v []float64) []float64 {
-	k := make([]uint64, len(v))
+// orderedBits), using buf as scratch when it holds 2·len(v) words.
+func powerSortedBirths(v []float64, buf []uint64) []float64 {
+	n := len(v)
+	if len(buf) < 2*n {
+		buf = make([]uint64, 2*n)
+	}
+	k := buf[:n]
 	for i, x := range v {
 		k[i] = orderedBits(x)
 	}
-	k, _ = persistRadixSortFrom(k, make([]uint64, len(v)), 0)
-	out := make([]float64, len(v))
+	k, _ = persistRadixSortFrom(k, buf[n:2*n], 0)
+	out := make([]float64, n)
 	for i, x := range k {
 		out[i] = fromOrderedBits(x)
 	}
