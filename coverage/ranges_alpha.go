@@ -385,19 +385,23 @@ func ComputePowerPersistence(t *planar.Triangulation, f *PowerFiltration) *Power
 	nt := t.NumTriangles()
 	if nt == 0 {
 		p.Births = powerSortedBirths(f.Vertex, nil)
-		ends := make([]uint64, 0, len(f.Line))
-		vals := make([]uint64, 0, len(f.Line))
-		order := make([]int32, len(f.Line))
+		// The path's edges as the first two corners of stand-in
+		// triangles, for powerKruskal.
+		n := len(f.Line)
+		corners := make([]int32, 3*n)
+		sides := make([]uint64, 0, n)
+		vals := make([]uint64, 0, n)
+		order := make([]int32, n)
 		for i := range order {
 			order[i] = int32(i)
 		}
 		slices.SortStableFunc(order, func(a, b int32) int { return cmpFloat(f.Line[a], f.Line[b]) })
-		for _, i := range order {
-			a, b := t.Hull[i], t.Hull[i+1]
-			ends = append(ends, uint64(uint32(a))|uint64(uint32(b))<<32)
+		for k, i := range order {
+			corners[3*k], corners[3*k+1] = t.Hull[i], t.Hull[i+1]
+			sides = append(sides, uint64(3*k))
 			vals = append(vals, math.Float64bits(f.Line[i]))
 		}
-		p.Merges = powerKruskal(t, f, ends, vals)
+		p.Merges = powerKruskal(t, corners, f, sides, vals)
 		return p
 	}
 	// Vertex births on a second goroutine, the edge order here (a radix
@@ -405,52 +409,38 @@ func ComputePowerPersistence(t *planar.Triangulation, f *PowerFiltration) *Power
 	// above the half-edge, so ties stay in half-edge order, then the runs
 	// of equal upper bits ordered by the full value).
 	tr, he, src := t.Triangles, t.Halfedges, t.Source
-	// The edges are the hull half-edges and half the others.
-	ends := make([]uint64, (len(he)+len(t.Hull))/2) // scratch for the births' sort first
-	born := make(chan struct{})
-	go func() {
-		p.Births = powerSortedBirths(f.Vertex, ends)
-		close(born)
-	}()
-	keys, sides := powerEdgeOrder(he, f.Edge)
+	keys, sides := powerEdgeOrder(he, f.Edge, func(scratch []uint64) {
+		p.Births = powerSortedBirths(f.Vertex, scratch)
+	})
 	ne := len(keys)
-	<-born
-	if len(ends) != ne {
-		ends = make([]uint64, ne) // Hull does not list the hull
-	}
-	// Gather, in filtration order, each edge's value, endpoints (vertex
-	// indices, smaller first) and two sides (triangles; nt stands for the
-	// outside), so that both passes below read memory sequentially.
-	outside := uint64(nt)
+	// Gather, in filtration order, each edge's value and its half-edge
+	// with the opposite one (-1 on the hull), so that both passes below
+	// read memory sequentially: Kruskal takes the endpoints from the
+	// half-edge, the dual pass the two sides (triangles; nt stands for
+	// the outside).
 	planar.ParallelFor(ne, alphaGrain, func(lo, hi int) {
 		for i := lo; i < hi; i++ {
 			e := int32(uint32(keys[i]))
-			a, b := tr[e], tr[planar.NextHalfedge(e)]
-			ends[i] = uint64(uint32(min(a, b))) | uint64(uint32(max(a, b)))<<32
-			s2 := outside
-			if o := he[e]; o >= 0 {
-				s2 = uint64(o / 3)
-			}
-			sides[i] = uint64(e/3) | s2<<32
+			sides[i] = uint64(uint32(e)) | uint64(uint32(he[e]))<<32
 			keys[i] = math.Float64bits(f.Edge[e])
 		}
 	})
 	// The two union-find passes are independent: side by side.
 	merged := make(chan struct{})
 	go func() {
-		p.Merges = powerKruskal(t, f, ends, keys)
+		p.Merges = powerKruskal(t, tr, f, sides, keys)
 		close(merged)
 	}()
-	recs := powerDual(f.Triangle, keys, ends, sides)
-	order := persistHoleOrder(recs, sides)
+	recs := powerDual(f.Triangle, keys, sides)
+	order := persistHoleOrder(recs, nil)
 	p.Holes = make([]PowerHole, len(recs))
 	planar.ParallelFor(len(recs), alphaGrain, func(lo, hi int) {
 		for j := lo; j < hi; j++ {
 			r := &recs[uint32(order[j])]
-			y := r.rank
+			y, e := r.rank, int32(r.sites)
 			p.Holes[j] = PowerHole{Birth: r.birth, Death: r.death,
 				DeathPoint: orb.Point{f.centre[2*y], f.centre[2*y+1]},
-				BirthSites: persistSitePair(src[uint32(r.sites)], src[r.sites>>32]),
+				BirthSites: persistSitePair(src[tr[e]], src[tr[planar.NextHalfedge(e)]]),
 				deathTri:   y}
 		}
 	})
@@ -480,9 +470,11 @@ func powerSortedBirths(v []float64, buf []uint64) []float64 {
 // powerDual is persistDual with the triangles numbered by index, an order
 // between two of them being that of (value, index) (orderedBits of the
 // values tv), the outside (node len(tv)) after all: the root of each dual
-// component is its latest triangle in the filtration, and a hole record's
-// rank field holds the index of the triangle that fills it.
-func powerDual(tv []float64, keys, ends, sides []uint64) []persistHoleRec {
+// component is its latest triangle in the filtration. sides packs each
+// edge's half-edge and the opposite one (-1 on the hull); a hole record's
+// sites field holds the half-edge of its birth edge and its rank field the
+// index of the triangle that fills it.
+func powerDual(tv []float64, keys, sides []uint64) []persistHoleRec {
 	nt := len(tv)
 	uf := planar.NewUnionFind(nt + 1)
 	par := uf.Parent
@@ -496,8 +488,12 @@ func powerDual(tv []float64, keys, ends, sides []uint64) []persistHoleRec {
 		return ka > kb || ka == kb && a > b
 	}
 	for i := len(sides) - 1; i >= 0; i-- {
-		s := sides[i]
-		ra, rb := uf.Find(int32(uint32(s))), uf.Find(int32(s>>32))
+		e, o := int32(uint32(sides[i])), int32(sides[i]>>32)
+		b := int32(nt)
+		if o >= 0 {
+			b = o / 3
+		}
+		ra, rb := uf.Find(e/3), uf.Find(b)
 		if ra == rb {
 			continue // negative edge: a merge, found by Kruskal
 		}
@@ -508,7 +504,7 @@ func powerDual(tv []float64, keys, ends, sides []uint64) []persistHoleRec {
 		par[young] = old
 		birth, death := math.Float64frombits(keys[i]), tv[young]
 		if death-birth > HoleResolution*math.Max(math.Abs(death), math.Abs(birth)) {
-			out = append(out, persistHoleRec{birth, death, ends[i], young})
+			out = append(out, persistHoleRec{birth, death, uint64(e), young})
 		}
 	}
 	return out
@@ -518,8 +514,9 @@ func powerDual(tv []float64, keys, ends, sides []uint64) []persistHoleRec {
 // an interior pair, or the hull half-edge) by (value, half-edge): it
 // returns the words value<<32 | half-edge in that order (the upper 32 bits
 // of the value's orderedBits) and a free slice of the same length. Chunks
-// of half-edges are counted and filled in parallel.
-func powerEdgeOrder(he []int32, edge []float64) (sorted, free []uint64) {
+// of half-edges are counted and filled in parallel; meanwhile, on another
+// goroutine, side gets the sort's scratch slice to use first.
+func powerEdgeOrder(he []int32, edge []float64, side func(scratch []uint64)) (sorted, free []uint64) {
 	const chunk = 1 << 16
 	nc := (len(he) + chunk - 1) / chunk
 	start := make([]int, nc+1)
@@ -534,6 +531,12 @@ func powerEdgeOrder(he []int32, edge []float64) (sorted, free []uint64) {
 		start[ci+1] += start[ci]
 	}
 	a := make([]uint64, start[nc])
+	tmp := make([]uint64, len(a))
+	done := make(chan struct{})
+	go func() {
+		side(tmp)
+		close(done)
+	}()
 	planar.ParallelChunks(len(he), chunk, 0, func(ci, lo, hi int) {
 		k := start[ci]
 		for e := lo; e < hi; e++ {
@@ -543,21 +546,24 @@ func powerEdgeOrder(he []int32, edge []float64) (sorted, free []uint64) {
 			}
 		}
 	})
-	sorted, free = persistSortPacked(a, make([]uint64, len(a)))
+	<-done
+	sorted, free = persistSortPacked(a, tmp)
 	persistFixTies(sorted, func(e uint32) uint64 { return orderedBits(edge[e]) })
 	return sorted, free
 }
 
 // powerKruskal runs the elder-rule union-find over the vertices along the
-// edges (vertex pairs packed in vends, the bits of their values in vals,
-// in filtration order).
-func powerKruskal(t *planar.Triangulation, f *PowerFiltration, vends, vals []uint64) []PowerMerge {
+// edges (their half-edges of tr, the triangles' corners, in the low 32 bits
+// of sides, the bits of their values in vals, in filtration order).
+func powerKruskal(t *planar.Triangulation, tr []int32, f *PowerFiltration, sides, vals []uint64) []PowerMerge {
 	nv := t.NumVertices()
 	uf := planar.NewUnionFind(nv)
 	birth := f.Vertex
 	out := make([]PowerMerge, 0, max(nv-1, 0))
-	for i, ab := range vends {
-		a, b := uf.Find(int32(uint32(ab))), uf.Find(int32(ab>>32))
+	for i, s := range sides {
+		e := int32(uint32(s))
+		va, vb := tr[e], tr[planar.NextHalfedge(e)]
+		a, b := uf.Find(va), uf.Find(vb)
 		if a == b {
 			continue
 		}
@@ -567,7 +573,7 @@ func powerKruskal(t *planar.Triangulation, f *PowerFiltration, vends, vals []uin
 			young, old = b, a
 		}
 		out = append(out, PowerMerge{Birth: birth[young], Death: math.Float64frombits(vals[i]),
-			Sites: persistSitePair(t.Source[int32(uint32(ab))], t.Source[int32(ab>>32)])})
+			Sites: persistSitePair(t.Source[va], t.Source[vb])})
 		uf.Parent[young] = old
 	}
 	return out
