@@ -135,38 +135,25 @@ func NewPowerFiltration(t *planar.Triangulation, ranges []float64) *PowerFiltrat
 					g[3*k], g[3*k+1], g[3*k+2] = xy[2*q], xy[2*q+1], ranges[q]*ranges[q]
 				}
 			}
-			v := g[9*j : 9*j+9 : 9*j+9]
-			f.Triangle[i], f.centre[2*i], f.centre[2*i+1] = powerTriangleAt(v[0], v[1], v[2], v[3], v[4], v[5], v[6], v[7], v[8])
-			for k := range 3 {
-				e := 3*i + k
-				p, q, o := v[3*k:3*k+3], v[3*((k+1)%3):3*((k+1)%3)+3], v[3*((k+2)%3):3*((k+2)%3)+3]
-				// The edge's own value and point (powerEdge), and the
-				// opposite vertex's power there.
-				dx, dy := q[0]-p[0], q[1]-p[1]
-				d2 := dx*dx + dy*dy
-				s := (d2 + p[2] - q[2]) / (2 * d2)
-				te := s*s*d2 - p[2]
-				ox, oy := o[0]-(p[0]+s*dx), o[1]-(p[1]+s*dy)
-				attached := ox*ox+oy*oy-o[2] < te
-				opp := he[e]
-				switch {
-				case opp < 0 || opp > int32(e):
-					if attached {
-						te = math.Inf(1)
+			v := (*[9]float64)(g[9*j : 9*j+9])
+			ax, ay, wa := v[0], v[1], v[2]
+			bx, by, wb := v[3], v[4], v[5]
+			cx, cy, wc := v[6], v[7], v[8]
+			f.Triangle[i], f.centre[2*i], f.centre[2*i+1] = powerTriangleAt(ax, ay, wa, bx, by, wb, cx, cy, wc)
+			e := int32(3 * i)
+			o0, o1, o2 := he[e], he[e+1], he[e+2]
+			var out0, out1, out2 uint8
+			f.Edge[e], out0 = powerHalfEdge(e, o0, ax, ay, wa, bx, by, wb, cx, cy, wc)
+			f.Edge[e+1], out1 = powerHalfEdge(e+1, o1, bx, by, wb, cx, cy, wc, ax, ay, wa)
+			f.Edge[e+2], out2 = powerHalfEdge(e+2, o2, cx, cy, wc, ax, ay, wa, bx, by, wb)
+			if out0|out1|out2 != 0 {
+				for k, o := range [3]uint8{out0, out1, out2} {
+					if o&1 != 0 {
+						out = append(out, tr[int(e)+k])
 					}
-					f.Edge[e] = te
-				case attached:
-					f.Edge[e] = math.Abs(math.Max(-q[2], -p[2]))
-				default:
-					f.Edge[e] = math.Max(-q[2], -p[2])
-				}
-				// Is the site of p (or, on the hull, of q) outside its
-				// power cell, beyond the power line with the other?
-				if d2-q[2] < -p[2] {
-					out = append(out, tr[e])
-				}
-				if opp < 0 && d2-p[2] < -q[2] {
-					out = append(out, tr[planar.NextHalfedge(int32(e))])
+					if o&2 != 0 {
+						out = append(out, tr[planar.NextHalfedge(e+int32(k))])
+					}
 				}
 			}
 		}
@@ -195,14 +182,14 @@ func NewPowerFiltration(t *planar.Triangulation, ranges []float64) *PowerFiltrat
 				o := f.Edge[opp]
 				gabriel = gabriel && math.Signbit(o)
 				floor = -math.Abs(o)
-				v = math.Min(v, f.Triangle[opp/3])
+				v = min(v, f.Triangle[opp/3])
 			} else {
-				floor = math.Max(f.Vertex[tr[e]], f.Vertex[tr[planar.NextHalfedge(e)]])
+				floor = max(f.Vertex[tr[e]], f.Vertex[tr[planar.NextHalfedge(e)]])
 			}
 			if gabriel {
-				v = math.Min(v, own)
+				v = min(v, own)
 			}
-			v = math.Max(v, floor)
+			v = max(v, floor)
 			f.Edge[e] = v
 			if opp >= 0 {
 				f.Edge[opp] = v
@@ -217,6 +204,41 @@ func NewPowerFiltration(t *planar.Triangulation, ranges []float64) *PowerFiltrat
 	})
 	powerAttachVertices(t, f, outside)
 	return f
+}
+
+// powerHalfEdge returns what pass 1 of NewPowerFiltration stores for
+// half-edge e from p to q, in a triangle whose third vertex is o (points
+// and weights), opp being its opposite half-edge: for the edge's owner
+// (opp < 0 or opp > e) its own value (the power at the point of its line
+// where π_p = π_q) or +Inf when o attaches it (π_o there is below that
+// value); for the other half max(−w_q, −w_p), its sign bit cleared when o
+// attaches it. out has bit 0 set when the site of p lies outside its
+// power cell (π_q(p) < −w_p), and on the hull bit 1 likewise for q.
+func powerHalfEdge(e, opp int32, px, py, wp, qx, qy, wq, ox, oy, wo float64) (v float64, out uint8) {
+	dx, dy := qx-px, qy-py
+	d2 := dx*dx + dy*dy
+	s := (d2 + wp - wq) / (2 * d2)
+	te := s*s*d2 - wp
+	rx, ry := ox-(px+s*dx), oy-(py+s*dy)
+	attached := rx*rx+ry*ry-wo < te
+	switch {
+	case opp < 0 || opp > e:
+		v = te
+		if attached {
+			v = math.Inf(1)
+		}
+	case attached:
+		v = math.Abs(max(-wq, -wp))
+	default:
+		v = max(-wq, -wp)
+	}
+	if d2-wq < -wp {
+		out = 1
+	}
+	if opp < 0 && d2-wp < -wq {
+		out |= 2
+	}
+	return v, out
 }
 
 // powerAttachVertices raises each vertex listed in outside (its site lies
@@ -263,11 +285,11 @@ func powerAttachVertices(t *planar.Triangulation, f *PowerFiltration, outside []
 			start := t.Inedge[v]
 			m := math.Inf(1)
 			for in := start; in >= 0; {
-				m = math.Min(m, f.Edge[in])
+				m = min(m, f.Edge[in])
 				out := planar.NextHalfedge(in)
 				in = he[out]
 				if in < 0 {
-					m = math.Min(m, f.Edge[out]) // the hull edge leaving v
+					m = min(m, f.Edge[out]) // the hull edge leaving v
 					break
 				}
 				if in == start {
@@ -432,7 +454,8 @@ func ComputePowerPersistence(t *planar.Triangulation, f *PowerFiltration) *Power
 		close(merged)
 	}()
 	recs := powerDual(f.Triangle, keys, sides)
-	order := persistHoleOrder(recs, nil)
+	<-merged
+	order := persistHoleOrder(recs, keys) // keys is free now
 	p.Holes = make([]PowerHole, len(recs))
 	planar.ParallelFor(len(recs), alphaGrain, func(lo, hi int) {
 		for j := lo; j < hi; j++ {
@@ -444,7 +467,6 @@ func ComputePowerPersistence(t *planar.Triangulation, f *PowerFiltration) *Power
 				deathTri:   y}
 		}
 	})
-	<-merged
 	return p
 }
 
@@ -503,7 +525,7 @@ func powerDual(tv []float64, keys, sides []uint64) []persistHoleRec {
 		}
 		par[young] = old
 		birth, death := math.Float64frombits(keys[i]), tv[young]
-		if death-birth > HoleResolution*math.Max(math.Abs(death), math.Abs(birth)) {
+		if death-birth > HoleResolution*max(math.Abs(death), math.Abs(birth)) {
 			out = append(out, persistHoleRec{birth, death, uint64(e), young})
 		}
 	}
@@ -560,9 +582,18 @@ func powerKruskal(t *planar.Triangulation, tr []int32, f *PowerFiltration, sides
 	uf := planar.NewUnionFind(nv)
 	birth := f.Vertex
 	out := make([]PowerMerge, 0, max(nv-1, 0))
-	for i, s := range sides {
-		e := int32(uint32(s))
-		va, vb := tr[e], tr[planar.NextHalfedge(e)]
+	// The endpoints are loaded a block of edges at a time: the loads are
+	// independent of the union-find, so many are in flight at once.
+	var ends [alphaGather]uint64
+	for i := range sides {
+		j := i % alphaGather
+		if j == 0 {
+			for k, s := range sides[i:min(len(sides), i+alphaGather)] {
+				e := int32(uint32(s))
+				ends[k] = uint64(uint32(tr[e])) | uint64(uint32(tr[planar.NextHalfedge(e)]))<<32
+			}
+		}
+		va, vb := int32(uint32(ends[j])), int32(ends[j]>>32)
 		a, b := uf.Find(va), uf.Find(vb)
 		if a == b {
 			continue
