@@ -40,11 +40,12 @@
 // cocircular sites makes them).
 //
 // Cost: radix sorts (11-bit digits) of the edges and of the triangles on
-// the bits of their values, then the two union-find passes side by side:
-// Kruskal over int32 site indices (path halving, union by rank) and the
-// dual pass over triangles numbered by filtration rank (path halving,
-// linking the younger root below the older, so the root is the
-// representative). Memory is flat int32/uint64/float64 arrays, about 150
+// the upper 32 bits of their values' bits packed above the index (runs
+// that tie there then ordered by the full bits), then the two union-find
+// passes side by side: Kruskal over int32 site indices (path halving,
+// union by rank) and the dual pass over triangles numbered by filtration
+// rank (path halving, linking the younger root below the older, so the
+// root is the representative). Memory is flat int32/uint64/float64 arrays, about 150
 // bytes per site at the peak besides the result.
 
 package coverage
@@ -153,7 +154,10 @@ func ComputePersistence(t *planar.Triangulation, f *Filtration) *Persistence {
 // length, and concurrently the triangles by (value, index); a triangle's
 // rank in that order is its position in the filtration. It returns the
 // number of edges, their half-edges and keys in order, the triangles' keys
-// and indices in order, and each triangle's rank.
+// and indices in order, and each triangle's rank. Keys are the bits of the
+// values (non-negative, so their unsigned order is the values' order);
+// each sort is persistSortPacked on the upper 32 bits packed above the
+// index, then persistFixTies on the full bits.
 func persistOrder(t *planar.Triangulation, f *Filtration) (ne int, ids []int32, keys, tkeys []uint64, tids, rank []int32) {
 	nt := t.NumTriangles()
 	he := t.Halfedges
@@ -162,33 +166,43 @@ func persistOrder(t *planar.Triangulation, f *Filtration) (ne int, ids []int32, 
 			ne++
 		}
 	}
-	ids = make([]int32, 0, ne)
-	keys = make([]uint64, 0, ne)
-	for e, o := range he {
-		if o < int32(e) {
-			ids = append(ids, int32(e))
-			keys = append(keys, math.Float64bits(f.Edge[e]))
-		}
-	}
 	// Sort the edges, and concurrently the triangles by (value, index): a
 	// triangle's rank in that order is its position in the filtration.
 	tv := f.Triangle
-	tkeys = make([]uint64, nt)
-	tids = make([]int32, nt)
 	rank = make([]int32, nt)
 	sorted := make(chan struct{})
 	go func() {
+		tkeys = make([]uint64, nt)
 		for i, v := range tv {
-			tkeys[i] = math.Float64bits(v)
-			tids[i] = int32(i)
+			tkeys[i] = math.Float64bits(v)>>32<<32 | uint64(i)
 		}
-		persistRadixSort(tkeys, tids)
-		for r, i := range tids {
+		tkeys, _ = persistSortPacked(tkeys, make([]uint64, nt))
+		persistFixTies(tkeys, func(i uint32) uint64 { return math.Float64bits(tv[i]) })
+		tids = make([]int32, nt)
+		for r, x := range tkeys {
+			i := int32(uint32(x))
+			tids[r] = i
 			rank[i] = int32(r)
+			tkeys[r] = math.Float64bits(tv[i])
 		}
 		close(sorted)
 	}()
-	persistRadixSort(keys, ids)
+	keys = make([]uint64, 0, ne)
+	for e, o := range he {
+		if o < int32(e) {
+			keys = append(keys, math.Float64bits(f.Edge[e])>>32<<32|uint64(e))
+		}
+	}
+	keys, _ = persistSortPacked(keys, make([]uint64, ne))
+	persistFixTies(keys, func(e uint32) uint64 { return math.Float64bits(f.Edge[e]) })
+	ids = make([]int32, ne)
+	planar.ParallelFor(ne, alphaGrain, func(lo, hi int) {
+		for i := lo; i < hi; i++ {
+			e := int32(uint32(keys[i]))
+			ids[i] = e
+			keys[i] = math.Float64bits(f.Edge[e])
+		}
+	})
 	persistTieByLength(t, keys, ids)
 	<-sorted
 
@@ -361,56 +375,6 @@ func (p *Persistence) Betti(r float64) (pieces, holes int) {
 		}
 	}
 	return pieces, holes
-}
-
-// persistRadixSort sorts keys ascending, carrying ids along, by a stable
-// least-significant-digit radix sort with 11-bit digits; digits that are
-// equal across all keys are skipped. Non-negative float64 bit patterns
-// sort like the values.
-func persistRadixSort(keys []uint64, ids []int32) {
-	const bits = 11
-	const nb = 1 << bits
-	const passes = (64 + bits - 1) / bits
-	n := len(keys)
-	if n < 2 {
-		return
-	}
-	var hist [passes][nb]int32
-	for _, k := range keys {
-		for d := 0; d < passes; d++ {
-			hist[d][(k>>(d*bits))&(nb-1)]++
-		}
-	}
-	k2 := make([]uint64, n)
-	i2 := make([]int32, n)
-	src, dst := keys, k2
-	isrc, idst := ids, i2
-	for d := 0; d < passes; d++ {
-		h := &hist[d]
-		if h[(keys[0]>>(d*bits))&(nb-1)] == int32(n) {
-			continue // all keys share this digit
-		}
-		var sum int32
-		for b := range h {
-			c := h[b]
-			h[b] = sum
-			sum += c
-		}
-		shift := uint(d * bits)
-		for i, k := range src {
-			b := (k >> shift) & (nb - 1)
-			j := h[b]
-			h[b] = j + 1
-			dst[j] = k
-			idst[j] = isrc[i]
-		}
-		src, dst = dst, src
-		isrc, idst = idst, isrc
-	}
-	if &src[0] != &keys[0] {
-		copy(keys, src)
-		copy(ids, isrc)
-	}
 }
 
 // persistSortPacked sorts words packed as key<<32 | index ascending by
