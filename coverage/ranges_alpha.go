@@ -543,11 +543,13 @@ func powerEdgeOrder(he []int32, edge []float64, side func(scratch []uint64)) (so
 	nc := (len(he) + chunk - 1) / chunk
 	start := make([]int, nc+1)
 	planar.ParallelChunks(len(he), chunk, 0, func(ci, lo, hi int) {
+		c := 0
 		for e := lo; e < hi; e++ {
 			if he[e] < int32(e) {
-				start[ci+1]++
+				c++
 			}
 		}
+		start[ci+1] = c
 	})
 	for ci := range nc {
 		start[ci+1] += start[ci]
