@@ -455,13 +455,13 @@ func ComputePowerPersistence(t *planar.Triangulation, f *PowerFiltration) *Power
 	}()
 	recs := powerDual(f.Triangle, keys, sides)
 	<-merged
-	order := persistHoleOrder(recs, keys) // keys is free now
+	order := powerHoleOrder(recs, f.Triangle, keys) // keys is free now
 	p.Holes = make([]PowerHole, len(recs))
 	planar.ParallelFor(len(recs), alphaGrain, func(lo, hi int) {
 		for j := lo; j < hi; j++ {
 			r := &recs[uint32(order[j])]
-			y, e := r.rank, int32(r.sites)
-			p.Holes[j] = PowerHole{Birth: r.birth, Death: r.death,
+			y, e := r.tri, r.edge
+			p.Holes[j] = PowerHole{Birth: r.birth, Death: f.Triangle[y],
 				DeathPoint: orb.Point{f.centre[2*y], f.centre[2*y+1]},
 				BirthSites: persistSitePair(src[tr[e]], src[tr[planar.NextHalfedge(e)]]),
 				deathTri:   y}
@@ -489,18 +489,44 @@ func powerSortedBirths(v []float64, buf []uint64) []float64 {
 	return out
 }
 
+// powerHoleRec is an H1 pair found by powerDual: the birth value, the
+// birth edge's half-edge and the triangle that fills the hole (whose value
+// is the death).
+type powerHoleRec struct {
+	birth     float64
+	edge, tri int32
+}
+
+// powerHoleOrder is persistHoleOrder for powerDual's records, the deaths
+// being the values tv of their triangles.
+func powerHoleOrder(recs []powerHoleRec, tv []float64, buf []uint64) []uint64 {
+	nh := len(recs)
+	slices.Reverse(recs)
+	if len(buf) < 2*nh {
+		buf = make([]uint64, 2*nh)
+	}
+	hk := buf[:nh]
+	key := func(k uint32) uint64 { return ^math.Float64bits(tv[recs[k].tri] - recs[k].birth) }
+	planar.ParallelFor(nh, alphaGrain, func(lo, hi int) {
+		for k := lo; k < hi; k++ {
+			hk[k] = key(uint32(k))>>32<<32 | uint64(k)
+		}
+	})
+	hk, _ = persistSortPacked(hk, buf[nh:2*nh])
+	persistFixTies(hk, key)
+	return hk
+}
+
 // powerDual is persistDual with the triangles numbered by index, an order
 // between two of them being that of (value, index) (orderedBits of the
 // values tv), the outside (node len(tv)) after all: the root of each dual
 // component is its latest triangle in the filtration. sides packs each
-// edge's half-edge and the opposite one (-1 on the hull); a hole record's
-// sites field holds the half-edge of its birth edge and its rank field the
-// index of the triangle that fills it.
-func powerDual(tv []float64, keys, sides []uint64) []persistHoleRec {
+// edge's half-edge and the opposite one (-1 on the hull).
+func powerDual(tv []float64, keys, sides []uint64) []powerHoleRec {
 	nt := len(tv)
 	uf := planar.NewUnionFind(nt + 1)
 	par := uf.Parent
-	out := make([]persistHoleRec, 0, nt/2+16)
+	out := make([]powerHoleRec, 0, nt/2+16)
 	// later reports whether node a comes after node b.
 	later := func(a, b int32) bool {
 		if a == int32(nt) || b == int32(nt) {
@@ -526,7 +552,7 @@ func powerDual(tv []float64, keys, sides []uint64) []persistHoleRec {
 		par[young] = old
 		birth, death := math.Float64frombits(keys[i]), tv[young]
 		if death-birth > HoleResolution*max(math.Abs(death), math.Abs(birth)) {
-			out = append(out, persistHoleRec{birth, death, uint64(e), young})
+			out = append(out, powerHoleRec{birth, e, young})
 		}
 	}
 	return out
