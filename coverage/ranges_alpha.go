@@ -42,8 +42,8 @@
 // the upper 32 bits of their keys packed above the half-edge, runs of
 // equal upper bits then ordered by the full key; the dual union-find
 // compares triangles by (value, index) directly, so they need no sort;
-// Kruskal and the dual pass run side by side. All passes but the two
-// union-finds and the sort run in parallel chunks.
+// Kruskal and the dual pass run side by side. Every other pass, the sort
+// included, runs on GOMAXPROCS goroutines at once.
 //
 // Error bounds: a triangle's value is computed from its power centre
 // relative to a vertex, |q|² − w_a, with an absolute error of a few u
