@@ -457,12 +457,18 @@ func ComputePowerPersistence(t *planar.Triangulation, f *PowerFiltration) *Power
 	<-merged
 	order := powerHoleOrder(recs, f.Triangle, keys) // keys is free now
 	p.Holes = make([]PowerHole, len(recs))
+	centre := f.centre
 	planar.ParallelFor(len(recs), alphaGrain, func(lo, hi int) {
 		for j := lo; j < hi; j++ {
 			r := &recs[uint32(order[j])]
 			y, e := r.tri, r.edge
-			p.Holes[j] = PowerHole{Birth: r.birth, Death: f.Triangle[y],
-				DeathPoint: orb.Point{f.centre[2*y], f.centre[2*y+1]},
+			var dp orb.Point
+			if len(centre) == 2*nt {
+				dp = orb.Point{centre[2*y], centre[2*y+1]}
+			} else { // a filtration not made by NewPowerFiltration
+				dp[0], dp[1] = alphaCircumcentre(t.Coords, tr[3*y], tr[3*y+1], tr[3*y+2])
+			}
+			p.Holes[j] = PowerHole{Birth: r.birth, Death: f.Triangle[y], DeathPoint: dp,
 				BirthSites: persistSitePair(src[tr[e]], src[tr[planar.NextHalfedge(e)]]),
 				deathTri:   y}
 		}
