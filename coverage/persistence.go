@@ -506,22 +506,40 @@ func persistRadixSortFrom(a, tmp []uint64, from uint) (sorted, free []uint64) {
 
 // persistFixTies orders each run of words of s (sorted by persistSortPacked)
 // with equal upper 32 bits by full(index), then index: the key in the upper
-// bits being a prefix of full, s is then ordered by (full, index).
+// bits being a prefix of full, s is then ordered by (full, index). Long
+// slices are cut at run starts into GOMAXPROCS parts ordered at once.
 func persistFixTies(s []uint64, full func(i uint32) uint64) {
-	// Each part orders the runs that start in it.
-	planar.ParallelFor(len(s), persistSortGrain, func(lo, hi int) {
-		persistFixTiesIn(s, lo, hi, full)
-	})
+	n := len(s)
+	w := min(runtime.GOMAXPROCS(0), n/persistSortGrain)
+	if w < 2 {
+		persistFixTiesIn(s, full)
+		return
+	}
+	cut := make([]int, w+1)
+	cut[w] = n
+	for k := 1; k < w; k++ {
+		c := max(n*k/w, cut[k-1])
+		for c < n && s[c]>>32 == s[c-1]>>32 {
+			c++ // inside a run: cut after it
+		}
+		cut[k] = c
+	}
+	var wg sync.WaitGroup
+	for k := 1; k < w; k++ {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			persistFixTiesIn(s[cut[k]:cut[k+1]], full)
+		}()
+	}
+	persistFixTiesIn(s[:cut[1]], full)
+	wg.Wait()
 }
 
-// persistFixTiesIn is persistFixTies for the runs starting in s[from:to].
-func persistFixTiesIn(s []uint64, from, to int, full func(i uint32) uint64) {
+// persistFixTiesIn is persistFixTies on one goroutine.
+func persistFixTiesIn(s []uint64, full func(i uint32) uint64) {
 	n := len(s)
-	i := from
-	for i > 0 && i < n && s[i]>>32 == s[i-1]>>32 {
-		i++ // a run started before from
-	}
-	for i < to {
+	for i := 0; i < n; {
 		j := i + 1
 		for j < n && s[j]>>32 == s[i]>>32 {
 			j++
