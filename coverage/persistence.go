@@ -40,11 +40,12 @@
 // cocircular sites makes them).
 //
 // Cost: radix sorts (11-bit digits) of the edges and of the triangles on
-// the bits of their values, then the two union-find passes side by side:
-// Kruskal over int32 site indices (path halving, union by rank) and the
-// dual pass over triangles numbered by filtration rank (path halving,
-// linking the younger root below the older, so the root is the
-// representative). Memory is flat int32/uint64/float64 arrays, about 150
+// the upper 32 bits of their values' bits packed above the index (runs
+// that tie there then ordered by the full bits), then the two union-find
+// passes side by side: Kruskal over int32 site indices (path halving,
+// union by rank) and the dual pass over triangles numbered by filtration
+// rank (path halving, linking the younger root below the older, so the
+// root is the representative). Memory is flat int32/uint64/float64 arrays, about 150
 // bytes per site at the peak besides the result.
 
 package coverage
@@ -52,8 +53,10 @@ package coverage
 import (
 	"cmp"
 	"math"
+	"runtime"
 	"slices"
 	"sort"
+	"sync"
 
 	"github.com/paulmach/orb"
 	"github.com/sitecover/sitecover/planar"
@@ -126,9 +129,9 @@ func ComputePersistence(t *planar.Triangulation, f *Filtration) *Persistence {
 		close(done)
 	}()
 	recs := persistDual(nt, tkeys, keys, ends, sides)
-	sides = nil
 
-	order := persistHoleOrder(recs)
+	order := persistHoleOrder(recs, sides)
+	sides = nil
 	<-done
 	p.Holes = persistHoleList(t, f, recs, order, tids)
 
@@ -151,7 +154,10 @@ func ComputePersistence(t *planar.Triangulation, f *Filtration) *Persistence {
 // length, and concurrently the triangles by (value, index); a triangle's
 // rank in that order is its position in the filtration. It returns the
 // number of edges, their half-edges and keys in order, the triangles' keys
-// and indices in order, and each triangle's rank.
+// and indices in order, and each triangle's rank. Keys are the bits of the
+// values (non-negative, so their unsigned order is the values' order);
+// each sort is persistSortPacked on the upper 32 bits packed above the
+// index, then persistFixTies on the full bits.
 func persistOrder(t *planar.Triangulation, f *Filtration) (ne int, ids []int32, keys, tkeys []uint64, tids, rank []int32) {
 	nt := t.NumTriangles()
 	he := t.Halfedges
@@ -160,33 +166,43 @@ func persistOrder(t *planar.Triangulation, f *Filtration) (ne int, ids []int32, 
 			ne++
 		}
 	}
-	ids = make([]int32, 0, ne)
-	keys = make([]uint64, 0, ne)
-	for e, o := range he {
-		if o < int32(e) {
-			ids = append(ids, int32(e))
-			keys = append(keys, math.Float64bits(f.Edge[e]))
-		}
-	}
 	// Sort the edges, and concurrently the triangles by (value, index): a
 	// triangle's rank in that order is its position in the filtration.
 	tv := f.Triangle
-	tkeys = make([]uint64, nt)
-	tids = make([]int32, nt)
 	rank = make([]int32, nt)
 	sorted := make(chan struct{})
 	go func() {
+		tkeys = make([]uint64, nt)
 		for i, v := range tv {
-			tkeys[i] = math.Float64bits(v)
-			tids[i] = int32(i)
+			tkeys[i] = math.Float64bits(v)>>32<<32 | uint64(i)
 		}
-		persistRadixSort(tkeys, tids)
-		for r, i := range tids {
+		tkeys, _ = persistSortPacked(tkeys, make([]uint64, nt))
+		persistFixTies(tkeys, func(i uint32) uint64 { return math.Float64bits(tv[i]) })
+		tids = make([]int32, nt)
+		for r, x := range tkeys {
+			i := int32(uint32(x))
+			tids[r] = i
 			rank[i] = int32(r)
+			tkeys[r] = math.Float64bits(tv[i])
 		}
 		close(sorted)
 	}()
-	persistRadixSort(keys, ids)
+	keys = make([]uint64, 0, ne)
+	for e, o := range he {
+		if o < int32(e) {
+			keys = append(keys, math.Float64bits(f.Edge[e])>>32<<32|uint64(e))
+		}
+	}
+	keys, _ = persistSortPacked(keys, make([]uint64, ne))
+	persistFixTies(keys, func(e uint32) uint64 { return math.Float64bits(f.Edge[e]) })
+	ids = make([]int32, ne)
+	planar.ParallelFor(ne, alphaGrain, func(lo, hi int) {
+		for i := lo; i < hi; i++ {
+			e := int32(uint32(keys[i]))
+			ids[i] = e
+			keys[i] = math.Float64bits(f.Edge[e])
+		}
+	})
 	persistTieByLength(t, keys, ids)
 	<-sorted
 
@@ -195,26 +211,29 @@ func persistOrder(t *planar.Triangulation, f *Filtration) (ne int, ids []int32, 
 
 // persistHoleOrder orders the holes by decreasing persistence, then
 // increasing filtration position of the birth edge (recs is reversed in
-// place to increasing birth position; the result indexes it).
-func persistHoleOrder(recs []persistHoleRec) []int32 {
-	// Holes by decreasing persistence, then increasing filtration position
-	// of the birth edge: a stable radix sort on the complemented bits
-	// (descending order), starting from increasing birth position.
+// place to increasing birth position; the low 32 bits of each returned
+// word index it). buf is used as scratch when it holds 2·len(recs) words.
+func persistHoleOrder(recs []persistHoleRec, buf []uint64) []uint64 {
+	// Complemented bits (descending order) packed above the position in
+	// recs after reversing it: ties in increasing birth position.
 	nh := len(recs)
 	slices.Reverse(recs)
-	hk := make([]uint64, nh)
-	order := make([]int32, nh)
-	for k, r := range recs {
-		order[k] = int32(k)
-		hk[k] = ^math.Float64bits(r.death - r.birth)
+	if len(buf) < 2*nh {
+		buf = make([]uint64, 2*nh)
 	}
-	persistRadixSort(hk, order)
-	return order
+	hk := buf[:nh]
+	key := func(k uint32) uint64 { return ^math.Float64bits(recs[k].death - recs[k].birth) }
+	for k := range recs {
+		hk[k] = key(uint32(k))>>32<<32 | uint64(k)
+	}
+	hk, _ = persistSortPacked(hk, buf[nh:2*nh])
+	persistFixTies(hk, key)
+	return hk
 }
 
 // persistHoleList writes the holes in the given order, each with its death
 // point (the circumcentre of the triangle that fills it).
-func persistHoleList(t *planar.Triangulation, f *Filtration, recs []persistHoleRec, order, tids []int32) []Hole {
+func persistHoleList(t *planar.Triangulation, f *Filtration, recs []persistHoleRec, order []uint64, tids []int32) []Hole {
 	nt, nh, tr := t.NumTriangles(), len(recs), t.Triangles
 	xy := t.Coords
 	holes := make([]Hole, nh)
@@ -224,7 +243,7 @@ func persistHoleList(t *planar.Triangulation, f *Filtration, recs []persistHoleR
 	}
 	planar.ParallelFor(nh, alphaGrain, func(lo, hi int) {
 		for j := lo; j < hi; j++ {
-			r := &recs[order[j]]
+			r := &recs[uint32(order[j])]
 			y := tids[r.rank]
 			var cx, cy float64
 			if centre != nil {
@@ -358,32 +377,115 @@ func (p *Persistence) Betti(r float64) (pieces, holes int) {
 	return pieces, holes
 }
 
-// persistRadixSort sorts keys ascending, carrying ids along, by a stable
-// least-significant-digit radix sort with 11-bit digits; digits that are
-// equal across all keys are skipped. Non-negative float64 bit patterns
-// sort like the values.
-func persistRadixSort(keys []uint64, ids []int32) {
+// persistSortPacked sorts words packed as key<<32 | index ascending by
+// their upper 32 bits, a stable least-significant-digit radix sort with
+// 11-bit digits (digits equal across all words skipped), so that words
+// with equal keys stay in input order; tmp is scratch of the same length.
+// It returns the sorted slice (a or tmp) and the other one. Long slices
+// are cut in GOMAXPROCS parts (at most persistSortParts) that count and
+// scatter at once, each pass placing the parts' words of a digit one
+// after the other (so the sort stays stable).
+func persistSortPacked(a, tmp []uint64) (sorted, free []uint64) {
+	n := len(a)
+	w := min(runtime.GOMAXPROCS(0), persistSortParts, n/persistSortGrain)
+	if w < 2 {
+		return persistRadixSortFrom(a, tmp, 32)
+	}
 	const bits = 11
 	const nb = 1 << bits
-	const passes = (64 + bits - 1) / bits
-	n := len(keys)
-	if n < 2 {
-		return
+	var hist [persistSortParts][nb]int32
+	src, dst := a, tmp
+	run := func(f func(k, lo, hi int)) {
+		var wg sync.WaitGroup
+		for k := 1; k < w; k++ {
+			wg.Add(1)
+			go func() {
+				defer wg.Done()
+				f(k, n*k/w, n*(k+1)/w)
+			}()
+		}
+		f(0, 0, n/w)
+		wg.Wait()
 	}
-	var hist [passes][nb]int32
-	for _, k := range keys {
-		for d := 0; d < passes; d++ {
-			hist[d][(k>>(d*bits))&(nb-1)]++
+	for shift := uint(32); shift < 64; shift += bits {
+		run(func(k, lo, hi int) {
+			h := &hist[k]
+			*h = [nb]int32{}
+			for _, x := range src[lo:hi] {
+				h[(x>>shift)&(nb-1)]++
+			}
+		})
+		d0 := (src[0] >> shift) & (nb - 1)
+		total := int32(0)
+		for k := range w {
+			total += hist[k][d0]
+		}
+		if total == int32(n) {
+			continue // all words share this digit
+		}
+		var sum int32
+		for b := range nb {
+			for k := range w {
+				c := hist[k][b]
+				hist[k][b] = sum
+				sum += c
+			}
+		}
+		run(func(k, lo, hi int) {
+			h := &hist[k]
+			for _, x := range src[lo:hi] {
+				b := (x >> shift) & (nb - 1)
+				j := h[b]
+				h[b] = j + 1
+				dst[j] = x
+			}
+		})
+		src, dst = dst, src
+	}
+	return src, dst
+}
+
+// persistSortParts is the most parts persistSortPacked sorts at once, and
+// persistSortGrain the least number of words per part.
+const (
+	persistSortParts = 4
+	persistSortGrain = 1 << 14
+)
+
+// persistRadixSortFrom sorts a by bits from and up (a stable LSD radix
+// sort of 11-bit digits; digits equal across all words are skipped) using
+// tmp, of the same length, as scratch. It returns the sorted slice (a or
+// tmp) and the other one.
+func persistRadixSortFrom(a, tmp []uint64, from uint) (sorted, free []uint64) {
+	const bits = 11
+	const nb = 1 << bits
+	const maxPasses = (64 + bits - 1) / bits
+	n := len(a)
+	if n < 2 {
+		return a, tmp
+	}
+	passes := int((64 - from + bits - 1) / bits)
+	var hist [maxPasses][nb]int32
+	switch passes {
+	case 3:
+		for _, k := range a {
+			hist[0][(k>>from)&(nb-1)]++
+			hist[1][(k>>(from+bits))&(nb-1)]++
+			hist[2][(k>>(from+2*bits))&(nb-1)]++
+		}
+	default:
+		for _, k := range a {
+			for d := 0; d < passes; d++ {
+				hist[d][(k>>(from+uint(d)*bits))&(nb-1)]++
+			}
 		}
 	}
-	k2 := make([]uint64, n)
-	i2 := make([]int32, n)
-	src, dst := keys, k2
-	isrc, idst := ids, i2
+	src, dst := a, tmp
 	for d := 0; d < passes; d++ {
+		shift := from + uint(d)*bits
 		h := &hist[d]
-		if h[(keys[0]>>(d*bits))&(nb-1)] == int32(n) {
-			continue // all keys share this digit
+		if h[(a[0]>>shift)&(nb-1)] == int32(n) {
+			continue // all words share this digit
 		}
 		var sum int32
 		for b := range h {
@@ -391,20 +493,80 @@ func persistRadixSort(keys []uint64, ids []int32) {
 			h[b] = sum
 			sum += c
 		}
-		shift := uint(d * bits)
-		for i, k := range src {
+		for _, k := range src {
 			b := (k >> shift) & (nb - 1)
 			j := h[b]
 			h[b] = j + 1
 			dst[j] = k
-			idst[j] = isrc[i]
 		}
 		src, dst = dst, src
-		isrc, idst = idst, isrc
 	}
-	if &src[0] != &keys[0] {
-		copy(keys, src)
-		copy(ids, isrc)
+	return src, dst
+}
+
+// persistFixTies orders each run of words of s (sorted by persistSortPacked)
+// with equal upper 32 bits by full(index), then index: the key in the upper
+// bits being a prefix of full, s is then ordered by (full, index). Long
+// slices are cut at run starts into GOMAXPROCS parts ordered at once.
+func persistFixTies(s []uint64, full func(i uint32) uint64) {
+	n := len(s)
+	w := min(runtime.GOMAXPROCS(0), n/persistSortGrain)
+	if w < 2 {
+		persistFixTiesIn(s, full)
+		return
+	}
+	cut := make([]int, w+1)
+	cut[w] = n
+	for k := 1; k < w; k++ {
+		c := max(n*k/w, cut[k-1])
+		for c < n && s[c]>>32 == s[c-1]>>32 {
+			c++ // inside a run: cut after it
+		}
+		cut[k] = c
+	}
+	var wg sync.WaitGroup
+	for k := 1; k < w; k++ {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			persistFixTiesIn(s[cut[k]:cut[k+1]], full)
+		}()
+	}
+	persistFixTiesIn(s[:cut[1]], full)
+	wg.Wait()
+}
+
+// persistFixTiesIn is persistFixTies on one goroutine.
+func persistFixTiesIn(s []uint64, full func(i uint32) uint64) {
+	n := len(s)
+	for i := 0; i < n; {
+		j := i + 1
+		for j < n && s[j]>>32 == s[i]>>32 {
+			j++
+		}
+		if j-i > 1 {
+			persistFixRun(s[i:j], full)
+		}
+		i = j
+	}
+}
+
+// persistFixRun orders a run of words with equal upper bits by (full key,
+// index), unless it is in that order already.
+func persistFixRun(run []uint64, full func(i uint32) uint64) {
+	prev := full(uint32(run[0]))
+	for _, x := range run[1:] {
+		k := full(uint32(x))
+		if k < prev {
+			slices.SortFunc(run, func(x, y uint64) int {
+				if c := cmp.Compare(full(uint32(x)), full(uint32(y))); c != 0 {
+					return c
+				}
+				return cmp.Compare(uint32(x), uint32(y))
+			})
+			return
+		}
+		prev = k
 	}
 }
 

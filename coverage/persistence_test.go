@@ -27,6 +27,7 @@ import (
 	"encoding/json"
 	"fmt"
 	"math"
+	"math/rand/v2"
 	"os"
 	"os/exec"
 	"path/filepath"
@@ -800,5 +801,47 @@ func TestPersistenceNilAndMismatch(t *testing.T) {
 	g := NewFiltration(tri)
 	if q := ComputePersistence(tri, &Filtration{Edge: g.Edge, Triangle: g.Triangle}); !reflect.DeepEqual(p, q) {
 		t.Error("filtration without circumcentres changed the result")
+	}
+}
+
+// TestPersistSortPacked checks the packed radix sort and the tie fix-up
+// against slices.SortFunc on (full key, index), for short and long inputs
+// (the long ones sorted in parts at once), with keys drawn from few
+// values, from values sharing their upper 32 bits, and at random.
+func TestPersistSortPacked(t *testing.T) {
+	r := rand.New(rand.NewPCG(3, 5))
+	for _, n := range []int{0, 1, 2, 17, 1000, 70_000, 300_000} {
+		for kind := range 3 {
+			full := make([]uint64, n)
+			for i := range full {
+				switch kind {
+				case 0:
+					full[i] = uint64(r.IntN(5)) << 40
+				case 1:
+					full[i] = 7<<50 | uint64(r.IntN(1<<20))
+				default:
+					full[i] = r.Uint64()
+				}
+			}
+			a := make([]uint64, n)
+			want := make([]uint64, n)
+			for i, k := range full {
+				a[i] = k>>32<<32 | uint64(i)
+				want[i] = uint64(i)
+			}
+			slices.SortFunc(want, func(x, y uint64) int {
+				if c := cmp.Compare(full[x], full[y]); c != 0 {
+					return c
+				}
+				return cmp.Compare(x, y)
+			})
+			s, _ := persistSortPacked(a, make([]uint64, n))
+			persistFixTies(s, func(i uint32) uint64 { return full[i] })
+			for i := range s {
+				if uint64(uint32(s[i])) != want[i] {
+					t.Fatalf("n %d, kind %d: position %d holds %d, want %d", n, kind, i, uint32(s[i]), want[i])
+				}
+			}
+		}
 	}
 }

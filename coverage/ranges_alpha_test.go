@@ -189,3 +189,36 @@ func TestPowerPersistenceTwoDisks(t *testing.T) {
 		})
 	}
 }
+
+// TestPowerPersistenceWithoutCentres: a PowerFiltration made from its
+// exported fields alone (no power centres kept) gives the same pairs, the
+// death points then being circumcentres, which for ranges 0 are the power
+// centres (closed form: with equal weights the power centre is the point
+// equidistant from the three sites).
+func TestPowerPersistenceWithoutCentres(t *testing.T) {
+	pts := make([]orb.Point, 0, 400)
+	for i := range 400 {
+		// A perturbed 20 × 20 grid: many holes.
+		x, y := float64(i%20), float64(i/20)
+		pts = append(pts, orb.Point{x*10 + math.Sin(float64(i)*1.7)*3, y*10 + math.Cos(float64(i)*2.3)*3})
+	}
+	tri, err := planar.Triangulate(pts)
+	if err != nil {
+		t.Fatal(err)
+	}
+	f := NewPowerFiltration(tri, make([]float64, tri.NumVertices()))
+	p := ComputePowerPersistence(tri, f)
+	q := ComputePowerPersistence(tri, &PowerFiltration{Vertex: f.Vertex, Edge: f.Edge, Triangle: f.Triangle})
+	if len(p.Holes) == 0 || len(p.Holes) != len(q.Holes) || len(p.Merges) != len(q.Merges) {
+		t.Fatalf("holes %d and %d, merges %d and %d", len(p.Holes), len(q.Holes), len(p.Merges), len(q.Merges))
+	}
+	for i, h := range p.Holes {
+		g := q.Holes[i]
+		if h.Birth != g.Birth || h.Death != g.Death || h.BirthSites != g.BirthSites {
+			t.Fatalf("hole %d: %+v, without centres %+v", i, h, g)
+		}
+		if d := math.Hypot(h.DeathPoint[0]-g.DeathPoint[0], h.DeathPoint[1]-g.DeathPoint[1]); d > 1e-9 {
+			t.Errorf("hole %d: death point %v, circumcentre %v", i, h.DeathPoint, g.DeathPoint)
+		}
+	}
+}
