@@ -131,6 +131,14 @@ func fromDelaunay(d *Triangulation, weights []float64) *RegularTriangulation {
 // triangulateRegular is TriangulateRegular on validated input, always by
 // the weighted construction.
 func triangulateRegular(pts []orb.Point, weights []float64) (*RegularTriangulation, error) {
+	return triangulateRegularSplit(pts, weights, len(pts) >= parallelMin)
+}
+
+// triangulateRegularSplit is triangulateRegular with the two-worker
+// insertion of the last rounds (regular_parallel.go) on or off; both give
+// the same vertices, hidden points and triangles (tested), numbered
+// differently.
+func triangulateRegularSplit(pts []orb.Point, weights []float64, split bool) (*RegularTriangulation, error) {
 	n := len(pts)
 	if n == 0 {
 		return &RegularTriangulation{Triangulation: Triangulation{
@@ -143,7 +151,7 @@ func triangulateRegular(pts []orb.Point, weights []float64) (*RegularTriangulati
 	if i2 < 0 {
 		return regularCollinear(pts, weights), nil
 	}
-	if r := regularIncremental(pts, weights, box, i0, i1, i2); r != nil {
+	if r := regularIncremental(pts, weights, box, i0, i1, i2, split); r != nil {
 		return r, nil
 	}
 	// A duplicate position with a larger weight met a vertex: drop the
@@ -155,7 +163,7 @@ func triangulateRegular(pts []orb.Point, weights []float64) (*RegularTriangulati
 		sub[k], subW[k] = pts[i], weights[i]
 	}
 	i0, i1, i2 = seedTriangle(sub, box)
-	r := regularIncremental(sub, subW, box, i0, i1, i2)
+	r := regularIncremental(sub, subW, box, i0, i1, i2, split)
 	if r == nil {
 		return nil, fmt.Errorf("planar: TriangulateRegular: internal error: duplicate after deduplication")
 	}
@@ -291,15 +299,26 @@ type rbuilder struct {
 }
 
 // regularIncremental builds the regular triangulation from the
-// counter-clockwise seed triangle i0, i1, i2 (distinct, not collinear). It
+// counter-clockwise seed triangle i0, i1, i2 (distinct, not collinear),
+// with the last rounds split between two workers when split is set. It
 // returns nil when a duplicate position must replace a vertex.
-func regularIncremental(pts []orb.Point, w []float64, box bbox, i0, i1, i2 int32) *RegularTriangulation {
+func regularIncremental(pts []orb.Point, w []float64, box bbox, i0, i1, i2 int32, split bool) *RegularTriangulation {
 	n := len(pts)
+	x0 := 0.0
+	if split {
+		x0 = medianX(pts, box)
+	}
 	work := make([]uint64, 2*n)
 	keys, buf := work[:n:n], work[n:]
-	brioKeys(pts, box, keys, false, 0)
+	brioKeys(pts, box, keys, split, x0)
 	sorted := radixSortHigh(keys, buf)
 	refineCells(pts, box, sorted)
+	// Phase boundaries: sequential rounds, then each side's last rounds.
+	n1, nl := n, 0
+	if split {
+		n1 = sortIndex(sorted, 1<<63)
+		nl = sortIndex(sorted, 1<<63|1<<62) - n1
+	}
 	// The sort buffers are reused: the insertion order in the first
 	// quarter (keys are spent once sorted), the triangle renumbering of
 	// finish after it.
@@ -328,17 +347,26 @@ func regularIncremental(pts []orb.Point, w []float64, box bbox, i0, i1, i2 int32
 		}
 	}
 	s0, s1, s2 := seedID[0], seedID[1], seedID[2]
+	isSeed := func(k int32) bool { return k == s0 || k == s1 || k == s2 }
 	maxT := 2*n + 2
 	b.tri = make([]int32, 0, 3*maxT)
 	b.half = make([]int32, 0, 3*maxT)
 	b.seed(s0, s1, s2)
-	for k := int32(0); k < int32(n); k++ {
-		if k == s0 || k == s1 || k == s2 {
+	for k := int32(0); k < int32(n1); k++ {
+		if isSeed(k) {
 			continue
 		}
 		b.insert(k)
 		if b.restart {
 			return nil
+		}
+	}
+	if split {
+		for _, k := range b.insertSplit(int32(n1), int32(n1+nl), int32(n), x0, isSeed) {
+			b.insert(k)
+			if b.restart {
+				return nil
+			}
 		}
 	}
 	return b.finish(pts, order, w32[n:])

@@ -1,0 +1,357 @@
+// Two-worker insertion of the last BRIO rounds of the regular
+// triangulation, in the scheme of delaunay_parallel.go.
+//
+// After the first rounds are inserted sequentially (regular.go), the
+// remaining points are split by an abscissa x0 into a left side (x < x0)
+// and a right side, and one worker inserts each side's points into the
+// shared arrays at the same time. A triangle is owned by a side when its
+// three vertices belong to that side (the infinite vertex belongs to
+// neither); a triangle with vertices on both sides, or an infinite one, is
+// never modified while the workers run. A worker reads and writes only
+// triangles it owns and reads the triangles next to them (owned or mixed:
+// they share two of its vertices), so the two workers never touch the same
+// data and each one's results do not depend on the other's timing: the
+// output is the same whether they run in parallel or one after the other.
+//
+// Each insertion is Bowyer–Watson in the lifted view (Edelsbrunner & Shah
+// 1996, section 2): the conflict region of a new weighted point p is the
+// set of triangles whose lifted plane passes above p's lift (PowerTest > 0
+// under the symbolic perturbation, powerConflict, exactly as in the flips
+// of regular.go); these are the lower-hull faces visible from p's lift, a
+// topological disk holding p that is found by a search over adjacency from
+// the triangle containing p. If p is not in conflict with that triangle it
+// is hidden. Otherwise the region is replaced by the fan joining p to its
+// boundary edges (the new lower hull), and the vertices strictly inside
+// the region become hidden: with k of them the fan has two triangles more
+// than the region, less 2k. Since the perturbed regular triangulation is
+// unique, this gives the same triangles as the flips.
+//
+// A point is deferred, and later inserted sequentially by regular.go's
+// method, when its walk or conflict region reaches a triangle it does not
+// own (including the infinite ones: points outside the hull), when it lies
+// on an edge or a vertex of the triangle holding it, or when its region is
+// unusually large. A worker takes triangle slots from the ones its
+// insertions freed, then from its own range; slots left unused are marked
+// free for finish, which skips them.
+
+package planar
+
+import (
+	"runtime"
+	"sync"
+)
+
+// rworker inserts the points of one side into a regular triangulation.
+type rworker struct {
+	b        *rbuilder
+	left     bool
+	n1, mid  int32   // ids >= n1 are left below mid, right from mid
+	side1    []bool  // side of ids < n1: true for left
+	nt, end  int32   // next unused half-edge and end of the worker's range
+	free     []int32 // slots freed by this worker's insertions
+	last     int32   // a half-edge of an owned triangle near the last insertion
+	rng      uint64
+	nc, nb   int
+	cav      [maxCavity + 2]int32 // conflict triangles (first half-edges), then fan slots
+	us, vs   [maxCavity + 2]int32 // boundary edges u→v
+	outs     [maxCavity + 2]int32 // and the half-edges opposite them
+	gone     [maxCavity + 2]int32 // vertices strictly inside the region
+	deferred []int32
+}
+
+// insertSplit inserts internal ids [lo, mid) (left side, x < x0) and
+// [mid, hi) (right side) with two workers and returns the deferred ids,
+// left ones first.
+func (b *rbuilder) insertSplit(lo, mid, hi int32, x0 float64, isSeed func(int32) bool) []int32 {
+	base := b.nt
+	end := base + 6*(hi-lo) // two new slots per insertion at most
+	if int(end) > cap(b.tri) {
+		b.tri = append(b.tri[:cap(b.tri)], make([]int32, int(end)-cap(b.tri))...)
+		b.half = append(b.half[:cap(b.half)], make([]int32, int(end)-cap(b.half))...)
+	}
+	b.tri, b.half = b.tri[:end], b.half[:end]
+	side1 := make([]bool, lo)
+	for v := range side1 {
+		side1[v] = b.ps[v].x < x0
+	}
+	wl := &rworker{b: b, left: true, n1: lo, mid: mid, side1: side1, nt: base, end: base + 6*(mid-lo), rng: 0x9e3779b97f4a7c15}
+	wr := &rworker{b: b, left: false, n1: lo, mid: mid, side1: side1, nt: wl.end, end: end, rng: 0xd1b54a32d192ed03}
+	for _, w := range []*rworker{wl, wr} {
+		w.last = -1
+		for t := int32(0); t < base; t += 3 {
+			if b.tri[t] >= 0 && w.owned(t) {
+				w.last = t
+				break
+			}
+		}
+	}
+	if runtime.GOMAXPROCS(0) > 1 {
+		var wg sync.WaitGroup
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			wr.run(mid, hi, isSeed)
+		}()
+		wl.run(lo, mid, isSeed)
+		wg.Wait()
+	} else {
+		wl.run(lo, mid, isSeed)
+		wr.run(mid, hi, isSeed)
+	}
+	// Unused slots are free. The sequential insertion of the deferred
+	// points takes at most two slots each (regular.go): that many go to
+	// its free list, the others stay dead and finish skips them.
+	want := 2*(len(wl.deferred)+len(wr.deferred)) + 2
+	for _, w := range []*rworker{wl, wr} {
+		for s := w.nt; s < w.end; s += 3 {
+			b.tri[s], b.tri[s+1], b.tri[s+2] = -1, -1, -1
+			if len(b.free) < want {
+				b.free = append(b.free, s)
+			}
+		}
+		b.free = append(b.free, w.free...)
+	}
+	b.nt = end
+	// A live finite triangle to start the next walk from.
+	switch {
+	case wl.last >= 0:
+		b.last = triStart(wl.last)
+	case wr.last >= 0:
+		b.last = triStart(wr.last)
+	default:
+		for t := int32(0); t < end; t += 3 {
+			if b.tri[t] >= 0 && !b.isInfinite(t) {
+				b.last = t
+				break
+			}
+		}
+	}
+	return append(wl.deferred, wr.deferred...)
+}
+
+func (w *rworker) run(lo, hi int32, isSeed func(int32) bool) {
+	for k := lo; k < hi; k++ {
+		if isSeed(k) {
+			continue
+		}
+		if w.last < 0 || !w.insert(k) {
+			w.deferred = append(w.deferred, k)
+		}
+	}
+}
+
+// own reports whether vertex v is on the worker's side (x < x0 for the
+// left side), from its id; the infinite vertex is on neither.
+func (w *rworker) own(v int32) bool {
+	if v >= w.n1 {
+		return v != w.b.inf && (v < w.mid) == w.left
+	}
+	return w.side1[v] == w.left
+}
+
+// owned reports whether the live triangle of first half-edge t is the
+// worker's.
+func (w *rworker) owned(t int32) bool {
+	tri := w.b.tri
+	return w.own(tri[t]) && w.own(tri[t+1]) && w.own(tri[t+2])
+}
+
+// locate walks from the last insertion to the owned triangle holding
+// (x, y) strictly inside and returns its first half-edge, or -1 when that
+// triangle is not reachable through owned triangles or the point lies on
+// its boundary. The walk is the stochastic visibility walk of regular.go
+// restricted to owned triangles: among the edges with the point strictly
+// beyond, taken in random order, it crosses the first that leads to an
+// owned triangle. After a failure the next walk starts from the last
+// triangle reached.
+func (w *rworker) locate(x, y float64) int32 {
+	tri, half, ps := w.b.tri, w.b.half, w.b.ps
+	t := triStart(w.last)
+	came := int32(-1)
+	for steps := 0; steps < 1<<16; steps++ {
+		w.rng ^= w.rng << 13
+		w.rng ^= w.rng >> 7
+		w.rng ^= w.rng << 17
+		r := int32(w.rng % 3)
+		next, blocked, zero := int32(-1), false, false
+		for k := int32(0); k < 3; k++ {
+			e := t + (r+k)%3
+			if e == came {
+				continue
+			}
+			a, c := ps[tri[e]], ps[tri[nextHE(e)]]
+			s := orientSign(xyPt{a.x, a.y}, xyPt{c.x, c.y}, x, y)
+			if s < 0 {
+				// The neighbour shares e's endpoints (owned): it is
+				// owned when its third vertex is.
+				h := half[e]
+				if w.own(tri[prevHE(h)]) {
+					next = h
+					break
+				}
+				blocked = true
+			} else if s == 0 {
+				zero = true
+			}
+		}
+		if next < 0 {
+			w.last = t
+			if blocked || zero {
+				return -1
+			}
+			return t
+		}
+		came, t = next, triStart(next)
+	}
+	w.last = t
+	return -1
+}
+
+// insert adds internal point i by Bowyer–Watson, or marks it hidden; false
+// means deferred (nothing was changed).
+func (w *rworker) insert(i int32) bool {
+	b := w.b
+	tri, half, ps := b.tri, b.half, b.ps
+	p := ps[i]
+	t := w.locate(p.x, p.y)
+	if t < 0 {
+		return false
+	}
+	v0 := tri[t]
+	if !powerConflict(ps[v0], ps[tri[t+1]], ps[tri[t+2]], p) {
+		b.hidden[i] = true
+		return true
+	}
+	// The conflict region, from t. A region triangle is marked by
+	// complementing its first vertex; boundary edges are recorded as
+	// (u, v, opposite half-edge).
+	tri[t] = ^v0
+	w.cav[0] = t
+	w.nc, w.nb = 1, 0
+	ok := true
+	for j := 0; j < w.nc && ok; j++ {
+		c := w.cav[j]
+		c0, c1, c2 := ^tri[c], tri[c+1], tri[c+2]
+		ok = w.edge(c, c0, c1, p) && w.edge(c+1, c1, c2, p) && w.edge(c+2, c2, c0, p)
+	}
+	nc, nb := w.nc, w.nb
+	gone := 0
+	if ok {
+		// The region is a disk: nb = nc + 2 − 2k with k vertices inside.
+		d := nc + 2 - nb
+		need := max(nb-nc-len(w.free), 0)
+		ok = d >= 0 && d%2 == 0 && w.nt+3*int32(need) <= w.end
+		if ok && d > 0 {
+			gone = w.inner()
+			ok = 2*gone == d
+		}
+	}
+	if !ok {
+		for _, c := range w.cav[:nc] {
+			tri[c] = ^tri[c]
+		}
+		return false
+	}
+	for _, v := range w.gone[:gone] {
+		b.hidden[v] = true
+	}
+	// The fan: boundary edge u→v becomes triangle (u, v, i), in the
+	// region's slots, then freed ones, then new ones; region slots left
+	// over are freed.
+	for j := nc; j < nb; j++ {
+		if k := len(w.free); k > 0 {
+			w.cav[j] = w.free[k-1]
+			w.free = w.free[:k-1]
+		} else {
+			w.cav[j] = w.nt
+			w.nt += 3
+		}
+	}
+	for j := nb; j < nc; j++ {
+		s := w.cav[j]
+		tri[s], tri[s+1], tri[s+2] = -1, -1, -1
+		w.free = append(w.free, s)
+	}
+	slots := w.cav[:nb]
+	us, vs, outs := w.us[:nb], w.vs[:nb], w.outs[:nb]
+	for j, s := range slots {
+		tri[s], tri[s+1], tri[s+2] = us[j], vs[j], i
+		o := outs[j]
+		half[s] = o
+		half[o] = s
+	}
+	for j, s := range slots {
+		v := vs[j]
+		for m, u := range us {
+			if u == v {
+				sm := slots[m]
+				half[s+1] = sm + 2
+				half[sm+2] = s + 1
+				break
+			}
+		}
+	}
+	w.last = slots[0]
+	return true
+}
+
+// edge examines half-edge e = u→v of a region triangle: the triangle
+// across it joins the region if p is in conflict with it, otherwise e is a
+// boundary edge. It returns false to abandon the insertion (a conflict
+// with a triangle the worker does not own, or a region too large). An
+// infinite triangle is never in conflict: p is strictly inside an owned
+// triangle, so strictly inside the hull.
+func (w *rworker) edge(e, u, v int32, p wPt) bool {
+	tri, ps := w.b.tri, w.b.ps
+	h := w.b.half[e]
+	nb := triStart(h)
+	a0 := tri[nb]
+	if a0 < 0 {
+		return true // shared with another region triangle
+	}
+	if apex := tri[prevHE(h)]; apex != w.b.inf && powerConflict(ps[a0], ps[tri[nb+1]], ps[tri[nb+2]], p) {
+		if !w.own(apex) || w.nc == maxCavity { // u, v are owned
+			return false
+		}
+		tri[nb] = ^a0
+		w.cav[w.nc] = nb
+		w.nc++
+		return true
+	}
+	if w.nb == maxCavity+2 {
+		return false
+	}
+	w.us[w.nb], w.vs[w.nb], w.outs[w.nb] = u, v, h
+	w.nb++
+	return true
+}
+
+// inner lists in w.gone the vertices of the marked region that are not on
+// its boundary and returns their number.
+func (w *rworker) inner() int {
+	tri := w.b.tri
+	us := w.us[:w.nb]
+	k := 0
+	for _, c := range w.cav[:w.nc] {
+		for _, v := range [3]int32{^tri[c], tri[c+1], tri[c+2]} {
+			if containsInt32(us, v) || containsInt32(w.gone[:k], v) {
+				continue
+			}
+			if k == len(w.gone) {
+				return -1
+			}
+			w.gone[k] = v
+			k++
+		}
+	}
+	return k
+}
+
+func containsInt32(s []int32, v int32) bool {
+	for _, x := range s {
+		if x == v {
+			return true
+		}
+	}
+	return false
+}
