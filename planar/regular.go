@@ -362,7 +362,7 @@ func regularIncremental(pts []orb.Point, w []float64, box bbox, i0, i1, i2 int32
 		}
 	}
 	if split {
-		for _, k := range b.insertSplit(int32(n1), int32(n1+nl), int32(n), x0, isSeed) {
+		for _, k := range b.insertSplit(int32(n1), int32(n1+nl), int32(n), box, x0, isSeed) {
 			b.insert(k)
 			if b.restart {
 				return nil

@@ -26,10 +26,14 @@
 // than the region, less 2k. Since the perturbed regular triangulation is
 // unique, this gives the same triangles as the flips.
 //
-// A point is deferred, and later inserted sequentially by regular.go's
-// method, when its walk or conflict region reaches a triangle it does not
-// own (including the infinite ones: points outside the hull), when it lies
-// on an edge or a vertex of the triangle holding it, or when its region is
+// A point is located by a walk from the previous insertion through owned
+// triangles; when that is blocked by a triangle the worker does not own
+// (the owned area is jagged along x0), a second walk starts from the
+// triangle last made in the point's cell of a coarse grid. A point is
+// deferred, and later inserted sequentially by regular.go's method, when
+// both walks or its conflict region reach a triangle it does not own
+// (including the infinite ones: points outside the hull), when it lies on
+// an edge or a vertex of the triangle holding it, or when its region is
 // unusually large. A worker takes triangle slots from the ones its
 // insertions freed, then from its own range; slots left unused are marked
 // free for finish, which skips them.
@@ -57,12 +61,46 @@ type rworker struct {
 	outs     [maxCavity + 2]int32 // and the half-edges opposite them
 	gone     [maxCavity + 2]int32 // vertices strictly inside the region
 	deferred []int32
+	// A coarse grid over the bounding box holds, per cell, a triangle
+	// made by the last insertion of a point in it (-1: none): a second
+	// start for walks blocked on the way.
+	grid       []int32
+	gside      int
+	gx, gy, gs float64 // origin and cells per unit
+}
+
+// initGrid sets up the start grid for about n points of the box.
+func (w *rworker) initGrid(box bbox, n int) {
+	side := max(box.maxX-box.minX, box.maxY-box.minY)
+	g := 1
+	for g < 1024 && 8*g*g < n {
+		g *= 2
+	}
+	if !(side > 0 && side <= 1e300) {
+		g = 1
+	}
+	w.gside, w.gx, w.gy = g, box.minX, box.minY
+	if g > 1 {
+		w.gs = float64(g) / side
+	}
+	w.grid = make([]int32, g*g)
+	for k := range w.grid {
+		w.grid[k] = -1
+	}
+}
+
+// cell returns the grid cell of (x, y).
+func (w *rworker) cell(x, y float64) int {
+	cx := int((x - w.gx) * w.gs)
+	cy := int((y - w.gy) * w.gs)
+	g := w.gside
+	return min(max(cy, 0), g-1)*g + min(max(cx, 0), g-1)
 }
 
 // insertSplit inserts internal ids [lo, mid) (left side, x < x0) and
 // [mid, hi) (right side) with two workers and returns the deferred ids,
 // left ones first.
-func (b *rbuilder) insertSplit(lo, mid, hi int32, x0 float64, isSeed func(int32) bool) []int32 {
+func (b *rbuilder) insertSplit(lo, mid, hi int32, box bbox, x0 float64, isSeed func(int32) bool) []int32 {
 	base := b.nt
 	end := base + 6*(hi-lo) // two new slots per insertion at most
 	if int(end) > cap(b.tri) {
@@ -77,6 +115,7 @@ func (b *rbuilder) insertSplit(lo, mid, hi int32, x0 float64, isSeed func(int32)
 	wl := &rworker{b: b, left: true, n1: lo, mid: mid, side1: side1, nt: base, end: base + 6*(mid-lo), rng: 0x9e3779b97f4a7c15}
 	wr := &rworker{b: b, left: false, n1: lo, mid: mid, side1: side1, nt: wl.end, end: end, rng: 0xd1b54a32d192ed03}
 	for _, w := range []*rworker{wl, wr} {
+		w.initGrid(box, int(hi-lo))
 		w.last = -1
 		for t := int32(0); t < base; t += 3 {
 			if b.tri[t] >= 0 && w.owned(t) {
@@ -156,17 +195,22 @@ func (w *rworker) owned(t int32) bool {
 	return w.own(tri[t]) && w.own(tri[t+1]) && w.own(tri[t+2])
 }
 
-// locate walks from the last insertion to the owned triangle holding
-// (x, y) strictly inside and returns its first half-edge, or -1 when that
-// triangle is not reachable through owned triangles or the point lies on
-// its boundary. The walk is the stochastic visibility walk of regular.go
-// restricted to owned triangles: among the edges with the point strictly
-// beyond, taken in random order, it crosses the first that leads to an
-// owned triangle. After a failure the next walk starts from the last
-// triangle reached.
-func (w *rworker) locate(x, y float64) int32 {
+// Walk outcomes of locate.
+const (
+	walkFound   = iota // strictly inside an owned triangle
+	walkBlocked        // the way leads through a triangle not owned
+	walkFailed         // on an edge or a vertex, or too many steps
+)
+
+// locate walks from the triangle of half-edge start to the owned triangle
+// holding (x, y) strictly inside and returns its first half-edge and
+// walkFound, or the last triangle reached and why it stopped. The walk is
+// the stochastic visibility walk of regular.go restricted to owned
+// triangles: among the edges with the point strictly beyond, taken in
+// random order, it crosses the first that leads to an owned triangle.
+func (w *rworker) locate(start int32, x, y float64) (int32, int) {
 	tri, half, ps := w.b.tri, w.b.half, w.b.ps
-	t := triStart(w.last)
+	t := triStart(start)
 	came := int32(-1)
 	for steps := 0; steps < 1<<16; steps++ {
 		w.rng ^= w.rng << 13
@@ -194,17 +238,37 @@ func (w *rworker) locate(x, y float64) int32 {
 				zero = true
 			}
 		}
-		if next < 0 {
-			w.last = t
-			if blocked || zero {
-				return -1
-			}
-			return t
+		switch {
+		case next >= 0:
+			came, t = next, triStart(next)
+			continue
+		case blocked:
+			return t, walkBlocked
+		case zero:
+			return t, walkFailed
 		}
-		came, t = next, triStart(next)
+		return t, walkFound
+	}
+	return t, walkFailed
+}
+
+// find locates (x, y) for insert: a walk from the last insertion, and when
+// it is blocked a second one from the grid cell of (x, y). It returns the
+// first half-edge of the owned triangle holding the point strictly
+// inside, or -1. The next walk starts from the last triangle reached.
+func (w *rworker) find(x, y float64) int32 {
+	t, how := w.locate(w.last, x, y)
+	if how == walkBlocked {
+		if s := w.grid[w.cell(x, y)]; s >= 0 && w.b.tri[s] >= 0 && s != t {
+			// A slot the worker filled is owned while live.
+			t, how = w.locate(s, x, y)
+		}
 	}
 	w.last = t
-	return -1
+	if how != walkFound {
+		return -1
+	}
+	return t
 }
 
 // insert adds internal point i by Bowyer–Watson, or marks it hidden; false
@@ -213,7 +277,7 @@ func (w *rworker) insert(i int32) bool {
 	b := w.b
 	tri, half, ps := b.tri, b.half, b.ps
 	p := ps[i]
-	t := w.locate(p.x, p.y)
+	t := w.find(p.x, p.y)
 	if t < 0 {
 		return false
 	}
@@ -242,8 +306,13 @@ func (w *rworker) insert(i int32) bool {
 		need := max(nb-nc-len(w.free), 0)
 		ok = d >= 0 && d%2 == 0 && w.nt+3*int32(need) <= w.end
 		if ok && d > 0 {
+			// The inner vertices are marked hidden.
 			gone = w.inner()
-			ok = 2*gone == d
+			if ok = 2*gone == d; !ok && gone > 0 {
+				for _, v := range w.gone[:gone] {
+					b.hidden[v] = false
+				}
+			}
 		}
 	}
 	if !ok {
@@ -251,9 +320,6 @@ func (w *rworker) insert(i int32) bool {
 			tri[c] = ^tri[c]
 		}
 		return false
-	}
-	for _, v := range w.gone[:gone] {
-		b.hidden[v] = true
 	}
 	// The fan: boundary edge u→v becomes triangle (u, v, i), in the
 	// region's slots, then freed ones, then new ones; region slots left
@@ -292,6 +358,7 @@ func (w *rworker) insert(i int32) bool {
 		}
 	}
 	w.last = slots[0]
+	w.grid[w.cell(p.x, p.y)] = slots[0]
 	return true
 }
 
@@ -327,31 +394,41 @@ func (w *rworker) edge(e, u, v int32, p wPt) bool {
 }
 
 // inner lists in w.gone the vertices of the marked region that are not on
-// its boundary and returns their number.
+// its boundary, marks them hidden and returns their number, or -1 (none
+// marked) when there are more than w.gone holds. The boundary vertices are marked meanwhile in b.hidden:
+// they are the worker's own vertices, whose entries no other goroutine
+// reads or writes while the workers run.
 func (w *rworker) inner() int {
-	tri := w.b.tri
+	tri, hidden := w.b.tri, w.b.hidden
 	us := w.us[:w.nb]
+	for _, u := range us {
+		hidden[u] = true
+	}
 	k := 0
 	for _, c := range w.cav[:w.nc] {
 		for _, v := range [3]int32{^tri[c], tri[c+1], tri[c+2]} {
-			if containsInt32(us, v) || containsInt32(w.gone[:k], v) {
+			if hidden[v] {
 				continue
 			}
 			if k == len(w.gone) {
-				return -1
+				k = -1
+				break
 			}
+			hidden[v] = true
 			w.gone[k] = v
 			k++
 		}
-	}
-	return k
-}
-
-func containsInt32(s []int32, v int32) bool {
-	for _, x := range s {
-		if x == v {
-			return true
+		if k < 0 {
+			break
 		}
 	}
-	return false
+	for _, u := range us {
+		hidden[u] = false
+	}
+	if k < 0 {
+		for _, v := range w.gone {
+			hidden[v] = false
+		}
+	}
+	return k
 }
