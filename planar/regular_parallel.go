@@ -42,13 +42,16 @@ package planar
 
 import (
 	"runtime"
+	"slices"
 	"sync"
 )
 
 // rworker inserts the points of one side into a regular triangulation.
 type rworker struct {
 	b        *rbuilder
-	left     bool
+	left     bool // left side, or bottom side when byY
+	byY      bool // second pass: sides split at ordinate y0
+	y0       float64
 	n1, mid  int32   // ids >= n1 are left below mid, right from mid
 	side1    []bool  // side of ids < n1: true for left
 	nt, end  int32   // next unused half-edge and end of the worker's range
@@ -98,8 +101,11 @@ func (w *rworker) cell(x, y float64) int {
 }
 
 // insertSplit inserts internal ids [lo, mid) (left side, x < x0) and
-// [mid, hi) (right side) with two workers and returns the deferred ids,
-// left ones first.
+// [mid, hi) (right side) with two workers and returns the deferred ids.
+// When many are deferred (they lie mostly in the band of mixed triangles
+// along x0), a second pass inserts them with the same two workers split at
+// their median ordinate y0 instead (bottom, y < y0, and top), each in the
+// triangles whose three vertices are on its side of y0.
 func (b *rbuilder) insertSplit(lo, mid, hi int32, box bbox, x0 float64, isSeed func(int32) bool) []int32 {
 	base := b.nt
 	end := base + 6*(hi-lo) // two new slots per insertion at most
@@ -116,37 +122,50 @@ func (b *rbuilder) insertSplit(lo, mid, hi int32, box bbox, x0 float64, isSeed f
 	wr := &rworker{b: b, left: false, n1: lo, mid: mid, side1: side1, nt: wl.end, end: end, rng: 0xd1b54a32d192ed03}
 	for _, w := range []*rworker{wl, wr} {
 		w.initGrid(box, int(hi-lo))
-		w.last = -1
-		for t := int32(0); t < base; t += 3 {
-			if b.tri[t] >= 0 && w.owned(t) {
-				w.last = t
-				break
-			}
-		}
+		w.start(base)
 	}
-	if runtime.GOMAXPROCS(0) > 1 {
-		var wg sync.WaitGroup
-		wg.Add(1)
-		go func() {
-			defer wg.Done()
-			wr.run(mid, hi, isSeed)
-		}()
-		wl.run(lo, mid, isSeed)
-		wg.Wait()
-	} else {
-		wl.run(lo, mid, isSeed)
-		wr.run(mid, hi, isSeed)
-	}
-	// Unused slots are free. The sequential insertion of the deferred
-	// points takes at most two slots each (regular.go): that many go to
-	// its free list, the others stay dead and finish skips them.
-	want := 2*(len(wl.deferred)+len(wr.deferred)) + 2
+	runPair(func() { wl.run(lo, mid, isSeed) }, func() { wr.run(mid, hi, isSeed) })
+	// Unused slots are free.
 	for _, w := range []*rworker{wl, wr} {
 		for s := w.nt; s < w.end; s += 3 {
 			b.tri[s], b.tri[s+1], b.tri[s+2] = -1, -1, -1
-			if len(b.free) < want {
-				b.free = append(b.free, s)
+		}
+	}
+	deferred := append(wl.deferred, wr.deferred...)
+	if len(deferred) >= splitAgain {
+		ys := make([]float64, len(deferred))
+		for k, i := range deferred {
+			ys[k] = b.ps[i].y
+		}
+		slices.Sort(ys)
+		y0 := ys[len(ys)/2]
+		var bottom, top []int32
+		for _, i := range deferred {
+			if b.ps[i].y < y0 {
+				bottom = append(bottom, i)
+			} else {
+				top = append(top, i)
 			}
+		}
+		// Each worker keeps its slots: the rest of its range and its
+		// free list.
+		for _, w := range []*rworker{wl, wr} {
+			w.byY, w.y0, w.deferred = true, y0, nil
+			for k := range w.grid {
+				w.grid[k] = -1
+			}
+			w.start(end)
+		}
+		runPair(func() { wl.runList(bottom) }, func() { wr.runList(top) })
+		deferred = append(wl.deferred, wr.deferred...)
+	}
+	// The sequential insertion of the deferred points takes at most two
+	// slots each (regular.go): that many go to its free list, the others
+	// stay dead and finish skips them.
+	want := 2*len(deferred) + 2
+	for _, w := range []*rworker{wl, wr} {
+		for s := w.nt; s < w.end && len(b.free) < want; s += 3 {
+			b.free = append(b.free, s)
 		}
 		b.free = append(b.free, w.free...)
 	}
@@ -165,7 +184,49 @@ func (b *rbuilder) insertSplit(lo, mid, hi int32, box bbox, x0 float64, isSeed f
 			}
 		}
 	}
-	return append(wl.deferred, wr.deferred...)
+	return deferred
+}
+
+// splitAgain is the number of points deferred by the first pass from
+// which insertSplit makes the second.
+const splitAgain = 64
+
+// runPair runs f and g, on two goroutines when two CPUs are available.
+// They touch disjoint data, so the outcome is the same either way.
+func runPair(f, g func()) {
+	if runtime.GOMAXPROCS(0) > 1 {
+		var wg sync.WaitGroup
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			g()
+		}()
+		f()
+		wg.Wait()
+		return
+	}
+	f()
+	g()
+}
+
+// start sets the walk start to the first live owned triangle below
+// half-edge end (-1: none).
+func (w *rworker) start(end int32) {
+	w.last = -1
+	for t := int32(0); t < end; t += 3 {
+		if w.b.tri[t] >= 0 && w.owned(t) {
+			w.last = t
+			return
+		}
+	}
+}
+
+func (w *rworker) runList(ids []int32) {
+	for _, k := range ids {
+		if w.last < 0 || !w.insert(k) {
+			w.deferred = append(w.deferred, k)
+		}
+	}
 }
 
 func (w *rworker) run(lo, hi int32, isSeed func(int32) bool) {
@@ -179,9 +240,13 @@ func (w *rworker) run(lo, hi int32, isSeed func(int32) bool) {
 	}
 }
 
-// own reports whether vertex v is on the worker's side (x < x0 for the
-// left side), from its id; the infinite vertex is on neither.
+// own reports whether vertex v is on the worker's side: in the first
+// pass x < x0 for the left side, from its id, in the second y < y0 for
+// the bottom side; the infinite vertex is on neither.
 func (w *rworker) own(v int32) bool {
+	if w.byY {
+		return v != w.b.inf && (w.b.ps[v].y < w.y0) == w.left
+	}
 	if v >= w.n1 {
 		return v != w.b.inf && (v < w.mid) == w.left
 	}
