@@ -332,20 +332,22 @@ func regularIncremental(pts []orb.Point, w []float64, box bbox, i0, i1, i2 int32
 		stack:  make([]int32, 0, 64),
 		rng:    0x9e3779b97f4a7c15,
 	}
-	for k := range sorted {
-		i := int32(uint32(sorted[k]))
-		order[k] = i
-		b.ps[k] = wPt{pts[i][0], pts[i][1], w[i]}
-	}
-	// Internal ids of the seed points.
+	// Internal ids of the seed points (each written once).
 	var seedID [3]int32
-	for k, i := range order {
-		for j, s := range [3]int32{i0, i1, i2} {
-			if i == s {
-				seedID[j] = int32(k)
+	ParallelFor(n, 1<<15, func(lo, hi int) {
+		for k := lo; k < hi; k++ {
+			i := int32(uint32(sorted[k]))
+			order[k] = i
+			b.ps[k] = wPt{pts[i][0], pts[i][1], w[i]}
+			if i == i0 || i == i1 || i == i2 {
+				for j, s := range [3]int32{i0, i1, i2} {
+					if i == s {
+						seedID[j] = int32(k)
+					}
+				}
 			}
 		}
-	}
+	})
 	s0, s1, s2 := seedID[0], seedID[1], seedID[2]
 	isSeed := func(k int32) bool { return k == s0 || k == s1 || k == s2 }
 	maxT := 2*n + 2
@@ -721,58 +723,64 @@ func (b *rbuilder) remove(o int32) {
 func (b *rbuilder) finish(pts []orb.Point, order, scratch []int32) *RegularTriangulation {
 	n := len(order)
 	inf := b.inf
+	r := &RegularTriangulation{}
 	vertex := make([]int32, n)
-	for k, i := range order {
-		vertex[i] = -1
-		if !b.hidden[k] {
-			vertex[i] = 0
-		}
-	}
-	m := int32(0)
-	for i := range vertex {
-		if vertex[i] >= 0 {
-			vertex[i] = m
-			m++
-		}
-	}
-	r := &RegularTriangulation{Hidden: make([]int32, 0, n-int(m))}
-	r.Vertex = vertex
-	r.Source = make([]int32, m)
-	r.Coords = make([]float64, 2*m)
-	r.Weights = make([]float64, m)
-	for i, v := range vertex {
-		if v < 0 {
-			r.Hidden = append(r.Hidden, int32(i))
-			continue
-		}
-		r.Source[v] = int32(i)
-		r.Coords[2*v], r.Coords[2*v+1] = pts[i][0], pts[i][1]
-	}
-	// Internal id → vertex number, in place of order.
 	perm := order
-	for k, i := range order {
-		perm[k] = vertex[i]
-		if !b.hidden[k] {
-			r.Weights[perm[k]] = b.ps[k].w
-		}
-	}
-	// Output index of each live finite triangle (at most 2n + 2 slots, in
-	// the 3n free entries of scratch).
+	var m int32
+	// The vertex arrays and the triangle renumbering are independent: two
+	// goroutines when two CPUs are available.
 	tri, half := b.tri[:b.nt], b.half[:b.nt]
 	newIdx := scratch[:b.nt/3]
 	nf := int32(0)
 	start := int32(-1)
-	for t := int32(0); t < b.nt; t += 3 {
-		newIdx[t/3] = -1
-		switch {
-		case tri[t] < 0:
-		case b.isInfinite(t):
-			start = t
-		default:
-			newIdx[t/3] = nf
-			nf++
+	runPair(func() {
+		for k, i := range order {
+			vertex[i] = -1
+			if !b.hidden[k] {
+				vertex[i] = 0
+			}
 		}
-	}
+		for i := range vertex {
+			if vertex[i] >= 0 {
+				vertex[i] = m
+				m++
+			}
+		}
+		r.Hidden = make([]int32, 0, n-int(m))
+		r.Vertex = vertex
+		r.Source = make([]int32, m)
+		r.Coords = make([]float64, 2*m)
+		r.Weights = make([]float64, m)
+		for i, v := range vertex {
+			if v < 0 {
+				r.Hidden = append(r.Hidden, int32(i))
+				continue
+			}
+			r.Source[v] = int32(i)
+			r.Coords[2*v], r.Coords[2*v+1] = pts[i][0], pts[i][1]
+		}
+		// Internal id → vertex number, in place of order.
+		for k, i := range order {
+			perm[k] = vertex[i]
+			if !b.hidden[k] {
+				r.Weights[perm[k]] = b.ps[k].w
+			}
+		}
+	}, func() {
+		// Output index of each live finite triangle (at most 2n + 2
+		// slots, in the 3n free entries of scratch).
+		for t := int32(0); t < b.nt; t += 3 {
+			newIdx[t/3] = -1
+			switch {
+			case tri[t] < 0:
+			case b.isInfinite(t):
+				start = t
+			default:
+				newIdx[t/3] = nf
+				nf++
+			}
+		}
+	})
 	// Hull: the infinite triangle [v, u, inf] holds the twin of hull edge
 	// u→v; from it, the infinite triangle across u→inf holds the hull edge
 	// before. That walk lists the hull clockwise.
