@@ -65,6 +65,22 @@ func splitCases(n int) []struct {
 	add("hidden-heavy", u, hw)
 	// Off-origin coordinates (the exact stages of the power test).
 	add("utm", offset(u, 500000, 5300000), rangeWeights(n, 8))
+	// Few positions, each repeated many times.
+	few := make([]orb.Point, n)
+	for i := range few {
+		few[i] = orb.Point{float64(r.IntN(12)) * 100, float64(r.IntN(12)) * 100}
+	}
+	add("few-positions", few, rangeWeights(n, 9))
+	// Three columns: most points on the lines of edges, the split
+	// abscissa on a column.
+	cols := make([]orb.Point, n)
+	for i := range cols {
+		cols[i] = orb.Point{float64(r.IntN(3)) * 1000, r.Float64() * 10000}
+	}
+	add("three-columns", cols, rangeWeights(n, 10))
+	// Two distant clusters, the split between them.
+	two := slices.Concat(scaled(sitegen.Clustered(n/2, 13), 10), offset(scaled(sitegen.Clustered(n-n/2, 14), 10), 1e6, 0))
+	add("two-clusters", two, rangeWeights(n, 11))
 	return cases
 }
 
