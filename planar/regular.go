@@ -28,6 +28,12 @@
 // and 4→2 when a hull vertex lies between the new point and its hull
 // neighbour and is hidden.
 //
+// From parallelMin points on, the last four rounds are inserted by two
+// workers on the two sides of the median abscissa, each by Bowyer–Watson
+// in the triangles it owns (regular_parallel.go); the points they leave
+// are inserted as above. The result does not depend on the number of
+// CPUs.
+//
 // Every decision is an exact predicate (Orient2D; PowerTest with the
 // symbolic perturbation of power_predicates.go), so the result is the
 // unique regular triangulation of the perturbed weights for every finite

@@ -30,13 +30,15 @@
 // triangles; when that is blocked by a triangle the worker does not own
 // (the owned area is jagged along x0), a second walk starts from the
 // triangle last made in the point's cell of a coarse grid. A point is
-// deferred, and later inserted sequentially by regular.go's method, when
-// both walks or its conflict region reach a triangle it does not own
-// (including the infinite ones: points outside the hull), when it lies on
-// an edge or a vertex of the triangle holding it, or when its region is
-// unusually large. A worker takes triangle slots from the ones its
-// insertions freed, then from its own range; slots left unused are marked
-// free for finish, which skips them.
+// deferred when both walks or its conflict region reach a triangle it
+// does not own (including the infinite ones: points outside the hull),
+// when it lies on an edge or a vertex of the triangle holding it, or when
+// its region is unusually large. The deferred points lie mostly in the
+// band of mixed triangles along x0: a second pass gives them to the same
+// two workers split at their median ordinate y0, and what that pass
+// defers is inserted sequentially by regular.go's method. A worker takes
+// triangle slots from the ones its insertions freed, then from its own
+// range; slots left unused are marked free for finish, which skips them.
 
 package planar
 
