@@ -356,16 +356,51 @@ func (w *rworker) insert(i int32) bool {
 	// The conflict region, from t. A region triangle is marked by
 	// complementing its first vertex; boundary edges are recorded as
 	// (u, v, opposite half-edge).
+	// The triangle across a boundary edge of an owned triangle shares its
+	// endpoints: it is owned when its third vertex is. An infinite
+	// triangle is never in conflict: p is strictly inside an owned
+	// triangle, so strictly inside the hull.
 	tri[t] = ^v0
-	w.cav[0] = t
-	w.nc, w.nb = 1, 0
+	cav, us, vs, outs := &w.cav, &w.us, &w.vs, &w.outs
+	cav[0] = t
+	nc, nb := 1, 0
 	ok := true
-	for j := 0; j < w.nc && ok; j++ {
-		c := w.cav[j]
-		c0, c1, c2 := ^tri[c], tri[c+1], tri[c+2]
-		ok = w.edge(c, c0, c1, p) && w.edge(c+1, c1, c2, p) && w.edge(c+2, c2, c0, p)
+search:
+	for j := 0; j < nc; j++ {
+		c := cav[j]
+		for e := c; e < c+3; e++ {
+			h := half[e]
+			o := triStart(h)
+			a0 := tri[o]
+			if a0 < 0 {
+				continue // shared with another region triangle
+			}
+			if apex := tri[prevHE(h)]; apex != b.inf && powerConflict(ps[a0], ps[tri[o+1]], ps[tri[o+2]], p) {
+				if !w.own(apex) || nc == maxCavity {
+					ok = false
+					break search
+				}
+				tri[o] = ^a0
+				cav[nc] = o
+				nc++
+				continue
+			}
+			if nb == maxCavity+2 {
+				ok = false
+				break search
+			}
+			// e = u→v; the first vertex of c is marked.
+			u, v := tri[e], tri[nextHE(e)]
+			if e == c {
+				u = ^u
+			} else if e == c+2 {
+				v = ^v
+			}
+			us[nb], vs[nb], outs[nb] = u, v, h
+			nb++
+		}
 	}
-	nc, nb := w.nc, w.nb
+	w.nc, w.nb = nc, nb
 	gone := 0
 	if ok {
 		// The region is a disk: nb = nc + 2 − 2k with k vertices inside.
@@ -406,7 +441,6 @@ func (w *rworker) insert(i int32) bool {
 		w.free = append(w.free, s)
 	}
 	slots := w.cav[:nb]
-	us, vs, outs := w.us[:nb], w.vs[:nb], w.outs[:nb]
 	for j, s := range slots {
 		tri[s], tri[s+1], tri[s+2] = us[j], vs[j], i
 		o := outs[j]
@@ -415,7 +449,7 @@ func (w *rworker) insert(i int32) bool {
 	}
 	for j, s := range slots {
 		v := vs[j]
-		for m, u := range us {
+		for m, u := range us[:nb] {
 			if u == v {
 				sm := slots[m]
 				half[s+1] = sm + 2
@@ -426,37 +460,6 @@ func (w *rworker) insert(i int32) bool {
 	}
 	w.last = slots[0]
 	w.grid[w.cell(p.x, p.y)] = slots[0]
-	return true
-}
-
-// edge examines half-edge e = u→v of a region triangle: the triangle
-// across it joins the region if p is in conflict with it, otherwise e is a
-// boundary edge. It returns false to abandon the insertion (a conflict
-// with a triangle the worker does not own, or a region too large). An
-// infinite triangle is never in conflict: p is strictly inside an owned
-// triangle, so strictly inside the hull.
-func (w *rworker) edge(e, u, v int32, p wPt) bool {
-	tri, ps := w.b.tri, w.b.ps
-	h := w.b.half[e]
-	nb := triStart(h)
-	a0 := tri[nb]
-	if a0 < 0 {
-		return true // shared with another region triangle
-	}
-	if apex := tri[prevHE(h)]; apex != w.b.inf && powerConflict(ps[a0], ps[tri[nb+1]], ps[tri[nb+2]], p) {
-		if !w.own(apex) || w.nc == maxCavity { // u, v are owned
-			return false
-		}
-		tri[nb] = ^a0
-		w.cav[w.nc] = nb
-		w.nc++
-		return true
-	}
-	if w.nb == maxCavity+2 {
-		return false
-	}
-	w.us[w.nb], w.vs[w.nb], w.outs[w.nb] = u, v, h
-	w.nb++
 	return true
 }
 
