@@ -724,6 +724,72 @@ func (b *rbuilder) remove(o int32) {
 	b.last = t0
 }
 
+// numberVertices numbers the vertices (the inputs not hidden) in input
+// order into vertex (-1 for hidden inputs), fills Vertex, Source, Coords,
+// Weights and Hidden of r, replaces order (input index of each internal
+// id) by the vertex number of each internal id, and returns the number of
+// vertices. The passes run in contiguous chunks under ParallelFor; the
+// hidden input i is entry i − (vertices before i) of Hidden.
+func (b *rbuilder) numberVertices(r *RegularTriangulation, pts []orb.Point, order, vertex []int32) int32 {
+	n := len(order)
+	const grain = 1 << 15
+	ParallelFor(n, grain, func(lo, hi int) {
+		for k := lo; k < hi; k++ {
+			vertex[order[k]] = -1
+			if !b.hidden[k] {
+				vertex[order[k]] = 0
+			}
+		}
+	})
+	parts := max(1, min(16, n/grain))
+	base := make([]int32, parts+1)
+	ParallelFor(parts, 1, func(lo, hi int) {
+		for c := lo; c < hi; c++ {
+			cnt := int32(0)
+			for _, v := range vertex[n*c/parts : n*(c+1)/parts] {
+				if v >= 0 {
+					cnt++
+				}
+			}
+			base[c+1] = cnt
+		}
+	})
+	for c := 0; c < parts; c++ {
+		base[c+1] += base[c]
+	}
+	m := base[parts]
+	r.Vertex = vertex
+	r.Hidden = make([]int32, n-int(m))
+	r.Source = make([]int32, m)
+	r.Coords = make([]float64, 2*m)
+	r.Weights = make([]float64, m)
+	ParallelFor(parts, 1, func(lo, hi int) {
+		for c := lo; c < hi; c++ {
+			v := base[c]
+			for i := n * c / parts; i < n*(c+1)/parts; i++ {
+				if vertex[i] < 0 {
+					r.Hidden[int32(i)-v] = int32(i)
+					continue
+				}
+				vertex[i] = v
+				r.Source[v] = int32(i)
+				r.Coords[2*v], r.Coords[2*v+1] = pts[i][0], pts[i][1]
+				v++
+			}
+		}
+	})
+	ParallelFor(n, grain, func(lo, hi int) {
+		for k := lo; k < hi; k++ {
+			v := vertex[order[k]]
+			order[k] = v
+			if v >= 0 {
+				r.Weights[v] = b.ps[k].w
+			}
+		}
+	})
+	return m
+}
+
 // finish converts the internal state to a RegularTriangulation: finite
 // live triangles compacted, vertices numbered in input order.
 func (b *rbuilder) finish(pts []orb.Point, order, scratch []int32) *RegularTriangulation {
@@ -740,38 +806,7 @@ func (b *rbuilder) finish(pts []orb.Point, order, scratch []int32) *RegularTrian
 	nf := int32(0)
 	start := int32(-1)
 	runPair(func() {
-		for k, i := range order {
-			vertex[i] = -1
-			if !b.hidden[k] {
-				vertex[i] = 0
-			}
-		}
-		for i := range vertex {
-			if vertex[i] >= 0 {
-				vertex[i] = m
-				m++
-			}
-		}
-		r.Hidden = make([]int32, 0, n-int(m))
-		r.Vertex = vertex
-		r.Source = make([]int32, m)
-		r.Coords = make([]float64, 2*m)
-		r.Weights = make([]float64, m)
-		for i, v := range vertex {
-			if v < 0 {
-				r.Hidden = append(r.Hidden, int32(i))
-				continue
-			}
-			r.Source[v] = int32(i)
-			r.Coords[2*v], r.Coords[2*v+1] = pts[i][0], pts[i][1]
-		}
-		// Internal id → vertex number, in place of order.
-		for k, i := range order {
-			perm[k] = vertex[i]
-			if !b.hidden[k] {
-				r.Weights[perm[k]] = b.ps[k].w
-			}
-		}
+		m = b.numberVertices(r, pts, order, vertex)
 	}, func() {
 		// Output index of each live finite triangle (at most 2n + 2
 		// slots, in the 3n free entries of scratch).

@@ -171,10 +171,11 @@ func TestRegularSplitExact(t *testing.T) {
 	}
 }
 
-// TestRegularLargeUsesSplit checks TriangulateRegular at the size where it
-// splits against the sequential construction.
+// TestRegularLargeUsesSplit checks TriangulateRegular at a size where it
+// splits, and numbers vertices in several chunks, against the sequential
+// construction and the inputs.
 func TestRegularLargeUsesSplit(t *testing.T) {
-	n := parallelMin + 1000
+	n := 5*parallelMin/2 + 1000
 	pts := scaled(sitegen.Uniform(n, 21), 10)
 	w := rangeWeights(n, 22)
 	got, err := TriangulateRegular(pts, w)
@@ -188,6 +189,37 @@ func TestRegularLargeUsesSplit(t *testing.T) {
 	if why := sameRegular(got, seq); why != "" {
 		t.Fatalf("TriangulateRegular and the sequential construction differ in %s", why)
 	}
+	if err := checkVertexArrays(pts, w, got); err != nil {
+		t.Fatal(err)
+	}
+	if err := checkLinks(got); err != nil {
+		t.Fatal(err)
+	}
+}
+
+// checkVertexArrays checks Vertex, Source, Coords, Weights and Hidden of
+// tr against the inputs: vertices numbered in input order, each hidden
+// input listed once, in increasing order.
+func checkVertexArrays(pts []orb.Point, w []float64, tr *RegularTriangulation) error {
+	m := int32(len(tr.Source))
+	if len(tr.Vertex) != len(pts) || len(tr.Coords) != 2*int(m) || len(tr.Weights) != int(m) || len(tr.Hidden)+int(m) != len(pts) {
+		return fmt.Errorf("array lengths: %d inputs, %d vertices, %d hidden", len(tr.Vertex), m, len(tr.Hidden))
+	}
+	next, h := int32(0), 0
+	for i, v := range tr.Vertex {
+		if v < 0 {
+			if h >= len(tr.Hidden) || tr.Hidden[h] != int32(i) {
+				return fmt.Errorf("input %d hidden but not listed in order", i)
+			}
+			h++
+			continue
+		}
+		if v != next || tr.Source[v] != int32(i) || tr.Coords[2*v] != pts[i][0] || tr.Coords[2*v+1] != pts[i][1] || tr.Weights[v] != w[i] {
+			return fmt.Errorf("input %d: vertex %d does not match", i, v)
+		}
+		next++
+	}
+	return nil
 }
 
 // checkLinks checks the arrays that depend on the triangle numbering:
