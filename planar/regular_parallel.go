@@ -43,6 +43,7 @@
 package planar
 
 import (
+	"math"
 	"runtime"
 	"slices"
 	"sync"
@@ -142,7 +143,7 @@ func (b *rbuilder) insertSplit(lo, mid, hi int32, box bbox, x0 float64, isSeed f
 		slices.Sort(ys)
 		y0 := ys[len(ys)/2]
 		var bottom, top []int32
-		for _, i := range deferred {
+		for _, i := range b.hilbertOrder(deferred, box) {
 			if b.ps[i].y < y0 {
 				bottom = append(bottom, i)
 			} else {
@@ -159,7 +160,7 @@ func (b *rbuilder) insertSplit(lo, mid, hi int32, box bbox, x0 float64, isSeed f
 			w.start(end)
 		}
 		runPair(func() { wl.runList(bottom) }, func() { wr.runList(top) })
-		deferred = append(wl.deferred, wr.deferred...)
+		deferred = b.hilbertOrder(append(wl.deferred, wr.deferred...), box)
 	}
 	// The sequential insertion of the deferred points takes at most two
 	// slots each (regular.go): that many go to its free list, the others
@@ -187,6 +188,29 @@ func (b *rbuilder) insertSplit(lo, mid, hi int32, box bbox, x0 float64, isSeed f
 		}
 	}
 	return deferred
+}
+
+// hilbertOrder sorts ids along a Hilbert curve of order 16 over the box
+// (ties by id), so that walks between consecutive points are short: the
+// deferred points come from all rounds, and in round order each round
+// sweeps the band again.
+func (b *rbuilder) hilbertOrder(ids []int32, box bbox) []int32 {
+	side := max(box.maxX-box.minX, box.maxY-box.minY)
+	if !(side > 0 && side <= math.MaxFloat64) {
+		return ids
+	}
+	scale := 65536 / side
+	q := func(v float64) uint32 { return uint32(min(max(v*scale, 0), 65535)) }
+	keys := make([]uint64, len(ids))
+	for k, i := range ids {
+		p := b.ps[i]
+		keys[k] = uint64(hilbert16(q(p.x-box.minX), q(p.y-box.minY)))<<32 | uint64(uint32(i))
+	}
+	slices.Sort(keys)
+	for k, key := range keys {
+		ids[k] = int32(uint32(key))
+	}
+	return ids
 }
 
 // splitAgain is the number of points deferred by the first pass from
