@@ -838,21 +838,41 @@ func (b *rbuilder) finish(pts []orb.Point, order, scratch []int32) *RegularTrian
 		}
 	}
 	slices.Reverse(hull)
-	// Compact in place: the output index of a triangle is at most its
-	// slot index, so each write lands on entries already read.
-	for t := int32(0); t < b.nt; t += 3 {
-		nt := newIdx[t/3]
-		if nt < 0 {
-			continue
-		}
-		for k := int32(0); k < 3; k++ {
-			h := half[t+k]
-			tri[3*nt+k] = perm[tri[t+k]]
-			half[3*nt+k] = -1
-			if ht := newIdx[h/3]; ht >= 0 {
-				half[3*nt+k] = 3*ht + h%3
+	// Renumber each live finite triangle in its slot (vertex numbers,
+	// output half-edges; each slot is read and written only by its own
+	// chunk), then close the dead slots up: the output index of a triangle
+	// is at most its slot index, so each run of consecutive output indices
+	// moves down onto entries already moved.
+	ParallelFor(len(newIdx), 1<<14, func(lo, hi int) {
+		for t := 3 * int32(lo); t < 3*int32(hi); t += 3 {
+			if newIdx[t/3] < 0 {
+				continue
+			}
+			for k := t; k < t+3; k++ {
+				h := half[k]
+				tri[k] = perm[tri[k]]
+				half[k] = -1
+				if ht := newIdx[h/3]; ht >= 0 {
+					half[k] = 3*ht + h%3
+				}
 			}
 		}
+	})
+	for s := int32(0); s < int32(len(newIdx)); {
+		d := newIdx[s]
+		if d < 0 {
+			s++
+			continue
+		}
+		e := s + 1
+		for e < int32(len(newIdx)) && newIdx[e] == d+(e-s) {
+			e++
+		}
+		if d != s {
+			copy(tri[3*d:3*(d+e-s)], tri[3*s:3*e])
+			copy(half[3*d:3*(d+e-s)], half[3*s:3*e])
+		}
+		s = e
 	}
 	out, outH := tri[:3*nf:3*nf], half[:3*nf:3*nf]
 	// Inedge: a half-edge ending at each vertex, the hull one for hull
