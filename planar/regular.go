@@ -302,6 +302,9 @@ type rbuilder struct {
 	stack   []int32
 	rng     uint64
 	restart bool // a duplicate position with a larger weight met a vertex
+	// Half-edges [gapLo, gapHi) are unused slots never written (left by
+	// the workers of regular_parallel.go); finish skips them.
+	gapLo, gapHi int32
 }
 
 // regularIncremental builds the regular triangulation from the
@@ -812,6 +815,13 @@ func (b *rbuilder) finish(pts []orb.Point, order, scratch []int32) *RegularTrian
 		// slots, in the 3n free entries of scratch).
 		for t := int32(0); t < b.nt; t += 3 {
 			newIdx[t/3] = -1
+			if t == b.gapLo && b.gapHi > t {
+				for g := t; g < b.gapHi; g += 3 {
+					newIdx[g/3] = -1
+				}
+				t = b.gapHi - 3
+				continue
+			}
 			switch {
 			case tri[t] < 0:
 			case b.isInfinite(t):

@@ -57,7 +57,8 @@ type rworker struct {
 	y0       float64
 	n1, mid  int32   // ids >= n1 are left below mid, right from mid
 	side1    []bool  // side of ids < n1: true for left
-	nt, end  int32   // next unused half-edge and end of the worker's range
+	nt, end  int32   // next unused half-edge and the far end of the worker's range
+	down     bool    // the range is used from its top down (right worker)
 	free     []int32 // slots freed by this worker's insertions
 	last     int32   // a half-edge of an owned triangle near the last insertion
 	rng      uint64
@@ -121,19 +122,18 @@ func (b *rbuilder) insertSplit(lo, mid, hi int32, box bbox, x0 float64, isSeed f
 	for v := range side1 {
 		side1[v] = b.ps[v].x < x0
 	}
+	// The left worker uses its range from the bottom up, the right one
+	// from the top down: the slots left unused form one gap between
+	// them, which is never touched (nor its memory faulted in).
 	wl := &rworker{b: b, left: true, n1: lo, mid: mid, side1: side1, nt: base, end: base + 6*(mid-lo), rng: 0x9e3779b97f4a7c15}
-	wr := &rworker{b: b, left: false, n1: lo, mid: mid, side1: side1, nt: wl.end, end: end, rng: 0xd1b54a32d192ed03}
+	wr := &rworker{b: b, left: false, n1: lo, mid: mid, side1: side1, nt: end, end: wl.end, down: true, rng: 0xd1b54a32d192ed03}
+	b.gapLo, b.gapHi = wl.nt, wr.nt
 	for _, w := range []*rworker{wl, wr} {
 		w.initGrid(box, int(hi-lo))
 		w.start(base)
 	}
 	runPair(func() { wl.run(lo, mid, isSeed) }, func() { wr.run(mid, hi, isSeed) })
-	// Unused slots are free.
-	for _, w := range []*rworker{wl, wr} {
-		for s := w.nt; s < w.end; s += 3 {
-			b.tri[s], b.tri[s+1], b.tri[s+2] = -1, -1, -1
-		}
-	}
+	b.gapLo, b.gapHi = wl.nt, wr.nt
 	deferred := append(wl.deferred, wr.deferred...)
 	if len(deferred) >= splitAgain {
 		ys := make([]float64, len(deferred))
@@ -161,15 +161,20 @@ func (b *rbuilder) insertSplit(lo, mid, hi int32, box bbox, x0 float64, isSeed f
 		}
 		runPair(func() { wl.runList(bottom) }, func() { wr.runList(top) })
 		deferred = b.hilbertOrder(append(wl.deferred, wr.deferred...), box)
+		b.gapLo, b.gapHi = wl.nt, wr.nt
 	}
 	// The sequential insertion of the deferred points takes at most two
-	// slots each (regular.go): that many go to its free list, the others
-	// stay dead and finish skips them.
+	// slots each (regular.go): that many, from the bottom of the gap, go
+	// to its free list with the workers' freed slots; finish skips the
+	// rest of the gap.
 	want := 2*len(deferred) + 2
+	for len(b.free) < want && b.gapLo < b.gapHi {
+		s := b.gapLo
+		b.tri[s], b.tri[s+1], b.tri[s+2] = -1, -1, -1
+		b.free = append(b.free, s)
+		b.gapLo += 3
+	}
 	for _, w := range []*rworker{wl, wr} {
-		for s := w.nt; s < w.end && len(b.free) < want; s += 3 {
-			b.free = append(b.free, s)
-		}
 		b.free = append(b.free, w.free...)
 	}
 	b.nt = end
@@ -181,6 +186,10 @@ func (b *rbuilder) insertSplit(lo, mid, hi int32, box bbox, x0 float64, isSeed f
 		b.last = triStart(wr.last)
 	default:
 		for t := int32(0); t < end; t += 3 {
+			if t == b.gapLo && b.gapHi > t {
+				t = b.gapHi - 3
+				continue
+			}
 			if b.tri[t] >= 0 && !b.isInfinite(t) {
 				b.last = t
 				break
@@ -236,10 +245,14 @@ func runPair(f, g func()) {
 }
 
 // start sets the walk start to the first live owned triangle below
-// half-edge end (-1: none).
+// half-edge end (-1: none), outside the gap of unused slots.
 func (w *rworker) start(end int32) {
 	w.last = -1
 	for t := int32(0); t < end; t += 3 {
+		if t == w.b.gapLo && w.b.gapHi > t {
+			t = w.b.gapHi - 3
+			continue
+		}
 		if w.b.tri[t] >= 0 && w.owned(t) {
 			w.last = t
 			return
@@ -430,7 +443,11 @@ search:
 		// The region is a disk: nb = nc + 2 − 2k with k vertices inside.
 		d := nc + 2 - nb
 		need := max(nb-nc-len(w.free), 0)
-		ok = d >= 0 && d%2 == 0 && w.nt+3*int32(need) <= w.end
+		room := w.end - w.nt
+		if w.down {
+			room = -room
+		}
+		ok = d >= 0 && d%2 == 0 && 3*int32(need) <= room
 		if ok && d > 0 {
 			// The inner vertices are marked hidden.
 			gone = w.inner()
@@ -455,8 +472,13 @@ search:
 			w.cav[j] = w.free[k-1]
 			w.free = w.free[:k-1]
 		} else {
-			w.cav[j] = w.nt
-			w.nt += 3
+			if w.down {
+				w.nt -= 3
+				w.cav[j] = w.nt
+			} else {
+				w.cav[j] = w.nt
+				w.nt += 3
+			}
 		}
 	}
 	for j := nb; j < nc; j++ {
