@@ -28,6 +28,12 @@
 // and 4→2 when a hull vertex lies between the new point and its hull
 // neighbour and is hidden.
 //
+// From parallelMin points on, the last four rounds are inserted by two
+// workers on the two sides of the median abscissa, each by Bowyer–Watson
+// in the triangles it owns (regular_parallel.go); the points they leave
+// are inserted as above. The result does not depend on the number of
+// CPUs.
+//
 // Every decision is an exact predicate (Orient2D; PowerTest with the
 // symbolic perturbation of power_predicates.go), so the result is the
 // unique regular triangulation of the perturbed weights for every finite
@@ -131,6 +137,14 @@ func fromDelaunay(d *Triangulation, weights []float64) *RegularTriangulation {
 // triangulateRegular is TriangulateRegular on validated input, always by
 // the weighted construction.
 func triangulateRegular(pts []orb.Point, weights []float64) (*RegularTriangulation, error) {
+	return triangulateRegularSplit(pts, weights, len(pts) >= parallelMin)
+}
+
+// triangulateRegularSplit is triangulateRegular with the two-worker
+// insertion of the last rounds (regular_parallel.go) on or off; both give
+// the same vertices, hidden points and triangles (tested), numbered
+// differently.
+func triangulateRegularSplit(pts []orb.Point, weights []float64, split bool) (*RegularTriangulation, error) {
 	n := len(pts)
 	if n == 0 {
 		return &RegularTriangulation{Triangulation: Triangulation{
@@ -143,7 +157,7 @@ func triangulateRegular(pts []orb.Point, weights []float64) (*RegularTriangulati
 	if i2 < 0 {
 		return regularCollinear(pts, weights), nil
 	}
-	if r := regularIncremental(pts, weights, box, i0, i1, i2); r != nil {
+	if r := regularIncremental(pts, weights, box, i0, i1, i2, split); r != nil {
 		return r, nil
 	}
 	// A duplicate position with a larger weight met a vertex: drop the
@@ -155,7 +169,7 @@ func triangulateRegular(pts []orb.Point, weights []float64) (*RegularTriangulati
 		sub[k], subW[k] = pts[i], weights[i]
 	}
 	i0, i1, i2 = seedTriangle(sub, box)
-	r := regularIncremental(sub, subW, box, i0, i1, i2)
+	r := regularIncremental(sub, subW, box, i0, i1, i2, split)
 	if r == nil {
 		return nil, fmt.Errorf("planar: TriangulateRegular: internal error: duplicate after deduplication")
 	}
@@ -288,18 +302,32 @@ type rbuilder struct {
 	stack   []int32
 	rng     uint64
 	restart bool // a duplicate position with a larger weight met a vertex
+	// Half-edges [gapLo, gapHi) are unused slots never written (left by
+	// the workers of regular_parallel.go); finish skips them.
+	gapLo, gapHi int32
 }
 
 // regularIncremental builds the regular triangulation from the
-// counter-clockwise seed triangle i0, i1, i2 (distinct, not collinear). It
+// counter-clockwise seed triangle i0, i1, i2 (distinct, not collinear),
+// with the last rounds split between two workers when split is set. It
 // returns nil when a duplicate position must replace a vertex.
-func regularIncremental(pts []orb.Point, w []float64, box bbox, i0, i1, i2 int32) *RegularTriangulation {
+func regularIncremental(pts []orb.Point, w []float64, box bbox, i0, i1, i2 int32, split bool) *RegularTriangulation {
 	n := len(pts)
+	x0 := 0.0
+	if split {
+		x0 = medianX(pts, box)
+	}
 	work := make([]uint64, 2*n)
 	keys, buf := work[:n:n], work[n:]
-	brioKeys(pts, box, keys, false, 0)
+	brioKeys(pts, box, keys, split, x0)
 	sorted := radixSortHigh(keys, buf)
 	refineCells(pts, box, sorted)
+	// Phase boundaries: sequential rounds, then each side's last rounds.
+	n1, nl := n, 0
+	if split {
+		n1 = sortIndex(sorted, 1<<63)
+		nl = sortIndex(sorted, 1<<63|1<<62) - n1
+	}
 	// The sort buffers are reused: the insertion order in the first
 	// quarter (keys are spent once sorted), the triangle renumbering of
 	// finish after it.
@@ -313,32 +341,43 @@ func regularIncremental(pts []orb.Point, w []float64, box bbox, i0, i1, i2 int32
 		stack:  make([]int32, 0, 64),
 		rng:    0x9e3779b97f4a7c15,
 	}
-	for k := range sorted {
-		i := int32(uint32(sorted[k]))
-		order[k] = i
-		b.ps[k] = wPt{pts[i][0], pts[i][1], w[i]}
-	}
-	// Internal ids of the seed points.
+	// Internal ids of the seed points (each written once).
 	var seedID [3]int32
-	for k, i := range order {
-		for j, s := range [3]int32{i0, i1, i2} {
-			if i == s {
-				seedID[j] = int32(k)
+	ParallelFor(n, 1<<15, func(lo, hi int) {
+		for k := lo; k < hi; k++ {
+			i := int32(uint32(sorted[k]))
+			order[k] = i
+			b.ps[k] = wPt{pts[i][0], pts[i][1], w[i]}
+			if i == i0 || i == i1 || i == i2 {
+				for j, s := range [3]int32{i0, i1, i2} {
+					if i == s {
+						seedID[j] = int32(k)
+					}
+				}
 			}
 		}
-	}
+	})
 	s0, s1, s2 := seedID[0], seedID[1], seedID[2]
+	isSeed := func(k int32) bool { return k == s0 || k == s1 || k == s2 }
 	maxT := 2*n + 2
 	b.tri = make([]int32, 0, 3*maxT)
 	b.half = make([]int32, 0, 3*maxT)
 	b.seed(s0, s1, s2)
-	for k := int32(0); k < int32(n); k++ {
-		if k == s0 || k == s1 || k == s2 {
+	for k := int32(0); k < int32(n1); k++ {
+		if isSeed(k) {
 			continue
 		}
 		b.insert(k)
 		if b.restart {
 			return nil
+		}
+	}
+	if split {
+		for _, k := range b.insertSplit(int32(n1), int32(n1+nl), int32(n), box, x0, isSeed) {
+			b.insert(k)
+			if b.restart {
+				return nil
+			}
 		}
 	}
 	return b.finish(pts, order, w32[n:])
@@ -688,63 +727,111 @@ func (b *rbuilder) remove(o int32) {
 	b.last = t0
 }
 
+// numberVertices numbers the vertices (the inputs not hidden) in input
+// order into vertex (-1 for hidden inputs), fills Vertex, Source, Coords,
+// Weights and Hidden of r, replaces order (input index of each internal
+// id) by the vertex number of each internal id, and returns the number of
+// vertices. The passes run in contiguous chunks under ParallelFor; the
+// hidden input i is entry i − (vertices before i) of Hidden.
+func (b *rbuilder) numberVertices(r *RegularTriangulation, pts []orb.Point, order, vertex []int32) int32 {
+	n := len(order)
+	const grain = 1 << 15
+	ParallelFor(n, grain, func(lo, hi int) {
+		for k := lo; k < hi; k++ {
+			vertex[order[k]] = -1
+			if !b.hidden[k] {
+				vertex[order[k]] = 0
+			}
+		}
+	})
+	parts := max(1, min(16, n/grain))
+	base := make([]int32, parts+1)
+	ParallelFor(parts, 1, func(lo, hi int) {
+		for c := lo; c < hi; c++ {
+			cnt := int32(0)
+			for _, v := range vertex[n*c/parts : n*(c+1)/parts] {
+				if v >= 0 {
+					cnt++
+				}
+			}
+			base[c+1] = cnt
+		}
+	})
+	for c := 0; c < parts; c++ {
+		base[c+1] += base[c]
+	}
+	m := base[parts]
+	r.Vertex = vertex
+	r.Hidden = make([]int32, n-int(m))
+	r.Source = make([]int32, m)
+	r.Coords = make([]float64, 2*m)
+	r.Weights = make([]float64, m)
+	ParallelFor(parts, 1, func(lo, hi int) {
+		for c := lo; c < hi; c++ {
+			v := base[c]
+			for i := n * c / parts; i < n*(c+1)/parts; i++ {
+				if vertex[i] < 0 {
+					r.Hidden[int32(i)-v] = int32(i)
+					continue
+				}
+				vertex[i] = v
+				r.Source[v] = int32(i)
+				r.Coords[2*v], r.Coords[2*v+1] = pts[i][0], pts[i][1]
+				v++
+			}
+		}
+	})
+	ParallelFor(n, grain, func(lo, hi int) {
+		for k := lo; k < hi; k++ {
+			v := vertex[order[k]]
+			order[k] = v
+			if v >= 0 {
+				r.Weights[v] = b.ps[k].w
+			}
+		}
+	})
+	return m
+}
+
 // finish converts the internal state to a RegularTriangulation: finite
 // live triangles compacted, vertices numbered in input order.
 func (b *rbuilder) finish(pts []orb.Point, order, scratch []int32) *RegularTriangulation {
 	n := len(order)
 	inf := b.inf
+	r := &RegularTriangulation{}
 	vertex := make([]int32, n)
-	for k, i := range order {
-		vertex[i] = -1
-		if !b.hidden[k] {
-			vertex[i] = 0
-		}
-	}
-	m := int32(0)
-	for i := range vertex {
-		if vertex[i] >= 0 {
-			vertex[i] = m
-			m++
-		}
-	}
-	r := &RegularTriangulation{Hidden: make([]int32, 0, n-int(m))}
-	r.Vertex = vertex
-	r.Source = make([]int32, m)
-	r.Coords = make([]float64, 2*m)
-	r.Weights = make([]float64, m)
-	for i, v := range vertex {
-		if v < 0 {
-			r.Hidden = append(r.Hidden, int32(i))
-			continue
-		}
-		r.Source[v] = int32(i)
-		r.Coords[2*v], r.Coords[2*v+1] = pts[i][0], pts[i][1]
-	}
-	// Internal id → vertex number, in place of order.
 	perm := order
-	for k, i := range order {
-		perm[k] = vertex[i]
-		if !b.hidden[k] {
-			r.Weights[perm[k]] = b.ps[k].w
-		}
-	}
-	// Output index of each live finite triangle (at most 2n + 2 slots, in
-	// the 3n free entries of scratch).
+	var m int32
+	// The vertex arrays and the triangle renumbering are independent: two
+	// goroutines when two CPUs are available.
 	tri, half := b.tri[:b.nt], b.half[:b.nt]
 	newIdx := scratch[:b.nt/3]
 	nf := int32(0)
 	start := int32(-1)
-	for t := int32(0); t < b.nt; t += 3 {
-		newIdx[t/3] = -1
-		switch {
-		case tri[t] < 0:
-		case b.isInfinite(t):
-			start = t
-		default:
-			newIdx[t/3] = nf
-			nf++
+	runPair(func() {
+		m = b.numberVertices(r, pts, order, vertex)
+	}, func() {
+		// Output index of each live finite triangle (at most 2n + 2
+		// slots, in the 3n free entries of scratch).
+		for t := int32(0); t < b.nt; t += 3 {
+			newIdx[t/3] = -1
+			if t == b.gapLo && b.gapHi > t {
+				for g := t; g < b.gapHi; g += 3 {
+					newIdx[g/3] = -1
+				}
+				t = b.gapHi - 3
+				continue
+			}
+			switch {
+			case tri[t] < 0:
+			case b.isInfinite(t):
+				start = t
+			default:
+				newIdx[t/3] = nf
+				nf++
+			}
 		}
-	}
+	})
 	// Hull: the infinite triangle [v, u, inf] holds the twin of hull edge
 	// u→v; from it, the infinite triangle across u→inf holds the hull edge
 	// before. That walk lists the hull clockwise.
@@ -761,21 +848,41 @@ func (b *rbuilder) finish(pts []orb.Point, order, scratch []int32) *RegularTrian
 		}
 	}
 	slices.Reverse(hull)
-	// Compact in place: the output index of a triangle is at most its
-	// slot index, so each write lands on entries already read.
-	for t := int32(0); t < b.nt; t += 3 {
-		nt := newIdx[t/3]
-		if nt < 0 {
-			continue
-		}
-		for k := int32(0); k < 3; k++ {
-			h := half[t+k]
-			tri[3*nt+k] = perm[tri[t+k]]
-			half[3*nt+k] = -1
-			if ht := newIdx[h/3]; ht >= 0 {
-				half[3*nt+k] = 3*ht + h%3
+	// Renumber each live finite triangle in its slot (vertex numbers,
+	// output half-edges; each slot is read and written only by its own
+	// chunk), then close the dead slots up: the output index of a triangle
+	// is at most its slot index, so each run of consecutive output indices
+	// moves down onto entries already moved.
+	ParallelFor(len(newIdx), 1<<14, func(lo, hi int) {
+		for t := 3 * int32(lo); t < 3*int32(hi); t += 3 {
+			if newIdx[t/3] < 0 {
+				continue
+			}
+			for k := t; k < t+3; k++ {
+				h := half[k]
+				tri[k] = perm[tri[k]]
+				half[k] = -1
+				if ht := newIdx[h/3]; ht >= 0 {
+					half[k] = 3*ht + h%3
+				}
 			}
 		}
+	})
+	for s := int32(0); s < int32(len(newIdx)); {
+		d := newIdx[s]
+		if d < 0 {
+			s++
+			continue
+		}
+		e := s + 1
+		for e < int32(len(newIdx)) && newIdx[e] == d+(e-s) {
+			e++
+		}
+		if d != s {
+			copy(tri[3*d:3*(d+e-s)], tri[3*s:3*e])
+			copy(half[3*d:3*(d+e-s)], half[3*s:3*e])
+		}
+		s = e
 	}
 	out, outH := tri[:3*nf:3*nf], half[:3*nf:3*nf]
 	// Inedge: a half-edge ending at each vertex, the hull one for hull
