@@ -387,10 +387,12 @@ func (sc *Scene) project(in Inputs, sites *siteSet, polys []areaPoly) error {
 	sc.Projection = tm
 	f := newLonFrame(tm, b)
 	pts := make([]orb.Point, len(sites.Pts))
-	for i, p := range sites.Pts {
-		x, y := f.forward(p[0], p[1])
-		pts[i] = orb.Point{x, y}
-	}
+	planar.ParallelFor(len(pts), 1<<14, func(lo, hi int) {
+		for i, p := range sites.Pts[lo:hi] {
+			x, y := f.forward(p[0], p[1])
+			pts[lo+i] = orb.Point{x, y}
+		}
+	})
 	sc.Sites = pts
 	sc.edgeArea = densifyPolys(polys, f)
 	for _, it := range []*Items{sc.Candidates, sc.Demand, sc.Context} {
