@@ -29,6 +29,7 @@ import (
 	"bytes"
 	"os"
 	"runtime"
+	"runtime/debug"
 	"strconv"
 	"sync"
 	"syscall"
@@ -61,7 +62,7 @@ func adviseHugePages(sites int, limit int64) {
 	adviseMappings()
 	runtime.KeepAlive(block)
 	block = nil
-	runtime.GC() // free the block now: its pages were never touched
+	debug.FreeOSMemory() // free the block and return it now: its pages were never touched
 	hugeAdviseOnce.Do(func() {
 		go func() {
 			for {
