@@ -21,7 +21,8 @@
 // ("never") or the call fails, nothing changes. Measured with uniform
 // planar sites, analyze without maps, on the 2-core machine: 10⁶ sites
 // (medians of 6) 7.62 → 6.53 s wall, user+system CPU 13.3 → 11.3 s;
-// 10⁷ sites (output on disk) 100 → 82–83 s; peak RSS unchanged
+// 10⁷ sites 82–83 s with the output on disk (without the advice 100 s,
+// one run with the output on tmpfs); peak RSS unchanged
 // (1.06 GB, 10.1 GB). SITECOVER_HUGEPAGES=off turns it off.
 
 package main
