@@ -74,39 +74,28 @@ func checkRegularErr(pts []orb.Point, w []float64, tr *RegularTriangulation) err
 	if hidden != len(tr.Hidden) {
 		return fmt.Errorf("%d inputs without vertex, %d listed hidden", hidden, len(tr.Hidden))
 	}
-	tri, half := tr.Triangles, tr.Halfedges
+	tri := tr.Triangles
 	if len(tri) == 0 {
 		return checkRegularCollinear(pts, w, tr)
 	}
 	pt := func(v int32) wPt { return wAt(tr, v) }
-	nb := 0
 	used := make([]bool, m)
-	for e := int32(0); e < int32(len(tri)); e++ {
-		used[tri[e]] = true
-		if e%3 == 0 {
-			a, b, c := pt(tri[e]), pt(tri[e+1]), pt(tri[e+2])
-			if Orient2D(a.x, a.y, b.x, b.y, c.x, c.y) <= 0 {
-				return fmt.Errorf("triangle %d not counter-clockwise", e/3)
-			}
-		}
-		h := half[e]
-		if h < 0 {
-			nb++
-			continue
-		}
-		if half[h] != e || tri[h] != tri[NextHalfedge(e)] || tri[NextHalfedge(h)] != tri[e] {
-			return fmt.Errorf("half-edge %d: twin %d not paired", e, h)
+	for e := int32(0); e < int32(len(tri)); e += 3 {
+		used[tri[e]], used[tri[e+1]], used[tri[e+2]] = true, true, true
+		a, b, c := pt(tri[e]), pt(tri[e+1]), pt(tri[e+2])
+		if Orient2D(a.x, a.y, b.x, b.y, c.x, c.y) <= 0 {
+			return fmt.Errorf("triangle %d not counter-clockwise", e/3)
 		}
 	}
 	for v := range used {
 		if !used[v] {
 			return fmt.Errorf("vertex %d in no triangle", v)
 		}
-		if e := tr.Inedge[v]; e < 0 || tri[NextHalfedge(e)] != int32(v) {
-			return fmt.Errorf("vertex %d: Inedge %d", v, e)
-		}
 	}
-	if nb != len(tr.Hull) || tr.NumTriangles() != 2*int(m)-2-nb {
+	if err := checkLinks(tr); err != nil { // also: as many hull edges as hull vertices
+		return err
+	}
+	if nb := len(tr.Hull); tr.NumTriangles() != 2*int(m)-2-nb {
 		return fmt.Errorf("%d triangles, %d hull edges, %d hull vertices, %d vertices: Euler fails", tr.NumTriangles(), nb, len(tr.Hull), m)
 	}
 	for k, v := range tr.Hull {
