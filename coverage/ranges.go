@@ -104,21 +104,13 @@ func newLayoutRangesTimed(sites []orb.Point, ranges []float64, area *planar.Regi
 	if !(am > 0) || math.IsInf(am, 0) {
 		return nil, 0, 0, fmt.Errorf("coverage: site area has no positive finite area (%v m²)", am)
 	}
-	w := make([]float64, len(ranges))
-	for i, r := range ranges {
-		w[i] = r * r
-	}
 	t0 := time.Now()
-	rt, err := planar.TriangulateRegular(sites, w)
+	rt, vr, err := triangulateRanges(sites, ranges)
 	if err != nil {
-		return nil, 0, 0, fmt.Errorf("coverage: triangulating %d devices with their ranges: %w", len(sites), err)
+		return nil, 0, 0, err
 	}
 	t1 := time.Now()
-	l := &Layout{Sites: sites, Area: area, Tri: &rt.Triangulation, AreaM2: am}
-	l.Ranges = make([]float64, rt.NumVertices())
-	for v, i := range rt.Source {
-		l.Ranges[v] = ranges[i]
-	}
+	l := &Layout{Sites: sites, Area: area, Tri: &rt.Triangulation, AreaM2: am, Ranges: vr}
 	l.InputRanges = append([]float64(nil), ranges...)
 	l.Hidden = make([]int, len(rt.Hidden))
 	for k, i := range rt.Hidden {
@@ -324,4 +316,22 @@ func (l *Layout) CurveRanges() *Curve {
 	}
 	cv.tol = crvTol * (math.Abs(cv.full) + wmax)
 	return cv
+}
+
+// triangulateRanges returns the regular triangulation of the devices at
+// sites with weights ranges² and the range of each of its vertices.
+func triangulateRanges(sites []orb.Point, ranges []float64) (*planar.RegularTriangulation, []float64, error) {
+	w := make([]float64, len(ranges))
+	for i, r := range ranges {
+		w[i] = r * r
+	}
+	rt, err := planar.TriangulateRegular(sites, w)
+	if err != nil {
+		return nil, nil, fmt.Errorf("coverage: triangulating %d devices with their ranges: %w", len(sites), err)
+	}
+	vr := make([]float64, rt.NumVertices())
+	for v, i := range rt.Source {
+		vr[v] = ranges[i]
+	}
+	return rt, vr, nil
 }

@@ -25,7 +25,6 @@ import (
 	"testing"
 
 	"github.com/paulmach/orb"
-	"github.com/sitecover/sitecover/planar"
 	"github.com/sitecover/sitecover/planar/sitegen"
 )
 
@@ -69,17 +68,9 @@ func BenchmarkPersistenceRanges(b *testing.B) {
 	for _, n := range []int{10_000, 100_000, 1_000_000} {
 		b.Run(fmt.Sprintf("uniform-%d", n), func(b *testing.B) {
 			sites, ranges := benchDevices(n)
-			w := make([]float64, n)
-			for i, r := range ranges {
-				w[i] = r * r
-			}
-			rt, err := planar.TriangulateRegular(sites, w)
+			rt, vr, err := triangulateRanges(sites, ranges)
 			if err != nil {
 				b.Fatal(err)
-			}
-			vr := make([]float64, rt.NumVertices())
-			for v, i := range rt.Source {
-				vr[v] = ranges[i]
 			}
 			b.ReportAllocs()
 			var holes int
@@ -99,17 +90,9 @@ func BenchmarkPowerPersistenceFromPoints(b *testing.B) {
 			b.ReportAllocs()
 			var holes int
 			for b.Loop() {
-				w := make([]float64, n)
-				for i, r := range ranges {
-					w[i] = r * r
-				}
-				rt, err := planar.TriangulateRegular(sites, w)
+				rt, vr, err := triangulateRanges(sites, ranges)
 				if err != nil {
 					b.Fatal(err)
-				}
-				vr := make([]float64, rt.NumVertices())
-				for v, i := range rt.Source {
-					vr[v] = ranges[i]
 				}
 				p := ComputePowerPersistence(&rt.Triangulation, NewPowerFiltration(&rt.Triangulation, vr))
 				holes = len(p.Holes)
