@@ -260,22 +260,26 @@ func (w *rworker) start(end int32) {
 	}
 }
 
+// runList inserts the ids listed, deferring those it cannot.
 func (w *rworker) runList(ids []int32) {
 	for _, k := range ids {
-		if w.last < 0 || !w.insert(k) {
-			w.deferred = append(w.deferred, k)
+		w.try(k)
+	}
+}
+
+// run inserts ids [lo, hi) but the seed ones, deferring those it cannot.
+func (w *rworker) run(lo, hi int32, isSeed func(int32) bool) {
+	for k := lo; k < hi; k++ {
+		if !isSeed(k) {
+			w.try(k)
 		}
 	}
 }
 
-func (w *rworker) run(lo, hi int32, isSeed func(int32) bool) {
-	for k := lo; k < hi; k++ {
-		if isSeed(k) {
-			continue
-		}
-		if w.last < 0 || !w.insert(k) {
-			w.deferred = append(w.deferred, k)
-		}
+// try inserts id k, or defers it to the sequential pass.
+func (w *rworker) try(k int32) {
+	if w.last < 0 || !w.insert(k) {
+		w.deferred = append(w.deferred, k)
 	}
 }
 
