@@ -28,11 +28,6 @@
 
 package planar
 
-import (
-	"runtime"
-	"sync"
-)
-
 // worker inserts the points of one side.
 type worker struct {
 	b        *builder
@@ -72,19 +67,7 @@ func (b *builder) insertSplit(lo, mid, hi int32, x0 float64, isSeed func(int32) 
 			}
 		}
 	}
-	if runtime.GOMAXPROCS(0) > 1 {
-		var wg sync.WaitGroup
-		wg.Add(1)
-		go func() {
-			defer wg.Done()
-			wr.run(mid, hi, isSeed)
-		}()
-		wl.run(lo, mid, isSeed)
-		wg.Wait()
-	} else {
-		wl.run(lo, mid, isSeed)
-		wr.run(mid, hi, isSeed)
-	}
+	runPair(func() { wl.run(lo, mid, isSeed) }, func() { wr.run(mid, hi, isSeed) })
 	b.nt = wr.nt
 	b.closeGap(wl.nt, wl.end)
 	return append(wl.deferred, wr.deferred...)

@@ -44,9 +44,7 @@ package planar
 
 import (
 	"math"
-	"runtime"
 	"slices"
-	"sync"
 )
 
 // rworker inserts the points of one side into a regular triangulation.
@@ -225,24 +223,6 @@ func (b *rbuilder) hilbertOrder(ids []int32, box bbox) []int32 {
 // splitAgain is the number of points deferred by the first pass from
 // which insertSplit makes the second.
 const splitAgain = 64
-
-// runPair runs f and g, on two goroutines when two CPUs are available.
-// They touch disjoint data, so the outcome is the same either way.
-func runPair(f, g func()) {
-	if runtime.GOMAXPROCS(0) > 1 {
-		var wg sync.WaitGroup
-		wg.Add(1)
-		go func() {
-			defer wg.Done()
-			g()
-		}()
-		f()
-		wg.Wait()
-		return
-	}
-	f()
-	g()
-}
 
 // start sets the walk start to the first live owned triangle below
 // half-edge end (-1: none), outside the gap of unused slots.
