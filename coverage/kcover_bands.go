@@ -26,8 +26,8 @@
 // the level below run within a few ulps of each other (arcs of one circle
 // traced by two constructions, as with own ranges, whose level 1 comes
 // from the power-cell gaps), the exact overlay may refuse its operands
-// (planar.NearDegenerateError). The overlay is then retried with both
-// operands snapped to a coarser grid, KBandSnapBits[i] bits below the
+// (planar.NearDegenerateError). The overlay (the union U_k as well as the
+// intersections and differences) is then retried with its operands snapped to a coarser grid, KBandSnapBits[i] bits below the
 // largest coordinate magnitude (kgCleanRing: exact power-of-two snapping,
 // spikes and repeats removed); a vertex moves by at most that step, far
 // below the chord sagitta, so the outlines stay within the bound above.
@@ -183,7 +183,10 @@ func kbBand(kc *KCoverage, j int, orMore bool, area float64, outline orb.MultiPo
 // kbUnion returns (⋃ mp) ∩ site; polygons the overlay refuses even after
 // repair are left out (kgUnionSimple).
 func kbUnion(mp, site orb.MultiPolygon) (orb.MultiPolygon, error) {
-	u, _, _, err := kgUnionSimple(mp)
+	u, err := kbOverlay(func(a, _ orb.MultiPolygon) (orb.MultiPolygon, error) {
+		u, _, _, err := kgUnionSimple(a)
+		return u, err
+	}, mp, nil)
 	if err != nil {
 		return nil, err
 	}
@@ -191,7 +194,8 @@ func kbUnion(mp, site orb.MultiPolygon) (orb.MultiPolygon, error) {
 }
 
 // kbOverlay returns op(a, b), retried on operands snapped to the grids of
-// KBandSnapBits when the overlay refuses them as near-degenerate.
+// KBandSnapBits when the overlay refuses them as near-degenerate (b may be
+// nil for an operation of one operand).
 func kbOverlay(op func(a, b orb.MultiPolygon) (orb.MultiPolygon, error), a, b orb.MultiPolygon) (orb.MultiPolygon, error) {
 	out, err := op(a, b)
 	var nd *planar.NearDegenerateError
