@@ -96,6 +96,24 @@ func (b *attrBuilder) addCSV(n int, rec []string, cols []int, names []string) {
 	b.done = n
 }
 
+// join appends the CSV columns of o, read from the next part of the same
+// file (the same columns in the same order), to b.
+func (b *attrBuilder) join(o *attrBuilder) {
+	if len(o.cols) == 0 {
+		return
+	}
+	if len(b.cols) == 0 {
+		b.cols = make([]Attribute, len(o.cols))
+		for k, c := range o.cols {
+			b.cols[k] = Attribute{Name: c.Name, Type: c.Type, Values: make([]any, b.done)}
+		}
+	}
+	for k := range b.cols {
+		b.cols[k].Values = append(b.cols[k].Values, o.cols[k].Values...)
+	}
+	b.done += o.done
+}
+
 // addJSON records the members of a Feature's properties object (raw, or
 // nil) for the sites up to n, except name, range and type, and id when
 // idGaveName (keys matched ignoring case, as gjProps reads them). A member given twice counts once, with its last value (as

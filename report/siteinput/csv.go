@@ -179,11 +179,7 @@ const csvPresize = 1 << 24
 func pointsFromCSV(src Source, planarInput, withWeight bool) (s *siteSet, weights []float64, err error) {
 	data := src.Data
 	comma := csvDelimiter(data)
-	r := csv.NewReader(bytes.NewReader(data))
-	r.Comma = comma
-	r.FieldsPerRecord = -1
-	r.TrimLeadingSpace = true
-	r.ReuseRecord = true
+	r := newCSVReader(data, comma)
 	header, err := r.Read()
 	if err != nil {
 		return nil, nil, csvError(src, err)
@@ -192,42 +188,92 @@ func pointsFromCSV(src Source, planarInput, withWeight bool) (s *siteSet, weight
 	if err != nil {
 		return nil, nil, err
 	}
-	decimalComma := comma != ','
-	need := max(l.xi, l.yi, l.wkt, l.weight) + 1
-	s = &siteSet{Lines: true}
+	rr := &csvRowReader{src: src, l: l, comma: comma, fields: len(header),
+		need: max(l.xi, l.yi, l.wkt, l.weight) + 1, planar: planarInput}
+	off := int(r.InputOffset())
+	body := data[off:]
+	line0 := bytes.Count(data[:off], []byte{'\n'})
+	if s, weights, ok := rr.readParallel(body, line0); ok {
+		return s, weights, nil
+	}
 	// One row per line at most: sized once from the line count (capped at
 	// csvPresize rows), the per-site slices are not copied as they grow.
-	rows := min(bytes.Count(data, []byte{'\n'})+1, csvPresize)
+	s = rr.newSet(bytes.Count(body, []byte{'\n'}) + 1)
+	if err := rr.read(body, line0, s, &weights); err != nil {
+		return nil, nil, err
+	}
+	return s, weights, nil
+}
+
+// newCSVReader returns the reader of every CSV part: fields split at comma,
+// any number per record, leading spaces trimmed, the record reused.
+func newCSVReader(data []byte, comma rune) *csv.Reader {
+	r := csv.NewReader(bytes.NewReader(data))
+	r.Comma = comma
+	r.FieldsPerRecord = -1
+	r.TrimLeadingSpace = true
+	r.ReuseRecord = true
+	return r
+}
+
+// csvRowReader reads the data records of one CSV file (after its header).
+type csvRowReader struct {
+	src          Source
+	l            *csvLayout
+	comma        rune
+	fields, need int // header fields; fields a record needs
+	planar       bool
+}
+
+// newSet returns an empty site set with room for rows sites (capped at
+// csvPresize).
+func (rr *csvRowReader) newSet(rows int) *siteSet {
+	rows = min(rows, csvPresize)
+	s := &siteSet{Lines: true}
 	s.Pts, s.Names, s.Src = make([]orb.Point, 0, rows), make([]string, 0, rows), make([]int32, 0, rows)
-	if l.rng >= 0 {
+	if rr.l.rng >= 0 {
 		s.Ranges = []string{} // a range column is a range source even when empty
 	}
-	if l.typ >= 0 {
+	if rr.l.typ >= 0 {
 		s.Types = []string{}
 	}
+	return s
+}
+
+// read appends the records of body, whose first line is line line0+1 of
+// the file, to s and *weights. An error names the file and line.
+func (rr *csvRowReader) read(body []byte, line0 int, s *siteSet, weights *[]float64) error {
+	l, src := rr.l, rr.src
+	decimalComma := rr.comma != ','
+	r := newCSVReader(body, rr.comma)
 	for {
 		rec, err := r.Read()
 		if err == io.EOF {
-			break
+			return nil
 		}
 		if err != nil {
-			return nil, nil, csvError(src, err)
+			var pe *csv.ParseError
+			if errors.As(err, &pe) {
+				pe.StartLine += line0
+			}
+			return csvError(src, err)
 		}
 		line, _ := r.FieldPos(0)
+		line += line0
 		if len(rec) == 1 && strings.TrimSpace(rec[0]) == "" {
 			continue
 		}
-		if len(rec) < need {
-			return nil, nil, errorf("%s line %d: %d fields, the header has %d", src.Name, line, len(rec), len(header))
+		if len(rec) < rr.need {
+			return errorf("%s line %d: %d fields, the header has %d", src.Name, line, len(rec), rr.fields)
 		}
 		x, y, err := l.position(rec, decimalComma)
 		if err == nil {
-			if p := coordProblem(planarInput, x, y); p != "" {
+			if p := coordProblem(rr.planar, x, y); p != "" {
 				err = errors.New(p)
 			}
 		}
 		if err != nil {
-			return nil, nil, errorf("%s line %d: %v", src.Name, line, err)
+			return errorf("%s line %d: %v", src.Name, line, err)
 		}
 		s.Pts = append(s.Pts, orb.Point{x, y})
 		name := ""
@@ -245,12 +291,11 @@ func pointsFromCSV(src Source, planarInput, withWeight bool) (s *siteSet, weight
 		if l.weight >= 0 {
 			w, err := csvWeight(rec[l.weight], decimalComma)
 			if err != nil {
-				return nil, nil, errorf("%s line %d: %v", src.Name, line, err)
+				return errorf("%s line %d: %v", src.Name, line, err)
 			}
-			weights = append(weights, w)
+			*weights = append(*weights, w)
 		}
 	}
-	return s, weights, nil
 }
 
 // field returns the trimmed field i of rec, "" when i < 0 or the record is
