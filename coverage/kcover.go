@@ -853,7 +853,7 @@ func kKeep(st *kStore, kept *planar.ClipRings, j0, j1 int, label int32, v int32,
 		n := len(ring) / 2
 		for a := 0; a < n; a++ {
 			b := (a + 1) % n
-			near = math.Min(near, kSegDist(ring[2*a], ring[2*a+1], ring[2*b], ring[2*b+1], qx, qy))
+			near = math.Min(near, planar.PointSegmentDistance(qx, qy, ring[2*a], ring[2*a+1], ring[2*b], ring[2*b+1]))
 		}
 	}
 	st.v = append(st.v, v)
@@ -864,16 +864,6 @@ func kKeep(st *kStore, kept *planar.ClipRings, j0, j1 int, label int32, v int32,
 	st.fx = append(st.fx, p.fx)
 	st.fy = append(st.fy, p.fy)
 	st.start = append(st.start, int32(st.rings.NumRings()))
-}
-
-// kSegDist returns the distance from (px, py) to the segment ab.
-func kSegDist(ax, ay, bx, by, px, py float64) float64 {
-	dx, dy := bx-ax, by-ay
-	t := 0.0
-	if l2 := dx*dx + dy*dy; l2 > 0 {
-		t = min(1, max(0, ((px-ax)*dx+(py-ay)*dy)/l2))
-	}
-	return math.Hypot(ax+t*dx-px, ay+t*dy-py)
 }
 
 // kGraph is the Delaunay graph in compressed rows (the neighbours of
