@@ -292,7 +292,7 @@ func (kc *KCoverage) pieceJoins(l *Layout, lv *KLevel, st, i int32, segs [][]flo
 		best, bd := int32(-1), math.Inf(1)
 		osg := segs[other]
 		for j2 := 0; j2+4 < len(osg); j2 += 5 {
-			if d := kSegDist(osg[j2], osg[j2+1], osg[j2+2], osg[j2+3], mx, my); d < bd {
+			if d := planar.PointSegmentDistance(mx, my, osg[j2], osg[j2+1], osg[j2+2], osg[j2+3]); d < bd {
 				bd, best = d, int32(osg[j2+4])
 			}
 		}

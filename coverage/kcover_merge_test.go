@@ -262,7 +262,7 @@ func kMergeComponents(mp orb.MultiPolygon, tol float64) int {
 		ring := b[0]
 		for _, p := range a[0] {
 			for k := 0; k+1 < len(ring); k++ {
-				if kSegDist(ring[k][0], ring[k][1], ring[k+1][0], ring[k+1][1], p[0], p[1]) <= tol {
+				if planar.PointSegmentDistance(p[0], p[1], ring[k][0], ring[k][1], ring[k+1][0], ring[k+1][1]) <= tol {
 					return true
 				}
 			}
@@ -329,7 +329,7 @@ func kMergeSamples(a, ref orb.MultiPolygon) int {
 		for _, pg := range mp {
 			for _, r := range pg {
 				for i := 1; i < len(r); i++ {
-					if kSegDist(r[i-1][0], r[i-1][1], r[i][0], r[i][1], x, y) <= kMergeRefEdge*m {
+					if planar.PointSegmentDistance(x, y, r[i-1][0], r[i-1][1], r[i][0], r[i][1]) <= kMergeRefEdge*m {
 						return true
 					}
 				}

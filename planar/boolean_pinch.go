@@ -153,7 +153,11 @@ func (r *booleanRings) pullBackClear(g *regionGrid, prev []int32, i int32, x, y 
 // pinchClearance returns the distance from the pinch vertex of group (its
 // passages' ring positions) to the nearest ring edge not incident to it,
 // searched within the largest of the passages' shorter edges (a farther
-// edge cannot limit δ).
+// edge cannot limit δ). The distances are measured from each edge's
+// nearer endpoint (PointSegmentDistance): from the farther one, a long
+// edge passing close to the pinch (a polygon reaching a million times
+// farther than the pinch's features) can round the distance to 0, which
+// would cancel every pull-back at the pinch.
 func (r *booleanRings) pinchClearance(g *regionGrid, prev, group []int32) float64 {
 	next := g.next
 	v := group[0]
@@ -168,27 +172,7 @@ func (r *booleanRings) pinchClearance(g *regionGrid, prev, group []int32) float6
 		if r.vid[e] == r.vid[v] || r.vid[n] == r.vid[v] {
 			return
 		}
-		c = math.Min(c, booleanPointSegDist(vx, vy, r.xy[2*e], r.xy[2*e+1], r.xy[2*n], r.xy[2*n+1]))
+		c = math.Min(c, PointSegmentDistance(vx, vy, r.xy[2*e], r.xy[2*e+1], r.xy[2*n], r.xy[2*n+1]))
 	})
 	return c
-}
-
-// booleanPointSegDist returns the distance from p to segment ab (float64,
-// used only to size a pull-back). It measures from the endpoint nearer to
-// p: from the farther one, p − a − t·(b − a) carries a rounding error of
-// ulps of |b − a|, and for a long edge passing close to p (a polygon
-// reaching a million times farther than the pinch's features) that error
-// exceeds the distance sought, which then comes out 0 and cancels every
-// pull-back at the pinch. From the nearer endpoint the error is ulps of
-// |p − a|, which the distance is at most.
-func booleanPointSegDist(px, py, ax, ay, bx, by float64) float64 {
-	if math.Hypot(bx-px, by-py) < math.Hypot(ax-px, ay-py) {
-		ax, ay, bx, by = bx, by, ax, ay
-	}
-	dx, dy := bx-ax, by-ay
-	t := 0.0
-	if l2 := dx*dx + dy*dy; l2 > 0 {
-		t = math.Max(0, math.Min(1, ((px-ax)*dx+(py-ay)*dy)/l2))
-	}
-	return math.Hypot(px-ax-t*dx, py-ay-t*dy)
 }

@@ -286,11 +286,10 @@ func booleanNearPair(a, b orb.MultiPolygon, x, y float64) bool {
 					if l2 == 0 {
 						continue
 					}
-					t := math.Max(0, math.Min(1, ((x-ax)*dx+(y-ay)*dy)/l2))
 					// A crossing on this edge is rounded at the ulps of its
 					// endpoints' magnitude, however small the point's own.
 					edgeEps := max(eps, booleanNearRel*max(math.Abs(ax), math.Abs(ay), math.Abs(bx), math.Abs(by)))
-					if math.Hypot(ax+t*dx-x, ay+t*dy-y) <= edgeEps {
+					if PointSegmentDistance(x, y, ax, ay, bx, by) <= edgeEps {
 						dirs = append(dirs, math.Atan2(dy, dx))
 					}
 				}

@@ -307,7 +307,7 @@ func clipCheckPowerCells(t *testing.T, tri *Triangulation, wt []float64, reg *Re
 			for _, p := range [][2]float64{{e.x0, e.y0}, {e.x1, e.y1}, {(e.x0 + e.x1) / 2, (e.y0 + e.y1) / 2}} {
 				near := false
 				for _, f := range back {
-					if clipSegDist(p[0], p[1], f.x0, f.y0, f.x1, f.y1) <= tol {
+					if PointSegmentDistance(p[0], p[1], f.x0, f.y0, f.x1, f.y1) <= tol {
 						near = true
 						break
 					}
@@ -319,16 +319,6 @@ func clipCheckPowerCells(t *testing.T, tri *Triangulation, wt []float64, reg *Re
 			}
 		}
 	}
-}
-
-// clipSegDist is the distance from p to the segment ab.
-func clipSegDist(px, py, ax, ay, bx, by float64) float64 {
-	dx, dy := bx-ax, by-ay
-	t := 0.0
-	if l := dx*dx + dy*dy; l > 0 {
-		t = math.Max(0, math.Min(1, ((px-ax)*dx+(py-ay)*dy)/l))
-	}
-	return math.Hypot(px-ax-t*dx, py-ay-t*dy)
 }
 
 // clipTestRegion is a non-convex polygon with a hole plus a second part,
