@@ -1,5 +1,5 @@
 // Splitting a region by the Voronoi diagram of a few candidate devices:
-// the step shared by the order-k pieces (kcover.go) and the single-failure
+// the step shared by the order-k pieces (kcover_pieces.go) and the single-failure
 // analysis (plan_failures.go).
 //
 // Given a region R (a clipped cell piece, as planar.ClipRings) and

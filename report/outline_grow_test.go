@@ -76,12 +76,7 @@ func (g *growScene) nearBoundary(p orb.Point, d float64) bool {
 
 // segDist is the distance from p to the segment ab.
 func segDist(p, a, b orb.Point) float64 {
-	dx, dy := b[0]-a[0], b[1]-a[1]
-	t := 0.0
-	if l2 := dx*dx + dy*dy; l2 > 0 {
-		t = max(0, min(1, ((p[0]-a[0])*dx+(p[1]-a[1])*dy)/l2))
-	}
-	return math.Hypot(p[0]-a[0]-t*dx, p[1]-a[1]-t*dy)
+	return planar.PointSegmentDistance(p[0], p[1], a[0], a[1], b[0], b[1])
 }
 
 // reachedBy counts the disks containing p.
