@@ -29,7 +29,7 @@ const (
 // of sites, unless GOMEMLIMIT is set, and prepares the heap for huge pages
 // (hugepages_linux.go).
 func setMemoryLimit(sites int) {
-	limit := max(int64(sites)*memLimitPerSite, memLimitFloor)
+	limit := memoryLimitFor(sites)
 	// Before the limit: with it set, the block adviseHugePages takes and
 	// frees puts the heap over the limit, and the runtime may then return
 	// memory to the kernel in the allocating goroutine (3 s stalls were
@@ -38,4 +38,10 @@ func setMemoryLimit(sites int) {
 	if _, set := os.LookupEnv("GOMEMLIMIT"); !set {
 		debug.SetMemoryLimit(limit)
 	}
+}
+
+// memoryLimitFor is the soft memory limit of a run on the given number of
+// sites.
+func memoryLimitFor(sites int) int64 {
+	return max(int64(sites)*memLimitPerSite, memLimitFloor)
 }

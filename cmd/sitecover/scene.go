@@ -7,6 +7,7 @@ package main
 import (
 	"errors"
 	"fmt"
+	"os"
 
 	"github.com/paulmach/orb"
 	"github.com/sitecover/sitecover/planar"
@@ -39,8 +40,12 @@ func fromInput(err error) error {
 	return err
 }
 
-// readSource reads the file given to flag (e.g. "--sites").
+// readSource reads the file given to flag (e.g. "--sites"). A large file
+// first has the heap advised for huge pages (hugepages_linux.go).
 func readSource(path, flag string) (siteinput.Source, error) {
+	if fi, err := os.Stat(path); err == nil && fi.Mode().IsRegular() {
+		adviseHugePagesForInput(fi.Size())
+	}
 	s, err := siteinput.ReadFile(path, flag)
 	return s, fromInput(err)
 }
