@@ -193,6 +193,7 @@ func Load(in Inputs) (*Scene, error) {
 	}
 
 	t2 := time.Now()
+	repeats := startRepeats(sc.Sites, sites.Names)
 	var region *planar.Region
 	if len(polys) == 0 {
 		hull := planar.ConvexHull(sc.Sites)
@@ -227,7 +228,7 @@ func Load(in Inputs) (*Scene, error) {
 		sc.AreaRelError = (1+m)*(1+m) - 1 + sc.EdgeAreaError
 	}
 	sc.Region = region
-	sc.Warnings = append(sc.Warnings, siteWarnings(sc.Sites, sites.Names, region)...)
+	sc.Warnings = append(sc.Warnings, siteWarnings(sc.Sites, sites.Names, region, repeats)...)
 	sc.Timings = append(sc.Timings, coverage.Timing{Phase: "build area", Seconds: time.Since(t2).Seconds()})
 	return sc, nil
 }
@@ -477,32 +478,78 @@ func defaultTitle(in Inputs, polys []areaPoly) string {
 
 // siteWarnings reports sites outside the area (they still serve it) and
 // sites at exactly the position of an earlier one (they share its service
-// area), listing up to five of each.
-func siteWarnings(sites []orb.Point, names []string, region *planar.Region) []string {
-	label := func(i int) string { return DeviceLabel(names, i) }
-	list := func(idx []string, total int) string {
-		s := strings.Join(idx, ", ")
-		if total > len(idx) {
-			s += fmt.Sprintf(" and %d more", total-len(idx))
-		}
-		return s
-	}
+// area), listing up to five of each. The repeats are looked for beside
+// the area's construction (startRepeats), the outside sites in parallel
+// parts.
+func siteWarnings(sites []orb.Point, names []string, region *planar.Region, repeats <-chan string) []string {
 	var warn []string
+	if w := outsideWarning(sites, names, region); w != "" {
+		warn = append(warn, w)
+	}
+	if w := <-repeats; w != "" {
+		warn = append(warn, w)
+	}
+	return warn
+}
+
+// warnList joins up to five labels, saying how many more there are.
+func warnList(idx []string, total int) string {
+	s := strings.Join(idx, ", ")
+	if total > len(idx) {
+		s += fmt.Sprintf(" and %d more", total-len(idx))
+	}
+	return s
+}
+
+// outsideWarning reports the sites outside the area, or "". The sites are
+// tested in parallel parts; the first five outside, in input order, are
+// named.
+func outsideWarning(sites []orb.Point, names []string, region *planar.Region) string {
 	ix := region.Index()
-	var outside []string
+	const chunk = 1 << 16
+	parts := (len(sites) + chunk - 1) / chunk
+	count := make([]int, parts)
+	first := make([][]int, parts)
+	planar.ParallelChunks(len(sites), chunk, 0, func(ci, lo, hi int) {
+		for i := lo; i < hi; i++ {
+			if p := sites[i]; !ix.Contains(p[0], p[1]) {
+				count[ci]++
+				if len(first[ci]) < 5 {
+					first[ci] = append(first[ci], i)
+				}
+			}
+		}
+	})
 	nOut := 0
-	for i, p := range sites {
-		if !ix.Contains(p[0], p[1]) {
-			nOut++
+	var outside []string
+	for ci := range parts {
+		nOut += count[ci]
+		for _, i := range first[ci] {
 			if len(outside) < 5 {
-				outside = append(outside, label(i))
+				outside = append(outside, DeviceLabel(names, i))
 			}
 		}
 	}
-	if nOut > 0 {
-		warn = append(warn, fmt.Sprintf("%d of %d sites lie outside the area (their disks still count where they reach in): %s",
-			nOut, len(sites), list(outside, nOut)))
+	if nOut == 0 {
+		return ""
 	}
+	return fmt.Sprintf("%d of %d sites lie outside the area (their disks still count where they reach in): %s",
+		nOut, len(sites), warnList(outside, nOut))
+}
+
+// startRepeats looks for sites at the position of an earlier one in a
+// goroutine of its own and sends the warning (or "") on the channel it
+// returns.
+func startRepeats(sites []orb.Point, names []string) <-chan string {
+	out := make(chan string, 1)
+	go func() { out <- repeatWarning(sites, names) }()
+	return out
+}
+
+// repeatWarning reports the sites at exactly the position of an earlier
+// one, or "".
+func repeatWarning(sites []orb.Point, names []string) string {
+	label := func(i int) string { return DeviceLabel(names, i) }
 	var dups []string
 	nDup := 0
 	planar.Repeats(sites, func(i, j int) {
@@ -515,14 +562,14 @@ func siteWarnings(sites []orb.Point, names []string, region *planar.Region) []st
 			dups = append(dups, a+" = "+b)
 		}
 	})
-	if nDup > 0 {
-		what := "sites repeat the exact position of an earlier site and share its service area"
-		if nDup == 1 {
-			what = "site repeats the exact position of an earlier site and shares its service area"
-		}
-		warn = append(warn, fmt.Sprintf("%d %s: %s", nDup, what, list(dups, nDup)))
+	if nDup == 0 {
+		return ""
 	}
-	return warn
+	what := "sites repeat the exact position of an earlier site and share its service area"
+	if nDup == 1 {
+		what = "site repeats the exact position of an earlier site and shares its service area"
+	}
+	return fmt.Sprintf("%d %s: %s", nDup, what, warnList(dups, nDup))
 }
 
 // DeviceLabel returns how every text output and map names input site i
