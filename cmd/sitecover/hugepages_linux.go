@@ -67,11 +67,22 @@ var (
 	hugeAdvised int64
 )
 
+// hugeAdviseEarlyMax caps the block taken before an input is read: enough
+// for reading 10⁷ sites (the file and the parsed arrays); the run's own
+// block follows once the sites are counted.
+const hugeAdviseEarlyMax = 1 << 30
+
 // adviseHugePagesForInput prepares the heap before an input file of the
-// given size is read, for the sites it may hold (inputSiteBytes each).
-func adviseHugePagesForInput(size int64) {
+// given size is read, for the sites it may hold (inputSiteBytes each, the
+// block at most hugeAdviseEarlyMax). head is the file's first bytes: a
+// file with a NUL byte there is binary, refused by the reader at once,
+// and gets no advice.
+func adviseHugePagesForInput(size int64, head []byte) {
+	if bytes.IndexByte(head, 0) >= 0 {
+		return
+	}
 	sites := size / inputSiteBytes
-	adviseHugePages(int(sites), memoryLimitFor(int(sites)))
+	adviseHugePages(int(sites), min(memoryLimitFor(int(sites)), hugeAdviseEarlyMax))
 }
 
 // adviseHugePages prepares the heap of a run on the given number of sites

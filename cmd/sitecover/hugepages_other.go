@@ -6,4 +6,4 @@ package main
 func adviseHugePages(sites int, limit int64) {}
 
 // adviseHugePagesForInput: huge-page advice is Linux-only.
-func adviseHugePagesForInput(size int64) {}
+func adviseHugePagesForInput(size int64, head []byte) {}
