@@ -341,7 +341,8 @@ type layerDef struct {
 	fields []gpkg.Field      // property names and types, in order
 	each   func(emit emitFunc) error
 	// lead marks a layer whose features take long to produce (one huge
-	// feature): writeAll starts it before the other steps.
+	// feature, or many large ones): writeAll starts it before the other
+	// steps.
 	lead bool
 }
 
