@@ -510,10 +510,9 @@ func (s *scene) gapFields() []gpkg.Field {
 // gapLayer is a gaps layer for gaps at range r; deepest gives gap i's
 // deepest point in output coordinates. Outlines are grown by the rounding
 // reach before rounding, so each written one contains its gap
-// (outline_grow.go). It is a lead layer: with the covered area, the
-// longest step of a large report.
+// (outline_grow.go).
 func (s *scene) gapLayer(gaps []coverage.Gap, r float64, deepest func(i int) Point) *layerDef {
-	return &layerDef{geom: gpkg.MultiPolygon, fields: s.gapFields(), lead: true,
+	return &layerDef{geom: gpkg.MultiPolygon, fields: s.gapFields(),
 		each: func(emit emitFunc) error {
 			var buf polyBuf
 			vals := make([]value, 8)     // reused: emit encodes a feature before it returns

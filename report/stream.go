@@ -341,8 +341,7 @@ type layerDef struct {
 	fields []gpkg.Field      // property names and types, in order
 	each   func(emit emitFunc) error
 	// lead marks a layer whose features take long to produce (one huge
-	// feature, or many large ones): writeAll starts it before the other
-	// steps.
+	// feature): writeAll starts it before the other steps.
 	lead bool
 }
 

@@ -227,11 +227,9 @@ func (w *writer) writeAll(s *scene, steps []step) error {
 }
 
 // leadFirst returns the order in which writeAll starts steps: the layer
-// steps marked lead (the longest: the covered area, one huge feature
-// converted and checked in one piece, and the gaps) first, so that the
-// longest steps are not the last to begin, then the others in step
-// order. (At 10⁷ geographic sites the gaps layer, started after
-// summary.json, ran alone on one core for its last 3 s.)
+// steps marked lead (a layer of one huge feature, converted and checked
+// in one piece: the covered area) first, so that the longest step is not
+// the last to begin, then the others in step order.
 func leadFirst(steps []step) []int {
 	order := make([]int, 0, len(steps))
 	for i, st := range steps {
