@@ -245,3 +245,26 @@ func (l *Layout) ServiceAreas() []ServiceArea {
 	sort.Slice(out, func(i, j int) bool { return out[i].Site < out[j].Site })
 	return out
 }
+
+// FirstServiceAreas returns the first n entries of ServiceAreas (site
+// order) and the number of service areas, computing only those n: the
+// capped lists of a summary need no more. O(sites) to scan for them and
+// their merged duplicates, O(n) cells.
+func (l *Layout) FirstServiceAreas(n int) (first []ServiceArea, total int) {
+	at := map[int32]int{} // vertex → its index in first
+	for i, v := range l.Tri.Vertex {
+		if len(first) >= n {
+			break
+		}
+		if v >= 0 && int32(i) == l.Tri.Source[v] {
+			at[v] = len(first)
+			first = append(first, l.ServiceArea(v))
+		}
+	}
+	for i, v := range l.Tri.Vertex {
+		if k, ok := at[v]; ok && int32(i) != l.Tri.Source[v] {
+			first[k].Merged = append(first[k].Merged, i)
+		}
+	}
+	return first, l.numVertices()
+}

@@ -8,8 +8,10 @@
 package coverage
 
 import (
+	"fmt"
 	"math"
 	"math/rand/v2"
+	"reflect"
 	"strings"
 	"testing"
 
@@ -265,5 +267,42 @@ func TestUncoveredAreaSitesOutside(t *testing.T) {
 	// Reference: the farthest corners (10, 0), (10, 10) at √(15² + 5²).
 	if fc := one.FullCover(); math.Abs(fc.Range-math.Hypot(15, 5)) > 1e-12 || len(fc.Worst) != 2 {
 		t.Errorf("full cover %+v, want √250 at two corners", fc)
+	}
+}
+
+// TestFirstServiceAreas checks the capped list against the whole one: the
+// same first n entries (duplicates merged likewise) and the same count,
+// on a layout with repeated positions in shuffled input order.
+func TestFirstServiceAreas(t *testing.T) {
+	reg := cvRegion(t, [][]orb.Point{cvRect(0, 0, 100, 100)})
+	var sites []orb.Point
+	for i := range 400 {
+		sites = append(sites, orb.Point{float64((i*37)%97) + 0.5*float64(i%3), float64((i*53)%89) + 0.25})
+	}
+	sites = append(sites, sites[5], sites[300], sites[5], sites[0]) // repeats, late in the input
+	l := cvLayout(t, sites, reg)
+	all := l.ServiceAreas()
+	for _, n := range []int{0, 1, 7, 300, len(all), len(all) + 10} {
+		t.Run(fmt.Sprint(n), func(t *testing.T) {
+			first, total := l.FirstServiceAreas(n)
+			if total != len(all) {
+				t.Fatalf("total %d, want %d", total, len(all))
+			}
+			want := all[:min(n, len(all))]
+			if len(first) != len(want) {
+				t.Fatalf("%d entries, want %d", len(first), len(want))
+			}
+			for i := range want {
+				if !reflect.DeepEqual(first[i], want[i]) {
+					t.Fatalf("entry %d = %+v, want %+v", i, first[i], want[i])
+				}
+			}
+		})
+	}
+	first, _ := l.FirstServiceAreas(10)
+	for _, sa := range first {
+		if sa.Site == 5 && !equalInts(sa.Merged, []int{400, 402}) {
+			t.Errorf("site 5's merged duplicates %v, want [400 402]", sa.Merged)
+		}
 	}
 }

@@ -19,6 +19,7 @@ import (
 
 	"github.com/paulmach/orb"
 	"github.com/sitecover/sitecover/coverage"
+	"github.com/sitecover/sitecover/planar"
 	"github.com/sitecover/sitecover/report/siteinput"
 )
 
@@ -28,7 +29,12 @@ type scene struct {
 	a     *coverage.Analysis // nil for the cells command
 	m     Meta
 	cells []coverage.ServiceArea
-	files []string // output files, for the FILES section of report.txt
+	// capped marks a scene for a capped summary document only
+	// (newCappedScene): cells holds the first listMax service areas of
+	// cellsTotal, and the listed key points are converted one by one.
+	capped     bool
+	cellsTotal int
+	files      []string // output files, for the FILES section of report.txt
 	// listMax caps each long list of summary.json (0: no cap); see
 	// SummaryListMax.
 	listMax int
@@ -45,6 +51,9 @@ type scene struct {
 	// computed once.
 	notesOnce sync.Once
 	holeNotes []string
+	// siteIx locates points in the site area (siteAreaIndex), built once.
+	siteIxOnce sync.Once
+	siteIx     *planar.RegionIndex
 
 	// grid, when set, makes point convert to a projected output system
 	// (outcrs.go); extraDigits and unrounded refine point's rounding for
@@ -64,6 +73,28 @@ func newScene(l *coverage.Layout, a *coverage.Analysis, m Meta) *scene {
 		s.cells = l.ServiceAreas()
 	}
 	return s
+}
+
+// newCappedScene is a scene for a capped summary document alone (the
+// summary printed beside a report): it gathers only the first
+// SummaryListMax service areas, not all (at 10⁷ sites the whole list, its
+// farthest points and their conversion cost seconds), and converts only
+// the key points listed.
+func newCappedScene(l *coverage.Layout, a *coverage.Analysis, m Meta) *scene {
+	s := &scene{l: l, a: a, m: m, area: new(areaEdgesOnce), listMax: SummaryListMax, capped: true}
+	if l != nil {
+		s.cells, s.cellsTotal = l.FirstServiceAreas(SummaryListMax)
+	}
+	return s
+}
+
+// numCells returns the number of service areas (of which a capped scene
+// holds only the first).
+func (s *scene) numCells() int {
+	if s.capped {
+		return s.cellsTotal
+	}
+	return len(s.cells)
 }
 
 // listed returns how many of n list entries summary.json holds.
@@ -126,9 +157,28 @@ func (s *scene) points(n int, at func(int) orb.Point) []Point {
 // farthestOut, deepestOut and closingOut return the converted farthest
 // point of service area i (index into s.cells), deepest point of gap i
 // and closing point of hole i.
-func (s *scene) farthestOut(i int) Point { s.convertKeyPoints(); return s.farOut[i] }
-func (s *scene) deepestOut(i int) Point  { s.convertKeyPoints(); return s.deepOut[i] }
-func (s *scene) closingOut(i int) Point  { s.convertKeyPoints(); return s.closeOut[i] }
+// A capped scene converts each listed point alone (the same conversion).
+func (s *scene) farthestOut(i int) Point {
+	if s.capped {
+		return s.point(s.cells[i].FarthestPoint)
+	}
+	s.convertKeyPoints()
+	return s.farOut[i]
+}
+func (s *scene) deepestOut(i int) Point {
+	if s.capped {
+		return s.point(s.a.Gaps[i].Deepest)
+	}
+	s.convertKeyPoints()
+	return s.deepOut[i]
+}
+func (s *scene) closingOut(i int) Point {
+	if s.capped {
+		return s.point(s.a.Persistence.Holes[i].DeathPoint)
+	}
+	s.convertKeyPoints()
+	return s.closeOut[i]
+}
 
 // round rounds v to d decimals (half away from zero). Values too large to
 // scale are returned unchanged.

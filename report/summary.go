@@ -261,15 +261,12 @@ func Summary(a *coverage.Analysis, m Meta) *SummaryDoc {
 // (Summary's document of 10⁷ devices takes gigabytes), so a caller that
 // only prints or checks the summary after writing a report should use it.
 func SummaryCapped(a *coverage.Analysis, m Meta) *SummaryDoc {
-	s := newScene(a.Layout, a, m)
-	s.listMax = SummaryListMax
-	return s.summary()
+	return newCappedScene(a.Layout, a, m).summary()
 }
 
 // CellsSummary builds the summary.json document of the cells command.
 func CellsSummary(l *coverage.Layout, m Meta) *CellsDoc {
-	s := newScene(l, nil, m)
-	return s.cellsSummary()
+	return newScene(l, nil, m).cellsSummary()
 }
 
 // MarshalIndent encodes the document as indented JSON ending in a newline.
@@ -390,7 +387,7 @@ func (s *scene) summary() *SummaryDoc {
 		Pieces:           a.Pieces,
 		OpenHoles:        a.EnclosedHoles,
 		Cells:            s.summaryCells(),
-		CellsTotal:       len(s.cells),
+		CellsTotal:       s.numCells(),
 		Projection:       s.projection(),
 		MaxScaleError:    s.m.MaxScaleError,
 		Coordinates:      s.coordKind(),
@@ -429,7 +426,7 @@ func (s *scene) cellsSummary() *CellsDoc {
 		AreaM2:        s.l.AreaM2,
 		AreaFromHull:  s.m.AreaFromHull,
 		Cells:         s.summaryCells(),
-		CellsTotal:    len(s.cells),
+		CellsTotal:    s.numCells(),
 		Projection:    s.projection(),
 		MaxScaleError: s.m.MaxScaleError,
 		Coordinates:   s.coordKind(),

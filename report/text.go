@@ -580,28 +580,48 @@ func gapKind(g coverage.Gap) string {
 // joined, or "". The marks are computed once for all holes, with one
 // index over the area's edges.
 func (s *scene) holeNote(i int) string {
+	if s.capped { // a few listed holes: each alone
+		return holeNoteOf(&s.a.Persistence.Holes[i], briefHoleFraction*s.a.Range, s.siteAreaIndex())
+	}
 	s.notesOnce.Do(func() {
 		holes := s.a.Persistence.Holes
 		tol := briefHoleFraction * s.a.Range
-		var ix *planar.RegionIndex
-		if s.l.Area != nil && len(holes) > 0 {
-			ix = s.l.Area.Index()
-		}
+		ix := s.siteAreaIndex()
 		s.holeNotes = make([]string, len(holes))
-		for k, h := range holes {
-			out := ix != nil && !ix.Contains(h.DeathPoint[0], h.DeathPoint[1])
-			brief := h.Death-h.Birth < tol
-			switch {
-			case out && brief:
-				s.holeNotes[k] = "outside site, brief"
-			case out:
-				s.holeNotes[k] = "outside site"
-			case brief:
-				s.holeNotes[k] = "brief"
+		planar.ParallelChunks(len(holes), 1<<14, 0, func(_, lo, hi int) {
+			for k := lo; k < hi; k++ {
+				s.holeNotes[k] = holeNoteOf(&holes[k], tol, ix)
 			}
-		}
+		})
 	})
 	return s.holeNotes[i]
+}
+
+// siteAreaIndex returns the point-location index of the site area, built
+// once, or nil when the layout has no area.
+func (s *scene) siteAreaIndex() *planar.RegionIndex {
+	s.siteIxOnce.Do(func() {
+		if s.l.Area != nil {
+			s.siteIx = s.l.Area.Index()
+		}
+	})
+	return s.siteIx
+}
+
+// holeNoteOf is the note of one hole (holeNote): its closing point
+// outside the site area (ix, nil for none), its life shorter than tol.
+func holeNoteOf(h *coverage.Hole, tol float64, ix *planar.RegionIndex) string {
+	out := ix != nil && !ix.Contains(h.DeathPoint[0], h.DeathPoint[1])
+	brief := h.Death-h.Birth < tol
+	switch {
+	case out && brief:
+		return "outside site, brief"
+	case out:
+		return "outside site"
+	case brief:
+		return "brief"
+	}
+	return ""
 }
 
 func (s *scene) textAccuracy(b *textBuf) {
