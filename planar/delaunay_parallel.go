@@ -228,6 +228,16 @@ func (w *worker) insert(i int32) bool {
 			b.hedge[us[j]] = s
 		}
 	}
+	linkFan(half, slots, us, vs)
+	w.last = slots[0]
+	return true
+}
+
+// linkFan joins the fan of triangles around a new vertex i: the triangle
+// in slots[j] is (us[j], vs[j], i), its edge v→i (slot+1) lies across
+// the edge i→u (slot+2) of the triangle whose u is its v. The fan is
+// small (at most maxCavity+2 triangles): a scan finds each neighbour.
+func linkFan(half, slots, us, vs []int32) {
 	for j, s := range slots {
 		v := vs[j]
 		for m, u := range us {
@@ -239,8 +249,6 @@ func (w *worker) insert(i int32) bool {
 			}
 		}
 	}
-	w.last = slots[0]
-	return true
 }
 
 // edge examines half-edge e = u→v of a cavity triangle: the triangle

@@ -477,17 +477,7 @@ search:
 		half[s] = o
 		half[o] = s
 	}
-	for j, s := range slots {
-		v := vs[j]
-		for m, u := range us[:nb] {
-			if u == v {
-				sm := slots[m]
-				half[s+1] = sm + 2
-				half[sm+2] = s + 1
-				break
-			}
-		}
-	}
+	linkFan(half, slots, us[:nb], vs[:nb])
 	w.last = slots[0]
 	w.grid[w.cell(p.x, p.y)] = slots[0]
 	return true
