@@ -233,15 +233,11 @@ func taupf(tau, e float64) float64 {
 }
 
 // geodeticLatitude returns the latitude φ (radians) whose conformal
-// latitude χ has sin χ ∝ s and cos χ ∝ r (r ≥ 0, not both zero), by the
-// series φ = χ + Σⱼ δ[j] sin(2jχ) (file comment), summed by Clenshaw's
-// recurrence from sin 2χ and cos 2χ computed from s and r directly.
-func geodeticLatitude(delta *[krugerOrder + 1]float64, s, r float64) float64 {
-	return geodeticLatitudeH(delta, s, r, math.Hypot(s, r))
-}
-
-// geodeticLatitudeH is geodeticLatitude with h = √(s² + r²) given.
-func geodeticLatitudeH(delta *[krugerOrder + 1]float64, s, r, h float64) float64 {
+// latitude χ has sin χ ∝ s and cos χ ∝ r (r ≥ 0, not both zero), with
+// h = √(s² + r²) given, by the series φ = χ + Σⱼ δ[j] sin(2jχ) (file
+// comment), summed by Clenshaw's recurrence from sin 2χ and cos 2χ
+// computed from s, r and h directly.
+func geodeticLatitude(delta *[krugerOrder + 1]float64, s, r, h float64) float64 {
 	chi := math.Atan2(s, r)
 	sc, cc := s/h, r/h // sin χ, cos χ
 	sin2, cos2 := 2*sc*cc, (cc-sc)*(cc+sc)
@@ -386,7 +382,7 @@ func (tm *TransverseMercator) lonLat(s, c, sh, ch float64) (lon, lat float64) {
 	}
 	var phi, lam float64
 	if r != 0 {
-		phi = geodeticLatitudeH(&tm.delta, s, r, ch)
+		phi = geodeticLatitude(&tm.delta, s, r, ch)
 		lam = math.Atan2(sh, c)
 	} else { // a pole
 		phi = math.Copysign(math.Pi/2, s)
