@@ -7,8 +7,6 @@ package main
 import (
 	"errors"
 	"fmt"
-	"io"
-	"os"
 
 	"github.com/paulmach/orb"
 	"github.com/sitecover/sitecover/planar"
@@ -44,14 +42,7 @@ func fromInput(err error) error {
 // readSource reads the file given to flag (e.g. "--sites"). A large file
 // first has the heap advised for huge pages (hugepages_linux.go).
 func readSource(path, flag string) (siteinput.Source, error) {
-	if fi, err := os.Stat(path); err == nil && fi.Mode().IsRegular() && fi.Size() >= 1<<20 {
-		if f, err := os.Open(path); err == nil {
-			head := make([]byte, 4096)
-			n, _ := io.ReadFull(f, head)
-			f.Close()
-			adviseHugePagesForInput(fi.Size(), head[:n])
-		}
-	}
+	adviseHugePagesForFile(path)
 	s, err := siteinput.ReadFile(path, flag)
 	return s, fromInput(err)
 }
