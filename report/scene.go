@@ -19,7 +19,6 @@ import (
 
 	"github.com/paulmach/orb"
 	"github.com/sitecover/sitecover/coverage"
-	"github.com/sitecover/sitecover/planar"
 	"github.com/sitecover/sitecover/report/siteinput"
 )
 
@@ -31,7 +30,8 @@ type scene struct {
 	cells []coverage.ServiceArea
 	// capped marks a scene for a capped summary document only
 	// (newCappedScene): cells holds the first listMax service areas of
-	// cellsTotal, and the listed key points are converted one by one.
+	// cellsTotal, and only the listed entries' key points and notes are
+	// computed (kept).
 	capped     bool
 	cellsTotal int
 	files      []string // output files, for the FILES section of report.txt
@@ -51,9 +51,6 @@ type scene struct {
 	// computed once.
 	notesOnce sync.Once
 	holeNotes []string
-	// siteIx locates points in the site area (siteAreaIndex), built once.
-	siteIxOnce sync.Once
-	siteIx     *planar.RegionIndex
 
 	// grid, when set, makes point convert to a projected output system
 	// (outcrs.go); extraDigits and unrounded refine point's rounding for
@@ -97,6 +94,15 @@ func (s *scene) numCells() int {
 	return len(s.cells)
 }
 
+// kept returns how many of n list entries the scene uses: those listed
+// when it is capped, else all.
+func (s *scene) kept(n int) int {
+	if s.capped {
+		return s.listed(n)
+	}
+	return n
+}
+
 // listed returns how many of n list entries summary.json holds.
 func (s *scene) listed(n int) int {
 	if s.listMax > 0 {
@@ -123,16 +129,17 @@ func (s *scene) point(p orb.Point) Point {
 }
 
 // convertKeyPoints fills farOut, deepOut and closeOut (in parallel: with
-// geographic output each is an inverse projection).
+// geographic output each is an inverse projection), for the entries the
+// scene uses (kept).
 func (s *scene) convertKeyPoints() {
 	s.keyOnce.Do(func() {
 		s.farOut = s.points(len(s.cells), func(i int) orb.Point { return s.cells[i].FarthestPoint })
 		if s.a == nil {
 			return
 		}
-		s.deepOut = s.points(len(s.a.Gaps), func(i int) orb.Point { return s.a.Gaps[i].Deepest })
+		s.deepOut = s.points(s.kept(len(s.a.Gaps)), func(i int) orb.Point { return s.a.Gaps[i].Deepest })
 		if p := s.a.Persistence; p != nil {
-			s.closeOut = s.points(len(p.Holes), func(i int) orb.Point { return p.Holes[i].DeathPoint })
+			s.closeOut = s.points(s.kept(len(p.Holes)), func(i int) orb.Point { return p.Holes[i].DeathPoint })
 		}
 	})
 }
@@ -157,28 +164,9 @@ func (s *scene) points(n int, at func(int) orb.Point) []Point {
 // farthestOut, deepestOut and closingOut return the converted farthest
 // point of service area i (index into s.cells), deepest point of gap i
 // and closing point of hole i.
-// A capped scene converts each listed point alone (the same conversion).
-func (s *scene) farthestOut(i int) Point {
-	if s.capped {
-		return s.point(s.cells[i].FarthestPoint)
-	}
-	s.convertKeyPoints()
-	return s.farOut[i]
-}
-func (s *scene) deepestOut(i int) Point {
-	if s.capped {
-		return s.point(s.a.Gaps[i].Deepest)
-	}
-	s.convertKeyPoints()
-	return s.deepOut[i]
-}
-func (s *scene) closingOut(i int) Point {
-	if s.capped {
-		return s.point(s.a.Persistence.Holes[i].DeathPoint)
-	}
-	s.convertKeyPoints()
-	return s.closeOut[i]
-}
+func (s *scene) farthestOut(i int) Point { s.convertKeyPoints(); return s.farOut[i] }
+func (s *scene) deepestOut(i int) Point  { s.convertKeyPoints(); return s.deepOut[i] }
+func (s *scene) closingOut(i int) Point  { s.convertKeyPoints(); return s.closeOut[i] }
 
 // round rounds v to d decimals (half away from zero). Values too large to
 // scale are returned unchanged.

@@ -580,13 +580,14 @@ func gapKind(g coverage.Gap) string {
 // joined, or "". The marks are computed once for all holes, with one
 // index over the area's edges.
 func (s *scene) holeNote(i int) string {
-	if s.capped { // a few listed holes: each alone
-		return holeNoteOf(&s.a.Persistence.Holes[i], briefHoleFraction*s.a.Range, s.siteAreaIndex())
-	}
 	s.notesOnce.Do(func() {
 		holes := s.a.Persistence.Holes
+		holes = holes[:s.kept(len(holes))]
 		tol := briefHoleFraction * s.a.Range
-		ix := s.siteAreaIndex()
+		var ix *planar.RegionIndex
+		if s.l.Area != nil && len(holes) > 0 {
+			ix = s.l.Area.Index()
+		}
 		s.holeNotes = make([]string, len(holes))
 		planar.ParallelChunks(len(holes), 1<<14, 0, func(_, lo, hi int) {
 			for k := lo; k < hi; k++ {
@@ -595,17 +596,6 @@ func (s *scene) holeNote(i int) string {
 		})
 	})
 	return s.holeNotes[i]
-}
-
-// siteAreaIndex returns the point-location index of the site area, built
-// once, or nil when the layout has no area.
-func (s *scene) siteAreaIndex() *planar.RegionIndex {
-	s.siteIxOnce.Do(func() {
-		if s.l.Area != nil {
-			s.siteIx = s.l.Area.Index()
-		}
-	})
-	return s.siteIx
 }
 
 // holeNoteOf is the note of one hole (holeNote): its closing point
