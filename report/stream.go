@@ -366,19 +366,6 @@ func metricFields(fields []gpkg.Field) []int {
 	return out
 }
 
-// roundMetric rounds v to metricDecimals decimals, half away from zero
-// (values beyond 1e12 are kept: their ulp is near the rounding step).
-func roundMetric(v float64) float64 {
-	if !(math.Abs(v) < 1e12) {
-		return v
-	}
-	r := math.Round(v*1e6) / 1e6
-	if r == 0 {
-		return 0 // no negative zero
-	}
-	return r
-}
-
 // tableName returns the GeoPackage table of a GeoJSON layer file name.
 func tableName(file string) string {
 	return strings.ReplaceAll(strings.TrimSuffix(file, ".geojson"), "-", "_")
@@ -470,7 +457,7 @@ func (s *scene) writeLayer(out io.Writer, d *layerDef, g *gpkgSet) error {
 	err := d.each(func(geom orb.Geometry, vals ...value) error {
 		for _, k := range metric {
 			if k < len(vals) && vals[k].kind == realValue {
-				vals[k].f = roundMetric(vals[k].f)
+				vals[k].f = round(vals[k].f, metricDecimals)
 			}
 		}
 		if err := gj.feature(geom, d.fields, vals); err != nil {

@@ -131,8 +131,8 @@ func TestStoreStreamSizes(t *testing.T) {
 }
 
 // TestMetricRounding checks which layer fields are lengths or areas and
-// their rounding to metricDecimals decimals (half away from zero, no
-// negative zero, huge values kept).
+// their rounding to metricDecimals decimals by round (half away from
+// zero, no negative zero, large values kept).
 func TestMetricRounding(t *testing.T) {
 	fields := fieldList("site", gpkg.Integer, "birth_m", gpkg.Real, "area_m2", gpkg.Real, "share", gpkg.Real,
 		"name_m", gpkg.Text, "farthest_x", gpkg.Real)
@@ -152,9 +152,9 @@ func TestMetricRounding(t *testing.T) {
 		{"huge", 3e15 + 0.5, 3e15 + 0.5},
 	} {
 		t.Run(tc.name, func(t *testing.T) {
-			got := roundMetric(tc.in)
+			got := round(tc.in, metricDecimals)
 			if got != tc.out || math.Signbit(got) != math.Signbit(tc.out) {
-				t.Errorf("roundMetric(%v) = %v, want %v", tc.in, got, tc.out)
+				t.Errorf("round(%v, metricDecimals) = %v, want %v", tc.in, got, tc.out)
 			}
 		})
 	}
