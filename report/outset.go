@@ -33,8 +33,6 @@
 package report
 
 import (
-	"crypto/sha256"
-	"encoding/hex"
 	"encoding/json"
 	"errors"
 	"fmt"
@@ -136,7 +134,7 @@ func CheckOutputFolder(dir string, names []string, m Meta) error {
 	if fi, err := os.Stat(dir); err == nil && !fi.IsDir() {
 		return fmt.Errorf("output folder %s: exists and is not a folder", dir)
 	}
-	inputs := []string{m.SitesFile, m.AreaFile, m.ExcludeFile, m.CandidatesFile, m.PointsFile}
+	inputs := []string{m.SitesFile, m.AreaFile, m.ExcludeFile, m.CandidatesFile, m.PointsFile, m.RangeTableFile, m.ContextFile}
 	for _, name := range names {
 		out := filepath.Join(dir, name)
 		for _, in := range inputs {
@@ -466,13 +464,14 @@ func syncFolder(dir string) error {
 	return nil
 }
 
-// inputEntries lists the input files of m with their sizes and checksums;
-// an input that cannot be read (gone since it was loaded) is listed
-// without a checksum.
+// inputEntries lists the inputs of m by role, each with the checksum the
+// run took as it read it (m.InputSums): the data the run used, even if a
+// file has changed since. An input without one is listed without it.
 func inputEntries(m Meta) []ManifestEntry {
 	roles := []struct{ role, path string }{
 		{"sites", m.SitesFile}, {"area", m.AreaFile}, {"exclude", m.ExcludeFile},
 		{"candidates", m.CandidatesFile}, {"points", m.PointsFile},
+		{"range-table", m.RangeTableFile}, {"context", m.ContextFile},
 	}
 	var out []ManifestEntry
 	for _, r := range roles {
@@ -480,12 +479,8 @@ func inputEntries(m Meta) []ManifestEntry {
 			continue
 		}
 		e := ManifestEntry{Role: r.role, Path: r.path}
-		if f, err := os.Open(r.path); err == nil {
-			h := sha256.New()
-			if n, err := io.Copy(h, f); err == nil {
-				e.Bytes, e.SHA256 = n, hex.EncodeToString(h.Sum(nil))
-			}
-			f.Close()
+		if sum, ok := m.InputSums[r.path]; ok {
+			e.Bytes, e.SHA256 = sum.Bytes, sum.SHA256
 		}
 		out = append(out, e)
 	}

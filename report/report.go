@@ -52,6 +52,16 @@ type Meta struct {
 	// (candidate spots, demand points; "" when not given). Outputs never
 	// overwrite them either.
 	CandidatesFile, PointsFile string
+	// RangeTableFile is the table of ranges per device type
+	// (--range-table; "" when not given). Outputs never overwrite it.
+	RangeTableFile string
+	// ContextFile is the drawing-only layer (--context; "" when not
+	// given). Outputs never overwrite it.
+	ContextFile string
+	// InputSums holds, by path, the size and SHA-256 checksum of each
+	// input's bytes as the run read them; manifest.json lists them. An
+	// input without one is listed without a checksum.
+	InputSums map[string]siteinput.Checksum
 	// SiteNames holds a name per input site index ("" for none). It may be
 	// shorter than the site list.
 	SiteNames []string

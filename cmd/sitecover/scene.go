@@ -76,6 +76,13 @@ func loadScene(in siteinput.Inputs) (*scene, error) {
 	if in.Points != nil {
 		m.PointsFile = in.Points.Name
 	}
+	if in.Context != nil {
+		m.ContextFile = in.Context.Name
+	}
+	m.InputSums = inputSums(in)
+	if tr := in.TypeRanges; tr != nil && tr.Sum.SHA256 != "" {
+		m.RangeTableFile = tr.Source
+	}
 	m.SiteNames = s.Names
 	m.SiteAttributes = s.Attributes
 	m.OutCRS = s.OutCRS
@@ -117,4 +124,19 @@ func degrees(v float64, pos, neg string, d int) string {
 		h, v = neg, -v
 	}
 	return fmt.Sprintf("%.*f°%s", d, v, h)
+}
+
+// inputSums returns, by name, the checksums of the inputs read from files
+// (siteinput.ReadFile, ReadRangeTable) for the run's manifest.
+func inputSums(in siteinput.Inputs) map[string]siteinput.Checksum {
+	sums := make(map[string]siteinput.Checksum)
+	for _, s := range []*siteinput.Source{&in.Sites, in.Area, in.Exclude, in.Candidates, in.Points, in.Context} {
+		if s != nil && s.Sum.SHA256 != "" {
+			sums[s.Name] = s.Sum
+		}
+	}
+	if tr := in.TypeRanges; tr != nil && tr.Sum.SHA256 != "" {
+		sums[tr.Source] = tr.Sum
+	}
+	return sums
 }

@@ -48,6 +48,9 @@ type TypeRanges struct {
 	// Source names where the table came from in messages: "--type-range"
 	// or the table file's name.
 	Source string
+	// Sum identifies the table file's bytes as read (zero for
+	// --type-range).
+	Sum Checksum
 }
 
 // typeKey is the table key of a device type: trimmed, lower case.
@@ -165,11 +168,16 @@ func ReadRangeTable(path, flag string) (*TypeRanges, error) {
 	if err != nil {
 		return nil, errorf("%s: cannot read: %v", path, unwrapPathErr(err))
 	}
+	sum := ChecksumOf(b)
 	b = bytes.TrimPrefix(b, []byte("\xef\xbb\xbf"))
 	if len(bytes.TrimSpace(b)) == 0 {
 		return nil, errorf("%s: file is empty", path)
 	}
-	return LoadRangeTable(Source{Name: path, Data: b})
+	tr, err := LoadRangeTable(Source{Name: path, Data: b})
+	if tr != nil {
+		tr.Sum = sum
+	}
+	return tr, err
 }
 
 // jsonLength renders a GeoJSON "range" property as a length text: a number

@@ -5,8 +5,11 @@ package siteinput
 
 import (
 	"bytes"
+	"crypto/sha256"
+	"encoding/hex"
 	"errors"
 	"fmt"
+	"io"
 	"io/fs"
 	"os"
 	"path/filepath"
@@ -24,6 +27,38 @@ type Source struct {
 	// says its coordinates are local (the undefined Cartesian system,
 	// srs_id −1): such an input is read only with Inputs.Planar.
 	LocalLayer string
+	// Sum identifies the file's bytes as ReadFile read them (before a byte
+	// order mark is dropped), so that a run's record names the data it
+	// used even if the file changes while it runs; zero for data not read
+	// from a file.
+	Sum Checksum
+}
+
+// Checksum identifies the bytes of an input file: their number and their
+// SHA-256 digest (FIPS 180-4) in lower-case hexadecimal, as sha256sum
+// prints it.
+type Checksum struct {
+	Bytes  int64
+	SHA256 string
+}
+
+// ChecksumOf returns the checksum of b. It takes O(len(b)) time.
+func ChecksumOf(b []byte) Checksum {
+	d := sha256.Sum256(b)
+	return Checksum{Bytes: int64(len(b)), SHA256: hex.EncodeToString(d[:])}
+}
+
+// checksumFile returns the checksum of f's bytes from its start.
+func checksumFile(f *os.File) (Checksum, error) {
+	if _, err := f.Seek(0, io.SeekStart); err != nil {
+		return Checksum{}, err
+	}
+	h := sha256.New()
+	n, err := io.Copy(h, f)
+	if err != nil {
+		return Checksum{}, err
+	}
+	return Checksum{Bytes: n, SHA256: hex.EncodeToString(h.Sum(nil))}, nil
 }
 
 // Error is a problem with the input data: a file that is missing,
@@ -70,11 +105,17 @@ func ReadFile(path, flag string) (Source, error) {
 	}
 	defer f.Close()
 	if fi.Mode().IsRegular() && isGeoPackage(f) { // a pipe cannot be rewound
+		// The database is read through its own handle; its checksum is
+		// taken just before.
+		sum, err := checksumFile(f)
+		if err != nil {
+			return Source{}, errorf("%s: cannot read: %v", path, unwrapPathErr(err))
+		}
 		b, local, err := geoPackageAsGeoJSON(path, flag)
 		if err != nil {
 			return Source{}, err
 		}
-		return Source{Name: path, Data: b, LocalLayer: local}, nil
+		return Source{Name: path, Data: b, LocalLayer: local, Sum: sum}, nil
 	}
 	size := int64(earlyCheckBytes)
 	if fi.Mode().IsRegular() {
@@ -84,11 +125,12 @@ func ReadFile(path, flag string) (Source, error) {
 	if err != nil {
 		return Source{}, err
 	}
+	sum := ChecksumOf(b)
 	b = bytes.TrimPrefix(b, []byte("\xef\xbb\xbf")) // UTF-8 byte order mark
 	if len(bytes.TrimSpace(b)) == 0 {
 		return Source{}, errorf("%s: file is empty", path)
 	}
-	return Source{Name: path, Data: b}, nil
+	return Source{Name: path, Data: b, Sum: sum}, nil
 }
 
 // unwrapPathErr drops the operation and path of an *fs.PathError, which
