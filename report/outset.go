@@ -111,10 +111,12 @@ var errAborted = errors.New("interrupted")
 
 // outputSet is one report folder being replaced.
 type outputSet struct {
-	dir   string   // the output folder
-	stage string   // the staging folder beside it
-	lock  *os.File // the output folder, opened and locked
-	slock *os.File // the staging folder, opened and locked
+	dir     string   // the output folder
+	stage   string   // the staging folder beside it
+	lock    *os.File // the output folder, opened and locked
+	slock   *os.File // the staging folder, opened and locked
+	created bool     // dir did not exist before this run created it
+	swapped bool     // the new set is in dir
 }
 
 // CheckOutputFolder reports, writing nothing that stays, whether a report
@@ -278,6 +280,8 @@ func openOutputSet(dir string, names []string, m Meta) (*outputSet, error) {
 	if err := CheckOutputFolder(dir, names, m); err != nil {
 		return nil, err
 	}
+	_, statErr := os.Stat(dir)
+	created := errors.Is(statErr, os.ErrNotExist)
 	if err := os.MkdirAll(dir, 0o755); err != nil {
 		return nil, fmt.Errorf("output folder %s: cannot create it: %v", dir, unwrapPath(err))
 	}
@@ -311,7 +315,7 @@ func openOutputSet(dir string, names []string, m Meta) (*outputSet, error) {
 		lock.Close()
 		return nil, err
 	}
-	o := &outputSet{dir: abs, stage: stage, lock: lock, slock: slock}
+	o := &outputSet{dir: abs, stage: stage, lock: lock, slock: slock, created: created}
 	active.sets[o] = true
 	return o, nil
 }
@@ -393,6 +397,7 @@ func (o *outputSet) commit(man *Manifest) error {
 		o.discard()
 		return fmt.Errorf("output folder %s: cannot replace it: %v", o.dir, err)
 	}
+	o.swapped = true
 	// o.stage now holds the previous set: keep what was not part of it.
 	prevNames := map[string]bool{FileManifest: true}
 	if prev, err := readManifest(o.stage); err == nil {
@@ -427,7 +432,10 @@ func (o *outputSet) abort() {
 // discard removes the staging folder and releases both locks. The folder is
 // first renamed, so that writers still running (an abort from a signal
 // handler does not wait for them) can no longer create files in it, and the
-// removal is retried for a file created just before the rename.
+// removal is retried for a file created just before the rename. An output
+// folder this run created and never filled is removed too (only if still
+// empty), while it is locked: a run stopped before its swap leaves no
+// folder where there was none.
 func (o *outputSet) discard() {
 	gone := o.stage + "-discarded"
 	if os.Rename(o.stage, gone) != nil {
@@ -437,6 +445,9 @@ func (o *outputSet) discard() {
 		if os.RemoveAll(gone) == nil {
 			break
 		}
+	}
+	if o.created && !o.swapped {
+		os.Remove(o.dir)
 	}
 	o.slock.Close()
 	o.lock.Close()

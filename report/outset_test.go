@@ -157,6 +157,48 @@ func TestAbortWrites(t *testing.T) {
 	if got := listDir(t, dir); len(got) != 0 {
 		t.Errorf("folder holds %v after an aborted write", got)
 	}
+	if _, err := os.Stat(dir); !errors.Is(err, os.ErrNotExist) {
+		t.Errorf("output folder the aborted run created is still there: %v", err)
+	}
+}
+
+// An aborted write removes the output folder only if it created it: a
+// folder that was there, empty or holding a report, stays.
+func TestAbortKeepsExistingFolder(t *testing.T) {
+	for _, c := range []struct {
+		name  string
+		files map[string]string // written first; nil: the folder is made empty
+		want  string
+	}{
+		{"new", nil, ""},
+		{"existing empty", map[string]string{}, ""},
+		{"earlier report", map[string]string{FileReport: "r"}, "manifest.json,report.txt"},
+	} {
+		t.Run(c.name, func(t *testing.T) {
+			dir := filepath.Join(t.TempDir(), "out")
+			switch {
+			case c.files == nil:
+			case len(c.files) == 0:
+				os.Mkdir(dir, 0o755)
+			default:
+				if err := writeSet(t, dir, c.files, ""); err != nil {
+					t.Fatal(err)
+				}
+			}
+			w, err := newWriter(dir, []string{FileReport}, Meta{}, nil)
+			if err != nil {
+				t.Fatal(err)
+			}
+			w.set.abort()
+			_, err = os.Stat(dir)
+			if exists := err == nil; exists != (c.files != nil) {
+				t.Errorf("folder exists = %v after the abort, want %v", exists, c.files != nil)
+			}
+			if got := strings.Join(listDir(t, dir), ","); got != c.want {
+				t.Errorf("folder holds %q, want %q", got, c.want)
+			}
+		})
+	}
 }
 
 // A staging folder left by a killed run (no process holds its lock) is
