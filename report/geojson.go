@@ -514,24 +514,16 @@ func (s *scene) gapFields() []gpkg.Field {
 func (s *scene) gapLayer(gaps []coverage.Gap, r float64, deepest func(i int) Point) *layerDef {
 	return &layerDef{geom: gpkg.MultiPolygon, fields: s.gapFields(),
 		each: func(emit emitFunc) error {
-			var buf polyBuf
 			vals := make([]value, 8)     // reused: emit encodes a feature before it returns
 			mpv := new(orb.MultiPolygon) // reused likewise (emitFunc)
-			for gi := range gaps {
+			return s.gapOutlines(gaps, func(gi int, mp orb.MultiPolygon) error {
 				g := &gaps[gi]
-				mp := s.conservativeInto(&buf, g.Outline, 1)
-				if len(mp) == 0 {
-					continue
-				}
 				d := deepest(gi)
 				vals[0], vals[1], vals[2], vals[3], vals[4] = vInt(g.ID), vReal(g.Area), vReal(g.ClosingRange), vReal(d[0]), vReal(d[1])
 				vals[5], vals[6], vals[7] = vBool(g.TouchesBoundary), vInts(g.Sites), vReal(r)
 				*mpv = mp
-				if err := emit(mpv, vals...); err != nil {
-					return err
-				}
-			}
-			return nil
+				return emit(mpv, vals...)
+			})
 		}}
 }
 
