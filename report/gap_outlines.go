@@ -80,7 +80,7 @@ func (s *scene) gapOutlinesWith(helpers int, gaps []coverage.Gap, f func(gi int,
 				mps := make([]orb.MultiPolygon, hi-lo)
 				for gi := lo; gi < hi; gi++ {
 					if mp := s.conservativeInto(&buf, gaps[gi].Outline, 1); len(mp) > 0 {
-						mps[gi-lo] = cloneMultiPolygon(mp)
+						mps[gi-lo] = mp.Clone() // mp lives in buf
 					}
 				}
 				batches[b].mps = mps
@@ -106,29 +106,4 @@ func (s *scene) gapOutlinesWith(helpers int, gaps []coverage.Gap, f func(gi int,
 		<-slots
 	}
 	return nil
-}
-
-// cloneMultiPolygon copies mp into memory of its own: one array of
-// points, one of rings and one of polygons.
-func cloneMultiPolygon(mp orb.MultiPolygon) orb.MultiPolygon {
-	np, nr := 0, 0
-	for _, p := range mp {
-		nr += len(p)
-		for _, r := range p {
-			np += len(r)
-		}
-	}
-	pts := make([]orb.Point, 0, np)
-	rings := make([]orb.Ring, 0, nr)
-	out := make(orb.MultiPolygon, 0, len(mp))
-	for _, p := range mp {
-		r0 := len(rings)
-		for _, r := range p {
-			k := len(pts)
-			pts = append(pts, r...)
-			rings = append(rings, pts[k:len(pts):len(pts)])
-		}
-		out = append(out, orb.Polygon(rings[r0:len(rings):len(rings)]))
-	}
-	return out
 }
