@@ -111,12 +111,14 @@ var errAborted = errors.New("interrupted")
 
 // outputSet is one report folder being replaced.
 type outputSet struct {
-	dir     string   // the output folder
-	stage   string   // the staging folder beside it
-	lock    *os.File // the output folder, opened and locked
-	slock   *os.File // the staging folder, opened and locked
-	created bool     // dir did not exist before this run created it
-	swapped bool     // the new set is in dir
+	dir   string   // the output folder
+	stage string   // the staging folder beside it
+	lock  *os.File // the output folder, opened and locked
+	slock *os.File // the staging folder, opened and locked
+	// created is the outermost folder of dir's path that this run
+	// created (dir itself or a parent), "" when dir existed or once the
+	// new set is in it.
+	created string
 }
 
 // CheckOutputFolder reports, writing nothing that stays, whether a report
@@ -280,8 +282,7 @@ func openOutputSet(dir string, names []string, m Meta) (*outputSet, error) {
 	if err := CheckOutputFolder(dir, names, m); err != nil {
 		return nil, err
 	}
-	_, statErr := os.Stat(dir)
-	created := errors.Is(statErr, os.ErrNotExist)
+	created := outermostMissing(dir)
 	if err := os.MkdirAll(dir, 0o755); err != nil {
 		return nil, fmt.Errorf("output folder %s: cannot create it: %v", dir, unwrapPath(err))
 	}
@@ -315,9 +316,30 @@ func openOutputSet(dir string, names []string, m Meta) (*outputSet, error) {
 		lock.Close()
 		return nil, err
 	}
+	if created != "" {
+		created, _ = filepath.Abs(created)
+	}
 	o := &outputSet{dir: abs, stage: stage, lock: lock, slock: slock, created: created}
 	active.sets[o] = true
 	return o, nil
+}
+
+// outermostMissing returns the outermost folder of dir's path that does
+// not exist, the first that os.MkdirAll(dir) creates; "" when dir exists
+// (or cannot be examined).
+func outermostMissing(dir string) string {
+	top := ""
+	for d := filepath.Clean(dir); ; {
+		if _, err := os.Stat(d); !errors.Is(err, os.ErrNotExist) {
+			return top
+		}
+		top = d
+		up := filepath.Dir(d)
+		if up == d {
+			return top
+		}
+		d = up
+	}
 }
 
 // clearStale removes the staging folders of earlier runs on dir (named
@@ -397,7 +419,7 @@ func (o *outputSet) commit(man *Manifest) error {
 		o.discard()
 		return fmt.Errorf("output folder %s: cannot replace it: %v", o.dir, err)
 	}
-	o.swapped = true
+	o.created = "" // dir holds the new set
 	// o.stage now holds the previous set: keep what was not part of it.
 	prevNames := map[string]bool{FileManifest: true}
 	if prev, err := readManifest(o.stage); err == nil {
@@ -432,10 +454,11 @@ func (o *outputSet) abort() {
 // discard removes the staging folder and releases both locks. The folder is
 // first renamed, so that writers still running (an abort from a signal
 // handler does not wait for them) can no longer create files in it, and the
-// removal is retried for a file created just before the rename. An output
-// folder this run created and never filled is removed too (only if still
-// empty), while it is locked: a run stopped before its swap leaves no
-// folder where there was none.
+// removal is retried for a file created just before the rename. The
+// folders this run created for the output folder (o.created and those
+// inside it) are removed too, each only if empty, while the output folder
+// is locked: a run stopped before its swap leaves no folder where there
+// was none.
 func (o *outputSet) discard() {
 	gone := o.stage + "-discarded"
 	if os.Rename(o.stage, gone) != nil {
@@ -446,8 +469,10 @@ func (o *outputSet) discard() {
 			break
 		}
 	}
-	if o.created && !o.swapped {
-		os.Remove(o.dir)
+	for d := o.dir; o.created != ""; d = filepath.Dir(d) {
+		if os.Remove(d) != nil || d == o.created {
+			break
+		}
 	}
 	o.slock.Close()
 	o.lock.Close()

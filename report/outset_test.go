@@ -167,7 +167,7 @@ func TestAbortWrites(t *testing.T) {
 func TestAbortKeepsExistingFolder(t *testing.T) {
 	for _, c := range []struct {
 		name  string
-		files map[string]string // written first; nil: the folder is made empty
+		files map[string]string // written first; nil: no folder; empty: an empty folder
 		want  string
 	}{
 		{"new", nil, ""},
@@ -198,6 +198,25 @@ func TestAbortKeepsExistingFolder(t *testing.T) {
 				t.Errorf("folder holds %q, want %q", got, c.want)
 			}
 		})
+	}
+}
+
+// An aborted write into a folder whose parents it had to create removes
+// those too (the planning commands' default --out is
+// sitecover-report/<command>), and nothing above them.
+func TestAbortRemovesCreatedParents(t *testing.T) {
+	top := t.TempDir()
+	dir := filepath.Join(top, "report", "failures")
+	w, err := newWriter(dir, []string{FileReport}, Meta{}, nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	w.set.abort()
+	if got := listDir(t, top); len(got) != 0 {
+		t.Errorf("%s holds %v after the abort, want nothing", top, got)
+	}
+	if _, err := os.Stat(top); err != nil {
+		t.Errorf("the folder above the created ones is gone: %v", err)
 	}
 }
 
