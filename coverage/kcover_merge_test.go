@@ -36,6 +36,7 @@ import (
 	"time"
 
 	"github.com/paulmach/orb"
+	orbplanar "github.com/paulmach/orb/planar"
 	"github.com/sitecover/sitecover/planar"
 	"github.com/sitecover/sitecover/planar/sitegen"
 )
@@ -49,15 +50,7 @@ const kMergeRefAreaRel = 1e-9
 // (see the file comment): the larger of kMergeRefAreaRel of its area and
 // 2·s·P for snap step s and perimeter P.
 func kMergeAreaTol(mp orb.MultiPolygon, m float64) float64 {
-	per := 0.0
-	for _, pg := range mp {
-		for _, r := range pg {
-			for i := 1; i < len(r); i++ {
-				per += math.Hypot(r[i][0]-r[i-1][0], r[i][1]-r[i-1][1])
-			}
-		}
-	}
-	return max(kMergeRefAreaRel*math.Abs(coveredPolyArea(mp)), 2*kgSnapStep(m)*per)
+	return max(kMergeRefAreaRel*math.Abs(coveredPolyArea(mp)), 2*kgSnapStep(m)*orbplanar.Length(mp))
 }
 
 // kMergeRefEdge is the distance from an edge, relative to the coordinate
