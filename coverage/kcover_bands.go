@@ -184,7 +184,7 @@ func kbBand(kc *KCoverage, j int, orMore bool, area float64, outline orb.MultiPo
 // repair are left out (kgUnionSimple).
 func kbUnion(mp, site orb.MultiPolygon) (orb.MultiPolygon, error) {
 	u, err := kbOverlay(func(a, _ orb.MultiPolygon) (orb.MultiPolygon, error) {
-		u, _, _, err := kgUnionSimple(a)
+		u, _, err := kgUnionSimple(a)
 		return u, err
 	}, mp, nil)
 	if err != nil {

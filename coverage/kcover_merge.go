@@ -11,6 +11,7 @@ package coverage
 
 import (
 	"math"
+	"slices"
 
 	"github.com/paulmach/orb"
 	"github.com/sitecover/sitecover/planar"
@@ -51,7 +52,7 @@ func kgMergeOutlines(gs []KGap) {
 		}
 	}
 	alone := make([]bool, len(gs)) // merged on its own
-	merged, _, bad, err := kgUnionSimple(in)
+	merged, bad, err := kgUnionSimple(in)
 	if err != nil {
 		merged = nil
 		for _, gi := range multi {
@@ -201,8 +202,17 @@ func kgMergeOutline(parts orb.MultiPolygon) (orb.MultiPolygon, int) {
 			src = append(src, i)
 		}
 	}
-	merged, in, bad, err := kgUnionSimple(in)
-	if err != nil || !kgSameArea(in, merged) {
+	merged, bad, err := kgUnionSimple(in)
+	// The area is that of the parts as they were, not as kgSplitPolygon
+	// repaired them (as in kgMergeOutlines): a repair that changed the
+	// area keeps the parts.
+	kept := make(orb.MultiPolygon, 0, len(in))
+	for j, pg := range in {
+		if !slices.Contains(bad, j) {
+			kept = append(kept, pg)
+		}
+	}
+	if err != nil || !kgSameArea(kept, merged) {
 		return parts, len(parts)
 	}
 	var refused orb.MultiPolygon
@@ -212,14 +222,15 @@ func kgMergeOutline(parts orb.MultiPolygon) (orb.MultiPolygon, int) {
 	return append(kgDropSliverHoles(merged), refused...), len(refused)
 }
 
-// kgUnionSimple returns the union of the polygons of mp (planar.Union),
-// the polygons it took and the indices of those it left out: when the
-// union refuses mp, each polygon is tried alone (one union each) and those
-// refused (non-simple rings) are left out.
-func kgUnionSimple(mp orb.MultiPolygon) (orb.MultiPolygon, orb.MultiPolygon, []int, error) {
+// kgUnionSimple returns the union of the polygons of mp (planar.Union)
+// and the indices of those it left out: when the union refuses mp, each
+// polygon is tried alone (one union each), one that is refused is tried
+// repaired (kgSplitPolygon), and those still refused (non-simple rings)
+// are left out.
+func kgUnionSimple(mp orb.MultiPolygon) (orb.MultiPolygon, []int, error) {
 	u, err := planar.Union(mp)
 	if err == nil {
-		return u, mp, nil, nil
+		return u, nil, nil
 	}
 	good := mp[:0:0]
 	var bad []int
@@ -237,32 +248,61 @@ func kgUnionSimple(mp orb.MultiPolygon) (orb.MultiPolygon, orb.MultiPolygon, []i
 		bad = append(bad, j)
 	}
 	u, err = planar.Union(good)
-	return u, good, bad, err
+	return u, bad, err
 }
 
 // kgSplitPolygon repairs a part polygon whose exterior crosses or touches
 // itself (a chord of a thin part crossing a ring edge within the sagitta):
 // the exterior is split at its self-meetings into simple loops
-// (kgSplitRing); the counter-clockwise loops are the part, a clockwise one
-// is a twisted lobe (a sliver between the chord and the edge, outside the
-// part) and is dropped; the holes go with the loop holding their first
-// vertex. Nil when no loop remains.
+// (kgSplitRing); the counter-clockwise loops are the part; a clockwise
+// loop inside one of them is a hole pinched to the exterior at the
+// meeting point and goes with it, a clockwise loop outside them is a
+// twisted lobe (a sliver between the chord and the edge, outside the
+// part) and is dropped; the holes go with the loop holding them. Nil when
+// no loop remains or a hole lies in none (a hole crossing the exterior):
+// the repair would change the part's area.
 func kgSplitPolygon(pg orb.Polygon) orb.MultiPolygon {
 	var out orb.MultiPolygon
+	var cw []orb.Ring
 	for _, lp := range kgSplitRing(pg[0], 0) {
-		if planar.RingArea(planar.FlatRing(lp)) > 0 {
+		if a := planar.RingArea(planar.FlatRing(lp)); a > 0 {
 			out = append(out, orb.Polygon{lp})
+		} else if a < 0 {
+			cw = append(cw, lp)
+		}
+	}
+	for _, h := range cw {
+		if i := kgLoopHolding(out, h); i >= 0 {
+			out[i] = append(out[i], h)
 		}
 	}
 	for _, h := range pg[1:] {
-		for i := range out {
-			if planar.PointInRing(planar.FlatRing(out[i][0]), h[0][0], h[0][1]) > 0 {
-				out[i] = append(out[i], h)
+		i := kgLoopHolding(out, h)
+		if i < 0 {
+			return nil
+		}
+		out[i] = append(out[i], h)
+	}
+	return out
+}
+
+// kgLoopHolding returns the index of the polygon of mp whose exterior
+// holds ring h (its first vertex strictly inside or outside the exterior
+// decides; h touches the exterior at a meeting point at most), −1 when
+// none does.
+func kgLoopHolding(mp orb.MultiPolygon, h orb.Ring) int {
+	for i, pg := range mp {
+		ext := planar.FlatRing(pg[0])
+		for _, p := range h {
+			if side := planar.PointInRing(ext, p[0], p[1]); side != 0 {
+				if side > 0 {
+					return i
+				}
 				break
 			}
 		}
 	}
-	return out
+	return -1
 }
 
 // kgSplitMaxDepth caps the recursion of kgSplitRing (each level removes
